@@ -1,0 +1,49 @@
+// Builds the production app once and serves it with `vite preview` on 127.0.0.1 for every e2e file.
+import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import type { TestProject } from 'vitest/node';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseURL: string;
+  }
+}
+
+const PORT = Number(process.env.E2E_PORT ?? 4319);
+
+async function waitForServer(url: string, timeoutMs: number): Promise<void> {
+  const start = Date.now();
+  for (;;) {
+    try {
+      const res = await fetch(url);
+      if (res.ok) return;
+    } catch {
+      /* not up yet */
+    }
+    if (Date.now() - start > timeoutMs) throw new Error(`e2e: preview server did not answer at ${url}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+let server: ChildProcess | undefined;
+
+export default async function setup(project: TestProject) {
+  if (!process.env.E2E_SKIP_BUILD) {
+    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
+  }
+  server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(PORT), '--strictPort'], {
+    detached: true,
+    stdio: 'ignore',
+  });
+  const baseURL = `http://127.0.0.1:${PORT}/`;
+  await waitForServer(baseURL, 30_000);
+  project.provide('baseURL', baseURL);
+  return () => {
+    if (server?.pid) {
+      try {
+        process.kill(-server.pid, 'SIGTERM');
+      } catch {
+        /* already gone */
+      }
+    }
+  };
+}

@@ -1,0 +1,80 @@
+// Shared helpers for end-to-end tests: Debian chromium via playwright-core, a fresh profile per
+// launch, a guard that records every request leaving 127.0.0.1 and every console error.
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { mkdtempSync, mkdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export const SCREEN_DIR = join(process.cwd(), 'test-output', 'screens');
+mkdirSync(SCREEN_DIR, { recursive: true });
+
+export interface Session {
+  context: BrowserContext;
+  page: Page;
+  /** URLs of requests that tried to leave 127.0.0.1 (must stay empty). */
+  offHost: string[];
+  /** Console errors and uncaught page errors (must stay empty). */
+  errors: string[];
+  /** Open a further tab in the same profile, with the same guards. */
+  newPage(): Promise<Page>;
+  close(): Promise<void>;
+}
+
+function isLocal(url: string): boolean {
+  if (url.startsWith('data:') || url.startsWith('blob:') || url.startsWith('about:')) return true;
+  try {
+    const u = new URL(url);
+    return u.hostname === '127.0.0.1';
+  } catch {
+    return false;
+  }
+}
+
+export async function launch(opts: { profileDir?: string; keepProfile?: boolean } = {}): Promise<Session> {
+  const dir = opts.profileDir ?? mkdtempSync(join(tmpdir(), 'blendbench-profile-'));
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1400, height: 900 },
+    acceptDownloads: true,
+    args: [
+      '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+      '--disable-background-networking', '--disable-component-update', '--disable-sync',
+    ],
+  });
+  const offHost: string[] = [];
+  const errors: string[] = [];
+  const guard = (page: Page) => {
+    page.on('request', (req) => {
+      if (!isLocal(req.url())) offHost.push(req.url());
+    });
+    page.on('console', (msg) => {
+      if (msg.type() === 'error') errors.push(msg.text());
+    });
+    page.on('pageerror', (err) => errors.push(String(err)));
+  };
+  // Block anything off-host at the network layer too, so a stray request cannot leave the machine.
+  await context.route((url) => !isLocal(url.toString()), (route) => {
+    offHost.push(route.request().url());
+    return route.abort();
+  });
+  context.on('page', guard);
+  const existing = context.pages();
+  for (const p of existing) guard(p);
+  const page = existing[0] ?? (await context.newPage());
+  return {
+    context,
+    page,
+    offHost,
+    errors,
+    newPage: () => context.newPage(),
+    async close() {
+      await context.close();
+      if (!opts.keepProfile && !opts.profileDir) rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function screenshot(page: Page, name: string): Promise<void> {
+  await page.screenshot({ path: join(SCREEN_DIR, `${name}.png`), fullPage: true });
+}

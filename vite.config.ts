@@ -1,0 +1,16 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+
+// Blendbench runs fully offline: no CDN, no web fonts, no runtime requests.
+export default defineConfig({
+  plugins: [react()],
+  base: './',
+  worker: { format: 'es' },
+  build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 900 },
+  test: {
+    include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
+    exclude: ['tests/e2e/**', 'node_modules/**'],
+    environment: 'node',
+    testTimeout: 60_000,
+  },
+});
