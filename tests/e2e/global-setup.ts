@@ -9,6 +9,8 @@ declare module 'vitest' {
 }
 
 const PORT = Number(process.env.E2E_PORT ?? 4319);
+// Each port gets its own build folder so parallel runs (e.g. two developers' checks) do not collide.
+const OUT_DIR = `test-output/dist-${PORT}`;
 
 async function waitForServer(url: string, timeoutMs: number): Promise<void> {
   const start = Date.now();
@@ -28,9 +30,9 @@ let server: ChildProcess | undefined;
 
 export default async function setup(project: TestProject) {
   if (!process.env.E2E_SKIP_BUILD) {
-    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
+    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', OUT_DIR, '--emptyOutDir'], { stdio: 'inherit' });
   }
-  server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(PORT), '--strictPort'], {
+  server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(PORT), '--strictPort', '--outDir', OUT_DIR], {
     detached: true,
     stdio: 'ignore',
   });

@@ -1,0 +1,183 @@
+/**
+ * The Blendbench domain model: components (stocks), recipes, targets.
+ *
+ * Plain data only (JSON-serialisable), so the same objects are stored in IndexedDB, exported as
+ * JSON, sent to a Web Worker and fed to the solver. Units are fixed and stated on every field;
+ * conversions to the user's display units happen at the boundary (`units.ts`).
+ */
+
+/** API base-stock category (API 1509 Appendix E) or a non-base-stock role. */
+export type ComponentCategory =
+  | 'group-i'
+  | 'group-ii'
+  | 'group-iii'
+  | 'group-iv' // PAO
+  | 'group-v' // esters, alkylated naphthalene, alkylbenzene, naphthenics, PAG …
+  | 'polymer' // polyisobutylene, polymethacrylate, olefin copolymer (thickener / VI improver)
+  | 'additive-package';
+
+export const COMPONENT_CATEGORIES: readonly ComponentCategory[] = [
+  'group-i',
+  'group-ii',
+  'group-iii',
+  'group-iv',
+  'group-v',
+  'polymer',
+  'additive-package',
+];
+
+export const CATEGORY_LABEL: Record<ComponentCategory, string> = {
+  'group-i': 'Group I',
+  'group-ii': 'Group II',
+  'group-iii': 'Group III',
+  'group-iv': 'Group IV (PAO)',
+  'group-v': 'Group V',
+  polymer: 'Polymer',
+  'additive-package': 'Additive package',
+};
+
+/** Whether a stock can still be bought. Withdrawn stocks are excluded from every solve. */
+export type Availability = 'available' | 'limited' | 'withdrawn';
+
+/** The basis on which a supplier quotes a price. */
+export type PriceBasis = 'per-kg' | 'per-litre' | 'per-tonne';
+
+export interface Price {
+  /** Amount in `currency` per `basis` unit. */
+  amount: number;
+  basis: PriceBasis;
+  /** A currency code or symbol the user names (e.g. "EUR", "USD"); never converted between currencies. */
+  currency: string;
+}
+
+/** One measured kinematic viscosity (ASTM D445). */
+export interface ViscosityPoint {
+  /** Temperature [°C]. */
+  tempC: number;
+  /** Kinematic viscosity [mm²/s]. */
+  kv: number;
+}
+
+/**
+ * An effective blending viscosity for a non-ideal component (typically a polymer), solved from a
+ * measured trial blend so that the prediction matches the laboratory result. When present, blends
+ * use `effectiveKv40` / `effectiveKv100` in place of the component's own viscosities.
+ */
+export interface Calibration {
+  /** Effective blending viscosity at 40 °C [mm²/s]. */
+  effectiveKv40: number;
+  /** Effective blending viscosity at 100 °C [mm²/s]. */
+  effectiveKv100: number;
+  /** The trial blend the values were solved from (provenance). */
+  trial: {
+    /** Mass fractions of the trial blend, by component id, summing to 1. */
+    massFractions: Record<string, number>;
+    /** Measured ν40 of the trial blend [mm²/s]. */
+    measuredKv40: number;
+    /** Measured ν100 of the trial blend [mm²/s]. */
+    measuredKv100: number;
+    /** Laboratory reference, e.g. sample or report number. */
+    labReference: string;
+  };
+  /** Blending rule the calibration is valid for (the one used to solve it). */
+  method: 'refutas' | 'astm-d7152';
+  /** ISO date (YYYY-MM-DD) the calibration was made. */
+  calibratedOn: string;
+}
+
+/** A blending component: a base stock, a polymer, or an additive package. */
+export interface Component {
+  /** Stable internal identifier (never shown; survives renames and code changes). */
+  id: string;
+  /** The plant's stock code, unique in a library (invented in the demo). */
+  code: string;
+  name: string;
+  category: ComponentCategory;
+  /** Measured viscosities: at least two points at different temperatures, usually 40 and 100 °C. */
+  viscosityPoints: ViscosityPoint[];
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline point, ASTM D611 [°C]; null where not meaningful (additive package). */
+  anilinePoint: number | null;
+  /** Pour point, ASTM D97 [°C]; null if unknown. */
+  pourPoint: number | null;
+  /** Flash point, ASTM D92 open cup [°C]; null if unknown. */
+  flashPoint: number | null;
+  /** Sulfur [mass %]; optional. */
+  sulfurPct: number | null;
+  /** Saturates [mass %]; optional. */
+  saturatesPct: number | null;
+  price: Price;
+  availability: Availability;
+  /**
+   * Oxidation-stability rating override on Blendbench's own ordinal scale (see `oxidation.ts`);
+   * null → the default for the category.
+   */
+  oxidationRating: number | null;
+  /** Expected permanent shear loss of ν100, KRL (ISO 26422 / CEC L-45) [%]; polymers; null → 0. */
+  shearLossPct: number | null;
+  calibration: Calibration | null;
+  /** Where the data come from (datasheet, lab report, "invented demo data"). */
+  source: string;
+  /** ISO date (YYYY-MM-DD) of the data. */
+  sourceDate: string;
+  notes: string;
+}
+
+/** One line of a recipe. */
+export interface RecipeLine {
+  componentId: string;
+  /** Mass fraction, 0–1. A recipe's lines sum to 1. */
+  massFraction: number;
+}
+
+export interface Recipe {
+  id: string;
+  name: string;
+  /** ISO viscosity grade the recipe is made to (e.g. 320). */
+  grade: number;
+  lines: RecipeLine[];
+  /** Revision number, starting at 1, raised on each saved change the plant must know about. */
+  revision: number;
+  /** True for the recipe currently made at the plant (the one a candidate replaces). */
+  isReference: boolean;
+  notes: string;
+  /** ISO date-time of the last change. */
+  updatedAt: string;
+}
+
+/** What the solver optimises. */
+export type Objective = 'cost' | 'solvency' | 'oxidation' | 'closest';
+
+/** Per-component mass-fraction bounds (0–1). */
+export interface FractionBounds {
+  min?: number;
+  max?: number;
+}
+
+/** Targets and constraints for solving a recipe. */
+export interface BlendTargets {
+  /** ISO viscosity grade (ISO 3448 / ASTM D2422). The blend's ν40 always stays inside its band. */
+  grade: number;
+  /** Target ν40 [mm²/s]; null → the grade mid-point. */
+  targetKv40: number | null;
+  /** Half-width of the band around the target [% of target]; clipped to the ISO band. */
+  tolerancePct: number;
+  /** Minimum viscosity index (unrounded, ASTM D2270); null → none. */
+  minVi: number | null;
+  /** Maximum blend aniline point [°C] (solvency floor); null → none. */
+  maxAnilinePoint: number | null;
+  /** Maximum total mass fraction of polymer components (0–1); null → none. */
+  maxPolymerFraction: number | null;
+  /** Maximum pour point estimate [°C]; null → none. */
+  maxPourPoint: number | null;
+  /** Minimum flash point estimate [°C]; null → none. */
+  minFlashPoint: number | null;
+  /** The additive package at a fixed treat rate (mass fraction 0–1); null → none. */
+  additive: { componentId: string; massFraction: number } | null;
+  /** Per-component bounds by component id. */
+  bounds: Record<string, FractionBounds>;
+  objective: Objective;
+  /** Reference recipe for the 'closest' objective and for comparisons; null → none. */
+  referenceRecipeId: string | null;
+}
