@@ -1,0 +1,97 @@
+import { memo } from 'react';
+import { CartesianGrid, Cell, Line, ComposedChart, Scatter, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
+import { CHART_COLOURS } from './palette';
+
+export interface FrontierPoint {
+  id: string;
+  label: string;
+  /** Cost [currency per litre]. */
+  costPerLitre: number;
+  /** Blend aniline point [°C]; lower = more solvent. */
+  anilinePoint: number;
+  role: 'candidate' | 'frontier' | 'reference' | 'selected';
+}
+
+export interface FrontierChartProps {
+  points: readonly FrontierPoint[];
+  currency: string;
+  width: number;
+  height: number;
+  onSelect?: (id: string) => void;
+}
+
+const FILL: Record<FrontierPoint['role'], string> = {
+  candidate: CHART_COLOURS.component,
+  frontier: CHART_COLOURS.frontier,
+  reference: CHART_COLOURS.reference,
+  selected: CHART_COLOURS.candidate,
+};
+
+/**
+ * Cost per litre against blend aniline point for every candidate; the cost–solvency frontier
+ * (no candidate both cheaper and more solvent) is joined by a line.
+ */
+export const FrontierChart = memo(function FrontierChart({ points, currency, width, height, onSelect }: FrontierChartProps) {
+  const data = points.map((p) => ({ ...p, x: p.costPerLitre, y: p.anilinePoint }));
+  const frontier = data.filter((p) => p.role === 'frontier' || (p.role === 'selected' && isOnFrontier(p, data))).sort((a, b) => a.x - b.x);
+  const xs = data.map((p) => p.x);
+  const ys = data.map((p) => p.y);
+  const pad = (lo: number, hi: number) => {
+    const d = Math.max((hi - lo) * 0.08, Math.abs(hi) * 0.01, 0.01);
+    return [lo - d, hi + d] as [number, number];
+  };
+  const xDomain = xs.length ? pad(Math.min(...xs), Math.max(...xs)) : ([0, 1] as [number, number]);
+  const yDomain = ys.length ? pad(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
+  const title = `Cost–solvency frontier (cost per litre against blend aniline point; lower aniline point = more solvent)`;
+  return (
+    <figure className="chart" data-chart="frontier">
+      <figcaption className="chart-title">{title}</figcaption>
+      <div role="img" aria-label={`${title}. ${points.length} candidates, ${frontier.length} on the frontier.`}>
+        <ComposedChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
+          <CartesianGrid stroke={CHART_COLOURS.grid} />
+          <XAxis
+            type="number"
+            dataKey="x"
+            domain={xDomain}
+            tickFormatter={(v: number) => v.toFixed(2)}
+            label={{ value: `cost, ${currency} per litre`, position: 'insideBottom', offset: -18 }}
+          />
+          <YAxis
+            type="number"
+            dataKey="y"
+            domain={yDomain}
+            width={64}
+            tickFormatter={(v: number) => v.toFixed(0)}
+            label={{ value: 'aniline point, °C', angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
+          />
+          <ZAxis range={[50, 50]} />
+          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [Number(v).toFixed(2), String(n)]} />
+          <Line data={frontier} dataKey="y" stroke={CHART_COLOURS.frontier} strokeWidth={2} dot={false} activeDot={false} isAnimationActive={false} name="frontier" />
+          <Scatter
+            data={data}
+            name="candidates"
+            isAnimationActive={false}
+            onClick={(d: unknown) => {
+              const id = (d as { id?: unknown; payload?: { id?: unknown } })?.payload?.id ?? (d as { id?: unknown })?.id;
+              if (onSelect && typeof id === 'string') onSelect(id);
+            }}
+          >
+            {data.map((p) => (
+              <Cell key={p.id} fill={FILL[p.role]} stroke={p.role === 'selected' || p.role === 'reference' ? '#1d2a2f' : 'none'} data-role={p.role} />
+            ))}
+          </Scatter>
+        </ComposedChart>
+      </div>
+      <ul className="chart-legend" aria-hidden="true">
+        <li><span className="swatch swatch-frontier" /> frontier</li>
+        <li><span className="swatch swatch-reference" /> reference</li>
+        <li><span className="swatch swatch-candidate" /> selected</li>
+        <li><span className="swatch swatch-component" /> other candidates</li>
+      </ul>
+    </figure>
+  );
+});
+
+function isOnFrontier(p: { x: number; y: number }, all: readonly { x: number; y: number; role: string }[]): boolean {
+  return !all.some((q) => q.role !== 'reference' && q !== p && q.x <= p.x && q.y <= p.y && (q.x < p.x || q.y < p.y));
+}

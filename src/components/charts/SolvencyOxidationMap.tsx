@@ -1,0 +1,99 @@
+import { memo } from 'react';
+import { CartesianGrid, Cell, ReferenceArea, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
+import { CHART_COLOURS } from './palette';
+
+export interface MapPoint {
+  id: string;
+  label: string;
+  role: 'reference' | 'candidate' | 'selected';
+  /** Solvency score (higher = more solvent), on the app's own scale. */
+  solvency: number;
+  /** Oxidation-stability score (higher = more stable), on the app's own scale. */
+  oxidation: number;
+}
+
+export interface SolvencyOxidationMapProps {
+  points: readonly MapPoint[];
+  width: number;
+  height: number;
+  xLabel?: string;
+  yLabel?: string;
+  xDomain?: readonly [number, number];
+  yDomain?: readonly [number, number];
+  /** Label for a y value (e.g. class names); default the number. */
+  formatY?: (v: number) => string;
+  /** Optional shaded region where varnish risk is high (low solvency, high stability). */
+  riskRegion?: { x: readonly [number, number]; y: readonly [number, number]; label: string } | null;
+  title?: string;
+}
+
+const FILL: Record<MapPoint['role'], string> = {
+  reference: CHART_COLOURS.reference,
+  candidate: CHART_COLOURS.component,
+  selected: CHART_COLOURS.candidate,
+};
+
+/** Solvency against oxidation stability: where each candidate sits relative to the reference. */
+export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
+  points,
+  width,
+  height,
+  xLabel = 'solvency score',
+  yLabel = 'oxidation-stability score',
+  xDomain = [0, 100],
+  yDomain = [0, 100],
+  formatY,
+  riskRegion = null,
+  title = 'Solvency against oxidation stability (estimated scores, not measurements)',
+}: SolvencyOxidationMapProps) {
+  const data = points.map((p) => ({ ...p, x: p.solvency, y: p.oxidation }));
+  const describe = points.map((p) => `${p.label}: solvency ${p.solvency.toFixed(0)}, stability ${p.oxidation.toFixed(0)}`).join('; ');
+  return (
+    <figure className="chart" data-chart="solvency-oxidation">
+      <figcaption className="chart-title">{title}</figcaption>
+      <div role="img" aria-label={`${title}. ${describe}`}>
+        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
+          <CartesianGrid stroke={CHART_COLOURS.grid} />
+          {riskRegion && (
+            <ReferenceArea
+              x1={riskRegion.x[0]}
+              x2={riskRegion.x[1]}
+              y1={riskRegion.y[0]}
+              y2={riskRegion.y[1]}
+              fill={CHART_COLOURS.hot}
+              fillOpacity={0.08}
+              label={{ value: riskRegion.label, position: 'insideTopLeft', fontSize: 11, fill: CHART_COLOURS.hot }}
+            />
+          )}
+          <XAxis type="number" dataKey="x" domain={[...xDomain]} name={xLabel} label={{ value: xLabel, position: 'insideBottom', offset: -18 }} />
+          <YAxis
+            type="number"
+            dataKey="y"
+            domain={[...yDomain]}
+            name={yLabel}
+            width={70}
+            tickFormatter={formatY}
+            label={{ value: yLabel, angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
+          />
+          <ZAxis range={[60, 60]} />
+          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [Number(v).toFixed(1), String(n)]} />
+          <Scatter data={data} name="blends" isAnimationActive={false}>
+            {data.map((p) => (
+              <Cell
+                key={p.id}
+                fill={FILL[p.role]}
+                stroke={p.role === 'candidate' ? 'none' : '#1d2a2f'}
+                data-role={p.role}
+              />
+            ))}
+          </Scatter>
+        </ScatterChart>
+      </div>
+      <ul className="chart-legend" aria-hidden="true">
+        <li><span className="swatch swatch-reference" /> reference</li>
+        <li><span className="swatch swatch-candidate" /> selected</li>
+        <li><span className="swatch swatch-component" /> other candidates</li>
+      </ul>
+    </figure>
+  );
+});

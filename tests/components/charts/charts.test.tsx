@@ -1,0 +1,113 @@
+// @vitest-environment jsdom
+import { afterEach, describe, expect, it } from 'vitest';
+import { cleanup, render } from '@testing-library/react';
+import {
+  CompositionChart,
+  FrontierChart,
+  SolvencyOxidationMap,
+  ViscosityTemperatureChart,
+} from '../../../src/components/charts';
+
+afterEach(cleanup);
+
+describe('ViscosityTemperatureChart', () => {
+  it('draws one straight line per oil, ticks in °C and mm²/s, and the marked temperatures', () => {
+    const { container, getByRole } = render(
+      <ViscosityTemperatureChart
+        width={640}
+        height={360}
+        operatingTempC={70}
+        coldStartTempC={-10}
+        lines={[
+          { id: 'a', label: 'stock A', kv40: 30, kv100: 5.2, role: 'component' },
+          { id: 'b', label: 'stock B', kv40: 480, kv100: 31.5, role: 'component' },
+          { id: 'r', label: 'reference', kv40: 320, kv100: 24, role: 'reference' },
+          { id: 'c', label: 'blend', kv40: 318, kv100: 25, role: 'candidate' },
+        ]}
+      />,
+    );
+    const paths = container.querySelectorAll('.recharts-line-curve');
+    expect(paths.length).toBe(4);
+    // every line is a single straight segment: "M x,y L x,y"
+    for (const p of paths) expect(p.getAttribute('d')).toMatch(/^M[\d.,-]+L[\d.,-]+$/);
+    const ticks = [...container.querySelectorAll('.recharts-cartesian-axis-tick-value')].map((t) => t.textContent);
+    expect(ticks).toContain('40 °C');
+    expect(ticks).toContain('100 °C');
+    expect(ticks).toContain('100');
+    expect(ticks).toContain('1000');
+    expect(container.textContent).toContain('operating 70 °C');
+    expect(container.textContent).toContain('cold start -10 °C');
+    expect(getByRole('img').getAttribute('aria-label')).toContain('reference: 320 mm²/s at 40 °C');
+  });
+
+  it('shows °F labels when given a formatter', () => {
+    const { container } = render(
+      <ViscosityTemperatureChart
+        width={640}
+        height={360}
+        operatingTempC={60}
+        formatTemp={(c) => `${Math.round((c * 9) / 5 + 32)} °F`}
+        lines={[{ id: 'a', label: 'A', kv40: 220, kv100: 19, role: 'candidate' }]}
+      />,
+    );
+    expect(container.textContent).toContain('104 °F');
+  });
+
+  it('skips oils with impossible data instead of drawing nonsense', () => {
+    const { container } = render(
+      <ViscosityTemperatureChart width={500} height={300} lines={[{ id: 'x', label: 'bad', kv40: 5, kv100: 9, role: 'component' }]} />,
+    );
+    expect(container.querySelectorAll('.recharts-line-curve').length).toBe(0);
+  });
+});
+
+describe('other charts', () => {
+  it('renders the solvency–oxidation map with one mark per blend', () => {
+    const { container } = render(
+      <SolvencyOxidationMap
+        width={400}
+        height={300}
+        points={[
+          { id: 'r', label: 'ref', role: 'reference', solvency: 60, oxidation: 40 },
+          { id: 'c1', label: 'c1', role: 'candidate', solvency: 45, oxidation: 70 },
+          { id: 'c2', label: 'c2', role: 'selected', solvency: 50, oxidation: 60 },
+        ]}
+      />,
+    );
+    expect(container.querySelectorAll('.recharts-scatter-symbol').length).toBe(3);
+  });
+
+  it('renders composition bars and cost contributions', () => {
+    const { container } = render(
+      <CompositionChart
+        width={700}
+        height={260}
+        currency="EUR"
+        rows={[
+          { id: 'a', label: 'N150', massPct: 60, volumePct: 61, costPerLitre: 0.8 },
+          { id: 'b', label: 'HV600', massPct: 40, volumePct: 39, costPerLitre: 0.7 },
+        ]}
+      />,
+    );
+    expect(container.querySelectorAll('.recharts-bar-rectangle').length).toBe(6);
+    expect(container.textContent).toContain('N150');
+  });
+
+  it('joins the frontier points with a line', () => {
+    const { container } = render(
+      <FrontierChart
+        width={500}
+        height={300}
+        currency="EUR"
+        points={[
+          { id: 'a', label: 'a', costPerLitre: 1.0, anilinePoint: 120, role: 'frontier' },
+          { id: 'b', label: 'b', costPerLitre: 1.2, anilinePoint: 105, role: 'frontier' },
+          { id: 'c', label: 'c', costPerLitre: 1.3, anilinePoint: 118, role: 'candidate' },
+          { id: 'r', label: 'ref', costPerLitre: 1.1, anilinePoint: 110, role: 'reference' },
+        ]}
+      />,
+    );
+    expect(container.querySelectorAll('.recharts-scatter-symbol').length).toBe(4);
+    expect(container.querySelector('.recharts-line-curve')?.getAttribute('d')).toMatch(/^M.+L/);
+  });
+});

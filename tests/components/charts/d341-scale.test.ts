@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest';
+import {
+  KV_TICK_CANDIDATES,
+  d341Kv,
+  d341LineFromPoints,
+  d341TempC,
+  d341X,
+  d341Y,
+  formatKvTick,
+  pickTicks,
+} from '../../../src/components/charts/d341-scale';
+
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+
+describe('ASTM D341 chart axes', () => {
+  it('puts the W1 oil on the straight line y = A − B·x', () => {
+    // ASTM D341 two-point fit, W1: ν40 73.30, ν100 8.86 → A = 9.458393, B = 3.680946 (shared/reference/check-values.md §2 W1)
+    const { a, b } = d341LineFromPoints({ tempC: 40, kv: 73.3 }, { tempC: 100, kv: 8.86 });
+    expect(rel(a, 9.458393)).toBeLessThan(1e-4);
+    expect(rel(b, 3.680946)).toBeLessThan(1e-4);
+    // ν at 60 °C = 30.0826 and at 0 °C = 1233.07 lie on that line (shared/reference/check-values.md §2 W1)
+    expect(rel(d341Y(30.0826), a - b * d341X(60))).toBeLessThan(1e-4);
+    expect(rel(d341Kv(a - b * d341X(0)), 1233.07)).toBeLessThan(1e-4);
+  });
+
+  it('passes through both W2 points and gives ν at 80 °C', () => {
+    // ASTM D341, W2: ν40 220, ν100 19.0; ν at 80 °C = 35.60 ± 0.01 (shared/reference/check-values.md §2 W2)
+    const { a, b } = d341LineFromPoints({ tempC: 40, kv: 220 }, { tempC: 100, kv: 19 });
+    expect(rel(d341Kv(a - b * d341X(40)), 220)).toBeLessThan(1e-6);
+    expect(rel(d341Kv(a - b * d341X(100)), 19)).toBeLessThan(1e-6);
+    expect(Math.abs(d341Kv(a - b * d341X(80)) - 35.6)).toBeLessThan(0.01);
+  });
+
+  it('uses log10 of the absolute temperature and log10 log10 (ν + 0.7)', () => {
+    // Definition of the D341 co-ordinates (shared/reference/check-values.md §2): T = t + 273.15 K, Z = ν + 0.7
+    expect(d341X(26.85)).toBeCloseTo(Math.log10(300), 12);
+    expect(d341Y(99.3)).toBeCloseTo(Math.log10(2), 12); // log10(100) = 2
+  });
+
+  it('round-trips both axes', () => {
+    // identity (inverse functions), common practice (no source)
+    for (const t of [-30, 0, 40, 100, 150]) expect(d341TempC(d341X(t))).toBeCloseTo(t, 9);
+    for (const v of [2, 10, 320, 1e5]) expect(rel(d341Kv(d341Y(v)), v)).toBeLessThan(1e-9);
+  });
+
+  it('picks round, well-spaced ticks', () => {
+    const ticks = pickTicks(KV_TICK_CANDIDATES, 5, 20000, d341Y, 0.02);
+    expect(ticks[0]).toBe(5);
+    for (const decade of [10, 100, 1000, 10000]) expect(ticks).toContain(decade);
+    for (let i = 1; i < ticks.length; i++) {
+      expect(ticks[i]!).toBeGreaterThan(ticks[i - 1]!);
+      expect(d341Y(ticks[i]!) - d341Y(ticks[i - 1]!)).toBeGreaterThanOrEqual(0.02);
+    }
+    expect(formatKvTick(20000)).toBe('20 000');
+    expect(formatKvTick(320)).toBe('320');
+  });
+});
