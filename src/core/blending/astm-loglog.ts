@@ -1,0 +1,98 @@
+/**
+ * Blend viscosity by the ASTM D7152 "ASTM method": the constant-temperature log-log rule, on a
+ * volume basis.
+ *
+ *   log₁₀ log₁₀(ν_blend + 0.7) = Σ φᵢ · log₁₀ log₁₀(νᵢ + 0.7)
+ *
+ * with φᵢ volume fractions and every νᵢ at the same temperature [mm²/s]. The transform is the
+ * Walther function of ASTM D341 (Z = ν + 0.7), so the same valid range applies in spirit
+ * (ν ≥ 2 mm²/s for base stocks; mathematically ν > 0.3 mm²/s).
+ *
+ * ASTM D7152 states that its methods may not apply to viscosity-index improvers, additive packages
+ * or strongly non-Newtonian fluids: a polymeric component needs its own treatment (an effective
+ * blending viscosity calibrated from a measured blend, see `Calibration` in model.ts).
+ *
+ * @see ASTM D7152-11, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
+ *   "ASTM method" (constant-temperature form); form as in shared/reference/check-values.md §3 (B4).
+ */
+import { ViscosityOutOfRangeError, assertFinite, assertFractions, assertViscosity } from '../errors';
+import { assertTwoComponent } from './refutas';
+
+function assertLogLogKv(fn: string, field: string, kv: unknown): asserts kv is number {
+  assertViscosity(fn, field, kv);
+  if (kv <= 0.3) {
+    throw new ViscosityOutOfRangeError(
+      field,
+      kv,
+      `${fn}: ${field} = ${kv} mm²/s; the log-log rule needs ν > 0.3 mm²/s (log₁₀(ν + 0.7) > 0)`,
+    );
+  }
+}
+
+/**
+ * The D7152 / D341 blending value of a viscosity:  log₁₀ log₁₀(ν + 0.7).
+ *
+ * @param kv - ν at the blending temperature [mm²/s], > 0.3
+ * @returns log₁₀ log₁₀(ν + 0.7) [dimensionless]
+ * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOutOfRangeError (ν ≤ 0.3)
+ * @example astmLogLog(100) // → 0.30329
+ */
+export function astmLogLog(kv: number): number {
+  assertLogLogKv('astmLogLog', 'kv', kv);
+  return Math.log10(Math.log10(kv + 0.7));
+}
+
+/** Inverse of {@link astmLogLog}: ν = 10^(10^x) − 0.7. */
+export function kvFromAstmLogLog(x: number): number {
+  const fn = 'kvFromAstmLogLog';
+  assertFinite(fn, 'x', x);
+  const kv = Math.pow(10, Math.pow(10, x)) - 0.7;
+  assertFinite(fn, 'result', kv);
+  return kv;
+}
+
+/**
+ * Kinematic viscosity of a blend by the ASTM D7152 constant-temperature log-log rule.
+ *
+ * @param parts - `volumeFraction` φᵢ [0–1, sum 1 within 1e-9] and `kv` νᵢ [mm²/s] of each part, all
+ *   at the same temperature
+ * @returns ν of the blend at that temperature [mm²/s]
+ * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOutOfRangeError, FractionSumError
+ * @example blendViscosityAstmD7152([{ volumeFraction: 0.5, kv: 100 }, { volumeFraction: 0.5, kv: 460 }]) // → 203.35
+ */
+export function blendViscosityAstmD7152(parts: readonly { volumeFraction: number; kv: number }[]): number {
+  const fn = 'blendViscosityAstmD7152';
+  assertFractions(
+    fn,
+    'volumeFraction',
+    parts.map((p) => p.volumeFraction),
+  );
+  parts.forEach((p, i) => assertLogLogKv(fn, `parts[${i}].kv`, p.kv));
+  const only = parts.filter((p) => p.volumeFraction > 0);
+  if (only.length === 1) return only[0]!.kv;
+  const x = parts.reduce((s, p) => s + p.volumeFraction * astmLogLog(p.kv), 0);
+  return kvFromAstmLogLog(x);
+}
+
+/**
+ * Volume fraction of the heavy stock in a two-component blend reaching a target viscosity by the
+ * log-log rule (exact, since the rule is linear in φ):
+ * φ_heavy = (x_target − x_light)/(x_heavy − x_light), x = log₁₀ log₁₀(ν + 0.7).
+ *
+ * @param kvLight - ν of the light stock [mm²/s]
+ * @param kvHeavy - ν of the heavy stock [mm²/s], above kvLight
+ * @param targetKv - target ν [mm²/s], from kvLight to kvHeavy inclusive
+ * @returns φ_heavy, volume fraction of the heavy stock [0–1]
+ * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOutOfRangeError
+ * @example astmHeavyFraction(100, 460, 203.35) // → 0.5
+ */
+export function astmHeavyFraction(kvLight: number, kvHeavy: number, targetKv: number): number {
+  const fn = 'astmHeavyFraction';
+  assertLogLogKv(fn, 'kvLight', kvLight);
+  assertLogLogKv(fn, 'kvHeavy', kvHeavy);
+  assertLogLogKv(fn, 'targetKv', targetKv);
+  assertTwoComponent(fn, kvLight, kvHeavy, targetKv);
+  const xL = astmLogLog(kvLight);
+  const xH = astmLogLog(kvHeavy);
+  return (astmLogLog(targetKv) - xL) / (xH - xL);
+}

@@ -1,0 +1,80 @@
+/**
+ * Blendbench calculation core — the public API, grouped by topic.
+ * Pure TypeScript: no UI, storage, clock or randomness (enforced by tests/core/purity.test.ts).
+ * Add new modules as further grouped `export … from` lines.
+ */
+
+// Domain model
+export * from './model';
+
+// Errors (every entry point throws one of these on impossible input)
+export {
+  BlendbenchInputError,
+  InvalidNumberError,
+  NonPositiveViscosityError,
+  ViscosityOrderError,
+  ViscosityOutOfRangeError,
+  FractionSumError,
+  ImplausibleDensityError,
+  BelowAbsoluteZeroError,
+  FRACTION_SUM_TOLERANCE,
+  DENSITY15_MIN,
+  DENSITY15_MAX,
+  ABSOLUTE_ZERO_C,
+} from './errors';
+
+// Viscosity index — ASTM D2270
+export {
+  viscosityIndex,
+  reportedViscosityIndex,
+  referenceViscosities,
+  roundHalfEven,
+  VI_MIN_KV100,
+  VI_TABLE_MAX_KV100,
+} from './viscosity-index';
+export { D2270_KV100, D2270_L, D2270_H, D2270_TABLE1_ROWS } from './data/d2270-table1';
+
+// Viscosity–temperature — ASTM D341
+export type { WaltherLine } from './viscosity-temperature';
+export {
+  viscosityAtTemperature,
+  temperatureForViscosity,
+  waltherLine,
+  fitWalther,
+  kvAtTemperature,
+  temperatureAtKv,
+  kv40kv100FromPoints,
+  WALTHER_MIN_KV,
+} from './viscosity-temperature';
+
+// Blend viscosity — Refutas, ASTM D7152, any temperature
+export { blendViscosityRefutas, refutasVbn, kvFromRefutasVbn, refutasHeavyFraction } from './blending/refutas';
+export { blendViscosityAstmD7152, astmLogLog, kvFromAstmLogLog, astmHeavyFraction } from './blending/astm-loglog';
+export type { BlendMethod, BlendPart } from './blending/blend-viscosity';
+export { blendViscosityAt, blendKv40Kv100, BLEND_METHODS, BLEND_METHOD_LABEL } from './blending/blend-viscosity';
+
+// ISO viscosity grades — ISO 3448, ASTM D2422
+export type { IsoGrade } from './iso-grades';
+export {
+  isoViscosityGrade,
+  gradeBand,
+  isInGrade,
+  deviationFromMidPct,
+  nearestGrade,
+  ISO_GRADES,
+  ISO_GRADE_NUMBERS,
+} from './iso-grades';
+
+// Density, fractions, cost, batch quantities
+export { blendDensity, massToVolumeFractions, volumeToMassFractions } from './density';
+export type { BatchSize } from './cost';
+export { pricePerKg, blendCostPerKg, blendCostPerLitre, batchQuantities } from './cost';
+
+// Other blend properties (estimates)
+export { blendAnilinePoint } from './aniline';
+export { flashBlendingIndex, flashPointFromIndex, blendFlashPoint } from './flash-point';
+export { pourBlendingIndex, pourPointFromIndex, blendPourPoint } from './pour-point';
+export { krlShearLossPct, shearedKv, inGradeAfterShear } from './shear';
+
+// Units at the boundary
+export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';
