@@ -1,0 +1,439 @@
+// The printable blend sheet. Presentational: everything it shows comes from its props and the pure
+// core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
+import { useId, useMemo, useState } from 'react';
+import type { Component, Recipe } from '../../core/model';
+import {
+  BLEND_SHEET_CAUTIONS,
+  blendSheetCsvRows,
+  buildBlendSheet,
+  defaultBlendingInstructions,
+  qcReleaseTargets,
+  type BlendSheet,
+  type QcRow,
+  type SheetPrediction,
+} from '../../core/blend-sheet';
+import { csvFileName, downloadCsv, toCsv } from './csv';
+import './blend-sheet.css';
+
+export type PaperSize = 'a4' | 'letter';
+export type CopyKind = 'plant' | 'costing';
+
+export interface BlendSheetViewProps {
+  components: readonly Component[];
+  recipes: readonly Recipe[];
+  /** The recipe shown; null → the first recipe. */
+  recipeId: string | null;
+  onRecipeChange?: (id: string) => void;
+  /** Company name printed at the head of the sheet (from settings). */
+  companyName: string;
+  /** Predicted properties of a recipe; may throw with a message the sheet shows. */
+  predict: (recipe: Recipe) => SheetPrediction;
+  /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
+  today: string;
+  /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
+  formatNumber?: (x: number, decimals: number) => string;
+  /** Called instead of `window.print()` (tests). */
+  onPrint?: () => void;
+  /** Called instead of the browser download with the CSV text and file name (tests). */
+  onExportCsv?: (csv: string, fileName: string) => void;
+}
+
+const defaultFormat = (x: number, d: number) =>
+  x.toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d });
+
+function errorText(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+export function BlendSheetView(props: BlendSheetViewProps) {
+  const { components, recipes, companyName, predict, today } = props;
+  const fmt = props.formatNumber ?? defaultFormat;
+  const id = useId();
+  const recipe = recipes.find((r) => r.id === props.recipeId) ?? recipes[0] ?? null;
+
+  const [batchSize, setBatchSize] = useState('1000');
+  const [batchUnit, setBatchUnit] = useState<'kg' | 'litres'>('kg');
+  const [lot, setLot] = useState('');
+  const [vessel, setVessel] = useState('');
+  const [date, setDate] = useState(today);
+  const [copy, setCopy] = useState<CopyKind>('plant');
+  const [paper, setPaper] = useState<PaperSize>('a4');
+  const [editingSteps, setEditingSteps] = useState(false);
+  /** Edited instructions by recipe id; absent → the defaults. */
+  const [stepsByRecipe, setStepsByRecipe] = useState<Record<string, string>>({});
+
+  const batchValue = Number(batchSize);
+  const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
+    if (!recipe) return null;
+    try {
+      const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
+      return { sheet: buildBlendSheet(components, recipe, batch) };
+    } catch (e) {
+      return { error: errorText(e) };
+    }
+  }, [components, recipe, batchUnit, batchValue]);
+
+  const qc = useMemo((): { rows: QcRow[] } | { error: string } | null => {
+    if (!recipe) return null;
+    try {
+      return { rows: qcReleaseTargets(recipe.grade, predict(recipe)) };
+    } catch (e) {
+      return { error: errorText(e) };
+    }
+  }, [recipe, predict]);
+
+  if (!recipe) {
+    return (
+      <section className="bs-screen" aria-labelledby={`${id}-h`}>
+        <h2 id={`${id}-h`}>Blend sheet</h2>
+        <p>There is no recipe yet. Design or adopt a recipe first, then print its blend sheet here.</p>
+      </section>
+    );
+  }
+
+  const sheet = built && 'sheet' in built ? built.sheet : null;
+  const defaultSteps = sheet ? defaultBlendingInstructions(sheet) : [];
+  const stepsText = stepsByRecipe[recipe.id] ?? defaultSteps.join('\n');
+  const steps = stepsText
+    .split('\n')
+    .map((s) => s.trim())
+    .filter((s) => s.length > 0);
+  const costing = copy === 'costing';
+  const qd = sheet?.quantityDecimals ?? 1;
+  const pd = sheet?.percentDecimals ?? 2;
+  const currency = sheet?.costing.available ? sheet.costing.currency : '';
+
+  const batchText = sheet
+    ? sheet.batchBasis === 'kg'
+      ? `${fmt(sheet.totalKg, qd)} kg (${fmt(sheet.totalLitres, qd)} L at 15 °C)`
+      : `${fmt(sheet.totalLitres, qd)} L at 15 °C (${fmt(sheet.totalKg, qd)} kg)`
+    : '—';
+
+  const exportCsv = () => {
+    if (!sheet) return;
+    const text = toCsv(blendSheetCsvRows(sheet, { includePrices: costing }));
+    const name = csvFileName(recipe.name, recipe.revision, lot);
+    if (props.onExportCsv) props.onExportCsv(text, name);
+    else downloadCsv(text, name);
+  };
+  const print = () => (props.onPrint ? props.onPrint() : window.print());
+
+  return (
+    <section className="bs-screen" aria-labelledby={`${id}-h`}>
+      <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 9mm 10mm; }`}</style>
+      <div className="bs-controls bs-no-print">
+        <h2 id={`${id}-h`}>Blend sheet</h2>
+        <div className="bs-control-row">
+          <label>
+            Recipe
+            <select value={recipe.id} onChange={(e) => props.onRecipeChange?.(e.target.value)}>
+              {recipes.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name} (ISO VG {r.grade}, rev. {r.revision})
+                </option>
+              ))}
+            </select>
+          </label>
+          <fieldset className="bs-inline">
+            <legend>Copy</legend>
+            <label>
+              <input type="radio" name={`${id}-copy`} checked={copy === 'plant'} onChange={() => setCopy('plant')} />
+              Plant copy (no prices)
+            </label>
+            <label>
+              <input type="radio" name={`${id}-copy`} checked={copy === 'costing'} onChange={() => setCopy('costing')} />
+              Costing copy
+            </label>
+          </fieldset>
+          <label>
+            Paper
+            <select value={paper} onChange={(e) => setPaper(e.target.value as PaperSize)}>
+              <option value="a4">A4</option>
+              <option value="letter">US Letter</option>
+            </select>
+          </label>
+          <button type="button" onClick={print} disabled={!sheet}>
+            Print
+          </button>
+          <button type="button" onClick={exportCsv} disabled={!sheet}>
+            Export component table (CSV)
+          </button>
+        </div>
+        <p className="bs-hint">
+          Fill in the fields below, then print: your browser&rsquo;s print dialog also saves a PDF. The company name
+          comes from the settings.
+        </p>
+      </div>
+
+      <article className={`blend-sheet bs-paper-${paper}`} aria-label="Printable blend sheet">
+        <header className="bs-head">
+          <div className="bs-company">{companyName || 'Company name (set it in the settings)'}</div>
+          <div className="bs-title">
+            Blend sheet · <span className="bs-copy-kind">{costing ? 'Costing copy' : 'Plant copy'}</span>
+          </div>
+        </header>
+
+        <dl className="bs-fields">
+          <div>
+            <dt>Product</dt>
+            <dd>{recipe.name}</dd>
+          </div>
+          <div>
+            <dt>Grade</dt>
+            <dd>ISO VG {recipe.grade}</dd>
+          </div>
+          <div>
+            <dt>Recipe revision</dt>
+            <dd>{recipe.revision}</dd>
+          </div>
+          <div>
+            <dt>
+              <label htmlFor={`${id}-date`}>Date</label>
+            </dt>
+            <dd>
+              <input id={`${id}-date`} className="bs-no-print" type="date" value={date} onChange={(e) => setDate(e.target.value)} />
+              <span className="bs-print-only">{date || '____________'}</span>
+            </dd>
+          </div>
+          <div>
+            <dt>
+              <label htmlFor={`${id}-lot`}>Batch / lot no.</label>
+            </dt>
+            <dd>
+              <input id={`${id}-lot`} className="bs-no-print" value={lot} onChange={(e) => setLot(e.target.value)} />
+              <span className="bs-print-only">{lot || '____________'}</span>
+            </dd>
+          </div>
+          <div className="bs-batch">
+            <dt>
+              <label htmlFor={`${id}-size`}>Batch size</label>
+            </dt>
+            <dd>
+              <span className="bs-no-print bs-batch-inputs">
+                <input
+                  id={`${id}-size`}
+                  type="number"
+                  min="0"
+                  step="any"
+                  inputMode="decimal"
+                  value={batchSize}
+                  onChange={(e) => setBatchSize(e.target.value)}
+                />
+                <select aria-label="Batch size unit" value={batchUnit} onChange={(e) => setBatchUnit(e.target.value as 'kg' | 'litres')}>
+                  <option value="kg">kg</option>
+                  <option value="litres">L at 15 °C</option>
+                </select>
+              </span>
+              <span className="bs-batch-text">{batchText}</span>
+            </dd>
+          </div>
+          <div>
+            <dt>
+              <label htmlFor={`${id}-vessel`}>Vessel</label>
+            </dt>
+            <dd>
+              <input id={`${id}-vessel`} className="bs-no-print" value={vessel} onChange={(e) => setVessel(e.target.value)} />
+              <span className="bs-print-only">{vessel || '____________'}</span>
+            </dd>
+          </div>
+          <div>
+            <dt>Density at 15 °C (calc.)</dt>
+            <dd>{sheet ? `${fmt(sheet.density15, 4)} kg/L` : '—'}</dd>
+          </div>
+        </dl>
+
+        {built && 'error' in built && (
+          <p className="bs-error" role="alert">
+            The component table cannot be built: {built.error}
+          </p>
+        )}
+
+        {sheet && (
+          <table className="bs-table bs-components">
+            <caption>1. Components, in charging order</caption>
+            <thead>
+              <tr>
+                <th scope="col" className="bs-num" title="Charging order">Step</th>
+                <th scope="col">Code</th>
+                <th scope="col">Name</th>
+                <th scope="col">Category</th>
+                <th scope="col" className="bs-num">Mass %</th>
+                <th scope="col" className="bs-num">Vol. %</th>
+                <th scope="col" className="bs-num">kg</th>
+                <th scope="col" className="bs-num">L at 15 °C</th>
+                <th scope="col" className="bs-num">Running kg</th>
+                {costing && (
+                  <>
+                    <th scope="col" className="bs-num">Price/kg{currency ? ` (${currency})` : ''}</th>
+                    <th scope="col" className="bs-num">Cost{currency ? ` (${currency})` : ''}</th>
+                  </>
+                )}
+                <th scope="col" className="bs-initials">Initials</th>
+              </tr>
+            </thead>
+            <tbody>
+              {sheet.rows.map((r) => (
+                <tr key={r.componentId}>
+                  <td className="bs-num">{r.chargeOrder}</td>
+                  <th scope="row" className="bs-code">{r.code}</th>
+                  <td>{r.name}</td>
+                  <td>{r.categoryLabel}</td>
+                  <td className="bs-num">{fmt(r.massPct, pd)}</td>
+                  <td className="bs-num">{fmt(r.volumePct, pd)}</td>
+                  <td className="bs-num bs-qty">{fmt(r.kg, qd)}</td>
+                  <td className="bs-num">{fmt(r.litres, qd)}</td>
+                  <td className="bs-num">{fmt(r.runningKg, qd)}</td>
+                  {costing && (
+                    <>
+                      <td className="bs-num">{r.pricePerKg === null ? '—' : fmt(r.pricePerKg, 3)}</td>
+                      <td className="bs-num">{r.lineCost === null ? '—' : fmt(r.lineCost, 2)}</td>
+                    </>
+                  )}
+                  <td className="bs-initials" />
+                </tr>
+              ))}
+            </tbody>
+            <tfoot>
+              <tr>
+                <td />
+                <th scope="row">Total</th>
+                <td />
+                <td />
+                <td className="bs-num">{fmt(100, pd)}</td>
+                <td className="bs-num">{fmt(100, pd)}</td>
+                <td className="bs-num bs-qty">{fmt(sheet.totalKg, qd)}</td>
+                <td className="bs-num">{fmt(sheet.totalLitres, qd)}</td>
+                <td className="bs-num">{fmt(sheet.totalKg, qd)}</td>
+                {costing && (
+                  <>
+                    <td className="bs-num">{sheet.costing.available ? fmt(sheet.costing.perKg, 3) : '—'}</td>
+                    <td className="bs-num">{sheet.costing.available ? fmt(sheet.costing.perBatch, 2) : '—'}</td>
+                  </>
+                )}
+                <td className="bs-initials" />
+              </tr>
+            </tfoot>
+          </table>
+        )}
+
+        {sheet && costing && (
+          <p className="bs-costing">
+            {sheet.costing.available ? (
+              <>
+                Cost: {fmt(sheet.costing.perKg, 3)} {currency}/kg · {fmt(sheet.costing.perLitre, 3)} {currency}/L at 15 °C ·{' '}
+                {fmt(sheet.costing.perBatch, 2)} {currency} per batch. Component prices as entered in the library;
+                confidential.
+              </>
+            ) : (
+              <>Cost not available: {sheet.costing.reason}.</>
+            )}
+          </p>
+        )}
+
+        <section className="bs-steps" aria-labelledby={`${id}-steps`}>
+          <h3 id={`${id}-steps`}>2. Blending instructions</h3>
+          {editingSteps ? (
+            <div className="bs-no-print">
+              <label htmlFor={`${id}-steps-text`}>Instructions, one step per line</label>
+              <textarea
+                id={`${id}-steps-text`}
+                rows={Math.max(6, steps.length + 2)}
+                value={stepsText}
+                onChange={(e) => setStepsByRecipe((m) => ({ ...m, [recipe.id]: e.target.value }))}
+              />
+            </div>
+          ) : null}
+          <ol className={editingSteps ? 'bs-print-only' : undefined}>
+            {steps.map((s, i) => (
+              <li key={i}>{s}</li>
+            ))}
+          </ol>
+          <div className="bs-no-print bs-step-buttons">
+            <button type="button" onClick={() => setEditingSteps((v) => !v)}>
+              {editingSteps ? 'Done editing' : 'Edit instructions'}
+            </button>
+            <button
+              type="button"
+              disabled={stepsByRecipe[recipe.id] === undefined}
+              onClick={() =>
+                setStepsByRecipe((m) => {
+                  const next = { ...m };
+                  delete next[recipe.id];
+                  return next;
+                })
+              }
+            >
+              Restore default instructions
+            </button>
+          </div>
+        </section>
+
+        <section aria-labelledby={`${id}-qc`}>
+          {qc && 'error' in qc ? (
+            <>
+              <h3 id={`${id}-qc`}>3. Predicted properties and QC release</h3>
+              <p className="bs-error" role="alert">
+                Properties cannot be predicted for this recipe: {qc.error}
+              </p>
+            </>
+          ) : (
+            <table className="bs-table bs-qc">
+              <caption id={`${id}-qc`}>3. Predicted properties and QC release</caption>
+              <thead>
+                <tr>
+                  <th scope="col">Property</th>
+                  <th scope="col">Unit</th>
+                  <th scope="col" className="bs-num">Predicted</th>
+                  <th scope="col">Release target</th>
+                  <th scope="col">Test method</th>
+                  <th scope="col" className="bs-measured">Measured</th>
+                  <th scope="col" className="bs-initials">Pass / initials</th>
+                </tr>
+              </thead>
+              <tbody>
+                {qc?.rows.map((r) => (
+                  <tr key={r.key}>
+                    <th scope="row">{r.property}</th>
+                    <td>{r.unit}</td>
+                    <td className="bs-num">{r.predicted}</td>
+                    <td>{r.target}</td>
+                    <td>{r.method}</td>
+                    <td className="bs-measured" />
+                    <td className="bs-initials" />
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          <p className="bs-note">
+            Targets are defaults around the prediction (ν40: plant aim ±5 % of the grade mid-point inside the ISO 3448
+            band); replace them with the product specification where it is stricter.
+          </p>
+        </section>
+
+        <section className="bs-cautions" aria-labelledby={`${id}-caut`}>
+          <h3 id={`${id}-caut`}>Cautions</h3>
+          <ul>
+            {BLEND_SHEET_CAUTIONS.map((c) => (
+              <li key={c}>{c}</li>
+            ))}
+          </ul>
+        </section>
+
+        <section className="bs-signoff" aria-label="Sign-off">
+          {['Blended by', 'QC tested by', 'Released by'].map((who) => (
+            <div key={who} className="bs-sign">
+              <div className="bs-sign-role">{who}</div>
+              <div className="bs-sign-line">Name</div>
+              <div className="bs-sign-line">Signature</div>
+              <div className="bs-sign-line">Date</div>
+            </div>
+          ))}
+        </section>
+        <footer className="bs-foot">
+          {recipe.name} · rev. {recipe.revision} · printed from Blendbench · recipe data as saved {recipe.updatedAt.slice(0, 10)}
+        </footer>
+      </article>
+    </section>
+  );
+}

@@ -1,0 +1,188 @@
+// @vitest-environment jsdom
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { BlendSheetView } from '../../../src/features/blend-sheet/BlendSheetView';
+import { csvFileName, toCsv } from '../../../src/features/blend-sheet/csv';
+import type { SheetPrediction } from '../../../src/core/blend-sheet';
+import type { Component, ComponentCategory, Recipe } from '../../../src/core/model';
+
+afterEach(cleanup);
+
+function comp(id: string, category: ComponentCategory, kv40: number, density15: number, price: number): Component {
+  return {
+    id,
+    code: id.toUpperCase(),
+    name: `Invented stock ${id}`,
+    category,
+    viscosityPoints: [
+      { tempC: 40, kv: kv40 },
+      { tempC: 100, kv: kv40 / 12 },
+    ],
+    density15,
+    anilinePoint: 110,
+    pourPoint: -9,
+    flashPoint: 230,
+    sulfurPct: null,
+    saturatesPct: null,
+    price: { amount: price, basis: 'per-kg', currency: 'EUR' },
+    availability: 'available',
+    oxidationRating: null,
+    shearLossPct: null,
+    calibration: null,
+    source: 'invented test data',
+    sourceDate: '2025-01-01',
+    notes: '',
+  };
+}
+
+const components = [
+  comp('hv', 'group-ii', 600, 0.885, 1.4),
+  comp('n150', 'group-ii', 30, 0.862, 1.1),
+  comp('add', 'additive-package', 300, 1.05, 4.0),
+];
+const recipe: Recipe = {
+  id: 'r320',
+  name: 'Invented Gear 320',
+  grade: 320,
+  lines: [
+    { componentId: 'n150', massFraction: 0.3 },
+    { componentId: 'hv', massFraction: 0.68 },
+    { componentId: 'add', massFraction: 0.02 },
+  ],
+  revision: 4,
+  isReference: true,
+  notes: '',
+  updatedAt: '2025-03-01T10:00:00Z',
+};
+const prediction: SheetPrediction = {
+  kv40: 318.2,
+  kv100: 24.3,
+  reportedVi: 98,
+  density15: 0.8823,
+  anilinePoint: 118,
+  flashPoint: 238,
+  pourPoint: -12,
+  operating: { tempC: 65, kv: 100.4 },
+};
+
+function renderSheet(extra: Partial<Parameters<typeof BlendSheetView>[0]> = {}) {
+  return render(
+    <BlendSheetView
+      components={components}
+      recipes={[recipe]}
+      recipeId="r320"
+      companyName="Invented Lubricants Plant"
+      predict={() => prediction}
+      today="2025-06-02"
+      {...extra}
+    />,
+  );
+}
+
+describe('BlendSheetView', () => {
+  it('prints the header, the component table in charging order and totals equal to the batch', () => {
+    renderSheet();
+    expect(screen.getByText('Invented Lubricants Plant')).toBeTruthy();
+    expect(screen.getByText('ISO VG 320')).toBeTruthy();
+    const table = screen.getByRole('table', { name: /Components, in charging order/ });
+    const rows = within(table).getAllByRole('row');
+    // header + 3 components + total
+    expect(rows).toHaveLength(5);
+    // common practice (domain notes): heavy base stock first, additive package last
+    expect(within(rows[1]!).getByRole('rowheader').textContent).toBe('HV');
+    expect(within(rows[3]!).getByRole('rowheader').textContent).toBe('ADD');
+    // 1000 kg batch: 680.0 + 300.0 + 20.0 = 1,000.0 (exact fractions, by hand)
+    expect(rows[1]!.textContent).toContain('680.0');
+    expect(rows[4]!.textContent).toContain('1,000.0');
+    // operator's initials column exists
+    expect(within(table).getByRole('columnheader', { name: 'Initials' })).toBeTruthy();
+  });
+
+  it('hides prices on the plant copy and shows them on the costing copy', () => {
+    renderSheet();
+    expect(screen.queryByText(/per batch/)).toBeNull();
+    expect(screen.queryByRole('columnheader', { name: /Price\/kg/ })).toBeNull();
+    fireEvent.click(screen.getByLabelText('Costing copy'));
+    expect(screen.getByRole('columnheader', { name: /Price\/kg \(EUR\)/ })).toBeTruthy();
+    // 0.3·1.1 + 0.68·1.4 + 0.02·4.0 = 1.362 per kg → 1,362.00 per 1000 kg batch (by hand)
+    expect(screen.getByText(/1,362\.00 EUR per batch/)).toBeTruthy();
+  });
+
+  it('recomputes quantities for a batch given in litres', () => {
+    renderSheet();
+    fireEvent.change(screen.getByLabelText('Batch size'), { target: { value: '2000' } });
+    fireEvent.change(screen.getByLabelText('Batch size unit'), { target: { value: 'litres' } });
+    expect(screen.getByText(/^2,000\.0 L at 15 °C/)).toBeTruthy();
+  });
+
+  it('shows predicted properties beside release targets, methods and blank measured cells', () => {
+    renderSheet();
+    const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
+    expect(within(qc).getByText('318.2')).toBeTruthy();
+    // ISO 3448 VG 320 band 288–352 (check-values G2), plant aim ±5 % (common practice)
+    expect(within(qc).getByText('304.0–336.0 (ISO VG 320: 288.0–352.0)')).toBeTruthy();
+    for (const m of ['ASTM D445', 'ASTM D2270', 'ASTM D4052', 'ASTM D92', 'ASTM D97']) {
+      expect(within(qc).getAllByText(m).length).toBeGreaterThan(0);
+    }
+    const measured = qc.querySelectorAll('tbody td.bs-measured');
+    expect(measured.length).toBeGreaterThan(5);
+    measured.forEach((td) => expect(td.textContent).toBe(''));
+  });
+
+  it('shows a prediction failure as a message, not as numbers', () => {
+    renderSheet({
+      predict: () => {
+        throw new Error('kv100 = 1.5 mm²/s is below 2.0 mm²/s');
+      },
+    });
+    expect(screen.getByRole('alert').textContent).toMatch(/cannot be predicted.*below 2\.0/);
+  });
+
+  it('lets the operator edit and restore the blending instructions', () => {
+    renderSheet();
+    expect(screen.getByText(/Heat to 50–65 °C/)).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Edit instructions' }));
+    const box = screen.getByLabelText('Instructions, one step per line');
+    fireEvent.change(box, { target: { value: 'Charge HV.\nHeat to 55 °C.' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Done editing' }));
+    expect(screen.getByText('Heat to 55 °C.')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Restore default instructions' }));
+    expect(screen.getByText(/Heat to 50–65 °C/)).toBeTruthy();
+  });
+
+  it('carries the cautions and sign-off lines', () => {
+    renderSheet();
+    expect(screen.getByText(/Laboratory confirmation of every release property is required/)).toBeTruthy();
+    expect(screen.getByText(/safety data sheet of each component/)).toBeTruthy();
+    expect(screen.getByText('Released by')).toBeTruthy();
+  });
+
+  it('prints and exports the component table as CSV without prices on the plant copy', () => {
+    const onPrint = vi.fn();
+    const onExportCsv = vi.fn();
+    renderSheet({ onPrint, onExportCsv });
+    fireEvent.change(screen.getByLabelText('Batch / lot no.'), { target: { value: 'L-0042' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Print' }));
+    expect(onPrint).toHaveBeenCalledOnce();
+    fireEvent.click(screen.getByRole('button', { name: /Export component table/ }));
+    const [csv, name] = onExportCsv.mock.calls[0]! as [string, string];
+    expect(name).toBe('blend-sheet_Invented-Gear-320_rev4_L-0042.csv');
+    const lines = csv.split('\r\n');
+    expect(lines[0]).toBe('Charge order,Code,Name,Category,Mass %,Volume %,kg,Litres at 15 °C,Running total kg');
+    expect(lines[1]).toMatch(/^1,HV,Invented stock hv,Group II,68\.00,/);
+    expect(lines.at(-1)).toMatch(/^,TOTAL,,,100\.00,100\.00,1000\.0,/);
+    expect(csv).not.toMatch(/Price/);
+  });
+
+  it('explains when there is no recipe', () => {
+    renderSheet({ recipes: [], recipeId: null });
+    expect(screen.getByText(/There is no recipe yet/)).toBeTruthy();
+  });
+});
+
+describe('csv helpers', () => {
+  it('quotes fields that need it and names files safely', () => {
+    expect(toCsv([{ a: 'x,y', b: 'plain' }])).toBe('a,b\r\n"x,y",plain');
+    expect(csvFileName('VG 320 / new', 2, '')).toBe('blend-sheet_VG-320-new_rev2.csv');
+  });
+});
