@@ -78,3 +78,29 @@ export { krlShearLossPct, shearedKv, inGradeAfterShear } from './shear';
 
 // Units at the boundary
 export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';
+
+// Blend sheet for the plant: component table, charging order, instructions, QC release targets
+export type {
+  BlendSheet,
+  BlendSheetRow,
+  BlendSheetOptions,
+  BatchCosting,
+  ChargeRole,
+  InstructionOptions,
+  SheetPrediction,
+  QcOptions,
+  QcKey,
+  QcRow,
+  CsvRecord,
+} from './blend-sheet';
+export {
+  buildBlendSheet,
+  largestRemainderUnits,
+  quantityDecimals,
+  chargeRole,
+  CHARGE_ROLE_LABEL,
+  defaultBlendingInstructions,
+  qcReleaseTargets,
+  blendSheetCsvRows,
+  BLEND_SHEET_CAUTIONS,
+} from './blend-sheet';
