@@ -1,0 +1,228 @@
+/**
+ * Inputs that validate as the user types and commit on Enter or leaving the field (one undo step
+ * per edit). An invalid entry is never written: it stays in the field with its message, and Escape
+ * puts back the stored value. A warning (implausible but possible) is written and stays visible.
+ */
+import { useEffect, useId, useState, type ReactNode } from 'react';
+import { useFormat } from './format';
+
+export interface Verdict {
+  /** Blocks the commit; says exactly what is wrong. */
+  error?: string | undefined;
+  /** Commits, but stays visible beside the value. */
+  warning?: string | undefined;
+}
+
+interface CommonProps {
+  label: string;
+  /** Hide the label visually (still read by screen readers), e.g. inside a table cell. */
+  hideLabel?: boolean;
+  className?: string;
+  /** Width in characters. */
+  size?: number;
+  disabled?: boolean;
+  hint?: ReactNode;
+}
+
+function Message({ id, verdict }: { id: string; verdict: Verdict }) {
+  if (verdict.error) {
+    return (
+      <span id={id} className="field-msg field-error" role="alert">
+        {verdict.error}
+      </span>
+    );
+  }
+  if (verdict.warning) {
+    return (
+      <span id={id} className="field-msg field-warning">
+        {verdict.warning}
+      </span>
+    );
+  }
+  return null;
+}
+
+export interface NumberFieldProps extends CommonProps {
+  value: number | null;
+  onCommit: (v: number | null) => void;
+  /** Decimals shown when not editing; undefined → as stored. */
+  digits?: number;
+  allowEmpty?: boolean;
+  unit?: string;
+  validate?: (v: number | null) => Verdict;
+}
+
+export function NumberField(props: NumberFieldProps) {
+  const fmt = useFormat();
+  const id = useId();
+  const msgId = `${id}-msg`;
+  const show = (v: number | null) =>
+    v === null ? '' : props.digits === undefined ? fmt.num(v, decimalsOf(v)).replace(/\u202f/g, '') : fmt.num(v, props.digits).replace(/\u202f/g, '');
+  const [draft, setDraft] = useState(() => show(props.value));
+  const [editing, setEditing] = useState(false);
+  useEffect(() => {
+    if (!editing) setDraft(show(props.value));
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [props.value, editing, fmt]);
+
+  const judge = (text: string): { v: number | null; verdict: Verdict } => {
+    const v = fmt.parse(text);
+    if (v === null) {
+      return { v, verdict: props.allowEmpty ? props.validate?.(null) ?? {} : { error: `${props.label}: a value is required` } };
+    }
+    if (Number.isNaN(v)) return { v, verdict: { error: `${props.label}: “${text}” is not a number` } };
+    if (!Number.isFinite(v)) return { v, verdict: { error: `${props.label}: must be a finite number` } };
+    return { v, verdict: props.validate?.(v) ?? {} };
+  };
+  const current = editing ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
+  const commit = () => {
+    const { v, verdict } = judge(draft);
+    if (verdict.error) return false;
+    if (v !== props.value) props.onCommit(v);
+    return true;
+  };
+  const hasMsg = Boolean(current.verdict.error || current.verdict.warning);
+  return (
+    <span className={`field ${props.className ?? ''}`}>
+      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
+        {props.label}
+        {props.unit && !props.hideLabel ? <span className="unit"> [{props.unit}]</span> : null}
+      </label>
+      <input
+        id={id}
+        type="text"
+        inputMode="decimal"
+        autoComplete="off"
+        size={props.size ?? 7}
+        disabled={props.disabled}
+        value={draft}
+        aria-invalid={current.verdict.error ? true : undefined}
+        aria-describedby={hasMsg ? msgId : undefined}
+        className={current.verdict.error ? 'invalid' : current.verdict.warning ? 'doubtful' : undefined}
+        onFocus={() => setEditing(true)}
+        onChange={(e) => setDraft(e.target.value)}
+        onBlur={() => {
+          if (commit()) setEditing(false);
+        }}
+        onKeyDown={(e) => {
+          if (e.key === 'Enter') {
+            if (commit()) {
+              setEditing(false);
+            }
+          } else if (e.key === 'Escape') {
+            setDraft(show(props.value));
+            setEditing(false);
+          }
+        }}
+      />
+      {props.hint}
+      <Message id={msgId} verdict={current.verdict} />
+    </span>
+  );
+}
+
+/** Decimals needed to show a stored number without losing digits (max 6). */
+function decimalsOf(v: number): number {
+  for (let d = 0; d <= 6; d++) if (Math.abs(Number(v.toFixed(d)) - v) < 1e-9 * Math.max(1, Math.abs(v))) return d;
+  return 6;
+}
+
+export interface TextFieldProps extends CommonProps {
+  value: string;
+  onCommit: (v: string) => void;
+  validate?: (v: string) => Verdict;
+  multiline?: boolean;
+  maxLength?: number;
+  placeholder?: string;
+}
+
+export function TextField(props: TextFieldProps) {
+  const id = useId();
+  const msgId = `${id}-msg`;
+  const [draft, setDraft] = useState(props.value);
+  const [editing, setEditing] = useState(false);
+  useEffect(() => {
+    if (!editing) setDraft(props.value);
+  }, [props.value, editing]);
+  const verdict = props.validate?.(editing ? draft : props.value) ?? {};
+  const commit = () => {
+    if (props.validate?.(draft).error) return false;
+    if (draft !== props.value) props.onCommit(draft);
+    return true;
+  };
+  const common = {
+    id,
+    value: draft,
+    disabled: props.disabled,
+    maxLength: props.maxLength,
+    placeholder: props.placeholder,
+    'aria-invalid': verdict.error ? true : undefined,
+    'aria-describedby': verdict.error || verdict.warning ? msgId : undefined,
+    className: verdict.error ? 'invalid' : undefined,
+    onFocus: () => setEditing(true),
+    onBlur: () => {
+      if (commit()) setEditing(false);
+    },
+  } as const;
+  return (
+    <span className={`field ${props.className ?? ''}`}>
+      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
+        {props.label}
+      </label>
+      {props.multiline ? (
+        <textarea
+          {...common}
+          rows={3}
+          onChange={(e) => setDraft(e.target.value)}
+          onKeyDown={(e) => {
+            if (e.key === 'Escape') {
+              setDraft(props.value);
+              setEditing(false);
+            }
+          }}
+        />
+      ) : (
+        <input
+          {...common}
+          type="text"
+          autoComplete="off"
+          size={props.size ?? 14}
+          onChange={(e) => setDraft(e.target.value)}
+          onKeyDown={(e) => {
+            if (e.key === 'Enter') {
+              if (commit()) setEditing(false);
+            } else if (e.key === 'Escape') {
+              setDraft(props.value);
+              setEditing(false);
+            }
+          }}
+        />
+      )}
+      <Message id={msgId} verdict={verdict} />
+    </span>
+  );
+}
+
+export interface SelectFieldProps<T extends string> extends CommonProps {
+  value: T;
+  options: ReadonlyArray<{ value: T; label: string }>;
+  onChange: (v: T) => void;
+}
+
+export function SelectField<T extends string>(props: SelectFieldProps<T>) {
+  const id = useId();
+  return (
+    <span className={`field ${props.className ?? ''}`}>
+      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
+        {props.label}
+      </label>
+      <select id={id} value={props.value} disabled={props.disabled} onChange={(e) => props.onChange(e.target.value as T)}>
+        {props.options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+    </span>
+  );
+}

@@ -1,0 +1,235 @@
+/**
+ * Blendbench state — the public API for features (designer, explorer, charts, blend sheet).
+ *
+ * Stores hold INPUTS only (components, recipes, targets, settings); derive every result by calling
+ * src/core in a selector or useMemo. All three stores are saved to IndexedDB automatically (schema
+ * version + migrations + validation, see persistence.ts); the app shell waits for `useSavedWorkReady()`
+ * before showing screens, so features always see loaded data.
+ *
+ * Reading (React hooks; pass a selector to avoid needless re-renders):
+ *   useLibrary(s => s.components)            Component[] (demo on first start)
+ *   useComponentsById()                      Map<id, Component> (memoised per library change)
+ *   useRecipes(s => s.recipes)               Recipe[];  useRecipes(s => s.targets[id]) BlendTargets | undefined
+ *   useActiveRecipe()                        Recipe | null (the one the designer / sheet opens on)
+ *   useSettings()                            Settings (units, currency symbol, number format, company,
+ *                                            operatingTempC, coldStartTempC, blendMethod)
+ *   useFormat()                              number / temperature / money formatters for the settings
+ *                                            (from src/components/format.ts)
+ * Writing (actions; call from event handlers):
+ *   useLibrary.getState().addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id)
+ *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
+ *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes? }) → id
+ *     | updateRecipe(id, patch) | setLines(id, lines) | raiseRevision(id) | duplicateRecipe(id, name?) → id
+ *     | removeRecipe(id) | setActiveRecipe(id) | setTargets(recipeId, BlendTargets)
+ *     (also available as useRecipes.getState().addRecipe … )
+ *   settingsActions.updateSettings(patch)
+ *   defaultTargets(grade, additiveId, referenceRecipeId) → BlendTargets
+ * Undo/redo (zundo), one history per store:
+ *   useLibraryHistory() / useRecipesHistory() → { canUndo, canRedo, undo, redo }
+ * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
+ */
+import { useMemo } from 'react';
+import { useStore } from 'zustand';
+import type { Component, Recipe } from '../core/model';
+import { useLibraryStore, LIBRARY_SPEC } from './library';
+import { useRecipesStore, RECIPES_SPEC, demoRecipesData } from './recipes';
+import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
+import {
+  useStorageStatus,
+  saveNow,
+  noteEdit,
+  onSavedInOtherTab,
+  requestPersistentStorage,
+  type StoreKey,
+} from './persistence';
+import { demoComponents, demoSettingsPatch } from './demo';
+
+export type { Settings } from './settings';
+export type { LibraryState, LibraryData } from './library';
+export type { RecipesState, RecipesData, NewRecipe } from './recipes';
+export { blankComponent, freeCode } from './library';
+export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
+export { DEFAULT_SETTINGS } from './settings';
+export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';
+
+/** The library store hook (zustand): `useLibrary(s => s.components)`; `useLibrary.getState()` for actions. */
+export const useLibrary = useLibraryStore;
+/** The recipes store hook (zustand). */
+export const useRecipes = useRecipesStore;
+/** The settings store hook (raw zustand; prefer `useSettings()` for the settings object). */
+export const useSettingsState = useSettingsStore;
+
+/** Current settings. */
+export function useSettings(): Settings {
+  return useSettingsStore((s) => s.settings);
+}
+
+export const settingsActions = {
+  updateSettings: (patch: Partial<Settings>) => useSettingsStore.getState().updateSettings(patch),
+};
+
+/** Recipe actions, callable outside React. */
+export const recipeActions = {
+  addRecipe: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['addRecipe']>) =>
+    useRecipesStore.getState().addRecipe(...a),
+  updateRecipe: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['updateRecipe']>) =>
+    useRecipesStore.getState().updateRecipe(...a),
+  setLines: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setLines']>) =>
+    useRecipesStore.getState().setLines(...a),
+  raiseRevision: (id: string) => useRecipesStore.getState().raiseRevision(id),
+  duplicateRecipe: (id: string, name?: string) => useRecipesStore.getState().duplicateRecipe(id, name),
+  removeRecipe: (id: string) => useRecipesStore.getState().removeRecipe(id),
+  setActiveRecipe: (id: string | null) => useRecipesStore.getState().setActiveRecipe(id),
+  setTargets: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setTargets']>) =>
+    useRecipesStore.getState().setTargets(...a),
+};
+
+/** Library actions, callable outside React. */
+export const libraryActions = {
+  addComponent: (...a: Parameters<ReturnType<typeof useLibraryStore.getState>['addComponent']>) =>
+    useLibraryStore.getState().addComponent(...a),
+  updateComponent: (...a: Parameters<ReturnType<typeof useLibraryStore.getState>['updateComponent']>) =>
+    useLibraryStore.getState().updateComponent(...a),
+  cloneComponent: (id: string) => useLibraryStore.getState().cloneComponent(id),
+  setAvailability: (...a: Parameters<ReturnType<typeof useLibraryStore.getState>['setAvailability']>) =>
+    useLibraryStore.getState().setAvailability(...a),
+  removeComponent: (id: string) => useLibraryStore.getState().removeComponent(id),
+};
+
+const byIdCache = new WeakMap<readonly Component[], Map<string, Component>>();
+/** Components by id, memoised per library state (safe to call in selectors). */
+export function componentsById(components: readonly Component[]): Map<string, Component> {
+  let m = byIdCache.get(components);
+  if (!m) {
+    m = new Map(components.map((c) => [c.id, c]));
+    byIdCache.set(components, m);
+  }
+  return m;
+}
+
+export function useComponentsById(): Map<string, Component> {
+  const components = useLibraryStore((s) => s.components);
+  return componentsById(components);
+}
+
+export function useActiveRecipe(): Recipe | null {
+  return useRecipesStore((s) => s.recipes.find((r) => r.id === s.activeRecipeId) ?? null);
+}
+
+export interface History {
+  canUndo: boolean;
+  canRedo: boolean;
+  undo: () => void;
+  redo: () => void;
+}
+
+export function useLibraryHistory(): History {
+  const past = useStore(useLibraryStore.temporal, (t) => t.pastStates.length);
+  const future = useStore(useLibraryStore.temporal, (t) => t.futureStates.length);
+  return useMemo(
+    () => ({
+      canUndo: past > 0,
+      canRedo: future > 0,
+      undo: () => useLibraryStore.temporal.getState().undo(),
+      redo: () => useLibraryStore.temporal.getState().redo(),
+    }),
+    [past, future],
+  );
+}
+
+export function useRecipesHistory(): History {
+  const past = useStore(useRecipesStore.temporal, (t) => t.pastStates.length);
+  const future = useStore(useRecipesStore.temporal, (t) => t.futureStates.length);
+  return useMemo(
+    () => ({
+      canUndo: past > 0,
+      canRedo: future > 0,
+      undo: () => useRecipesStore.temporal.getState().undo(),
+      redo: () => useRecipesStore.temporal.getState().redo(),
+    }),
+    [past, future],
+  );
+}
+
+/** Restore the invented demo library, recipes and company name (library and recipes undoable). */
+export function resetDemo(): void {
+  useLibraryStore.getState().replaceComponents(demoComponents());
+  useRecipesStore.getState().replaceAll(demoRecipesData());
+  useSettingsStore.getState().updateSettings(demoSettingsPatch());
+}
+
+/** True once every store has read its saved copy (or found none / an unusable one). */
+export function useSavedWorkReady(): boolean {
+  return useStorageStatus((s) => Object.values(s.stores).every((st) => st.phase === 'ready'));
+}
+
+/** Current persisted data of a store (what `saveNow` writes). */
+export function persistedData(key: StoreKey): unknown {
+  if (key === 'library') return { components: useLibraryStore.getState().components };
+  if (key === 'recipes') {
+    const { recipes, targets, activeRecipeId } = useRecipesStore.getState();
+    return { recipes, targets, activeRecipeId };
+  }
+  return { settings: useSettingsStore.getState().settings };
+}
+
+export const STORE_VERSION: Record<StoreKey, number> = {
+  library: LIBRARY_SPEC.version,
+  recipes: RECIPES_SPEC.version,
+  settings: SETTINGS_SPEC.version,
+};
+
+const rehydrate: Record<StoreKey, () => Promise<void>> = {
+  library: () => useLibraryStore.persist.rehydrate(),
+  recipes: () => useRecipesStore.persist.rehydrate(),
+  settings: () => useSettingsStore.persist.rehydrate(),
+};
+
+let started: Promise<void> | null = null;
+let stopWatching: Array<() => void> = [];
+
+/**
+ * Load saved work (all stores), save the demo on a first start, count edits for the backup
+ * reminder, follow saves made in other tabs, and ask the browser for persistent storage.
+ * Idempotent; the shell calls it once.
+ */
+export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
+  started ??= (async () => {
+    await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings()]);
+    useLibraryStore.temporal.getState().clear();
+    useRecipesStore.temporal.getState().clear();
+    const status = useStorageStatus.getState().stores;
+    for (const key of ['library', 'recipes', 'settings'] as const) {
+      if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
+    }
+    let external = false;
+    stopWatching.push(
+      useLibraryStore.subscribe((s, p) => {
+        if (!external && s.components !== p.components) noteEdit();
+      }),
+      useRecipesStore.subscribe((s, p) => {
+        if (!external && (s.recipes !== p.recipes || s.targets !== p.targets)) noteEdit();
+      }),
+      onSavedInOtherTab((key) => {
+        external = true;
+        void rehydrate[key]().finally(() => {
+          external = false;
+          if (key === 'library') useLibraryStore.temporal.getState().clear();
+          if (key === 'recipes') useRecipesStore.temporal.getState().clear();
+          useStorageStatus.setState({
+            externalChange: `The ${key} was changed in another Blendbench tab; this tab now shows that version (undo history cleared).`,
+          });
+        });
+      }),
+    );
+    if (opts.requestPersistence !== false) void requestPersistentStorage();
+  })();
+  return started;
+}
+
+/** Tests only: allow `startSavedWork` to run again. */
+export function resetStartForTests(): void {
+  started = null;
+  for (const stop of stopWatching) stop();
+  stopWatching = [];
+}

@@ -1,0 +1,152 @@
+/** Library store: the plant's components (stocks). Persisted, with undo/redo (zundo). */
+import { create } from 'zustand';
+import { persist } from 'zustand/middleware';
+import { temporal } from 'zundo';
+import type { Availability, Component } from '../core/model';
+import { idbPersistStorage, type StoreSpec } from './persistence';
+import { libraryDataSchema } from './schemas';
+import { demoComponents } from './demo';
+import { newId, today } from './ids';
+
+export interface LibraryData {
+  components: Component[];
+}
+
+export interface LibraryState extends LibraryData {
+  /** Add a component (defaults fill what is not given); returns its id. */
+  addComponent: (init?: Partial<Omit<Component, 'id'>>) => string;
+  /** Change fields of one component. */
+  updateComponent: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
+  /** Copy a component under a new id and a free code ("BW-190 copy"); returns the new id. */
+  cloneComponent: (id: string) => string | null;
+  setAvailability: (id: string, availability: Availability) => void;
+  removeComponent: (id: string) => void;
+  /** Add or update by stock code (import): existing codes keep their id. */
+  upsertByCode: (components: Component[]) => void;
+  /** Replace the whole library (reset demo, import-all backup). */
+  replaceComponents: (components: Component[]) => void;
+}
+
+export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
+  key: 'library',
+  version: 2,
+  schema: libraryDataSchema,
+  migrations: {
+    // Schema 1 (first development builds) stored components without the optional scoring fields.
+    1: (d) => {
+      const comps = (d as { components?: unknown }).components;
+      if (!Array.isArray(comps)) throw new Error('components is not a list');
+      return {
+        components: comps.map((c: Record<string, unknown>) => ({
+          sulfurPct: null,
+          saturatesPct: null,
+          oxidationRating: null,
+          shearLossPct: null,
+          calibration: null,
+          source: '',
+          sourceDate: '',
+          notes: '',
+          ...c,
+        })),
+      };
+    },
+  },
+};
+
+/** A blank component with safe placeholder values (a Group II medium neutral-like stock). */
+export function blankComponent(init: Partial<Omit<Component, 'id'>> = {}): Component {
+  return {
+    id: newId('c'),
+    code: '',
+    name: '',
+    category: 'group-ii',
+    viscosityPoints: [
+      { tempC: 40, kv: 40 },
+      { tempC: 100, kv: 6.3 },
+    ],
+    density15: 0.86,
+    anilinePoint: null,
+    pourPoint: null,
+    flashPoint: null,
+    sulfurPct: null,
+    saturatesPct: null,
+    price: { amount: 0, basis: 'per-kg', currency: 'EUR' },
+    availability: 'available',
+    oxidationRating: null,
+    shearLossPct: null,
+    calibration: null,
+    source: '',
+    sourceDate: today(),
+    notes: '',
+    ...init,
+  };
+}
+
+/** The first code of the form `<base>`, `<base>-2`, `<base>-3` … not used in `components`. */
+export function freeCode(components: readonly Component[], base: string): string {
+  const used = new Set(components.map((c) => c.code.trim().toLowerCase()));
+  if (base && !used.has(base.toLowerCase())) return base;
+  for (let i = 2; ; i++) {
+    const code = `${base || 'NEW'}-${i}`;
+    if (!used.has(code.toLowerCase())) return code;
+  }
+}
+
+export const useLibraryStore = create<LibraryState>()(
+  persist(
+    temporal(
+      (set, get) => ({
+        components: demoComponents(),
+        addComponent: (init = {}) => {
+          const c = blankComponent(init);
+          if (!c.code) c.code = freeCode(get().components, 'NEW');
+          set((s) => ({ components: [...s.components, c] }));
+          return c.id;
+        },
+        updateComponent: (id, patch) =>
+          set((s) => ({ components: s.components.map((c) => (c.id === id ? { ...c, ...patch, id } : c)) })),
+        cloneComponent: (id) => {
+          const src = get().components.find((c) => c.id === id);
+          if (!src) return null;
+          const copy: Component = structuredClone(src);
+          copy.id = newId('c');
+          copy.code = freeCode(get().components, `${src.code}-copy`);
+          copy.name = src.name ? `${src.name} (copy)` : '';
+          const at = get().components.indexOf(src) + 1;
+          set((s) => ({ components: [...s.components.slice(0, at), copy, ...s.components.slice(at)] }));
+          return copy.id;
+        },
+        setAvailability: (id, availability) =>
+          set((s) => ({ components: s.components.map((c) => (c.id === id ? { ...c, availability } : c)) })),
+        removeComponent: (id) => set((s) => ({ components: s.components.filter((c) => c.id !== id) })),
+        upsertByCode: (incoming) =>
+          set((s) => {
+            const byCode = new Map(s.components.map((c) => [c.code.trim().toLowerCase(), c]));
+            const next = [...s.components];
+            for (const inc of incoming) {
+              const existing = byCode.get(inc.code.trim().toLowerCase());
+              if (existing) {
+                next[next.indexOf(existing)] = { ...inc, id: existing.id };
+              } else {
+                next.push(inc);
+              }
+            }
+            return { components: next };
+          }),
+        replaceComponents: (components) => set({ components }),
+      }),
+      {
+        partialize: (s): LibraryData => ({ components: s.components }),
+        equality: (a, b) => a.components === b.components,
+        limit: 100,
+      },
+    ),
+    {
+      name: 'library',
+      version: LIBRARY_SPEC.version,
+      storage: idbPersistStorage(LIBRARY_SPEC),
+      partialize: (s): LibraryData => ({ components: s.components }),
+      skipHydration: true,
+    },
+  ),
+);
