@@ -28,6 +28,7 @@
  * gives the same recipe). A mean of an ordinal scale is a convention, not a physical law: it is
  * shown to one decimal and mapped to five named classes, never presented as a measured property.
  */
+import { BlendbenchInputError, assertFinite } from './errors';
 import type { Component, ComponentCategory, RecipeLine } from './model';
 
 /** Lowest and highest value on the oxidation-stability scale. */
@@ -70,7 +71,7 @@ export function isBaseFluid(component: Pick<Component, 'category'>): boolean {
  *
  * @param component The component (uses `category` and the optional `oxidationRating` override).
  * @returns Rating r, dimensionless, 1 (least stable) … 5 (most stable).
- * @throws RangeError if the override is not a finite number in [1, 5].
+ * @throws InvalidNumberError, BlendbenchInputError if the override is not a finite number in [1, 5].
  * @example oxidationRating({ category: 'group-ii', oxidationRating: null }) // → 4
  * Source: Blendbench's own scale; ordering is common practice (no source).
  */
@@ -79,8 +80,11 @@ export function oxidationRating(component: Pick<Component, 'category' | 'oxidati
   if (override === null || override === undefined) {
     return DEFAULT_OXIDATION_RATING[component.category];
   }
-  if (!Number.isFinite(override) || override < OXIDATION_RATING_MIN || override > OXIDATION_RATING_MAX) {
-    throw new RangeError(
+  assertFinite('oxidationRating', 'oxidationRating', override);
+  if (override < OXIDATION_RATING_MIN || override > OXIDATION_RATING_MAX) {
+    throw new BlendbenchInputError(
+      'oxidationRating',
+      override,
       `oxidationRating: override must be a number from ${OXIDATION_RATING_MIN} to ${OXIDATION_RATING_MAX}, got ${String(override)}`,
     );
   }
@@ -98,7 +102,7 @@ export function oxidationRating(component: Pick<Component, 'category' | 'oxidati
  * @example oxidationClass(4.2) // → 'good'
  */
 export function oxidationClass(rating: number): OxidationClass {
-  if (!Number.isFinite(rating)) throw new RangeError(`oxidationClass: rating must be finite, got ${String(rating)}`);
+  assertFinite('oxidationClass', 'rating', rating);
   if (rating < 1.5) return 'low';
   if (rating < 2.5) return 'fair';
   if (rating < 3.5) return 'moderate';
@@ -133,7 +137,7 @@ export interface BlendOxidation {
  * @param components Library (at least every component named by `lines`).
  * @param lines Recipe lines with mass fractions (0–1).
  * @returns Blend rating (1–5), its class and the per-component terms.
- * @throws RangeError if a line names an unknown component, a fraction is negative or not finite,
+ * @throws BlendbenchInputError (or InvalidNumberError) if a line names an unknown component, a fraction is negative or not finite,
  *   or the base fluid has zero mass.
  * @example blendOxidationRating(lib, [{componentId:'g1', massFraction:0.5},{componentId:'pao', massFraction:0.5}])
  *   // Group I (2) + PAO (5) 50/50 → rating 3.5, class 'good'
@@ -147,15 +151,28 @@ export function blendOxidationRating(
   const terms: { id: string; w: number; r: number }[] = [];
   for (const line of lines) {
     const c = byId.get(line.componentId);
-    if (!c) throw new RangeError(`blendOxidationRating: unknown component "${line.componentId}"`);
-    if (!Number.isFinite(line.massFraction) || line.massFraction < 0) {
-      throw new RangeError(`blendOxidationRating: mass fraction of "${line.componentId}" must be ≥ 0, got ${line.massFraction}`);
+    if (!c) {
+      throw new BlendbenchInputError(
+        'componentId',
+        line.componentId,
+        `blendOxidationRating: componentId = "${line.componentId}" is not in the component library`,
+      );
+    }
+    assertFinite('blendOxidationRating', `massFraction[${line.componentId}]`, line.massFraction);
+    if (line.massFraction < 0) {
+      throw new BlendbenchInputError(
+        `massFraction[${line.componentId}]`,
+        line.massFraction,
+        `blendOxidationRating: massFraction of "${line.componentId}" = ${line.massFraction}; it must be ≥ 0`,
+      );
     }
     if (!isBaseFluid(c) || line.massFraction === 0) continue;
     baseMass += line.massFraction;
     terms.push({ id: c.id, w: line.massFraction, r: oxidationRating(c) });
   }
-  if (!(baseMass > 0)) throw new RangeError('blendOxidationRating: the blend has no base fluid');
+  if (!(baseMass > 0)) {
+    throw new BlendbenchInputError('lines', lines, 'blendOxidationRating: the blend has no base fluid (only additive packages)');
+  }
   let rating = 0;
   const contributions = terms.map((t) => {
     const f = t.w / baseMass;

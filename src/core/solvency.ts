@@ -24,6 +24,8 @@
  * is the number to compare. Never a measured property.
  */
 
+import { assertFinite } from './errors';
+
 /** Named solvency bands, least solvent first. Names are Blendbench's own. */
 export type SolvencyBand = 'poor' | 'limited' | 'moderate' | 'good' | 'strong';
 
@@ -65,14 +67,12 @@ export interface SolvencyScore {
  *
  * @param anilinePoint AP, aniline point (ASTM D611) of the blend's base fluid [°C]; any finite value.
  * @returns Band, ordinal score (1–5) and the aniline point, flagged approximate.
- * @throws RangeError if `anilinePoint` is not finite.
+ * @throws InvalidNumberError if `anilinePoint` is not finite.
  * @example solvencyScore(118) // → { band: 'moderate', score: 3, anilinePoint: 118, approximate: true }
  * Source: Blendbench's own scale; thresholds are common practice (no source).
  */
 export function solvencyScore(anilinePoint: number): SolvencyScore {
-  if (typeof anilinePoint !== 'number' || !Number.isFinite(anilinePoint)) {
-    throw new RangeError(`solvencyScore: anilinePoint = ${String(anilinePoint)} °C is not a finite number`);
-  }
+  assertFinite('solvencyScore', 'anilinePoint', anilinePoint);
   for (const t of SOLVENCY_THRESHOLDS) {
     if (anilinePoint < t.belowAnilinePoint) {
       return { anilinePoint, band: t.band, score: t.score, approximate: true };

@@ -74,7 +74,7 @@ describe('blendOxidationRating', () => {
     expect(blendOxidationRating(lib, [{ componentId: 'pao', massFraction: 1 }]).rating).toBe(5);
   });
   it('rejects unknown components and blends without base fluid', () => {
-    expect(() => blendOxidationRating(lib, [{ componentId: 'nope', massFraction: 1 }])).toThrow(/unknown/);
+    expect(() => blendOxidationRating(lib, [{ componentId: 'nope', massFraction: 1 }])).toThrow(/not in the component library/);
     expect(() => blendOxidationRating(lib, [{ componentId: 'add', massFraction: 1 }])).toThrow(/base fluid/);
   });
 });
