@@ -1,0 +1,64 @@
+/**
+ * Blending coordinates of the two mixing rules, as the solver uses them.
+ *
+ * Both rules are linear in a transformed viscosity X(ν):
+ *
+ * - Refutas:      X = VBN = 14.534·ln(ln(ν + 0.8)) + 10.975,  X_blend = Σ wᵢ·Xᵢ  (mass fractions wᵢ)
+ * - ASTM D7152:   X = log₁₀ log₁₀(ν + 0.7),                   X_blend = Σ φᵢ·Xᵢ  (volume fractions φᵢ)
+ *
+ * With basis weights cᵢ = 1 (mass) or cᵢ = 1/ρᵢ (volume, since φᵢ = (wᵢ/ρᵢ)/Σ wⱼ/ρⱼ) both read
+ *
+ *   X_blend = Σ cᵢ·wᵢ·Xᵢ / Σ cᵢ·wᵢ,
+ *
+ * so a bound X_blend ≤ K is the homogeneous linear inequality Σ cᵢ·wᵢ·(Xᵢ − K) ≤ 0 in the mass
+ * fractions — the form every solver row takes. X is increasing in ν, so a viscosity band maps to an
+ * X band.
+ *
+ * @see `blending/refutas.ts` and `blending/astm-loglog.ts` for the rules themselves (the solver calls
+ *   the same functions, so its numbers agree with the calculation core).
+ */
+import type { BlendMethod } from '../blending/blend-viscosity';
+import { kvFromRefutasVbn, refutasVbn } from '../blending/refutas';
+import { astmLogLog, kvFromAstmLogLog } from '../blending/astm-loglog';
+
+export interface BlendCoordinates {
+  readonly method: BlendMethod;
+  /** True when the rule blends by mass fraction (cᵢ = 1); false for volume (cᵢ = 1/ρᵢ). */
+  readonly massBasis: boolean;
+  /** X(ν) [dimensionless] of a kinematic viscosity ν [mm²/s]. */
+  toX(kv: number): number;
+  /** ν(X) [mm²/s], the inverse of {@link toX}. */
+  toKv(x: number): number;
+  /** dX for a +1 % change of ν at ν [per %], the local scale used by the 'closest' objective. */
+  perPct(kv: number): number;
+  /**
+   * Factor applied to coordinate rows so that the simplex sees coefficients of order 1
+   * (VBN differences are O(1–10); log-log differences are O(0.01–0.3)).
+   */
+  readonly rowScale: number;
+}
+
+const REFUTAS: BlendCoordinates = {
+  method: 'refutas',
+  massBasis: true,
+  toX: refutasVbn,
+  toKv: kvFromRefutasVbn,
+  // d VBN/dν = 14.534 / ((ν + 0.8)·ln(ν + 0.8)); × ν/100 for one per cent.
+  perPct: (kv) => ((14.534 / ((kv + 0.8) * Math.log(kv + 0.8))) * kv) / 100,
+  rowScale: 1,
+};
+
+const ASTM_D7152: BlendCoordinates = {
+  method: 'astm-d7152',
+  massBasis: false,
+  toX: astmLogLog,
+  toKv: kvFromAstmLogLog,
+  // d/dν log₁₀ log₁₀(ν + 0.7) = 1 / (ln10² · log₁₀(ν + 0.7) · (ν + 0.7)); × ν/100.
+  perPct: (kv) => ((1 / (Math.LN10 * Math.LN10 * Math.log10(kv + 0.7) * (kv + 0.7))) * kv) / 100,
+  rowScale: 30,
+};
+
+/** The blending coordinates of a mixing rule. */
+export function blendCoordinates(method: BlendMethod): BlendCoordinates {
+  return method === 'astm-d7152' ? ASTM_D7152 : REFUTAS;
+}

@@ -1,0 +1,159 @@
+/**
+ * The minimum-VI condition in the solver's blending coordinates, and its linear relaxations.
+ *
+ * ASTM D2270: at fixed Y = ν100 the viscosity index falls as U = ν40 rises (procedure A is linear
+ * and decreasing in U; in procedure B, N = (log H − log U)/log Y decreases in U), and both
+ * procedures meet at VI = 100 when U = H. Hence, for a minimum VI m,
+ *
+ *   VI(U, Y) ≥ m   ⇔   U ≤ U_max(Y),
+ *   U_max(Y) = L − (m/100)·(L − H)                      for m ≤ 100 (procedure A solved for U)
+ *   U_max(Y) = H / Y^N,  N = log₁₀(1 + 0.00715·(m − 100))   for m > 100 (procedure B solved for U)
+ *
+ * with L(Y), H(Y) from Table 1 / the D2270 equations (`referenceViscosities`). U_max rises with Y,
+ * so in blending coordinates X (see `coordinates.ts`) the condition is
+ *
+ *   X40 ≤ g(X100) = X(U_max(ν(X100)))   ⇔   X100 ≥ h(X40) = g⁻¹(X40).
+ *
+ * X40 and X100 of a blend are linear (Refutas) or linear-fractional (D7152) in the mass fractions,
+ * but h is not linear: over the whole viscosity range it is concave, with small convex stretches
+ * between the rows of Table 1 (linear interpolation there). The feasible set is therefore not
+ * convex and the condition cannot be one LP row. The solver handles it exactly by a
+ * one-dimensional branch and bound on X40 (see `engine.ts`): on an interval [a, b] of X40 the chord
+ * of h through (a, h(a)) and (b, h(b)), lowered by the largest amount δ by which it exceeds h on
+ * [a, b], is a valid linear under-estimator of h:
+ *
+ *   X100 ≥ h(a) − δ + β·(X40 − a),   β = (h(b) − h(a))/(b − a),
+ *
+ * so the LP with that row is a relaxation (its optimum is a bound on the true optimum), and the gap
+ * between chord and curve shrinks with the square of the interval width as intervals are split.
+ *
+ * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
+ */
+import { D2270_KV100 } from '../data/d2270-table1';
+import { referenceViscosities, VI_MIN_KV100 } from '../viscosity-index';
+import type { BlendCoordinates } from './coordinates';
+
+/** A linear lower bound X100 ≥ alpha + beta·X40 valid on an interval of X40. */
+export interface ViChord {
+  alpha: number;
+  beta: number;
+}
+
+/** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
+const GAP_SAMPLES = 24;
+
+export class ViBoundary {
+  readonly minVi: number;
+  readonly coords: BlendCoordinates;
+  /** X100 of ν100 = 2.0 mm²/s, below which D2270 defines no VI. */
+  readonly x100Min: number;
+  /** g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds. */
+  private readonly x40AtFloor: number;
+  private readonly procedureBExponent: number;
+
+  constructor(minVi: number, coords: BlendCoordinates) {
+    this.minVi = minVi;
+    this.coords = coords;
+    this.x100Min = coords.toX(VI_MIN_KV100);
+    this.procedureBExponent = minVi > 100 ? Math.log10(1 + 0.00715 * (minVi - 100)) : 0;
+    this.x40AtFloor = this.g(this.x100Min);
+  }
+
+  /**
+   * U_max(Y): the highest ν40 [mm²/s] that still gives VI ≥ minVi at ν100 = Y [mm²/s].
+   * Procedure A or B solved for U (see the module comment).
+   */
+  uMax(kv100: number): number {
+    const { L, H } = referenceViscosities(kv100);
+    const m = this.minVi;
+    if (m <= 100) return L - (m / 100) * (L - H);
+    return H / Math.pow(kv100, this.procedureBExponent);
+  }
+
+  /** g(X100) = X(U_max(ν(X100))): the largest blend X40 allowed at a blend X100. */
+  g(x100: number): number {
+    const y = Math.max(VI_MIN_KV100, this.coords.toKv(x100));
+    return this.coords.toX(this.uMax(y));
+  }
+
+  /** h(X40) = g⁻¹(X40): the smallest blend X100 that satisfies the VI condition at X40 (bisection). */
+  h(x40: number): number {
+    if (x40 <= this.x40AtFloor) return this.x100Min;
+    let lo = this.x100Min;
+    let step = 1;
+    let hi = lo + step;
+    // Bracket: g is increasing; widen until g(hi) ≥ x40 (ν100 up to ~1e6 mm²/s at most).
+    for (let k = 0; k < 60 && this.g(hi) < x40; k++) {
+      lo = hi;
+      step *= 2;
+      hi = lo + step;
+    }
+    for (let k = 0; k < 100 && hi - lo > 1e-13 * Math.max(1, Math.abs(hi)); k++) {
+      const mid = 0.5 * (lo + hi);
+      if (this.g(mid) < x40) lo = mid;
+      else hi = mid;
+    }
+    return hi;
+  }
+
+  /**
+   * Linear under-estimators of h on [a, b] (X40 coordinates), given h(a) and h(b): lines
+   * X100 ≥ alpha + beta·X40, each valid for every X40 in [a, b]:
+   *
+   * 1. the chord through (a, h(a)) and (b, h(b)), lowered by δ, the largest excess of the chord
+   *    over h on [a, b];
+   * 2. the steepest line through (a, h(a)) that stays below h on [a, b] — exact at a;
+   * 3. the flattest line through (b, h(b)) that stays below h on [a, b] — exact at b.
+   *
+   * The excess and the slopes are taken over the curve at the Table 1 rows inside the interval
+   * (where h has kinks) and at {@link GAP_SAMPLES} evenly spaced points; a small extra margin covers
+   * the curvature between samples. Exactness at the ends means that a relaxed optimum at an end of
+   * its interval already satisfies the VI condition.
+   */
+  relaxation(a: number, ha: number, b: number, hb: number): ViChord[] {
+    if (!(b - a > 1e-12)) return [{ alpha: Math.min(ha, hb), beta: 0 }];
+    const beta = (hb - ha) / (b - a);
+    let delta = 0;
+    let slopeA = beta;
+    let slopeB = beta;
+    const check = (x100: number): void => {
+      const x40 = this.g(x100);
+      if (!(x40 > a && x40 < b)) return;
+      const excess = ha + beta * (x40 - a) - x100;
+      if (excess > delta) delta = excess;
+      const sa = (x100 - ha) / (x40 - a);
+      if (sa < slopeA) slopeA = sa;
+      const sb = (hb - x100) / (b - x40);
+      if (sb > slopeB) slopeB = sb;
+    };
+    const lo = Math.min(ha, hb);
+    const hi = Math.max(ha, hb);
+    for (let k = 1; k < GAP_SAMPLES; k++) check(lo + ((hi - lo) * k) / GAP_SAMPLES);
+    const yLo = this.coords.toKv(lo);
+    const yHi = this.coords.toKv(hi);
+    if (yLo < 70.0) {
+      // Rows of Table 1 are the kinks of the interpolated L and H (binary search for the first).
+      let i = 0;
+      let j = D2270_KV100.length - 1;
+      while (j - i > 1) {
+        const mid = (i + j) >> 1;
+        if ((D2270_KV100[mid] as number) <= yLo) i = mid;
+        else j = mid;
+      }
+      for (let r = i; r < D2270_KV100.length; r++) {
+        const y = D2270_KV100[r] as number;
+        if (y > yHi) break;
+        if (y > yLo) check(this.coords.toX(y));
+      }
+    }
+    // Margins for the curvature between samples: 5 % more excess, slopes eased by 1 %.
+    const lines: ViChord[] = [{ alpha: ha - beta * a - delta * 1.05, beta }];
+    if (delta > 0) {
+      const sA = slopeA - 0.01 * Math.abs(beta - slopeA);
+      const sB = slopeB + 0.01 * Math.abs(slopeB - beta);
+      lines.push({ alpha: ha - sA * a, beta: sA });
+      lines.push({ alpha: hb - sB * b, beta: sB });
+    }
+    return lines;
+  }
+}
