@@ -5,7 +5,7 @@
  * (viscosity L at 40 °C) and one of VI 100 (viscosity H at 40 °C), both having the same ν100 as
  * the oil, are the end points.
  *
- * Symbols (ASTM D2270 §3): U = ν40 of the oil, Y = ν100 of the oil, L and H = ν40 of the VI-0 and
+ * Symbols (as in ASTM D2270): U = ν40 of the oil, Y = ν100 of the oil, L and H = ν40 of the VI-0 and
  * VI-100 reference oils having ν100 = Y; all kinematic viscosities in mm²/s (= cSt).
  */
 import { D2270_H, D2270_KV100, D2270_L } from './data/d2270-table1';
@@ -18,7 +18,7 @@ export const VI_MIN_KV100 = 2.0;
 export const VI_TABLE_MAX_KV100 = 70.0;
 
 /**
- * Linear interpolation in Table 1 for 2.0 ≤ Y ≤ 70.0 (caller has checked the range).
+ * Linear interpolation in Table 1 (the standard's instruction for ν100 between tabulated rows) for 2.0 ≤ Y ≤ 70.0 (caller has checked the range).
  * A Y equal to a tabulated row returns that row's values exactly.
  */
 function interpolateTable(y: number): { L: number; H: number } {
@@ -54,10 +54,10 @@ function interpolateTable(y: number): { L: number; H: number } {
  * @throws NonPositiveViscosityError if `kv100` ≤ 0
  * @throws ViscosityOutOfRangeError if `kv100` < 2.0 mm²/s (outside the standard's scope)
  * @example
- * referenceViscosities(8.86) // → { L: 119.944, H: 69.4834 }  (D2270 worked example: 119.94, 69.48)
+ * referenceViscosities(8.86) // → { L: 119.94, H: 69.48 }  (D2270 worked example, interpolated)
  * referenceViscosities(100)  // → { L: 9604, H: 2772 }
- * @see ASTM D2270-10 (reapproved 2016), Standard Practice for Calculating Viscosity Index from
- *   Kinematic Viscosity at 40 °C and 100 °C, §7 and Table 1.
+ * @see ASTM D2270, Standard Practice for Calculating Viscosity Index from Kinematic Viscosity at
+ *   40 °C and 100 °C: Table 1 and the equations for ν100 above 70 mm²/s (ISO 2909 is equivalent).
  */
 export function referenceViscosities(kv100: number): { L: number; H: number } {
   const fn = 'referenceViscosities';
@@ -102,7 +102,7 @@ function assertViRange(fn: string, kv100: number): void {
  * @example
  * viscosityIndex(73.30, 8.86) // → 92.43  (D2270 worked example, procedure A; reported 92)
  * viscosityIndex(22.83, 5.05) // → 156.42 (D2270 worked example, procedure B; reported 156)
- * @see ASTM D2270 §7 (procedure A) and §8 (procedure B).
+ * @see ASTM D2270, procedures A and B; worked examples reproduced in tests (check values V1, V2).
  */
 export function viscosityIndex(kv40: number, kv100: number): number {
   const fn = 'viscosityIndex';
@@ -129,7 +129,7 @@ export function viscosityIndex(kv40: number, kv100: number): number {
  * @throws InvalidNumberError if `x` is not finite
  * @example roundHalfEven(116.5) // → 116
  * @see ASTM E29, Standard Practice for Using Significant Digits in Test Data to Determine
- *   Conformance with Specifications, §6.4 (rounding method).
+ *   Conformance with Specifications (rounding method), as referenced by ASTM D2270.
  */
 export function roundHalfEven(x: number): number {
   assertFinite('roundHalfEven', 'x', x);
@@ -149,7 +149,7 @@ export function roundHalfEven(x: number): number {
  * @returns reported viscosity index, a whole number [dimensionless]
  * @throws the same errors as {@link viscosityIndex}
  * @example reportedViscosityIndex(73.30, 8.86) // → 92 (D2270 worked example)
- * @see ASTM D2270 §9 (report) and ASTM E29.
+ * @see ASTM D2270 (report the VI as a whole number) and ASTM E29.
  */
 export function reportedViscosityIndex(kv40: number, kv100: number): number {
   const vi = viscosityIndex(kv40, kv100);

@@ -15,8 +15,8 @@
  * Extrapolation below the pour point, or for polymer-thickened oils at low temperature, is not
  * meaningful (common practice): results there are arithmetic, not predictions.
  *
- * @see ASTM D341-20, Standard Practice for Viscosity–Temperature Equations and Charts for Liquid
- *   Petroleum or Hydrocarbon Products, §6 (equations).
+ * @see ASTM D341, Standard Practice for Viscosity–Temperature Equations and Charts for Liquid
+ *   Petroleum or Hydrocarbon Products (the Walther equation and its two-point form).
  */
 import {
   ViscosityOrderError,
@@ -104,7 +104,7 @@ function checkResultKv(fn: string, tempC: number, kv: number): number {
  * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOrderError (kv100 ≥ kv40),
  *   ViscosityOutOfRangeError (a viscosity below 2.0 mm²/s)
  * @example waltherLine(73.30, 8.86) // → { A: 9.458393, B: 3.680946 }
- * @see ASTM D341 §6.
+ * @see ASTM D341.
  */
 export function waltherLine(kv40: number, kv100: number): WaltherLine {
   const fn = 'waltherLine';
@@ -139,7 +139,7 @@ function twoPointLine(t1: number, kv1: number, t2: number, kv2: number): Walther
  *   ViscosityOutOfRangeError (kv < 2.0), ViscosityOrderError (fewer than two distinct temperatures,
  *   or a hotter point not thinner), BlendbenchInputError (fewer than two points)
  * @example fitWalther([{ tempC: 40, kv: 73.3 }, { tempC: 100, kv: 8.86 }]) // → { A: 9.458393, B: 3.680946 }
- * @see ASTM D341 §6; least squares: common practice (no source).
+ * @see ASTM D341; least squares on the linearised form: common practice (no source).
  */
 export function fitWalther(points: readonly { tempC: number; kv: number }[]): WaltherLine {
   const fn = 'fitWalther';
@@ -207,7 +207,7 @@ export function fitWalther(points: readonly { tempC: number; kv: number }[]): Wa
  * @throws InvalidNumberError, BelowAbsoluteZeroError, ViscosityOrderError (B ≤ 0),
  *   ViscosityOutOfRangeError (result below 2.0 mm²/s)
  * @example kvAtTemperature(waltherLine(73.30, 8.86), 60) // → 30.0826
- * @see ASTM D341 §6.
+ * @see ASTM D341.
  */
 export function kvAtTemperature(line: WaltherLine, tempC: number): number {
   const fn = 'kvAtTemperature';
@@ -227,7 +227,7 @@ export function kvAtTemperature(line: WaltherLine, tempC: number): number {
  * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOrderError (B ≤ 0),
  *   ViscosityOutOfRangeError (kv below 2.0 mm²/s)
  * @example temperatureAtKv(waltherLine(73.30, 8.86), 30.0826) // → 60.0
- * @see ASTM D341 §6.
+ * @see ASTM D341.
  */
 export function temperatureAtKv(line: WaltherLine, kv: number): number {
   const fn = 'temperatureAtKv';
@@ -248,7 +248,7 @@ export function temperatureAtKv(line: WaltherLine, kv: number): number {
  * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOrderError,
  *   ViscosityOutOfRangeError (an input or the result below 2.0 mm²/s), BelowAbsoluteZeroError
  * @example viscosityAtTemperature(220, 19.0, 80) // → 35.60
- * @see ASTM D341 §6.
+ * @see ASTM D341.
  */
 export function viscosityAtTemperature(kv40: number, kv100: number, tempC: number): number {
   const fn = 'viscosityAtTemperature';
@@ -275,7 +275,7 @@ export function viscosityAtTemperature(kv40: number, kv100: number, tempC: numbe
  * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOrderError,
  *   ViscosityOutOfRangeError (a viscosity below 2.0 mm²/s)
  * @example temperatureForViscosity(73.30, 8.86, 30.0826) // → 60.0
- * @see ASTM D341 §6.
+ * @see ASTM D341.
  */
 export function temperatureForViscosity(kv40: number, kv100: number, kv: number): number {
   const fn = 'temperatureForViscosity';
@@ -299,7 +299,7 @@ export function temperatureForViscosity(kv40: number, kv100: number, kv: number)
  * @throws the errors of {@link fitWalther}; ViscosityOutOfRangeError if a value read off the line
  *   falls below 2.0 mm²/s
  * @example kv40kv100FromPoints([{ tempC: 40, kv: 220 }, { tempC: 100, kv: 19 }]) // → { kv40: 220, kv100: 19 }
- * @see ASTM D341 §6, ASTM D2270 §1.
+ * @see ASTM D341; ASTM D2270 (computed from measured ν40 and ν100).
  */
 export function kv40kv100FromPoints(points: readonly { tempC: number; kv: number }[]): {
   kv40: number;

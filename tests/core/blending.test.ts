@@ -147,7 +147,7 @@ describe('blend at any temperature', () => {
       ViscosityOrderError,
     );
     expect(() => blendViscosityAt('refutas', [{ ...light, massFraction: 1, kv100: 120 }], 40)).toThrow(
-      /blendViscosityAt: parts\[0\]\.kv100 = 120/,
+      /^blendViscosityAt: parts\[0\]: kv100 = 120 mm²\/s is not below kv40/,
     );
     expect(() => blendViscosityAt('refutas', [light, { ...heavy, massFraction: 0.4 }], 40)).toThrow(FractionSumError);
     expect(() => blendViscosityAt('astm-d7152', [light, { ...heavy, density15: 900 }], 40)).toThrow(
@@ -155,6 +155,10 @@ describe('blend at any temperature', () => {
     );
     expect(() => blendViscosityAt('other' as never, [light, heavy], 40)).toThrow(BlendbenchInputError);
     expect(() => blendViscosityAt('refutas', [light, heavy], -274)).toThrow(/absolute zero/);
+    // a component thinned below the D341 range at the blending temperature names the part
+    expect(() => blendViscosityAt('refutas', [heavy, { ...light, kv40: 20, kv100: 4 }], 200)).toThrow(
+      /^blendViscosityAt: parts\[1\]: viscosityAtTemperature: at tempC = 200 °C/,
+    );
   });
 });
 

@@ -12,7 +12,7 @@
  * or strongly non-Newtonian fluids: a polymeric component needs its own treatment (an effective
  * blending viscosity calibrated from a measured blend, see `Calibration` in model.ts).
  *
- * @see ASTM D7152-11, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
+ * @see ASTM D7152, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
  *   "ASTM method" (constant-temperature form); form as in shared/reference/check-values.md §3 (B4).
  */
 import { ViscosityOutOfRangeError, assertFinite, assertFractions, assertViscosity } from '../errors';

@@ -63,7 +63,7 @@ export interface BlendPart {
  *   { massFraction: 0.5, density15: 0.88, kv40: 100, kv100: 11 },
  *   { massFraction: 0.5, density15: 0.90, kv40: 460, kv100: 31 },
  * ], 40) // → { kv: 203.39, method: 'refutas' }
- * @see ASTM D341 §6; Refutas; ASTM D7152.
+ * @see ASTM D341; Refutas; ASTM D7152.
  */
 export function blendViscosityAt(
   method: BlendMethod,
@@ -81,7 +81,7 @@ export function blendViscosityAt(
   parts.forEach((p, i) => {
     assertDensity15(fn, `parts[${i}].density15`, p.density15);
     try {
-      assertKv40Kv100(fn, p.kv40, p.kv100);
+      assertKv40Kv100('blendViscosityAt', p.kv40, p.kv100);
     } catch (e) {
       throw renameField(e, i);
     }
@@ -132,12 +132,15 @@ function assertMethod(fn: string, method: unknown): asserts method is BlendMetho
   }
 }
 
-/** Prefix a part's index to the field of an error raised for one part. */
+/**
+ * Re-raise an error found in one part as the same error class, naming this function and the part:
+ * `blendViscosityAt: parts[1]: viscosityAtTemperature: at tempC = 250 °C the line gives …`.
+ */
 function renameField(e: unknown, i: number): unknown {
   if (e instanceof BlendbenchInputError && !e.field.startsWith('parts[')) {
     const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
-    const field = `parts[${i}].${e.field}`;
-    return new Ctor(field, e.value, e.message.replace(`: ${e.field} =`, `: ${field} =`));
+    const inner = e.message.replace(/^blendViscosityAt: /, '');
+    return new Ctor(`parts[${i}].${e.field}`, e.value, `blendViscosityAt: parts[${i}]: ${inner}`);
   }
   return e;
 }
