@@ -254,7 +254,7 @@ function pricePerKgOf(c: Component): number | null {
  * additive package last. Within a role: higher ν40 first, then larger mass, then stock code.
  *
  * @param components - the library (at least every component the recipe names)
- * @param recipe - the recipe; its mass fractions sum to 1
+ * @param recipe - the recipe; its mass fractions sum to 1 (lines at exactly 0 are left off the sheet)
  * @param batch - batch size `{ kg }` [kg] or `{ litres }` [L at 15 °C], > 0
  * @param options - charging-order override and displayed precision
  * @returns the sheet: rows in charging order, exact and displayed totals, blend density, costing
@@ -274,7 +274,9 @@ export function buildBlendSheet(
   if (recipe.lines.length === 0) {
     throw new BlendbenchInputError('recipe.lines', recipe.lines, `${fn}: recipe "${recipe.name}" has no lines`);
   }
-  const parts = recipe.lines.map((line, i) => {
+  // Lines at 0 % have nothing to charge: they are left off the sheet (they still count in the sum check).
+  const parts = recipe.lines.flatMap((line, i) => {
+    if (line.massFraction === 0) return [];
     const c = byId.get(line.componentId);
     if (!c) {
       throw new BlendbenchInputError(
@@ -283,7 +285,7 @@ export function buildBlendSheet(
         `${fn}: recipe "${recipe.name}" names component ${line.componentId}, which is not in the library`,
       );
     }
-    return { line, c };
+    return [{ line, c }];
   });
   const batchValue = 'kg' in batch ? batch.kg : batch.litres;
   const batchField = 'kg' in batch ? 'batch.kg' : 'batch.litres';

@@ -206,6 +206,11 @@ describe('buildBlendSheet', () => {
     expect(m.costing).toEqual({ available: false, reason: expect.stringMatching(/different currencies/) });
   });
 
+  it('leaves lines at 0 % off the sheet', () => {
+    const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4], ['zz', 0]]), { kg: 1000 });
+    expect(s.rows.map((r) => r.code)).toEqual(['B', 'A']);
+  });
+
   it('throws specific errors for a missing component or a bad batch size', () => {
     expect(() => buildBlendSheet(two, recipe([['zz', 1]]), { kg: 1000 })).toThrow(/not in the library/);
     expect(() => buildBlendSheet(two, recipe([['a', 1]]), { kg: 0 })).toThrow(/batch.kg = 0/);

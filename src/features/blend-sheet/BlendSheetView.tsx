@@ -26,8 +26,8 @@ export interface BlendSheetViewProps {
   onRecipeChange?: (id: string) => void;
   /** Company name printed at the head of the sheet (from settings). */
   companyName: string;
-  /** Predicted properties of a recipe; may throw with a message the sheet shows. */
-  predict: (recipe: Recipe) => SheetPrediction;
+  /** Predicted properties of a recipe (with the prediction's own cautions); may throw with a message the sheet shows. */
+  predict: (recipe: Recipe) => SheetPrediction & { warnings?: readonly string[] };
   /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
   today: string;
   /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
@@ -73,10 +73,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     }
   }, [components, recipe, batchUnit, batchValue]);
 
-  const qc = useMemo((): { rows: QcRow[] } | { error: string } | null => {
+  const qc = useMemo((): { rows: QcRow[]; warnings: readonly string[] } | { error: string } | null => {
     if (!recipe) return null;
     try {
-      return { rows: qcReleaseTargets(recipe.grade, predict(recipe)) };
+      const p = predict(recipe);
+      return { rows: qcReleaseTargets(recipe.grade, p), warnings: p.warnings ?? [] };
     } catch (e) {
       return { error: errorText(e) };
     }
@@ -404,6 +405,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 ))}
               </tbody>
             </table>
+          )}
+          {qc && 'warnings' in qc && qc.warnings.length > 0 && (
+            <p className="bs-note">Prediction notes: {qc.warnings.join(' ')}</p>
           )}
           <p className="bs-note">
             Targets are defaults around the prediction (ν40: plant aim ±5 % of the grade mid-point inside the ISO 3448

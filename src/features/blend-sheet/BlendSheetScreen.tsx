@@ -1,0 +1,60 @@
+// The blend-sheet screen: wires the printable sheet to the saved library, recipes and settings.
+// Opens on `#/blend-sheet/<recipeId>` when given, else on the active recipe.
+import { useCallback, useMemo, useState } from 'react';
+import type { Recipe } from '../../core/model';
+import { predictBlend } from '../../core/blend-properties';
+import { recipeActions, useActiveRecipe, useLibrary, useRecipes, useSettings } from '../../state';
+import { useFormat } from '../../components/format';
+import { BlendSheetView } from './BlendSheetView';
+import { toSheetPrediction } from './prediction';
+
+function recipeIdFromHash(): string | null {
+  const parts = window.location.hash.replace(/^#\/?/, '').split('/');
+  return parts[0] === 'blend-sheet' && parts[1] ? decodeURIComponent(parts[1]) : null;
+}
+
+function localIsoDate(d: Date): string {
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
+
+export default function BlendSheetScreen() {
+  const components = useLibrary((s) => s.components);
+  const recipes = useRecipes((s) => s.recipes);
+  const active = useActiveRecipe();
+  const settings = useSettings();
+  const f = useFormat();
+  const [picked, setPicked] = useState<string | null>(() => {
+    const fromHash = recipeIdFromHash();
+    return fromHash && recipes.some((r) => r.id === fromHash) ? fromHash : null;
+  });
+  const today = useMemo(() => localIsoDate(new Date()), []);
+  const recipeId = picked ?? active?.id ?? null;
+
+  const predict = useCallback(
+    (recipe: Recipe) => {
+      const p = predictBlend(components, recipe.lines, {
+        method: settings.blendMethod,
+        operatingTempC: settings.operatingTempC,
+      });
+      return { ...toSheetPrediction(p), warnings: p.warnings };
+    },
+    [components, settings.blendMethod, settings.operatingTempC],
+  );
+
+  return (
+    <BlendSheetView
+      components={components}
+      recipes={recipes}
+      recipeId={recipeId}
+      onRecipeChange={(id) => {
+        setPicked(id);
+        recipeActions.setActiveRecipe(id);
+      }}
+      companyName={settings.companyName}
+      predict={predict}
+      today={today}
+      formatNumber={(x, d) => f.num(x, d)}
+    />
+  );
+}
