@@ -1,12 +1,111 @@
-export function App() {
+import { lazy, Suspense, useEffect, useRef, useState, type ComponentType, type LazyExoticComponent } from 'react';
+import { SCREENS, type ScreenEntry } from './screens';
+import { ErrorBoundary } from './ErrorBoundary';
+import { SavedWorkNotices } from './SavedWorkNotices';
+import { CautionBanner, DemoTag } from '../components/notices';
+import { isDemoComponent, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
+
+const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
+function screenComponent(entry: ScreenEntry): LazyExoticComponent<ComponentType> {
+  let c = lazyScreens.get(entry.id);
+  if (!c) {
+    c = lazy(entry.load);
+    lazyScreens.set(entry.id, c);
+  }
+  return c;
+}
+
+function screenFromHash(): ScreenEntry {
+  const id = window.location.hash.replace(/^#\/?/, '').split(/[/?]/)[0] ?? '';
+  return SCREENS.find((s) => s.id === id) ?? SCREENS[0]!;
+}
+
+function useHashScreen(): ScreenEntry {
+  const [screen, setScreen] = useState(screenFromHash);
+  useEffect(() => {
+    const on = () => setScreen(screenFromHash());
+    window.addEventListener('hashchange', on);
+    return () => window.removeEventListener('hashchange', on);
+  }, []);
+  return screen;
+}
+
+function DemoLabel() {
+  const hasDemo = useLibrary((s) => s.components.some(isDemoComponent));
+  const company = useSettings().companyName;
+  if (!hasDemo) return company ? <span className="header-company">{company}</span> : null;
   return (
-    <main className="shell">
-      <h1>Blendbench</h1>
-      <p>Gear-oil reformulation workbench.</p>
-      <p className="caution" role="note">
-        Predicted properties are estimates. Every blend requires laboratory confirmation before release;
-        the safety data sheets, site procedures and local regulations govern handling.
-      </p>
-    </main>
+    <DemoTag>
+      Invented demo data — {DEMO_PLANT} is an invented plant; stocks, codes and prices are invented
+    </DemoTag>
+  );
+}
+
+export function App() {
+  const ready = useSavedWorkReady();
+  const screen = useHashScreen();
+  const mainRef = useRef<HTMLElement>(null);
+  const firstRender = useRef(true);
+
+  useEffect(() => {
+    void startSavedWork();
+  }, []);
+
+  useEffect(() => {
+    document.title = `${screen.label} — Blendbench`;
+    if (firstRender.current) {
+      firstRender.current = false;
+      return;
+    }
+    mainRef.current?.focus();
+  }, [screen]);
+
+  const Screen = screenComponent(screen);
+  return (
+    <div className="app">
+      <a className="skip-link" href="#main">
+        Skip to content
+      </a>
+      <header className="app-header">
+        <div className="brand">
+          <h1>Blendbench</h1>
+          <span className="tagline">gear-oil reformulation workbench</span>
+        </div>
+        <DemoLabel />
+      </header>
+      <div className="app-body">
+        <nav className="app-nav" aria-label="Screens">
+          <ul>
+            {SCREENS.map((s) => (
+              <li key={s.id}>
+                <a href={`#/${s.id}`} aria-current={s.id === screen.id ? 'page' : undefined}>
+                  <span className="nav-label">{s.label}</span>
+                  <span className="nav-blurb">{s.blurb}</span>
+                </a>
+              </li>
+            ))}
+          </ul>
+        </nav>
+        <main id="main" ref={mainRef} tabIndex={-1} className="app-main">
+          <SavedWorkNotices />
+          <CautionBanner compact={!screen.predictions} />
+          {ready ? (
+            <ErrorBoundary resetKey={screen.id}>
+              <Suspense fallback={<p className="loading">Opening {screen.label}…</p>}>
+                <Screen />
+              </Suspense>
+            </ErrorBoundary>
+          ) : (
+            <p className="loading" role="status">
+              Opening saved work…
+            </p>
+          )}
+        </main>
+      </div>
+      <footer className="app-footer">
+        Blendbench runs entirely in this browser; nothing is sent anywhere. Predictions are estimates by published
+        methods (ASTM D341, D2270, D7152, Refutas, ISO 3448) and require laboratory confirmation before release.
+      </footer>
+    </div>
   );
 }

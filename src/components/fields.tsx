@@ -60,6 +60,8 @@ export function NumberField(props: NumberFieldProps) {
     v === null ? '' : props.digits === undefined ? fmt.num(v, decimalsOf(v)).replace(/\u202f/g, '') : fmt.num(v, props.digits).replace(/\u202f/g, '');
   const [draft, setDraft] = useState(() => show(props.value));
   const [editing, setEditing] = useState(false);
+  // Only a value the user typed is committed: a displayed, rounded value is never written back.
+  const [dirty, setDirty] = useState(false);
   useEffect(() => {
     if (!editing) setDraft(show(props.value));
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -74,10 +76,12 @@ export function NumberField(props: NumberFieldProps) {
     if (!Number.isFinite(v)) return { v, verdict: { error: `${props.label}: must be a finite number` } };
     return { v, verdict: props.validate?.(v) ?? {} };
   };
-  const current = editing ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
+  const current = editing && dirty ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
   const commit = () => {
+    if (!dirty) return true;
     const { v, verdict } = judge(draft);
     if (verdict.error) return false;
+    setDirty(false);
     if (v !== props.value) props.onCommit(v);
     return true;
   };
@@ -100,7 +104,10 @@ export function NumberField(props: NumberFieldProps) {
         aria-describedby={hasMsg ? msgId : undefined}
         className={current.verdict.error ? 'invalid' : current.verdict.warning ? 'doubtful' : undefined}
         onFocus={() => setEditing(true)}
-        onChange={(e) => setDraft(e.target.value)}
+        onChange={(e) => {
+          setDraft(e.target.value);
+          setDirty(true);
+        }}
         onBlur={() => {
           if (commit()) setEditing(false);
         }}
@@ -111,6 +118,7 @@ export function NumberField(props: NumberFieldProps) {
             }
           } else if (e.key === 'Escape') {
             setDraft(show(props.value));
+            setDirty(false);
             setEditing(false);
           }
         }}

@@ -1,0 +1,26 @@
+/**
+ * The navigation list: one entry per screen, each loaded lazily (React.lazy) on first visit.
+ *
+ * To add a screen: create `src/features/<name>/<Name>Screen.tsx` with a DEFAULT export (a component
+ * taking no props that renders its own <h2>), then add ONE line below, before `settings`.
+ * `predictions: true` makes the shell show the full laboratory caution above the screen.
+ */
+import type { ComponentType } from 'react';
+
+export interface ScreenEntry {
+  /** URL hash: `#/<id>`. */
+  id: string;
+  /** Navigation label. */
+  label: string;
+  /** One line under the label in the navigation. */
+  blurb: string;
+  /** True if the screen shows predicted properties. */
+  predictions: boolean;
+  load: () => Promise<{ default: ComponentType }>;
+}
+
+export const SCREENS: ScreenEntry[] = [
+  { id: 'library', label: 'Stocks', blurb: 'Component library', predictions: true, load: () => import('../features/library/LibraryScreen') },
+  { id: 'blend-sheet', label: 'Blend sheet', blurb: 'Printable sheet for the plant', predictions: true, load: () => import('../features/blend-sheet/BlendSheetScreen') },
+  { id: 'settings', label: 'Settings', blurb: 'Units, saved work, backups', predictions: false, load: () => import('../features/settings/SettingsScreen') },
+];

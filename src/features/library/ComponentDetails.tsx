@@ -1,0 +1,187 @@
+import type { Component, PriceBasis } from '../../core/model';
+import { oxidationRating } from '../../core/oxidation';
+import { PRICE_BASIS_LABEL } from '../../core/units';
+import { pricePerKg } from '../../core/cost';
+import { NumberField, SelectField, TextField } from '../../components/fields';
+import { useFormat } from '../../components/format';
+import { checkValue } from '../../state/checks';
+
+const BASIS_OPTIONS = (Object.keys(PRICE_BASIS_LABEL) as PriceBasis[]).map((b) => ({ value: b, label: PRICE_BASIS_LABEL[b] }));
+
+export interface DetailsProps {
+  c: Component;
+  usedIn: string[];
+  onUpdate: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
+}
+
+function safePerKg(c: Component): number | null {
+  try {
+    return pricePerKg(c.price, c.density15);
+  } catch {
+    return null;
+  }
+}
+
+/** The fields that do not fit in the table row, for one stock. */
+export function ComponentDetails({ c, usedIn, onUpdate }: DetailsProps) {
+  const fmt = useFormat();
+  const who = c.code || 'new stock';
+  const perKg = safePerKg(c);
+  const setPoint = (i: number, patch: Partial<{ tempC: number; kv: number }>) =>
+    onUpdate(c.id, { viscosityPoints: c.viscosityPoints.map((p, j) => (j === i ? { ...p, ...patch } : p)) });
+  const pointError = (i: number, tempC: number, kv: number): string | undefined => {
+    const pts = c.viscosityPoints.map((p, j) => (j === i ? { tempC, kv } : p));
+    if (pts.filter((p) => p.tempC === tempC).length > 1) return `there is already a point at ${fmt.temp(tempC)}`;
+    const sorted = [...pts].sort((a, b) => a.tempC - b.tempC);
+    for (let k = 1; k < sorted.length; k++) {
+      if (sorted[k]!.kv >= sorted[k - 1]!.kv) {
+        return `viscosity must fall as temperature rises (${fmt.temp(sorted[k]!.tempC)}: ${sorted[k]!.kv} ≥ ${fmt.temp(sorted[k - 1]!.tempC)}: ${sorted[k - 1]!.kv})`;
+      }
+    }
+    return undefined;
+  };
+  return (
+    <div className="details-grid">
+      <fieldset>
+        <legend>Price</legend>
+        <SelectField<PriceBasis>
+          label="Quoted"
+          value={c.price.basis}
+          options={BASIS_OPTIONS}
+          onChange={(basis) => onUpdate(c.id, { price: { ...c.price, basis } })}
+        />
+        <TextField
+          label="Currency"
+          size={5}
+          maxLength={12}
+          value={c.price.currency}
+          validate={(v) => ({ error: v.trim() ? undefined : 'name the currency (e.g. EUR)' })}
+          onCommit={(currency) => onUpdate(c.id, { price: { ...c.price, currency: currency.trim() } })}
+        />
+        <p className="muted small">
+          {perKg === null ? 'Price per kg: —' : `= ${fmt.num(perKg, 3)} ${c.price.currency} per kg (at ρ15 ${fmt.num(c.density15, 3)} kg/L)`}
+        </p>
+      </fieldset>
+      <fieldset>
+        <legend>Composition and scoring</legend>
+        <NumberField label="Sulfur" unit="mass %" allowEmpty value={c.sulfurPct} validate={(v) => checkValue('sulfurPct', v)} onCommit={(v) => onUpdate(c.id, { sulfurPct: v })} />
+        <NumberField
+          label="Saturates"
+          unit="mass %"
+          allowEmpty
+          value={c.saturatesPct}
+          validate={(v) => checkValue('saturatesPct', v)}
+          onCommit={(v) => onUpdate(c.id, { saturatesPct: v })}
+        />
+        <NumberField
+          label="Oxidation rating (1–5)"
+          allowEmpty
+          size={4}
+          value={c.oxidationRating}
+          validate={(v) => checkValue('oxidationRating', v)}
+          onCommit={(v) => onUpdate(c.id, { oxidationRating: v })}
+          hint={<span className="muted small"> empty = category default ({oxidationRating({ category: c.category, oxidationRating: null })})</span>}
+        />
+        <NumberField
+          label="Permanent shear loss of ν100"
+          unit="%"
+          allowEmpty
+          size={4}
+          value={c.shearLossPct}
+          validate={(v) => checkValue('shearLossPct', v)}
+          onCommit={(v) => onUpdate(c.id, { shearLossPct: v })}
+        />
+      </fieldset>
+      <fieldset>
+        <legend>Measured viscosities (ASTM D445)</legend>
+        <table className="mini">
+          <thead>
+            <tr>
+              <th scope="col">Temperature [{fmt.tempUnit}]</th>
+              <th scope="col">ν [mm²/s]</th>
+              <th scope="col">
+                <span className="visually-hidden">Remove</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {c.viscosityPoints.map((p, i) => (
+              <tr key={i}>
+                <td>
+                  <NumberField
+                    label={`Temperature of point ${i + 1} of ${who} [${fmt.tempUnit}]`}
+                    hideLabel
+                    size={5}
+                    value={fmt.tempValue(p.tempC)}
+                    validate={(v) => ({ error: v === null ? 'required' : pointError(i, fmt.tempToC(v), p.kv) })}
+                    onCommit={(v) => v !== null && setPoint(i, { tempC: fmt.tempToC(v) })}
+                  />
+                </td>
+                <td>
+                  <NumberField
+                    label={`Viscosity of point ${i + 1} of ${who} [mm²/s]`}
+                    hideLabel
+                    size={6}
+                    value={p.kv}
+                    validate={(v) => ({ error: v === null ? 'required' : v <= 0 ? 'must be above zero' : pointError(i, p.tempC, v) })}
+                    onCommit={(v) => v !== null && setPoint(i, { kv: v })}
+                  />
+                </td>
+                <td>
+                  {c.viscosityPoints.length > 2 ? (
+                    <button type="button" onClick={() => onUpdate(c.id, { viscosityPoints: c.viscosityPoints.filter((_, j) => j !== i) })}>
+                      Remove<span className="visually-hidden"> point {i + 1}</span>
+                    </button>
+                  ) : null}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <button
+          type="button"
+          onClick={() => {
+            const hottest = c.viscosityPoints.reduce((a, b) => (a.tempC > b.tempC ? a : b));
+            // A placeholder beyond the hottest point and thinner than it, so the set stays consistent.
+            onUpdate(c.id, {
+              viscosityPoints: [...c.viscosityPoints, { tempC: hottest.tempC + 20, kv: Number((hottest.kv * 0.6).toPrecision(3)) }],
+            });
+          }}
+        >
+          Add a measured point
+        </button>
+      </fieldset>
+      <fieldset>
+        <legend>Polymer calibration</legend>
+        {c.calibration ? (
+          <>
+            <p className="small">
+              Effective blending viscosities ν40 {fmt.sig(c.calibration.effectiveKv40, 4)} / ν100 {fmt.sig(c.calibration.effectiveKv100, 4)} mm²/s (
+              {c.calibration.method === 'refutas' ? 'Refutas' : 'ASTM D7152'}), from trial {c.calibration.trial.labReference || '(no reference)'} on{' '}
+              {c.calibration.calibratedOn}.
+            </p>
+            <button type="button" onClick={() => onUpdate(c.id, { calibration: null })}>
+              Remove calibration
+            </button>
+          </>
+        ) : (
+          <p className="muted small">None. Polymers blend non-ideally; a calibration from a measured trial blend can be added from the recipe designer.</p>
+        )}
+      </fieldset>
+      <fieldset className="wide">
+        <legend>Provenance</legend>
+        <TextField label="Source" size={36} maxLength={300} value={c.source} onCommit={(v) => onUpdate(c.id, { source: v })} />
+        <TextField
+          label="Date of data (YYYY-MM-DD)"
+          size={11}
+          maxLength={10}
+          value={c.sourceDate}
+          validate={(v) => ({ error: v === '' || /^\d{4}-\d{2}-\d{2}$/.test(v) ? undefined : 'use the form 2025-03-01' })}
+          onCommit={(v) => onUpdate(c.id, { sourceDate: v })}
+        />
+        <TextField label="Notes" multiline maxLength={2000} value={c.notes} onCommit={(v) => onUpdate(c.id, { notes: v })} />
+        <p className="muted small">{usedIn.length ? `Used in: ${usedIn.join('; ')}.` : 'Not used in any recipe.'}</p>
+      </fieldset>
+    </div>
+  );
+}

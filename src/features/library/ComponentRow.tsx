@@ -1,0 +1,160 @@
+import { memo } from 'react';
+import type { Availability, Component, ComponentCategory } from '../../core/model';
+import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/model';
+import { isoViscosityGrade, nearestGrade } from '../../core/iso-grades';
+import { roundHalfEven } from '../../core/viscosity-index';
+import { NumberField, SelectField, TextField, type Verdict } from '../../components/fields';
+import { useFormat } from '../../components/format';
+import { checkValue, checkViscosityPair, kv40kv100, safeVi } from '../../state/checks';
+
+export const CATEGORY_OPTIONS = COMPONENT_CATEGORIES.map((c) => ({ value: c, label: CATEGORY_LABEL[c] }));
+export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: string }> = [
+  { value: 'available', label: 'Available' },
+  { value: 'limited', label: 'Limited' },
+  { value: 'withdrawn', label: 'Withdrawn' },
+];
+const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L', 'per-tonne': '/t' } as const;
+
+/** Set the viscosity at one temperature (replacing a point there, or adding one). */
+export function withKvAt(c: Component, tempC: number, kv: number): Component['viscosityPoints'] {
+  const has = c.viscosityPoints.some((p) => p.tempC === tempC);
+  const pts = has ? c.viscosityPoints.map((p) => (p.tempC === tempC ? { ...p, kv } : p)) : [...c.viscosityPoints, { tempC, kv }];
+  return [...pts].sort((a, b) => a.tempC - b.tempC);
+}
+
+const toVerdict = (r: { error?: string; warning?: string }): Verdict => ({ error: r.error, warning: r.warning });
+const merge = (a: Verdict, b: Verdict): Verdict => ({ error: a.error ?? b.error, warning: a.warning ?? b.warning });
+
+export interface RowProps {
+  c: Component;
+  codeError: (code: string, id: string) => string | undefined;
+  expanded: boolean;
+  onUpdate: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
+  onToggleDetails: (id: string) => void;
+  onClone: (id: string) => void;
+  onDelete: (id: string) => void;
+  detailsId: string;
+}
+
+/** One stock in the library table: key fields editable in place, VI and grade computed beside. */
+export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded, onUpdate, onToggleDetails, onClone, onDelete, detailsId }: RowProps) {
+  const fmt = useFormat();
+  const kv = kv40kv100(c);
+  const kv40 = kv?.kv40 ?? null;
+  const kv100 = kv?.kv100 ?? null;
+  const vi = kv40 !== null && kv100 !== null && kv100 < kv40 ? safeVi(kv40, kv100) : null;
+  const grade = kv40 !== null ? isoViscosityGrade(kv40) : null;
+  const who = c.code || 'new stock';
+  const tempField = (field: 'anilinePoint' | 'pourPoint' | 'flashPoint', label: string) => (
+    <td className="num">
+      <NumberField
+        label={`${label} of ${who} [${fmt.tempUnit}]`}
+        hideLabel
+        size={5}
+        allowEmpty
+        digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
+        value={c[field] === null ? null : fmt.tempValue(c[field])}
+        validate={(v) => (v === null ? {} : toVerdict(checkValue(field, fmt.tempToC(v))))}
+        onCommit={(v) => onUpdate(c.id, { [field]: v === null ? null : fmt.tempToC(v) })}
+      />
+    </td>
+  );
+  return (
+    <tr className={`avail-${c.availability}`}>
+      <th scope="row" className="code-cell">
+        <TextField
+          label={`Stock code of ${c.name || who}`}
+          hideLabel
+          size={8}
+          maxLength={40}
+          value={c.code}
+          validate={(v) => ({ error: v.trim() ? codeError(v, c.id) : 'a stock code is required' })}
+          onCommit={(v) => onUpdate(c.id, { code: v.trim() })}
+        />
+      </th>
+      <td>
+        <TextField label={`Name of ${who}`} hideLabel size={26} maxLength={200} value={c.name} onCommit={(v) => onUpdate(c.id, { name: v })} />
+      </td>
+      <td>
+        <SelectField<ComponentCategory>
+          label={`Category of ${who}`}
+          hideLabel
+          value={c.category}
+          options={CATEGORY_OPTIONS}
+          onChange={(v) => onUpdate(c.id, { category: v })}
+        />
+      </td>
+      <td className="num">
+        <NumberField
+          label={`ν40 of ${who} [mm²/s]`}
+          hideLabel
+          size={6}
+          value={kv40}
+          validate={(v) => merge(toVerdict(checkValue('kv40', v)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100)) : {})}
+          onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 40, v) })}
+        />
+      </td>
+      <td className="num">
+        <NumberField
+          label={`ν100 of ${who} [mm²/s]`}
+          hideLabel
+          size={5}
+          value={kv100}
+          validate={(v) => merge(toVerdict(checkValue('kv100', v)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v)) : {})}
+          onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 100, v) })}
+        />
+      </td>
+      <td className="num computed" title="Viscosity index, ASTM D2270, computed from ν40 and ν100">
+        {vi === null ? <span title="Not defined (ν100 below 2 mm²/s or viscosities unusable)">—</span> : roundHalfEven(vi)}
+      </td>
+      <td className="num computed" title="ISO 3448 viscosity grade of ν40">
+        {grade !== null ? `VG ${grade}` : kv40 !== null ? <span className="muted">≈{nearestGrade(kv40).grade}</span> : '—'}
+      </td>
+      <td className="num">
+        <NumberField
+          label={`Density at 15 °C of ${who} [kg/L]`}
+          hideLabel
+          size={5}
+          value={c.density15}
+          validate={(v) => toVerdict(checkValue('density15', v))}
+          onCommit={(v) => v !== null && onUpdate(c.id, { density15: v })}
+        />
+      </td>
+      {tempField('anilinePoint', 'Aniline point')}
+      {tempField('pourPoint', 'Pour point')}
+      {tempField('flashPoint', 'Flash point')}
+      <td className="num price-cell">
+        <NumberField
+          label={`Price of ${who} [${c.price.currency} ${BASIS_SHORT[c.price.basis]}]`}
+          hideLabel
+          size={6}
+          value={c.price.amount}
+          validate={(v) => toVerdict(checkValue('price', v))}
+          onCommit={(v) => v !== null && onUpdate(c.id, { price: { ...c.price, amount: v } })}
+          hint={<span className="unit">{BASIS_SHORT[c.price.basis]}</span>}
+        />
+      </td>
+      <td>
+        <SelectField<Availability>
+          label={`Availability of ${who}`}
+          hideLabel
+          value={c.availability}
+          options={AVAILABILITY_OPTIONS}
+          onChange={(v) => onUpdate(c.id, { availability: v })}
+        />
+      </td>
+      <td className="actions">
+        <button type="button" aria-expanded={expanded} aria-controls={detailsId} onClick={() => onToggleDetails(c.id)}>
+          {expanded ? 'Close' : 'More'}
+          <span className="visually-hidden"> fields of {who}</span>
+        </button>
+        <button type="button" onClick={() => onClone(c.id)}>
+          Clone<span className="visually-hidden"> {who}</span>
+        </button>
+        <button type="button" className="danger" onClick={() => onDelete(c.id)}>
+          Delete<span className="visually-hidden"> {who}</span>
+        </button>
+      </td>
+    </tr>
+  );
+});

@@ -1,0 +1,262 @@
+import { Fragment, useCallback, useMemo, useState } from 'react';
+import './library.css';
+import type { Component, ComponentCategory } from '../../core/model';
+import { CATEGORY_LABEL } from '../../core/model';
+import { DemoTag, Notice } from '../../components/notices';
+import { downloadText } from '../../components/download';
+import { useFormat } from '../../components/format';
+import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes } from '../../state';
+import { libraryToCsv, libraryToJson } from '../../state/library-io';
+import { checkComponent } from '../../state/checks';
+import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
+import { ComponentDetails } from './ComponentDetails';
+import { ImportPanel } from './ImportPanel';
+
+type Flash = { tone: 'info' | 'success' | 'warning'; text: string; undo?: boolean } | null;
+
+export default function LibraryScreen() {
+  const components = useLibrary((s) => s.components);
+  const recipes = useRecipes((s) => s.recipes);
+  const history = useLibraryHistory();
+  const fmt = useFormat();
+  const [query, setQuery] = useState('');
+  const [category, setCategory] = useState<ComponentCategory | 'all'>('all');
+  const [expanded, setExpanded] = useState<string | null>(null);
+  const [importing, setImporting] = useState(false);
+  const [flash, setFlash] = useState<Flash>(null);
+
+  const usedIn = useMemo(() => {
+    const m = new Map<string, string[]>();
+    for (const r of recipes) for (const l of r.lines) m.set(l.componentId, [...(m.get(l.componentId) ?? []), r.name]);
+    return m;
+  }, [recipes]);
+
+  const shown = useMemo(() => {
+    const q = query.trim().toLowerCase();
+    return components.filter(
+      (c) => (category === 'all' || c.category === category) && (!q || c.code.toLowerCase().includes(q) || c.name.toLowerCase().includes(q)),
+    );
+  }, [components, query, category]);
+
+  const issues = useMemo(() => {
+    let errors = 0;
+    let warnings = 0;
+    for (const c of components) {
+      const r = checkComponent(c, components);
+      if (r.errors.length) errors++;
+      else if (r.warnings.length) warnings++;
+    }
+    return { errors, warnings };
+  }, [components]);
+
+  const codeError = useCallback(
+    (code: string, id: string) => {
+      const k = code.trim().toLowerCase();
+      const other = useLibrary.getState().components.find((c) => c.id !== id && c.code.trim().toLowerCase() === k);
+      return other ? `${code.trim()} is already used by “${other.name || other.code}”` : undefined;
+    },
+    [],
+  );
+  const onUpdate = useCallback((id: string, patch: Partial<Omit<Component, 'id'>>) => useLibrary.getState().updateComponent(id, patch), []);
+  const onToggleDetails = useCallback((id: string) => setExpanded((e) => (e === id ? null : id)), []);
+  const onClone = useCallback((id: string) => {
+    const newId = useLibrary.getState().cloneComponent(id);
+    const copy = useLibrary.getState().components.find((c) => c.id === newId);
+    if (copy) setFlash({ tone: 'success', text: `Cloned as ${copy.code}.`, undo: true });
+  }, []);
+  const onDelete = useCallback(
+    (id: string) => {
+      const c = useLibrary.getState().components.find((x) => x.id === id);
+      if (!c) return;
+      const uses = usedIn.get(id);
+      if (uses?.length) {
+        setFlash({
+          tone: 'warning',
+          text: `${c.code} is used in ${uses.length} recipe${uses.length > 1 ? 's' : ''} (${uses.join('; ')}), so it was not deleted. Mark it withdrawn instead, or remove it from those recipes first.`,
+        });
+        return;
+      }
+      useLibrary.getState().removeComponent(id);
+      setFlash({ tone: 'info', text: `Deleted ${c.code}${c.name ? ` (${c.name})` : ''}.`, undo: true });
+    },
+    [usedIn],
+  );
+
+  const hasDemo = components.some(isDemoComponent);
+  const stamp = new Date().toISOString().slice(0, 10);
+
+  return (
+    <section className="library-screen" aria-labelledby="library-h">
+      <div className="screen-head">
+        <h2 id="library-h">Stocks</h2>
+        {hasDemo ? <DemoTag>Invented demo library — not real products</DemoTag> : null}
+      </div>
+      <p className="lead small">
+        {components.length} stocks. Type in a cell and press Enter (or leave it) to save; Escape puts back the saved value. VI (ASTM D2270)
+        and grade (ISO 3448) are computed from ν40 and ν100.
+        {issues.errors || issues.warnings ? (
+          <strong className={issues.errors ? 'text-error' : 'text-warning'}>
+            {' '}
+            {issues.errors ? `${issues.errors} stock${issues.errors > 1 ? 's' : ''} with errors. ` : ''}
+            {issues.warnings ? `${issues.warnings} with values flagged for checking.` : ''}
+          </strong>
+        ) : null}
+      </p>
+
+      <div className="toolbar" role="toolbar" aria-label="Library actions">
+        <button
+          type="button"
+          className="primary"
+          onClick={() => {
+            const id = useLibrary.getState().addComponent();
+            setQuery('');
+            setCategory('all');
+            setExpanded(id);
+            setFlash({ tone: 'success', text: 'Added a new stock at the end of the table; fill in its code and values.', undo: true });
+          }}
+        >
+          Add stock
+        </button>
+        <button type="button" disabled={!history.canUndo} onClick={history.undo}>
+          Undo
+        </button>
+        <button type="button" disabled={!history.canRedo} onClick={history.redo}>
+          Redo
+        </button>
+        <span className="toolbar-gap" />
+        <button type="button" aria-expanded={importing} onClick={() => setImporting((v) => !v)}>
+          Import CSV / JSON…
+        </button>
+        <button type="button" onClick={() => downloadText(`blendbench-stocks-${stamp}.csv`, libraryToCsv(components), 'text/csv')}>
+          Export CSV
+        </button>
+        <button type="button" onClick={() => downloadText(`blendbench-stocks-${stamp}.json`, libraryToJson(components), 'application/json')}>
+          Export JSON
+        </button>
+        <span className="toolbar-gap" />
+        <label className="inline-field">
+          <span>Find</span>
+          <input type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="code or name" size={14} />
+        </label>
+        <label className="inline-field">
+          <span>Category</span>
+          <select value={category} onChange={(e) => setCategory(e.target.value as ComponentCategory | 'all')}>
+            <option value="all">All</option>
+            {CATEGORY_OPTIONS.map((o) => (
+              <option key={o.value} value={o.value}>
+                {o.label}
+              </option>
+            ))}
+          </select>
+        </label>
+      </div>
+
+      {flash ? (
+        <Notice
+          tone={flash.tone}
+          actions={
+            <>
+              {flash.undo && history.canUndo ? (
+                <button
+                  type="button"
+                  onClick={() => {
+                    history.undo();
+                    setFlash(null);
+                  }}
+                >
+                  Undo
+                </button>
+              ) : null}
+              <button type="button" onClick={() => setFlash(null)}>
+                Dismiss
+              </button>
+            </>
+          }
+        >
+          {flash.text}
+        </Notice>
+      ) : null}
+
+      {importing ? (
+        <ImportPanel
+          onClose={() => setImporting(false)}
+          onImported={(text) => {
+            setImporting(false);
+            setFlash({ tone: 'success', text, undo: true });
+          }}
+        />
+      ) : null}
+
+      <div className="table-scroll">
+        <table className="data library-table" aria-label="Component library">
+          <thead>
+            <tr>
+              <th scope="col">Code</th>
+              <th scope="col">Name</th>
+              <th scope="col">Category</th>
+              <th scope="col" className="num">
+                ν40 <span className="unit">mm²/s</span>
+              </th>
+              <th scope="col" className="num">
+                ν100 <span className="unit">mm²/s</span>
+              </th>
+              <th scope="col" className="num computed-head">
+                VI <span className="unit">computed</span>
+              </th>
+              <th scope="col" className="num computed-head">
+                ISO VG <span className="unit">computed</span>
+              </th>
+              <th scope="col" className="num">
+                ρ15 <span className="unit">kg/L</span>
+              </th>
+              <th scope="col" className="num">
+                Aniline pt <span className="unit">{fmt.tempUnit}</span>
+              </th>
+              <th scope="col" className="num">
+                Pour pt <span className="unit">{fmt.tempUnit}</span>
+              </th>
+              <th scope="col" className="num">
+                Flash pt <span className="unit">{fmt.tempUnit}</span>
+              </th>
+              <th scope="col" className="num">
+                Price
+              </th>
+              <th scope="col">Availability</th>
+              <th scope="col">
+                <span className="visually-hidden">Actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {shown.map((c) => (
+              <Fragment key={c.id}>
+                <ComponentRow
+                  c={c}
+                  codeError={codeError}
+                  expanded={expanded === c.id}
+                  detailsId={`details-${c.id}`}
+                  onUpdate={onUpdate}
+                  onToggleDetails={onToggleDetails}
+                  onClone={onClone}
+                  onDelete={onDelete}
+                />
+                {expanded === c.id ? (
+                  <tr className="details-row" id={`details-${c.id}`}>
+                    <td colSpan={14}>
+                      <ComponentDetails c={c} usedIn={usedIn.get(c.id) ?? []} onUpdate={onUpdate} />
+                    </td>
+                  </tr>
+                ) : null}
+              </Fragment>
+            ))}
+          </tbody>
+        </table>
+        {shown.length === 0 ? <p className="muted">No stock matches {query ? `“${query}”` : 'this filter'}.</p> : null}
+      </div>
+      <p className="small muted">
+        Categories: {Object.values(CATEGORY_LABEL).join(', ')} (API 1509 Appendix E groups). Withdrawn stocks stay in the library for
+        reference and comparison but are excluded from every solve.
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,120 @@
+/**
+ * Export-all / import-all backups: one JSON file holding the library, recipes and settings, each
+ * with its schema version. Importing validates everything (older sections are migrated with the
+ * stores' own migrations) and changes nothing until `applyBackup` is called with a valid backup.
+ */
+import { z } from './schemas';
+import { interpretStored, noteBackupTaken } from './persistence';
+import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
+import { useRecipesStore, RECIPES_SPEC, type RecipesData } from './recipes';
+import { useSettingsStore, SETTINGS_SPEC, type SettingsData } from './settings';
+
+export const BACKUP_FORMAT = 'blendbench-backup';
+
+export interface Backup {
+  library: LibraryData;
+  recipes: RecipesData;
+  settings: SettingsData;
+  exportedAt: string;
+}
+
+const envelopeSchema = z.object({
+  format: z.literal(BACKUP_FORMAT),
+  exportedAt: z.string().max(40),
+  sections: z.object({
+    library: z.object({ version: z.number().int(), data: z.unknown() }),
+    recipes: z.object({ version: z.number().int(), data: z.unknown() }),
+    settings: z.object({ version: z.number().int(), data: z.unknown() }),
+  }),
+});
+
+/** The current saved work as a backup file's text (JSON). Records the backup time in settings. */
+export function makeBackupText(now = new Date()): string {
+  const lib = useLibraryStore.getState();
+  const rec = useRecipesStore.getState();
+  const exportedAt = now.toISOString();
+  useSettingsStore.getState().updateSettings({ lastBackupAt: exportedAt });
+  const set = useSettingsStore.getState();
+  const body = {
+    format: BACKUP_FORMAT,
+    exportedAt,
+    note: 'Blendbench backup: library, recipes and settings. Import it from Settings → Import a backup.',
+    sections: {
+      library: { version: LIBRARY_SPEC.version, data: { components: lib.components } },
+      recipes: {
+        version: RECIPES_SPEC.version,
+        data: { recipes: rec.recipes, targets: rec.targets, activeRecipeId: rec.activeRecipeId },
+      },
+      settings: { version: SETTINGS_SPEC.version, data: { settings: set.settings } },
+    },
+  };
+  noteBackupTaken();
+  return JSON.stringify(body, null, 1);
+}
+
+export function backupFileName(now = new Date()): string {
+  return `blendbench-backup-${now.toISOString().slice(0, 16).replace(/[:T]/g, '-')}.json`;
+}
+
+export type BackupParse =
+  | { ok: true; backup: Backup; summary: string; warnings: string[] }
+  | { ok: false; errors: string[] };
+
+/** Validate a backup file's text. Never throws; changes nothing. */
+export function parseBackupText(text: string): BackupParse {
+  if (text.length > 50_000_000) return { ok: false, errors: ['The file is larger than 50 MB; it is not a Blendbench backup.'] };
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    return { ok: false, errors: [`The file is not valid JSON: ${(e as Error).message}`] };
+  }
+  const env = envelopeSchema.safeParse(json);
+  if (!env.success) {
+    return { ok: false, errors: ['The file is not a Blendbench backup (expected "format": "blendbench-backup" with library, recipes and settings sections).'] };
+  }
+  const errors: string[] = [];
+  const s = env.data.sections;
+  const lib = interpretStored(LIBRARY_SPEC, { state: s.library.data, version: s.library.version });
+  const rec = interpretStored(RECIPES_SPEC, { state: s.recipes.data, version: s.recipes.version });
+  const set = interpretStored(SETTINGS_SPEC, { state: s.settings.data, version: s.settings.version });
+  for (const r of [lib, rec, set]) {
+    if (r.kind === 'problem') errors.push(r.problem.message.replace('The saved', 'The backup’s'));
+    if (r.kind === 'empty') errors.push('A section of the backup is empty.');
+  }
+  if (lib.kind !== 'ok' || rec.kind !== 'ok' || set.kind !== 'ok') return { ok: false, errors };
+  // Cross-checks: unique codes and ids; every recipe line names a component in the backup.
+  const ids = new Set<string>();
+  const codes = new Set<string>();
+  for (const c of lib.data.components) {
+    if (ids.has(c.id)) errors.push(`Component id ${c.id} appears twice.`);
+    const code = c.code.trim().toLowerCase();
+    if (codes.has(code)) errors.push(`Stock code ${c.code} appears twice.`);
+    ids.add(c.id);
+    codes.add(code);
+  }
+  for (const r of rec.data.recipes) {
+    r.lines.forEach((l, i) => {
+      if (!ids.has(l.componentId)) errors.push(`Recipe “${r.name}”, line ${i + 1}: its component is not in the backup’s library.`);
+    });
+  }
+  if (errors.length) return { ok: false, errors };
+  const warnings: string[] = [];
+  if (rec.data.activeRecipeId && !rec.data.recipes.some((r) => r.id === rec.data.activeRecipeId)) {
+    warnings.push('The active recipe named in the backup is missing; none will be active.');
+    rec.data.activeRecipeId = null;
+  }
+  return {
+    ok: true,
+    backup: { library: lib.data, recipes: rec.data, settings: set.data, exportedAt: env.data.exportedAt },
+    summary: `${lib.data.components.length} components, ${rec.data.recipes.length} recipes and the settings, exported ${env.data.exportedAt.slice(0, 16).replace('T', ' ')}`,
+    warnings,
+  };
+}
+
+/** Replace the library, recipes and settings with a validated backup (library and recipes undoable). */
+export function applyBackup(b: Backup): void {
+  useLibraryStore.getState().replaceComponents(b.library.components);
+  useRecipesStore.getState().replaceAll(b.recipes);
+  useSettingsStore.getState().replaceSettings(b.settings.settings);
+}

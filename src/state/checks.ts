@@ -1,0 +1,171 @@
+/**
+ * Entry checks for a component: hard errors (the value cannot be right, or the core cannot use it)
+ * and warnings (possible but outside the usual range for the trade — flagged, never silently
+ * accepted). Used by the library screen at entry and by imports, so both say the same thing.
+ *
+ * The plausible ranges are common practice (no source): wide enough for every stock type a gear-oil
+ * blender meets (light esters to mid-molecular-weight polymers), narrow enough to catch unit slips
+ * (kg/m³ typed as kg/L, cSt at 100 °C typed in the 40 °C column).
+ */
+import { DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
+import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/oxidation';
+import { viscosityIndex } from '../core/viscosity-index';
+import { kv40kv100FromPoints } from '../core/viscosity-temperature';
+import type { Component } from '../core/model';
+
+/** Field names used in messages and for placing them beside inputs. */
+export type CheckField =
+  | 'code'
+  | 'name'
+  | 'kv40'
+  | 'kv100'
+  | 'viscosityPoints'
+  | 'density15'
+  | 'anilinePoint'
+  | 'pourPoint'
+  | 'flashPoint'
+  | 'sulfurPct'
+  | 'saturatesPct'
+  | 'price'
+  | 'oxidationRating'
+  | 'shearLossPct'
+  | 'category';
+
+export interface CheckIssue {
+  field: CheckField;
+  message: string;
+}
+
+export interface CheckResult {
+  errors: CheckIssue[];
+  warnings: CheckIssue[];
+}
+
+type Range = readonly [number, number];
+/** Plausible ranges (common practice, no source). */
+export const PLAUSIBLE: Record<'kv40' | 'kv100' | 'anilinePoint' | 'pourPoint' | 'flashPoint' | 'sulfurPct' | 'shearLossPct', Range> = {
+  kv40: [2, 50_000],
+  kv100: [1.5, 3_000],
+  anilinePoint: [-60, 180],
+  pourPoint: [-80, 40],
+  flashPoint: [60, 400],
+  sulfurPct: [0, 5],
+  shearLossPct: [0, 60],
+};
+
+const fmt = (v: number) => String(Number(v.toPrecision(6)));
+
+/** Check one number field alone. Returns an error or a warning message, or nothing. */
+export function checkValue(field: CheckField, v: number | null): { error?: string; warning?: string } {
+  if (v === null) {
+    if (field === 'kv40' || field === 'kv100' || field === 'density15' || field === 'price') return { error: 'a value is required' };
+    return {};
+  }
+  if (!Number.isFinite(v)) return { error: 'must be a finite number' };
+  const outside = (r: Range, what: string, unit: string) =>
+    v < r[0] || v > r[1] ? { warning: `${fmt(v)} ${unit} is outside the usual ${r[0]}–${r[1]} ${unit} for ${what}; check the value` } : {};
+  switch (field) {
+    case 'kv40':
+    case 'kv100':
+      if (v <= 0) return { error: 'a viscosity must be above zero' };
+      return outside(PLAUSIBLE[field], `ν${field === 'kv40' ? '40' : '100'}`, 'mm²/s');
+    case 'density15':
+      if (v <= 0) return { error: 'density must be above zero' };
+      if (v > 100) return { error: `${fmt(v)} looks like kg/m³: enter kg/L (e.g. ${fmt(v / 1000)})` };
+      if (v < DENSITY15_MIN || v > DENSITY15_MAX) {
+        return { error: `${fmt(v)} kg/L is outside ${DENSITY15_MIN}–${DENSITY15_MAX} kg/L, impossible for an oil at 15 °C` };
+      }
+      if (v < 0.78 || v > 1.1) return { warning: `${fmt(v)} kg/L is unusual for a base stock or additive (0.78–1.10 kg/L)` };
+      return {};
+    case 'anilinePoint':
+      return outside(PLAUSIBLE.anilinePoint, 'an aniline point', '°C');
+    case 'pourPoint':
+      return outside(PLAUSIBLE.pourPoint, 'a pour point', '°C');
+    case 'flashPoint':
+      return outside(PLAUSIBLE.flashPoint, 'a flash point', '°C');
+    case 'sulfurPct':
+      if (v < 0 || v > 100) return { error: 'sulfur must be between 0 and 100 mass %' };
+      return outside(PLAUSIBLE.sulfurPct, 'base-stock sulfur', '%');
+    case 'saturatesPct':
+      if (v < 0 || v > 100) return { error: 'saturates must be between 0 and 100 mass %' };
+      return {};
+    case 'price':
+      if (v < 0) return { error: 'a price cannot be negative' };
+      if (v === 0) return { warning: 'no price: costs will treat this stock as free' };
+      return {};
+    case 'oxidationRating':
+      if (v < OXIDATION_RATING_MIN || v > OXIDATION_RATING_MAX) {
+        return { error: `the oxidation rating runs from ${OXIDATION_RATING_MIN} to ${OXIDATION_RATING_MAX}` };
+      }
+      return {};
+    case 'shearLossPct':
+      if (v < 0 || v > 100) return { error: 'shear loss must be between 0 and 100 %' };
+      return outside(PLAUSIBLE.shearLossPct, 'a permanent shear loss', '%');
+    default:
+      return {};
+  }
+}
+
+/** Check ν100 against ν40 (a higher temperature always gives a lower viscosity). */
+export function checkViscosityPair(kv40: number, kv100: number): { error?: string; warning?: string } {
+  if (!(kv40 > 0) || !(kv100 > 0)) return {};
+  if (kv100 >= kv40) return { error: `ν100 (${fmt(kv100)} mm²/s) must be below ν40 (${fmt(kv40)} mm²/s)` };
+  if (kv40 / kv100 < 1.8) return { warning: `ν40/ν100 = ${fmt(kv40 / kv100)} is unusually close; check the two values` };
+  return {};
+}
+
+/** ν40 and ν100 of a component (measured, or read off its ASTM D341 line), or null when unusable. */
+export function kv40kv100(c: Pick<Component, 'viscosityPoints'>): { kv40: number; kv100: number } | null {
+  try {
+    return kv40kv100FromPoints(c.viscosityPoints);
+  } catch {
+    return null;
+  }
+}
+
+/** VI (unrounded) or null when not defined (ν100 < 2 mm²/s or inputs unusable). */
+export function safeVi(kv40: number, kv100: number): number | null {
+  try {
+    return viscosityIndex(kv40, kv100);
+  } catch {
+    return null;
+  }
+}
+
+/** Every check on a whole component. */
+export function checkComponent(c: Component, others: readonly Component[] = []): CheckResult {
+  const errors: CheckIssue[] = [];
+  const warnings: CheckIssue[] = [];
+  const add = (field: CheckField, r: { error?: string; warning?: string }) => {
+    if (r.error) errors.push({ field, message: r.error });
+    if (r.warning) warnings.push({ field, message: r.warning });
+  };
+  if (!c.code.trim()) errors.push({ field: 'code', message: 'a stock code is required' });
+  const clash = others.find((o) => o.id !== c.id && o.code.trim().toLowerCase() === c.code.trim().toLowerCase());
+  if (c.code.trim() && clash) errors.push({ field: 'code', message: `stock code ${c.code} is already used` });
+  const p = kv40kv100(c);
+  if (!p) {
+    errors.push({ field: 'viscosityPoints', message: 'needs viscosities at two temperatures, falling as temperature rises' });
+  } else {
+    add('kv40', checkValue('kv40', p.kv40));
+    add('kv100', checkValue('kv100', p.kv100));
+    add('kv100', checkViscosityPair(p.kv40, p.kv100));
+    const vi = p.kv100 < p.kv40 ? safeVi(p.kv40, p.kv100) : null;
+    if (vi !== null && c.category === 'group-iii' && vi < 120) {
+      warnings.push({ field: 'category', message: `VI ${Math.round(vi)} is below 120, the Group III floor (API 1509 Appendix E)` });
+    }
+    if (vi !== null && (c.category === 'group-i' || c.category === 'group-ii') && (vi < 80 || vi > 120)) {
+      warnings.push({ field: 'category', message: `VI ${Math.round(vi)} is outside 80–120, the Group I/II range (API 1509 Appendix E)` });
+    }
+  }
+  add('density15', checkValue('density15', c.density15));
+  add('anilinePoint', checkValue('anilinePoint', c.anilinePoint));
+  add('pourPoint', checkValue('pourPoint', c.pourPoint));
+  add('flashPoint', checkValue('flashPoint', c.flashPoint));
+  add('sulfurPct', checkValue('sulfurPct', c.sulfurPct));
+  add('saturatesPct', checkValue('saturatesPct', c.saturatesPct));
+  add('price', checkValue('price', c.price.amount));
+  add('oxidationRating', checkValue('oxidationRating', c.oxidationRating));
+  add('shearLossPct', checkValue('shearLossPct', c.shearLossPct));
+  return { errors, warnings };
+}
