@@ -6,9 +6,9 @@ export interface MapPoint {
   id: string;
   label: string;
   role: 'reference' | 'candidate' | 'selected';
-  /** Solvency score (higher = more solvent), on the app's own scale. */
+  /** Solvency measure for the x axis (a score, or the aniline point with `xReversed`). */
   solvency: number;
-  /** Oxidation-stability score (higher = more stable), on the app's own scale. */
+  /** Oxidation-stability measure for the y axis (higher = more stable), on the app's own scale. */
   oxidation: number;
 }
 
@@ -24,6 +24,10 @@ export interface SolvencyOxidationMapProps {
   formatY?: (v: number) => string;
   /** Optional shaded region where varnish risk is high (low solvency, high stability). */
   riskRegion?: { x: readonly [number, number]; y: readonly [number, number]; label: string } | null;
+  /** Draw the x axis high-to-low (e.g. aniline point, where lower means more solvent). */
+  xReversed?: boolean;
+  /** Label for an x value; default the number. */
+  formatX?: (v: number) => string;
   title?: string;
 }
 
@@ -44,10 +48,12 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   yDomain = [0, 100],
   formatY,
   riskRegion = null,
+  xReversed = false,
+  formatX,
   title = 'Solvency against oxidation stability (estimated scores, not measurements)',
 }: SolvencyOxidationMapProps) {
   const data = points.map((p) => ({ ...p, x: p.solvency, y: p.oxidation }));
-  const describe = points.map((p) => `${p.label}: solvency ${p.solvency.toFixed(0)}, stability ${p.oxidation.toFixed(0)}`).join('; ');
+  const describe = points.map((p) => `${p.label}: ${xLabel} ${p.solvency.toFixed(1)}, ${yLabel} ${p.oxidation.toFixed(1)}`).join('; ');
   return (
     <figure className="chart" data-chart="solvency-oxidation">
       <figcaption className="chart-title">{title}</figcaption>
@@ -65,7 +71,15 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
               label={{ value: riskRegion.label, position: 'insideTopLeft', fontSize: 11, fill: CHART_COLOURS.hot }}
             />
           )}
-          <XAxis type="number" dataKey="x" domain={[...xDomain]} name={xLabel} label={{ value: xLabel, position: 'insideBottom', offset: -18 }} />
+          <XAxis
+            type="number"
+            dataKey="x"
+            domain={[...xDomain]}
+            reversed={xReversed}
+            name={xLabel}
+            tickFormatter={formatX}
+            label={{ value: xLabel, position: 'insideBottom', offset: -18 }}
+          />
           <YAxis
             type="number"
             dataKey="y"

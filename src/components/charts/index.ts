@@ -11,3 +11,4 @@ export { FrontierChart } from './FrontierChart';
 export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints } from './d341-scale';
 export { CHART_COLOURS } from './palette';
+export { useWidth } from './useWidth';

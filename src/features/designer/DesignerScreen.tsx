@@ -1,0 +1,301 @@
+import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
+import type { BlendTargets, Recipe } from '../../core/model';
+import { CautionBanner, Notice } from '../../components/notices';
+import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import { TargetsForm } from './TargetsForm';
+import { RecipeTable } from './RecipeTable';
+import { deriveDraft } from './derive';
+import { densityLookup, useDesignerStore } from './store';
+import { runSolve } from './solve';
+import { usePrediction } from './predict';
+import { PropertiesPanel } from './PropertiesPanel';
+import './designer.css';
+
+const DesignerCharts = lazy(() => import('./DesignerCharts'));
+
+/** Targets for a recipe: the stored ones, else defaults for its grade with the library's additive. */
+function targetsFor(recipe: Recipe, stored: BlendTargets | undefined, additiveId: string | null): BlendTargets {
+  return stored ?? defaultTargets(recipe.grade, additiveId, recipe.isReference ? recipe.id : null);
+}
+
+export default function DesignerScreen() {
+  const components = useLibrary((s) => s.components);
+  const byId = componentsById(components);
+  const recipes = useRecipes((s) => s.recipes);
+  const storedTargets = useRecipes((s) => s.targets);
+  const activeRecipeId = useRecipes((s) => s.activeRecipeId);
+  const settings = useSettings();
+
+  const targets = useDesignerStore((s) => s.targets);
+  const lines = useDesignerStore((s) => s.lines);
+  const basis = useDesignerStore((s) => s.basis);
+  const rebalanceMode = useDesignerStore((s) => s.rebalanceMode);
+  const balanceId = useDesignerStore((s) => s.balanceId);
+  const editNote = useDesignerStore((s) => s.editNote);
+  const notice = useDesignerStore((s) => s.notice);
+  const name = useDesignerStore((s) => s.name);
+  const sourceRecipeId = useDesignerStore((s) => s.sourceRecipeId);
+  const dirty = useDesignerStore((s) => s.dirty);
+  const initialised = useDesignerStore((s) => s.initialised);
+  const actions = useDesignerStore.getState();
+
+  const additiveId = useMemo(
+    () => components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn')?.id ?? null,
+    [components],
+  );
+
+  // First visit: open the active recipe (or the first reference recipe), else a blank VG 320 draft.
+  useEffect(() => {
+    if (initialised) return;
+    const start = recipes.find((r) => r.id === activeRecipeId) ?? recipes.find((r) => r.isReference) ?? recipes[0];
+    if (start) actions.load(start, targetsFor(start, storedTargets[start.id], additiveId));
+    else actions.startBlank(defaultTargets(320, additiveId, null));
+  }, [initialised, recipes, activeRecipeId, storedTargets, additiveId, actions]);
+
+  const density = useMemo(() => densityLookup(components), [components]);
+  const view = useMemo(() => deriveDraft(lines, byId), [lines, byId]);
+  const prediction = usePrediction(lines, components, settings);
+
+  const [solving, setSolving] = useState(false);
+  const onSolve = useCallback(() => {
+    setSolving(true);
+    // Let "Solving…" paint before the (synchronous, usually sub-second) solve runs.
+    setTimeout(() => {
+      const s = useDesignerStore.getState();
+      const reference = s.targets.referenceRecipeId ? useRecipes.getState().recipes.find((r) => r.id === s.targets.referenceRecipeId) ?? null : null;
+      const outcome = runSolve(useLibrary.getState().components, s.targets, reference, settings.blendMethod);
+      if (outcome.kind === 'optimal') s.applySolution(outcome.lines, outcome.message);
+      else s.setNotice(outcome);
+      setSolving(false);
+    }, 0);
+  }, [settings.blendMethod]);
+
+  const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density), [density]);
+
+  const inRecipe = new Set(lines.map((l) => l.componentId));
+  const addable = components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
+
+  return (
+    <section className="designer" aria-labelledby="designer-h" data-testid="designer">
+      <header className="screen-head">
+        <h2 id="designer-h">Recipe designer</h2>
+        <StartFrom
+          recipes={recipes}
+          currentId={sourceRecipeId}
+          onLoad={(r) => {
+            actions.load(r, targetsFor(r, storedTargets[r.id], additiveId));
+            recipeActions.setActiveRecipe(r.id);
+          }}
+          onBlank={() => actions.startBlank(defaultTargets(targets.grade, additiveId, targets.referenceRecipeId))}
+        />
+      </header>
+      <CautionBanner compact />
+      <div className="designer-grid">
+        <aside className="designer-targets">
+          <h3>Targets and constraints</h3>
+          <TargetsForm
+            targets={targets}
+            components={components}
+            recipes={recipes}
+            onChange={actions.setTargets}
+            onBound={actions.setBound}
+            onSolve={onSolve}
+            solving={solving}
+          />
+        </aside>
+        <div className="designer-main">
+          <SolveNoticeView notice={notice} />
+          <RecipeTable
+            view={view}
+            basis={basis}
+            rebalanceMode={rebalanceMode}
+            balanceId={balanceId}
+            additiveId={targets.additive?.componentId ?? null}
+            editNote={editNote}
+            addable={addable}
+            onEdit={onEdit}
+            onRemove={actions.removeComponent}
+            onAdd={actions.addComponent}
+            onBasis={actions.setBasis}
+            onRebalanceMode={actions.setRebalanceMode}
+            onBalance={actions.setBalanceId}
+          />
+          <PropertiesPanel prediction={prediction} targets={targets} />
+          <SaveBox
+            name={name}
+            grade={targets.grade}
+            sourceRecipe={recipes.find((r) => r.id === sourceRecipeId) ?? null}
+            dirty={dirty}
+            canSave={lines.length > 0 && Math.abs(view.total - 1) < 1e-6}
+            onName={actions.setName}
+            onSaveNew={(n) => {
+              const s = useDesignerStore.getState();
+              const id = recipeActions.addRecipe({ name: n, grade: s.targets.grade, lines: s.lines });
+              recipeActions.setTargets(id, s.targets);
+              recipeActions.setActiveRecipe(id);
+              s.markSaved(id);
+              s.setName(n);
+            }}
+            onSaveOver={(id, raise) => {
+              const s = useDesignerStore.getState();
+              recipeActions.setLines(id, s.lines);
+              recipeActions.updateRecipe(id, { grade: s.targets.grade });
+              recipeActions.setTargets(id, s.targets);
+              if (raise) recipeActions.raiseRevision(id);
+              s.markSaved(id);
+            }}
+          />
+        </div>
+      </div>
+      <Suspense fallback={<p className="muted">Loading charts…</p>}>
+        <DesignerCharts
+          view={view}
+          prediction={prediction}
+          components={components}
+          referenceRecipe={recipes.find((r) => r.id === targets.referenceRecipeId) ?? null}
+          settings={settings}
+        />
+      </Suspense>
+    </section>
+  );
+}
+
+function StartFrom({
+  recipes,
+  currentId,
+  onLoad,
+  onBlank,
+}: {
+  recipes: readonly Recipe[];
+  currentId: string | null;
+  onLoad: (r: Recipe) => void;
+  onBlank: () => void;
+}) {
+  const id = useId();
+  const [choice, setChoice] = useState(currentId ?? '');
+  useEffect(() => setChoice(currentId ?? ''), [currentId]);
+  return (
+    <form
+      className="start-from"
+      onSubmit={(e) => {
+        e.preventDefault();
+        const r = recipes.find((x) => x.id === choice);
+        if (r) onLoad(r);
+        else onBlank();
+      }}
+    >
+      <label htmlFor={id}>Open</label>
+      <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)}>
+        <option value="">a new blank recipe</option>
+        {recipes.map((r) => (
+          <option key={r.id} value={r.id}>
+            {r.name} (rev. {r.revision})
+          </option>
+        ))}
+      </select>
+      <button type="submit">Open</button>
+    </form>
+  );
+}
+
+function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStore.getState>['notice'] }) {
+  if (!notice) return null;
+  if (notice.kind === 'optimal') {
+    return (
+      <Notice tone="success" title="Solved">
+        {notice.message}
+      </Notice>
+    );
+  }
+  if (notice.kind === 'infeasible') {
+    return (
+      <Notice tone="warning" title="No recipe meets these targets">
+        <p data-testid="infeasible-reason">{notice.reason}</p>
+        {notice.binding && <p className="muted">Limiting constraint: {notice.binding}</p>}
+        {notice.suggestion && (
+          <p>
+            <strong>Suggested fix:</strong> {notice.suggestion}
+          </p>
+        )}
+      </Notice>
+    );
+  }
+  if (notice.kind === 'invalid-input') {
+    return (
+      <Notice tone="error" title="Check the input">
+        <p>
+          {notice.field}: {notice.message}
+        </p>
+      </Notice>
+    );
+  }
+  return (
+    <Notice tone="error" title="The solver failed">
+      <p>{notice.message}</p>
+    </Notice>
+  );
+}
+
+function SaveBox({
+  name,
+  grade,
+  sourceRecipe,
+  dirty,
+  canSave,
+  onName,
+  onSaveNew,
+  onSaveOver,
+}: {
+  name: string;
+  grade: number;
+  sourceRecipe: Recipe | null;
+  dirty: boolean;
+  canSave: boolean;
+  onName: (n: string) => void;
+  onSaveNew: (name: string) => void;
+  onSaveOver: (id: string, raiseRevision: boolean) => void;
+}) {
+  const id = useId();
+  const [raise, setRaise] = useState(true);
+  const [saved, setSaved] = useState('');
+  const finalName = name.trim() || `Gear oil VG ${grade} — new recipe`;
+  return (
+    <section className="save-box" aria-labelledby={`${id}-h`}>
+      <h3 id={`${id}-h`}>Save</h3>
+      <div className="save-row">
+        <label htmlFor={id}>Recipe name</label>
+        <input id={id} type="text" value={name} placeholder={finalName} onChange={(e) => onName(e.target.value)} size={40} />
+        <button
+          type="button"
+          disabled={!canSave}
+          onClick={() => {
+            onSaveNew(finalName);
+            setSaved(`Saved as a new recipe: ${finalName}.`);
+          }}
+        >
+          Save as new recipe
+        </button>
+      </div>
+      {sourceRecipe && (
+        <div className="save-row">
+          <button
+            type="button"
+            disabled={!canSave || !dirty}
+            onClick={() => {
+              onSaveOver(sourceRecipe.id, raise);
+              setSaved(`Saved over ${sourceRecipe.name}${raise ? ` (revision ${sourceRecipe.revision + 1})` : ''}.`);
+            }}
+          >
+            Save changes to “{sourceRecipe.name}”
+          </button>
+          <label className="checkbox">
+            <input type="checkbox" checked={raise} onChange={(e) => setRaise(e.target.checked)} /> raise the revision
+          </label>
+        </div>
+      )}
+      <p role="status" className="muted">
+        {saved}
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,305 @@
+import { Fragment, memo, useState } from 'react';
+import type { BlendTargets } from '../../core/model';
+import type { PropertyExplain } from '../../core/blend-properties';
+import { gradeBand } from '../../core/iso-grades';
+import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
+import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
+import { CautionBanner } from '../../components/notices';
+import { useFormat, type Formatter } from '../../components/format';
+import type { Prediction } from './predict';
+
+type Status = 'ok' | 'warn' | 'fail' | 'info';
+
+interface Row {
+  key: string;
+  label: string;
+  value: string;
+  status: Status;
+  statusText: string;
+  explain: PropertyExplain | null;
+}
+
+/** The solve band [mm²/s]: target ± tolerance, clipped to the ISO band. */
+export function solveBand(targets: BlendTargets): { lo: number; hi: number; isoMin: number; isoMax: number } | null {
+  try {
+    const g = gradeBand(targets.grade);
+    const t = targets.targetKv40 ?? g.mid;
+    return {
+      lo: Math.max(g.min, t * (1 - targets.tolerancePct / 100)),
+      hi: Math.min(g.max, t * (1 + targets.tolerancePct / 100)),
+      isoMin: g.min,
+      isoMax: g.max,
+    };
+  } catch {
+    return null;
+  }
+}
+
+export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row[] {
+  const p = pred.props;
+  const ex = p.explain;
+  const rows: Row[] = [];
+  const band = solveBand(targets);
+  let kvStatus: Status = 'info';
+  let kvText = '';
+  if (band) {
+    if (p.kv40 >= band.lo && p.kv40 <= band.hi) {
+      kvStatus = 'ok';
+      kvText = `inside the solve band ${fmt.num(band.lo, 1)}–${fmt.num(band.hi, 1)}`;
+    } else if (p.kv40 >= band.isoMin && p.kv40 <= band.isoMax) {
+      kvStatus = 'warn';
+      kvText = `in VG ${targets.grade} but outside the solve band ${fmt.num(band.lo, 1)}–${fmt.num(band.hi, 1)}`;
+    } else {
+      kvStatus = 'fail';
+      kvText = `outside VG ${targets.grade} (${band.isoMin}–${band.isoMax})`;
+    }
+  }
+  rows.push({ key: 'kv40', label: 'Viscosity at 40 °C', value: `${fmt.num(p.kv40, 1)} mm²/s`, status: kvStatus, statusText: kvText, explain: ex.kv40 ?? null });
+  rows.push({
+    key: 'grade',
+    label: 'ISO viscosity grade',
+    value: p.grade === null ? 'between grades' : `VG ${p.grade}`,
+    status: p.grade === targets.grade ? 'ok' : 'fail',
+    statusText: p.grade === null ? '' : `${p.deviationFromMidPct! >= 0 ? '+' : ''}${fmt.num(p.deviationFromMidPct, 1)} % from mid-point`,
+    explain: ex.grade ?? null,
+  });
+  rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
+  const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
+  rows.push({
+    key: 'vi',
+    label: 'Viscosity index',
+    value: p.vi === null ? 'not defined' : `${p.reportedVi} (${fmt.num(p.vi, 1)})`,
+    status: targets.minVi === null ? 'info' : viOk ? 'ok' : 'fail',
+    statusText: targets.minVi === null ? '' : `minimum ${fmt.num(targets.minVi, 0)}`,
+    explain: ex.vi ?? null,
+  });
+  rows.push({ key: 'density15', label: 'Density at 15 °C', value: `${fmt.num(p.density15, 4)} kg/L`, status: 'info', statusText: '', explain: ex.density15 ?? null });
+  const ap = p.anilinePoint?.value ?? null;
+  const apOk = targets.maxAnilinePoint === null || (ap !== null && ap <= targets.maxAnilinePoint + 0.01);
+  rows.push({
+    key: 'anilinePoint',
+    label: 'Aniline point (solvency)',
+    value: ap === null ? 'unknown' : fmt.temp(ap, 1),
+    status: targets.maxAnilinePoint === null ? 'info' : apOk ? 'ok' : 'fail',
+    statusText: [
+      pred.deposit ? SOLVENCY_BAND_LABEL[pred.deposit.solvency.band].toLowerCase() : '',
+      targets.maxAnilinePoint === null ? '' : `maximum ${fmt.temp(targets.maxAnilinePoint, 1)}`,
+    ]
+      .filter(Boolean)
+      .join('; '),
+    explain: ex.anilinePoint ?? null,
+  });
+  const ox = p.oxidationRating;
+  rows.push({
+    key: 'oxidationRating',
+    label: 'Oxidation stability',
+    value: ox === null ? 'no base fluid' : `${fmt.num(ox, 1)} of 5`,
+    status: 'info',
+    statusText: ox === null ? '' : OXIDATION_CLASS_LABEL[oxidationClass(ox)].toLowerCase(),
+    explain: ex.oxidationRating
+      ? {
+          ...ex.oxidationRating,
+          inputs: pred.deposit
+            ? Object.fromEntries(
+                pred.deposit.oxidation.contributions.map((c) => [`${pred.codes.get(c.componentId) ?? c.componentId} share of base fluid / rating`, `${fmt.num(c.baseFluidFraction, 3)} / ${c.rating}`]),
+              )
+            : ex.oxidationRating.inputs,
+        }
+      : null,
+  });
+  if (pred.deposit) {
+    rows.push({
+      key: 'deposit',
+      label: 'Deposit propensity',
+      value: pred.deposit.propensity,
+      status: pred.deposit.propensity === 'elevated' ? 'warn' : 'info',
+      statusText: pred.deposit.pattern.replace('-', ' '),
+      explain: {
+        equation: 'look-up: oxidation-stability class × solvency band (matrix in the README)',
+        standard: 'Blendbench’s own assessment (common practice, no source); not a measurement',
+        inputs: { 'oxidation rating [1–5]': Number(pred.deposit.oxidation.rating.toFixed(2)), 'solvency score [1–5]': pred.deposit.solvency.score },
+        note: pred.deposit.explanation,
+      },
+    });
+  }
+  if (p.kvAtOperating) {
+    rows.push({
+      key: 'kvOperating',
+      label: `Viscosity at ${fmt.temp(p.kvAtOperating.tempC)} (operating)`,
+      value: `${fmt.sig(p.kvAtOperating.kv, 3)} mm²/s`,
+      status: 'info',
+      statusText: '',
+      explain: ex.kvAtTemperature ?? null,
+    });
+  }
+  if (p.kvAtCold) {
+    rows.push({
+      key: 'kvCold',
+      label: `Viscosity at ${fmt.temp(p.kvAtCold.tempC)} (cold start)`,
+      value: `${fmt.sig(p.kvAtCold.kv, 3)} mm²/s`,
+      status: 'info',
+      statusText: 'extrapolated',
+      explain: ex.kvAtTemperature ?? null,
+    });
+  }
+  const polyOk = targets.maxPolymerFraction === null || p.polymerFraction <= targets.maxPolymerFraction + 1e-6;
+  rows.push({
+    key: 'polymer',
+    label: 'Polymer share',
+    value: fmt.pct(p.polymerFraction, 1),
+    status: targets.maxPolymerFraction === null ? 'info' : polyOk ? 'ok' : 'fail',
+    statusText: targets.maxPolymerFraction === null ? '' : `maximum ${fmt.pct(targets.maxPolymerFraction, 1)}`,
+    explain: { equation: 'Σ wᵢ over polymer components (mass fractions)', standard: 'definition', inputs: {} },
+  });
+  rows.push({
+    key: 'flash',
+    label: 'Flash point (estimate)',
+    value: p.flashPoint === null ? 'unknown' : fmt.temp(p.flashPoint),
+    status: targets.minFlashPoint === null || p.flashPoint === null ? 'info' : p.flashPoint >= targets.minFlashPoint - 0.01 ? 'ok' : 'fail',
+    statusText: targets.minFlashPoint === null ? '' : `minimum ${fmt.temp(targets.minFlashPoint)}`,
+    explain: ex.flashPoint ?? null,
+  });
+  rows.push({
+    key: 'pour',
+    label: 'Pour point (estimate)',
+    value: p.pourPoint === null ? 'unknown' : fmt.temp(p.pourPoint),
+    status: targets.maxPourPoint === null || p.pourPoint === null ? 'info' : p.pourPoint <= targets.maxPourPoint + 0.01 ? 'ok' : 'fail',
+    statusText: targets.maxPourPoint === null ? '' : `maximum ${fmt.temp(targets.maxPourPoint)}`,
+    explain: ex.pourPoint ?? null,
+  });
+  const cur = p.currency ? ` (${p.currency})` : '';
+  rows.push({ key: 'costPerKg', label: `Cost per kg${cur}`, value: fmt.money(p.costPerKg, 3), status: 'info', statusText: '', explain: ex.costPerKg ?? null });
+  rows.push({
+    key: 'costPerLitre',
+    label: `Cost per litre${cur}`,
+    value: fmt.money(p.costPerLitre, 3),
+    status: 'info',
+    statusText: targets.objective === 'cost' ? 'objective' : '',
+    explain: ex.costPerLitre ?? null,
+  });
+  return rows;
+}
+
+const STATUS_MARK: Record<Status, string> = { ok: '✓', warn: '!', fail: '✗', info: '' };
+
+/** Predicted properties, each with its working (equation, standard, inputs) on demand. */
+export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targets }: { prediction: Prediction; targets: BlendTargets }) {
+  const fmt = useFormat();
+  const [open, setOpen] = useState<ReadonlySet<string>>(new Set());
+  const toggle = (k: string) =>
+    setOpen((s) => {
+      const n = new Set(s);
+      if (n.has(k)) n.delete(k);
+      else n.add(k);
+      return n;
+    });
+  return (
+    <section className="props" aria-labelledby="props-h" data-testid="predicted">
+      <h3 id="props-h">Predicted properties</h3>
+      <CautionBanner compact />
+      {!prediction.ok ? (
+        <p className="muted" role="status">
+          {prediction.message}
+        </p>
+      ) : (
+        <>
+          <table className="props-table">
+            <thead className="visually-hidden">
+              <tr>
+                <th scope="col">Property</th>
+                <th scope="col">Predicted value</th>
+                <th scope="col">Against the targets</th>
+                <th scope="col">Working</th>
+              </tr>
+            </thead>
+            <tbody>
+              {buildRows(prediction, targets, fmt).map((r) => {
+                const isOpen = open.has(r.key);
+                const detailId = `working-${r.key}`;
+                return (
+                  <Fragment key={r.key}>
+                    <tr data-prop={r.key}>
+                      <th scope="row">{r.label}</th>
+                      <td className="value" data-testid={`prop-${r.key}`}>
+                        {r.value}
+                      </td>
+                      <td className={`status-${r.status}`}>
+                        {STATUS_MARK[r.status] && <span aria-hidden="true">{STATUS_MARK[r.status]} </span>}
+                        {r.status === 'fail' && <span className="visually-hidden">not met: </span>}
+                        {r.statusText}
+                      </td>
+                      <td>
+                        {r.explain && (
+                          <button
+                            type="button"
+                            className="link"
+                            aria-expanded={isOpen}
+                            aria-controls={detailId}
+                            aria-label={`Show working for ${r.label}`}
+                            onClick={() => toggle(r.key)}
+                          >
+                            {isOpen ? 'hide working' : 'show working'}
+                          </button>
+                        )}
+                      </td>
+                    </tr>
+                    {r.explain && isOpen && (
+                      <tr className="working" id={detailId}>
+                        <td colSpan={4}>
+                          <Working explain={r.explain} fmt={fmt} />
+                        </td>
+                      </tr>
+                    )}
+                  </Fragment>
+                );
+              })}
+            </tbody>
+          </table>
+          {prediction.props.warnings.length > 0 && (
+            <ul className="prop-warnings">
+              {prediction.props.warnings.map((w) => (
+                <li key={w}>{w}</li>
+              ))}
+            </ul>
+          )}
+        </>
+      )}
+    </section>
+  );
+});
+
+function Working({ explain, fmt }: { explain: PropertyExplain; fmt: Formatter }) {
+  const inputs = Object.entries(explain.inputs);
+  return (
+    <div className="explain">
+      <dl>
+        <dt>Equation</dt>
+        <dd>
+          <code>{explain.equation}</code>
+        </dd>
+        <dt>Method / standard</dt>
+        <dd>{explain.standard}</dd>
+        {inputs.length > 0 && (
+          <>
+            <dt>Inputs</dt>
+            <dd>
+              <ul className="inputs">
+                {inputs.map(([k, v]) => (
+                  <li key={k}>
+                    {k}: {typeof v === 'number' ? fmt.sig(v, 5) : (v ?? '—')}
+                  </li>
+                ))}
+              </ul>
+            </dd>
+          </>
+        )}
+        {explain.note && (
+          <>
+            <dt>Note</dt>
+            <dd>{explain.note}</dd>
+          </>
+        )}
+      </dl>
+    </div>
+  );
+}

@@ -1,0 +1,173 @@
+import { memo, useId, useState } from 'react';
+import type { Component } from '../../core/model';
+import { CATEGORY_LABEL } from '../../core/model';
+import { useFormat } from '../../components/format';
+import type { Basis } from './fractions';
+import type { DraftView } from './derive';
+import type { RebalanceMode } from './store';
+import { FractionInput } from './FractionInput';
+
+export interface RecipeTableProps {
+  view: DraftView;
+  basis: Basis;
+  rebalanceMode: RebalanceMode;
+  balanceId: string | null;
+  additiveId: string | null;
+  editNote: string;
+  /** Stocks that can be added (not withdrawn, not already in the recipe). */
+  addable: readonly Component[];
+  onEdit: (componentId: string, fraction: number) => void;
+  onRemove: (componentId: string) => void;
+  onAdd: (componentId: string) => void;
+  onBasis: (basis: Basis) => void;
+  onRebalanceMode: (mode: RebalanceMode) => void;
+  onBalance: (componentId: string) => void;
+}
+
+/** The recipe's lines with editable shares, kept at 100 % by the rule stated above the table. */
+export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
+  const fmt = useFormat();
+  const addId = useId();
+  const [toAdd, setToAdd] = useState('');
+  const editable = (id: string) => !(p.rebalanceMode === 'balance' && p.balanceId === id);
+  const totalCost = p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
+  return (
+    <section className="recipe-table" aria-labelledby="recipe-h">
+      <h3 id="recipe-h">Recipe</h3>
+      <div className="recipe-controls">
+        <fieldset className="inline">
+          <legend>Edit shares as</legend>
+          <label className="radio">
+            <input type="radio" name="basis" checked={p.basis === 'mass'} onChange={() => p.onBasis('mass')} /> mass %
+          </label>
+          <label className="radio">
+            <input type="radio" name="basis" checked={p.basis === 'volume'} onChange={() => p.onBasis('volume')} /> volume %
+          </label>
+        </fieldset>
+        <fieldset className="inline">
+          <legend>Keep 100 % by</legend>
+          <label className="radio">
+            <input type="radio" name="rebalance" checked={p.rebalanceMode === 'proportional'} onChange={() => p.onRebalanceMode('proportional')} />{' '}
+            scaling the other lines
+          </label>
+          <label className="radio">
+            <input type="radio" name="rebalance" checked={p.rebalanceMode === 'balance'} onChange={() => p.onRebalanceMode('balance')} /> a balance
+            stock
+          </label>
+        </fieldset>
+      </div>
+      <p className="rule-note" data-testid="rebalance-rule">
+        {p.rebalanceMode === 'balance'
+          ? 'When you change a line, only the balance stock (marked ●) changes to keep the total at 100 %; every other line keeps its mass fraction.'
+          : 'When you change a line, the other lines are scaled in proportion to keep the total at 100 %; the additive package keeps its treat rate.'}{' '}
+        Volume % assumes ideal mixing at 15 °C.
+      </p>
+      <table className="data-table" data-testid="recipe-lines">
+        <thead>
+          <tr>
+            <th scope="col">Stock</th>
+            <th scope="col">Category</th>
+            <th scope="col" className="num">Mass %</th>
+            <th scope="col" className="num">Volume %</th>
+            <th scope="col" className="num">ν40, mm²/s</th>
+            <th scope="col" className="num">Cost share, {fmt.settings.currencySymbol}/L</th>
+            {p.rebalanceMode === 'balance' && <th scope="col">Balance</th>}
+            <th scope="col"><span className="visually-hidden">Remove</span></th>
+          </tr>
+        </thead>
+        <tbody>
+          {p.view.lines.map((l) => {
+            const c = l.component;
+            const code = c?.code ?? l.componentId;
+            const isAdd = l.componentId === p.additiveId;
+            const canEdit = editable(l.componentId);
+            const massCell =
+              p.basis === 'mass' && canEdit ? (
+                <FractionInput label={`Mass % of ${code}`} value={l.massFraction} onEdit={(f) => p.onEdit(l.componentId, f)} />
+              ) : (
+                fmt.num(l.massFraction * 100, 2)
+              );
+            const volCell =
+              p.basis === 'volume' && canEdit ? (
+                <FractionInput label={`Volume % of ${code}`} value={l.volumeFraction} onEdit={(f) => p.onEdit(l.componentId, f)} />
+              ) : (
+                fmt.num(l.volumeFraction * 100, 2)
+              );
+            return (
+              <tr key={l.componentId} data-component={code}>
+                <th scope="row">
+                  <span className="code">{code}</span> <span className="muted">{c?.name ?? 'unknown stock'}</span>
+                  {c?.availability === 'withdrawn' && <span className="tag tag-bad"> withdrawn</span>}
+                  {c?.availability === 'limited' && <span className="tag"> limited</span>}
+                  {isAdd && <span className="tag"> fixed treat</span>}
+                </th>
+                <td>{c ? CATEGORY_LABEL[c.category] : '—'}</td>
+                <td className="num">{massCell}</td>
+                <td className="num">{volCell}</td>
+                <td className="num">{c ? fmt.sig(c.viscosityPoints.find((v) => v.tempC === 40)?.kv ?? NaN, 3) : '—'}</td>
+                <td className="num">{l.costPerLitre === null ? '—' : fmt.num(l.costPerLitre, 3)}</td>
+                {p.rebalanceMode === 'balance' && (
+                  <td className="center">
+                    <input
+                      type="radio"
+                      name="balance-line"
+                      aria-label={`Use ${code} as balance stock`}
+                      checked={p.balanceId === l.componentId}
+                      disabled={isAdd}
+                      onChange={() => p.onBalance(l.componentId)}
+                    />
+                  </td>
+                )}
+                <td>
+                  <button type="button" className="link" aria-label={`Remove ${code}`} onClick={() => p.onRemove(l.componentId)}>
+                    remove
+                  </button>
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+        <tfoot>
+          <tr>
+            <th scope="row">Total</th>
+            <td />
+            <td className="num" data-testid="total-mass">{fmt.num(p.view.total * 100, 2)}</td>
+            <td className="num">{fmt.num(p.view.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2)}</td>
+            <td />
+            <td className="num">{fmt.num(totalCost, 3)}</td>
+            {p.rebalanceMode === 'balance' && <td />}
+            <td />
+          </tr>
+        </tfoot>
+      </table>
+      {p.editNote && (
+        <p className="field-warning" role="status">
+          {p.editNote}
+        </p>
+      )}
+      <form
+        className="add-line"
+        onSubmit={(e) => {
+          e.preventDefault();
+          if (toAdd) {
+            p.onAdd(toAdd);
+            setToAdd('');
+          }
+        }}
+      >
+        <label htmlFor={addId}>Add a stock</label>
+        <select id={addId} value={toAdd} onChange={(e) => setToAdd(e.target.value)}>
+          <option value="">choose…</option>
+          {p.addable.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.code} — {c.name}
+            </option>
+          ))}
+        </select>
+        <button type="submit" disabled={!toAdd}>
+          Add
+        </button>
+      </form>
+    </section>
+  );
+});

@@ -1,0 +1,319 @@
+import { memo, useId } from 'react';
+import type { BlendTargets, Component, Objective, Recipe } from '../../core/model';
+import { CATEGORY_LABEL } from '../../core/model';
+import { ISO_GRADES, gradeBand } from '../../core/iso-grades';
+import { NumberField, type Verdict } from '../../components/fields';
+import { useFormat } from '../../components/format';
+
+export const OBJECTIVE_LABEL: Record<Objective, string> = {
+  cost: 'Least cost per litre',
+  solvency: 'Best solvency (lowest aniline point)',
+  oxidation: 'Highest oxidation-stability class',
+  closest: 'Closest to a reference recipe',
+};
+
+export interface TargetsFormProps {
+  targets: BlendTargets;
+  components: readonly Component[];
+  recipes: readonly Recipe[];
+  onChange: (patch: Partial<BlendTargets>) => void;
+  onBound: (componentId: string, bound: { min?: number; max?: number } | null) => void;
+  onSolve: () => void;
+  solving: boolean;
+}
+
+const pct = (f: number | null | undefined) => (f === null || f === undefined ? null : f * 100);
+const frac = (p: number | null) => (p === null ? null : p / 100);
+
+/** Target grade, band, constraints and objective; the Solve button. */
+export const TargetsForm = memo(function TargetsForm({
+  targets,
+  components,
+  recipes,
+  onChange,
+  onBound,
+  onSolve,
+  solving,
+}: TargetsFormProps) {
+  const gradeId = useId();
+  const addId = useId();
+  const refId = useId();
+  const band = safeBand(targets.grade);
+  const mid = band?.mid ?? targets.grade;
+  const target = targets.targetKv40 ?? mid;
+  const lo = Math.max(band?.min ?? 0, target * (1 - targets.tolerancePct / 100));
+  const hi = Math.min(band?.max ?? Infinity, target * (1 + targets.tolerancePct / 100));
+  const fmt = useFormat();
+  const toDisp = (c: number | null) => (c === null ? null : fmt.tempValue(c));
+  const fromDisp = (d: number | null) => (d === null ? null : fmt.tempToC(d));
+  const tUnit = fmt.tempUnit;
+  const additives = components.filter((c) => c.category === 'additive-package' && c.availability !== 'withdrawn');
+  const references = recipes.filter((r) => r.lines.length > 0);
+  const usable = components.filter((c) => c.availability !== 'withdrawn' && c.id !== targets.additive?.componentId);
+  const withdrawn = components.filter((c) => c.availability === 'withdrawn');
+  const boundCount = Object.keys(targets.bounds).length;
+
+  return (
+    <form
+      className="targets-form"
+      aria-label="Targets and constraints"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onSolve();
+      }}
+    >
+      <fieldset>
+        <legend>Target</legend>
+        <div className="field">
+          <label htmlFor={gradeId}>ISO viscosity grade</label>
+          <select
+            id={gradeId}
+            value={targets.grade}
+            onChange={(e) => onChange({ grade: Number(e.target.value), targetKv40: null })}
+          >
+            {ISO_GRADES.filter((g) => g.grade >= 10).map((g) => (
+              <option key={g.grade} value={g.grade}>
+                VG {g.grade} ({g.min}–{g.max} mm²/s)
+              </option>
+            ))}
+          </select>
+        </div>
+        <Opt
+          label="Target ν40"
+          unit="mm²/s"
+          value={targets.targetKv40}
+          min={band?.min}
+          max={band?.max}
+          hint={`empty = grade mid-point ${mid}`}
+          onChange={(v) => onChange({ targetKv40: v })}
+        />
+        <Opt
+          label="Tolerance ±"
+          unit="% of target"
+          value={targets.tolerancePct}
+          required
+          min={0}
+          max={10}
+          onChange={(v) => onChange({ tolerancePct: v ?? 5 })}
+        />
+        <p className="band-note" data-testid="solve-band">
+          Solve band: {lo.toFixed(1)}–{hi.toFixed(1)} mm²/s at 40 °C (always inside the ISO band).
+        </p>
+      </fieldset>
+
+      <fieldset>
+        <legend>Constraints</legend>
+        <Opt label="Minimum VI" value={targets.minVi} decimals={1} onChange={(v) => onChange({ minVi: v })} />
+        <Opt
+          label="Maximum aniline point"
+          unit={tUnit}
+          value={toDisp(targets.maxAnilinePoint)}
+          decimals={1}
+          hint="lower = more solvent"
+          onChange={(v) => onChange({ maxAnilinePoint: fromDisp(v) })}
+        />
+        <Opt
+          label="Maximum polymer"
+          unit="mass %"
+          value={pct(targets.maxPolymerFraction)}
+          min={0}
+          max={100}
+          onChange={(v) => onChange({ maxPolymerFraction: frac(v) })}
+        />
+        <Opt
+          label="Maximum pour point (estimate)"
+          unit={tUnit}
+          value={toDisp(targets.maxPourPoint)}
+          decimals={1}
+          onChange={(v) => onChange({ maxPourPoint: fromDisp(v) })}
+        />
+        <Opt
+          label="Minimum flash point (estimate)"
+          unit={tUnit}
+          value={toDisp(targets.minFlashPoint)}
+          decimals={1}
+          onChange={(v) => onChange({ minFlashPoint: fromDisp(v) })}
+        />
+        <div className="field">
+          <label htmlFor={addId}>Additive package</label>
+          <select
+            id={addId}
+            value={targets.additive?.componentId ?? ''}
+            onChange={(e) =>
+              onChange({
+                additive: e.target.value ? { componentId: e.target.value, massFraction: targets.additive?.massFraction ?? 0.02 } : null,
+              })
+            }
+          >
+            <option value="">none</option>
+            {additives.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.code} — {c.name}
+              </option>
+            ))}
+          </select>
+        </div>
+        {targets.additive && (
+          <Opt
+            label="Treat rate"
+            unit="mass %"
+            value={pct(targets.additive.massFraction)}
+            required
+            min={0}
+            max={30}
+            onChange={(v) => targets.additive && onChange({ additive: { ...targets.additive, massFraction: frac(v) ?? 0 } })}
+          />
+        )}
+        <details className="bounds">
+          <summary>
+            Per-stock limits and exclusions{boundCount ? ` (${boundCount} set)` : ''}
+          </summary>
+          <table className="bounds-table">
+            <caption className="visually-hidden">Per-stock limits</caption>
+            <thead>
+              <tr>
+                <th scope="col">Use</th>
+                <th scope="col">Stock</th>
+                <th scope="col">Min %</th>
+                <th scope="col">Max %</th>
+              </tr>
+            </thead>
+            <tbody>
+              {usable.map((c) => {
+                const b = targets.bounds[c.id];
+                const excluded = b?.max === 0;
+                return (
+                  <tr key={c.id}>
+                    <td>
+                      <input
+                        type="checkbox"
+                        aria-label={`Use ${c.code}`}
+                        checked={!excluded}
+                        onChange={(e) => onBound(c.id, e.target.checked ? null : { max: 0 })}
+                      />
+                    </td>
+                    <th scope="row" title={`${c.name} (${CATEGORY_LABEL[c.category]})`}>
+                      {c.code}
+                      {c.availability === 'limited' ? <span className="tag"> limited</span> : null}
+                    </th>
+                    <td>
+                      <BoundInput
+                        label={`Minimum % of ${c.code}`}
+                        value={pct(b?.min)}
+                        disabled={excluded}
+                        onChange={(v) => onBound(c.id, { ...b, min: frac(v) ?? undefined })}
+                      />
+                    </td>
+                    <td>
+                      <BoundInput
+                        label={`Maximum % of ${c.code}`}
+                        value={pct(b?.max)}
+                        disabled={excluded}
+                        onChange={(v) => onBound(c.id, { ...b, max: frac(v) ?? undefined })}
+                      />
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          {withdrawn.length > 0 && (
+            <p className="field-hint">Withdrawn, never used: {withdrawn.map((c) => c.code).join(', ')}.</p>
+          )}
+        </details>
+      </fieldset>
+
+      <fieldset>
+        <legend>Objective</legend>
+        {(Object.keys(OBJECTIVE_LABEL) as Objective[]).map((o) => (
+          <label key={o} className="radio">
+            <input type="radio" name="objective" value={o} checked={targets.objective === o} onChange={() => onChange({ objective: o })} />{' '}
+            {OBJECTIVE_LABEL[o]}
+          </label>
+        ))}
+        <div className="field">
+          <label htmlFor={refId}>Reference recipe</label>
+          <select
+            id={refId}
+            value={targets.referenceRecipeId ?? ''}
+            onChange={(e) => onChange({ referenceRecipeId: e.target.value || null })}
+          >
+            <option value="">none</option>
+            {references.map((r) => (
+              <option key={r.id} value={r.id}>
+                {r.name}
+              </option>
+            ))}
+          </select>
+        </div>
+      </fieldset>
+      <button type="submit" className="primary" disabled={solving}>
+        {solving ? 'Solving…' : 'Solve'}
+      </button>
+    </form>
+  );
+});
+
+function BoundInput({ label, value, disabled, onChange }: { label: string; value: number | null; disabled: boolean; onChange: (v: number | null) => void }) {
+  return (
+    <input
+      type="text"
+      inputMode="decimal"
+      className="narrow"
+      aria-label={label}
+      disabled={disabled}
+      defaultValue={value === null ? '' : String(Number(value.toFixed(2)))}
+      placeholder="—"
+      onBlur={(e) => {
+        const t = e.target.value.trim().replace(',', '.');
+        if (t === '') return onChange(null);
+        const v = Number(t);
+        if (Number.isFinite(v) && v >= 0 && v <= 100) onChange(v);
+        else e.target.value = value === null ? '' : String(value);
+      }}
+    />
+  );
+}
+
+function safeBand(grade: number) {
+  try {
+    return gradeBand(grade);
+  } catch {
+    return null;
+  }
+}
+
+interface OptProps {
+  label: string;
+  unit?: string;
+  value: number | null;
+  onChange: (v: number | null) => void;
+  placeholder?: string;
+  min?: number | undefined;
+  max?: number | undefined;
+  hint?: string | undefined;
+  decimals?: number;
+  required?: boolean;
+}
+
+/** A constraint field: empty means "no limit"; range checked before it is written. */
+function Opt({ label, unit, value, onChange, min, max, hint, decimals = 2, required = false }: OptProps) {
+  const validate = (v: number | null): Verdict => {
+    if (v === null) return required ? { error: `${label}: a value is required` } : {};
+    if (min !== undefined && v < min) return { error: `${label}: at least ${min}` };
+    if (max !== undefined && v > max) return { error: `${label}: at most ${max}` };
+    return {};
+  };
+  return (
+    <NumberField
+      className="stacked"
+      label={label}
+      unit={unit}
+      value={value === null ? null : Number(value.toFixed(decimals))}
+      allowEmpty={!required}
+      validate={validate}
+      hint={hint ? <span className="field-hint">{hint}</span> : undefined}
+      onCommit={onChange}
+    />
+  );
+}

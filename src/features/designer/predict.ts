@@ -1,0 +1,70 @@
+/** Predicted properties of the draft, recomputed by the core on every change (never stored). */
+import { useMemo } from 'react';
+import type { Component, RecipeLine } from '../../core/model';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import { predictBlend, type BlendProperties } from '../../core/blend-properties';
+import { assessDeposit, type DepositAssessment } from '../../core/deposit';
+import type { Settings } from '../../state';
+
+export type Prediction =
+  | {
+      ok: true;
+      props: BlendProperties;
+      deposit: DepositAssessment | null;
+      kv40: number;
+      kv100: number;
+      /** Blend aniline point [°C], or null when unknown. */
+      anilinePoint: number | null;
+      /** Oxidation-stability rating 1–5 (Blendbench scale); 1 when the blend has no base fluid. */
+      oxidationRating: number;
+      /** Stock code by component id (for labels). */
+      codes: ReadonlyMap<string, string>;
+    }
+  | { ok: false; message: string };
+
+/**
+ * Predicts a recipe's properties; never throws (a recipe being edited may be incomplete).
+ * Lines at 0 % are dropped first so an added-but-unused stock cannot disturb the result.
+ */
+export function predictRecipe(
+  lines: readonly RecipeLine[],
+  components: readonly Component[],
+  method: BlendMethod,
+  temps: { operatingTempC?: number; coldTempC?: number } = {},
+): Prediction {
+  const used = lines.filter((l) => l.massFraction > 0);
+  if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
+  try {
+    const props = predictBlend(components, used, { method, ...temps });
+    let deposit: DepositAssessment | null = null;
+    try {
+      deposit = assessDeposit(components, used);
+    } catch {
+      deposit = null;
+    }
+    return {
+      ok: true,
+      props,
+      deposit,
+      kv40: props.kv40,
+      kv100: props.kv100,
+      anilinePoint: props.anilinePoint?.value ?? null,
+      oxidationRating: props.oxidationRating ?? 1,
+      codes: new Map(used.map((l) => [l.componentId, components.find((c) => c.id === l.componentId)?.code ?? l.componentId])),
+    };
+  } catch (e) {
+    return { ok: false, message: e instanceof Error ? e.message : String(e) };
+  }
+}
+
+export function usePrediction(
+  lines: readonly RecipeLine[],
+  components: readonly Component[],
+  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'>,
+): Prediction {
+  const { blendMethod, operatingTempC, coldStartTempC } = settings;
+  return useMemo(
+    () => predictRecipe(lines, components, blendMethod, { operatingTempC, coldTempC: coldStartTempC }),
+    [lines, components, blendMethod, operatingTempC, coldStartTempC],
+  );
+}

@@ -1,0 +1,162 @@
+/**
+ * The designer's working draft: targets, the recipe being edited and the editing habits.
+ * In memory only (a session's scratch pad); saving writes a recipe and its targets to the
+ * recipes store. Holds inputs; predicted properties are derived on render.
+ */
+import { create } from 'zustand';
+import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/model';
+import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
+
+export type RebalanceMode = 'balance' | 'proportional';
+
+/** What the last Solve said, kept until the next solve or edit of the targets. */
+export type SolveNotice =
+  | { kind: 'optimal'; message: string }
+  | { kind: 'infeasible'; reason: string; binding: string; suggestion: string }
+  | { kind: 'invalid-input'; field: string; message: string }
+  | { kind: 'error'; message: string };
+
+export interface DesignerState {
+  targets: BlendTargets;
+  lines: RecipeLine[];
+  name: string;
+  /** The saved recipe the draft came from (null for a new draft). */
+  sourceRecipeId: string | null;
+  basis: Basis;
+  rebalanceMode: RebalanceMode;
+  balanceId: string | null;
+  /** Why the last hand edit was limited; empty when it was not. */
+  editNote: string;
+  notice: SolveNotice | null;
+  /** True when lines changed since the last save or load. */
+  dirty: boolean;
+  /** False until the draft was first loaded (the screen opens the active recipe then). */
+  initialised: boolean;
+
+  load: (recipe: Recipe, targets: BlendTargets) => void;
+  startBlank: (targets: BlendTargets) => void;
+  setTargets: (patch: Partial<BlendTargets>) => void;
+  setBound: (componentId: string, bound: { min?: number; max?: number } | null) => void;
+  setName: (name: string) => void;
+  setBasis: (basis: Basis) => void;
+  setRebalanceMode: (mode: RebalanceMode) => void;
+  setBalanceId: (id: string) => void;
+  editLine: (componentId: string, fraction: number, density: (id: string) => number) => void;
+  addComponent: (componentId: string) => void;
+  removeComponent: (componentId: string) => void;
+  applySolution: (lines: RecipeLine[], message: string) => void;
+  setNotice: (notice: SolveNotice | null) => void;
+  markSaved: (recipeId: string) => void;
+}
+
+/** The heaviest base stock in the recipe is the natural balance (it sets the viscosity). */
+export function pickBalance(lines: readonly RecipeLine[], additiveId: string | null): string | null {
+  const candidates = lines.filter((l) => l.componentId !== additiveId);
+  if (candidates.length === 0) return null;
+  return candidates.reduce((best, l) => (l.massFraction > best.massFraction ? l : best)).componentId;
+}
+
+export function rebalanceOf(s: Pick<DesignerState, 'rebalanceMode' | 'balanceId' | 'targets'>): Rebalance {
+  if (s.rebalanceMode === 'balance' && s.balanceId) return { mode: 'balance', balanceId: s.balanceId };
+  return { mode: 'proportional', lockedIds: s.targets.additive ? [s.targets.additive.componentId] : [] };
+}
+
+const EMPTY_TARGETS: BlendTargets = {
+  grade: 320,
+  targetKv40: null,
+  tolerancePct: 5,
+  minVi: null,
+  maxAnilinePoint: null,
+  maxPolymerFraction: null,
+  maxPourPoint: null,
+  minFlashPoint: null,
+  additive: null,
+  bounds: {},
+  objective: 'cost',
+  referenceRecipeId: null,
+};
+
+export const useDesignerStore = create<DesignerState>()((set, get) => ({
+  targets: EMPTY_TARGETS,
+  lines: [],
+  name: '',
+  sourceRecipeId: null,
+  basis: 'mass',
+  rebalanceMode: 'proportional',
+  balanceId: null,
+  editNote: '',
+  notice: null,
+  dirty: false,
+  initialised: false,
+
+  load: (recipe, targets) => {
+    const lines = normalise(recipe.lines);
+    set({
+      targets: structuredClone(targets),
+      lines,
+      name: recipe.name,
+      sourceRecipeId: recipe.id,
+      balanceId: pickBalance(lines, targets.additive?.componentId ?? null),
+      editNote: '',
+      notice: null,
+      dirty: false,
+      initialised: true,
+    });
+  },
+  startBlank: (targets) =>
+    set({
+      targets: structuredClone(targets),
+      lines: targets.additive ? [{ componentId: targets.additive.componentId, massFraction: 1 }] : [],
+      name: '',
+      sourceRecipeId: null,
+      balanceId: null,
+      editNote: '',
+      notice: null,
+      dirty: false,
+      initialised: true,
+    }),
+  setTargets: (patch) => set((s) => ({ targets: { ...s.targets, ...patch } })),
+  setBound: (componentId, bound) =>
+    set((s) => {
+      const bounds = { ...s.targets.bounds };
+      if (bound === null || (bound.min === undefined && bound.max === undefined)) delete bounds[componentId];
+      else bounds[componentId] = bound;
+      return { targets: { ...s.targets, bounds } };
+    }),
+  setName: (name) => set({ name }),
+  setBasis: (basis) => set({ basis }),
+  setRebalanceMode: (rebalanceMode) => set({ rebalanceMode, editNote: '' }),
+  setBalanceId: (balanceId) => set({ balanceId, editNote: '' }),
+  editLine: (componentId, fraction, density) => {
+    const s = get();
+    const r = editFraction(s.lines, density, s.basis, componentId, fraction, rebalanceOf(s));
+    set({ lines: r.lines, editNote: r.message, dirty: true });
+  },
+  addComponent: (componentId) =>
+    set((s) => {
+      const lines = addLine(s.lines, componentId);
+      return { lines, dirty: true, balanceId: s.balanceId ?? pickBalance(lines, s.targets.additive?.componentId ?? null) };
+    }),
+  removeComponent: (componentId) =>
+    set((s) => {
+      const lines = removeLine(s.lines, componentId, rebalanceOf(s));
+      const balanceId = s.balanceId === componentId ? pickBalance(lines, s.targets.additive?.componentId ?? null) : s.balanceId;
+      return { lines, balanceId, dirty: true, editNote: '' };
+    }),
+  applySolution: (lines, message) =>
+    set((s) => ({
+      lines,
+      balanceId: pickBalance(lines, s.targets.additive?.componentId ?? null),
+      notice: { kind: 'optimal', message },
+      editNote: '',
+      dirty: true,
+    })),
+  setNotice: (notice) => set({ notice }),
+  markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false }),
+}));
+
+/** Density lookup over a library [kg/L]; unknown ids fall back to 0.88 so a stale line cannot crash. */
+export function densityLookup(components: readonly Component[]): (id: string) => number {
+  const m = new Map(components.map((c) => [c.id, c.density15]));
+  return (id) => m.get(id) ?? 0.88;
+}

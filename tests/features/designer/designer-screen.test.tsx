@@ -1,0 +1,102 @@
+// @vitest-environment jsdom
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import DesignerScreen from '../../../src/features/designer/DesignerScreen';
+import { useDesignerStore } from '../../../src/features/designer/store';
+import { resetDemo, useRecipes } from '../../../src/state';
+
+function lineRow(code: string): HTMLElement {
+  return screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
+}
+const num = (t: string | null) => Number((t ?? '').replace(/[^\d.−-]/g, '').replace('−', '-'));
+
+beforeEach(() => {
+  resetDemo();
+  useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
+});
+afterEach(cleanup);
+
+describe('Recipe designer', () => {
+  it('opens the active demo recipe with predictions and the caution beside them', async () => {
+    render(<DesignerScreen />);
+    expect(screen.getByText('Recipe designer', { selector: 'h2' })).toBeTruthy();
+    expect(lineRow('BW-190')).toBeTruthy();
+    expect(lineRow('BW-160')).toBeTruthy();
+    const predicted = screen.getByTestId('predicted');
+    expect(within(predicted).getByText(/laboratory confirmation/i)).toBeTruthy();
+    const kv40 = num(screen.getByTestId('prop-kv40').textContent);
+    // The invented VG 320 demo recipe was made to sit inside VG 320 (ISO 3448 band 288–352, shared/reference/check-values.md G2)
+    expect(kv40).toBeGreaterThanOrEqual(288);
+    expect(kv40).toBeLessThanOrEqual(352);
+    expect(screen.getByTestId('prop-grade').textContent).toBe('VG 320');
+  });
+
+  it('recomputes while a fraction is typed and keeps the recipe at 100 %', () => {
+    render(<DesignerScreen />);
+    const before = num(screen.getByTestId('prop-kv40').textContent);
+    const input = screen.getByLabelText('Mass % of BW-160') as HTMLInputElement;
+    fireEvent.focus(input);
+    fireEvent.change(input, { target: { value: '40' } });
+    const after = num(screen.getByTestId('prop-kv40').textContent);
+    expect(after).toBeLessThan(before); // more light neutral → thinner blend (Refutas is monotonic), common practice
+    expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
+    // the additive keeps its 2 % treat rate
+    expect((screen.getByLabelText('Mass % of BW-901') as HTMLInputElement).value).toBe('2.00');
+    fireEvent.blur(input);
+    expect(input.value).toBe('40.00');
+  });
+
+  it('balance mode changes only the balance stock', () => {
+    render(<DesignerScreen />);
+    fireEvent.click(screen.getByLabelText(/a balance\s*stock/));
+    expect(screen.getByTestId('rebalance-rule').textContent).toMatch(/only the balance stock/);
+    // the heaviest line (BW-190) is the default balance: its own field is not editable
+    expect(screen.queryByLabelText('Mass % of BW-190')).toBeNull();
+    fireEvent.change(screen.getByLabelText('Mass % of BW-160'), { target: { value: '30' } });
+    expect(within(lineRow('BW-190')).getByText('68.00')).toBeTruthy();
+  });
+
+  it('edits in volume % too', () => {
+    render(<DesignerScreen />);
+    fireEvent.click(screen.getByLabelText('volume %'));
+    const input = screen.getByLabelText('Volume % of BW-160') as HTMLInputElement;
+    fireEvent.change(input, { target: { value: '25' } });
+    const s = useDesignerStore.getState();
+    expect(s.lines.reduce((a, l) => a + l.massFraction, 0)).toBeCloseTo(1, 12);
+  });
+
+  it('shows the working of a predicted number: equation, standard and inputs', () => {
+    render(<DesignerScreen />);
+    fireEvent.click(screen.getByLabelText('Show working for Viscosity at 40 °C'));
+    const working = document.getElementById('working-kv40')!;
+    expect(working.textContent).toMatch(/VBN/);
+    expect(working.textContent).toMatch(/Refutas/);
+    expect(working.textContent).toMatch(/BW-190/);
+    fireEvent.click(screen.getByLabelText('Show working for Viscosity index'));
+    expect(document.getElementById('working-vi')!.textContent).toMatch(/ASTM D2270/);
+  });
+
+  it('adds and removes stocks', () => {
+    render(<DesignerScreen />);
+    fireEvent.change(screen.getByLabelText('Add a stock'), { target: { value: 'demo-bw-240' } });
+    fireEvent.click(screen.getByText('Add', { selector: 'button' }));
+    expect(lineRow('BW-240')).toBeTruthy();
+    fireEvent.click(screen.getByLabelText('Remove BW-160'));
+    expect(lineRow('BW-160')).toBeNull();
+    expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
+  });
+
+  it('saves the draft as a new recipe', () => {
+    render(<DesignerScreen />);
+    const n = useRecipes.getState().recipes.length;
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 A' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    const recipes = useRecipes.getState().recipes;
+    expect(recipes.length).toBe(n + 1);
+    const saved = recipes.at(-1)!;
+    expect(saved.name).toBe('Trial 320 A');
+    expect(saved.grade).toBe(320);
+    expect(saved.lines.reduce((a, l) => a + l.massFraction, 0)).toBeCloseTo(1, 12);
+    expect(useRecipes.getState().targets[saved.id]?.grade).toBe(320);
+  });
+});
