@@ -104,3 +104,24 @@ export {
   blendSheetCsvRows,
   BLEND_SHEET_CAUTIONS,
 } from './blend-sheet';
+
+// Predicted blend properties (with "show working" explanations)
+export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions } from './blend-properties';
+export { predictBlend, blendingViscosities } from './blend-properties';
+
+// Solver: recipes to a grade (least cost per litre, solvency, oxidation, closest), fast path, plain API
+export type {
+  SolveBlendInput,
+  SolveResult,
+  SolveOptimal,
+  SolveInfeasible,
+  SolveInvalidInput,
+  ConstraintCheck,
+  PreparedBlend,
+  EngineResult,
+  EngineOptimal,
+  EngineInfeasible,
+} from './solver/solve-blend';
+export { solveBlend, prepareComponents, solvePrepared, checkConstraints, CHECK_TOLERANCE } from './solver/solve-blend';
+export type { PlainComponent, PlainProblem, PlainBlend, PlainSolveResult } from './solver/plain';
+export { solveBlendPlain } from './solver/plain';

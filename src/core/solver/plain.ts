@@ -1,0 +1,238 @@
+/**
+ * The plain solver API — plain numbers in, plain numbers out — for Node scripting and outside
+ * checks (issue 3, item 7). Same engine as the workbench (`engine.ts`), fixed conventions:
+ *
+ * - blend viscosities by Refutas (mass fractions) at 40 and 100 °C;
+ * - aniline point by volume over EVERY given component; density by ideal mixing;
+ * - cost per litre = density × Σ wᵢ·priceᵢ (exactly, by the Charnes–Cooper transformation);
+ * - the ν40 band is targetKv40 × (1 ± tolerancePct/100), NOT clipped to an ISO band;
+ * - `vi` is unrounded and `minVi` is compared with it.
+ *
+ * Feasible means, recomputed from the returned fractions: ν40 inside the band to 1e-4 relative,
+ * VI ≥ minVi − 0.01, aniline point ≤ maximum + 0.01 °C, each fraction within its bounds and their
+ * sum 1, both to 1e-6; optimal means within 0.5 % of the true optimum (the LP optimum is exact; the
+ * VI condition is resolved by branch and bound to VI ≥ minVi − 0.005).
+ */
+import {
+  BlendbenchInputError,
+  FractionSumError,
+  ViscosityOutOfRangeError,
+  assertDensity15,
+  assertFinite,
+  assertKv40Kv100,
+  assertViscosity,
+} from '../errors';
+import { blendKv40Kv100 } from '../blending/blend-viscosity';
+import { viscosityIndex, VI_MIN_KV100 } from '../viscosity-index';
+import { blendDensity, massToVolumeFractions } from '../density';
+import { blendAnilinePoint } from '../aniline';
+import { blendCostPerLitre } from '../cost';
+import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
+import { diagnoseInfeasible } from './diagnose';
+
+/** One component of a plain problem. */
+export interface PlainComponent {
+  id: string;
+  /** ν40 [mm²/s]. */
+  kv40: number;
+  /** ν100 [mm²/s], ≥ 2.0 (ASTM D2270 scope) and below kv40. */
+  kv100: number;
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline point [°C]. */
+  anilinePoint: number;
+  /** Price per kg (any one currency). */
+  pricePerKg: number;
+  /** Mass-fraction bounds, 0–1 (defaults 0 and 1). */
+  minMassFraction?: number;
+  maxMassFraction?: number;
+}
+
+export interface PlainProblem {
+  components: PlainComponent[];
+  /** Target ν40 [mm²/s]. */
+  targetKv40: number;
+  /** Half-width of the band [% of the target]. */
+  tolerancePct: number;
+  /** Minimum VI (unrounded). */
+  minVi?: number;
+  /** Maximum blend aniline point [°C]. */
+  maxAnilinePoint?: number;
+  objective: 'cost' | 'solvency';
+}
+
+/** Properties of a plain blend. */
+export interface PlainBlend {
+  /** Mass fraction of every given id, zeros included. */
+  massFractions: Record<string, number>;
+  /** ν40 and ν100 [mm²/s] (Refutas). */
+  kv40: number;
+  kv100: number;
+  /** Unrounded VI (ASTM D2270). */
+  vi: number;
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline point [°C], by volume. */
+  anilinePoint: number;
+  /** Cost per litre (currency of the prices per litre at 15 °C). */
+  costPerLitre: number;
+}
+
+export type PlainSolveResult = ({ status: 'optimal' } & PlainBlend) | { status: 'infeasible'; reason: string };
+
+/** Re-raise a core error with the component's index in its field name. */
+function inComponent<T>(i: number, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof BlendbenchInputError && !e.field.startsWith('components[')) {
+      const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
+      const field = `components[${i}].${e.field}`;
+      throw new Ctor(field, e.value, e.message.replace(`: ${e.field} =`, `: ${field} =`));
+    }
+    throw e;
+  }
+}
+
+/**
+ * Validate a plain problem and build the engine's prepared problem.
+ *
+ * @throws BlendbenchInputError and its subclasses (InvalidNumberError, NonPositiveViscosityError,
+ *   ViscosityOrderError, ViscosityOutOfRangeError, ImplausibleDensityError, FractionSumError)
+ */
+export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedProblem {
+  if (!p || !Array.isArray(p.components) || p.components.length === 0) {
+    throw new BlendbenchInputError('components', p?.components, `${fn}: components must be a non-empty array`);
+  }
+  const ids = new Set<string>();
+  const comps: EngineComponent[] = p.components.map((c, i) => {
+    const f = (name: string): string => `components[${i}].${name}`;
+    if (typeof c.id !== 'string' || c.id === '') {
+      throw new BlendbenchInputError(f('id'), c.id, `${fn}: ${f('id')} must be a non-empty string`);
+    }
+    if (ids.has(c.id)) throw new BlendbenchInputError(f('id'), c.id, `${fn}: id "${c.id}" appears twice`);
+    ids.add(c.id);
+    inComponent(i, () => assertKv40Kv100(fn, c.kv40, c.kv100));
+    if (c.kv100 < VI_MIN_KV100) {
+      throw new ViscosityOutOfRangeError(
+        f('kv100'),
+        c.kv100,
+        `${fn}: ${f('kv100')} = ${c.kv100} mm²/s is below 2.0 mm²/s, where ASTM D2270 defines no VI`,
+      );
+    }
+    assertDensity15(fn, f('density15'), c.density15);
+    assertFinite(fn, f('anilinePoint'), c.anilinePoint);
+    assertFinite(fn, f('pricePerKg'), c.pricePerKg);
+    if (c.pricePerKg < 0) {
+      throw new BlendbenchInputError(f('pricePerKg'), c.pricePerKg, `${fn}: ${f('pricePerKg')} = ${c.pricePerKg}; a price must not be negative`);
+    }
+    const min = c.minMassFraction ?? 0;
+    const max = c.maxMassFraction ?? 1;
+    for (const [name, v] of [
+      ['minMassFraction', min],
+      ['maxMassFraction', max],
+    ] as const) {
+      assertFinite(fn, f(name), v);
+      if (v < 0 || v > 1) throw new FractionSumError(f(name), v, `${fn}: ${f(name)} = ${v}; a fraction must lie between 0 and 1`);
+    }
+    if (min > max) {
+      throw new FractionSumError(f('minMassFraction'), min, `${fn}: ${f('minMassFraction')} = ${min} is above maxMassFraction = ${max}`);
+    }
+    return {
+      id: c.id,
+      label: c.id,
+      kv40: c.kv40,
+      kv100: c.kv100,
+      density15: c.density15,
+      anilinePoint: c.anilinePoint,
+      pricePerKg: c.pricePerKg,
+      polymer: false,
+      baseFluid: true,
+      oxidation: 0,
+      pourPoint: null,
+      flashPoint: null,
+      min,
+      max,
+      fixedAdditive: false,
+      usable: true,
+    };
+  });
+  assertViscosity(fn, 'targetKv40', p.targetKv40);
+  assertFinite(fn, 'tolerancePct', p.tolerancePct);
+  if (p.tolerancePct < 0 || p.tolerancePct >= 100) {
+    throw new BlendbenchInputError('tolerancePct', p.tolerancePct, `${fn}: tolerancePct = ${p.tolerancePct}; it must be from 0 to below 100 (per cent)`);
+  }
+  if (p.minVi !== undefined) assertFinite(fn, 'minVi', p.minVi);
+  if (p.maxAnilinePoint !== undefined) assertFinite(fn, 'maxAnilinePoint', p.maxAnilinePoint);
+  if (p.objective !== 'cost' && p.objective !== 'solvency') {
+    throw new BlendbenchInputError('objective', p.objective, `${fn}: objective = ${String(p.objective)}; use 'cost' or 'solvency'`);
+  }
+  return prepareEngine(
+    comps,
+    {
+      kv40Min: p.targetKv40 * (1 - p.tolerancePct / 100),
+      kv40Max: p.targetKv40 * (1 + p.tolerancePct / 100),
+      minVi: p.minVi ?? null,
+      maxAnilinePoint: p.maxAnilinePoint ?? null,
+      maxPolymerFraction: null,
+      maxPourPoint: null,
+      minFlashPoint: null,
+      objective: p.objective,
+      referenceMassFractions: null,
+    },
+    'refutas',
+  );
+}
+
+/**
+ * Recompute a plain blend's properties from its fractions with the calculation core.
+ *
+ * @param components - the plain components
+ * @param w - mass fractions aligned with `components`, summing to 1
+ * @returns the properties ({@link PlainBlend})
+ */
+export function plainBlendProperties(components: readonly PlainComponent[], w: ArrayLike<number>): PlainBlend {
+  const parts = components.map((c, i) => ({ massFraction: w[i] ?? 0, density15: c.density15, kv40: c.kv40, kv100: c.kv100 }));
+  const { kv40, kv100 } = blendKv40Kv100('refutas', parts);
+  const phi = massToVolumeFractions(parts);
+  const massFractions: Record<string, number> = {};
+  components.forEach((c, i) => (massFractions[c.id] = w[i] ?? 0));
+  return {
+    massFractions,
+    kv40,
+    kv100,
+    vi: viscosityIndex(kv40, kv100),
+    density15: blendDensity(parts),
+    anilinePoint: blendAnilinePoint(components.map((c, i) => ({ volumeFraction: phi[i]!, anilinePoint: c.anilinePoint }))).value,
+    costPerLitre: blendCostPerLitre(components.map((c, i) => ({ massFraction: w[i] ?? 0, density15: c.density15, pricePerKg: c.pricePerKg }))),
+  };
+}
+
+/**
+ * Solve a blend in plain numbers: least cost per litre (or lowest aniline point, ties broken by
+ * cost) with ν40 in targetKv40 × (1 ± tolerancePct/100), optional minimum VI and maximum aniline
+ * point, and per-component mass-fraction bounds.
+ *
+ * @param p - the problem ({@link PlainProblem})
+ * @returns `{ status: 'optimal', massFractions, kv40, kv100, vi, density15, anilinePoint, costPerLitre }`
+ *   with every given id in `massFractions` (zeros included), or `{ status: 'infeasible', reason }`
+ * @throws the core's named errors (BlendbenchInputError subclasses) for impossible input
+ * @example
+ * solveBlendPlain({
+ *   components: [
+ *     { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 },
+ *     { id: 'heavy', kv40: 460, kv100: 31, density15: 0.90, anilinePoint: 125, pricePerKg: 1.5 },
+ *   ],
+ *   targetKv40: 220, tolerancePct: 0, objective: 'cost',
+ * }) // → { status: 'optimal', massFractions: { light: 0.4487, heavy: 0.5513 }, kv40: 220, … }
+ */
+export function solveBlendPlain(p: PlainProblem): PlainSolveResult {
+  const P = preparePlain(p);
+  const r = solvePrepared(P);
+  if (r.status !== 'optimal') {
+    const d = diagnoseInfeasible(P, { product: `the target ν40 ${p.targetKv40} mm²/s ± ${p.tolerancePct} %` });
+    const withSuggestion = d.binding === 'kv40-min' || d.binding === 'kv40-max' ? d.reason : `${d.reason} ${d.suggestion}`;
+    return { status: 'infeasible', reason: withSuggestion };
+  }
+  return { status: 'optimal', ...plainBlendProperties(p.components, r.massFractions) };
+}

@@ -1,0 +1,409 @@
+/**
+ * Solve a recipe: the mass fractions of the available components that meet a viscosity grade and
+ * the other targets, optimising cost per litre, solvency, oxidation stability or closeness to a
+ * reference recipe. See `engine.ts` for the formulation (Charnes–Cooper for the ratio objectives,
+ * a branch and bound for the minimum VI) and README "Solver".
+ *
+ * Every optimal recipe is recomputed with the calculation core (`predictBlend`) and checked
+ * against every constraint (`checks`); infeasible problems come back with a reason computed from
+ * the achievable range and the binding constraint (`diagnose.ts`).
+ */
+import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../model';
+import type { BlendMethod } from '../blending/blend-viscosity';
+import { BlendbenchInputError, assertDensity15, assertFinite, assertTemperatureC, assertViscosity } from '../errors';
+import { gradeBand } from '../iso-grades';
+import { pricePerKg } from '../cost';
+import { oxidationRating } from '../oxidation';
+import { blendingViscosities, predictBlend, type BlendProperties } from '../blend-properties';
+import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
+import { diagnoseInfeasible, fmtKv } from './diagnose';
+
+export { solvePrepared } from './engine';
+export type { EngineResult, EngineOptimal, EngineInfeasible, PreparedProblem, EngineComponent, EngineTargets } from './engine';
+
+/** Tolerances of the feasibility check (issue 3, item 7). */
+export const CHECK_TOLERANCE = {
+  /** ν40 inside its band, relative. */
+  kv40Relative: 1e-4,
+  /** VI ≥ minimum − this. */
+  vi: 0.01,
+  /** Aniline, pour and flash point limits [°C]. */
+  temperature: 0.01,
+  /** Fractions within their bounds and the treat rate. */
+  fraction: 1e-6,
+} as const;
+
+export interface SolveBlendInput {
+  components: readonly Component[];
+  targets: BlendTargets;
+  /** The reference recipe (needed by the 'closest' objective). */
+  reference?: Recipe | null;
+  /** Mixing rule; default 'refutas'. */
+  method?: BlendMethod;
+  /** Temperatures for the predicted properties [°C] (optional). */
+  operatingTempC?: number;
+  coldTempC?: number;
+}
+
+/** One constraint as recomputed by the core. */
+export interface ConstraintCheck {
+  constraint: string;
+  value: number | null;
+  limit: string;
+  ok: boolean;
+}
+
+export interface SolveOptimal {
+  status: 'optimal';
+  /** The recipe: used components (fraction > 0) in library order, summing to 1. */
+  lines: RecipeLine[];
+  /** All properties, recomputed by the core. */
+  properties: BlendProperties;
+  objective: Objective;
+  /**
+   * Value of the objective: cost per litre (currency/L), aniline point (°C), oxidation rating
+   * (1–5) or the closeness distance (see README "Solver").
+   */
+  objectiveValue: number;
+  /** The ν40 band the recipe was solved to [mm²/s]. */
+  band: { min: number; max: number; target: number };
+  /** Every constraint recomputed by the core. */
+  checks: ConstraintCheck[];
+  lpCount: number;
+}
+export interface SolveInfeasible {
+  status: 'infeasible';
+  reason: string;
+  /** The binding constraint (see `Diagnosis.binding`). */
+  binding: string;
+  suggestion: string;
+  /** Every constraint group whose removal alone would make the problem feasible. */
+  relaxable: string[];
+  lpCount: number;
+}
+export interface SolveInvalidInput {
+  status: 'invalid-input';
+  /** The offending input, e.g. `targets.tolerancePct` or `components[2].density15`. */
+  field: string;
+  message: string;
+}
+export type SolveResult = SolveOptimal | SolveInfeasible | SolveInvalidInput;
+
+/** A problem prepared once for many solves (the fast path); an engine problem plus its sources. */
+export interface PreparedBlend extends PreparedProblem {
+  /** The components, in the same order as the engine's (index i ↔ components[i]). */
+  readonly library: readonly Component[];
+  readonly blendTargets: BlendTargets;
+  /** The ν40 band solved to [mm²/s]. */
+  readonly band: { min: number; max: number; target: number };
+  /** The common currency of the usable components (null if none is usable). */
+  readonly currency: string | null;
+  /** e.g. "VG 320". */
+  readonly productLabel: string;
+}
+
+const fail = (field: string, value: unknown, message: string): never => {
+  throw new BlendbenchInputError(field, value, message);
+};
+
+/**
+ * Prepare components and targets once; then {@link solvePrepared}`(prepared, subset)` solves any
+ * subset of the components quickly (the substitute search's fast path).
+ *
+ * Which components are usable: not withdrawn; an additive package only if it is the targets'
+ * additive or has explicit bounds; with a pour-point (flash-point) limit, only components whose
+ * pour (flash) point is known. The targets' additive is fixed at its treat rate (min = max).
+ *
+ * @param components - the library; index i of the result refers to components[i]
+ * @param targets - targets and constraints
+ * @param method - mixing rule (default 'refutas')
+ * @param reference - reference recipe (for the 'closest' objective; may use withdrawn stocks)
+ * @returns the prepared problem
+ * @throws BlendbenchInputError (or a subclass) naming the offending field
+ */
+export function prepareComponents(
+  components: readonly Component[],
+  targets: BlendTargets,
+  method: BlendMethod = 'refutas',
+  reference: Recipe | null = null,
+): PreparedBlend {
+  const fn = 'prepareComponents';
+  if (method !== 'refutas' && method !== 'astm-d7152') fail('method', method, `${fn}: unknown mixing rule "${String(method)}"`);
+  // Targets.
+  const iso = gradeBand(targets.grade);
+  const target = targets.targetKv40 ?? iso.mid;
+  assertViscosity(fn, 'targets.targetKv40', target);
+  assertFinite(fn, 'targets.tolerancePct', targets.tolerancePct);
+  if (targets.tolerancePct < 0) {
+    fail('targets.tolerancePct', targets.tolerancePct, `${fn}: targets.tolerancePct = ${targets.tolerancePct}; a tolerance cannot be negative`);
+  }
+  const lo = Math.max(target * (1 - targets.tolerancePct / 100), iso.min);
+  const hi = Math.min(target * (1 + targets.tolerancePct / 100), iso.max);
+  if (lo > hi) {
+    fail(
+      'targets.targetKv40',
+      target,
+      `${fn}: target ν40 ${fmtKv(target)} mm²/s ± ${targets.tolerancePct} % lies outside the VG ${iso.grade} band ` +
+        `${fmtKv(iso.min)}–${fmtKv(iso.max)} mm²/s`,
+    );
+  }
+  if (targets.minVi !== null) assertFinite(fn, 'targets.minVi', targets.minVi);
+  if (targets.maxAnilinePoint !== null) assertFinite(fn, 'targets.maxAnilinePoint', targets.maxAnilinePoint);
+  if (targets.maxPolymerFraction !== null) assertUnit(fn, 'targets.maxPolymerFraction', targets.maxPolymerFraction);
+  if (targets.maxPourPoint !== null) assertTemperatureC(fn, 'targets.maxPourPoint', targets.maxPourPoint);
+  if (targets.minFlashPoint !== null) assertTemperatureC(fn, 'targets.minFlashPoint', targets.minFlashPoint);
+  const objectives: Objective[] = ['cost', 'solvency', 'oxidation', 'closest'];
+  if (!objectives.includes(targets.objective)) {
+    fail('targets.objective', targets.objective, `${fn}: unknown objective "${String(targets.objective)}"`);
+  }
+  const ids = new Set<string>();
+  components.forEach((c, i) => {
+    if (ids.has(c.id)) fail(`components[${i}].id`, c.id, `${fn}: component id "${c.id}" appears twice`);
+    ids.add(c.id);
+  });
+  const additive = targets.additive;
+  if (additive) {
+    if (!ids.has(additive.componentId)) {
+      fail('targets.additive.componentId', additive.componentId, `${fn}: the additive "${additive.componentId}" is not in the library`);
+    }
+    assertUnit(fn, 'targets.additive.massFraction', additive.massFraction);
+    if (additive.massFraction >= 1) {
+      fail('targets.additive.massFraction', additive.massFraction, `${fn}: an additive treat rate must be below 100 %`);
+    }
+    const a = components.find((c) => c.id === additive.componentId)!;
+    if (a.availability === 'withdrawn') {
+      fail('targets.additive.componentId', additive.componentId, `${fn}: the additive package ${a.code} is withdrawn; choose an available one`);
+    }
+  }
+  for (const [id, b] of Object.entries(targets.bounds)) {
+    if (b.min !== undefined) assertUnit(fn, `targets.bounds.${id}.min`, b.min);
+    if (b.max !== undefined) assertUnit(fn, `targets.bounds.${id}.max`, b.max);
+    if (b.min !== undefined && b.max !== undefined && b.min > b.max) {
+      fail(`targets.bounds.${id}`, b, `${fn}: the minimum fraction of ${id} (${b.min}) is above its maximum (${b.max})`);
+    }
+  }
+  if (targets.objective === 'closest' && !reference) {
+    fail('reference', null, `${fn}: the 'closest' objective needs a reference recipe`);
+  }
+
+  // Components.
+  const currencies = new Set<string>();
+  const engineComponents: EngineComponent[] = components.map((c, i) => {
+    const field = (f: string): string => `components[${i}].${f}`;
+    let kv: { kv40: number; kv100: number };
+    try {
+      kv = blendingViscosities(c);
+      assertDensity15(fn, field('density15'), c.density15);
+    } catch (e) {
+      if (e instanceof BlendbenchInputError && !e.field.startsWith('components[')) {
+        throw new BlendbenchInputError(field(e.field), e.value, `${c.code}: ${e.message}`);
+      }
+      throw e;
+    }
+    if (c.anilinePoint !== null) assertFinite(fn, field('anilinePoint'), c.anilinePoint);
+    const isAdditive = additive?.componentId === c.id;
+    const bound = targets.bounds[c.id];
+    let usable = c.availability !== 'withdrawn';
+    if (c.category === 'additive-package' && !isAdditive && bound === undefined) usable = false;
+    if (targets.maxPourPoint !== null && c.pourPoint === null) {
+      if (isAdditive) fail(field('pourPoint'), null, `${fn}: a pour-point limit needs the pour point of the additive package ${c.code}`);
+      usable = false;
+    }
+    if (targets.minFlashPoint !== null && c.flashPoint === null) {
+      if (isAdditive) fail(field('flashPoint'), null, `${fn}: a flash-point limit needs the flash point of the additive package ${c.code}`);
+      usable = false;
+    }
+    const price = usable || reference ? pricePerKg(c.price, c.density15) : 0;
+    if (usable) currencies.add(c.price.currency);
+    const min = isAdditive ? additive!.massFraction : (bound?.min ?? 0);
+    const max = isAdditive ? additive!.massFraction : (bound?.max ?? 1);
+    return {
+      id: c.id,
+      label: c.code,
+      kv40: kv.kv40,
+      kv100: kv.kv100,
+      density15: c.density15,
+      anilinePoint: c.anilinePoint,
+      pricePerKg: price,
+      polymer: c.category === 'polymer',
+      baseFluid: c.category !== 'additive-package',
+      oxidation: oxidationRating(c),
+      pourPoint: c.pourPoint,
+      flashPoint: c.flashPoint,
+      min,
+      max,
+      fixedAdditive: isAdditive,
+      usable,
+    };
+  });
+  if (currencies.size > 1) {
+    fail(
+      'components.price.currency',
+      [...currencies],
+      `${fn}: prices are in ${[...currencies].join(' and ')}; Blendbench never converts currencies — give every available component's price in one currency`,
+    );
+  }
+  let referenceFractions: number[] | null = null;
+  if (reference) {
+    referenceFractions = new Array<number>(components.length).fill(0);
+    reference.lines.forEach((l, i) => {
+      const k = components.findIndex((c) => c.id === l.componentId);
+      if (k < 0) fail(`reference.lines[${i}].componentId`, l.componentId, `${fn}: the reference names an unknown component "${l.componentId}"`);
+      assertUnit(fn, `reference.lines[${i}].massFraction`, l.massFraction);
+      referenceFractions![k] = (referenceFractions![k] ?? 0) + l.massFraction;
+    });
+  }
+  const engine = prepareEngine(
+    engineComponents,
+    {
+      kv40Min: lo,
+      kv40Max: hi,
+      minVi: targets.minVi,
+      maxAnilinePoint: targets.maxAnilinePoint,
+      maxPolymerFraction: targets.maxPolymerFraction,
+      maxPourPoint: targets.maxPourPoint,
+      minFlashPoint: targets.minFlashPoint,
+      objective: targets.objective,
+      referenceMassFractions: referenceFractions,
+    },
+    method,
+  );
+  return {
+    ...engine,
+    library: components,
+    blendTargets: targets,
+    band: { min: lo, max: hi, target },
+    currency: currencies.size === 1 ? [...currencies][0]! : null,
+    productLabel: `VG ${iso.grade}`,
+  };
+}
+
+function assertUnit(fn: string, field: string, x: unknown): asserts x is number {
+  assertFinite(fn, field, x);
+  if (x < 0 || x > 1) fail(field, x, `${fn}: ${field} = ${x}; a fraction must lie between 0 and 1`);
+}
+
+/**
+ * Solve for the recipe that meets the targets with the best objective.
+ *
+ * @param input - components, targets, optional reference recipe, mixing rule and temperatures
+ * @returns 'optimal' with the recipe, every property recomputed by the core and the constraint
+ *   checks; 'infeasible' with the reason, binding constraint and a suggestion; or 'invalid-input'
+ *   naming the field
+ * @example
+ * solveBlend({ components: lib, targets: { grade: 320, targetKv40: null, tolerancePct: 5, minVi: 95,
+ *   maxAnilinePoint: null, maxPolymerFraction: 0.1, maxPourPoint: null, minFlashPoint: null,
+ *   additive: { componentId: 'ep', massFraction: 0.02 }, bounds: {}, objective: 'cost',
+ *   referenceRecipeId: null } })
+ *   // → { status: 'optimal', lines: [...], properties: { kv40: 304.0, ... }, objectiveValue: 1.38, ... }
+ */
+export function solveBlend(input: SolveBlendInput): SolveResult {
+  let P: PreparedBlend;
+  try {
+    P = prepareComponents(input.components, input.targets, input.method ?? 'refutas', input.reference ?? null);
+  } catch (e) {
+    if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, message: e.message };
+    throw e;
+  }
+  const r = solvePrepared(P);
+  if (r.status !== 'optimal') {
+    const iso = gradeBand(P.blendTargets.grade);
+    const d = diagnoseInfeasible(P, { product: P.productLabel, gradeMin: iso.min, gradeMax: iso.max });
+    const solverNote = r.solverFailure ? ' (The LP solver also reported a numerical failure.)' : '';
+    return {
+      status: 'infeasible',
+      reason: d.reason + solverNote,
+      binding: d.binding,
+      suggestion: d.suggestion,
+      relaxable: d.relaxable,
+      lpCount: r.lpCount + d.lpCount,
+    };
+  }
+  const lines: RecipeLine[] = [];
+  P.library.forEach((c, i) => {
+    const w = r.massFractions[i]!;
+    if (w > 0) lines.push({ componentId: c.id, massFraction: w });
+  });
+  const properties = predictBlend(P.library, lines, {
+    method: P.method,
+    ...(input.operatingTempC === undefined ? {} : { operatingTempC: input.operatingTempC }),
+    ...(input.coldTempC === undefined ? {} : { coldTempC: input.coldTempC }),
+  });
+  const checks = checkConstraints(P, lines, properties);
+  let objectiveValue = r.objectiveValue;
+  if (P.blendTargets.objective === 'cost' && properties.costPerLitre !== null) objectiveValue = properties.costPerLitre;
+  if (P.blendTargets.objective === 'solvency' && properties.anilinePoint) objectiveValue = properties.anilinePoint.value;
+  if (P.blendTargets.objective === 'oxidation' && properties.oxidationRating !== null) objectiveValue = properties.oxidationRating;
+  return {
+    status: 'optimal',
+    lines,
+    properties,
+    objective: P.blendTargets.objective,
+    objectiveValue,
+    band: P.band,
+    checks,
+    lpCount: r.lpCount,
+  };
+}
+
+/**
+ * Check a recipe's recomputed properties against every constraint of a prepared problem, with the
+ * tolerances of {@link CHECK_TOLERANCE}.
+ *
+ * @param P - the prepared problem
+ * @param lines - the recipe
+ * @param p - its properties from `predictBlend`
+ * @returns one check per constraint that is set
+ */
+export function checkConstraints(P: PreparedBlend, lines: readonly RecipeLine[], p: BlendProperties): ConstraintCheck[] {
+  const t = P.blendTargets;
+  const tol = CHECK_TOLERANCE;
+  const out: ConstraintCheck[] = [];
+  out.push({
+    constraint: 'ν40 band [mm²/s]',
+    value: p.kv40,
+    limit: `${fmtKv(P.band.min)}–${fmtKv(P.band.max)}`,
+    ok: p.kv40 >= P.band.min * (1 - tol.kv40Relative) && p.kv40 <= P.band.max * (1 + tol.kv40Relative),
+  });
+  if (t.minVi !== null) {
+    out.push({ constraint: 'minimum VI', value: p.vi, limit: `≥ ${t.minVi}`, ok: p.vi !== null && p.vi >= t.minVi - tol.vi });
+  }
+  if (t.maxAnilinePoint !== null) {
+    const v = p.anilinePoint?.value ?? null;
+    out.push({ constraint: 'maximum aniline point [°C]', value: v, limit: `≤ ${t.maxAnilinePoint}`, ok: v !== null && v <= t.maxAnilinePoint + tol.temperature });
+  }
+  if (t.maxPolymerFraction !== null) {
+    out.push({
+      constraint: 'maximum polymer fraction',
+      value: p.polymerFraction,
+      limit: `≤ ${t.maxPolymerFraction}`,
+      ok: p.polymerFraction <= t.maxPolymerFraction + tol.fraction,
+    });
+  }
+  if (t.maxPourPoint !== null) {
+    out.push({ constraint: 'maximum pour point [°C]', value: p.pourPoint, limit: `≤ ${t.maxPourPoint}`, ok: p.pourPoint !== null && p.pourPoint <= t.maxPourPoint + tol.temperature });
+  }
+  if (t.minFlashPoint !== null) {
+    out.push({ constraint: 'minimum flash point [°C]', value: p.flashPoint, limit: `≥ ${t.minFlashPoint}`, ok: p.flashPoint !== null && p.flashPoint >= t.minFlashPoint - tol.temperature });
+  }
+  const byId = new Map(lines.map((l) => [l.componentId, l.massFraction]));
+  const sum = lines.reduce((s, l) => s + l.massFraction, 0);
+  out.push({ constraint: 'fractions sum to 1', value: sum, limit: '= 1', ok: Math.abs(sum - 1) <= tol.fraction });
+  P.components.forEach((k, i) => {
+    const w = byId.get(k.id) ?? 0;
+    if (!k.usable) {
+      if (w > 0) out.push({ constraint: `${k.label} not usable`, value: w, limit: '= 0', ok: false });
+      return;
+    }
+    if (k.min > 0 || k.max < 1) {
+      out.push({
+        constraint: `${k.label} ${k.fixedAdditive ? 'treat rate' : 'fraction'}`,
+        value: w,
+        limit: k.min === k.max ? `= ${k.min}` : `${k.min}–${k.max}`,
+        ok: w >= k.min - tol.fraction && w <= k.max + tol.fraction,
+      });
+    }
+    void i;
+  });
+  return out;
+}
