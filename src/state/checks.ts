@@ -7,7 +7,7 @@
  * blender meets (light esters to mid-molecular-weight polymers), narrow enough to catch unit slips
  * (kg/m³ typed as kg/L, cSt at 100 °C typed in the 40 °C column).
  */
-import { DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
+import { ABSOLUTE_ZERO_C, DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
 import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/oxidation';
 import { viscosityIndex } from '../core/viscosity-index';
 import { kv40kv100FromPoints } from '../core/viscosity-temperature';
@@ -55,6 +55,12 @@ export const PLAUSIBLE: Record<'kv40' | 'kv100' | 'anilinePoint' | 'pourPoint' |
 
 const fmt = (v: number) => String(Number(v.toPrecision(6)));
 
+/**
+ * Hard limits (common practice, no source): beyond these a number cannot describe a blending
+ * component at all (a slipped exponent or a hostile import), so it is an error, not a warning.
+ */
+export const POSSIBLE = { maxKv: 1e7, maxTempC: 1000, maxPrice: 1e12 } as const;
+
 /** Check one number field alone. Returns an error or a warning message, or nothing. */
 export function checkValue(field: CheckField, v: number | null): { error?: string; warning?: string } {
   if (v === null) {
@@ -64,10 +70,14 @@ export function checkValue(field: CheckField, v: number | null): { error?: strin
   if (!Number.isFinite(v)) return { error: 'must be a finite number' };
   const outside = (r: Range, what: string, unit: string) =>
     v < r[0] || v > r[1] ? { warning: `${fmt(v)} ${unit} is outside the usual ${r[0]}–${r[1]} ${unit} for ${what}; check the value` } : {};
+  if ((field === 'anilinePoint' || field === 'pourPoint' || field === 'flashPoint') && (v < ABSOLUTE_ZERO_C || v > POSSIBLE.maxTempC)) {
+    return { error: `${fmt(v)} °C is not a possible temperature here` };
+  }
   switch (field) {
     case 'kv40':
     case 'kv100':
       if (v <= 0) return { error: 'a viscosity must be above zero' };
+      if (v > POSSIBLE.maxKv) return { error: `${fmt(v)} mm²/s is not a possible viscosity for a blending component` };
       return outside(PLAUSIBLE[field], `ν${field === 'kv40' ? '40' : '100'}`, 'mm²/s');
     case 'density15':
       if (v <= 0) return { error: 'density must be above zero' };
@@ -91,6 +101,7 @@ export function checkValue(field: CheckField, v: number | null): { error?: strin
       return {};
     case 'price':
       if (v < 0) return { error: 'a price cannot be negative' };
+      if (v > POSSIBLE.maxPrice) return { error: `${fmt(v)} is not a possible price` };
       if (v === 0) return { warning: 'no price: costs will treat this stock as free' };
       return {};
     case 'oxidationRating':
