@@ -100,3 +100,28 @@ describe('Recipe designer', () => {
     expect(useRecipes.getState().targets[saved.id]?.grade).toBe(320);
   });
 });
+
+describe('Solve', () => {
+  it('solves VG 320 for least cost to an in-grade recipe', async () => {
+    render(<DesignerScreen />);
+    fireEvent.click(screen.getByText('Solve', { selector: 'button' }));
+    await screen.findByText('Solved', {}, { timeout: 20000 });
+    const kv40 = num(screen.getByTestId('prop-kv40').textContent);
+    // ISO 3448 band of VG 320: 288–352 mm²/s (shared/reference/check-values.md G2)
+    expect(kv40).toBeGreaterThanOrEqual(288);
+    expect(kv40).toBeLessThanOrEqual(352);
+    expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
+  });
+
+  it('explains an infeasible target with the reason and a suggested fix', async () => {
+    render(<DesignerScreen />);
+    // Exclude every stock heavier than VG 100 by excluding them through the per-stock limits.
+    for (const code of ['BW-190', 'BW-280', 'BW-281', 'BW-440', 'BW-441', 'BW-499', 'BW-510']) {
+      fireEvent.click(screen.getByLabelText(`Use ${code}`));
+    }
+    fireEvent.click(screen.getByText('Solve', { selector: 'button' }));
+    await screen.findByText('No recipe meets these targets', {}, { timeout: 20000 });
+    expect(screen.getByTestId('infeasible-reason').textContent).toMatch(/mm²\/s/);
+    expect(screen.getByText(/Suggested fix/)).toBeTruthy();
+  });
+});
