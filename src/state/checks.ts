@@ -154,8 +154,14 @@ export function checkComponent(c: Component, others: readonly Component[] = []):
   if (!c.code.trim()) errors.push({ field: 'code', message: 'a stock code is required' });
   const clash = others.find((o) => o.id !== c.id && o.code.trim().toLowerCase() === c.code.trim().toLowerCase());
   if (c.code.trim() && clash) errors.push({ field: 'code', message: `stock code ${c.code} is already used` });
-  const p = kv40kv100(c);
-  if (!p) {
+  const at = (t: number) => c.viscosityPoints.find((pt) => pt.tempC === t)?.kv;
+  const m40 = at(40);
+  const m100 = at(100);
+  const pair = m40 !== undefined && m100 !== undefined ? checkViscosityPair(m40, m100) : {};
+  const p = pair.error ? null : kv40kv100(c);
+  if (pair.error) {
+    errors.push({ field: 'kv100', message: pair.error });
+  } else if (!p) {
     errors.push({ field: 'viscosityPoints', message: 'needs viscosities at two temperatures, falling as temperature rises' });
   } else {
     add('kv40', checkValue('kv40', p.kv40));

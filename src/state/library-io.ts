@@ -138,11 +138,14 @@ function finishRow(
     else seen.set(key, line);
   }
   if (errors.length === 0) {
-    const parsed = componentSchema.safeParse(comp);
-    if (!parsed.success) errors.push(describeIssues(parsed.error));
+    // The entry checks first (the same specific messages as the library screen), then the schema.
     const checks = checkComponent(comp, []);
-    for (const e of checks.errors) if (!errors.some((x) => x.includes(e.message))) errors.push(`${e.field}: ${e.message}`);
+    for (const e of checks.errors) errors.push(`${e.field}: ${e.message}`);
     for (const w of checks.warnings) warnings.push(`${w.field}: ${w.message}`);
+    if (errors.length === 0) {
+      const parsed = componentSchema.safeParse(comp);
+      if (!parsed.success) errors.push(describeIssues(parsed.error));
+    }
   }
   return {
     line,

@@ -63,6 +63,29 @@ export function ComponentDetails({ c, usedIn, onUpdate }: DetailsProps) {
         </p>
       </fieldset>
       <fieldset>
+        <legend>Pour and flash point</legend>
+        <NumberField
+          label="Pour point (ASTM D97)"
+          unit={fmt.tempUnit}
+          allowEmpty
+          size={5}
+          digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
+          value={c.pourPoint === null ? null : fmt.tempValue(c.pourPoint)}
+          validate={(v) => (v === null ? {} : checkValue('pourPoint', fmt.tempToC(v)))}
+          onCommit={(v) => onUpdate(c.id, { pourPoint: v === null ? null : fmt.tempToC(v) })}
+        />
+        <NumberField
+          label="Flash point (ASTM D92, open cup)"
+          unit={fmt.tempUnit}
+          allowEmpty
+          size={5}
+          digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
+          value={c.flashPoint === null ? null : fmt.tempValue(c.flashPoint)}
+          validate={(v) => (v === null ? {} : checkValue('flashPoint', fmt.tempToC(v)))}
+          onCommit={(v) => onUpdate(c.id, { flashPoint: v === null ? null : fmt.tempToC(v) })}
+        />
+      </fieldset>
+      <fieldset>
         <legend>Composition and scoring</legend>
         <NumberField label="Sulfur" unit="mass %" allowEmpty value={c.sulfurPct} validate={(v) => checkValue('sulfurPct', v)} onCommit={(v) => onUpdate(c.id, { sulfurPct: v })} />
         <NumberField

@@ -50,7 +50,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
       <NumberField
         label={`${label} of ${who} [${fmt.tempUnit}]`}
         hideLabel
-        size={5}
+        size={4}
         allowEmpty
         digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
         value={c[field] === null ? null : fmt.tempValue(c[field])}
@@ -65,7 +65,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <TextField
           label={`Stock code of ${c.name || who}`}
           hideLabel
-          size={8}
+          size={7}
           maxLength={40}
           value={c.code}
           validate={(v) => ({ error: v.trim() ? codeError(v, c.id) : 'a stock code is required' })}
@@ -73,7 +73,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         />
       </th>
       <td>
-        <TextField label={`Name of ${who}`} hideLabel size={26} maxLength={200} value={c.name} onCommit={(v) => onUpdate(c.id, { name: v })} />
+        <TextField label={`Name of ${who}`} hideLabel size={16} maxLength={200} value={c.name} onCommit={(v) => onUpdate(c.id, { name: v })} />
       </td>
       <td>
         <SelectField<ComponentCategory>
@@ -108,7 +108,15 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         {vi === null ? <span title="Not defined (ν100 below 2 mm²/s or viscosities unusable)">—</span> : roundHalfEven(vi)}
       </td>
       <td className="num computed" title="ISO 3448 viscosity grade of ν40">
-        {grade !== null ? `VG ${grade}` : kv40 !== null ? <span className="muted">≈{nearestGrade(kv40).grade}</span> : '—'}
+        {grade !== null ? (
+          `VG ${grade}`
+        ) : kv40 !== null ? (
+          <span className="muted" title={`Between grades; nearest is VG ${nearestGrade(kv40).grade}`}>
+            near {nearestGrade(kv40).grade}
+          </span>
+        ) : (
+          '—'
+        )}
       </td>
       <td className="num">
         <NumberField
@@ -121,8 +129,6 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         />
       </td>
       {tempField('anilinePoint', 'Aniline point')}
-      {tempField('pourPoint', 'Pour point')}
-      {tempField('flashPoint', 'Flash point')}
       <td className="num price-cell">
         <NumberField
           label={`Price of ${who} [${c.price.currency} ${BASIS_SHORT[c.price.basis]}]`}

@@ -213,12 +213,6 @@ export default function LibraryScreen() {
                 Aniline pt <span className="unit">{fmt.tempUnit}</span>
               </th>
               <th scope="col" className="num">
-                Pour pt <span className="unit">{fmt.tempUnit}</span>
-              </th>
-              <th scope="col" className="num">
-                Flash pt <span className="unit">{fmt.tempUnit}</span>
-              </th>
-              <th scope="col" className="num">
                 Price
               </th>
               <th scope="col">Availability</th>
@@ -242,7 +236,7 @@ export default function LibraryScreen() {
                 />
                 {expanded === c.id ? (
                   <tr className="details-row" id={`details-${c.id}`}>
-                    <td colSpan={14}>
+                    <td colSpan={12}>
                       <ComponentDetails c={c} usedIn={usedIn.get(c.id) ?? []} onUpdate={onUpdate} />
                     </td>
                   </tr>

@@ -1,0 +1,149 @@
+// Library, saved work and import in the built app (Chromium via playwright-core).
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { launch, screenshot, type Session } from './support';
+
+/** Read one saved-work record straight from IndexedDB (database `blendbench`). */
+async function stored(page: Page, key: string): Promise<unknown> {
+  return page.evaluate(
+    (k) =>
+      new Promise((resolve, reject) => {
+        const open = indexedDB.open('blendbench');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const tx = open.result.transaction('saved-work', 'readonly');
+          const req = tx.objectStore('saved-work').get(k);
+          req.onsuccess = () => resolve(req.result);
+          req.onerror = () => reject(req.error);
+        };
+      }),
+    key,
+  );
+}
+
+async function libraryRowCount(page: Page): Promise<number> {
+  return page.getByRole('table', { name: 'Component library' }).locator('tbody > tr:not(.details-row)').count();
+}
+
+describe('component library and saved work', () => {
+  let s: Session;
+  let profile: string;
+  const files = mkdtempSync(join(tmpdir(), 'blendbench-import-'));
+  beforeAll(async () => {
+    profile = mkdtempSync(join(tmpdir(), 'blendbench-lib-profile-'));
+    s = await launch({ profileDir: profile });
+  });
+  afterAll(async () => {
+    await s?.close();
+    rmSync(profile, { recursive: true, force: true });
+    rmSync(files, { recursive: true, force: true });
+  });
+
+  it('first start shows the invented demo library with computed VI and grade', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    await expect(page.getByText(/invented demo/i).first().isVisible()).resolves.toBe(true);
+    await expect(page.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
+    expect(await libraryRowCount(page)).toBe(29);
+    await expect(page.getByLabel('Stock code of Group I bright stock', { exact: true }).inputValue()).resolves.toBe('BW-190');
+    // VI and grade columns are computed beside the entered values.
+    const row = page.getByRole('row').filter({ has: page.getByLabel('Stock code of Group I bright stock', { exact: true }) });
+    await expect(row.getByText('VG 460').isVisible()).resolves.toBe(true);
+    await screenshot(page, 'library');
+  });
+
+  it('refuses ν100 above ν40 with a specific message and keeps the stored value', async () => {
+    const { page } = s;
+    const kv100 = page.getByLabel('ν100 of BW-190 [mm²/s]');
+    await kv100.fill('600');
+    await kv100.press('Enter');
+    await expect(page.getByText('ν100 (600 mm²/s) must be below ν40 (485 mm²/s)').isVisible()).resolves.toBe(true);
+    await kv100.press('Escape');
+    await expect(kv100.inputValue()).resolves.toBe('31.8');
+  });
+
+  it('a malformed CSV shows its row errors and leaves the library unchanged', async () => {
+    const { page } = s;
+    const before = JSON.stringify(await stored(page, 'library'));
+    const csv = [
+      'code,name,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price,price_basis',
+      'NEW-1,Good new stock,group-ii,45,6.6,0.862,1.1,per-kg',
+      'NEW-2,Upside-down viscosities,group-ii,10,20,0.86,1,per-kg',
+      'NEW-3,Bad density,group-iii,34,6.3,heavy,1,per-kg',
+      'NEW-1,Duplicate code,group-ii,45,6.6,0.862,1.1,per-kg',
+      'NEW-4,Unknown group,group-x,45,6.6,0.862,1.1,per-kg',
+    ].join('\n');
+    const file = join(files, 'malformed.csv');
+    writeFileSync(file, csv);
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(file);
+    await page.getByText('4 of 5 rows have errors; nothing was imported.').waitFor();
+    const preview = page.getByRole('table', { name: 'Import preview' });
+    await expect(preview.getByText(/must be below ν40/).isVisible()).resolves.toBe(true);
+    await expect(preview.getByText(/“heavy” is not a number/).isVisible()).resolves.toBe(true);
+    await expect(preview.getByText(/also appears on line 2/).isVisible()).resolves.toBe(true);
+    await expect(preview.getByText(/“group-x” is not one of/).isVisible()).resolves.toBe(true);
+    await expect(page.getByRole('button', { name: /^Import/ }).filter({ hasText: /^Import$/ }).isDisabled()).resolves.toBe(true);
+    await screenshot(page, 'library-import-errors');
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    expect(await libraryRowCount(page)).toBe(29);
+    expect(JSON.stringify(await stored(page, 'library'))).toBe(before);
+  });
+
+  it('a valid CSV is previewed, then imported only on confirmation', async () => {
+    const { page } = s;
+    const file = join(files, 'good.csv');
+    writeFileSync(file, 'code,name,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nNEW-9,Imported neutral,group-ii,45,6.6,0.862,1.1\n');
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(file);
+    await page.getByText('good.csv is valid.').waitFor();
+    expect(await libraryRowCount(page)).toBe(29);
+    await page.getByRole('button', { name: 'Import: add 1, update 0' }).click();
+    expect(await libraryRowCount(page)).toBe(30);
+  });
+
+  it('edits to the library and settings survive a reload, as do the recipes', async () => {
+    const { page } = s;
+    const kv40 = page.getByLabel('ν40 of BW-190 [mm²/s]');
+    await kv40.fill('490');
+    await kv40.press('Enter');
+    await page.getByRole('link', { name: /Settings/ }).click();
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    await page.getByLabel('Temperatures in').selectOption('F');
+    await screenshot(page, 'settings');
+    // Wait until the edits are written.
+    await expect
+      .poll(async () => JSON.stringify(await stored(page, 'settings')), { timeout: 5000 })
+      .toContain('"temperatureUnit":"F"');
+    await expect.poll(async () => JSON.stringify(await stored(page, 'library')), { timeout: 5000 }).toContain('"kv":490');
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.reload();
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    await expect(page.getByLabel('ν40 of BW-190 [mm²/s]').inputValue()).resolves.toBe('490');
+    expect(await libraryRowCount(page)).toBe(30);
+    await expect(page.getByRole('columnheader', { name: /Aniline pt °F/ }).isVisible()).resolves.toBe(true);
+    const recipes = (await stored(page, 'recipes')) as { version: number; state: { recipes: unknown[] } };
+    expect(recipes.version).toBe(2);
+    expect(recipes.state.recipes.length).toBe(4);
+  });
+
+  it('deleting a stock can be undone; a stock used in a recipe is not deleted', async () => {
+    const { page } = s;
+    await page.getByRole('button', { name: 'Delete NEW-9' }).click();
+    expect(await libraryRowCount(page)).toBe(29);
+    await page.getByRole('button', { name: 'Undo', exact: true }).first().click();
+    expect(await libraryRowCount(page)).toBe(30);
+    await page.getByRole('button', { name: 'Delete BW-190' }).click();
+    await expect(page.getByText(/BW-190 is used in 4 recipes/).isVisible()).resolves.toBe(true);
+    expect(await libraryRowCount(page)).toBe(30);
+  });
+
+  it('made no console errors and no off-host requests', () => {
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});

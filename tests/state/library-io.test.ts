@@ -1,0 +1,102 @@
+import { describe, expect, it } from 'vitest';
+import { demoComponents } from '../../src/state/demo';
+import { libraryToCsv, libraryToJson, previewCsv, previewJson, previewLibraryImport } from '../../src/state/library-io';
+
+const HEADER = 'code,name,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price,price_basis';
+
+describe('CSV import preview', () => {
+  const lib = demoComponents();
+
+  it('reports each bad row with a specific message and marks the set invalid', () => {
+    const p = previewCsv(
+      [
+        HEADER,
+        'NEW-1,Good new stock,group-ii,45,6.6,0.862,1.1,per-kg',
+        'NEW-2,Upside-down,group-ii,10,20,0.86,1,per-kg',
+        'NEW-3,Bad density,group-iii,34,6.3,heavy,1,per-kg',
+        'NEW-1,Duplicate code,group-ii,45,6.6,0.862,1.1,per-kg',
+        'NEW-4,Unknown group,group-x,45,6.6,0.862,1.1,per-kg',
+        'NEW-5,Density in kg/m3,group-ii,45,6.6,862,1.1,per-kg',
+      ].join('\n'),
+      lib,
+    );
+    expect(p.valid).toBe(false);
+    expect(p.rows.map((r) => r.line)).toEqual([2, 3, 4, 5, 6, 7]);
+    expect(p.rows[0]!.errors).toEqual([]);
+    expect(p.rows[0]!.action).toBe('add');
+    expect(p.rows[1]!.errors.join()).toMatch(/ν100 \(20 mm²\/s\) must be below ν40 \(10 mm²\/s\)/);
+    expect(p.rows[2]!.errors.join()).toMatch(/“heavy” is not a number/);
+    expect(p.rows[3]!.errors.join()).toMatch(/also appears on line 2/);
+    expect(p.rows[4]!.errors.join()).toMatch(/“group-x” is not one of/);
+    expect(p.rows[5]!.errors.join()).toMatch(/looks like kg\/m³/);
+  });
+
+  it('matches existing codes for update (keeping the id) and new codes for add', () => {
+    const p = previewCsv(`${HEADER}\nbw-190,Renamed bright stock,Group I,480,31.5,0.9,1200,per-tonne\nNEW-7,x,2,45,6.6,0.862,1.1,kg\n`, lib);
+    expect(p.valid).toBe(true);
+    expect(p.updates).toBe(1);
+    expect(p.adds).toBe(1);
+    expect(p.rows[0]!.component!.id).toBe('demo-bw-190');
+    expect(p.rows[1]!.component!.category).toBe('group-ii');
+    expect(p.rows[1]!.component!.price.basis).toBe('per-kg');
+  });
+
+  it('flags implausible values as warnings, not errors', () => {
+    const p = previewCsv(`${HEADER}\nODD-1,Very thick,polymer,90000,900,0.89,2,per-kg\n`, lib);
+    expect(p.valid).toBe(true);
+    expect(p.rows[0]!.warnings.join()).toMatch(/outside the usual/);
+  });
+
+  it('rejects a file without the required columns, an empty file and a header-only file', () => {
+    expect(previewCsv('code,name\nA,b', lib).fileErrors.join()).toMatch(/Missing columns: category, kv40_mm2s/);
+    expect(previewCsv('', lib).valid).toBe(false);
+    expect(previewCsv(HEADER, lib).fileErrors.join()).toMatch(/no rows/);
+  });
+
+  it('reads a semicolon file with decimal commas', () => {
+    const p = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price\nSC-1;group-ii;45,5;6,6;0,862;1,1\n', lib);
+    expect(p.valid).toBe(true);
+    expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5);
+  });
+
+  it('round-trips the demo library through CSV (as updates of the same stocks)', () => {
+    const p = previewCsv(libraryToCsv(lib), lib);
+    expect(p.fileErrors).toEqual([]);
+    expect(p.rows.filter((r) => r.errors.length)).toEqual([]);
+    expect(p.updates).toBe(lib.length);
+    for (const r of p.rows) {
+      const orig = lib.find((c) => c.id === r.component!.id)!;
+      expect(r.component).toEqual(orig);
+    }
+  });
+
+  it('guards exported text cells against spreadsheet formulas and restores them on import', () => {
+    const evil = { ...demoComponents()[0]!, name: '=HYPERLINK("x")' };
+    const csv = libraryToCsv([evil]);
+    expect(csv).toContain(`"'=HYPERLINK(""x"")"`);
+    expect(previewCsv(csv, [evil]).rows[0]!.component!.name).toBe('=HYPERLINK("x")');
+  });
+});
+
+describe('JSON import preview', () => {
+  const lib = demoComponents();
+  it('round-trips the library export', () => {
+    const p = previewJson(libraryToJson(lib), lib);
+    expect(p.valid).toBe(true);
+    expect(p.updates).toBe(lib.length);
+  });
+  it('reports bad items per item and invalid JSON as a file error', () => {
+    const good = { ...lib[0]!, code: 'J-1' };
+    const bad = { ...lib[1]!, code: 'J-2', density15: 'x' };
+    const p = previewJson(JSON.stringify([good, bad, 42]), lib);
+    expect(p.valid).toBe(false);
+    expect(p.rows[0]!.errors).toEqual([]);
+    expect(p.rows[1]!.errors.join()).toMatch(/density15/);
+    expect(p.rows[2]!.errors.join()).toMatch(/not a component/);
+    expect(previewJson('{not json', lib).fileErrors.join()).toMatch(/not valid JSON/);
+  });
+  it('chooses the parser by file name', () => {
+    expect(previewLibraryImport('x.JSON', '[]', lib).format).toBe('json');
+    expect(previewLibraryImport('x.csv', '', lib).format).toBe('csv');
+  });
+});
