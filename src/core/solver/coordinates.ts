@@ -29,6 +29,12 @@ export interface BlendCoordinates {
   toX(kv: number): number;
   /** ν(X) [mm²/s], the inverse of {@link toX}. */
   toKv(x: number): number;
+  /**
+   * The same two functions without input checks, for the solver's inner loops (arguments are
+   * already known to be valid). Same arithmetic as the checked versions, so identical results.
+   */
+  toXRaw(kv: number): number;
+  toKvRaw(x: number): number;
   /** dX for a +1 % change of ν at ν [per %], the local scale used by the 'closest' objective. */
   perPct(kv: number): number;
   /**
@@ -43,6 +49,9 @@ const REFUTAS: BlendCoordinates = {
   massBasis: true,
   toX: refutasVbn,
   toKv: kvFromRefutasVbn,
+  // Same expressions as blending/refutas.ts (14.534, 10.975, natural logarithms).
+  toXRaw: (kv) => 14.534 * Math.log(Math.log(kv + 0.8)) + 10.975,
+  toKvRaw: (x) => Math.exp(Math.exp((x - 10.975) / 14.534)) - 0.8,
   // d VBN/dν = 14.534 / ((ν + 0.8)·ln(ν + 0.8)); × ν/100 for one per cent.
   perPct: (kv) => ((14.534 / ((kv + 0.8) * Math.log(kv + 0.8))) * kv) / 100,
   rowScale: 1,
@@ -53,6 +62,9 @@ const ASTM_D7152: BlendCoordinates = {
   massBasis: false,
   toX: astmLogLog,
   toKv: kvFromAstmLogLog,
+  // Same expressions as blending/astm-loglog.ts.
+  toXRaw: (kv) => Math.log10(Math.log10(kv + 0.7)),
+  toKvRaw: (x) => Math.pow(10, Math.pow(10, x)) - 0.7,
   // d/dν log₁₀ log₁₀(ν + 0.7) = 1 / (ln10² · log₁₀(ν + 0.7) · (ν + 0.7)); × ν/100.
   perPct: (kv) => ((1 / (Math.LN10 * Math.LN10 * Math.log10(kv + 0.7) * (kv + 0.7))) * kv) / 100,
   rowScale: 30,

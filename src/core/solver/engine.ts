@@ -150,10 +150,11 @@ export interface PreparedProblem {
   readonly bandA: number;
   readonly bandB: number;
   readonly vi: ViBoundary | null;
-  /** h at the band ends and the root chord (VI condition present). */
-  readonly hA: number;
-  readonly hB: number;
-  readonly rootChord: readonly ViChord[] | null;
+  /**
+   * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
+   * root relaxation of the VI condition (see {@link viRoot}).
+   */
+  readonly cache: { viRoot?: ViRoot };
   readonly reference: ClosestReference | null;
   /** Indices with min > 0 (always in every subset). */
   readonly forced: readonly number[];
@@ -211,15 +212,7 @@ export function prepareEngine(
   const bandA = coords.toX(targets.kv40Min);
   const bandB = coords.toX(targets.kv40Max);
   let vi: ViBoundary | null = null;
-  let hA = Number.NaN;
-  let hB = Number.NaN;
-  let rootChord: ViChord[] | null = null;
-  if (targets.minVi !== null) {
-    vi = new ViBoundary(targets.minVi, coords);
-    hA = vi.h(bandA);
-    hB = vi.h(bandB);
-    rootChord = vi.relaxation(bandA, hA, bandB, hB);
-  }
+  if (targets.minVi !== null) vi = new ViBoundary(targets.minVi, coords);
   let reference: ClosestReference | null = null;
   if (targets.referenceMassFractions) {
     const w = targets.referenceMassFractions;
@@ -275,13 +268,29 @@ export function prepareEngine(
     bandA,
     bandB,
     vi,
-    hA,
-    hB,
-    rootChord,
+    cache: {},
     reference,
     forced,
     usableIndices,
   };
+}
+
+/** h at the band ends and the VI relaxation on the whole band. */
+export interface ViRoot {
+  hA: number;
+  hB: number;
+  chords: readonly ViChord[];
+}
+
+/** The root VI relaxation of a prepared problem, computed on first use and cached. */
+export function viRoot(P: PreparedProblem): ViRoot | null {
+  if (!P.vi) return null;
+  if (!P.cache.viRoot) {
+    const hA = P.vi.h(P.bandA);
+    const hB = P.vi.h(P.bandB);
+    P.cache.viRoot = { hA, hB, chords: P.vi.relaxation(P.bandA, hA, P.bandB, hB) };
+  }
+  return P.cache.viRoot;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -625,10 +634,15 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
   }
   const vi = groups.has('vi') ? ctx.vi : null;
   const sign = ctx.objective.kind === 'ratio' && ctx.objective.sense === 'maximize' ? -1 : 1;
-  if (!vi) {
-    const s = solveNode(ctx, a, b, bandOn, []);
-    if (s.status !== 'optimal') return { ...empty, status: s.status, lpCount: 1 };
-    return { status: 'optimal', w: fractions(s.x, nv), value: s.objective, lpCount: 1 };
+  // First LP without the VI condition: a relaxation; if its optimum already meets the VI it is
+  // optimal, and the (costlier) VI relaxation is never built. Most recipes end here.
+  const plain = solveNode(ctx, a, b, bandOn, []);
+  if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: 1 };
+  const w0 = fractions(plain.x, nv);
+  if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: 1 };
+  const bx0 = blendX(P, vars, w0);
+  if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) {
+    return { status: 'optimal', w: w0, value: plain.objective, lpCount: 1 };
   }
   const minAccept = vi.minVi - VI_ACCEPT_TOLERANCE;
   interface Node {
@@ -638,7 +652,7 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
     hb: number;
     sol: NodeSolution;
   }
-  let lpCount = 0;
+  let lpCount = 1;
   const open: Node[] = [];
   let failed = false;
   const addNode = (na: number, nb: number, ha: number, hb: number, cached?: readonly ViChord[] | null): void => {
@@ -648,8 +662,9 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
     if (sol.status === 'failed') failed = true;
     if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol });
   };
-  const useRoot = bandOn && vi === P.vi && P.rootChord !== null;
-  addNode(a, b, useRoot ? P.hA : vi.h(a), useRoot ? P.hB : vi.h(b), useRoot ? P.rootChord : null);
+  const root = bandOn && vi === P.vi ? viRoot(P) : null;
+  if (root) addNode(a, b, root.hA, root.hB, root.chords);
+  else addNode(a, b, vi.h(a), vi.h(b));
   while (open.length > 0 && lpCount < MAX_LPS) {
     // Best-first: the open node with the smallest (signed) objective.
     let best = 0;
@@ -765,7 +780,9 @@ export function solvePrepared(
       if (max40 < P.bandA - eps || min40 > P.bandB + eps) return { status: 'infeasible', lpCount: 0 };
       // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo);
       // the margin (≈ 0.05 VI) keeps this test strictly on the safe side of the VI tolerance.
-      if (groups.has('vi') && vi && vi === P.vi && max100 < P.hA - 1e-3 / P.coords.rowScale) {
+      // (Only once the root has been computed for this problem: the test is for the fast path.)
+      const root = P.cache.viRoot;
+      if (groups.has('vi') && vi && vi === P.vi && root && max100 < root.hA - 1e-3 / P.coords.rowScale) {
         return { status: 'infeasible', lpCount: 0 };
       }
     }

@@ -234,5 +234,18 @@ export function solveBlendPlain(p: PlainProblem): PlainSolveResult {
     const withSuggestion = d.binding === 'kv40-min' || d.binding === 'kv40-max' ? d.reason : `${d.reason} ${d.suggestion}`;
     return { status: 'infeasible', reason: withSuggestion };
   }
-  return { status: 'optimal', ...plainBlendProperties(p.components, r.massFractions) };
+  // The engine's numbers come from the same equations as the core's (Refutas, D2270, ideal mixing);
+  // tests/core/solver/plain.test.ts checks them against plainBlendProperties (the core itself).
+  const massFractions: Record<string, number> = {};
+  p.components.forEach((c, i) => (massFractions[c.id] = r.massFractions[i]!));
+  return {
+    status: 'optimal',
+    massFractions,
+    kv40: r.kv40,
+    kv100: r.kv100,
+    vi: r.vi!,
+    density15: r.density15,
+    anilinePoint: r.anilinePoint!,
+    costPerLitre: r.costPerLitre,
+  };
 }

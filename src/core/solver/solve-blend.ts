@@ -112,7 +112,7 @@ const fail = (field: string, value: unknown, message: string): never => {
  *
  * Which components are usable: not withdrawn; an additive package only if it is the targets'
  * additive or has explicit bounds; with a pour-point (flash-point) limit, only components whose
- * pour (flash) point is known. The targets' additive is fixed at its treat rate (min = max).
+ * pour (flash) point is known; with a maximum aniline point, only base fluids whose aniline point is known. The targets' additive is fixed at its treat rate (min = max).
  *
  * @param components - the library; index i of the result refers to components[i]
  * @param targets - targets and constraints
@@ -213,6 +213,9 @@ export function prepareComponents(
       if (isAdditive) fail(field('flashPoint'), null, `${fn}: a flash-point limit needs the flash point of the additive package ${c.code}`);
       usable = false;
     }
+    // A base fluid without an aniline point would escape the limit (the blend value is taken over
+    // the parts that have one), so it is left out, as for pour and flash limits.
+    if (targets.maxAnilinePoint !== null && c.anilinePoint === null && c.category !== 'additive-package') usable = false;
     const price = usable || reference ? pricePerKg(c.price, c.density15) : 0;
     if (usable) currencies.add(c.price.currency);
     const min = isAdditive ? additive!.massFraction : (bound?.min ?? 0);

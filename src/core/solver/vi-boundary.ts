@@ -29,14 +29,54 @@
  *
  * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
  */
-import { D2270_KV100 } from '../data/d2270-table1';
-import { referenceViscosities, VI_MIN_KV100 } from '../viscosity-index';
+import { D2270_H, D2270_KV100, D2270_L } from '../data/d2270-table1';
+import { VI_MIN_KV100 } from '../viscosity-index';
 import type { BlendCoordinates } from './coordinates';
 
 /** A linear lower bound X100 ≥ alpha + beta·X40 valid on an interval of X40. */
 export interface ViChord {
   alpha: number;
   beta: number;
+}
+
+/**
+ * L and H at Y — the same interpolation as `referenceViscosities` (Table 1 with linear
+ * interpolation up to 70 mm²/s, the D2270 equations above), without input checks or allocation,
+ * for the solver's inner loops; Y ≥ 2.0 is guaranteed by the caller. Writes into `out`.
+ * (tests/core/solver/vi-boundary.test.ts checks it equals `referenceViscosities` exactly.)
+ */
+export function referenceLH(y: number, out: { L: number; H: number }): void {
+  if (y > 70.0) {
+    out.L = 0.8353 * y * y + 14.67 * y - 216;
+    out.H = 0.1684 * y * y + 11.85 * y - 97;
+    return;
+  }
+  let lo = 0;
+  let hi = D2270_KV100.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if ((D2270_KV100[mid] as number) <= y) lo = mid;
+    else hi = mid;
+  }
+  const y0 = D2270_KV100[lo] as number;
+  const y1 = D2270_KV100[hi] as number;
+  const L0 = D2270_L[lo] as number;
+  const L1 = D2270_L[hi] as number;
+  const H0 = D2270_H[lo] as number;
+  const H1 = D2270_H[hi] as number;
+  if (y === y0) {
+    out.L = L0;
+    out.H = H0;
+    return;
+  }
+  if (y === y1) {
+    out.L = L1;
+    out.H = H1;
+    return;
+  }
+  const f = (y - y0) / (y1 - y0);
+  out.L = L0 + f * (L1 - L0);
+  out.H = H0 + f * (H1 - H0);
 }
 
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
@@ -50,6 +90,7 @@ export class ViBoundary {
   /** g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds. */
   private readonly x40AtFloor: number;
   private readonly procedureBExponent: number;
+  private readonly lh = { L: 0, H: 0 };
 
   constructor(minVi: number, coords: BlendCoordinates) {
     this.minVi = minVi;
@@ -64,7 +105,8 @@ export class ViBoundary {
    * Procedure A or B solved for U (see the module comment).
    */
   uMax(kv100: number): number {
-    const { L, H } = referenceViscosities(kv100);
+    referenceLH(kv100, this.lh);
+    const { L, H } = this.lh;
     const m = this.minVi;
     if (m <= 100) return L - (m / 100) * (L - H);
     return H / Math.pow(kv100, this.procedureBExponent);
@@ -72,26 +114,44 @@ export class ViBoundary {
 
   /** g(X100) = X(U_max(ν(X100))): the largest blend X40 allowed at a blend X100. */
   g(x100: number): number {
-    const y = Math.max(VI_MIN_KV100, this.coords.toKv(x100));
-    return this.coords.toX(this.uMax(y));
+    const y = Math.max(VI_MIN_KV100, this.coords.toKvRaw(x100));
+    return this.coords.toXRaw(this.uMax(y));
   }
 
   /** h(X40) = g⁻¹(X40): the smallest blend X100 that satisfies the VI condition at X40 (bisection). */
   h(x40: number): number {
     if (x40 <= this.x40AtFloor) return this.x100Min;
+    // Bracket [lo, hi] with g(lo) < x40 ≤ g(hi); g is increasing (ν100 up to ~1e6 mm²/s at most).
     let lo = this.x100Min;
+    let flo = this.x40AtFloor - x40;
     let step = 1;
     let hi = lo + step;
-    // Bracket: g is increasing; widen until g(hi) ≥ x40 (ν100 up to ~1e6 mm²/s at most).
-    for (let k = 0; k < 60 && this.g(hi) < x40; k++) {
+    let fhi = this.g(hi) - x40;
+    for (let k = 0; k < 60 && fhi < 0; k++) {
       lo = hi;
+      flo = fhi;
       step *= 2;
       hi = lo + step;
+      fhi = this.g(hi) - x40;
     }
-    for (let k = 0; k < 100 && hi - lo > 1e-13 * Math.max(1, Math.abs(hi)); k++) {
-      const mid = 0.5 * (lo + hi);
-      if (this.g(mid) < x40) lo = mid;
-      else hi = mid;
+    // Illinois (modified regula falsi): superlinear, always bracketed.
+    let side = 0;
+    for (let k = 0; k < 100 && hi - lo > 1e-12 * Math.max(1, Math.abs(hi)); k++) {
+      let x = (lo * fhi - hi * flo) / (fhi - flo);
+      if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
+      const fx = this.g(x) - x40;
+      if (fx === 0) return x;
+      if (fx < 0) {
+        lo = x;
+        flo = fx;
+        if (side === -1) fhi /= 2;
+        side = -1;
+      } else {
+        hi = x;
+        fhi = fx;
+        if (side === 1) flo /= 2;
+        side = 1;
+      }
     }
     return hi;
   }
@@ -129,8 +189,8 @@ export class ViBoundary {
     const lo = Math.min(ha, hb);
     const hi = Math.max(ha, hb);
     for (let k = 1; k < GAP_SAMPLES; k++) check(lo + ((hi - lo) * k) / GAP_SAMPLES);
-    const yLo = this.coords.toKv(lo);
-    const yHi = this.coords.toKv(hi);
+    const yLo = this.coords.toKvRaw(lo);
+    const yHi = this.coords.toKvRaw(hi);
     if (yLo < 70.0) {
       // Rows of Table 1 are the kinks of the interpolated L and H (binary search for the first).
       let i = 0;
@@ -143,7 +203,7 @@ export class ViBoundary {
       for (let r = i; r < D2270_KV100.length; r++) {
         const y = D2270_KV100[r] as number;
         if (y > yHi) break;
-        if (y > yLo) check(this.coords.toX(y));
+        if (y > yLo) check(this.coords.toXRaw(y));
       }
     }
     // Margins for the curvature between samples: 5 % more excess, slopes eased by 1 %.
