@@ -58,7 +58,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
     <figure className="chart" data-chart="solvency-oxidation">
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`}>
-        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
+        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 24 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           {riskRegion && (
             <ReferenceArea
@@ -85,9 +85,10 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             dataKey="y"
             domain={[...yDomain]}
             name={yLabel}
-            width={70}
+            width={formatY ? 92 : 60}
             tickFormatter={formatY}
-            label={{ value: yLabel, angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
+            ticks={formatY ? integerTicks(yDomain) : undefined}
+            label={{ value: yLabel, angle: -90, position: 'left', offset: 0, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[60, 60]} />
           <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [Number(v).toFixed(1), String(n)]} />
@@ -111,3 +112,9 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
     </figure>
   );
 });
+
+function integerTicks([lo, hi]: readonly [number, number]): number[] {
+  const out: number[] = [];
+  for (let v = Math.ceil(lo); v <= Math.floor(hi); v++) out.push(v);
+  return out;
+}

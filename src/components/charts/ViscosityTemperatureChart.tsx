@@ -109,7 +109,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     <figure className="chart" data-chart="viscosity-temperature">
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`}>
-        <LineChart width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 16 }}>
+        <LineChart width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 28 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <XAxis
             type="number"
@@ -128,7 +128,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
             allowDataOverflow
             width={70}
             tickFormatter={(y: number) => formatKvTick(Math.round(d341Kv(y) * 1000) / 1000)}
-            label={{ value: 'ν, mm²/s', angle: -90, position: 'insideLeft', offset: 8 }}
+            label={{ value: 'ν, mm²/s', angle: -90, position: 'left', offset: 2, style: { textAnchor: 'middle' } }}
           />
           <Tooltip
             isAnimationActive={false}

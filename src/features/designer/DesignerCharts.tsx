@@ -7,7 +7,7 @@ import { makeFormatter } from '../../components/format';
 import { kv40kv100FromPoints } from '../../core/viscosity-temperature';
 import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
-import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
+import { oxidationClass } from '../../core/oxidation';
 
 export interface DesignerChartsProps {
   view: DraftView;
@@ -98,7 +98,7 @@ export default function DesignerCharts({ view, prediction, components, reference
           xDomain={[apLo, apHi]}
           xReversed
           yDomain={[1, 5]}
-          formatY={(v) => (Number.isInteger(v) ? `${v} ${OXIDATION_CLASS_LABEL[oxidationClass(v)]}` : '')}
+          formatY={(v) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '')}
           title="Solvency against oxidation stability (estimates on Blendbench's own scales)"
         />
       </div>

@@ -1,6 +1,6 @@
 import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Recipe } from '../../core/model';
-import { CautionBanner, Notice } from '../../components/notices';
+import { Notice } from '../../components/notices';
 import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
@@ -89,7 +89,6 @@ export default function DesignerScreen() {
           onBlank={() => actions.startBlank(defaultTargets(targets.grade, additiveId, targets.referenceRecipeId))}
         />
       </header>
-      <CautionBanner compact />
       <div className="designer-grid">
         <aside className="designer-targets">
           <h3>Targets and constraints</h3>

@@ -43,7 +43,9 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   let kvStatus: Status = 'info';
   let kvText = '';
   if (band) {
-    if (p.kv40 >= band.lo && p.kv40 <= band.hi) {
+    // Same acceptance as the solver: the band ends to 1e-4 relative.
+    const eps = 1e-4;
+    if (p.kv40 >= band.lo * (1 - eps) && p.kv40 <= band.hi * (1 + eps)) {
       kvStatus = 'ok';
       kvText = `inside the solve band ${fmt.num(band.lo, 1)}–${fmt.num(band.hi, 1)}`;
     } else if (p.kv40 >= band.isoMin && p.kv40 <= band.isoMax) {

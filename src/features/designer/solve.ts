@@ -30,12 +30,15 @@ export function runSolve(components: readonly Component[], targets: BlendTargets
       const cost = r.properties.costPerLitre;
       const cur = r.properties.currency ?? '';
       const parts = [
-        `${OBJECTIVE_LABEL[r.objective]}:`,
-        `ν40 ${r.properties.kv40.toFixed(1)} mm²/s in the band ${r.band.min.toFixed(1)}–${r.band.max.toFixed(1)}`,
-        cost === null ? '' : `, ${cost.toFixed(3)} ${cur} per litre`,
-        `, ${r.lines.length} components. Every constraint was re-checked with the core.`,
-      ];
-      return { kind: 'optimal', lines: r.lines, message: parts.join(' ').replace(' ,', ',') };
+        `ν40 ${r.properties.kv40.toFixed(1)} mm²/s (band ${r.band.min.toFixed(1)}–${r.band.max.toFixed(1)})`,
+        cost === null ? null : `${cost.toFixed(3)} ${cur} per litre`,
+        `${r.lines.length} components`,
+      ].filter(Boolean);
+      return {
+        kind: 'optimal',
+        lines: r.lines,
+        message: `${OBJECTIVE_LABEL[r.objective]}: ${parts.join(', ')}. Every constraint was re-checked with the core.`,
+      };
     }
     if (r.status === 'infeasible') {
       return { kind: 'infeasible', reason: r.reason, binding: BINDING_LABEL[r.binding] ?? r.binding, suggestion: r.suggestion };
