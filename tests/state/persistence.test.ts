@@ -1,0 +1,225 @@
+// Saved work: IndexedDB persistence (fake-indexeddb), schema versions, migrations, validation,
+// refusal to overwrite unusable data, failed saves, undo/redo, backups.
+import 'fake-indexeddb/auto';
+import { IDBFactory } from 'fake-indexeddb';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { get, set, createStore } from 'idb-keyval';
+
+type StateModule = typeof import('../../src/state');
+type PersistenceModule = typeof import('../../src/state/persistence');
+type BackupModule = typeof import('../../src/state/backup');
+
+const db = () => createStore('blendbench', 'saved-work');
+
+/** Fresh module instances (stores, status, database handle) over the current IndexedDB. */
+let previous: StateModule | null = null;
+async function load(): Promise<{ state: StateModule; persistence: PersistenceModule; backup: BackupModule }> {
+  previous?.resetStartForTests(); // close the previous instance's cross-tab listener
+  vi.resetModules();
+  const state = await import('../../src/state');
+  const persistence = await import('../../src/state/persistence');
+  const backup = await import('../../src/state/backup');
+  previous = state;
+  return { state, persistence, backup };
+}
+
+beforeEach(() => {
+  globalThis.indexedDB = new IDBFactory();
+});
+afterEach(() => {
+  vi.restoreAllMocks();
+});
+
+describe('interpretStored (pure)', () => {
+  it('classifies empty, current, older, newer and corrupt records', async () => {
+    const { persistence } = await load();
+    const { LIBRARY_SPEC } = await import('../../src/state/library');
+    const { demoComponents } = await import('../../src/state/demo');
+    const comps = demoComponents();
+    expect(persistence.interpretStored(LIBRARY_SPEC, undefined).kind).toBe('empty');
+    const ok = persistence.interpretStored(LIBRARY_SPEC, { state: { components: comps }, version: 2 });
+    expect(ok.kind).toBe('ok');
+    // Schema 1 lacked the optional scoring fields; the migration fills them with null.
+    const v1 = comps.map(({ oxidationRating: _o, shearLossPct: _s, calibration: _c, ...rest }) => rest);
+    const migrated = persistence.interpretStored(LIBRARY_SPEC, { state: { components: v1 }, version: 1 });
+    expect(migrated.kind).toBe('ok');
+    if (migrated.kind === 'ok') {
+      expect(migrated.migratedFrom).toBe(1);
+      expect(migrated.data.components[0]!.calibration).toBeNull();
+    }
+    const newer = persistence.interpretStored(LIBRARY_SPEC, { state: {}, version: 3 });
+    expect(newer.kind === 'problem' && newer.problem.kind).toBe('newer-schema');
+    const corrupt = persistence.interpretStored(LIBRARY_SPEC, { state: { components: [{ code: 'X' }] }, version: 2 });
+    expect(corrupt.kind === 'problem' && corrupt.problem.kind).toBe('corrupt');
+    expect(persistence.interpretStored(LIBRARY_SPEC, 'garbage').kind).toBe('problem');
+    expect(persistence.interpretStored(LIBRARY_SPEC, { state: { components: 5 }, version: 1 }).kind).toBe('problem');
+  });
+});
+
+describe('stores saved in IndexedDB', () => {
+  it('a first start shows and saves the demo; edits are saved and read back after a reload', async () => {
+    let m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('fresh');
+    expect(m.state.useLibrary.getState().components.length).toBe(29);
+    await m.persistence.whenSaved();
+    expect(((await get('library', db())) as { version: number }).version).toBe(2);
+
+    m.state.libraryActions.updateComponent('demo-bw-190', { name: 'Renamed bright stock' });
+    m.state.settingsActions.updateSettings({ temperatureUnit: 'F' });
+    const id = m.state.recipeActions.addRecipe({ name: 'Trial', grade: 320 });
+    await m.persistence.whenSaved();
+
+    m = await load(); // a reload
+    await m.state.startSavedWork({ requestPersistence: false });
+    expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('stored');
+    expect(m.state.useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!.name).toBe('Renamed bright stock');
+    expect(m.state.useSettingsState.getState().settings.temperatureUnit).toBe('F');
+    expect(m.state.useRecipes.getState().recipes.some((r) => r.id === id)).toBe(true);
+    // Loading is not an edit: nothing to undo.
+    expect(m.state.useLibrary.temporal.getState().pastStates.length).toBe(0);
+  });
+
+  it('migrates an older stored schema, validates it and writes it back at the current version', async () => {
+    const { demoComponents } = await import('../../src/state/demo');
+    await set('library', { state: { components: demoComponents().slice(0, 3) }, version: 1 }, db());
+    await set('settings', { state: { settings: { temperatureUnit: 'C', currencySymbol: '$', decimalSeparator: '.', thousandsGrouping: false, companyName: 'X', operatingTempC: 60, coldStartTempC: 0 } }, version: 1 }, db());
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    await m.persistence.whenSaved();
+    expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('migrated');
+    expect(m.state.useLibrary.getState().components.length).toBe(3);
+    expect(m.state.useSettingsState.getState().settings.blendMethod).toBe('refutas');
+    expect(((await get('library', db())) as { version: number }).version).toBe(2);
+    expect(((await get('settings', db())) as { version: number }).version).toBe(2);
+  });
+
+  for (const [what, raw, kind] of [
+    ['a newer schema', { state: { components: [] }, version: 99 }, 'newer-schema'],
+    ['corrupted data', { state: { components: [{ id: 'x', code: '' }] }, version: 2 }, 'corrupt'],
+  ] as const) {
+    it(`keeps ${what} untouched, sets a copy aside, pauses saving and says so`, async () => {
+      await set('library', raw, db());
+      const m = await load();
+      await m.state.startSavedWork({ requestPersistence: false });
+      const st = m.persistence.useStorageStatus.getState().stores.library;
+      expect(st.problem?.kind).toBe(kind);
+      expect(st.savingPaused).toBe(true);
+      expect(st.problem?.message).toMatch(/saved component library/);
+      expect(st.problem?.keptAs).toBe('library.unusable-copy');
+      // The demo is shown meanwhile; edits do not overwrite the stored copy.
+      m.state.libraryActions.updateComponent('demo-bw-190', { name: 'edited' });
+      await m.persistence.whenSaved();
+      expect(await get('library', db())).toEqual(raw);
+      expect(((await get('library.unusable-copy', db())) as { raw: unknown }).raw).toEqual(raw);
+      // Only the user's decision replaces it.
+      m.persistence.resumeSaving('library', m.state.persistedData('library'), 2);
+      await m.persistence.whenSaved();
+      expect(((await get('library', db())) as { version: number }).version).toBe(2);
+      expect(((await get('library.unusable-copy', db())) as { raw: unknown }).raw).toEqual(raw);
+    });
+  }
+
+  it('a failed save (quota exceeded) is reported and cleared by the next good save', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    await m.persistence.whenSaved();
+    // Make every IndexedDB write fail as a full disk would.
+    const proto = globalThis.IDBObjectStore.prototype as { put: (...a: unknown[]) => unknown };
+    const realPut = proto.put;
+    const quota = new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+    proto.put = () => {
+      throw quota;
+    };
+    try {
+      m.state.libraryActions.updateComponent('demo-bw-190', { name: 'too big' });
+      await m.persistence.whenSaved();
+    } finally {
+      proto.put = realPut;
+    }
+    const err = m.persistence.useStorageStatus.getState().stores.library.saveError;
+    expect(err).toMatch(/quota exceeded/);
+    expect(err).toMatch(/last saved copy is kept/);
+    expect(((await get('library', db())) as { state: { components: { name: string }[] } }).state.components.some((c) => c.name === 'too big')).toBe(false);
+    m.state.libraryActions.updateComponent('demo-bw-190', { name: 'fits' });
+    await m.persistence.whenSaved();
+    expect(m.persistence.useStorageStatus.getState().stores.library.saveError).toBeNull();
+  });
+});
+
+describe('undo and redo', () => {
+  it('undoes and redoes library and recipe edits, one step per action', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const lib = m.state.useLibrary;
+    const n = lib.getState().components.length;
+    const copy = lib.getState().cloneComponent('demo-bw-190')!;
+    expect(lib.getState().components.find((c) => c.id === copy)!.code).toBe('BW-190-copy');
+    lib.getState().setAvailability('demo-bw-190', 'withdrawn');
+    lib.getState().removeComponent(copy);
+    expect(lib.getState().components.length).toBe(n);
+    lib.temporal.getState().undo();
+    expect(lib.getState().components.length).toBe(n + 1);
+    lib.temporal.getState().undo();
+    expect(lib.getState().components.find((c) => c.id === 'demo-bw-190')!.availability).toBe('limited');
+    lib.temporal.getState().redo();
+    expect(lib.getState().components.find((c) => c.id === 'demo-bw-190')!.availability).toBe('withdrawn');
+
+    const rec = m.state.useRecipes;
+    m.state.recipeActions.setActiveRecipe('demo-vg220'); // not an edit
+    expect(rec.temporal.getState().pastStates.length).toBe(0);
+    m.state.recipeActions.setLines('demo-vg220', [{ componentId: 'demo-bw-190', massFraction: 1 }]);
+    rec.temporal.getState().undo();
+    expect(rec.getState().recipes.find((r) => r.id === 'demo-vg220')!.lines.length).toBe(3);
+  });
+
+  it('reset demo restores the demo and can be undone', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    m.state.libraryActions.removeComponent('demo-bw-110');
+    m.state.resetDemo();
+    expect(m.state.useLibrary.getState().components.length).toBe(29);
+    m.state.useLibrary.temporal.getState().undo();
+    expect(m.state.useLibrary.getState().components.length).toBe(28);
+  });
+});
+
+describe('export-all and import-all backups', () => {
+  it('round-trips library, recipes and settings, and records the backup time', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    m.state.settingsActions.updateSettings({ currencySymbol: 'CHF' });
+    const text = m.backup.makeBackupText(new Date('2025-04-01T10:00:00Z'));
+    expect(m.state.useSettingsState.getState().settings.lastBackupAt).toBe('2025-04-01T10:00:00.000Z');
+    m.state.libraryActions.removeComponent('demo-bw-110');
+    m.state.settingsActions.updateSettings({ currencySymbol: '$' });
+    const parsed = m.backup.parseBackupText(text);
+    expect(parsed.ok).toBe(true);
+    if (!parsed.ok) return;
+    expect(parsed.summary).toMatch(/^29 components, 4 recipes/);
+    m.backup.applyBackup(parsed.backup);
+    expect(m.state.useLibrary.getState().components.length).toBe(29);
+    expect(m.state.useSettingsState.getState().settings.currencySymbol).toBe('CHF');
+  });
+
+  it('refuses a broken backup and changes nothing', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const good = JSON.parse(m.backup.makeBackupText());
+    const before = JSON.stringify(m.state.persistedData('library'));
+    expect(m.backup.parseBackupText('{').ok).toBe(false);
+    expect(m.backup.parseBackupText('{"format":"other"}').ok).toBe(false);
+    const dangling = structuredClone(good);
+    dangling.sections.recipes.data.recipes[0].lines[0].componentId = 'nowhere';
+    const r1 = m.backup.parseBackupText(JSON.stringify(dangling));
+    expect(!r1.ok && r1.errors.join()).toMatch(/not in the backup’s library/);
+    const newer = structuredClone(good);
+    newer.sections.library.version = 7;
+    const r2 = m.backup.parseBackupText(JSON.stringify(newer));
+    expect(!r2.ok && r2.errors.join()).toMatch(/newer version/);
+    const dup = structuredClone(good);
+    dup.sections.library.data.components[1].code = dup.sections.library.data.components[0].code;
+    expect(m.backup.parseBackupText(JSON.stringify(dup)).ok).toBe(false);
+    expect(JSON.stringify(m.state.persistedData('library'))).toBe(before);
+  });
+});
