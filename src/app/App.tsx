@@ -45,7 +45,7 @@ export function App() {
   const ready = useSavedWorkReady();
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
-  const firstRender = useRef(true);
+  const shownId = useRef<string | null>(null);
 
   useEffect(() => {
     void startSavedWork();
@@ -53,11 +53,9 @@ export function App() {
 
   useEffect(() => {
     document.title = `${screen.label} — Blendbench`;
-    if (firstRender.current) {
-      firstRender.current = false;
-      return;
-    }
-    mainRef.current?.focus();
+    // Move focus to the new screen after navigation (not on the first load).
+    if (shownId.current !== null && shownId.current !== screen.id) mainRef.current?.focus();
+    shownId.current = screen.id;
   }, [screen]);
 
   const Screen = screenComponent(screen);
