@@ -80,7 +80,7 @@ export function referenceLH(y: number, out: { L: number; H: number }): void {
 }
 
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
-const GAP_SAMPLES = 24;
+const GAP_SAMPLES = 32;
 
 export class ViBoundary {
   readonly minVi: number;
@@ -192,7 +192,9 @@ export class ViBoundary {
     const yLo = this.coords.toKvRaw(lo);
     const yHi = this.coords.toKvRaw(hi);
     if (yLo < 70.0) {
-      // Rows of Table 1 are the kinks of the interpolated L and H (binary search for the first).
+      // Rows of Table 1 are the kinks of the interpolated L and H (binary search for the first);
+      // h is convex between rows, so the chord's largest excess lies inside a row interval:
+      // sample each row and the quarter points between rows.
       let i = 0;
       let j = D2270_KV100.length - 1;
       while (j - i > 1) {
@@ -200,15 +202,26 @@ export class ViBoundary {
         if ((D2270_KV100[mid] as number) <= yLo) i = mid;
         else j = mid;
       }
-      for (let r = i; r < D2270_KV100.length; r++) {
-        const y = D2270_KV100[r] as number;
-        if (y > yHi) break;
-        if (y > yLo) check(this.coords.toXRaw(y));
+      for (let r = i; r < D2270_KV100.length - 1; r++) {
+        const y0 = D2270_KV100[r] as number;
+        if (y0 > yHi) break;
+        const y1 = D2270_KV100[r + 1] as number;
+        for (const f of [0, 0.25, 0.5, 0.75]) {
+          const y = y0 + f * (y1 - y0);
+          if (y > yLo && y < yHi) check(this.coords.toXRaw(y));
+        }
       }
     }
+    // The end lines must also respect h's one-sided slopes at the ends (h is convex just inside
+    // a row interval, so the smallest secant slope from a is its right-hand derivative there).
+    const eps = 1e-7 * Math.max(1, Math.abs(hi - lo));
+    const dA = this.g(ha + eps) - a; // Δx40 for Δx100 = eps at a
+    if (dA > 0) slopeA = Math.min(slopeA, eps / dA);
+    const dB = b - this.g(hb - eps);
+    if (dB > 0) slopeB = Math.max(slopeB, eps / dB);
     // Margins for the curvature between samples: 5 % more excess, slopes eased by 1 %.
     const lines: ViChord[] = [{ alpha: ha - beta * a - delta * 1.05, beta }];
-    if (delta > 0) {
+    if (delta > 0 || slopeA < beta || slopeB > beta) {
       const sA = slopeA - 0.01 * Math.abs(beta - slopeA);
       const sB = slopeB + 0.01 * Math.abs(slopeB - beta);
       lines.push({ alpha: ha - sA * a, beta: sA });

@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { ViBoundary, referenceLH } from '../../../src/core/solver/vi-boundary';
+import { blendCoordinates } from '../../../src/core/solver/coordinates';
+import { referenceViscosities, viscosityIndex } from '../../../src/core/viscosity-index';
+import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
+import { astmLogLog, kvFromAstmLogLog } from '../../../src/core/blending/astm-loglog';
+
+describe('solver blending coordinates', () => {
+  it('the unchecked coordinate functions equal the core rules exactly', () => {
+    const R = blendCoordinates('refutas');
+    const A = blendCoordinates('astm-d7152');
+    for (const kv of [2, 4.1, 20, 100, 220, 460, 1240, 6500]) {
+      // identity with the core functions (Refutas; ASTM D7152) — same expressions
+      expect(R.toXRaw(kv)).toBe(refutasVbn(kv));
+      expect(A.toXRaw(kv)).toBe(astmLogLog(kv));
+      expect(R.toKvRaw(R.toX(kv))).toBe(kvFromRefutasVbn(refutasVbn(kv)));
+      expect(A.toKvRaw(A.toX(kv))).toBe(kvFromAstmLogLog(astmLogLog(kv)));
+    }
+  });
+});
+
+describe('VI boundary (ASTM D2270 solved for ν40)', () => {
+  it('referenceLH reproduces referenceViscosities exactly (Table 1 and the equations above 70)', () => {
+    const out = { L: 0, H: 0 };
+    for (let y = 2; y <= 150; y += 0.037) {
+      referenceLH(y, out);
+      const ref = referenceViscosities(y);
+      expect(out.L).toBe(ref.L);
+      expect(out.H).toBe(ref.H);
+    }
+  });
+
+  it('U_max gives exactly the minimum VI (procedures A and B)', () => {
+    // identity: VI(U_max(Y), Y) = m by construction from ASTM D2270 §7–§8
+    for (const m of [0, 60, 95, 100, 105, 140, 180]) {
+      const b = new ViBoundary(m, blendCoordinates('refutas'));
+      for (const y of [2.5, 5.05, 8.86, 15, 31.5, 69, 100, 210]) {
+        expect(viscosityIndex(b.uMax(y), y)).toBeCloseTo(m, 8);
+      }
+    }
+  });
+
+  it('g is increasing and h is its inverse (both mixing rules)', () => {
+    for (const method of ['refutas', 'astm-d7152'] as const) {
+      const c = blendCoordinates(method);
+      for (const m of [90, 100, 120]) {
+        const b = new ViBoundary(m, c);
+        let prev = -Infinity;
+        for (let kv = 2.05; kv < 300; kv *= 1.03) {
+          const g = b.g(c.toX(kv));
+          expect(g).toBeGreaterThan(prev);
+          prev = g;
+          expect(b.h(g)).toBeCloseTo(c.toX(kv), 9);
+        }
+      }
+    }
+  });
+
+  it('every relaxation line lies below h on its interval (validity)', () => {
+    // property: the lines are under-estimators of h, checked on a fine grid of the interval
+    for (const method of ['refutas', 'astm-d7152'] as const)
+    for (const m of [95, 105, 130]) {
+      const c = blendCoordinates(method);
+      const b = new ViBoundary(m, c);
+      for (const [lo, hi] of [
+        [135, 165],
+        [198, 242],
+        [288, 352],
+        [612, 748],
+        [900, 1100],
+        [304, 310],
+      ] as const) {
+        const a = c.toX(lo);
+        const z = c.toX(hi);
+        const lines = b.relaxation(a, b.h(a), z, b.h(z));
+        for (let k = 0; k <= 400; k++) {
+          const x40 = a + ((z - a) * k) / 400;
+          const h = b.h(x40);
+          for (const l of lines) expect(l.alpha + l.beta * x40).toBeLessThanOrEqual(h + 1e-9 / c.rowScale);
+        }
+      }
+    }
+  });
+});
