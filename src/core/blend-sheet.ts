@@ -520,6 +520,11 @@ export interface QcRow {
   method: string;
   /** True when the row is a release criterion; false when it is recorded for information. */
   release: boolean;
+  /**
+   * True when the prediction itself falls outside [min, max]: the recipe is not expected to pass
+   * (e.g. ν40 outside the plant aim band), and the sheet must say so before anyone blends it.
+   */
+  predictedOutsideTarget: boolean;
 }
 
 const fmt = (x: number, d: number) => x.toFixed(d);
@@ -557,7 +562,7 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
   const kv100Min = predicted.kv100 * (1 - tol100 / 100);
   const kv100Max = predicted.kv100 * (1 + tol100 / 100);
 
-  const rows: QcRow[] = [
+  const rows: Omit<QcRow, 'predictedOutsideTarget'>[] = [
     {
       key: 'appearance', property: 'Appearance', unit: '', predicted: '—',
       target: 'Clear and bright, free of water and sediment', min: null, max: null, method: 'Visual', release: true,
@@ -636,7 +641,22 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       min: null, max: null, method: 'ASTM D892', release: true,
     },
   );
-  return rows;
+  return rows.map((r) => ({ ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) }));
+}
+
+/** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */
+function outside(key: QcKey, p: SheetPrediction, min: number | null, max: number | null): boolean {
+  const value: Partial<Record<QcKey, number | null>> = {
+    kv40: Math.round(p.kv40 * 10) / 10,
+    kv100: p.kv100,
+    vi: p.reportedVi,
+    density15: p.density15,
+    flash: p.flashPoint === null ? null : Math.round(p.flashPoint),
+    pour: p.pourPoint === null ? null : Math.round(p.pourPoint),
+  };
+  const v = value[key];
+  if (v === undefined || v === null) return false;
+  return (min !== null && v < min) || (max !== null && v > max);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -266,6 +266,17 @@ describe('qcReleaseTargets', () => {
     expect([g220.min, g220.max]).toEqual([198, 242]);
   });
 
+  it('flags a prediction that falls outside its own release target', () => {
+    // ν40 228.0 is below the VG 320 aim band 304–336 (ISO 3448 band 288–352, check-values G2)
+    const low = qcReleaseTargets(320, { ...p, kv40: 228.0 });
+    expect(low.find((r) => r.key === 'kv40')!.predictedOutsideTarget).toBe(true);
+    expect(low.filter((r) => r.predictedOutsideTarget).map((r) => r.key)).toEqual(['kv40']);
+    // 318.44 prints as 318.4, inside 304–336
+    expect(qcReleaseTargets(320, p).some((r) => r.predictedOutsideTarget)).toBe(false);
+    // Edge: 303.96 prints as 304.0, which is inside (limits inclusive, as ISO 3448; check-values G1 style)
+    expect(qcReleaseTargets(320, { ...p, kv40: 303.96 }).find((r) => r.key === 'kv40')!.predictedOutsideTarget).toBe(false);
+  });
+
   it('sets margins around the prediction and names each test method', () => {
     const rows = qcReleaseTargets(320, p);
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));

@@ -121,7 +121,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
   return (
     <section className="bs-screen" aria-labelledby={`${id}-h`}>
-      <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 9mm 10mm; }`}</style>
+      <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 8mm 10mm; }`}</style>
       <div className="bs-controls bs-no-print">
         <h2 id={`${id}-h`}>Blend sheet</h2>
         <div className="bs-control-row">
@@ -166,7 +166,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         </p>
       </div>
 
-      <article className={`blend-sheet bs-paper-${paper}`} aria-label="Printable blend sheet">
+      <article
+        className={`blend-sheet bs-paper-${paper}${sheet && sheet.rows.length >= 10 ? ' bs-dense' : ''}`}
+        aria-label="Printable blend sheet"
+      >
         <header className="bs-head">
           <div className="bs-company">{companyName || 'Company name (set it in the settings)'}</div>
           <div className="bs-title">
@@ -175,19 +178,21 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         </header>
 
         <dl className="bs-fields">
-          <div>
+          <div className="bs-span3">
             <dt>Product</dt>
             <dd>{recipe.name}</dd>
           </div>
-          <div>
+          <div className="bs-span1">
             <dt>Grade</dt>
             <dd>ISO VG {recipe.grade}</dd>
           </div>
-          <div>
+          <div className="bs-span1">
             <dt>Recipe revision</dt>
-            <dd>{recipe.revision}</dd>
+            <dd>
+              {recipe.revision} <span className="bs-sub">(saved {recipe.updatedAt.slice(0, 10)})</span>
+            </dd>
           </div>
-          <div>
+          <div className="bs-span1">
             <dt>
               <label htmlFor={`${id}-date`}>Date</label>
             </dt>
@@ -196,7 +201,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-print-only">{date || '____________'}</span>
             </dd>
           </div>
-          <div>
+          <div className="bs-span2">
             <dt>
               <label htmlFor={`${id}-lot`}>Batch / lot no.</label>
             </dt>
@@ -205,7 +210,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-print-only">{lot || '____________'}</span>
             </dd>
           </div>
-          <div className="bs-batch">
+          <div className="bs-batch bs-span2">
             <dt>
               <label htmlFor={`${id}-size`}>Batch size</label>
             </dt>
@@ -228,7 +233,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-batch-text">{batchText}</span>
             </dd>
           </div>
-          <div>
+          <div className="bs-span2">
             <dt>
               <label htmlFor={`${id}-vessel`}>Vessel</label>
             </dt>
@@ -237,11 +242,17 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-print-only">{vessel || '____________'}</span>
             </dd>
           </div>
-          <div>
-            <dt>Density at 15 °C (calc.)</dt>
-            <dd>{sheet ? `${fmt(sheet.density15, 4)} kg/L` : '—'}</dd>
-          </div>
         </dl>
+
+        {qc && 'rows' in qc && qc.rows.some((r) => r.predictedOutsideTarget) && (
+          <p className="bs-error bs-outside-alert" role="alert">
+            Check the recipe before blending — the prediction misses its release target.{' '}
+            {qc.rows
+              .filter((r) => r.predictedOutsideTarget)
+              .map((r) => `${r.property}: predicted ${r.predicted}${r.unit ? ` ${r.unit}` : ''}, target ${r.target}.`)
+              .join(' ')}
+          </p>
+        )}
 
         {built && 'error' in built && (
           <p className="bs-error" role="alert">
@@ -251,7 +262,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
         {sheet && (
           <table className="bs-table bs-components">
-            <caption>1. Components, in charging order</caption>
+            <caption>
+              1. Components, in charging order
+              {costing && currency ? <span className="bs-caption-note"> (prices and costs in {currency})</span> : null}
+            </caption>
             <thead>
               <tr>
                 <th scope="col" className="bs-num" title="Charging order">Step</th>
@@ -265,8 +279,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col" className="bs-num">Running kg</th>
                 {costing && (
                   <>
-                    <th scope="col" className="bs-num">Price/kg{currency ? ` (${currency})` : ''}</th>
-                    <th scope="col" className="bs-num">Cost{currency ? ` (${currency})` : ''}</th>
+                    <th scope="col" className="bs-num">Price/kg</th>
+                    <th scope="col" className="bs-num">Cost</th>
                   </>
                 )}
                 <th scope="col" className="bs-initials">Initials</th>
@@ -388,15 +402,18 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   <th scope="col">Release target</th>
                   <th scope="col">Test method</th>
                   <th scope="col" className="bs-measured">Measured</th>
-                  <th scope="col" className="bs-initials">Pass / initials</th>
+                  <th scope="col" className="bs-initials">Initials</th>
                 </tr>
               </thead>
               <tbody>
                 {qc?.rows.map((r) => (
-                  <tr key={r.key}>
+                  <tr key={r.key} className={r.predictedOutsideTarget ? 'bs-outside' : undefined}>
                     <th scope="row">{r.property}</th>
                     <td>{r.unit}</td>
-                    <td className="bs-num">{r.predicted}</td>
+                    <td className="bs-num">
+                      {r.predictedOutsideTarget ? <span className="bs-flag">outside </span> : null}
+                      {r.predicted}
+                    </td>
                     <td>{r.target}</td>
                     <td>{r.method}</td>
                     <td className="bs-measured" />
@@ -406,12 +423,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               </tbody>
             </table>
           )}
-          {qc && 'warnings' in qc && qc.warnings.length > 0 && (
-            <p className="bs-note">Prediction notes: {qc.warnings.join(' ')}</p>
-          )}
           <p className="bs-note">
-            Targets are defaults around the prediction (ν40: plant aim ±5 % of the grade mid-point inside the ISO 3448
-            band); replace them with the product specification where it is stricter.
+            {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
+            Targets are defaults around the prediction (ν40: plant aim ±5 % of the grade mid-point, inside the ISO 3448
+            band); the product specification governs where it is stricter.
           </p>
         </section>
 
@@ -427,16 +442,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         <section className="bs-signoff" aria-label="Sign-off">
           {['Blended by', 'QC tested by', 'Released by'].map((who) => (
             <div key={who} className="bs-sign">
-              <div className="bs-sign-role">{who}</div>
-              <div className="bs-sign-line">Name</div>
-              <div className="bs-sign-line">Signature</div>
-              <div className="bs-sign-line">Date</div>
+              <div className="bs-sign-line">
+                <span className="bs-sign-role">{who}</span> (name, signature)
+              </div>
+              <div className="bs-sign-line">Date, time</div>
             </div>
           ))}
         </section>
-        <footer className="bs-foot">
-          {recipe.name} · rev. {recipe.revision} · printed from Blendbench · recipe data as saved {recipe.updatedAt.slice(0, 10)}
-        </footer>
       </article>
     </section>
   );

@@ -103,7 +103,8 @@ describe('BlendSheetView', () => {
     expect(screen.queryByText(/per batch/)).toBeNull();
     expect(screen.queryByRole('columnheader', { name: /Price\/kg/ })).toBeNull();
     fireEvent.click(screen.getByLabelText('Costing copy'));
-    expect(screen.getByRole('columnheader', { name: /Price\/kg \(EUR\)/ })).toBeTruthy();
+    expect(screen.getByRole('columnheader', { name: 'Price/kg' })).toBeTruthy();
+    expect(screen.getByRole('table', { name: /prices and costs in EUR/ })).toBeTruthy();
     // 0.3·1.1 + 0.68·1.4 + 0.02·4.0 = 1.362 per kg → 1,362.00 per 1000 kg batch (by hand)
     expect(screen.getByText(/1,362\.00 EUR per batch/)).toBeTruthy();
   });
@@ -127,6 +128,12 @@ describe('BlendSheetView', () => {
     const measured = qc.querySelectorAll('tbody td.bs-measured');
     expect(measured.length).toBeGreaterThan(5);
     measured.forEach((td) => expect(td.textContent).toBe(''));
+  });
+
+  it('warns on the sheet when the prediction misses its own release target', () => {
+    renderSheet({ predict: () => ({ ...prediction, kv40: 228.04 }) });
+    // VG 320 plant aim band 304–336 (ISO 3448 band 288–352, check-values G2; ±5 % common practice)
+    expect(screen.getByRole('alert').textContent).toMatch(/misses its release target.*Kinematic viscosity at 40 °C: predicted 228\.0 mm²\/s, target 304\.0–336\.0/);
   });
 
   it('shows a prediction failure as a message, not as numbers', () => {

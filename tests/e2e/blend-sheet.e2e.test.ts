@@ -1,0 +1,216 @@
+// Blend sheet end to end: open a demo recipe's sheet, print it to PDF in Chromium, read the PDF back
+// with poppler's pdftotext / pdfinfo, and check what the plant relies on.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { launch, screenshot, SCREEN_DIR, type Session } from './support';
+
+const OUT = SCREEN_DIR; // git-ignored (test-output/screens)
+
+function pdfText(path: string): string {
+  return execFileSync('pdftotext', ['-layout', path, '-'], { encoding: 'utf8' });
+}
+function pdfPages(path: string): number {
+  const info = execFileSync('pdfinfo', [path], { encoding: 'utf8' });
+  const m = /^Pages:\s+(\d+)/m.exec(info);
+  if (!m) throw new Error(`pdfinfo gave no page count:\n${info}`);
+  return Number(m[1]);
+}
+function toPng(pdf: string, prefix: string): void {
+  execFileSync('pdftoppm', ['-png', '-r', '80', pdf, join(OUT, prefix)]);
+}
+
+/** A number as printed: grouping marks (narrow no-break space, no-break space, comma) removed. */
+const num = (s: string) => Number(s.replace(/[\u202f\u00a0,]/g, '').replace('−', '-'));
+/** The numeric tokens of a line (tokens are separated by ordinary spaces in pdftotext's layout). */
+const numbers = (line: string) =>
+  line
+    .split(/ +/)
+    .filter((t) => /^−?\d[\d\u202f\u00a0,]*(?:\.\d+)?$/.test(t))
+    .map(num);
+
+/**
+ * The component rows read back from the PDF text: for each stock code, the last five numbers on its
+ * line are mass %, volume %, kg, litres and running kg (the initials cell is empty).
+ */
+function componentRows(text: string, codes: readonly string[]) {
+  const lines = text.split('\n');
+  return codes.map((code) => {
+    const line = lines.find((l) => new RegExp(`^\\s*\\d+\\s+${code}\\s`).test(l));
+    if (!line) throw new Error(`no PDF line for ${code}:\n${text}`);
+    const nums = numbers(line.slice(line.indexOf(code) + code.length));
+    const [massPct, volPct, kg, litres, running] = nums.slice(-5) as [number, number, number, number, number];
+    return { code, massPct, volPct, kg, litres, running };
+  });
+}
+
+async function openSheet(page: Page, recipeId: string): Promise<string[]> {
+  // A fresh document each time (a hash change alone would keep the sheet's fields and the old data).
+  await page.goto('about:blank');
+  await page.goto(`${inject('baseURL')}#/blend-sheet/${recipeId}`);
+  await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+  const table = page.getByRole('table', { name: /Components, in charging order/ });
+  await table.waitFor();
+  return table.locator('tbody th[scope="row"]').allTextContents();
+}
+
+async function printPdf(page: Page, name: string, format: 'A4' | 'Letter' = 'A4'): Promise<string> {
+  const path = join(OUT, `${name}.pdf`);
+  await page.emulateMedia({ media: 'print' });
+  await page.pdf({ path, format, printBackground: true });
+  await page.emulateMedia({ media: 'screen' });
+  return path;
+}
+
+describe('blend sheet', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('prints a demo recipe on one A4 page with the grade, quantities summing to the batch and the cautions', async () => {
+    const { page } = s;
+    const codes = await openSheet(page, 'demo-vg320');
+    expect(codes.length).toBeGreaterThan(1);
+    await page.getByLabel('Batch / lot no.').fill('L-2025-0142');
+    await page.getByLabel('Vessel').fill('Kettle 3');
+    await page.getByLabel('Batch size', { exact: true }).fill('5000');
+    await page.getByText(/^5,?\u202f?000\.0 kg/).first().waitFor();
+    await screenshot(page, 'blend-sheet-vg320');
+
+    const pdf = await printPdf(page, 'blend-sheet-vg320');
+    toPng(pdf, 'blend-sheet-vg320');
+    const text = pdfText(pdf);
+    expect(pdfPages(pdf)).toBe(1);
+    expect(text).toMatch(/ISO VG 320/);
+    expect(text).toMatch(/L-2025-0142/);
+    expect(text).toMatch(/Kettle 3/);
+    expect(text).toMatch(/Laboratory confirmation of every release property is required/);
+    expect(text).toMatch(/safety data sheet/);
+    expect(text).toMatch(/ASTM D445/);
+    expect(text).toMatch(/Plant copy/);
+    expect(text).not.toMatch(/Price\/kg/);
+
+    const rows = componentRows(text, codes);
+    // Displayed kg sum exactly to the 5000.0 kg batch (largest-remainder rounding; common practice (no source)).
+    expect(Math.round(rows.reduce((a, r) => a + r.kg, 0) * 10)).toBe(50000);
+    expect(Math.round(rows.reduce((a, r) => a + r.massPct, 0) * 100)).toBe(10000);
+    expect(rows.at(-1)!.running).toBe(5000);
+    const total = text.split('\n').find((l) => /^\s*Total\s/.test(l));
+    expect(total).toBeDefined();
+    expect(numbers(total!)).toContain(5000);
+    // The additive package is charged last (common practice, domain notes).
+    expect(codes.at(-1)).toBe('BW-901');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+
+  it('shows prices only on the costing copy and exports the component table as CSV', async () => {
+    const { page } = s;
+    const codes = await openSheet(page, 'demo-vg320');
+    await page.getByLabel('Costing copy').check();
+    await page.getByText(/per batch/).waitFor();
+    const pdf = await printPdf(page, 'blend-sheet-vg320-costing');
+    const text = pdfText(pdf);
+    expect(pdfPages(pdf)).toBe(1);
+    expect(text).toMatch(/Costing copy/);
+    expect(text).toMatch(/Price\/kg/);
+    expect(text).toMatch(/per batch/);
+
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: /Export component table/ }).click(),
+    ]);
+    const csv = readFileSync(await download.path(), 'utf8').replace(/^\uFEFF/, '');
+    const lines = csv.trim().split(/\r\n/);
+    expect(lines[0]).toMatch(/^Charge order,Code,Name,Category,Mass %,Volume %,kg,Litres at 15 °C,Running total kg,Price per kg/);
+    expect(lines).toHaveLength(codes.length + 2);
+    expect(lines.at(-1)).toMatch(/^,TOTAL,,,100\.00,100\.00,1000\.0,/);
+    await page.getByLabel('Plant copy (no prices)').check();
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+
+  it('fits a 12-component recipe on one page, A4 and US Letter', async () => {
+    const { page } = s;
+    await page.goto(inject('baseURL'));
+    await page.getByRole('navigation').waitFor();
+    // Seed a 12-component recipe straight into the saved recipes (IndexedDB), then reload.
+    // Long-named stocks ("…, second source") on purpose: the worst case for wrapping. Fractions chosen
+    // to land near the VG 320 mid-point (predicted ν40 ≈ 311 mm²/s by the app's own Refutas prediction).
+    const codes12 = [
+      'BW-281', 'BW-190', 'BW-441', 'BW-240', 'BW-241', 'BW-221', 'BW-307', 'BW-407', 'BW-606', 'BW-621', 'BW-510', 'BW-901',
+    ];
+    const fractions = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
+    await page.evaluate(
+      async ({ codes, fractions }) => {
+        const db = await new Promise<IDBDatabase>((res, rej) => {
+          const r = indexedDB.open('blendbench');
+          r.onsuccess = () => res(r.result);
+          r.onerror = () => rej(r.error);
+        });
+        const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
+        const saved = await new Promise<{ state: { recipes: unknown[] }; version: number }>((res, rej) => {
+          const r = store().get('recipes');
+          r.onsuccess = () => res(r.result);
+          r.onerror = () => rej(r.error);
+        });
+        saved.state.recipes.push({
+          id: 'e2e-twelve',
+          name: 'Twelve-component test blend VG 320 (invented)',
+          grade: 320,
+          lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
+          revision: 1,
+          isReference: false,
+          notes: 'Seeded by the end-to-end test.',
+          updatedAt: '2025-06-01T08:00:00.000Z',
+        });
+        await new Promise<void>((res, rej) => {
+          const r = store().put(saved, 'recipes');
+          r.onsuccess = () => res();
+          r.onerror = () => rej(r.error);
+        });
+        db.close();
+      },
+      { codes: codes12, fractions },
+    );
+    const codes = await openSheet(page, 'e2e-twelve');
+    expect(codes).toHaveLength(12);
+    await page.getByLabel('Batch / lot no.').fill('L-2025-0999');
+    await page.getByLabel('Vessel').fill('Blend tank 12');
+    await screenshot(page, 'blend-sheet-12');
+
+    const pdf = await printPdf(page, 'blend-sheet-12-a4');
+    toPng(pdf, 'blend-sheet-12-a4');
+    expect(pdfPages(pdf)).toBe(1);
+    const text = pdfText(pdf);
+    const rows = componentRows(text, codes);
+    // 1000.0 kg batch: displayed kg and % columns sum exactly (largest remainder; common practice (no source))
+    expect(Math.round(rows.reduce((a, r) => a + r.kg, 0) * 10)).toBe(10000);
+    expect(Math.round(rows.reduce((a, r) => a + r.volPct, 0) * 100)).toBe(10000);
+    expect(rows.at(-1)!.running).toBe(1000);
+    expect(text).toMatch(/ISO VG 320/);
+    expect(text).toMatch(/Released by/);
+    expect(text).toMatch(/hydrogen sulfide/);
+    expect(text).not.toMatch(/misses its release target/);
+
+    // US Letter: choose it on the sheet, print with the page size the sheet asks for.
+    await page.getByLabel('Paper').selectOption('letter');
+    await page.getByLabel('Costing copy').check();
+    await page.emulateMedia({ media: 'print' });
+    const letter = join(OUT, 'blend-sheet-12-letter-costing.pdf');
+    await page.pdf({ path: letter, preferCSSPageSize: true, printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    toPng(letter, 'blend-sheet-12-letter-costing');
+    expect(pdfPages(letter)).toBe(1);
+    const size = execFileSync('pdfinfo', [letter], { encoding: 'utf8' });
+    expect(size).toMatch(/Page size:\s+612 x 792 pts/); // US Letter = 8.5 × 11 in = 612 × 792 pt (definition)
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
