@@ -130,7 +130,13 @@ export function prepareComponents(
   const fn = 'prepareComponents';
   if (method !== 'refutas' && method !== 'astm-d7152') fail('method', method, `${fn}: unknown mixing rule "${String(method)}"`);
   // Targets.
-  const iso = gradeBand(targets.grade);
+  let iso: ReturnType<typeof gradeBand>;
+  try {
+    iso = gradeBand(targets.grade);
+  } catch (e) {
+    if (e instanceof BlendbenchInputError) throw new BlendbenchInputError('targets.grade', targets.grade, e.message);
+    throw e;
+  }
   const target = targets.targetKv40 ?? iso.mid;
   assertViscosity(fn, 'targets.targetKv40', target);
   assertFinite(fn, 'targets.tolerancePct', targets.tolerancePct);
