@@ -3,11 +3,13 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, SCREEN_DIR, type Session } from './support';
 
 const OUT = SCREEN_DIR; // git-ignored (test-output/screens)
+const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
 
 function pdfText(path: string): string {
   return execFileSync('pdftotext', ['-layout', path, '-'], { encoding: 'utf8' });
@@ -132,6 +134,16 @@ describe('blend sheet', () => {
     expect(lines).toHaveLength(codes.length + 2);
     expect(lines.at(-1)).toMatch(/^,TOTAL,,,100\.00,100\.00,1000\.0,/);
     await page.getByLabel('Plant copy (no prices)').check();
+
+    // Accessible markup: no serious or critical axe-core findings inside the sheet screen.
+    // Evaluated through the DevTools protocol: the app's CSP (rightly) refuses an injected <script>.
+    await page.evaluate(readFileSync(AXE, 'utf8'));
+    const violations = await page.evaluate(async () => {
+      const axe = (window as unknown as { axe: { run: (ctx: unknown) => Promise<{ violations: { id: string; impact: string; nodes: unknown[] }[] }> } }).axe;
+      const res = await axe.run({ include: [['.bs-screen']] });
+      return res.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id} (${v.nodes.length})`);
+    });
+    expect(violations).toEqual([]);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
