@@ -23,7 +23,7 @@
  * best near the trial blend's composition: a small trial fraction w_u magnifies measurement error
  * by 1/w_u.
  */
-import { kv40kv100FromPoints } from './viscosity-temperature';
+import { blendingViscosities } from './blend-properties';
 import type { BlendMethod } from './blending/blend-viscosity';
 import { blendCoordinates } from './solver/coordinates';
 import {
@@ -35,35 +35,6 @@ import {
   assertKv40Kv100,
 } from './errors';
 import type { Calibration, Component } from './model';
-
-/** The viscosities a component blends with [mm²/s], and whether they come from a calibration. */
-export interface BlendingViscosities {
-  kv40: number;
-  kv100: number;
-  calibrated: boolean;
-}
-
-/**
- * The viscosities a component enters a blend with: its calibration's effective ν40/ν100 if it has
- * one, otherwise its measured ν40/ν100 (read off its ASTM D341 line when measured at other
- * temperatures).
- *
- * @param component Component with `viscosityPoints` and optional `calibration`.
- * @returns ν40, ν100 [mm²/s] and whether they are calibrated values.
- * @throws the errors of `kv40kv100FromPoints` for unusable viscosity points.
- * @example blendingViscosities(pib) // → { kv40: 5200, kv100: 180, calibrated: true } (with a calibration)
- */
-export function blendingViscosities(component: Pick<Component, 'viscosityPoints' | 'calibration'>): BlendingViscosities {
-  if (component.calibration) {
-    return {
-      kv40: component.calibration.effectiveKv40,
-      kv100: component.calibration.effectiveKv100,
-      calibrated: true,
-    };
-  }
-  const { kv40, kv100 } = kv40kv100FromPoints(component.viscosityPoints);
-  return { kv40, kv100, calibrated: false };
-}
 
 export interface CalibrationInput {
   /** The library: every component named in `massFractions` (others are ignored). */
@@ -99,7 +70,7 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
  * Solve a component's effective blending viscosities from a measured trial blend.
  *
  * X_u = (X(ν_meas)·Σ cᵢwᵢ − Σ_{i≠u} cᵢwᵢXᵢ)/(c_u·w_u) at 40 °C and at 100 °C; ν_u = X⁻¹(X_u).
- * The other components blend with their own {@link blendingViscosities} (their calibrations
+ * The other components blend with their own `blendingViscosities` (their calibrations
  * included); any existing calibration of the unknown itself is ignored.
  *
  * @param input See {@link CalibrationInput}: trial mass fractions wᵢ [0–1], measured ν40 and ν100

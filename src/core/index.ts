@@ -125,3 +125,51 @@ export type {
 export { solveBlend, prepareComponents, solvePrepared, checkConstraints, CHECK_TOLERANCE } from './solver/solve-blend';
 export type { PlainComponent, PlainProblem, PlainBlend, PlainSolveResult } from './solver/plain';
 export { solveBlendPlain } from './solver/plain';
+
+// Solvency, oxidation stability, deposit propensity (Blendbench's own ordinal scales; estimates)
+export type { OxidationClass, BlendOxidation, OxidationContribution } from './oxidation';
+export {
+  oxidationRating,
+  oxidationClass,
+  blendOxidationRating,
+  isBaseFluid,
+  DEFAULT_OXIDATION_RATING,
+  OXIDATION_CLASSES,
+  OXIDATION_CLASS_LABEL,
+  OXIDATION_RATING_MIN,
+  OXIDATION_RATING_MAX,
+} from './oxidation';
+export type { SolvencyBand, SolvencyScore, BlendSolvency, SolvencyContribution } from './solvency';
+export { solvencyScore, blendSolvency, SOLVENCY_BANDS, SOLVENCY_BAND_LABEL, SOLVENCY_THRESHOLDS } from './solvency';
+export type { DepositPropensity, DepositPattern, DepositAssessment, DepositDriver } from './deposit';
+export {
+  assessDeposit,
+  depositPropensity,
+  DEPOSIT_PROPENSITIES,
+  DEPOSIT_PROPENSITY_LABEL,
+  DEPOSIT_PATTERN_LABEL,
+} from './deposit';
+
+// Non-ideal components: effective blending viscosity from a measured trial blend
+export type { CalibrationInput } from './calibration';
+export { calibrateComponent, MIN_CALIBRATION_FRACTION, MIN_EFFECTIVE_KV } from './calibration';
+
+// Blend after permanent shear (KRL) — in grade after shear
+export type { BlendAfterShear, ShearedPolymer } from './shear-blend';
+export { blendAfterShear, SHEAR_ASSUMPTION } from './shear-blend';
+
+// Substitute search (chunked, for a Web Worker), Pareto frontier, ε-constraint sweep, comparison
+export type {
+  SubstituteSearchInput,
+  SubstituteSearch,
+  SubstituteSearchProgress,
+  SubstituteSearchResult,
+  SubstituteCandidate,
+} from './substitutes';
+export { createSubstituteSearch, searchSubstitutes, DEFAULT_MAX_COMPONENTS } from './substitutes';
+export type { FrontierPoint, FrontierSweepInput } from './frontier';
+export { paretoFrontier, epsilonConstraintSweep } from './frontier';
+export type { ComparisonInput, Comparison, Delta, Change, RecipeAssessment } from './comparison';
+export { compareRecipes, assessRecipe } from './comparison';
+export type { PlainSubstituteRequest, PlainSubstituteResult } from './substitutes-plain';
+export { searchSubstitutesPlain } from './substitutes-plain';

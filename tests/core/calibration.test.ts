@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { blendingViscosities, calibrateComponent } from '../../src/core/calibration';
+import { calibrateComponent } from '../../src/core/calibration';
+import { blendingViscosities } from '../../src/core/blend-properties';
 import { blendKv40Kv100 } from '../../src/core/blending/blend-viscosity';
 import type { BlendMethod } from '../../src/core/blending/blend-viscosity';
 import type { Component } from '../../src/core/model';

@@ -188,3 +188,25 @@ describe('searchSubstitutesPlain', () => {
     expect(searchSubstitutesPlain({ ...base, withdrawn: ['a'] }).candidates).toEqual([]);
   });
 });
+
+describe('searchSubstitutesPlain through src/core/index.ts', () => {
+  it('is exported and answers with plain numbers', async () => {
+    // Refutas exact two-component inverse (check-values.md B3): 100 + 460 reaching 220 needs 0.55126 of the heavy stock
+    const core = await import('../../src/core');
+    const { candidates } = core.searchSubstitutesPlain({
+      components: [
+        { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 },
+        { id: 'heavy', kv40: 460, kv100: 31, density15: 0.9, anilinePoint: 125, pricePerKg: 1.5 },
+        { id: 'bright', kv40: 480, kv100: 31.5, density15: 0.9, anilinePoint: 122, pricePerKg: 1.2 },
+      ],
+      targetKv40: 220,
+      tolerancePct: 0,
+      maxComponents: 2,
+      withdrawn: ['bright'],
+    });
+    expect(candidates).toHaveLength(1);
+    expectClose(candidates[0]!.massFractions.heavy!, 0.55126, 1e-4);
+    expect(candidates[0]!.massFractions.bright).toBe(0);
+    expectClose(candidates[0]!.kv40, 220, 220 * 1e-4);
+  });
+});
