@@ -418,11 +418,21 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
   const s = P.coords.rowScale;
   const t = P.targets;
 
-  // Normalisation row (Charnes–Cooper): den·w = 1.
+  // Normalisation row (Charnes–Cooper): den·w = 1. When minimising with every numerator
+  // coefficient ≥ 0 the optimum lies on the row anyway (every other row is homogeneous, so scaling
+  // w down towards the row never worsens the objective), and the one-sided row den·w ≥ 1 gives the
+  // same optimum with one simplex row instead of two. (Not when maximising: den·w ≤ 1 would admit
+  // w = 0 and hide infeasibility.)
   const norm = new Float64Array(width);
-  if (objective.kind === 'ratio') for (let j = 0; j < nv; j++) norm[j] = objective.den[vars[j]!]!;
-  else norm.fill(1, 0, nv);
-  rows.push({ coefficients: norm, min: 1, max: 1 });
+  let oneSided = true;
+  if (objective.kind === 'ratio') {
+    for (let j = 0; j < nv; j++) {
+      norm[j] = objective.den[vars[j]!]!;
+      if (objective.num[vars[j]!]! < 0) oneSided = false;
+    }
+  } else norm.fill(1, 0, nv);
+  if (objective.kind === 'ratio' && objective.sense === 'maximize') oneSided = false;
+  rows.push(oneSided ? { coefficients: norm, min: 1 } : { coefficients: norm, min: 1, max: 1 });
 
   if (bandRows) {
     const lo = new Float64Array(width);
@@ -483,11 +493,21 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
     }
     rows.push({ coefficients: r, max: 0 });
   }
+  // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
+  // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r), so column a is folded into the others below.
+  let fold = -1;
+  for (let j = 0; j < nv && nv > 1; j++) {
+    const k = P.components[vars[j]!]!;
+    if (k.fixedAdditive && groups.has('additive') && k.min === k.max && k.min < 1) {
+      fold = j;
+      break;
+    }
+  }
   // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0.
   for (let j = 0; j < nv; j++) {
     const k = P.components[vars[j]!]!;
     const active = k.fixedAdditive ? groups.has('additive') : groups.has('bounds');
-    if (!active) continue;
+    if (!active || j === fold) continue;
     const lo = k.min;
     const hi = k.max;
     if (lo <= 0 && hi >= 1) continue;
@@ -534,9 +554,37 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       if (objective.kind === 'closest') obj[nv + q] = 1;
     }
   }
-  const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
-  if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
-  return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+  if (fold < 0) {
+    const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
+    if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
+    return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+  }
+  // Fold column `fold`: a'ⱼ = aⱼ + κ·a_fold for the other component columns; auxiliaries unchanged.
+  const k = P.components[vars[fold]!]!;
+  const kappa = k.min / (1 - k.min);
+  const reduce = (r: ArrayLike<number>): Float64Array => {
+    const out = new Float64Array(width - 1);
+    const af = r[fold]!;
+    for (let j = 0, q = 0; j < width; j++) {
+      if (j === fold) continue;
+      out[q++] = j < nv ? r[j]! + kappa * af : r[j]!;
+    }
+    return out;
+  };
+  const reducedRows: LpRow[] = rows.map((r) => ({ ...r, coefficients: reduce(r.coefficients) }));
+  const sol = solveLp({ sense, numVariables: width - 1, objective: reduce(obj), rows: reducedRows });
+  const x = new Float64Array(width);
+  if (sol.status !== 'optimal') {
+    return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x, objective: Number.NaN };
+  }
+  let others = 0;
+  for (let j = 0, q = 0; j < width; j++) {
+    if (j === fold) continue;
+    x[j] = sol.x[q++]!;
+    if (j < nv) others += x[j]!;
+  }
+  x[fold] = kappa * others;
+  return { status: 'optimal', x, objective: sol.objective };
 }
 
 /**
@@ -562,7 +610,8 @@ function closestRows(P: PreparedProblem, ref: ClosestReference): Float64Array[] 
 }
 
 /** Normalised mass fractions of a node solution, aligned with ctx.vars. */
-function fractions(x: Float64Array, nv: number): Float64Array {
+/** Null when the LP returned no blend at all (every fraction 0: numerically degenerate data). */
+function fractions(x: Float64Array, nv: number): Float64Array | null {
   const w = new Float64Array(nv);
   let sum = 0;
   for (let j = 0; j < nv; j++) {
@@ -570,6 +619,7 @@ function fractions(x: Float64Array, nv: number): Float64Array {
     w[j] = v;
     sum += v;
   }
+  if (!(sum > 0)) return null;
   for (let j = 0; j < nv; j++) w[j] = w[j]! / sum;
   return w;
 }
@@ -591,8 +641,9 @@ function blendX(P: PreparedProblem, vars: readonly number[], w: Float64Array): {
 
 /** Unrounded VI of a blend from its coordinates; −Infinity where D2270 defines none. */
 function viOf(P: PreparedProblem, x40: number, x100: number): number {
-  const kv40 = P.coords.toKv(x40);
-  const kv100 = P.coords.toKv(x100);
+  const kv40 = P.coords.toKvRaw(x40);
+  const kv100 = P.coords.toKvRaw(x100);
+  if (!Number.isFinite(kv40) || !Number.isFinite(kv100)) return Number.NEGATIVE_INFINITY;
   if (!(kv100 >= VI_MIN_KV100) || !(kv100 < kv40)) return Number.NEGATIVE_INFINITY;
   return viscosityIndex(kv40, kv100);
 }
@@ -639,6 +690,7 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
   const plain = solveNode(ctx, a, b, bandOn, []);
   if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: 1 };
   const w0 = fractions(plain.x, nv);
+  if (!w0) return { ...empty, status: 'failed', lpCount: 1 };
   if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: 1 };
   const bx0 = blendX(P, vars, w0);
   if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) {
@@ -674,6 +726,10 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
     const node = open[best]!;
     open.splice(best, 1);
     const w = fractions(node.sol.x, nv);
+    if (!w) {
+      failed = true;
+      continue;
+    }
     const bx = blendX(P, vars, w);
     if (viOf(P, bx.x40, bx.x100) >= minAccept) {
       return { status: 'optimal', w, value: node.sol.objective, lpCount };
