@@ -339,6 +339,22 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
     ...(input.coldTempC === undefined ? {} : { coldTempC: input.coldTempC }),
   });
   const checks = checkConstraints(P, lines, properties);
+  // Never offer a recipe that fails a constraint when recomputed by the core (e.g. a blend whose
+  // aniline point is unknown under an aniline limit, or a knife-edge LP tolerance).
+  const failed = checks.filter((c) => !c.ok);
+  if (failed.length > 0) {
+    const what = failed
+      .map((c) => `${c.constraint} ${c.value === null ? 'unknown' : Number(c.value.toPrecision(6))} (limit ${c.limit})`)
+      .join('; ');
+    return {
+      status: 'infeasible',
+      reason: `The best recipe found fails a constraint when recomputed by the core: ${what}. Blendbench does not offer it.`,
+      binding: 'combination',
+      suggestion: 'Relax that limit a little, or add stocks that bring the missing property (with its measured values).',
+      relaxable: [],
+      lpCount: r.lpCount,
+    };
+  }
   let objectiveValue = r.objectiveValue;
   if (P.blendTargets.objective === 'cost' && properties.costPerLitre !== null) objectiveValue = properties.costPerLitre;
   if (P.blendTargets.objective === 'solvency' && properties.anilinePoint) objectiveValue = properties.anilinePoint.value;
