@@ -59,6 +59,9 @@ export function fmtKv(kv: number): string {
 }
 const pct = (f: number): string => `${(100 * f).toFixed(1)} %`;
 const deg = (t: number): string => `${t.toFixed(1)} °C`;
+/** "<what> reachable in <where> is 12.3 °C", or, when the LP could not say (knife-edge tolerances), no number. */
+const reachable = (what: string, where: string, t: number): string =>
+  `${what} reachable in ${where} under the other constraints ${Number.isFinite(t) ? `is ${deg(t)}` : 'could not be determined'}`;
 
 const GROUP_BINDING: Record<ConstraintGroup, string> = {
   band: 'band',
@@ -244,9 +247,10 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const r = solve(others, polymerObjective(P));
       const need = r.status === 'optimal' ? polymerFractionOf(P, r.massFractions) : Number.NaN;
       return done({
-        reason:
-          `Meeting ${bandText} under the other constraints needs at least ${pct(need)} polymer; ` +
-          `the cap is ${pct(t.maxPolymerFraction!)}.`,
+        reason: Number.isFinite(need)
+          ? `Meeting ${bandText} under the other constraints needs at least ${pct(need)} polymer; ` +
+            `the cap is ${pct(t.maxPolymerFraction!)}.`
+          : `Meeting ${bandText} under the other constraints needs more polymer than the cap of ${pct(t.maxPolymerFraction!)}.`,
         binding: 'max-polymer',
         suggestion: 'Raise the polymer cap, or add a heavier base stock so that less thickener is needed.',
         relaxable,
@@ -268,7 +272,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const best = r.status === 'optimal' && r.anilinePoint !== null ? r.anilinePoint : Number.NaN;
       return done({
         reason:
-          `The lowest aniline point reachable in ${bandText} under the other constraints is ${deg(best)}; ` +
+          `${reachable('The lowest aniline point', bandText, best)}; ` +
           `the maximum allowed is ${deg(t.maxAnilinePoint!)} (a lower aniline point means more solvency).`,
         binding: 'max-aniline',
         suggestion:
@@ -281,7 +285,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const best = r.status === 'optimal' ? pourPointFromIndex(r.objectiveValue * pourBlendingIndex(t.maxPourPoint!)) : Number.NaN;
       return done({
         reason:
-          `The lowest pour-point estimate reachable in ${bandText} under the other constraints is ${deg(best)}; ` +
+          `${reachable('The lowest pour-point estimate', bandText, best)}; ` +
           `the limit is ${deg(t.maxPourPoint!)}. Components without a pour point are left out.`,
         binding: 'max-pour',
         suggestion: 'Add a stock with a lower pour point (PAO, Group III) or a pour-point depressant, or relax the limit.',
@@ -293,7 +297,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const best = r.status === 'optimal' ? flashPointFromIndex(r.objectiveValue * flashBlendingIndex(t.minFlashPoint!)) : Number.NaN;
       return done({
         reason:
-          `The highest flash-point estimate reachable in ${bandText} under the other constraints is ${deg(best)}; ` +
+          `${reachable('The highest flash-point estimate', bandText, best)}; ` +
           `the minimum is ${deg(t.minFlashPoint!)}. Components without a flash point are left out.`,
         binding: 'min-flash',
         suggestion: 'Use heavier, higher-flash stocks, or relax the minimum flash point.',
