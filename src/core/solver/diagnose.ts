@@ -99,7 +99,9 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
   // 1. Nothing to blend, or limits that cannot add up.
   if (usable.length === 0) {
     return done({
-      reason: 'No component can be used: every stock is withdrawn or excluded.',
+      reason:
+        'No component can be used: every stock is withdrawn or excluded (a pour-point, flash-point or aniline-point ' +
+        'limit leaves out stocks without that measured value).',
       binding: 'components',
       suggestion: 'Add available stocks to the library or mark a stock as available.',
     });
@@ -273,7 +275,8 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       return done({
         reason:
           `${reachable('The lowest aniline point', bandText, best)}; ` +
-          `the maximum allowed is ${deg(t.maxAnilinePoint!)} (a lower aniline point means more solvency).`,
+          `the maximum allowed is ${deg(t.maxAnilinePoint!)} (a lower aniline point means more solvency). ` +
+          'Base stocks without an aniline point are left out.',
         binding: 'max-aniline',
         suggestion:
           'Add a solvency booster (an alkylated naphthalene, an ester or a more aromatic stock), or raise the maximum aniline point.',
