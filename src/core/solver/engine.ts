@@ -154,7 +154,7 @@ export interface PreparedProblem {
    * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
    * root relaxation of the VI condition (see {@link viRoot}).
    */
-  readonly cache: { viRoot?: ViRoot };
+  readonly cache: { viRoot?: ViRoot; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>> };
   readonly reference: ClosestReference | null;
   /** Indices with min > 0 (always in every subset). */
   readonly forced: readonly number[];
@@ -374,8 +374,13 @@ function relObjective(P: PreparedProblem, rel: Float64Array): RatioObjective {
   return { kind: 'ratio', sense: 'minimize', num, den };
 }
 
-/** The objective the targets ask for. */
+/** The objective the targets ask for (cached on the prepared problem). */
 export function primaryObjective(P: PreparedProblem): EngineObjective {
+  const cache = (P.cache.objectives ??= {});
+  return (cache[P.targets.objective] ??= makePrimaryObjective(P));
+}
+
+function makePrimaryObjective(P: PreparedProblem): EngineObjective {
   switch (P.targets.objective) {
     case 'solvency':
       return anilineObjective(P);
@@ -408,126 +413,153 @@ interface NodeSolution {
   objective: number;
 }
 
-/** Build and solve the LP for X40 ∈ [a, b] with an optional VI chord. */
+/**
+ * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines.
+ * Rows are written into one buffer (hot path of the substitute search: no closures, few allocations).
+ */
 function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
   const { P, vars, groups, objective, extra } = ctx;
   const nv = vars.length;
   const nAux = ctx.withAux ? 3 : 0;
   const width = nv + nAux;
-  const rows: LpRow[] = [];
   const s = P.coords.rowScale;
   const t = P.targets;
+  const comps = P.components;
+
+  // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
+  // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r); column a is folded into the others below.
+  let fold = -1;
+  if (nv > 1 && groups.has('additive')) {
+    for (let j = 0; j < nv; j++) {
+      const k = comps[vars[j]!]!;
+      if (k.fixedAdditive && k.min === k.max && k.min < 1) {
+        fold = j;
+        break;
+      }
+    }
+  }
+
+  const maxRows = 8 + chords.length + 2 * nv + extra.length + 2 * nAux;
+  const buf = new Float64Array(maxRows * width);
+  const rows: LpRow[] = [];
+  let o = 0; // offset of the next row in buf
 
   // Normalisation row (Charnes–Cooper): den·w = 1. When minimising with every numerator
   // coefficient ≥ 0 the optimum lies on the row anyway (every other row is homogeneous, so scaling
   // w down towards the row never worsens the objective), and the one-sided row den·w ≥ 1 gives the
   // same optimum with one simplex row instead of two. (Not when maximising: den·w ≤ 1 would admit
   // w = 0 and hide infeasibility.)
-  const norm = new Float64Array(width);
-  let oneSided = true;
-  if (objective.kind === 'ratio') {
-    for (let j = 0; j < nv; j++) {
-      norm[j] = objective.den[vars[j]!]!;
-      if (objective.num[vars[j]!]! < 0) oneSided = false;
-    }
-  } else norm.fill(1, 0, nv);
-  if (objective.kind === 'ratio' && objective.sense === 'maximize') oneSided = false;
-  rows.push(oneSided ? { coefficients: norm, min: 1 } : { coefficients: norm, min: 1, max: 1 });
+  let oneSided = !(objective.kind === 'ratio' && objective.sense === 'maximize');
+  for (let j = 0; j < nv; j++) {
+    const i = vars[j]!;
+    if (objective.kind === 'ratio') {
+      buf[o + j] = objective.den[i]!;
+      if (objective.num[i]! < 0) oneSided = false;
+    } else buf[o + j] = 1;
+  }
+  rows.push(oneSided ? { coefficients: buf.subarray(o, o + width), min: 1 } : { coefficients: buf.subarray(o, o + width), min: 1, max: 1 });
+  o += width;
 
   if (bandRows) {
-    const lo = new Float64Array(width);
-    const hi = new Float64Array(width);
+    // a ≤ X40 ≤ b:  Σ cᵢwᵢ(X40ᵢ − a) ≥ 0,  Σ cᵢwᵢ(X40ᵢ − b) ≤ 0.
+    const point = !(b - a > 1e-12);
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
-      lo[j] = s * P.c[i]! * (P.x40[i]! - a);
-      hi[j] = s * P.c[i]! * (P.x40[i]! - b);
+      buf[o + j] = s * P.c[i]! * (P.x40[i]! - a);
+      if (!point) buf[o + width + j] = s * P.c[i]! * (P.x40[i]! - b);
     }
-    if (b - a > 1e-12) {
-      rows.push({ coefficients: lo, min: 0 });
-      rows.push({ coefficients: hi, max: 0 });
+    if (point) {
+      rows.push({ coefficients: buf.subarray(o, o + width), min: 0, max: 0 });
+      o += width;
     } else {
-      rows.push({ coefficients: lo, min: 0, max: 0 });
+      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+      rows.push({ coefficients: buf.subarray(o + width, o + 2 * width), max: 0 });
+      o += 2 * width;
     }
   }
-  for (const chord of chords) {
+  for (let q = 0; q < chords.length; q++) {
     // X100 ≥ alpha + beta·X40  ⇔  Σ cᵢwᵢ(X100ᵢ − alpha − beta·X40ᵢ) ≥ 0.
-    const r = new Float64Array(width);
+    const chord = chords[q]!;
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
-      r[j] = s * P.c[i]! * (P.x100[i]! - chord.alpha - chord.beta * P.x40[i]!);
+      buf[o + j] = s * P.c[i]! * (P.x100[i]! - chord.alpha - chord.beta * P.x40[i]!);
     }
-    rows.push({ coefficients: r, min: 0 });
+    rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+    o += width;
   }
-  if (groups.has('aniline') && t.maxAnilinePoint !== null) {
-    const r = new Float64Array(width);
+  if (t.maxAnilinePoint !== null && groups.has('aniline')) {
+    // Σ_A (wᵢ/ρᵢ)(APᵢ − AP_max) ≤ 0 (scaled by 0.1).
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
-      if (!Number.isNaN(P.ap[i]!)) r[j] = 0.1 * P.invRho[i]! * (P.ap[i]! - t.maxAnilinePoint);
+      if (!Number.isNaN(P.ap[i]!)) buf[o + j] = 0.1 * P.invRho[i]! * (P.ap[i]! - t.maxAnilinePoint);
     }
-    rows.push({ coefficients: r, max: 0 });
+    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    o += width;
   }
-  if (groups.has('polymer') && t.maxPolymerFraction !== null) {
-    const r = new Float64Array(width);
-    const cap = t.maxPolymerFraction;
+  if (t.maxPolymerFraction !== null && groups.has('polymer')) {
+    // Σ_P wᵢ − p_max·Σ wᵢ ≤ 0.
     let any = false;
     for (let j = 0; j < nv; j++) {
-      const poly = P.components[vars[j]!]!.polymer;
-      any ||= poly;
-      r[j] = (poly ? 1 : 0) - cap;
+      const poly = comps[vars[j]!]!.polymer;
+      if (poly) any = true;
+      buf[o + j] = (poly ? 1 : 0) - t.maxPolymerFraction;
     }
-    if (any) rows.push({ coefficients: r, max: 0 });
+    if (any) {
+      rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+      o += width;
+    } else buf.fill(0, o, o + width);
   }
-  if (groups.has('pour') && t.maxPourPoint !== null) {
-    const r = new Float64Array(width);
+  if (t.maxPourPoint !== null && groups.has('pour')) {
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
-      r[j] = P.invRho[i]! * (P.pourRel[i]! - 1);
+      buf[o + j] = P.invRho[i]! * (P.pourRel[i]! - 1);
     }
-    rows.push({ coefficients: r, max: 0 });
+    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    o += width;
   }
-  if (groups.has('flash') && t.minFlashPoint !== null) {
-    const r = new Float64Array(width);
+  if (t.minFlashPoint !== null && groups.has('flash')) {
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
-      r[j] = P.invRho[i]! * (P.flashRel[i]! - 1);
+      buf[o + j] = P.invRho[i]! * (P.flashRel[i]! - 1);
     }
-    rows.push({ coefficients: r, max: 0 });
+    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    o += width;
   }
-  // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
-  // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r), so column a is folded into the others below.
-  let fold = -1;
-  for (let j = 0; j < nv && nv > 1; j++) {
-    const k = P.components[vars[j]!]!;
-    if (k.fixedAdditive && groups.has('additive') && k.min === k.max && k.min < 1) {
-      fold = j;
-      break;
-    }
-  }
-  // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0.
+  // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0 (the folded additive needs none).
+  const boundsOn = groups.has('bounds');
+  const additiveOn = groups.has('additive');
   for (let j = 0; j < nv; j++) {
-    const k = P.components[vars[j]!]!;
-    const active = k.fixedAdditive ? groups.has('additive') : groups.has('bounds');
-    if (!active || j === fold) continue;
+    if (j === fold) continue;
+    const k = comps[vars[j]!]!;
+    if (!(k.fixedAdditive ? additiveOn : boundsOn)) continue;
     const lo = k.min;
     const hi = k.max;
     if (lo <= 0 && hi >= 1) continue;
-    const make = (bound: number): Float64Array => {
-      const r = new Float64Array(width);
-      for (let q = 0; q < nv; q++) r[q] = -bound;
-      r[j] = 1 - bound;
-      return r;
-    };
-    if (lo === hi) rows.push({ coefficients: make(lo), min: 0, max: 0 });
-    else {
-      if (lo > 0) rows.push({ coefficients: make(lo), min: 0 });
-      if (hi < 1) rows.push({ coefficients: make(hi), max: 0 });
+    if (lo === hi) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -lo;
+      buf[o + j] = 1 - lo;
+      rows.push({ coefficients: buf.subarray(o, o + width), min: 0, max: 0 });
+      o += width;
+      continue;
+    }
+    if (lo > 0) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -lo;
+      buf[o + j] = 1 - lo;
+      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+      o += width;
+    }
+    if (hi < 1) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -hi;
+      buf[o + j] = 1 - hi;
+      rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+      o += width;
     }
   }
   for (const e of extra) {
-    const r = new Float64Array(width);
-    for (let j = 0; j < nv; j++) r[j] = e.coef[vars[j]!]!;
-    for (let q = 0; q < nAux; q++) r[nv + q] = e.aux;
-    rows.push(e.sense === 'le' ? { coefficients: r, max: 0 } : { coefficients: r, min: 0 });
+    for (let j = 0; j < nv; j++) buf[o + j] = e.coef[vars[j]!]!;
+    for (let q = 0; q < nAux; q++) buf[o + nv + q] = e.aux;
+    rows.push(e.sense === 'le' ? { coefficients: buf.subarray(o, o + width), max: 0 } : { coefficients: buf.subarray(o, o + width), min: 0 });
+    o += width;
   }
   const obj = new Float64Array(width);
   let sense: 'minimize' | 'maximize' = 'minimize';
@@ -536,55 +568,59 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
     sense = objective.sense;
   }
   if (nAux > 0) {
-    // 'closest': aux_k ≥ |f_k·w|, objective Σ aux_k.
-    const ref = P.reference!;
-    const f = closestRows(P, ref);
+    // 'closest': aux_q ≥ |f_q·w|, i.e. aux_q − f_q·w ≥ 0 and aux_q + f_q·w ≥ 0; objective Σ aux_q.
+    const f = closestForms(P);
     for (let q = 0; q < 3; q++) {
-      const up = new Float64Array(width);
-      const dn = new Float64Array(width);
+      const fq = f[q]!;
       for (let j = 0; j < nv; j++) {
-        const v = f[q]![vars[j]!]!;
-        up[j] = -v;
-        dn[j] = v;
+        const v = fq[vars[j]!]!;
+        buf[o + j] = -v;
+        buf[o + width + j] = v;
       }
-      up[nv + q] = 1;
-      dn[nv + q] = 1;
-      rows.push({ coefficients: up, min: 0 });
-      rows.push({ coefficients: dn, min: 0 });
+      buf[o + nv + q] = 1;
+      buf[o + width + nv + q] = 1;
+      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+      rows.push({ coefficients: buf.subarray(o + width, o + 2 * width), min: 0 });
+      o += 2 * width;
       if (objective.kind === 'closest') obj[nv + q] = 1;
     }
   }
-  if (fold < 0) {
-    const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
-    if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
-    return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
-  }
-  // Fold column `fold`: a'ⱼ = aⱼ + κ·a_fold for the other component columns; auxiliaries unchanged.
-  const k = P.components[vars[fold]!]!;
-  const kappa = k.min / (1 - k.min);
-  const reduce = (r: ArrayLike<number>): Float64Array => {
-    const out = new Float64Array(width - 1);
-    const af = r[fold]!;
-    for (let j = 0, q = 0; j < width; j++) {
-      if (j === fold) continue;
-      out[q++] = j < nv ? r[j]! + kappa * af : r[j]!;
+  if (fold >= 0) {
+    // Fold column `fold`: a'ⱼ = aⱼ + κ·a_fold for the other component columns, then a_fold = 0
+    // (the column stays, empty, and is restored from the others after the solve).
+    const k = comps[vars[fold]!]!;
+    const kappa = k.min / (1 - k.min);
+    for (let r = 0; r < rows.length; r++) {
+      const R = rows[r]!.coefficients as Float64Array;
+      const af = R[fold]!;
+      if (af !== 0) {
+        for (let j = 0; j < nv; j++) if (j !== fold) R[j] = R[j]! + kappa * af;
+        R[fold] = 0;
+      }
     }
-    return out;
-  };
-  const reducedRows: LpRow[] = rows.map((r) => ({ ...r, coefficients: reduce(r.coefficients) }));
-  const sol = solveLp({ sense, numVariables: width - 1, objective: reduce(obj), rows: reducedRows });
-  const x = new Float64Array(width);
-  if (sol.status !== 'optimal') {
-    return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x, objective: Number.NaN };
+    const of = obj[fold]!;
+    if (of !== 0) {
+      for (let j = 0; j < nv; j++) if (j !== fold) obj[j] = obj[j]! + kappa * of;
+      obj[fold] = 0;
+    }
+    const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
+    if (sol.status !== 'optimal') {
+      return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+    }
+    let others = 0;
+    for (let j = 0; j < nv; j++) if (j !== fold) others += sol.x[j]!;
+    sol.x[fold] = kappa * others;
+    return { status: 'optimal', x: sol.x, objective: sol.objective };
   }
-  let others = 0;
-  for (let j = 0, q = 0; j < width; j++) {
-    if (j === fold) continue;
-    x[j] = sol.x[q++]!;
-    if (j < nv) others += x[j]!;
-  }
-  x[fold] = kappa * others;
-  return { status: 'optimal', x, objective: sol.objective };
+  const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
+  if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
+  return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+}
+
+/** The 'closest' deviation forms, computed once per prepared problem. */
+function closestForms(P: PreparedProblem): Float64Array[] {
+  if (!P.cache.closest) P.cache.closest = closestRows(P, P.reference!);
+  return P.cache.closest;
 }
 
 /**
@@ -808,8 +844,14 @@ export function solvePrepared(
   if (subset === null) vars = P.usableIndices.slice();
   else {
     vars = [];
-    for (const i of subset) if (P.components[i]?.usable && !vars.includes(i)) vars.push(i);
-    for (const i of P.forced) if (!vars.includes(i) && P.components[i]!.usable) vars.push(i);
+    for (let q = 0; q < subset.length; q++) {
+      const i = subset[q]!;
+      if (P.components[i]?.usable && vars.indexOf(i) < 0) vars.push(i);
+    }
+    for (let q = 0; q < P.forced.length; q++) {
+      const i = P.forced[q]!;
+      if (vars.indexOf(i) < 0 && P.components[i]!.usable) vars.push(i);
+    }
   }
   // A forced component that cannot be used makes the problem infeasible (bounds active).
   for (const i of P.forced) {
