@@ -12,6 +12,10 @@ export function exportBackup(): void {
   downloadText(backupFileName(), makeBackupText(), 'application/json');
 }
 
+function acknowledgeUpgrade(key: StoreKey): void {
+  useStorageStatus.setState((s) => ({ stores: { ...s.stores, [key]: { ...s.stores[key], upgraded: null } } }));
+}
+
 async function downloadKept(key: StoreKey) {
   const kept = await readKeptCopy(key);
   downloadText(`blendbench-unusable-${key}.json`, JSON.stringify(kept ?? null, null, 1), 'application/json');
@@ -61,6 +65,22 @@ export function SavedWorkNotices() {
                 {st.problem.message} Nothing has been overwritten: the saved copy is kept as it was
                 {st.problem.keptAs ? ' (and a copy set aside)' : ''}, and saving of the {STORE_LABEL[key]} is paused. This tab
                 shows the demo {STORE_LABEL[key]} meanwhile.
+              </Notice>
+            ) : null}
+            {st.upgraded ? (
+              <Notice
+                tone="info"
+                title={`The saved ${STORE_LABEL[key]} was upgraded.`}
+                actions={
+                  <button type="button" onClick={() => acknowledgeUpgrade(key)}>
+                    Dismiss
+                  </button>
+                }
+              >
+                It was written by an older version of Blendbench (schema {st.upgraded.from}) and now uses schema {st.upgraded.to}.
+                {st.upgraded.keptAs
+                  ? ' The original copy is kept, untouched, in this browser.'
+                  : ' The original could not be copied aside, so it stays saved as it was until the next start.'}
               </Notice>
             ) : null}
             {st.saveError ? (

@@ -48,6 +48,8 @@ export interface StoreStatus {
   saveError: string | null;
   /** ISO time of the last successful save. */
   lastSavedAt: string | null;
+  /** Set when the stored copy was written by an older schema and upgraded on loading. */
+  upgraded: { from: number; to: number; keptAs: string | null } | null;
 }
 
 export type PersistentStorageState = 'unknown' | 'granted' | 'refused' | 'unsupported';
@@ -69,6 +71,7 @@ const initialStoreStatus = (): StoreStatus => ({
   savingPaused: false,
   saveError: null,
   lastSavedAt: null,
+  upgraded: null,
 });
 
 /** Status of saved work, for the shell's banners. Not persisted. */
@@ -103,6 +106,8 @@ export function resetSavedWorkDbForTests(): void {
 
 /** Key of the raw copy kept when stored data could not be used. */
 export const keptCopyKey = (key: StoreKey): string => `${key}.unusable-copy`;
+/** Key of the copy kept, untouched, before an older schema is upgraded. */
+export const preUpgradeCopyKey = (key: StoreKey, fromVersion: number): string => `${key}.schema-${fromVersion}-copy`;
 
 // ---------------------------------------------------------------------------------------------
 // Reading: version check, migrations, validation (pure, testable)
@@ -304,13 +309,26 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         });
         return null;
       }
+      let upgraded: StoreStatus['upgraded'] = null;
+      if (result.migratedFrom !== null) {
+        // Keep the original before the upgraded copy replaces it; if that copy cannot be written,
+        // leave the original in place (the upgrade simply runs again at the next start).
+        let keptAs: string | null = preUpgradeCopyKey(spec.key, result.migratedFrom);
+        try {
+          await idbSet(keptAs, { keptAt: new Date().toISOString(), reason: `copy before the upgrade from schema ${result.migratedFrom}`, raw }, savedWorkDb());
+        } catch {
+          keptAs = null;
+        }
+        upgraded = { from: result.migratedFrom, to: spec.version, keptAs };
+        if (keptAs) enqueueWrite(spec.key, { state: result.data, version: spec.version });
+      }
       patchStatus(spec.key, {
         phase: 'ready',
         origin: result.migratedFrom === null ? 'stored' : 'migrated',
         problem: null,
         savingPaused: false,
+        upgraded,
       });
-      if (result.migratedFrom !== null) enqueueWrite(spec.key, { state: result.data, version: spec.version });
       return { state: result.data, version: spec.version };
     },
     setItem(_name: string, value: StorageValue<D>): void {
