@@ -220,6 +220,8 @@ interface WriteQueue {
   resolveIdle: (() => void) | null;
 }
 const queues = new Map<StoreKey, WriteQueue>();
+/** The newest value of each store whose last save failed; retried once another save succeeds. */
+const failedWrites = new Map<StoreKey, StorageValue<unknown>>();
 
 async function drain(key: StoreKey, q: WriteQueue): Promise<void> {
   while (q.pending) {
@@ -229,7 +231,16 @@ async function drain(key: StoreKey, q: WriteQueue): Promise<void> {
       await idbSet(key, value, savedWorkDb());
       patchStatus(key, { saveError: null, lastSavedAt: new Date().toISOString() });
       broadcast(key);
+      failedWrites.delete(key);
+      // Storage works again: retry the other stores' failed saves (a failing retry does not retry again).
+      for (const [other, v] of [...failedWrites]) {
+        const busy = queues.get(other);
+        if (busy?.writing || busy?.pending) continue; // a newer value is on its way
+        failedWrites.delete(other);
+        enqueueWrite(other, v);
+      }
     } catch (e) {
+      failedWrites.set(key, value);
       patchStatus(key, {
         saveError:
           `Saving the ${STORE_LABEL[key]} failed: ${describeSaveError(e)}. ` +
