@@ -53,7 +53,8 @@ export const PLAUSIBLE: Record<'kv40' | 'kv100' | 'anilinePoint' | 'pourPoint' |
   shearLossPct: [0, 60],
 };
 
-const fmt = (v: number) => String(Number(v.toPrecision(6)));
+/** A number for a message: 6 significant figures, a true minus sign. */
+const fmt = (v: number) => String(Number(v.toPrecision(6))).replace(/^-/, '−');
 
 /**
  * Hard limits (common practice, no source): beyond these a number cannot describe a blending
@@ -69,7 +70,7 @@ export function checkValue(field: CheckField, v: number | null): { error?: strin
   }
   if (!Number.isFinite(v)) return { error: 'must be a finite number' };
   const outside = (r: Range, what: string, unit: string) =>
-    v < r[0] || v > r[1] ? { warning: `${fmt(v)} ${unit} is outside the usual ${r[0]}–${r[1]} ${unit} for ${what}; check the value` } : {};
+    v < r[0] || v > r[1] ? { warning: `${fmt(v)} ${unit} is outside the usual ${fmt(r[0])} to ${fmt(r[1])} ${unit} for ${what}; check the value` } : {};
   if ((field === 'anilinePoint' || field === 'pourPoint' || field === 'flashPoint') && (v < ABSOLUTE_ZERO_C || v > POSSIBLE.maxTempC)) {
     return { error: `${fmt(v)} °C is not a possible temperature here` };
   }

@@ -150,15 +150,20 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         />
       </td>
       <td className="actions">
-        <button type="button" aria-expanded={expanded} aria-controls={detailsId} onClick={() => onToggleDetails(c.id)}>
+        <button
+          type="button"
+          aria-label={`${expanded ? 'Close' : 'More'} fields of ${who}`}
+          aria-expanded={expanded}
+          aria-controls={detailsId}
+          onClick={() => onToggleDetails(c.id)}
+        >
           {expanded ? 'Close' : 'More'}
-          <span className="visually-hidden"> fields of {who}</span>
         </button>
-        <button type="button" onClick={() => onClone(c.id)}>
-          Clone<span className="visually-hidden"> {who}</span>
+        <button type="button" aria-label={`Clone ${who}`} onClick={() => onClone(c.id)}>
+          Clone
         </button>
-        <button type="button" className="danger" onClick={() => onDelete(c.id)}>
-          Delete<span className="visually-hidden"> {who}</span>
+        <button type="button" aria-label={`Delete ${who}`} className="danger" onClick={() => onDelete(c.id)}>
+          Delete
         </button>
       </td>
     </tr>

@@ -1,0 +1,133 @@
+// @vitest-environment jsdom
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import LibraryScreen from '../../../src/features/library/LibraryScreen';
+import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
+
+const bs = () => useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!;
+const rowOf = (code: string) => screen.getByLabelText(`Stock code of ${useLibrary.getState().components.find((c) => c.code === code)!.name}`).closest('tr')!;
+
+/** Render the screen narrowed to the stocks matching `query` (keeps jsdom queries fast). */
+function renderFor(query: string) {
+  const r = render(<LibraryScreen />);
+  fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: query } });
+  return r;
+}
+
+function type(el: HTMLElement, text: string, key = 'Enter') {
+  fireEvent.focus(el);
+  fireEvent.change(el, { target: { value: text } });
+  fireEvent.keyDown(el, { key });
+}
+
+beforeEach(() => {
+  resetDemo();
+  useLibrary.temporal.getState().clear();
+  settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.' });
+});
+afterEach(cleanup);
+
+describe('Library screen', () => {
+  it('lists the invented demo stocks with computed VI and grade beside the entered values', () => {
+    renderFor('BW-190');
+    expect(screen.getByText('Stocks', { selector: 'h2' })).toBeTruthy();
+    expect(screen.getByText(/Invented demo library/)).toBeTruthy();
+    const row = rowOf('BW-190');
+    // Computed by the core from ν40 485 / ν100 31.8: VI 96 (ASTM D2270, cf. shared/reference/check-values.md V8
+    // for 480/31.5 → 96.09) and in the VG 460 band 414–506 (ISO 3448).
+    expect(within(row).getByText('96')).toBeTruthy();
+    expect(within(row).getByText('VG 460')).toBeTruthy();
+  });
+
+  it('refuses ν100 at or above ν40 with a specific message and leaves the stock unchanged', () => {
+    renderFor('BW-190');
+    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]');
+    type(kv100, '500');
+    expect(screen.getByText('ν100 (500 mm²/s) must be below ν40 (485 mm²/s)')).toBeTruthy();
+    expect(kv100.getAttribute('aria-invalid')).toBe('true');
+    expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8);
+    fireEvent.keyDown(kv100, { key: 'Escape' });
+    expect((kv100 as HTMLInputElement).value).toBe('31.8');
+  });
+
+  it('flags an implausible value but keeps it, with the flag visible', () => {
+    renderFor('BW-190');
+    const aniline = screen.getByLabelText('Aniline point of BW-190 [°C]');
+    type(aniline, '400');
+    expect(bs().anilinePoint).toBe(400);
+    expect(screen.getByText(/400 °C is outside the usual −60 to 180 °C for an aniline point/)).toBeTruthy();
+  });
+
+  it('rejects garbage and a density typed in kg/m³', () => {
+    renderFor('BW-190');
+    const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    type(rho, 'abc');
+    expect(screen.getByText(/“abc” is not a number/)).toBeTruthy();
+    type(rho, '900');
+    expect(screen.getByText(/looks like kg\/m³: enter kg\/L \(e\.g\. 0\.9\)/)).toBeTruthy();
+    expect(bs().density15).toBe(0.9);
+  });
+
+  it('edits are one undo step each; clone, withdraw and delete can be undone', () => {
+    renderFor('BW-190');
+    type(screen.getByLabelText('ν40 of BW-190 [mm²/s]'), '490');
+    expect(bs().viscosityPoints[0]!.kv).toBe(490);
+    fireEvent.change(screen.getByLabelText('Availability of BW-190'), { target: { value: 'withdrawn' } });
+    expect(bs().availability).toBe('withdrawn');
+    fireEvent.click(screen.getByRole('button', { name: 'Clone BW-190' }));
+    expect(useLibrary.getState().components.some((c) => c.code === 'BW-190-copy')).toBe(true);
+    fireEvent.click(screen.getByRole('button', { name: 'Delete BW-190-copy' }));
+    expect(useLibrary.getState().components.some((c) => c.code === 'BW-190-copy')).toBe(false);
+    const toolbar = screen.getByRole('toolbar', { name: 'Library actions' });
+    const undo = within(toolbar).getByRole('button', { name: 'Undo' });
+    fireEvent.click(undo); // delete
+    expect(useLibrary.getState().components.some((c) => c.code === 'BW-190-copy')).toBe(true);
+    fireEvent.click(undo); // clone
+    fireEvent.click(undo); // availability
+    expect(bs().availability).toBe('limited');
+    fireEvent.click(undo); // ν40
+    expect(bs().viscosityPoints[0]!.kv).toBe(485);
+    fireEvent.click(within(toolbar).getByRole('button', { name: 'Redo' }));
+    expect(bs().viscosityPoints[0]!.kv).toBe(490);
+  });
+
+  it('does not delete a stock used in a recipe and says why', () => {
+    renderFor('BW-190');
+    fireEvent.click(screen.getByRole('button', { name: 'Delete BW-190' }));
+    expect(screen.getByText(/BW-190 is used in 4 recipes/)).toBeTruthy();
+    expect(bs()).toBeTruthy();
+  });
+
+  it('refuses a duplicate stock code', () => {
+    renderFor('BW-190');
+    const code = screen.getByLabelText('Stock code of Group I bright stock');
+    type(code, 'BW-160');
+    expect(screen.getByText(/BW-160 is already used by/)).toBeTruthy();
+    expect(bs().code).toBe('BW-190');
+  });
+
+  it('shows temperatures in °F when chosen, and stores °C', () => {
+    act(() => settingsActions.updateSettings({ temperatureUnit: 'F' }));
+    renderFor('BW-190');
+    const aniline = screen.getByLabelText('Aniline point of BW-190 [°F]') as HTMLInputElement;
+    // 122 °C = 251.6 °F (t_F = 9/5·t_C + 32, definition of the Fahrenheit scale)
+    expect(aniline.value).toBe('251.6');
+    type(aniline, '212');
+    // 212 °F = 100 °C (definition)
+    expect(bs().anilinePoint).toBeCloseTo(100, 10);
+  });
+
+  it('imports nothing from a file with errors and shows the per-row report', async () => {
+    renderFor('BW-190');
+    fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
+    const before = useLibrary.getState().components;
+    const file = new File(['code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nX-1,group-ii,10,20,0.86,1\n'], 'bad.csv', { type: 'text/csv' });
+    await act(async () => {
+      fireEvent.change(screen.getByLabelText('File'), { target: { files: [file] } });
+    });
+    await screen.findByText('1 of 1 rows have errors; nothing was imported.');
+    expect(within(screen.getByRole('table', { name: 'Import preview' })).getByText(/must be below ν40/)).toBeTruthy();
+    expect((screen.getByRole('button', { name: 'Import' }) as HTMLButtonElement).disabled).toBe(true);
+    expect(useLibrary.getState().components).toBe(before);
+  });
+});
