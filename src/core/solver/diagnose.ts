@@ -22,10 +22,9 @@ import {
   x40Objective,
   type ConstraintGroup,
   type EngineObjective,
-  type EngineOptimal,
   type PreparedProblem,
 } from './engine';
-import { ViBoundary } from './vi-boundary';
+import { VI_MIN_KV100, viscosityIndex } from '../viscosity-index';
 
 export interface Diagnosis {
   /** What prevents a recipe, with the numbers. */
@@ -37,7 +36,10 @@ export interface Diagnosis {
   binding: string;
   /** What would fix it. */
   suggestion: string;
-  /** Every constraint group whose removal alone makes the problem feasible. */
+  /**
+   * Constraint groups whose removal alone makes the problem feasible (the band is listed only when
+   * no other group is).
+   */
   relaxable: ConstraintGroup[];
   lpCount: number;
 }
@@ -133,7 +135,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
     });
   }
 
-  const solve = (groups: ReadonlySet<ConstraintGroup>, objective: EngineObjective, vi?: ViBoundary | null) => {
+  const solve = (groups: ReadonlySet<ConstraintGroup>, objective: EngineObjective, vi?: null) => {
     const r = solvePrepared(P, null, { groups, objective, noTieBreak: true, ...(vi === undefined ? {} : { vi }) });
     lpCount += r.lpCount;
     return r;
@@ -224,12 +226,13 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
     }
   });
   const relaxable: ConstraintGroup[] = [];
-  const relaxed = new Map<ConstraintGroup, EngineOptimal>();
   for (const g of active) {
+    // The band is relaxable whenever the other limits can be met at some viscosity; test it only
+    // when no specific limit explains the failure (it is also the costliest test with a VI limit).
+    if (g === 'band' && relaxable.length > 0) continue;
     const r = solve(without(g), costObjective(P));
     if (r.status === 'optimal') {
       relaxable.push(g);
-      relaxed.set(g, r);
     }
   }
   const g = relaxable[0];
@@ -259,7 +262,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       });
     }
     case 'vi': {
-      const best = maxReachableVi(P, others, relaxed.get('vi')!, (n) => (lpCount += n));
+      const best = maxReachableVi(P, others, (n) => (lpCount += n));
       return done({
         reason:
           `The highest VI reachable in ${bandText} under the other constraints is ${best.toFixed(1)}; ` +
@@ -377,27 +380,86 @@ function polymerFractionOf(P: PreparedProblem, w: Float64Array): number {
 }
 
 /**
- * Highest VI reachable under the given groups, by bisection on the minimum VI (feasibility is
- * monotone in it): starts from the VI of a feasible recipe without the VI condition.
+ * Highest VI reachable under the given constraint groups (the VI condition itself off).
+ *
+ * VI rises with ν100 at fixed ν40 and falls with ν40 at fixed ν100 (ASTM D2270), so its maximum over
+ * the achievable set F of blend coordinates (X40, X100) lies on F's upper-left boundary: the chain
+ * of vertices from the lowest X40 to the highest X100. F is convex (a linear, or for volume-basis
+ * rules a projective, image of the feasible polytope), so the chain is found by LPs in the
+ * directions normal to its edges, and every point of an edge is achievable. The VI is then
+ * maximised along each edge by golden-section search (ASTM D2270 via the core).
  */
-function maxReachableVi(
-  P: PreparedProblem,
-  groups: ReadonlySet<ConstraintGroup>,
-  start: { vi: number | null },
-  count: (n: number) => void,
-): number {
-  let lo = start.vi ?? 0;
-  let hi = P.targets.minVi!;
-  const withVi = new Set(groups);
-  withVi.add('vi');
-  for (let k = 0; k < 14 && hi - lo > 0.01; k++) {
-    const m = 0.5 * (lo + hi);
-    const r = solvePrepared(P, null, { groups: withVi, objective: costObjective(P), noTieBreak: true, vi: new ViBoundary(m, P.coords) });
-    count(r.lpCount);
-    if (r.status === 'optimal') lo = Math.max(m, r.vi ?? m);
-    else hi = m;
+function maxReachableVi(P: PreparedProblem, groups: ReadonlySet<ConstraintGroup>, count: (n: number) => void): number {
+  const coords = P.coords;
+  interface Pt {
+    x40: number;
+    x100: number;
   }
-  return lo;
+  const extreme = (a100: number, a40: number): Pt | null => {
+    // maximise a100·X100 − a40·X40 (a ratio over Σ cᵢwᵢ; linear after normalising).
+    const num = new Float64Array(P.n);
+    for (let i = 0; i < P.n; i++) num[i] = P.c[i]! * (a100 * P.x100[i]! - a40 * P.x40[i]!);
+    const r = solvePrepared(P, null, { groups, objective: { kind: 'ratio', sense: 'maximize', num, den: P.c }, noTieBreak: true, vi: null });
+    count(r.lpCount);
+    if (r.status !== 'optimal') return null;
+    return { x40: coords.toX(r.kv40), x100: coords.toX(r.kv100) };
+  };
+  const viAt = (p: Pt): number => {
+    const kv40 = coords.toKv(p.x40);
+    const kv100 = coords.toKv(p.x100);
+    return kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndex(kv40, kv100) : Number.NEGATIVE_INFINITY;
+  };
+  const left = extreme(1e-6, 1); // lowest X40, then highest X100
+  const top = extreme(1, 1e-6); // highest X100, then lowest X40
+  if (!left || !top) return Number.NaN;
+  const chain: Pt[] = [left];
+  const walk = (p1: Pt, p2: Pt, depth: number): void => {
+    const d40 = p2.x40 - p1.x40;
+    const d100 = p2.x100 - p1.x100;
+    if (depth > 12 || !(d40 > 1e-12) || !(d100 > 1e-12)) return;
+    const q = extreme(d40, d100);
+    if (q) {
+      const gain = d40 * q.x100 - d100 * q.x40 - (d40 * p1.x100 - d100 * p1.x40);
+      if (gain > 1e-9 * (Math.abs(d40) + Math.abs(d100))) {
+        walk(p1, q, depth + 1);
+        chain.push(q);
+        walk(q, p2, depth + 1);
+      }
+    }
+  };
+  walk(left, top, 0);
+  chain.push(top);
+  let best = Number.NEGATIVE_INFINITY;
+  for (const p of chain) best = Math.max(best, viAt(p));
+  const phi = (Math.sqrt(5) - 1) / 2;
+  for (let k = 0; k + 1 < chain.length; k++) {
+    const a = chain[k]!;
+    const b = chain[k + 1]!;
+    const at = (t: number): number => viAt({ x40: a.x40 + t * (b.x40 - a.x40), x100: a.x100 + t * (b.x100 - a.x100) });
+    let lo = 0;
+    let hi = 1;
+    let t1 = hi - phi * (hi - lo);
+    let t2 = lo + phi * (hi - lo);
+    let f1 = at(t1);
+    let f2 = at(t2);
+    for (let it = 0; it < 40; it++) {
+      if (f1 < f2) {
+        lo = t1;
+        t1 = t2;
+        f1 = f2;
+        t2 = lo + phi * (hi - lo);
+        f2 = at(t2);
+      } else {
+        hi = t2;
+        t2 = t1;
+        f2 = f1;
+        t1 = hi - phi * (hi - lo);
+        f1 = at(t1);
+      }
+    }
+    best = Math.max(best, f1, f2);
+  }
+  return best;
 }
 
 export { GROUP_BINDING };

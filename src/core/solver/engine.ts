@@ -287,7 +287,7 @@ export function viRoot(P: PreparedProblem): ViRoot | null {
   if (!P.vi) return null;
   if (!P.cache.viRoot) {
     const hA = P.vi.h(P.bandA);
-    const hB = P.vi.h(P.bandB);
+    const hB = P.vi.h(P.bandB, hA);
     P.cache.viRoot = { hA, hB, chords: P.vi.relaxation(P.bandA, hA, P.bandB, hB) };
   }
   return P.cache.viRoot;
@@ -774,7 +774,7 @@ function optimise(ctx: SolveContext): OptimiseOutcome {
     const span = node.b - node.a;
     if (!(span > 1e-10)) continue; // a point interval whose chord is exact cannot improve
     const split = Math.min(node.b - 0.02 * span, Math.max(node.a + 0.02 * span, bx.x40));
-    const hs = vi.h(split);
+    const hs = vi.h(split, node.ha);
     addNode(node.a, split, node.ha, hs);
     addNode(split, node.b, hs, node.hb);
   }

@@ -29,7 +29,7 @@
  *
  * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
  */
-import { D2270_H, D2270_KV100, D2270_L } from '../data/d2270-table1';
+import { D2270_H as TABLE_H, D2270_KV100 as TABLE_KV100, D2270_L as TABLE_L } from '../data/d2270-table1';
 import { VI_MIN_KV100 } from '../viscosity-index';
 import type { BlendCoordinates } from './coordinates';
 
@@ -38,6 +38,12 @@ export interface ViChord {
   alpha: number;
   beta: number;
 }
+
+// Local references to the Table 1 columns (one property look-up here, not one per access in the
+// inner loops — module bindings can compile to getters under some loaders).
+const D2270_KV100: Float64Array = TABLE_KV100;
+const D2270_L: Float64Array = TABLE_L;
+const D2270_H: Float64Array = TABLE_H;
 
 /**
  * L and H at Y — the same interpolation as `referenceViscosities` (Table 1 with linear
@@ -80,7 +86,7 @@ export function referenceLH(y: number, out: { L: number; H: number }): void {
 }
 
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
-const GAP_SAMPLES = 32;
+const GAP_SAMPLES = 16;
 
 export class ViBoundary {
   readonly minVi: number;
@@ -119,12 +125,22 @@ export class ViBoundary {
   }
 
   /** h(X40) = g⁻¹(X40): the smallest blend X100 that satisfies the VI condition at X40 (bisection). */
-  h(x40: number): number {
+  h(x40: number, below?: number): number {
     if (x40 <= this.x40AtFloor) return this.x100Min;
     // Bracket [lo, hi] with g(lo) < x40 ≤ g(hi); g is increasing (ν100 up to ~1e6 mm²/s at most).
+    // `below`, when given, is a known X100 with g(below) ≤ x40 (e.g. h at a smaller X40).
     let lo = this.x100Min;
     let flo = this.x40AtFloor - x40;
     let step = 1;
+    if (below !== undefined && below > lo) {
+      const f = this.g(below) - x40;
+      if (f <= 0) {
+        if (f === 0) return below;
+        lo = below;
+        flo = f;
+        step = 0.25;
+      }
+    }
     let hi = lo + step;
     let fhi = this.g(hi) - x40;
     for (let k = 0; k < 60 && fhi < 0; k++) {
