@@ -32,8 +32,9 @@ const FILL: Record<FrontierPoint['role'], string> = {
  * (no candidate both cheaper and more solvent) is joined by a line.
  */
 export const FrontierChart = memo(function FrontierChart({ points, currency, width, height, onSelect }: FrontierChartProps) {
-  const data = points.map((p) => ({ ...p, x: p.costPerLitre, y: p.anilinePoint }));
-  const frontier = data.filter((p) => p.role === 'frontier' || (p.role === 'selected' && isOnFrontier(p, data))).sort((a, b) => a.x - b.x);
+  // `kind`, not `role`: recharts copies point fields onto the SVG shape, and role="frontier" is no ARIA role.
+  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.costPerLitre, y: p.anilinePoint }));
+  const frontier = data.filter((p) => p.kind === 'frontier' || (p.kind === 'selected' && isOnFrontier(p, data))).sort((a, b) => a.x - b.x);
   const xs = data.map((p) => p.x);
   const ys = data.map((p) => p.y);
   const pad = (lo: number, hi: number) => {
@@ -77,7 +78,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             }}
           >
             {data.map((p) => (
-              <Cell key={p.id} fill={FILL[p.role]} stroke={p.role === 'selected' || p.role === 'reference' ? '#1d2a2f' : 'none'} data-role={p.role} />
+              <Cell key={p.id} fill={FILL[p.kind]} stroke={p.kind === 'selected' || p.kind === 'reference' ? '#1d2a2f' : 'none'} data-role={p.kind} />
             ))}
           </Scatter>
         </ComposedChart>
@@ -92,6 +93,6 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   );
 });
 
-function isOnFrontier(p: { x: number; y: number }, all: readonly { x: number; y: number; role: string }[]): boolean {
-  return !all.some((q) => q.role !== 'reference' && q !== p && q.x <= p.x && q.y <= p.y && (q.x < p.x || q.y < p.y));
+function isOnFrontier(p: { x: number; y: number }, all: readonly { x: number; y: number; kind: string }[]): boolean {
+  return !all.some((q) => q.kind !== 'reference' && q !== p && q.x <= p.x && q.y <= p.y && (q.x < p.x || q.y < p.y));
 }

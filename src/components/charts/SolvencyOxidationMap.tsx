@@ -52,7 +52,8 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   formatX,
   title = 'Solvency against oxidation stability (estimated scores, not measurements)',
 }: SolvencyOxidationMapProps) {
-  const data = points.map((p) => ({ ...p, x: p.solvency, y: p.oxidation }));
+  // `kind`, not `role`: recharts copies point fields onto the SVG shape, and role="reference" is no ARIA role.
+  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.solvency, y: p.oxidation }));
   const describe = points.map((p) => `${p.label}: ${xLabel} ${p.solvency.toFixed(1)}, ${yLabel} ${p.oxidation.toFixed(1)}`).join('; ');
   return (
     <figure className="chart" data-chart="solvency-oxidation">
@@ -96,9 +97,9 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             {data.map((p) => (
               <Cell
                 key={p.id}
-                fill={FILL[p.role]}
-                stroke={p.role === 'candidate' ? 'none' : '#1d2a2f'}
-                data-role={p.role}
+                fill={FILL[p.kind]}
+                stroke={p.kind === 'candidate' ? 'none' : '#1d2a2f'}
+                data-role={p.kind}
               />
             ))}
           </Scatter>
