@@ -25,7 +25,7 @@ async function stored(page: Page, key: string): Promise<unknown> {
 }
 
 async function libraryRowCount(page: Page): Promise<number> {
-  return page.getByRole('table', { name: 'Component library' }).locator('tbody > tr:not(.details-row)').count();
+  return page.getByRole('table', { name: 'Component library' }).locator(':scope > tbody > tr:not(.details-row)').count();
 }
 
 describe('component library and saved work', () => {
@@ -140,6 +140,29 @@ describe('component library and saved work', () => {
     await page.getByRole('button', { name: 'Delete BW-190' }).click();
     await expect(page.getByText(/BW-190 is used in 4 recipes/).isVisible()).resolves.toBe(true);
     expect(await libraryRowCount(page)).toBe(30);
+  });
+
+  it('every library action is reachable by keyboard; the details panel shows the other fields', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    const before = await libraryRowCount(page);
+    // From the top of the page, Tab until "Add stock" has focus, then press Enter.
+    await page.locator('body').click({ position: { x: 5, y: 5 } });
+    let found = false;
+    for (let i = 0; i < 40 && !found; i++) {
+      await page.keyboard.press('Tab');
+      found = await page.evaluate(() => document.activeElement?.textContent === 'Add stock');
+    }
+    expect(found).toBe(true);
+    await page.keyboard.press('Enter');
+    expect(await libraryRowCount(page)).toBe(before + 1);
+    await page.getByRole('button', { name: 'Undo', exact: true }).first().press('Enter');
+    expect(await libraryRowCount(page)).toBe(before);
+    await page.getByRole('button', { name: 'More fields of BW-510' }).press('Enter');
+    await page.getByLabel('Permanent shear loss of ν100 [%]').waitFor();
+    await page.getByRole('button', { name: 'Close fields of BW-510' }).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(process.cwd(), 'test-output', 'screens', 'library-details.png') });
   });
 
   it('made no console errors and no off-host requests', () => {

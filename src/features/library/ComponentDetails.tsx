@@ -188,7 +188,7 @@ export function ComponentDetails({ c, usedIn, onUpdate }: DetailsProps) {
             </button>
           </>
         ) : (
-          <p className="muted small">None. Polymers blend non-ideally; a calibration from a measured trial blend can be added from the recipe designer.</p>
+          <p className="muted small">None. Polymers blend non-ideally: until a calibration from a measured trial blend is stored, predictions for blends with this stock are less certain.</p>
         )}
       </fieldset>
       <fieldset className="wide">
