@@ -65,6 +65,32 @@ async function openScreen(page: Page, id: string, heading: string): Promise<void
   await page.getByRole('heading', { name: heading, level: 2 }).waitFor();
 }
 
+/**
+ * Press Tab (or Shift+Tab) until the focused element has the given role and accessible name; fails
+ * if it is not reached (each step polls briefly, so content that is still loading can appear).
+ */
+async function tabTo(page: Page, role: 'link' | 'button' | 'checkbox', name: RegExp, direction: 'forward' | 'back' = 'forward', timeoutMs = 10_000): Promise<void> {
+  const start = Date.now();
+  const seen: string[] = [];
+  for (let i = 0; Date.now() - start < timeoutMs; i++) {
+    const focused = await page.evaluate(() => {
+      const el = document.activeElement as HTMLElement | null;
+      if (!el || el === document.body) return null;
+      const tag = el.tagName.toLowerCase();
+      const type = (el as HTMLInputElement).type;
+      const role = el.getAttribute('role') ?? (tag === 'a' ? 'link' : tag === 'button' ? 'button' : tag === 'input' && type === 'checkbox' ? 'checkbox' : tag);
+      const name = (el.getAttribute('aria-label') ?? el.innerText ?? el.textContent ?? '').replace(/\s+/g, ' ').trim();
+      return { role, name, disabled: (el as HTMLButtonElement).disabled === true };
+    });
+    if (focused && focused.role === role && name.test(focused.name) && !focused.disabled) return;
+    if (focused) seen.push(`${focused.role} “${focused.name.slice(0, 40)}”`);
+    // After a full lap with nothing found, wait a little for content still loading.
+    if (i > 0 && i % 150 === 0) await page.waitForTimeout(250);
+    await page.keyboard.press(direction === 'forward' ? 'Tab' : 'Shift+Tab');
+  }
+  throw new Error(`keyboard: no ${role} named ${name} reached by ${direction === 'forward' ? 'Tab' : 'Shift+Tab'}; last focused: ${seen.slice(-6).join(', ')}`);
+}
+
 const cspViolations = (page: Page) => page.evaluate(() => (window as unknown as { __cspViolations: string[] }).__cspViolations);
 
 describe('security and accessibility', () => {
@@ -147,6 +173,58 @@ describe('security and accessibility', () => {
     }
     expect(await page.evaluate(() => (window as { __pwned?: unknown }).__pwned)).toBeUndefined();
     expect(await cspViolations(page)).toEqual([]);
+  });
+
+  it('keyboard only: open the demo, solve, explore, adopt and print (Tab, Shift+Tab, Enter, Space)', async () => {
+    // A fresh profile, so the demo is what the first start shows.
+    const k = await launch();
+    try {
+      await k.context.addInitScript(WATCH);
+      const page = k.page;
+      await page.goto(inject('baseURL'));
+      await page.getByRole('heading', { name: 'Stocks', level: 2 }).waitFor();
+      await expect(page.getByText(/invented demo/i).first().isVisible()).resolves.toBe(true);
+
+      await tabTo(page, 'link', /^Recipe designer/);
+      await page.keyboard.press('Enter');
+      await page.getByRole('heading', { name: 'Recipe designer', level: 2 }).waitFor();
+      await tabTo(page, 'button', /^Solve$/);
+      await page.keyboard.press('Enter');
+      await page.getByRole('status').filter({ hasText: 'Solved' }).waitFor();
+      expect(await axeSerious(page), 'designer after solving').toEqual([]);
+      await screenshot(page, 'keyboard-designer-solved');
+
+      await tabTo(page, 'link', /^Substitute explorer/, 'back');
+      await page.keyboard.press('Enter');
+      await page.getByRole('heading', { name: 'Substitute explorer', level: 2 }).waitFor();
+      await tabTo(page, 'checkbox', /^Treat BW-190 as withdrawn$/);
+      await page.keyboard.press('Space');
+      await expect(page.getByLabel('Treat BW-190 as withdrawn').isChecked()).resolves.toBe(true);
+      await tabTo(page, 'button', /^Run search$/);
+      await page.keyboard.press('Enter');
+      await tabTo(page, 'button', /^compar(e|ing) candidate 1$/, 'forward', 60_000);
+      await page.keyboard.press('Enter');
+      await tabTo(page, 'button', /^Adopt as a new recipe$/);
+      await page.keyboard.press('Enter');
+      await page.getByRole('button', { name: 'Adopted' }).waitFor();
+      expect(await axeSerious(page), 'explorer with results').toEqual([]);
+      await screenshot(page, 'keyboard-explorer-adopted');
+
+      await tabTo(page, 'link', /^Blend sheet/, 'back');
+      await page.keyboard.press('Enter');
+      await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+      await tabTo(page, 'button', /^Print$/);
+      await page.keyboard.press('Enter');
+      await expect.poll(() => page.evaluate(() => (window as unknown as { __printCalls: number }).__printCalls)).toBe(1);
+      expect(await axeSerious(page), 'blend sheet').toEqual([]);
+      await screenshot(page, 'keyboard-blend-sheet');
+
+      expect(await cspViolations(page)).toEqual([]);
+      expect(k.errors).toEqual([]);
+      expect(k.offHost).toEqual([]);
+    } finally {
+      await k.close();
+    }
   });
 
   it('no CSP violation and no request off 127.0.0.1 over the whole session', () => {
