@@ -8,16 +8,17 @@
  *
  * Reading (React hooks; pass a selector to avoid needless re-renders):
  *   useLibrary(s => s.components)            Component[] (demo on first start)
- *   useComponentsById()                      Map<id, Component> (memoised per library change)
+ *   useComponentsById() / componentsById(list) Map<id, Component> (memoised per library array)
  *   useRecipes(s => s.recipes)               Recipe[];  useRecipes(s => s.targets[id]) BlendTargets | undefined
  *   useActiveRecipe()                        Recipe | null (the one the designer / sheet opens on)
  *   useSettings()                            Settings (units, currency symbol, number format, company,
  *                                            operatingTempC, coldStartTempC, blendMethod)
  *   useFormat()                              number / temperature / money formatters for the settings
  *                                            (from src/components/format.ts)
- * Writing (actions; call from event handlers):
- *   useLibrary.getState().addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id)
+ * Writing (actions; call from event handlers; every library/recipe action is one undo step):
+ *   libraryActions: addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id) → id
  *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
+ *     (also useLibrary.getState().…)
  *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes? }) → id
  *     | updateRecipe(id, patch) | setLines(id, lines) | raiseRevision(id) | duplicateRecipe(id, name?) → id
  *     | removeRecipe(id) | setActiveRecipe(id) | setTargets(recipeId, BlendTargets)
@@ -27,6 +28,8 @@
  * Undo/redo (zundo), one history per store:
  *   useLibraryHistory() / useRecipesHistory() → { canUndo, canRedo, undo, redo }
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
+ * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
+ * entry checks shared by screens and imports in ./checks.ts.
  */
 import { useMemo } from 'react';
 import { useStore } from 'zustand';
