@@ -1,0 +1,39 @@
+import { describe, expect, it } from 'vitest';
+import { makeFormatter, parseNumber } from '../../src/components/format';
+import { DEFAULT_SETTINGS } from '../../src/state/settings';
+
+describe('number formatting for the user’s habits', () => {
+  const point = makeFormatter({ ...DEFAULT_SETTINGS, currencySymbol: '€' });
+  const comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', temperatureUnit: 'F' });
+
+  it('formats with the chosen separators, grouping only from five digits', () => {
+    expect(point.num(12345.678, 2)).toBe('12\u202f345.68');
+    expect(point.num(1234.5, 1)).toBe('1234.5');
+    expect(comma.num(12345.678, 2)).toBe('12.345,68');
+    expect(point.num(-0.001, 2)).toBe('0.00'); // a rounded zero has no sign
+    expect(point.num(-3.5, 1)).toBe('−3.5');
+    expect(point.num(null)).toBe('—');
+    expect(point.pct(0.4512)).toBe('45.1 %');
+    expect(point.money(2.5)).toBe('€\u202f2.50');
+    expect(point.sig(6500, 3)).toBe('6500');
+    expect(point.sig(0.012345, 3)).toBe('0.0123');
+  });
+
+  it('shows temperatures in the chosen unit and converts typed values back to °C', () => {
+    // 40 °C = 104 °F; 100 °C = 212 °F (definition of the Fahrenheit scale)
+    expect(comma.temp(40)).toBe('104 °F');
+    expect(comma.tempToC(212)).toBeCloseTo(100, 10);
+    expect(point.temp(-12)).toBe('−12 °C');
+    expect(Number.isNaN(comma.tempToC(-500))).toBe(true); // below absolute zero
+  });
+
+  it('parses what a user types, and refuses garbage', () => {
+    expect(parseNumber(' 1 234.5 ', '.')).toBe(1234.5);
+    expect(parseNumber('1.234,5', ',')).toBe(1234.5);
+    expect(parseNumber('−12', '.')).toBe(-12);
+    expect(parseNumber('1e3', '.')).toBe(1000);
+    expect(parseNumber('', '.')).toBeNull();
+    expect(Number.isNaN(parseNumber('12abc', '.')!)).toBe(true);
+    expect(Number.isNaN(parseNumber('0x10', '.')!)).toBe(true);
+  });
+});
