@@ -45,12 +45,16 @@ export default function DesignerScreen() {
   );
 
   // First visit: open the active recipe (or the first reference recipe), else a blank VG 320 draft.
+  // Later, a recipe made active elsewhere (e.g. adopted in the explorer) opens unless the draft has unsaved edits.
+  const seenActiveId = useDesignerStore((s) => s.seenActiveId);
   useEffect(() => {
-    if (initialised) return;
-    const start = recipes.find((r) => r.id === activeRecipeId) ?? recipes.find((r) => r.isReference) ?? recipes[0];
+    if (initialised && activeRecipeId === seenActiveId) return;
+    actions.setSeenActiveId(activeRecipeId);
+    if (initialised && useDesignerStore.getState().dirty) return;
+    const start = recipes.find((r) => r.id === activeRecipeId) ?? (initialised ? undefined : (recipes.find((r) => r.isReference) ?? recipes[0]));
     if (start) actions.load(start, targetsFor(start, storedTargets[start.id], additiveId));
-    else actions.startBlank(defaultTargets(320, additiveId, null));
-  }, [initialised, recipes, activeRecipeId, storedTargets, additiveId, actions]);
+    else if (!initialised) actions.startBlank(defaultTargets(320, additiveId, null));
+  }, [initialised, seenActiveId, recipes, activeRecipeId, storedTargets, additiveId, actions]);
 
   const density = useMemo(() => densityLookup(components), [components]);
   const view = useMemo(() => deriveDraft(lines, byId), [lines, byId]);

@@ -32,6 +32,9 @@ export interface DesignerState {
   dirty: boolean;
   /** False until the draft was first loaded (the screen opens the active recipe then). */
   initialised: boolean;
+  /** The recipes store's active recipe when last looked at (a change made elsewhere opens it). */
+  seenActiveId: string | null;
+  setSeenActiveId: (id: string | null) => void;
 
   load: (recipe: Recipe, targets: BlendTargets) => void;
   startBlank: (targets: BlendTargets) => void;
@@ -88,6 +91,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   notice: null,
   dirty: false,
   initialised: false,
+  seenActiveId: null,
 
   load: (recipe, targets) => {
     const lines = normalise(recipe.lines);
@@ -152,7 +156,8 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       dirty: true,
     })),
   setNotice: (notice) => set({ notice }),
-  markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false }),
+  markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false, seenActiveId: recipeId }),
+  setSeenActiveId: (seenActiveId) => set({ seenActiveId }),
 }));
 
 /** Density lookup over a library [kg/L]; unknown ids fall back to 0.88 so a stale line cannot crash. */

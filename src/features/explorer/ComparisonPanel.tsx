@@ -1,0 +1,233 @@
+import { memo, useMemo, type ReactNode } from 'react';
+import type { Component, Recipe, RecipeLine } from '../../core/model';
+import type { SubstituteCandidate } from '../../core/substitutes';
+import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
+import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
+import { DEPOSIT_PROPENSITY_LABEL } from '../../core/deposit';
+import { CautionBanner } from '../../components/notices';
+import { useFormat, type Formatter } from '../../components/format';
+import type { Settings } from '../../state';
+import { compareRecipes } from '../../core/comparison';
+import { assess, type Assessed } from './compare';
+
+interface Row {
+  label: string;
+  ref: ReactNode;
+  cand: ReactNode;
+  change: ReactNode;
+  /** 'better' / 'worse' colour the change; undefined = neutral. */
+  tone?: 'better' | 'worse' | undefined;
+}
+
+function delta(a: number | null | undefined, b: number | null | undefined, fmt: Formatter, digits: number, unit = ''): string {
+  if (a === null || a === undefined || b === null || b === undefined) return '—';
+  const d = b - a;
+  return `${d > 0 ? '+' : d < 0 ? '−' : '±'}${fmt.num(Math.abs(d), digits)}${unit}`;
+}
+
+function tone(d: number | null, lowerIsBetter: boolean): 'better' | 'worse' | undefined {
+  if (d === null || Math.abs(d) < 1e-9) return undefined;
+  return (d < 0) === lowerIsBetter ? 'better' : 'worse';
+}
+
+function lineList(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Component>, fmt: Formatter): ReactNode {
+  return (
+    <ul className="mini-recipe">
+      {lines
+        .filter((l) => l.massFraction > 0)
+        .map((l) => {
+          const c = byId.get(l.componentId);
+          return (
+            <li key={l.componentId}>
+              <span className="code">{c?.code ?? l.componentId}</span> {fmt.num(l.massFraction * 100, 1)} %
+              {c?.availability === 'withdrawn' ? <span className="tag tag-bad"> withdrawn</span> : null}
+            </li>
+          );
+        })}
+    </ul>
+  );
+}
+
+export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt: Formatter): Row[] {
+  const r = ref?.props;
+  const c = cand?.props;
+  const rows: Row[] = [];
+  const costD = r?.costPerLitre != null && c?.costPerLitre != null ? c.costPerLitre - r.costPerLitre : null;
+  rows.push({
+    label: 'Cost per litre',
+    ref: fmt.money(r?.costPerLitre, 3),
+    cand: fmt.money(c?.costPerLitre, 3),
+    change:
+      costD === null || !r?.costPerLitre ? '—' : `${delta(r.costPerLitre, c!.costPerLitre, fmt, 3)} (${costD > 0 ? '+' : ''}${fmt.num((100 * costD) / r.costPerLitre, 1)} %)`,
+    tone: tone(costD, true),
+  });
+  rows.push({ label: 'ν40, mm²/s', ref: fmt.num(r?.kv40, 1), cand: fmt.num(c?.kv40, 1), change: delta(r?.kv40, c?.kv40, fmt, 1) });
+  rows.push({ label: 'ν100, mm²/s', ref: fmt.num(r?.kv100, 2), cand: fmt.num(c?.kv100, 2), change: delta(r?.kv100, c?.kv100, fmt, 2) });
+  const viD = r?.vi != null && c?.vi != null ? c.vi - r.vi : null;
+  rows.push({ label: 'Viscosity index', ref: r?.reportedVi ?? '—', cand: c?.reportedVi ?? '—', change: delta(r?.vi, c?.vi, fmt, 1), tone: tone(viD, false) });
+  const rAp = r?.anilinePoint?.value ?? null;
+  const cAp = c?.anilinePoint?.value ?? null;
+  rows.push({
+    label: 'Aniline point',
+    ref: fmt.temp(rAp, 1),
+    cand: fmt.temp(cAp, 1),
+    change: rAp === null || cAp === null ? '—' : `${delta(fmt.tempValue(rAp), fmt.tempValue(cAp), fmt, 1)} ${fmt.tempUnit}`,
+    tone: tone(rAp === null || cAp === null ? null : cAp - rAp, true),
+  });
+  rows.push({
+    label: 'Solvency',
+    ref: ref?.deposit ? SOLVENCY_BAND_LABEL[ref.deposit.solvency.band] : '—',
+    cand: cand?.deposit ? SOLVENCY_BAND_LABEL[cand.deposit.solvency.band] : '—',
+    change: ref?.deposit && cand?.deposit ? scoreChange(ref.deposit.solvency.score, cand.deposit.solvency.score) : '—',
+    tone: ref?.deposit && cand?.deposit ? tone(cand.deposit.solvency.score - ref.deposit.solvency.score, false) : undefined,
+  });
+  const rOx = r?.oxidationRating ?? null;
+  const cOx = c?.oxidationRating ?? null;
+  rows.push({
+    label: 'Oxidation stability',
+    ref: rOx === null ? '—' : `${OXIDATION_CLASS_LABEL[oxidationClass(rOx)]} (${fmt.num(rOx, 1)})`,
+    cand: cOx === null ? '—' : `${OXIDATION_CLASS_LABEL[oxidationClass(cOx)]} (${fmt.num(cOx, 1)})`,
+    change: delta(rOx, cOx, fmt, 1),
+    tone: tone(rOx === null || cOx === null ? null : cOx - rOx, false),
+  });
+  const rank = { low: 0, moderate: 1, elevated: 2 } as const;
+  rows.push({
+    label: 'Deposit propensity',
+    ref: ref?.deposit ? DEPOSIT_PROPENSITY_LABEL[ref.deposit.propensity] : '—',
+    cand: cand?.deposit ? DEPOSIT_PROPENSITY_LABEL[cand.deposit.propensity] : '—',
+    change: ref?.deposit && cand?.deposit ? (ref.deposit.propensity === cand.deposit.propensity ? 'same' : `${ref.deposit.propensity} → ${cand.deposit.propensity}`) : '—',
+    tone: ref?.deposit && cand?.deposit ? tone(rank[cand.deposit.propensity] - rank[ref.deposit.propensity], true) : undefined,
+  });
+  if (r?.kvAtOperating || c?.kvAtOperating) {
+    rows.push({
+      label: `ν at ${fmt.temp((r?.kvAtOperating ?? c?.kvAtOperating)!.tempC)} (operating), mm²/s`,
+      ref: fmt.sig(r?.kvAtOperating?.kv, 3),
+      cand: fmt.sig(c?.kvAtOperating?.kv, 3),
+      change: pctChange(r?.kvAtOperating?.kv, c?.kvAtOperating?.kv, fmt),
+    });
+  }
+  if (r?.kvAtCold || c?.kvAtCold) {
+    const cd = r?.kvAtCold && c?.kvAtCold ? c.kvAtCold.kv - r.kvAtCold.kv : null;
+    rows.push({
+      label: `ν at ${fmt.temp((r?.kvAtCold ?? c?.kvAtCold)!.tempC)} (cold start), mm²/s`,
+      ref: fmt.sig(r?.kvAtCold?.kv, 3),
+      cand: fmt.sig(c?.kvAtCold?.kv, 3),
+      change: pctChange(r?.kvAtCold?.kv, c?.kvAtCold?.kv, fmt),
+      tone: tone(cd, true),
+    });
+  }
+  const shearText = (a: Assessed | null) =>
+    !a?.shear ? '—' : a.shear.unchanged ? 'yes (no polymer loss)' : `${a.shear.inGradeAfter ? 'yes' : 'NO'} (ν40 ${fmt.num(a.shear.kv40After, 1)})`;
+  rows.push({ label: 'In grade after shear', ref: shearText(ref), cand: shearText(cand), change: '' });
+  rows.push({ label: 'Density at 15 °C, kg/L', ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
+  return rows;
+}
+
+function scoreChange(a: number, b: number): string {
+  if (a === b) return 'same band';
+  return `${b > a ? '+' : '−'}${Math.abs(b - a)} band${Math.abs(b - a) > 1 ? 's' : ''}`;
+}
+
+function pctChange(a: number | undefined, b: number | undefined, fmt: Formatter): string {
+  if (a === undefined || b === undefined || a === 0) return '—';
+  const d = (100 * (b - a)) / a;
+  return `${d > 0 ? '+' : d < 0 ? '−' : '±'}${fmt.num(Math.abs(d), 1)} %`;
+}
+
+/** The selected candidate beside the reference recipe, and the Adopt action. */
+export const ComparisonPanel = memo(function ComparisonPanel({
+  reference,
+  candidate,
+  components,
+  refAssessed,
+  settings,
+  adoptedName,
+  onAdopt,
+}: {
+  reference: Recipe;
+  candidate: SubstituteCandidate;
+  components: readonly Component[];
+  refAssessed: Assessed | null;
+  settings: Settings;
+  adoptedName: string | null;
+  onAdopt: () => void;
+}) {
+  const fmt = useFormat();
+  const byId = useMemo(() => new Map(components.map((c) => [c.id, c])), [components]);
+  const candAssessed = useMemo(
+    () =>
+      assess(components, candidate.lines, {
+        method: settings.blendMethod,
+        grade: reference.grade,
+        operatingTempC: settings.operatingTempC,
+        coldTempC: settings.coldStartTempC,
+      }),
+    [components, candidate, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC, reference.grade],
+  );
+  const rows = comparisonRows(refAssessed, candAssessed, fmt);
+  const summary = useMemo(() => {
+    try {
+      return compareRecipes({
+        components,
+        reference: reference.lines.filter((l) => l.massFraction > 0),
+        candidate: candidate.lines,
+        grade: reference.grade,
+        operatingTempC: settings.operatingTempC,
+        coldTempC: settings.coldStartTempC,
+        method: settings.blendMethod,
+      }).summary;
+    } catch {
+      return [];
+    }
+  }, [components, reference, candidate, settings.operatingTempC, settings.coldStartTempC, settings.blendMethod]);
+  return (
+    <section className="comparison" aria-labelledby="cmp-h" data-testid="comparison">
+      <h3 id="cmp-h">Candidate {candidate.rank} beside the reference</h3>
+      <CautionBanner compact />
+      {summary.length > 0 && (
+        <ul className="cmp-summary" data-testid="comparison-summary">
+          {summary.map((line) => (
+            <li key={line}>{line}</li>
+          ))}
+        </ul>
+      )}
+      <table className="data-table cmp-table">
+        <thead>
+          <tr>
+            <th scope="col">Property</th>
+            <th scope="col">Reference</th>
+            <th scope="col">Candidate {candidate.rank}</th>
+            <th scope="col">Change</th>
+          </tr>
+        </thead>
+        <tbody>
+          <tr>
+            <th scope="row">Recipe</th>
+            <td>{lineList(reference.lines, byId, fmt)}</td>
+            <td>{lineList(candidate.lines, byId, fmt)}</td>
+            <td />
+          </tr>
+          {rows.map((r) => (
+            <tr key={r.label}>
+              <th scope="row">{r.label}</th>
+              <td className="num">{r.ref}</td>
+              <td className="num">{r.cand}</td>
+              <td className={`num ${r.tone ?? ''}`}>{r.change}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {candAssessed?.deposit && <p className="deposit-note">{candAssessed.deposit.explanation}</p>}
+      <div className="adopt-row">
+        <button type="button" className="primary" onClick={onAdopt} disabled={adoptedName !== null}>
+          {adoptedName ? 'Adopted' : 'Adopt as a new recipe'}
+        </button>
+        {adoptedName && (
+          <p role="status" data-testid="adopted">
+            Saved as “{adoptedName}”. <a href="#/designer">Open it in the recipe designer</a> to fine-tune it, or print its blend sheet.
+          </p>
+        )}
+      </div>
+    </section>
+  );
+});

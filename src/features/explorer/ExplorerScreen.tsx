@@ -1,0 +1,340 @@
+import { Suspense, lazy, useEffect, useId, useMemo } from 'react';
+import type { BlendTargets, Component, Objective, Recipe } from '../../core/model';
+import type { SubstituteCandidate } from '../../core/substitutes';
+import { Notice } from '../../components/notices';
+import { useFormat } from '../../components/format';
+import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import { startSearch, type SearchHandle } from './search-client';
+import { useExplorerStore, type Scenario } from './store';
+import { CandidateTable } from './CandidateTable';
+import { ComparisonPanel } from './ComparisonPanel';
+import { assess } from './compare';
+import './explorer.css';
+
+const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
+
+const RANKING_LABEL: Record<Objective, string> = {
+  cost: 'least cost per litre',
+  solvency: 'best solvency (lowest aniline point)',
+  oxidation: 'highest oxidation-stability rating',
+  closest: 'closest to the reference',
+};
+
+let running: SearchHandle | null = null;
+
+/** Targets of the search: the reference's stored targets (or defaults for its grade), ranked by `objective`. */
+export function scenarioTargets(reference: Recipe, stored: BlendTargets | undefined, components: readonly Component[], objective: Objective): BlendTargets {
+  const additive = components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn') ?? null;
+  const base = stored ?? defaultTargets(reference.grade, additive?.id ?? null, reference.id);
+  return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id };
+}
+
+export default function ExplorerScreen() {
+  const fmt = useFormat();
+  const settings = useSettings();
+  const components = useLibrary((s) => s.components);
+  const byId = componentsById(components);
+  const recipes = useRecipes((s) => s.recipes);
+  const storedTargets = useRecipes((s) => s.targets);
+  const activeRecipeId = useRecipes((s) => s.activeRecipeId);
+  const st = useExplorerStore();
+
+  // Default reference: the active recipe if it is a reference, else the first reference recipe.
+  useEffect(() => {
+    if (st.referenceId && recipes.some((r) => r.id === st.referenceId)) return;
+    const active = recipes.find((r) => r.id === activeRecipeId && r.isReference);
+    const first = active ?? recipes.find((r) => r.isReference) ?? recipes[0];
+    useExplorerStore.getState().setReference(first?.id ?? null);
+  }, [st.referenceId, recipes, activeRecipeId]);
+
+  const reference = recipes.find((r) => r.id === st.referenceId) ?? null;
+  const targets = reference ? scenarioTargets(reference, storedTargets[reference.id], components, st.objective) : null;
+  const refAssessed = useMemo(
+    () =>
+      reference
+        ? assess(components, reference.lines, {
+            method: settings.blendMethod,
+            grade: reference.grade,
+            operatingTempC: settings.operatingTempC,
+            coldTempC: settings.coldStartTempC,
+          })
+        : null,
+    [reference, components, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC],
+  );
+
+  const candidates = st.result?.candidates ?? [];
+  const selected = candidates.find((c) => c.key === st.selectedKey) ?? null;
+  const running_ = st.status === 'running';
+
+  const run = () => {
+    if (!reference || !targets || running) return;
+    const scenario: Scenario = { referenceId: reference.id, withdrawn: [...st.withdrawn], maxComponents: st.maxComponents, objective: st.objective };
+    const s = useExplorerStore.getState();
+    s.started(scenario);
+    const handle = startSearch(
+      {
+        components,
+        targets,
+        reference,
+        withdrawn: scenario.withdrawn,
+        maxComponents: scenario.maxComponents,
+        method: settings.blendMethod,
+        limit: 200,
+      },
+      (p) => useExplorerStore.getState().progressed(p),
+    );
+    running = handle;
+    void handle.outcome.then((o) => {
+      if (running === handle) running = null;
+      const s2 = useExplorerStore.getState();
+      if (o.kind === 'done') s2.finished(o.result);
+      else if (o.kind === 'cancelled') s2.cancelled();
+      else s2.failed(o.message);
+    });
+  };
+
+  const adopt = (c: SubstituteCandidate) => {
+    if (!reference || !targets) return;
+    const codes = c.componentIds.map((id) => byId.get(id)?.code ?? id);
+    const withdrawnCodes = [...new Set([...(st.resultFor?.withdrawn ?? []), ...components.filter((x) => x.availability === 'withdrawn').map((x) => x.id)])]
+      .filter((id) => reference.lines.some((l) => l.componentId === id))
+      .map((id) => byId.get(id)?.code ?? id);
+    const id = recipeActions.addRecipe({
+      name: `VG ${reference.grade} substitute: ${codes.join(' + ')}`,
+      grade: reference.grade,
+      lines: c.lines,
+      notes:
+        `Adopted from the substitute explorer as a replacement for “${reference.name}”` +
+        (withdrawnCodes.length ? ` (withdrawn: ${withdrawnCodes.join(', ')})` : '') +
+        `. Ranked ${c.rank} by ${RANKING_LABEL[st.resultFor?.objective ?? 'cost']}. Predicted, not yet confirmed in the laboratory.`,
+    });
+    recipeActions.setTargets(id, { ...targets, referenceRecipeId: reference.id });
+    recipeActions.setActiveRecipe(id);
+    useExplorerStore.getState().markAdopted(c.key, id);
+  };
+
+  const stale =
+    st.result &&
+    st.resultFor &&
+    (st.resultFor.referenceId !== st.referenceId ||
+      st.resultFor.maxComponents !== st.maxComponents ||
+      st.resultFor.objective !== st.objective ||
+      [...st.resultFor.withdrawn].sort().join() !== [...st.withdrawn].sort().join());
+  const adoptedId = selected ? st.adopted[selected.key] : undefined;
+  const adoptedRecipe = adoptedId ? recipes.find((r) => r.id === adoptedId) : undefined;
+
+  return (
+    <section className="explorer" aria-labelledby="explorer-h" data-testid="explorer">
+      <h2 id="explorer-h">Substitute explorer</h2>
+      <p className="lead">
+        Find every recipe that still makes the grade when stocks are withdrawn: each combination of up to {st.maxComponents} remaining stocks
+        (plus the fixed additive package) is solved to the reference recipe’s targets and ranked.
+      </p>
+      <ScenarioForm
+        recipes={recipes}
+        reference={reference}
+        components={components}
+        targets={targets}
+        running={running_}
+        onRun={run}
+        onCancel={() => running?.cancel()}
+      />
+      <RunStatusView />
+      {stale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
+      {st.result && (
+        <>
+          {candidates.length === 0 ? (
+            <Notice tone="warning" title="No substitute found">
+              No combination of up to {st.result.maxComponents} remaining stocks meets the targets (ν40 band {fmt.num(st.result.band.min, 1)}–
+              {fmt.num(st.result.band.max, 1)} mm²/s). Allow more components per recipe, relax the reference recipe’s targets in the designer, or add
+              a heavier stock or thickener to the library.
+            </Notice>
+          ) : (
+            <div className="explorer-results">
+              <CandidateTable
+                candidates={candidates}
+                components={byId}
+                referenceCost={refAssessed?.props.costPerLitre ?? null}
+                frontierCount={st.result.frontier.length}
+                total={st.result.distinct}
+              />
+              {selected && reference && (
+                <ComparisonPanel
+                  reference={reference}
+                  candidate={selected}
+                  components={components}
+                  refAssessed={refAssessed}
+                  settings={settings}
+                  adoptedName={adoptedRecipe?.name ?? null}
+                  onAdopt={() => adopt(selected)}
+                />
+              )}
+            </div>
+          )}
+          {candidates.length > 0 && (
+            <Suspense fallback={<p className="muted">Loading charts…</p>}>
+              <ExplorerCharts
+                candidates={candidates}
+                frontier={st.result.frontier}
+                selected={selected}
+                reference={reference}
+                refAssessed={refAssessed}
+                components={components}
+                settings={settings}
+                onSelect={(key: string) => useExplorerStore.getState().select(key)}
+              />
+            </Suspense>
+          )}
+        </>
+      )}
+    </section>
+  );
+}
+
+function ScenarioForm({
+  recipes,
+  reference,
+  components,
+  targets,
+  running,
+  onRun,
+  onCancel,
+}: {
+  recipes: readonly Recipe[];
+  reference: Recipe | null;
+  components: readonly Component[];
+  targets: BlendTargets | null;
+  running: boolean;
+  onRun: () => void;
+  onCancel: () => void;
+}) {
+  const fmt = useFormat();
+  const refId = useId();
+  const kId = useId();
+  const objId = useId();
+  const st = useExplorerStore();
+  const inRef = new Set(reference?.lines.map((l) => l.componentId) ?? []);
+  const libWithdrawn = components.filter((c) => c.availability === 'withdrawn');
+  const markable = components.filter((c) => c.availability !== 'withdrawn');
+  const refStocks = markable.filter((c) => inRef.has(c.id));
+  const others = markable.filter((c) => !inRef.has(c.id) && c.category !== 'additive-package');
+  const markedOthers = others.filter((c) => st.withdrawn.includes(c.id)).length;
+  const row = (c: Component) => (
+    <li key={c.id}>
+      <label>
+        <input
+          type="checkbox"
+          checked={st.withdrawn.includes(c.id)}
+          onChange={(e) => st.toggleWithdrawn(c.id, e.target.checked)}
+          disabled={running}
+          aria-label={`Treat ${c.code} as withdrawn`}
+        />{' '}
+        <span className="code">{c.code}</span> {c.name}
+        {c.availability === 'limited' ? <span className="tag"> limited</span> : null}
+      </label>
+    </li>
+  );
+  return (
+    <form
+      className="scenario"
+      aria-label="Search settings"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onRun();
+      }}
+    >
+      <div className="scenario-grid">
+        <div>
+          <div className="field">
+            <label htmlFor={refId}>Reference recipe (the one to replace)</label>
+            <select id={refId} value={reference?.id ?? ''} disabled={running} onChange={(e) => st.setReference(e.target.value || null)}>
+              {recipes.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name}
+                </option>
+              ))}
+            </select>
+          </div>
+          {reference && targets && (
+            <p className="muted" data-testid="scenario-targets">
+              Targets: VG {targets.grade}, ν40 {targets.targetKv40 === null ? 'at the mid-point' : `${fmt.num(targets.targetKv40, 1)} mm²/s`} ±{' '}
+              {fmt.num(targets.tolerancePct, 1)} %{targets.minVi !== null ? `, VI ≥ ${targets.minVi}` : ''}
+              {targets.maxAnilinePoint !== null ? `, aniline point ≤ ${fmt.temp(targets.maxAnilinePoint)}` : ''}
+              {targets.additive ? `, additive package at ${fmt.pct(targets.additive.massFraction, 1)}` : ''} (from the recipe’s saved targets; edit
+              them in the designer).
+            </p>
+          )}
+          <div className="inline-fields">
+            <div className="field">
+              <label htmlFor={kId}>Stocks per recipe, at most</label>
+              <select id={kId} value={st.maxComponents} disabled={running} onChange={(e) => st.setMaxComponents(Number(e.target.value))}>
+                {[1, 2, 3, 4, 5].map((k) => (
+                  <option key={k} value={k}>
+                    {k}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <div className="field">
+              <label htmlFor={objId}>Rank by</label>
+              <select id={objId} value={st.objective} disabled={running} onChange={(e) => st.setObjective(e.target.value as Objective)}>
+                {(Object.keys(RANKING_LABEL) as Objective[]).map((o) => (
+                  <option key={o} value={o}>
+                    {RANKING_LABEL[o]}
+                  </option>
+                ))}
+              </select>
+            </div>
+          </div>
+        </div>
+        <fieldset className="withdrawn">
+          <legend>Stocks to treat as withdrawn</legend>
+          <p className="muted">In the reference recipe:</p>
+          <ul className="checklist">{refStocks.map(row)}</ul>
+          <details>
+            <summary>Other stocks{markedOthers ? ` (${markedOthers} marked)` : ''}</summary>
+            <ul className="checklist">{others.map(row)}</ul>
+          </details>
+          {libWithdrawn.length > 0 && (
+            <p className="muted">Already withdrawn in the library (never used): {libWithdrawn.map((c) => c.code).join(', ')}.</p>
+          )}
+        </fieldset>
+      </div>
+      <div className="run-row">
+        <button type="submit" className="primary" disabled={running || !reference}>
+          Run search
+        </button>
+        <button type="button" onClick={onCancel} disabled={!running}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}
+
+function RunStatusView() {
+  const status = useExplorerStore((s) => s.status);
+  const p = useExplorerStore((s) => s.progress);
+  const error = useExplorerStore((s) => s.error);
+  if (status === 'idle') return null;
+  const pct = p && p.total > 0 ? Math.round((100 * p.evaluated) / p.total) : 0;
+  return (
+    <div className="run-status" data-status={status}>
+      {(status === 'running' || p) && (
+        <div className="progress-row">
+          <label htmlFor="explorer-progress">{status === 'running' ? 'Searching…' : 'Search'}</label>
+          <progress id="explorer-progress" max={p?.total ?? 1} value={p?.evaluated ?? 0} aria-valuetext={`${pct} %`} />
+          <span role="status" aria-live="polite">
+            {p ? `${p.evaluated.toLocaleString('en')} of ${p.total.toLocaleString('en')} combinations, ${p.feasible} feasible, ${p.distinct} distinct recipes` : 'starting…'}
+            {status === 'cancelled' ? ' — cancelled' : ''}
+          </span>
+        </div>
+      )}
+      {status === 'error' && (
+        <Notice tone="error" title="The search stopped">
+          {error}
+        </Notice>
+      )}
+    </div>
+  );
+}

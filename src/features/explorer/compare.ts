@@ -1,0 +1,40 @@
+/** Side-by-side numbers for a candidate and the recipe it replaces (derived, never stored). */
+import type { Component, RecipeLine } from '../../core/model';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import { predictBlend, type BlendProperties } from '../../core/blend-properties';
+import { assessDeposit, type DepositAssessment } from '../../core/deposit';
+import { blendAfterShear, type BlendAfterShear } from '../../core/shear-blend';
+
+export interface Assessed {
+  props: BlendProperties;
+  deposit: DepositAssessment | null;
+  shear: BlendAfterShear | null;
+}
+
+/** Properties, deposit assessment and after-shear check of a recipe; null when it cannot be predicted. */
+export function assess(
+  components: readonly Component[],
+  lines: readonly RecipeLine[],
+  opts: { method: BlendMethod; grade: number; operatingTempC: number; coldTempC: number },
+): Assessed | null {
+  const used = lines.filter((l) => l.massFraction > 0);
+  if (used.length === 0) return null;
+  try {
+    const props = predictBlend(components, used, { method: opts.method, operatingTempC: opts.operatingTempC, coldTempC: opts.coldTempC });
+    let deposit: DepositAssessment | null = null;
+    let shear: BlendAfterShear | null = null;
+    try {
+      deposit = assessDeposit(components, used);
+    } catch {
+      deposit = null;
+    }
+    try {
+      shear = blendAfterShear(components, used, { method: opts.method, grade: opts.grade });
+    } catch {
+      shear = null;
+    }
+    return { props, deposit, shear };
+  } catch {
+    return null;
+  }
+}

@@ -1,0 +1,80 @@
+/**
+ * The explorer's session state (in memory): the scenario (reference recipe, stocks treated as
+ * withdrawn, combination size, ranking), the run's progress and result, the table's sort and
+ * selection. Saved work (adopted recipes) goes to the recipes store.
+ */
+import { create } from 'zustand';
+import type { Objective } from '../../core/model';
+import type { SubstituteSearchProgress, SubstituteSearchResult } from '../../core/substitutes';
+
+export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'error';
+export type SortKey = 'rank' | 'cost' | 'kv40' | 'vi' | 'aniline' | 'oxidation' | 'size';
+
+export interface Scenario {
+  referenceId: string;
+  withdrawn: string[];
+  maxComponents: number;
+  objective: Objective;
+}
+
+export interface ExplorerState {
+  referenceId: string | null;
+  /** Stocks treated as withdrawn in this exploration (besides those withdrawn in the library). */
+  withdrawn: string[];
+  maxComponents: number;
+  objective: Objective;
+  status: RunStatus;
+  progress: SubstituteSearchProgress | null;
+  result: SubstituteSearchResult | null;
+  /** The scenario the result belongs to. */
+  resultFor: Scenario | null;
+  error: string;
+  selectedKey: string | null;
+  sort: { key: SortKey; dir: 'asc' | 'desc' };
+  /** Candidate key → id of the recipe it was adopted as. */
+  adopted: Record<string, string>;
+
+  setReference: (id: string | null) => void;
+  toggleWithdrawn: (id: string, on: boolean) => void;
+  setMaxComponents: (k: number) => void;
+  setObjective: (o: Objective) => void;
+  started: (scenario: Scenario) => void;
+  progressed: (p: SubstituteSearchProgress) => void;
+  finished: (r: SubstituteSearchResult) => void;
+  cancelled: () => void;
+  failed: (message: string) => void;
+  select: (key: string | null) => void;
+  sortBy: (key: SortKey) => void;
+  markAdopted: (key: string, recipeId: string) => void;
+}
+
+export const useExplorerStore = create<ExplorerState>()((set) => ({
+  referenceId: null,
+  withdrawn: [],
+  maxComponents: 4,
+  objective: 'cost',
+  status: 'idle',
+  progress: null,
+  result: null,
+  resultFor: null,
+  error: '',
+  selectedKey: null,
+  sort: { key: 'rank', dir: 'asc' },
+  adopted: {},
+
+  setReference: (referenceId) => set({ referenceId }),
+  toggleWithdrawn: (id, on) =>
+    set((s) => ({ withdrawn: on ? [...new Set([...s.withdrawn, id])] : s.withdrawn.filter((x) => x !== id) })),
+  setMaxComponents: (maxComponents) => set({ maxComponents }),
+  setObjective: (objective) => set({ objective }),
+  started: (scenario) => set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null }),
+  progressed: (progress) => set({ progress }),
+  finished: (result) =>
+    set({ status: 'done', result, selectedKey: result.candidates[0]?.key ?? null, sort: { key: 'rank', dir: 'asc' }, adopted: {} }),
+  cancelled: () => set({ status: 'cancelled' }),
+  failed: (error) => set({ status: 'error', error }),
+  select: (selectedKey) => set({ selectedKey }),
+  sortBy: (key) =>
+    set((s) => ({ sort: { key, dir: s.sort.key === key ? (s.sort.dir === 'asc' ? 'desc' : 'asc') : key === 'vi' || key === 'oxidation' ? 'desc' : 'asc' } })),
+  markAdopted: (key, recipeId) => set((s) => ({ adopted: { ...s.adopted, [key]: recipeId } })),
+}));

@@ -1,0 +1,67 @@
+// @vitest-environment jsdom
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
+import ExplorerScreen from '../../../src/features/explorer/ExplorerScreen';
+import { setWorkerFactory } from '../../../src/features/explorer/search-client';
+import { useExplorerStore } from '../../../src/features/explorer/store';
+import { resetDemo, useRecipes } from '../../../src/state';
+import { inThreadWorker } from './in-thread-worker';
+
+beforeEach(() => {
+  resetDemo();
+  setWorkerFactory(inThreadWorker());
+  useExplorerStore.setState({ referenceId: null, withdrawn: [], maxComponents: 3, status: 'idle', result: null, resultFor: null, progress: null, selectedKey: null, adopted: {} });
+});
+afterEach(() => {
+  cleanup();
+  setWorkerFactory(null);
+});
+
+async function runWithBrightStockWithdrawn() {
+  render(<ExplorerScreen />);
+  fireEvent.click(screen.getByLabelText('Treat BW-190 as withdrawn'));
+  fireEvent.click(screen.getByText('Run search'));
+  await screen.findByTestId('candidates', {}, { timeout: 30000 });
+}
+
+describe('Substitute explorer', () => {
+  it('lists ranked candidates without the withdrawn stock, with progress shown', async () => {
+    await runWithBrightStockWithdrawn();
+    const rows = screen.getByTestId('candidates').querySelectorAll('tbody tr');
+    expect(rows.length).toBeGreaterThan(1);
+    const ranks = [...rows].map((r) => Number(r.querySelector('td')!.textContent));
+    expect(ranks).toEqual([...ranks].sort((a, b) => a - b));
+    expect(screen.getByTestId('candidates').textContent).not.toContain('BW-190');
+    const progress = document.getElementById('explorer-progress') as HTMLProgressElement;
+    expect(progress.value).toBe(progress.max);
+    // ranked by least cost per litre: costs ascend down the table
+    const costs = [...rows].map((r) => Number(r.querySelectorAll('td')[2]!.textContent));
+    for (let i = 1; i < costs.length; i++) expect(costs[i]!).toBeGreaterThanOrEqual(costs[i - 1]!);
+  });
+
+  it('sorts by a column and shows a candidate beside the reference', async () => {
+    await runWithBrightStockWithdrawn();
+    fireEvent.click(screen.getByText('VI', { selector: 'button' }));
+    const viHead = screen.getByText('VI', { selector: 'button' }).closest('th')!;
+    expect(viHead.getAttribute('aria-sort')).toBe('descending');
+    const cmp = screen.getByTestId('comparison');
+    expect(within(cmp).getByText('Cost per litre')).toBeTruthy();
+    expect(within(cmp).getByText('Deposit propensity')).toBeTruthy();
+    expect(within(cmp).getAllByText(/laboratory confirmation/).length).toBeGreaterThan(0);
+    // the reference recipe's withdrawn stock is flagged in the comparison
+    expect(within(cmp).getAllByText('BW-190').length).toBeGreaterThan(0);
+  });
+
+  it('adopts a candidate as a new recipe', async () => {
+    await runWithBrightStockWithdrawn();
+    const before = useRecipes.getState().recipes.length;
+    fireEvent.click(screen.getByText('Adopt as a new recipe'));
+    await waitFor(() => expect(useRecipes.getState().recipes.length).toBe(before + 1));
+    const r = useRecipes.getState().recipes.at(-1)!;
+    expect(r.grade).toBe(320);
+    expect(r.name).toMatch(/^VG 320 substitute: /);
+    expect(r.lines.some((l) => l.componentId === 'demo-bw-190')).toBe(false);
+    expect(useRecipes.getState().activeRecipeId).toBe(r.id);
+    expect(screen.getByTestId('adopted').textContent).toContain(r.name);
+  });
+});
