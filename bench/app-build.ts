@@ -18,16 +18,3 @@ export function buildAppOnce(): string {
   return outDir;
 }
 
-/**
- * One result line of an app bench, printed by bench/run.ts as
- * `bench <name>: <measured> <unit> goal <op> <goal> <pass|MISS>`.
- */
-export interface AppBenchLine {
-  name: string;
-  measured: number;
-  unit: string;
-  op: '<=' | '>=';
-  goal: number;
-  /** Extra context (not part of the line format). */
-  note?: string;
-}

@@ -9,7 +9,8 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { buildAppOnce, type AppBenchLine as BenchLine } from './app-build';
+import { buildAppOnce } from './app-build';
+import type { BenchLine } from './types';
 
 
 /** Script files the page loads at start, as paths relative to the build folder. */
@@ -45,7 +46,7 @@ export async function run(): Promise<BenchLine[]> {
   }
   return [
     {
-      name: 'initial JavaScript (gzip)',
+      name: 'initial JavaScript of the production build, gzip',
       measured: gz / 1000,
       unit: 'kB',
       op: '<=',

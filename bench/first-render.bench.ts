@@ -11,7 +11,8 @@
 import { spawn } from 'node:child_process';
 import { createServer } from 'node:net';
 import { chromium, type Browser } from 'playwright-core';
-import { buildAppOnce, type AppBenchLine as BenchLine } from './app-build';
+import { buildAppOnce } from './app-build';
+import type { BenchLine } from './types';
 
 const LOADS = 7;
 
@@ -106,7 +107,7 @@ export async function run(): Promise<BenchLine[]> {
     }
     return [
       {
-        name: 'first render of the built app (Chromium, cold, median)',
+        name: 'first render of the built app in Chromium, cold, median',
         measured: median(times) / 1000,
         unit: 's',
         op: '<=',
