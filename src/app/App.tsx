@@ -49,6 +49,8 @@ export function App() {
 
   useEffect(() => {
     void startSavedWork();
+    // Fetch the opening screen's code while saved work is being read, not after.
+    void screenFromHash().load();
   }, []);
 
   useEffect(() => {
