@@ -5,13 +5,12 @@
 // print) can be done with the keyboard alone; and no request leaves 127.0.0.1.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, type Session } from './support';
+import { axeSerious } from './axe';
 
-const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
 const BUILD_DIR = join(process.cwd(), `test-output/dist-${Number(process.env.E2E_PORT ?? 4319)}`);
 
 /** Every screen of the navigation list (src/app/screens.ts) with its heading. */
@@ -35,30 +34,6 @@ const WATCH = `(() => {
 
 const HOSTILE = '<img src=x onerror="window.__pwned=1">';
 const HOSTILE_NOTE = '<script>window.__pwned=2</script><b>bold?</b>';
-
-interface AxeViolation {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: { target: string[]; html: string; failureSummary?: string }[];
-}
-
-// axe-core is evaluated through the DevTools protocol: `page.addScriptTag` would add an inline
-// script, which the app's CSP (rightly) blocks.
-const AXE_SOURCE = readFileSync(AXE, 'utf8');
-
-async function axeSerious(page: Page): Promise<string[]> {
-  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(AXE_SOURCE);
-  const violations = (await page.evaluate(async () => {
-    const r = await (window as unknown as { axe: { run: (ctx?: unknown, opts?: unknown) => Promise<{ violations: unknown[] }> } }).axe.run(document, {
-      resultTypes: ['violations'],
-    });
-    return r.violations;
-  })) as AxeViolation[];
-  return violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.impact} ${v.id} (${v.help}): ${v.nodes.slice(0, 3).map((n) => `${n.html.slice(0, 160)} — ${n.failureSummary ?? ''}`).join(' | ')}`);
-}
 
 async function openScreen(page: Page, id: string, heading: string): Promise<void> {
   await page.goto(`${inject('baseURL')}#/${id}`);
@@ -160,8 +135,9 @@ describe('security and accessibility', () => {
     await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
     await page.getByLabel('File', { exact: true }).setInputFiles(file);
     await page.getByText('hostile.csv is valid.').waitFor();
-    // In the preview …
+    // In the preview (which must be accessible too) …
     await expect(page.getByText(HOSTILE, { exact: true }).count()).resolves.toBeGreaterThan(0);
+    expect(await axeSerious(page), 'import preview').toEqual([]);
     await page.getByRole('button', { name: 'Import: add 1, update 0' }).click();
     // … and in the library table, the name is literal text in a field.
     await expect(page.getByLabel('Name of XSS-1', { exact: true }).inputValue()).resolves.toBe(HOSTILE);

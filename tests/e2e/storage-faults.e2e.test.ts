@@ -12,6 +12,7 @@ import { afterEach, describe, expect, inject, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, type Session } from './support';
+import { axeSerious } from './axe';
 
 const QUOTA_STUB = `(() => {
   const put = IDBObjectStore.prototype.put;
@@ -117,6 +118,7 @@ describe('storage faults', () => {
     await expect(alert.innerText()).resolves.toMatch(/quota exceeded/i);
     await expect(alert.innerText()).resolves.toMatch(/last saved copy is kept/i);
     await screenshot(page, 'storage-quota-exceeded');
+    expect(await axeSerious(page), 'with the failed-save message').toEqual([]);
     // The stored copy is the last good one.
     expect(await stored(page, 'library')).toEqual(good);
 
@@ -149,6 +151,7 @@ describe('storage faults', () => {
     await expect(alert.innerText()).resolves.toMatch(/failed its integrity check/);
     await expect(alert.innerText()).resolves.toMatch(/Nothing has been overwritten/);
     await screenshot(page, 'storage-corrupted');
+    expect(await axeSerious(page), 'with the unusable-copy message').toEqual([]);
     // The unusable copy is kept aside, and an edit in this tab does not overwrite it.
     expect(((await stored(page, 'library.unusable-copy')) as { raw: unknown }).raw).toEqual(corrupt);
     await rename(page, 'BW-190', 'Edit while saving is paused');
@@ -306,6 +309,7 @@ describe('storage faults', () => {
     }
     await reminder.waitFor();
     await screenshot(page, 'storage-backup-reminder');
+    expect(await axeSerious(page), 'with the backup reminder').toEqual([]);
     const download = page.waitForEvent('download');
     await reminder.getByRole('button', { name: 'Export everything' }).click();
     const text = readFileSync(await (await download).path(), 'utf8');
