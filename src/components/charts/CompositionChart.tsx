@@ -31,7 +31,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
     .join('; ');
   const labelWidth = Math.min(110, 14 + 7 * Math.max(4, ...rows.map((r) => r.label.length)));
   return (
-    <figure className="chart" data-chart="composition">
+    <figure className="chart" data-chart="composition" style={{ width }}>
       <figcaption className="chart-title">Composition and cost contribution</figcaption>
       <div role="img" aria-label={`Composition and cost contribution. ${describe}`} className="chart-pair">
         <BarChart width={half} height={height} data={data} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>

@@ -37,15 +37,13 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   const frontier = data.filter((p) => p.kind === 'frontier' || (p.kind === 'selected' && isOnFrontier(p, data))).sort((a, b) => a.x - b.x);
   const xs = data.map((p) => p.x);
   const ys = data.map((p) => p.y);
-  const pad = (lo: number, hi: number) => {
-    const d = Math.max((hi - lo) * 0.08, Math.abs(hi) * 0.01, 0.01);
-    return [lo - d, hi + d] as [number, number];
-  };
-  const xDomain = xs.length ? pad(Math.min(...xs), Math.max(...xs)) : ([0, 1] as [number, number]);
-  const yDomain = ys.length ? pad(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
+  const xDomain = xs.length ? niceDomain(Math.min(...xs), Math.max(...xs)) : ([0, 1] as [number, number]);
+  const yDomain = ys.length ? niceDomain(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
+  const xTicks = ticksOf(xDomain);
+  const yTicks = ticksOf(yDomain);
   const title = `Cost–solvency frontier (cost per litre against blend aniline point; lower aniline point = more solvent)`;
   return (
-    <figure className="chart" data-chart="frontier">
+    <figure className="chart" data-chart="frontier" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${points.length} candidates, ${frontier.length} on the frontier.`}>
         <ComposedChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
@@ -54,15 +52,17 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             type="number"
             dataKey="x"
             domain={xDomain}
-            tickFormatter={(v: number) => v.toFixed(2)}
+            ticks={xTicks}
+            tickFormatter={(v: number) => v.toFixed(decimalsFor(xDomain))}
             label={{ value: `cost, ${currency} per litre`, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
             type="number"
             dataKey="y"
             domain={yDomain}
+            ticks={yTicks}
             width={64}
-            tickFormatter={(v: number) => v.toFixed(0)}
+            tickFormatter={(v: number) => v.toFixed(decimalsFor(yDomain))}
             label={{ value: 'aniline point, °C', angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[50, 50]} />
@@ -85,9 +85,9 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
       </div>
       <ul className="chart-legend" aria-hidden="true">
         <li><span className="swatch swatch-frontier" /> frontier</li>
-        <li><span className="swatch swatch-reference" /> reference</li>
-        <li><span className="swatch swatch-candidate" /> selected</li>
-        <li><span className="swatch swatch-component" /> other candidates</li>
+        <li><span className="dot dot-reference" /> reference</li>
+        <li><span className="dot dot-selected" /> selected</li>
+        <li><span className="dot dot-other" /> other candidates</li>
       </ul>
     </figure>
   );
@@ -95,4 +95,31 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
 
 function isOnFrontier(p: { x: number; y: number }, all: readonly { x: number; y: number; kind: string }[]): boolean {
   return !all.some((q) => q.kind !== 'reference' && q !== p && q.x <= p.x && q.y <= p.y && (q.x < p.x || q.y < p.y));
+}
+
+/** A 1–2–5 step giving about `n` intervals over `span`. */
+function niceStep(span: number, n = 5): number {
+  const raw = span / n;
+  const p = 10 ** Math.floor(Math.log10(raw));
+  const m = raw / p;
+  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10) * p;
+}
+
+/** Domain padded a little and rounded out to round steps. */
+export function niceDomain(lo: number, hi: number): [number, number] {
+  const span = hi - lo || Math.abs(hi) * 0.1 || 1;
+  const step = niceStep(span * 1.1);
+  return [Math.floor((lo - span * 0.04) / step) * step, Math.ceil((hi + span * 0.04) / step) * step];
+}
+
+function ticksOf([lo, hi]: [number, number]): number[] {
+  const step = niceStep(hi - lo);
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toFixed(10)));
+  return out;
+}
+
+function decimalsFor([lo, hi]: [number, number]): number {
+  const step = niceStep(hi - lo);
+  return Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
 }

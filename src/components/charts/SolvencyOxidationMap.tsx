@@ -56,10 +56,10 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.solvency, y: p.oxidation }));
   const describe = points.map((p) => `${p.label}: ${xLabel} ${p.solvency.toFixed(1)}, ${yLabel} ${p.oxidation.toFixed(1)}`).join('; ');
   return (
-    <figure className="chart" data-chart="solvency-oxidation">
+    <figure className="chart" data-chart="solvency-oxidation" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`}>
-        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 24 }}>
+        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: formatY ? 52 : 36 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           {riskRegion && (
             <ReferenceArea
@@ -86,7 +86,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             dataKey="y"
             domain={[...yDomain]}
             name={yLabel}
-            width={formatY ? 92 : 60}
+            width={formatY ? 100 : 60}
             tickFormatter={formatY}
             ticks={formatY ? integerTicks(yDomain) : undefined}
             label={{ value: yLabel, angle: -90, position: 'left', offset: 0, style: { textAnchor: 'middle' } }}
@@ -106,9 +106,9 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
         </ScatterChart>
       </div>
       <ul className="chart-legend" aria-hidden="true">
-        <li><span className="swatch swatch-reference" /> reference</li>
-        <li><span className="swatch swatch-candidate" /> selected</li>
-        <li><span className="swatch swatch-component" /> other candidates</li>
+        <li><span className="dot dot-reference" /> reference</li>
+        <li><span className="dot dot-selected" /> selected</li>
+        <li><span className="dot dot-other" /> other candidates</li>
       </ul>
     </figure>
   );

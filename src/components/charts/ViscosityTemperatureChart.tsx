@@ -106,7 +106,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
   const describe = lines.map((l) => `${l.label}: ${fmt(l.kv40)} mm²/s at 40 °C, ${fmt(l.kv100)} at 100 °C`).join('; ');
 
   return (
-    <figure className="chart" data-chart="viscosity-temperature">
+    <figure className="chart" data-chart="viscosity-temperature" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`}>
         <LineChart width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 28 }}>

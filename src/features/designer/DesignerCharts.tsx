@@ -72,7 +72,7 @@ export default function DesignerCharts({ view, prediction, components, reference
   }, [reference, prediction]);
 
   const full = Math.max(320, width);
-  const half = full >= 900 ? Math.floor((full - 24) / 2) : full;
+  const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
   const apValues = mapPoints.map((p) => p.solvency);
   const apLo = Math.floor((Math.min(80, ...apValues) - 5) / 10) * 10;
   const apHi = Math.ceil((Math.max(140, ...apValues) + 5) / 10) * 10;

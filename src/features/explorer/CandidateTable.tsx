@@ -29,12 +29,15 @@ export const CandidateTable = memo(function CandidateTable({
   referenceCost,
   frontierCount,
   total,
+  forcedIds,
 }: {
   candidates: readonly SubstituteCandidate[];
   components: ReadonlyMap<string, Component>;
   referenceCost: number | null;
   frontierCount: number;
   total: number;
+  /** Components in every candidate (the fixed additive): listed once, above the table. */
+  forcedIds: readonly string[];
 }) {
   const fmt = useFormat();
   const sort = useExplorerStore((s) => s.sort);
@@ -55,6 +58,11 @@ export const CandidateTable = memo(function CandidateTable({
       <h3 id="cand-h">
         Candidates <span className="muted">({total} distinct recipes{total > candidates.length ? `, best ${candidates.length} listed` : ''}; {frontierCount} on the cost–solvency frontier)</span>
       </h3>
+      {forcedIds.length > 0 && (
+        <p className="muted">
+          Every candidate also holds {forcedIds.map((id) => components.get(id)?.code ?? id).join(', ')} at its fixed share (not repeated below).
+        </p>
+      )}
       <table className="data-table" data-testid="candidates">
         <thead>
           <tr>
@@ -80,7 +88,7 @@ export const CandidateTable = memo(function CandidateTable({
               <tr key={c.key} className={isSel ? 'selected' : undefined} aria-selected={isSel} data-key={c.key}>
                 <td className="num">{c.rank}</td>
                 <td className="recipe-cell">
-                  {c.lines.map((l) => (
+                  {c.lines.filter((l) => !forcedIds.includes(l.componentId)).map((l) => (
                     <span key={l.componentId} className="chip">
                       <span className="code">{components.get(l.componentId)?.code ?? l.componentId}</span> {fmt.num(l.massFraction * 100, 1)}
                     </span>

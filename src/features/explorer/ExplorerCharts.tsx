@@ -84,7 +84,7 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
   }, [selected, byId, refAssessed, reference]);
 
   const full = Math.max(320, width);
-  const half = full >= 900 ? Math.floor((full - 24) / 2) : full;
+  const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
   const aps = mapPoints.map((p) => p.solvency);
   const apLo = Math.floor((Math.min(...aps) - 3) / 5) * 5;
   const apHi = Math.ceil((Math.max(...aps) + 3) / 5) * 5;

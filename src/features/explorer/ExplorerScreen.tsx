@@ -157,6 +157,7 @@ export default function ExplorerScreen() {
                 referenceCost={refAssessed?.props.costPerLitre ?? null}
                 frontierCount={st.result.frontier.length}
                 total={st.result.distinct}
+                forcedIds={st.result.forcedIds}
               />
               {selected && reference && (
                 <ComparisonPanel
