@@ -1,16 +1,24 @@
-import type { Component, PriceBasis } from '../../core/model';
+import type { Component, PriceBasis, Recipe } from '../../core/model';
 import { oxidationRating } from '../../core/oxidation';
 import { PRICE_BASIS_LABEL } from '../../core/units';
 import { pricePerKg } from '../../core/cost';
 import { NumberField, SelectField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { checkValue } from '../../state/checks';
+import { CalibrationPanel, type BlendRule } from './CalibrationPanel';
 
 const BASIS_OPTIONS = (Object.keys(PRICE_BASIS_LABEL) as PriceBasis[]).map((b) => ({ value: b, label: PRICE_BASIS_LABEL[b] }));
 
 export interface DetailsProps {
   c: Component;
   usedIn: string[];
+  /** The whole library and the recipes (for the calibration trial blend). */
+  components: readonly Component[];
+  recipes: readonly Recipe[];
+  /** Blending rule from the settings (the calibration form's default). */
+  defaultMethod: BlendRule;
+  /** Today's ISO date (YYYY-MM-DD), passed in by the screen. */
+  today: string;
   onUpdate: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
 }
 
@@ -23,7 +31,7 @@ function safePerKg(c: Component): number | null {
 }
 
 /** The fields that do not fit in the table row, for one stock. */
-export function ComponentDetails({ c, usedIn, onUpdate }: DetailsProps) {
+export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod, today, onUpdate }: DetailsProps) {
   const fmt = useFormat();
   const who = c.code || 'new stock';
   const perKg = safePerKg(c);
@@ -174,23 +182,16 @@ export function ComponentDetails({ c, usedIn, onUpdate }: DetailsProps) {
           Add a measured point
         </button>
       </fieldset>
-      <fieldset>
-        <legend>Polymer calibration</legend>
-        {c.calibration ? (
-          <>
-            <p className="small">
-              Effective blending viscosities ν40 {fmt.sig(c.calibration.effectiveKv40, 4)} / ν100 {fmt.sig(c.calibration.effectiveKv100, 4)} mm²/s (
-              {c.calibration.method === 'refutas' ? 'Refutas' : 'ASTM D7152'}), from trial {c.calibration.trial.labReference || '(no reference)'} on{' '}
-              {c.calibration.calibratedOn}.
-            </p>
-            <button type="button" onClick={() => onUpdate(c.id, { calibration: null })}>
-              Remove calibration
-            </button>
-          </>
-        ) : (
-          <p className="muted small">None. Polymers blend non-ideally: until a calibration from a measured trial blend is stored, predictions for blends with this stock are less certain.</p>
-        )}
-      </fieldset>
+      <CalibrationPanel
+        key={c.id}
+        c={c}
+        components={components}
+        recipes={recipes}
+        defaultMethod={defaultMethod}
+        today={today}
+        fmt={fmt}
+        onStore={(calibration) => onUpdate(c.id, { calibration })}
+      />
       <fieldset className="wide">
         <legend>Provenance</legend>
         <TextField label="Source" size={36} maxLength={300} value={c.source} onCommit={(v) => onUpdate(c.id, { source: v })} />

@@ -5,12 +5,17 @@ import { CATEGORY_LABEL } from '../../core/model';
 import { DemoTag, Notice } from '../../components/notices';
 import { downloadText } from '../../components/download';
 import { useFormat } from '../../components/format';
-import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes } from '../../state';
+import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
 import { libraryToCsv, libraryToJson } from '../../state/library-io';
 import { checkComponent } from '../../state/checks';
 import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
 import { ComponentDetails } from './ComponentDetails';
 import { ImportPanel } from './ImportPanel';
+
+function localIsoDate(d: Date): string {
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
 
 type Flash = { tone: 'info' | 'success' | 'warning'; text: string; undo?: boolean } | null;
 
@@ -19,6 +24,7 @@ export default function LibraryScreen() {
   const recipes = useRecipes((s) => s.recipes);
   const history = useLibraryHistory();
   const fmt = useFormat();
+  const blendMethod = useSettings().blendMethod;
   const [query, setQuery] = useState('');
   const [category, setCategory] = useState<ComponentCategory | 'all'>('all');
   const [expanded, setExpanded] = useState<string | null>(null);
@@ -84,6 +90,7 @@ export default function LibraryScreen() {
 
   const hasDemo = components.some(isDemoComponent);
   const stamp = new Date().toISOString().slice(0, 10);
+  const today = localIsoDate(new Date());
 
   return (
     <section className="library-screen" aria-labelledby="library-h">
@@ -237,7 +244,15 @@ export default function LibraryScreen() {
                 {expanded === c.id ? (
                   <tr className="details-row" id={`details-${c.id}`}>
                     <td colSpan={12}>
-                      <ComponentDetails c={c} usedIn={usedIn.get(c.id) ?? []} onUpdate={onUpdate} />
+                      <ComponentDetails
+                        c={c}
+                        usedIn={usedIn.get(c.id) ?? []}
+                        components={components}
+                        recipes={recipes}
+                        defaultMethod={blendMethod}
+                        today={today}
+                        onUpdate={onUpdate}
+                      />
                     </td>
                   </tr>
                 ) : null}
