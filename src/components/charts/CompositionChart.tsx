@@ -1,6 +1,7 @@
 import { memo } from 'react';
 import { Bar, BarChart, CartesianGrid, Legend, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { niceStep, niceTicks, tickDecimals } from './nice';
 
 export interface CompositionRow {
   id: string;
@@ -25,6 +26,13 @@ export interface CompositionChartProps {
 /** Composition (mass % and volume %) and cost contribution per component, side by side. */
 export const CompositionChart = memo(function CompositionChart({ rows, currency, width, height }: CompositionChartProps) {
   const half = Math.floor((width - 16) / 2);
+  const up = (v: number) => {
+    const step = niceStep(v, 4);
+    return Math.ceil(v / step - 1e-9) * step;
+  };
+  const pctDomain: [number, number] = [0, up(Math.max(1, ...rows.map((r) => Math.max(r.massPct, r.volumePct))))];
+  const costDomain: [number, number] = [0, up(Math.max(1e-3, ...rows.map((r) => r.costPerLitre)))];
+  const fullCostTicks = niceTicks(costDomain, 4);
   const data = rows.map((r) => ({ ...r, cost: r.costPerLitre }));
   const describe = rows
     .map((r) => `${r.label}: ${r.massPct.toFixed(1)} % by mass, ${r.volumePct.toFixed(1)} % by volume, ${r.costPerLitre.toFixed(3)} ${currency}/L`)
@@ -36,7 +44,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
       <div role="img" aria-label={`Composition and cost contribution. ${describe}`} className="chart-pair">
         <BarChart width={half} height={height} data={data} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-          <XAxis type="number" unit=" %" domain={[0, 'auto']} />
+          <XAxis type="number" unit=" %" domain={pctDomain} ticks={niceTicks(pctDomain, 4)} />
           <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
           <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(2)} %`} />
           <Legend verticalAlign="top" height={22} />
@@ -45,7 +53,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
         </BarChart>
         <BarChart width={half} height={height} data={data} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-          <XAxis type="number" domain={[0, 'auto']} tickFormatter={(v: number) => v.toFixed(2)} />
+          <XAxis type="number" domain={costDomain} ticks={fullCostTicks} tickFormatter={(v: number) => v.toFixed(tickDecimals(costDomain, 4))} />
           <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
           <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(3)} ${currency}/L`} />
           <Legend verticalAlign="top" height={22} />

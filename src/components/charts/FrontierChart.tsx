@@ -1,6 +1,7 @@
 import { memo } from 'react';
 import { CartesianGrid, Cell, Line, ComposedChart, Scatter, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { niceDomain, niceTicks, tickDecimals } from './nice';
 
 export interface FrontierPoint {
   id: string;
@@ -39,8 +40,8 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   const ys = data.map((p) => p.y);
   const xDomain = xs.length ? niceDomain(Math.min(...xs), Math.max(...xs)) : ([0, 1] as [number, number]);
   const yDomain = ys.length ? niceDomain(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
-  const xTicks = ticksOf(xDomain);
-  const yTicks = ticksOf(yDomain);
+  const xTicks = niceTicks(xDomain);
+  const yTicks = niceTicks(yDomain);
   const title = `Cost–solvency frontier (cost per litre against blend aniline point; lower aniline point = more solvent)`;
   return (
     <figure className="chart" data-chart="frontier" style={{ width }}>
@@ -53,7 +54,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             dataKey="x"
             domain={xDomain}
             ticks={xTicks}
-            tickFormatter={(v: number) => v.toFixed(decimalsFor(xDomain))}
+            tickFormatter={(v: number) => v.toFixed(tickDecimals(xDomain))}
             label={{ value: `cost, ${currency} per litre`, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
@@ -62,7 +63,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             domain={yDomain}
             ticks={yTicks}
             width={64}
-            tickFormatter={(v: number) => v.toFixed(decimalsFor(yDomain))}
+            tickFormatter={(v: number) => v.toFixed(tickDecimals(yDomain))}
             label={{ value: 'aniline point, °C', angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[50, 50]} />
@@ -97,29 +98,3 @@ function isOnFrontier(p: { x: number; y: number }, all: readonly { x: number; y:
   return !all.some((q) => q.kind !== 'reference' && q !== p && q.x <= p.x && q.y <= p.y && (q.x < p.x || q.y < p.y));
 }
 
-/** A 1–2–5 step giving about `n` intervals over `span`. */
-function niceStep(span: number, n = 5): number {
-  const raw = span / n;
-  const p = 10 ** Math.floor(Math.log10(raw));
-  const m = raw / p;
-  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10) * p;
-}
-
-/** Domain padded a little and rounded out to round steps. */
-export function niceDomain(lo: number, hi: number): [number, number] {
-  const span = hi - lo || Math.abs(hi) * 0.1 || 1;
-  const step = niceStep(span * 1.1);
-  return [Math.floor((lo - span * 0.04) / step) * step, Math.ceil((hi + span * 0.04) / step) * step];
-}
-
-function ticksOf([lo, hi]: [number, number]): number[] {
-  const step = niceStep(hi - lo);
-  const out: number[] = [];
-  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toFixed(10)));
-  return out;
-}
-
-function decimalsFor([lo, hi]: [number, number]): number {
-  const step = niceStep(hi - lo);
-  return Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
-}

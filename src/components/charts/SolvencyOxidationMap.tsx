@@ -1,6 +1,7 @@
 import { memo } from 'react';
 import { CartesianGrid, Cell, ReferenceArea, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { niceTicks } from './nice';
 
 export interface MapPoint {
   id: string;
@@ -77,6 +78,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             dataKey="x"
             domain={[...xDomain]}
             reversed={xReversed}
+            ticks={niceTicks(xDomain)}
             name={xLabel}
             tickFormatter={formatX}
             label={{ value: xLabel, position: 'insideBottom', offset: -18 }}

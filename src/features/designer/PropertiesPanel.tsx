@@ -237,7 +237,7 @@ export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targe
                             className="link"
                             aria-expanded={isOpen}
                             aria-controls={detailId}
-                            aria-label={`Show working for ${r.label}`}
+                            aria-label={`${isOpen ? 'hide' : 'show'} working for ${r.label}`}
                             onClick={() => toggle(r.key)}
                           >
                             {isOpen ? 'hide working' : 'show working'}

@@ -194,7 +194,6 @@ export const TargetsForm = memo(function TargetsForm({
                     </td>
                     <th scope="row" title={`${c.name} (${CATEGORY_LABEL[c.category]})`}>
                       {c.code}
-                      {c.availability === 'limited' ? <span className="tag"> limited</span> : null}
                     </th>
                     <td>
                       <BoundInput

@@ -55,3 +55,17 @@ describe('ASTM D341 chart axes', () => {
     expect(formatKvTick(320)).toBe('320');
   });
 });
+
+describe('round linear ticks', () => {
+  it('gives 1–2–5 steps that cover the domain', async () => {
+    const { niceDomain, niceTicks, niceStep } = await import('../../../src/components/charts/nice');
+    // arithmetic identities of the 1–2–5 rule, common practice (no source)
+    expect(niceStep(10, 5)).toBe(2);
+    expect(niceStep(0.9, 5)).toBe(0.2);
+    const d = niceDomain(1.37, 4.4);
+    expect(d[0]).toBeLessThanOrEqual(1.37);
+    expect(d[1]).toBeGreaterThanOrEqual(4.4);
+    expect(niceTicks([0, 160])).toEqual([0, 50, 100, 150]);
+    expect(niceTicks([70, 160])).toEqual([80, 100, 120, 140, 160]);
+  });
+});

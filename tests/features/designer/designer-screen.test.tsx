@@ -67,12 +67,12 @@ describe('Recipe designer', () => {
 
   it('shows the working of a predicted number: equation, standard and inputs', () => {
     render(<DesignerScreen />);
-    fireEvent.click(screen.getByLabelText('Show working for Viscosity at 40 °C'));
+    fireEvent.click(screen.getByLabelText('show working for Viscosity at 40 °C'));
     const working = document.getElementById('working-kv40')!;
     expect(working.textContent).toMatch(/VBN/);
     expect(working.textContent).toMatch(/Refutas/);
     expect(working.textContent).toMatch(/BW-190/);
-    fireEvent.click(screen.getByLabelText('Show working for Viscosity index'));
+    fireEvent.click(screen.getByLabelText('show working for Viscosity index'));
     expect(document.getElementById('working-vi')!.textContent).toMatch(/ASTM D2270/);
   });
 

@@ -1,0 +1,109 @@
+// Recipe designer in the built app (Chromium via playwright-core): solve, live edit, working, save, reload.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { launch, screenshot, type Session } from './support';
+import { axeSerious } from './axe';
+
+/** One saved-work record straight from IndexedDB (database `blendbench`, store `saved-work`). */
+async function stored(page: Page, key: string): Promise<unknown> {
+  return page.evaluate(
+    (k) =>
+      new Promise((resolve, reject) => {
+        const open = indexedDB.open('blendbench');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const req = open.result.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
+          req.onsuccess = () => resolve(req.result);
+          req.onerror = () => reject(req.error);
+        };
+      }),
+    key,
+  );
+}
+
+const kvOf = async (page: Page) => Number((await page.getByTestId('prop-kv40').innerText()).replace(/[^\d.]/g, ''));
+
+describe('recipe designer', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('first start shows the invented demo, and solving VG 320 for least cost gives an in-grade recipe', async () => {
+    const { page } = s;
+    await page.goto(inject('baseURL'));
+    await expect(page.getByText(/invented demo data/i).first().isVisible()).resolves.toBe(true);
+    await page.getByRole('link', { name: /Recipe designer/ }).click();
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await page.getByLabel('ISO viscosity grade', { exact: true }).selectOption('320');
+    await expect(page.getByLabel('Least cost per litre').isChecked()).resolves.toBe(true);
+    await page.getByRole('button', { name: 'Solve', exact: true }).click();
+    await page.getByText('Solved', { exact: true }).waitFor();
+    const kv40 = await kvOf(page);
+    // ISO 3448 band of VG 320: 288–352 mm²/s, inclusive (shared/reference/check-values.md G2)
+    expect(kv40).toBeGreaterThanOrEqual(288);
+    expect(kv40).toBeLessThanOrEqual(352);
+    await expect(page.getByTestId('prop-grade').innerText()).resolves.toBe('VG 320');
+    await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
+    // the caution sits with the numbers
+    await expect(page.getByTestId('predicted').getByText(/laboratory confirmation/i).isVisible()).resolves.toBe(true);
+    await page.waitForSelector('[data-chart="viscosity-temperature"] .recharts-line-curve');
+    await screenshot(page, 'designer');
+  });
+
+  it('recomputes while a fraction is typed, and shows the working of a number', async () => {
+    const { page } = s;
+    const before = await kvOf(page);
+    const first = page.getByTestId('recipe-lines').locator('input.pct-input').first();
+    const label = (await first.getAttribute('aria-label')) ?? '';
+    await first.fill('');
+    await first.pressSequentially('10');
+    const after = await kvOf(page);
+    expect(after).not.toBe(before);
+    await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
+    await first.press('Tab');
+    await expect(page.getByLabel(label).inputValue()).resolves.toBe('10.00');
+    await page.getByLabel('show working for Viscosity at 40 °C').click();
+    await expect(page.locator('#working-kv40').innerText()).resolves.toMatch(/Refutas/);
+    await page.getByLabel('show working for Viscosity index').click();
+    await expect(page.locator('#working-vi').innerText()).resolves.toMatch(/ASTM D2270/);
+    await screenshot(page, 'designer-working');
+    expect(await axeSerious(page)).toEqual([]);
+  });
+
+  it('an impossible target shows the reason and a suggested fix', async () => {
+    const { page } = s;
+    await page.getByLabel('ISO viscosity grade', { exact: true }).selectOption('1000');
+    await page.getByLabel(/^Maximum polymer/).fill('0');
+    await page.getByLabel(/^Maximum polymer/).press('Enter');
+    await page.getByText('Per-stock limits and exclusions').click();
+    for (const code of ['BW-499']) await page.getByLabel(`Use ${code}`, { exact: true }).uncheck();
+    await page.getByRole('button', { name: 'Solve', exact: true }).click();
+    await page.getByText('No recipe meets these targets').waitFor();
+    await expect(page.getByTestId('infeasible-reason').innerText()).resolves.toMatch(/mm²\/s/);
+    await expect(page.getByText('Suggested fix:').isVisible()).resolves.toBe(true);
+    await screenshot(page, 'designer-infeasible');
+  });
+
+  it('saves the recipe, which is still there after a reload', async () => {
+    const { page } = s;
+    await page.getByLabel('ISO viscosity grade', { exact: true }).selectOption('320');
+    await page.getByRole('button', { name: 'Solve', exact: true }).click();
+    await page.getByText('Solved', { exact: true }).waitFor();
+    await page.getByLabel('Recipe name', { exact: true }).fill('Trial VG 320 least cost');
+    await page.getByRole('button', { name: 'Save as new recipe' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(page, 'recipes')), { timeout: 5000 }).toContain('Trial VG 320 least cost');
+    await page.reload();
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    // the saved recipe is the active one: the designer opens it
+    await expect(page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).resolves.toMatch(/Trial VG 320 least cost/);
+    const kv40 = await kvOf(page);
+    expect(kv40).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (shared/reference/check-values.md G2)
+    expect(kv40).toBeLessThanOrEqual(352);
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
