@@ -1,0 +1,90 @@
+// Substitute explorer in the built app (Chromium via playwright-core): the search runs in a module
+// Web Worker; ranked candidates, comparison, adoption, and the adopted recipe after a reload.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { launch, screenshot, type Session } from './support';
+import { axeSerious } from './axe';
+
+async function stored(page: Page, key: string): Promise<unknown> {
+  return page.evaluate(
+    (k) =>
+      new Promise((resolve, reject) => {
+        const open = indexedDB.open('blendbench');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const req = open.result.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
+          req.onsuccess = () => resolve(req.result);
+          req.onerror = () => reject(req.error);
+        };
+      }),
+    key,
+  );
+}
+
+describe('substitute explorer', () => {
+  let s: Session;
+  let adoptedName = '';
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('marking the heavy Group I stock withdrawn and running the search lists ranked candidates', async () => {
+    const { page } = s;
+    await page.goto(inject('baseURL'));
+    await expect(page.getByText(/invented demo data/i).first().isVisible()).resolves.toBe(true);
+    await page.getByRole('link', { name: /Substitute explorer/ }).click();
+    await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
+    await expect(page.getByLabel('Reference recipe (the one to replace)').locator('option:checked').innerText()).resolves.toMatch(/VG 320/);
+    await page.getByLabel('Treat BW-190 as withdrawn').check();
+    await page.getByRole('button', { name: 'Run search' }).click();
+    const table = page.getByTestId('candidates');
+    await table.waitFor({ timeout: 60_000 });
+    // the progress bar ends full, with the count of combinations solved
+    const [value, max] = await page.locator('#explorer-progress').evaluate((el: HTMLProgressElement) => [el.value, el.max]);
+    expect(value).toBe(max);
+    const rows = table.locator('tbody tr');
+    expect(await rows.count()).toBeGreaterThanOrEqual(3);
+    const ranks = (await rows.locator('td:first-child').allInnerTexts()).map(Number);
+    expect(ranks).toEqual([...ranks].sort((a, b) => a - b));
+    const costs = (await rows.locator('td:nth-child(3)').allInnerTexts()).map(Number);
+    for (let i = 1; i < costs.length; i++) expect(costs[i]!).toBeGreaterThanOrEqual(costs[i - 1]!);
+    await expect(table.innerText()).resolves.not.toContain('BW-190');
+    // side-by-side comparison of the best candidate with the reference, caution included
+    const cmp = page.getByTestId('comparison');
+    await expect(cmp.getByText('Cost per litre', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(cmp.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
+    await page.waitForSelector('[data-chart="frontier"] .recharts-scatter-symbol');
+    // sorting by a column
+    await page.getByRole('button', { name: /^VI/ }).click();
+    await expect(page.getByRole('columnheader', { name: /^VI/ }).getAttribute('aria-sort')).resolves.toBe('descending');
+    await page.getByRole('button', { name: /^Rank/ }).click();
+    await screenshot(page, 'explorer');
+    expect(await axeSerious(page)).toEqual([]);
+  });
+
+  it('adopting a candidate creates a recipe that is still there after a reload', async () => {
+    const { page } = s;
+    await page.getByRole('button', { name: 'Adopt as a new recipe' }).click();
+    const adopted = page.getByTestId('adopted');
+    await adopted.waitFor();
+    adoptedName = /“(.+)”/.exec(await adopted.innerText())?.[1] ?? '';
+    expect(adoptedName).toMatch(/^VG 320 substitute: /);
+    await expect.poll(async () => JSON.stringify(await stored(page, 'recipes')), { timeout: 5000 }).toContain(adoptedName);
+    await page.reload();
+    await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
+    // library and settings are back too (demo label from the library; recipes in the reference list)
+    await expect(page.getByText(/invented demo data/i).first().isVisible()).resolves.toBe(true);
+    await expect(page.getByLabel('Reference recipe (the one to replace)').locator('option', { hasText: adoptedName }).count()).resolves.toBe(1);
+    // the adopted recipe is the active one: the designer opens it, in grade
+    await page.getByRole('link', { name: /Recipe designer/ }).click();
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await expect(page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).resolves.toContain(adoptedName);
+    await expect(page.getByTestId('prop-grade').innerText()).resolves.toBe('VG 320');
+    await screenshot(page, 'designer-adopted');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
