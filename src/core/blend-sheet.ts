@@ -17,6 +17,15 @@ import { CATEGORY_LABEL } from './model';
 import { BlendbenchInputError, assertFinite } from './errors';
 import { batchQuantities, pricePerKg, type BatchSize } from './cost';
 import { gradeBand } from './iso-grades';
+import { cToF } from './units';
+
+/** Temperature unit a sheet prints in; values are always computed in °C. */
+export type SheetTemperatureUnit = 'C' | 'F';
+
+/** A temperature [°C] in the sheet's unit, rounded to whole degrees (as the plant reads a gauge). */
+function sheetTemp(tC: number, unit: SheetTemperatureUnit): number {
+  return Math.round(unit === 'F' ? cToF(tC) : tC);
+}
 
 // ---------------------------------------------------------------------------------------------
 // Batch size and rounding
@@ -406,6 +415,8 @@ export interface InstructionOptions {
   heatToC?: readonly [number, number];
   /** Mixing time range [min]; default 30–60 (common practice, domain notes). */
   mixMinutes?: readonly [number, number];
+  /** Unit the temperatures are printed in; default 'C' (°F = °C × 9/5 + 32, rounded to whole degrees). */
+  temperatureUnit?: SheetTemperatureUnit;
 }
 
 /**
@@ -421,7 +432,11 @@ export interface InstructionOptions {
  * @returns the steps, without numbers (the view numbers them)
  */
 export function defaultBlendingInstructions(sheet: BlendSheet, options: InstructionOptions = {}): string[] {
-  const [tLo, tHi] = options.heatToC ?? [50, 65];
+  const [cLo, cHi] = options.heatToC ?? [50, 65];
+  const unit = options.temperatureUnit ?? 'C';
+  const tLo = sheetTemp(cLo, unit);
+  const tHi = sheetTemp(cHi, unit);
+  const deg = unit === 'F' ? '°F' : '°C';
   const [mLo, mHi] = options.mixMinutes ?? [30, 60];
   const codes = (role: ChargeRole) =>
     sheet.rows.filter((r) => r.role === role).map((r) => `${r.code} (step ${r.chargeOrder})`);
@@ -435,7 +450,7 @@ export function defaultBlendingInstructions(sheet: BlendSheet, options: Instruct
   if (base.length > 0) {
     steps.push(`Charge the base stocks in the order listed: ${list(base)}. Start the agitator once the blades are covered.`);
   }
-  steps.push(`Heat to ${tLo}–${tHi} °C with agitation; do not exceed ${tHi} °C.`);
+  steps.push(`Heat to ${tLo}–${tHi} ${deg} with agitation; do not exceed ${tHi} ${deg}.`);
   if (boost.length > 0) steps.push(`Add the solvency booster(s): ${list(boost)}.`);
   if (poly.length > 0) {
     steps.push(
@@ -444,7 +459,7 @@ export function defaultBlendingInstructions(sheet: BlendSheet, options: Instruct
     );
   }
   if (add.length > 0) {
-    steps.push(`Add the additive package last, at no more than ${tHi} °C: ${list(add)}.`);
+    steps.push(`Add the additive package last, at no more than ${tHi} ${deg}: ${list(add)}.`);
   }
   steps.push(`Mix for ${mLo}–${mHi} min until uniform; check the charged quantities against the running totals.`);
   steps.push('Take a QC sample from the mixed batch; hold the batch until the laboratory releases it.');
@@ -489,6 +504,12 @@ export interface QcOptions {
   flashMargin?: number;
   /** Pour point may rise this far above the estimate [°C]; default 6 (two ASTM D97 3 °C steps). */
   pourMargin?: number;
+  /**
+   * Unit the flash, pour and aniline points and the operating temperature are printed in; default 'C'.
+   * Limits are set in °C, then converted and rounded to whole degrees; `min`/`max` of those rows are
+   * in this unit too. The standard test temperatures (40, 100 and 15 °C) stay in °C.
+   */
+  temperatureUnit?: SheetTemperatureUnit;
 }
 
 export type QcKey =
@@ -641,7 +662,26 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       min: null, max: null, method: 'ASTM D892', release: true,
     },
   );
-  return rows.map((r) => ({ ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) }));
+  const unit = options.temperatureUnit ?? 'C';
+  return rows.map((r) => {
+    const judged = { ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) };
+    return unit === 'C' ? judged : inFahrenheit(judged, predicted);
+  });
+}
+
+/** A QC row's temperatures re-expressed in °F (judged in °C before, so the verdict does not change). */
+function inFahrenheit(r: QcRow, p: SheetPrediction): QcRow {
+  const f = (tC: number) => sheetTemp(tC, 'F');
+  const value: Partial<Record<QcKey, number | null>> = { flash: p.flashPoint, pour: p.pourPoint, aniline: p.anilinePoint };
+  if (r.key === 'kvOperating' && p.operating !== null) {
+    return { ...r, property: `Viscosity at ${f(p.operating.tempC)} °F (calculated)` };
+  }
+  if (!(r.key in value)) return r;
+  const v = value[r.key];
+  const min = r.min === null ? null : f(r.min);
+  const max = r.max === null ? null : f(r.max);
+  const target = min !== null ? `≥ ${min}` : max !== null ? `≤ ${max}` : r.target;
+  return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : String(f(v)), target, min, max };
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */

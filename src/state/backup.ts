@@ -43,7 +43,7 @@ export function makeBackupText(now = new Date()): string {
       library: { version: LIBRARY_SPEC.version, data: { components: lib.components } },
       recipes: {
         version: RECIPES_SPEC.version,
-        data: { recipes: rec.recipes, targets: rec.targets, activeRecipeId: rec.activeRecipeId },
+        data: { recipes: rec.recipes, targets: rec.targets, activeRecipeId: rec.activeRecipeId, sheets: rec.sheets },
       },
       settings: { version: SETTINGS_SPEC.version, data: { settings: set.settings } },
     },

@@ -22,6 +22,8 @@
  *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes? }) → id
  *     | updateRecipe(id, patch) | setLines(id, lines) | raiseRevision(id) | duplicateRecipe(id, name?) → id
  *     | removeRecipe(id) | setActiveRecipe(id) | setTargets(recipeId, BlendTargets)
+ *     | setSheetInputs(recipeId, Partial<SheetInputs>) (blend-sheet lot, batch size/unit, vessel, edited
+ *       instructions; saved, not an undo step; read with useRecipes(s => s.sheets[id]))
  *     (also available as useRecipes.getState().addRecipe … )
  *   settingsActions.updateSettings(patch)
  *   defaultTargets(grade, additiveId, referenceRecipeId) → BlendTargets
@@ -49,7 +51,8 @@ import { demoComponents, demoSettingsPatch } from './demo';
 
 export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
-export type { RecipesState, RecipesData, NewRecipe } from './recipes';
+export type { RecipesState, RecipesData, NewRecipe, SheetInputs } from './recipes';
+export { DEFAULT_SHEET_INPUTS } from './recipes';
 export { blankComponent, freeCode } from './library';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS } from './settings';
@@ -85,6 +88,8 @@ export const recipeActions = {
   setActiveRecipe: (id: string | null) => useRecipesStore.getState().setActiveRecipe(id),
   setTargets: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setTargets']>) =>
     useRecipesStore.getState().setTargets(...a),
+  setSheetInputs: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setSheetInputs']>) =>
+    useRecipesStore.getState().setSheetInputs(...a),
 };
 
 /** Library actions, callable outside React. */
@@ -170,8 +175,8 @@ export function useSavedWorkReady(): boolean {
 export function persistedData(key: StoreKey): unknown {
   if (key === 'library') return { components: useLibraryStore.getState().components };
   if (key === 'recipes') {
-    const { recipes, targets, activeRecipeId } = useRecipesStore.getState();
-    return { recipes, targets, activeRecipeId };
+    const { recipes, targets, activeRecipeId, sheets } = useRecipesStore.getState();
+    return { recipes, targets, activeRecipeId, sheets };
   }
   return { settings: useSettingsStore.getState().settings };
 }

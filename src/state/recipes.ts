@@ -14,7 +14,24 @@ export interface RecipesData {
   targets: Record<string, BlendTargets>;
   /** The recipe the designer / sheet opens on; not part of undo history. */
   activeRecipeId: string | null;
+  /** Blend-sheet header fields and edited instructions per recipe id (schema 3); not part of undo history. */
+  sheets: Record<string, SheetInputs>;
 }
+
+/** What the plant types on a recipe's blend sheet, remembered between visits. */
+export interface SheetInputs {
+  /** Batch or lot number. */
+  lot: string;
+  /** Batch size as typed (a positive number; the sheet checks it). */
+  batchSize: string;
+  /** Unit of the batch size: kg, or litres at 15 °C. */
+  batchUnit: 'kg' | 'litres';
+  vessel: string;
+  /** Edited blending instructions (one step per line); null → the sheet's defaults. */
+  instructions: string | null;
+}
+
+export const DEFAULT_SHEET_INPUTS: SheetInputs = { lot: '', batchSize: '1000', batchUnit: 'kg', vessel: '', instructions: null };
 
 export interface NewRecipe {
   name: string;
@@ -40,15 +57,19 @@ export interface RecipesState extends RecipesData {
   setActiveRecipe: (id: string | null) => void;
   /** Store solve targets for a recipe. */
   setTargets: (recipeId: string, targets: BlendTargets) => void;
+  /** Remember blend-sheet fields of a recipe (merged into its saved ones; not an undo step). */
+  setSheetInputs: (recipeId: string, patch: Partial<SheetInputs>) => void;
   /** Replace everything (reset demo, import-all backup). */
   replaceAll: (data: RecipesData) => void;
 }
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 2,
+  version: 3,
   schema: recipesDataSchema,
   migrations: {
+    // Schema 2 had no blend-sheet fields: start every recipe with the defaults.
+    2: (d) => ({ ...(d as object), sheets: {} }),
     // Schema 1 (first development builds) stored recipes only, without targets or an active recipe.
     1: (d) => {
       const recipes = (d as { recipes?: unknown }).recipes;
@@ -64,6 +85,7 @@ export const demoRecipesData = (): RecipesData => ({
   recipes: demoRecipes(),
   targets: demoTargets(),
   activeRecipeId: demoRecipeId(320),
+  sheets: {},
 });
 
 type Tracked = Pick<RecipesData, 'recipes' | 'targets'>;
@@ -119,15 +141,21 @@ export const useRecipesStore = create<RecipesState>()(
           set((s) => {
             const targets = { ...s.targets };
             delete targets[id];
+            const sheets = { ...s.sheets };
+            delete sheets[id];
             return {
               recipes: s.recipes.filter((r) => r.id !== id),
               targets,
+              sheets,
               activeRecipeId: s.activeRecipeId === id ? null : s.activeRecipeId,
             };
           }),
         setActiveRecipe: (id) => set({ activeRecipeId: id }),
         setTargets: (recipeId, targets) => set((s) => ({ targets: { ...s.targets, [recipeId]: targets } })),
-        replaceAll: (data) => set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId }),
+        setSheetInputs: (recipeId, patch) =>
+          set((s) => ({ sheets: { ...s.sheets, [recipeId]: { ...DEFAULT_SHEET_INPUTS, ...s.sheets[recipeId], ...patch } } })),
+        replaceAll: (data) =>
+          set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId, sheets: data.sheets ?? {} }),
       }),
       {
         partialize: (s): Tracked => ({ recipes: s.recipes, targets: s.targets }),
@@ -140,7 +168,7 @@ export const useRecipesStore = create<RecipesState>()(
       name: 'recipes',
       version: RECIPES_SPEC.version,
       storage: idbPersistStorage(RECIPES_SPEC),
-      partialize: (s): RecipesData => ({ recipes: s.recipes, targets: s.targets, activeRecipeId: s.activeRecipeId }),
+      partialize: (s): RecipesData => ({ recipes: s.recipes, targets: s.targets, activeRecipeId: s.activeRecipeId, sheets: s.sheets }),
       skipHydration: true,
     },
   ),

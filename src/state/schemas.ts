@@ -134,6 +134,16 @@ export const recipesDataSchema = z.object({
   recipes: z.array(recipeSchema).max(5000),
   targets: z.record(z.string(), targetsSchema),
   activeRecipeId: z.string().nullable(),
+  sheets: z.record(
+    z.string(),
+    z.object({
+      lot: text(120),
+      batchSize: text(32),
+      batchUnit: z.enum(['kg', 'litres']),
+      vessel: text(120),
+      instructions: text(20000).nullable(),
+    }),
+  ),
 });
 /** Persisted slice of the settings store. */
 export const settingsDataSchema = z.object({ settings: settingsSchema });

@@ -235,6 +235,16 @@ describe('defaultBlendingInstructions', () => {
     expect(plain.join('\n')).not.toMatch(/polymer/i);
     expect(plain.join('\n')).toMatch(/55–60 °C/);
   });
+
+  it('prints the temperatures in °F when asked', () => {
+    const lib = [comp('hv', 'group-ii', 600, 0.88), comp('add', 'additive-package', 300, 1.05)];
+    const s = buildBlendSheet(lib, recipe([['hv', 0.98], ['add', 0.02]]), { kg: 1000 });
+    const text = defaultBlendingInstructions(s, { temperatureUnit: 'F' }).join('\n');
+    // t_F = 9/5·t_C + 32, the definition of the scale (common practice, no source): 50 → 122, 65 → 149 °F
+    expect(text).toMatch(/Heat to 122–149 °F with agitation; do not exceed 149 °F\./);
+    expect(text).toMatch(/at no more than 149 °F/);
+    expect(text).not.toMatch(/°C/);
+  });
 });
 
 describe('qcReleaseTargets', () => {
@@ -291,6 +301,22 @@ describe('qcReleaseTargets', () => {
       'ASTM D341', 'ASTM D130', 'ASTM D892',
     ]);
     expect(by.aniline!.release).toBe(false);
+  });
+
+  it('prints flash, pour, aniline and operating temperatures in °F, judged as in °C', () => {
+    const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F' });
+    const by = Object.fromEntries(rows.map((r) => [r.key, r]));
+    // t_F = 9/5·t_C + 32 (common practice, no source), rounded to whole degrees:
+    // flash 241.6 °C → 466.9 → 467 °F, limit 232 °C → 449.6 → 450 °F
+    expect([by.flash!.unit, by.flash!.predicted, by.flash!.target, by.flash!.min]).toEqual(['°F', '467', '≥ 450', 450]);
+    // pour −11.2 °C → 11.8 → 12 °F, limit −5 °C → 23 °F
+    expect([by.pour!.unit, by.pour!.predicted, by.pour!.target, by.pour!.max]).toEqual(['°F', '12', '≤ 23', 23]);
+    // aniline 118.2 °C → 244.8 → 245 °F; operating 60 °C → 140 °F
+    expect([by.aniline!.unit, by.aniline!.predicted]).toEqual(['°F', '245']);
+    expect(by.kvOperating!.property).toBe('Viscosity at 140 °F (calculated)');
+    // The standard test temperatures stay in °C; verdicts do not change with the unit.
+    expect(by.kv40!.property).toBe('Kinematic viscosity at 40 °C');
+    expect(rows.map((r) => r.predictedOutsideTarget)).toEqual(qcReleaseTargets(320, p).map((r) => r.predictedOutsideTarget));
   });
 
   it('reports rather than invents targets for missing estimates', () => {

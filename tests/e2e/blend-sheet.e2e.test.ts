@@ -49,7 +49,8 @@ function componentRows(text: string, codes: readonly string[]) {
 }
 
 async function openSheet(page: Page, recipeId: string): Promise<string[]> {
-  // A fresh document each time (a hash change alone would keep the sheet's fields and the old data).
+  // A fresh document each time (a hash change alone would keep the old data); the header fields are
+  // saved per recipe, so they come back.
   await page.goto('about:blank');
   await page.goto(`${inject('baseURL')}#/blend-sheet/${recipeId}`);
   await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
@@ -115,6 +116,11 @@ describe('blend sheet', () => {
   it('shows prices only on the costing copy and exports the component table as CSV', async () => {
     const { page } = s;
     const codes = await openSheet(page, 'demo-vg320');
+    // The header fields typed in the previous test are remembered for this recipe across the reload.
+    await expect(page.getByLabel('Batch / lot no.').inputValue()).resolves.toBe('L-2025-0142');
+    await expect(page.getByLabel('Vessel').inputValue()).resolves.toBe('Kettle 3');
+    await expect(page.getByLabel('Batch size', { exact: true }).inputValue()).resolves.toBe('5000');
+    await page.getByLabel('Batch size', { exact: true }).fill('1000');
     await page.getByLabel('Costing copy').check();
     await page.getByText(/per batch/).waitFor();
     const pdf = await printPdf(page, 'blend-sheet-vg320-costing');
@@ -222,6 +228,31 @@ describe('blend sheet', () => {
     expect(pdfPages(letter)).toBe(1);
     const size = execFileSync('pdfinfo', [letter], { encoding: 'utf8' });
     expect(size).toMatch(/Page size:\s+612 x 792 pts/); // US Letter = 8.5 × 11 in = 612 × 792 pt (definition)
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+
+  it('prints temperatures in °F when the settings say so, with the unit', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/settings`);
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    await page.getByLabel('Temperatures in').selectOption('F');
+    // Within the app (no reload), so the setting need not be saved first.
+    await page.getByRole('link', { name: /Blend sheet/ }).click();
+    await page.getByRole('combobox', { name: /^Recipe/ }).selectOption('demo-vg680');
+    // t_F = 9/5·t_C + 32 (common practice, no source): heat to 50–65 °C → 122–149 °F.
+    await page.getByText(/^Heat to 122–149 °F with agitation/).waitFor();
+    const qc = page.getByRole('table', { name: /Predicted properties and QC release/ });
+    await expect(qc.getByRole('row', { name: /Flash point/ }).textContent()).resolves.toMatch(/°F/);
+    await expect(qc.getByRole('row', { name: /Pour point/ }).textContent()).resolves.toMatch(/°F/);
+    await expect(qc.getByRole('row', { name: /Viscosity at \d+ °F \(calculated\)/ }).count()).resolves.toBe(1);
+    await screenshot(page, 'blend-sheet-vg680-fahrenheit');
+    const pdf = await printPdf(page, 'blend-sheet-vg680-fahrenheit');
+    toPng(pdf, 'blend-sheet-vg680-fahrenheit');
+    expect(pdfPages(pdf)).toBe(1);
+    expect(pdfText(pdf)).toMatch(/Heat to 122–149 °F/);
+    await page.getByRole('link', { name: /Settings/ }).click();
+    await page.getByLabel('Temperatures in').selectOption('C');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });

@@ -21,6 +21,7 @@ function localIsoDate(d: Date): string {
 export default function BlendSheetScreen() {
   const components = useLibrary((s) => s.components);
   const recipes = useRecipes((s) => s.recipes);
+  const sheets = useRecipes((s) => s.sheets);
   const active = useActiveRecipe();
   const settings = useSettings();
   const f = useFormat();
@@ -54,6 +55,9 @@ export default function BlendSheetScreen() {
       companyName={settings.companyName}
       predict={predict}
       today={today}
+      temperatureUnit={settings.temperatureUnit}
+      sheetInputs={sheets}
+      onSheetInputsChange={recipeActions.setSheetInputs}
       formatNumber={(x, d) => f.num(x, d)}
     />
   );

@@ -12,6 +12,7 @@ import {
   type QcRow,
   type SheetPrediction,
 } from '../../core/blend-sheet';
+import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
 import { csvFileName, downloadCsv, toCsv } from './csv';
 import './blend-sheet.css';
 
@@ -32,6 +33,14 @@ export interface BlendSheetViewProps {
   today: string;
   /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
   formatNumber?: (x: number, decimals: number) => string;
+  /** Unit the sheet prints temperatures in (heat-to, operating temperature, flash, pour, aniline); default °C. */
+  temperatureUnit?: 'C' | 'F';
+  /**
+   * Saved header fields and edited instructions by recipe id, with the setter that saves them. Without
+   * them the sheet keeps its fields for as long as it is shown.
+   */
+  sheetInputs?: Readonly<Record<string, SheetInputs>>;
+  onSheetInputsChange?: (recipeId: string, patch: Partial<SheetInputs>) => void;
   /** Called instead of `window.print()` (tests). */
   onPrint?: () => void;
   /** Called instead of the browser download with the CSV text and file name (tests). */
@@ -51,16 +60,24 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const id = useId();
   const recipe = recipes.find((r) => r.id === props.recipeId) ?? recipes[0] ?? null;
 
-  const [batchSize, setBatchSize] = useState('1000');
-  const [batchUnit, setBatchUnit] = useState<'kg' | 'litres'>('kg');
-  const [lot, setLot] = useState('');
-  const [vessel, setVessel] = useState('');
   const [date, setDate] = useState(today);
   const [copy, setCopy] = useState<CopyKind>('plant');
   const [paper, setPaper] = useState<PaperSize>('a4');
   const [editingSteps, setEditingSteps] = useState(false);
-  /** Edited instructions by recipe id; absent → the defaults. */
-  const [stepsByRecipe, setStepsByRecipe] = useState<Record<string, string>>({});
+  /** Fields typed on this visit when the caller does not save them (by recipe id). */
+  const [localInputs, setLocalInputs] = useState<Record<string, SheetInputs>>({});
+  const tUnit = props.temperatureUnit ?? 'C';
+  const saved = recipe ? (props.sheetInputs ?? localInputs)[recipe.id] : undefined;
+  const { batchSize, batchUnit, lot, vessel, instructions } = saved ?? DEFAULT_SHEET_INPUTS;
+  const setInputs = (patch: Partial<SheetInputs>) => {
+    if (!recipe) return;
+    if (props.onSheetInputsChange) props.onSheetInputsChange(recipe.id, patch);
+    else setLocalInputs((m) => ({ ...m, [recipe.id]: { ...DEFAULT_SHEET_INPUTS, ...m[recipe.id], ...patch } }));
+  };
+  const setBatchSize = (batchSize: string) => setInputs({ batchSize });
+  const setBatchUnit = (batchUnit: 'kg' | 'litres') => setInputs({ batchUnit });
+  const setLot = (lot: string) => setInputs({ lot });
+  const setVessel = (vessel: string) => setInputs({ vessel });
 
   const batchValue = Number(batchSize);
   const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
@@ -77,11 +94,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     if (!recipe) return null;
     try {
       const p = predict(recipe);
-      return { rows: qcReleaseTargets(recipe.grade, p), warnings: p.warnings ?? [] };
+      return { rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit }), warnings: p.warnings ?? [] };
     } catch (e) {
       return { error: errorText(e) };
     }
-  }, [recipe, predict]);
+  }, [recipe, predict, tUnit]);
 
   if (!recipe) {
     return (
@@ -93,8 +110,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   }
 
   const sheet = built && 'sheet' in built ? built.sheet : null;
-  const defaultSteps = sheet ? defaultBlendingInstructions(sheet) : [];
-  const stepsText = stepsByRecipe[recipe.id] ?? defaultSteps.join('\n');
+  const defaultSteps = sheet ? defaultBlendingInstructions(sheet, { temperatureUnit: tUnit }) : [];
+  const stepsText = instructions ?? defaultSteps.join('\n');
   const steps = stepsText
     .split('\n')
     .map((s) => s.trim())
@@ -161,8 +178,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </button>
         </div>
         <p className="bs-hint">
-          Fill in the fields below, then print: your browser&rsquo;s print dialog also saves a PDF. The company name
-          comes from the settings.
+          Fill in the fields below, then print: your browser&rsquo;s print dialog also saves a PDF. Batch, lot, vessel and
+          edited instructions are remembered for each recipe{props.onSheetInputsChange ? '' : ' while this sheet is open'}; the
+          company name and the temperature unit come from the settings.
         </p>
       </div>
 
@@ -354,7 +372,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 id={`${id}-steps-text`}
                 rows={Math.max(6, steps.length + 2)}
                 value={stepsText}
-                onChange={(e) => setStepsByRecipe((m) => ({ ...m, [recipe.id]: e.target.value }))}
+                onChange={(e) => setInputs({ instructions: e.target.value })}
               />
             </div>
           ) : null}
@@ -369,14 +387,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             </button>
             <button
               type="button"
-              disabled={stepsByRecipe[recipe.id] === undefined}
-              onClick={() =>
-                setStepsByRecipe((m) => {
-                  const next = { ...m };
-                  delete next[recipe.id];
-                  return next;
-                })
-              }
+              disabled={instructions === null}
+              onClick={() => setInputs({ instructions: null })}
             >
               Restore default instructions
             </button>
