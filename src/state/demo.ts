@@ -80,7 +80,7 @@ const ROWS: Row[] = [
   { code: 'BW-620', name: 'Trimethylolpropane ester, saturated', category: 'group-v', kv40: 20, kv100: 4.4, rho: 0.94, pour: -50, flash: 250, aniline: 8, sulfur: 0, saturates: null, price: 4.5, basis: 'per-litre' },
   { code: 'BW-621', name: 'Trimethylolpropane ester, saturated, second source', category: 'group-v', kv40: 21, kv100: 4.5, rho: 0.942, pour: -50, flash: 252, aniline: 9, sulfur: 0, saturates: null, price: 4.6, basis: 'per-litre' },
   // Additive package.
-  { code: 'BW-901', name: 'Industrial gear EP additive package (sulfur–phosphorus)', category: 'additive-package', kv40: 250, kv100: 15, rho: 1.05, pour: null, flash: 130, aniline: null, sulfur: null, saturates: null, price: 5.5, basis: 'per-kg', notes: 'Treat at 2 % by mass. Can release hydrogen sulfide when overheated: follow the safety data sheet.' },
+  { code: 'BW-901', name: 'Industrial gear EP additive package (sulfur–phosphorus)', category: 'additive-package', kv40: 250, kv100: 15, rho: 1.05, pour: -24, flash: 130, aniline: null, sulfur: null, saturates: null, price: 5.5, basis: 'per-kg', notes: 'Treat at 2 % by mass. Can release hydrogen sulfide when overheated: follow the safety data sheet.' },
 ];
 
 /** Stable id of a demo component, from its stock code (e.g. `demo-bw-190`). */
