@@ -196,7 +196,8 @@ export function prepareEngine(
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
   const forced: number[] = [];
   const usableIndices: number[] = [];
-  components.forEach((k, i) => {
+  for (let i = 0; i < n; i++) {
+    const k = components[i]!;
     x40[i] = coords.toX(k.kv40);
     x100[i] = coords.toX(k.kv100);
     invRho[i] = 1 / k.density15;
@@ -208,7 +209,7 @@ export function prepareEngine(
     if (flashMax !== null && k.flashPoint !== null) flashRel[i] = flashBlendingIndex(k.flashPoint) / flashMax;
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
-  });
+  }
   const bandA = coords.toX(targets.kv40Min);
   const bandB = coords.toX(targets.kv40Max);
   let vi: ViBoundary | null = null;

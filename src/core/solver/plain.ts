@@ -15,6 +15,8 @@
  */
 import {
   BlendbenchInputError,
+  DENSITY15_MAX,
+  DENSITY15_MIN,
   FractionSumError,
   ViscosityOutOfRangeError,
   assertDensity15,
@@ -94,6 +96,19 @@ function inComponent<T>(i: number, f: () => T): T {
   }
 }
 
+/** `components[i].name`, the field name in error messages. */
+function fieldOf(i: number, name: string): string {
+  return `components[${i}].${name}`;
+}
+
+/** Throws unless a mass-fraction bound is a finite number from 0 to 1. */
+function checkFraction(fn: string, i: number, name: string, v: number): void {
+  if (typeof v === 'number' && v >= 0 && v <= 1) return;
+  const f = fieldOf(i, name);
+  assertFinite(fn, f, v);
+  throw new FractionSumError(f, v, `${fn}: ${f} = ${v}; a fraction must lie between 0 and 1`);
+}
+
 /**
  * Validate a plain problem and build the engine's prepared problem.
  *
@@ -104,48 +119,61 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
   if (!p || !Array.isArray(p.components) || p.components.length === 0) {
     throw new BlendbenchInputError('components', p?.components, `${fn}: components must be a non-empty array`);
   }
+  // Validation: each cheap test below passes only for values the full assert would accept; when
+  // it fails, the full assert (or the original check) runs and throws the same named error with
+  // the same message. Field names are built only then (no strings or closures per component on
+  // the fast path — this function runs once per solve in the substitute search).
   const ids = new Set<string>();
-  const comps: EngineComponent[] = p.components.map((c, i) => {
-    const f = (name: string): string => `components[${i}].${name}`;
+  const src = p.components;
+  const comps: EngineComponent[] = [];
+  for (let i = 0; i < src.length; i++) {
+    const c = src[i]!;
     if (typeof c.id !== 'string' || c.id === '') {
-      throw new BlendbenchInputError(f('id'), c.id, `${fn}: ${f('id')} must be a non-empty string`);
+      throw new BlendbenchInputError(fieldOf(i, 'id'), c.id, `${fn}: ${fieldOf(i, 'id')} must be a non-empty string`);
     }
-    if (ids.has(c.id)) throw new BlendbenchInputError(f('id'), c.id, `${fn}: id "${c.id}" appears twice`);
+    if (ids.has(c.id)) throw new BlendbenchInputError(fieldOf(i, 'id'), c.id, `${fn}: id "${c.id}" appears twice`);
     ids.add(c.id);
-    inComponent(i, () => assertKv40Kv100(fn, c.kv40, c.kv100));
-    if (c.kv100 < VI_MIN_KV100) {
+    const kv40 = c.kv40;
+    const kv100 = c.kv100;
+    if (!(typeof kv40 === 'number' && typeof kv100 === 'number' && kv100 > 0 && kv100 < kv40 && kv40 < Number.POSITIVE_INFINITY)) {
+      inComponent(i, () => assertKv40Kv100(fn, c.kv40, c.kv100));
+    }
+    if (kv100 < VI_MIN_KV100) {
       throw new ViscosityOutOfRangeError(
-        f('kv100'),
-        c.kv100,
-        `${fn}: ${f('kv100')} = ${c.kv100} mm²/s is below 2.0 mm²/s, where ASTM D2270 defines no VI`,
+        fieldOf(i, 'kv100'),
+        kv100,
+        `${fn}: ${fieldOf(i, 'kv100')} = ${kv100} mm²/s is below 2.0 mm²/s, where ASTM D2270 defines no VI`,
       );
     }
-    assertDensity15(fn, f('density15'), c.density15);
-    assertFinite(fn, f('anilinePoint'), c.anilinePoint);
-    assertFinite(fn, f('pricePerKg'), c.pricePerKg);
-    if (c.pricePerKg < 0) {
-      throw new BlendbenchInputError(f('pricePerKg'), c.pricePerKg, `${fn}: ${f('pricePerKg')} = ${c.pricePerKg}; a price must not be negative`);
+    const rho = c.density15;
+    if (!(typeof rho === 'number' && rho >= DENSITY15_MIN && rho <= DENSITY15_MAX)) {
+      assertDensity15(fn, fieldOf(i, 'density15'), rho);
+    }
+    if (!(typeof c.anilinePoint === 'number' && Number.isFinite(c.anilinePoint))) {
+      assertFinite(fn, fieldOf(i, 'anilinePoint'), c.anilinePoint);
+    }
+    const price = c.pricePerKg;
+    if (!(typeof price === 'number' && Number.isFinite(price))) assertFinite(fn, fieldOf(i, 'pricePerKg'), price);
+    if (price < 0) {
+      const f = fieldOf(i, 'pricePerKg');
+      throw new BlendbenchInputError(f, price, `${fn}: ${f} = ${price}; a price must not be negative`);
     }
     const min = c.minMassFraction ?? 0;
     const max = c.maxMassFraction ?? 1;
-    for (const [name, v] of [
-      ['minMassFraction', min],
-      ['maxMassFraction', max],
-    ] as const) {
-      assertFinite(fn, f(name), v);
-      if (v < 0 || v > 1) throw new FractionSumError(f(name), v, `${fn}: ${f(name)} = ${v}; a fraction must lie between 0 and 1`);
-    }
+    checkFraction(fn, i, 'minMassFraction', min);
+    checkFraction(fn, i, 'maxMassFraction', max);
     if (min > max) {
-      throw new FractionSumError(f('minMassFraction'), min, `${fn}: ${f('minMassFraction')} = ${min} is above maxMassFraction = ${max}`);
+      const f = fieldOf(i, 'minMassFraction');
+      throw new FractionSumError(f, min, `${fn}: ${f} = ${min} is above maxMassFraction = ${max}`);
     }
-    return {
+    comps.push({
       id: c.id,
       label: c.id,
-      kv40: c.kv40,
-      kv100: c.kv100,
-      density15: c.density15,
+      kv40,
+      kv100,
+      density15: rho,
       anilinePoint: c.anilinePoint,
-      pricePerKg: c.pricePerKg,
+      pricePerKg: price,
       polymer: false,
       baseFluid: true,
       oxidation: 0,
@@ -155,8 +183,8 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       max,
       fixedAdditive: false,
       usable: true,
-    };
-  });
+    });
+  }
   assertViscosity(fn, 'targetKv40', p.targetKv40);
   assertFinite(fn, 'tolerancePct', p.tolerancePct);
   if (p.tolerancePct < 0 || p.tolerancePct >= 100) {
