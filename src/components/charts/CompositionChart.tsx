@@ -1,7 +1,8 @@
-import { memo } from 'react';
-import { Bar, BarChart, CartesianGrid, Legend, Tooltip, XAxis, YAxis } from 'recharts';
+import { memo, useContext, useId } from 'react';
+import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceStep, niceTicks, tickDecimals } from './nice';
+import { LiveBars, LiveMarksContext } from './live';
 
 export interface CompositionRow {
   id: string;
@@ -16,50 +17,96 @@ export interface CompositionRow {
 }
 
 export interface CompositionChartProps {
+  /** One row per stock (in live mode only `id` and `label` are used: the values come from the context). */
   rows: readonly CompositionRow[];
   /** Currency label for the cost axis, e.g. "EUR". */
   currency: string;
   width: number;
   height: number;
+  /**
+   * Draw the bars from {@link LiveMarksContext} (`bars`) as a live layer; the axes are then set by
+   * `pctMax` and `costMax` so that the chart keeps its props while the recipe is edited.
+   */
+  live?: boolean;
+  /** Upper end of the % axis in live mode. */
+  pctMax?: number;
+  /** Upper end of the cost axis in live mode [currency/L]. */
+  costMax?: number;
+}
+
+/** Rounds up to a 1–2–5 step. */
+export function roundUp(v: number): number {
+  const step = niceStep(v, 10);
+  return Math.ceil(v / step - 1e-9) * step;
 }
 
 /** Composition (mass % and volume %) and cost contribution per component, side by side. */
-export const CompositionChart = memo(function CompositionChart({ rows, currency, width, height }: CompositionChartProps) {
+export const CompositionChart = memo(function CompositionChart({ rows, currency, width, height, live = false, pctMax, costMax }: CompositionChartProps) {
+  const descId = useId();
   const half = Math.floor((width - 16) / 2);
-  const up = (v: number) => {
-    const step = niceStep(v, 4);
-    return Math.ceil(v / step - 1e-9) * step;
-  };
-  const pctDomain: [number, number] = [0, up(Math.max(1, ...rows.map((r) => Math.max(r.massPct, r.volumePct))))];
-  const costDomain: [number, number] = [0, up(Math.max(1e-3, ...rows.map((r) => r.costPerLitre)))];
-  const fullCostTicks = niceTicks(costDomain, 4);
-  const data = rows.map((r) => ({ ...r, cost: r.costPerLitre }));
-  const describe = rows
-    .map((r) => `${r.label}: ${r.massPct.toFixed(1)} % by mass, ${r.volumePct.toFixed(1)} % by volume, ${r.costPerLitre.toFixed(3)} ${currency}/L`)
-    .join('; ');
+  const pctDomain: [number, number] = [0, live && pctMax ? pctMax : roundUp(Math.max(1, ...rows.map((r) => Math.max(r.massPct, r.volumePct))))];
+  const costDomain: [number, number] = [0, live && costMax ? costMax : roundUp(Math.max(1e-3, ...rows.map((r) => r.costPerLitre)))];
+  const costTicks = niceTicks(costDomain, 4);
+  const data = rows.map((r) => ({ id: r.id, label: r.label, massPct: r.massPct, volumePct: r.volumePct, cost: r.costPerLitre }));
   const labelWidth = Math.min(110, 14 + 7 * Math.max(4, ...rows.map((r) => r.label.length)));
+  const margin = { top: 4, right: 12, bottom: 4, left: 4 };
   return (
     <figure className="chart" data-chart="composition" style={{ width }}>
       <figcaption className="chart-title">Composition and cost contribution</figcaption>
-      <div role="img" aria-label={`Composition and cost contribution. ${describe}`} className="chart-pair">
-        <BarChart width={half} height={height} data={data} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
-          <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-          <XAxis type="number" unit=" %" domain={pctDomain} ticks={niceTicks(pctDomain, 4)} />
-          <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-          <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(2)} %`} />
-          <Legend verticalAlign="top" height={22} />
-          <Bar dataKey="massPct" name="mass %" fill={CHART_COLOURS.mass} isAnimationActive={false} />
-          <Bar dataKey="volumePct" name="volume %" fill={CHART_COLOURS.volume} isAnimationActive={false} />
-        </BarChart>
-        <BarChart width={half} height={height} data={data} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
-          <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-          <XAxis type="number" domain={costDomain} ticks={fullCostTicks} tickFormatter={(v: number) => v.toFixed(tickDecimals(costDomain, 4))} />
-          <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-          <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(3)} ${currency}/L`} />
-          <Legend verticalAlign="top" height={22} />
-          <Bar dataKey="cost" name={`cost, ${currency} per litre of blend`} fill={CHART_COLOURS.cost} isAnimationActive={false} />
-        </BarChart>
+      <div role="img" aria-label="Composition and cost contribution" aria-describedby={descId} className="chart-pair">
+        <div>
+          <ul className="chart-legend" aria-hidden="true">
+            <li><span className="block block-mass" /> mass %</li>
+            <li><span className="block block-volume" /> volume %</li>
+          </ul>
+          <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
+            <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
+            <XAxis type="number" unit=" %" domain={pctDomain} ticks={niceTicks(pctDomain, 4)} allowDataOverflow />
+            <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
+            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(2)} %`} />}
+            {!live && <Bar dataKey="massPct" name="mass %" fill={CHART_COLOURS.mass} isAnimationActive={false} />}
+            {!live && <Bar dataKey="volumePct" name="volume %" fill={CHART_COLOURS.volume} isAnimationActive={false} />}
+            {live && <LiveBars which="composition" domain={pctDomain} unit="%" />}
+          </BarChart>
+        </div>
+        <div>
+          <ul className="chart-legend" aria-hidden="true">
+            <li><span className="block block-cost" /> cost, {currency} per litre of blend</li>
+          </ul>
+          <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
+            <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
+            <XAxis type="number" domain={costDomain} ticks={costTicks} allowDataOverflow tickFormatter={(v: number) => v.toFixed(tickDecimals(costDomain, 4))} />
+            <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
+            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(3)} ${currency}/L`} />}
+            {!live && <Bar dataKey="cost" name={`cost, ${currency} per litre of blend`} fill={CHART_COLOURS.cost} isAnimationActive={false} />}
+            {live && <LiveBars which="cost" domain={costDomain} unit={`${currency}/L`} />}
+          </BarChart>
+        </div>
       </div>
+      {live ? <LiveDescription id={descId} currency={currency} /> : <Description id={descId} rows={rows} currency={currency} />}
     </figure>
   );
 });
+
+function describe(rows: readonly Pick<CompositionRow, 'label' | 'massPct' | 'volumePct' | 'costPerLitre'>[], currency: string): string {
+  return rows
+    .map((r) => `${r.label}: ${r.massPct.toFixed(1)} % by mass, ${r.volumePct.toFixed(1)} % by volume, ${r.costPerLitre.toFixed(3)} ${currency}/L`)
+    .join('; ');
+}
+
+function Description({ id, rows, currency }: { id: string; rows: readonly CompositionRow[]; currency: string }) {
+  return (
+    <p id={id} className="visually-hidden">
+      {describe(rows, currency)}
+    </p>
+  );
+}
+
+function LiveDescription({ id, currency }: { id: string; currency: string }) {
+  const bars = useContext(LiveMarksContext).bars ?? [];
+  return (
+    <p id={id} className="visually-hidden">
+      {describe(bars, currency)}
+    </p>
+  );
+}

@@ -2,6 +2,7 @@ import { memo } from 'react';
 import { CartesianGrid, Cell, ReferenceArea, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceTicks } from './nice';
+import { LiveMapPoint } from './live';
 
 export interface MapPoint {
   id: string;
@@ -30,6 +31,10 @@ export interface SolvencyOxidationMapProps {
   /** Label for an x value; default the number. */
   formatX?: (v: number) => string;
   title?: string;
+  /** Also draw the blend from {@link LiveMarksContext} (`point`) as a live layer. */
+  live?: boolean;
+  /** Legend wording; `candidate: null` leaves that entry out. */
+  legend?: { selected?: string; candidate?: string | null };
 }
 
 const FILL: Record<MapPoint['role'], string> = {
@@ -51,6 +56,8 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   riskRegion = null,
   xReversed = false,
   formatX,
+  live = false,
+  legend = {},
   title = 'Solvency against oxidation stability (estimated scores, not measurements)',
 }: SolvencyOxidationMapProps) {
   // `kind`, not `role`: recharts copies point fields onto the SVG shape, and role="reference" is no ARIA role.
@@ -78,6 +85,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             dataKey="x"
             domain={[...xDomain]}
             reversed={xReversed}
+            allowDataOverflow
             ticks={niceTicks(xDomain)}
             name={xLabel}
             tickFormatter={formatX}
@@ -87,6 +95,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             type="number"
             dataKey="y"
             domain={[...yDomain]}
+            allowDataOverflow
             name={yLabel}
             width={formatY ? 100 : 60}
             tickFormatter={formatY}
@@ -105,12 +114,17 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
               />
             ))}
           </Scatter>
+          {live && <LiveMapPoint xDomain={xDomain} yDomain={yDomain} />}
         </ScatterChart>
       </div>
       <ul className="chart-legend" aria-hidden="true">
         <li><span className="dot dot-reference" /> reference</li>
-        <li><span className="dot dot-selected" /> selected</li>
-        <li><span className="dot dot-other" /> other candidates</li>
+        <li><span className="dot dot-selected" /> {legend.selected ?? 'selected'}</li>
+        {legend.candidate !== null && (
+          <li>
+            <span className="dot dot-other" /> {legend.candidate ?? 'other candidates'}
+          </li>
+        )}
       </ul>
     </figure>
   );

@@ -12,6 +12,7 @@ import {
   pickTicks,
 } from './d341-scale';
 import { CHART_COLOURS } from './palette';
+import { LiveD341Line } from './live';
 
 /** The role of an oil on the chart; decides its stroke. */
 export type OilRole = 'component' | 'reference' | 'candidate';
@@ -39,6 +40,11 @@ export interface ViscosityTemperatureChartProps {
   /** Label for a temperature given in °C (lets the screen show °F); default "40 °C". */
   formatTemp?: (tempC: number) => string;
   title?: string;
+  /**
+   * Draw the blend from {@link LiveMarksContext} (`vt`) as a live layer: the chart keeps its props
+   * while the blend changes. The axes are set by `lines` (a blend lies inside its components' envelope).
+   */
+  live?: boolean;
 }
 
 const KV_MIN = 2;
@@ -68,6 +74,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
   height,
   formatTemp = defaultFormatTemp,
   title = 'Viscosity against temperature (ASTM D341 axes)',
+  live = false,
 }: ViscosityTemperatureChartProps) {
   const model = useMemo(() => {
     const marks = [operatingTempC, coldStartTempC].filter((t): t is number => t !== null && Number.isFinite(t));
@@ -164,14 +171,15 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
               stroke={s.role === 'component' ? CHART_COLOURS.component : s.role === 'reference' ? CHART_COLOURS.reference : CHART_COLOURS.candidate}
               strokeWidth={s.role === 'component' ? 1 : 2.5}
               strokeDasharray={s.role === 'reference' ? '7 4' : undefined}
-              data-role={s.role}
+              className={`vt-line vt-${s.role}`}
             />
           ))}
+          {live && <LiveD341Line xDomain={model.xDomain} yDomain={model.yDomain} />}
         </LineChart>
       </div>
       <ul className="chart-legend" aria-hidden="true">
         {(['candidate', 'reference', 'component'] as const)
-          .filter((r) => model.series.some((s) => s.role === r))
+          .filter((r) => model.series.some((s) => s.role === r) || (live && r === 'candidate'))
           .map((r) => (
             <li key={r} data-legend={r}>
               <span className={`swatch swatch-${r}`} /> {LEGEND[r]}

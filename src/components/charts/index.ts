@@ -12,3 +12,6 @@ export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints } from './d341-scale';
 export { CHART_COLOURS } from './palette';
 export { useWidth } from './useWidth';
+export { LiveMarksContext } from './live';
+export type { LiveMarks, LiveBar } from './live';
+export { roundUp } from './CompositionChart';

@@ -1,8 +1,25 @@
-/** The designer's charts (lazy chunk: recharts loads only when the designer shows them). */
-import { useMemo } from 'react';
+/**
+ * The designer's charts (lazy chunk: recharts loads only when the designer shows them).
+ *
+ * The charts keep the same props while a fraction is typed: their axes and static series depend
+ * only on the set of stocks and the reference recipe. The blend itself — its D341 line, its point
+ * on the solvency–stability map and its composition bars — is passed through `LiveMarksContext`
+ * and drawn by live layers inside each chart, so an edit re-renders only those layers.
+ */
+import { useCallback, useMemo, useRef } from 'react';
 import type { Component, Recipe } from '../../core/model';
 import type { Settings } from '../../state';
-import { CompositionChart, SolvencyOxidationMap, ViscosityTemperatureChart, useWidth, type ViscosityLineInput } from '../../components/charts';
+import {
+  CompositionChart,
+  LiveMarksContext,
+  SolvencyOxidationMap,
+  ViscosityTemperatureChart,
+  roundUp,
+  useWidth,
+  type LiveMarks,
+  type MapPoint,
+  type ViscosityLineInput,
+} from '../../components/charts';
 import { makeFormatter } from '../../components/format';
 import { kv40kv100FromPoints } from '../../core/viscosity-temperature';
 import type { DraftView } from './derive';
@@ -17,21 +34,38 @@ export interface DesignerChartsProps {
   settings: Settings;
 }
 
+const OX_DOMAIN: readonly [number, number] = [1, 5];
+const MAP_LEGEND = { selected: 'this blend', candidate: null } as const;
+const formatOx = (v: number) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '');
+
+/** An axis maximum that changes only when the value outgrows it or falls well below it. */
+function useStickyMax(value: number): number {
+  const ref = useRef(0);
+  if (value > ref.current || value < ref.current * 0.45) ref.current = roundUp(Math.max(value * 1.05, 1e-3));
+  return ref.current;
+}
+
 export default function DesignerCharts({ view, prediction, components, referenceRecipe, settings }: DesignerChartsProps) {
-  const [ref, width] = useWidth<HTMLDivElement>(900);
+  const [ref, width] = useWidth<HTMLElement>(900);
   const fmt = useMemo(() => makeFormatter(settings), [settings]);
+  const formatTemp = useCallback((c: number) => fmt.temp(c), [fmt]);
   const reference = useMemo(
     () => (referenceRecipe ? predictRecipe(referenceRecipe.lines, components, settings.blendMethod) : null),
     [referenceRecipe, components, settings.blendMethod],
   );
 
-  // Component lines change only when the recipe's set of stocks changes.
+  // Everything static depends on the set of stocks, not on their fractions.
   const stockKey = view.lines.map((l) => l.componentId).join('|');
-  const componentLines = useMemo(() => {
+  const stocks = useMemo(
+    () => view.lines.map((l) => l.component).filter((c): c is Component => c !== null),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [stockKey, components],
+  );
+
+  const vtLines = useMemo(() => {
     const out: ViscosityLineInput[] = [];
-    for (const l of view.lines) {
-      const c = l.component;
-      if (!c || c.category === 'additive-package') continue;
+    for (const c of stocks) {
+      if (c.category === 'additive-package') continue;
       try {
         const { kv40, kv100 } = kv40kv100FromPoints(c.viscosityPoints);
         out.push({ id: c.id, label: c.code, kv40, kv100, role: 'component' });
@@ -39,70 +73,91 @@ export default function DesignerCharts({ view, prediction, components, reference
         /* a stock without usable viscosities is left off the chart */
       }
     }
-    return out;
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [stockKey, components]);
-
-  const vtLines = useMemo(() => {
-    const out = [...componentLines];
     if (reference?.ok) out.push({ id: 'reference', label: referenceRecipe?.name ?? 'reference', kv40: reference.kv40, kv100: reference.kv100, role: 'reference' });
-    if (prediction.ok) out.push({ id: 'blend', label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100, role: 'candidate' });
     return out;
-  }, [componentLines, reference, prediction, referenceRecipe]);
+  }, [stocks, reference, referenceRecipe]);
 
-  const rows = useMemo(
+  const refPoint = useMemo<MapPoint[]>(
     () =>
-      view.lines.map((l) => ({
+      reference?.ok && reference.anilinePoint !== null
+        ? [{ id: 'reference', label: 'reference', role: 'reference', solvency: reference.anilinePoint, oxidation: reference.oxidationRating }]
+        : [],
+    [reference],
+  );
+  // The blend's aniline point lies between its stocks' (a volume-weighted mean), so their range fixes the axis.
+  const apDomain = useMemo<readonly [number, number]>(() => {
+    const aps = stocks.map((c) => c.anilinePoint).filter((a): a is number => a !== null);
+    if (reference?.ok && reference.anilinePoint !== null) aps.push(reference.anilinePoint);
+    const lo = Math.floor((Math.min(80, ...aps) - 5) / 10) * 10;
+    const hi = Math.ceil((Math.max(140, ...aps) + 5) / 10) * 10;
+    return [lo, hi];
+  }, [stocks, reference]);
+
+  const rowLabels = useMemo(
+    () => stocks.map((c) => ({ id: c.id, label: c.code, massPct: 0, volumePct: 0, costPerLitre: 0 })),
+    [stocks],
+  );
+  const pctMax = Math.min(100, useStickyMax(Math.max(1, ...view.lines.map((l) => 100 * Math.max(l.massFraction, l.volumeFraction)))));
+  const costMax = useStickyMax(Math.max(1e-3, ...view.lines.map((l) => l.costPerLitre ?? 0)));
+
+  const live = useMemo<LiveMarks>(
+    () => ({
+      vt: prediction.ok ? { label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100 } : null,
+      point:
+        prediction.ok && prediction.anilinePoint !== null ? { label: 'this blend', x: prediction.anilinePoint, y: prediction.oxidationRating } : null,
+      bars: view.lines.map((l) => ({
         id: l.componentId,
         label: l.component?.code ?? l.componentId,
         massPct: l.massFraction * 100,
         volumePct: l.volumeFraction * 100,
         costPerLitre: l.costPerLitre ?? 0,
       })),
-    [view],
+    }),
+    [prediction, view],
   );
-
-  const mapPoints = useMemo(() => {
-    const pts = [];
-    if (reference?.ok && reference.anilinePoint !== null)
-      pts.push({ id: 'reference', label: 'reference', role: 'reference' as const, solvency: reference.anilinePoint, oxidation: reference.oxidationRating });
-    if (prediction.ok && prediction.anilinePoint !== null)
-      pts.push({ id: 'blend', label: 'this blend', role: 'selected' as const, solvency: prediction.anilinePoint, oxidation: prediction.oxidationRating });
-    return pts;
-  }, [reference, prediction]);
 
   const full = Math.max(320, width);
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
-  const apValues = mapPoints.map((p) => p.solvency);
-  const apLo = Math.floor((Math.min(80, ...apValues) - 5) / 10) * 10;
-  const apHi = Math.ceil((Math.max(140, ...apValues) + 5) / 10) * 10;
 
   return (
-    <section className="designer-charts" aria-label="Charts" ref={ref}>
-      <h3>Charts</h3>
-      <div className="chart-row">
-        <ViscosityTemperatureChart
-          lines={vtLines}
-          width={half}
-          height={380}
-          operatingTempC={settings.operatingTempC}
-          coldStartTempC={settings.coldStartTempC}
-          formatTemp={(c) => fmt.temp(c)}
+    <LiveMarksContext.Provider value={live}>
+      <section className="designer-charts" aria-label="Charts" ref={ref}>
+        <h3>Charts</h3>
+        <div className="chart-row">
+          <ViscosityTemperatureChart
+            lines={vtLines}
+            live
+            width={half}
+            height={380}
+            operatingTempC={settings.operatingTempC}
+            coldStartTempC={settings.coldStartTempC}
+            formatTemp={formatTemp}
+          />
+          <SolvencyOxidationMap
+            points={refPoint}
+            live
+            width={half}
+            height={380}
+            xLabel="aniline point, °C (right = more solvent)"
+            yLabel="oxidation-stability rating"
+            xDomain={apDomain}
+            xReversed
+            yDomain={OX_DOMAIN}
+            formatY={formatOx}
+            legend={MAP_LEGEND}
+            title="Solvency against oxidation stability (estimates on Blendbench's own scales)"
+          />
+        </div>
+        <CompositionChart
+          rows={rowLabels}
+          live
+          pctMax={pctMax}
+          costMax={costMax}
+          currency={settings.currencySymbol}
+          width={full}
+          height={Math.max(140, 40 + rowLabels.length * 26)}
         />
-        <SolvencyOxidationMap
-          points={mapPoints}
-          width={half}
-          height={380}
-          xLabel="aniline point, °C (right = more solvent)"
-          yLabel="oxidation-stability rating"
-          xDomain={[apLo, apHi]}
-          xReversed
-          yDomain={[1, 5]}
-          formatY={(v) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '')}
-          title="Solvency against oxidation stability (estimates on Blendbench's own scales)"
-        />
-      </div>
-      <CompositionChart rows={rows} currency={settings.currencySymbol} width={full} height={Math.max(140, 40 + rows.length * 26)} />
-    </section>
+      </section>
+    </LiveMarksContext.Provider>
   );
 }

@@ -134,7 +134,8 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   editLine: (componentId, fraction, density) => {
     const s = get();
     const r = editFraction(s.lines, density, s.basis, componentId, fraction, rebalanceOf(s));
-    set({ lines: r.lines, editNote: r.message, dirty: true });
+    // A "Solved" message describes the solver's recipe: drop it once the recipe is edited by hand.
+    set({ lines: r.lines, editNote: r.message, dirty: true, notice: s.notice?.kind === 'optimal' ? null : s.notice });
   },
   addComponent: (componentId) =>
     set((s) => {

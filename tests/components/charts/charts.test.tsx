@@ -111,3 +111,48 @@ describe('other charts', () => {
     expect(container.querySelector('.recharts-line-curve')?.getAttribute('d')).toMatch(/^M.+L/);
   });
 });
+
+describe('live layers (the blend drawn with the chart\'s own scales)', () => {
+  it('draws the blend line, point and bars from the context, and follows it without new chart props', async () => {
+    const { LiveMarksContext } = await import('../../../src/components/charts');
+    const lines = [
+      { id: 'a', label: 'light', kv40: 30, kv100: 5.2, role: 'component' as const },
+      { id: 'b', label: 'heavy', kv40: 480, kv100: 31.5, role: 'component' as const },
+    ];
+    const rows = [
+      { id: 'a', label: 'LIGHT', massPct: 0, volumePct: 0, costPerLitre: 0 },
+      { id: 'b', label: 'HEAVY', massPct: 0, volumePct: 0, costPerLitre: 0 },
+    ];
+    const marks = (w: number) => ({
+      vt: { label: 'blend', kv40: 100 + 100 * w, kv100: 11 + 8 * w },
+      point: { label: 'blend', x: 110 + 5 * w, y: 3 },
+      bars: [
+        { id: 'a', label: 'LIGHT', massPct: 100 - 100 * w, volumePct: 100 - 100 * w, costPerLitre: 1 - w },
+        { id: 'b', label: 'HEAVY', massPct: 100 * w, volumePct: 100 * w, costPerLitre: w },
+      ],
+    });
+    const ui = (w: number) => (
+      <LiveMarksContext.Provider value={marks(w)}>
+        <ViscosityTemperatureChart width={600} height={340} lines={lines} live />
+        <SolvencyOxidationMap width={400} height={300} points={[]} xDomain={[80, 140]} yDomain={[1, 5]} live />
+        <CompositionChart width={700} height={200} currency="EUR" rows={rows} live pctMax={100} costMax={1} />
+      </LiveMarksContext.Provider>
+    );
+    const { container, rerender } = render(ui(0.3));
+    const blendPath = () => container.querySelector('.vt-candidate path')!.getAttribute('d');
+    const pointX = () => container.querySelector('.live-point')!.getAttribute('cx');
+    const barWidths = () => [...container.querySelectorAll('.live-bar')].map((r) => Number(r.getAttribute('width')));
+    const before = [blendPath(), pointX(), barWidths().join()];
+    expect(before[0]).toMatch(/^M[\d.]+,[\d.]+L[\d.]+,[\d.]+$/);
+    expect(barWidths().length).toBe(6); // 2 stocks × (mass, volume, cost)
+    const plotLines = container.querySelectorAll('.recharts-line-curve').length;
+    const heavyBefore = barWidths()[2]!;
+    rerender(ui(0.6));
+    expect(blendPath()).not.toBe(before[0]);
+    expect(pointX()).not.toBe(before[1]);
+    expect(barWidths().join()).not.toBe(before[2]);
+    // the heavy stock's mass bar is now twice as long as before (60 % vs 30 % on the same linear axis; arithmetic)
+    expect(barWidths()[2]! / heavyBefore).toBeCloseTo(2, 6);
+    expect(container.querySelectorAll('.recharts-line-curve').length).toBe(plotLines);
+  });
+});

@@ -1,0 +1,130 @@
+/**
+ * Live marks: the parts of a chart that follow every keystroke (the blend being edited), drawn by
+ * small components INSIDE the recharts chart with recharts' own scales (`useXAxisScale`,
+ * `useYAxisScale`, `usePlotArea`). The chart itself (axes, grid, static series) keeps the same props
+ * while a fraction is typed, so it does not re-render; only these layers do, which keeps an edit
+ * within one frame. The values come from {@link LiveMarksContext}, provided by the screen.
+ */
+import { createContext, useContext, useId } from 'react';
+import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
+import { d341LineFromPoints } from './d341-scale';
+import { CHART_COLOURS } from './palette';
+
+export interface LiveBar {
+  id: string;
+  label: string;
+  massPct: number;
+  volumePct: number;
+  costPerLitre: number;
+}
+
+export interface LiveMarks {
+  /** The blend's ASTM D341 line (ν40, ν100 in mm²/s). */
+  vt?: { label: string; kv40: number; kv100: number } | null;
+  /** The blend's point on the solvency–stability map (x, y in the map's units). */
+  point?: { label: string; x: number; y: number } | null;
+  /** The blend's composition and cost bars, one per stock (same order as the chart's categories). */
+  bars?: readonly LiveBar[] | null;
+}
+
+export const LiveMarksContext = createContext<LiveMarks>({});
+
+/** Pixel position of a value on a linear axis, extrapolated beyond the domain from its two ends. */
+function linear(scale: (v: unknown) => number | undefined, domain: readonly [number, number]): ((v: number) => number) | null {
+  const p0 = scale(domain[0]);
+  const p1 = scale(domain[1]);
+  if (p0 === undefined || p1 === undefined || domain[1] === domain[0]) return null;
+  return (v) => p0 + ((v - domain[0]) / (domain[1] - domain[0])) * (p1 - p0);
+}
+
+function ClipToPlot({ id }: { id: string }) {
+  const plot = usePlotArea();
+  if (!plot) return null;
+  return (
+    <clipPath id={id}>
+      <rect x={plot.x} y={plot.y} width={plot.width} height={plot.height} />
+    </clipPath>
+  );
+}
+
+/** The blend's straight line on the D341 chart (x = log10 T, y = log10 log10(ν + 0.7)). */
+export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
+  const live = useContext(LiveMarksContext).vt;
+  const xs = useXAxisScale();
+  const ys = useYAxisScale();
+  const clip = useId().replace(/:/g, '');
+  if (!live || !xs || !ys || !(live.kv40 > live.kv100 && live.kv100 > 0)) return null;
+  const px = linear(xs, xDomain);
+  const py = linear(ys, yDomain);
+  if (!px || !py) return null;
+  const { a, b } = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 });
+  const [x0, x1] = xDomain;
+  const d = `M${px(x0).toFixed(2)},${py(a - b * x0).toFixed(2)}L${px(x1).toFixed(2)},${py(a - b * x1).toFixed(2)}`;
+  return (
+    <g className="vt-line vt-candidate live-line">
+      <defs>
+        <ClipToPlot id={clip} />
+      </defs>
+      <path d={d} stroke={CHART_COLOURS.candidate} strokeWidth={2.5} fill="none" clipPath={`url(#${clip})`}>
+        <title>{`${live.label}: ${live.kv40.toFixed(1)} mm²/s at 40 °C, ${live.kv100.toFixed(2)} at 100 °C`}</title>
+      </path>
+    </g>
+  );
+}
+
+/** The blend's point on the solvency–stability map. */
+export function LiveMapPoint({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
+  const live = useContext(LiveMarksContext).point;
+  const xs = useXAxisScale();
+  const ys = useYAxisScale();
+  if (!live || !xs || !ys) return null;
+  const px = linear(xs, xDomain);
+  const py = linear(ys, yDomain);
+  if (!px || !py) return null;
+  return (
+    <circle className="live-point" cx={px(live.x)} cy={py(live.y)} r={5} fill={CHART_COLOURS.candidate} stroke="#1d2a2f">
+      <title>{`${live.label}: ${live.x.toFixed(1)}, ${live.y.toFixed(1)}`}</title>
+    </circle>
+  );
+}
+
+/** Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. */
+export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string }) {
+  const bars = useContext(LiveMarksContext).bars;
+  const xs = useXAxisScale();
+  const ys = useYAxisScale();
+  if (!bars || !xs || !ys) return null;
+  const px = linear(xs, domain);
+  if (!px) return null;
+  const x0 = px(0);
+  return (
+    <g className={`live-bars live-bars-${which}`}>
+      {bars.map((r) => {
+        const top = ys(r.label, { position: 'start' });
+        const bottom = ys(r.label, { position: 'end' });
+        if (top === undefined || bottom === undefined) return null;
+        const band = bottom - top;
+        const pad = band * 0.15;
+        if (which === 'cost') {
+          const w = Math.max(0, px(r.costPerLitre) - x0);
+          return (
+            <rect key={r.id} className="live-bar" x={x0} y={top + pad} width={w} height={band - 2 * pad} fill={CHART_COLOURS.cost}>
+              <title>{`${r.label}: ${r.costPerLitre.toFixed(3)} ${unit}`}</title>
+            </rect>
+          );
+        }
+        const h = (band - 2 * pad) / 2;
+        return (
+          <g key={r.id}>
+            <rect className="live-bar" x={x0} y={top + pad} width={Math.max(0, px(r.massPct) - x0)} height={h} fill={CHART_COLOURS.mass}>
+              <title>{`${r.label}: ${r.massPct.toFixed(2)} % by mass`}</title>
+            </rect>
+            <rect className="live-bar" x={x0} y={top + pad + h} width={Math.max(0, px(r.volumePct) - x0)} height={h} fill={CHART_COLOURS.volume}>
+              <title>{`${r.label}: ${r.volumePct.toFixed(2)} % by volume`}</title>
+            </rect>
+          </g>
+        );
+      })}
+    </g>
+  );
+}
