@@ -34,7 +34,8 @@ export interface DesignerChartsProps {
   settings: Settings;
 }
 
-const OX_DOMAIN: readonly [number, number] = [1, 5];
+/** Oxidation rating axis, padded so that points at 1 and 5 are drawn whole. */
+const OX_DOMAIN: readonly [number, number] = [0.75, 5.25];
 const MAP_LEGEND = { selected: 'this blend', candidate: null } as const;
 const formatOx = (v: number) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '');
 

@@ -17,6 +17,9 @@ import { makeFormatter } from '../../components/format';
 import type { Settings } from '../../state';
 import type { Assessed } from './compare';
 
+/** Oxidation rating axis, padded so that points at 1 and 5 are drawn whole. */
+const OX_DOMAIN: readonly [number, number] = [0.75, 5.25];
+
 export interface ExplorerChartsProps {
   candidates: readonly SubstituteCandidate[];
   frontier: readonly SubstituteCandidate[];
@@ -103,7 +106,7 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
           yLabel="oxidation-stability rating"
           xDomain={[apLo, apHi]}
           xReversed
-          yDomain={[1, 5]}
+          yDomain={OX_DOMAIN}
           formatY={(v) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '')}
           title="Solvency against oxidation stability (estimates on Blendbench's own scales)"
         />
