@@ -40,7 +40,7 @@ import { pourBlendingIndex } from '../pour-point';
 import { flashBlendingIndex } from '../flash-point';
 import { blendCoordinates, type BlendCoordinates } from './coordinates';
 import { ViBoundary, type ViChord } from './vi-boundary';
-import { solveLp, type LpRow } from './lp';
+import { solveDenseLp } from './lp';
 
 /** One component as the engine needs it (plain numbers; see `prepareComponents` for Components). */
 export interface EngineComponent {
@@ -441,8 +441,11 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
   }
 
   const maxRows = 8 + chords.length + 2 * nv + extra.length + 2 * nAux;
+  // Row r is buf[r·width … (r+1)·width) with bounds rowLo[r] ≤ row·x ≤ rowHi[r] (±∞ = absent).
   const buf = new Float64Array(maxRows * width);
-  const rows: LpRow[] = [];
+  const rowLo = new Float64Array(maxRows).fill(Number.NEGATIVE_INFINITY);
+  const rowHi = new Float64Array(maxRows).fill(Number.POSITIVE_INFINITY);
+  let m = 0; // number of rows so far
   let o = 0; // offset of the next row in buf
 
   // Normalisation row (Charnes–Cooper): den·w = 1. When minimising with every numerator
@@ -458,7 +461,9 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       if (objective.num[i]! < 0) oneSided = false;
     } else buf[o + j] = 1;
   }
-  rows.push(oneSided ? { coefficients: buf.subarray(o, o + width), min: 1 } : { coefficients: buf.subarray(o, o + width), min: 1, max: 1 });
+  rowLo[m] = 1;
+  if (!oneSided) rowHi[m] = 1;
+  m++;
   o += width;
 
   if (bandRows) {
@@ -470,11 +475,12 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       if (!point) buf[o + width + j] = s * P.c[i]! * (P.x40[i]! - b);
     }
     if (point) {
-      rows.push({ coefficients: buf.subarray(o, o + width), min: 0, max: 0 });
+      rowLo[m] = 0;
+      rowHi[m++] = 0;
       o += width;
     } else {
-      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
-      rows.push({ coefficients: buf.subarray(o + width, o + 2 * width), max: 0 });
+      rowLo[m++] = 0;
+      rowHi[m++] = 0;
       o += 2 * width;
     }
   }
@@ -485,7 +491,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       const i = vars[j]!;
       buf[o + j] = s * P.c[i]! * (P.x100[i]! - chord.alpha - chord.beta * P.x40[i]!);
     }
-    rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+    rowLo[m++] = 0;
     o += width;
   }
   if (t.maxAnilinePoint !== null && groups.has('aniline')) {
@@ -494,7 +500,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       const i = vars[j]!;
       if (!Number.isNaN(P.ap[i]!)) buf[o + j] = 0.1 * P.invRho[i]! * (P.ap[i]! - t.maxAnilinePoint);
     }
-    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    rowHi[m++] = 0;
     o += width;
   }
   if (t.maxPolymerFraction !== null && groups.has('polymer')) {
@@ -506,7 +512,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       buf[o + j] = (poly ? 1 : 0) - t.maxPolymerFraction;
     }
     if (any) {
-      rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+      rowHi[m++] = 0;
       o += width;
     } else buf.fill(0, o, o + width);
   }
@@ -515,7 +521,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       const i = vars[j]!;
       buf[o + j] = P.invRho[i]! * (P.pourRel[i]! - 1);
     }
-    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    rowHi[m++] = 0;
     o += width;
   }
   if (t.minFlashPoint !== null && groups.has('flash')) {
@@ -523,7 +529,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       const i = vars[j]!;
       buf[o + j] = P.invRho[i]! * (P.flashRel[i]! - 1);
     }
-    rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+    rowHi[m++] = 0;
     o += width;
   }
   // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0 (the folded additive needs none).
@@ -539,27 +545,29 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
     if (lo === hi) {
       for (let q = 0; q < nv; q++) buf[o + q] = -lo;
       buf[o + j] = 1 - lo;
-      rows.push({ coefficients: buf.subarray(o, o + width), min: 0, max: 0 });
+      rowLo[m] = 0;
+      rowHi[m++] = 0;
       o += width;
       continue;
     }
     if (lo > 0) {
       for (let q = 0; q < nv; q++) buf[o + q] = -lo;
       buf[o + j] = 1 - lo;
-      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
+      rowLo[m++] = 0;
       o += width;
     }
     if (hi < 1) {
       for (let q = 0; q < nv; q++) buf[o + q] = -hi;
       buf[o + j] = 1 - hi;
-      rows.push({ coefficients: buf.subarray(o, o + width), max: 0 });
+      rowHi[m++] = 0;
       o += width;
     }
   }
   for (const e of extra) {
     for (let j = 0; j < nv; j++) buf[o + j] = e.coef[vars[j]!]!;
     for (let q = 0; q < nAux; q++) buf[o + nv + q] = e.aux;
-    rows.push(e.sense === 'le' ? { coefficients: buf.subarray(o, o + width), max: 0 } : { coefficients: buf.subarray(o, o + width), min: 0 });
+    if (e.sense === 'le') rowHi[m++] = 0;
+    else rowLo[m++] = 0;
     o += width;
   }
   const obj = new Float64Array(width);
@@ -580,8 +588,8 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       }
       buf[o + nv + q] = 1;
       buf[o + width + nv + q] = 1;
-      rows.push({ coefficients: buf.subarray(o, o + width), min: 0 });
-      rows.push({ coefficients: buf.subarray(o + width, o + 2 * width), min: 0 });
+      rowLo[m++] = 0;
+      rowLo[m++] = 0;
       o += 2 * width;
       if (objective.kind === 'closest') obj[nv + q] = 1;
     }
@@ -591,12 +599,12 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
     // (the column stays, empty, and is restored from the others after the solve).
     const k = comps[vars[fold]!]!;
     const kappa = k.min / (1 - k.min);
-    for (let r = 0; r < rows.length; r++) {
-      const R = rows[r]!.coefficients as Float64Array;
-      const af = R[fold]!;
+    for (let r = 0; r < m; r++) {
+      const ro = r * width;
+      const af = buf[ro + fold]!;
       if (af !== 0) {
-        for (let j = 0; j < nv; j++) if (j !== fold) R[j] = R[j]! + kappa * af;
-        R[fold] = 0;
+        for (let j = 0; j < nv; j++) if (j !== fold) buf[ro + j] = buf[ro + j]! + kappa * af;
+        buf[ro + fold] = 0;
       }
     }
     const of = obj[fold]!;
@@ -604,7 +612,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
       for (let j = 0; j < nv; j++) if (j !== fold) obj[j] = obj[j]! + kappa * of;
       obj[fold] = 0;
     }
-    const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
+    const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
     if (sol.status !== 'optimal') {
       return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
     }
@@ -613,7 +621,7 @@ function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, c
     sol.x[fold] = kappa * others;
     return { status: 'optimal', x: sol.x, objective: sol.objective };
   }
-  const sol = solveLp({ sense, numVariables: width, objective: obj, rows });
+  const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
   if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
 }
@@ -879,9 +887,9 @@ export function solvePrepared(
       if (max40 < P.bandA - eps || min40 > P.bandB + eps) return { status: 'infeasible', lpCount: 0 };
       // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo);
       // the margin (≈ 0.05 VI) keeps this test strictly on the safe side of the VI tolerance.
-      // (Only once the root has been computed for this problem: the test is for the fast path.)
-      const root = P.cache.viRoot;
-      if (groups.has('vi') && vi && vi === P.vi && root && max100 < root.hA - 1e-3 / P.coords.rowScale) {
+      // Tested without h (a root search) as g(max X100 + margin) < X(ν_lo) — the same condition,
+      // since g = h⁻¹ is increasing — at the cost of one evaluation of g.
+      if (groups.has('vi') && vi && vi === P.vi && vi.g(max100 + 1e-3 / P.coords.rowScale) < P.bandA) {
         return { status: 'infeasible', lpCount: 0 };
       }
     }

@@ -60,32 +60,70 @@ const OBJECTIVE_KEY = -1;
  */
 export function solveLp(lp: LinearProgram): LpSolution {
   const n = lp.numVariables;
-  const constraints: [number, Constraint][] = [];
-  for (let r = 0; r < lp.rows.length; r++) {
+  const m = lp.rows.length;
+  const a = new Float64Array(m * n);
+  const lo = new Float64Array(m);
+  const hi = new Float64Array(m);
+  for (let r = 0; r < m; r++) {
     const row = lp.rows[r]!;
-    const lo = row.min;
-    const hi = row.max;
-    if (lo !== undefined && hi !== undefined) {
-      constraints.push([r, lo === hi ? { equal: lo } : { min: lo, max: hi }]);
-    } else if (lo !== undefined) {
-      constraints.push([r, { min: lo }]);
-    } else if (hi !== undefined) {
-      constraints.push([r, { max: hi }]);
+    for (let j = 0; j < n; j++) a[r * n + j] = row.coefficients[j] ?? 0;
+    lo[r] = row.min ?? Number.NEGATIVE_INFINITY;
+    hi[r] = row.max ?? Number.POSITIVE_INFINITY;
+  }
+  const c = new Float64Array(n);
+  for (let j = 0; j < n; j++) c[j] = lp.objective[j] ?? 0;
+  return solveDenseLp(lp.sense, n, c, m, a, lo, hi);
+}
+
+/**
+ * Solve a linear program given as dense arrays — the same problem form and the same simplex model
+ * as {@link solveLp}, without per-row objects (the engine's hot path).
+ *
+ * @param sense - 'minimize' or 'maximize'
+ * @param n - number of variables (all ≥ 0)
+ * @param objective - c, length ≥ n
+ * @param m - number of rows
+ * @param a - row-major coefficients: row r is a[r·n … r·n + n)
+ * @param lo - lᵣ per row; −Infinity = no lower bound
+ * @param hi - uᵣ per row; +Infinity = no upper bound (lᵣ = uᵣ → an equality)
+ * @returns as {@link solveLp}
+ */
+export function solveDenseLp(
+  sense: 'minimize' | 'maximize',
+  n: number,
+  objective: ArrayLike<number>,
+  m: number,
+  a: ArrayLike<number>,
+  lo: ArrayLike<number>,
+  hi: ArrayLike<number>,
+): LpSolution {
+  const constraints: [number, Constraint][] = [];
+  for (let r = 0; r < m; r++) {
+    const l = lo[r]!;
+    const u = hi[r]!;
+    const hasLo = l > Number.NEGATIVE_INFINITY;
+    const hasHi = u < Number.POSITIVE_INFINITY;
+    if (hasLo && hasHi) {
+      constraints.push([r, l === u ? { equal: l } : { min: l, max: u }]);
+    } else if (hasLo) {
+      constraints.push([r, { min: l }]);
+    } else if (hasHi) {
+      constraints.push([r, { max: u }]);
     }
   }
   const variables: [number, Coefficients<number>][] = new Array(n);
   for (let j = 0; j < n; j++) {
     const coefs: [number, number][] = [];
-    const c = lp.objective[j] ?? 0;
+    const c = objective[j]!;
     if (c !== 0) coefs.push([OBJECTIVE_KEY, c]);
-    for (let r = 0; r < lp.rows.length; r++) {
-      const a = lp.rows[r]!.coefficients[j] ?? 0;
-      if (a !== 0) coefs.push([r, a]);
+    for (let r = 0; r < m; r++) {
+      const v = a[r * n + j]!;
+      if (v !== 0) coefs.push([r, v]);
     }
     variables[j] = [j, coefs];
   }
   const model = {
-    direction: lp.sense,
+    direction: sense,
     objective: OBJECTIVE_KEY,
     constraints,
     variables,
