@@ -62,6 +62,14 @@ describe('substitute explorer', () => {
     await expect(page.getByRole('columnheader', { name: /^VI/ }).getAttribute('aria-sort')).resolves.toBe('descending');
     await page.getByRole('button', { name: /^Rank/ }).click();
     await screenshot(page, 'explorer');
+    // the cost–solvency trade-off of the compared candidate's combination, as a table
+    const tradeoff = page.getByTestId('tradeoff');
+    await tradeoff.getByRole('button', { name: 'Cost–solvency trade-off of this combination' }).click();
+    await tradeoff.getByRole('table').waitFor();
+    expect(await tradeoff.locator('tbody tr').count()).toBeGreaterThanOrEqual(1);
+    await expect(tradeoff.getByText(/volume-basis approximation/).isVisible()).resolves.toBe(true);
+    await tradeoff.scrollIntoViewIfNeeded();
+    await screenshot(page, 'explorer-tradeoff');
     expect(await axeSerious(page)).toEqual([]);
   });
 

@@ -1,5 +1,5 @@
-import { memo, useMemo, type ReactNode } from 'react';
-import type { Component, Recipe, RecipeLine } from '../../core/model';
+import { memo, useMemo, useState, type ReactNode } from 'react';
+import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/model';
 import type { SubstituteCandidate } from '../../core/substitutes';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
@@ -9,6 +9,7 @@ import { useFormat, type Formatter } from '../../components/format';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/comparison';
 import { assess, type Assessed } from './compare';
+import { combinationTradeOff, type TradeOff } from './tradeoff';
 
 interface Row {
   label: string;
@@ -139,6 +140,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   reference,
   candidate,
   components,
+  targets,
   refAssessed,
   settings,
   adoptedName,
@@ -146,6 +148,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
 }: {
   reference: Recipe;
   candidate: SubstituteCandidate;
+  /** Targets of the search, for the trade-off sweep. */
+  targets: BlendTargets;
   components: readonly Component[];
   refAssessed: Assessed | null;
   settings: Settings;
@@ -218,6 +222,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         </tbody>
       </table>
       {candAssessed?.deposit && <p className="deposit-note">{candAssessed.deposit.explanation}</p>}
+      <TradeOffSection key={`${candidate.key}|${settings.blendMethod}`} candidate={candidate} components={components} byId={byId} targets={targets} settings={settings} />
       <div className="adopt-row">
         <button type="button" className="primary" onClick={onAdopt} disabled={adoptedName !== null}>
           {adoptedName ? 'Adopted' : 'Adopt as a new recipe'}
@@ -231,3 +236,71 @@ export const ComparisonPanel = memo(function ComparisonPanel({
     </section>
   );
 });
+
+/** On demand: the cost–aniline trade-off of the candidate's own combination, as a table. */
+function TradeOffSection({
+  candidate,
+  components,
+  byId,
+  targets,
+  settings,
+}: {
+  candidate: SubstituteCandidate;
+  components: readonly Component[];
+  byId: ReadonlyMap<string, Component>;
+  targets: BlendTargets;
+  settings: Settings;
+}) {
+  const fmt = useFormat();
+  const [result, setResult] = useState<TradeOff | null>(null);
+  const codes = candidate.componentIds.map((id) => byId.get(id)?.code ?? id).join(' + ');
+  return (
+    <section className="tradeoff" aria-labelledby="tradeoff-h" data-testid="tradeoff">
+      <h4 id="tradeoff-h">Cost–solvency trade-off</h4>
+      {result === null ? (
+        <button type="button" onClick={() => setResult(combinationTradeOff(components, targets, candidate.componentIds, settings.blendMethod))}>
+          Cost–solvency trade-off of this combination
+        </button>
+      ) : result.kind === 'error' ? (
+        <p role="alert">The trade-off could not be computed: {result.message}</p>
+      ) : result.points.length === 0 ? (
+        <p role="status">This combination cannot meet the targets, so it has no trade-off to show.</p>
+      ) : (
+        <>
+          <p className="muted" role="status">
+            {result.points.length === 1
+              ? `For ${codes}, the least-cost blend is also the most solvent one: there is no trade-off, one point.`
+              : `Least-cost blend of ${codes} at each aniline-point limit, from its cheapest blend to its most solvent one (${result.points.length} points).`}
+          </p>
+          <table className="data-table tradeoff-table">
+            <caption className="muted">
+              Estimates. The aniline point is a volume-basis approximation over the parts that have one, not a measured value.
+            </caption>
+            <thead>
+              <tr>
+                <th scope="col">Cost per litre</th>
+                <th scope="col">Aniline point</th>
+                <th scope="col">ν40, mm²/s</th>
+                <th scope="col">Recipe</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.points.map((p, i) => (
+                <tr key={i}>
+                  <td className="num">{fmt.money(p.costPerLitre, 3)}</td>
+                  <td className="num">{fmt.temp(p.anilinePoint, 1)}</td>
+                  <td className="num">{fmt.num(p.kv40, 1)}</td>
+                  <td>
+                    {p.lines
+                      .map((l) => `${byId.get(l.componentId)?.code ?? l.componentId} ${fmt.num(l.massFraction * 100, 1)} %`)
+                      .join(', ')}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
+      )}
+    </section>
+  );
+}

@@ -48,7 +48,11 @@ export default function ExplorerScreen() {
   }, [st.referenceId, recipes, activeRecipeId]);
 
   const reference = recipes.find((r) => r.id === st.referenceId) ?? null;
-  const targets = reference ? scenarioTargets(reference, storedTargets[reference.id], components, st.objective) : null;
+  const storedForRef = reference ? storedTargets[reference.id] : undefined;
+  const targets = useMemo(
+    () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective) : null),
+    [reference, storedForRef, components, st.objective],
+  );
   const refAssessed = useMemo(
     () =>
       reference
@@ -159,11 +163,12 @@ export default function ExplorerScreen() {
                 total={st.result.distinct}
                 forcedIds={st.result.forcedIds}
               />
-              {selected && reference && (
+              {selected && reference && targets && (
                 <ComparisonPanel
                   reference={reference}
                   candidate={selected}
                   components={components}
+                  targets={targets}
                   refAssessed={refAssessed}
                   settings={settings}
                   adoptedName={adoptedRecipe?.name ?? null}
