@@ -70,6 +70,10 @@ describe('recipe designer', () => {
     await expect(page.locator('#working-kv40').innerText()).resolves.toMatch(/Refutas/);
     await page.getByLabel('show working for Viscosity index').click();
     await expect(page.locator('#working-vi').innerText()).resolves.toMatch(/ASTM D2270/);
+    // in grade after shear, with the stated assumption as its working
+    await expect(page.getByTestId('prop-shear').innerText()).resolves.toMatch(/^(yes|no), ν40 /);
+    await page.getByLabel('show working for In grade after shear').click();
+    await expect(page.locator('#working-shear').innerText()).resolves.toMatch(/ISO 26422/);
     await screenshot(page, 'designer-working');
     expect(await axeSerious(page)).toEqual([]);
   });

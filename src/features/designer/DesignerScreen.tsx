@@ -58,7 +58,7 @@ export default function DesignerScreen() {
 
   const density = useMemo(() => densityLookup(components), [components]);
   const view = useMemo(() => deriveDraft(lines, byId), [lines, byId]);
-  const prediction = usePrediction(lines, components, settings);
+  const prediction = usePrediction(lines, components, settings, targets.grade);
 
   const [solving, setSolving] = useState(false);
   const onSolve = useCallback(() => {

@@ -2,6 +2,7 @@ import { Fragment, memo, useState } from 'react';
 import type { BlendTargets } from '../../core/model';
 import type { PropertyExplain } from '../../core/blend-properties';
 import { gradeBand } from '../../core/iso-grades';
+import { SHEAR_ASSUMPTION } from '../../core/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
 import { CautionBanner } from '../../components/notices';
@@ -65,6 +66,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     statusText: p.grade === null ? '' : `${p.deviationFromMidPct! >= 0 ? '+' : ''}${fmt.num(p.deviationFromMidPct, 1)} % from mid-point`,
     explain: ex.grade ?? null,
   });
+  rows.push(shearRow(pred, targets, fmt));
   rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
   const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
   rows.push({
@@ -180,6 +182,54 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     explain: ex.costPerLitre ?? null,
   });
   return rows;
+}
+
+/** "In grade after shear": ν40 after permanent (KRL) shear of the polymers, against the target grade's band. */
+export function shearRow(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row {
+  const sh = pred.shear;
+  const base = { key: 'shear', label: 'In grade after shear' };
+  if ('error' in sh) {
+    return {
+      ...base,
+      value: 'cannot assess',
+      status: 'warn',
+      statusText: sh.error,
+      explain: { equation: 'see the note', standard: 'KRL loss of ν100, ISO 26422 / CEC L-45; carry-over to 40 °C assumed', inputs: {}, note: SHEAR_ASSUMPTION },
+    };
+  }
+  const band = (() => {
+    try {
+      const g = gradeBand(targets.grade);
+      return `VG ${targets.grade} band ${fmt.num(g.min, 1)}–${fmt.num(g.max, 1)} mm²/s`;
+    } catch {
+      return `VG ${targets.grade}`;
+    }
+  })();
+  const yes = sh.inGradeAfter === true;
+  const inputs: Record<string, string | number> = {
+    'ν40 before shear [mm²/s]': Number(sh.kv40Before.toFixed(2)),
+    'ν100 before → after shear [mm²/s]': `${fmt.num(sh.kv100Before, 2)} → ${fmt.num(sh.kv100After, 2)}`,
+    'blend loss of ν100, L = Σ sₚ·Lₚ [%]': Number(sh.lossKv100Pct.toFixed(2)),
+    'resulting loss of ν40 [%]': Number(sh.lossKv40Pct.toFixed(2)),
+    'ν40 if it lost the same % as ν100 (simpler assumption) [mm²/s]': Number(sh.kv40AfterSameRelativeLoss.toFixed(1)),
+  };
+  for (const p of sh.polymers) {
+    inputs[`${pred.codes.get(p.componentId) ?? p.componentId} stated KRL loss Lₚ [%] / share of thickening sₚ`] = `${fmt.num(p.shearLossPct, 1)} / ${fmt.num(p.share, 3)}`;
+  }
+  return {
+    ...base,
+    value: `${yes ? 'yes' : 'no'}, ν40 ${fmt.num(sh.kv40After, 1)} mm²/s`,
+    status: sh.inGradeAfter === null ? 'info' : yes ? 'ok' : 'fail',
+    statusText: sh.unchanged ? `no polymer with a stated shear loss; ${band}` : `${band}; ν40 −${fmt.num(sh.lossKv40Pct, 1)} %`,
+    explain: {
+      equation: sh.unchanged
+        ? 'no polymer with a stated shear loss: ν40 after = ν40 before'
+        : 'ν100′ = ν100·(1 − L/100), L = Σ sₚLₚ; each polymer keeps the same fraction of its thickening at 40 °C as at 100 °C; ν40′ by the mixing rule',
+      standard: 'KRL loss of ν100, ISO 26422 / CEC L-45; its carry-over to 40 °C is Blendbench’s stated assumption; ISO 3448 band',
+      inputs,
+      note: SHEAR_ASSUMPTION,
+    },
+  };
 }
 
 const STATUS_MARK: Record<Status, string> = { ok: '✓', warn: '!', fail: '✗', info: '' };

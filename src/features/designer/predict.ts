@@ -4,6 +4,7 @@ import type { Component, RecipeLine } from '../../core/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import { predictBlend, type BlendProperties } from '../../core/blend-properties';
 import { assessDeposit, type DepositAssessment } from '../../core/deposit';
+import { blendAfterShear, type BlendAfterShear } from '../../core/shear-blend';
 import type { Settings } from '../../state';
 
 export type Prediction =
@@ -11,6 +12,8 @@ export type Prediction =
       ok: true;
       props: BlendProperties;
       deposit: DepositAssessment | null;
+      /** ν40 after permanent (KRL) shear of the polymers and the grade check; an error message when it cannot be assessed. */
+      shear: BlendAfterShear | { error: string };
       kv40: number;
       kv100: number;
       /** Blend aniline point [°C], or null when unknown. */
@@ -30,22 +33,30 @@ export function predictRecipe(
   lines: readonly RecipeLine[],
   components: readonly Component[],
   method: BlendMethod,
-  temps: { operatingTempC?: number; coldTempC?: number } = {},
+  temps: { operatingTempC?: number; coldTempC?: number; grade?: number } = {},
 ): Prediction {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
   try {
-    const props = predictBlend(components, used, { method, ...temps });
+    const { grade, ...at } = temps;
+    const props = predictBlend(components, used, { method, ...at });
     let deposit: DepositAssessment | null = null;
     try {
       deposit = assessDeposit(components, used);
     } catch {
       deposit = null;
     }
+    let shear: BlendAfterShear | { error: string };
+    try {
+      shear = blendAfterShear(components, used, { method, ...(grade === undefined ? {} : { grade }) });
+    } catch (e) {
+      shear = { error: e instanceof Error ? e.message : String(e) };
+    }
     return {
       ok: true,
       props,
       deposit,
+      shear,
       kv40: props.kv40,
       kv100: props.kv100,
       anilinePoint: props.anilinePoint?.value ?? null,
@@ -61,10 +72,11 @@ export function usePrediction(
   lines: readonly RecipeLine[],
   components: readonly Component[],
   settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'>,
+  grade?: number,
 ): Prediction {
   const { blendMethod, operatingTempC, coldStartTempC } = settings;
   return useMemo(
-    () => predictRecipe(lines, components, blendMethod, { operatingTempC, coldTempC: coldStartTempC }),
-    [lines, components, blendMethod, operatingTempC, coldStartTempC],
+    () => predictRecipe(lines, components, blendMethod, { operatingTempC, coldTempC: coldStartTempC, ...(grade === undefined ? {} : { grade }) }),
+    [lines, components, blendMethod, operatingTempC, coldStartTempC, grade],
   );
 }
