@@ -18,10 +18,18 @@ export const VI_MIN_KV100 = 2.0;
 export const VI_TABLE_MAX_KV100 = 70.0;
 
 /**
- * Linear interpolation in Table 1 (the standard's instruction for ν100 between tabulated rows) for 2.0 ≤ Y ≤ 70.0 (caller has checked the range).
- * A Y equal to a tabulated row returns that row's values exactly.
+ * L and H for Y = ν100 [mm²/s], written into `out` without input checks or allocation: Table 1 with
+ * linear interpolation between rows (the standard's instruction) for 2.0 ≤ Y ≤ 70.0, a Y equal to a
+ * tabulated row giving that row exactly, and the D2270 equations above 70 mm²/s. The caller
+ * guarantees Y ≥ 2.0 and finite; `referenceViscosities` is the checked entry point, and the solver's
+ * inner loops call this directly.
  */
-function interpolateTable(y: number): { L: number; H: number } {
+export function referenceViscositiesInto(y: number, out: { L: number; H: number }): void {
+  if (y > VI_TABLE_MAX_KV100) {
+    out.L = 0.8353 * y * y + 14.67 * y - 216;
+    out.H = 0.1684 * y * y + 11.85 * y - 97;
+    return;
+  }
   // Binary search for the last row with kv100 ≤ y (steps are irregular: 0.1, 0.2, 0.5).
   let lo = 0;
   let hi = D2270_KV100.length - 1;
@@ -36,10 +44,23 @@ function interpolateTable(y: number): { L: number; H: number } {
   const L1 = D2270_L[hi] as number;
   const H0 = D2270_H[lo] as number;
   const H1 = D2270_H[hi] as number;
-  if (y === y0) return { L: L0, H: H0 };
-  if (y === y1) return { L: L1, H: H1 };
-  const f = (y - y0) / (y1 - y0);
-  return { L: L0 + f * (L1 - L0), H: H0 + f * (H1 - H0) };
+  if (y === y0) {
+    out.L = L0;
+    out.H = H0;
+  } else if (y === y1) {
+    out.L = L1;
+    out.H = H1;
+  } else {
+    const f = (y - y0) / (y1 - y0);
+    out.L = L0 + f * (L1 - L0);
+    out.H = H0 + f * (H1 - H0);
+  }
+}
+
+function interpolateTable(y: number): { L: number; H: number } {
+  const out = { L: 0, H: 0 };
+  referenceViscositiesInto(y, out);
+  return out;
 }
 
 /**

@@ -29,8 +29,8 @@
  *
  * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
  */
-import { D2270_H as TABLE_H, D2270_KV100 as TABLE_KV100, D2270_L as TABLE_L } from '../data/d2270-table1';
-import { VI_MIN_KV100 } from '../viscosity-index';
+import { D2270_KV100 as TABLE_KV100 } from '../data/d2270-table1';
+import { VI_MIN_KV100, referenceViscositiesInto } from '../viscosity-index';
 import type { BlendCoordinates } from './coordinates';
 
 /** A linear lower bound X100 ≥ alpha + beta·X40 valid on an interval of X40. */
@@ -42,48 +42,13 @@ export interface ViChord {
 // Local references to the Table 1 columns (one property look-up here, not one per access in the
 // inner loops — module bindings can compile to getters under some loaders).
 const D2270_KV100: Float64Array = TABLE_KV100;
-const D2270_L: Float64Array = TABLE_L;
-const D2270_H: Float64Array = TABLE_H;
 
 /**
- * L and H at Y — the same interpolation as `referenceViscosities` (Table 1 with linear
- * interpolation up to 70 mm²/s, the D2270 equations above), without input checks or allocation,
- * for the solver's inner loops; Y ≥ 2.0 is guaranteed by the caller. Writes into `out`.
- * (tests/core/solver/vi-boundary.test.ts checks it equals `referenceViscosities` exactly.)
+ * L and H at Y without checks or allocation: `referenceViscositiesInto` of the D2270 module, the
+ * one Table 1 look-up in the project (tests/core/solver/vi-boundary.test.ts checks it equals
+ * `referenceViscosities` exactly).
  */
-export function referenceLH(y: number, out: { L: number; H: number }): void {
-  if (y > 70.0) {
-    out.L = 0.8353 * y * y + 14.67 * y - 216;
-    out.H = 0.1684 * y * y + 11.85 * y - 97;
-    return;
-  }
-  let lo = 0;
-  let hi = D2270_KV100.length - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if ((D2270_KV100[mid] as number) <= y) lo = mid;
-    else hi = mid;
-  }
-  const y0 = D2270_KV100[lo] as number;
-  const y1 = D2270_KV100[hi] as number;
-  const L0 = D2270_L[lo] as number;
-  const L1 = D2270_L[hi] as number;
-  const H0 = D2270_H[lo] as number;
-  const H1 = D2270_H[hi] as number;
-  if (y === y0) {
-    out.L = L0;
-    out.H = H0;
-    return;
-  }
-  if (y === y1) {
-    out.L = L1;
-    out.H = H1;
-    return;
-  }
-  const f = (y - y0) / (y1 - y0);
-  out.L = L0 + f * (L1 - L0);
-  out.H = H0 + f * (H1 - H0);
-}
+export const referenceLH = referenceViscositiesInto;
 
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
 const GAP_SAMPLES = 16;
