@@ -28,6 +28,7 @@ describe('number formatting for the user’s habits', () => {
   });
 
   it('parses what a user types, and refuses garbage', () => {
+    // identity: the typed text is the number itself, in either decimal convention (no external source)
     expect(parseNumber(' 1 234.5 ', '.')).toBe(1234.5);
     expect(parseNumber('1.234,5', ',')).toBe(1234.5);
     expect(parseNumber('−12', '.')).toBe(-12);

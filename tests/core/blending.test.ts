@@ -211,10 +211,12 @@ const rules: [string, Rule][] = [
 
 describe.each(rules)('%s properties', (_name, rule) => {
   it('a one-component blend returns the component', () => {
+    // identity (shared/reference/check-values.md B5)
     fc.assert(fc.property(kvArb, (kv) => isClose(rule([{ f: 1, kv }]), kv, 1e-9)));
   });
 
   it('order does not matter', () => {
+    // identity: both rules are sums over components, so order cannot matter (no external source)
     fc.assert(
       fc.property(partsArb, (parts) => isClose(rule(parts), rule([...parts].reverse()), 1e-10)),
     );

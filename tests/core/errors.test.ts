@@ -42,7 +42,7 @@ describe('named input errors', () => {
       expect(e).toBeInstanceOf(Error);
       expect(e.name).toBe(name);
       expect(e.field).toBe('kv40');
-      expect(e.value).toBe(7);
+      expect(e.value).toBe(7); // no calculation: the error carries the offending input
       expect(e.message).toBe('fn: kv40 = 7 broke a rule');
     }
   });

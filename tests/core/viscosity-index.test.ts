@@ -113,7 +113,7 @@ describe('input errors', () => {
       const err = e as ViscosityOrderError;
       expect(err.name).toBe('ViscosityOrderError');
       expect(err.field).toBe('kv100');
-      expect(err.value).toBe(12);
+      expect(err.value).toBe(12); // no calculation: the error carries the offending input
       expect(err.message).toMatch(/^viscosityIndex: kv100 = 12 mm²\/s is not below kv40 = 10/);
     }
   });

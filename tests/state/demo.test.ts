@@ -43,7 +43,7 @@ describe('invented demo scenario', () => {
 
   it('has reference recipes for VG 220, 320, 460 and 680 that sum to 1 and validate', () => {
     const recipes = demoRecipes();
-    expect(recipes.map((r) => r.grade)).toEqual([220, 320, 460, 680]);
+    expect(recipes.map((r) => r.grade)).toEqual([220, 320, 460, 680]); // invented demo data, not a check value
     const targets = demoTargets();
     for (const r of recipes) {
       expect(recipeSchema.safeParse(r).success).toBe(true);

@@ -56,7 +56,7 @@ describe('CSV import preview', () => {
   it('reads a semicolon file with decimal commas', () => {
     const p = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price\nSC-1;group-ii;45,5;6,6;0,862;1,1\n', lib);
     expect(p.valid).toBe(true);
-    expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5);
+    expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5); // no calculation: '45,5' read with a decimal comma
   });
 
   it('round-trips the demo library through CSV (as updates of the same stocks)', () => {

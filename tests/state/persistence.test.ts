@@ -61,6 +61,7 @@ describe('stores saved in IndexedDB', () => {
     let m = await load();
     await m.state.startSavedWork({ requestPersistence: false });
     expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('fresh');
+    // 29 = size of the invented demo library (a count, not a check value)
     expect(m.state.useLibrary.getState().components.length).toBe(29);
     await m.persistence.whenSaved();
     expect(((await get('library', db())) as { version: number }).version).toBe(2);

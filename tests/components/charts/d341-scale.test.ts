@@ -44,6 +44,7 @@ describe('ASTM D341 chart axes', () => {
   });
 
   it('picks round, well-spaced ticks', () => {
+    // design choice, not a check value: ticks start at 5 mm²/s, keep every decade, ≥ 0.02 axis units apart
     const ticks = pickTicks(KV_TICK_CANDIDATES, 5, 20000, d341Y, 0.02);
     expect(ticks[0]).toBe(5);
     for (const decade of [10, 100, 1000, 10000]) expect(ticks).toContain(decade);

@@ -46,7 +46,7 @@ describe('solveBlendPlain — worked cases', () => {
     expect(r.status).toBe('optimal');
     if (r.status !== 'optimal') return;
     expect(Object.keys(r.massFractions).sort()).toEqual(['a', 'b', 'c', 'pricey']);
-    expect(r.massFractions.pricey).toBe(0);
+    expect(r.massFractions.pricey).toBe(0); // invented fixture: at 9 per kg the pricey stock never pays
     const core = plainBlendProperties(p.components, fractionsOf(p, r.massFractions));
     // identity: the engine's numbers are the core's equations (Refutas, D2270, ideal mixing)
     for (const k of ['kv40', 'kv100', 'vi', 'density15', 'anilinePoint', 'costPerLitre'] as const) {

@@ -49,12 +49,13 @@ describe('solveBlend — facts of the trade (shared/reference/check-values.md §
       const r = optimal(solveBlend({ components: [...G2_NEUTRALS, heavy], targets: targets({ grade: 220 }) }));
       expect(frac(r, heavy.id)).toBeGreaterThan(0);
       expect(r.checks.every((c) => c.ok)).toBe(true);
-      expect(r.properties.grade).toBe(220);
+      expect(r.properties.grade).toBe(220); // the requested grade (ISO 3448 band), no calculated check value
     }
   });
 
   it('a withdrawn bright stock is never used', () => {
     const r = optimal(solveBlend({ components: LIBRARY, targets: targets({ grade: 460 }) }));
+    // rule of the solver, not a check value: a withdrawn stock's fraction is 0
     expect(frac(r, G1_BRIGHT.id)).toBe(0);
   });
 });
@@ -80,7 +81,8 @@ describe('solveBlend — every constraint holds when the recipe is recomputed by
       for (const t of cases) {
         const r = optimal(solveBlend({ components: LIBRARY, targets: t, method }));
         expect(r.checks.filter((c) => !c.ok), JSON.stringify(t)).toEqual([]);
-        // recompute independently from the lines alone
+        // recompute independently from the lines alone; no check value, only the targets and
+        // feasibility tolerances (ν40 1e-4 relative, VI − 0.01, 0.01 °C), common practice (no source)
         const p = predictBlend(LIBRARY, r.lines, { method });
         const lo = Math.max(t.targetKv40 ?? t.grade, 0);
         expect(p.kv40).toBeGreaterThanOrEqual(r.band.min * (1 - 1e-4));
@@ -116,6 +118,8 @@ describe('solveBlend — objectives', () => {
   });
   it('best solvency has a lower aniline point than least cost, and costs no less', () => {
     const s = optimal(solveBlend({ components: LIBRARY, targets: { ...t, objective: 'solvency' } }));
+    // comparison of two optima (no external source): least cost cannot be beaten on cost, and the
+    // solvency objective value is the blend's aniline point itself (identity)
     expect(s.properties.anilinePoint!.value).toBeLessThan(cost.properties.anilinePoint!.value);
     expect(s.properties.costPerLitre!).toBeGreaterThanOrEqual(cost.properties.costPerLitre! - 1e-9);
     expect(s.objectiveValue).toBeCloseTo(s.properties.anilinePoint!.value, 9);
@@ -241,6 +245,7 @@ describe('fast path: prepareComponents + solvePrepared', () => {
       ['bs', 'g2m'], // bs withdrawn → only g2m (+ additive) → infeasible
     ];
     for (const s of subsets) {
+      // agreement of two code paths (no external source); 0.02 is the invented fixture's treat rate
       const fast = solvePrepared(P, s.map(idx));
       const lib = LIBRARY.filter((c) => s.includes(c.id) || c.id === 'ep');
       const slow = solveBlend({ components: lib, targets: t });

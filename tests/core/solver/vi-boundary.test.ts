@@ -41,6 +41,7 @@ describe('VI boundary (ASTM D2270 solved for ν40)', () => {
   });
 
   it('g is increasing and h is its inverse (both mixing rules)', () => {
+    // identity: h is constructed as the inverse of g (no external source)
     for (const method of ['refutas', 'astm-d7152'] as const) {
       const c = blendCoordinates(method);
       for (const m of [90, 100, 120]) {

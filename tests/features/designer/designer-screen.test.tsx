@@ -62,6 +62,7 @@ describe('Recipe designer', () => {
     const input = screen.getByLabelText('Volume % of BW-160') as HTMLInputElement;
     fireEvent.change(input, { target: { value: '25' } });
     const s = useDesignerStore.getState();
+    // invariant: mass fractions still sum to 1 (no external source)
     expect(s.lines.reduce((a, l) => a + l.massFraction, 0)).toBeCloseTo(1, 12);
   });
 
@@ -95,6 +96,7 @@ describe('Recipe designer', () => {
     expect(recipes.length).toBe(n + 1);
     const saved = recipes.at(-1)!;
     expect(saved.name).toBe('Trial 320 A');
+    // no calculation: the draft keeps the invented demo recipe's grade; fractions sum to 1 (invariant)
     expect(saved.grade).toBe(320);
     expect(saved.lines.reduce((a, l) => a + l.massFraction, 0)).toBeCloseTo(1, 12);
     expect(useRecipes.getState().targets[saved.id]?.grade).toBe(320);

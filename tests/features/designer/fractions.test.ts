@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { addLine, basisFractions, editFraction, normalise, removeLine } from '../../../src/features/designer/fractions';
 import type { RecipeLine } from '../../../src/core/model';
 
+// invented demo data, not check values: densities (kg/L) and fractions of four made-up lines
 const dens: Record<string, number> = { a: 0.87, b: 0.9, c: 0.85, add: 1.05 };
 const density = (id: string) => dens[id]!;
 const sum = (ls: RecipeLine[]) => ls.reduce((s, l) => s + l.massFraction, 0);
@@ -17,6 +18,7 @@ const recipe: RecipeLine[] = [
 
 describe('editFraction', () => {
   it('balance mode: only the balance stock changes', () => {
+    // hand arithmetic on the invented fractions (no external source): a = 1 − 0.35 − 0.18 − 0.02 = 0.45
     const r = editFraction(recipe, density, 'mass', 'b', 0.35, { mode: 'balance', balanceId: 'a' });
     expect(r.clamped).toBe(false);
     expect(frac(r.lines, 'b')).toBe(0.35);
@@ -27,6 +29,7 @@ describe('editFraction', () => {
   });
 
   it('proportional mode keeps the locked additive at its treat rate', () => {
+    // hand arithmetic (no external source): a and b share 1 − 0.28 − 0.02 in their 0.5 : 0.3 ratio
     const r = editFraction(recipe, density, 'mass', 'c', 0.28, { mode: 'proportional', lockedIds: ['add'] });
     expect(frac(r.lines, 'c')).toBe(0.28);
     expect(frac(r.lines, 'add')).toBe(0.02);
@@ -47,6 +50,7 @@ describe('editFraction', () => {
   });
 
   it('clamps when the balance stock runs out, and says so', () => {
+    // hand arithmetic (no external source): b is exhausted, so c reaches 0.18 + 0.30 = 0.48
     const r = editFraction(recipe, density, 'mass', 'c', 0.9, { mode: 'balance', balanceId: 'b' });
     expect(r.clamped).toBe(true);
     expect(r.message).toMatch(/balance stock/);
@@ -56,12 +60,14 @@ describe('editFraction', () => {
   });
 
   it('refuses to edit the balance line itself', () => {
+    // identity: a refused edit returns the recipe unchanged (no external source)
     const r = editFraction(recipe, density, 'mass', 'a', 0.4, { mode: 'balance', balanceId: 'a' });
     expect(r.clamped).toBe(true);
     expect(r.lines).toEqual(recipe);
   });
 
   it('spreads over absorbers that are all at zero', () => {
+    // hand arithmetic (no external source): the freed 0.4 is split evenly, 0.2 each
     const ls: RecipeLine[] = [
       { componentId: 'a', massFraction: 1 },
       { componentId: 'b', massFraction: 0 },
@@ -100,6 +106,7 @@ describe('editFraction', () => {
 
 describe('add, remove, normalise', () => {
   it('removing a line gives its share to the balance stock', () => {
+    // hand arithmetic (no external source): a = 0.5 + 0.18 = 0.68
     const ls = removeLine(recipe, 'c', { mode: 'balance', balanceId: 'a' });
     expect(ls.map((l) => l.componentId)).toEqual(['a', 'b', 'add']);
     expect(frac(ls, 'a')).toBeCloseTo(0.68, 12);
@@ -107,12 +114,14 @@ describe('add, remove, normalise', () => {
   });
 
   it('adding a line starts it at 0 %', () => {
+    // definition of the editing rule (no external source): a new line starts at 0, a first line at 1
     const ls = addLine(recipe.slice(0, 2), 'c');
     expect(frac(ls, 'c')).toBe(0);
     expect(addLine([], 'a')).toEqual([{ componentId: 'a', massFraction: 1 }]);
   });
 
   it('normalise scales to exactly 1', () => {
+    // invariant: normalised fractions sum to 1 (no external source)
     const ls = normalise([
       { componentId: 'a', massFraction: 0.333 },
       { componentId: 'b', massFraction: 0.333 },

@@ -58,7 +58,7 @@ describe('Substitute explorer', () => {
     fireEvent.click(screen.getByText('Adopt as a new recipe'));
     await waitFor(() => expect(useRecipes.getState().recipes.length).toBe(before + 1));
     const r = useRecipes.getState().recipes.at(-1)!;
-    expect(r.grade).toBe(320);
+    expect(r.grade).toBe(320); // no calculation: the searched grade of the invented demo reference
     expect(r.name).toMatch(/^VG 320 substitute: /);
     expect(r.lines.some((l) => l.componentId === 'demo-bw-190')).toBe(false);
     expect(useRecipes.getState().activeRecipeId).toBe(r.id);

@@ -45,7 +45,7 @@ describe('Library screen', () => {
     type(kv100, '500');
     expect(screen.getByText('ν100 (500 mm²/s) must be below ν40 (485 mm²/s)')).toBeTruthy();
     expect(kv100.getAttribute('aria-invalid')).toBe('true');
-    expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8);
+    expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8); // unchanged invented demo value
     fireEvent.keyDown(kv100, { key: 'Escape' });
     expect((kv100 as HTMLInputElement).value).toBe('31.8');
   });
@@ -54,7 +54,7 @@ describe('Library screen', () => {
     renderFor('BW-190');
     const aniline = screen.getByLabelText('Aniline point of BW-190 [°C]');
     type(aniline, '400');
-    expect(bs().anilinePoint).toBe(400);
+    expect(bs().anilinePoint).toBe(400); // no calculation: stored as typed
     expect(screen.getByText(/400 °C is outside the usual −60 to 180 °C for an aniline point/)).toBeTruthy();
   });
 
@@ -65,11 +65,12 @@ describe('Library screen', () => {
     expect(screen.getByText(/“abc” is not a number/)).toBeTruthy();
     type(rho, '900');
     expect(screen.getByText(/looks like kg\/m³: enter kg\/L \(e\.g\. 0\.9\)/)).toBeTruthy();
-    expect(bs().density15).toBe(0.9);
+    expect(bs().density15).toBe(0.9); // no calculation: the last valid typed value (invented demo data)
   });
 
   it('edits are one undo step each; clone, withdraw and delete can be undone', () => {
     renderFor('BW-190');
+    // no calculation: 485 is the invented demo value, 490 the typed one
     type(screen.getByLabelText('ν40 of BW-190 [mm²/s]'), '490');
     expect(bs().viscosityPoints[0]!.kv).toBe(490);
     fireEvent.change(screen.getByLabelText('Availability of BW-190'), { target: { value: 'withdrawn' } });
