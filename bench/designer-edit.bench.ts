@@ -16,41 +16,11 @@
  * also holds the browser's frame work and whatever else the machine is doing, is given in the note.
  * `performance.now()` is coarsened to 0.1 ms in the page, so a batch is timed and averaged.
  */
-import { spawn } from 'node:child_process';
-import { createServer } from 'node:net';
-import { chromium, type Browser } from 'playwright-core';
-import { buildAppOnce } from './app-build';
+import { withServedApp } from './chromium';
 import type { BenchLine } from './types';
 
 const EDITS = 120;
 const WARMUP = 10;
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const addr = srv.address();
-      const port = typeof addr === 'object' && addr ? addr.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForServer(url: string, timeoutMs: number): Promise<void> {
-  const start = Date.now();
-  for (;;) {
-    try {
-      if ((await fetch(url)).ok) return;
-    } catch {
-      /* not up yet */
-    }
-    if (Date.now() - start > timeoutMs) throw new Error(`designer-edit bench: preview server did not answer at ${url}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
-const isLocal = (u: string) => /^(data:|blob:|about:)/.test(u) || new URL(u).hostname === '127.0.0.1';
 
 /**
  * Runs in the page (plain JavaScript in a string, so the bundler adds no helpers): the timed batch.
@@ -107,26 +77,10 @@ const editBatch = (page: import('playwright-core').Page, args: { label: string; 
   page.evaluate(`(${EDIT_BATCH})(${JSON.stringify(args)})`) as Promise<{ times: number[]; wallTimes: number[]; syncDone: number }>;
 
 export async function run(): Promise<BenchLine[]> {
-  const dir = buildAppOnce();
-  const port = await freePort();
-  const server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(port), '--strictPort', '--outDir', dir], {
-    detached: true,
-    stdio: 'ignore',
-  });
-  let browser: Browser | undefined;
-  try {
-    const url = `http://127.0.0.1:${port}/#/designer`;
-    await waitForServer(`http://127.0.0.1:${port}/`, 30_000);
-    browser = await chromium.launch({
-      executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-      headless: true,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-        '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
-    const context = await browser.newContext({ viewport: { width: 1400, height: 900 } });
-    await context.route((u) => !isLocal(u.toString()), (r) => r.abort());
+  return withServedApp('designer-edit', async (app) => {
+    const context = await app.newContext();
     const page = await context.newPage();
-    await page.goto(url);
+    await page.goto(`${app.url}#/designer`);
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await page.waitForSelector('[data-chart="viscosity-temperature"] .recharts-line-curve');
     await page.waitForSelector('[data-chart="composition"] .live-bar');
@@ -178,14 +132,5 @@ export async function run(): Promise<BenchLine[]> {
         goal: 16,
       },
     ];
-  } finally {
-    await browser?.close();
-    if (server.pid) {
-      try {
-        process.kill(-server.pid, 'SIGTERM');
-      } catch {
-        /* already gone */
-      }
-    }
-  }
+  });
 }

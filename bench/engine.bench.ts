@@ -28,34 +28,10 @@ import { ISO_GRADES } from '../src/core/iso-grades';
 import { solveBlendPlain, preparePlain, type PlainComponent, type PlainProblem } from '../src/core/solver/plain';
 import { solvePrepared } from '../src/core/solver/engine';
 import type { BenchLine } from './types';
+import { rng, typicalsAt } from './fixtures/random-problems';
 
-/** mulberry32: a small seeded generator (benchmarks only; the core has no randomness). */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-// Generic typicals (from memory, shared/reference/base-stock-typicals.md): ν40, ν100, ρ15, aniline.
-const TYPICALS: [number, number, number, number][] = [
-  [30, 5.1, 0.868, 98],
-  [100, 11.0, 0.885, 112],
-  [480, 31.5, 0.9, 122],
-  [20, 4.1, 0.858, 106],
-  [42, 6.4, 0.862, 113],
-  [110, 12.0, 0.872, 121],
-  [460, 31, 0.885, 127],
-  [34, 6.3, 0.84, 123],
-  [31, 5.9, 0.827, 126],
-  [395, 39.5, 0.85, 145],
-  [1240, 100, 0.853, 160],
-  [109, 12.4, 0.89, 90],
-];
+// Rows 0–11 of the shared typicals: the selection these seeds were drawn from.
+const TYPICALS = typicalsAt([0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11]);
 
 /** Random problems with `k` components, seeded. */
 export function randomProblems(count: number, k: number, seed: number): PlainProblem[] {

@@ -8,38 +8,10 @@
  * has been read and the lazy screen has loaded) is laid out — i.e. the app is usable, not merely the
  * shell. One warm-up load (starts the server's and the OS's caches), then the median of 7 loads.
  */
-import { spawn } from 'node:child_process';
-import { createServer } from 'node:net';
-import { chromium, type Browser } from 'playwright-core';
-import { buildAppOnce } from './app-build';
+import { withServedApp, type ServedApp } from './chromium';
 import type { BenchLine } from './types';
 
 const LOADS = 7;
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const addr = srv.address();
-      const port = typeof addr === 'object' && addr ? addr.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForServer(url: string, timeoutMs: number): Promise<void> {
-  const start = Date.now();
-  for (;;) {
-    try {
-      if ((await fetch(url)).ok) return;
-    } catch {
-      /* not up yet */
-    }
-    if (Date.now() - start > timeoutMs) throw new Error(`first-render bench: preview server did not answer at ${url}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 // Runs in the page before any of the app's scripts.
 const MARKER = `(() => {
@@ -53,15 +25,12 @@ const MARKER = `(() => {
   obs.observe(document, { subtree: true, childList: true });
 })();`;
 
-const isLocal = (u: string) => /^(data:|blob:|about:)/.test(u) || new URL(u).hostname === '127.0.0.1';
-
-async function oneLoad(browser: Browser, url: string): Promise<{ firstRender: number; fcp: number | null }> {
-  const context = await browser.newContext({ viewport: { width: 1400, height: 900 } });
+async function oneLoad(app: ServedApp): Promise<{ firstRender: number; fcp: number | null }> {
+  const context = await app.newContext();
   try {
-    await context.route((u) => !isLocal(u.toString()), (r) => r.abort());
     await context.addInitScript(MARKER);
     const page = await context.newPage();
-    await page.goto(url, { waitUntil: 'commit' });
+    await page.goto(app.url, { waitUntil: 'commit' });
     await page.waitForFunction(() => typeof (window as { __bbFirstRender?: number }).__bbFirstRender === 'number', null, {
       timeout: 20_000,
     });
@@ -81,27 +50,12 @@ const median = (xs: number[]) => {
 };
 
 export async function run(): Promise<BenchLine[]> {
-  const dir = buildAppOnce();
-  const port = await freePort();
-  const server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(port), '--strictPort', '--outDir', dir], {
-    detached: true,
-    stdio: 'ignore',
-  });
-  let browser: Browser | undefined;
-  try {
-    const url = `http://127.0.0.1:${port}/`;
-    await waitForServer(url, 30_000);
-    browser = await chromium.launch({
-      executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-      headless: true,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-        '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
-    await oneLoad(browser, url); // warm-up
+  return withServedApp('first-render', async (app) => {
+    await oneLoad(app); // warm-up
     const times: number[] = [];
     const fcps: number[] = [];
     for (let i = 0; i < LOADS; i++) {
-      const r = await oneLoad(browser, url);
+      const r = await oneLoad(app);
       times.push(r.firstRender);
       if (r.fcp !== null) fcps.push(r.fcp);
     }
@@ -116,14 +70,5 @@ export async function run(): Promise<BenchLine[]> {
           (fcps.length ? `; first contentful paint median ${Math.round(median(fcps))} ms` : ''),
       },
     ];
-  } finally {
-    await browser?.close();
-    if (server.pid) {
-      try {
-        process.kill(-server.pid, 'SIGTERM');
-      } catch {
-        /* already gone */
-      }
-    }
-  }
+  });
 }
