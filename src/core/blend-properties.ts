@@ -114,6 +114,35 @@ export function blendingViscosities(component: Component): { kv40: number; kv100
 const fmt = (x: number, d = 4): number => Number(x.toPrecision(d + 2));
 
 /**
+ * The recipe's lines joined to their components, each with the viscosities it blends with
+ * (`blendingViscosities`: a calibration's effective values when present, else the measured ones).
+ *
+ * @param fn Name of the calling function, for the error message.
+ * @param components Library holding every component named by `lines`.
+ * @param lines Recipe lines (mass fractions 0–1).
+ * @returns One entry per line, in recipe order: the line, its component, ν40 and ν100 [mm²/s].
+ * @throws BlendbenchInputError naming `lines[i].componentId` when a line names no component.
+ */
+export function resolveBlendParts(
+  fn: string,
+  components: readonly Component[],
+  lines: readonly RecipeLine[],
+): { line: RecipeLine; component: Component; kv40: number; kv100: number; calibrated: boolean }[] {
+  const byId = new Map(components.map((c) => [c.id, c]));
+  return lines.map((l, i) => {
+    const c = byId.get(l.componentId);
+    if (!c) {
+      throw new BlendbenchInputError(
+        `lines[${i}].componentId`,
+        l.componentId,
+        `${fn}: lines[${i}].componentId = "${l.componentId}" names no component in the library`,
+      );
+    }
+    return { line: l, component: c, ...blendingViscosities(c) };
+  });
+}
+
+/**
  * Predict a blend's properties from its components and mass fractions.
  *
  * - ν40, ν100: the chosen mixing rule (Refutas on mass fractions or ASTM D7152 on volume fractions)
@@ -140,19 +169,7 @@ export function predictBlend(
 ): BlendProperties {
   const fn = 'predictBlend';
   const method: BlendMethod = opts.method ?? 'refutas';
-  const byId = new Map(components.map((c) => [c.id, c]));
-  const parts = lines.map((l, i) => {
-    const c = byId.get(l.componentId);
-    if (!c) {
-      throw new BlendbenchInputError(
-        `lines[${i}].componentId`,
-        l.componentId,
-        `${fn}: lines[${i}].componentId = "${l.componentId}" names no component in the library`,
-      );
-    }
-    const v = blendingViscosities(c);
-    return { line: l, component: c, ...v };
-  });
+  const parts = resolveBlendParts(fn, components, lines);
   const warnings: string[] = [];
   const explain: Record<string, PropertyExplain> = {};
   const blendParts = parts.map((p) => ({

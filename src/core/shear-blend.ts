@@ -40,7 +40,7 @@ import type { Component, RecipeLine } from './model';
 import type { BlendMethod } from './blending/blend-viscosity';
 import { blendKv40Kv100 } from './blending/blend-viscosity';
 import { blendCoordinates } from './solver/coordinates';
-import { blendingViscosities } from './blend-properties';
+import { resolveBlendParts } from './blend-properties';
 import { BlendbenchInputError, ViscosityOutOfRangeError, assertFinite } from './errors';
 import { isInGrade, isoViscosityGrade } from './iso-grades';
 import { VI_MIN_KV100, viscosityIndex } from './viscosity-index';
@@ -113,19 +113,12 @@ export function blendAfterShear(
   const fn = 'blendAfterShear';
   const method: BlendMethod = opts.method ?? 'refutas';
   const coords = blendCoordinates(method);
-  const byId = new Map(components.map((c) => [c.id, c]));
-  const parts = lines.map((l, i) => {
-    const c = byId.get(l.componentId);
-    if (!c) {
-      throw new BlendbenchInputError(
-        `lines[${i}].componentId`,
-        l.componentId,
-        `${fn}: lines[${i}].componentId = "${l.componentId}" names no component in the library`,
-      );
-    }
-    const v = blendingViscosities(c);
-    return { c, w: l.massFraction, kv40: v.kv40, kv100: v.kv100 };
-  });
+  const parts = resolveBlendParts(fn, components, lines).map((p) => ({
+    c: p.component,
+    w: p.line.massFraction,
+    kv40: p.kv40,
+    kv100: p.kv100,
+  }));
   const toBlendParts = (kvs: { kv40: number; kv100: number }[]) =>
     parts.map((p, i) => ({ massFraction: p.w, density15: p.c.density15, kv40: kvs[i]!.kv40, kv100: kvs[i]!.kv100 }));
   const before = blendKv40Kv100(method, toBlendParts(parts));
