@@ -10,7 +10,8 @@
  * a published constants table (shared/reference/check-values.md F1). A flash point is a safety
  * property: this estimate never replaces the measured value (ASTM D92 / D93) required before release.
  */
-import { BlendbenchInputError, assertFractions, assertTemperatureC, assertFinite } from './errors';
+import { BlendbenchInputError, assertTemperatureC, assertFinite } from './errors';
+import { blendByVolumeIndex } from './blending/volume-index';
 
 const KELVIN_OFFSET = 273.15;
 /** Below T = 42.6 K the index is undefined (pole of the equation). */
@@ -66,18 +67,11 @@ export function flashPointFromIndex(bi: number): number {
 export function blendFlashPoint(
   parts: readonly { volumeFraction: number; flashPoint: number | null }[],
 ): number | null {
-  const fn = 'blendFlashPoint';
-  assertFractions(
-    fn,
-    'volumeFraction',
-    parts.map((p) => p.volumeFraction),
+  return blendByVolumeIndex(
+    'blendFlashPoint',
+    'flashPoint',
+    parts.map((p) => ({ volumeFraction: p.volumeFraction, value: p.flashPoint })),
+    flashBlendingIndex,
+    flashPointFromIndex,
   );
-  let bi = 0;
-  for (const [i, p] of parts.entries()) {
-    if (p.volumeFraction === 0) continue;
-    if (p.flashPoint === null) return null;
-    assertTemperatureC(fn, `parts[${i}].flashPoint`, p.flashPoint);
-    bi += p.volumeFraction * flashBlendingIndex(p.flashPoint);
-  }
-  return flashPointFromIndex(bi);
 }

@@ -8,7 +8,8 @@
  * pour-point depressants defeat any such index, and a blend's pour point must be measured
  * (ASTM D97) before release. The app flags every value from here as an estimate.
  */
-import { BlendbenchInputError, assertFinite, assertFractions, assertTemperatureC } from './errors';
+import { BlendbenchInputError, assertFinite, assertTemperatureC } from './errors';
+import { blendByVolumeIndex } from './blending/volume-index';
 
 const KELVIN_OFFSET = 273.15;
 const EXPONENT = 1 / 0.08; // 12.5
@@ -53,18 +54,11 @@ export function pourPointFromIndex(bi: number): number {
 export function blendPourPoint(
   parts: readonly { volumeFraction: number; pourPoint: number | null }[],
 ): number | null {
-  const fn = 'blendPourPoint';
-  assertFractions(
-    fn,
-    'volumeFraction',
-    parts.map((p) => p.volumeFraction),
+  return blendByVolumeIndex(
+    'blendPourPoint',
+    'pourPoint',
+    parts.map((p) => ({ volumeFraction: p.volumeFraction, value: p.pourPoint })),
+    pourBlendingIndex,
+    pourPointFromIndex,
   );
-  let bi = 0;
-  for (const [i, p] of parts.entries()) {
-    if (p.volumeFraction === 0) continue;
-    if (p.pourPoint === null) return null;
-    assertTemperatureC(fn, `parts[${i}].pourPoint`, p.pourPoint);
-    bi += p.volumeFraction * pourBlendingIndex(p.pourPoint);
-  }
-  return pourPointFromIndex(bi);
 }
