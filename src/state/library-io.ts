@@ -216,6 +216,14 @@ export function previewCsv(text: string, existing: readonly Component[]): Import
         }
         return v;
       };
+      // More filled cells than the header has columns: a stray quote or separator has shifted or
+      // swallowed cells (possibly whole lines), so nothing in the row can be trusted.
+      const extra = cells.slice(header.length).filter((c) => String(c ?? '').trim() !== '');
+      if (extra.length > 0) {
+        errors.push(
+          `the row has ${header.length + extra.length} filled cells but the header names ${header.length} columns — check for an unclosed quote or a stray separator (“${clip(String(extra[0]), 30)}”)`,
+        );
+      }
       const kv40 = num('kv40_mm2s', 'ν40');
       const kv100 = num('kv100_mm2s', 'ν100');
       const density = num('density15_kg_per_l', 'density');

@@ -23,6 +23,10 @@ import { savedWorkDb, whenSaved } from '../../src/state/persistence';
 import { startSavedWork, useLibrary } from '../../src/state';
 import type { Component } from '../../src/core/model';
 
+// A fixed seed keeps the suite reproducible (as in tests/core/solver-fuzz.test.ts);
+// FUZZ_SEED=<n> explores other cases. fast-check prints the seed of any failure.
+fc.configureGlobal({ seed: Number(process.env.FUZZ_SEED ?? 20_261_202) });
+
 // Share of the 10,000 runs per generator family (sums to 10,000).
 const RUNS = { csvFaults: 3500, jsonFaults: 2500, rawText: 2000, envelope: 1000, backup: 1000 } as const;
 
