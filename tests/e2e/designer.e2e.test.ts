@@ -1,25 +1,8 @@
 // Recipe designer in the built app (Chromium via playwright-core): solve, live edit, working, save, reload.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, type Session, stored } from './support';
 import { axeSerious } from './axe';
-
-/** One saved-work record straight from IndexedDB (database `blendbench`, store `saved-work`). */
-async function stored(page: Page, key: string): Promise<unknown> {
-  return page.evaluate(
-    (k) =>
-      new Promise((resolve, reject) => {
-        const open = indexedDB.open('blendbench');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const req = open.result.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
-          req.onsuccess = () => resolve(req.result);
-          req.onerror = () => reject(req.error);
-        };
-      }),
-    key,
-  );
-}
 
 const kvOf = async (page: Page) => Number((await page.getByTestId('prop-kv40').innerText()).replace(/[^\d.]/g, ''));
 

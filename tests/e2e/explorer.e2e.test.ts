@@ -2,24 +2,8 @@
 // Web Worker; ranked candidates, comparison, adoption, and the adopted recipe after a reload.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, type Session, stored } from './support';
 import { axeSerious } from './axe';
-
-async function stored(page: Page, key: string): Promise<unknown> {
-  return page.evaluate(
-    (k) =>
-      new Promise((resolve, reject) => {
-        const open = indexedDB.open('blendbench');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const req = open.result.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
-          req.onsuccess = () => resolve(req.result);
-          req.onerror = () => reject(req.error);
-        };
-      }),
-    key,
-  );
-}
 
 describe('substitute explorer', () => {
   let s: Session;

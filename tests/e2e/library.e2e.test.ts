@@ -4,25 +4,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
-
-/** Read one saved-work record straight from IndexedDB (database `blendbench`). */
-async function stored(page: Page, key: string): Promise<unknown> {
-  return page.evaluate(
-    (k) =>
-      new Promise((resolve, reject) => {
-        const open = indexedDB.open('blendbench');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const tx = open.result.transaction('saved-work', 'readonly');
-          const req = tx.objectStore('saved-work').get(k);
-          req.onsuccess = () => resolve(req.result);
-          req.onerror = () => reject(req.error);
-        };
-      }),
-    key,
-  );
-}
+import { launch, screenshot, type Session, stored } from './support';
 
 async function libraryRowCount(page: Page): Promise<number> {
   return page.getByRole('table', { name: 'Component library' }).locator(':scope > tbody > tr:not(.details-row)').count();

@@ -11,7 +11,7 @@
 import { afterEach, describe, expect, inject, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, type Session, stored } from './support';
 import { axeSerious } from './axe';
 
 const QUOTA_STUB = `(() => {
@@ -29,27 +29,6 @@ const persistStub = (granted: boolean) => `(() => {
   navigator.storage.persist = () => Promise.resolve(${granted});
   navigator.storage.persisted = () => Promise.resolve(${granted});
 })();`;
-
-/** One saved-work record, read straight from IndexedDB (database `blendbench`). */
-async function stored(page: Page, key: string): Promise<unknown> {
-  return page.evaluate(
-    (k) =>
-      new Promise((resolve, reject) => {
-        const open = indexedDB.open('blendbench');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const db = open.result;
-          const req = db.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
-          req.onsuccess = () => {
-            resolve(req.result);
-            db.close();
-          };
-          req.onerror = () => reject(req.error);
-        };
-      }),
-    key,
-  );
-}
 
 /** Write a raw record into Blendbench's IndexedDB store (as another program or a bad disk might). */
 async function putRaw(page: Page, key: string, value: unknown): Promise<void> {

@@ -78,3 +78,24 @@ export async function launch(opts: { profileDir?: string; keepProfile?: boolean 
 export async function screenshot(page: Page, name: string): Promise<void> {
   await page.screenshot({ path: join(SCREEN_DIR, `${name}.png`), fullPage: true });
 }
+
+/** One saved-work record, read straight from Blendbench's IndexedDB (database `blendbench`, store `saved-work`). */
+export async function stored(page: Page, key: string): Promise<unknown> {
+  return page.evaluate(
+    (k) =>
+      new Promise((resolve, reject) => {
+        const open = indexedDB.open('blendbench');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const db = open.result;
+          const req = db.transaction('saved-work', 'readonly').objectStore('saved-work').get(k);
+          req.onsuccess = () => {
+            resolve(req.result);
+            db.close();
+          };
+          req.onerror = () => reject(req.error);
+        };
+      }),
+    key,
+  );
+}
