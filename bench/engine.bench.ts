@@ -23,8 +23,8 @@
  */
 import { performance } from 'node:perf_hooks';
 import { refutasVbn, kvFromRefutasVbn } from '../src/core/blending/refutas';
-import { viscosityIndex } from '../src/core/viscosity-index';
-import { ISO_GRADES } from '../src/core/iso-grades';
+import { viscosityIndex } from '../src/core/viscosity/viscosity-index';
+import { ISO_GRADES } from '../src/core/viscosity/iso-grades';
 import { solveBlendPlain, preparePlain, type PlainComponent, type PlainProblem } from '../src/core/solver/plain';
 import { solvePrepared } from '../src/core/solver/engine';
 import type { BenchLine } from './types';

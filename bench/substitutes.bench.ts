@@ -7,7 +7,7 @@
  * during the search. The library is invented (bench/fixtures/invented-library-40.ts).
  */
 import { performance } from 'node:perf_hooks';
-import { createSubstituteSearch, type SubstituteSearchResult } from '../src/core/substitutes';
+import { createSubstituteSearch, type SubstituteSearchResult } from '../src/core/search/substitutes';
 import { benchTargets, inventedAdditive, inventedLibrary40 } from './fixtures/invented-library-40';
 import type { BenchLine } from './types';
 

@@ -5,7 +5,7 @@
  */
 
 // Domain model
-export * from './model';
+export * from './formulation/model';
 
 // Errors (every entry point throws one of these on impossible input)
 export {
@@ -31,11 +31,11 @@ export {
   roundHalfEven,
   VI_MIN_KV100,
   VI_TABLE_MAX_KV100,
-} from './viscosity-index';
-export { D2270_KV100, D2270_L, D2270_H, D2270_TABLE1_ROWS } from './data/d2270-table1';
+} from './viscosity/viscosity-index';
+export { D2270_KV100, D2270_L, D2270_H, D2270_TABLE1_ROWS } from './viscosity/d2270-table1';
 
 // Viscosity–temperature — ASTM D341
-export type { WaltherLine } from './viscosity-temperature';
+export type { WaltherLine } from './viscosity/viscosity-temperature';
 export {
   viscosityAtTemperature,
   temperatureForViscosity,
@@ -45,7 +45,7 @@ export {
   temperatureAtKv,
   kv40kv100FromPoints,
   WALTHER_MIN_KV,
-} from './viscosity-temperature';
+} from './viscosity/viscosity-temperature';
 
 // Blend viscosity — Refutas, ASTM D7152, any temperature
 export { blendViscosityRefutas, refutasVbn, kvFromRefutasVbn, refutasHeavyFraction } from './blending/refutas';
@@ -54,7 +54,7 @@ export type { BlendMethod, BlendPart } from './blending/blend-viscosity';
 export { blendViscosityAt, blendKv40Kv100, BLEND_METHODS, BLEND_METHOD_LABEL } from './blending/blend-viscosity';
 
 // ISO viscosity grades — ISO 3448, ASTM D2422
-export type { IsoGrade } from './iso-grades';
+export type { IsoGrade } from './viscosity/iso-grades';
 export {
   isoViscosityGrade,
   gradeBand,
@@ -63,18 +63,18 @@ export {
   nearestGrade,
   ISO_GRADES,
   ISO_GRADE_NUMBERS,
-} from './iso-grades';
+} from './viscosity/iso-grades';
 
 // Density, fractions, cost, batch quantities
-export { blendDensity, massToVolumeFractions, volumeToMassFractions } from './density';
-export type { BatchSize } from './cost';
-export { pricePerKg, blendCostPerKg, blendCostPerLitre, batchQuantities } from './cost';
+export { blendDensity, massToVolumeFractions, volumeToMassFractions } from './blending/density';
+export type { BatchSize } from './formulation/cost';
+export { pricePerKg, blendCostPerKg, blendCostPerLitre, batchQuantities } from './formulation/cost';
 
 // Other blend properties (estimates)
-export { blendAnilinePoint } from './aniline';
-export { flashBlendingIndex, flashPointFromIndex, blendFlashPoint } from './flash-point';
-export { pourBlendingIndex, pourPointFromIndex, blendPourPoint } from './pour-point';
-export { krlShearLossPct, shearedKv, inGradeAfterShear } from './shear';
+export { blendAnilinePoint } from './blending/aniline';
+export { flashBlendingIndex, flashPointFromIndex, blendFlashPoint } from './blending/flash-point';
+export { pourBlendingIndex, pourPointFromIndex, blendPourPoint } from './blending/pour-point';
+export { krlShearLossPct, shearedKv, inGradeAfterShear } from './viscosity/shear';
 
 // Units at the boundary
 export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';
@@ -92,7 +92,7 @@ export type {
   QcKey,
   QcRow,
   CsvRecord,
-} from './blend-sheet';
+} from './sheet/blend-sheet';
 export {
   buildBlendSheet,
   largestRemainderUnits,
@@ -103,11 +103,11 @@ export {
   qcReleaseTargets,
   blendSheetCsvRows,
   BLEND_SHEET_CAUTIONS,
-} from './blend-sheet';
+} from './sheet/blend-sheet';
 
 // Predicted blend properties (with "show working" explanations)
-export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions } from './blend-properties';
-export { predictBlend, blendingViscosities } from './blend-properties';
+export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions } from './formulation/blend-properties';
+export { predictBlend, blendingViscosities } from './formulation/blend-properties';
 
 // Solver: recipes to a grade (least cost per litre, solvency, oxidation, closest), fast path, plain API
 export type {
@@ -127,7 +127,7 @@ export type { PlainComponent, PlainProblem, PlainBlend, PlainSolveResult } from 
 export { solveBlendPlain } from './solver/plain';
 
 // Solvency, oxidation stability, deposit propensity (Blendbench's own ordinal scales; estimates)
-export type { OxidationClass, BlendOxidation, OxidationContribution } from './oxidation';
+export type { OxidationClass, BlendOxidation, OxidationContribution } from './scoring/oxidation';
 export {
   oxidationRating,
   oxidationClass,
@@ -138,25 +138,25 @@ export {
   OXIDATION_CLASS_LABEL,
   OXIDATION_RATING_MIN,
   OXIDATION_RATING_MAX,
-} from './oxidation';
-export type { SolvencyBand, SolvencyScore, BlendSolvency, SolvencyContribution } from './solvency';
-export { solvencyScore, blendSolvency, SOLVENCY_BANDS, SOLVENCY_BAND_LABEL, SOLVENCY_THRESHOLDS } from './solvency';
-export type { DepositPropensity, DepositPattern, DepositAssessment, DepositDriver } from './deposit';
+} from './scoring/oxidation';
+export type { SolvencyBand, SolvencyScore, BlendSolvency, SolvencyContribution } from './scoring/solvency';
+export { solvencyScore, blendSolvency, SOLVENCY_BANDS, SOLVENCY_BAND_LABEL, SOLVENCY_THRESHOLDS } from './scoring/solvency';
+export type { DepositPropensity, DepositPattern, DepositAssessment, DepositDriver } from './scoring/deposit';
 export {
   assessDeposit,
   depositPropensity,
   DEPOSIT_PROPENSITIES,
   DEPOSIT_PROPENSITY_LABEL,
   DEPOSIT_PATTERN_LABEL,
-} from './deposit';
+} from './scoring/deposit';
 
 // Non-ideal components: effective blending viscosity from a measured trial blend
-export type { CalibrationInput } from './calibration';
-export { calibrateComponent, MIN_CALIBRATION_FRACTION, MIN_EFFECTIVE_KV } from './calibration';
+export type { CalibrationInput } from './formulation/calibration';
+export { calibrateComponent, MIN_CALIBRATION_FRACTION, MIN_EFFECTIVE_KV } from './formulation/calibration';
 
 // Blend after permanent shear (KRL) — in grade after shear
-export type { BlendAfterShear, ShearedPolymer } from './shear-blend';
-export { blendAfterShear, SHEAR_ASSUMPTION } from './shear-blend';
+export type { BlendAfterShear, ShearedPolymer } from './formulation/shear-blend';
+export { blendAfterShear, SHEAR_ASSUMPTION } from './formulation/shear-blend';
 
 // Substitute search (chunked, for a Web Worker), Pareto frontier, ε-constraint sweep, comparison
 export type {
@@ -165,11 +165,11 @@ export type {
   SubstituteSearchProgress,
   SubstituteSearchResult,
   SubstituteCandidate,
-} from './substitutes';
-export { createSubstituteSearch, searchSubstitutes, DEFAULT_MAX_COMPONENTS } from './substitutes';
-export type { FrontierPoint, FrontierSweepInput } from './frontier';
-export { paretoFrontier, epsilonConstraintSweep } from './frontier';
-export type { ComparisonInput, Comparison, Delta, Change, RecipeAssessment } from './comparison';
-export { compareRecipes, assessRecipe } from './comparison';
-export type { PlainSubstituteRequest, PlainSubstituteResult } from './substitutes-plain';
-export { searchSubstitutesPlain } from './substitutes-plain';
+} from './search/substitutes';
+export { createSubstituteSearch, searchSubstitutes, DEFAULT_MAX_COMPONENTS } from './search/substitutes';
+export type { FrontierPoint, FrontierSweepInput } from './search/frontier';
+export { paretoFrontier, epsilonConstraintSweep } from './search/frontier';
+export type { ComparisonInput, Comparison, Delta, Change, RecipeAssessment } from './formulation/comparison';
+export { compareRecipes, assessRecipe } from './formulation/comparison';
+export type { PlainSubstituteRequest, PlainSubstituteResult } from './search/substitutes-plain';
+export { searchSubstitutesPlain } from './search/substitutes-plain';

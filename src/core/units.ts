@@ -8,7 +8,7 @@
  * Money is never converted between currencies: a price keeps the currency the user names.
  */
 import { create, unitDependencies } from 'mathjs';
-import type { Price, PriceBasis } from './model';
+import type { Price, PriceBasis } from './formulation/model';
 import { ABSOLUTE_ZERO_C, BelowAbsoluteZeroError, BlendbenchInputError, assertDensity15, assertFinite } from './errors';
 
 const math = create({ unitDependencies } as { unitDependencies: NonNullable<typeof unitDependencies> }, {});

@@ -8,10 +8,10 @@
  * (kg/m³ typed as kg/L, cSt at 100 °C typed in the 40 °C column).
  */
 import { ABSOLUTE_ZERO_C, DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
-import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/oxidation';
-import { viscosityIndex } from '../core/viscosity-index';
-import { kv40kv100FromPoints } from '../core/viscosity-temperature';
-import type { Component } from '../core/model';
+import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxidation';
+import { viscosityIndex } from '../core/viscosity/viscosity-index';
+import { kv40kv100FromPoints } from '../core/viscosity/viscosity-temperature';
+import type { Component } from '../core/formulation/model';
 
 /** Field names used in messages and for placing them beside inputs. */
 export type CheckField =

@@ -13,8 +13,7 @@
  * 2 %) and rounded to 0.5 %; tests/state/demo.test.ts checks with the core's Refutas blend that each
  * is inside its ISO 3448 band.
  */
-import type { BlendTargets, Component, ComponentCategory, PriceBasis, Availability, Recipe } from '../core/model';
-import type { Settings } from './settings';
+import type { BlendTargets, Component, ComponentCategory, PriceBasis, Availability, Recipe } from '../core/formulation/model';
 
 export const DEMO_LABEL = 'invented demo data';
 export const DEMO_PLANT = 'Brackwater Blending Works';
@@ -175,8 +174,11 @@ export function demoTargets(): Record<string, BlendTargets> {
   return out;
 }
 
-/** Settings of the demo (company name invented). */
-export function demoSettingsPatch(): Pick<Settings, 'companyName'> {
+/**
+ * Settings of the demo (company name invented). Typed structurally so that this module does not
+ * import the settings store (which imports this one).
+ */
+export function demoSettingsPatch(): { companyName: string } {
   return { companyName: `${DEMO_PLANT} (invented demo plant)` };
 }
 

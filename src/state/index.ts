@@ -35,7 +35,7 @@
  */
 import { useMemo } from 'react';
 import { useStore } from 'zustand';
-import type { Component, Recipe } from '../core/model';
+import type { Component, Recipe } from '../core/formulation/model';
 import { useLibraryStore, LIBRARY_SPEC } from './library';
 import { useRecipesStore, RECIPES_SPEC, demoRecipesData } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';

@@ -11,8 +11,8 @@
  * see `CSV_COLUMNS`.
  */
 import Papa from 'papaparse';
-import type { Component, ComponentCategory, PriceBasis, Availability } from '../core/model';
-import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../core/model';
+import type { Component, ComponentCategory, PriceBasis, Availability } from '../core/formulation/model';
+import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../core/formulation/model';
 import { componentSchema, describeIssues, z } from './schemas';
 import { checkComponent } from './checks';
 import { blankComponent } from './library';

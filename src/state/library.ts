@@ -2,7 +2,7 @@
 import { create } from 'zustand';
 import { persist } from 'zustand/middleware';
 import { temporal } from 'zundo';
-import type { Availability, Component } from '../core/model';
+import type { Availability, Component } from '../core/formulation/model';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { libraryDataSchema } from './schemas';
 import { demoComponents } from './demo';

@@ -2,7 +2,7 @@
 import { create } from 'zustand';
 import { persist } from 'zustand/middleware';
 import { temporal } from 'zundo';
-import type { BlendTargets, Recipe, RecipeLine } from '../core/model';
+import type { BlendTargets, Recipe, RecipeLine } from '../core/formulation/model';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { recipesDataSchema } from './schemas';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';

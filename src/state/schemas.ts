@@ -4,8 +4,8 @@
  * record that could not be typed in through the interface cannot arrive through the back door either.
  */
 import { z } from 'zod';
-import { COMPONENT_CATEGORIES } from '../core/model';
-import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/model';
+import { COMPONENT_CATEGORIES } from '../core/formulation/model';
+import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/formulation/model';
 
 // zod 4 probes `new Function` at start-up unless told not to; our CSP forbids eval.
 z.config({ jitless: true });

@@ -4,7 +4,7 @@
  * memory, demo data only); codes and prices are invented. Not check values: tests that use them
  * check identities, orderings and agreement between independent computations.
  */
-import type { Component, ComponentCategory } from '../../src/core/model';
+import type { Component, ComponentCategory } from '../../src/core/formulation/model';
 
 export interface StockSpec {
   id: string;

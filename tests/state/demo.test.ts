@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { blendViscosityRefutas, kvFromRefutasVbn, refutasHeavyFraction, refutasVbn } from '../../src/core/blending/refutas';
-import { gradeBand, isInGrade } from '../../src/core/iso-grades';
+import { gradeBand, isInGrade } from '../../src/core/viscosity/iso-grades';
 import { componentSchema, recipeSchema } from '../../src/state/schemas';
 import { checkComponent } from '../../src/state/checks';
 import {

@@ -21,7 +21,7 @@ import {
 import { parseBackupText } from '../../src/state/backup';
 import { savedWorkDb, whenSaved } from '../../src/state/persistence';
 import { startSavedWork, useLibrary } from '../../src/state';
-import type { Component } from '../../src/core/model';
+import type { Component } from '../../src/core/formulation/model';
 
 // A fixed seed keeps the suite reproducible (as in tests/core/solver-fuzz.test.ts);
 // FUZZ_SEED=<n> explores other cases. fast-check prints the seed of any failure.

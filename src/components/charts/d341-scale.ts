@@ -6,7 +6,7 @@
  * every Newtonian oil as a straight line. The chart works in these transformed co-ordinates and
  * labels its ticks back in °C and mm²/s at round values.
  *
- * Presentation only: the core (`src/core/viscosity-temperature.ts`) owns the method itself.
+ * Presentation only: the core (`src/core/viscosity/viscosity-temperature.ts`) owns the method itself.
  */
 
 const KELVIN_OFFSET = 273.15;

@@ -8,7 +8,7 @@
  *   converted by ideal mixing at 15 °C, see `density.ts`) ({@link blendViscosityAstmD7152}).
  * Every result names the method that produced it.
  */
-import { massToVolumeFractions } from '../density';
+import { massToVolumeFractions } from './density';
 import {
   BlendbenchInputError,
   assertAboveAbsoluteZeroC,
@@ -16,7 +16,7 @@ import {
   assertFractions,
   assertKv40Kv100,
 } from '../errors';
-import { viscosityAtTemperature } from '../viscosity-temperature';
+import { viscosityAtTemperature } from '../viscosity/viscosity-temperature';
 import { blendViscosityAstmD7152 } from './astm-loglog';
 import { blendViscosityRefutas } from './refutas';
 

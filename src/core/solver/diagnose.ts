@@ -9,8 +9,8 @@
  *    feasible is binding, and the reason quotes the best value reachable for it under all the other
  *    constraints (highest VI, lowest aniline point, least polymer, …) against its limit.
  */
-import { flashBlendingIndex, flashPointFromIndex } from '../flash-point';
-import { pourBlendingIndex, pourPointFromIndex } from '../pour-point';
+import { flashBlendingIndex, flashPointFromIndex } from '../blending/flash-point';
+import { pourBlendingIndex, pourPointFromIndex } from '../blending/pour-point';
 import {
   ALL_GROUPS,
   anilineObjective,
@@ -24,7 +24,7 @@ import {
   type EngineObjective,
   type PreparedProblem,
 } from './engine';
-import { VI_MIN_KV100, viscosityIndex } from '../viscosity-index';
+import { VI_MIN_KV100, viscosityIndex } from '../viscosity/viscosity-index';
 
 export interface Diagnosis {
   /** What prevents a recipe, with the numbers. */

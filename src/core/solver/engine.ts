@@ -33,11 +33,11 @@
  * For objectives other than cost, a second LP minimises cost among recipes within a hair of the
  * first optimum (lexicographic), so ties are broken by price.
  */
-import type { Objective } from '../model';
+import type { Objective } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
-import { viscosityIndex, VI_MIN_KV100 } from '../viscosity-index';
-import { pourBlendingIndex } from '../pour-point';
-import { flashBlendingIndex } from '../flash-point';
+import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
+import { pourBlendingIndex } from '../blending/pour-point';
+import { flashBlendingIndex } from '../blending/flash-point';
 import { blendCoordinates, type BlendCoordinates } from './coordinates';
 import { ViBoundary, type ViChord } from './vi-boundary';
 import { solveDenseLp } from './lp';

@@ -25,10 +25,10 @@ import {
   assertViscosity,
 } from '../errors';
 import { blendKv40Kv100 } from '../blending/blend-viscosity';
-import { viscosityIndex, VI_MIN_KV100 } from '../viscosity-index';
-import { blendDensity, massToVolumeFractions } from '../density';
-import { blendAnilinePoint } from '../aniline';
-import { blendCostPerLitre } from '../cost';
+import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
+import { blendDensity, massToVolumeFractions } from '../blending/density';
+import { blendAnilinePoint } from '../blending/aniline';
+import { blendCostPerLitre } from '../formulation/cost';
 import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
 import { diagnoseInfeasible } from './diagnose';
 

@@ -8,13 +8,13 @@
  * against every constraint (`checks`); infeasible problems come back with a reason computed from
  * the achievable range and the binding constraint (`diagnose.ts`).
  */
-import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../model';
+import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, assertDensity15, assertFinite, assertTemperatureC, assertViscosity } from '../errors';
-import { gradeBand } from '../iso-grades';
-import { pricePerKg } from '../cost';
-import { oxidationRating } from '../oxidation';
-import { blendingViscosities, predictBlend, type BlendProperties } from '../blend-properties';
+import { gradeBand } from '../viscosity/iso-grades';
+import { pricePerKg } from '../formulation/cost';
+import { oxidationRating } from '../scoring/oxidation';
+import { blendingViscosities, predictBlend, type BlendProperties } from '../formulation/blend-properties';
 import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
 import { diagnoseInfeasible, fmtKv } from './diagnose';
 

@@ -29,8 +29,8 @@
  *
  * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
  */
-import { D2270_KV100 as TABLE_KV100 } from '../data/d2270-table1';
-import { VI_MIN_KV100, referenceViscositiesInto } from '../viscosity-index';
+import { D2270_KV100 as TABLE_KV100 } from '../viscosity/d2270-table1';
+import { VI_MIN_KV100, referenceViscositiesInto } from '../viscosity/viscosity-index';
 import type { BlendCoordinates } from './coordinates';
 
 /** A linear lower bound X100 ≥ alpha + beta·X40 valid on an interval of X40. */

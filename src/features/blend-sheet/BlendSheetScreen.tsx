@@ -1,8 +1,8 @@
 // The blend-sheet screen: wires the printable sheet to the saved library, recipes and settings.
 // Opens on `#/blend-sheet/<recipeId>` when given, else on the active recipe.
 import { useCallback, useMemo, useState } from 'react';
-import type { Recipe } from '../../core/model';
-import { predictBlend } from '../../core/blend-properties';
+import type { Recipe } from '../../core/formulation/model';
+import { predictBlend } from '../../core/formulation/blend-properties';
 import { recipeActions, useActiveRecipe, useLibrary, useRecipes, useSettings } from '../../state';
 import { useFormat } from '../../components/format';
 import { BlendSheetView } from './BlendSheetView';

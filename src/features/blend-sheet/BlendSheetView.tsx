@@ -1,7 +1,7 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
 import { useId, useMemo, useState } from 'react';
-import type { Component, Recipe } from '../../core/model';
+import type { Component, Recipe } from '../../core/formulation/model';
 import {
   BLEND_SHEET_CAUTIONS,
   blendSheetCsvRows,
@@ -11,7 +11,7 @@ import {
   type BlendSheet,
   type QcRow,
   type SheetPrediction,
-} from '../../core/blend-sheet';
+} from '../../core/sheet/blend-sheet';
 import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
 import { csvFileName, downloadCsv, toCsv } from './csv';
 import './blend-sheet.css';

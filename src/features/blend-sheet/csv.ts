@@ -1,7 +1,7 @@
 // CSV export of the blend sheet's component table: papaparse writes the text, a Blob + object URL
 // hands it to the browser's download. No network.
 import Papa from 'papaparse';
-import type { CsvRecord } from '../../core/blend-sheet';
+import type { CsvRecord } from '../../core/sheet/blend-sheet';
 
 /** The CSV text of the records (header row from the first record's keys), CRLF line ends. */
 export function toCsv(records: readonly CsvRecord[]): string {

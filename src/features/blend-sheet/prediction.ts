@@ -1,6 +1,6 @@
 // Maps the blend prediction of the core (`predictBlend`) onto the few numbers the sheet prints.
-import type { BlendProperties } from '../../core/blend-properties';
-import type { SheetPrediction } from '../../core/blend-sheet';
+import type { BlendProperties } from '../../core/formulation/blend-properties';
+import type { SheetPrediction } from '../../core/sheet/blend-sheet';
 
 export function toSheetPrediction(p: BlendProperties): SheetPrediction {
   return {

@@ -7,7 +7,7 @@
  * and drawn by live layers inside each chart, so an edit re-renders only those layers.
  */
 import { useCallback, useMemo, useRef } from 'react';
-import type { Component, Recipe } from '../../core/model';
+import type { Component, Recipe } from '../../core/formulation/model';
 import type { Settings } from '../../state';
 import {
   CompositionChart,
@@ -21,10 +21,10 @@ import {
   type ViscosityLineInput,
 } from '../../components/charts';
 import { makeFormatter } from '../../components/format';
-import { kv40kv100FromPoints } from '../../core/viscosity-temperature';
+import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
 import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
-import { oxidationClass } from '../../core/oxidation';
+import { oxidationClass } from '../../core/scoring/oxidation';
 
 export interface DesignerChartsProps {
   view: DraftView;

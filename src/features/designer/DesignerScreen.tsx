@@ -1,5 +1,5 @@
 import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
-import type { BlendTargets, Recipe } from '../../core/model';
+import type { BlendTargets, Recipe } from '../../core/formulation/model';
 import { Notice } from '../../components/notices';
 import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
 import { TargetsForm } from './TargetsForm';

@@ -1,10 +1,10 @@
 import { Fragment, memo, useState } from 'react';
-import type { BlendTargets } from '../../core/model';
-import type { PropertyExplain } from '../../core/blend-properties';
-import { gradeBand } from '../../core/iso-grades';
-import { SHEAR_ASSUMPTION } from '../../core/shear-blend';
-import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
-import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
+import type { BlendTargets } from '../../core/formulation/model';
+import type { PropertyExplain } from '../../core/formulation/blend-properties';
+import { gradeBand } from '../../core/viscosity/iso-grades';
+import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
+import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
+import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { CautionBanner } from '../../components/notices';
 import { useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';

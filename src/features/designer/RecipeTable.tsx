@@ -1,6 +1,6 @@
 import { memo, useId, useState } from 'react';
-import type { Component } from '../../core/model';
-import { CATEGORY_LABEL } from '../../core/model';
+import type { Component } from '../../core/formulation/model';
+import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { useFormat } from '../../components/format';
 import type { Basis } from './fractions';
 import type { DraftView } from './derive';

@@ -1,7 +1,7 @@
 import { memo, useId } from 'react';
-import type { BlendTargets, Component, Objective, Recipe } from '../../core/model';
-import { CATEGORY_LABEL } from '../../core/model';
-import { ISO_GRADES, gradeBand } from '../../core/iso-grades';
+import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
+import { CATEGORY_LABEL } from '../../core/formulation/model';
+import { ISO_GRADES, gradeBand } from '../../core/viscosity/iso-grades';
 import { NumberField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 

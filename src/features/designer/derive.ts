@@ -1,6 +1,6 @@
 /** Per-line numbers the recipe table and charts show, derived from the draft (never stored). */
-import type { Component, RecipeLine } from '../../core/model';
-import { pricePerKg } from '../../core/cost';
+import type { Component, RecipeLine } from '../../core/formulation/model';
+import { pricePerKg } from '../../core/formulation/cost';
 
 export interface LineView {
   componentId: string;

@@ -10,7 +10,7 @@
  * rule is the same in the mass % and the volume % view; in the volume view the edited line's
  * mass fraction is solved so that its volume share (ideal mixing at 15 °C) is the one entered.
  */
-import type { RecipeLine } from '../../core/model';
+import type { RecipeLine } from '../../core/formulation/model';
 
 export type Basis = 'mass' | 'volume';
 

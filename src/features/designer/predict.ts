@@ -1,10 +1,10 @@
 /** Predicted properties of the draft, recomputed by the core on every change (never stored). */
 import { useMemo } from 'react';
-import type { Component, RecipeLine } from '../../core/model';
+import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
-import { predictBlend, type BlendProperties } from '../../core/blend-properties';
-import { assessDeposit, type DepositAssessment } from '../../core/deposit';
-import { blendAfterShear, type BlendAfterShear } from '../../core/shear-blend';
+import { predictBlend, type BlendProperties } from '../../core/formulation/blend-properties';
+import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
+import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 import type { Settings } from '../../state';
 
 export type Prediction =

@@ -1,6 +1,6 @@
 /** Runs the core solver for the designer and turns its answer into lines or a notice. */
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
-import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/model';
+import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { solveBlend } from '../../core/solver/solve-blend';
 import { OBJECTIVE_LABEL } from './TargetsForm';
 import type { SolveNotice } from './store';

@@ -4,7 +4,7 @@
  * recipes store. Holds inputs; predicted properties are derived on render.
  */
 import { create } from 'zustand';
-import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/model';
+import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
 
 export type RebalanceMode = 'balance' | 'proportional';

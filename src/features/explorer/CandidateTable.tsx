@@ -1,6 +1,6 @@
 import { memo, useMemo, useState } from 'react';
-import type { Component } from '../../core/model';
-import type { SubstituteCandidate } from '../../core/substitutes';
+import type { Component } from '../../core/formulation/model';
+import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { useFormat } from '../../components/format';
 import { useExplorerStore, type SortKey } from './store';
 

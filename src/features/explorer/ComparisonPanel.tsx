@@ -1,13 +1,13 @@
 import { memo, useMemo, useState, type ReactNode } from 'react';
-import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/model';
-import type { SubstituteCandidate } from '../../core/substitutes';
-import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/oxidation';
-import { SOLVENCY_BAND_LABEL } from '../../core/solvency';
-import { DEPOSIT_PROPENSITY_LABEL } from '../../core/deposit';
+import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
+import type { SubstituteCandidate } from '../../core/search/substitutes';
+import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
+import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
+import { DEPOSIT_PROPENSITY_LABEL } from '../../core/scoring/deposit';
 import { CautionBanner } from '../../components/notices';
 import { useFormat, type Formatter } from '../../components/format';
 import type { Settings } from '../../state';
-import { compareRecipes } from '../../core/comparison';
+import { compareRecipes } from '../../core/formulation/comparison';
 import { assess, type Assessed } from './compare';
 import { combinationTradeOff, type TradeOff } from './tradeoff';
 

@@ -1,9 +1,9 @@
 /** The explorer's charts (lazy chunk with recharts). */
 import { useMemo } from 'react';
-import type { Component, Recipe } from '../../core/model';
-import type { SubstituteCandidate } from '../../core/substitutes';
-import { kv40kv100FromPoints } from '../../core/viscosity-temperature';
-import { oxidationClass } from '../../core/oxidation';
+import type { Component, Recipe } from '../../core/formulation/model';
+import type { SubstituteCandidate } from '../../core/search/substitutes';
+import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
+import { oxidationClass } from '../../core/scoring/oxidation';
 import {
   FrontierChart,
   SolvencyOxidationMap,

@@ -1,6 +1,6 @@
 import { Suspense, lazy, useEffect, useId, useMemo } from 'react';
-import type { BlendTargets, Component, Objective, Recipe } from '../../core/model';
-import type { SubstituteCandidate } from '../../core/substitutes';
+import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
+import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';

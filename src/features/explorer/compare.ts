@@ -1,9 +1,9 @@
 /** Side-by-side numbers for a candidate and the recipe it replaces (derived, never stored). */
-import type { Component, RecipeLine } from '../../core/model';
+import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
-import { predictBlend, type BlendProperties } from '../../core/blend-properties';
-import { assessDeposit, type DepositAssessment } from '../../core/deposit';
-import { blendAfterShear, type BlendAfterShear } from '../../core/shear-blend';
+import { predictBlend, type BlendProperties } from '../../core/formulation/blend-properties';
+import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
+import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 
 export interface Assessed {
   props: BlendProperties;

@@ -1,5 +1,5 @@
 /** Messages between the explorer screen and its Web Worker (plain, structured-clone-safe data). */
-import type { SubstituteSearchInput, SubstituteSearchProgress, SubstituteSearchResult } from '../../core/substitutes';
+import type { SubstituteSearchInput, SubstituteSearchProgress, SubstituteSearchResult } from '../../core/search/substitutes';
 
 export type ToWorker = { type: 'start'; runId: number; input: SubstituteSearchInput } | { type: 'cancel'; runId: number };
 

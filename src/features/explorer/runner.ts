@@ -3,7 +3,7 @@
  * in-thread). Solves combinations in chunks of about `sliceMs`, reports progress after each, and
  * yields to the event loop between chunks so a cancel message can arrive.
  */
-import { createSubstituteSearch, type SubstituteSearchInput } from '../../core/substitutes';
+import { createSubstituteSearch, type SubstituteSearchInput } from '../../core/search/substitutes';
 import type { FromWorker } from './protocol';
 
 export interface RunnerOptions {

@@ -2,7 +2,7 @@
  * Starts a substitute search in a module Web Worker and follows it: progress callbacks, a promise
  * for the outcome, and cancel (asks the worker to stop, then ends it).
  */
-import type { SubstituteSearchInput, SubstituteSearchProgress, SubstituteSearchResult } from '../../core/substitutes';
+import type { SubstituteSearchInput, SubstituteSearchProgress, SubstituteSearchResult } from '../../core/search/substitutes';
 import type { FromWorker, ToWorker } from './protocol';
 
 /** The part of `Worker` the client uses (lets tests supply an in-thread stand-in). */

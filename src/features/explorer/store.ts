@@ -4,8 +4,8 @@
  * selection. Saved work (adopted recipes) goes to the recipes store.
  */
 import { create } from 'zustand';
-import type { Objective } from '../../core/model';
-import type { SubstituteSearchProgress, SubstituteSearchResult } from '../../core/substitutes';
+import type { Objective } from '../../core/formulation/model';
+import type { SubstituteSearchProgress, SubstituteSearchResult } from '../../core/search/substitutes';
 
 export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'error';
 export type SortKey = 'rank' | 'cost' | 'kv40' | 'vi' | 'aniline' | 'oxidation' | 'size';

@@ -1,7 +1,7 @@
 /** The cost–solvency trade-off of one candidate's combination (ε-constraint sweep; derived, never stored). */
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
-import { epsilonConstraintSweep, type FrontierPoint } from '../../core/frontier';
-import type { BlendTargets, Component } from '../../core/model';
+import { epsilonConstraintSweep, type FrontierPoint } from '../../core/search/frontier';
+import type { BlendTargets, Component } from '../../core/formulation/model';
 
 export type TradeOff = { kind: 'points'; points: FrontierPoint[] } | { kind: 'error'; message: string };
 

@@ -1,10 +1,10 @@
 // Effective blending viscosity of a non-ideal stock, calibrated from a measured trial blend:
 // the stored calibration's provenance, and the form that solves a new one with the core.
 import { useId, useMemo, useState } from 'react';
-import type { Calibration, Component, Recipe } from '../../core/model';
-import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/calibration';
-import { blendingViscosities, predictBlend } from '../../core/blend-properties';
-import { kv40kv100FromPoints } from '../../core/viscosity-temperature';
+import type { Calibration, Component, Recipe } from '../../core/formulation/model';
+import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/formulation/calibration';
+import { blendingViscosities, predictBlend } from '../../core/formulation/blend-properties';
+import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
 import type { Formatter } from '../../components/format';
 
 export type BlendRule = Calibration['method'];

@@ -1,7 +1,7 @@
-import type { Component, PriceBasis, Recipe } from '../../core/model';
-import { oxidationRating } from '../../core/oxidation';
+import type { Component, PriceBasis, Recipe } from '../../core/formulation/model';
+import { oxidationRating } from '../../core/scoring/oxidation';
 import { PRICE_BASIS_LABEL } from '../../core/units';
-import { pricePerKg } from '../../core/cost';
+import { pricePerKg } from '../../core/formulation/cost';
 import { NumberField, SelectField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { checkValue } from '../../state/checks';

@@ -1,8 +1,8 @@
 import { memo } from 'react';
-import type { Availability, Component, ComponentCategory } from '../../core/model';
-import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/model';
-import { isoViscosityGrade, nearestGrade } from '../../core/iso-grades';
-import { roundHalfEven } from '../../core/viscosity-index';
+import type { Availability, Component, ComponentCategory } from '../../core/formulation/model';
+import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/formulation/model';
+import { isoViscosityGrade, nearestGrade } from '../../core/viscosity/iso-grades';
+import { roundHalfEven } from '../../core/viscosity/viscosity-index';
 import { NumberField, SelectField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { checkValue, checkViscosityPair, kv40kv100, safeVi } from '../../state/checks';

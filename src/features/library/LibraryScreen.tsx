@@ -1,7 +1,7 @@
 import { Fragment, useCallback, useMemo, useState } from 'react';
 import './library.css';
-import type { Component, ComponentCategory } from '../../core/model';
-import { CATEGORY_LABEL } from '../../core/model';
+import type { Component, ComponentCategory } from '../../core/formulation/model';
+import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { DemoTag, Notice } from '../../components/notices';
 import { downloadText } from '../../components/download';
 import { useFormat } from '../../components/format';

@@ -2,7 +2,7 @@
  * Invented scenario stocks for the solver tests. Properties are generic typicals
  * (from memory, shared/reference/base-stock-typicals.md); codes, prices and the plant are invented.
  */
-import type { BlendTargets, Component, ComponentCategory } from '../../../src/core/model';
+import type { BlendTargets, Component, ComponentCategory } from '../../../src/core/formulation/model';
 
 export function stock(
   id: string,

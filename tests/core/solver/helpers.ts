@@ -5,10 +5,10 @@
  */
 import { blendKv40Kv100 } from '../../../src/core/blending/blend-viscosity';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
-import { viscosityIndex } from '../../../src/core/viscosity-index';
-import { blendDensity, massToVolumeFractions } from '../../../src/core/density';
-import { blendAnilinePoint } from '../../../src/core/aniline';
-import { blendCostPerLitre } from '../../../src/core/cost';
+import { viscosityIndex } from '../../../src/core/viscosity/viscosity-index';
+import { blendDensity, massToVolumeFractions } from '../../../src/core/blending/density';
+import { blendAnilinePoint } from '../../../src/core/blending/aniline';
+import { blendCostPerLitre } from '../../../src/core/formulation/cost';
 import type { PlainComponent, PlainProblem } from '../../../src/core/solver/plain';
 import { rng, typicalsAt } from '../../../bench/fixtures/random-problems';
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { solveBlend, prepareComponents, solvePrepared, type SolveResult, type SolveOptimal } from '../../../src/core/solver/solve-blend';
-import type { Component, Recipe } from '../../../src/core/model';
-import { predictBlend } from '../../../src/core/blend-properties';
+import type { Component, Recipe } from '../../../src/core/formulation/model';
+import { predictBlend } from '../../../src/core/formulation/blend-properties';
 import {
   AN_12,
   AN_5,

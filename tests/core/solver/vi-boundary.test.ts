@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { ViBoundary, referenceLH } from '../../../src/core/solver/vi-boundary';
 import { blendCoordinates } from '../../../src/core/solver/coordinates';
-import { referenceViscosities, viscosityIndex } from '../../../src/core/viscosity-index';
+import { referenceViscosities, viscosityIndex } from '../../../src/core/viscosity/viscosity-index';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
 import { astmLogLog, kvFromAstmLogLog } from '../../../src/core/blending/astm-loglog';
 

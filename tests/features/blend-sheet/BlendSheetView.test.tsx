@@ -3,8 +3,8 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import { BlendSheetView } from '../../../src/features/blend-sheet/BlendSheetView';
 import { csvFileName, toCsv } from '../../../src/features/blend-sheet/csv';
-import type { SheetPrediction } from '../../../src/core/blend-sheet';
-import type { Component, ComponentCategory, Recipe } from '../../../src/core/model';
+import type { SheetPrediction } from '../../../src/core/sheet/blend-sheet';
+import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
 
 afterEach(cleanup);
 

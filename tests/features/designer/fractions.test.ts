@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { addLine, basisFractions, editFraction, normalise, removeLine } from '../../../src/features/designer/fractions';
-import type { RecipeLine } from '../../../src/core/model';
+import type { RecipeLine } from '../../../src/core/formulation/model';
 
 // invented demo data, not check values: densities (kg/L) and fractions of four made-up lines
 const dens: Record<string, number> = { a: 0.87, b: 0.9, c: 0.85, add: 1.05 };

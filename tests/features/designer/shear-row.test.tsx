@@ -8,7 +8,7 @@ import { useDesignerStore } from '../../../src/features/designer/store';
 import { predictRecipe } from '../../../src/features/designer/predict';
 import { shearRow } from '../../../src/features/designer/PropertiesPanel';
 import { makeFormatter } from '../../../src/components/format';
-import { blendAfterShear, SHEAR_ASSUMPTION } from '../../../src/core/shear-blend';
+import { blendAfterShear, SHEAR_ASSUMPTION } from '../../../src/core/formulation/shear-blend';
 import { recipeActions, resetDemo, useSettingsState } from '../../../src/state';
 import { demoComponents, demoRecipes, demoTargets } from '../../../src/state/demo';
 

@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { setWorkerFactory, startSearch } from '../../../src/features/explorer/search-client';
-import { searchSubstitutes, type SubstituteSearchProgress } from '../../../src/core/substitutes';
+import { searchSubstitutes, type SubstituteSearchProgress } from '../../../src/core/search/substitutes';
 import { demoComponents, defaultTargets, demoRecipes, DEMO_ADDITIVE_ID, demoComponentId } from '../../../src/state/demo';
 import { inThreadWorker } from './in-thread-worker';
 

@@ -7,7 +7,7 @@ import ExplorerScreen from '../../../src/features/explorer/ExplorerScreen';
 import { setWorkerFactory } from '../../../src/features/explorer/search-client';
 import { useExplorerStore } from '../../../src/features/explorer/store';
 import { combinationTradeOff } from '../../../src/features/explorer/tradeoff';
-import { searchSubstitutes } from '../../../src/core/substitutes';
+import { searchSubstitutes } from '../../../src/core/search/substitutes';
 import { resetDemo } from '../../../src/state';
 import { DEMO_ADDITIVE_ID, demoComponents, demoRecipes, demoTargets } from '../../../src/state/demo';
 import { inThreadWorker } from './in-thread-worker';

@@ -3,8 +3,8 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
-import { predictBlend } from '../../../src/core/blend-properties';
-import { calibrateComponent } from '../../../src/core/calibration';
+import { predictBlend } from '../../../src/core/formulation/blend-properties';
+import { calibrateComponent } from '../../../src/core/formulation/calibration';
 import { expectRelClose } from '../../helpers/tolerance';
 
 const PIB = 'demo-bw-510';

@@ -1,0 +1,136 @@
+/**
+ * Cost of a blend per kg, per litre and per batch, and batch quantities in kg and litres at 15 °C.
+ *
+ * All money amounts are in the one currency the user names; Blendbench never converts between
+ * currencies. Volumes are at 15 °C (densities ρ15 [kg/L]); blend density by ideal mixing.
+ *
+ *   price per kg of a part:  p_kg = amount (per kg) | amount/ρ15 (per litre) | amount/1000 (per tonne)
+ *   blend cost per kg:       c_kg = Σ wᵢ·p_kg,ᵢ
+ *   blend cost per litre:    c_L  = ρ_blend · Σ wᵢ·p_kg,ᵢ  (= Σ φᵢ·p_L,ᵢ)
+ */
+import type { Price } from './model';
+import { blendDensity } from '../blending/density';
+import { BlendbenchInputError, assertDensity15, assertFinite, assertFractions } from '../errors';
+
+function assertPrice(fn: string, field: string, v: unknown): asserts v is number {
+  assertFinite(fn, field, v);
+  if (v < 0) {
+    throw new BlendbenchInputError(field, v, `${fn}: ${field} = ${v}; a price must not be negative`);
+  }
+}
+
+/**
+ * A quoted price converted to price per kilogram.
+ *
+ * @param price - amount and basis (`per-kg`, `per-litre` at 15 °C, or `per-tonne` = 1000 kg)
+ * @param density15 - ρ15, density at 15 °C [kg/L], used for a per-litre price
+ * @returns price per kg [currency/kg]
+ * @throws InvalidNumberError, BlendbenchInputError (negative amount or unknown basis),
+ *   ImplausibleDensityError
+ * @example pricePerKg({ amount: 1.8, basis: 'per-litre', currency: 'EUR' }, 0.9) // → 2.0
+ * @see common practice.
+ */
+export function pricePerKg(price: Price, density15: number): number {
+  const fn = 'pricePerKg';
+  assertPrice(fn, 'price.amount', price.amount);
+  assertDensity15(fn, 'density15', density15);
+  switch (price.basis) {
+    case 'per-kg':
+      return price.amount;
+    case 'per-litre':
+      return price.amount / density15;
+    case 'per-tonne':
+      return price.amount / 1000;
+    default:
+      throw new BlendbenchInputError(
+        'price.basis',
+        price.basis,
+        `${fn}: price.basis = ${String(price.basis)} is not one of per-kg, per-litre, per-tonne`,
+      );
+  }
+}
+
+/**
+ * Cost per kg of a blend:  c_kg = Σ wᵢ·p_kg,ᵢ.
+ *
+ * @param parts - `massFraction` wᵢ [0–1, sum 1] and `pricePerKg` p_kg,ᵢ [currency/kg] of each part
+ * @returns blend cost [currency/kg]
+ * @throws InvalidNumberError, FractionSumError, BlendbenchInputError (negative price)
+ * @example blendCostPerKg([{ massFraction: 0.6, pricePerKg: 1 }, { massFraction: 0.4, pricePerKg: 2 }]) // → 1.4
+ * @see common practice.
+ */
+export function blendCostPerKg(parts: readonly { massFraction: number; pricePerKg: number }[]): number {
+  const fn = 'blendCostPerKg';
+  assertFractions(
+    fn,
+    'massFraction',
+    parts.map((p) => p.massFraction),
+  );
+  parts.forEach((p, i) => assertPrice(fn, `parts[${i}].pricePerKg`, p.pricePerKg));
+  return parts.reduce((s, p) => s + p.massFraction * p.pricePerKg, 0);
+}
+
+/**
+ * Cost per litre (at 15 °C) of a blend:  c_L = ρ_blend·Σ wᵢ·p_kg,ᵢ, with 1/ρ_blend = Σ wᵢ/ρᵢ.
+ * Equal to Σ φᵢ·p_L,ᵢ, the volume-weighted per-litre prices (check-values D2).
+ *
+ * @param parts - `massFraction` wᵢ, `pricePerKg` [currency/kg], `density15` ρᵢ [kg/L] of each part
+ * @returns blend cost [currency/L]
+ * @throws InvalidNumberError, FractionSumError, ImplausibleDensityError, BlendbenchInputError
+ * @example blendCostPerLitre([{ massFraction: 1, pricePerKg: 2, density15: 0.9 }]) // → 1.8
+ * @see common practice.
+ */
+export function blendCostPerLitre(
+  parts: readonly { massFraction: number; pricePerKg: number; density15: number }[],
+): number {
+  const perKg = blendCostPerKg(parts);
+  const rho = blendDensity(parts);
+  return rho * perKg;
+}
+
+/** A batch size, by mass or by volume at 15 °C. */
+export type BatchSize = { kg: number } | { litres: number };
+
+/**
+ * Quantities of each part for a batch, in kg and in litres at 15 °C.
+ *
+ *   total kg = batch kg, or batch litres × ρ_blend;  total L = total kg / ρ_blend
+ *   line kg = wᵢ × total kg;  line L = line kg / ρᵢ   (Σ line L = total L under ideal mixing)
+ *
+ * @param parts - `massFraction` wᵢ [0–1, sum 1] and `density15` ρᵢ [kg/L] of each part
+ * @param batch - `{ kg }` or `{ litres }` (at 15 °C), > 0
+ * @returns totals and per-part lines, in part order
+ * @throws InvalidNumberError, FractionSumError, ImplausibleDensityError, BlendbenchInputError
+ *   (batch size not positive)
+ * @example batchQuantities([{ massFraction: 1, density15: 0.9 }], { kg: 900 }) // → { totalKg: 900, totalLitres: 1000, … }
+ * @see common practice.
+ */
+export function batchQuantities(
+  parts: readonly { massFraction: number; density15: number }[],
+  batch: BatchSize,
+): { totalKg: number; totalLitres: number; lines: { kg: number; litres: number }[] } {
+  const fn = 'batchQuantities';
+  const rho = blendDensity(parts);
+  parts.forEach((p, i) => assertDensity15(fn, `parts[${i}].density15`, p.density15));
+  let totalKg: number;
+  if ('kg' in batch) {
+    assertPositive(fn, 'batch.kg', batch.kg);
+    totalKg = batch.kg;
+  } else {
+    assertPositive(fn, 'batch.litres', batch.litres);
+    totalKg = batch.litres * rho;
+  }
+  const totalLitres = 'litres' in batch ? batch.litres : totalKg / rho;
+  const lines = parts.map((p) => {
+    const kg = p.massFraction * totalKg;
+    return { kg, litres: kg / p.density15 };
+  });
+  return { totalKg, totalLitres, lines };
+}
+
+function assertPositive(fn: string, field: string, v: unknown): asserts v is number {
+  assertFinite(fn, field, v);
+  if (v <= 0) {
+    throw new BlendbenchInputError(field, v, `${fn}: ${field} = ${v}; a batch size must be greater than 0`);
+  }
+}

@@ -1,0 +1,768 @@
+/**
+ * The plant's blend sheet: what to charge, in what order, how much of each, and what the laboratory
+ * must confirm before release.
+ *
+ * Pure functions from a recipe, its components and a batch size (kg, or litres at 15 °C) to the
+ * sheet's rows and totals, the default blending instructions, the QC release targets and the CSV rows
+ * of the component table. Nothing here formats for a screen or a printer beyond fixing the displayed
+ * precision: the print view (`src/features/blend-sheet`) lays the numbers out.
+ *
+ * Displayed quantities are rounded by the largest-remainder method, so that each column of the
+ * component table sums exactly to the displayed batch total (common practice (no source): an operator
+ * who adds up the kg column must find the batch size, not the batch size ± 0.1).
+ */
+
+import type { Component, ComponentCategory, Recipe } from '../formulation/model';
+import { CATEGORY_LABEL } from '../formulation/model';
+import { BlendbenchInputError, assertFinite } from '../errors';
+import { batchQuantities, pricePerKg, type BatchSize } from '../formulation/cost';
+import { gradeBand } from '../viscosity/iso-grades';
+import { cToF } from '../units';
+
+/** Temperature unit a sheet prints in; values are always computed in °C. */
+export type SheetTemperatureUnit = 'C' | 'F';
+
+/** A temperature [°C] in the sheet's unit, rounded to whole degrees (as the plant reads a gauge). */
+function sheetTemp(tC: number, unit: SheetTemperatureUnit): number {
+  return Math.round(unit === 'F' ? cToF(tC) : tC);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Batch size and rounding
+// ---------------------------------------------------------------------------------------------
+
+/** The batch size: a mass `{ kg }` [kg] or a volume `{ litres }` at 15 °C [L] (from `cost.ts`). */
+export type { BatchSize };
+
+/**
+ * Number of decimals shown for kg and litres, chosen from the batch size when the caller does not
+ * fix it: 2 below 100 (laboratory and pilot batches, weighed on a balance), 1 below 100 000, 0 from
+ * 100 000 up (tank batches, read from load cells or flow meters).
+ * Source: common practice (no source).
+ *
+ * @param total - the batch total in the unit shown [kg or L], > 0
+ * @returns number of decimals, 0–2
+ * @example quantityDecimals(1000) // → 1
+ */
+export function quantityDecimals(total: number): number {
+  assertFinite('quantityDecimals', 'total', total);
+  if (total < 100) return 2;
+  if (total < 100_000) return 1;
+  return 0;
+}
+
+/**
+ * Rounds values to `decimals` so that the rounded values sum exactly to `total` rounded to the same
+ * precision — the largest-remainder (Hamilton) method.
+ *
+ * Each value is scaled to integer units of 10^−decimals and floored; the units still missing to reach
+ * round(total) go one each to the values with the largest discarded remainders (ties: the larger
+ * value, then the earlier one). The result is returned as integer units, so sums are exact.
+ *
+ * @param values - the unrounded values, each ≥ 0, summing to `total` (within floating-point error)
+ * @param total - their exact total, ≥ 0
+ * @param decimals - decimals to keep, integer 0–6
+ * @returns integer units (value × 10^decimals) for each input, in input order, summing to
+ *   round(total × 10^decimals)
+ * @throws BlendbenchInputError if a value is negative or not finite, or the values do not add up to
+ *   `total` within 1e-6 relative
+ * @example largestRemainderUnits([33.333, 33.333, 33.334], 100, 1) // → [333, 333, 334]
+ */
+export function largestRemainderUnits(values: readonly number[], total: number, decimals: number): number[] {
+  const fn = 'largestRemainderUnits';
+  assertFinite(fn, 'total', total);
+  if (!Number.isInteger(decimals) || decimals < 0 || decimals > 6) {
+    throw new BlendbenchInputError('decimals', decimals, `${fn}: decimals = ${decimals}; must be an integer 0–6`);
+  }
+  let sum = 0;
+  values.forEach((v, i) => {
+    assertFinite(fn, `values[${i}]`, v);
+    if (v < 0) throw new BlendbenchInputError(`values[${i}]`, v, `${fn}: values[${i}] = ${v}; must be ≥ 0`);
+    sum += v;
+  });
+  if (Math.abs(sum - total) > 1e-6 * Math.max(1, Math.abs(total))) {
+    throw new BlendbenchInputError('values', sum, `${fn}: values sum to ${sum}, not to total = ${total}`);
+  }
+  const scale = 10 ** decimals;
+  const target = Math.round(total * scale);
+  // A tiny epsilon keeps 1234.9999999997 (a float image of 1235) from flooring to 1234.
+  const scaled = values.map((v) => v * scale);
+  const floors = scaled.map((s) => Math.floor(s + 1e-9));
+  let missing = target - floors.reduce((a, b) => a + b, 0);
+  const order = scaled
+    .map((s, i) => ({ i, rem: s - floors[i]!, s }))
+    .sort((a, b) => b.rem - a.rem || b.s - a.s || a.i - b.i);
+  const units = [...floors];
+  // missing lies in [0, n] in exact arithmetic; guard both ends against float noise.
+  for (let k = 0; missing > 0 && k < order.length; k++, missing--) units[order[k]!.i]! += 1;
+  for (let k = order.length - 1; missing < 0 && k >= 0; k--) {
+    const i = order[k]!.i;
+    if (units[i]! > 0) {
+      units[i]! -= 1;
+      missing++;
+    }
+  }
+  return units;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Charging order
+// ---------------------------------------------------------------------------------------------
+
+/** What a component does in the kettle, which decides when it is charged. */
+export type ChargeRole = 'base-stock' | 'solvency-booster' | 'polymer' | 'additive-package';
+
+export const CHARGE_ROLE_LABEL: Record<ChargeRole, string> = {
+  'base-stock': 'Base stock',
+  'solvency-booster': 'Solvency booster',
+  polymer: 'Polymer',
+  'additive-package': 'Additive package',
+};
+
+/** Rank of each role in the default charging order (lower is charged first). */
+const ROLE_RANK: Record<ChargeRole, number> = {
+  'base-stock': 0,
+  'solvency-booster': 1,
+  polymer: 2,
+  'additive-package': 3,
+};
+
+/**
+ * The charging role of a component category. Groups I–IV are base stocks; Group V fluids (esters,
+ * alkylated naphthalene, alkylbenzene) are treated as solvency boosters, charged after the base
+ * stocks; polymers next, the additive package last.
+ * Source: /work/shared/domain/gear-oil-blending.md, "Blending practice" (common practice).
+ *
+ * @param category - the component's category
+ * @returns its charging role
+ */
+export function chargeRole(category: ComponentCategory): ChargeRole {
+  switch (category) {
+    case 'group-v':
+      return 'solvency-booster';
+    case 'polymer':
+      return 'polymer';
+    case 'additive-package':
+      return 'additive-package';
+    default:
+      return 'base-stock';
+  }
+}
+
+/**
+ * The component's measured viscosity nearest to 40 °C [mm²/s], used only to rank stocks within a
+ * role (heaviest first); not a property prediction.
+ */
+function rankingViscosity(c: Component): number {
+  let best = c.viscosityPoints[0];
+  for (const p of c.viscosityPoints) {
+    if (best === undefined || Math.abs(p.tempC - 40) < Math.abs(best.tempC - 40)) best = p;
+  }
+  return best?.kv ?? 0;
+}
+
+// ---------------------------------------------------------------------------------------------
+// The component table
+// ---------------------------------------------------------------------------------------------
+
+/** One row of the component table, in charging order. */
+export interface BlendSheetRow {
+  /** Position in the charging order, 1-based. */
+  chargeOrder: number;
+  componentId: string;
+  code: string;
+  name: string;
+  category: ComponentCategory;
+  /** Human label of the category, e.g. "Group II". */
+  categoryLabel: string;
+  role: ChargeRole;
+  /** Unrounded mass fraction, 0–1. */
+  massFraction: number;
+  /** Unrounded volume fraction at 15 °C, 0–1. */
+  volumeFraction: number;
+  /** Mass % as displayed (rounded to `percentDecimals`; the column sums to exactly 100). */
+  massPct: number;
+  /** Volume % as displayed (rounded to `percentDecimals`; the column sums to exactly 100). */
+  volumePct: number;
+  /** Mass to charge as displayed [kg] (rounded to `quantityDecimals`; the column sums to the total). */
+  kg: number;
+  /** Volume to charge at 15 °C as displayed [L] (same rounding; the column sums to the total). */
+  litres: number;
+  /** Running total of the displayed kg, this row included [kg]. */
+  runningKg: number;
+  /** Running total of the displayed litres, this row included [L]. */
+  runningLitres: number;
+  /** Density at 15 °C [kg/L], for the operator who meters by volume. */
+  density15: number;
+  /** Price per kg in the component's currency, or null when the price cannot be converted. */
+  pricePerKg: number | null;
+  /** The component's cost in this batch (unrounded kg × price per kg), or null without a price. */
+  lineCost: number | null;
+}
+
+/** Cost of the batch, when every component is priced in the same currency. */
+export type BatchCosting =
+  | { available: true; currency: string; perKg: number; perLitre: number; perBatch: number }
+  | { available: false; reason: string };
+
+export interface BlendSheet {
+  recipeId: string;
+  recipeName: string;
+  grade: number;
+  revision: number;
+  /** Rows in charging order. */
+  rows: BlendSheetRow[];
+  /** What the batch size was given in. */
+  batchBasis: 'kg' | 'litres';
+  /** Unrounded batch mass [kg] and volume at 15 °C [L]. */
+  totalKgExact: number;
+  totalLitresExact: number;
+  /** Displayed totals: exactly the sum of the displayed rows. */
+  totalKg: number;
+  totalLitres: number;
+  /** Blend density at 15 °C, ideal mixing (1/ρ = Σ wᵢ/ρᵢ) [kg/L]. */
+  density15: number;
+  /** Decimals of the kg and litre columns. */
+  quantityDecimals: number;
+  /** Decimals of the mass % and volume % columns. */
+  percentDecimals: number;
+  costing: BatchCosting;
+}
+
+export interface BlendSheetOptions {
+  /** Component ids in the charging order wanted; ids left out follow in the default order. */
+  chargeOrder?: readonly string[];
+  /** Decimals for kg and litres; default {@link quantityDecimals} of the batch size. */
+  quantityDecimals?: number;
+  /** Decimals for mass % and volume %; default 2 (common practice (no source)). */
+  percentDecimals?: number;
+}
+
+/**
+ * Price of a component per kg in its own currency (`cost.ts` pricePerKg), or null when the price is
+ * unusable (negative, not a number): the sheet still prints, only the costing says why it is missing.
+ */
+function pricePerKgOf(c: Component): number | null {
+  try {
+    return pricePerKg(c.price, c.density15);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Builds the component table of a blend sheet: every recipe line with its mass %, volume % at 15 °C,
+ * kg and litres at 15 °C for the batch, in charging order with running totals.
+ *
+ * Quantities: mᵢ = wᵢ·M; Vᵢ = mᵢ/ρᵢ; V = Σ Vᵢ (ideal mixing, no volume contraction); for a batch
+ * given as a volume V, M = V·ρ with 1/ρ = Σ wᵢ/ρᵢ. Volume fractions φᵢ = Vᵢ/V.
+ * Displayed values are rounded by {@link largestRemainderUnits} so each column sums to its total.
+ *
+ * Default charging order (common practice, /work/shared/domain/gear-oil-blending.md): base stocks,
+ * most viscous first; then solvency boosters; then polymers (added slowly or pre-dissolved); the
+ * additive package last. Within a role: higher ν40 first, then larger mass, then stock code.
+ *
+ * @param components - the library (at least every component the recipe names)
+ * @param recipe - the recipe; its mass fractions sum to 1 (lines at exactly 0 are left off the sheet)
+ * @param batch - batch size `{ kg }` [kg] or `{ litres }` [L at 15 °C], > 0
+ * @param options - charging-order override and displayed precision
+ * @returns the sheet: rows in charging order, exact and displayed totals, blend density, costing
+ * @throws BlendbenchInputError if a line names a component not in `components`, the batch size is not
+ *   a positive finite number, or the fractions or densities are invalid (from `batchQuantities`)
+ * @example
+ *   buildBlendSheet(lib, vg320, { kg: 1000 }).totalKg // → 1000
+ */
+export function buildBlendSheet(
+  components: readonly Component[],
+  recipe: Recipe,
+  batch: BatchSize,
+  options: BlendSheetOptions = {},
+): BlendSheet {
+  const fn = 'buildBlendSheet';
+  const byId = new Map(components.map((c) => [c.id, c]));
+  if (recipe.lines.length === 0) {
+    throw new BlendbenchInputError('recipe.lines', recipe.lines, `${fn}: recipe "${recipe.name}" has no lines`);
+  }
+  // Lines at 0 % have nothing to charge: they are left off the sheet (they still count in the sum check).
+  const parts = recipe.lines.flatMap((line, i) => {
+    if (line.massFraction === 0) return [];
+    const c = byId.get(line.componentId);
+    if (!c) {
+      throw new BlendbenchInputError(
+        `recipe.lines[${i}].componentId`,
+        line.componentId,
+        `${fn}: recipe "${recipe.name}" names component ${line.componentId}, which is not in the library`,
+      );
+    }
+    return [{ line, c }];
+  });
+  const batchValue = 'kg' in batch ? batch.kg : batch.litres;
+  const batchField = 'kg' in batch ? 'batch.kg' : 'batch.litres';
+  assertFinite(fn, batchField, batchValue);
+  if (batchValue <= 0) {
+    throw new BlendbenchInputError(batchField, batchValue, `${fn}: ${batchField} = ${batchValue}; a batch must be larger than 0`);
+  }
+
+  const q = batchQuantities(
+    parts.map(({ line, c }) => ({ massFraction: line.massFraction, density15: c.density15 })),
+    batch,
+  );
+
+  // Charging order: explicit ids first, the rest by role, viscosity, mass, code.
+  const explicit = new Map((options.chargeOrder ?? []).map((id, i) => [id, i]));
+  const idx = parts.map((_, i) => i);
+  idx.sort((a, b) => {
+    const pa = parts[a]!;
+    const pb = parts[b]!;
+    const ea = explicit.get(pa.c.id);
+    const eb = explicit.get(pb.c.id);
+    if (ea !== undefined || eb !== undefined) {
+      if (ea === undefined) return 1;
+      if (eb === undefined) return -1;
+      return ea - eb;
+    }
+    return (
+      ROLE_RANK[chargeRole(pa.c.category)] - ROLE_RANK[chargeRole(pb.c.category)] ||
+      rankingViscosity(pb.c) - rankingViscosity(pa.c) ||
+      pb.line.massFraction - pa.line.massFraction ||
+      pa.c.code.localeCompare(pb.c.code)
+    );
+  });
+
+  const basis: 'kg' | 'litres' = 'kg' in batch ? 'kg' : 'litres';
+  const qd = options.quantityDecimals ?? quantityDecimals(basis === 'kg' ? q.totalKg : q.totalLitres);
+  const pd = options.percentDecimals ?? 2;
+
+  const kgRaw = idx.map((i) => q.lines[i]!.kg);
+  const lRaw = idx.map((i) => q.lines[i]!.litres);
+  const kgUnits = largestRemainderUnits(kgRaw, q.totalKg, qd);
+  const lUnits = largestRemainderUnits(lRaw, q.totalLitres, qd);
+  const massPctUnits = largestRemainderUnits(kgRaw.map((k) => (100 * k) / q.totalKg), 100, pd);
+  const volPctUnits = largestRemainderUnits(lRaw.map((l) => (100 * l) / q.totalLitres), 100, pd);
+  const qs = 10 ** qd;
+  const ps = 10 ** pd;
+
+  let runKg = 0;
+  let runL = 0;
+  const rows: BlendSheetRow[] = idx.map((i, k) => {
+    const { line, c } = parts[i]!;
+    runKg += kgUnits[k]!;
+    runL += lUnits[k]!;
+    const ppk = pricePerKgOf(c);
+    return {
+      chargeOrder: k + 1,
+      componentId: c.id,
+      code: c.code,
+      name: c.name,
+      category: c.category,
+      categoryLabel: CATEGORY_LABEL[c.category],
+      role: chargeRole(c.category),
+      massFraction: line.massFraction,
+      volumeFraction: q.lines[i]!.litres / q.totalLitres,
+      massPct: massPctUnits[k]! / ps,
+      volumePct: volPctUnits[k]! / ps,
+      kg: kgUnits[k]! / qs,
+      litres: lUnits[k]! / qs,
+      runningKg: runKg / qs,
+      runningLitres: runL / qs,
+      density15: c.density15,
+      pricePerKg: ppk,
+      lineCost: ppk === null ? null : q.lines[i]!.kg * ppk,
+    };
+  });
+
+  return {
+    recipeId: recipe.id,
+    recipeName: recipe.name,
+    grade: recipe.grade,
+    revision: recipe.revision,
+    rows,
+    batchBasis: basis,
+    totalKgExact: q.totalKg,
+    totalLitresExact: q.totalLitres,
+    totalKg: runKg / qs,
+    totalLitres: runL / qs,
+    density15: q.totalKg / q.totalLitres,
+    quantityDecimals: qd,
+    percentDecimals: pd,
+    costing: batchCosting(parts.map((p) => p.c), rows, q.totalKg, q.totalLitres),
+  };
+}
+
+function batchCosting(
+  comps: readonly Component[],
+  rows: readonly BlendSheetRow[],
+  totalKg: number,
+  totalLitres: number,
+): BatchCosting {
+  const currencies = [...new Set(comps.map((c) => c.price.currency.trim()))];
+  if (currencies.length !== 1) {
+    return { available: false, reason: `components are priced in different currencies (${currencies.join(', ')})` };
+  }
+  const missing = rows.filter((r) => r.lineCost === null).map((r) => r.code);
+  if (missing.length > 0) return { available: false, reason: `no usable price for ${missing.join(', ')}` };
+  // Cost per batch = Σ mᵢ·pᵢ; per kg = that / M; per litre = that / V (= ρ·Σ wᵢ·pᵢ, check-values D2).
+  const perBatch = rows.reduce((s, r) => s + (r.lineCost ?? 0), 0);
+  return { available: true, currency: currencies[0]!, perBatch, perKg: perBatch / totalKg, perLitre: perBatch / totalLitres };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Blending instructions
+// ---------------------------------------------------------------------------------------------
+
+export interface InstructionOptions {
+  /** Charging temperature range [°C]; default 50–65 (common practice, domain notes). */
+  heatToC?: readonly [number, number];
+  /** Mixing time range [min]; default 30–60 (common practice, domain notes). */
+  mixMinutes?: readonly [number, number];
+  /** Unit the temperatures are printed in; default 'C' (°F = °C × 9/5 + 32, rounded to whole degrees). */
+  temperatureUnit?: SheetTemperatureUnit;
+}
+
+/**
+ * Default blending instructions for the sheet, one step per string, in the order the operator works.
+ * Editable: the print view offers them as text the plant changes to its own procedure.
+ *
+ * Source: /work/shared/domain/gear-oil-blending.md, "Blending practice and cautions" — charge base
+ * stocks, heat to about 50–65 °C, add polymer slowly or pre-dissolved, additive package last, mix
+ * until uniform (often 30–60 min), sample for QC (common practice).
+ *
+ * @param sheet - the sheet from {@link buildBlendSheet} (its rows are in charging order)
+ * @param options - temperatures and mixing time
+ * @returns the steps, without numbers (the view numbers them)
+ */
+export function defaultBlendingInstructions(sheet: BlendSheet, options: InstructionOptions = {}): string[] {
+  const [cLo, cHi] = options.heatToC ?? [50, 65];
+  const unit = options.temperatureUnit ?? 'C';
+  const tLo = sheetTemp(cLo, unit);
+  const tHi = sheetTemp(cHi, unit);
+  const deg = unit === 'F' ? '°F' : '°C';
+  const [mLo, mHi] = options.mixMinutes ?? [30, 60];
+  const codes = (role: ChargeRole) =>
+    sheet.rows.filter((r) => r.role === role).map((r) => `${r.code} (step ${r.chargeOrder})`);
+  const list = (xs: string[]) => xs.join(', ');
+  const base = codes('base-stock');
+  const boost = codes('solvency-booster');
+  const poly = codes('polymer');
+  const add = codes('additive-package');
+  const steps: string[] = [];
+  steps.push('Check that the vessel is clean, dry and drained, and that every stock code and lot matches this sheet.');
+  if (base.length > 0) {
+    steps.push(`Charge the base stocks in the order listed: ${list(base)}. Start the agitator once the blades are covered.`);
+  }
+  steps.push(`Heat to ${tLo}–${tHi} ${deg} with agitation; do not exceed ${tHi} ${deg}.`);
+  if (boost.length > 0) steps.push(`Add the solvency booster(s): ${list(boost)}.`);
+  if (poly.length > 0) {
+    steps.push(
+      `Add the polymer slowly into the vortex, or pre-dissolved in part of the base stock: ${list(poly)}. ` +
+        'Mix until no undissolved polymer remains.',
+    );
+  }
+  if (add.length > 0) {
+    steps.push(`Add the additive package last, at no more than ${tHi} ${deg}: ${list(add)}.`);
+  }
+  steps.push(`Mix for ${mLo}–${mHi} min until uniform; check the charged quantities against the running totals.`);
+  steps.push('Take a QC sample from the mixed batch; hold the batch until the laboratory releases it.');
+  return steps;
+}
+
+// ---------------------------------------------------------------------------------------------
+// QC release targets
+// ---------------------------------------------------------------------------------------------
+
+/** The predicted properties the sheet prints (a subset of the blend prediction, mapped by the view). */
+export interface SheetPrediction {
+  /** ν40 [mm²/s]. */
+  kv40: number;
+  /** ν100 [mm²/s]. */
+  kv100: number;
+  /** Viscosity index, reported (whole number, ASTM D2270), or null where undefined. */
+  reportedVi: number | null;
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline point estimate [°C], or null. */
+  anilinePoint: number | null;
+  /** Flash point estimate, open cup [°C], or null. */
+  flashPoint: number | null;
+  /** Pour point estimate [°C], or null. */
+  pourPoint: number | null;
+  /** Viscosity at the operating temperature, or null. */
+  operating: { tempC: number; kv: number } | null;
+}
+
+/** Limits the plant sets around the prediction; every default is common practice (no source). */
+export interface QcOptions {
+  /** Plant aim band around the grade mid-point [% of mid-point]; clipped to ISO 3448 ±10 %. Default 5. */
+  kv40TolerancePct?: number;
+  /** ν100 acceptance band around the prediction [%]; default 10. */
+  kv100TolerancePct?: number;
+  /** VI may fall this far below the prediction; default 5. */
+  viMargin?: number;
+  /** Density acceptance around the prediction [kg/L]; default ±0.005. */
+  densityTolerance?: number;
+  /** Flash point may fall this far below the estimate [°C]; default 10. */
+  flashMargin?: number;
+  /** Pour point may rise this far above the estimate [°C]; default 6 (two ASTM D97 3 °C steps). */
+  pourMargin?: number;
+  /**
+   * Unit the flash, pour and aniline points and the operating temperature are printed in; default 'C'.
+   * Limits are set in °C, then converted and rounded to whole degrees; `min`/`max` of those rows are
+   * in this unit too. The standard test temperatures (40, 100 and 15 °C) stay in °C.
+   */
+  temperatureUnit?: SheetTemperatureUnit;
+}
+
+export type QcKey =
+  | 'appearance'
+  | 'kv40'
+  | 'kv100'
+  | 'vi'
+  | 'density15'
+  | 'flash'
+  | 'pour'
+  | 'aniline'
+  | 'kvOperating'
+  | 'copper'
+  | 'foam';
+
+/** One line of the QC table: prediction, release target, test method; measured is left blank. */
+export interface QcRow {
+  key: QcKey;
+  property: string;
+  unit: string;
+  /** The prediction as printed (already rounded), or "—". */
+  predicted: string;
+  /** Release target as printed, e.g. "304.0–336.0". */
+  target: string;
+  /** Numeric limits of the target, where it has them. */
+  min: number | null;
+  max: number | null;
+  /** Test method, e.g. "ASTM D445". */
+  method: string;
+  /** True when the row is a release criterion; false when it is recorded for information. */
+  release: boolean;
+  /**
+   * True when the prediction itself falls outside [min, max]: the recipe is not expected to pass
+   * (e.g. ν40 outside the plant aim band), and the sheet must say so before anyone blends it.
+   */
+  predictedOutsideTarget: boolean;
+}
+
+const fmt = (x: number, d: number) => x.toFixed(d);
+
+/**
+ * QC release targets beside the predicted properties, with the ASTM test method for each.
+ *
+ * ν40: inside the ISO 3448 band of the grade (mid-point ±10 %, ISO 3448 Table 1) and the plant's aim band (mid-point
+ * ± `kv40TolerancePct`, default 5 %; plants aim within ±3–5 %, common practice, domain notes).
+ * ν100 and density: around the prediction; VI: at least the prediction less a margin; flash: at least
+ * the estimate less a margin; pour: at most the estimate plus a margin. Aniline point and viscosity
+ * at the operating temperature are recorded for information. Copper corrosion and foam are tested to
+ * the product specification (no prediction). Every margin is common practice (no source): the plant
+ * replaces them with its own specification.
+ *
+ * @param grade - ISO viscosity grade (mid-point ν40 [mm²/s])
+ * @param predicted - the prediction (mapped from the blend prediction)
+ * @param options - margins
+ * @returns the QC rows in print order
+ * @throws BlendbenchInputError if `grade` is not a tabulated ISO viscosity grade (from `gradeBand`)
+ */
+export function qcReleaseTargets(grade: number, predicted: SheetPrediction, options: QcOptions = {}): QcRow[] {
+  const tol40 = options.kv40TolerancePct ?? 5;
+  const tol100 = options.kv100TolerancePct ?? 10;
+  const viMargin = options.viMargin ?? 5;
+  const dTol = options.densityTolerance ?? 0.005;
+  const flashMargin = options.flashMargin ?? 10;
+  const pourMargin = options.pourMargin ?? 6;
+
+  // ISO 3448 limits as tabulated exact decimals (iso-grades.ts); the aim band is computed in
+  // thousandths so 320 × 0.95 prints 304.0, not 303.99999999999994.
+  const iso = gradeBand(grade);
+  const aimMin = Math.max(iso.min, Math.round(iso.mid * (100 - tol40) * 10) / 1000);
+  const aimMax = Math.min(iso.max, Math.round(iso.mid * (100 + tol40) * 10) / 1000);
+  const kv100Min = predicted.kv100 * (1 - tol100 / 100);
+  const kv100Max = predicted.kv100 * (1 + tol100 / 100);
+
+  const rows: Omit<QcRow, 'predictedOutsideTarget'>[] = [
+    {
+      key: 'appearance', property: 'Appearance', unit: '', predicted: '—',
+      target: 'Clear and bright, free of water and sediment', min: null, max: null, method: 'Visual', release: true,
+    },
+    {
+      key: 'kv40', property: 'Kinematic viscosity at 40 °C', unit: 'mm²/s', predicted: fmt(predicted.kv40, 1),
+      target: `${fmt(aimMin, 1)}–${fmt(aimMax, 1)} (ISO VG ${grade}: ${fmt(iso.min, 1)}–${fmt(iso.max, 1)})`,
+      min: aimMin, max: aimMax, method: 'ASTM D445', release: true,
+    },
+    {
+      key: 'kv100', property: 'Kinematic viscosity at 100 °C', unit: 'mm²/s', predicted: fmt(predicted.kv100, 2),
+      target: `${fmt(kv100Min, 2)}–${fmt(kv100Max, 2)}`, min: kv100Min, max: kv100Max, method: 'ASTM D445', release: true,
+    },
+  ];
+  if (predicted.reportedVi !== null) {
+    const viMin = predicted.reportedVi - viMargin;
+    rows.push({
+      key: 'vi', property: 'Viscosity index', unit: '', predicted: fmt(predicted.reportedVi, 0),
+      target: `≥ ${fmt(viMin, 0)}`, min: viMin, max: null, method: 'ASTM D2270', release: true,
+    });
+  } else {
+    rows.push({
+      key: 'vi', property: 'Viscosity index', unit: '', predicted: '—', target: 'Report', min: null, max: null,
+      method: 'ASTM D2270', release: false,
+    });
+  }
+  const dMin = predicted.density15 - dTol;
+  const dMax = predicted.density15 + dTol;
+  rows.push({
+    key: 'density15', property: 'Density at 15 °C', unit: 'kg/L', predicted: fmt(predicted.density15, 4),
+    target: `${fmt(dMin, 4)}–${fmt(dMax, 4)}`, min: dMin, max: dMax, method: 'ASTM D4052', release: true,
+  });
+  if (predicted.flashPoint !== null) {
+    const fMin = Math.round(predicted.flashPoint) - flashMargin;
+    rows.push({
+      key: 'flash', property: 'Flash point, open cup (estimate)', unit: '°C', predicted: fmt(predicted.flashPoint, 0),
+      target: `≥ ${fmt(fMin, 0)}`, min: fMin, max: null, method: 'ASTM D92', release: true,
+    });
+  } else {
+    rows.push({
+      key: 'flash', property: 'Flash point, open cup', unit: '°C', predicted: '—', target: 'Per specification',
+      min: null, max: null, method: 'ASTM D92', release: true,
+    });
+  }
+  if (predicted.pourPoint !== null) {
+    const pMax = Math.round(predicted.pourPoint) + pourMargin;
+    rows.push({
+      key: 'pour', property: 'Pour point (estimate)', unit: '°C', predicted: fmt(predicted.pourPoint, 0),
+      target: `≤ ${fmt(pMax, 0)}`, min: null, max: pMax, method: 'ASTM D97', release: true,
+    });
+  } else {
+    rows.push({
+      key: 'pour', property: 'Pour point', unit: '°C', predicted: '—', target: 'Per specification',
+      min: null, max: null, method: 'ASTM D97', release: true,
+    });
+  }
+  rows.push({
+    key: 'aniline', property: 'Aniline point (estimate)', unit: '°C',
+    predicted: predicted.anilinePoint === null ? '—' : fmt(predicted.anilinePoint, 0),
+    target: 'Information', min: null, max: null, method: 'ASTM D611', release: false,
+  });
+  if (predicted.operating !== null) {
+    rows.push({
+      key: 'kvOperating', property: `Viscosity at ${fmt(predicted.operating.tempC, 0)} °C (calculated)`, unit: 'mm²/s',
+      predicted: fmt(predicted.operating.kv, 1), target: 'Information', min: null, max: null,
+      method: 'ASTM D341', release: false,
+    });
+  }
+  rows.push(
+    {
+      key: 'copper', property: 'Copper strip corrosion', unit: '', predicted: '—', target: 'Per specification',
+      min: null, max: null, method: 'ASTM D130', release: true,
+    },
+    {
+      key: 'foam', property: 'Foaming tendency', unit: 'mL', predicted: '—', target: 'Per specification',
+      min: null, max: null, method: 'ASTM D892', release: true,
+    },
+  );
+  const unit = options.temperatureUnit ?? 'C';
+  return rows.map((r) => {
+    const judged = { ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) };
+    return unit === 'C' ? judged : inFahrenheit(judged, predicted);
+  });
+}
+
+/** A QC row's temperatures re-expressed in °F (judged in °C before, so the verdict does not change). */
+function inFahrenheit(r: QcRow, p: SheetPrediction): QcRow {
+  const f = (tC: number) => sheetTemp(tC, 'F');
+  const value: Partial<Record<QcKey, number | null>> = { flash: p.flashPoint, pour: p.pourPoint, aniline: p.anilinePoint };
+  if (r.key === 'kvOperating' && p.operating !== null) {
+    return { ...r, property: `Viscosity at ${f(p.operating.tempC)} °F (calculated)` };
+  }
+  if (!(r.key in value)) return r;
+  const v = value[r.key];
+  const min = r.min === null ? null : f(r.min);
+  const max = r.max === null ? null : f(r.max);
+  const target = min !== null ? `≥ ${min}` : max !== null ? `≤ ${max}` : r.target;
+  return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : String(f(v)), target, min, max };
+}
+
+/** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */
+function outside(key: QcKey, p: SheetPrediction, min: number | null, max: number | null): boolean {
+  const value: Partial<Record<QcKey, number | null>> = {
+    kv40: Math.round(p.kv40 * 10) / 10,
+    kv100: p.kv100,
+    vi: p.reportedVi,
+    density15: p.density15,
+    flash: p.flashPoint === null ? null : Math.round(p.flashPoint),
+    pour: p.pourPoint === null ? null : Math.round(p.pourPoint),
+  };
+  const v = value[key];
+  if (v === undefined || v === null) return false;
+  return (min !== null && v < min) || (max !== null && v > max);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Cautions and CSV
+// ---------------------------------------------------------------------------------------------
+
+/**
+ * The cautions printed on every sheet. Source: the project's safety rule (BRIEF) and the domain notes'
+ * "Blending practice and cautions".
+ */
+export const BLEND_SHEET_CAUTIONS: readonly string[] = [
+  'Predicted properties are estimates. Laboratory confirmation of every release property is required before the batch is released.',
+  'The safety data sheet of each component, site procedures and local regulations govern handling, storage and personal protection.',
+  'Hot oil causes burns. Sulfur–phosphorus additive packages can release hydrogen sulfide when overheated: keep within the stated temperature and ventilate the vessel.',
+  'Predictions do not replace laboratory tests, specification approval or the equipment builder’s requirements.',
+];
+
+/** One CSV record of the component table (column header → cell text). */
+export type CsvRecord = Record<string, string>;
+
+/**
+ * The component table as CSV records (for `Papa.unparse` in the view), in charging order, with a
+ * final totals row. Numbers carry the displayed precision, with a dot as decimal separator.
+ *
+ * @param sheet - the sheet from {@link buildBlendSheet}
+ * @param options - `includePrices`: add price per kg and line cost columns (costing copy only)
+ * @returns the records; the first record's keys are the header row
+ */
+export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: boolean } = {}): CsvRecord[] {
+  const qd = sheet.quantityDecimals;
+  const pd = sheet.percentDecimals;
+  const priced = options.includePrices === true;
+  const currency = sheet.costing.available ? sheet.costing.currency : '';
+  const records: CsvRecord[] = sheet.rows.map((r) => {
+    const rec: CsvRecord = {
+      'Charge order': String(r.chargeOrder),
+      Code: r.code,
+      Name: r.name,
+      Category: r.categoryLabel,
+      'Mass %': r.massPct.toFixed(pd),
+      'Volume %': r.volumePct.toFixed(pd),
+      kg: r.kg.toFixed(qd),
+      'Litres at 15 °C': r.litres.toFixed(qd),
+      'Running total kg': r.runningKg.toFixed(qd),
+    };
+    if (priced) {
+      rec[`Price per kg${currency ? ` (${currency})` : ''}`] = r.pricePerKg === null ? '' : r.pricePerKg.toFixed(4);
+      rec[`Line cost${currency ? ` (${currency})` : ''}`] = r.lineCost === null ? '' : r.lineCost.toFixed(2);
+    }
+    return rec;
+  });
+  const total: CsvRecord = {
+    'Charge order': '',
+    Code: 'TOTAL',
+    Name: '',
+    Category: '',
+    'Mass %': (100).toFixed(pd),
+    'Volume %': (100).toFixed(pd),
+    kg: sheet.totalKg.toFixed(qd),
+    'Litres at 15 °C': sheet.totalLitres.toFixed(qd),
+    'Running total kg': sheet.totalKg.toFixed(qd),
+  };
+  if (priced) {
+    total[`Price per kg${currency ? ` (${currency})` : ''}`] = sheet.costing.available ? sheet.costing.perKg.toFixed(4) : '';
+    total[`Line cost${currency ? ` (${currency})` : ''}`] = sheet.costing.available ? sheet.costing.perBatch.toFixed(2) : '';
+  }
+  records.push(total);
+  return records;
+}

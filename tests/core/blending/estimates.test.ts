@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { blendAnilinePoint } from '../../../src/core/blending/aniline';
+import {
+  BelowAbsoluteZeroError,
+  BlendbenchInputError,
+  FractionSumError,
+  NonPositiveViscosityError,
+} from '../../../src/core/errors';
+import { blendFlashPoint, flashBlendingIndex, flashPointFromIndex } from '../../../src/core/blending/flash-point';
+import { blendPourPoint, pourBlendingIndex, pourPointFromIndex } from '../../../src/core/blending/pour-point';
+import { inGradeAfterShear, krlShearLossPct, shearedKv } from '../../../src/core/viscosity/shear';
+import { expectClose } from '../../helpers/tolerance';
+
+describe('flash point by blending index', () => {
+  it('F1: BI(20 °C) = 3281, BI(50 °C) = 306.0', () => {
+    // formula, log BI = −6.1188 + 2414/(T − 42.6) (shared/reference/check-values.md F1; constants from memory)
+    expectClose(flashBlendingIndex(20), 3281, 0.5);
+    expectClose(flashBlendingIndex(50), 306.0, 0.5);
+  });
+  it('F2: 50/50 by volume of 200 °C and 250 °C → 215.95 °C', () => {
+    // formula (shared/reference/check-values.md F2)
+    expectClose(
+      blendFlashPoint([
+        { volumeFraction: 0.5, flashPoint: 200 },
+        { volumeFraction: 0.5, flashPoint: 250 },
+      ])!,
+      215.95,
+      0.1,
+    );
+  });
+  it('index ↔ temperature round-trips; one component returns itself; unknown → null', () => {
+    // inverse functions (identity)
+    for (const t of [-20, 20, 150, 300]) expectClose(flashPointFromIndex(flashBlendingIndex(t)), t, 1e-9);
+    expectClose(blendFlashPoint([{ volumeFraction: 1, flashPoint: 230 }])!, 230, 1e-9);
+    expect(
+      blendFlashPoint([
+        { volumeFraction: 0.98, flashPoint: 230 },
+        { volumeFraction: 0.02, flashPoint: null },
+      ]),
+    ).toBeNull();
+    expect(
+      blendFlashPoint([
+        { volumeFraction: 1, flashPoint: 230 },
+        { volumeFraction: 0, flashPoint: null },
+      ]),
+    ).not.toBeNull();
+    expect(() => flashBlendingIndex(-300)).toThrow(BelowAbsoluteZeroError);
+    expect(() => blendFlashPoint([{ volumeFraction: 0.5, flashPoint: 200 }])).toThrow(FractionSumError);
+  });
+});
+
+describe('pour point by blending index (an estimate)', () => {
+  it('P1: 50/50 by volume of −15 °C and −45 °C → −25.12 °C', () => {
+    // formula, BI = T^(1/0.08) (shared/reference/check-values.md P1; from memory, an estimate only)
+    expectClose(
+      blendPourPoint([
+        { volumeFraction: 0.5, pourPoint: -15 },
+        { volumeFraction: 0.5, pourPoint: -45 },
+      ])!,
+      -25.12,
+      0.05,
+    );
+  });
+  it('round-trips; unknown → null', () => {
+    // inverse functions (identity)
+    for (const t of [-60, -15, 0, 10]) expectClose(pourPointFromIndex(pourBlendingIndex(t)), t, 1e-9);
+    expect(blendPourPoint([{ volumeFraction: 1, pourPoint: null }])).toBeNull();
+    expect(() => pourBlendingIndex(-274)).toThrow(BelowAbsoluteZeroError);
+  });
+});
+
+describe('aniline point (volume basis, an approximation)', () => {
+  it('volume-weighted over parts that have one, renormalised', () => {
+    // volume-weighted mean: the approximation the app labels as such (common practice, no source)
+    expect(
+      blendAnilinePoint([
+        { volumeFraction: 0.5, anilinePoint: 100 },
+        { volumeFraction: 0.5, anilinePoint: 120 },
+      ]),
+    ).toEqual({ value: 110, basis: 'all' });
+    const r = blendAnilinePoint([
+      { volumeFraction: 0.49, anilinePoint: 100 },
+      { volumeFraction: 0.49, anilinePoint: 120 },
+      { volumeFraction: 0.02, anilinePoint: null },
+    ]);
+    expectClose(r.value, 110, 1e-12);
+    expect(r.basis).toBe('base-fluid');
+    expect(() => blendAnilinePoint([{ volumeFraction: 1, anilinePoint: null }])).toThrow(BlendbenchInputError);
+  });
+});
+
+describe('permanent shear loss, KRL definition', () => {
+  it('S1: loss % = 100(ν_before − ν_after)/ν_before', () => {
+    // standard, KRL definition ISO 26422 / CEC L-45 (shared/reference/check-values.md S1)
+    expect(krlShearLossPct(20, 18)).toBe(10);
+    expect(krlShearLossPct(40, 30)).toBe(25);
+    expect(shearedKv(20, 10)).toBe(18);
+    expectClose(shearedKv(37.3, krlShearLossPct(37.3, 31.1)), 31.1, 1e-12); // inverse (identity)
+  });
+  it('in grade after shear, the ν100 loss carried over to ν40', () => {
+    // carry-over assumption stated in src/core/viscosity/shear.ts (common practice, no source); band ISO 3448 G2
+    expect(inGradeAfterShear(330, 8, 320)).toBe(true); // 303.6 mm²/s
+    expect(inGradeAfterShear(330, 15, 320)).toBe(false); // 280.5 mm²/s
+    expect(() => shearedKv(20, 100)).toThrow(BlendbenchInputError);
+    expect(() => krlShearLossPct(0, 1)).toThrow(NonPositiveViscosityError);
+  });
+});

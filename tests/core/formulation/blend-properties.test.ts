@@ -1,0 +1,100 @@
+import { describe, expect, it } from 'vitest';
+import { predictBlend } from '../../../src/core/formulation/blend-properties';
+import { stock } from '../solver/fixtures';
+
+const A = stock('a', 'group-ii', 100, 11, 0.865, 110, 1.0, { flashPoint: 200, pourPoint: -15 });
+const B = stock('b', 'group-i', 460, 31, 0.9, 120, 2.0, { flashPoint: 250, pourPoint: -45 });
+const EP = stock('ep', 'additive-package', 250, 15, 1.05, null, 5.5);
+
+describe('predictBlend', () => {
+  it('Refutas viscosity of a 50/50 blend', () => {
+    // 50/50 by mass of ν 100 and ν 460 → 203.39 ± 0.05 (shared/reference/check-values.md B2)
+    const p = predictBlend([A, B], [
+      { componentId: 'a', massFraction: 0.5 },
+      { componentId: 'b', massFraction: 0.5 },
+    ]);
+    expect(p.kv40).toBeCloseTo(203.39, 1);
+    expect(p.method).toBe('refutas');
+    expect(p.explain.kv40!.standard).toMatch(/Refutas/);
+    expect(p.explain.kv40!.inputs['A ν40 [mm²/s]']).toBe(100);
+  });
+
+  it('density, volume fractions and cost per litre', () => {
+    // 0.6 by mass at 0.865 + 0.4 at 0.900 → ρ = 0.87867 ± 1e-5 (check-values D1)
+    const p = predictBlend([A, B], [
+      { componentId: 'a', massFraction: 0.6 },
+      { componentId: 'b', massFraction: 0.4 },
+    ]);
+    expect(p.density15).toBeCloseTo(0.87867, 5);
+    expect(p.lines[0]!.volumeFraction + p.lines[1]!.volumeFraction).toBeCloseTo(1, 12);
+    // cost per litre = ρ × Σ wᵢ·priceᵢ (check-values D2)
+    expect(p.costPerLitre).toBeCloseTo(p.density15 * (0.6 * 1.0 + 0.4 * 2.0), 12);
+    expect(p.currency).toBe('EUR');
+  });
+
+  it('flash point of a 50/50 blend by volume', () => {
+    // 50/50 by volume, flash 200 °C + 250 °C → 215.95 ± 0.1 (check-values F2); equal densities make mass = volume
+    const A2 = { ...A, density15: 0.88 };
+    const B2 = { ...B, density15: 0.88 };
+    const p = predictBlend([A2, B2], [
+      { componentId: 'a', massFraction: 0.5 },
+      { componentId: 'b', massFraction: 0.5 },
+    ]);
+    expect(p.flashPoint!).toBeCloseTo(215.95, 1);
+    // pour point −15 °C + −45 °C by volume → −25.12 ± 0.05 (check-values P1)
+    expect(p.pourPoint!).toBeCloseTo(-25.12, 1);
+  });
+
+  it('viscosity at the operating temperature follows the blend’s ASTM D341 line', () => {
+    // ν40 220, ν100 19.0 → ν at 80 °C = 35.60 ± 0.01 (check-values W2)
+    const C = stock('c', 'group-ii', 220, 19.0, 0.88, 120, 1.0);
+    const p = predictBlend([C], [{ componentId: 'c', massFraction: 1 }], { operatingTempC: 80 });
+    expect(p.kvAtOperating!.kv).toBeCloseTo(35.6, 2);
+    expect(p.kvAtCold).toBeNull();
+  });
+
+  it('the additive is left out of the aniline point and flagged; VI, grade and polymer share', () => {
+    const p = predictBlend([A, B, EP], [
+      { componentId: 'a', massFraction: 0.4 },
+      { componentId: 'b', massFraction: 0.58 },
+      { componentId: 'ep', massFraction: 0.02 },
+    ]);
+    expect(p.anilinePoint!.basis).toBe('base-fluid');
+    expect(p.vi).not.toBeNull();
+    expect(p.reportedVi).toBe(Math.round(p.vi!)); // common practice (no source): nearest whole number
+    expect(p.grade).toBe(220);
+    expect(p.polymerFraction).toBe(0);
+    expect(p.deviationFromMidPct!).toBeCloseTo((100 * (p.kv40 - 220)) / 220, 9);
+  });
+
+  it('uses a calibrated component’s effective viscosities', () => {
+    const cal = {
+      ...B,
+      calibration: {
+        effectiveKv40: 400,
+        effectiveKv100: 30,
+        trial: { massFractions: { a: 0.5, b: 0.5 }, measuredKv40: 190, measuredKv100: 17, labReference: 'LAB-1 (invented)' },
+        method: 'refutas' as const,
+        calibratedOn: '2024-01-01',
+      },
+    };
+    const p = predictBlend([cal], [{ componentId: 'b', massFraction: 1 }]);
+    expect(p.kv40).toBe(400); // identity: a single component at fraction 1
+    expect(p.lines[0]!.calibrated).toBe(true);
+  });
+
+  it('mixed currencies give no cost and a warning', () => {
+    const usd = { ...B, price: { ...B.price, currency: 'USD' } };
+    const p = predictBlend([A, usd], [
+      { componentId: 'a', massFraction: 0.5 },
+      { componentId: 'b', massFraction: 0.5 },
+    ]);
+    expect(p.mixedCurrencies).toBe(true);
+    expect(p.costPerLitre).toBeNull();
+    expect(p.warnings.join(' ')).toMatch(/currencies/);
+  });
+
+  it('throws for an unknown component', () => {
+    expect(() => predictBlend([A], [{ componentId: 'x', massFraction: 1 }])).toThrow(/names no component/);
+  });
+});

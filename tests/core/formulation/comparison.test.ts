@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { compareRecipes } from '../../../src/core/formulation/comparison';
+import { predictBlend } from '../../../src/core/formulation/blend-properties';
+import { makeComponent, STOCKS, stock } from '../../helpers/formulation-fixtures';
+import { expectClose } from '../../helpers/tolerance';
+
+// Invented stocks with generic typicals (base-stock-typicals.md, from memory)
+const lib = [
+  { ...stock('g1bs'), availability: 'withdrawn' as const },
+  stock('g1sn600'),
+  stock('g2heavy'),
+  stock('g2hv'),
+  stock('an12'),
+  stock('add'),
+  makeComponent({ ...STOCKS.pib!, id: 'pma', shearLossPct: 30 }),
+];
+const reference = [
+  { componentId: 'g1bs', massFraction: 0.6 },
+  { componentId: 'g1sn600', massFraction: 0.38 },
+  { componentId: 'add', massFraction: 0.02 },
+];
+const candidate = [
+  { componentId: 'g2hv', massFraction: 0.6 },
+  { componentId: 'g2heavy', massFraction: 0.28 },
+  { componentId: 'an12', massFraction: 0.1 },
+  { componentId: 'add', massFraction: 0.02 },
+];
+const base = { components: lib, reference, candidate, grade: 220, operatingTempC: 65, coldTempC: -10 };
+
+describe('compareRecipes', () => {
+  it('reports every difference as candidate − reference from the core predictions', () => {
+    // identity: Δ = candidate − reference of predictBlend's values (same rule and temperatures)
+    const c = compareRecipes(base);
+    const r = predictBlend(lib, reference, { operatingTempC: 65, coldTempC: -10 });
+    const k = predictBlend(lib, candidate, { operatingTempC: 65, coldTempC: -10 });
+    expectClose(c.costPerLitre.delta!, k.costPerLitre! - r.costPerLitre!, 1e-12);
+    expectClose(c.vi.delta!, k.vi! - r.vi!, 1e-12);
+    expectClose(c.anilinePoint.delta!, k.anilinePoint!.value - r.anilinePoint!.value, 1e-12);
+    expectClose(c.kvAtOperating.delta!, k.kvAtOperating!.kv - r.kvAtOperating!.kv, 1e-9);
+    expectClose(c.kvAtCold.delta!, k.kvAtCold!.kv - r.kvAtCold!.kv, 1e-9);
+    expect(c.kvAtCold.tempC).toBe(-10);
+    expectClose(c.costPerLitre.deltaPct!, (100 * c.costPerLitre.delta!) / r.costPerLitre!, 1e-9);
+  });
+
+  it('a Group II replacement is more stable and less solvent than the Group I original', () => {
+    // check-values.md §6: deeper refining buys oxidation stability and costs solvency
+    const c = compareRecipes(base);
+    expect(c.oxidation.change).toBe('better');
+    expect(c.anilinePoint.delta!).toBeGreaterThan(0);
+    expect(c.summary.join(' ')).toMatch(/Oxidation stability better/);
+    expect(c.summary.at(-1)).toMatch(/laboratory confirmation/);
+  });
+
+  it('comparing a recipe with itself gives zero differences and no changes', () => {
+    // identity
+    const c = compareRecipes({ ...base, candidate: reference });
+    expect(c.costPerLitre.delta).toBe(0);
+    expect(c.vi.delta).toBe(0);
+    expect(c.oxidation.change).toBe('same');
+    expect(c.deposit.change).toBe('same');
+    expect(c.solvency.change).toBe('same');
+  });
+
+  it('flags a candidate that leaves the grade after shear', () => {
+    // ISO 3448 VG 320 band 288–352 (check-values.md G2); 30 % KRL loss (base-stock-typicals.md, from memory)
+    const cand = [
+      { componentId: 'g2heavy', massFraction: 0.66 },
+      { componentId: 'pma', massFraction: 0.32 },
+      { componentId: 'add', massFraction: 0.02 },
+    ];
+    const ref = [
+      { componentId: 'g2hv', massFraction: 0.5 },
+      { componentId: 'g2heavy', massFraction: 0.48 },
+      { componentId: 'add', massFraction: 0.02 },
+    ];
+    const c = compareRecipes({ ...base, grade: 320, reference: ref, candidate: cand });
+    expect(c.shear.candidate.inGradeAfter).toBe(false);
+    expect(c.summary.join(' ')).toMatch(/candidate falls out of VG 320 after shear/);
+  });
+
+  it('rejects empty recipes', () => {
+    expect(() => compareRecipes({ ...base, candidate: [] })).toThrow(/candidate/);
+  });
+});

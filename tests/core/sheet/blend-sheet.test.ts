@@ -1,0 +1,352 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import {
+  blendSheetCsvRows,
+  buildBlendSheet,
+  chargeRole,
+  defaultBlendingInstructions,
+  largestRemainderUnits,
+  qcReleaseTargets,
+  quantityDecimals,
+  BLEND_SHEET_CAUTIONS,
+  type SheetPrediction,
+} from '../../../src/core/sheet/blend-sheet';
+import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
+import { BlendbenchInputError } from '../../../src/core/errors';
+
+/** An invented test component; only the fields the sheet reads matter. */
+function comp(
+  id: string,
+  category: ComponentCategory,
+  kv40: number,
+  density15: number,
+  price = 1,
+  basis: Component['price']['basis'] = 'per-kg',
+  currency = 'EUR',
+): Component {
+  return {
+    id,
+    code: id.toUpperCase(),
+    name: `Invented ${id}`,
+    category,
+    viscosityPoints: [
+      { tempC: 40, kv: kv40 },
+      { tempC: 100, kv: kv40 / 12 },
+    ],
+    density15,
+    anilinePoint: null,
+    pourPoint: null,
+    flashPoint: null,
+    sulfurPct: null,
+    saturatesPct: null,
+    price: { amount: price, basis, currency },
+    availability: 'available',
+    oxidationRating: null,
+    shearLossPct: null,
+    calibration: null,
+    source: 'invented test data',
+    sourceDate: '2025-01-01',
+    notes: '',
+  };
+}
+
+function recipe(lines: [string, number][], grade = 320): Recipe {
+  return {
+    id: 'r1',
+    name: 'Invented test recipe',
+    grade,
+    lines: lines.map(([componentId, massFraction]) => ({ componentId, massFraction })),
+    revision: 3,
+    isReference: false,
+    notes: '',
+    updatedAt: '2025-01-01T00:00:00Z',
+  };
+}
+
+const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
+
+describe('largestRemainderUnits', () => {
+  it('hands the missing unit to the largest remainder', () => {
+    // Hamilton (largest-remainder) method, worked by hand: floors 333+333+333 = 999, the third
+    // value has the largest remainder (0.4) → 334. common practice (no source)
+    expect(largestRemainderUnits([33.333, 33.333, 33.334], 100, 1)).toEqual([333, 333, 334]);
+  });
+
+  it('makes three thirds of 1000 kg add up to 1000.0', () => {
+    // worked by hand: 333.33… ×3 → 3333, 3333, 3334 tenths (ties broken by order). common practice (no source)
+    const u = largestRemainderUnits([1000 / 3, 1000 / 3, 1000 / 3], 1000, 1);
+    expect(sum(u)).toBe(10000);
+    expect(u.map((x) => x / 10)).toEqual([333.4, 333.3, 333.3]);
+  });
+
+  it('never moves a value by more than one displayed unit (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 1e5, noNaN: true }), { minLength: 1, maxLength: 12 }),
+        fc.integer({ min: 0, max: 3 }),
+        (values, d) => {
+          const total = sum(values);
+          const u = largestRemainderUnits(values, total, d);
+          const s = 10 ** d;
+          // exact column sum: the defining property of the method. common practice (no source)
+          expect(sum(u)).toBe(Math.round(total * s));
+          u.forEach((x, i) => expect(Math.abs(x - values[i]! * s)).toBeLessThan(1 + 1e-6));
+        },
+      ),
+    );
+  });
+
+  it('rejects values that do not add up to the total', () => {
+    expect(() => largestRemainderUnits([1, 2], 4, 1)).toThrow(BlendbenchInputError);
+    expect(() => largestRemainderUnits([-1, 2], 1, 1)).toThrow(/≥ 0/);
+  });
+});
+
+describe('quantityDecimals', () => {
+  it('shows finer quantities for small batches', () => {
+    // common practice (no source): balance for lab batches, 0.1 kg for kettles, 1 kg for tanks
+    expect(quantityDecimals(50)).toBe(2);
+    expect(quantityDecimals(1000)).toBe(1);
+    expect(quantityDecimals(250_000)).toBe(0);
+  });
+});
+
+describe('buildBlendSheet', () => {
+  const two = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1.0)];
+
+  it('reproduces ideal-mixing density and litres for a 1000 kg batch', () => {
+    const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
+    // shared/reference/check-values.md D1: ρ = 0.87867 kg/L for 0.6 @ 0.865 + 0.4 @ 0.900 (ideal mixing)
+    expect(s.density15).toBeCloseTo(0.87867, 5);
+    // 600/0.865 + 400/0.900 = 693.64 + 444.44 = 1138.09 L, worked by hand from D1's inputs
+    expect(s.totalLitresExact).toBeCloseTo(1138.086, 3);
+    expect(s.totalKg).toBe(1000);
+    expect(s.totalLitres).toBe(1138.1);
+    expect(s.quantityDecimals).toBe(1);
+    // Rows in charging order: the heavier (ν40 460) base stock first. common practice (domain notes)
+    expect(s.rows.map((r) => r.code)).toEqual(['B', 'A']);
+    expect(s.rows.map((r) => r.kg)).toEqual([400, 600]);
+    // Plain rounding would print 444.4 + 693.6 = 1138.0 ≠ 1138.1; the largest remainder (444.444…, .44
+    // against 693.641…, .41) takes the missing 0.1 L. Worked by hand; common practice (no source)
+    expect(s.rows.map((r) => r.litres)).toEqual([444.5, 693.6]);
+    expect(s.rows.map((r) => r.runningKg)).toEqual([400, 1000]);
+  });
+
+  it('takes a batch in litres at 15 °C', () => {
+    const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4]]), { litres: 1000 });
+    // check-values D1: 1000 L × 0.87867 kg/L = 878.67 kg
+    expect(s.totalKgExact).toBeCloseTo(878.67, 2);
+    expect(s.totalLitres).toBe(1000);
+    expect(s.batchBasis).toBe('litres');
+    expect(sum(s.rows.map((r) => r.litres * 10))).toBe(10000);
+  });
+
+  it('orders base stocks heaviest first, then boosters, polymer, additive package last', () => {
+    const lib = [
+      comp('add', 'additive-package', 300, 1.05),
+      comp('poly', 'polymer', 4000, 0.89),
+      comp('an', 'group-v', 30, 0.9),
+      comp('n150', 'group-ii', 30, 0.86),
+      comp('hv', 'group-ii', 600, 0.88),
+      comp('pao', 'group-iv', 400, 0.85),
+    ];
+    const r = recipe([['add', 0.02], ['poly', 0.04], ['an', 0.1], ['n150', 0.34], ['hv', 0.3], ['pao', 0.2]]);
+    const s = buildBlendSheet(lib, r, { kg: 5000 });
+    // common practice (domain notes, "Blending practice"): base stocks, boosters, polymer, additive last
+    expect(s.rows.map((x) => x.componentId)).toEqual(['hv', 'pao', 'n150', 'an', 'poly', 'add']);
+    expect(s.rows.map((x) => x.chargeOrder)).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(chargeRole('group-v')).toBe('solvency-booster');
+
+    const o = buildBlendSheet(lib, r, { kg: 5000 }, { chargeOrder: ['n150', 'an'] });
+    expect(o.rows.map((x) => x.componentId)).toEqual(['n150', 'an', 'hv', 'pao', 'poly', 'add']);
+  });
+
+  it('makes every displayed column sum exactly to its total (12 components, any batch)', () => {
+    const cats: ComponentCategory[] = ['group-i', 'group-ii', 'group-iii', 'group-iv', 'group-v', 'polymer'];
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 1000 }), { minLength: 12, maxLength: 12 }),
+        fc.array(fc.double({ min: 0.8, max: 1.1, noNaN: true }), { minLength: 12, maxLength: 12 }),
+        fc.double({ min: 1, max: 500_000, noNaN: true }),
+        fc.boolean(),
+        (weights, dens, size, inLitres) => {
+          const lib = weights.map((_, i) => comp(`c${i}`, i === 11 ? 'additive-package' : cats[i % cats.length]!, 10 + i * 50, dens[i]!));
+          const w = sum(weights);
+          const r = recipe(weights.map((x, i) => [`c${i}`, x / w]));
+          const s = buildBlendSheet(lib, r, inLitres ? { litres: size } : { kg: size });
+          const qs = 10 ** s.quantityDecimals;
+          const ps = 10 ** s.percentDecimals;
+          const u = (xs: number[], sc: number) => sum(xs.map((x) => Math.round(x * sc)));
+          // Displayed columns sum exactly (largest remainder). common practice (no source)
+          expect(u(s.rows.map((x) => x.kg), qs)).toBe(Math.round(s.totalKg * qs));
+          expect(u(s.rows.map((x) => x.litres), qs)).toBe(Math.round(s.totalLitres * qs));
+          expect(u(s.rows.map((x) => x.massPct), ps)).toBe(100 * ps);
+          expect(u(s.rows.map((x) => x.volumePct), ps)).toBe(100 * ps);
+          // The displayed batch total is the requested batch size to the displayed precision.
+          expect(Math.round((inLitres ? s.totalLitres : s.totalKg) * qs)).toBe(Math.round(size * qs));
+          expect(s.rows.at(-1)!.runningKg).toBe(s.totalKg);
+          expect(s.rows.at(-1)!.componentId).toBe('c11');
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it('prices the batch: per litre = ρ·Σ wᵢ·pᵢ', () => {
+    const lib = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 900, 'per-tonne')];
+    const s = buildBlendSheet(lib, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
+    if (!s.costing.available) throw new Error('costing should be available');
+    // check-values D2: per litre = ρ × Σ wᵢ·pᵢ; Σ wᵢ·pᵢ = 0.6·1.2 + 0.4·0.9 = 1.08 per kg (by hand)
+    expect(s.costing.perKg).toBeCloseTo(1.08, 10);
+    expect(s.costing.perBatch).toBeCloseTo(1080, 8);
+    expect(s.costing.perLitre).toBeCloseTo(0.87867 * 1.08, 4);
+
+    const mixed = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1, 'per-kg', 'USD')];
+    const m = buildBlendSheet(mixed, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
+    expect(m.costing).toEqual({ available: false, reason: expect.stringMatching(/different currencies/) });
+  });
+
+  it('leaves lines at 0 % off the sheet', () => {
+    const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4], ['zz', 0]]), { kg: 1000 });
+    expect(s.rows.map((r) => r.code)).toEqual(['B', 'A']);
+  });
+
+  it('throws specific errors for a missing component or a bad batch size', () => {
+    expect(() => buildBlendSheet(two, recipe([['zz', 1]]), { kg: 1000 })).toThrow(/not in the library/);
+    expect(() => buildBlendSheet(two, recipe([['a', 1]]), { kg: 0 })).toThrow(/batch.kg = 0/);
+    expect(() => buildBlendSheet(two, recipe([['a', 1]]), { litres: Number.NaN })).toThrow(BlendbenchInputError);
+  });
+});
+
+describe('defaultBlendingInstructions', () => {
+  it('follows the common charging practice and names the stock codes', () => {
+    const lib = [comp('hv', 'group-ii', 600, 0.88), comp('poly', 'polymer', 4000, 0.89), comp('add', 'additive-package', 300, 1.05)];
+    const s = buildBlendSheet(lib, recipe([['hv', 0.9], ['poly', 0.08], ['add', 0.02]]), { kg: 1000 });
+    const steps = defaultBlendingInstructions(s);
+    const text = steps.join('\n');
+    // domain notes (common practice): heat to about 50–65 °C, polymer slowly, additive last, mix 30–60 min
+    expect(text).toMatch(/50–65 °C/);
+    expect(text).toMatch(/30–60 min/);
+    expect(steps.findIndex((x) => x.includes('POLY'))).toBeLessThan(steps.findIndex((x) => x.includes('ADD')));
+    expect(text).toMatch(/QC sample/);
+    const plain = defaultBlendingInstructions(buildBlendSheet(lib, recipe([['hv', 1]]), { kg: 1000 }), {
+      heatToC: [55, 60],
+    });
+    expect(plain.join('\n')).not.toMatch(/polymer/i);
+    expect(plain.join('\n')).toMatch(/55–60 °C/);
+  });
+
+  it('prints the temperatures in °F when asked', () => {
+    const lib = [comp('hv', 'group-ii', 600, 0.88), comp('add', 'additive-package', 300, 1.05)];
+    const s = buildBlendSheet(lib, recipe([['hv', 0.98], ['add', 0.02]]), { kg: 1000 });
+    const text = defaultBlendingInstructions(s, { temperatureUnit: 'F' }).join('\n');
+    // t_F = 9/5·t_C + 32, the definition of the scale (common practice, no source): 50 → 122, 65 → 149 °F
+    expect(text).toMatch(/Heat to 122–149 °F with agitation; do not exceed 149 °F\./);
+    expect(text).toMatch(/at no more than 149 °F/);
+    expect(text).not.toMatch(/°C/);
+  });
+});
+
+describe('qcReleaseTargets', () => {
+  const p: SheetPrediction = {
+    kv40: 318.44,
+    kv100: 24.1,
+    reportedVi: 97,
+    density15: 0.8912,
+    anilinePoint: 118.2,
+    flashPoint: 241.6,
+    pourPoint: -11.2,
+    operating: { tempC: 60, kv: 120.3 },
+  };
+
+  it('puts ν40 inside the plant aim band and the ISO 3448 band', () => {
+    const rows = qcReleaseTargets(320, p);
+    const kv40 = rows.find((r) => r.key === 'kv40')!;
+    // ISO 3448 VG 320: 288–352 (check-values G2); plant aim ±5 % of 320 = 304–336 (common practice, domain notes)
+    expect(kv40.min).toBe(304);
+    expect(kv40.max).toBe(336);
+    expect(kv40.target).toBe('304.0–336.0 (ISO VG 320: 288.0–352.0)');
+    expect(kv40.method).toBe('ASTM D445');
+    expect(kv40.predicted).toBe('318.4');
+    // A plant tolerance wider than ISO is clipped to the ISO band (check-values G2 limits).
+    const wide = qcReleaseTargets(320, p, { kv40TolerancePct: 15 }).find((r) => r.key === 'kv40')!;
+    expect([wide.min, wide.max]).toEqual([288, 352]);
+    // ISO 3448 VG 220: 198–242 exactly (check-values G1), no floating-point edge
+    const g220 = qcReleaseTargets(220, p, { kv40TolerancePct: 10 }).find((r) => r.key === 'kv40')!;
+    expect([g220.min, g220.max]).toEqual([198, 242]);
+  });
+
+  it('flags a prediction that falls outside its own release target', () => {
+    // ν40 228.0 is below the VG 320 aim band 304–336 (ISO 3448 band 288–352, check-values G2)
+    const low = qcReleaseTargets(320, { ...p, kv40: 228.0 });
+    expect(low.find((r) => r.key === 'kv40')!.predictedOutsideTarget).toBe(true);
+    expect(low.filter((r) => r.predictedOutsideTarget).map((r) => r.key)).toEqual(['kv40']);
+    // 318.44 prints as 318.4, inside 304–336
+    expect(qcReleaseTargets(320, p).some((r) => r.predictedOutsideTarget)).toBe(false);
+    // Edge: 303.96 prints as 304.0, which is inside (limits inclusive, as ISO 3448; check-values G1 style)
+    expect(qcReleaseTargets(320, { ...p, kv40: 303.96 }).find((r) => r.key === 'kv40')!.predictedOutsideTarget).toBe(false);
+  });
+
+  it('sets margins around the prediction and names each test method', () => {
+    const rows = qcReleaseTargets(320, p);
+    const by = Object.fromEntries(rows.map((r) => [r.key, r]));
+    // common practice (no source): VI ≥ predicted − 5; flash ≥ estimate − 10 °C; pour ≤ estimate + 6 °C
+    expect(by.vi!.min).toBe(92);
+    expect(by.flash!.min).toBe(232);
+    expect(by.pour!.max).toBe(-5);
+    // common practice (no source): density ±0.005 kg/L around the prediction
+    expect(by.density15!.target).toBe('0.8862–0.8962');
+    expect(rows.map((r) => r.method)).toEqual([
+      'Visual', 'ASTM D445', 'ASTM D445', 'ASTM D2270', 'ASTM D4052', 'ASTM D92', 'ASTM D97', 'ASTM D611',
+      'ASTM D341', 'ASTM D130', 'ASTM D892',
+    ]);
+    expect(by.aniline!.release).toBe(false);
+  });
+
+  it('prints flash, pour, aniline and operating temperatures in °F, judged as in °C', () => {
+    const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F' });
+    const by = Object.fromEntries(rows.map((r) => [r.key, r]));
+    // t_F = 9/5·t_C + 32 (common practice, no source), rounded to whole degrees:
+    // flash 241.6 °C → 466.9 → 467 °F, limit 232 °C → 449.6 → 450 °F
+    expect([by.flash!.unit, by.flash!.predicted, by.flash!.target, by.flash!.min]).toEqual(['°F', '467', '≥ 450', 450]);
+    // pour −11.2 °C → 11.8 → 12 °F, limit −5 °C → 23 °F
+    expect([by.pour!.unit, by.pour!.predicted, by.pour!.target, by.pour!.max]).toEqual(['°F', '12', '≤ 23', 23]);
+    // aniline 118.2 °C → 244.8 → 245 °F; operating 60 °C → 140 °F
+    expect([by.aniline!.unit, by.aniline!.predicted]).toEqual(['°F', '245']);
+    expect(by.kvOperating!.property).toBe('Viscosity at 140 °F (calculated)');
+    // The standard test temperatures stay in °C; verdicts do not change with the unit.
+    expect(by.kv40!.property).toBe('Kinematic viscosity at 40 °C');
+    expect(rows.map((r) => r.predictedOutsideTarget)).toEqual(qcReleaseTargets(320, p).map((r) => r.predictedOutsideTarget));
+  });
+
+  it('reports rather than invents targets for missing estimates', () => {
+    const rows = qcReleaseTargets(320, { ...p, reportedVi: null, flashPoint: null, pourPoint: null, operating: null });
+    const by = Object.fromEntries(rows.map((r) => [r.key, r]));
+    expect(by.flash!.target).toBe('Per specification');
+    expect(by.vi!.predicted).toBe('—');
+    expect(by.kvOperating).toBeUndefined();
+  });
+});
+
+describe('blendSheetCsvRows and cautions', () => {
+  it('exports the component table with a totals row, prices only on request', () => {
+    const lib = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1.0)];
+    const s = buildBlendSheet(lib, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
+    const plant = blendSheetCsvRows(s);
+    expect(Object.keys(plant[0]!)).toEqual([
+      'Charge order', 'Code', 'Name', 'Category', 'Mass %', 'Volume %', 'kg', 'Litres at 15 °C', 'Running total kg',
+    ]);
+    expect(plant.at(-1)).toMatchObject({ Code: 'TOTAL', kg: '1000.0', 'Mass %': '100.00' });
+    expect(plant[0]!.kg).toBe('400.0');
+    const costing = blendSheetCsvRows(s, { includePrices: true });
+    // 0.6 × 1.2 + 0.4 × 1.0 = 1.12 per kg × 1000 kg = 1120.00, by hand (check-values D2 form)
+    expect(costing.at(-1)!['Line cost (EUR)']).toBe('1120.00');
+  });
+
+  it('says laboratory confirmation is required and defers to SDS and site procedures', () => {
+    const text = BLEND_SHEET_CAUTIONS.join(' ');
+    expect(text).toMatch(/Laboratory confirmation/);
+    expect(text).toMatch(/safety data sheet/);
+    expect(text).toMatch(/hydrogen sulfide/);
+  });
+});
