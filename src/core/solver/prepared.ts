@@ -1,0 +1,278 @@
+/**
+ * The solver's prepared problem: each component's numbers precomputed once (blending coordinates at
+ * 40 and 100 °C, 1/ρ, aniline point, price, oxidation rating, pour and flash indices relative to
+ * their limits) for a set of components, targets and mixing rule, so that any subset can then be
+ * solved quickly (`solvePrepared` in `engine.ts`).
+ *
+ * The formulation that uses these numbers is described in `engine.ts`; the rows are written in
+ * `rows.ts`, the objectives in `objectives.ts`, the VI branch and bound in `branch-and-bound.ts`.
+ */
+import type { Objective } from '../formulation/model';
+import type { BlendMethod } from '../blending/blend-viscosity';
+import { pourBlendingIndex } from '../blending/pour-point';
+import { flashBlendingIndex } from '../blending/flash-point';
+import { blendCoordinates, type BlendCoordinates } from './coordinates';
+import { ViBoundary, type ViChord } from './vi-boundary';
+
+/** One component as the engine needs it (plain numbers; see `prepareComponents` for Components). */
+export interface EngineComponent {
+  id: string;
+  /** Short label used in messages (the stock code). */
+  label: string;
+  /** ν40, ν100 used for blending (effective values of a calibrated component) [mm²/s]. */
+  kv40: number;
+  kv100: number;
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline point [°C]; null → left out of the aniline mean (additive package). */
+  anilinePoint: number | null;
+  /** Price per kg, in the problem's currency. */
+  pricePerKg: number;
+  /** Counts toward the polymer cap. */
+  polymer: boolean;
+  /** Counts toward the base-fluid oxidation rating (false for additive packages). */
+  baseFluid: boolean;
+  /** Oxidation-stability rating (Blendbench's 1–5 scale). */
+  oxidation: number;
+  /** Pour point [°C] and flash point [°C]; null if unknown. */
+  pourPoint: number | null;
+  flashPoint: number | null;
+  /** Mass-fraction bounds (0–1); the fixed additive has min = max = its treat rate. */
+  min: number;
+  max: number;
+  /** The additive package at a fixed treat rate. */
+  fixedAdditive: boolean;
+  /** False for withdrawn components (and for those a constraint cannot be checked on). */
+  usable: boolean;
+}
+
+/** Targets in plain numbers; the ν40 band is final (target band already clipped to the ISO band). */
+export interface EngineTargets {
+  /** ν40 band [mm²/s], inclusive. */
+  kv40Min: number;
+  kv40Max: number;
+  /** Minimum VI (unrounded); null → none. */
+  minVi: number | null;
+  /** Maximum aniline point [°C]; null → none. */
+  maxAnilinePoint: number | null;
+  /** Maximum polymer mass fraction (0–1); null → none. */
+  maxPolymerFraction: number | null;
+  /** Maximum pour-point estimate [°C]; null → none. */
+  maxPourPoint: number | null;
+  /** Minimum flash-point estimate [°C]; null → none. */
+  minFlashPoint: number | null;
+  objective: Objective;
+  /** Mass fractions of the reference recipe, aligned with the components (for 'closest'). */
+  referenceMassFractions: readonly number[] | null;
+}
+
+/** Constraint groups, switched off one at a time to find the binding one. */
+export type ConstraintGroup = 'band' | 'vi' | 'aniline' | 'polymer' | 'bounds' | 'additive' | 'pour' | 'flash';
+
+export const ALL_GROUPS: readonly ConstraintGroup[] = [
+  'band',
+  'vi',
+  'aniline',
+  'polymer',
+  'bounds',
+  'additive',
+  'pour',
+  'flash',
+];
+
+/** Reference properties for the 'closest' objective (computed from the reference recipe). */
+export interface ClosestReference {
+  x40: number;
+  x100: number;
+  anilinePoint: number;
+  /** Σ cᵢwᵢ of the reference (1 for mass-basis rules). */
+  viscBasis: number;
+  /** Σ_A wᵢ/ρᵢ of the reference [L/kg]. */
+  anilineVolume: number;
+  /** X per 1 % of ν40 and ν100 at the reference. */
+  perPct40: number;
+  perPct100: number;
+  kv40: number;
+  kv100: number;
+}
+
+/** A ratio objective num·w / den·w (linear after normalising den·w = 1). */
+export interface RatioObjective {
+  kind: 'ratio';
+  sense: 'minimize' | 'maximize';
+  num: Float64Array;
+  den: Float64Array;
+}
+/** The 'closest' objective: min Σ of three auxiliary deviation variables, normalise Σ w = 1. */
+export interface ClosestObjective {
+  kind: 'closest';
+}
+export type EngineObjective = RatioObjective | ClosestObjective;
+
+/**
+ * Per-component numbers precomputed once for a set of components, targets and mixing rule;
+ * {@link solvePrepared} then solves any subset quickly. Arrays are aligned with `components`.
+ */
+export interface PreparedProblem {
+  readonly method: BlendMethod;
+  readonly coords: BlendCoordinates;
+  readonly components: readonly EngineComponent[];
+  readonly targets: EngineTargets;
+  readonly n: number;
+  readonly x40: Float64Array;
+  readonly x100: Float64Array;
+  /** Viscosity basis weight cᵢ (1 or 1/ρᵢ). */
+  readonly c: Float64Array;
+  readonly invRho: Float64Array;
+  /** Aniline point, NaN where null. */
+  readonly ap: Float64Array;
+  readonly price: Float64Array;
+  readonly ox: Float64Array;
+  /** Pour index / BI_max and flash index / FI_max (NaN where unknown or no limit). */
+  readonly pourRel: Float64Array;
+  readonly flashRel: Float64Array;
+  /** Band in X: [bandA, bandB]. */
+  readonly bandA: number;
+  readonly bandB: number;
+  readonly vi: ViBoundary | null;
+  /**
+   * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
+   * root relaxation of the VI condition (see {@link viRoot}).
+   */
+  readonly cache: { viRoot?: ViRoot; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>> };
+  readonly reference: ClosestReference | null;
+  /** Indices with min > 0 (always in every subset). */
+  readonly forced: readonly number[];
+  /** Indices of usable components. */
+  readonly usableIndices: readonly number[];
+}
+
+/**
+ * Precompute the engine's numbers.
+ *
+ * @param components - engine components (see {@link EngineComponent})
+ * @param targets - final targets
+ * @param method - mixing rule
+ * @returns the prepared problem
+ * @throws whatever the core's blending-coordinate functions throw for impossible viscosities
+ */
+export function prepareEngine(
+  components: readonly EngineComponent[],
+  targets: EngineTargets,
+  method: BlendMethod,
+): PreparedProblem {
+  const coords = blendCoordinates(method);
+  const n = components.length;
+  const x40 = new Float64Array(n);
+  const x100 = new Float64Array(n);
+  const c = new Float64Array(n);
+  const invRho = new Float64Array(n);
+  const ap = new Float64Array(n);
+  const price = new Float64Array(n);
+  const ox = new Float64Array(n);
+  const pourRel = new Float64Array(n).fill(Number.NaN);
+  const flashRel = new Float64Array(n).fill(Number.NaN);
+  const pourMax = targets.maxPourPoint === null ? null : pourBlendingIndex(targets.maxPourPoint);
+  const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
+  const forced: number[] = [];
+  const usableIndices: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const k = components[i]!;
+    x40[i] = coords.toX(k.kv40);
+    x100[i] = coords.toX(k.kv100);
+    invRho[i] = 1 / k.density15;
+    c[i] = coords.massBasis ? 1 : invRho[i]!;
+    ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
+    price[i] = k.pricePerKg;
+    ox[i] = k.baseFluid ? k.oxidation : 0;
+    if (pourMax !== null && k.pourPoint !== null) pourRel[i] = pourBlendingIndex(k.pourPoint) / pourMax;
+    if (flashMax !== null && k.flashPoint !== null) flashRel[i] = flashBlendingIndex(k.flashPoint) / flashMax;
+    if (k.usable) usableIndices.push(i);
+    if (k.min > 0) forced.push(i);
+  }
+  const bandA = coords.toX(targets.kv40Min);
+  const bandB = coords.toX(targets.kv40Max);
+  let vi: ViBoundary | null = null;
+  if (targets.minVi !== null) vi = new ViBoundary(targets.minVi, coords);
+  let reference: ClosestReference | null = null;
+  if (targets.referenceMassFractions) {
+    const w = targets.referenceMassFractions;
+    let sc = 0;
+    let s40 = 0;
+    let s100 = 0;
+    let sa = 0;
+    let saAp = 0;
+    for (let i = 0; i < n; i++) {
+      const wi = w[i] ?? 0;
+      if (wi <= 0) continue;
+      sc += c[i]! * wi;
+      s40 += c[i]! * wi * x40[i]!;
+      s100 += c[i]! * wi * x100[i]!;
+      if (!Number.isNaN(ap[i]!)) {
+        sa += invRho[i]! * wi;
+        saAp += invRho[i]! * wi * ap[i]!;
+      }
+    }
+    if (sc > 0) {
+      const rx40 = s40 / sc;
+      const rx100 = s100 / sc;
+      const kv40 = coords.toKv(rx40);
+      const kv100 = coords.toKv(rx100);
+      reference = {
+        x40: rx40,
+        x100: rx100,
+        anilinePoint: sa > 0 ? saAp / sa : Number.NaN,
+        viscBasis: sc,
+        anilineVolume: sa,
+        perPct40: coords.perPct(kv40),
+        perPct100: coords.perPct(kv100),
+        kv40,
+        kv100,
+      };
+    }
+  }
+  return {
+    method,
+    coords,
+    components,
+    targets,
+    n,
+    x40,
+    x100,
+    c,
+    invRho,
+    ap,
+    price,
+    ox,
+    pourRel,
+    flashRel,
+    bandA,
+    bandB,
+    vi,
+    cache: {},
+    reference,
+    forced,
+    usableIndices,
+  };
+}
+
+/** h at the band ends and the VI relaxation on the whole band. */
+export interface ViRoot {
+  hA: number;
+  hB: number;
+  chords: readonly ViChord[];
+}
+
+/** The root VI relaxation of a prepared problem, computed on first use and cached. */
+export function viRoot(P: PreparedProblem): ViRoot | null {
+  if (!P.vi) return null;
+  if (!P.cache.viRoot) {
+    const hA = P.vi.h(P.bandA);
+    const hB = P.vi.h(P.bandB, hA);
+    P.cache.viRoot = { hA, hB, chords: P.vi.relaxation(P.bandA, hA, P.bandB, hB) };
+  }
+  return P.cache.viRoot;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Objectives and LP construction

@@ -1,0 +1,240 @@
+/**
+ * Formulation rows: the LP of one branch-and-bound node, written into one dense buffer (the hot
+ * path of the substitute search: no closures, few allocations). The rows are the homogeneous
+ * inequalities listed in `engine.ts`; a fixed additive treat rate is folded into the other columns.
+ */
+import type { PreparedProblem, ConstraintGroup } from './prepared';
+import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
+import type { ViBoundary, ViChord } from './vi-boundary';
+import { solveDenseLp } from './lp';
+
+/** What one solve switches on. */
+export interface SolveContext {
+  P: PreparedProblem;
+  vars: readonly number[];
+  groups: ReadonlySet<ConstraintGroup>;
+  objective: EngineObjective;
+  extra: readonly ExtraRow[];
+  vi: ViBoundary | null;
+  /** Add the three 'closest' deviation variables and rows (objective 'closest' or its tie-break). */
+  withAux: boolean;
+}
+
+export interface NodeSolution {
+  status: 'optimal' | 'infeasible' | 'failed';
+  /** Values of the component variables (aligned with ctx.vars) then the auxiliaries. */
+  x: Float64Array;
+  objective: number;
+}
+
+/**
+ * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines.
+ * Rows are written into one buffer (hot path of the substitute search: no closures, few allocations).
+ */
+export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
+  const { P, vars, groups, objective, extra } = ctx;
+  const nv = vars.length;
+  const nAux = ctx.withAux ? 3 : 0;
+  const width = nv + nAux;
+  const s = P.coords.rowScale;
+  const t = P.targets;
+  const comps = P.components;
+
+  // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
+  // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r); column a is folded into the others below.
+  let fold = -1;
+  if (nv > 1 && groups.has('additive')) {
+    for (let j = 0; j < nv; j++) {
+      const k = comps[vars[j]!]!;
+      if (k.fixedAdditive && k.min === k.max && k.min < 1) {
+        fold = j;
+        break;
+      }
+    }
+  }
+
+  const maxRows = 8 + chords.length + 2 * nv + extra.length + 2 * nAux;
+  // Row r is buf[r·width … (r+1)·width) with bounds rowLo[r] ≤ row·x ≤ rowHi[r] (±∞ = absent).
+  const buf = new Float64Array(maxRows * width);
+  const rowLo = new Float64Array(maxRows).fill(Number.NEGATIVE_INFINITY);
+  const rowHi = new Float64Array(maxRows).fill(Number.POSITIVE_INFINITY);
+  let m = 0; // number of rows so far
+  let o = 0; // offset of the next row in buf
+
+  // Normalisation row (Charnes–Cooper): den·w = 1. When minimising with every numerator
+  // coefficient ≥ 0 the optimum lies on the row anyway (every other row is homogeneous, so scaling
+  // w down towards the row never worsens the objective), and the one-sided row den·w ≥ 1 gives the
+  // same optimum with one simplex row instead of two. (Not when maximising: den·w ≤ 1 would admit
+  // w = 0 and hide infeasibility.)
+  let oneSided = !(objective.kind === 'ratio' && objective.sense === 'maximize');
+  for (let j = 0; j < nv; j++) {
+    const i = vars[j]!;
+    if (objective.kind === 'ratio') {
+      buf[o + j] = objective.den[i]!;
+      if (objective.num[i]! < 0) oneSided = false;
+    } else buf[o + j] = 1;
+  }
+  rowLo[m] = 1;
+  if (!oneSided) rowHi[m] = 1;
+  m++;
+  o += width;
+
+  if (bandRows) {
+    // a ≤ X40 ≤ b:  Σ cᵢwᵢ(X40ᵢ − a) ≥ 0,  Σ cᵢwᵢ(X40ᵢ − b) ≤ 0.
+    const point = !(b - a > 1e-12);
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      buf[o + j] = s * P.c[i]! * (P.x40[i]! - a);
+      if (!point) buf[o + width + j] = s * P.c[i]! * (P.x40[i]! - b);
+    }
+    if (point) {
+      rowLo[m] = 0;
+      rowHi[m++] = 0;
+      o += width;
+    } else {
+      rowLo[m++] = 0;
+      rowHi[m++] = 0;
+      o += 2 * width;
+    }
+  }
+  for (let q = 0; q < chords.length; q++) {
+    // X100 ≥ alpha + beta·X40  ⇔  Σ cᵢwᵢ(X100ᵢ − alpha − beta·X40ᵢ) ≥ 0.
+    const chord = chords[q]!;
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      buf[o + j] = s * P.c[i]! * (P.x100[i]! - chord.alpha - chord.beta * P.x40[i]!);
+    }
+    rowLo[m++] = 0;
+    o += width;
+  }
+  if (t.maxAnilinePoint !== null && groups.has('aniline')) {
+    // Σ_A (wᵢ/ρᵢ)(APᵢ − AP_max) ≤ 0 (scaled by 0.1).
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      if (!Number.isNaN(P.ap[i]!)) buf[o + j] = 0.1 * P.invRho[i]! * (P.ap[i]! - t.maxAnilinePoint);
+    }
+    rowHi[m++] = 0;
+    o += width;
+  }
+  if (t.maxPolymerFraction !== null && groups.has('polymer')) {
+    // Σ_P wᵢ − p_max·Σ wᵢ ≤ 0.
+    let any = false;
+    for (let j = 0; j < nv; j++) {
+      const poly = comps[vars[j]!]!.polymer;
+      if (poly) any = true;
+      buf[o + j] = (poly ? 1 : 0) - t.maxPolymerFraction;
+    }
+    if (any) {
+      rowHi[m++] = 0;
+      o += width;
+    } else buf.fill(0, o, o + width);
+  }
+  if (t.maxPourPoint !== null && groups.has('pour')) {
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      buf[o + j] = P.invRho[i]! * (P.pourRel[i]! - 1);
+    }
+    rowHi[m++] = 0;
+    o += width;
+  }
+  if (t.minFlashPoint !== null && groups.has('flash')) {
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      buf[o + j] = P.invRho[i]! * (P.flashRel[i]! - 1);
+    }
+    rowHi[m++] = 0;
+    o += width;
+  }
+  // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0 (the folded additive needs none).
+  const boundsOn = groups.has('bounds');
+  const additiveOn = groups.has('additive');
+  for (let j = 0; j < nv; j++) {
+    if (j === fold) continue;
+    const k = comps[vars[j]!]!;
+    if (!(k.fixedAdditive ? additiveOn : boundsOn)) continue;
+    const lo = k.min;
+    const hi = k.max;
+    if (lo <= 0 && hi >= 1) continue;
+    if (lo === hi) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -lo;
+      buf[o + j] = 1 - lo;
+      rowLo[m] = 0;
+      rowHi[m++] = 0;
+      o += width;
+      continue;
+    }
+    if (lo > 0) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -lo;
+      buf[o + j] = 1 - lo;
+      rowLo[m++] = 0;
+      o += width;
+    }
+    if (hi < 1) {
+      for (let q = 0; q < nv; q++) buf[o + q] = -hi;
+      buf[o + j] = 1 - hi;
+      rowHi[m++] = 0;
+      o += width;
+    }
+  }
+  for (const e of extra) {
+    for (let j = 0; j < nv; j++) buf[o + j] = e.coef[vars[j]!]!;
+    for (let q = 0; q < nAux; q++) buf[o + nv + q] = e.aux;
+    if (e.sense === 'le') rowHi[m++] = 0;
+    else rowLo[m++] = 0;
+    o += width;
+  }
+  const obj = new Float64Array(width);
+  let sense: 'minimize' | 'maximize' = 'minimize';
+  if (objective.kind === 'ratio') {
+    for (let j = 0; j < nv; j++) obj[j] = objective.num[vars[j]!]!;
+    sense = objective.sense;
+  }
+  if (nAux > 0) {
+    // 'closest': aux_q ≥ |f_q·w|, i.e. aux_q − f_q·w ≥ 0 and aux_q + f_q·w ≥ 0; objective Σ aux_q.
+    const f = closestForms(P);
+    for (let q = 0; q < 3; q++) {
+      const fq = f[q]!;
+      for (let j = 0; j < nv; j++) {
+        const v = fq[vars[j]!]!;
+        buf[o + j] = -v;
+        buf[o + width + j] = v;
+      }
+      buf[o + nv + q] = 1;
+      buf[o + width + nv + q] = 1;
+      rowLo[m++] = 0;
+      rowLo[m++] = 0;
+      o += 2 * width;
+      if (objective.kind === 'closest') obj[nv + q] = 1;
+    }
+  }
+  if (fold >= 0) {
+    // Fold column `fold`: a'ⱼ = aⱼ + κ·a_fold for the other component columns, then a_fold = 0
+    // (the column stays, empty, and is restored from the others after the solve).
+    const k = comps[vars[fold]!]!;
+    const kappa = k.min / (1 - k.min);
+    for (let r = 0; r < m; r++) {
+      const ro = r * width;
+      const af = buf[ro + fold]!;
+      if (af !== 0) {
+        for (let j = 0; j < nv; j++) if (j !== fold) buf[ro + j] = buf[ro + j]! + kappa * af;
+        buf[ro + fold] = 0;
+      }
+    }
+    const of = obj[fold]!;
+    if (of !== 0) {
+      for (let j = 0; j < nv; j++) if (j !== fold) obj[j] = obj[j]! + kappa * of;
+      obj[fold] = 0;
+    }
+    const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
+    if (sol.status !== 'optimal') {
+      return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+    }
+    let others = 0;
+    for (let j = 0; j < nv; j++) if (j !== fold) others += sol.x[j]!;
+    sol.x[fold] = kappa * others;
+    return { status: 'optimal', x: sol.x, objective: sol.objective };
+  }
+  const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
+  if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
+  return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+}
