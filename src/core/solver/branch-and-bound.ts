@@ -6,8 +6,11 @@
 import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import type { PreparedProblem } from './prepared';
 import { viRoot } from './prepared';
-import { solveNode, type NodeSolution, type SolveContext } from './rows';
+import { solveNodeInto, type NodeSolution, type SolveContext } from './rows';
 import type { ViChord } from './vi-boundary';
+
+const NO_FRACTIONS = new Float64Array(0);
+const NO_CHORDS: readonly ViChord[] = [];
 
 /** VI accepted as feasible: VI ≥ minVi − this (the issue's tolerance is 0.01; half of it is kept in reserve). */
 export const VI_ACCEPT_TOLERANCE = 0.005;
@@ -16,10 +19,11 @@ const MAX_LPS = 120;
 
 /**
  * Normalised mass fractions of a node solution, aligned with ctx.vars; null when the LP returned no
- * blend at all (every fraction 0: numerically degenerate data).
+ * blend at all (every fraction 0: numerically degenerate data). Written into `out` when given
+ * (length ≥ nv; the result is then a view of its first nv entries only if out.length = nv).
  */
-export function fractions(x: Float64Array, nv: number): Float64Array | null {
-  const w = new Float64Array(nv);
+export function fractions(x: Float64Array, nv: number, out?: Float64Array): Float64Array | null {
+  const w = out ?? new Float64Array(nv);
   let sum = 0;
   for (let j = 0; j < nv; j++) {
     const v = x[j]! > 0 ? x[j]! : 0;
@@ -77,7 +81,7 @@ export interface OptimiseOutcome {
 export function optimise(ctx: SolveContext): OptimiseOutcome {
   const { P, vars, groups } = ctx;
   const nv = vars.length;
-  const empty = { status: 'infeasible' as const, w: new Float64Array(0), value: Number.NaN, lpCount: 0 };
+  const empty = { status: 'infeasible' as const, w: NO_FRACTIONS, value: Number.NaN, lpCount: 0 };
   if (nv === 0) return empty;
   const bandOn = groups.has('band');
   let a = P.bandA;
@@ -94,7 +98,7 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
   const sign = ctx.objective.kind === 'ratio' && ctx.objective.sense === 'maximize' ? -1 : 1;
   // First LP without the VI condition: a relaxation; if its optimum already meets the VI it is
   // optimal, and the (costlier) VI relaxation is never built. Most recipes end here.
-  const plain = solveNode(ctx, a, b, bandOn, []);
+  const plain = solveNodeInto(ctx, a, b, bandOn, NO_CHORDS);
   if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: 1 };
   const w0 = fractions(plain.x, nv);
   if (!w0) return { ...empty, status: 'failed', lpCount: 1 };
@@ -116,10 +120,11 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
   let failed = false;
   const addNode = (na: number, nb: number, ha: number, hb: number, cached?: readonly ViChord[] | null): void => {
     const chords = cached ?? vi.relaxation(na, ha, nb, hb);
-    const sol = solveNode(ctx, na, nb, true, chords);
+    const sol = solveNodeInto(ctx, na, nb, true, chords);
     lpCount++;
     if (sol.status === 'failed') failed = true;
-    if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol });
+    // The node is kept: its solution is copied out of the LP scratch memory.
+    if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol: { ...sol, x: sol.x.slice() } });
   };
   const root = bandOn && vi === P.vi ? viRoot(P) : null;
   if (root) addNode(a, b, root.hA, root.hB, root.chords);

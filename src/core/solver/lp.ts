@@ -8,10 +8,13 @@
  *                           x ≥ 0
  *
  * Blending problems have a handful of variables and rows, so dense coefficient arrays are both the
- * simplest and the fastest representation. The solver is a dense simplex (yalps, MIT licence); no
- * simplex is written by hand here.
+ * simplest and the fastest representation. The solver is the dense simplex of yalps (MIT licence),
+ * run on a tableau written straight from the dense rows (`yalps-simplex.ts` explains why it is a
+ * verbatim copy of yalps' own code); no simplex is written by hand here. The tableau is laid out
+ * exactly as `yalps.solve` lays out the same model, so the answers are identical bit for bit
+ * (tests/core/solver/yalps-simplex.test.ts).
  */
-import { solve, type Coefficients, type Constraint } from 'yalps';
+import { phase1, roundToPrecision, type SimplexOptions, type Tableau } from './yalps-simplex';
 
 /** One linear row lᵣ ≤ aᵣ·x ≤ uᵣ; give `min`, `max` or both (equal → an equality). */
 export interface LpRow {
@@ -44,8 +47,9 @@ export interface LpSolution {
 
 /** Numbers of magnitude ≤ this are zero to the simplex (yalps' own default). */
 const PRECISION = 1e-8;
-/** Key of the objective among the row keys (rows are 0 … m−1). */
-const OBJECTIVE_KEY = -1;
+/** yalps' defaults: 8192 pivots at most; cycle detection only on the retry. */
+const FIRST_TRY: SimplexOptions = { precision: PRECISION, maxPivots: 8192, checkCycles: false };
+const RETRY: SimplexOptions = { precision: PRECISION, maxPivots: 8192, checkCycles: true };
 
 /**
  * Solve a linear program.
@@ -76,8 +80,66 @@ export function solveLp(lp: LinearProgram): LpSolution {
 }
 
 /**
- * Solve a linear program given as dense arrays — the same problem form and the same simplex model
- * as {@link solveLp}, without per-row objects (the engine's hot path).
+ * Memory for {@link solveDenseLp}, reused from one LP to the next so that a solve allocates no
+ * tableau: the simplex tableau and its two index arrays (grown to the largest LP seen, never
+ * shrunk) and one result vector per number of variables.
+ *
+ * Ownership: a solution returned with a workspace has its `x` in that workspace; it stays valid
+ * until the next solve with the same workspace and the same number of variables. Copy it to keep
+ * it longer. One workspace serves one solve at a time (the core is synchronous, so a module-level
+ * workspace is safe as long as no caller holds an `x` across another solve).
+ *
+ * @example
+ * const ws = new LpWorkspace();
+ * for (const lp of many) { const s = solveDenseLp('minimize', n, c, m, a, lo, hi, ws); use(s.x); }
+ */
+export class LpWorkspace {
+  private readonly tab: Tableau = {
+    matrix: new Float64Array(64),
+    width: 0,
+    height: 0,
+    positionOfVariable: new Int32Array(16),
+    variableAtPosition: new Int32Array(16),
+  };
+  private readonly xs: Float64Array[] = [];
+
+  /** A zeroed width × height tableau with identity index arrays (yalps' initial state). */
+  tableau(width: number, height: number): Tableau {
+    const t = this.tab;
+    const size = width * height;
+    if (t.matrix.length < size) t.matrix = new Float64Array(Math.max(size, 2 * t.matrix.length));
+    else t.matrix.fill(0, 0, size);
+    const numVars = width + height;
+    if (t.positionOfVariable.length < numVars) {
+      t.positionOfVariable = new Int32Array(Math.max(numVars, 2 * t.positionOfVariable.length));
+      t.variableAtPosition = new Int32Array(t.positionOfVariable.length);
+    }
+    for (let i = 0; i < numVars; i++) {
+      t.positionOfVariable[i] = i;
+      t.variableAtPosition[i] = i;
+    }
+    t.width = width;
+    t.height = height;
+    return t;
+  }
+
+  /** The workspace's zeroed result vector of length n. */
+  x(n: number): Float64Array {
+    let x = this.xs[n];
+    if (!x) this.xs[n] = x = new Float64Array(n);
+    else x.fill(0);
+    return x;
+  }
+}
+
+/**
+ * Solve a linear program given as dense arrays — the same problem form as {@link solveLp}, without
+ * per-row objects (the engine's hot path).
+ *
+ * The tableau is written as yalps writes it for the equivalent model (objective row first, then
+ * for each row with a bound, in order: `a·x ≤ u` as [u, a] and `a·x ≥ l` as [−l, −a]; an equality
+ * gives both), then yalps' two-phase simplex runs on it; results are read back and rounded to 1e-8
+ * as yalps does.
  *
  * @param sense - 'minimize' or 'maximize'
  * @param n - number of variables (all ≥ 0)
@@ -86,7 +148,9 @@ export function solveLp(lp: LinearProgram): LpSolution {
  * @param a - row-major coefficients: row r is a[r·n … r·n + n)
  * @param lo - lᵣ per row; −Infinity = no lower bound
  * @param hi - uᵣ per row; +Infinity = no upper bound (lᵣ = uᵣ → an equality)
- * @returns as {@link solveLp}
+ * @param ws - optional workspace: no tableau is allocated, and the returned `x` belongs to `ws`
+ *   (valid until its next solve with n variables); without it, `x` is a fresh array
+ * @returns as {@link solveLp}; a simplex that cycles is retried once with cycle detection, then 'failed'
  */
 export function solveDenseLp(
   sense: 'minimize' | 'maximize',
@@ -96,46 +160,79 @@ export function solveDenseLp(
   a: ArrayLike<number>,
   lo: ArrayLike<number>,
   hi: ArrayLike<number>,
+  ws?: LpWorkspace,
 ): LpSolution {
-  const constraints: [number, Constraint][] = [];
+  const work = ws ?? new LpWorkspace();
+  const sign = sense === 'minimize' ? -1 : 1;
+  let tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);
+  let [status, value] = phase1(tableau, FIRST_TRY);
+  if (status === 'cycled') {
+    tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);
+    [status, value] = phase1(tableau, RETRY);
+  }
+  const x = ws ? ws.x(n) : new Float64Array(n);
+  if (status !== 'optimal') {
+    return { status: status === 'infeasible' ? 'infeasible' : status === 'unbounded' ? 'unbounded' : 'failed', x, objective: Number.NaN };
+  }
+  const { matrix, width, positionOfVariable } = tableau;
+  for (let j = 0; j < n; j++) {
+    const row = positionOfVariable[j + 1]! - width;
+    const v = row >= 0 ? matrix[row * width]! : 0;
+    if (v > PRECISION) x[j] = roundToPrecision(v, PRECISION);
+  }
+  return { status: 'optimal', x, objective: -sign * value };
+}
+
+/** yalps' tableau of the dense LP (see `tableauModel` in yalps' src/tableau.ts), in the workspace. */
+function writeTableau(
+  ws: LpWorkspace,
+  sign: number,
+  n: number,
+  objective: ArrayLike<number>,
+  m: number,
+  a: ArrayLike<number>,
+  lo: ArrayLike<number>,
+  hi: ArrayLike<number>,
+): Tableau {
+  // Rows of the tableau: 1 for the objective, then one per finite bound of each row.
+  let height = 1;
+  for (let r = 0; r < m; r++) {
+    if (lo[r]! > Number.NEGATIVE_INFINITY) height++;
+    if (hi[r]! < Number.POSITIVE_INFINITY) height++;
+  }
+  const width = n + 1;
+  const t = ws.tableau(width, height);
+  const mat = t.matrix;
+  for (let j = 0; j < n; j++) {
+    const c = objective[j]!;
+    if (c !== 0) mat[j + 1] = sign * c;
+  }
+  let row = 1;
   for (let r = 0; r < m; r++) {
     const l = lo[r]!;
     const u = hi[r]!;
     const hasLo = l > Number.NEGATIVE_INFINITY;
     const hasHi = u < Number.POSITIVE_INFINITY;
-    if (hasLo && hasHi) {
-      constraints.push([r, l === u ? { equal: l } : { min: l, max: u }]);
-    } else if (hasLo) {
-      constraints.push([r, { min: l }]);
-    } else if (hasHi) {
-      constraints.push([r, { max: u }]);
+    if (!hasLo && !hasHi) continue;
+    const src = r * n;
+    if (hasHi) {
+      const o = row * width;
+      mat[o] = u;
+      for (let j = 0; j < n; j++) {
+        const v = a[src + j]!;
+        if (v !== 0) mat[o + 1 + j] = v;
+      }
+      row++;
+    }
+    if (hasLo) {
+      const o = row * width;
+      mat[o] = -l;
+      for (let j = 0; j < n; j++) {
+        const v = a[src + j]!;
+        if (v !== 0) mat[o + 1 + j] = -v;
+      }
+      row++;
     }
   }
-  const variables: [number, Coefficients<number>][] = new Array(n);
-  for (let j = 0; j < n; j++) {
-    const coefs: [number, number][] = [];
-    const c = objective[j]!;
-    if (c !== 0) coefs.push([OBJECTIVE_KEY, c]);
-    for (let r = 0; r < m; r++) {
-      const v = a[r * n + j]!;
-      if (v !== 0) coefs.push([r, v]);
-    }
-    variables[j] = [j, coefs];
-  }
-  const model = {
-    direction: sense,
-    objective: OBJECTIVE_KEY,
-    constraints,
-    variables,
-  } as const;
-  let sol = solve<number, number>(model, { precision: PRECISION });
-  if (sol.status === 'cycled') sol = solve<number, number>(model, { precision: PRECISION, checkCycles: true });
-  const x = new Float64Array(n);
-  if (sol.status !== 'optimal') {
-    const status: LpStatus =
-      sol.status === 'infeasible' ? 'infeasible' : sol.status === 'unbounded' ? 'unbounded' : 'failed';
-    return { status, x, objective: Number.NaN };
-  }
-  for (const [j, v] of sol.variables) x[j] = v;
-  return { status: 'optimal', x, objective: sol.result };
+  return t;
 }

@@ -6,7 +6,7 @@
 import type { PreparedProblem, ConstraintGroup } from './prepared';
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
-import { solveDenseLp } from './lp';
+import { LpWorkspace, solveDenseLp } from './lp';
 
 /** What one solve switches on. */
 export interface SolveContext {
@@ -28,10 +28,42 @@ export interface NodeSolution {
 }
 
 /**
- * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines.
- * Rows are written into one buffer (hot path of the substitute search: no closures, few allocations).
+ * Memory reused by every {@link solveNodeInto}: the dense rows, their bounds, the objective and the
+ * LP workspace (the simplex tableau), each grown to the largest node seen and never shrunk. With
+ * it a node LP allocates no arrays.
  */
-export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
+class NodeScratch {
+  buf = new Float64Array(256);
+  rowLo = new Float64Array(32);
+  rowHi = new Float64Array(32);
+  obj = new Float64Array(16);
+  readonly lp = new LpWorkspace();
+
+  /** Zeroed rows (maxRows × width), bounds ±∞ (absent), zeroed objective. */
+  reset(maxRows: number, width: number): void {
+    const size = maxRows * width;
+    if (this.buf.length < size) this.buf = new Float64Array(Math.max(size, 2 * this.buf.length));
+    else this.buf.fill(0, 0, size);
+    if (this.rowLo.length < maxRows) {
+      this.rowLo = new Float64Array(Math.max(maxRows, 2 * this.rowLo.length));
+      this.rowHi = new Float64Array(this.rowLo.length);
+    }
+    this.rowLo.fill(Number.NEGATIVE_INFINITY, 0, maxRows);
+    this.rowHi.fill(Number.POSITIVE_INFINITY, 0, maxRows);
+    if (this.obj.length < width) this.obj = new Float64Array(Math.max(width, 2 * this.obj.length));
+    else this.obj.fill(0, 0, width);
+  }
+}
+
+/** The one scratch area of this module (the core is synchronous: one node LP at a time). */
+const scratch = new NodeScratch();
+
+/**
+ * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines — allocation-free:
+ * the returned `x` lives in this module's scratch memory and is overwritten by the next node LP
+ * (copy it to keep it; {@link solveNode} does).
+ */
+export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
   const { P, vars, groups, objective, extra } = ctx;
   const nv = vars.length;
   const nAux = ctx.withAux ? 3 : 0;
@@ -55,9 +87,8 @@ export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boo
 
   const maxRows = 8 + chords.length + 2 * nv + extra.length + 2 * nAux;
   // Row r is buf[r·width … (r+1)·width) with bounds rowLo[r] ≤ row·x ≤ rowHi[r] (±∞ = absent).
-  const buf = new Float64Array(maxRows * width);
-  const rowLo = new Float64Array(maxRows).fill(Number.NEGATIVE_INFINITY);
-  const rowHi = new Float64Array(maxRows).fill(Number.POSITIVE_INFINITY);
+  scratch.reset(maxRows, width);
+  const { buf, rowLo, rowHi, obj } = scratch;
   let m = 0; // number of rows so far
   let o = 0; // offset of the next row in buf
 
@@ -183,7 +214,6 @@ export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boo
     else rowLo[m++] = 0;
     o += width;
   }
-  const obj = new Float64Array(width);
   let sense: 'minimize' | 'maximize' = 'minimize';
   if (objective.kind === 'ratio') {
     for (let j = 0; j < nv; j++) obj[j] = objective.num[vars[j]!]!;
@@ -225,7 +255,7 @@ export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boo
       for (let j = 0; j < nv; j++) if (j !== fold) obj[j] = obj[j]! + kappa * of;
       obj[fold] = 0;
     }
-    const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
+    const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
     if (sol.status !== 'optimal') {
       return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
     }
@@ -234,7 +264,16 @@ export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boo
     sol.x[fold] = kappa * others;
     return { status: 'optimal', x: sol.x, objective: sol.objective };
   }
-  const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi);
+  const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
   if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+}
+
+/**
+ * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines (see
+ * {@link solveNodeInto}); the returned `x` is the caller's own copy.
+ */
+export function solveNode(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
+  const sol = solveNodeInto(ctx, a, b, bandRows, chords);
+  return { status: sol.status, x: sol.x.slice(), objective: sol.objective };
 }
