@@ -5,6 +5,7 @@
  */
 import { z } from './schemas';
 import { interpretStored, noteBackupTaken } from './persistence';
+import { COLLECTION_LIMITS } from './field-rules';
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
 import { useRecipesStore, RECIPES_SPEC, type RecipesData } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type SettingsData } from './settings';
@@ -62,7 +63,8 @@ export type BackupParse =
 
 /** Validate a backup file's text. Never throws; changes nothing. */
 export function parseBackupText(text: string): BackupParse {
-  if (text.length > 50_000_000) return { ok: false, errors: ['The file is larger than 50 MB; it is not a Blendbench backup.'] };
+  const maxChars = COLLECTION_LIMITS.backupFileChars;
+  if (text.length > maxChars) return { ok: false, errors: [`The file is larger than ${maxChars / 1e6} MB; it is not a Blendbench backup.`] };
   let json: unknown;
   try {
     json = JSON.parse(text);

@@ -12,6 +12,7 @@ import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxid
 import { viscosityIndex } from '../core/viscosity/viscosity-index';
 import { kv40kv100FromPoints } from '../core/viscosity/viscosity-temperature';
 import type { Component } from '../core/formulation/model';
+import { checkNumber, type NumberRuleKey } from './field-rules';
 
 /** Field names used in messages and for placing them beside inputs. */
 export type CheckField =
@@ -62,8 +63,35 @@ const fmt = (v: number) => String(Number(v.toPrecision(6))).replace(/^-/, '−')
  */
 export const POSSIBLE = { maxKv: 1e7, maxTempC: 1000, maxPrice: 1e12 } as const;
 
-/** Check one number field alone. Returns an error or a warning message, or nothing. */
+/** The field rule (field-rules.ts) behind each number field: its hard limits are the stored ones. */
+const RULE_OF: Partial<Record<CheckField, NumberRuleKey>> = {
+  kv40: 'kv40',
+  kv100: 'kv100',
+  density15: 'density15',
+  anilinePoint: 'anilinePoint',
+  pourPoint: 'pourPoint',
+  flashPoint: 'flashPoint',
+  sulfurPct: 'sulfurPct',
+  saturatesPct: 'saturatesPct',
+  price: 'price',
+  oxidationRating: 'oxidationRating',
+  shearLossPct: 'shearLossPct',
+};
+
+/**
+ * Check one number field alone. Returns an error or a warning message, or nothing. Beyond the specific
+ * messages below, anything the field rules (field-rules.ts) refuse is an error here too, so entry never
+ * accepts a value that storage would refuse.
+ */
 export function checkValue(field: CheckField, v: number | null): { error?: string; warning?: string } {
+  const r = checkValueSpecific(field, v);
+  if (r.error || v === null || !Number.isFinite(v)) return r;
+  const rule = RULE_OF[field];
+  const refused = rule ? checkNumber(rule, v) : null;
+  return refused ? { error: refused } : r;
+}
+
+function checkValueSpecific(field: CheckField, v: number | null): { error?: string; warning?: string } {
   if (v === null) {
     if (field === 'kv40' || field === 'kv100' || field === 'density15' || field === 'price') return { error: 'a value is required' };
     return {};

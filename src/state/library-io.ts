@@ -15,6 +15,7 @@ import type { Component, ComponentCategory, PriceBasis, Availability } from '../
 import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../core/formulation/model';
 import { componentSchema, describeIssues, z } from './schemas';
 import { checkComponent } from './checks';
+import { COLLECTION_LIMITS } from './field-rules';
 import { blankComponent } from './library';
 import { useLibraryStore } from './library';
 
@@ -43,10 +44,10 @@ export const CSV_COLUMNS = [
 type CsvColumn = (typeof CSV_COLUMNS)[number];
 const REQUIRED: readonly CsvColumn[] = ['code', 'category', 'kv40_mm2s', 'kv100_mm2s', 'density15_kg_per_l', 'price'];
 
-/** Largest file accepted (characters). */
-export const MAX_IMPORT_CHARS = 20_000_000;
-/** Most rows accepted in one import. */
-export const MAX_IMPORT_ROWS = 5_000;
+/** Largest file accepted (characters); one limit with backups and storage (field-rules.ts). */
+export const MAX_IMPORT_CHARS = COLLECTION_LIMITS.importFileChars;
+/** Most rows accepted in one import: a whole library (field-rules.ts). */
+export const MAX_IMPORT_ROWS = COLLECTION_LIMITS.importRows;
 
 export interface ImportRow {
   /** Line number in the file (CSV: the header is line 1) or item number (JSON, from 1). */

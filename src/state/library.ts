@@ -29,9 +29,12 @@ export interface LibraryState extends LibraryData {
 
 export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
-  version: 2,
+  version: 3,
   schema: libraryDataSchema,
   migrations: {
+    // Schema 3 holds up to 25,000 stocks (schema 2: 5,000) and checks every field with the field
+    // rules (field-rules.ts); the data themselves are unchanged.
+    2: (d) => d,
     // Schema 1 (first development builds) stored components without the optional scoring fields.
     1: (d) => {
       const comps = (d as { components?: unknown }).components;

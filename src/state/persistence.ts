@@ -16,7 +16,7 @@ import { createStore as createIdbStore, get as idbGet, set as idbSet, type UseSt
 import { create } from 'zustand';
 import type { PersistStorage, StorageValue } from 'zustand/middleware';
 import type { z } from 'zod';
-import { describeIssues } from './schemas';
+import { describeStoredIssues } from './schemas';
 
 export type StoreKey = 'library' | 'recipes' | 'settings';
 export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings'];
@@ -171,7 +171,7 @@ export function interpretStored<D>(spec: StoreSpec<D>, raw: unknown): LoadResult
   if (!parsed.success) {
     return {
       kind: 'problem',
-      problem: { kind: 'corrupt', message: `The saved ${what} failed its integrity check: ${describeIssues(parsed.error)}.` },
+      problem: { kind: 'corrupt', message: `The saved ${what} failed its integrity check: ${describeStoredIssues(parsed.error, data)}.` },
     };
   }
   return { kind: 'ok', data: parsed.data, migratedFrom: storedVersion < spec.version ? storedVersion : null };

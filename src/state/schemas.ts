@@ -1,149 +1,158 @@
 /**
  * zod schemas for everything Blendbench stores or imports: components, recipes, targets, settings,
- * and the backup file. Stored data and imported files are validated with the same schemas, so a
- * record that could not be typed in through the interface cannot arrive through the back door either.
+ * and the backup file. Stored data and imported files are validated with the same schemas, and every
+ * field is refined with its rule from `field-rules.ts` — the very validators the entry forms call —
+ * so a record that could not be typed in through the interface cannot arrive through the back door,
+ * and nothing typed in can fail to load again.
  */
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES } from '../core/formulation/model';
 import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/formulation/model';
+import {
+  checkCount,
+  recipeProblems,
+  settingsProblems,
+  sheetProblems,
+  stockProblems,
+  targetsProblems,
+  type CollectionKey,
+  type FieldProblem,
+} from './field-rules';
 
 // zod 4 probes `new Function` at start-up unless told not to; our CSP forbids eval.
 z.config({ jitless: true });
 
 export { z };
 
+/** Report a record's refused fields (from field-rules.ts) as zod issues at their paths. */
+function report(ctx: z.RefinementCtx, problems: readonly FieldProblem[]): void {
+  for (const p of problems) ctx.addIssue({ code: 'custom', path: p.path, message: p.message });
+}
+/** A list refined with its collection limit. */
+const list = <T extends z.ZodTypeAny>(item: T, collection: CollectionKey) =>
+  z.array(item).superRefine((v, ctx) => {
+    const m = checkCount(collection, v.length);
+    if (m) ctx.addIssue({ code: 'custom', message: m });
+  });
 const finite = z.number().refine(Number.isFinite, { message: 'must be a finite number' });
-const positive = finite.refine((v) => v > 0, { message: 'must be above zero' });
-const fraction = finite.refine((v) => v >= 0 && v <= 1, { message: 'must be between 0 and 1' });
-const nullableFinite = finite.nullable();
-const isoDate = z.string().regex(/^(\d{4}-\d{2}-\d{2})?$/, { message: 'must be a date YYYY-MM-DD' });
-/** Free text, bounded so a hostile file cannot fill the browser's storage. */
-const text = (max: number) => z.string().max(max, { message: `must be at most ${max} characters` });
+// Shape only: the limits come from the record checks below.
+const str = z.string();
+const nullableNum = finite.nullable();
 
 export const categorySchema = z.enum(COMPONENT_CATEGORIES as unknown as [ComponentCategory, ...ComponentCategory[]]);
 export const availabilitySchema = z.enum(['available', 'limited', 'withdrawn']);
 export const priceBasisSchema = z.enum(['per-kg', 'per-litre', 'per-tonne']);
 
-export const viscosityPointSchema = z.object({
-  tempC: finite.refine((t) => t > -100 && t < 400, { message: 'temperature must be between −100 and 400 °C' }),
-  kv: positive,
-});
+export const viscosityPointSchema = z.object({ tempC: finite, kv: finite });
 
 export const calibrationSchema = z.object({
-  effectiveKv40: positive,
-  effectiveKv100: positive,
+  effectiveKv40: finite,
+  effectiveKv100: finite,
   trial: z.object({
-    massFractions: z.record(z.string(), fraction),
-    measuredKv40: positive,
-    measuredKv100: positive,
-    labReference: text(200),
+    massFractions: z.record(str, finite),
+    measuredKv40: finite,
+    measuredKv100: finite,
+    labReference: str,
   }),
   method: z.enum(['refutas', 'astm-d7152']),
-  calibratedOn: isoDate,
+  calibratedOn: str,
 });
 
+/** A stock: shape here, every value checked by `stockProblems` (field-rules.ts). */
 export const componentSchema = z
   .object({
-    id: z.string().min(1).max(100),
-    code: text(40).refine((s) => s.trim().length > 0, { message: 'stock code is required' }),
-    name: text(200),
+    id: str,
+    code: str,
+    name: str,
     category: categorySchema,
-    viscosityPoints: z.array(viscosityPointSchema).min(2, { message: 'needs at least two viscosity points' }).max(20),
-    density15: positive,
-    anilinePoint: nullableFinite,
-    pourPoint: nullableFinite,
-    flashPoint: nullableFinite,
-    sulfurPct: nullableFinite,
-    saturatesPct: nullableFinite,
-    price: z.object({
-      amount: finite.refine((v) => v >= 0, { message: 'price cannot be negative' }),
-      basis: priceBasisSchema,
-      currency: text(12),
-    }),
+    viscosityPoints: z.array(viscosityPointSchema).min(2, { message: 'needs at least two viscosity points' }),
+    density15: finite,
+    anilinePoint: nullableNum,
+    pourPoint: nullableNum,
+    flashPoint: nullableNum,
+    sulfurPct: nullableNum,
+    saturatesPct: nullableNum,
+    price: z.object({ amount: finite, basis: priceBasisSchema, currency: str }),
     availability: availabilitySchema,
-    oxidationRating: nullableFinite,
-    shearLossPct: nullableFinite,
+    oxidationRating: nullableNum,
+    shearLossPct: nullableNum,
     calibration: calibrationSchema.nullable(),
-    source: text(300),
-    sourceDate: isoDate,
-    notes: text(2000),
+    source: str,
+    sourceDate: str,
+    notes: str,
   })
-  .superRefine((c, ctx) => {
-    const temps = c.viscosityPoints.map((p) => p.tempC);
-    if (new Set(temps).size < 2) {
-      ctx.addIssue({ code: 'custom', path: ['viscosityPoints'], message: 'needs viscosities at two different temperatures' });
-    }
-    const sorted = [...c.viscosityPoints].sort((a, b) => a.tempC - b.tempC);
-    for (let i = 1; i < sorted.length; i++) {
-      const lo = sorted[i - 1]!;
-      const hi = sorted[i]!;
-      if (hi.tempC > lo.tempC && hi.kv >= lo.kv) {
-        ctx.addIssue({
-          code: 'custom',
-          path: ['viscosityPoints'],
-          message: `viscosity at ${hi.tempC} °C (${hi.kv}) must be below the viscosity at ${lo.tempC} °C (${lo.kv})`,
-        });
-      }
-    }
-  });
+  .superRefine((c, ctx) => report(ctx, stockProblems(c, '')));
 
-export const recipeLineSchema = z.object({ componentId: z.string().min(1).max(100), massFraction: fraction });
+export const recipeLineSchema = z.object({ componentId: str, massFraction: finite });
 
-export const recipeSchema = z.object({
-  id: z.string().min(1).max(100),
-  name: text(200),
-  grade: positive,
-  lines: z.array(recipeLineSchema).max(60),
-  revision: z.number().int().min(1),
-  isReference: z.boolean(),
-  notes: text(4000),
-  updatedAt: z.string().max(40),
-});
+/** A recipe: shape here, every value checked by `recipeProblems` (field-rules.ts). */
+export const recipeSchema = z
+  .object({
+    id: str,
+    name: str,
+    grade: finite,
+    lines: z.array(recipeLineSchema),
+    revision: finite,
+    isReference: z.boolean(),
+    notes: str,
+    updatedAt: str,
+  })
+  .superRefine((r, ctx) => report(ctx, recipeProblems(r, '')));
 
-export const targetsSchema = z.object({
-  grade: positive,
-  targetKv40: positive.nullable(),
-  tolerancePct: finite.refine((v) => v >= 0 && v <= 100, { message: 'must be between 0 and 100 %' }),
-  minVi: nullableFinite,
-  maxAnilinePoint: nullableFinite,
-  maxPolymerFraction: fraction.nullable(),
-  maxPourPoint: nullableFinite,
-  minFlashPoint: nullableFinite,
-  additive: z.object({ componentId: z.string().min(1), massFraction: fraction }).nullable(),
-  bounds: z.record(z.string(), z.object({ min: fraction.optional(), max: fraction.optional() })),
-  objective: z.enum(['cost', 'solvency', 'oxidation', 'closest']),
-  referenceRecipeId: z.string().nullable(),
-});
+const boundsSchema = z.object({ min: finite.optional(), max: finite.optional() });
 
-export const settingsSchema = z.object({
-  temperatureUnit: z.enum(['C', 'F']),
-  currencySymbol: text(8),
-  decimalSeparator: z.enum(['.', ',']),
-  thousandsGrouping: z.boolean(),
-  companyName: text(200),
-  operatingTempC: finite,
-  coldStartTempC: finite,
-  blendMethod: z.enum(['refutas', 'astm-d7152']),
-  lastBackupAt: z.string().max(40).nullable(),
-});
+/** Solve targets: shape here, every value checked by `targetsProblems` (field-rules.ts). */
+export const targetsSchema = z
+  .object({
+    grade: finite,
+    targetKv40: nullableNum,
+    tolerancePct: finite,
+    minVi: nullableNum,
+    maxAnilinePoint: nullableNum,
+    maxPolymerFraction: nullableNum,
+    maxPourPoint: nullableNum,
+    minFlashPoint: nullableNum,
+    additive: z.object({ componentId: str, massFraction: finite }).nullable(),
+    bounds: z.record(str, boundsSchema),
+    objective: z.enum(['cost', 'solvency', 'oxidation', 'closest']),
+    referenceRecipeId: str.nullable(),
+  })
+  .superRefine((t, ctx) => report(ctx, targetsProblems(t)));
+
+/** Settings: shape here, every value checked by `settingsProblems` (field-rules.ts). */
+export const settingsSchema = z
+  .object({
+    temperatureUnit: z.enum(['C', 'F']),
+    currencySymbol: str,
+    decimalSeparator: z.enum(['.', ',']),
+    thousandsGrouping: z.boolean(),
+    companyName: str,
+    operatingTempC: finite,
+    coldStartTempC: finite,
+    blendMethod: z.enum(['refutas', 'astm-d7152']),
+    lastBackupAt: str.nullable(),
+  })
+  .superRefine((s, ctx) => report(ctx, settingsProblems(s)));
+
+/** Blend-sheet inputs of one recipe (lot, batch size as typed, vessel, edited instructions). */
+export const sheetInputsSchema = z
+  .object({
+    lot: str,
+    batchSize: str,
+    batchUnit: z.enum(['kg', 'litres']),
+    vessel: str,
+    instructions: str.nullable(),
+  })
+  .superRefine((s, ctx) => report(ctx, sheetProblems(s)));
 
 /** Persisted slice of the library store. */
-export const libraryDataSchema = z.object({ components: z.array(componentSchema).max(5000) });
+export const libraryDataSchema = z.object({ components: list(componentSchema, 'stocks') });
 /** Persisted slice of the recipes store. */
 export const recipesDataSchema = z.object({
-  recipes: z.array(recipeSchema).max(5000),
-  targets: z.record(z.string(), targetsSchema),
-  activeRecipeId: z.string().nullable(),
-  sheets: z.record(
-    z.string(),
-    z.object({
-      lot: text(120),
-      batchSize: text(32),
-      batchUnit: z.enum(['kg', 'litres']),
-      vessel: text(120),
-      instructions: text(20000).nullable(),
-    }),
-  ),
+  recipes: list(recipeSchema, 'recipes'),
+  targets: z.record(str, targetsSchema),
+  activeRecipeId: str.nullable(),
+  sheets: z.record(str, sheetInputsSchema),
 });
 /** Persisted slice of the settings store. */
 export const settingsDataSchema = z.object({ settings: settingsSchema });
@@ -162,6 +171,58 @@ export function describeIssues(error: z.ZodError, max = 4): string {
   const parts = error.issues.slice(0, max).map((i) => {
     const path = i.path.map(String).join('.');
     return path ? `${path}: ${i.message}` : i.message;
+  });
+  if (error.issues.length > max) parts.push(`… and ${error.issues.length - max} more`);
+  return parts.join('; ');
+}
+
+const clipName = (s: unknown, n = 40) => {
+  const t = typeof s === 'string' ? s.trim() : '';
+  return t.length > n ? `${t.slice(0, n)}…` : t;
+};
+const at = (v: unknown, k: PropertyKey): unknown => (v && typeof v === 'object' ? (v as Record<PropertyKey, unknown>)[k] : undefined);
+
+/**
+ * The record a path inside stored data (library, recipes or settings section) belongs to, in the
+ * user's words, and the rest of the path: ['components', 12, 'density15'] → ["stock BW-190", ['density15']].
+ */
+function recordOf(data: unknown, path: readonly PropertyKey[]): { who: string; rest: PropertyKey[] } {
+  const [head, key, ...rest] = path;
+  const recipeName = (id: unknown) => {
+    const list = at(data, 'recipes');
+    const r = Array.isArray(list) ? list.find((x) => at(x, 'id') === id) : undefined;
+    return r ? `recipe “${clipName(at(r, 'name'))}”` : `recipe ${clipName(String(id))}`;
+  };
+  if (head === 'components' && typeof key === 'number') {
+    const code = clipName(at(at(at(data, 'components'), key), 'code'));
+    return { who: code ? `stock ${code} (entry ${key + 1})` : `stock entry ${key + 1}`, rest };
+  }
+  if (head === 'recipes' && typeof key === 'number') {
+    const name = clipName(at(at(at(data, 'recipes'), key), 'name'));
+    return { who: `recipe “${name}” (entry ${key + 1})`, rest };
+  }
+  if (head === 'targets' && key !== undefined) return { who: `the targets of ${recipeName(key)}`, rest };
+  if (head === 'sheets' && key !== undefined) return { who: `the blend sheet of ${recipeName(key)}`, rest };
+  if (head === 'settings') return { who: 'settings', rest: path.slice(1) };
+  return { who: '', rest: [...path] };
+}
+
+/**
+ * Every refused field of stored or imported data, naming the record (stock code, recipe name) and the
+ * field: "Stock BW-190 (entry 13): the density at 15 °C 1e−300 kg/L is outside …; Recipe “VG 320”
+ * (entry 2): the shares add up to 300 %, not 100 %". At most `max` issues, then "… and n more".
+ */
+export function describeStoredIssues(error: z.ZodError, data: unknown, max = 12): string {
+  const cap = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
+  const low = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
+  const parts = error.issues.slice(0, max).map((i) => {
+    const { who, rest } = recordOf(data, i.path);
+    // Messages from the field rules name the field themselves ("The density at 15 °C …").
+    const named = i.code === 'custom';
+    const field = rest.map(String).join('.');
+    if (!who) return field ? `${field}: ${i.message}` : i.message;
+    if (named) return `${cap(who)}: ${low(i.message)}`;
+    return `${cap(who)}${field ? `, ${field}` : ''}: ${low(i.message)}`;
   });
   if (error.issues.length > max) parts.push(`… and ${error.issues.length - max} more`);
   return parts.join('; ');

@@ -52,6 +52,8 @@ async function putRaw(page: Page, key: string, value: unknown): Promise<void> {
   );
 }
 
+/** Current schema of the stored library (src/state/library.ts LIBRARY_SPEC.version). */
+const LIBRARY_VERSION = 3;
 type StoredLibrary = { state: { components: { code: string; name: string; availability: string }[] }; version: number };
 
 async function openLibrary(page: Page): Promise<void> {
@@ -61,7 +63,7 @@ async function openLibrary(page: Page): Promise<void> {
 
 /** Wait until the demo library has been saved on first start. */
 async function savedLibrary(page: Page): Promise<StoredLibrary> {
-  await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary | undefined)?.version, { timeout: 10_000 }).toBe(2);
+  await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary | undefined)?.version, { timeout: 10_000 }).toBe(LIBRARY_VERSION);
   return (await stored(page, 'library')) as StoredLibrary;
 }
 
@@ -121,7 +123,7 @@ describe('storage faults', () => {
     const { page } = s;
     await openLibrary(page);
     await savedLibrary(page);
-    const corrupt = { state: { components: [{ code: 42, viscosityPoints: 'thick' }] }, version: 2 };
+    const corrupt = { state: { components: [{ code: 42, viscosityPoints: 'thick' }] }, version: LIBRARY_VERSION };
     await putRaw(page, 'library', corrupt);
     await page.reload();
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
@@ -201,11 +203,11 @@ describe('storage faults', () => {
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
     const note = page.getByRole('status').filter({ hasText: 'The saved component library was upgraded.' });
     await note.waitFor();
-    await expect(note.innerText()).resolves.toMatch(/schema 1\) and now uses schema 2\. The original copy is kept/);
+    await expect(note.innerText()).resolves.toMatch(new RegExp(`schema 1\\) and now uses schema ${LIBRARY_VERSION}\\. The original copy is kept`));
     await screenshot(page, 'storage-older-schema');
     const firstCode = good.state.components[0]!.code;
     await expect(page.getByLabel(`Name of ${firstCode}`, { exact: true }).inputValue()).resolves.toBe('Kept from schema 1');
-    await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary).version, { timeout: 5000 }).toBe(2);
+    await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary).version, { timeout: 5000 }).toBe(LIBRARY_VERSION);
     const upgraded = (await stored(page, 'library')) as StoredLibrary;
     expect(upgraded.state.components.length).toBe(good.state.components.length);
     expect(nameIn(upgraded, firstCode)).toBe('Kept from schema 1');

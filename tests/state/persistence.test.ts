@@ -37,7 +37,7 @@ describe('interpretStored (pure)', () => {
     const { demoComponents } = await import('../../src/state/demo');
     const comps = demoComponents();
     expect(persistence.interpretStored(LIBRARY_SPEC, undefined).kind).toBe('empty');
-    const ok = persistence.interpretStored(LIBRARY_SPEC, { state: { components: comps }, version: 2 });
+    const ok = persistence.interpretStored(LIBRARY_SPEC, { state: { components: comps }, version: LIBRARY_SPEC.version });
     expect(ok.kind).toBe('ok');
     // Schema 1 lacked the optional scoring fields; the migration fills them with null.
     const v1 = comps.map(({ oxidationRating: _o, shearLossPct: _s, calibration: _c, ...rest }) => rest);
@@ -47,9 +47,9 @@ describe('interpretStored (pure)', () => {
       expect(migrated.migratedFrom).toBe(1);
       expect(migrated.data.components[0]!.calibration).toBeNull();
     }
-    const newer = persistence.interpretStored(LIBRARY_SPEC, { state: {}, version: 3 });
+    const newer = persistence.interpretStored(LIBRARY_SPEC, { state: {}, version: LIBRARY_SPEC.version + 1 });
     expect(newer.kind === 'problem' && newer.problem.kind).toBe('newer-schema');
-    const corrupt = persistence.interpretStored(LIBRARY_SPEC, { state: { components: [{ code: 'X' }] }, version: 2 });
+    const corrupt = persistence.interpretStored(LIBRARY_SPEC, { state: { components: [{ code: 'X' }] }, version: LIBRARY_SPEC.version });
     expect(corrupt.kind === 'problem' && corrupt.problem.kind).toBe('corrupt');
     expect(persistence.interpretStored(LIBRARY_SPEC, 'garbage').kind).toBe('problem');
     expect(persistence.interpretStored(LIBRARY_SPEC, { state: { components: 5 }, version: 1 }).kind).toBe('problem');
@@ -64,7 +64,7 @@ describe('stores saved in IndexedDB', () => {
     // 29 = size of the invented demo library (a count, not a check value)
     expect(m.state.useLibrary.getState().components.length).toBe(29);
     await m.persistence.whenSaved();
-    expect(((await get('library', db())) as { version: number }).version).toBe(2);
+    expect(((await get('library', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.library);
 
     m.state.libraryActions.updateComponent('demo-bw-190', { name: 'Renamed bright stock' });
     m.state.settingsActions.updateSettings({ temperatureUnit: 'F' });
@@ -91,13 +91,13 @@ describe('stores saved in IndexedDB', () => {
     expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('migrated');
     expect(m.state.useLibrary.getState().components.length).toBe(3);
     expect(m.state.useSettingsState.getState().settings.blendMethod).toBe('refutas');
-    expect(((await get('library', db())) as { version: number }).version).toBe(2);
-    expect(((await get('settings', db())) as { version: number }).version).toBe(2);
+    expect(((await get('library', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.library);
+    expect(((await get('settings', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.settings);
   });
 
   for (const [what, raw, kind] of [
     ['a newer schema', { state: { components: [] }, version: 99 }, 'newer-schema'],
-    ['corrupted data', { state: { components: [{ id: 'x', code: '' }] }, version: 2 }, 'corrupt'],
+    ['corrupted data', { state: { components: [{ id: 'x', code: '' }] }, version: 3 }, 'corrupt'],
   ] as const) {
     it(`keeps ${what} untouched, sets a copy aside, pauses saving and says so`, async () => {
       await set('library', raw, db());
@@ -114,9 +114,9 @@ describe('stores saved in IndexedDB', () => {
       expect(await get('library', db())).toEqual(raw);
       expect(((await get('library.unusable-copy', db())) as { raw: unknown }).raw).toEqual(raw);
       // Only the user's decision replaces it.
-      m.persistence.resumeSaving('library', m.state.persistedData('library'), 2);
+      m.persistence.resumeSaving('library', m.state.persistedData('library'), m.state.STORE_VERSION.library);
       await m.persistence.whenSaved();
-      expect(((await get('library', db())) as { version: number }).version).toBe(2);
+      expect(((await get('library', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.library);
       expect(((await get('library.unusable-copy', db())) as { raw: unknown }).raw).toEqual(raw);
     });
   }
