@@ -173,3 +173,30 @@ export type { ComparisonInput, Comparison, Delta, Change, RecipeAssessment } fro
 export { compareRecipes, assessRecipe } from './formulation/comparison';
 export type { PlainSubstituteRequest, PlainSubstituteResult } from './search/substitutes-plain';
 export { searchSubstitutesPlain } from './search/substitutes-plain';
+
+// Line plan: every grade of a line at once, least total cost over a period, shared limited supplies,
+// stocks that must stay in use, an exact tank limit; both plans of a withdrawal and marginal values
+export type {
+  LinePlanInput,
+  LinePlanGradeInput,
+  LinePlanResult,
+  LinePlanOptimal,
+  LinePlanInfeasible,
+  LinePlanInvalid,
+  LinePlanGradeResult,
+  LinePlanStockUse,
+  LinePlanCost,
+  LinePlanScenarios,
+  MarginalValue,
+  PreparedLinePlan,
+} from './lineplan/plan';
+export {
+  planLine,
+  planLineScenarios,
+  prepareLinePlan,
+  solvePreparedLinePlan,
+  MARGINAL_STEP_KG,
+  SUPPLY_CHECK_TOLERANCE,
+} from './lineplan/plan';
+export type { PlainLineComponent, PlainLineGrade, PlainLineProblem, PlainLineResult, PlainLineGradeResult } from './lineplan/plain';
+export { planLinePlain } from './lineplan/plain';

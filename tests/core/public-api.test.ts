@@ -41,4 +41,17 @@ describe('public API (src/core/index.ts)', () => {
     expect(core.isoViscosityGrade(197.9)).toBeNull();
     expect(() => core.viscosityIndex(10, 1.9)).toThrow(core.ViscosityOutOfRangeError); // D2270 scope (V9)
   });
+
+  it('plans a line in plain numbers (planLinePlain, issue 11)', () => {
+    // Two stocks to an exact target: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3)
+    const r = core.planLinePlain({
+      components: [
+        { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 },
+        { id: 'heavy', kv40: 460, kv100: 31, density15: 0.9, anilinePoint: 125, pricePerKg: 1.5 },
+      ],
+      grades: [{ id: 'VG 220', targetKv40: 220, tolerancePct: 0, demandKg: 1000 }],
+    });
+    expect(r.status).toBe('optimal');
+    if (r.status === 'optimal') expectClose(r.grades[0]!.massFractions.heavy!, 0.55126, 1e-4);
+  });
 });

@@ -1,0 +1,153 @@
+/**
+ * Why a line plan has no solution, in a planner's words: which grade cannot be made at all (and
+ * why, from the single-grade diagnosis), or which supply is short and by how many tonnes, or how
+ * many distinct stocks the line needs at least.
+ *
+ * Order of the questions (each asked only when the previous ones found nothing):
+ * 1. each grade alone, with every usable stock and no supply or tank limit (`solvePrepared`); an
+ *    infeasible grade is reported with `diagnoseInfeasible`'s reason;
+ * 2. the least supply shortfall: the line plan with a slack of tonnes on every supply row and on
+ *    every minimum-use row, their sum minimised (tank limit left out); a positive optimum names
+ *    each short stock and the tonnes by which one least-shortfall plan misses;
+ * 3. the least number of distinct stocks the line can be made from under the supplies
+ *    (Σ yᵢ minimised, exactly); above the limit, that number is the reason.
+ */
+import { solvePrepared } from '../solver/engine';
+import { diagnoseInfeasible, type DiagnosisLabels } from '../solver/diagnose';
+import { solveJoint, type JointProblem } from './joint';
+
+/** Wording for a plan's messages. */
+export interface PlanLabels {
+  /** Per grade: e.g. "VG 460 (Gear oil VG 460)" and its ISO limits, for the single-grade diagnosis. */
+  grades: readonly DiagnosisLabels[];
+  /** Per stock: its code. */
+  stocks: readonly string[];
+}
+
+export interface PlanDiagnosis {
+  /** The reason in words, with the numbers. */
+  reason: string;
+  /** 'grade' (a grade alone), 'supply' (short supply), 'min-use' (a stock cannot be used as much as asked), 'tanks', or 'unknown'. */
+  kind: 'grade' | 'supply' | 'min-use' | 'tanks' | 'unknown';
+  /** The grade that cannot be made (index), for kind 'grade'. */
+  grade: number | null;
+  /** Stocks short and by how many tonnes (kind 'supply' or 'min-use'). */
+  short: { stock: number; tonnes: number }[];
+  /** Least number of distinct stocks (kind 'tanks'); null when not found within the LP limit. */
+  minStocks: number | null;
+  lpCount: number;
+}
+
+/** Tonnes for a message: whole tonnes from 10 t, else one or two decimals. */
+export function fmtTonnes(t: number): string {
+  const a = Math.abs(t);
+  if (a >= 10) return `${Math.round(t).toLocaleString('en-US')} t`;
+  if (a >= 1) return `${t.toFixed(1)} t`;
+  return `${t.toFixed(2)} t`;
+}
+
+/**
+ * Diagnose an infeasible line plan.
+ *
+ * @param J - the line plan (already known to be infeasible)
+ * @param labels - grade and stock wording
+ * @param maxLps - LP limit of the exact stock-count search
+ * @returns the reason and what it names
+ */
+export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4000): PlanDiagnosis {
+  let lpCount = 0;
+  const out = (d: Omit<PlanDiagnosis, 'lpCount' | 'grade' | 'short' | 'minStocks'> & Partial<PlanDiagnosis>): PlanDiagnosis => ({
+    grade: null,
+    short: [],
+    minStocks: null,
+    ...d,
+    lpCount,
+  });
+
+  // 1. Each grade alone.
+  for (let g = 0; g < J.grades.length; g++) {
+    const P = J.grades[g]!;
+    const r = solvePrepared(P);
+    lpCount += r.lpCount;
+    if (r.status === 'optimal') continue;
+    const d = diagnoseInfeasible(P, labels.grades[g]!);
+    lpCount += d.lpCount;
+    const why = d.binding === 'kv40-min' || d.binding === 'kv40-max' ? d.reason : `${d.reason} ${d.suggestion}`;
+    return out({ kind: 'grade', grade: g, reason: `${labels.grades[g]!.product} cannot be made, even on its own: ${why}` });
+  }
+
+  // 2. Supply shortfall.
+  const n = J.grades[0]!.n;
+  const sf = solveJoint(J, { mode: 'shortfall' });
+  lpCount += sf.lpCount;
+  if (sf.status === 'optimal' && sf.objective > 1e-6) {
+    const short: { stock: number; tonnes: number }[] = [];
+    const parts: string[] = [];
+    const useParts: string[] = [];
+    for (let i = 0; i < n; i++) {
+      const s = sf.supplyShortT![i]!;
+      if (s > 1e-6) {
+        short.push({ stock: i, tonnes: s });
+        const users = J.grades.map((_, g) => g).filter((g) => sf.fractions[g]![i]! > 1e-6);
+        const need = (J.supplyKg[i]! / 1000 + s);
+        parts.push(
+          `${labels.stocks[i]} is short by ${fmtTonnes(s)} (${fmtTonnes(J.supplyKg[i]! / 1000)} on offer; ` +
+            `the plan needs at least ${fmtTonnes(need)}${users.length ? ` for ${users.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
+        );
+      }
+      const u = sf.useShortT![i]!;
+      if (u > 1e-6) {
+        short.push({ stock: i, tonnes: u });
+        useParts.push(
+          `${labels.stocks[i]} can be used at most ${fmtTonnes(J.minUseKg[i]! / 1000 - u)} over the period, ` +
+            `${fmtTonnes(u)} less than the ${fmtTonnes(J.minUseKg[i]! / 1000)} it must stay in use for`,
+        );
+      }
+    }
+    if (parts.length > 0) {
+      const several = parts.length > 1;
+      return out({
+        kind: 'supply',
+        short,
+        reason:
+          `The limited supply does not cover the demand: ${parts.join('; ')}. ` +
+          (several ? 'These shortfalls together are the least that closes the gap. ' : '') +
+          'Secure more of it, lower the demand of the grades that need it, or allow a stock that can replace it.',
+      });
+    }
+    return out({
+      kind: 'min-use',
+      short,
+      reason: `${useParts.join('; ')}. Lower the tonnage that must stay in use, or raise the demand of grades that can take it.`,
+    });
+  }
+
+  // 3. Tank limit.
+  if (J.maxStocks !== null) {
+    const c = solveJoint(J, { mode: 'count', maxLps });
+    lpCount += c.lpCount;
+    if (c.status === 'optimal' && c.objective > J.maxStocks) {
+      const used: string[] = [];
+      for (let i = 0; i < n; i++) if (c.fractions.some((w) => w[i]! > 1e-6) || J.keep[i]) used.push(labels.stocks[i]!);
+      return out({
+        kind: 'tanks',
+        minStocks: c.objective,
+        reason:
+          `The line cannot be made from ${J.maxStocks} distinct stocks: it needs at least ${c.objective} ` +
+          `(for example ${used.join(', ')}). Allow more stocks, or relax a grade's limits.`,
+      });
+    }
+    if (c.status === 'limit') {
+      return out({
+        kind: 'tanks',
+        reason:
+          `The line could not be made from ${J.maxStocks} distinct stocks, and the search for the least number ` +
+          `stopped after ${c.lpCount} LPs. Allow more stocks.`,
+      });
+    }
+  }
+  return out({
+    kind: 'unknown',
+    reason: 'No plan meets every grade, supply and stock limit together, although each grade can be made on its own. Relax a limit and plan again.',
+  });
+}
