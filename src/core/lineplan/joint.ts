@@ -41,7 +41,7 @@ import type { PreparedProblem } from '../solver/prepared';
 import { viRoot } from '../solver/prepared';
 import type { ViChord } from '../solver/vi-boundary';
 import { viOf, VI_ACCEPT_TOLERANCE } from '../solver/branch-and-bound';
-import { solveDenseLp } from '../solver/lp';
+import { LpWorkspace, solveDenseLp } from '../solver/lp';
 
 /** A line-plan problem in plain numbers; every grade is prepared on the same components, in the same order. */
 export interface JointProblem {
@@ -177,6 +177,7 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
   const n = G > 0 ? J.grades[0]!.n : 0;
   let lpCount = 0;
   let nodeCount = 0;
+  const ws = new LpWorkspace(); // one tableau for every LP of this solve (x is read at once)
   const none = (status: JointNotSolved['status']): JointNotSolved => ({ status, lpCount, nodeCount });
   if (G === 0) return none('infeasible');
 
@@ -415,7 +416,7 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
     const buf = new Float64Array(m * width);
     for (let r = 0; r < m; r++) buf.set(R.coef[r]!, r * width);
     lpCount++;
-    const sol = solveDenseLp('minimize', width, obj, m, buf, R.lo, R.hi);
+    const sol = solveDenseLp('minimize', width, obj, m, buf, R.lo, R.hi, ws);
     if (sol.status !== 'optimal') return sol.status === 'infeasible' ? 'infeasible' : 'failed';
     const x = sol.x;
     // Fractions per grade (fixed shares included), objective in the mode's unit.
