@@ -21,6 +21,9 @@
  *   checkBoundPair(min, max, who?)           → message | null   (min ≤ max, each 0–1)
  *   stockWho(code) / recipeWho(name)         → "stock BW-190" / "recipe “VG 320 plant”" for `who`
  *   fmtRuleNumber(v)                         → a number as messages print it (6 significant figures, true minus)
+ *   stockProblems / recipeProblems / targetsProblems / sheetProblems / settingsProblems(record, who?)
+ *                                            → FieldProblem[] ({ path, message }) for a whole record
+ *   FieldRuleError                           thrown by a store action given a record the rules refuse
  *
  * `who` names the record ("stock BW-190"); the message then reads "Stock BW-190: density at 15 °C …".
  *
@@ -70,7 +73,7 @@ export const TEXT_RULES = Object.freeze({
   vessel: textRule('vessel', 120),
   /** Blend sheet: the batch size as typed (its number is checked with NUMBER_RULES.batchSize). */
   batchSize: textRule('batch size', 32),
-  instructions: textRule('blending instructions', 20_000, { singleLine: false }),
+  instructions: textRule('text of the blending instructions', 20_000, { singleLine: false }),
   companyName: textRule('company name', 200),
   currencySymbol: textRule('currency symbol', 8),
   /** ISO date-time stamps written by Blendbench. */
@@ -175,9 +178,9 @@ export const NUMBER_RULES = Object.freeze({
   /** Batch size [kg or litres]: up to 10,000 t, beyond any blending vessel (common practice, no source). */
   batchSize: numberRule('batch size', '', 0, 1e7, { minExclusive: true }),
   /** Gearbox operating temperature [°C]. */
-  operatingTempC: numberRule('operating temperature', '°C', -50, 200),
+  operatingTempC: numberRule('operating temperature', '°C', -60, 200),
   /** Cold-start temperature [°C]. */
-  coldStartTempC: numberRule('cold-start temperature', '°C', -70, 60),
+  coldStartTempC: numberRule('cold-start temperature', '°C', -60, 60),
 } satisfies Record<string, NumberRule>);
 
 export type NumberRuleKey = keyof typeof NUMBER_RULES;
@@ -524,13 +527,14 @@ export function sheetProblems(s: SheetFields, who?: string, parseBatch?: (text: 
   add(['lot'], checkText('lot', s.lot, who));
   add(['vessel'], checkText('vessel', s.vessel, who));
   add(['instructions'], s.instructions === null ? null : checkText('instructions', s.instructions, who));
-  const size = checkText('batchSize', s.batchSize, who);
   const notNumber = say(who, `the batch size “${clip(s.batchSize, 20)}” is not a number`);
-  if (size) add(['batchSize'], size);
-  else if (!/^[0-9 .,'eE+\-\u00a0\u202f]*$/.test(s.batchSize)) add(['batchSize'], notNumber);
-  else if (parseBatch && s.batchSize.trim() !== '') {
+  if (parseBatch && s.batchSize.trim() !== '') {
+    // The entry form's reading first: "1e+40 is outside the possible range" says more than a length.
     const v = parseBatch(s.batchSize);
-    add(['batchSize'], v === null || Number.isNaN(v) ? notNumber : checkNumber('batchSize', v, who));
+    add(['batchSize'], v === null || Number.isNaN(v) ? notNumber : checkNumber('batchSize', v, who) ?? checkText('batchSize', s.batchSize, who));
+  } else {
+    const size = checkText('batchSize', s.batchSize, who);
+    add(['batchSize'], size ?? (/^[0-9 .,'eE+\-\u00a0\u202f]*$/.test(s.batchSize) ? null : notNumber));
   }
   return out;
 }
@@ -553,4 +557,19 @@ export function settingsProblems(s: SettingsFields): FieldProblem[] {
   add(['coldStartTempC'], checkNumber('coldStartTempC', s.coldStartTempC));
   add(['lastBackupAt'], s.lastBackupAt === null ? null : checkText('timestamp', s.lastBackupAt));
   return out;
+}
+
+/** Thrown by a store action asked to store a record the field rules refuse (entry should have said so first). */
+export class FieldRuleError extends Error {
+  readonly problems: readonly FieldProblem[];
+  constructor(problems: readonly FieldProblem[]) {
+    super(problems.map((p) => p.message).join('; '));
+    this.name = 'FieldRuleError';
+    this.problems = problems;
+  }
+}
+
+/** The first message of a list of problems, or null when there is none (for actions that refuse). */
+export function firstProblem(problems: readonly FieldProblem[]): string | null {
+  return problems[0]?.message ?? null;
 }

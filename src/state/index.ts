@@ -15,7 +15,10 @@
  *                                            operatingTempC, coldStartTempC, blendMethod)
  *   useFormat()                              number / temperature / money formatters for the settings
  *                                            (from src/components/format.ts)
- * Writing (actions; call from event handlers; every library/recipe action is one undo step):
+ * Writing (actions; call from event handlers; every library/recipe action is one undo step). Every action
+ * that writes a stored field checks it with the field rules (./field-rules.ts) and refuses what they
+ * refuse, keeping the stored value: actions returning `string | null` return the message (null = stored),
+ * actions returning an id throw FieldRuleError. Check with the same rules at entry to say it first.
  *   libraryActions: addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id) → id
  *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
  *     (also useLibrary.getState().…)
@@ -31,7 +34,7 @@
  *   useLibraryHistory() / useRecipesHistory() → { canUndo, canRedo, undo, redo }
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
  * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
- * entry checks shared by screens and imports in ./checks.ts.
+ * entry checks shared by screens and imports in ./checks.ts; every stored field's limits in ./field-rules.ts.
  */
 import { useMemo } from 'react';
 import { useStore } from 'zustand';

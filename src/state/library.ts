@@ -7,23 +7,36 @@ import { idbPersistStorage, type StoreSpec } from './persistence';
 import { libraryDataSchema } from './schemas';
 import { demoComponents } from './demo';
 import { newId, today } from './ids';
+import { FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
+
+/** Throws FieldRuleError when a library of `count` stocks would exceed COLLECTION_LIMITS.stocks. */
+function refuseIfFull(count: number): void {
+  const full = checkCount('stocks', count, 'the library');
+  if (full) throw new FieldRuleError([{ path: ['components'], message: full }]);
+}
 
 export interface LibraryData {
   components: Component[];
 }
 
+/**
+ * Every action that writes a stored field checks it with the field rules (field-rules.ts) first: one
+ * that returns `string | null` refuses what the rules refuse, keeps the stored value and returns the
+ * message (null = stored); one that returns an id throws `FieldRuleError` instead (also when the
+ * library would exceed COLLECTION_LIMITS.stocks). Entry forms check with the same rules beforehand.
+ */
 export interface LibraryState extends LibraryData {
-  /** Add a component (defaults fill what is not given); returns its id. */
+  /** Add a component (defaults fill what is not given); returns its id. Throws FieldRuleError. */
   addComponent: (init?: Partial<Omit<Component, 'id'>>) => string;
-  /** Change fields of one component. */
-  updateComponent: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
-  /** Copy a component under a new id and a free code ("BW-190 copy"); returns the new id. */
+  /** Change fields of one component. Null, or why the change was refused (nothing changed then). */
+  updateComponent: (id: string, patch: Partial<Omit<Component, 'id'>>) => string | null;
+  /** Copy a component under a new id and a free code ("BW-190 copy"); returns the new id. Throws FieldRuleError when full. */
   cloneComponent: (id: string) => string | null;
   setAvailability: (id: string, availability: Availability) => void;
   removeComponent: (id: string) => void;
-  /** Add or update by stock code (import): existing codes keep their id. */
+  /** Add or update by stock code (import): existing codes keep their id. Throws FieldRuleError when full. */
   upsertByCode: (components: Component[]) => void;
-  /** Replace the whole library (reset demo, import-all backup). */
+  /** Replace the whole library (reset demo, import-all backup). Throws FieldRuleError when too many. */
   replaceComponents: (components: Component[]) => void;
 }
 
@@ -103,18 +116,29 @@ export const useLibraryStore = create<LibraryState>()(
         addComponent: (init = {}) => {
           const c = blankComponent(init);
           if (!c.code) c.code = freeCode(get().components, 'NEW');
+          refuseIfFull(get().components.length + 1);
+          const problems = stockProblems(c);
+          if (problems.length) throw new FieldRuleError(problems);
           set((s) => ({ components: [...s.components, c] }));
           return c.id;
         },
-        updateComponent: (id, patch) =>
-          set((s) => ({ components: s.components.map((c) => (c.id === id ? { ...c, ...patch, id } : c)) })),
+        updateComponent: (id, patch) => {
+          const old = get().components.find((c) => c.id === id);
+          if (!old) return null;
+          const next = { ...old, ...patch, id };
+          const refused = firstProblem(stockProblems(next, stockWho(old.code)));
+          if (refused) return refused;
+          set((s) => ({ components: s.components.map((c) => (c.id === id ? next : c)) }));
+          return null;
+        },
         cloneComponent: (id) => {
           const src = get().components.find((c) => c.id === id);
           if (!src) return null;
+          refuseIfFull(get().components.length + 1);
           const copy: Component = structuredClone(src);
           copy.id = newId('c');
-          copy.code = freeCode(get().components, `${src.code}-copy`);
-          copy.name = src.name ? `${src.name} (copy)` : '';
+          copy.code = freeCode(get().components, `${src.code}-copy`.slice(0, TEXT_RULES.stockCode.max - 3));
+          copy.name = src.name ? `${src.name} (copy)`.slice(0, TEXT_RULES.stockName.max) : '';
           const at = get().components.indexOf(src) + 1;
           set((s) => ({ components: [...s.components.slice(0, at), copy, ...s.components.slice(at)] }));
           return copy.id;
@@ -134,9 +158,13 @@ export const useLibraryStore = create<LibraryState>()(
                 next.push(inc);
               }
             }
+            refuseIfFull(next.length);
             return { components: next };
           }),
-        replaceComponents: (components) => set({ components }),
+        replaceComponents: (components) => {
+          refuseIfFull(components.length);
+          set({ components });
+        },
       }),
       {
         partialize: (s): LibraryData => ({ components: s.components }),

@@ -7,6 +7,16 @@ import { idbPersistStorage, type StoreSpec } from './persistence';
 import { recipesDataSchema } from './schemas';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
 import { newId } from './ids';
+import {
+  FieldRuleError,
+  TEXT_RULES,
+  checkCount,
+  firstProblem,
+  recipeProblems,
+  recipeWho,
+  sheetProblems,
+  targetsProblems,
+} from './field-rules';
 
 export interface RecipesData {
   recipes: Recipe[];
@@ -22,7 +32,7 @@ export interface RecipesData {
 export interface SheetInputs {
   /** Batch or lot number. */
   lot: string;
-  /** Batch size as typed (a positive number; the sheet checks it). */
+  /** Batch size as typed (a positive number up to NUMBER_RULES.batchSize; the sheet checks it). */
   batchSize: string;
   /** Unit of the batch size: kg, or litres at 15 °C. */
   batchUnit: 'kg' | 'litres';
@@ -41,24 +51,33 @@ export interface NewRecipe {
   notes?: string;
 }
 
+/**
+ * Every action that writes a stored field checks it with the field rules (field-rules.ts) first: one
+ * that returns `string | null` refuses a value the rules refuse, keeps the stored value and returns the
+ * message (null = stored); one that returns an id throws `FieldRuleError` instead. Entry forms check
+ * with the same rules beforehand, so these are the last guard, never the first message.
+ */
 export interface RecipesState extends RecipesData {
-  /** Create a recipe (revision 1); returns its id. Does not change the active recipe. */
+  /** Create a recipe (revision 1); returns its id. Does not change the active recipe. Throws FieldRuleError. */
   addRecipe: (init: NewRecipe) => string;
-  /** Change fields of a recipe; stamps `updatedAt`. Does not raise the revision. */
-  updateRecipe: (id: string, patch: Partial<Omit<Recipe, 'id' | 'updatedAt'>>) => void;
-  /** Replace a recipe's lines (mass fractions, summing to 1 — the caller's responsibility). */
-  setLines: (id: string, lines: RecipeLine[]) => void;
+  /** Change fields of a recipe; stamps `updatedAt`. Does not raise the revision. Null, or why it was refused. */
+  updateRecipe: (id: string, patch: Partial<Omit<Recipe, 'id' | 'updatedAt'>>) => string | null;
+  /** Replace a recipe's lines (mass fractions summing to 1). Null, or why it was refused. */
+  setLines: (id: string, lines: RecipeLine[]) => string | null;
   /** Raise the revision number (a change the plant must know about). */
   raiseRevision: (id: string) => void;
-  /** Copy a recipe (revision 1, not a reference); returns the new id. */
+  /** Copy a recipe (revision 1, not a reference); returns the new id. Throws FieldRuleError. */
   duplicateRecipe: (id: string, name?: string) => string | null;
   /** Delete a recipe and its targets. */
   removeRecipe: (id: string) => void;
   setActiveRecipe: (id: string | null) => void;
-  /** Store solve targets for a recipe. */
-  setTargets: (recipeId: string, targets: BlendTargets) => void;
-  /** Remember blend-sheet fields of a recipe (merged into its saved ones; not an undo step). */
-  setSheetInputs: (recipeId: string, patch: Partial<SheetInputs>) => void;
+  /** Store solve targets for a recipe. Null, or why they were refused. */
+  setTargets: (recipeId: string, targets: BlendTargets) => string | null;
+  /**
+   * Remember blend-sheet fields of a recipe (merged into its saved ones; not an undo step). Null, or
+   * why they were refused (nothing is stored then). `parseBatch` reads the batch size as the form does.
+   */
+  setSheetInputs: (recipeId: string, patch: Partial<SheetInputs>, parseBatch?: (text: string) => number | null) => string | null;
   /** Replace everything (reset demo, import-all backup). */
   replaceAll: (data: RecipesData) => void;
 }
@@ -93,70 +112,102 @@ type Tracked = Pick<RecipesData, 'recipes' | 'targets'>;
 export const useRecipesStore = create<RecipesState>()(
   persist(
     temporal(
-      (set, get) => ({
-        ...demoRecipesData(),
-        addRecipe: (init) => {
-          const id = newId('r');
-          const recipe: Recipe = {
-            id,
-            name: init.name,
-            grade: init.grade,
-            lines: init.lines ?? [],
-            revision: 1,
-            isReference: init.isReference ?? false,
-            notes: init.notes ?? '',
-            updatedAt: now(),
-          };
-          set((s) => ({ recipes: [...s.recipes, recipe] }));
-          return id;
-        },
-        updateRecipe: (id, patch) =>
-          set((s) => ({ recipes: s.recipes.map((r) => (r.id === id ? { ...r, ...patch, id, updatedAt: now() } : r)) })),
-        setLines: (id, lines) =>
-          set((s) => ({ recipes: s.recipes.map((r) => (r.id === id ? { ...r, lines, updatedAt: now() } : r)) })),
-        raiseRevision: (id) =>
-          set((s) => ({
-            recipes: s.recipes.map((r) => (r.id === id ? { ...r, revision: r.revision + 1, updatedAt: now() } : r)),
-          })),
-        duplicateRecipe: (id, name) => {
-          const src = get().recipes.find((r) => r.id === id);
-          if (!src) return null;
-          const copyId = newId('r');
-          const copy: Recipe = {
-            ...structuredClone(src),
-            id: copyId,
-            name: name ?? `${src.name} (copy)`,
-            revision: 1,
-            isReference: false,
-            updatedAt: now(),
-          };
-          const t = get().targets[id];
-          set((s) => ({
-            recipes: [...s.recipes, copy],
-            targets: t ? { ...s.targets, [copyId]: structuredClone(t) } : s.targets,
-          }));
-          return copyId;
-        },
-        removeRecipe: (id) =>
-          set((s) => {
-            const targets = { ...s.targets };
-            delete targets[id];
-            const sheets = { ...s.sheets };
-            delete sheets[id];
-            return {
-              recipes: s.recipes.filter((r) => r.id !== id),
-              targets,
-              sheets,
-              activeRecipeId: s.activeRecipeId === id ? null : s.activeRecipeId,
+      (set, get) => {
+        const whoOf = (id: string) => {
+          const r = get().recipes.find((x) => x.id === id);
+          return r ? recipeWho(r.name) : undefined;
+        };
+        /** Change one recipe if the result passes the field rules; stamps `updatedAt`. */
+        const changeRecipe = (id: string, change: (r: Recipe) => Recipe): string | null => {
+          const r = get().recipes.find((x) => x.id === id);
+          if (!r) return null;
+          const next = { ...change(r), updatedAt: now() };
+          const refused = firstProblem(recipeProblems(next, recipeWho(r.name)));
+          if (refused) return refused;
+          set((s) => ({ recipes: s.recipes.map((x) => (x.id === id ? next : x)) }));
+          return null;
+        };
+        return {
+          ...demoRecipesData(),
+          addRecipe: (init) => {
+            const id = newId('r');
+            const recipe: Recipe = {
+              id,
+              name: init.name,
+              grade: init.grade,
+              lines: init.lines ?? [],
+              revision: 1,
+              isReference: init.isReference ?? false,
+              notes: init.notes ?? '',
+              updatedAt: now(),
             };
-          }),
-        setActiveRecipe: (id) => set({ activeRecipeId: id }),
-        setTargets: (recipeId, targets) => set((s) => ({ targets: { ...s.targets, [recipeId]: targets } })),
-        setSheetInputs: (recipeId, patch) =>
-          set((s) => ({ sheets: { ...s.sheets, [recipeId]: { ...DEFAULT_SHEET_INPUTS, ...s.sheets[recipeId], ...patch } } })),
-        replaceAll: (data) =>
-          set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId, sheets: data.sheets ?? {} }),
-      }),
+            const problems = recipeProblems(recipe);
+            const full = checkCount('recipes', get().recipes.length + 1);
+            if (full) problems.push({ path: ['recipes'], message: full });
+            if (problems.length) throw new FieldRuleError(problems);
+            set((s) => ({ recipes: [...s.recipes, recipe] }));
+            return id;
+          },
+          updateRecipe: (id, patch) => changeRecipe(id, (r) => ({ ...r, ...patch, id })),
+          setLines: (id, lines) => changeRecipe(id, (r) => ({ ...r, lines })),
+          raiseRevision: (id) =>
+            set((s) => ({
+              recipes: s.recipes.map((r) => (r.id === id ? { ...r, revision: r.revision + 1, updatedAt: now() } : r)),
+            })),
+          duplicateRecipe: (id, name) => {
+            const src = get().recipes.find((r) => r.id === id);
+            if (!src) return null;
+            const copyId = newId('r');
+            const copy: Recipe = {
+              ...structuredClone(src),
+              id: copyId,
+              name: name ?? `${src.name} (copy)`.slice(0, TEXT_RULES.recipeName.max),
+              revision: 1,
+              isReference: false,
+              updatedAt: now(),
+            };
+            const problems = recipeProblems(copy);
+            const full = checkCount('recipes', get().recipes.length + 1);
+            if (full) problems.push({ path: ['recipes'], message: full });
+            if (problems.length) throw new FieldRuleError(problems);
+            const t = get().targets[id];
+            set((s) => ({
+              recipes: [...s.recipes, copy],
+              targets: t ? { ...s.targets, [copyId]: structuredClone(t) } : s.targets,
+            }));
+            return copyId;
+          },
+          removeRecipe: (id) =>
+            set((s) => {
+              const targets = { ...s.targets };
+              delete targets[id];
+              const sheets = { ...s.sheets };
+              delete sheets[id];
+              return {
+                recipes: s.recipes.filter((r) => r.id !== id),
+                targets,
+                sheets,
+                activeRecipeId: s.activeRecipeId === id ? null : s.activeRecipeId,
+              };
+            }),
+          setActiveRecipe: (id) => set({ activeRecipeId: id }),
+          setTargets: (recipeId, targets) => {
+            const refused = firstProblem(targetsProblems(targets, whoOf(recipeId)));
+            if (refused) return refused;
+            set((s) => ({ targets: { ...s.targets, [recipeId]: targets } }));
+            return null;
+          },
+          setSheetInputs: (recipeId, patch, parseBatch) => {
+            const next = { ...DEFAULT_SHEET_INPUTS, ...get().sheets[recipeId], ...patch };
+            const refused = firstProblem(sheetProblems(next, undefined, patch.batchSize === undefined ? undefined : parseBatch));
+            if (refused) return refused;
+            set((s) => ({ sheets: { ...s.sheets, [recipeId]: next } }));
+            return null;
+          },
+          replaceAll: (data) =>
+            set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId, sheets: data.sheets ?? {} }),
+        };
+      },
       {
         partialize: (s): Tracked => ({ recipes: s.recipes, targets: s.targets }),
         // Selecting another recipe is not an edit: skip history entries where nothing tracked changed.

@@ -4,6 +4,7 @@ import { persist } from 'zustand/middleware';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { settingsDataSchema } from './schemas';
 import { demoSettingsPatch } from './demo';
+import { firstProblem, settingsProblems } from './field-rules';
 
 export interface Settings {
   /** Display unit for temperatures; stored values are always °C. */
@@ -44,7 +45,8 @@ export interface SettingsData {
 }
 
 export interface SettingsState extends SettingsData {
-  updateSettings: (patch: Partial<Settings>) => void;
+  /** Change settings; null, or why the change was refused by the field rules (nothing changed then). */
+  updateSettings: (patch: Partial<Settings>) => string | null;
   /** Back to defaults (with the demo company name). */
   resetSettings: () => void;
   replaceSettings: (settings: Settings) => void;
@@ -67,9 +69,15 @@ export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
 
 export const useSettingsStore = create<SettingsState>()(
   persist(
-    (set) => ({
+    (set, get) => ({
       settings: demoSettings(),
-      updateSettings: (patch) => set((s) => ({ settings: { ...s.settings, ...patch } })),
+      updateSettings: (patch) => {
+        const next = { ...get().settings, ...patch };
+        const refused = firstProblem(settingsProblems(next));
+        if (refused) return refused;
+        set({ settings: next });
+        return null;
+      },
       resetSettings: () => set({ settings: demoSettings() }),
       replaceSettings: (settings) => set({ settings }),
     }),

@@ -27,7 +27,7 @@ describe('text rules', () => {
     expect(checkText('recipeName', 'x'.repeat(TEXT_RULES.recipeName.max), 'recipe')).toBeNull();
     expect(checkText('lot', 'L'.repeat(500))).toMatch(/^The lot number is 500 characters long; at most 120/);
     expect(checkText('vessel', 'V'.repeat(500))).toMatch(/vessel is 500 characters/);
-    expect(checkText('instructions', 'i'.repeat(25_000))).toMatch(/blending instructions is 25000 characters long; at most 20000/);
+    expect(checkText('instructions', 'i'.repeat(25_000))).toMatch(/text of the blending instructions is 25000 characters long; at most 20000/);
   });
 
   it('requires a stock code and refuses control characters in one-line fields, but not line breaks in notes', () => {

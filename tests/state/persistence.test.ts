@@ -148,6 +148,30 @@ describe('stores saved in IndexedDB', () => {
   });
 });
 
+describe('never store what cannot be read back (issue 10 item 1)', () => {
+  it('the reproduction (5,000-character name, 500-character lot and vessel, 25,000 characters of instructions, a 40-digit batch) is refused, and the recipes load again', async () => {
+    let m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const id = 'demo-vg320';
+    const act = m.state.recipeActions;
+    expect(act.updateRecipe(id, { name: 'n'.repeat(5000) })).toMatch(/recipe name/);
+    expect(act.setSheetInputs(id, { lot: 'L'.repeat(500) })).toMatch(/lot number/);
+    expect(act.setSheetInputs(id, { vessel: 'V'.repeat(500) })).toMatch(/vessel/);
+    expect(act.setSheetInputs(id, { instructions: 'i'.repeat(25_000) })).toMatch(/blending instructions/);
+    expect(act.setSheetInputs(id, { batchSize: '1'.repeat(40) })).toMatch(/batch size/);
+    expect(m.state.libraryActions.updateComponent('demo-bw-190', { density15: 1e-300 })).toMatch(/density at 15 °C/);
+    expect(m.state.settingsActions.updateSettings({ companyName: 'c'.repeat(5000) })).toMatch(/company name/);
+    expect(act.setSheetInputs(id, { lot: 'L-1' })).toBeNull();
+    await m.persistence.whenSaved();
+
+    m = await load(); // a reload
+    await m.state.startSavedWork({ requestPersistence: false });
+    const st = m.persistence.useStorageStatus.getState().stores;
+    expect([st.library.origin, st.recipes.origin, st.settings.origin]).toEqual(['stored', 'stored', 'stored']);
+    expect(m.state.useRecipes.getState().sheets[id]!.lot).toBe('L-1');
+  });
+});
+
 describe('undo and redo', () => {
   it('undoes and redoes library and recipe edits, one step per action', async () => {
     const m = await load();

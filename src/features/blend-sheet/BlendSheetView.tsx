@@ -13,6 +13,7 @@ import {
   type SheetPrediction,
 } from '../../core/sheet/blend-sheet';
 import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
+import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { csvFileName, downloadCsv, toCsv } from './csv';
 import './blend-sheet.css';
 
@@ -40,7 +41,12 @@ export interface BlendSheetViewProps {
    * them the sheet keeps its fields for as long as it is shown.
    */
   sheetInputs?: Readonly<Record<string, SheetInputs>>;
-  onSheetInputsChange?: (recipeId: string, patch: Partial<SheetInputs>) => void;
+  /** Saves the fields; returns null, or why they were refused (the stored value is kept). */
+  onSheetInputsChange?: (
+    recipeId: string,
+    patch: Partial<SheetInputs>,
+    parseBatch?: (text: string) => number | null,
+  ) => string | null | void;
   /** Called instead of `window.print()` (tests). */
   onPrint?: () => void;
   /** Called instead of the browser download with the CSV text and file name (tests). */
@@ -49,6 +55,24 @@ export interface BlendSheetViewProps {
 
 const defaultFormat = (x: number, d: number) =>
   x.toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d });
+
+/** Sheet fields typed as text (a refused value stays shown in its field with the message). */
+type TypedField = 'lot' | 'vessel' | 'batchSize' | 'instructions';
+
+/** The batch size as the number input gives it (plain JavaScript number text), or null when blank. */
+function parseBatchSize(text: string): number | null {
+  return text.trim() === '' ? null : Number(text);
+}
+
+/** Why a typed sheet field was not saved; the stored value is kept. */
+function Refusal({ id, message }: { id: string; message: string | null }) {
+  if (!message) return null;
+  return (
+    <span id={id} className="bs-no-print bs-field-error" role="alert">
+      {message}. Not saved; the last saved value is kept.
+    </span>
+  );
+}
 
 function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
@@ -69,15 +93,30 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const tUnit = props.temperatureUnit ?? 'C';
   const saved = recipe ? (props.sheetInputs ?? localInputs)[recipe.id] : undefined;
   const { batchSize, batchUnit, lot, vessel, instructions } = saved ?? DEFAULT_SHEET_INPUTS;
-  const setInputs = (patch: Partial<SheetInputs>) => {
+  // A typed value the field rules refuse stays in its field with the message; the stored value is kept.
+  const [refused, setRefused] = useState<{ recipeId: string; field: TypedField; text: string; message: string } | null>(null);
+  const draft = (field: TypedField, stored: string): string =>
+    refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.text : stored;
+  const refusal = (field: TypedField): string | null =>
+    refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.message : null;
+  const setInputs = (patch: Partial<SheetInputs>, field?: TypedField) => {
     if (!recipe) return;
-    if (props.onSheetInputsChange) props.onSheetInputsChange(recipe.id, patch);
-    else setLocalInputs((m) => ({ ...m, [recipe.id]: { ...DEFAULT_SHEET_INPUTS, ...m[recipe.id], ...patch } }));
+    const next = { ...DEFAULT_SHEET_INPUTS, ...saved, ...patch };
+    const parse = patch.batchSize === undefined ? undefined : parseBatchSize;
+    const message =
+      firstProblem(sheetProblems(next, undefined, parse)) ??
+      (props.onSheetInputsChange ? props.onSheetInputsChange(recipe.id, patch, parse) ?? null : null);
+    if (message) {
+      if (field) setRefused({ recipeId: recipe.id, field, text: String(patch[field] ?? ''), message });
+      return;
+    }
+    if (refused && refused.field in patch) setRefused(null);
+    if (!props.onSheetInputsChange) setLocalInputs((m) => ({ ...m, [recipe.id]: next }));
   };
-  const setBatchSize = (batchSize: string) => setInputs({ batchSize });
+  const setBatchSize = (batchSize: string) => setInputs({ batchSize }, 'batchSize');
   const setBatchUnit = (batchUnit: 'kg' | 'litres') => setInputs({ batchUnit });
-  const setLot = (lot: string) => setInputs({ lot });
-  const setVessel = (vessel: string) => setInputs({ vessel });
+  const setLot = (lot: string) => setInputs({ lot }, 'lot');
+  const setVessel = (vessel: string) => setInputs({ vessel }, 'vessel');
 
   const batchValue = Number(batchSize);
   const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
@@ -224,7 +263,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <label htmlFor={`${id}-lot`}>Batch / lot no.</label>
             </dt>
             <dd>
-              <input id={`${id}-lot`} className="bs-no-print" value={lot} onChange={(e) => setLot(e.target.value)} />
+              <input
+                id={`${id}-lot`}
+                className="bs-no-print"
+                value={draft('lot', lot)}
+                aria-invalid={refusal('lot') ? true : undefined}
+                aria-describedby={refusal('lot') ? `${id}-lot-err` : undefined}
+                onChange={(e) => setLot(e.target.value)}
+              />
+              <Refusal id={`${id}-lot-err`} message={refusal('lot')} />
               <span className="bs-print-only">{lot || '____________'}</span>
             </dd>
           </div>
@@ -240,7 +287,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   min="0"
                   step="any"
                   inputMode="decimal"
-                  value={batchSize}
+                  value={draft('batchSize', batchSize)}
+                  aria-invalid={refusal('batchSize') ? true : undefined}
+                  aria-describedby={refusal('batchSize') ? `${id}-size-err` : undefined}
                   onChange={(e) => setBatchSize(e.target.value)}
                 />
                 <select aria-label="Batch size unit" value={batchUnit} onChange={(e) => setBatchUnit(e.target.value as 'kg' | 'litres')}>
@@ -249,6 +298,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 </select>
               </span>
               <span className="bs-batch-text">{batchText}</span>
+              <Refusal id={`${id}-size-err`} message={refusal('batchSize')} />
             </dd>
           </div>
           <div className="bs-span2">
@@ -256,7 +306,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <label htmlFor={`${id}-vessel`}>Vessel</label>
             </dt>
             <dd>
-              <input id={`${id}-vessel`} className="bs-no-print" value={vessel} onChange={(e) => setVessel(e.target.value)} />
+              <input
+                id={`${id}-vessel`}
+                className="bs-no-print"
+                value={draft('vessel', vessel)}
+                aria-invalid={refusal('vessel') ? true : undefined}
+                aria-describedby={refusal('vessel') ? `${id}-vessel-err` : undefined}
+                onChange={(e) => setVessel(e.target.value)}
+              />
+              <Refusal id={`${id}-vessel-err`} message={refusal('vessel')} />
               <span className="bs-print-only">{vessel || '____________'}</span>
             </dd>
           </div>
@@ -371,9 +429,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <textarea
                 id={`${id}-steps-text`}
                 rows={Math.max(6, steps.length + 2)}
-                value={stepsText}
-                onChange={(e) => setInputs({ instructions: e.target.value })}
+                value={draft('instructions', stepsText)}
+                aria-invalid={refusal('instructions') ? true : undefined}
+                aria-describedby={refusal('instructions') ? `${id}-steps-err` : undefined}
+                onChange={(e) => setInputs({ instructions: e.target.value }, 'instructions')}
               />
+              <Refusal id={`${id}-steps-err`} message={refusal('instructions')} />
             </div>
           ) : null}
           <ol className={editingSteps ? 'bs-print-only' : undefined}>

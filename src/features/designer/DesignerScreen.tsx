@@ -2,6 +2,7 @@ import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from
 import type { BlendTargets, Recipe } from '../../core/formulation/model';
 import { Notice } from '../../components/notices';
 import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
 import { deriveDraft } from './derive';
@@ -74,6 +75,8 @@ export default function DesignerScreen() {
     }, 0);
   }, [settings.blendMethod]);
 
+  const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
+
   const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density), [density]);
 
   const inRecipe = new Set(lines.map((l) => l.componentId));
@@ -133,19 +136,35 @@ export default function DesignerScreen() {
             onName={actions.setName}
             onSaveNew={(n) => {
               const s = useDesignerStore.getState();
-              const id = recipeActions.addRecipe({ name: n, grade: s.targets.grade, lines: s.lines });
+              // The same field rules as storage: refuse before anything is written.
+              const refused = firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel));
+              if (refused) return refused;
+              let id: string;
+              try {
+                id = recipeActions.addRecipe({ name: n, grade: s.targets.grade, lines: s.lines });
+              } catch (e) {
+                return (e as Error).message;
+              }
               recipeActions.setTargets(id, s.targets);
               recipeActions.setActiveRecipe(id);
               s.markSaved(id);
               s.setName(n);
+              return null;
             }}
             onSaveOver={(id, raise) => {
               const s = useDesignerStore.getState();
+              const target = recipes.find((r) => r.id === id);
+              const refused = firstProblem([
+                ...(target ? recipeProblems({ ...target, lines: s.lines, grade: s.targets.grade }) : []),
+                ...targetsProblems(s.targets, target ? recipeWho(target.name) : undefined, stockLabel),
+              ]);
+              if (refused) return refused;
               recipeActions.setLines(id, s.lines);
               recipeActions.updateRecipe(id, { grade: s.targets.grade });
               recipeActions.setTargets(id, s.targets);
               if (raise) recipeActions.raiseRevision(id);
               s.markSaved(id);
+              return null;
             }}
           />
         </div>
@@ -255,39 +274,63 @@ function SaveBox({
   dirty: boolean;
   canSave: boolean;
   onName: (n: string) => void;
-  onSaveNew: (name: string) => void;
-  onSaveOver: (id: string, raiseRevision: boolean) => void;
+  /** Save as a new recipe; null, or why nothing was saved. */
+  onSaveNew: (name: string) => string | null;
+  /** Save over a recipe; null, or why nothing was saved. */
+  onSaveOver: (id: string, raiseRevision: boolean) => string | null;
 }) {
   const id = useId();
   const [raise, setRaise] = useState(true);
   const [saved, setSaved] = useState('');
-  const finalName = name.trim() || `Gear oil VG ${grade} — new recipe`;
+  const [refused, setRefused] = useState('');
+  // The name as typed: kept here while the field rules refuse it, so the draft never holds it.
+  const [draft, setDraft] = useState(name);
+  useEffect(() => setDraft(name), [name]);
+  const nameError = checkText('recipeName', draft);
+  const finalName = draft.trim() || `Gear oil VG ${grade} — new recipe`;
+  const report = (message: string | null, ok: string) => {
+    setRefused(message ?? '');
+    setSaved(message ? '' : ok);
+  };
   return (
     <section className="save-box" aria-labelledby={`${id}-h`}>
       <h3 id={`${id}-h`}>Save</h3>
       <div className="save-row">
         <label htmlFor={id}>Recipe name</label>
-        <input id={id} type="text" value={name} placeholder={finalName} onChange={(e) => onName(e.target.value)} size={40} />
+        <input
+          id={id}
+          type="text"
+          value={draft}
+          placeholder={finalName}
+          size={40}
+          aria-invalid={nameError ? true : undefined}
+          aria-describedby={nameError ? `${id}-err` : undefined}
+          onChange={(e) => {
+            setDraft(e.target.value);
+            if (!checkText('recipeName', e.target.value)) onName(e.target.value);
+          }}
+        />
         <button
           type="button"
-          disabled={!canSave}
-          onClick={() => {
-            onSaveNew(finalName);
-            setSaved(`Saved as a new recipe: ${finalName}.`);
-          }}
+          disabled={!canSave || Boolean(nameError)}
+          onClick={() => report(onSaveNew(finalName), `Saved as a new recipe: ${finalName}.`)}
         >
           Save as new recipe
         </button>
       </div>
+      {nameError && (
+        <p id={`${id}-err`} className="field-msg field-error" role="alert">
+          {nameError}. Nothing is saved until it is shortened.
+        </p>
+      )}
       {sourceRecipe && (
         <div className="save-row">
           <button
             type="button"
             disabled={!canSave || !dirty}
-            onClick={() => {
-              onSaveOver(sourceRecipe.id, raise);
-              setSaved(`Saved over ${sourceRecipe.name}${raise ? ` (revision ${sourceRecipe.revision + 1})` : ''}.`);
-            }}
+            onClick={() =>
+              report(onSaveOver(sourceRecipe.id, raise), `Saved over ${sourceRecipe.name}${raise ? ` (revision ${sourceRecipe.revision + 1})` : ''}.`)
+            }
           >
             Save changes to “{sourceRecipe.name}”
           </button>
@@ -295,6 +338,11 @@ function SaveBox({
             <input type="checkbox" checked={raise} onChange={(e) => setRaise(e.target.checked)} /> raise the revision
           </label>
         </div>
+      )}
+      {refused && (
+        <p className="field-msg field-error" role="alert">
+          Not saved: {refused}.
+        </p>
       )}
       <p role="status" className="muted">
         {saved}

@@ -51,3 +51,43 @@ describe('Blend sheet screen (stores wired)', () => {
     expect(within(pour).getByText('°F')).toBeTruthy();
   });
 });
+
+describe('Blend sheet fields keep to the stored limits (issue 10 item 1)', () => {
+  it('refuses a 500-character lot and vessel, 25,000 characters of instructions and a 40-digit batch size, keeping the saved values', () => {
+    render(<BlendSheetScreen />);
+    const lot = screen.getByLabelText('Batch / lot no.') as HTMLInputElement;
+    fireEvent.change(lot, { target: { value: 'L-7' } });
+    fireEvent.change(lot, { target: { value: 'L'.repeat(500) } });
+    // Limits from src/state/field-rules.ts (lot 120, vessel 120, instructions 20,000 characters; batch ≤ 1e7)
+    expect(screen.getByText(/The lot number is 500 characters long; at most 120 can be saved\. Not saved/)).toBeTruthy();
+    expect(lot.value).toBe('L'.repeat(500)); // still shown for the user to shorten
+    expect(useRecipes.getState().sheets['demo-vg320']!.lot).toBe('L-7');
+
+    fireEvent.change(screen.getByLabelText('Vessel'), { target: { value: 'V'.repeat(500) } });
+    expect(screen.getByText(/The vessel is 500 characters long/)).toBeTruthy();
+    fireEvent.change(screen.getByLabelText('Batch size'), { target: { value: '1234567890123456789012345678901234567890' } });
+    expect(screen.getByText(/The batch size 1\.23457e\+39 is outside the possible range \(above 0 and at most 10000000\)/)).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Edit instructions' }));
+    fireEvent.change(screen.getByLabelText('Instructions, one step per line'), { target: { value: 'x'.repeat(25_000) } });
+    expect(screen.getByText(/The text of the blending instructions is 25000 characters long; at most 20000/)).toBeTruthy();
+
+    const stored = useRecipes.getState().sheets['demo-vg320']!;
+    expect(stored.vessel).toBe('');
+    expect(stored.batchSize).toBe('1000');
+    expect(stored.instructions).toBeNull();
+
+    // A value within the rules is saved again and the message goes.
+    fireEvent.change(lot, { target: { value: 'L-8' } });
+    expect(useRecipes.getState().sheets['demo-vg320']!.lot).toBe('L-8');
+    expect(screen.queryByText(/The lot number is/)).toBeNull();
+  });
+
+  it('the store itself refuses what the rules refuse (the last guard)', () => {
+    expect(recipeActions.setSheetInputs('demo-vg320', { lot: 'L'.repeat(500) })).toMatch(/lot number is 500 characters/);
+    expect(recipeActions.setSheetInputs('demo-vg320', { batchSize: '5e40' }, Number)).toMatch(/batch size 5e\+40 is outside/);
+    expect(useRecipes.getState().sheets['demo-vg320']?.lot ?? '').not.toMatch(/^L{500}$/);
+    expect(recipeActions.updateRecipe('demo-vg320', { name: 'x'.repeat(5000) })).toMatch(/recipe name is 5000 characters long/);
+    expect(useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!.name).not.toBe('x'.repeat(5000));
+    expect(() => recipeActions.addRecipe({ name: 'y'.repeat(5000), grade: 320 })).toThrow(/recipe name is 5000 characters long/);
+  });
+});

@@ -126,4 +126,21 @@ describe('Solve', () => {
     expect(screen.getByTestId('infeasible-reason').textContent).toMatch(/mm²\/s/);
     expect(screen.getByText(/Suggested fix/)).toBeTruthy();
   });
+
+  it('refuses a 5,000-character recipe name at entry and saves nothing (issue 10 item 1)', () => {
+    render(<DesignerScreen />);
+    const before = useRecipes.getState().recipes.length;
+    const name = screen.getByLabelText('Recipe name') as HTMLInputElement;
+    fireEvent.change(name, { target: { value: 'n'.repeat(5000) } });
+    // Limit from src/state/field-rules.ts (recipe name: 200 characters)
+    expect(screen.getByText(/The recipe name is 5000 characters long; at most 200 can be saved/)).toBeTruthy();
+    const save = screen.getByRole('button', { name: 'Save as new recipe' }) as HTMLButtonElement;
+    expect(save.disabled).toBe(true);
+    fireEvent.click(save);
+    expect(useRecipes.getState().recipes.length).toBe(before);
+    expect(useDesignerStore.getState().name).not.toBe('n'.repeat(5000));
+    fireEvent.change(name, { target: { value: 'VG 320 trial' } });
+    expect(screen.queryByText(/The recipe name is/)).toBeNull();
+    expect(useDesignerStore.getState().name).toBe('VG 320 trial');
+  });
 });
