@@ -165,8 +165,17 @@ export type {
   SubstituteSearchProgress,
   SubstituteSearchResult,
   SubstituteCandidate,
+  SearchShard,
 } from './search/substitutes';
-export { createSubstituteSearch, searchSubstitutes, DEFAULT_MAX_COMPONENTS } from './search/substitutes';
+export {
+  createSubstituteSearch,
+  searchSubstitutes,
+  mergeSubstituteResults,
+  rankCandidates,
+  DEFAULT_MAX_COMPONENTS,
+} from './search/substitutes';
+export type { SupportBound } from './search/support';
+export { supportBound, sizeCanMatter, combinationCanMatter } from './search/support';
 export type { FrontierPoint, FrontierSweepInput } from './search/frontier';
 export { paretoFrontier, epsilonConstraintSweep } from './search/frontier';
 export type { ComparisonInput, Comparison, Delta, Change, RecipeAssessment } from './formulation/comparison';

@@ -28,6 +28,7 @@ import { BlendbenchInputError } from '../errors';
 import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../formulation/model';
 import { paretoFrontier } from './frontier';
 import { prepareComponents, solvePrepared, type PreparedProblem } from '../solver/solve-blend';
+import { combinationCanMatter, sizeCanMatter, supportBound } from './support';
 
 /** Default largest number of free components per combination (issue 3: k = 4). */
 export const DEFAULT_MAX_COMPONENTS = 4;
@@ -49,6 +50,8 @@ export interface SubstituteSearchInput {
   method?: BlendMethod;
   /** Keep at most this many ranked candidates in the result (default: all). The frontier is always complete. */
   limit?: number;
+  /** Run one shard of the combinations (parallel workers); default: all. */
+  shard?: SearchShard;
 }
 
 /** One distinct substitute recipe. */
@@ -75,6 +78,11 @@ export interface SubstituteCandidate {
   rank: number;
   /** On the cost–aniline Pareto frontier. */
   onFrontier: boolean;
+  /**
+   * Sequence number of the combination that produced it (sizes ascending, lexicographic): the
+   * tie-break when the results of parallel shards are merged.
+   */
+  foundAt: number;
 }
 
 export interface SubstituteSearchProgress {
@@ -94,6 +102,11 @@ export interface SubstituteSearchProgress {
    */
   skipped: number;
   done: boolean;
+  /**
+   * Every combination of this many free stocks or fewer has been settled: the candidates so far are
+   * final for recipes of up to this many free stocks (0 before the first size is through).
+   */
+  completedSize: number;
 }
 
 export interface SubstituteSearchResult extends SubstituteSearchProgress {
@@ -185,6 +198,8 @@ interface Found {
   kv100: number;
   vi: number | null;
   density15: number;
+  /** Sequence number of the combination that produced it. */
+  foundAt: number;
 }
 
 /**
@@ -210,94 +225,211 @@ export function createSubstituteSearch(input: SubstituteSearchInput): Substitute
   const extra = new Set(input.withdrawn ?? []);
   const library = input.components.map((c) => (extra.has(c.id) && c.availability !== 'withdrawn' ? { ...c, availability: 'withdrawn' as const } : c));
   const P = prepareComponents(library, input.targets, input.method ?? 'refutas', input.reference ?? null);
-  return searchPrepared(P, k, limit);
+  return searchPrepared(P, k, limit, input.shard);
+}
+
+/** One of `count` shards of a search: the combinations whose sequence number ≡ index (mod count). */
+export interface SearchShard {
+  index: number;
+  count: number;
 }
 
 /**
  * The chunked search over an already prepared problem (shared by the plain API).
  *
+ * Per combination (sizes ascending, lexicographic within a size; sequence numbers from 0):
+ * 1. sizes that no combination can fully use (the support bound, `support.ts`) are settled whole;
+ * 2. a combination that cannot use all its members (same bound, with its polymer and bounded
+ *    members) is settled without an LP;
+ * 3. least cost only: a combination whose cheapest conceivable blend (`pairLowerBounds`) is no
+ *    cheaper than a sub-combination's optimum is settled without an LP;
+ * 4. every other combination is solved (`solvePrepared`).
+ * Settled combinations add no recipe: their optimum is a sub-combination's, found earlier.
+ *
  * @param P Prepared problem (`prepareComponents`, or `preparePlain` for the plain API).
  * @param k Largest number of free components per combination.
  * @param limit Candidates kept in the result.
+ * @param shard Run only one shard of the combinations (parallel workers; merge the shards'
+ *   results with {@link mergeSubstituteResults}). Default: all of them.
  */
-export function searchPrepared(P: PreparedProblem, k: number, limit = Number.POSITIVE_INFINITY): SubstituteSearch {
+export function searchPrepared(
+  P: PreparedProblem,
+  k: number,
+  limit = Number.POSITIVE_INFINITY,
+  shard: SearchShard = { index: 0, count: 1 },
+): SubstituteSearch {
   const forcedSet = new Set(P.forced.filter((i) => P.components[i]!.usable));
+  const forced = [...forcedSet].sort((a, b) => a - b);
   const pool = P.usableIndices.filter((i) => !forcedSet.has(i));
   const m = pool.length;
   const minSize = forcedSet.size > 0 ? 0 : 1;
   const maxSize = Math.min(k, m);
-  let total = 0;
-  for (let s = minSize; s <= maxSize; s++) total += binomial(m, s);
-  const cursor = new CombinationCursor(m, minSize, maxSize);
+  const { index: shardIndex, count: shardCount } = shard;
+  if (!(Number.isInteger(shardCount) && shardCount >= 1 && Number.isInteger(shardIndex) && shardIndex >= 0 && shardIndex < shardCount)) {
+    throw new BlendbenchInputError('shard', shard, `searchPrepared: shard ${shardIndex} of ${shardCount} does not exist`);
+  }
+  /** How many of the sequence numbers [from, from + n) belong to this shard. */
+  const share = (from: number, n: number): number => {
+    if (shardCount === 1) return n;
+    const first = from + ((shardIndex - (from % shardCount) + shardCount) % shardCount);
+    return first >= from + n ? 0 : Math.floor((from + n - 1 - first) / shardCount) + 1;
+  };
+  let allCombinations = 0;
+  for (let s = minSize; s <= maxSize; s++) allCombinations += binomial(m, s);
+  const total = share(0, allCombinations);
   const sense = P.targets.objective === 'oxidation' ? -1 : 1;
-  // Exact pruning (least cost only): see pairLowerBounds.
-  const bound = P.targets.objective === 'cost' && maxSize >= 2 ? pairLowerBounds(P, pool) : null;
-  /** Optimum cost per combination of size < maxSize (+∞ if infeasible), by combination code. */
-  const optOf = new Map<number, number>();
+  const support = supportBound(P, pool);
+  // Exact pruning (least cost only): see pairLowerBounds. Combination codes in base m + 1 must stay
+  // exact integers; beyond 2^53 that pruning is left out (it is an acceleration, not a rule).
   const base = m + 1;
+  const codesExact = Math.pow(base, maxSize) < Number.MAX_SAFE_INTEGER;
+  const bound = P.targets.objective === 'cost' && maxSize >= 2 && codesExact ? pairLowerBounds(P, pool) : null;
+  // The largest size with combinations to solve; optima are kept only for the sizes below it.
+  let lastSize = maxSize;
+  while (lastSize > minSize && !sizeCanMatter(support, lastSize)) lastSize--;
+  /** Optimum cost per combination of size < lastSize (+∞ if infeasible), by combination code. */
+  const optOf = new Map<number, number>();
+  // Keys of used sets: a number (indices in base n + 1) while exact, else the joined ids.
+  const keyBase = P.n + 1;
+  const numericKeys = Math.pow(keyBase, maxSize + forced.length) < Number.MAX_SAFE_INTEGER;
+  const found = new Map<number | string, Found>();
   let skipped = 0;
-  const found = new Map<string, Found>();
   let evaluated = 0;
   let feasible = 0;
   let lpCount = 0;
   let done = total === 0;
+  // Cursor state: the current size, its combination (pool positions), the next sequence number.
+  let size = minSize;
+  const comb: number[] = [];
+  let levelOpen = false;
+  let seq = 0;
+  let completedSize = minSize - 1;
   const subset: number[] = [];
+  const used: number[] = [];
 
-  const progress = (): SubstituteSearchProgress => ({ evaluated, total, feasible, distinct: found.size, lpCount, skipped, done });
+  /** Move to the next combination; false when every size is through. */
+  const advance = (): boolean => {
+    for (;;) {
+      if (!levelOpen) {
+        if (size > maxSize) return false;
+        const count = binomial(m, size);
+        if (!sizeCanMatter(support, size)) {
+          // No combination of this size can need all its members: settle the size whole.
+          const mine = share(seq, count);
+          evaluated += mine;
+          skipped += mine;
+          seq += count;
+          completedSize = size++;
+          continue;
+        }
+        comb.length = size;
+        for (let j = 0; j < size; j++) comb[j] = j;
+        levelOpen = true;
+        return true;
+      }
+      let i = size - 1;
+      while (i >= 0 && comb[i] === m - size + i) i--;
+      if (i < 0) {
+        levelOpen = false;
+        completedSize = size++;
+        continue;
+      }
+      comb[i]!++;
+      for (let j = i + 1; j < size; j++) comb[j] = comb[j - 1]! + 1;
+      return true;
+    }
+  };
+
+  const progress = (): SubstituteSearchProgress => ({
+    evaluated,
+    total,
+    feasible,
+    distinct: found.size,
+    lpCount,
+    skipped,
+    done,
+    completedSize: Math.max(0, Math.min(completedSize, maxSize)),
+  });
 
   const step = (budget: number): SubstituteSearchProgress => {
     let left = Math.max(1, Math.floor(budget));
     while (!done && left > 0) {
-      const comb = cursor.next();
-      if (comb === null) {
+      if (!advance()) {
         done = true;
         break;
       }
-      const size = comb.length;
+      const order = seq++;
+      if (shardCount > 1 && order % shardCount !== shardIndex) continue;
       evaluated++;
       left--;
       let code = 0;
-      if (bound) for (let j = 0; j < size; j++) code = code * base + comb[j]! + 1;
+      if (bound && size <= lastSize) for (let j = 0; j < size; j++) code = code * base + comb[j]! + 1;
+      const fullyUsable = combinationCanMatter(support, comb, size);
       // Skip when no blend of the combination can be cheaper than its best sub-combination: then its
       // optimum IS that sub-combination's recipe, already found (one component fewer, size order).
-      if (bound && size > minSize) {
+      const keep = bound !== null && size < lastSize;
+      if (bound && size > minSize && (fullyUsable || keep)) {
         let bestSub = Number.POSITIVE_INFINITY;
+        let allSubsKnown = true;
         let lb = Number.POSITIVE_INFINITY;
         for (let j = 0; j < size; j++) {
           let sub = 0;
           for (let q = 0; q < size; q++) if (q !== j) sub = sub * base + comb[q]! + 1;
           const v = optOf.get(sub);
-          if (v !== undefined && v < bestSub) bestSub = v;
+          if (v === undefined) allSubsKnown = false;
+          else if (v < bestSub) bestSub = v;
+          if (!fullyUsable) continue;
           for (let q = j + 1; q < size; q++) {
             const b = bound.pair[comb[j]! * m + comb[q]!]!;
             if (b < lb) lb = b;
           }
         }
-        if (size === 1) lb = bound.pair[comb[0]! * m + comb[0]!]!;
-        lb = Math.min(lb, bound.withForced(comb));
-        if (Number.isFinite(bestSub) ? lb >= bestSub * (1 - 1e-9) : lb === Number.POSITIVE_INFINITY) {
+        if (!fullyUsable) {
+          // Settled by the support bound: its optimum is the best sub-combination's.
           skipped++;
-          if (size < maxSize) optOf.set(code, bestSub);
+          if (keep && allSubsKnown) optOf.set(code, bestSub);
           continue;
         }
+        if (size === 1) lb = bound.pair[comb[0]! * m + comb[0]!]!;
+        lb = Math.min(lb, bound.withForced(comb));
+        // (With a partial view of the sub-combinations — a shard — one known sub-combination at
+        // least as cheap as the bound still proves the optimum equal to it.)
+        if (Number.isFinite(bestSub) ? lb >= bestSub * (1 - 1e-9) : allSubsKnown && lb === Number.POSITIVE_INFINITY) {
+          skipped++;
+          if (keep) optOf.set(code, bestSub);
+          continue;
+        }
+      } else if (!fullyUsable) {
+        skipped++;
+        continue;
       }
       subset.length = size;
       for (let j = 0; j < size; j++) subset[j] = pool[comb[j]!]!;
       const r = solvePrepared(P, subset);
       lpCount += r.lpCount;
-      if (bound && size < maxSize) optOf.set(code, r.status === 'optimal' ? r.costPerLitre : Number.POSITIVE_INFINITY);
+      if (keep) optOf.set(code, r.status === 'optimal' ? r.costPerLitre : Number.POSITIVE_INFINITY);
       if (r.status !== 'optimal') continue;
       feasible++;
-      const used: number[] = [];
-      for (let i = 0; i < P.n; i++) if (r.massFractions[i]! > USED_FRACTION) used.push(i);
-      const key = used.map((i) => P.components[i]!.id).join('+');
+      // Used components, library order: the subset (ascending) merged with the forced ones.
+      used.length = 0;
+      let a = 0;
+      let f = 0;
+      while (a < size || f < forced.length) {
+        const i = f >= forced.length || (a < size && subset[a]! < forced[f]!) ? subset[a++]! : forced[f++]!;
+        if (r.massFractions[i]! > USED_FRACTION) used.push(i);
+      }
+      let key: number | string;
+      if (numericKeys) {
+        key = 0;
+        for (const i of used) key = key * keyBase + i + 1;
+      } else key = used.map((i) => P.components[i]!.id).join('+');
       const objectiveValue = P.targets.objective === 'cost' ? r.costPerLitre : r.objectiveValue;
       const prev = found.get(key);
       if (prev && sense * prev.objectiveValue <= sense * objectiveValue) continue;
       found.set(key, {
-        key,
-        used,
-        w: r.massFractions.slice(),
+        key: typeof key === 'string' ? key : used.map((i) => P.components[i]!.id).join('+'),
+        used: used.slice(),
+        w: r.massFractions,
         objectiveValue,
         costPerLitre: r.costPerLitre,
         anilinePoint: r.anilinePoint,
@@ -305,24 +437,17 @@ export function searchPrepared(P: PreparedProblem, k: number, limit = Number.POS
         kv100: r.kv100,
         vi: r.vi,
         density15: r.density15,
+        foundAt: order,
       });
     }
+    // Every combination of this shard settled: the rest of the sequence belongs to other shards.
     if (evaluated >= total) done = true;
+    if (done) completedSize = maxSize;
     return progress();
   };
 
   const result = (): SubstituteSearchResult => {
-    const all = [...found.values()].sort(
-      (a, b) => sense * (a.objectiveValue - b.objectiveValue) || a.costPerLitre - b.costPerLitre || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0),
-    );
-    const frontierKeys = new Set(
-      paretoFrontier(
-        all.filter((f) => f.anilinePoint !== null),
-        (f) => f.costPerLitre,
-        (f) => f.anilinePoint!,
-      ).map((f) => f.key),
-    );
-    const toCandidate = (f: Found, rank: number): SubstituteCandidate => {
+    const toCandidate = (f: Found): SubstituteCandidate => {
       let bw = 0;
       let bo = 0;
       for (const i of f.used) {
@@ -342,23 +467,19 @@ export function searchPrepared(P: PreparedProblem, k: number, limit = Number.POS
         vi: f.vi,
         density15: f.density15,
         oxidationRating: bw > 0 ? bo / bw : null,
-        rank,
-        onFrontier: frontierKeys.has(f.key),
+        rank: 0,
+        onFrontier: false,
+        foundAt: f.foundAt,
       };
     };
-    const ranked = all.map((f, i) => toCandidate(f, i + 1));
-    const frontier = paretoFrontier(
-      ranked.filter((c) => c.onFrontier),
-      (c) => c.costPerLitre,
-      (c) => c.anilinePoint!,
-    );
+    const ranked = rankCandidates([...found.values()].map(toCandidate), P.targets.objective);
     return {
       ...progress(),
       objective: P.targets.objective,
-      candidates: Number.isFinite(limit) ? ranked.slice(0, limit) : ranked,
-      frontier,
+      candidates: Number.isFinite(limit) ? ranked.candidates.slice(0, limit) : ranked.candidates,
+      frontier: ranked.frontier,
       excludedIds: P.components.filter((c) => !c.usable).map((c) => c.id),
-      forcedIds: [...forcedSet].map((i) => P.components[i]!.id),
+      forcedIds: forced.map((i) => P.components[i]!.id),
       poolIds: pool.map((i) => P.components[i]!.id),
       maxComponents: k,
       band: { min: P.targets.kv40Min, max: P.targets.kv40Max },
@@ -366,6 +487,93 @@ export function searchPrepared(P: PreparedProblem, k: number, limit = Number.POS
   };
 
   return { total, step, progress, result };
+}
+
+/**
+ * Rank candidates by the objective (then cost per litre, then key), number them from 1 and mark the
+ * cost–aniline Pareto frontier (over all of them).
+ *
+ * @param candidates - one per distinct key (rank and onFrontier are overwritten in copies)
+ * @param objective - the ranking objective ('oxidation' ranks high first, the others low first)
+ * @returns the ranked candidates and the frontier (cost ascending)
+ */
+export function rankCandidates(
+  candidates: readonly SubstituteCandidate[],
+  objective: Objective,
+): { candidates: SubstituteCandidate[]; frontier: SubstituteCandidate[] } {
+  const sense = objective === 'oxidation' ? -1 : 1;
+  const all = [...candidates].sort(
+    (a, b) => sense * (a.objectiveValue - b.objectiveValue) || a.costPerLitre - b.costPerLitre || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0),
+  );
+  const frontierKeys = new Set(
+    paretoFrontier(
+      all.filter((f) => f.anilinePoint !== null),
+      (f) => f.costPerLitre,
+      (f) => f.anilinePoint!,
+    ).map((f) => f.key),
+  );
+  const ranked = all.map((c, i) => ({ ...c, rank: i + 1, onFrontier: frontierKeys.has(c.key) }));
+  const frontier = paretoFrontier(
+    ranked.filter((c) => c.onFrontier),
+    (c) => c.costPerLitre,
+    (c) => c.anilinePoint!,
+  );
+  return { candidates: ranked, frontier };
+}
+
+/**
+ * Merge the results of the shards of one search (each run with no `limit`) into the result the
+ * whole search would give: per key the better objective value (an exact tie goes to the candidate
+ * found at the earlier combination, as in one run), counters added, ranked again.
+ *
+ * @param parts - one result per shard (any order; at least one)
+ * @param limit - candidates kept (default: all)
+ * @returns the merged result; `done` only when every shard is done, `completedSize` the least of theirs
+ */
+export function mergeSubstituteResults(parts: readonly SubstituteSearchResult[], limit = Number.POSITIVE_INFINITY): SubstituteSearchResult {
+  const first = parts[0]!;
+  const sense = first.objective === 'oxidation' ? -1 : 1;
+  const best = new Map<string, SubstituteCandidate>();
+  let evaluated = 0;
+  let total = 0;
+  let feasible = 0;
+  let lpCount = 0;
+  let skipped = 0;
+  let done = true;
+  let completedSize = Number.POSITIVE_INFINITY;
+  for (const part of parts) {
+    evaluated += part.evaluated;
+    total += part.total;
+    feasible += part.feasible;
+    lpCount += part.lpCount;
+    skipped += part.skipped;
+    done &&= part.done;
+    completedSize = Math.min(completedSize, part.completedSize);
+    for (const c of part.candidates) {
+      const prev = best.get(c.key);
+      if (
+        !prev ||
+        sense * c.objectiveValue < sense * prev.objectiveValue ||
+        (c.objectiveValue === prev.objectiveValue && c.foundAt < prev.foundAt)
+      ) {
+        best.set(c.key, c);
+      }
+    }
+  }
+  const ranked = rankCandidates([...best.values()], first.objective);
+  return {
+    ...first,
+    evaluated,
+    total,
+    feasible,
+    lpCount,
+    skipped,
+    done,
+    completedSize: Number.isFinite(completedSize) ? completedSize : 0,
+    distinct: best.size,
+    candidates: Number.isFinite(limit) ? ranked.candidates.slice(0, limit) : ranked.candidates,
+    frontier: ranked.frontier,
+  };
 }
 
 /**

@@ -3,12 +3,13 @@ import {
   binomial,
   CombinationCursor,
   createSubstituteSearch,
+  mergeSubstituteResults,
   searchSubstitutes,
   type SubstituteSearchResult,
 } from '../../../src/core/search/substitutes';
 import { prepareComponents, solvePrepared } from '../../../src/core/solver/solve-blend';
 import { predictBlend } from '../../../src/core/formulation/blend-properties';
-import type { Component } from '../../../src/core/formulation/model';
+import type { BlendTargets, Component } from '../../../src/core/formulation/model';
 import { benchTargets, inventedAdditive, inventedLibrary40 } from '../../../bench/fixtures/invented-library-40';
 import { isClose } from '../../helpers/tolerance';
 
@@ -36,10 +37,11 @@ describe('combinations', () => {
   });
 });
 
-/** Unpruned brute force: every combination solved by the engine; best cost per used set. */
-function bruteForce(lib: Component[], k: number, withdrawn: string[] = []): Map<string, number> {
+/** Unpruned brute force: every combination solved by the engine; best objective value per used set. */
+function bruteForce(lib: Component[], k: number, withdrawn: string[] = [], tg: BlendTargets = targets): Map<string, number> {
   const libW = lib.map((c) => (withdrawn.includes(c.id) ? { ...c, availability: 'withdrawn' as const } : c));
-  const P = prepareComponents(libW, targets);
+  const P = prepareComponents(libW, tg);
+  const sense = tg.objective === 'oxidation' ? -1 : 1;
   const forced = new Set(P.forced);
   const pool = P.usableIndices.filter((i) => !forced.has(i));
   const best = new Map<string, number>();
@@ -51,8 +53,9 @@ function bruteForce(lib: Component[], k: number, withdrawn: string[] = []): Map<
           .filter((_, i) => r.massFractions[i]! > 1e-6)
           .map((c) => c.id)
           .join('+');
+        const value = tg.objective === 'cost' ? r.costPerLitre : r.objectiveValue;
         const prev = best.get(key);
-        if (prev === undefined || r.costPerLitre < prev) best.set(key, r.costPerLitre);
+        if (prev === undefined || sense * value < sense * prev) best.set(key, value);
       }
     }
     if (chosen.length === k) return;
@@ -64,7 +67,7 @@ function bruteForce(lib: Component[], k: number, withdrawn: string[] = []): Map<
 
 function expectSameCandidates(r: SubstituteSearchResult, want: Map<string, number>): void {
   expect(r.candidates.map((c) => c.key).sort()).toEqual([...want.keys()].sort());
-  for (const c of r.candidates) expect(isClose(c.costPerLitre, want.get(c.key)!, 1e-9)).toBe(true);
+  for (const c of r.candidates) expect(isClose(c.objectiveValue, want.get(c.key)!, 1e-9)).toBe(true);
 }
 
 describe('substitute search', () => {
@@ -157,6 +160,72 @@ describe('substitute search', () => {
     for (let i = 1; i < r.candidates.length; i++) {
       expect(r.candidates[i]!.anilinePoint!).toBeGreaterThanOrEqual(r.candidates[i - 1]!.anilinePoint! - 1e-9);
     }
+  });
+
+  it('equals an unpruned brute force up to 5 stocks with an aniline limit and a capped stock (support bound)', () => {
+    // exhaustive enumeration; the sizes the support bound settles whole must hide no recipe
+    const twelve = [...inventedLibrary40().slice(0, 12), additive];
+    const tg: BlendTargets = { ...targets, maxAnilinePoint: 118, bounds: { [twelve[4]!.id]: { min: 0, max: 0.3 } } };
+    const r = searchSubstitutes({ components: twelve, targets: tg, maxComponents: 5 });
+    expect(r.skipped).toBeGreaterThan(0);
+    expectSameCandidates(r, bruteForce(twelve, 5, [], tg));
+  });
+
+  it('equals an unpruned brute force for the solvency objective, up to 4', () => {
+    // exhaustive enumeration; the tie-break row counts toward the support bound
+    const tg: BlendTargets = { ...targets, objective: 'solvency' };
+    const r = searchSubstitutes({ components: small.slice(0, 12).concat(additive), targets: tg, maxComponents: 4 });
+    expectSameCandidates(r, bruteForce(small.slice(0, 12).concat(additive), 4, [], tg));
+  });
+
+  it('settles whole sizes the support bound rules out: up to 5 finds what up to 4 finds', () => {
+    // support bound (src/core/search/support.ts): band + VI + polymer cap → at most 4 free stocks
+    const four = searchSubstitutes({ components: small, targets, maxComponents: 4 });
+    const five = searchSubstitutes({ components: small, targets, maxComponents: 5 });
+    expect(five.total).toBeGreaterThan(four.total);
+    expect(five.lpCount).toBe(four.lpCount);
+    expect(five.candidates.map((c) => [c.key, c.costPerLitre])).toEqual(four.candidates.map((c) => [c.key, c.costPerLitre]));
+  });
+
+  it('shards merge into the one-run result', () => {
+    // determinism: parallel shards must not change the answer (the merge keeps the earlier find on exact ties)
+    const oneShot = searchSubstitutes({ components: small, targets, maxComponents: 4 });
+    for (const count of [2, 3]) {
+      const parts: SubstituteSearchResult[] = [];
+      for (let index = 0; index < count; index++) {
+        const s = createSubstituteSearch({ components: small, targets, maxComponents: 4, shard: { index, count } });
+        while (!s.step(500).done) {
+          /* solve */
+        }
+        parts.push(s.result());
+      }
+      expect(parts.reduce((n, p) => n + p.total, 0)).toBe(oneShot.total);
+      const merged = mergeSubstituteResults(parts);
+      expect(merged.evaluated).toBe(oneShot.total);
+      expect(merged.done).toBe(true);
+      const strip = (r: SubstituteSearchResult) => r.candidates.map(({ foundAt: _f, ...c }) => c);
+      expect(strip(merged)).toEqual(strip(oneShot));
+      expect(merged.frontier.map((c) => c.key)).toEqual(oneShot.frontier.map((c) => c.key));
+    }
+    expect(() => createSubstituteSearch({ components: small, targets, shard: { index: 2, count: 2 } })).toThrow(/shard/);
+  });
+
+  it('candidates of up to completedSize stocks are final while the search runs', () => {
+    // streaming contract (issue 9 item 2): ranked results after each stock count
+    const final = searchSubstitutes({ components: small, targets, maxComponents: 4 });
+    const free = (c: { componentIds: string[] }) => c.componentIds.filter((id) => id !== additive.id).length;
+    const s = createSubstituteSearch({ components: small, targets, maxComponents: 4 });
+    let seen = 0;
+    for (;;) {
+      const p = s.step(25);
+      if (p.completedSize > seen) {
+        seen = p.completedSize;
+        const partial = new Map(s.result().candidates.map((c) => [c.key, c.costPerLitre]));
+        for (const c of final.candidates) if (free(c) <= seen) expect(partial.get(c.key), c.key).toBe(c.costPerLitre);
+      }
+      if (p.done) break;
+    }
+    expect(seen).toBe(4);
   });
 
   it('rejects a bad maxComponents and limits the list on request', () => {
