@@ -79,6 +79,32 @@ export function solveLp(lp: LinearProgram): LpSolution {
   return solveDenseLp(lp.sense, n, c, m, a, lo, hi);
 }
 
+/** A dense LP exactly as given to {@link solveDenseLp} (copies of the arrays). */
+export interface DenseLp {
+  sense: 'minimize' | 'maximize';
+  n: number;
+  objective: Float64Array;
+  m: number;
+  a: Float64Array;
+  lo: Float64Array;
+  hi: Float64Array;
+}
+
+let observer: ((lp: DenseLp) => void) | null = null;
+
+/**
+ * Watch every LP that {@link solveDenseLp} solves from now on (for benchmarks and tests: the
+ * benchmark hands the very same LPs to HiGHS). Pass null to stop.
+ *
+ * @param f - called with a copy of each LP before it is solved, or null
+ * @returns the observer that was set before
+ */
+export function observeDenseLps(f: ((lp: DenseLp) => void) | null): ((lp: DenseLp) => void) | null {
+  const prev = observer;
+  observer = f;
+  return prev;
+}
+
 /**
  * Memory for {@link solveDenseLp}, reused from one LP to the next so that a solve allocates no
  * tableau: the simplex tableau and its two index arrays (grown to the largest LP seen, never
@@ -162,6 +188,17 @@ export function solveDenseLp(
   hi: ArrayLike<number>,
   ws?: LpWorkspace,
 ): LpSolution {
+  if (observer !== null) {
+    observer({
+      sense,
+      n,
+      objective: Float64Array.from({ length: n }, (_, j) => objective[j]!),
+      m,
+      a: Float64Array.from({ length: m * n }, (_, q) => a[q]!),
+      lo: Float64Array.from({ length: m }, (_, r) => lo[r]!),
+      hi: Float64Array.from({ length: m }, (_, r) => hi[r]!),
+    });
+  }
   const work = ws ?? new LpWorkspace();
   const sign = sense === 'minimize' ? -1 : 1;
   let tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);

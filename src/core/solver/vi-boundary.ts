@@ -29,7 +29,7 @@
  *
  * @see ASTM D2270 §7–§8 (procedures A and B), Table 1.
  */
-import { D2270_KV100 as TABLE_KV100 } from '../viscosity/d2270-table1';
+import { D2270_KV100 as TABLE_KV100, D2270_L as TABLE_L, D2270_H as TABLE_H } from '../viscosity/d2270-table1';
 import { VI_MIN_KV100, referenceViscositiesInto } from '../viscosity/viscosity-index';
 import type { BlendCoordinates } from './coordinates';
 
@@ -42,6 +42,8 @@ export interface ViChord {
 // Local references to the Table 1 columns (one property look-up here, not one per access in the
 // inner loops — module bindings can compile to getters under some loaders).
 const D2270_KV100: Float64Array = TABLE_KV100;
+const D2270_L: Float64Array = TABLE_L;
+const D2270_H: Float64Array = TABLE_H;
 
 /**
  * L and H at Y without checks or allocation: `referenceViscositiesInto` of the D2270 module, the
@@ -77,7 +79,11 @@ export class ViBoundary {
    */
   uMax(kv100: number): number {
     referenceLH(kv100, this.lh);
-    const { L, H } = this.lh;
+    return this.uMaxOf(kv100, this.lh.L, this.lh.H);
+  }
+
+  /** U_max at Y = kv100 [mm²/s] from the reference viscosities L and H at that Y [mm²/s]. */
+  private uMaxOf(kv100: number, L: number, H: number): number {
     const m = this.minVi;
     if (m <= 100) return L - (m / 100) * (L - H);
     return H / Math.pow(kv100, this.procedureBExponent);
@@ -157,8 +163,7 @@ export class ViBoundary {
     let delta = 0;
     let slopeA = beta;
     let slopeB = beta;
-    const check = (x100: number): void => {
-      const x40 = this.g(x100);
+    const check = (x100: number, x40: number): void => {
       if (!(x40 > a && x40 < b)) return;
       const excess = ha + beta * (x40 - a) - x100;
       if (excess > delta) delta = excess;
@@ -169,7 +174,10 @@ export class ViBoundary {
     };
     const lo = Math.min(ha, hb);
     const hi = Math.max(ha, hb);
-    for (let k = 1; k < GAP_SAMPLES; k++) check(lo + ((hi - lo) * k) / GAP_SAMPLES);
+    for (let k = 1; k < GAP_SAMPLES; k++) {
+      const x100 = lo + ((hi - lo) * k) / GAP_SAMPLES;
+      check(x100, this.g(x100));
+    }
     const yLo = this.coords.toKvRaw(lo);
     const yHi = this.coords.toKvRaw(hi);
     if (yLo < 70.0) {
@@ -183,13 +191,22 @@ export class ViBoundary {
         if ((D2270_KV100[mid] as number) <= yLo) i = mid;
         else j = mid;
       }
+      // Within a row interval L and H are the linear interpolation of the two rows (the same
+      // arithmetic as referenceLH), so the curve point is computed from Y directly.
+      const { toXRaw } = this.coords;
       for (let r = i; r < D2270_KV100.length - 1; r++) {
         const y0 = D2270_KV100[r] as number;
         if (y0 > yHi) break;
         const y1 = D2270_KV100[r + 1] as number;
-        for (const f of [0, 0.25, 0.5, 0.75]) {
+        const L0 = D2270_L[r] as number;
+        const H0 = D2270_H[r] as number;
+        const dL = (D2270_L[r + 1] as number) - L0;
+        const dH = (D2270_H[r + 1] as number) - H0;
+        for (let q = 0; q < 4; q++) {
+          const f = 0.25 * q;
           const y = y0 + f * (y1 - y0);
-          if (y > yLo && y < yHi) check(this.coords.toXRaw(y));
+          if (!(y > yLo && y < yHi) || y < VI_MIN_KV100) continue;
+          check(toXRaw(y), toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH)));
         }
       }
     }
