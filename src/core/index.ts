@@ -91,6 +91,7 @@ export type {
   QcOptions,
   QcKey,
   QcRow,
+  CsvFixed,
   CsvRecord,
 } from './sheet/blend-sheet';
 export {

@@ -18,6 +18,7 @@ import { checkComponent } from './checks';
 import { COLLECTION_LIMITS } from './field-rules';
 import { blankComponent } from './library';
 import { useLibraryStore } from './library';
+import { restoreCsvText, writeCsv, type CsvCell } from './csv';
 
 export const CSV_COLUMNS = [
   'code',
@@ -206,7 +207,7 @@ export function previewCsv(text: string, existing: readonly Component[]): Import
       const get = (c: CsvColumn): string => {
         const at = index.get(c);
         // Undo the formula-injection guard of our own export ('=x → =x).
-        return at === undefined ? '' : String(cells[at] ?? '').replace(/^'(?=[=+\-@])/, '');
+        return at === undefined ? '' : restoreCsvText(String(cells[at] ?? ''));
       };
       const errors: string[] = [];
       const num = (c: CsvColumn, label: string): number | null => {
@@ -348,40 +349,34 @@ export function applyLibraryImport(preview: ImportPreview): boolean {
 // ---------------------------------------------------------------------------------------------
 // Export
 
-/** Guard against spreadsheet formula injection: a cell starting with = + - @ is prefixed with '. */
-function safeCell(s: string): string {
-  return /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
-}
-
 export function libraryToCsv(components: readonly Component[]): string {
   const rows = components.map((c) => {
     const at = (t: number) => c.viscosityPoints.find((p) => p.tempC === t)?.kv;
-    const n = (v: number | null | undefined) => (v === null || v === undefined ? '' : String(v));
-    const record: Record<CsvColumn, string> = {
-      code: safeCell(c.code),
-      name: safeCell(c.name),
+    const record: Record<CsvColumn, CsvCell> = {
+      code: c.code,
+      name: c.name,
       category: c.category,
-      kv40_mm2s: n(at(40)),
-      kv100_mm2s: n(at(100)),
-      density15_kg_per_l: n(c.density15),
-      aniline_point_c: n(c.anilinePoint),
-      pour_point_c: n(c.pourPoint),
-      flash_point_c: n(c.flashPoint),
-      sulfur_pct: n(c.sulfurPct),
-      saturates_pct: n(c.saturatesPct),
-      price: n(c.price.amount),
+      kv40_mm2s: at(40),
+      kv100_mm2s: at(100),
+      density15_kg_per_l: c.density15,
+      aniline_point_c: c.anilinePoint,
+      pour_point_c: c.pourPoint,
+      flash_point_c: c.flashPoint,
+      sulfur_pct: c.sulfurPct,
+      saturates_pct: c.saturatesPct,
+      price: c.price.amount,
       price_basis: c.price.basis,
-      currency: safeCell(c.price.currency),
+      currency: c.price.currency,
       availability: c.availability,
-      oxidation_rating: n(c.oxidationRating),
-      shear_loss_pct: n(c.shearLossPct),
-      source: safeCell(c.source),
+      oxidation_rating: c.oxidationRating,
+      shear_loss_pct: c.shearLossPct,
+      source: c.source,
       source_date: c.sourceDate,
-      notes: safeCell(c.notes),
+      notes: c.notes,
     };
     return CSV_COLUMNS.map((k) => record[k]);
   });
-  return Papa.unparse({ fields: [...CSV_COLUMNS], data: rows }, { newline: '\r\n' });
+  return writeCsv(CSV_COLUMNS, rows);
 }
 
 export function libraryToJson(components: readonly Component[], exportedAt = new Date().toISOString()): string {

@@ -714,12 +714,22 @@ export const BLEND_SHEET_CAUTIONS: readonly string[] = [
   'Predictions do not replace laboratory tests, specification approval or the equipment builder’s requirements.',
 ];
 
-/** One CSV record of the component table (column header → cell text). */
-export type CsvRecord = Record<string, string>;
+/** A number for a CSV cell, written with a fixed number of decimals (a numeral, never text). */
+export interface CsvFixed {
+  readonly value: number;
+  readonly decimals: number;
+}
 
 /**
- * The component table as CSV records (for `Papa.unparse` in the view), in charging order, with a
- * final totals row. Numbers carry the displayed precision, with a dot as decimal separator.
+ * One CSV record of the component table (column header → cell). Quantities are numbers with the
+ * displayed precision (a spreadsheet reads them as numbers); codes and names are text, which the
+ * CSV writer guards against formula injection.
+ */
+export type CsvRecord = Record<string, string | number | CsvFixed | null>;
+
+/**
+ * The component table as CSV records, in charging order, with a final totals row. Numbers carry the
+ * displayed precision (the columns still add up to the printed totals).
  *
  * @param sheet - the sheet from {@link buildBlendSheet}
  * @param options - `includePrices`: add price per kg and line cost columns (costing copy only)
@@ -730,38 +740,41 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
   const pd = sheet.percentDecimals;
   const priced = options.includePrices === true;
   const currency = sheet.costing.available ? sheet.costing.currency : '';
+  const at = (value: number, decimals: number): CsvFixed => ({ value, decimals });
+  const priceKey = `Price per kg${currency ? ` (${currency})` : ''}`;
+  const costKey = `Line cost${currency ? ` (${currency})` : ''}`;
   const records: CsvRecord[] = sheet.rows.map((r) => {
     const rec: CsvRecord = {
-      'Charge order': String(r.chargeOrder),
+      'Charge order': r.chargeOrder,
       Code: r.code,
       Name: r.name,
       Category: r.categoryLabel,
-      'Mass %': r.massPct.toFixed(pd),
-      'Volume %': r.volumePct.toFixed(pd),
-      kg: r.kg.toFixed(qd),
-      'Litres at 15 °C': r.litres.toFixed(qd),
-      'Running total kg': r.runningKg.toFixed(qd),
+      'Mass %': at(r.massPct, pd),
+      'Volume %': at(r.volumePct, pd),
+      kg: at(r.kg, qd),
+      'Litres at 15 °C': at(r.litres, qd),
+      'Running total kg': at(r.runningKg, qd),
     };
     if (priced) {
-      rec[`Price per kg${currency ? ` (${currency})` : ''}`] = r.pricePerKg === null ? '' : r.pricePerKg.toFixed(4);
-      rec[`Line cost${currency ? ` (${currency})` : ''}`] = r.lineCost === null ? '' : r.lineCost.toFixed(2);
+      rec[priceKey] = r.pricePerKg === null ? null : at(r.pricePerKg, 4);
+      rec[costKey] = r.lineCost === null ? null : at(r.lineCost, 2);
     }
     return rec;
   });
   const total: CsvRecord = {
-    'Charge order': '',
+    'Charge order': null,
     Code: 'TOTAL',
     Name: '',
     Category: '',
-    'Mass %': (100).toFixed(pd),
-    'Volume %': (100).toFixed(pd),
-    kg: sheet.totalKg.toFixed(qd),
-    'Litres at 15 °C': sheet.totalLitres.toFixed(qd),
-    'Running total kg': sheet.totalKg.toFixed(qd),
+    'Mass %': at(100, pd),
+    'Volume %': at(100, pd),
+    kg: at(sheet.totalKg, qd),
+    'Litres at 15 °C': at(sheet.totalLitres, qd),
+    'Running total kg': at(sheet.totalKg, qd),
   };
   if (priced) {
-    total[`Price per kg${currency ? ` (${currency})` : ''}`] = sheet.costing.available ? sheet.costing.perKg.toFixed(4) : '';
-    total[`Line cost${currency ? ` (${currency})` : ''}`] = sheet.costing.available ? sheet.costing.perBatch.toFixed(2) : '';
+    total[priceKey] = sheet.costing.available ? at(sheet.costing.perKg, 4) : null;
+    total[costKey] = sheet.costing.available ? at(sheet.costing.perBatch, 2) : null;
   }
   records.push(total);
   return records;

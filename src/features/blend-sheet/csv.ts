@@ -1,11 +1,11 @@
-// CSV export of the blend sheet's component table: papaparse writes the text, a Blob + object URL
-// hands it to the browser's download. No network.
-import Papa from 'papaparse';
+// CSV export of the blend sheet's component table: the shared CSV writer (formula-injection guard)
+// writes the text, a Blob + object URL hands it to the browser's download. No network.
 import type { CsvRecord } from '../../core/sheet/blend-sheet';
+import { writeCsvRecords } from '../../state/csv';
 
 /** The CSV text of the records (header row from the first record's keys), CRLF line ends. */
 export function toCsv(records: readonly CsvRecord[]): string {
-  return Papa.unparse(records as CsvRecord[], { newline: '\r\n', quotes: false });
+  return writeCsvRecords(records);
 }
 
 /** A file name safe on every platform: letters, digits, dot, dash and underscore only. */

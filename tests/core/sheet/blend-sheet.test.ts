@@ -336,11 +336,12 @@ describe('blendSheetCsvRows and cautions', () => {
     expect(Object.keys(plant[0]!)).toEqual([
       'Charge order', 'Code', 'Name', 'Category', 'Mass %', 'Volume %', 'kg', 'Litres at 15 °C', 'Running total kg',
     ]);
-    expect(plant.at(-1)).toMatchObject({ Code: 'TOTAL', kg: '1000.0', 'Mass %': '100.00' });
-    expect(plant[0]!.kg).toBe('400.0');
+    expect(plant.at(-1)).toMatchObject({ Code: 'TOTAL', kg: { value: 1000, decimals: 1 }, 'Mass %': { value: 100, decimals: 2 } });
+    expect(plant[0]!.kg).toEqual({ value: 400, decimals: 1 });
     const costing = blendSheetCsvRows(s, { includePrices: true });
     // 0.6 × 1.2 + 0.4 × 1.0 = 1.12 per kg × 1000 kg = 1120.00, by hand (check-values D2 form)
-    expect(costing.at(-1)!['Line cost (EUR)']).toBe('1120.00');
+    expect(costing.at(-1)!['Line cost (EUR)']).toMatchObject({ decimals: 2 });
+    expect((costing.at(-1)!['Line cost (EUR)'] as { value: number }).value).toBeCloseTo(1120, 9);
   });
 
   it('says laboratory confirmation is required and defers to SDS and site procedures', () => {
