@@ -1,7 +1,8 @@
 /**
  * Inputs that validate as the user types and commit on Enter or leaving the field (one undo step
- * per edit). An invalid entry is never written: it stays in the field with its message, and Escape
- * puts back the stored value. A warning (implausible but possible) is written and stays visible.
+ * per edit). Enter and Tab commit alike (same checks, same save). An invalid entry is never written:
+ * it stays in the field with its message, and Escape puts back the stored value (the next value
+ * typed is checked and saved like any other). A warning (implausible but possible) is written and stays visible.
  */
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import { useFormat } from './format';
@@ -56,34 +57,42 @@ export function NumberField(props: NumberFieldProps) {
   const fmt = useFormat();
   const id = useId();
   const msgId = `${id}-msg`;
-  const show = (v: number | null) =>
-    v === null ? '' : props.digits === undefined ? fmt.num(v, decimalsOf(v)).replace(/\u202f/g, '') : fmt.num(v, props.digits).replace(/\u202f/g, '');
+  const show = (v: number | null) => (v === null ? '' : fmt.plain(v, props.digits));
   const [draft, setDraft] = useState(() => show(props.value));
-  const [editing, setEditing] = useState(false);
   // Only a value the user typed is committed: a displayed, rounded value is never written back.
+  // While nothing is typed, the field follows the stored value (undo, another tab, another field).
   const [dirty, setDirty] = useState(false);
   useEffect(() => {
-    if (!editing) setDraft(show(props.value));
+    if (!dirty) setDraft(show(props.value));
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [props.value, editing, fmt]);
+  }, [props.value, dirty, fmt]);
 
   const judge = (text: string): { v: number | null; verdict: Verdict } => {
-    const v = fmt.parse(text);
+    const r = fmt.parseEntry(text);
+    if (r.error !== undefined) return { v: null, verdict: { error: `${props.label}: ${r.error}` } };
+    const v = r.value;
     if (v === null) {
       return { v, verdict: props.allowEmpty ? props.validate?.(null) ?? {} : { error: `${props.label}: a value is required` } };
     }
-    if (Number.isNaN(v)) return { v, verdict: { error: `${props.label}: “${text}” is not a number` } };
     if (!Number.isFinite(v)) return { v, verdict: { error: `${props.label}: must be a finite number` } };
     return { v, verdict: props.validate?.(v) ?? {} };
   };
-  const current = editing && dirty ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
-  const commit = () => {
+  const current = dirty ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
+  /**
+   * Enter and leaving the field (Tab, click elsewhere) both come here: same checks, same save.
+   * False when the typed value was refused (it stays in the field with its message).
+   */
+  const commit = (): boolean => {
     if (!dirty) return true;
     const { v, verdict } = judge(draft);
     if (verdict.error) return false;
     setDirty(false);
     if (v !== props.value) props.onCommit(v);
     return true;
+  };
+  const revert = () => {
+    setDraft(show(props.value));
+    setDirty(false);
   };
   const hasMsg = Boolean(current.verdict.error || current.verdict.warning);
   return (
@@ -103,23 +112,17 @@ export function NumberField(props: NumberFieldProps) {
         aria-invalid={current.verdict.error ? true : undefined}
         aria-describedby={hasMsg ? msgId : undefined}
         className={current.verdict.error ? 'invalid' : current.verdict.warning ? 'doubtful' : undefined}
-        onFocus={() => setEditing(true)}
         onChange={(e) => {
           setDraft(e.target.value);
           setDirty(true);
         }}
-        onBlur={() => {
-          if (commit()) setEditing(false);
-        }}
+        onBlur={() => void commit()}
         onKeyDown={(e) => {
+          // A refused value must not submit the form around the field with the old value.
           if (e.key === 'Enter') {
-            if (commit()) {
-              setEditing(false);
-            }
+            if (!commit()) e.preventDefault();
           } else if (e.key === 'Escape') {
-            setDraft(show(props.value));
-            setDirty(false);
-            setEditing(false);
+            revert();
           }
         }}
       />
@@ -127,12 +130,6 @@ export function NumberField(props: NumberFieldProps) {
       <Message id={msgId} verdict={current.verdict} />
     </span>
   );
-}
-
-/** Decimals needed to show a stored number without losing digits (max 6). */
-function decimalsOf(v: number): number {
-  for (let d = 0; d <= 6; d++) if (Math.abs(Number(v.toFixed(d)) - v) < 1e-9 * Math.max(1, Math.abs(v))) return d;
-  return 6;
 }
 
 export interface TextFieldProps extends CommonProps {
@@ -148,15 +145,22 @@ export function TextField(props: TextFieldProps) {
   const id = useId();
   const msgId = `${id}-msg`;
   const [draft, setDraft] = useState(props.value);
-  const [editing, setEditing] = useState(false);
+  const [dirty, setDirty] = useState(false);
   useEffect(() => {
-    if (!editing) setDraft(props.value);
-  }, [props.value, editing]);
-  const verdict = props.validate?.(editing ? draft : props.value) ?? {};
-  const commit = () => {
+    if (!dirty) setDraft(props.value);
+  }, [props.value, dirty]);
+  const verdict = props.validate?.(dirty ? draft : props.value) ?? {};
+  /** Enter (single line) and leaving the field both come here: same checks, same save. */
+  const commit = (): boolean => {
+    if (!dirty) return true;
     if (props.validate?.(draft).error) return false;
+    setDirty(false);
     if (draft !== props.value) props.onCommit(draft);
     return true;
+  };
+  const revert = () => {
+    setDraft(props.value);
+    setDirty(false);
   };
   const common = {
     id,
@@ -167,11 +171,12 @@ export function TextField(props: TextFieldProps) {
     'aria-invalid': verdict.error ? true : undefined,
     'aria-describedby': verdict.error || verdict.warning ? msgId : undefined,
     className: verdict.error ? 'invalid' : undefined,
-    onFocus: () => setEditing(true),
-    onBlur: () => {
-      if (commit()) setEditing(false);
-    },
+    onBlur: () => void commit(),
   } as const;
+  const change = (v: string) => {
+    setDraft(v);
+    setDirty(true);
+  };
   return (
     <span className={`field ${props.className ?? ''}`}>
       <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
@@ -181,12 +186,9 @@ export function TextField(props: TextFieldProps) {
         <textarea
           {...common}
           rows={3}
-          onChange={(e) => setDraft(e.target.value)}
+          onChange={(e) => change(e.target.value)}
           onKeyDown={(e) => {
-            if (e.key === 'Escape') {
-              setDraft(props.value);
-              setEditing(false);
-            }
+            if (e.key === 'Escape') revert();
           }}
         />
       ) : (
@@ -195,13 +197,12 @@ export function TextField(props: TextFieldProps) {
           type="text"
           autoComplete="off"
           size={props.size ?? 14}
-          onChange={(e) => setDraft(e.target.value)}
+          onChange={(e) => change(e.target.value)}
           onKeyDown={(e) => {
             if (e.key === 'Enter') {
-              if (commit()) setEditing(false);
+              if (!commit()) e.preventDefault();
             } else if (e.key === 'Escape') {
-              setDraft(props.value);
-              setEditing(false);
+              revert();
             }
           }}
         />

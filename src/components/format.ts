@@ -26,6 +26,10 @@ export interface Formatter {
   tempUnit: string;
   /** Parse text typed with the user's decimal separator; null for empty, NaN for garbage. */
   parse: (text: string) => number | null;
+  /** Parse text typed with the user's decimal separator, with the reason when it is refused. */
+  parseEntry: (text: string) => ParsedEntry;
+  /** A number as text to edit: the user's decimal separator, no grouping, `digits` decimals or as stored. */
+  plain: (v: number, digits?: number) => string;
   settings: Settings;
 }
 
@@ -45,14 +49,80 @@ function fixed(v: number, digits: number, s: Pick<Settings, 'decimalSeparator' |
   return neg && /[1-9]/.test(body) ? `−${body}` : body;
 }
 
-/** Parse a number typed by a user: accepts the chosen decimal separator, a minus or "−", spaces. */
+/** The result of reading a typed number: the value (null for an empty field) or why it was refused. */
+export type ParsedEntry = { value: number | null; error?: undefined } | { value?: undefined; error: string };
+
+const SIGN = '[-+]?';
+const EXP = '(?:[eE][-+]?\\d+)?';
+/** Blanks a user may type between groups of three digits: space, no-break, narrow no-break, thin. */
+const BLANK = '[ \\u00a0\\u202f\\u2009]';
+
+/**
+ * Read a number typed by a user with the chosen decimal separator. Refused, with a message in the
+ * user's words, rather than guessed:
+ * - the other separator where it could be a decimal separator ("12,5" with "." chosen could mean
+ *   12.5 or 125; "0.885" with "," chosen could mean 0,885 or 885). The other separator is accepted
+ *   only as a correct thousands grouping that cannot be read otherwise: "1,234.5" or "1,234,567"
+ *   with ".", "1.234,5" with ",".
+ * - a blank inside the number unless it groups thousands ("12 5" is refused, "12 345" is 12345);
+ * - two decimal separators, hexadecimal, words, "Infinity".
+ * Accepts a leading "−" (U+2212) or "+", and an exponent ("1e3").
+ */
+export function parseEntry(text: string, decimalSeparator: '.' | ','): ParsedEntry {
+  const sep = decimalSeparator;
+  const other = sep === '.' ? ',' : '.';
+  const t = text.trim().replace(/^\u2212/, '-');
+  if (t === '') return { value: null };
+  const esc = (c: string) => (c === '.' ? '\\.' : c);
+  const toNumber = (s: string) => Number(s.replace(sep, '.'));
+  // Plain: digits, at most one decimal separator, an optional exponent.
+  if (new RegExp(`^${SIGN}(?:\\d+(?:${esc(sep)}\\d*)?|${esc(sep)}\\d+)${EXP}$`).test(t)) return { value: toNumber(t) };
+  // Grouped thousands: 1–3 digits, then groups of three after one consistent grouping mark.
+  const grouped = new RegExp(`^(${SIGN})(\\d{1,3})((${BLANK}|${esc(other)})\\d{3}(?:\\4\\d{3})*)((?:${esc(sep)}\\d+)?)(${EXP})$`).exec(t);
+  if (grouped) {
+    const mark = grouped[4]!;
+    const groups = grouped[3]!.split(mark).length - 1;
+    const hasFraction = grouped[5] !== '';
+    // "1,234" with "." chosen may be 1.234 typed the other way: refuse; "1,234.5" and "1,234,567" cannot.
+    if (mark !== other || groups > 1 || hasFraction) {
+      const digits = `${grouped[1]}${grouped[2]}${grouped[3]!.split(mark).join('')}${grouped[5]}${grouped[6]}`;
+      return { value: toNumber(digits) };
+    }
+  }
+  const show = (s: string) => `“${s}”`;
+  const setting = `Decimal separator is “${sep}” (Settings)`;
+  if (t.includes(other)) {
+    const parts = t.split(other);
+    if (parts.length === 2) {
+      const a = `${parts[0]}.${parts[1]}`;
+      const b = `${parts[0]}${parts[1]}`;
+      const plain = new RegExp(`^${SIGN}\\d*(?:\\.\\d*)?$`);
+      if (plain.test(a) && plain.test(b) && /\d/.test(b)) {
+        const say = (x: string) => String(Number(x)).replace('.', sep).replace('-', '−');
+        return { error: `${setting}: ${show(text.trim())} could mean ${say(a)} or ${say(b)}. Type it with “${sep}”, or change the separator in Settings.` };
+      }
+    }
+    return { error: `${setting}: ${show(text.trim())} contains “${other}”. Type the number with “${sep}” as the decimal separator.` };
+  }
+  if (new RegExp(BLANK).test(t) || /\s/.test(t)) {
+    return { error: `${show(text.trim())} has a space inside the number; a space may only group thousands (12 345). Type it without the space.` };
+  }
+  if (t.split(sep).length > 2) return { error: `${show(text.trim())} has more than one decimal separator “${sep}”.` };
+  return { error: `${show(text.trim())} is not a number.` };
+}
+
+/**
+ * Parse a number typed by a user (see {@link parseEntry}): null for empty, NaN for anything refused.
+ */
 export function parseNumber(text: string, decimalSeparator: '.' | ','): number | null {
-  let t = text.trim().replace(/[\s\u202f\u00a0]/g, '').replace(/^−/, '-');
-  if (t === '') return null;
-  if (decimalSeparator === ',') t = t.replace(/\./g, '').replace(',', '.');
-  else t = t.replace(/,/g, '');
-  if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t)) return Number.NaN;
-  return Number(t);
+  const r = parseEntry(text, decimalSeparator);
+  return r.error === undefined ? r.value : Number.NaN;
+}
+
+/** Decimals needed to show a number without losing digits (at most 6). */
+export function decimalsOf(v: number): number {
+  for (let d = 0; d <= 6; d++) if (Math.abs(Number(v.toFixed(d)) - v) < 1e-9 * Math.max(1, Math.abs(v))) return d;
+  return 6;
 }
 
 export function makeFormatter(settings: Settings): Formatter {
@@ -81,6 +151,8 @@ export function makeFormatter(settings: Settings): Formatter {
     temp: (c, digits = 0) =>
       c === null || c === undefined || !Number.isFinite(c) ? '—' : `${fixed(isF ? cToF(c) : c, digits, settings)} ${isF ? '°F' : '°C'}`,
     parse: (text) => parseNumber(text, settings.decimalSeparator),
+    parseEntry: (text) => parseEntry(text, settings.decimalSeparator),
+    plain: (v, digits) => fixed(v, digits ?? decimalsOf(v), { decimalSeparator: settings.decimalSeparator, thousandsGrouping: false }).replace('−', '-'),
   };
   return f;
 }

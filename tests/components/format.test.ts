@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { makeFormatter, parseNumber } from '../../src/components/format';
+import { makeFormatter, parseEntry, parseNumber } from '../../src/components/format';
 import { DEFAULT_SETTINGS } from '../../src/state/settings';
 
+const point = makeFormatter({ ...DEFAULT_SETTINGS, currencySymbol: '€' });
+const comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', temperatureUnit: 'F' });
+
 describe('number formatting for the user’s habits', () => {
-  const point = makeFormatter({ ...DEFAULT_SETTINGS, currencySymbol: '€' });
-  const comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', temperatureUnit: 'F' });
 
   it('formats with the chosen separators, grouping only from five digits', () => {
     expect(point.num(12345.678, 2)).toBe('12\u202f345.68');
@@ -36,5 +37,33 @@ describe('number formatting for the user’s habits', () => {
     expect(parseNumber('', '.')).toBeNull();
     expect(Number.isNaN(parseNumber('12abc', '.')!)).toBe(true);
     expect(Number.isNaN(parseNumber('0x10', '.')!)).toBe(true);
+  });
+});
+
+describe('ambiguous separators are refused, not guessed', () => {
+  // identity: each accepted text is the number itself (no external source); each refusal is our rule.
+  it('with "." chosen: "12,5", "12 5", "1,234" refused; grouped thousands accepted', () => {
+    expect(parseEntry('12,5', '.').error).toMatch(/^Decimal separator is “\.” \(Settings\): “12,5” could mean 12\.5 or 125\./);
+    expect(parseEntry('12 5', '.').error).toMatch(/space inside the number/);
+    expect(parseEntry('1,234', '.').error).toMatch(/could mean 1\.234 or 1234/);
+    expect(parseEntry('1,2,3', '.').error).toMatch(/contains “,”/);
+    expect(parseEntry('1.2.3', '.').error).toMatch(/more than one decimal separator/);
+    expect(parseEntry('1,234.5', '.').value).toBe(1234.5);
+    expect(parseEntry('1,234,567', '.').value).toBe(1234567);
+    expect(parseEntry('12 345', '.').value).toBe(12345);
+    expect(parseEntry('12\u202f345.6', '.').value).toBe(12345.6);
+    expect(Number.isNaN(parseNumber('12,5', '.')!)).toBe(true);
+  });
+  it('with "," chosen (mirror case): "12.5" and "0.885" refused; "1.234,5" accepted', () => {
+    expect(parseEntry('12.5', ',').error).toMatch(/^Decimal separator is “,” \(Settings\): “12\.5” could mean 12,5 or 125\./);
+    expect(parseEntry('0.885', ',').error).toMatch(/could mean 0,885 or 885/);
+    expect(parseEntry('1.234,5', ',').value).toBe(1234.5);
+    expect(parseEntry('0,885', ',').value).toBe(0.885);
+    expect(parseEntry('', ',').value).toBeNull();
+  });
+  it('editing text is plain: the user separator, no grouping', () => {
+    expect(comma.plain(12345.5)).toBe('12345,5');
+    expect(point.plain(-3.25)).toBe('-3.25');
+    expect(point.plain(0.1 + 0.2)).toBe('0.3');
   });
 });

@@ -1,4 +1,4 @@
-import { memo, useEffect, useState } from 'react';
+import { memo, useEffect, useRef, useState } from 'react';
 import { useFormat } from '../../components/format';
 
 export interface FractionInputProps {
@@ -11,17 +11,31 @@ export interface FractionInputProps {
   disabled?: boolean;
 }
 
-/** A percentage cell that recomputes the blend while the user types; shows the stored value on leaving. */
+/**
+ * A percentage cell that recomputes the blend while the user types. Enter and Tab end the edit
+ * alike: a valid entry stays applied and is shown as stored; a refused one stays in the cell with
+ * its message (the last valid value is what the recipe holds). Escape puts back the share the line
+ * had when the edit began.
+ */
 export const FractionInput = memo(function FractionInput({ label, value, onEdit, disabled }: FractionInputProps) {
   const fmt = useFormat();
-  const show = (v: number) => fmt.num(v * 100, 2);
+  const show = (v: number) => fmt.plain(Number((v * 100).toFixed(2)), 2);
   const [text, setText] = useState(() => show(value));
-  const [editing, setEditing] = useState(false);
+  const [dirty, setDirty] = useState(false);
   const [error, setError] = useState('');
+  /** The share when the current edit began (what Escape restores). */
+  const start = useRef<number | null>(null);
   useEffect(() => {
-    if (!editing) setText(show(value));
+    if (!dirty) setText(show(value));
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value, editing, fmt]);
+  }, [value, dirty, fmt]);
+  const finish = () => {
+    if (error) return false;
+    setDirty(false);
+    start.current = null;
+    setText(show(value));
+    return true;
+  };
   return (
     <>
       <input
@@ -35,35 +49,44 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
         size={7}
         disabled={disabled}
         value={text}
-        onFocus={() => setEditing(true)}
-        onBlur={() => {
-          setEditing(false);
-          setError('');
-          setText(show(value));
-        }}
+        onBlur={() => void finish()}
         onKeyDown={(e) => {
-          if (e.key === 'Enter' || e.key === 'Escape') {
+          if (e.key === 'Enter') {
+            if (!finish()) e.preventDefault();
+          } else if (e.key === 'Escape') {
+            if (start.current !== null && start.current !== value) onEdit(start.current);
             setError('');
+            setDirty(false);
+            start.current = null;
             setText(show(value));
           } else if (e.key === 'ArrowUp' || e.key === 'ArrowDown') {
             e.preventDefault();
+            if (start.current === null) start.current = value;
             const step = (e.shiftKey ? 1 : 0.1) * (e.key === 'ArrowUp' ? 1 : -1);
             const next = Math.min(100, Math.max(0, value * 100 + step));
             onEdit(next / 100);
-            setText(fmt.num(next, 2));
+            setError('');
+            setDirty(false);
           }
         }}
         onChange={(e) => {
           const t = e.target.value;
+          if (start.current === null) start.current = value;
           setText(t);
-          const v = fmt.parse(t);
-          if (v === null) return setError('');
-          if (Number.isNaN(v)) return setError('Not a number');
-          if (v < 0 || v > 100) return setError('Between 0 and 100 %');
+          setDirty(true);
+          const r = fmt.parseEntry(t);
+          if (r.error !== undefined) return setError(`${label}: ${r.error}`);
+          if (r.value === null) return setError(`${label}: type a share from 0 to 100 %, or remove the line`);
+          if (r.value < 0 || r.value > 100) return setError(`${label}: a share runs from 0 to 100 %`);
           setError('');
-          onEdit(v / 100);
+          onEdit(r.value / 100);
         }}
       />
+      {error ? (
+        <span className="field-msg field-error pct-msg" role="alert">
+          {error}
+        </span>
+      ) : null}
     </>
   );
 });

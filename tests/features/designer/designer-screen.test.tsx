@@ -46,6 +46,30 @@ describe('Recipe designer', () => {
     expect(input.value).toBe('40.00');
   });
 
+  it('a share cell: Escape restores the share the edit began with; a refused entry stays with its message on Enter and Tab', () => {
+    render(<DesignerScreen />);
+    const input = screen.getByLabelText('Mass % of BW-160') as HTMLInputElement;
+    const was = input.value;
+    const kv40 = screen.getByTestId('prop-kv40').textContent;
+    fireEvent.focus(input);
+    fireEvent.change(input, { target: { value: '40' } });
+    expect(screen.getByTestId('prop-kv40').textContent).not.toBe(kv40);
+    fireEvent.keyDown(input, { key: 'Escape' });
+    expect(input.value).toBe(was);
+    expect(screen.getByTestId('prop-kv40').textContent).toBe(kv40);
+    // After Escape the next entry is checked: "12,5" with "." chosen is refused, on Enter and on Tab alike.
+    fireEvent.change(input, { target: { value: '12,5' } });
+    fireEvent.keyDown(input, { key: 'Enter' });
+    expect(input.value).toBe('12,5');
+    expect(screen.getByRole('alert').textContent).toMatch(/^Mass % of BW-160: Decimal separator is “\.” \(Settings\)/);
+    fireEvent.blur(input);
+    expect(input.value).toBe('12,5');
+    fireEvent.change(input, { target: { value: '12.5' } });
+    fireEvent.keyDown(input, { key: 'Enter' });
+    expect(input.value).toBe('12.50');
+    expect(screen.queryByRole('alert')).toBeNull();
+  });
+
   it('balance mode changes only the balance stock', () => {
     render(<DesignerScreen />);
     fireEvent.click(screen.getByLabelText(/a balance\s*stock/));
