@@ -51,6 +51,12 @@ export interface NumberFieldProps extends CommonProps {
   allowEmpty?: boolean;
   unit?: string;
   validate?: (v: number | null) => Verdict;
+  /**
+   * Told what is being typed, before it is committed: the number read from the text (even one the
+   * checks refuse), null when the text is not a number, undefined when nothing is pending. Lets a
+   * row show a derived value (VI, grade) for the pair on screen rather than for the stored pair.
+   */
+  onDraft?: (v: number | null | undefined) => void;
 }
 
 export function NumberField(props: NumberFieldProps) {
@@ -78,6 +84,11 @@ export function NumberField(props: NumberFieldProps) {
     return { v, verdict: props.validate?.(v) ?? {} };
   };
   const current = dirty ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
+  const { onDraft } = props;
+  const pending = dirty ? (fmt.parseEntry(draft).value ?? null) : undefined;
+  useEffect(() => {
+    onDraft?.(pending);
+  }, [onDraft, pending]);
   /**
    * Enter and leaving the field (Tab, click elsewhere) both come here: same checks, same save.
    * False when the typed value was refused (it stays in the field with its message).

@@ -5,6 +5,7 @@
  */
 import { useMemo } from 'react';
 import { cToF, fToC } from '../core/units';
+import { gradePosition } from '../core/viscosity/iso-grades';
 import { useSettings, type Settings } from '../state';
 
 export interface Formatter {
@@ -30,6 +31,10 @@ export interface Formatter {
   parseEntry: (text: string) => ParsedEntry;
   /** A number as text to edit: the user's decimal separator, no grouping, `digits` decimals or as stored. */
   plain: (v: number, digits?: number) => string;
+  /** A number inside a message: up to 6 significant figures, the user's decimal separator, a true minus. */
+  say: (v: number) => string;
+  /** A temperature given in °C inside a message, in the user's unit with its symbol. */
+  sayTemp: (c: number) => string;
   settings: Settings;
 }
 
@@ -152,6 +157,12 @@ export function makeFormatter(settings: Settings): Formatter {
       c === null || c === undefined || !Number.isFinite(c) ? '—' : `${fixed(isF ? cToF(c) : c, digits, settings)} ${isF ? '°F' : '°C'}`,
     parse: (text) => parseNumber(text, settings.decimalSeparator),
     parseEntry: (text) => parseEntry(text, settings.decimalSeparator),
+    say: (v) => {
+      if (!Number.isFinite(v)) return String(v);
+      const r = Number(v.toPrecision(6));
+      return fixed(r, decimalsOf(r), { decimalSeparator: settings.decimalSeparator, thousandsGrouping: false });
+    },
+    sayTemp: (c) => `${f.say(isF ? cToF(c) : c)} ${isF ? '°F' : '°C'}`,
     plain: (v, digits) => fixed(v, digits ?? decimalsOf(v), { decimalSeparator: settings.decimalSeparator, thousandsGrouping: false }).replace('−', '-'),
   };
   return f;
@@ -161,4 +172,16 @@ export function makeFormatter(settings: Settings): Formatter {
 export function useFormat(): Formatter {
   const settings = useSettings();
   return useMemo(() => makeFormatter(settings), [settings]);
+}
+
+/**
+ * The ISO grade of a ν40 in words: "VG 460", "between VG 460 and 680", "above VG 3200",
+ * "below VG 2" (ISO 3448 / ASTM D2422 bands); "—" when there is no usable ν40.
+ */
+export function gradeLabel(kv40: number | null | undefined): string {
+  if (kv40 === null || kv40 === undefined || !(kv40 > 0) || !Number.isFinite(kv40)) return '—';
+  const p = gradePosition(kv40);
+  if (p.kind === 'in') return `VG ${p.grade}`;
+  if (p.kind === 'between') return `between VG ${p.lower} and ${p.upper}`;
+  return `${p.kind} VG ${p.grade}`;
 }

@@ -61,6 +61,7 @@ export {
   isInGrade,
   deviationFromMidPct,
   nearestGrade,
+  gradePosition,
   ISO_GRADES,
   ISO_GRADE_NUMBERS,
 } from './viscosity/iso-grades';

@@ -9,10 +9,10 @@
  */
 import { ABSOLUTE_ZERO_C, DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
 import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxidation';
-import { viscosityIndex } from '../core/viscosity/viscosity-index';
+import { VI_MIN_KV100, viscosityIndex } from '../core/viscosity/viscosity-index';
 import { kv40kv100FromPoints } from '../core/viscosity/viscosity-temperature';
 import type { Component } from '../core/formulation/model';
-import { checkNumber, type NumberRuleKey } from './field-rules';
+import { checkNumber, checkText, FILE_NUMBERS, type NumberRuleKey, type SayNumbers } from './field-rules';
 
 /** Field names used in messages and for placing them beside inputs. */
 export type CheckField =
@@ -46,7 +46,7 @@ type Range = readonly [number, number];
 /** Plausible ranges (common practice, no source). */
 export const PLAUSIBLE: Record<'kv40' | 'kv100' | 'anilinePoint' | 'pourPoint' | 'flashPoint' | 'sulfurPct' | 'shearLossPct', Range> = {
   kv40: [2, 50_000],
-  kv100: [1.5, 3_000],
+  kv100: [2, 3_000],
   anilinePoint: [-60, 180],
   pourPoint: [-80, 40],
   flashPoint: [60, 400],
@@ -54,8 +54,26 @@ export const PLAUSIBLE: Record<'kv40' | 'kv100' | 'anilinePoint' | 'pourPoint' |
   shearLossPct: [0, 60],
 };
 
-/** A number for a message: 6 significant figures, a true minus sign. */
-const fmt = (v: number) => String(Number(v.toPrecision(6))).replace(/^-/, '−');
+/** Writes numbers into messages (see field-rules.ts); screens pass their formatter. */
+export type { SayNumbers } from './field-rules';
+export { FILE_NUMBERS } from './field-rules';
+
+/**
+ * Lowest ν40 and ν100 accepted in the library [mm²/s]: ASTM D2270 defines no VI below a ν100 of
+ * 2.0 mm²/s, and the ASTM D341 line Blendbench uses (Z = ν + 0.7) is stated for ν ≥ 2.0 mm²/s.
+ */
+export const MIN_LIBRARY_KV = VI_MIN_KV100;
+
+/**
+ * Check a stock code or name as typed: the field rules (length, control characters), and at entry
+ * a name may not be blank either (an imported stock may come without one). Returns the message, or
+ * nothing when it is acceptable.
+ */
+export function checkLabelText(what: 'stock code' | 'name', v: string): string | undefined {
+  if (!v.trim()) return `a ${what} is required`;
+  const refused = checkText(what === 'stock code' ? 'stockCode' : 'stockName', v);
+  return refused ? refused.charAt(0).toLowerCase() + refused.slice(1) : undefined;
+}
 
 /**
  * Hard limits (common practice, no source): beyond these a number cannot describe a blending
@@ -83,15 +101,17 @@ const RULE_OF: Partial<Record<CheckField, NumberRuleKey>> = {
  * messages below, anything the field rules (field-rules.ts) refuse is an error here too, so entry never
  * accepts a value that storage would refuse.
  */
-export function checkValue(field: CheckField, v: number | null): { error?: string; warning?: string } {
-  const r = checkValueSpecific(field, v);
+export function checkValue(field: CheckField, v: number | null, words: SayNumbers = FILE_NUMBERS): { error?: string; warning?: string } {
+  const r = checkValueSpecific(field, v, words);
   if (r.error || v === null || !Number.isFinite(v)) return r;
   const rule = RULE_OF[field];
-  const refused = rule ? checkNumber(rule, v) : null;
+  const refused = rule ? checkNumber(rule, v, undefined, words) : null;
   return refused ? { error: refused } : r;
 }
 
-function checkValueSpecific(field: CheckField, v: number | null): { error?: string; warning?: string } {
+function checkValueSpecific(field: CheckField, v: number | null, words: SayNumbers): { error?: string; warning?: string } {
+  const fmt = words.say;
+  const temp = words.sayTemp;
   if (v === null) {
     if (field === 'kv40' || field === 'kv100' || field === 'density15' || field === 'price') return { error: 'a value is required' };
     return {};
@@ -99,13 +119,20 @@ function checkValueSpecific(field: CheckField, v: number | null): { error?: stri
   if (!Number.isFinite(v)) return { error: 'must be a finite number' };
   const outside = (r: Range, what: string, unit: string) =>
     v < r[0] || v > r[1] ? { warning: `${fmt(v)} ${unit} is outside the usual ${fmt(r[0])} to ${fmt(r[1])} ${unit} for ${what}; check the value` } : {};
+  const outsideTemp = (r: Range, what: string) =>
+    v < r[0] || v > r[1] ? { warning: `${temp(v)} is outside the usual ${temp(r[0])} to ${temp(r[1])} for ${what}; check the value` } : {};
   if ((field === 'anilinePoint' || field === 'pourPoint' || field === 'flashPoint') && (v < ABSOLUTE_ZERO_C || v > POSSIBLE.maxTempC)) {
-    return { error: `${fmt(v)} °C is not a possible temperature here` };
+    return { error: `${temp(v)} is not a possible temperature here` };
   }
   switch (field) {
     case 'kv40':
     case 'kv100':
       if (v <= 0) return { error: 'a viscosity must be above zero' };
+      if (v < MIN_LIBRARY_KV) {
+        return {
+          error: `${fmt(v)} mm²/s is below ${fmt(MIN_LIBRARY_KV)} mm²/s, where ASTM D2270 defines no viscosity index and the ASTM D341 line does not hold`,
+        };
+      }
       if (v > POSSIBLE.maxKv) return { error: `${fmt(v)} mm²/s is not a possible viscosity for a blending component` };
       return outside(PLAUSIBLE[field], `ν${field === 'kv40' ? '40' : '100'}`, 'mm²/s');
     case 'density15':
@@ -117,11 +144,11 @@ function checkValueSpecific(field: CheckField, v: number | null): { error?: stri
       if (v < 0.78 || v > 1.1) return { warning: `${fmt(v)} kg/L is unusual for a base stock or additive (0.78–1.10 kg/L)` };
       return {};
     case 'anilinePoint':
-      return outside(PLAUSIBLE.anilinePoint, 'an aniline point', '°C');
+      return outsideTemp(PLAUSIBLE.anilinePoint, 'an aniline point');
     case 'pourPoint':
-      return outside(PLAUSIBLE.pourPoint, 'a pour point', '°C');
+      return outsideTemp(PLAUSIBLE.pourPoint, 'a pour point');
     case 'flashPoint':
-      return outside(PLAUSIBLE.flashPoint, 'a flash point', '°C');
+      return outsideTemp(PLAUSIBLE.flashPoint, 'a flash point');
     case 'sulfurPct':
       if (v < 0 || v > 100) return { error: 'sulfur must be between 0 and 100 mass %' };
       return outside(PLAUSIBLE.sulfurPct, 'base-stock sulfur', '%');
@@ -147,7 +174,8 @@ function checkValueSpecific(field: CheckField, v: number | null): { error?: stri
 }
 
 /** Check ν100 against ν40 (a higher temperature always gives a lower viscosity). */
-export function checkViscosityPair(kv40: number, kv100: number): { error?: string; warning?: string } {
+export function checkViscosityPair(kv40: number, kv100: number, words: SayNumbers = FILE_NUMBERS): { error?: string; warning?: string } {
+  const fmt = words.say;
   if (!(kv40 > 0) || !(kv100 > 0)) return {};
   if (kv100 >= kv40) return { error: `ν100 (${fmt(kv100)} mm²/s) must be below ν40 (${fmt(kv40)} mm²/s)` };
   if (kv40 / kv100 < 1.8) return { warning: `ν40/ν100 = ${fmt(kv40 / kv100)} is unusually close; check the two values` };
@@ -161,6 +189,18 @@ export function kv40kv100(c: Pick<Component, 'viscosityPoints'>): { kv40: number
   } catch {
     return null;
   }
+}
+
+/**
+ * The VI of a ν40/ν100 pair for display, or why there is none (in words for the table cell):
+ * ν100 not below ν40, or ν100 below 2.0 mm²/s (outside ASTM D2270).
+ */
+export function viOrReason(kv40: number | null, kv100: number | null): { vi: number } | { reason: string; why: string } {
+  if (kv40 === null || kv100 === null || !(kv40 > 0) || !(kv100 > 0)) return { reason: '—', why: 'needs ν40 and ν100' };
+  if (kv100 >= kv40) return { reason: 'ν100 ≥ ν40', why: 'no VI: ν100 must be below ν40' };
+  if (kv100 < VI_MIN_KV100) return { reason: 'ν100 < 2', why: 'no VI: ASTM D2270 defines none below a ν100 of 2.0 mm²/s' };
+  const vi = safeVi(kv40, kv100);
+  return vi === null ? { reason: '—', why: 'no VI for these viscosities' } : { vi };
 }
 
 /** VI (unrounded) or null when not defined (ν100 < 2 mm²/s or inputs unusable). */
@@ -180,15 +220,26 @@ export function checkComponent(c: Component, others: readonly Component[] = []):
     if (r.error) errors.push({ field, message: r.error });
     if (r.warning) warnings.push({ field, message: r.warning });
   };
-  if (!c.code.trim()) errors.push({ field: 'code', message: 'a stock code is required' });
+  const codeProblem = checkLabelText('stock code', c.code);
+  if (codeProblem) errors.push({ field: 'code', message: codeProblem });
+  // A blank name is refused at entry; an imported stock may come without one.
+  const nameProblem = c.name.trim() ? checkLabelText('name', c.name) : undefined;
+  if (nameProblem) errors.push({ field: 'name', message: nameProblem });
   const clash = others.find((o) => o.id !== c.id && o.code.trim().toLowerCase() === c.code.trim().toLowerCase());
   if (c.code.trim() && clash) errors.push({ field: 'code', message: `stock code ${c.code} is already used` });
   const at = (t: number) => c.viscosityPoints.find((pt) => pt.tempC === t)?.kv;
   const m40 = at(40);
   const m100 = at(100);
   const pair = m40 !== undefined && m100 !== undefined ? checkViscosityPair(m40, m100) : {};
-  const p = pair.error ? null : kv40kv100(c);
-  if (pair.error) {
+  // A measured ν40/ν100 outside what can be used is named as such (not as an unusable line).
+  const measuredError = (['kv40', 'kv100'] as const)
+    .map((f) => ({ f, v: f === 'kv40' ? m40 : m100 }))
+    .map(({ f, v }) => ({ f, e: v === undefined ? undefined : checkValue(f, v).error }))
+    .find((x) => x.e !== undefined);
+  const p = pair.error || measuredError ? null : kv40kv100(c);
+  if (measuredError) {
+    errors.push({ field: measuredError.f, message: measuredError.e! });
+  } else if (pair.error) {
     errors.push({ field: 'kv100', message: pair.error });
   } else if (!p) {
     errors.push({ field: 'viscosityPoints', message: 'needs viscosities at two temperatures, falling as temperature rises' });

@@ -243,9 +243,9 @@ function say(who: string | undefined, text: string): string {
   return who ? `${capital(who)}: ${text}` : capital(text);
 }
 
-// C0 controls and DEL; a multi-line field may hold line breaks and tabs.
-const CONTROL_SINGLE = /[\u0000-\u001f\u007f]/;
-const CONTROL_MULTI = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+// C0 and C1 controls and DEL; a multi-line field may hold line breaks and tabs.
+const CONTROL_SINGLE = /[\u0000-\u001f\u007f-\u009f]/;
+const CONTROL_MULTI = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/;
 
 /** Check a stored text field. Returns a message naming the field (and `who`), or null. */
 export function checkText(field: TextRuleKey, value: string, who?: string): string | null {
@@ -255,20 +255,42 @@ export function checkText(field: TextRuleKey, value: string, who?: string): stri
   if (value.length > r.max) {
     return say(who, `the ${r.label} is ${value.length} characters long; at most ${r.max} can be saved`);
   }
-  if ((r.singleLine ? CONTROL_SINGLE : CONTROL_MULTI).test(value)) {
-    return say(who, `the ${r.label} contains a control character${r.singleLine ? ' (a line break or tab)' : ''}; remove it`);
+  const control = (r.singleLine ? CONTROL_SINGLE : CONTROL_MULTI).exec(value);
+  if (control) {
+    const ch = control[0];
+    const what =
+      ch === '\n' || ch === '\r' ? 'a line break' : ch === '\t' ? 'a tab' : `an invisible control character (U+${ch.codePointAt(0)!.toString(16).toUpperCase().padStart(4, '0')})`;
+    return say(who, `the ${r.label} contains ${what}; remove it`);
   }
   return null;
 }
 
-/** Check a stored number field. Returns a message naming the field (and `who`), or null. */
-export function checkNumber(field: NumberRuleKey, value: number | null, who?: string): string | null {
+/**
+ * Writes numbers into messages. Entry screens pass their formatter, so a message shows numbers with
+ * the user's decimal separator and temperatures in the user's unit (what they would type back);
+ * files and stored data keep "." and °C ({@link FILE_NUMBERS}).
+ */
+export interface SayNumbers {
+  /** A plain number. */
+  say: (v: number) => string;
+  /** A temperature given in °C, with its unit. */
+  sayTemp: (c: number) => string;
+}
+
+/** Numbers in messages about files and stored data: "." as decimal separator, °C. */
+export const FILE_NUMBERS: SayNumbers = { say: (v) => fmtRuleNumber(v), sayTemp: (c) => `${fmtRuleNumber(c)} °C` };
+
+/**
+ * Check a stored number field. Returns a message naming the field (and `who`), or null. `words`
+ * writes the numbers (default: "." and °C).
+ */
+export function checkNumber(field: NumberRuleKey, value: number | null, who?: string, words: SayNumbers = FILE_NUMBERS): string | null {
   const r: NumberRule = NUMBER_RULES[field];
   if (value === null || value === undefined) return r.nullable ? null : say(who, `the ${r.label} is required`);
   if (typeof value !== 'number' || !Number.isFinite(value)) return say(who, `the ${r.label} must be a finite number`);
   const k = r.percent ? 100 : 1;
   const unit = r.unit ? (r.unit === '%' ? ' %' : ` ${r.unit}`) : '';
-  const show = (v: number) => `${fmtRuleNumber(v * k)}${unit}`;
+  const show = (v: number) => (r.unit === '°C' ? words.sayTemp(v) : `${words.say(Number((v * k).toPrecision(12)))}${unit}`);
   const low = r.minExclusive ? value <= r.min : value < r.min;
   if (low || value > r.max) {
     const range = r.minExclusive ? `above ${show(r.min)} and at most ${show(r.max)}` : `from ${show(r.min)} to ${show(r.max)}`;

@@ -32,7 +32,7 @@ describe('text rules', () => {
 
   it('requires a stock code and refuses control characters in one-line fields, but not line breaks in notes', () => {
     expect(checkText('stockCode', '   ', stockWho('BW-1'))).toBe('Stock BW-1: the stock code is required');
-    expect(checkText('stockName', 'A\tB')).toMatch(/control character/);
+    expect(checkText('stockName', 'A\tB')).toMatch(/contains a tab/);
     expect(checkText('stockName', 'A\u0007B')).toMatch(/control character/);
     expect(checkText('stockNotes', 'line 1\nline 2\tindented')).toBeNull();
     expect(checkText('stockNotes', 'bell \u0007')).toMatch(/control character/);

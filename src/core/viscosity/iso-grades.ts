@@ -146,3 +146,34 @@ export function nearestGrade(kv40: number): IsoGrade {
   }
   return best;
 }
+
+/**
+ * Where a ν40 lies among the grades: inside a grade's band, between two neighbouring bands, above
+ * the top band (VG 3200, 2880–3520 mm²/s) or below the bottom band (VG 2, 1.98–2.42 mm²/s).
+ * Used to word a grade honestly: a stock of 5000 mm²/s is "above VG 3200", not "near 3200".
+ *
+ * @param kv40 - kinematic viscosity at 40 °C [mm²/s], > 0
+ * @returns `{ kind: 'in', grade }`, `{ kind: 'between', lower, upper }`, `{ kind: 'above', grade }`
+ *   or `{ kind: 'below', grade }` (grade numbers)
+ * @throws InvalidNumberError, NonPositiveViscosityError
+ * @example gradePosition(180) // → { kind: 'between', lower: 150, upper: 220 }
+ * @example gradePosition(5000) // → { kind: 'above', grade: 3200 }
+ * @see ISO 3448 Table 1; ASTM D2422 Table 1.
+ */
+export function gradePosition(
+  kv40: number,
+):
+  | { kind: 'in'; grade: number }
+  | { kind: 'between'; lower: number; upper: number }
+  | { kind: 'above'; grade: number }
+  | { kind: 'below'; grade: number } {
+  assertViscosity('gradePosition', 'kv40', kv40);
+  const first = ISO_GRADES[0]!;
+  const last = ISO_GRADES[ISO_GRADES.length - 1]!;
+  if (kv40 < first.min) return { kind: 'below', grade: first.grade };
+  if (kv40 > last.max) return { kind: 'above', grade: last.grade };
+  const inBand = ISO_GRADES.find((b) => kv40 >= b.min && kv40 <= b.max);
+  if (inBand) return { kind: 'in', grade: inBand.grade };
+  const upperIdx = ISO_GRADES.findIndex((b) => b.min > kv40);
+  return { kind: 'between', lower: ISO_GRADES[upperIdx - 1]!.grade, upper: ISO_GRADES[upperIdx]!.grade };
+}

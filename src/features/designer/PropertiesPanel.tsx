@@ -6,7 +6,7 @@ import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { CautionBanner } from '../../components/notices';
-import { useFormat, type Formatter } from '../../components/format';
+import { gradeLabel, useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
@@ -61,7 +61,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   rows.push({
     key: 'grade',
     label: 'ISO viscosity grade',
-    value: p.grade === null ? 'between grades' : `VG ${p.grade}`,
+    value: gradeLabel(p.kv40),
     status: p.grade === targets.grade ? 'ok' : 'fail',
     statusText: p.grade === null ? '' : `${p.deviationFromMidPct! >= 0 ? '+' : ''}${fmt.num(p.deviationFromMidPct, 1)} % from mid-point`,
     explain: ex.grade ?? null,

@@ -39,11 +39,11 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
     onUpdate(c.id, { viscosityPoints: c.viscosityPoints.map((p, j) => (j === i ? { ...p, ...patch } : p)) });
   const pointError = (i: number, tempC: number, kv: number): string | undefined => {
     const pts = c.viscosityPoints.map((p, j) => (j === i ? { tempC, kv } : p));
-    if (pts.filter((p) => p.tempC === tempC).length > 1) return `there is already a point at ${fmt.temp(tempC)}`;
+    if (pts.filter((p) => p.tempC === tempC).length > 1) return `there is already a point at ${fmt.sayTemp(tempC)}`;
     const sorted = [...pts].sort((a, b) => a.tempC - b.tempC);
     for (let k = 1; k < sorted.length; k++) {
       if (sorted[k]!.kv >= sorted[k - 1]!.kv) {
-        return `viscosity must fall as temperature rises (${fmt.temp(sorted[k]!.tempC)}: ${sorted[k]!.kv} ≥ ${fmt.temp(sorted[k - 1]!.tempC)}: ${sorted[k - 1]!.kv})`;
+        return `viscosity must fall as temperature rises (${fmt.sayTemp(sorted[k]!.tempC)}: ${fmt.say(sorted[k]!.kv)} ≥ ${fmt.sayTemp(sorted[k - 1]!.tempC)}: ${fmt.say(sorted[k - 1]!.kv)} mm²/s)`;
       }
     }
     return undefined;
@@ -79,7 +79,7 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           size={5}
           digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
           value={c.pourPoint === null ? null : fmt.tempValue(c.pourPoint)}
-          validate={(v) => (v === null ? {} : checkValue('pourPoint', fmt.tempToC(v)))}
+          validate={(v) => (v === null ? {} : checkValue('pourPoint', fmt.tempToC(v), fmt))}
           onCommit={(v) => onUpdate(c.id, { pourPoint: v === null ? null : fmt.tempToC(v) })}
         />
         <NumberField
@@ -89,19 +89,19 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           size={5}
           digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
           value={c.flashPoint === null ? null : fmt.tempValue(c.flashPoint)}
-          validate={(v) => (v === null ? {} : checkValue('flashPoint', fmt.tempToC(v)))}
+          validate={(v) => (v === null ? {} : checkValue('flashPoint', fmt.tempToC(v), fmt))}
           onCommit={(v) => onUpdate(c.id, { flashPoint: v === null ? null : fmt.tempToC(v) })}
         />
       </fieldset>
       <fieldset>
         <legend>Composition and scoring</legend>
-        <NumberField label="Sulfur" unit="mass %" allowEmpty value={c.sulfurPct} validate={(v) => checkValue('sulfurPct', v)} onCommit={(v) => onUpdate(c.id, { sulfurPct: v })} />
+        <NumberField label="Sulfur" unit="mass %" allowEmpty value={c.sulfurPct} validate={(v) => checkValue('sulfurPct', v, fmt)} onCommit={(v) => onUpdate(c.id, { sulfurPct: v })} />
         <NumberField
           label="Saturates"
           unit="mass %"
           allowEmpty
           value={c.saturatesPct}
-          validate={(v) => checkValue('saturatesPct', v)}
+          validate={(v) => checkValue('saturatesPct', v, fmt)}
           onCommit={(v) => onUpdate(c.id, { saturatesPct: v })}
         />
         <NumberField
@@ -109,7 +109,7 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           allowEmpty
           size={4}
           value={c.oxidationRating}
-          validate={(v) => checkValue('oxidationRating', v)}
+          validate={(v) => checkValue('oxidationRating', v, fmt)}
           onCommit={(v) => onUpdate(c.id, { oxidationRating: v })}
           hint={<span className="muted small"> empty = category default ({oxidationRating({ category: c.category, oxidationRating: null })})</span>}
         />
@@ -119,7 +119,7 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           allowEmpty
           size={4}
           value={c.shearLossPct}
-          validate={(v) => checkValue('shearLossPct', v)}
+          validate={(v) => checkValue('shearLossPct', v, fmt)}
           onCommit={(v) => onUpdate(c.id, { shearLossPct: v })}
         />
       </fieldset>

@@ -1,11 +1,10 @@
-import { memo } from 'react';
+import { memo, useState } from 'react';
 import type { Availability, Component, ComponentCategory } from '../../core/formulation/model';
 import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/formulation/model';
-import { isoViscosityGrade, nearestGrade } from '../../core/viscosity/iso-grades';
 import { roundHalfEven } from '../../core/viscosity/viscosity-index';
 import { NumberField, SelectField, TextField, type Verdict } from '../../components/fields';
-import { useFormat } from '../../components/format';
-import { checkValue, checkViscosityPair, kv40kv100, safeVi } from '../../state/checks';
+import { gradeLabel, useFormat } from '../../components/format';
+import { checkLabelText, checkValue, checkViscosityPair, kv40kv100, viOrReason } from '../../state/checks';
 
 export const CATEGORY_OPTIONS = COMPONENT_CATEGORIES.map((c) => ({ value: c, label: CATEGORY_LABEL[c] }));
 export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: string }> = [
@@ -42,8 +41,13 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
   const kv = kv40kv100(c);
   const kv40 = kv?.kv40 ?? null;
   const kv100 = kv?.kv100 ?? null;
-  const vi = kv40 !== null && kv100 !== null && kv100 < kv40 ? safeVi(kv40, kv100) : null;
-  const grade = kv40 !== null ? isoViscosityGrade(kv40) : null;
+  // VI and grade follow the values on screen, also while one is being typed (and not yet saved).
+  const [typed40, setTyped40] = useState<number | null | undefined>(undefined);
+  const [typed100, setTyped100] = useState<number | null | undefined>(undefined);
+  const shown40 = typed40 === undefined ? kv40 : typed40;
+  const shown100 = typed100 === undefined ? kv100 : typed100;
+  const vi = viOrReason(shown40, shown100);
+  const gradeText = gradeLabel(shown40);
   const who = c.code || 'new stock';
   const tempField = (field: 'anilinePoint' | 'pourPoint' | 'flashPoint', label: string) => (
     <td className="num">
@@ -54,7 +58,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         allowEmpty
         digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
         value={c[field] === null ? null : fmt.tempValue(c[field])}
-        validate={(v) => (v === null ? {} : toVerdict(checkValue(field, fmt.tempToC(v))))}
+        validate={(v) => (v === null ? {} : toVerdict(checkValue(field, fmt.tempToC(v), fmt)))}
         onCommit={(v) => onUpdate(c.id, { [field]: v === null ? null : fmt.tempToC(v) })}
       />
     </td>
@@ -68,12 +72,20 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           size={7}
           maxLength={40}
           value={c.code}
-          validate={(v) => ({ error: v.trim() ? codeError(v, c.id) : 'a stock code is required' })}
+          validate={(v) => ({ error: checkLabelText('stock code', v) ?? codeError(v, c.id) })}
           onCommit={(v) => onUpdate(c.id, { code: v.trim() })}
         />
       </th>
       <td>
-        <TextField label={`Name of ${who}`} hideLabel size={16} maxLength={200} value={c.name} onCommit={(v) => onUpdate(c.id, { name: v })} />
+        <TextField
+          label={`Name of ${who}`}
+          hideLabel
+          size={16}
+          maxLength={200}
+          value={c.name}
+          validate={(v) => ({ error: checkLabelText('name', v) })}
+          onCommit={(v) => onUpdate(c.id, { name: v.trim() })}
+        />
       </td>
       <td>
         <SelectField<ComponentCategory>
@@ -90,7 +102,8 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={6}
           value={kv40}
-          validate={(v) => merge(toVerdict(checkValue('kv40', v)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100)) : {})}
+          validate={(v) => merge(toVerdict(checkValue('kv40', v, fmt)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100, fmt)) : {})}
+          onDraft={setTyped40}
           onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 40, v) })}
         />
       </td>
@@ -100,23 +113,16 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={5}
           value={kv100}
-          validate={(v) => merge(toVerdict(checkValue('kv100', v)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v)) : {})}
+          validate={(v) => merge(toVerdict(checkValue('kv100', v, fmt)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v, fmt)) : {})}
+          onDraft={setTyped100}
           onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 100, v) })}
         />
       </td>
-      <td className="num computed" title="Viscosity index, ASTM D2270, computed from ν40 and ν100">
-        {vi === null ? <span title="Not defined (ν100 below 2 mm²/s or viscosities unusable)">—</span> : roundHalfEven(vi)}
+      <td className="num computed" title="Viscosity index, ASTM D2270, computed from ν40 and ν100" data-testid="vi-cell">
+        {'vi' in vi ? roundHalfEven(vi.vi) : <span className="no-value" title={vi.why}>{vi.reason}<span className="visually-hidden"> ({vi.why})</span></span>}
       </td>
-      <td className="num computed" title="ISO 3448 viscosity grade of ν40">
-        {grade !== null ? (
-          `VG ${grade}`
-        ) : kv40 !== null ? (
-          <span className="muted" title={`Between grades; nearest is VG ${nearestGrade(kv40).grade}`}>
-            near {nearestGrade(kv40).grade}
-          </span>
-        ) : (
-          '—'
-        )}
+      <td className="num computed" title="ISO 3448 viscosity grade of ν40" data-testid="grade-cell">
+        {gradeText.startsWith('VG ') ? gradeText : <span className="muted">{gradeText}</span>}
       </td>
       <td className="num">
         <NumberField
@@ -124,7 +130,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={5}
           value={c.density15}
-          validate={(v) => toVerdict(checkValue('density15', v))}
+          validate={(v) => toVerdict(checkValue('density15', v, fmt))}
           onCommit={(v) => v !== null && onUpdate(c.id, { density15: v })}
         />
       </td>
@@ -135,7 +141,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={6}
           value={c.price.amount}
-          validate={(v) => toVerdict(checkValue('price', v))}
+          validate={(v) => toVerdict(checkValue('price', v, fmt))}
           onCommit={(v) => v !== null && onUpdate(c.id, { price: { ...c.price, amount: v } })}
           hint={<span className="unit">{BASIS_SHORT[c.price.basis]}</span>}
         />

@@ -7,6 +7,7 @@ import {
   isInGrade,
   isoViscosityGrade,
   nearestGrade,
+  gradePosition,
 } from '../../../src/core/viscosity/iso-grades';
 import { expectClose } from '../../helpers/tolerance';
 
@@ -70,6 +71,18 @@ describe('ISO 3448 / ASTM D2422 grades', () => {
     expect(nearestGrade(300).grade).toBe(320);
     expect(nearestGrade(180).grade).toBe(150); // |ln(180/150)| < |ln(180/220)|
     expect(nearestGrade(5000).grade).toBe(3200);
+  });
+
+  it('position among the grades: in a band, between bands, above VG 3200, below VG 2', () => {
+    // standard: band limits of ISO 3448 Table 1 and ASTM D2422 Table 1 (VG 2 from 1.98, VG 3200 to 3520)
+    expect(gradePosition(215)).toEqual({ kind: 'in', grade: 220 });
+    expect(gradePosition(3520)).toEqual({ kind: 'in', grade: 3200 });
+    expect(gradePosition(180)).toEqual({ kind: 'between', lower: 150, upper: 220 });
+    expect(gradePosition(3521)).toEqual({ kind: 'above', grade: 3200 });
+    expect(gradePosition(5000)).toEqual({ kind: 'above', grade: 3200 });
+    expect(gradePosition(1.97)).toEqual({ kind: 'below', grade: 2 });
+    expect(gradePosition(2.5)).toEqual({ kind: 'between', lower: 2, upper: 3 });
+    expect(() => gradePosition(0)).toThrow(NonPositiveViscosityError);
   });
 
   it('errors', () => {

@@ -56,7 +56,7 @@ describe('Library screen', () => {
     // 250 °C: beyond the usual range but inside the stored limit (−100 to 300 °C, field-rules.ts)
     type(aniline, '250');
     expect(bs().anilinePoint).toBe(250); // no calculation: stored as typed
-    expect(screen.getByText(/250 °C is outside the usual −60 to 180 °C for an aniline point/)).toBeTruthy();
+    expect(screen.getByText(/250 °C is outside the usual −60 °C to 180 °C for an aniline point/)).toBeTruthy();
   });
 
   it('rejects garbage and a density typed in kg/m³', () => {
@@ -131,5 +131,50 @@ describe('Library screen', () => {
     expect(within(screen.getByRole('table', { name: 'Import preview' })).getByText(/must be below ν40/)).toBeTruthy();
     expect((screen.getByRole('button', { name: 'Import' }) as HTMLButtonElement).disabled).toBe(true);
     expect(useLibrary.getState().components).toBe(before);
+  });
+
+  it('refuses ν100 below 2.0 mm²/s (ASTM D2270 scope) and keeps the stored value', () => {
+    renderFor('BW-190');
+    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
+    type(kv100, '0.001');
+    expect(screen.getByRole('alert').textContent).toMatch(/0\.001 mm²\/s is below 2 mm²\/s, where ASTM D2270 defines no viscosity index/);
+    expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8); // unchanged invented demo value
+  });
+
+  it('shows why there is no VI while the ν100 on screen is not below ν40, and the VI again after Escape', () => {
+    renderFor('BW-190');
+    const row = rowOf('BW-190');
+    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
+    fireEvent.focus(kv100);
+    fireEvent.change(kv100, { target: { value: '500' } });
+    const vi = within(row).getByTestId('vi-cell');
+    expect(vi.textContent).toMatch(/^ν100 ≥ ν40/);
+    expect(vi.textContent).not.toMatch(/\d{3}$/);
+    fireEvent.keyDown(kv100, { key: 'Escape' });
+    // ν40 485 / ν100 31.8 → VI 96 (ASTM D2270; cf. shared/reference/check-values.md V8: 480/31.5 → 96.09)
+    expect(within(row).getByTestId('vi-cell').textContent).toBe('96');
+  });
+
+  it('reads a stock above VG 3200 as "above VG 3200", not "near"', () => {
+    renderFor('BW-190');
+    const kv40 = screen.getByLabelText('ν40 of BW-190 [mm²/s]');
+    type(kv40, '5000');
+    // ISO 3448 / ASTM D2422: VG 3200 ends at 3520 mm²/s
+    expect(within(rowOf('BW-190')).getByTestId('grade-cell').textContent).toBe('above VG 3200');
+  });
+
+  it('refuses a blank or control-character name and stock code', () => {
+    renderFor('BW-190');
+    const name = screen.getByLabelText('Name of BW-190');
+    type(name, '   ');
+    expect(screen.getByRole('alert').textContent).toBe('a name is required');
+    type(name, 'Bright\u0007stock');
+    expect(screen.getByRole('alert').textContent).toMatch(/control character \(U\+0007\)/);
+    expect(bs().name).toBe('Group I bright stock');
+    fireEvent.keyDown(name, { key: 'Escape' });
+    const code = screen.getByLabelText('Stock code of Group I bright stock');
+    type(code, ' ');
+    expect(screen.getByRole('alert').textContent).toBe('a stock code is required');
+    expect(bs().code).toBe('BW-190');
   });
 });
