@@ -138,7 +138,16 @@ export function resolveBlendParts(
         `${fn}: lines[${i}].componentId = "${l.componentId}" names no component in the library`,
       );
     }
-    return { line: l, component: c, ...blendingViscosities(c) };
+    try {
+      return { line: l, component: c, ...blendingViscosities(c) };
+    } catch (e) {
+      // Name the stock whose data cannot be used (same error class, the stock code in front).
+      if (e instanceof BlendbenchInputError) {
+        const Same = e.constructor as typeof BlendbenchInputError;
+        throw new Same(`lines[${i}].${e.field}`, e.value, `${c.code}: ${e.message}`);
+      }
+      throw e;
+    }
   });
 }
 

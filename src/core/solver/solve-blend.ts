@@ -85,6 +85,8 @@ export interface SolveInvalidInput {
   status: 'invalid-input';
   /** The offending input, e.g. `targets.tolerancePct` or `components[2].density15`. */
   field: string;
+  /** The offending value as given. */
+  value: unknown;
   message: string;
 }
 export type SolveResult = SolveOptimal | SolveInfeasible | SolveInvalidInput;
@@ -311,7 +313,7 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
   try {
     P = prepareComponents(input.components, input.targets, input.method ?? 'refutas', input.reference ?? null);
   } catch (e) {
-    if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, message: e.message };
+    if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, value: e.value, message: e.message };
     throw e;
   }
   const r = solvePrepared(P);

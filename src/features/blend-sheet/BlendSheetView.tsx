@@ -14,6 +14,7 @@ import {
 } from '../../core/sheet/blend-sheet';
 import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
+import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
 import './blend-sheet.css';
 
@@ -74,8 +75,8 @@ function Refusal({ id, message }: { id: string; message: string | null }) {
   );
 }
 
-function errorText(e: unknown): string {
-  return e instanceof Error ? e.message : String(e);
+function errorText(e: unknown, components: readonly Component[]): string {
+  return userMessage(e, { components });
 }
 
 export function BlendSheetView(props: BlendSheetViewProps) {
@@ -125,7 +126,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
       return { sheet: buildBlendSheet(components, recipe, batch) };
     } catch (e) {
-      return { error: errorText(e) };
+      return { error: errorText(e, components) };
     }
   }, [components, recipe, batchUnit, batchValue]);
 
@@ -135,9 +136,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       const p = predict(recipe);
       return { rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit }), warnings: p.warnings ?? [] };
     } catch (e) {
-      return { error: errorText(e) };
+      return { error: errorText(e, components) };
     }
-  }, [recipe, predict, tUnit]);
+  }, [recipe, predict, tUnit, components]);
 
   if (!recipe) {
     return (

@@ -1,6 +1,7 @@
 import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Recipe } from '../../core/formulation/model';
 import { Notice } from '../../components/notices';
+import { useFormat } from '../../components/format';
 import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
@@ -26,6 +27,7 @@ export default function DesignerScreen() {
   const storedTargets = useRecipes((s) => s.targets);
   const activeRecipeId = useRecipes((s) => s.activeRecipeId);
   const settings = useSettings();
+  const fmt = useFormat();
 
   const targets = useDesignerStore((s) => s.targets);
   const lines = useDesignerStore((s) => s.lines);
@@ -68,12 +70,12 @@ export default function DesignerScreen() {
     setTimeout(() => {
       const s = useDesignerStore.getState();
       const reference = s.targets.referenceRecipeId ? useRecipes.getState().recipes.find((r) => r.id === s.targets.referenceRecipeId) ?? null : null;
-      const outcome = runSolve(useLibrary.getState().components, s.targets, reference, settings.blendMethod);
+      const outcome = runSolve(useLibrary.getState().components, s.targets, reference, settings.blendMethod, fmt);
       if (outcome.kind === 'optimal') s.applySolution(outcome.lines, outcome.message);
       else s.setNotice(outcome);
       setSolving(false);
     }, 0);
-  }, [settings.blendMethod]);
+  }, [settings.blendMethod, fmt]);
 
   const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
 
@@ -245,9 +247,7 @@ function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStor
   if (notice.kind === 'invalid-input') {
     return (
       <Notice tone="error" title="Check the input">
-        <p>
-          {notice.field}: {notice.message}
-        </p>
+        <p data-testid="invalid-input">{notice.message}</p>
       </Notice>
     );
   }

@@ -73,7 +73,7 @@ export const TargetsForm = memo(function TargetsForm({
           >
             {ISO_GRADES.filter((g) => g.grade >= 10).map((g) => (
               <option key={g.grade} value={g.grade}>
-                VG {g.grade} ({g.min}–{g.max} mm²/s)
+                VG {g.grade} ({fmt.say(g.min)}–{fmt.say(g.max)} mm²/s)
               </option>
             ))}
           </select>
@@ -84,7 +84,7 @@ export const TargetsForm = memo(function TargetsForm({
           value={targets.targetKv40}
           min={band?.min}
           max={band?.max}
-          hint={`empty = grade mid-point ${mid}`}
+          hint={`empty = grade mid-point ${fmt.say(mid)}`}
           onChange={(v) => onChange({ targetKv40: v })}
         />
         <Opt
@@ -97,7 +97,7 @@ export const TargetsForm = memo(function TargetsForm({
           onChange={(v) => onChange({ tolerancePct: v ?? 5 })}
         />
         <p className="band-note" data-testid="solve-band">
-          Solve band: {lo.toFixed(1)}–{hi.toFixed(1)} mm²/s at 40 °C (always inside the ISO band).
+          Solve band: {fmt.num(lo, 1)}–{fmt.num(hi, 1)} mm²/s at {fmt.temp(40)} (always inside the ISO band).
         </p>
       </fieldset>
 
@@ -196,19 +196,29 @@ export const TargetsForm = memo(function TargetsForm({
                       {c.code}
                     </th>
                     <td>
-                      <BoundInput
+                      <NumberField
                         label={`Minimum % of ${c.code}`}
+                        hideLabel
+                        size={5}
+                        allowEmpty
+                        className="bound-field"
                         value={pct(b?.min)}
                         disabled={excluded}
-                        onChange={(v) => onBound(c.id, { ...b, min: frac(v) ?? undefined })}
+                        validate={(v) => ({ error: boundProblem(c.code, 'min', v, pct(b?.max), fmt.say) })}
+                        onCommit={(v) => onBound(c.id, { ...b, min: frac(v) ?? undefined })}
                       />
                     </td>
                     <td>
-                      <BoundInput
+                      <NumberField
                         label={`Maximum % of ${c.code}`}
+                        hideLabel
+                        size={5}
+                        allowEmpty
+                        className="bound-field"
                         value={pct(b?.max)}
                         disabled={excluded}
-                        onChange={(v) => onBound(c.id, { ...b, max: frac(v) ?? undefined })}
+                        validate={(v) => ({ error: boundProblem(c.code, 'max', v, pct(b?.min), fmt.say) })}
+                        onCommit={(v) => onBound(c.id, { ...b, max: frac(v) ?? undefined })}
                       />
                     </td>
                   </tr>
@@ -253,25 +263,24 @@ export const TargetsForm = memo(function TargetsForm({
   );
 });
 
-function BoundInput({ label, value, disabled, onChange }: { label: string; value: number | null; disabled: boolean; onChange: (v: number | null) => void }) {
-  return (
-    <input
-      type="text"
-      inputMode="decimal"
-      className="narrow"
-      aria-label={label}
-      disabled={disabled}
-      defaultValue={value === null ? '' : String(Number(value.toFixed(2)))}
-      placeholder="—"
-      onBlur={(e) => {
-        const t = e.target.value.trim().replace(',', '.');
-        if (t === '') return onChange(null);
-        const v = Number(t);
-        if (Number.isFinite(v) && v >= 0 && v <= 100) onChange(v);
-        else e.target.value = value === null ? '' : String(value);
-      }}
-    />
-  );
+/**
+ * A per-stock limit as typed [% by mass], checked against 0–100 % and against the other limit of
+ * the same stock. Names the stock: "BW-280: minimum 40 % is above its maximum 30 %".
+ */
+export function boundProblem(
+  code: string,
+  which: 'min' | 'max',
+  v: number | null,
+  other: number | null,
+  say: (v: number) => string,
+): string | undefined {
+  if (v === null) return undefined;
+  const word = which === 'min' ? 'minimum' : 'maximum';
+  if (v < 0) return `${code}: a ${word} share cannot be negative (${say(v)} %)`;
+  if (v > 100) return `${code}: a ${word} share of ${say(v)} % is more than 100 %`;
+  if (other !== null && which === 'min' && v > other + 1e-9) return `${code}: minimum ${say(v)} % is above its maximum ${say(other)} %`;
+  if (other !== null && which === 'max' && v < other - 1e-9) return `${code}: maximum ${say(v)} % is below its minimum ${say(other)} %`;
+  return undefined;
 }
 
 function safeBand(grade: number) {
@@ -297,10 +306,11 @@ interface OptProps {
 
 /** A constraint field: empty means "no limit"; range checked before it is written. */
 function Opt({ label, unit, value, onChange, min, max, hint, decimals = 2, required = false }: OptProps) {
+  const fmt = useFormat();
   const validate = (v: number | null): Verdict => {
     if (v === null) return required ? { error: `${label}: a value is required` } : {};
-    if (min !== undefined && v < min) return { error: `${label}: at least ${min}` };
-    if (max !== undefined && v > max) return { error: `${label}: at most ${max}` };
+    if (min !== undefined && v < min) return { error: `${label}: at least ${fmt.say(min)}${unit ? ` ${unit}` : ''}` };
+    if (max !== undefined && v > max) return { error: `${label}: at most ${fmt.say(max)}${unit ? ` ${unit}` : ''}` };
     return {};
   };
   return (

@@ -6,6 +6,7 @@ import { predictBlend, type BlendProperties } from '../../core/formulation/blend
 import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 import type { Settings } from '../../state';
+import { userMessage } from '../../state/messages';
 
 export type Prediction =
   | {
@@ -50,7 +51,7 @@ export function predictRecipe(
     try {
       shear = blendAfterShear(components, used, { method, ...(grade === undefined ? {} : { grade }) });
     } catch (e) {
-      shear = { error: e instanceof Error ? e.message : String(e) };
+      shear = { error: userMessage(e, { components }) };
     }
     return {
       ok: true,
@@ -64,7 +65,7 @@ export function predictRecipe(
       codes: new Map(used.map((l) => [l.componentId, components.find((c) => c.id === l.componentId)?.code ?? l.componentId])),
     };
   } catch (e) {
-    return { ok: false, message: e instanceof Error ? e.message : String(e) };
+    return { ok: false, message: userMessage(e, { components }) };
   }
 }
 

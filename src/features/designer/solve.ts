@@ -2,6 +2,9 @@
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { solveBlend } from '../../core/solver/solve-blend';
+import { BlendbenchInputError } from '../../core/errors';
+import type { Formatter } from '../../components/format';
+import { userMessage } from '../../state/messages';
 import { OBJECTIVE_LABEL } from './TargetsForm';
 import type { SolveNotice } from './store';
 
@@ -23,15 +26,21 @@ const BINDING_LABEL: Record<string, string> = {
   combination: 'several constraints together',
 };
 
-export function runSolve(components: readonly Component[], targets: BlendTargets, reference: Recipe | null, method: BlendMethod): SolveOutcome {
+export function runSolve(
+  components: readonly Component[],
+  targets: BlendTargets,
+  reference: Recipe | null,
+  method: BlendMethod,
+  fmt: Formatter,
+): SolveOutcome {
   try {
     const r = solveBlend({ components, targets, reference, method });
     if (r.status === 'optimal') {
       const cost = r.properties.costPerLitre;
       const cur = r.properties.currency ?? '';
       const parts = [
-        `ν40 ${r.properties.kv40.toFixed(1)} mm²/s (band ${r.band.min.toFixed(1)}–${r.band.max.toFixed(1)})`,
-        cost === null ? null : `${cost.toFixed(3)} ${cur} per litre`,
+        `ν40 ${fmt.num(r.properties.kv40, 1)} mm²/s (band ${fmt.num(r.band.min, 1)}–${fmt.num(r.band.max, 1)})`,
+        cost === null ? null : `${fmt.num(cost, 3)} ${cur} per litre`,
         `${r.lines.length} components`,
       ].filter(Boolean);
       return {
@@ -43,8 +52,9 @@ export function runSolve(components: readonly Component[], targets: BlendTargets
     if (r.status === 'infeasible') {
       return { kind: 'infeasible', reason: r.reason, binding: BINDING_LABEL[r.binding] ?? r.binding, suggestion: r.suggestion };
     }
-    return { kind: 'invalid-input', field: r.field, message: r.message };
+    const err = new BlendbenchInputError(r.field, r.value, r.message);
+    return { kind: 'invalid-input', field: r.field, message: userMessage(err, { components, words: fmt }) };
   } catch (e) {
-    return { kind: 'error', message: e instanceof Error ? e.message : String(e) };
+    return { kind: 'error', message: userMessage(e, { components, words: fmt }) };
   }
 }

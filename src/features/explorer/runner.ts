@@ -5,6 +5,7 @@
  */
 import { createSubstituteSearch, type SubstituteSearchInput } from '../../core/search/substitutes';
 import type { FromWorker } from './protocol';
+import { userMessage } from '../../state/messages';
 
 export interface RunnerOptions {
   /** Target duration of one chunk [ms]. */
@@ -44,6 +45,6 @@ export async function runSearch(
     if (isCancelled()) return post({ type: 'cancelled', runId });
     post({ type: 'result', runId, result: search.result() });
   } catch (e) {
-    post({ type: 'error', runId, message: e instanceof Error ? e.message : String(e) });
+    post({ type: 'error', runId, message: userMessage(e, { components: input.components }) });
   }
 }

@@ -2,6 +2,7 @@
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import { epsilonConstraintSweep, type FrontierPoint } from '../../core/search/frontier';
 import type { BlendTargets, Component } from '../../core/formulation/model';
+import { userMessage } from '../../state/messages';
 
 export type TradeOff = { kind: 'points'; points: FrontierPoint[] } | { kind: 'error'; message: string };
 
@@ -20,6 +21,6 @@ export function combinationTradeOff(
   try {
     return { kind: 'points', points: epsilonConstraintSweep({ components, targets: { ...targets, objective: 'cost' }, componentIds: ids, method }) };
   } catch (e) {
-    return { kind: 'error', message: e instanceof Error ? e.message : String(e) };
+    return { kind: 'error', message: userMessage(e, { components }) };
   }
 }

@@ -1,6 +1,7 @@
 // Effective blending viscosity of a non-ideal stock, calibrated from a measured trial blend:
 // the stored calibration's provenance, and the form that solves a new one with the core.
 import { useId, useMemo, useState } from 'react';
+import { userMessage } from '../../state/messages';
 import type { Calibration, Component, Recipe } from '../../core/formulation/model';
 import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/formulation/calibration';
 import { blendingViscosities, predictBlend } from '../../core/formulation/blend-properties';
@@ -175,7 +176,7 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
       setErrors([]);
       setResult(cal);
     } catch (e) {
-      setErrors([e instanceof Error ? e.message.replace(/^calibrateComponent: /, '') : String(e)]);
+      setErrors([userMessage(e, { components, words: fmt })]);
       setResult(null);
     }
   };

@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
 import { resetDemo, useRecipes } from '../../../src/state';
@@ -166,5 +166,41 @@ describe('Solve', () => {
     fireEvent.change(name, { target: { value: 'VG 320 trial' } });
     expect(screen.queryByText(/The recipe name is/)).toBeNull();
     expect(useDesignerStore.getState().name).toBe('VG 320 trial');
+  });
+
+  it('per-stock limits: "150", "-5", "abc" and min above max are refused where typed, naming the stock', () => {
+    render(<DesignerScreen />);
+    const min = screen.getByLabelText('Minimum % of BW-280') as HTMLInputElement;
+    const max = screen.getByLabelText('Maximum % of BW-280') as HTMLInputElement;
+    const bounds = () => useDesignerStore.getState().targets.bounds['demo-bw-280'];
+    const before = bounds();
+    const enter = (el: HTMLInputElement, text: string) => {
+      fireEvent.focus(el);
+      fireEvent.change(el, { target: { value: text } });
+      fireEvent.keyDown(el, { key: 'Enter' });
+    };
+    enter(min, '150');
+    expect(screen.getByRole('alert').textContent).toBe('BW-280: a minimum share of 150 % is more than 100 %');
+    expect(min.value).toBe('150');
+    enter(min, '-5');
+    expect(screen.getByRole('alert').textContent).toBe('BW-280: a minimum share cannot be negative (−5 %)');
+    enter(min, 'abc');
+    expect(screen.getByRole('alert').textContent).toBe('Minimum % of BW-280: “abc” is not a number.');
+    expect(bounds()).toEqual(before);
+    fireEvent.keyDown(min, { key: 'Escape' });
+    enter(max, '30');
+    expect(bounds()?.max).toBeCloseTo(0.3, 12);
+    enter(min, '40');
+    expect(screen.getByRole('alert').textContent).toBe('BW-280: minimum 40 % is above its maximum 30 %');
+    expect(bounds()?.min).toBeUndefined();
+  });
+
+  it('a minimum above the maximum that reaches the solver (older saved targets) is worded for the user', async () => {
+    render(<DesignerScreen />);
+    act(() => useDesignerStore.getState().setBound('demo-bw-280', { min: 0.4, max: 0.3 }));
+    fireEvent.click(screen.getByText('Solve', { selector: 'button' }));
+    const msg = await screen.findByTestId('invalid-input', {}, { timeout: 20000 });
+    expect(msg.textContent).toBe('BW-280: minimum 40 % is above its maximum 30 %. Lower the minimum or raise the maximum (Per-stock limits).');
+    expect(msg.textContent).not.toMatch(/targets\.|prepareComponents|demo-/);
   });
 });

@@ -1,0 +1,109 @@
+/**
+ * The core's errors in the user's words. The calculation core names the function, the field path
+ * and the raw value (`prepareComponents: targets.bounds.demo-bw-280.min = 1.5; a fraction must lie
+ * between 0 and 1`), which is right for a programmer and wrong on a screen. Every screen that shows
+ * why a calculation stopped passes the error through {@link userMessage}: stock ids become stock
+ * codes, fractions become per cent, field paths become the names on screen, function names go.
+ */
+import { BlendbenchInputError } from '../core/errors';
+import type { Component } from '../core/formulation/model';
+import { FILE_NUMBERS, type SayNumbers } from './checks';
+
+/** Names on screen for the fields the core names in its messages. */
+const FIELD_WORDS: Record<string, string> = {
+  kv40: 'ν40',
+  kv100: 'ν100',
+  density15: 'density at 15 °C',
+  anilinePoint: 'aniline point',
+  pourPoint: 'pour point',
+  flashPoint: 'flash point',
+  massFraction: 'share',
+  pricePerKg: 'price per kg',
+  price: 'price',
+  shearLossPct: 'permanent shear loss',
+  oxidationRating: 'oxidation rating',
+  viscosityPoints: 'measured viscosities',
+  componentId: 'stock',
+  tolerancePct: 'tolerance',
+  targetKv40: 'target ν40',
+  minVi: 'minimum VI',
+  maxAnilinePoint: 'maximum aniline point',
+  maxPolymerFraction: 'maximum polymer share',
+  maxPourPoint: 'maximum pour point',
+  minFlashPoint: 'minimum flash point',
+  grade: 'viscosity grade',
+};
+
+interface Context {
+  components: readonly Component[];
+  /** Numbers in the user's format (default: "." and °C). */
+  words?: SayNumbers;
+}
+
+/** A share 0–1 as per cent text, e.g. "40 %". */
+function pct(f: unknown, words: SayNumbers): string {
+  return typeof f === 'number' && Number.isFinite(f) ? `${words.say(Number((f * 100).toPrecision(6)))} %` : String(f);
+}
+
+function codeOf(id: string, components: readonly Component[]): string {
+  return components.find((c) => c.id === id)?.code || id;
+}
+
+/** A field path in words: "components[2].density15" → "BW-280 density at 15 °C". */
+function fieldWords(path: string, components: readonly Component[]): string {
+  return path
+    .replace(/components\[(\d+)\]\.?/g, (_, i: string) => `${components[Number(i)]?.code ?? `stock ${Number(i) + 1}`} `)
+    .replace(/(?:parts|lines|reference\.lines)\[(\d+)\]\.?/g, (_, i: string) => `line ${Number(i) + 1} `)
+    .replace(/targets\./g, '')
+    .replace(/\b([a-zA-Z]+[0-9]*)\b/g, (w: string) => FIELD_WORDS[w] ?? w)
+    .trim();
+}
+
+/**
+ * The message of an error from the core (or anything thrown) in the user's words.
+ *
+ * @param e - what was thrown
+ * @param ctx - the library (to name stocks by code) and the number format
+ * @returns one or two sentences, naming the stock or field as the screens do
+ */
+export function userMessage(e: unknown, ctx: Context): string {
+  const words = ctx.words ?? FILE_NUMBERS;
+  const { components } = ctx;
+  if (e instanceof BlendbenchInputError) {
+    const f = e.field;
+    const bound = /^targets\.bounds\.(.+?)(?:\.(min|max))?$/.exec(f);
+    if (bound) {
+      const code = codeOf(bound[1]!, components);
+      if (!bound[2]) {
+        const b = e.value as { min?: number; max?: number };
+        return `${code}: minimum ${pct(b.min, words)} is above its maximum ${pct(b.max, words)}. Lower the minimum or raise the maximum (Per-stock limits).`;
+      }
+      const which = bound[2] === 'min' ? 'minimum' : 'maximum';
+      return `${code}: the ${which} share ${pct(e.value, words)} must be from 0 to 100 % (Per-stock limits).`;
+    }
+    if (f === 'targets.additive.massFraction') return `The additive treat rate ${pct(e.value, words)} must be from 0 to below 100 %.`;
+    if (f === 'reference') return 'Closest to a reference recipe needs a reference recipe: choose one under Objective.';
+    return polish(e.message, components);
+  }
+  if (e instanceof Error) return polish(e.message, components);
+  return String(e);
+}
+
+/**
+ * The generic rewording: drop "functionName: " openings, write field paths in words and stock ids
+ * as codes, and "x = v" as "x of v".
+ */
+function polish(message: string, components: readonly Component[]): string {
+  let m = message.replace(/\b[a-z]+[A-Z][A-Za-z]*: /g, '');
+  // Field paths: components[i].x, parts[i].x, targets.x, bare known fields.
+  m = m.replace(/\bpoints\[(\d+)\]\.kv\b/g, (_, i: string) => `measured viscosity ${Number(i) + 1}`);
+  m = m.replace(/\bpoints\[(\d+)\]/g, (_, i: string) => `measured point ${Number(i) + 1}`);
+  m = m.replace(/\b(?:components|parts|lines|reference\.lines)\[\d+\](?:\.[A-Za-z0-9]+)*|\btargets\.[A-Za-z0-9.]+/g, (p) => fieldWords(p, components));
+  m = m.replace(/\b(kv40|kv100|density15|anilinePoint|pourPoint|flashPoint|massFraction|shearLossPct|tolerancePct|componentId)\b/g, (w) => FIELD_WORDS[w] ?? w);
+  // Stock ids in quotes or bare → codes.
+  for (const c of components) {
+    if (c.id && c.code && c.id !== c.code && m.includes(c.id)) m = m.split(`"${c.id}"`).join(c.code).split(c.id).join(c.code);
+  }
+  m = m.replace(/ = /g, ' of ');
+  return m.charAt(0).toUpperCase() + m.slice(1);
+}
