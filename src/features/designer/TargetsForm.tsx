@@ -4,6 +4,7 @@ import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { ISO_GRADES, gradeBand } from '../../core/viscosity/iso-grades';
 import { NumberField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
+import { checkNumber, type SayNumbers } from '../../state/field-rules';
 
 export const OBJECTIVE_LABEL: Record<Objective, string> = {
   cost: 'Least cost per litre',
@@ -204,7 +205,7 @@ export const TargetsForm = memo(function TargetsForm({
                         className="bound-field"
                         value={pct(b?.min)}
                         disabled={excluded}
-                        validate={(v) => ({ error: boundProblem(c.code, 'min', v, pct(b?.max), fmt.say) })}
+                        validate={(v) => ({ error: boundProblem(c.code, 'min', v, pct(b?.max), fmt) })}
                         onCommit={(v) => onBound(c.id, { ...b, min: frac(v) ?? undefined })}
                       />
                     </td>
@@ -217,7 +218,7 @@ export const TargetsForm = memo(function TargetsForm({
                         className="bound-field"
                         value={pct(b?.max)}
                         disabled={excluded}
-                        validate={(v) => ({ error: boundProblem(c.code, 'max', v, pct(b?.min), fmt.say) })}
+                        validate={(v) => ({ error: boundProblem(c.code, 'max', v, pct(b?.min), fmt) })}
                         onCommit={(v) => onBound(c.id, { ...b, max: frac(v) ?? undefined })}
                       />
                     </td>
@@ -264,22 +265,17 @@ export const TargetsForm = memo(function TargetsForm({
 });
 
 /**
- * A per-stock limit as typed [% by mass], checked against 0–100 % and against the other limit of
- * the same stock. Names the stock: "BW-280: minimum 40 % is above its maximum 30 %".
+ * A per-stock limit as typed [% by mass]: within the stored rule for a limit (0–100 %,
+ * field-rules.ts) and not past the other limit of the same stock. Names the stock:
+ * "BW-280: minimum 40 % is above its maximum 30 %".
  */
-export function boundProblem(
-  code: string,
-  which: 'min' | 'max',
-  v: number | null,
-  other: number | null,
-  say: (v: number) => string,
-): string | undefined {
+export function boundProblem(code: string, which: 'min' | 'max', v: number | null, other: number | null, words: SayNumbers): string | undefined {
   if (v === null) return undefined;
   const word = which === 'min' ? 'minimum' : 'maximum';
-  if (v < 0) return `${code}: a ${word} share cannot be negative (${say(v)} %)`;
-  if (v > 100) return `${code}: a ${word} share of ${say(v)} % is more than 100 %`;
-  if (other !== null && which === 'min' && v > other + 1e-9) return `${code}: minimum ${say(v)} % is above its maximum ${say(other)} %`;
-  if (other !== null && which === 'max' && v < other - 1e-9) return `${code}: maximum ${say(v)} % is below its minimum ${say(other)} %`;
+  const refused = checkNumber('bound', v / 100, code, words);
+  if (refused) return refused.replace(/the limit/, `the ${word}`);
+  if (other !== null && which === 'min' && v > other + 1e-9) return `${code}: minimum ${words.say(v)} % is above its maximum ${words.say(other)} %`;
+  if (other !== null && which === 'max' && v < other - 1e-9) return `${code}: maximum ${words.say(v)} % is below its minimum ${words.say(other)} %`;
   return undefined;
 }
 

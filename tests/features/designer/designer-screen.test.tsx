@@ -180,10 +180,10 @@ describe('Solve', () => {
       fireEvent.keyDown(el, { key: 'Enter' });
     };
     enter(min, '150');
-    expect(screen.getByRole('alert').textContent).toBe('BW-280: a minimum share of 150 % is more than 100 %');
+    expect(screen.getByRole('alert').textContent).toBe('BW-280: the minimum 150 % is outside the possible range (from 0 % to 100 %)');
     expect(min.value).toBe('150');
     enter(min, '-5');
-    expect(screen.getByRole('alert').textContent).toBe('BW-280: a minimum share cannot be negative (−5 %)');
+    expect(screen.getByRole('alert').textContent).toBe('BW-280: the minimum −5 % is outside the possible range (from 0 % to 100 %)');
     enter(min, 'abc');
     expect(screen.getByRole('alert').textContent).toBe('Minimum % of BW-280: “abc” is not a number.');
     expect(bounds()).toEqual(before);
