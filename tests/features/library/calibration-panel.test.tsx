@@ -133,7 +133,7 @@ describe('Calibration from a trial blend (library details)', () => {
     // stock itself cannot be explained by any positive effective viscosity — physical bound (no external source).
     fillMeasured(form, '20', '4');
     solve(form);
-    expect(within(form).getByRole('alert').textContent).toMatch(/measured ν40 = 20 mm²\/s is thinner than any effective ν40 of BW-510/);
+    expect(within(form).getByRole('alert').textContent).toMatch(/measured ν40 of 20 mm²\/s is thinner than any effective ν40 of BW-510/);
     expect(pib().calibration).toBeNull();
   });
 });
