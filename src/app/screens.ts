@@ -23,6 +23,7 @@ export const SCREENS: ScreenEntry[] = [
   { id: 'library', label: 'Stocks', blurb: 'Component library', predictions: true, load: () => import('../features/library/LibraryScreen') },
   { id: 'designer', label: 'Recipe designer', blurb: 'Solve and fine-tune a recipe', predictions: true, load: () => import('../features/designer/DesignerScreen') },
   { id: 'explorer', label: 'Substitute explorer', blurb: 'Replace a withdrawn stock', predictions: true, load: () => import('../features/explorer/ExplorerScreen') },
+  { id: 'recipes', label: 'Recipes', blurb: 'Status, revisions, specification', predictions: true, load: () => import('../features/recipes/RecipesScreen') },
   { id: 'blend-sheet', label: 'Blend sheet', blurb: 'Printable sheet for the plant', predictions: true, load: () => import('../features/blend-sheet/BlendSheetScreen') },
   { id: 'settings', label: 'Settings', blurb: 'Units, saved work, backups', predictions: false, load: () => import('../features/settings/SettingsScreen') },
 ];

@@ -103,8 +103,10 @@ export {
   CHARGE_ROLE_LABEL,
   defaultBlendingInstructions,
   qcReleaseTargets,
+  sheetPrediction,
   blendSheetCsvRows,
   BLEND_SHEET_CAUTIONS,
+  PER_SPECIFICATION,
 } from './sheet/blend-sheet';
 
 // Predicted blend properties (with "show working" explanations)
@@ -211,3 +213,29 @@ export {
 } from './lineplan/plan';
 export type { PlainLineComponent, PlainLineGrade, PlainLineProblem, PlainLineResult, PlainLineGradeResult } from './lineplan/plain';
 export { planLinePlain } from './lineplan/plain';
+
+// Equivalent sources (first and second source of a grade) and grouping of candidates
+export type { EquivalenceTolerance, CandidateGroup } from './search/equivalent-sources';
+export { equivalentSources, sourceGroups, groupCandidates, DEFAULT_EQUIVALENCE_TOLERANCE } from './search/equivalent-sources';
+
+// Recipe lifecycle: the stock data a recipe was saved with, the change between revisions
+export type { StockFieldChange, StockChange } from './recipes/stock-basis';
+export { stockSnapshot, recordStockBasis, stockBasisChanges } from './recipes/stock-basis';
+export type { ShareChange } from './recipes/share-changes';
+export { shareChanges } from './recipes/share-changes';
+
+// Release hold: why a blend sheet is not for release
+export type { HoldKind, HoldReason, ReleaseHoldInput, ReleaseAssessment } from './release/release-hold';
+export { releaseHoldReasons, assessRelease, RELEASE_HOLD_LABEL } from './release/release-hold';
+
+// Exchange rates at the boundary (prices restated in one base currency)
+export type { ExchangeRate, UnpricedStock, PricedLibrary } from './currency/exchange-rates';
+export {
+  normaliseCurrency,
+  rateToBase,
+  priceInBase,
+  priceLibraryInBase,
+  solvableLibrary,
+  describeRate,
+  unpricedMessage,
+} from './currency/exchange-rates';

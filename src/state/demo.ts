@@ -13,7 +13,9 @@
  * 2 %) and rounded to 0.5 %; tests/state/demo.test.ts checks with the core's Refutas blend that each
  * is inside its ISO 3448 band.
  */
-import type { BlendTargets, Component, ComponentCategory, PriceBasis, Availability, Recipe } from '../core/formulation/model';
+import type { BlendTargets, Component, ComponentCategory, PriceBasis, Availability, Recipe, ReleaseSpecification } from '../core/formulation/model';
+import { DEFAULT_MAX_POLYMER_FRACTION } from '../core/formulation/model';
+import { recordStockBasis } from '../core/recipes/stock-basis';
 
 export const DEMO_LABEL = 'invented demo data';
 export const DEMO_PLANT = 'Brackwater Blending Works';
@@ -129,24 +131,54 @@ export const DEMO_REFERENCE_LINES: Record<220 | 320 | 460 | 680, Array<[string, 
 
 export const demoRecipeId = (grade: number): string => `demo-vg${grade}`;
 
-/** The invented plant's current reference recipes (fresh copies). */
-export function demoRecipes(): Recipe[] {
-  return ([220, 320, 460, 680] as const).map((grade) => ({
-    id: demoRecipeId(grade),
-    name: `Gear oil VG ${grade} — current recipe (invented demo)`,
-    grade,
-    lines: DEMO_REFERENCE_LINES[grade].map(([componentId, massFraction]) => ({ componentId, massFraction })),
-    revision: 1,
-    isReference: true,
-    notes:
-      grade === 680
-        ? 'Invented demo recipe: bright stock thickened with polyisobutylene, EP package at 2 % by mass.'
-        : 'Invented demo recipe built on the Group I heavy stocks being withdrawn; EP package at 2 % by mass.',
-    updatedAt: `${DEMO_DATE}T08:00:00.000Z`,
-  }));
+/**
+ * The invented plant's release specification for each demo grade (invented demo limits, not any
+ * published or customer specification): set with a margin around the demo recipes' predictions.
+ */
+function demoSpecification(grade: 220 | 320 | 460 | 680): ReleaseSpecification {
+  return {
+    reference: `BBW-SPEC-VG${grade} (invented demo specification)`,
+    kv100Min: null,
+    kv100Max: null,
+    viMin: 90,
+    density15Min: 0.88,
+    density15Max: 0.915,
+    flashMin: 220,
+    pourMax: grade >= 460 ? -3 : -6,
+    copper: '1b max',
+    foam: 'Sequence I: 50/0 mL max',
+  };
 }
 
-/** Default solve targets for a grade (all limits off except the additive treat). */
+/** The invented plant's current reference recipes (fresh copies): approved, with their stock data recorded. */
+export function demoRecipes(): Recipe[] {
+  const lib = demoComponents();
+  return ([220, 320, 460, 680] as const).map((grade) => {
+    const lines = DEMO_REFERENCE_LINES[grade].map(([componentId, massFraction]) => ({ componentId, massFraction }));
+    return {
+      id: demoRecipeId(grade),
+      name: `Gear oil VG ${grade} — current recipe (invented demo)`,
+      grade,
+      lines,
+      revision: 1,
+      isReference: true,
+      notes:
+        grade === 680
+          ? 'Invented demo recipe: bright stock thickened with polyisobutylene, EP package at 2 % by mass.'
+          : 'Invented demo recipe built on the Group I heavy stocks being withdrawn; EP package at 2 % by mass.',
+      updatedAt: `${DEMO_DATE}T08:00:00.000Z`,
+      status: 'approved',
+      approvedAt: `${DEMO_DATE}T08:00:00.000Z`,
+      archived: false,
+      supersedes: null,
+      reasonForChange: '',
+      specification: demoSpecification(grade),
+      stockBasis: recordStockBasis(lib, lines, `${DEMO_DATE}T08:00:00.000Z`),
+    };
+  });
+}
+
+/** Default solve targets for a grade (all limits off except the additive treat and the default polymer cap). */
 export function defaultTargets(grade: number, additiveId: string | null, referenceRecipeId: string | null): BlendTargets {
   return {
     grade,
@@ -154,7 +186,7 @@ export function defaultTargets(grade: number, additiveId: string | null, referen
     tolerancePct: 5,
     minVi: null,
     maxAnilinePoint: null,
-    maxPolymerFraction: null,
+    maxPolymerFraction: DEFAULT_MAX_POLYMER_FRACTION,
     maxPourPoint: null,
     minFlashPoint: null,
     additive: additiveId ? { componentId: additiveId, massFraction: EP_TREAT } : null,

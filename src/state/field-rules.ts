@@ -16,6 +16,7 @@
  *   checkText(field, value, who?)            → message | null
  *   checkNumber(field, value, who?)          → message | null   (value: number | null)
  *   checkDate(field, value, who?)            → message | null   (YYYY-MM-DD or empty)
+ *   specificationProblems(spec, who?)        → FieldProblem[]   (a recipe's release limits; min ≤ max)
  *   checkCount(collection, count, who?)      → message | null
  *   checkFractions(fractions, who?, what?)   → message | null   (each 0–1, no stock twice, Σ = 100 %)
  *   checkBoundPair(min, max, who?)           → message | null   (min ≤ max, each 0–1)
@@ -76,6 +77,16 @@ export const TEXT_RULES = Object.freeze({
   instructions: textRule('text of the blending instructions', 20_000, { singleLine: false }),
   companyName: textRule('company name', 200),
   currencySymbol: textRule('currency symbol', 8),
+  /** The currency every cost is restated in (Settings); a code such as EUR. */
+  baseCurrency: textRule('base currency', 12, { required: true }),
+  /** The currency of an exchange rate (Settings). */
+  rateCurrency: textRule('currency of the rate', 12, { required: true }),
+  /** Why a recipe revision was made (printed on the blend sheet). */
+  reasonForChange: textRule('reason for change', 1000),
+  /** Name or number of a recipe's product specification. */
+  specReference: textRule('specification reference', 120),
+  /** A worded specification limit (copper strip, foam). */
+  specText: textRule('specification limit', 60),
   /** ISO date-time stamps written by Blendbench. */
   timestamp: textRule('time stamp', 40),
 } satisfies Record<string, TextRule>);
@@ -181,6 +192,21 @@ export const NUMBER_RULES = Object.freeze({
   operatingTempC: numberRule('operating temperature', '°C', -60, 200),
   /** Cold-start temperature [°C]. */
   coldStartTempC: numberRule('cold-start temperature', '°C', -60, 60),
+  /** Product specification: ν100 limits [mm²/s] (from the D2270 floor of 2.0). */
+  specKv100: numberRule('specification ν100 limit', 'mm²/s', KV100_MIN, KV_MAX, { nullable: true }),
+  /** Product specification: minimum VI. */
+  specViMin: numberRule('specification VI minimum', '', -100, 500, { nullable: true }),
+  /** Product specification: density limits at 15 °C [kg/L] (the stocks' own range). */
+  specDensity15: numberRule('specification density limit', 'kg/L', DENSITY15_MIN, DENSITY15_MAX, { nullable: true }),
+  /** Product specification: minimum flash point [°C]. */
+  specFlashMin: numberRule('specification flash-point minimum', '°C', -50, 500, { nullable: true }),
+  /** Product specification: maximum pour point [°C]. */
+  specPourMax: numberRule('specification pour-point maximum', '°C', -100, 100, { nullable: true }),
+  /**
+   * Exchange rate: base-currency units per unit of the quoted currency. 10⁻⁹–10⁹ spans any pair of
+   * currencies in use (common practice, no source); zero or a negative rate is refused.
+   */
+  exchangeRate: numberRule('exchange rate', '', 1e-9, 1e9),
 } satisfies Record<string, NumberRule>);
 
 export type NumberRuleKey = keyof typeof NUMBER_RULES;
@@ -199,6 +225,8 @@ export const COLLECTION_LIMITS = Object.freeze({
   recipes: 10_000,
   linesPerRecipe: 60,
   viscosityPoints: 20,
+  /** Exchange rates in the settings (one per currency). */
+  exchangeRates: 100,
   /** Rows (CSV) or components (JSON) in one library import: a whole library. */
   importRows: 25_000,
   /** Largest library import file [characters]. */
@@ -214,6 +242,7 @@ const COLLECTION_LABEL: Record<CollectionKey, [one: string, many: string]> = {
   recipes: ['recipe', 'recipes'],
   linesPerRecipe: ['line', 'lines'],
   viscosityPoints: ['viscosity point', 'viscosity points'],
+  exchangeRates: ['exchange rate', 'exchange rates'],
   importRows: ['row', 'rows'],
   importFileChars: ['character', 'characters'],
   backupFileChars: ['character', 'characters'],
@@ -302,8 +331,8 @@ export function checkNumber(field: NumberRuleKey, value: number | null, who?: st
 
 const DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 /** Check a stored date: empty, or a real calendar date YYYY-MM-DD. */
-export function checkDate(field: 'sourceDate' | 'calibratedOn', value: string, who?: string): string | null {
-  const label = field === 'sourceDate' ? 'source date' : 'calibration date';
+export function checkDate(field: 'sourceDate' | 'calibratedOn' | 'rateAsOf', value: string, who?: string): string | null {
+  const label = field === 'sourceDate' ? 'source date' : field === 'calibratedOn' ? 'calibration date' : '“as of” date of the rate';
   if (typeof value !== 'string') return say(who, `the ${label} must be text`);
   if (value === '') return null;
   const m = DATE.exec(value);
@@ -476,6 +505,60 @@ export interface RecipeFields {
   revision: number;
   notes: string;
   updatedAt: string;
+  approvedAt: string | null;
+  supersedes: string | null;
+  reasonForChange: string;
+  specification: SpecificationFields;
+  stockBasis: { recordedAt: string; stocks: ReadonlyArray<SnapshotFields> } | null;
+}
+
+/** A recipe's product specification as stored (structurally the core's `ReleaseSpecification`). */
+export interface SpecificationFields {
+  reference: string;
+  kv100Min: number | null;
+  kv100Max: number | null;
+  viMin: number | null;
+  density15Min: number | null;
+  density15Max: number | null;
+  flashMin: number | null;
+  pourMax: number | null;
+  copper: string;
+  foam: string;
+}
+
+/** The stock data recorded with a recipe (structurally the core's `StockSnapshot`). */
+export interface SnapshotFields {
+  componentId: string;
+  code: string;
+  viscosityPoints: ReadonlyArray<{ tempC: number; kv: number }>;
+  calibratedKv40: number | null;
+  calibratedKv100: number | null;
+  density15: number;
+}
+
+/**
+ * Every limit of a product specification against its rule; a minimum may not exceed its maximum.
+ * `who` names the recipe.
+ */
+export function specificationProblems(sp: SpecificationFields, who?: string): FieldProblem[] {
+  const { out, add } = collector();
+  add(['reference'], checkText('specReference', sp.reference, who));
+  add(['kv100Min'], checkNumber('specKv100', sp.kv100Min, who));
+  add(['kv100Max'], checkNumber('specKv100', sp.kv100Max, who));
+  add(['viMin'], checkNumber('specViMin', sp.viMin, who));
+  add(['density15Min'], checkNumber('specDensity15', sp.density15Min, who));
+  add(['density15Max'], checkNumber('specDensity15', sp.density15Max, who));
+  add(['flashMin'], checkNumber('specFlashMin', sp.flashMin, who));
+  add(['pourMax'], checkNumber('specPourMax', sp.pourMax, who));
+  add(['copper'], checkText('specText', sp.copper, who));
+  add(['foam'], checkText('specText', sp.foam, who));
+  const pair = (lo: number | null, hi: number | null, what: string, unit: string) =>
+    lo !== null && hi !== null && lo > hi
+      ? say(who, `the specification's ${what} minimum ${fmtRuleNumber(lo)} ${unit} is above its maximum ${fmtRuleNumber(hi)} ${unit}`)
+      : null;
+  add(['kv100Min'], pair(sp.kv100Min, sp.kv100Max, 'ν100', 'mm²/s'));
+  add(['density15Min'], pair(sp.density15Min, sp.density15Max, 'density', 'kg/L'));
+  return out;
 }
 
 /** Every field of a recipe against its rule; the lines must add up to 100 %. `who` defaults to "recipe “<name>”". */
@@ -488,6 +571,27 @@ export function recipeProblems(r: RecipeFields, who: string = recipeWho(String(r
   add(['revision'], checkNumber('revision', r.revision, who));
   add(['notes'], checkText('recipeNotes', r.notes, who));
   add(['updatedAt'], checkText('timestamp', r.updatedAt, who));
+  add(['approvedAt'], r.approvedAt === null ? null : checkText('timestamp', r.approvedAt, who));
+  add(['supersedes'], r.supersedes === null ? null : checkText('id', r.supersedes, who));
+  add(['reasonForChange'], checkText('reasonForChange', r.reasonForChange, who));
+  for (const p of specificationProblems(r.specification, who)) add(['specification', ...p.path], p.message);
+  if (r.stockBasis) {
+    add(['stockBasis', 'recordedAt'], checkText('timestamp', r.stockBasis.recordedAt, who));
+    add(['stockBasis', 'stocks'], checkCount('linesPerRecipe', r.stockBasis.stocks.length, who));
+    r.stockBasis.stocks.forEach((sn, i) => {
+      const at = (f: string) => ['stockBasis', 'stocks', i, f];
+      add(at('componentId'), checkText('id', sn.componentId, who));
+      add(at('code'), checkText('stockCode', sn.code, who));
+      add(at('viscosityPoints'), checkCount('viscosityPoints', sn.viscosityPoints.length, who));
+      sn.viscosityPoints.forEach((p, j) => {
+        add(['stockBasis', 'stocks', i, 'viscosityPoints', j, 'tempC'], checkNumber('viscosityTempC', p.tempC, who));
+        add(['stockBasis', 'stocks', i, 'viscosityPoints', j, 'kv'], checkNumber('kv', p.kv, who));
+      });
+      add(at('calibratedKv40'), sn.calibratedKv40 === null ? null : checkNumber('effectiveKv', sn.calibratedKv40, who));
+      add(at('calibratedKv100'), sn.calibratedKv100 === null ? null : checkNumber('effectiveKv', sn.calibratedKv100, who));
+      add(at('density15'), checkNumber('density15', sn.density15, who));
+    });
+  }
   return out;
 }
 
@@ -568,6 +672,8 @@ export interface SettingsFields {
   operatingTempC: number;
   coldStartTempC: number;
   lastBackupAt: string | null;
+  baseCurrency: string;
+  exchangeRates: ReadonlyArray<{ currency: string; rate: number; asOf: string }>;
 }
 
 /** Every settings field against its rule. */
@@ -578,6 +684,18 @@ export function settingsProblems(s: SettingsFields): FieldProblem[] {
   add(['operatingTempC'], checkNumber('operatingTempC', s.operatingTempC));
   add(['coldStartTempC'], checkNumber('coldStartTempC', s.coldStartTempC));
   add(['lastBackupAt'], s.lastBackupAt === null ? null : checkText('timestamp', s.lastBackupAt));
+  add(['baseCurrency'], checkText('baseCurrency', s.baseCurrency));
+  add(['exchangeRates'], checkCount('exchangeRates', s.exchangeRates.length));
+  const seen = new Set<string>();
+  s.exchangeRates.forEach((r, i) => {
+    const who = `the rate for ${clip(String(r.currency ?? '').trim(), 12) || '(no currency)'}`;
+    add(['exchangeRates', i, 'currency'], checkText('rateCurrency', r.currency, who));
+    add(['exchangeRates', i, 'rate'], checkNumber('exchangeRate', r.rate, who));
+    add(['exchangeRates', i, 'asOf'], checkDate('rateAsOf', r.asOf, who));
+    const key = String(r.currency ?? '').trim().toUpperCase();
+    if (key && seen.has(key)) add(['exchangeRates', i, 'currency'], say(who, 'this currency has a rate already; keep one'));
+    seen.add(key);
+  });
   return out;
 }
 

@@ -22,9 +22,13 @@
  *   libraryActions: addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id) → id
  *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
  *     (also useLibrary.getState().…)
- *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes? }) → id
- *     | updateRecipe(id, patch) | setLines(id, lines) | raiseRevision(id) | duplicateRecipe(id, name?) → id
- *     | removeRecipe(id) | setActiveRecipe(id) | setTargets(recipeId, BlendTargets)
+ *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis? }) → id (a draft)
+ *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
+ *     | saveChanges(id, changes, reason) → id  (a draft in place; an approved recipe → a new draft revision)
+ *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)
+ *     | approveRecipe(id) (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
+ *     | setArchived(id, bool) | duplicateRecipe(id, name?) → id | removeRecipe(id) (undoable)
+ *     | setActiveRecipe(id) | setTargets(recipeId, BlendTargets) (drafts only; returns a refusal message otherwise)
  *     | setSheetInputs(recipeId, Partial<SheetInputs>) (blend-sheet lot, batch size/unit, vessel, edited
  *       instructions; saved, not an undo step; read with useRecipes(s => s.sheets[id]))
  *     (also available as useRecipes.getState().addRecipe … )
@@ -40,7 +44,7 @@ import { useMemo } from 'react';
 import { useStore } from 'zustand';
 import type { Component, Recipe } from '../core/formulation/model';
 import { useLibraryStore, LIBRARY_SPEC } from './library';
-import { useRecipesStore, RECIPES_SPEC, demoRecipesData } from './recipes';
+import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
 import {
   useStorageStatus,
@@ -54,8 +58,8 @@ import { demoComponents, demoSettingsPatch } from './demo';
 
 export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
-export type { RecipesState, RecipesData, NewRecipe, SheetInputs } from './recipes';
-export { DEFAULT_SHEET_INPUTS } from './recipes';
+export type { RecipesState, RecipesData, NewRecipe, SheetInputs, RecipeChanges } from './recipes';
+export { DEFAULT_SHEET_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
 export { blankComponent, freeCode } from './library';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS } from './settings';
@@ -85,7 +89,11 @@ export const recipeActions = {
     useRecipesStore.getState().updateRecipe(...a),
   setLines: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setLines']>) =>
     useRecipesStore.getState().setLines(...a),
-  raiseRevision: (id: string) => useRecipesStore.getState().raiseRevision(id),
+  saveChanges: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveChanges(id, changes, reason),
+  saveRevision: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveRevision(id, changes, reason),
+  approveRecipe: (id: string) => useRecipesStore.getState().approveRecipe(id),
+  renameRecipe: (id: string, name: string) => useRecipesStore.getState().renameRecipe(id, name),
+  setArchived: (id: string, archived: boolean) => useRecipesStore.getState().setArchived(id, archived),
   duplicateRecipe: (id: string, name?: string) => useRecipesStore.getState().duplicateRecipe(id, name),
   removeRecipe: (id: string) => useRecipesStore.getState().removeRecipe(id),
   setActiveRecipe: (id: string | null) => useRecipesStore.getState().setActiveRecipe(id),
@@ -207,6 +215,8 @@ let stopWatching: Array<() => void> = [];
 export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
   started ??= (async () => {
     await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings()]);
+    // Recipes saved before stock data were recorded: record the library as it is now, once.
+    useRecipesStore.getState().recordMissingStockBasis(useLibraryStore.getState().components);
     useLibraryStore.temporal.getState().clear();
     useRecipesStore.temporal.getState().clear();
     const status = useStorageStatus.getState().stores;

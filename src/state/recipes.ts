@@ -2,7 +2,9 @@
 import { create } from 'zustand';
 import { persist } from 'zustand/middleware';
 import { temporal } from 'zundo';
-import type { BlendTargets, Recipe, RecipeLine } from '../core/formulation/model';
+import type { BlendTargets, Component, Recipe, RecipeLine, ReleaseSpecification, StockBasis } from '../core/formulation/model';
+import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../core/formulation/model';
+import { recordStockBasis } from '../core/recipes/stock-basis';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { recipesDataSchema } from './schemas';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
@@ -49,6 +51,28 @@ export interface NewRecipe {
   lines?: RecipeLine[];
   isReference?: boolean;
   notes?: string;
+  specification?: ReleaseSpecification;
+  /** The stock data the lines were solved with (record it with `recordStockBasis`). */
+  stockBasis?: StockBasis | null;
+  reasonForChange?: string;
+}
+
+/** What a saved change of a recipe may carry (any subset). */
+export interface RecipeChanges {
+  name?: string;
+  grade?: number;
+  lines?: RecipeLine[];
+  notes?: string;
+  specification?: ReleaseSpecification;
+  /** The solve targets (constraints) saved with the recipe. */
+  targets?: BlendTargets;
+  /** The stock data the new lines were solved with. */
+  stockBasis?: StockBasis | null;
+}
+
+/** The refusal when content of an approved or superseded recipe would be overwritten. */
+export function approvedMessage(r: Pick<Recipe, 'name' | 'revision' | 'status'>): string {
+  return `${recipeWho(r.name)}, revision ${r.revision}, is ${r.status}: it is never overwritten — save a new revision instead`;
 }
 
 /**
@@ -56,37 +80,90 @@ export interface NewRecipe {
  * that returns `string | null` refuses a value the rules refuse, keeps the stored value and returns the
  * message (null = stored); one that returns an id throws `FieldRuleError` instead. Entry forms check
  * with the same rules beforehand, so these are the last guard, never the first message.
+ *
+ * Lifecycle (issue 10, item 15): an approved or superseded recipe is never overwritten. Its content
+ * (lines, grade, specification, stock basis, status, supersedes, reason, revision) and its targets
+ * are refused by `updateRecipe`, `setLines` and `setTargets` (with {@link approvedMessage});
+ * `saveChanges` / `saveRevision` make a new draft revision instead.
  */
 export interface RecipesState extends RecipesData {
-  /** Create a recipe (revision 1); returns its id. Does not change the active recipe. Throws FieldRuleError. */
+  /** Create a recipe (a draft, revision 1); returns its id. Does not change the active recipe. Throws FieldRuleError. */
   addRecipe: (init: NewRecipe) => string;
-  /** Change fields of a recipe; stamps `updatedAt`. Does not raise the revision. Null, or why it was refused. */
+  /**
+   * Change fields of a recipe; stamps `updatedAt`. Null, or why it was refused. Name, notes, archived
+   * and isReference can always change; content only while the recipe is a draft.
+   */
   updateRecipe: (id: string, patch: Partial<Omit<Recipe, 'id' | 'updatedAt'>>) => string | null;
-  /** Replace a recipe's lines (mass fractions summing to 1). Null, or why it was refused. */
+  /** Replace a draft's lines (mass fractions summing to 1). Null, or why it was refused. */
   setLines: (id: string, lines: RecipeLine[]) => string | null;
-  /** Raise the revision number (a change the plant must know about). */
-  raiseRevision: (id: string) => void;
-  /** Copy a recipe (revision 1, not a reference); returns the new id. Throws FieldRuleError. */
+  /**
+   * Save changes to a recipe, the safe way: a draft is changed in place (same id, same revision; a
+   * blank reason keeps the draft's reason); an approved or superseded recipe is never overwritten — a
+   * new draft revision that supersedes it is created instead (see `saveRevision`). Returns the id of
+   * the recipe now holding the changes. Throws FieldRuleError when the changes break a field rule.
+   */
+  saveChanges: (id: string, changes: RecipeChanges, reason: string) => string;
+  /**
+   * Create a new draft revision of a recipe: a copy with `changes` applied, the next revision number,
+   * status draft, `supersedes` = id, the reason for change, the same targets (unless changed) and
+   * blend-sheet fields (batch, vessel, instructions; not the lot). The old recipe is untouched until
+   * the new one is approved. Returns the new id, or null when `id` is unknown; throws FieldRuleError.
+   * (The line plan's "adopt" calls this.)
+   */
+  saveRevision: (id: string, changes: RecipeChanges, reason: string) => string | null;
+  /**
+   * Approve a draft: status approved, approval time stamped. The recipe it supersedes, if approved,
+   * becomes superseded (and hands over the reference mark). No-op for a recipe that is not a draft.
+   */
+  approveRecipe: (id: string) => void;
+  /** Rename a recipe (any status). Null, or why the name was refused. */
+  renameRecipe: (id: string, name: string) => string | null;
+  /** Archive (hide from the pickers) or restore a recipe. */
+  setArchived: (id: string, archived: boolean) => void;
+  /** Copy a recipe as a new, unlinked draft (revision 1, not a reference); returns the new id. Throws FieldRuleError. */
   duplicateRecipe: (id: string, name?: string) => string | null;
-  /** Delete a recipe and its targets. */
+  /** Delete a recipe and its targets (one undo step; its blend-sheet fields are kept so undo restores them). */
   removeRecipe: (id: string) => void;
   setActiveRecipe: (id: string | null) => void;
-  /** Store solve targets for a recipe. Null, or why they were refused. */
+  /** Store solve targets for a draft recipe. Null, or why they were refused (an approved recipe's are kept). */
   setTargets: (recipeId: string, targets: BlendTargets) => string | null;
   /**
    * Remember blend-sheet fields of a recipe (merged into its saved ones; not an undo step). Null, or
    * why they were refused (nothing is stored then). `parseBatch` reads the batch size as the form does.
    */
   setSheetInputs: (recipeId: string, patch: Partial<SheetInputs>, parseBatch?: (text: string) => number | null) => string | null;
+  /**
+   * Record the stock data of every recipe that has none yet (recipes saved before stock data were
+   * recorded, on first load). Not an undo step. Returns how many were recorded.
+   */
+  recordMissingStockBasis: (components: readonly Component[]) => number;
   /** Replace everything (reset demo, import-all backup). */
   replaceAll: (data: RecipesData) => void;
 }
 
+/** Fields of a recipe that an approved or superseded recipe keeps for good. */
+const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status', 'supersedes', 'reasonForChange', 'revision', 'approvedAt'] as const;
+
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 3,
+  version: 4,
   schema: recipesDataSchema,
   migrations: {
+    // Schema 3 had no lifecycle. A reference recipe (the one currently made at the plant) becomes
+    // approved; every other recipe becomes a draft, to be approved by a person. Blank specification,
+    // nothing superseded, no stock data recorded yet (recorded from the library at first load).
+    3: (d) => {
+      const data = d as { recipes?: unknown };
+      if (!Array.isArray(data.recipes)) throw new Error('recipes is not a list');
+      return {
+        ...(d as object),
+        recipes: data.recipes.map((r: Record<string, unknown>) => ({
+          ...newRecipeLifecycle(),
+          status: r.isReference === true ? 'approved' : 'draft',
+          ...r,
+        })),
+      };
+    },
     // Schema 2 had no blend-sheet fields: start every recipe with the defaults.
     2: (d) => ({ ...(d as object), sheets: {} }),
     // Schema 1 (first development builds) stored recipes only, without targets or an active recipe.
@@ -109,6 +186,13 @@ export const demoRecipesData = (): RecipesData => ({
 
 type Tracked = Pick<RecipesData, 'recipes' | 'targets'>;
 
+/** The revision number a new revision of `old` gets: one above every revision made from it so far. */
+export function nextRevisionNumber(recipes: readonly Recipe[], old: Recipe): number {
+  let max = old.revision;
+  for (const r of recipes) if (r.supersedes === old.id && r.revision > max) max = r.revision;
+  return max + 1;
+}
+
 export const useRecipesStore = create<RecipesState>()(
   persist(
     temporal(
@@ -127,11 +211,19 @@ export const useRecipesStore = create<RecipesState>()(
           set((s) => ({ recipes: s.recipes.map((x) => (x.id === id ? next : x)) }));
           return null;
         };
+        /** A new recipe must pass the field rules and fit the collection limit; throws FieldRuleError. */
+        const addChecked = (recipe: Recipe): void => {
+          const problems = recipeProblems(recipe);
+          const full = checkCount('recipes', get().recipes.length + 1);
+          if (full) problems.push({ path: ['recipes'], message: full });
+          if (problems.length) throw new FieldRuleError(problems);
+        };
         return {
           ...demoRecipesData(),
           addRecipe: (init) => {
             const id = newId('r');
             const recipe: Recipe = {
+              ...newRecipeLifecycle(),
               id,
               name: init.name,
               grade: init.grade,
@@ -140,36 +232,107 @@ export const useRecipesStore = create<RecipesState>()(
               isReference: init.isReference ?? false,
               notes: init.notes ?? '',
               updatedAt: now(),
+              specification: init.specification ? structuredClone(init.specification) : { ...BLANK_SPECIFICATION },
+              stockBasis: init.stockBasis ?? null,
+              reasonForChange: init.reasonForChange ?? '',
             };
-            const problems = recipeProblems(recipe);
-            const full = checkCount('recipes', get().recipes.length + 1);
-            if (full) problems.push({ path: ['recipes'], message: full });
-            if (problems.length) throw new FieldRuleError(problems);
+            addChecked(recipe);
             set((s) => ({ recipes: [...s.recipes, recipe] }));
             return id;
           },
-          updateRecipe: (id, patch) => changeRecipe(id, (r) => ({ ...r, ...patch, id })),
-          setLines: (id, lines) => changeRecipe(id, (r) => ({ ...r, lines })),
-          raiseRevision: (id) =>
+          updateRecipe: (id, patch) => {
+            const r = get().recipes.find((x) => x.id === id);
+            if (r && r.status !== 'draft' && CONTENT_FIELDS.some((k) => k in patch)) return approvedMessage(r);
+            return changeRecipe(id, (x) => ({ ...x, ...patch, id }));
+          },
+          setLines: (id, lines) => get().updateRecipe(id, { lines }),
+          saveChanges: (id, changes, reason) => {
+            const r = get().recipes.find((x) => x.id === id);
+            if (!r) throw new Error(`no recipe ${id}`);
+            if (r.status !== 'draft') return get().saveRevision(id, changes, reason)!;
+            const { targets, ...fields } = changes;
+            const next: Recipe = {
+              ...r,
+              ...structuredClone(fields),
+              reasonForChange: reason.trim() ? reason : r.reasonForChange,
+              id,
+              updatedAt: now(),
+            };
+            const problems = [...recipeProblems(next), ...(targets ? targetsProblems(targets, recipeWho(next.name)) : [])];
+            if (problems.length) throw new FieldRuleError(problems);
             set((s) => ({
-              recipes: s.recipes.map((r) => (r.id === id ? { ...r, revision: r.revision + 1, updatedAt: now() } : r)),
-            })),
+              recipes: s.recipes.map((x) => (x.id === id ? next : x)),
+              targets: targets ? { ...s.targets, [id]: structuredClone(targets) } : s.targets,
+            }));
+            return id;
+          },
+          saveRevision: (id, changes, reason) => {
+            const s0 = get();
+            const old = s0.recipes.find((x) => x.id === id);
+            if (!old) return null;
+            const revId = newId('r');
+            const { targets, ...fields } = changes;
+            const rev: Recipe = {
+              ...structuredClone(old),
+              ...structuredClone(fields),
+              id: revId,
+              revision: nextRevisionNumber(s0.recipes, old),
+              status: 'draft',
+              approvedAt: null,
+              archived: false,
+              isReference: false,
+              supersedes: old.id,
+              reasonForChange: reason,
+              updatedAt: now(),
+            };
+            const t = targets ?? s0.targets[id];
+            if (targets) {
+              const bad = targetsProblems(targets, recipeWho(rev.name));
+              if (bad.length) throw new FieldRuleError(bad);
+            }
+            addChecked(rev);
+            const sheet = s0.sheets[id];
+            set((s) => ({
+              recipes: [...s.recipes, rev],
+              targets: t ? { ...s.targets, [revId]: structuredClone(t) } : s.targets,
+              sheets: sheet ? { ...s.sheets, [revId]: { ...sheet, lot: '' } } : s.sheets,
+            }));
+            return revId;
+          },
+          approveRecipe: (id) => {
+            const r = get().recipes.find((x) => x.id === id);
+            if (!r || r.status !== 'draft') return;
+            const stamp = now();
+            const old = r.supersedes ? get().recipes.find((x) => x.id === r.supersedes) : undefined;
+            const replaces = old && old.status === 'approved' ? old : undefined;
+            set((s) => ({
+              recipes: s.recipes.map((x) => {
+                if (x.id === id) {
+                  return { ...x, status: 'approved', approvedAt: stamp, updatedAt: stamp, isReference: x.isReference || (replaces?.isReference ?? false) };
+                }
+                if (replaces && x.id === replaces.id) return { ...x, status: 'superseded', isReference: false, updatedAt: stamp };
+                return x;
+              }),
+            }));
+          },
+          renameRecipe: (id, name) => changeRecipe(id, (x) => ({ ...x, name })),
+          setArchived: (id, archived) => void changeRecipe(id, (x) => ({ ...x, archived })),
           duplicateRecipe: (id, name) => {
             const src = get().recipes.find((r) => r.id === id);
             if (!src) return null;
             const copyId = newId('r');
             const copy: Recipe = {
               ...structuredClone(src),
+              ...newRecipeLifecycle(),
+              specification: structuredClone(src.specification),
+              stockBasis: structuredClone(src.stockBasis),
               id: copyId,
               name: name ?? `${src.name} (copy)`.slice(0, TEXT_RULES.recipeName.max),
               revision: 1,
               isReference: false,
               updatedAt: now(),
             };
-            const problems = recipeProblems(copy);
-            const full = checkCount('recipes', get().recipes.length + 1);
-            if (full) problems.push({ path: ['recipes'], message: full });
-            if (problems.length) throw new FieldRuleError(problems);
+            addChecked(copy);
             const t = get().targets[id];
             set((s) => ({
               recipes: [...s.recipes, copy],
@@ -181,17 +344,16 @@ export const useRecipesStore = create<RecipesState>()(
             set((s) => {
               const targets = { ...s.targets };
               delete targets[id];
-              const sheets = { ...s.sheets };
-              delete sheets[id];
               return {
                 recipes: s.recipes.filter((r) => r.id !== id),
                 targets,
-                sheets,
                 activeRecipeId: s.activeRecipeId === id ? null : s.activeRecipeId,
               };
             }),
           setActiveRecipe: (id) => set({ activeRecipeId: id }),
           setTargets: (recipeId, targets) => {
+            const r = get().recipes.find((x) => x.id === recipeId);
+            if (r && r.status !== 'draft') return approvedMessage(r);
             const refused = firstProblem(targetsProblems(targets, whoOf(recipeId)));
             if (refused) return refused;
             set((s) => ({ targets: { ...s.targets, [recipeId]: targets } }));
@@ -203,6 +365,15 @@ export const useRecipesStore = create<RecipesState>()(
             if (refused) return refused;
             set((s) => ({ sheets: { ...s.sheets, [recipeId]: next } }));
             return null;
+          },
+          recordMissingStockBasis: (components) => {
+            const missing = get().recipes.filter((r) => r.stockBasis === null);
+            if (missing.length === 0) return 0;
+            const stamp = now();
+            set((s) => ({
+              recipes: s.recipes.map((r) => (r.stockBasis === null ? { ...r, stockBasis: recordStockBasis(components, r.lines, stamp) } : r)),
+            }));
+            return missing.length;
           },
           replaceAll: (data) =>
             set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId, sheets: data.sheets ?? {} }),

@@ -85,6 +85,33 @@ export const componentSchema = z
 
 export const recipeLineSchema = z.object({ componentId: str, massFraction: finite });
 
+/** The product specification of a recipe: shape here, values checked with the recipe (field-rules.ts). */
+export const specificationSchema = z.object({
+  reference: str,
+  kv100Min: nullableNum,
+  kv100Max: nullableNum,
+  viMin: nullableNum,
+  density15Min: nullableNum,
+  density15Max: nullableNum,
+  flashMin: nullableNum,
+  pourMax: nullableNum,
+  copper: str,
+  foam: str,
+});
+
+/** The stock data a recipe was saved with (one snapshot per stock). */
+export const stockSnapshotSchema = z.object({
+  componentId: str,
+  code: str,
+  viscosityPoints: z.array(viscosityPointSchema),
+  calibratedKv40: nullableNum,
+  calibratedKv100: nullableNum,
+  density15: finite,
+  anilinePoint: nullableNum,
+  pourPoint: nullableNum,
+  flashPoint: nullableNum,
+});
+
 /** A recipe: shape here, every value checked by `recipeProblems` (field-rules.ts). */
 export const recipeSchema = z
   .object({
@@ -96,6 +123,13 @@ export const recipeSchema = z
     isReference: z.boolean(),
     notes: str,
     updatedAt: str,
+    status: z.enum(['draft', 'approved', 'superseded']),
+    approvedAt: str.nullable(),
+    archived: z.boolean(),
+    supersedes: str.nullable(),
+    reasonForChange: str,
+    specification: specificationSchema,
+    stockBasis: z.object({ recordedAt: str, stocks: z.array(stockSnapshotSchema) }).nullable(),
   })
   .superRefine((r, ctx) => report(ctx, recipeProblems(r, '')));
 
@@ -131,6 +165,8 @@ export const settingsSchema = z
     coldStartTempC: finite,
     blendMethod: z.enum(['refutas', 'astm-d7152']),
     lastBackupAt: str.nullable(),
+    baseCurrency: str,
+    exchangeRates: z.array(z.object({ currency: str, rate: finite, asOf: str })),
   })
   .superRefine((s, ctx) => report(ctx, settingsProblems(s)));
 

@@ -5,6 +5,7 @@ import { idbPersistStorage, type StoreSpec } from './persistence';
 import { settingsDataSchema } from './schemas';
 import { demoSettingsPatch } from './demo';
 import { firstProblem, settingsProblems } from './field-rules';
+import { normaliseCurrency, type ExchangeRate } from '../core/currency/exchange-rates';
 
 export interface Settings {
   /** Display unit for temperatures; stored values are always °C. */
@@ -24,6 +25,14 @@ export interface Settings {
   blendMethod: 'refutas' | 'astm-d7152';
   /** ISO time of the last export-all backup, or null. */
   lastBackupAt: string | null;
+  /**
+   * Currency every cost figure and the solver work in (a code, e.g. "EUR"). Stock prices in another
+   * currency are restated with `exchangeRates`; a stock whose currency has no rate is left out of
+   * costing and solving (see core/currency/exchange-rates.ts).
+   */
+  baseCurrency: string;
+  /** Rates to the base currency, as the user entered them, each with its "as of" date. */
+  exchangeRates: ExchangeRate[];
 }
 
 export const DEFAULT_SETTINGS: Settings = {
@@ -38,6 +47,8 @@ export const DEFAULT_SETTINGS: Settings = {
   coldStartTempC: -10,
   blendMethod: 'refutas',
   lastBackupAt: null,
+  baseCurrency: 'EUR',
+  exchangeRates: [],
 };
 
 export interface SettingsData {
@@ -56,9 +67,17 @@ export const demoSettings = (): Settings => ({ ...DEFAULT_SETTINGS, ...demoSetti
 
 export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   key: 'settings',
-  version: 2,
+  version: 3,
   schema: settingsDataSchema,
   migrations: {
+    // Schema 2 had no exchange rates: the base currency is read from the currency symbol (€ → EUR,
+    // $ → USD, £ → GBP, a code as it is; blank → EUR), with no rates yet.
+    2: (d) => {
+      const s = (d as { settings?: Record<string, unknown> }).settings ?? {};
+      const symbol = typeof s.currencySymbol === 'string' ? normaliseCurrency(s.currencySymbol) : '';
+      const base = /^[A-Z]{3}$/.test(symbol) ? symbol : 'EUR';
+      return { settings: { ...s, baseCurrency: base, exchangeRates: [] } };
+    },
     // Schema 1 (first development builds) had no blend method and no backup date.
     1: (d) => {
       const s = (d as { settings?: Record<string, unknown> }).settings ?? {};

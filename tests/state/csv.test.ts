@@ -5,7 +5,7 @@ import { libraryToCsv, previewCsv } from '../../src/state/library-io';
 import { toCsv } from '../../src/features/blend-sheet/csv';
 import { blendSheetCsvRows, buildBlendSheet } from '../../src/core/sheet/blend-sheet';
 import { demoComponents } from '../../src/state/demo';
-import type { Recipe } from '../../src/core/formulation/model';
+import { newRecipeLifecycle, type Recipe } from '../../src/core/formulation/model';
 
 // The usual CSV-injection payloads (OWASP "CSV Injection" page and common practice, no further source).
 const PAYLOADS = [
@@ -82,9 +82,9 @@ describe('one CSV writer with a formula-injection guard', () => {
       ],
       isReference: false,
       notes: '',
-      createdAt: '2025-01-01T00:00:00.000Z',
       updatedAt: '2025-01-01T00:00:00.000Z',
-    } as Recipe;
+      ...newRecipeLifecycle(),
+    };
     const sheet = buildBlendSheet(lib, recipe, { kg: 1000 });
     const csv = toCsv(blendSheetCsvRows(sheet, { includePrices: true }));
     const rows = Papa.parse<string[]>(csv, { skipEmptyLines: true }).data;

@@ -93,6 +93,10 @@ describe('stores saved in IndexedDB', () => {
     expect(m.state.useSettingsState.getState().settings.blendMethod).toBe('refutas');
     expect(((await get('library', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.library);
     expect(((await get('settings', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.settings);
+    expect(((await get('settings', db())) as { version: number }).version).toBe(3);
+    // Settings schema 2 → 3: the base currency is read from the symbol ($ → USD), with no rates yet.
+    expect(m.state.useSettingsState.getState().settings.baseCurrency).toBe('USD');
+    expect(m.state.useSettingsState.getState().settings.exchangeRates).toEqual([]);
   });
 
   for (const [what, raw, kind] of [
@@ -193,8 +197,17 @@ describe('undo and redo', () => {
     const rec = m.state.useRecipes;
     m.state.recipeActions.setActiveRecipe('demo-vg220'); // not an edit
     expect(rec.temporal.getState().pastStates.length).toBe(0);
-    m.state.recipeActions.setLines('demo-vg220', [{ componentId: 'demo-bw-190', massFraction: 1 }]);
+    m.state.recipeActions.renameRecipe('demo-vg220', 'renamed');
     rec.temporal.getState().undo();
+    expect(rec.getState().recipes.find((r) => r.id === 'demo-vg220')!.name).not.toBe('renamed');
+    // An approved recipe's lines are not overwritten (issue 10, item 15): a draft copy takes the edit.
+    expect(m.state.recipeActions.setLines('demo-vg220', [{ componentId: 'demo-bw-190', massFraction: 1 }])).toMatch(/never overwritten/);
+    const draft = m.state.recipeActions.duplicateRecipe('demo-vg220')!;
+    m.state.recipeActions.setLines(draft, [{ componentId: 'demo-bw-190', massFraction: 1 }]);
+    rec.temporal.getState().undo();
+    expect(rec.getState().recipes.find((r) => r.id === draft)!.lines.length).toBe(3);
+    rec.temporal.getState().undo();
+    expect(rec.getState().recipes.find((r) => r.id === draft)).toBeUndefined();
     expect(rec.getState().recipes.find((r) => r.id === 'demo-vg220')!.lines.length).toBe(3);
   });
 

@@ -24,7 +24,7 @@ describe('blend-sheet inputs in the recipes store (schema 3)', () => {
     expect(bad.kind).toBe('problem');
   });
 
-  it('merges edits per recipe, saves them, keeps them out of undo, and forgets them with the recipe', () => {
+  it('merges edits per recipe, saves them, keeps them out of undo, and keeps them through a deletion that is undone', () => {
     recipeActions.setSheetInputs('demo-vg320', { lot: 'L-0042' });
     recipeActions.setSheetInputs('demo-vg320', { batchSize: '2500', batchUnit: 'litres' });
     expect(useRecipes.getState().sheets['demo-vg320']).toEqual({ ...DEFAULT_SHEET_INPUTS, lot: 'L-0042', batchSize: '2500', batchUnit: 'litres' });
@@ -32,6 +32,10 @@ describe('blend-sheet inputs in the recipes store (schema 3)', () => {
     expect((persistedData('recipes') as { sheets: unknown }).sheets).toEqual(useRecipes.getState().sheets);
     expect(useRecipes.temporal.getState().pastStates.length).toBe(0);
     recipeActions.removeRecipe('demo-vg320');
-    expect(useRecipes.getState().sheets['demo-vg320']).toBeUndefined();
+    expect(useRecipes.getState().recipes.some((r) => r.id === 'demo-vg320')).toBe(false);
+    // Delete is undoable (issue 10, item 15): the sheet fields survive, so undo restores everything.
+    useRecipes.temporal.getState().undo();
+    expect(useRecipes.getState().recipes.some((r) => r.id === 'demo-vg320')).toBe(true);
+    expect(useRecipes.getState().sheets['demo-vg320']!.lot).toBe('L-0042');
   });
 });

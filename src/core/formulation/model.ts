@@ -131,19 +131,132 @@ export interface RecipeLine {
   massFraction: number;
 }
 
+/**
+ * Where a recipe stands in its life: a `draft` may be edited and is not for release; an `approved`
+ * recipe is never overwritten (a change makes a new draft revision that supersedes it); a
+ * `superseded` recipe was replaced by an approved later revision and is kept for the record.
+ */
+export type RecipeStatus = 'draft' | 'approved' | 'superseded';
+
+export const RECIPE_STATUSES: readonly RecipeStatus[] = ['draft', 'approved', 'superseded'];
+
+export const RECIPE_STATUS_LABEL: Record<RecipeStatus, string> = {
+  draft: 'Draft',
+  approved: 'Approved',
+  superseded: 'Superseded',
+};
+
+/**
+ * The product specification's release limits for a recipe, as the user enters them. Every limit is
+ * optional: a blank one (null, or '' for the text limits) prints as "per specification". The ν40
+ * limits are not here: they come from the grade (ISO 3448) and the plant's aim band.
+ */
+export interface ReleaseSpecification {
+  /** Name or number of the specification document, printed on the sheet; '' → none given. */
+  reference: string;
+  /** ν100 limits, ASTM D445 [mm²/s]. */
+  kv100Min: number | null;
+  kv100Max: number | null;
+  /** Minimum viscosity index, ASTM D2270 (reported, whole number). */
+  viMin: number | null;
+  /** Density at 15 °C limits, ASTM D4052 [kg/L]. */
+  density15Min: number | null;
+  density15Max: number | null;
+  /** Minimum flash point, open cup, ASTM D92 [°C]. */
+  flashMin: number | null;
+  /** Maximum pour point, ASTM D97 [°C]. */
+  pourMax: number | null;
+  /** Copper strip corrosion limit, ASTM D130, as the specification words it (e.g. "1b max"). */
+  copper: string;
+  /** Foaming limit, ASTM D892, as the specification words it. */
+  foam: string;
+}
+
+/** A specification with every limit blank ("per specification"). */
+export const BLANK_SPECIFICATION: Readonly<ReleaseSpecification> = Object.freeze({
+  reference: '',
+  kv100Min: null,
+  kv100Max: null,
+  viMin: null,
+  density15Min: null,
+  density15Max: null,
+  flashMin: null,
+  pourMax: null,
+  copper: '',
+  foam: '',
+});
+
+/**
+ * The data of one stock as a recipe was saved with it: the inputs its predictions depend on. A later
+ * difference from the library (a new measurement, a calibration) means the recipe's predictions have
+ * moved since it was saved.
+ */
+export interface StockSnapshot {
+  componentId: string;
+  /** Stock code when recorded (for messages if the stock is later deleted). */
+  code: string;
+  viscosityPoints: ViscosityPoint[];
+  /** Effective blending viscosities of a calibration [mm²/s]; null → not calibrated. */
+  calibratedKv40: number | null;
+  calibratedKv100: number | null;
+  /** Density at 15 °C [kg/L]. */
+  density15: number;
+  /** Aniline, pour and flash points [°C]. */
+  anilinePoint: number | null;
+  pourPoint: number | null;
+  flashPoint: number | null;
+}
+
+/** The stock data a recipe was solved or saved with. */
+export interface StockBasis {
+  /** ISO date-time it was recorded. */
+  recordedAt: string;
+  /** One snapshot per component the recipe names. */
+  stocks: StockSnapshot[];
+}
+
 export interface Recipe {
   id: string;
   name: string;
   /** ISO viscosity grade the recipe is made to (e.g. 320). */
   grade: number;
   lines: RecipeLine[];
-  /** Revision number, starting at 1, raised on each saved change the plant must know about. */
+  /** Revision number, starting at 1; a new revision of an approved recipe is the next number. */
   revision: number;
   /** True for the recipe currently made at the plant (the one a candidate replaces). */
   isReference: boolean;
   notes: string;
   /** ISO date-time of the last change. */
   updatedAt: string;
+  status: RecipeStatus;
+  /** ISO date-time of approval; null while a draft, or when approved before this was recorded. */
+  approvedAt: string | null;
+  /** Hidden from the pickers (kept, shown under "archived"). */
+  archived: boolean;
+  /** Id of the recipe this one replaces (its earlier revision); null → none. */
+  supersedes: string | null;
+  /** Why this revision was made (printed on the blend sheet with the change from the recipe it supersedes). */
+  reasonForChange: string;
+  /** Release limits of the product specification. */
+  specification: ReleaseSpecification;
+  /** The stock data the recipe was saved with; null → not recorded. */
+  stockBasis: StockBasis | null;
+}
+
+/** The lifecycle fields of a recipe as first created: a draft, current, with a blank specification and no stock data recorded. */
+export function newRecipeLifecycle(): Pick<
+  Recipe,
+  'status' | 'approvedAt' | 'archived' | 'supersedes' | 'reasonForChange' | 'specification' | 'stockBasis'
+> {
+  return {
+    status: 'draft',
+    approvedAt: null,
+    archived: false,
+    supersedes: null,
+    reasonForChange: '',
+    specification: { ...BLANK_SPECIFICATION },
+    stockBasis: null,
+  };
 }
 
 /** What the solver optimises. */
@@ -167,7 +280,7 @@ export interface BlendTargets {
   minVi: number | null;
   /** Maximum blend aniline point [°C] (solvency floor); null → none. */
   maxAnilinePoint: number | null;
-  /** Maximum total mass fraction of polymer components (0–1); null → none. */
+  /** Maximum total mass fraction of polymer components (0–1); null → none (default {@link DEFAULT_MAX_POLYMER_FRACTION}). */
   maxPolymerFraction: number | null;
   /** Maximum pour point estimate [°C]; null → none. */
   maxPourPoint: number | null;
@@ -181,3 +294,11 @@ export interface BlendTargets {
   /** Reference recipe for the 'closest' objective and for comparisons; null → none. */
   referenceRecipeId: string | null;
 }
+
+/**
+ * Default cap on the total polymer thickener share of a recipe (mass fraction). Common practice
+ * (no source): industrial gear oils thickened with polymer rarely carry more than about a quarter of
+ * it; above that, shear loss, cost and cold flow usually argue for a heavier base stock instead.
+ * Editable per recipe.
+ */
+export const DEFAULT_MAX_POLYMER_FRACTION = 0.25;

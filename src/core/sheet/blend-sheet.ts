@@ -12,12 +12,13 @@
  * who adds up the kg column must find the batch size, not the batch size ± 0.1).
  */
 
-import type { Component, ComponentCategory, Recipe } from '../formulation/model';
-import { CATEGORY_LABEL } from '../formulation/model';
+import type { Component, ComponentCategory, Recipe, ReleaseSpecification } from '../formulation/model';
+import { BLANK_SPECIFICATION, CATEGORY_LABEL } from '../formulation/model';
 import { BlendbenchInputError, assertFinite } from '../errors';
 import { batchQuantities, pricePerKg, type BatchSize } from '../formulation/cost';
 import { gradeBand } from '../viscosity/iso-grades';
 import { cToF } from '../units';
+import type { BlendProperties } from '../formulation/blend-properties';
 
 /** Temperature unit a sheet prints in; values are always computed in °C. */
 export type SheetTemperatureUnit = 'C' | 'F';
@@ -490,23 +491,37 @@ export interface SheetPrediction {
   operating: { tempC: number; kv: number } | null;
 }
 
-/** Limits the plant sets around the prediction; every default is common practice (no source). */
+/**
+ * The few predicted numbers the sheet prints, taken from the core's blend prediction.
+ *
+ * @param p - from `predictBlend`
+ * @returns the sheet's prediction (aniline point over the base fluid; operating viscosity if computed)
+ */
+export function sheetPrediction(p: BlendProperties): SheetPrediction {
+  return {
+    kv40: p.kv40,
+    kv100: p.kv100,
+    reportedVi: p.reportedVi,
+    density15: p.density15,
+    anilinePoint: p.anilinePoint?.value ?? null,
+    flashPoint: p.flashPoint,
+    pourPoint: p.pourPoint,
+    operating: p.kvAtOperating,
+  };
+}
+
+/** Options of the QC table: the plant's ν40 aim, the recipe's specification, the printing unit. */
 export interface QcOptions {
   /** Plant aim band around the grade mid-point [% of mid-point]; clipped to ISO 3448 ±10 %. Default 5. */
   kv40TolerancePct?: number;
-  /** ν100 acceptance band around the prediction [%]; default 10. */
-  kv100TolerancePct?: number;
-  /** VI may fall this far below the prediction; default 5. */
-  viMargin?: number;
-  /** Density acceptance around the prediction [kg/L]; default ±0.005. */
-  densityTolerance?: number;
-  /** Flash point may fall this far below the estimate [°C]; default 10. */
-  flashMargin?: number;
-  /** Pour point may rise this far above the estimate [°C]; default 6 (two ASTM D97 3 °C steps). */
-  pourMargin?: number;
+  /**
+   * The product specification's release limits (per recipe). Blank limits print "Per specification";
+   * no limit is ever derived from the prediction.
+   */
+  specification?: ReleaseSpecification;
   /**
    * Unit the flash, pour and aniline points and the operating temperature are printed in; default 'C'.
-   * Limits are set in °C, then converted and rounded to whole degrees; `min`/`max` of those rows are
+   * Limits are given in °C, then converted and rounded to whole degrees; `min`/`max` of those rows are
    * in this unit too. The standard test temperatures (40, 100 and 15 °C) stay in °C.
    */
   temperatureUnit?: SheetTemperatureUnit;
@@ -530,9 +545,9 @@ export interface QcRow {
   key: QcKey;
   property: string;
   unit: string;
-  /** The prediction as printed (already rounded), or "—". */
+  /** The prediction as printed (already rounded), or "—". Shown for information beside the limit. */
   predicted: string;
-  /** Release target as printed, e.g. "304.0–336.0". */
+  /** Release target as printed, e.g. "304.0–336.0", "≥ 90", or "Per specification". */
   target: string;
   /** Numeric limits of the target, where it has them. */
   min: number | null;
@@ -541,6 +556,8 @@ export interface QcRow {
   method: string;
   /** True when the row is a release criterion; false when it is recorded for information. */
   release: boolean;
+  /** Where the limit comes from: the grade and plant aim, the recipe's specification, or nowhere (information). */
+  limitSource: 'grade' | 'specification' | 'none';
   /**
    * True when the prediction itself falls outside [min, max]: the recipe is not expected to pass
    * (e.g. ν40 outside the plant aim band), and the sheet must say so before anyone blends it.
@@ -550,116 +567,102 @@ export interface QcRow {
 
 const fmt = (x: number, d: number) => x.toFixed(d);
 
+export const PER_SPECIFICATION = 'Per specification';
+
+/** "a–b", "≥ a", "≤ b" or "Per specification", with `d` decimals. */
+function limitText(min: number | null, max: number | null, d: number): string {
+  if (min !== null && max !== null) return `${fmt(min, d)}–${fmt(max, d)}`;
+  if (min !== null) return `≥ ${fmt(min, d)}`;
+  if (max !== null) return `≤ ${fmt(max, d)}`;
+  return PER_SPECIFICATION;
+}
+
 /**
  * QC release targets beside the predicted properties, with the ASTM test method for each.
  *
- * ν40: inside the ISO 3448 band of the grade (mid-point ±10 %, ISO 3448 Table 1) and the plant's aim band (mid-point
- * ± `kv40TolerancePct`, default 5 %; plants aim within ±3–5 %, common practice, domain notes).
- * ν100 and density: around the prediction; VI: at least the prediction less a margin; flash: at least
- * the estimate less a margin; pour: at most the estimate plus a margin. Aniline point and viscosity
- * at the operating temperature are recorded for information. Copper corrosion and foam are tested to
- * the product specification (no prediction). Every margin is common practice (no source): the plant
- * replaces them with its own specification.
+ * ν40: inside the ISO 3448 band of the grade (mid-point ±10 %, ISO 3448 Table 1) and the plant's aim
+ * band (mid-point ± `kv40TolerancePct`, default 5 %; plants aim within ±3–5 %, common practice,
+ * domain notes). Every other release limit — ν100, VI, density, flash, pour, copper strip, foam —
+ * comes from the recipe's product specification as the user entered it; a blank one prints
+ * "Per specification". The predictions are printed beside the limits for information only: a limit
+ * is never derived from the model's own estimate. Aniline point and viscosity at the operating
+ * temperature are recorded for information.
  *
  * @param grade - ISO viscosity grade (mid-point ν40 [mm²/s])
  * @param predicted - the prediction (mapped from the blend prediction)
- * @param options - margins
+ * @param options - aim band, specification, temperature unit
  * @returns the QC rows in print order
  * @throws BlendbenchInputError if `grade` is not a tabulated ISO viscosity grade (from `gradeBand`)
  */
 export function qcReleaseTargets(grade: number, predicted: SheetPrediction, options: QcOptions = {}): QcRow[] {
   const tol40 = options.kv40TolerancePct ?? 5;
-  const tol100 = options.kv100TolerancePct ?? 10;
-  const viMargin = options.viMargin ?? 5;
-  const dTol = options.densityTolerance ?? 0.005;
-  const flashMargin = options.flashMargin ?? 10;
-  const pourMargin = options.pourMargin ?? 6;
+  const spec = options.specification ?? BLANK_SPECIFICATION;
 
   // ISO 3448 limits as tabulated exact decimals (iso-grades.ts); the aim band is computed in
   // thousandths so 320 × 0.95 prints 304.0, not 303.99999999999994.
   const iso = gradeBand(grade);
   const aimMin = Math.max(iso.min, Math.round(iso.mid * (100 - tol40) * 10) / 1000);
   const aimMax = Math.min(iso.max, Math.round(iso.mid * (100 + tol40) * 10) / 1000);
-  const kv100Min = predicted.kv100 * (1 - tol100 / 100);
-  const kv100Max = predicted.kv100 * (1 + tol100 / 100);
+  const fromSpec = (min: number | null, max: number | null) => (min !== null || max !== null ? 'specification' : 'none') as QcRow['limitSource'];
 
   const rows: Omit<QcRow, 'predictedOutsideTarget'>[] = [
     {
       key: 'appearance', property: 'Appearance', unit: '', predicted: '—',
-      target: 'Clear and bright, free of water and sediment', min: null, max: null, method: 'Visual', release: true,
+      target: 'Clear and bright, free of water and sediment', min: null, max: null, method: 'Visual', release: true, limitSource: 'none',
     },
     {
       key: 'kv40', property: 'Kinematic viscosity at 40 °C', unit: 'mm²/s', predicted: fmt(predicted.kv40, 1),
       target: `${fmt(aimMin, 1)}–${fmt(aimMax, 1)} (ISO VG ${grade}: ${fmt(iso.min, 1)}–${fmt(iso.max, 1)})`,
-      min: aimMin, max: aimMax, method: 'ASTM D445', release: true,
+      min: aimMin, max: aimMax, method: 'ASTM D445', release: true, limitSource: 'grade',
     },
     {
       key: 'kv100', property: 'Kinematic viscosity at 100 °C', unit: 'mm²/s', predicted: fmt(predicted.kv100, 2),
-      target: `${fmt(kv100Min, 2)}–${fmt(kv100Max, 2)}`, min: kv100Min, max: kv100Max, method: 'ASTM D445', release: true,
+      target: limitText(spec.kv100Min, spec.kv100Max, 2), min: spec.kv100Min, max: spec.kv100Max, method: 'ASTM D445',
+      release: true, limitSource: fromSpec(spec.kv100Min, spec.kv100Max),
+    },
+    {
+      key: 'vi', property: 'Viscosity index', unit: '', predicted: predicted.reportedVi === null ? '—' : fmt(predicted.reportedVi, 0),
+      target: limitText(spec.viMin, null, 0), min: spec.viMin, max: null, method: 'ASTM D2270', release: true,
+      limitSource: fromSpec(spec.viMin, null),
+    },
+    {
+      key: 'density15', property: 'Density at 15 °C', unit: 'kg/L', predicted: fmt(predicted.density15, 4),
+      target: limitText(spec.density15Min, spec.density15Max, 4), min: spec.density15Min, max: spec.density15Max,
+      method: 'ASTM D4052', release: true, limitSource: fromSpec(spec.density15Min, spec.density15Max),
+    },
+    {
+      key: 'flash', property: predicted.flashPoint === null ? 'Flash point, open cup' : 'Flash point, open cup (estimate)', unit: '°C',
+      predicted: predicted.flashPoint === null ? '—' : fmt(predicted.flashPoint, 0),
+      target: limitText(spec.flashMin, null, 0), min: spec.flashMin, max: null, method: 'ASTM D92', release: true,
+      limitSource: fromSpec(spec.flashMin, null),
+    },
+    {
+      key: 'pour', property: predicted.pourPoint === null ? 'Pour point' : 'Pour point (estimate)', unit: '°C',
+      predicted: predicted.pourPoint === null ? '—' : fmt(predicted.pourPoint, 0),
+      target: limitText(null, spec.pourMax, 0), min: null, max: spec.pourMax, method: 'ASTM D97', release: true,
+      limitSource: fromSpec(null, spec.pourMax),
+    },
+    {
+      key: 'aniline', property: 'Aniline point (estimate)', unit: '°C',
+      predicted: predicted.anilinePoint === null ? '—' : fmt(predicted.anilinePoint, 0),
+      target: 'Information', min: null, max: null, method: 'ASTM D611', release: false, limitSource: 'none',
     },
   ];
-  if (predicted.reportedVi !== null) {
-    const viMin = predicted.reportedVi - viMargin;
-    rows.push({
-      key: 'vi', property: 'Viscosity index', unit: '', predicted: fmt(predicted.reportedVi, 0),
-      target: `≥ ${fmt(viMin, 0)}`, min: viMin, max: null, method: 'ASTM D2270', release: true,
-    });
-  } else {
-    rows.push({
-      key: 'vi', property: 'Viscosity index', unit: '', predicted: '—', target: 'Report', min: null, max: null,
-      method: 'ASTM D2270', release: false,
-    });
-  }
-  const dMin = predicted.density15 - dTol;
-  const dMax = predicted.density15 + dTol;
-  rows.push({
-    key: 'density15', property: 'Density at 15 °C', unit: 'kg/L', predicted: fmt(predicted.density15, 4),
-    target: `${fmt(dMin, 4)}–${fmt(dMax, 4)}`, min: dMin, max: dMax, method: 'ASTM D4052', release: true,
-  });
-  if (predicted.flashPoint !== null) {
-    const fMin = Math.round(predicted.flashPoint) - flashMargin;
-    rows.push({
-      key: 'flash', property: 'Flash point, open cup (estimate)', unit: '°C', predicted: fmt(predicted.flashPoint, 0),
-      target: `≥ ${fmt(fMin, 0)}`, min: fMin, max: null, method: 'ASTM D92', release: true,
-    });
-  } else {
-    rows.push({
-      key: 'flash', property: 'Flash point, open cup', unit: '°C', predicted: '—', target: 'Per specification',
-      min: null, max: null, method: 'ASTM D92', release: true,
-    });
-  }
-  if (predicted.pourPoint !== null) {
-    const pMax = Math.round(predicted.pourPoint) + pourMargin;
-    rows.push({
-      key: 'pour', property: 'Pour point (estimate)', unit: '°C', predicted: fmt(predicted.pourPoint, 0),
-      target: `≤ ${fmt(pMax, 0)}`, min: null, max: pMax, method: 'ASTM D97', release: true,
-    });
-  } else {
-    rows.push({
-      key: 'pour', property: 'Pour point', unit: '°C', predicted: '—', target: 'Per specification',
-      min: null, max: null, method: 'ASTM D97', release: true,
-    });
-  }
-  rows.push({
-    key: 'aniline', property: 'Aniline point (estimate)', unit: '°C',
-    predicted: predicted.anilinePoint === null ? '—' : fmt(predicted.anilinePoint, 0),
-    target: 'Information', min: null, max: null, method: 'ASTM D611', release: false,
-  });
   if (predicted.operating !== null) {
     rows.push({
       key: 'kvOperating', property: `Viscosity at ${fmt(predicted.operating.tempC, 0)} °C (calculated)`, unit: 'mm²/s',
       predicted: fmt(predicted.operating.kv, 1), target: 'Information', min: null, max: null,
-      method: 'ASTM D341', release: false,
+      method: 'ASTM D341', release: false, limitSource: 'none',
     });
   }
   rows.push(
     {
-      key: 'copper', property: 'Copper strip corrosion', unit: '', predicted: '—', target: 'Per specification',
-      min: null, max: null, method: 'ASTM D130', release: true,
+      key: 'copper', property: 'Copper strip corrosion', unit: '', predicted: '—', target: spec.copper.trim() || PER_SPECIFICATION,
+      min: null, max: null, method: 'ASTM D130', release: true, limitSource: spec.copper.trim() ? 'specification' : 'none',
     },
     {
-      key: 'foam', property: 'Foaming tendency', unit: 'mL', predicted: '—', target: 'Per specification',
-      min: null, max: null, method: 'ASTM D892', release: true,
+      key: 'foam', property: 'Foaming tendency', unit: 'mL', predicted: '—', target: spec.foam.trim() || PER_SPECIFICATION,
+      min: null, max: null, method: 'ASTM D892', release: true, limitSource: spec.foam.trim() ? 'specification' : 'none',
     },
   );
   const unit = options.temperatureUnit ?? 'C';

@@ -6,7 +6,7 @@ import { predictBlend } from '../../core/formulation/blend-properties';
 import { recipeActions, useActiveRecipe, useLibrary, useRecipes, useSettings } from '../../state';
 import { useFormat } from '../../components/format';
 import { BlendSheetView } from './BlendSheetView';
-import { toSheetPrediction } from './prediction';
+import { sheetPrediction } from '../../core/sheet/blend-sheet';
 
 function recipeIdFromHash(): string | null {
   const parts = window.location.hash.replace(/^#\/?/, '').split('/');
@@ -22,6 +22,7 @@ export default function BlendSheetScreen() {
   const components = useLibrary((s) => s.components);
   const recipes = useRecipes((s) => s.recipes);
   const sheets = useRecipes((s) => s.sheets);
+  const targets = useRecipes((s) => s.targets);
   const active = useActiveRecipe();
   const settings = useSettings();
   const f = useFormat();
@@ -30,6 +31,10 @@ export default function BlendSheetScreen() {
     return fromHash && recipes.some((r) => r.id === fromHash) ? fromHash : null;
   });
   const today = useMemo(() => localIsoDate(new Date()), []);
+  const exchange = useMemo(
+    () => ({ base: settings.baseCurrency, rates: settings.exchangeRates }),
+    [settings.baseCurrency, settings.exchangeRates],
+  );
   const recipeId = picked ?? active?.id ?? null;
 
   const predict = useCallback(
@@ -38,7 +43,7 @@ export default function BlendSheetScreen() {
         method: settings.blendMethod,
         operatingTempC: settings.operatingTempC,
       });
-      return { ...toSheetPrediction(p), warnings: p.warnings };
+      return { ...sheetPrediction(p), warnings: p.warnings, properties: p };
     },
     [components, settings.blendMethod, settings.operatingTempC],
   );
@@ -54,6 +59,9 @@ export default function BlendSheetScreen() {
       }}
       companyName={settings.companyName}
       predict={predict}
+      targets={targets}
+      method={settings.blendMethod}
+      exchange={exchange}
       today={today}
       temperatureUnit={settings.temperatureUnit}
       sheetInputs={sheets}

@@ -1,7 +1,14 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
 import { useId, useMemo, useState } from 'react';
-import type { Component, Recipe } from '../../core/formulation/model';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import type { BlendProperties } from '../../core/formulation/blend-properties';
+import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
+import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
+import { describeRate, normaliseCurrency, priceLibraryInBase, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
+import { releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
+import { stockBasisChanges } from '../../core/recipes/stock-basis';
+import { shareChanges } from '../../core/recipes/share-changes';
 import {
   BLEND_SHEET_CAUTIONS,
   blendSheetCsvRows,
@@ -29,8 +36,17 @@ export interface BlendSheetViewProps {
   onRecipeChange?: (id: string) => void;
   /** Company name printed at the head of the sheet (from settings). */
   companyName: string;
-  /** Predicted properties of a recipe (with the prediction's own cautions); may throw with a message the sheet shows. */
-  predict: (recipe: Recipe) => SheetPrediction & { warnings?: readonly string[] };
+  /**
+   * Predicted properties of a recipe (with the prediction's own cautions and, when available, the full
+   * core prediction used to recheck the recipe's own constraints); may throw with a message the sheet shows.
+   */
+  predict: (recipe: Recipe) => SheetPrediction & { warnings?: readonly string[]; properties?: BlendProperties };
+  /** Solve targets (the recipe's own constraints) by recipe id; a recipe without targets is held only on the other reasons. */
+  targets?: Readonly<Record<string, BlendTargets>>;
+  /** Mixing rule of the prediction (rechecks the constraints with it); default Refutas. */
+  method?: BlendMethod;
+  /** Base currency and exchange rates (Settings): every cost is restated in the base currency. */
+  exchange?: { base: string; rates: readonly ExchangeRate[] };
   /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
   today: string;
   /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
@@ -75,6 +91,11 @@ function Refusal({ id, message }: { id: string; message: string | null }) {
   );
 }
 
+/** Decimals that show an exchange rate to about five significant digits. */
+function rateDecimals(x: number): number {
+  return Math.min(6, Math.max(2, 4 - Math.floor(Math.log10(Math.abs(x) || 1))));
+}
+
 function errorText(e: unknown, components: readonly Component[]): string {
   return userMessage(e, { components });
 }
@@ -83,7 +104,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const { components, recipes, companyName, predict, today } = props;
   const fmt = props.formatNumber ?? defaultFormat;
   const id = useId();
-  const recipe = recipes.find((r) => r.id === props.recipeId) ?? recipes[0] ?? null;
+  const recipe = recipes.find((r) => r.id === props.recipeId) ?? recipes.find((r) => !r.archived) ?? recipes[0] ?? null;
+  const pickable = recipes.filter((r) => !r.archived || r.id === recipe?.id);
 
   const [date, setDate] = useState(today);
   const [copy, setCopy] = useState<CopyKind>('plant');
@@ -120,25 +142,53 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const setVessel = (vessel: string) => setInputs({ vessel }, 'vessel');
 
   const batchValue = Number(batchSize);
+  const exchange = props.exchange;
+  // Prices restated in the base currency at the boundary; a stock without a rate keeps its own
+  // currency, so the costing refuses to add it in (and says which stock and currency).
+  const priced = useMemo(
+    () => (exchange ? priceLibraryInBase(components, exchange.base, exchange.rates) : null),
+    [components, exchange],
+  );
   const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
     if (!recipe) return null;
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
-      return { sheet: buildBlendSheet(components, recipe, batch) };
+      return { sheet: buildBlendSheet(priced?.components ?? components, recipe, batch) };
     } catch (e) {
       return { error: errorText(e, components) };
     }
-  }, [components, recipe, batchUnit, batchValue]);
+  }, [components, priced, recipe, batchUnit, batchValue]);
 
-  const qc = useMemo((): { rows: QcRow[]; warnings: readonly string[] } | { error: string } | null => {
-    if (!recipe) return null;
-    try {
-      const p = predict(recipe);
-      return { rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit }), warnings: p.warnings ?? [] };
-    } catch (e) {
-      return { error: errorText(e, components) };
-    }
-  }, [recipe, predict, tUnit, components]);
+  const qc = useMemo(
+    (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {
+      if (!recipe) return null;
+      try {
+        const p = predict(recipe);
+        return {
+          rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit, specification: recipe.specification }),
+          warnings: p.warnings ?? [],
+          properties: p.properties ?? null,
+        };
+      } catch (e) {
+        return { error: errorText(e, components) };
+      }
+    },
+    [recipe, predict, tUnit, components],
+  );
+
+  const hold = useMemo((): HoldReason[] => {
+    if (!recipe) return [];
+    return releaseHoldReasons({
+      recipe,
+      components,
+      targets: props.targets?.[recipe.id] ?? null,
+      prediction: qc === null ? null : 'error' in qc ? { error: qc.error } : qc.properties,
+      qcRows: qc && 'rows' in qc ? qc.rows : null,
+      method: props.method ?? 'refutas',
+      supersededBy: recipes.find((r) => r.supersedes === recipe.id && r.status === 'approved') ?? null,
+    });
+  }, [recipe, components, props.targets, qc, props.method, recipes]);
+  const stockChanges = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
 
   if (!recipe) {
     return (
@@ -160,6 +210,19 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const qd = sheet?.quantityDecimals ?? 1;
   const pd = sheet?.percentDecimals ?? 2;
   const currency = sheet?.costing.available ? sheet.costing.currency : '';
+  const held = hold.length > 0;
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const codeOf = (id: string) => byId.get(id)?.code ?? id;
+  // Exchange rates behind this recipe's costs, and its stocks that have no rate.
+  const recipeIds = new Set(recipe.lines.map((l) => l.componentId));
+  const ratesUsed =
+    exchange && priced
+      ? priced.ratesUsed.filter((r) => recipe.lines.some((l) => normaliseCurrency(byId.get(l.componentId)?.price.currency ?? '') === normaliseCurrency(r.currency)))
+      : [];
+  const unpriced = priced ? priced.unpriced.filter((u) => recipeIds.has(u.componentId)) : [];
+  const superseded = recipe.supersedes ? (recipes.find((r) => r.id === recipe.supersedes) ?? null) : null;
+  const changes = superseded ? shareChanges(superseded.lines, recipe.lines) : [];
+  const holdId = `${id}-hold`;
 
   const batchText = sheet
     ? sheet.batchBasis === 'kg'
@@ -185,9 +248,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           <label>
             Recipe
             <select value={recipe.id} onChange={(e) => props.onRecipeChange?.(e.target.value)}>
-              {recipes.map((r) => (
+              {pickable.map((r) => (
                 <option key={r.id} value={r.id}>
-                  {r.name} (ISO VG {r.grade}, rev. {r.revision})
+                  {r.name} (ISO VG {r.grade}, rev. {r.revision}, {RECIPE_STATUS_LABEL[r.status].toLowerCase()}
+                  {r.archived ? ', archived' : ''})
                 </option>
               ))}
             </select>
@@ -210,13 +274,29 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <option value="letter">US Letter</option>
             </select>
           </label>
-          <button type="button" onClick={print} disabled={!sheet}>
-            Print
+          <button
+            type="button"
+            className={held ? 'bs-print-held' : undefined}
+            onClick={print}
+            disabled={!sheet}
+            aria-describedby={held ? holdId : undefined}
+          >
+            {held ? `Print — ${RELEASE_HOLD_LABEL}` : 'Print'}
           </button>
           <button type="button" onClick={exportCsv} disabled={!sheet}>
             Export component table (CSV)
           </button>
         </div>
+        {held && (
+          <div className="bs-hold-screen" role="alert" id={holdId}>
+            <strong>{RELEASE_HOLD_LABEL}.</strong> This sheet will print with the hold and its reasons:
+            <ul>
+              {hold.map((h) => (
+                <li key={h.message}>{h.message}</li>
+              ))}
+            </ul>
+          </div>
+        )}
         <p className="bs-hint">
           Fill in the fields below, then print: your browser&rsquo;s print dialog also saves a PDF. Batch, lot, vessel and
           edited instructions are remembered for each recipe{props.onSheetInputsChange ? '' : ' while this sheet is open'}; the
@@ -235,6 +315,18 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </div>
         </header>
 
+        {held && (
+          <section className="bs-hold" aria-label={RELEASE_HOLD_LABEL} data-testid="release-hold">
+            <div className="bs-hold-title">{RELEASE_HOLD_LABEL}</div>
+            <ul>
+              {hold.map((h) => (
+                <li key={h.message}>{h.message}</li>
+              ))}
+            </ul>
+            <div className="bs-hold-foot">Do not blend for release from this sheet until every reason is resolved.</div>
+          </section>
+        )}
+
         <dl className="bs-fields">
           <div className="bs-span3">
             <dt>Product</dt>
@@ -248,6 +340,14 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             <dt>Recipe revision</dt>
             <dd>
               {recipe.revision} <span className="bs-sub">(saved {recipe.updatedAt.slice(0, 10)})</span>
+            </dd>
+          </div>
+          <div className="bs-span1">
+            <dt>Status</dt>
+            <dd data-testid="sheet-status">
+              {RECIPE_STATUS_LABEL[recipe.status]}
+              {recipe.status === 'approved' && recipe.approvedAt ? <span className="bs-sub"> {recipe.approvedAt.slice(0, 10)}</span> : null}
+              {recipe.archived ? <span className="bs-sub"> (archived)</span> : null}
             </dd>
           </div>
           <div className="bs-span1">
@@ -321,13 +421,17 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </div>
         </dl>
 
-        {qc && 'rows' in qc && qc.rows.some((r) => r.predictedOutsideTarget) && (
-          <p className="bs-error bs-outside-alert" role="alert">
-            Check the recipe before blending — the prediction misses its release target.{' '}
-            {qc.rows
-              .filter((r) => r.predictedOutsideTarget)
-              .map((r) => `${r.property}: predicted ${r.predicted}${r.unit ? ` ${r.unit}` : ''}, target ${r.target}.`)
-              .join(' ')}
+        {stockChanges.length > 0 && (
+          <p className="bs-error bs-stock-changed" data-testid="stock-changed">
+            Stock data changed since this recipe was saved ({recipe.stockBasis?.recordedAt.slice(0, 10)}):{' '}
+            {stockChanges
+              .map((c) =>
+                c.kind === 'deleted'
+                  ? `${c.code} deleted from the library`
+                  : `${c.code} ${c.fields.map((f) => `${f.property} ${f.from ?? '—'} → ${f.to ?? '—'}${f.unit === '°C' ? ' °C' : ` ${f.unit}`}`).join(', ')}`,
+              )
+              .join('; ')}
+            . The predictions below use the current data; review the recipe.
           </p>
         )}
 
@@ -410,16 +514,58 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
         {sheet && costing && (
           <p className="bs-costing">
-            {sheet.costing.available ? (
+            {unpriced.length > 0 && exchange ? (
+              <>Cost not available: {unpricedMessage(unpriced, exchange.base)}</>
+            ) : sheet.costing.available ? (
               <>
                 Cost: {fmt(sheet.costing.perKg, 3)} {currency}/kg · {fmt(sheet.costing.perLitre, 3)} {currency}/L at 15 °C ·{' '}
-                {fmt(sheet.costing.perBatch, 2)} {currency} per batch. Component prices as entered in the library;
-                confidential.
+                {fmt(sheet.costing.perBatch, 2)} {currency} per batch.{' '}
+                {ratesUsed.length > 0 && exchange ? (
+                  <span data-testid="rates-used">
+                    Prices converted at {ratesUsed.map((r) => describeRate(r, exchange.base, (x) => fmt(x, rateDecimals(x)))).join('; ')}.{' '}
+                  </span>
+                ) : null}
+                Component prices as entered in the library; confidential.
               </>
             ) : (
               <>Cost not available: {sheet.costing.reason}.</>
             )}
           </p>
+        )}
+
+        {superseded && (
+          <section className="bs-change" aria-labelledby={`${id}-chg`}>
+            <h3 id={`${id}-chg`}>
+              Change from revision {superseded.revision}
+              {superseded.name !== recipe.name ? ` (“${superseded.name}”)` : ''}
+            </h3>
+            <p className="bs-change-reason">
+              Reason for change: {recipe.reasonForChange.trim() || <em>not given</em>}
+            </p>
+            <table className="bs-table bs-change-table">
+              <thead>
+                <tr>
+                  <th scope="col">Code</th>
+                  <th scope="col" className="bs-num">Rev. {superseded.revision}, mass %</th>
+                  <th scope="col" className="bs-num">Rev. {recipe.revision}, mass %</th>
+                  <th scope="col" className="bs-num">Change, points</th>
+                </tr>
+              </thead>
+              <tbody>
+                {changes.map((c) => (
+                  <tr key={c.componentId}>
+                    <th scope="row" className="bs-code">{codeOf(c.componentId)}</th>
+                    <td className="bs-num">{c.kind === 'added' ? '—' : fmt(c.from * 100, pd)}</td>
+                    <td className="bs-num">{c.kind === 'removed' ? '—' : fmt(c.to * 100, pd)}</td>
+                    <td className="bs-num">
+                      {c.kind === 'same' ? '0' : `${c.delta > 0 ? '+' : '−'}${fmt(Math.abs(c.delta) * 100, pd)}`}
+                      {c.kind === 'added' ? ' (new)' : c.kind === 'removed' ? ' (removed)' : ''}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </section>
         )}
 
         <section className="bs-steps" aria-labelledby={`${id}-steps`}>
@@ -499,8 +645,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           )}
           <p className="bs-note">
             {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
-            Targets are defaults around the prediction (ν40: plant aim ±5 % of the grade mid-point, inside the ISO 3448
-            band); the product specification governs where it is stricter.
+            Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
+            from the product specification
+            {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
+            recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.
           </p>
         </section>
 

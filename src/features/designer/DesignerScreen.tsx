@@ -1,8 +1,11 @@
 import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
-import type { BlendTargets, Recipe } from '../../core/formulation/model';
+import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
+import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
+import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
+import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import { componentsById, defaultTargets, nextRevisionNumber, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
@@ -77,10 +80,10 @@ export default function DesignerScreen() {
     }, 0);
   }, [settings.blendMethod, fmt]);
 
-  const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
-
   const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density), [density]);
 
+  const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
+  const sourceRecipe = recipes.find((r) => r.id === sourceRecipeId) ?? null;
   const inRecipe = new Set(lines.map((l) => l.componentId));
   const addable = components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
 
@@ -129,44 +132,69 @@ export default function DesignerScreen() {
             onBalance={actions.setBalanceId}
           />
           <PropertiesPanel prediction={prediction} targets={targets} />
+          <SourceStatus recipe={sourceRecipe} components={components} />
           <SaveBox
             name={name}
             grade={targets.grade}
-            sourceRecipe={recipes.find((r) => r.id === sourceRecipeId) ?? null}
+            sourceRecipe={sourceRecipe}
+            nextRevision={sourceRecipe ? nextRevisionNumber(recipes, sourceRecipe) : 1}
             dirty={dirty}
             canSave={lines.length > 0 && Math.abs(view.total - 1) < 1e-6}
             onName={actions.setName}
-            onSaveNew={(n) => {
+            onSaveNew={(n, reason) => {
               const s = useDesignerStore.getState();
+              const lib = useLibrary.getState().components;
               // The same field rules as storage: refuse before anything is written.
-              const refused = firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel));
-              if (refused) return refused;
+              const refused =
+                firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel)) ?? checkText('reasonForChange', reason, recipeWho(n));
+              if (refused) return { refused };
               let id: string;
               try {
-                id = recipeActions.addRecipe({ name: n, grade: s.targets.grade, lines: s.lines });
+                id = recipeActions.addRecipe({
+                  name: n,
+                  grade: s.targets.grade,
+                  lines: s.lines,
+                  reasonForChange: reason,
+                  specification: sourceRecipe?.specification,
+                  stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
+                });
               } catch (e) {
-                return (e as Error).message;
+                return { refused: (e as Error).message };
               }
               recipeActions.setTargets(id, s.targets);
               recipeActions.setActiveRecipe(id);
               s.markSaved(id);
               s.setName(n);
-              return null;
+              return { id };
             }}
-            onSaveOver={(id, raise) => {
+            onSaveChanges={(id, n, reason) => {
               const s = useDesignerStore.getState();
+              const lib = useLibrary.getState().components;
               const target = recipes.find((r) => r.id === id);
               const refused = firstProblem([
-                ...(target ? recipeProblems({ ...target, lines: s.lines, grade: s.targets.grade }) : []),
-                ...targetsProblems(s.targets, target ? recipeWho(target.name) : undefined, stockLabel),
+                ...(target ? recipeProblems({ ...target, name: n, lines: s.lines, grade: s.targets.grade, reasonForChange: reason }) : []),
+                ...targetsProblems(s.targets, recipeWho(n), stockLabel),
               ]);
-              if (refused) return refused;
-              recipeActions.setLines(id, s.lines);
-              recipeActions.updateRecipe(id, { grade: s.targets.grade });
-              recipeActions.setTargets(id, s.targets);
-              if (raise) recipeActions.raiseRevision(id);
-              s.markSaved(id);
-              return null;
+              if (refused) return { refused };
+              let savedId: string;
+              try {
+                savedId = recipeActions.saveChanges(
+                  id,
+                  {
+                    name: n,
+                    grade: s.targets.grade,
+                    lines: s.lines,
+                    targets: s.targets,
+                    stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
+                  },
+                  reason,
+                );
+              } catch (e) {
+                return { refused: (e as Error).message };
+              }
+              recipeActions.setActiveRecipe(savedId);
+              s.markSaved(savedId);
+              return { id: savedId };
             }}
           />
         </div>
@@ -211,11 +239,13 @@ function StartFrom({
       <label htmlFor={id}>Open</label>
       <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)}>
         <option value="">a new blank recipe</option>
-        {recipes.map((r) => (
-          <option key={r.id} value={r.id}>
-            {r.name} (rev. {r.revision})
-          </option>
-        ))}
+        {recipes
+          .filter((r) => !r.archived || r.id === currentId)
+          .map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.name} (rev. {r.revision}, {RECIPE_STATUS_LABEL[r.status].toLowerCase()})
+            </option>
+          ))}
       </select>
       <button type="submit">Open</button>
     </form>
@@ -258,40 +288,78 @@ function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStor
   );
 }
 
+/** Where the draft came from: the saved recipe's status, and whether its stock data changed since. */
+function SourceStatus({ recipe, components }: { recipe: Recipe | null; components: readonly Component[] }) {
+  const changes = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
+  if (!recipe) return null;
+  return (
+    <>
+      <p className="muted source-status" data-testid="source-status">
+        Opened from “{recipe.name}”, revision {recipe.revision} —{' '}
+        <StatusBadge status={recipe.status} />
+        {recipe.archived ? ' (archived)' : ''}.
+        {recipe.status !== 'draft' ? ' It is never overwritten: saving changes makes a new draft revision.' : ''}
+      </p>
+      {changes.length > 0 && (
+        <Notice tone="warning" title="Stock data changed since this recipe was saved">
+          <StockChangeList changes={changes} />
+          <p>The predictions use the current data. Saving records the current data with the recipe.</p>
+        </Notice>
+      )}
+    </>
+  );
+}
+
+/** What a save did: the id saved to, or why nothing was saved. */
+type SaveOutcome = { id: string } | { refused: string };
+
 function SaveBox({
   name,
   grade,
   sourceRecipe,
+  nextRevision,
   dirty,
   canSave,
   onName,
   onSaveNew,
-  onSaveOver,
+  onSaveChanges,
 }: {
   name: string;
   grade: number;
   sourceRecipe: Recipe | null;
+  nextRevision: number;
   dirty: boolean;
   canSave: boolean;
   onName: (n: string) => void;
-  /** Save as a new recipe; null, or why nothing was saved. */
-  onSaveNew: (name: string) => string | null;
-  /** Save over a recipe; null, or why nothing was saved. */
-  onSaveOver: (id: string, raiseRevision: boolean) => string | null;
+  /** Save as a new draft recipe. */
+  onSaveNew: (name: string, reason: string) => SaveOutcome;
+  /** Save into the source (a draft) or as a new draft revision of it (approved). */
+  onSaveChanges: (id: string, name: string, reason: string) => SaveOutcome;
 }) {
   const id = useId();
-  const [raise, setRaise] = useState(true);
+  const reasonId = useId();
+  const [reason, setReason] = useState('');
   const [saved, setSaved] = useState('');
   const [refused, setRefused] = useState('');
   // The name as typed: kept here while the field rules refuse it, so the draft never holds it.
   const [draft, setDraft] = useState(name);
   useEffect(() => setDraft(name), [name]);
   const nameError = checkText('recipeName', draft);
-  const finalName = draft.trim() || `Gear oil VG ${grade} — new recipe`;
-  const report = (message: string | null, ok: string) => {
-    setRefused(message ?? '');
-    setSaved(message ? '' : ok);
+  const reasonError = checkText('reasonForChange', reason);
+  const finalName = draft.trim() || sourceRecipe?.name || `Gear oil VG ${grade} — new recipe`;
+  const revising = sourceRecipe !== null && sourceRecipe.status !== 'draft';
+  const needsReason = revising && reason.trim() === '';
+  const report = (outcome: SaveOutcome, ok: (savedId: string) => string) => {
+    if ('refused' in outcome) {
+      setRefused(outcome.refused);
+      setSaved('');
+      return;
+    }
+    setRefused('');
+    setSaved(ok(outcome.id));
+    setReason('');
   };
+  const blocked = !canSave || Boolean(nameError) || Boolean(reasonError);
   return (
     <section className="save-box" aria-labelledby={`${id}-h`}>
       <h3 id={`${id}-h`}>Save</h3>
@@ -310,35 +378,55 @@ function SaveBox({
             if (!checkText('recipeName', e.target.value)) onName(e.target.value);
           }}
         />
-        <button
-          type="button"
-          disabled={!canSave || Boolean(nameError)}
-          onClick={() => report(onSaveNew(finalName), `Saved as a new recipe: ${finalName}.`)}
-        >
-          Save as new recipe
-        </button>
       </div>
       {nameError && (
         <p id={`${id}-err`} className="field-msg field-error" role="alert">
           {nameError}. Nothing is saved until it is shortened.
         </p>
       )}
-      {sourceRecipe && (
-        <div className="save-row">
+      <div className="save-row">
+        <label htmlFor={reasonId}>Reason for change{revising ? ' (required for a new revision)' : ''}</label>
+        <input
+          id={reasonId}
+          type="text"
+          value={reason}
+          size={50}
+          aria-invalid={reasonError ? true : undefined}
+          placeholder="e.g. bright stock withdrawn; re-solved on Group II heavy stock"
+          onChange={(e) => setReason(e.target.value)}
+        />
+      </div>
+      {reasonError && (
+        <p className="field-msg field-error" role="alert">
+          {reasonError}.
+        </p>
+      )}
+      <div className="save-row">
+        {sourceRecipe && (
           <button
             type="button"
-            disabled={!canSave || !dirty}
+            disabled={blocked || !dirty || needsReason}
+            title={needsReason && dirty ? 'Give the reason for change first' : undefined}
             onClick={() =>
-              report(onSaveOver(sourceRecipe.id, raise), `Saved over ${sourceRecipe.name}${raise ? ` (revision ${sourceRecipe.revision + 1})` : ''}.`)
+              report(onSaveChanges(sourceRecipe.id, finalName, reason.trim()), (savedId) =>
+                savedId === sourceRecipe.id
+                  ? `Saved changes to draft “${finalName}”.`
+                  : `Saved as draft revision ${nextRevision} of “${sourceRecipe.name}”; it supersedes revision ${sourceRecipe.revision} once approved (Recipes screen).`,
+              )
             }
           >
-            Save changes to “{sourceRecipe.name}”
+            {revising ? `Save as draft revision ${nextRevision} of “${sourceRecipe.name}”` : `Save changes to draft “${sourceRecipe.name}”`}
           </button>
-          <label className="checkbox">
-            <input type="checkbox" checked={raise} onChange={(e) => setRaise(e.target.checked)} /> raise the revision
-          </label>
-        </div>
-      )}
+        )}
+        <button
+          type="button"
+          disabled={blocked}
+          onClick={() => report(onSaveNew(finalName, reason.trim()), () => `Saved as a new draft recipe: ${finalName}.`)}
+        >
+          Save as new recipe
+        </button>
+      </div>
+      {revising && dirty && needsReason && <p className="muted">An approved recipe is never overwritten: give the reason for change to save a new draft revision.</p>}
       {refused && (
         <p className="field-msg field-error" role="alert">
           Not saved: {refused}.

@@ -1,5 +1,6 @@
 import { Fragment, memo, useState } from 'react';
 import type { BlendTargets } from '../../core/formulation/model';
+import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import type { PropertyExplain } from '../../core/formulation/blend-properties';
 import { gradeBand } from '../../core/viscosity/iso-grades';
 import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
@@ -147,12 +148,19 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     });
   }
   const polyOk = targets.maxPolymerFraction === null || p.polymerFraction <= targets.maxPolymerFraction + 1e-6;
+  // Without a cap of its own, a share beyond the common-practice default still earns a warning.
+  const beyondDefault = targets.maxPolymerFraction === null && p.polymerFraction > DEFAULT_MAX_POLYMER_FRACTION + 1e-6;
   rows.push({
     key: 'polymer',
     label: 'Polymer share',
     value: fmt.pct(p.polymerFraction, 1),
-    status: targets.maxPolymerFraction === null ? 'info' : polyOk ? 'ok' : 'fail',
-    statusText: targets.maxPolymerFraction === null ? '' : `maximum ${fmt.pct(targets.maxPolymerFraction, 1)}`,
+    status: targets.maxPolymerFraction === null ? (beyondDefault ? 'warn' : 'info') : polyOk ? 'ok' : 'fail',
+    statusText:
+      targets.maxPolymerFraction === null
+        ? beyondDefault
+          ? `no cap set; beyond the usual ${fmt.pct(DEFAULT_MAX_POLYMER_FRACTION, 0)} (common practice)`
+          : ''
+        : `maximum ${fmt.pct(targets.maxPolymerFraction, 1)}`,
     explain: { equation: 'Σ wᵢ over polymer components (mass fractions)', standard: 'definition', inputs: {} },
   });
   rows.push({

@@ -1,6 +1,6 @@
 import { memo, useId } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
-import { CATEGORY_LABEL } from '../../core/formulation/model';
+import { CATEGORY_LABEL, DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import { ISO_GRADES, gradeBand } from '../../core/viscosity/iso-grades';
 import { NumberField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
@@ -119,6 +119,7 @@ export const TargetsForm = memo(function TargetsForm({
           value={pct(targets.maxPolymerFraction)}
           min={0}
           max={100}
+          hint={`new recipes start at ${DEFAULT_MAX_POLYMER_FRACTION * 100} % (common practice, no source); blank = no cap`}
           onChange={(v) => onChange({ maxPolymerFraction: frac(v) })}
         />
         <Opt

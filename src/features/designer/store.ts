@@ -28,7 +28,7 @@ export interface DesignerState {
   /** Why the last hand edit was limited; empty when it was not. */
   editNote: string;
   notice: SolveNotice | null;
-  /** True when lines changed since the last save or load. */
+  /** True when lines or targets changed since the last save or load. */
   dirty: boolean;
   /** False until the draft was first loaded (the screen opens the active recipe then). */
   initialised: boolean;
@@ -119,13 +119,14 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       dirty: false,
       initialised: true,
     }),
-  setTargets: (patch) => set((s) => ({ targets: { ...s.targets, ...patch } })),
+  // A change of constraints alone is a change that can be saved.
+  setTargets: (patch) => set((s) => ({ targets: { ...s.targets, ...patch }, dirty: true })),
   setBound: (componentId, bound) =>
     set((s) => {
       const bounds = { ...s.targets.bounds };
       if (bound === null || (bound.min === undefined && bound.max === undefined)) delete bounds[componentId];
       else bounds[componentId] = bound;
-      return { targets: { ...s.targets, bounds } };
+      return { targets: { ...s.targets, bounds }, dirty: true };
     }),
   setName: (name) => set({ name }),
   setBasis: (basis) => set({ basis }),

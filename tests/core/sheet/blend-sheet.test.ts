@@ -12,6 +12,7 @@ import {
   type SheetPrediction,
 } from '../../../src/core/sheet/blend-sheet';
 import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
+import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../../../src/core/formulation/model';
 import { BlendbenchInputError } from '../../../src/core/errors';
 
 /** An invented test component; only the fields the sheet reads matter. */
@@ -60,6 +61,7 @@ function recipe(lines: [string, number][], grade = 320): Recipe {
     isReference: false,
     notes: '',
     updatedAt: '2025-01-01T00:00:00Z',
+    ...newRecipeLifecycle(),
   };
 }
 
@@ -287,15 +289,33 @@ describe('qcReleaseTargets', () => {
     expect(qcReleaseTargets(320, { ...p, kv40: 303.96 }).find((r) => r.key === 'kv40')!.predictedOutsideTarget).toBe(false);
   });
 
-  it('sets margins around the prediction and names each test method', () => {
-    const rows = qcReleaseTargets(320, p);
+  it('takes every limit but ν40 from the recipe specification, never from the prediction (issue 10, item 12)', () => {
+    // No specification entered: nothing is derived from the model's own estimates.
+    const blank = Object.fromEntries(qcReleaseTargets(320, p).map((r) => [r.key, r]));
+    for (const k of ['kv100', 'vi', 'density15', 'flash', 'pour', 'copper', 'foam'] as const) {
+      expect(blank[k]!.target).toBe('Per specification');
+      expect([blank[k]!.min, blank[k]!.max]).toEqual([null, null]);
+      expect(blank[k]!.limitSource).toBe('none');
+      expect(blank[k]!.release).toBe(true);
+    }
+    // The predictions are still printed beside the limits, for information.
+    expect([blank.flash!.predicted, blank.pour!.predicted, blank.vi!.predicted]).toEqual(['242', '-11', '97']);
+    // Limits as entered in an invented test specification (common practice (no source) for the shape only).
+    const spec = {
+      ...BLANK_SPECIFICATION, kv100Min: 22, kv100Max: 26, viMin: 90, density15Min: 0.88, density15Max: 0.9,
+      flashMin: 220, pourMax: -9, copper: '1b max', foam: '50/0',
+    };
+    const rows = qcReleaseTargets(320, p, { specification: spec });
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));
-    // common practice (no source): VI ≥ predicted − 5; flash ≥ estimate − 10 °C; pour ≤ estimate + 6 °C
-    expect(by.vi!.min).toBe(92);
-    expect(by.flash!.min).toBe(232);
-    expect(by.pour!.max).toBe(-5);
-    // common practice (no source): density ±0.005 kg/L around the prediction
-    expect(by.density15!.target).toBe('0.8862–0.8962');
+    expect([by.kv100!.target, by.vi!.target, by.density15!.target]).toEqual(['22.00–26.00', '≥ 90', '0.8800–0.9000']);
+    expect([by.flash!.target, by.flash!.min, by.pour!.target, by.pour!.max]).toEqual(['≥ 220', 220, '≤ -9', -9]);
+    expect([by.copper!.target, by.foam!.target]).toEqual(['1b max', '50/0']);
+    expect(by.vi!.limitSource).toBe('specification');
+    expect(by.kv40!.limitSource).toBe('grade');
+    // pour estimate −11.2 °C rounds to −11 (≤ −9 passes); a −12 °C limit is missed
+    expect(rows.some((r) => r.predictedOutsideTarget)).toBe(false);
+    const strict = qcReleaseTargets(320, p, { specification: { ...spec, pourMax: -12, viMin: 100 } });
+    expect(strict.filter((r) => r.predictedOutsideTarget).map((r) => r.key)).toEqual(['vi', 'pour']);
     expect(rows.map((r) => r.method)).toEqual([
       'Visual', 'ASTM D445', 'ASTM D445', 'ASTM D2270', 'ASTM D4052', 'ASTM D92', 'ASTM D97', 'ASTM D611',
       'ASTM D341', 'ASTM D130', 'ASTM D892',
@@ -304,7 +324,8 @@ describe('qcReleaseTargets', () => {
   });
 
   it('prints flash, pour, aniline and operating temperatures in °F, judged as in °C', () => {
-    const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F' });
+    const spec = { ...BLANK_SPECIFICATION, flashMin: 232, pourMax: -5 };
+    const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F', specification: spec });
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));
     // t_F = 9/5·t_C + 32 (common practice, no source), rounded to whole degrees:
     // flash 241.6 °C → 466.9 → 467 °F, limit 232 °C → 449.6 → 450 °F
@@ -316,7 +337,9 @@ describe('qcReleaseTargets', () => {
     expect(by.kvOperating!.property).toBe('Viscosity at 140 °F (calculated)');
     // The standard test temperatures stay in °C; verdicts do not change with the unit.
     expect(by.kv40!.property).toBe('Kinematic viscosity at 40 °C');
-    expect(rows.map((r) => r.predictedOutsideTarget)).toEqual(qcReleaseTargets(320, p).map((r) => r.predictedOutsideTarget));
+    expect(rows.map((r) => r.predictedOutsideTarget)).toEqual(
+      qcReleaseTargets(320, p, { specification: spec }).map((r) => r.predictedOutsideTarget),
+    );
   });
 
   it('reports rather than invents targets for missing estimates', () => {

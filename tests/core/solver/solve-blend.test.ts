@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { solveBlend, prepareComponents, solvePrepared, type SolveResult, type SolveOptimal } from '../../../src/core/solver/solve-blend';
 import type { Component, Recipe } from '../../../src/core/formulation/model';
+import { newRecipeLifecycle } from '../../../src/core/formulation/model';
 import { predictBlend } from '../../../src/core/formulation/blend-properties';
 import {
   AN_12,
@@ -143,6 +144,7 @@ describe('solveBlend — objectives', () => {
       isReference: true,
       notes: '',
       updatedAt: '2024-01-01T00:00:00Z',
+      ...newRecipeLifecycle(),
     };
     const refProps = predictBlend(LIBRARY, ref.lines);
     const tc = targets({ grade: 320, targetKv40: refProps.kv40, tolerancePct: 5, objective: 'closest' });

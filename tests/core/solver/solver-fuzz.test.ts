@@ -19,6 +19,7 @@ import {
   blendKv40Kv100,
   gradeBand,
   massToVolumeFractions,
+  newRecipeLifecycle,
   predictBlend,
   solveBlend,
   solveBlendPlain,
@@ -283,6 +284,7 @@ describe('solver fuzzing: solveBlend', () => {
           isReference: true,
           notes: '',
           updatedAt: '2024-01-01T00:00:00Z',
+          ...newRecipeLifecycle(),
         };
         // solveBlend never throws: impossible input comes back as 'invalid-input' naming the field.
         const r = solveBlend({ components: g.components, targets, reference, method: g.method });

@@ -5,6 +5,7 @@ import { BlendSheetView } from '../../../src/features/blend-sheet/BlendSheetView
 import { csvFileName, toCsv } from '../../../src/features/blend-sheet/csv';
 import type { SheetPrediction } from '../../../src/core/sheet/blend-sheet';
 import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
+import { newRecipeLifecycle } from '../../../src/core/formulation/model';
 
 afterEach(cleanup);
 
@@ -53,6 +54,9 @@ const recipe: Recipe = {
   isReference: true,
   notes: '',
   updatedAt: '2025-03-01T10:00:00Z',
+  ...newRecipeLifecycle(),
+  status: 'approved',
+  approvedAt: '2025-03-01T10:00:00Z',
 };
 const prediction: SheetPrediction = {
   kv40: 318.2,
@@ -130,10 +134,50 @@ describe('BlendSheetView', () => {
     measured.forEach((td) => expect(td.textContent).toBe(''));
   });
 
-  it('warns on the sheet when the prediction misses its own release target', () => {
+  it('holds a sheet whose prediction misses its release target, on screen, on the Print button and in print', () => {
     renderSheet({ predict: () => ({ ...prediction, kv40: 228.04 }) });
     // VG 320 plant aim band 304–336 (ISO 3448 band 288–352, check-values G2; ±5 % common practice)
-    expect(screen.getByRole('alert').textContent).toMatch(/misses its release target.*Kinematic viscosity at 40 °C: predicted 228\.0 mm²\/s, target 304\.0–336\.0/);
+    const hold = screen.getByTestId('release-hold');
+    expect(hold.textContent).toMatch(/HOLD — not for release/);
+    expect(hold.textContent).toMatch(/misses a release limit — Kinematic viscosity at 40 °C: predicted 228\.0 mm²\/s, limit 304\.0–336\.0/);
+    expect(screen.getByRole('button', { name: 'Print — HOLD — not for release' })).toBeTruthy();
+    expect(screen.getByRole('alert').textContent).toMatch(/This sheet will print with the hold/);
+  });
+
+  it('holds a sheet that uses a withdrawn stock, or a draft, and says why (issue 10, item 11)', () => {
+    const withdrawn = components.map((c) => (c.id === 'hv' ? { ...c, availability: 'withdrawn' as const } : c));
+    renderSheet({ components: withdrawn });
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/uses a withdrawn stock: HV/);
+    cleanup();
+    renderSheet({ recipes: [{ ...recipe, status: 'draft', approvedAt: null }] });
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/draft: it has not been approved/);
+    cleanup();
+    // An approved recipe on available stocks whose prediction meets every limit: no hold.
+    renderSheet();
+    expect(screen.queryByTestId('release-hold')).toBeNull();
+    expect(screen.getByRole('button', { name: 'Print' })).toBeTruthy();
+  });
+
+  it('holds a sheet whose prediction misses a limit of the recipe specification', () => {
+    // flash estimate 238 °C against an invented specification minimum of 240 °C
+    renderSheet({ recipes: [{ ...recipe, specification: { ...recipe.specification, flashMin: 240, reference: 'SPEC-1' } }] });
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/Flash point, open cup \(estimate\): predicted 238 °C, limit ≥ 240/);
+    const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
+    expect(within(qc).getAllByText('Per specification').length).toBeGreaterThan(3);
+    expect(screen.getByText(/product specification SPEC-1/)).toBeTruthy();
+  });
+
+  it('holds a sheet whose prediction misses one of the recipe’s own constraints', () => {
+    // The full prediction is needed to recheck constraints; a minimum VI of 120 cannot hold for VI ≈ 98 (invented).
+    const properties = { kv40: 318.2, kv100: 24.3, vi: 98.2, polymerFraction: 0, anilinePoint: { value: 118 }, pourPoint: -12, flashPoint: 238 };
+    const targets = {
+      r320: {
+        grade: 320, targetKv40: null, tolerancePct: 5, minVi: 120, maxAnilinePoint: null, maxPolymerFraction: null,
+        maxPourPoint: null, minFlashPoint: null, additive: null, bounds: {}, objective: 'cost' as const, referenceRecipeId: null,
+      },
+    };
+    renderSheet({ targets, predict: () => ({ ...prediction, properties: properties as never }) });
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/misses its own constraint — minimum VI: 98\.2, limit ≥ 120/);
   });
 
   it('shows a prediction failure as a message, not as numbers', () => {
@@ -142,7 +186,8 @@ describe('BlendSheetView', () => {
         throw new Error('kv100 = 1.5 mm²/s is below 2.0 mm²/s');
       },
     });
-    expect(screen.getByRole('alert').textContent).toMatch(/cannot be predicted.*below 2\.0/);
+    expect(screen.getAllByRole('alert').some((a) => /cannot be predicted.*below 2\.0/.test(a.textContent ?? ''))).toBe(true);
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/cannot be predicted/);
   });
 
   it('lets the operator edit and restore the blending instructions', () => {

@@ -1,0 +1,175 @@
+/**
+ * Exchange rates at the boundary: every stock price is restated in one base currency before it
+ * reaches a cost figure or the solver, with the rates and dates the user entered. A price in a
+ * currency without a rate is never mixed in: the stock is reported as unpriced and left out of
+ * costing and solving until a rate is entered.
+ *
+ *   price in base = amount × rate,  rate = base-currency units per one unit of the stock's currency
+ *   (e.g. USD → EUR 0.92: 1 USD = 0.92 EUR, so 1.00 USD/kg = 0.92 EUR/kg)
+ *
+ * Currencies are compared by code, trimmed and upper-cased; the symbols €, $ and £ are read as EUR,
+ * USD and GBP (common practice (no source): the three symbols a price list most often carries
+ * instead of a code). The price basis (per kg, litre, tonne) is kept: only the amount is restated.
+ */
+import type { Component, Price } from '../formulation/model';
+import { BlendbenchInputError, assertFinite } from '../errors';
+
+/** One exchange rate, as the user entered it. */
+export interface ExchangeRate {
+  /** Currency code of the quoted prices, e.g. "USD". */
+  currency: string;
+  /** Base-currency units per one unit of `currency` (> 0). */
+  rate: number;
+  /** ISO date (YYYY-MM-DD) the rate was taken; '' → not given. */
+  asOf: string;
+}
+
+const SYMBOLS: Record<string, string> = { '€': 'EUR', $: 'USD', US$: 'USD', '£': 'GBP' };
+
+/**
+ * A currency name as compared: trimmed, upper-cased, the symbols €, $, £ read as EUR, USD, GBP.
+ *
+ * @param currency - a code or symbol as typed ("usd ", "€")
+ * @returns the normalised code ("USD", "EUR"); '' for a blank name
+ * @example normaliseCurrency(' eur') // → 'EUR'
+ */
+export function normaliseCurrency(currency: string): string {
+  const t = currency.trim();
+  return SYMBOLS[t] ?? t.toUpperCase();
+}
+
+/**
+ * The rate that restates `currency` in `base`: 1 for the base currency itself, else the user's rate.
+ *
+ * @param currency - the price's currency
+ * @param base - the base currency
+ * @param rates - the user's rates to the base
+ * @returns the rate (base units per unit of `currency`) and its entry, or null when there is none
+ * @example rateToBase('USD', 'EUR', [{ currency: 'USD', rate: 0.92, asOf: '2026-11-30' }]) // → { rate: 0.92, entry: … }
+ */
+export function rateToBase(
+  currency: string,
+  base: string,
+  rates: readonly ExchangeRate[],
+): { rate: number; entry: ExchangeRate | null } | null {
+  const c = normaliseCurrency(currency);
+  if (c === normaliseCurrency(base)) return { rate: 1, entry: null };
+  const entry = rates.find((r) => normaliseCurrency(r.currency) === c);
+  return entry ? { rate: entry.rate, entry } : null;
+}
+
+/**
+ * A price restated in the base currency (same basis).
+ *
+ * @param price - amount, basis, currency as quoted
+ * @param base - base currency code
+ * @param rates - the user's rates
+ * @returns the price in the base currency (currency field = normalised base code), or null when the
+ *   price's currency has no rate
+ * @throws BlendbenchInputError if the rate found is not a positive finite number
+ * @example priceInBase({ amount: 1, basis: 'per-kg', currency: 'USD' }, 'EUR', rates) // → { amount: 0.92, basis: 'per-kg', currency: 'EUR' }
+ */
+export function priceInBase(price: Price, base: string, rates: readonly ExchangeRate[]): Price | null {
+  const r = rateToBase(price.currency, base, rates);
+  if (!r) return null;
+  assertFinite('priceInBase', 'rate', r.rate);
+  if (r.rate <= 0) throw new BlendbenchInputError('rate', r.rate, `priceInBase: the rate for ${price.currency} must be above 0`);
+  return { amount: price.amount * r.rate, basis: price.basis, currency: normaliseCurrency(base) };
+}
+
+/** A stock whose price could not be restated in the base currency. */
+export interface UnpricedStock {
+  componentId: string;
+  code: string;
+  /** The currency as entered on the stock. */
+  currency: string;
+}
+
+/** The library with every price in the base currency, and what could not be converted. */
+export interface PricedLibrary {
+  /** Same order and ids as the input; prices restated where a rate exists, else unchanged. */
+  components: Component[];
+  /** Normalised base currency code. */
+  base: string;
+  /** Stocks whose currency has no rate (their price is left as quoted and must not be costed). */
+  unpriced: UnpricedStock[];
+  /** The rates actually used (one per foreign currency present), in first-use order. */
+  ratesUsed: ExchangeRate[];
+}
+
+/**
+ * Restates every stock's price in the base currency.
+ *
+ * @param components - the library
+ * @param base - base currency code (e.g. "EUR")
+ * @param rates - the user's rates to the base
+ * @returns the converted library, the unpriced stocks and the rates used
+ * @throws BlendbenchInputError if a rate used is not a positive finite number
+ */
+export function priceLibraryInBase(components: readonly Component[], base: string, rates: readonly ExchangeRate[]): PricedLibrary {
+  const unpriced: UnpricedStock[] = [];
+  const used = new Map<string, ExchangeRate>();
+  const out = components.map((c) => {
+    const r = rateToBase(c.price.currency, base, rates);
+    if (!r) {
+      unpriced.push({ componentId: c.id, code: c.code, currency: c.price.currency.trim() });
+      return c;
+    }
+    if (r.entry) used.set(normaliseCurrency(r.entry.currency), r.entry);
+    else if (c.price.currency === normaliseCurrency(base)) return c; // already in the base currency, as written
+    const price = priceInBase(c.price, base, rates)!;
+    return { ...c, price };
+  });
+  return { components: out, base: normaliseCurrency(base), unpriced, ratesUsed: [...used.values()] };
+}
+
+/**
+ * The library as the solver may use it: unpriced stocks are marked withdrawn (left out of every
+ * solve and search, never priced at a wrong rate). Used only as solver input, never stored.
+ *
+ * @param priced - from {@link priceLibraryInBase}
+ * @returns the components for solving
+ */
+export function solvableLibrary(priced: PricedLibrary): Component[] {
+  if (priced.unpriced.length === 0) return priced.components;
+  const out = new Set(priced.unpriced.map((u) => u.componentId));
+  return priced.components.map((c) => (out.has(c.id) ? { ...c, availability: 'withdrawn' as const } : c));
+}
+
+/**
+ * The line printed on costing copies for a rate: "USD → EUR 0.92 as of 2026-11-30".
+ *
+ * @param rate - the rate entry
+ * @param base - base currency code
+ * @param formatRate - formats the rate (the caller's number format); default up to 6 significant digits
+ * @returns the text
+ */
+export function describeRate(rate: ExchangeRate, base: string, formatRate: (x: number) => string = (x) => String(Number(x.toPrecision(6)))): string {
+  const asOf = rate.asOf ? ` as of ${rate.asOf}` : ' (date not given)';
+  return `${normaliseCurrency(rate.currency)} → ${normaliseCurrency(base)} ${formatRate(rate.rate)}${asOf}`;
+}
+
+/**
+ * The user's message for unpriced stocks, naming each stock and its currency.
+ *
+ * @param unpriced - from {@link priceLibraryInBase}
+ * @param base - base currency code
+ * @returns one sentence, or '' when every stock is priced
+ * @example unpricedMessage([{ code: 'BW-999', currency: 'USD', … }], 'EUR')
+ *   // → 'BW-999 is priced in USD, which has no exchange rate to EUR: it is left out of costing and solving until a rate is entered under Settings → Exchange rates.'
+ */
+export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string): string {
+  if (unpriced.length === 0) return '';
+  const b = normaliseCurrency(base);
+  const byCurrency = new Map<string, string[]>();
+  for (const u of unpriced) {
+    const c = u.currency || '(no currency)';
+    byCurrency.set(c, [...(byCurrency.get(c) ?? []), u.code]);
+  }
+  const parts = [...byCurrency].map(([cur, codes]) =>
+    codes.length === 1 ? `${codes[0]} is priced in ${cur}` : `${codes.join(', ')} are priced in ${cur}`,
+  );
+  const which = byCurrency.size === 1 ? 'which has' : 'which have';
+  const it = unpriced.length === 1 ? 'it is' : 'they are';
+  return `${parts.join('; ')}, ${which} no exchange rate to ${b}: ${it} left out of costing and solving until a rate is entered under Settings → Exchange rates.`;
+}

@@ -1,0 +1,119 @@
+/**
+ * The stock data a recipe was saved with, and what has changed in the library since.
+ *
+ * A recipe's predictions depend on its stocks' measured viscosities (or the effective values of a
+ * calibration), densities and aniline, pour and flash points. When any of them changes after the
+ * recipe was saved — a new datasheet, a calibration from a trial blend — the same fractions predict
+ * a different blend. Recording a snapshot with the recipe lets every screen say so instead of
+ * silently showing new numbers under an old approval.
+ *
+ * Exact comparison: the snapshot holds the values as entered, so "unchanged" means identical inputs
+ * (no tolerance: a re-typed value that differs in the last digit is a change the user made).
+ */
+import type { Component, RecipeLine, StockBasis, StockSnapshot } from '../formulation/model';
+
+/**
+ * The snapshot of one stock: the inputs predictions depend on.
+ *
+ * @param c - the stock as it is in the library now
+ * @returns its snapshot (copies; later edits of `c` do not reach it)
+ */
+export function stockSnapshot(c: Component): StockSnapshot {
+  return {
+    componentId: c.id,
+    code: c.code,
+    viscosityPoints: c.viscosityPoints.map((p) => ({ tempC: p.tempC, kv: p.kv })),
+    calibratedKv40: c.calibration?.effectiveKv40 ?? null,
+    calibratedKv100: c.calibration?.effectiveKv100 ?? null,
+    density15: c.density15,
+    anilinePoint: c.anilinePoint,
+    pourPoint: c.pourPoint,
+    flashPoint: c.flashPoint,
+  };
+}
+
+/**
+ * Records the stock data of every component a recipe names (each once, in line order); ids not in
+ * the library are left out (the recipe's own checks report them).
+ *
+ * @param components - the library
+ * @param lines - the recipe's lines
+ * @param recordedAt - ISO date-time of recording (the caller's clock; the core has none)
+ * @returns the stock basis to store with the recipe
+ * @example recordStockBasis(lib, recipe.lines, '2026-01-05T10:00:00.000Z').stocks.length // → 3
+ */
+export function recordStockBasis(components: readonly Component[], lines: readonly RecipeLine[], recordedAt: string): StockBasis {
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const seen = new Set<string>();
+  const stocks: StockSnapshot[] = [];
+  for (const l of lines) {
+    if (seen.has(l.componentId)) continue;
+    seen.add(l.componentId);
+    const c = byId.get(l.componentId);
+    if (c) stocks.push(stockSnapshot(c));
+  }
+  return { recordedAt, stocks };
+}
+
+/** One property of a stock that differs from the recipe's snapshot. */
+export interface StockFieldChange {
+  /** What changed, in words: "ν at 40 °C", "calibrated ν40", "density at 15 °C", "flash point" … */
+  property: string;
+  /** Unit of the values: 'mm²/s', 'kg/L' or '°C'. */
+  unit: 'mm²/s' | 'kg/L' | '°C';
+  /** Value in the snapshot and in the library now; null → not given. */
+  from: number | null;
+  to: number | null;
+}
+
+/** A stock of the recipe whose data differ from the snapshot, or that left the library. */
+export interface StockChange {
+  componentId: string;
+  /** Stock code now (or as recorded, when the stock was deleted). */
+  code: string;
+  /** 'changed': data differ; 'deleted': the stock is no longer in the library. */
+  kind: 'changed' | 'deleted';
+  /** The differing properties ('changed' only), in a fixed order. */
+  fields: StockFieldChange[];
+}
+
+/**
+ * Compares a recipe's recorded stock data with the library now.
+ *
+ * @param basis - the recipe's stock basis (null → nothing recorded → no changes can be told)
+ * @param components - the library now
+ * @returns one entry per stock whose data differ or that was deleted, in snapshot order; empty
+ *   when nothing changed
+ * @example stockBasisChanges(recipe.stockBasis, lib) // → [{ code: 'BW-510', kind: 'changed', fields: [{ property: 'calibrated ν40', from: null, to: 7200, … }] }]
+ */
+export function stockBasisChanges(basis: StockBasis | null, components: readonly Component[]): StockChange[] {
+  if (!basis) return [];
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const out: StockChange[] = [];
+  for (const snap of basis.stocks) {
+    const c = byId.get(snap.componentId);
+    if (!c) {
+      out.push({ componentId: snap.componentId, code: snap.code, kind: 'deleted', fields: [] });
+      continue;
+    }
+    const now = stockSnapshot(c);
+    const fields: StockFieldChange[] = [];
+    const temps = [...new Set([...snap.viscosityPoints, ...now.viscosityPoints].map((p) => p.tempC))].sort((a, b) => a - b);
+    for (const t of temps) {
+      const from = snap.viscosityPoints.find((p) => p.tempC === t)?.kv ?? null;
+      const to = now.viscosityPoints.find((p) => p.tempC === t)?.kv ?? null;
+      if (from !== to) fields.push({ property: `ν at ${t} °C`, unit: 'mm²/s', from, to });
+    }
+    const compare = (property: string, unit: StockFieldChange['unit'], from: number | null, to: number | null) => {
+      if (from !== to) fields.push({ property, unit, from, to });
+    };
+    compare('calibrated ν40', 'mm²/s', snap.calibratedKv40, now.calibratedKv40);
+    compare('calibrated ν100', 'mm²/s', snap.calibratedKv100, now.calibratedKv100);
+    compare('density at 15 °C', 'kg/L', snap.density15, now.density15);
+    compare('aniline point', '°C', snap.anilinePoint, now.anilinePoint);
+    compare('pour point', '°C', snap.pourPoint, now.pourPoint);
+    compare('flash point', '°C', snap.flashPoint, now.flashPoint);
+    if (fields.length > 0) out.push({ componentId: c.id, code: c.code, kind: 'changed', fields });
+  }
+  return out;
+}

@@ -1,0 +1,462 @@
+// The recipe register: every saved recipe with its status (draft / approved / superseded), its
+// revisions, reason for change and product specification; approve, rename, archive, delete with undo.
+import { useEffect, useId, useMemo, useState } from 'react';
+import type { Recipe, ReleaseSpecification } from '../../core/formulation/model';
+import { BLANK_SPECIFICATION, RECIPE_STATUS_LABEL } from '../../core/formulation/model';
+import { assessRelease } from '../../core/release/release-hold';
+import { stockBasisChanges } from '../../core/recipes/stock-basis';
+import { shareChanges } from '../../core/recipes/share-changes';
+import { Notice } from '../../components/notices';
+import { NumberField, TextField } from '../../components/fields';
+import { useFormat } from '../../components/format';
+import { StatusBadge, StockChangeList } from '../../components/recipe-status';
+import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import './recipes.css';
+
+type Flash = { tone: 'success' | 'info' | 'warning'; text: string; undo?: boolean } | null;
+
+export default function RecipesScreen() {
+  const recipes = useRecipes((s) => s.recipes);
+  const activeRecipeId = useRecipes((s) => s.activeRecipeId);
+  const components = useLibrary((s) => s.components);
+  const history = useRecipesHistory();
+  const [showArchived, setShowArchived] = useState(false);
+  const [query, setQuery] = useState('');
+  const [selectedId, setSelectedId] = useState<string | null>(activeRecipeId);
+  const [flash, setFlash] = useState<Flash>(null);
+  const fmt = useFormat();
+
+  const byId = useMemo(() => new Map(recipes.map((r) => [r.id, r])), [recipes]);
+  const componentIds = useMemo(() => new Map(components.map((c) => [c.id, c])), [components]);
+  const supersededBy = useMemo(() => {
+    const m = new Map<string, Recipe[]>();
+    for (const r of recipes) if (r.supersedes) m.set(r.supersedes, [...(m.get(r.supersedes) ?? []), r]);
+    return m;
+  }, [recipes]);
+  const shown = useMemo(() => {
+    const q = query.trim().toLowerCase();
+    return recipes
+      .filter((r) => (showArchived || !r.archived) && (!q || r.name.toLowerCase().includes(q) || `vg ${r.grade}`.includes(q)))
+      .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name) || a.revision - b.revision);
+  }, [recipes, showArchived, query]);
+  const selected = (selectedId ? byId.get(selectedId) : undefined) ?? null;
+
+  const remove = (r: Recipe) => {
+    recipeActions.removeRecipe(r.id);
+    setSelectedId(null);
+    setFlash({ tone: 'info', text: `Deleted “${r.name}” (revision ${r.revision}).`, undo: true });
+  };
+
+  return (
+    <section className="recipes" aria-labelledby="recipes-h" data-testid="recipes">
+      <h2 id="recipes-h">Recipes</h2>
+      <p className="lead">
+        Every saved recipe with its status. A <strong>draft</strong> can be changed and is not for release; an <strong>approved</strong>{' '}
+        recipe is never overwritten — a change makes a new draft revision that supersedes it, and approving that revision marks the
+        old one <strong>superseded</strong>.
+      </p>
+      <div className="toolbar">
+        <label className="inline-field">
+          Find
+          <input type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="name or VG 320" size={18} />
+        </label>
+        <label className="check">
+          <input type="checkbox" checked={showArchived} onChange={(e) => setShowArchived(e.target.checked)} /> Show archived
+        </label>
+        <span className="toolbar-gap" />
+        <button type="button" disabled={!history.canUndo} onClick={history.undo}>
+          Undo
+        </button>
+        <button type="button" disabled={!history.canRedo} onClick={history.redo}>
+          Redo
+        </button>
+      </div>
+      {flash && (
+        <Notice
+          tone={flash.tone}
+          actions={
+            flash.undo ? (
+              <button
+                type="button"
+                onClick={() => {
+                  history.undo();
+                  setFlash(null);
+                }}
+              >
+                Undo
+              </button>
+            ) : undefined
+          }
+        >
+          {flash.text}
+        </Notice>
+      )}
+      <div className="recipes-grid">
+        <div className="table-scroll">
+          <table className="data recipes-table" data-testid="recipe-list">
+            <caption className="visually-hidden">Saved recipes</caption>
+            <thead>
+              <tr>
+                <th scope="col">Recipe</th>
+                <th scope="col" className="num">Grade</th>
+                <th scope="col" className="num">Rev.</th>
+                <th scope="col">Status</th>
+                <th scope="col">Flags</th>
+                <th scope="col">Saved</th>
+              </tr>
+            </thead>
+            <tbody>
+              {shown.map((r) => {
+                const changed = stockBasisChanges(r.stockBasis, components).length > 0;
+                const withdrawn = r.lines.some((l) => l.massFraction > 0 && componentIds.get(l.componentId)?.availability === 'withdrawn');
+                const isSel = r.id === selected?.id;
+                return (
+                  <tr key={r.id} className={isSel ? 'selected' : undefined} aria-selected={isSel}>
+                    <th scope="row">
+                      <button type="button" className="link" aria-pressed={isSel} onClick={() => setSelectedId(r.id)}>
+                        {r.name}
+                      </button>
+                      {r.isReference ? <span className="tag"> in production</span> : null}
+                    </th>
+                    <td className="num">VG {r.grade}</td>
+                    <td className="num">{r.revision}</td>
+                    <td>
+                      <StatusBadge status={r.status} />
+                      {r.archived ? <span className="tag"> archived</span> : null}
+                    </td>
+                    <td>
+                      {withdrawn ? <span className="tag tag-bad">withdrawn stock</span> : null}
+                      {changed ? <span className="tag tag-warn">stock data changed</span> : null}
+                    </td>
+                    <td>{r.updatedAt.slice(0, 10)}</td>
+                  </tr>
+                );
+              })}
+              {shown.length === 0 && (
+                <tr>
+                  <td colSpan={6} className="muted">
+                    No recipe matches.
+                  </td>
+                </tr>
+              )}
+            </tbody>
+          </table>
+        </div>
+        {selected ? (
+          <RecipeDetail
+            key={selected.id}
+            recipe={selected}
+            recipes={recipes}
+            supersedes={selected.supersedes ? (byId.get(selected.supersedes) ?? null) : null}
+            supersededBy={supersededBy.get(selected.id) ?? []}
+            onSelect={setSelectedId}
+            onFlash={setFlash}
+            onDelete={() => remove(selected)}
+            fmtPct={(f) => fmt.num(f * 100, 2)}
+          />
+        ) : (
+          <p className="muted recipe-detail">Select a recipe to see its status, specification and history.</p>
+        )}
+      </div>
+    </section>
+  );
+}
+
+function RecipeDetail({
+  recipe,
+  recipes,
+  supersedes,
+  supersededBy,
+  onSelect,
+  onFlash,
+  onDelete,
+  fmtPct,
+}: {
+  recipe: Recipe;
+  recipes: readonly Recipe[];
+  supersedes: Recipe | null;
+  supersededBy: readonly Recipe[];
+  onSelect: (id: string) => void;
+  onFlash: (f: Flash) => void;
+  onDelete: () => void;
+  fmtPct: (fraction: number) => string;
+}) {
+  const components = useLibrary((s) => s.components);
+  const targets = useRecipes((s) => s.targets[recipe.id]) ?? null;
+  const settings = useSettings();
+  const codeOf = (id: string) => components.find((c) => c.id === id)?.code ?? id;
+  const release = useMemo(
+    () =>
+      assessRelease({
+        recipe,
+        components,
+        targets,
+        method: settings.blendMethod,
+        supersededBy: supersededBy.find((r) => r.status === 'approved') ?? null,
+      }),
+    [recipe, components, targets, settings.blendMethod, supersededBy],
+  );
+  const stockChanges = useMemo(() => stockBasisChanges(recipe.stockBasis, components), [recipe, components]);
+  // Reasons other than the status itself stop an approval.
+  const blocking = release.reasons.filter((r) => r.kind !== 'status');
+  const changes = supersedes ? shareChanges(supersedes.lines, recipe.lines) : [];
+  const open = (screen: 'designer' | 'blend-sheet') => {
+    recipeActions.setActiveRecipe(recipe.id);
+    window.location.hash = screen === 'designer' ? '#/designer' : `#/blend-sheet/${encodeURIComponent(recipe.id)}`;
+  };
+
+  return (
+    <section className="recipe-detail panel" aria-labelledby="recipe-detail-h">
+      <h3 id="recipe-detail-h">
+        {recipe.name} <span className="muted">— VG {recipe.grade}, revision {recipe.revision}</span> <StatusBadge status={recipe.status} />
+      </h3>
+      <TextField
+        label="Name"
+        size={48}
+        maxLength={200}
+        value={recipe.name}
+        validate={(v) => ({ error: v.trim() ? undefined : 'a recipe needs a name' })}
+        onCommit={(v) => recipeActions.renameRecipe(recipe.id, v.trim())}
+      />
+      <dl className="recipe-facts">
+        <dt>Status</dt>
+        <dd>
+          {RECIPE_STATUS_LABEL[recipe.status]}
+          {recipe.status === 'approved' ? (recipe.approvedAt ? ` on ${recipe.approvedAt.slice(0, 10)}` : ' (carried over from an earlier version)') : ''}
+          {recipe.archived ? ', archived' : ''}
+          {recipe.isReference ? ', in production (the reference a substitute replaces)' : ''}
+        </dd>
+        <dt>Supersedes</dt>
+        <dd>
+          {supersedes ? (
+            <button type="button" className="link" onClick={() => onSelect(supersedes.id)}>
+              {supersedes.name}, revision {supersedes.revision} ({RECIPE_STATUS_LABEL[supersedes.status].toLowerCase()})
+            </button>
+          ) : recipe.supersedes ? (
+            'a recipe that was deleted'
+          ) : (
+            '—'
+          )}
+        </dd>
+        <dt>Later revisions</dt>
+        <dd>
+          {supersededBy.length === 0
+            ? '—'
+            : supersededBy.map((r, i) => (
+                <span key={r.id}>
+                  {i > 0 ? ', ' : ''}
+                  <button type="button" className="link" onClick={() => onSelect(r.id)}>
+                    revision {r.revision} ({RECIPE_STATUS_LABEL[r.status].toLowerCase()})
+                  </button>
+                </span>
+              ))}
+        </dd>
+        <dt>Reason for change</dt>
+        <dd>{recipe.reasonForChange.trim() || '—'}</dd>
+        <dt>Composition</dt>
+        <dd>
+          {[...recipe.lines]
+            .filter((l) => l.massFraction > 0)
+            .sort((a, b) => b.massFraction - a.massFraction)
+            .map((l) => `${codeOf(l.componentId)} ${fmtPct(l.massFraction)} %`)
+            .join(' · ')}
+        </dd>
+      </dl>
+
+      {supersedes && (
+        <div className="recipe-change">
+          <h4>Change from revision {supersedes.revision}</h4>
+          <ul>
+            {changes.map((c) => (
+              <li key={c.componentId}>
+                <span className="code">{codeOf(c.componentId)}</span> {c.kind === 'added' ? '—' : `${fmtPct(c.from)} %`} →{' '}
+                {c.kind === 'removed' ? '—' : `${fmtPct(c.to)} %`}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+
+      {stockChanges.length > 0 && (
+        <Notice tone="warning" title="Stock data changed since this recipe was saved">
+          <StockChangeList changes={stockChanges} />
+          <p>Predictions now use the current data; a new revision records it.</p>
+        </Notice>
+      )}
+
+      <div className="release-check" data-testid="release-check">
+        <h4>Release check</h4>
+        {release.reasons.length === 0 ? (
+          <p>No hold: the blend sheet can be printed for production. The laboratory must still confirm every release property.</p>
+        ) : (
+          <ul>
+            {release.reasons.map((r) => (
+              <li key={r.message}>{r.message}</li>
+            ))}
+          </ul>
+        )}
+      </div>
+
+      <div className="button-row recipe-actions">
+        {recipe.status === 'draft' && (
+          <button
+            type="button"
+            className="primary"
+            disabled={blocking.length > 0}
+            title={blocking.length > 0 ? 'Resolve the release-check reasons first' : undefined}
+            onClick={() => {
+              recipeActions.approveRecipe(recipe.id);
+              onFlash({
+                tone: 'success',
+                text: `Approved “${recipe.name}” (revision ${recipe.revision})${supersedes && supersedes.status === 'approved' ? `; revision ${supersedes.revision} is now superseded` : ''}.`,
+                undo: true,
+              });
+            }}
+          >
+            Approve
+          </button>
+        )}
+        <button type="button" onClick={() => open('designer')}>
+          Open in the designer
+        </button>
+        <button type="button" onClick={() => open('blend-sheet')}>
+          Blend sheet
+        </button>
+        <button
+          type="button"
+          onClick={() => {
+            const id = recipeActions.duplicateRecipe(recipe.id);
+            if (id) {
+              onSelect(id);
+              onFlash({ tone: 'success', text: `Copied as a new draft: “${recipe.name} (copy)”.`, undo: true });
+            }
+          }}
+        >
+          Duplicate
+        </button>
+        <button
+          type="button"
+          onClick={() => {
+            recipeActions.setArchived(recipe.id, !recipe.archived);
+            onFlash({ tone: 'info', text: `${recipe.archived ? 'Restored' : 'Archived'} “${recipe.name}”.`, undo: true });
+          }}
+        >
+          {recipe.archived ? 'Restore from archive' : 'Archive'}
+        </button>
+        <button type="button" className="danger" onClick={onDelete}>
+          Delete
+        </button>
+      </div>
+      {recipe.status === 'draft' && blocking.length > 0 && (
+        <p className="muted">Approval waits until the release check shows no reason other than the draft status.</p>
+      )}
+
+      <SpecificationForm recipe={recipe} recipes={recipes} onSaved={(id, text) => {
+        onSelect(id);
+        onFlash({ tone: 'success', text, undo: true });
+      }} />
+    </section>
+  );
+}
+
+/** The product specification's release limits; blank → "per specification" on the sheet. */
+function SpecificationForm({
+  recipe,
+  recipes,
+  onSaved,
+}: {
+  recipe: Recipe;
+  recipes: readonly Recipe[];
+  onSaved: (id: string, text: string) => void;
+}) {
+  const fmt = useFormat();
+  const id = useId();
+  const [spec, setSpec] = useState<ReleaseSpecification>(() => structuredClone(recipe.specification));
+  const [reason, setReason] = useState('');
+  useEffect(() => setSpec(structuredClone(recipe.specification)), [recipe.specification]);
+  const changed = JSON.stringify(spec) !== JSON.stringify(recipe.specification);
+  const revising = recipe.status !== 'draft';
+  const set = (patch: Partial<ReleaseSpecification>) => setSpec((s) => ({ ...s, ...patch }));
+  const pairError = (lo: number | null, hi: number | null, what: string) =>
+    lo !== null && hi !== null && lo > hi ? `the minimum ${what} is above the maximum` : undefined;
+  const errors = [pairError(spec.kv100Min, spec.kv100Max, 'ν100'), pairError(spec.density15Min, spec.density15Max, 'density')].filter(Boolean);
+  const tempField = (label: string, key: 'flashMin' | 'pourMax') => (
+    <NumberField
+      label={label}
+      unit={fmt.tempUnit}
+      allowEmpty
+      value={spec[key] === null ? null : fmt.tempValue(spec[key]!)}
+      validate={(v) => ({ error: v !== null && (fmt.tempToC(v) <= -100 || fmt.tempToC(v) >= 400) ? 'must lie between −100 and 400 °C' : undefined })}
+      onCommit={(v) => set({ [key]: v === null ? null : fmt.tempToC(v) })}
+    />
+  );
+  return (
+    <fieldset className="spec-form">
+      <legend>Product specification (release limits)</legend>
+      <p className="muted">
+        Limits printed in the blend sheet&rsquo;s QC table; a blank one prints “Per specification”. ν40 is set by the grade (ISO 3448) and the plant aim.
+        Predictions are shown beside the limits for information only.
+      </p>
+      <TextField label="Specification reference" size={36} maxLength={120} value={spec.reference} onCommit={(v) => set({ reference: v })} />
+      <div>
+        <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={positive} onCommit={(v) => set({ kv100Min: v })} />
+        <NumberField label="ν100 maximum" unit="mm²/s" allowEmpty value={spec.kv100Max} validate={positive} onCommit={(v) => set({ kv100Max: v })} />
+        <NumberField
+          label="VI minimum"
+          allowEmpty
+          value={spec.viMin}
+          validate={(v) => ({ error: v !== null && (v < -100 || v > 400) ? 'must lie between −100 and 400' : undefined })}
+          onCommit={(v) => set({ viMin: v })}
+        />
+      </div>
+      <div>
+        <NumberField label="Density at 15 °C, minimum" unit="kg/L" allowEmpty value={spec.density15Min} validate={density} onCommit={(v) => set({ density15Min: v })} />
+        <NumberField label="Density at 15 °C, maximum" unit="kg/L" allowEmpty value={spec.density15Max} validate={density} onCommit={(v) => set({ density15Max: v })} />
+        {tempField('Flash point minimum', 'flashMin')}
+        {tempField('Pour point maximum', 'pourMax')}
+      </div>
+      <div>
+        <TextField label="Copper strip corrosion (ASTM D130)" size={16} maxLength={60} value={spec.copper} placeholder="e.g. 1b max" onCommit={(v) => set({ copper: v })} />
+        <TextField label="Foaming (ASTM D892)" size={24} maxLength={60} value={spec.foam} onCommit={(v) => set({ foam: v })} />
+      </div>
+      {errors.length > 0 && (
+        <p className="field-error" role="alert">
+          {errors.join('; ')}.
+        </p>
+      )}
+      {changed && revising && (
+        <p>
+          <label htmlFor={`${id}-reason`}>Reason for change (required: an approved recipe is never overwritten)</label>{' '}
+          <input id={`${id}-reason`} type="text" size={40} maxLength={1000} value={reason} onChange={(e) => setReason(e.target.value)} />
+        </p>
+      )}
+      <div className="button-row">
+        <button
+          type="button"
+          disabled={!changed || errors.length > 0 || (revising && !reason.trim())}
+          onClick={() => {
+            const savedId = recipeActions.saveChanges(recipe.id, { specification: spec }, reason.trim() || recipe.reasonForChange);
+            setReason('');
+            onSaved(
+              savedId,
+              savedId === recipe.id
+                ? `Saved the specification of “${recipe.name}”.`
+                : `Saved the specification as draft revision ${nextRevisionNumber(recipes, recipe)} of “${recipe.name}”; approve it to supersede revision ${recipe.revision}.`,
+            );
+          }}
+        >
+          {revising ? `Save as draft revision ${nextRevisionNumber(recipes, recipe)}` : 'Save specification'}
+        </button>
+        <button type="button" disabled={!changed} onClick={() => setSpec(structuredClone(recipe.specification))}>
+          Discard changes
+        </button>
+        <button type="button" disabled={JSON.stringify(spec) === JSON.stringify(BLANK_SPECIFICATION)} onClick={() => setSpec({ ...BLANK_SPECIFICATION })}>
+          Clear all limits
+        </button>
+      </div>
+    </fieldset>
+  );
+}
+
+const positive = (v: number | null) => ({ error: v !== null && v <= 0 ? 'must be above zero' : undefined });
+const density = (v: number | null) => ({ error: v !== null && (v < 0.5 || v > 2) ? 'must lie between 0.5 and 2 kg/L' : undefined });

@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import {
+  describeRate,
+  normaliseCurrency,
+  priceInBase,
+  priceLibraryInBase,
+  rateToBase,
+  solvableLibrary,
+  unpricedMessage,
+} from '../../../src/core/currency/exchange-rates';
+import { makeComponent, STOCKS } from '../../helpers/formulation-fixtures';
+import { expectClose } from '../../helpers/tolerance';
+
+// Invented rates (no market data): 1 USD = 0.92 EUR as of an invented date.
+const rates = [{ currency: 'usd', rate: 0.92, asOf: '2026-11-30' }];
+
+describe('exchange rates at the boundary', () => {
+  it('normalises codes and the three common symbols', () => {
+    expect(['€', ' eur', '$', '£', 'chf'].map(normaliseCurrency)).toEqual(['EUR', 'EUR', 'USD', 'GBP', 'CHF']);
+  });
+
+  it('restates a price in the base currency, keeping its basis', () => {
+    // 1.50 USD/kg × 0.92 = 1.38 EUR/kg (by hand)
+    const p = priceInBase({ amount: 1.5, basis: 'per-kg', currency: 'USD' }, 'EUR', rates)!;
+    expect(p.basis).toBe('per-kg');
+    expect(p.currency).toBe('EUR');
+    expectClose(p.amount, 1.38, 1e-12);
+    expect(rateToBase('€', 'EUR', [])).toEqual({ rate: 1, entry: null });
+    expect(priceInBase({ amount: 1, basis: 'per-kg', currency: 'GBP' }, 'EUR', rates)).toBeNull();
+  });
+
+  it('converts a library, names the unpriced stocks and leaves them out of solving', () => {
+    const eur = makeComponent(STOCKS.g2heavy!);
+    const usd = { ...makeComponent(STOCKS.g2hv!), price: { amount: 2000, basis: 'per-tonne' as const, currency: 'USD' } };
+    const gbp = { ...makeComponent(STOCKS.pao6!), price: { amount: 3, basis: 'per-kg' as const, currency: 'GBP' } };
+    const priced = priceLibraryInBase([eur, usd, gbp], 'EUR', rates);
+    expect(priced.components[0]).toBe(eur);
+    // 2000 USD/t × 0.92 = 1840 EUR/t (by hand)
+    expectClose(priced.components[1]!.price.amount, 1840, 1e-9);
+    expect(priced.unpriced).toEqual([{ componentId: 'pao6', code: 'PAO6', currency: 'GBP' }]);
+    expect(priced.ratesUsed).toEqual([rates[0]]);
+    const solvable = solvableLibrary(priced);
+    expect(solvable.map((c) => c.availability)).toEqual(['available', 'available', 'withdrawn']);
+    expect(unpricedMessage(priced.unpriced, 'EUR')).toBe(
+      'PAO6 is priced in GBP, which has no exchange rate to EUR: it is left out of costing and solving until a rate is entered under Settings → Exchange rates.',
+    );
+  });
+
+  it('describes a rate as printed on costing copies', () => {
+    expect(describeRate(rates[0]!, 'eur')).toBe('USD → EUR 0.92 as of 2026-11-30');
+    expect(describeRate({ currency: 'USD', rate: 0.92, asOf: '' }, 'EUR')).toBe('USD → EUR 0.92 (date not given)');
+  });
+});

@@ -1,0 +1,67 @@
+import { describe, expect, it } from 'vitest';
+import { assessRelease, releaseHoldReasons } from '../../../src/core/release/release-hold';
+import { newRecipeLifecycle, type BlendTargets, type Recipe } from '../../../src/core/formulation/model';
+import { makeComponent, STOCKS } from '../../helpers/formulation-fixtures';
+
+const lib = [makeComponent(STOCKS.g2hv!), makeComponent(STOCKS.g2heavy!)];
+const base: Recipe = {
+  id: 'r',
+  name: 'Invented VG 320',
+  grade: 320,
+  // Mass shares solved by hand with the Refutas rule for about VG 320 (checked by the assessment below).
+  lines: [
+    { componentId: 'g2hv', massFraction: 0.8 },
+    { componentId: 'g2heavy', massFraction: 0.2 },
+  ],
+  revision: 1,
+  isReference: false,
+  notes: '',
+  updatedAt: '2026-01-01T00:00:00Z',
+  ...newRecipeLifecycle(),
+  status: 'approved',
+};
+const targets: BlendTargets = {
+  grade: 320, targetKv40: null, tolerancePct: 10, minVi: null, maxAnilinePoint: null, maxPolymerFraction: 0.25,
+  maxPourPoint: null, minFlashPoint: null, additive: null, bounds: {}, objective: 'cost', referenceRecipeId: null,
+};
+
+describe('release hold', () => {
+  it('finds no reason for an approved recipe inside its band, limits and constraints', () => {
+    const a = assessRelease({ recipe: base, components: lib, targets, method: 'refutas' });
+    expect('error' in a.prediction).toBe(false);
+    expect(a.reasons).toEqual([]);
+  });
+
+  it('holds a draft, a superseded or archived recipe, and one on a withdrawn or missing stock', () => {
+    const kinds = (r: Recipe, components = lib) =>
+      assessRelease({ recipe: r, components, targets, method: 'refutas' }).reasons.map((x) => x.kind);
+    expect(kinds({ ...base, status: 'draft' })).toEqual(['status']);
+    expect(kinds({ ...base, status: 'superseded', archived: true })).toEqual(['status', 'archived']);
+    const withdrawn = lib.map((c) => (c.id === 'g2heavy' ? { ...c, availability: 'withdrawn' as const } : c));
+    expect(kinds(base, withdrawn)).toEqual(['withdrawn-stock']);
+    const r = releaseHoldReasons({ recipe: base, components: [lib[0]!], targets: null, prediction: null, qcRows: null, method: 'refutas' });
+    expect(r.map((x) => x.kind)).toEqual(['missing-stock']);
+  });
+
+  it('holds a recipe that misses its own constraint or a specification limit', () => {
+    const strict = assessRelease({ recipe: base, components: lib, targets: { ...targets, minVi: 150 }, method: 'refutas' });
+    expect(strict.reasons.map((x) => x.kind)).toEqual(['constraint']);
+    expect(strict.reasons[0]!.message).toMatch(/minimum VI/);
+    const spec = assessRelease({
+      recipe: { ...base, specification: { ...base.specification, viMin: 150 } },
+      components: lib,
+      targets,
+      method: 'refutas',
+    });
+    expect(spec.reasons.map((x) => x.kind)).toEqual(['release-limit']);
+    expect(spec.reasons[0]!.message).toMatch(/Viscosity index: predicted \d+, limit ≥ 150/);
+  });
+
+  it('holds a recipe outside its grade band, and one that cannot be predicted', () => {
+    const thin = { ...base, lines: [{ componentId: 'g2heavy', massFraction: 1 }] };
+    const a = assessRelease({ recipe: thin, components: lib, targets, method: 'refutas' });
+    expect(a.reasons.map((x) => x.kind)).toEqual(['constraint', 'release-limit']);
+    const bad = assessRelease({ recipe: { ...base, lines: [{ componentId: 'g2hv', massFraction: 0.5 }] }, components: lib, targets, method: 'refutas' });
+    expect(bad.reasons.map((x) => x.kind)).toEqual(['no-prediction']);
+  });
+});
