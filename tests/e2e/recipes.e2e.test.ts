@@ -1,0 +1,106 @@
+// Recipe lifecycle end to end (issue 10, items 11, 12, 15): a fresh solve never overwrites the
+// approved recipe; the draft revision's blend sheet is held ("HOLD — not for release") on screen, on
+// the Print button and on paper, with the change from the recipe it supersedes; approving it
+// supersedes the old revision and lifts the hold.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { join } from 'node:path';
+import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
+import { axeSerious } from './axe';
+
+type StoredRecipes = {
+  state: { recipes: { id: string; name: string; status: string; supersedes: string | null; reasonForChange: string; lines: unknown[] }[] };
+};
+const recipesOf = async (s: Session) => ((await stored(s.page, 'recipes')) as StoredRecipes).state.recipes;
+
+describe('recipe lifecycle', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('saves a fresh solve of the approved recipe as a draft revision, never over it', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/designer`);
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await expect(page.getByTestId('source-status').innerText()).resolves.toMatch(/revision 1 — Approved/);
+    const before = (await recipesOf(s)).find((r) => r.id === 'demo-vg320')!;
+    await page.getByRole('button', { name: 'Solve', exact: true }).click();
+    await page.getByText('Solved', { exact: true }).waitFor();
+    const save = page.getByRole('button', { name: /^Save as draft revision 2 of/ });
+    // No reason, no revision; and no button that would overwrite the approved recipe.
+    await expect(save.isDisabled()).resolves.toBe(true);
+    await expect(page.getByRole('button', { name: /^Save changes to/ }).count()).resolves.toBe(0);
+    await page.getByLabel(/^Reason for change/).fill('Bright stock BW-190 on allocation: re-solved for least cost');
+    await save.click();
+    await page.getByText(/Saved as draft revision 2/).waitFor();
+    await expect.poll(async () => (await recipesOf(s)).length, { timeout: 5000 }).toBe(5);
+    const all = await recipesOf(s);
+    expect(all.find((r) => r.id === 'demo-vg320')).toEqual(before);
+    const rev = all.find((r) => r.supersedes === 'demo-vg320')!;
+    expect([rev.status, rev.reasonForChange]).toEqual(['draft', 'Bright stock BW-190 on allocation: re-solved for least cost']);
+
+    // Changing only a constraint of the draft can be saved.
+    await page.getByLabel(/^Minimum VI/).fill('90');
+    await page.getByLabel(/^Minimum VI/).press('Tab');
+    const saveDraft = page.getByRole('button', { name: /^Save changes to draft/ });
+    await expect(saveDraft.isEnabled()).resolves.toBe(true);
+    await saveDraft.click();
+    await expect
+      .poll(async () => JSON.stringify(((await stored(page, 'recipes')) as { state: { targets: Record<string, { minVi: number | null }> } }).state.targets[rev.id]?.minVi))
+      .toBe('90');
+  });
+
+  it('holds the draft’s blend sheet, on screen, on the Print button and on paper, with the change from revision 1', async () => {
+    const { page } = s;
+    const rev = (await recipesOf(s)).find((r) => r.supersedes === 'demo-vg320')!;
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/blend-sheet/${rev.id}`);
+    await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    await page.getByRole('button', { name: 'Print — HOLD — not for release' }).waitFor();
+    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/draft: it has not been approved/);
+    await expect(page.locator('.bs-change-reason').innerText()).resolves.toMatch(/Reason for change: Bright stock BW-190 on allocation/);
+    await expect(page.getByRole('heading', { name: 'Change from revision 1' }).isVisible()).resolves.toBe(true);
+    expect(await axeSerious(page)).toEqual([]);
+    await screenshot(page, 'blend-sheet-held');
+    await page.emulateMedia({ media: 'print' });
+    const pdf = join(SCREEN_DIR, 'blend-sheet-held.pdf');
+    await page.pdf({ path: pdf, format: 'A4', printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+    expect(text).toMatch(/HOLD — NOT FOR RELEASE/i);
+    expect(text).toMatch(/has not been approved/);
+    expect(text).toMatch(/Change from revision 1/);
+    const pages = Number(/^Pages:\s+(\d+)/m.exec(execFileSync('pdfinfo', [pdf], { encoding: 'utf8' }))![1]);
+    expect(pages).toBe(1);
+  });
+
+  it('approving the revision supersedes revision 1 and lifts the hold', async () => {
+    const { page } = s;
+    const rev = (await recipesOf(s)).find((r) => r.supersedes === 'demo-vg320')!;
+    await page.getByRole('link', { name: /^Recipes/ }).click();
+    await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    const list = page.getByTestId('recipe-list');
+    await list.getByRole('row').filter({ hasText: 'Draft' }).getByRole('button').click();
+    await expect(page.getByTestId('release-check').innerText()).resolves.toMatch(/draft/);
+    await screenshot(page, 'recipes-draft');
+    expect(await axeSerious(page)).toEqual([]);
+    await page.getByRole('button', { name: 'Approve', exact: true }).click();
+    await page.getByText(/revision 1 is now superseded/).waitFor();
+    await expect.poll(async () => (await recipesOf(s)).find((r) => r.id === 'demo-vg320')!.status, { timeout: 5000 }).toBe('superseded');
+    expect((await recipesOf(s)).find((r) => r.id === rev.id)!.status).toBe('approved');
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/blend-sheet/${rev.id}`);
+    await page.getByRole('button', { name: 'Print', exact: true }).waitFor();
+    await expect(page.getByTestId('release-hold').count()).resolves.toBe(0);
+    // The superseded revision's own sheet is held.
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
+    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/superseded by/);
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
