@@ -239,3 +239,28 @@ export {
   describeRate,
   unpricedMessage,
 } from './currency/exchange-rates';
+
+// The plant's QC loop: lot spread and probability in band, robust recipes, lot-adjusted recipe,
+// vessel heel, batch correction (`qc/`)
+export { erfc, standardNormalCdf, standardNormalPdf, standardNormalQuantile } from './qc/normal';
+export type { SpreadPart, Kv40Distribution } from './qc/lot-spread';
+export {
+  DEFAULT_KV40_LOT_SPREAD_PCT,
+  MAX_KV40_LOT_SPREAD_PCT,
+  kv40LotSpreadPct,
+  batchKv40Distribution,
+  kv40InBandProbability,
+  kv40Quantile,
+  kv40Density,
+  probabilityInInterval,
+} from './qc/lot-spread';
+export type { MonteCarloKv40 } from './qc/monte-carlo';
+export { monteCarloKv40, shareInBand, seededUniform, seededNormal } from './qc/monte-carlo';
+export { allowedDeviation, maxSdForProbability, ROBUST_CUT_MARGIN } from './qc/robust';
+export type { RobustAnswer } from './qc/robust-solve';
+export { solveRobustAndNominal, highestInBandProbability } from './qc/robust-solve';
+export { inBandProbabilityPlain } from './qc/probability-plain';
+export type { CorrectionProblem, CorrectionResult, CorrectionVessel, CorrectionComponent } from './qc/correction';
+export { correctBatchPlain } from './qc/correction';
+export type { AdjustInput, AdjustResult, AdjustStock, AdjustHeel } from './qc/adjust';
+export { adjustRecipe } from './qc/adjust';

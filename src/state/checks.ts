@@ -30,6 +30,7 @@ export type CheckField =
   | 'price'
   | 'oxidationRating'
   | 'shearLossPct'
+  | 'kv40LotSpreadPct'
   | 'category';
 
 export interface CheckIssue {
@@ -94,6 +95,7 @@ const RULE_OF: Partial<Record<CheckField, NumberRuleKey>> = {
   price: 'price',
   oxidationRating: 'oxidationRating',
   shearLossPct: 'shearLossPct',
+  kv40LotSpreadPct: 'kv40LotSpreadPct',
 };
 
 /**
@@ -168,6 +170,10 @@ function checkValueSpecific(field: CheckField, v: number | null, words: SayNumbe
     case 'shearLossPct':
       if (v < 0 || v > 100) return { error: 'shear loss must be between 0 and 100 %' };
       return outside(PLAUSIBLE.shearLossPct, 'a permanent shear loss', '%');
+    case 'kv40LotSpreadPct':
+      // The hard limits (0–25 %) are the field rule's (RULE_OF); a wide spread is only unusual.
+      if (v > 10) return { warning: `${fmt(v)} % is a very wide lot-to-lot spread of ν40; check the value (a relative standard deviation, not a range)` };
+      return {};
     default:
       return {};
   }
@@ -264,5 +270,6 @@ export function checkComponent(c: Component, others: readonly Component[] = []):
   add('price', checkValue('price', c.price.amount));
   add('oxidationRating', checkValue('oxidationRating', c.oxidationRating));
   add('shearLossPct', checkValue('shearLossPct', c.shearLossPct));
+  add('kv40LotSpreadPct', checkValue('kv40LotSpreadPct', c.kv40LotSpreadPct));
   return { errors, warnings };
 }

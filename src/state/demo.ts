@@ -108,6 +108,7 @@ export function demoComponents(): Component[] {
     availability: r.availability ?? 'available',
     oxidationRating: null,
     shearLossPct: r.shear ?? null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: DEMO_SOURCE,
     sourceDate: DEMO_DATE,
@@ -193,6 +194,7 @@ export function defaultTargets(grade: number, additiveId: string | null, referen
     bounds: {},
     objective: 'cost',
     referenceRecipeId,
+    minInBandProbability: null,
   };
 }
 

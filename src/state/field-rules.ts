@@ -34,6 +34,7 @@
  */
 import { DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
 import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxidation';
+import { MAX_KV40_LOT_SPREAD_PCT } from '../core/qc/lot-spread';
 
 // ---------------------------------------------------------------------------------------------
 // Text fields
@@ -165,6 +166,16 @@ export const NUMBER_RULES = Object.freeze({
   oxidationRating: numberRule('oxidation rating', '', OXIDATION_RATING_MIN, OXIDATION_RATING_MAX, { nullable: true }),
   /** Permanent shear loss of ν100, KRL (ISO 26422 / CEC L-45) [%]. */
   shearLossPct: numberRule('shear loss', '%', 0, 100, { nullable: true }),
+  /**
+   * Lot-to-lot relative standard deviation of ν40 [%] (null → the category default); at most 25 %,
+   * beyond which a drawn lot's ν40 could turn negative (core/qc/lot-spread.ts).
+   */
+  kv40LotSpreadPct: numberRule('lot spread of ν40', '%', 0, MAX_KV40_LOT_SPREAD_PCT, { nullable: true }),
+  /**
+   * Minimum probability that a batch lands in band (fraction, shown in %); certainty is impossible
+   * with any lot spread, so at most 99.99 % (common practice, no source).
+   */
+  minInBandProbability: numberRule('probability in band', '%', 0, 0.9999, { nullable: true, percent: true }),
   /** Effective blending viscosity of a calibrated stock [mm²/s]. */
   effectiveKv: numberRule('effective viscosity', 'mm²/s', 0, KV_MAX, { minExclusive: true }),
   /** A mass fraction in a recipe or trial blend (0–1, shown in %). */
@@ -426,6 +437,7 @@ export interface StockFields {
   price: { amount: number; currency: string };
   oxidationRating: number | null;
   shearLossPct: number | null;
+  kv40LotSpreadPct: number | null;
   calibration: {
     effectiveKv40: number;
     effectiveKv100: number;
@@ -479,6 +491,7 @@ export function stockProblems(c: StockFields, who: string = stockWho(String(c.co
   add(['price', 'currency'], checkText('currency', c.price.currency, who));
   add(['oxidationRating'], checkNumber('oxidationRating', c.oxidationRating, who));
   add(['shearLossPct'], checkNumber('shearLossPct', c.shearLossPct, who));
+  add(['kv40LotSpreadPct'], checkNumber('kv40LotSpreadPct', c.kv40LotSpreadPct, who));
   if (c.calibration) {
     const k = c.calibration;
     add(['calibration', 'effectiveKv40'], checkNumber('effectiveKv', k.effectiveKv40, who));
@@ -607,6 +620,7 @@ export interface TargetsFields {
   minFlashPoint: number | null;
   additive: { componentId: string; massFraction: number } | null;
   bounds: Record<string, { min?: number | undefined; max?: number | undefined }>;
+  minInBandProbability: number | null;
 }
 
 /**
@@ -623,6 +637,7 @@ export function targetsProblems(t: TargetsFields, who?: string, stockName?: (id:
   add(['maxPolymerFraction'], checkNumber('maxPolymerFraction', t.maxPolymerFraction, who));
   add(['maxPourPoint'], checkNumber('maxPourPoint', t.maxPourPoint, who));
   add(['minFlashPoint'], checkNumber('minFlashPoint', t.minFlashPoint, who));
+  add(['minInBandProbability'], checkNumber('minInBandProbability', t.minInBandProbability, who));
   if (t.additive) {
     add(['additive', 'componentId'], checkText('id', t.additive.componentId, who));
     add(['additive', 'massFraction'], checkNumber('treatRate', t.additive.massFraction, who));

@@ -38,6 +38,7 @@ export const CSV_COLUMNS = [
   'availability',
   'oxidation_rating',
   'shear_loss_pct',
+  'kv40_lot_spread_pct',
   'source',
   'source_date',
   'notes',
@@ -261,6 +262,7 @@ export function previewCsv(text: string, existing: readonly Component[]): Import
         availability: AVAILABILITY.includes(availability) ? availability : 'available',
         oxidationRating: num('oxidation_rating', 'oxidation rating'),
         shearLossPct: num('shear_loss_pct', 'shear loss'),
+        kv40LotSpreadPct: num('kv40_lot_spread_pct', 'lot spread of ν40'),
         source: get('source').trim(),
         sourceDate: get('source_date').trim(),
         notes: get('notes'),
@@ -312,7 +314,8 @@ export function previewJson(text: string, existing: readonly Component[]): Impor
       const code = typeof rec.code === 'string' ? rec.code.trim() : '';
       const name = typeof rec.name === 'string' ? rec.name : '';
       // Imported ids are not trusted: a fresh id, unless the code matches a stock already here.
-      const parsed = componentSchema.safeParse({ ...rec, id: 'import' });
+      // Files written before schema 3 have no lot spread: the category default applies.
+      const parsed = componentSchema.safeParse({ kv40LotSpreadPct: null, ...rec, id: 'import' });
       if (!parsed.success) {
         return {
           line,
@@ -370,6 +373,7 @@ export function libraryToCsv(components: readonly Component[]): string {
       availability: c.availability,
       oxidation_rating: c.oxidationRating,
       shear_loss_pct: c.shearLossPct,
+      kv40_lot_spread_pct: c.kv40LotSpreadPct,
       source: c.source,
       source_date: c.sourceDate,
       notes: c.notes,

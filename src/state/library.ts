@@ -42,9 +42,15 @@ export interface LibraryState extends LibraryData {
 
 export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
-  version: 3,
+  version: 4,
   schema: libraryDataSchema,
   migrations: {
+    // Schema 3 had no lot spread of ν40: every stock takes its category's common-practice default.
+    3: (d) => {
+      const comps = (d as { components?: unknown }).components;
+      if (!Array.isArray(comps)) throw new Error('components is not a list');
+      return { ...(d as object), components: comps.map((c: Record<string, unknown>) => ({ kv40LotSpreadPct: null, ...c })) };
+    },
     // Schema 3 holds up to 25,000 stocks (schema 2: 5,000) and checks every field with the field
     // rules (field-rules.ts); the data themselves are unchanged.
     2: (d) => d,
@@ -90,6 +96,7 @@ export function blankComponent(init: Partial<Omit<Component, 'id'>> = {}): Compo
     availability: 'available',
     oxidationRating: null,
     shearLossPct: null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: '',
     sourceDate: today(),

@@ -146,9 +146,17 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 4,
+  version: 5,
   schema: recipesDataSchema,
   migrations: {
+    // Schema 4 had no minimum probability in band: every recipe's targets ask for none.
+    4: (d) => {
+      const targets = (d as { targets?: unknown }).targets;
+      if (typeof targets !== 'object' || targets === null) throw new Error('targets is not a record');
+      const next: Record<string, unknown> = {};
+      for (const [id, t] of Object.entries(targets as Record<string, object>)) next[id] = { minInBandProbability: null, ...t };
+      return { ...(d as object), targets: next };
+    },
     // Schema 3 had no lifecycle. A reference recipe (the one currently made at the plant) becomes
     // approved; every other recipe becomes a draft, to be approved by a person. Blank specification,
     // nothing superseded, no stock data recorded yet (recorded from the library at first load).

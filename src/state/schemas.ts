@@ -76,6 +76,7 @@ export const componentSchema = z
     availability: availabilitySchema,
     oxidationRating: nullableNum,
     shearLossPct: nullableNum,
+    kv40LotSpreadPct: nullableNum,
     calibration: calibrationSchema.nullable(),
     source: str,
     sourceDate: str,
@@ -150,6 +151,7 @@ export const targetsSchema = z
     bounds: z.record(str, boundsSchema),
     objective: z.enum(['cost', 'solvency', 'oxidation', 'closest']),
     referenceRecipeId: str.nullable(),
+    minInBandProbability: nullableNum,
   })
   .superRefine((t, ctx) => report(ctx, targetsProblems(t)));
 

@@ -55,3 +55,40 @@ describe('public API (src/core/index.ts)', () => {
     if (r.status === 'optimal') expectClose(r.grades[0]!.massFractions.heavy!, 0.55126, 1e-4);
   });
 });
+
+describe('public API — the QC loop (issue 12, item 6)', () => {
+  const problem: core.PlainProblem = {
+    components: [
+      { id: 'light', kv40: 110, kv100: 12, density15: 0.872, anilinePoint: 121, pricePerKg: 1.15, kv40RelSd: 0.015 },
+      { id: 'heavy', kv40: 460, kv100: 31, density15: 0.885, anilinePoint: 127, pricePerKg: 1.6, kv40RelSd: 0.015 },
+    ],
+    targetKv40: 320,
+    tolerancePct: 5,
+    minInBandProbability: 0.99,
+    objective: 'cost',
+  };
+
+  it('solveBlendPlain takes kv40RelSd and minInBandProbability and reports inBandProbability', () => {
+    const r = core.solveBlendPlain(problem);
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    expect(r.inBandProbability!).toBeGreaterThanOrEqual(0.99);
+    expectClose(core.inBandProbabilityPlain(problem, r.massFractions), r.inBandProbability!, 1e-12); // same model, two paths
+    const without = core.solveBlendPlain({ ...problem, components: problem.components.map(({ kv40RelSd: _s, ...c }) => c), minInBandProbability: undefined });
+    expect('inBandProbability' in without).toBe(false); // only when a spread is given (issue 12 item 6)
+  });
+
+  it('correctBatchPlain answers in kg', () => {
+    const r = core.correctBatchPlain({
+      vessel: { massKg: 10_000, kv40: 290, kv100: 22, density15: 0.88, anilinePoint: 120 },
+      components: [{ ...problem.components[1]!, maxAddKg: 5_000 }],
+      targetKv40: 320,
+      tolerancePct: 5,
+      maxFinalMassKg: 12_000,
+      objective: 'cost',
+    });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    // Refutas two-part inverse (check-values §3): 10 000 kg at VBN(290) + m kg at VBN(460) → VBN(304)
+    const v = core.refutasVbn;
+    expectClose(r.addKg.heavy!, (10_000 * (v(304) - v(290))) / (v(460) - v(304)), 1e-3);
+  });
+});

@@ -38,6 +38,7 @@ export function makeComponent(s: StockSpec): Component {
     availability: 'available',
     oxidationRating: s.oxidationRating ?? null,
     shearLossPct: s.shearLossPct ?? null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: 'invented test data',
     sourceDate: '2024-01-01',

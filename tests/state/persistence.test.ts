@@ -39,8 +39,12 @@ describe('interpretStored (pure)', () => {
     expect(persistence.interpretStored(LIBRARY_SPEC, undefined).kind).toBe('empty');
     const ok = persistence.interpretStored(LIBRARY_SPEC, { state: { components: comps }, version: LIBRARY_SPEC.version });
     expect(ok.kind).toBe('ok');
+    // Schema 3 had no lot spread of ν40; the migration gives every stock the category default (null).
+    const v3 = comps.map(({ kv40LotSpreadPct: _k, ...rest }) => rest);
+    const fromV3 = persistence.interpretStored(LIBRARY_SPEC, { state: { components: v3 }, version: 3 });
+    expect(fromV3.kind === 'ok' && fromV3.data.components[0]!.kv40LotSpreadPct).toBeNull();
     // Schema 1 lacked the optional scoring fields; the migration fills them with null.
-    const v1 = comps.map(({ oxidationRating: _o, shearLossPct: _s, calibration: _c, ...rest }) => rest);
+    const v1 = comps.map(({ oxidationRating: _o, shearLossPct: _s, calibration: _c, kv40LotSpreadPct: _k, ...rest }) => rest);
     const migrated = persistence.interpretStored(LIBRARY_SPEC, { state: { components: v1 }, version: 1 });
     expect(migrated.kind).toBe('ok');
     if (migrated.kind === 'ok') {

@@ -116,6 +116,11 @@ export interface Component {
   oxidationRating: number | null;
   /** Expected permanent shear loss of ν100, KRL (ISO 26422 / CEC L-45) [%]; polymers; null → 0. */
   shearLossPct: number | null;
+  /**
+   * Lot-to-lot relative standard deviation of ν40 [%] (`qc/lot-spread.ts`); null → the category's
+   * common-practice default.
+   */
+  kv40LotSpreadPct: number | null;
   calibration: Calibration | null;
   /** Where the data come from (datasheet, lab report, "invented demo data"). */
   source: string;
@@ -293,6 +298,11 @@ export interface BlendTargets {
   objective: Objective;
   /** Reference recipe for the 'closest' objective and for comparisons; null → none. */
   referenceRecipeId: string | null;
+  /**
+   * Minimum probability (0 to below 1) that a batch lands in the target band under the stocks' lot
+   * spread (`qc/robust.ts`); null → none (the nominal recipe).
+   */
+  minInBandProbability: number | null;
 }
 
 /**

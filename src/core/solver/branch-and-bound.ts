@@ -8,6 +8,7 @@ import type { PreparedProblem } from './prepared';
 import { viRoot } from './prepared';
 import { solveNodeInto, type NodeSolution, type SolveContext } from './rows';
 import type { ViChord } from './vi-boundary';
+import type { ExtraRow } from './objectives';
 
 const NO_FRACTIONS = new Float64Array(0);
 const NO_CHORDS: readonly ViChord[] = [];
@@ -16,6 +17,37 @@ const NO_CHORDS: readonly ViChord[] = [];
 export const VI_ACCEPT_TOLERANCE = 0.005;
 /** Cap on LPs in one branch and bound (never reached in tests; a safety net). */
 const MAX_LPS = 120;
+/** Cap on rounds of lazy cuts while solving one node (a safety net; see {@link LazyConstraint}). */
+const MAX_LAZY_CUT_ROUNDS = 200;
+
+/**
+ * A condition checked on each node's solution rather than written up front (a "lazy constraint"),
+ * e.g. the probability of landing in band (`qc/robust.ts`). Its feasible set must be convex, and
+ * every row it adds must hold for every blend that meets it (an outer approximation, possibly in a
+ * lifted space of extra LP variables), so that a node LP with its rows is still a relaxation and the
+ * branch and bound stays exact.
+ */
+export interface LazyConstraint {
+  /**
+   * Start one optimisation over `vars`: the number of lifted LP variables the constraint's rows use
+   * (appended after the component and auxiliary variables) and the rows present from the first LP.
+   */
+  begin(vars: readonly number[]): { lift: number; rows: ExtraRow[] };
+  /**
+   * null when the node solution meets the condition; otherwise rows that every feasible blend
+   * satisfies and this solution violates.
+   *
+   * @param w - the solution's fractions, aligned with `vars`, summing to 1
+   * @param x - the raw LP solution (component variables, auxiliaries, then the lifted variables)
+   * @param liftOffset - index in x of the first lifted variable
+   */
+  separate(vars: readonly number[], w: Float64Array, x: Float64Array, liftOffset: number): ExtraRow[] | null;
+}
+
+/** A solve context with an optional lazy constraint. */
+export interface OptimiseContext extends SolveContext {
+  lazy?: LazyConstraint | null;
+}
 
 /**
  * Normalised mass fractions of a node solution, aligned with ctx.vars; null when the LP returned no
@@ -69,6 +101,30 @@ export interface OptimiseOutcome {
 }
 
 /**
+ * Solve one node's LP (into the LP scratch memory, as `solveNodeInto`); with a lazy constraint, add
+ * its cuts (to the shared `ctx.extra` pool, valid for every node) and re-solve until the node's
+ * solution meets it. The node value stays a lower bound, since each cut only removes blends that fail
+ * the condition.
+ */
+function solveWith(ctx: OptimiseContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[], count: { lps: number }): NodeSolution {
+  let sol = solveNodeInto(ctx, a, b, bandRows, chords);
+  count.lps++;
+  const lazy = ctx.lazy;
+  if (!lazy) return sol;
+  for (let k = 0; sol.status === 'optimal'; k++) {
+    const w = fractions(sol.x, ctx.vars.length);
+    if (!w) return sol;
+    const cuts = lazy.separate(ctx.vars, w, sol.x, ctx.vars.length + (ctx.withAux ? 3 : 0));
+    if (!cuts) return sol;
+    if (k >= MAX_LAZY_CUT_ROUNDS) return { status: 'failed', x: sol.x, objective: Number.NaN };
+    (ctx.extra as ExtraRow[]).push(...cuts);
+    sol = solveNodeInto(ctx, a, b, bandRows, chords);
+    count.lps++;
+  }
+  return sol;
+}
+
+/**
  * Optimise over ctx: one LP when there is no VI condition; otherwise best-first branch and bound
  * over X40 intervals. Each node's LP replaces h by its padded chord on the node's interval, so it
  * is a relaxation of the true problem restricted to that interval; the union of the children is
@@ -78,8 +134,15 @@ export interface OptimiseOutcome {
  * lower bound. A node whose solution violates the condition is split at the solution's X40; the
  * chord gap shrinks quadratically with the interval, so few splits are needed.
  */
-export function optimise(ctx: SolveContext): OptimiseOutcome {
+export function optimise(context: OptimiseContext): OptimiseOutcome {
+  // With a lazy constraint the node LPs share one growing pool of cuts (a private copy of extra).
+  let ctx: OptimiseContext = context;
+  if (context.lazy) {
+    const start = context.lazy.begin(context.vars);
+    ctx = { ...context, extra: [...context.extra, ...start.rows], lift: start.lift };
+  }
   const { P, vars, groups } = ctx;
+  const count = { lps: 0 };
   const nv = vars.length;
   const empty = { status: 'infeasible' as const, w: NO_FRACTIONS, value: Number.NaN, lpCount: 0 };
   if (nv === 0) return empty;
@@ -98,14 +161,14 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
   const sign = ctx.objective.kind === 'ratio' && ctx.objective.sense === 'maximize' ? -1 : 1;
   // First LP without the VI condition: a relaxation; if its optimum already meets the VI it is
   // optimal, and the (costlier) VI relaxation is never built. Most recipes end here.
-  const plain = solveNodeInto(ctx, a, b, bandOn, NO_CHORDS);
-  if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: 1 };
+  const plain = solveWith(ctx, a, b, bandOn, NO_CHORDS, count);
+  if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: count.lps };
   const w0 = fractions(plain.x, nv);
-  if (!w0) return { ...empty, status: 'failed', lpCount: 1 };
-  if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: 1 };
+  if (!w0) return { ...empty, status: 'failed', lpCount: count.lps };
+  if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
   const bx0 = blendX(P, vars, w0);
   if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) {
-    return { status: 'optimal', w: w0, value: plain.objective, lpCount: 1 };
+    return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
   }
   const minAccept = vi.minVi - VI_ACCEPT_TOLERANCE;
   interface Node {
@@ -115,13 +178,11 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
     hb: number;
     sol: NodeSolution;
   }
-  let lpCount = 1;
   const open: Node[] = [];
   let failed = false;
   const addNode = (na: number, nb: number, ha: number, hb: number, cached?: readonly ViChord[] | null): void => {
     const chords = cached ?? vi.relaxation(na, ha, nb, hb);
-    const sol = solveNodeInto(ctx, na, nb, true, chords);
-    lpCount++;
+    const sol = solveWith(ctx, na, nb, true, chords, count);
     if (sol.status === 'failed') failed = true;
     // The node is kept: its solution is copied out of the LP scratch memory.
     if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol: { ...sol, x: sol.x.slice() } });
@@ -129,7 +190,8 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
   const root = bandOn && vi === P.vi ? viRoot(P) : null;
   if (root) addNode(a, b, root.hA, root.hB, root.chords);
   else addNode(a, b, vi.h(a), vi.h(b));
-  while (open.length > 0 && lpCount < MAX_LPS) {
+  const maxLps = ctx.lazy ? 20 * MAX_LPS : MAX_LPS; // lazy cuts add LPs without adding nodes
+  while (open.length > 0 && count.lps < maxLps) {
     // Best-first: the open node with the smallest (signed) objective.
     let best = 0;
     for (let k = 1; k < open.length; k++) {
@@ -144,7 +206,7 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
     }
     const bx = blendX(P, vars, w);
     if (viOf(P, bx.x40, bx.x100) >= minAccept) {
-      return { status: 'optimal', w, value: node.sol.objective, lpCount };
+      return { status: 'optimal', w, value: node.sol.objective, lpCount: count.lps };
     }
     // Split at the solution's X40, kept away from the ends so both children shrink.
     const span = node.b - node.a;
@@ -154,7 +216,7 @@ export function optimise(ctx: SolveContext): OptimiseOutcome {
     addNode(node.a, split, node.ha, hs);
     addNode(split, node.b, hs, node.hb);
   }
-  return { ...empty, status: failed && open.length === 0 ? 'failed' : 'infeasible', lpCount };
+  return { ...empty, status: failed && open.length === 0 ? 'failed' : 'infeasible', lpCount: count.lps };
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -37,9 +37,9 @@
 import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUPS, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
-import { blendX, optimise } from './branch-and-bound';
-import type { SolveContext } from './rows';
+import { blendX, optimise, type OptimiseContext } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
+import { inBandModel, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
 
 export * from './prepared';
 export * from './objectives';
@@ -61,6 +61,16 @@ export interface EngineOptimal {
   anilinePoint: number | null;
   costPerLitre: number;
   lpCount: number;
+  /**
+   * Probability that a batch lands in the solve band under the components' lot spread
+   * (`qc/lot-spread.ts`); null when no component has a spread.
+   */
+  inBandProbability: number | null;
+  /**
+   * With a minimum probability in band and `certify`: a lower bound on the primary objective over
+   * every blend that meets it (see `qc/robust.ts`); the optimum lies between it and objectiveValue.
+   */
+  lowerBound?: number;
 }
 export interface EngineInfeasible {
   status: 'infeasible';
@@ -79,6 +89,10 @@ export interface SolvePreparedOptions {
   vi?: ViBoundary | null;
   /** Skip the cost tie-break stage for non-cost objectives (default false). */
   noTieBreak?: boolean;
+  /** Leave out the minimum probability in band (the nominal recipe, e.g. for the premium). */
+  nominal?: boolean;
+  /** With a minimum probability in band: also compute `lowerBound` (one more branch and bound). */
+  certify?: boolean;
 }
 
 const ALL_GROUP_SET: ReadonlySet<ConstraintGroup> = new Set(ALL_GROUPS);
@@ -151,7 +165,10 @@ export function solvePrepared(
   const objective = options.objective ?? primaryObjective(P);
   if (objective.kind === 'closest' && !P.reference) return { status: 'infeasible', lpCount: 0 };
   const withAux = objective.kind === 'closest';
-  const ctx: SolveContext = { P, vars, groups, objective, extra: [], vi, withAux };
+  // The probability in band, as a lazy constraint of the branch and bound (qc/robust.ts).
+  const pMin = options.nominal ? null : (t.minInBandProbability ?? null);
+  const lazy = pMin !== null && pMin > 0 && groups.has('band') ? inBandSeparator(P, pMin) : null;
+  const ctx: OptimiseContext = { P, vars, groups, objective, extra: [], vi, withAux, lazy };
   const first = optimise(ctx);
   let lpCount = first.lpCount;
   if (first.status !== 'optimal') {
@@ -168,10 +185,25 @@ export function solvePrepared(
     lpCount += second.lpCount;
     if (second.status === 'optimal') w = second.w;
   }
-  return finish(P, vars, w, first.value, lpCount);
+  const out = finish(P, vars, w, first.value, lpCount, lazy);
+  if (lazy && options.certify) {
+    // Certificate: the same problem with cuts for level p itself (valid for every blend that meets
+    // it), solved without new cuts — an outer approximation, so its optimum is a lower bound.
+    const lb = optimise({ ...ctx, lazy: lazy.certificate() });
+    out.lpCount += lb.lpCount;
+    if (lb.status === 'optimal') out.lowerBound = lb.value;
+  }
+  return out;
 }
 /** Properties of a solution in plain numbers (the same equations as the core). */
-function finish(P: PreparedProblem, vars: readonly number[], w: Float64Array, value: number, lpCount: number): EngineOptimal {
+function finish(
+  P: PreparedProblem,
+  vars: readonly number[],
+  w: Float64Array,
+  value: number,
+  lpCount: number,
+  lazy: InBandSeparator | null,
+): EngineOptimal {
   const massFractions = new Float64Array(P.n);
   let sv = 0;
   let sp = 0;
@@ -180,11 +212,15 @@ function finish(P: PreparedProblem, vars: readonly number[], w: Float64Array, va
   // Drop simplex dust (< 1e-6, far below any weighing precision; moves ν40 by < 1e-5 relative
   // and VI by < 0.002) and renormalise to Σ = 1.
   let total = 0;
+  const raw = lazy ? w.slice() : null;
   for (let j = 0; j < vars.length; j++) {
     if (w[j]! < 1e-6) w[j] = 0;
     total += w[j]!;
   }
   for (let j = 0; j < vars.length; j++) w[j] = w[j]! / total;
+  // A recipe accepted for its probability in band keeps it: if dropping the dust would cost the
+  // probability, the fractions stay as solved.
+  if (raw && probabilityOfFractions(P, vars, w) < lazy!.p) w.set(raw);
   for (let j = 0; j < vars.length; j++) {
     const i = vars[j]!;
     const wi = w[j]!;
@@ -212,5 +248,6 @@ function finish(P: PreparedProblem, vars: readonly number[], w: Float64Array, va
     anilinePoint: sa > 0 ? saAp / sa : null,
     costPerLitre: density15 * sp,
     lpCount,
+    inBandProbability: inBandModel(P).any ? probabilityOfFractions(P, vars, w) : null,
   };
 }

@@ -8,11 +8,13 @@ import type { PreparedProblem, ClosestReference, RatioObjective, EngineObjective
 export type { RatioObjective, ClosestObjective, EngineObjective } from './prepared';
 
 
-/** An extra homogeneous row coef·w + aux·Σaux (≤ | ≥) 0. */
+/** An extra homogeneous row coef·w + aux·Σaux + lift·(lifted variables) (≤ | ≥) 0. */
 export interface ExtraRow {
   coef: Float64Array;
   aux: number;
   sense: 'le' | 'ge';
+  /** Coefficients of the context's lifted variables (`SolveContext.lift`), by position; absent → 0. */
+  lift?: ArrayLike<number>;
 }
 
 /** Cost per litre: Σ pᵢwᵢ / Σ wᵢ/ρᵢ. */

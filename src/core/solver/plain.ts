@@ -31,6 +31,9 @@ import { blendAnilinePoint } from '../blending/aniline';
 import { blendCostPerLitre } from '../formulation/cost';
 import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
 import { diagnoseInfeasible } from './diagnose';
+import { assertRelSd } from '../qc/lot-spread';
+import { assertProbability } from '../qc/robust';
+import { inBandInfeasibleReason, withInBandProbability } from '../qc/robust-solve';
 
 /** One component of a plain problem. */
 export interface PlainComponent {
@@ -48,6 +51,8 @@ export interface PlainComponent {
   /** Mass-fraction bounds, 0–1 (defaults 0 and 1). */
   minMassFraction?: number;
   maxMassFraction?: number;
+  /** Lot-to-lot relative standard deviation of kv40, a fraction 0–0.25 (0.02 = 2 %); absent → 0. */
+  kv40RelSd?: number;
 }
 
 export interface PlainProblem {
@@ -60,6 +65,11 @@ export interface PlainProblem {
   minVi?: number;
   /** Maximum blend aniline point [°C]. */
   maxAnilinePoint?: number;
+  /**
+   * Minimum probability (0 to below 1) that a batch lands in the band under the components'
+   * `kv40RelSd` (the model of `qc/lot-spread.ts`); absent → none.
+   */
+  minInBandProbability?: number;
   objective: 'cost' | 'solvency';
 }
 
@@ -80,7 +90,9 @@ export interface PlainBlend {
   costPerLitre: number;
 }
 
-export type PlainSolveResult = ({ status: 'optimal' } & PlainBlend) | { status: 'infeasible'; reason: string };
+export type PlainSolveResult =
+  | ({ status: 'optimal'; /** Probability in band; present when any component has `kv40RelSd`. */ inBandProbability?: number } & PlainBlend)
+  | { status: 'infeasible'; reason: string };
 
 /** Re-raise a core error with the component's index in its field name. */
 function inComponent<T>(i: number, f: () => T): T {
@@ -166,6 +178,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       const f = fieldOf(i, 'minMassFraction');
       throw new FractionSumError(f, min, `${fn}: ${f} = ${min} is above maxMassFraction = ${max}`);
     }
+    if (c.kv40RelSd !== undefined) assertRelSd(fn, fieldOf(i, 'kv40RelSd'), c.kv40RelSd);
     comps.push({
       id: c.id,
       label: c.id,
@@ -183,6 +196,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       max,
       fixedAdditive: false,
       usable: true,
+      kv40RelSd: c.kv40RelSd ?? 0,
     });
   }
   assertViscosity(fn, 'targetKv40', p.targetKv40);
@@ -192,6 +206,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
   }
   if (p.minVi !== undefined) assertFinite(fn, 'minVi', p.minVi);
   if (p.maxAnilinePoint !== undefined) assertFinite(fn, 'maxAnilinePoint', p.maxAnilinePoint);
+  if (p.minInBandProbability !== undefined) assertProbability(fn, 'minInBandProbability', p.minInBandProbability);
   if (p.objective !== 'cost' && p.objective !== 'solvency') {
     throw new BlendbenchInputError('objective', p.objective, `${fn}: objective = ${String(p.objective)}; use 'cost' or 'solvency'`);
   }
@@ -207,6 +222,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       minFlashPoint: null,
       objective: p.objective,
       referenceMassFractions: null,
+      minInBandProbability: p.minInBandProbability ?? null,
     },
     'refutas',
   );
@@ -258,7 +274,10 @@ export function solveBlendPlain(p: PlainProblem): PlainSolveResult {
   const P = preparePlain(p);
   const r = solvePrepared(P);
   if (r.status !== 'optimal') {
-    const d = diagnoseInfeasible(P, { product: `the target ν40 ${p.targetKv40} mm²/s ± ${p.tolerancePct} %` });
+    if ((p.minInBandProbability ?? 0) > 0 && solvePrepared(P, null, { nominal: true }).status === 'optimal') {
+      return { status: 'infeasible', reason: inBandInfeasibleReason(P, { min: P.targets.kv40Min, max: P.targets.kv40Max }) };
+    }
+    const d = diagnoseInfeasible(withInBandProbability(P, null), { product: `the target ν40 ${p.targetKv40} mm²/s ± ${p.tolerancePct} %` });
     const withSuggestion = d.binding === 'kv40-min' || d.binding === 'kv40-max' ? d.reason : `${d.reason} ${d.suggestion}`;
     return { status: 'infeasible', reason: withSuggestion };
   }
@@ -275,5 +294,6 @@ export function solveBlendPlain(p: PlainProblem): PlainSolveResult {
     density15: r.density15,
     anilinePoint: r.anilinePoint!,
     costPerLitre: r.costPerLitre,
+    ...(p.components.some((c) => c.kv40RelSd !== undefined) ? { inBandProbability: r.inBandProbability ?? 1 } : {}),
   };
 }

@@ -44,6 +44,8 @@ export interface EngineComponent {
   fixedAdditive: boolean;
   /** False for withdrawn components (and for those a constraint cannot be checked on). */
   usable: boolean;
+  /** Lot-to-lot relative standard deviation of kv40, a fraction (0.02 = 2 %); absent → 0 (`qc/lot-spread.ts`). */
+  kv40RelSd?: number;
 }
 
 /** Targets in plain numbers; the ν40 band is final (target band already clipped to the ISO band). */
@@ -64,6 +66,11 @@ export interface EngineTargets {
   objective: Objective;
   /** Mass fractions of the reference recipe, aligned with the components (for 'closest'). */
   referenceMassFractions: readonly number[] | null;
+  /**
+   * Minimum probability (0–1) that a batch lands in the ν40 band under the components' lot spread
+   * (`qc/robust.ts`); absent or null → none.
+   */
+  minInBandProbability?: number | null;
 }
 
 /** Constraint groups, switched off one at a time to find the binding one. */
@@ -139,7 +146,7 @@ export interface PreparedProblem {
    * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
    * root relaxation of the VI condition (see {@link viRoot}).
    */
-  readonly cache: { viRoot?: ViRoot; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>> };
+  readonly cache: { viRoot?: ViRoot; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>>; inBand?: unknown };
   readonly reference: ClosestReference | null;
   /** Indices with min > 0 (always in every subset). */
   readonly forced: readonly number[];

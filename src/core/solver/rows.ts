@@ -18,6 +18,8 @@ export interface SolveContext {
   vi: ViBoundary | null;
   /** Add the three 'closest' deviation variables and rows (objective 'closest' or its tie-break). */
   withAux: boolean;
+  /** Further LP variables after the auxiliaries, used only by extra rows' `lift` (a lifted model of a lazy constraint). */
+  lift?: number;
 }
 
 export interface NodeSolution {
@@ -67,7 +69,8 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   const { P, vars, groups, objective, extra } = ctx;
   const nv = vars.length;
   const nAux = ctx.withAux ? 3 : 0;
-  const width = nv + nAux;
+  const nLift = ctx.lift ?? 0;
+  const width = nv + nAux + nLift;
   const s = P.coords.rowScale;
   const t = P.targets;
   const comps = P.components;
@@ -210,6 +213,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   for (const e of extra) {
     for (let j = 0; j < nv; j++) buf[o + j] = e.coef[vars[j]!]!;
     for (let q = 0; q < nAux; q++) buf[o + nv + q] = e.aux;
+    if (e.lift) for (let q = 0; q < nLift; q++) buf[o + nv + nAux + q] = e.lift[q] ?? 0;
     if (e.sense === 'le') rowHi[m++] = 0;
     else rowLo[m++] = 0;
     o += width;

@@ -17,6 +17,10 @@ import { oxidationRating } from '../scoring/oxidation';
 import { blendingViscosities, predictBlend, type BlendProperties } from '../formulation/blend-properties';
 import { prepareEngine, solvePrepared, type EngineComponent, type PreparedProblem } from './engine';
 import { diagnoseInfeasible, fmtKv } from './diagnose';
+import { kv40LotSpreadPct } from '../qc/lot-spread';
+import { assertProbability } from '../qc/robust';
+import { inBandInfeasibleReason, withInBandProbability } from '../qc/robust-solve';
+import { recipeInBand, type RecipeInBand } from '../qc/recipe-spread';
 
 export { solvePrepared } from './engine';
 export type { EngineResult, EngineOptimal, EngineInfeasible, PreparedProblem, EngineComponent, EngineTargets } from './engine';
@@ -70,6 +74,20 @@ export interface SolveOptimal {
   /** Every constraint recomputed by the core. */
   checks: ConstraintCheck[];
   lpCount: number;
+  /** Probability of landing in the solve band and in the ISO band under the stocks' lot spread (`qc/`). */
+  inBand: RecipeInBand;
+  /**
+   * With a minimum probability in band: the nominal recipe's cost and probability (the premium the
+   * probability costs) and the certificate's lower bound on the objective; null without one.
+   */
+  robust: {
+    minProbability: number;
+    /** Cost per litre and probability in band of the recipe solved without the condition (null: none). */
+    nominalCostPerLitre: number | null;
+    nominalProbability: number | null;
+    /** A lower bound on the objective over every recipe that meets the probability. */
+    lowerBound: number | null;
+  } | null;
 }
 export interface SolveInfeasible {
   status: 'infeasible';
@@ -160,6 +178,9 @@ export function prepareComponents(
   if (targets.maxPolymerFraction !== null) assertUnit(fn, 'targets.maxPolymerFraction', targets.maxPolymerFraction);
   if (targets.maxPourPoint !== null) assertTemperatureC(fn, 'targets.maxPourPoint', targets.maxPourPoint);
   if (targets.minFlashPoint !== null) assertTemperatureC(fn, 'targets.minFlashPoint', targets.minFlashPoint);
+  if (targets.minInBandProbability !== null && targets.minInBandProbability !== undefined) {
+    assertProbability(fn, 'targets.minInBandProbability', targets.minInBandProbability);
+  }
   const objectives: Objective[] = ['cost', 'solvency', 'oxidation', 'closest'];
   if (!objectives.includes(targets.objective)) {
     fail('targets.objective', targets.objective, `${fn}: unknown objective "${String(targets.objective)}"`);
@@ -245,6 +266,7 @@ export function prepareComponents(
       max,
       fixedAdditive: isAdditive,
       usable,
+      kv40RelSd: kv40LotSpreadPct(c) / 100,
     };
   });
   if (currencies.size > 1) {
@@ -276,6 +298,7 @@ export function prepareComponents(
       minFlashPoint: targets.minFlashPoint,
       objective: targets.objective,
       referenceMassFractions: referenceFractions,
+      minInBandProbability: targets.minInBandProbability ?? null,
     },
     method,
   );
@@ -316,10 +339,22 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
     if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, value: e.value, message: e.message };
     throw e;
   }
-  const r = solvePrepared(P);
+  const pMin = P.blendTargets.minInBandProbability ?? null;
+  const r = solvePrepared(P, null, { certify: pMin !== null && pMin > 0 });
   if (r.status !== 'optimal') {
     const iso = gradeBand(P.blendTargets.grade);
-    const d = diagnoseInfeasible(P, { product: P.productLabel, gradeMin: iso.min, gradeMax: iso.max });
+    if (pMin !== null && pMin > 0 && solvePrepared(P, null, { nominal: true }).status === 'optimal') {
+      const reason = inBandInfeasibleReason(P, P.band);
+      return {
+        status: 'infeasible',
+        reason,
+        binding: 'in-band-probability',
+        suggestion: 'Widen the band, lower the probability asked for, or enter the stocks\' measured lot-to-lot spread.',
+        relaxable: [],
+        lpCount: r.lpCount,
+      };
+    }
+    const d = diagnoseInfeasible(withInBandProbability(P, null), { product: P.productLabel, gradeMin: iso.min, gradeMax: iso.max });
     const solverNote = r.solverFailure ? ' (The LP solver also reported a numerical failure.)' : '';
     return {
       status: 'infeasible',
@@ -361,6 +396,17 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
   if (P.blendTargets.objective === 'cost' && properties.costPerLitre !== null) objectiveValue = properties.costPerLitre;
   if (P.blendTargets.objective === 'solvency' && properties.anilinePoint) objectiveValue = properties.anilinePoint.value;
   if (P.blendTargets.objective === 'oxidation' && properties.oxidationRating !== null) objectiveValue = properties.oxidationRating;
+  const inBand = recipeInBand(P.library, lines, P.blendTargets.grade, P.band, P.method);
+  let robust: SolveOptimal['robust'] = null;
+  if (pMin !== null && pMin > 0) {
+    const nominal = solvePrepared(P, null, { nominal: true });
+    robust = {
+      minProbability: pMin,
+      nominalCostPerLitre: nominal.status === 'optimal' ? nominal.costPerLitre : null,
+      nominalProbability: nominal.status === 'optimal' ? nominal.inBandProbability : null,
+      lowerBound: r.lowerBound ?? null,
+    };
+  }
   return {
     status: 'optimal',
     lines,
@@ -370,6 +416,8 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
     band: P.band,
     checks,
     lpCount: r.lpCount,
+    inBand,
+    robust,
   };
 }
 
@@ -412,6 +460,11 @@ export function checkConstraints(P: PreparedBlend, lines: readonly RecipeLine[],
   }
   if (t.minFlashPoint !== null) {
     out.push({ constraint: 'minimum flash point [°C]', value: p.flashPoint, limit: `≥ ${t.minFlashPoint}`, ok: p.flashPoint !== null && p.flashPoint >= t.minFlashPoint - tol.temperature });
+  }
+  const pMin = t.minInBandProbability ?? null;
+  if (pMin !== null && pMin > 0) {
+    const q = recipeInBand(P.library, lines, t.grade, P.band, P.method).plant.probability;
+    out.push({ constraint: 'probability in band', value: q, limit: `≥ ${pMin}`, ok: q >= pMin });
   }
   const byId = new Map(lines.map((l) => [l.componentId, l.massFraction]));
   const sum = lines.reduce((s, l) => s + l.massFraction, 0);

@@ -77,6 +77,7 @@ const EMPTY_TARGETS: BlendTargets = {
   bounds: {},
   objective: 'cost',
   referenceRecipeId: null,
+  minInBandProbability: null,
 };
 
 export const useDesignerStore = create<DesignerState>()((set, get) => ({

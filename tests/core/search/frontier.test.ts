@@ -42,6 +42,7 @@ describe('epsilonConstraintSweep', () => {
     bounds: {},
     objective: 'cost',
     referenceRecipeId: null,
+    minInBandProbability: null,
   };
   const ids = ['g2heavy', 'g2hv', 'an12'];
 

@@ -44,6 +44,7 @@ function comp(
     availability: 'available',
     oxidationRating: null,
     shearLossPct: null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: 'invented test data',
     sourceDate: '2025-01-01',

@@ -33,6 +33,7 @@ export function stock(
     availability: 'available',
     oxidationRating: null,
     shearLossPct: null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: 'invented test data; typicals from memory (shared/reference/base-stock-typicals.md)',
     sourceDate: '2024-01-01',
@@ -89,6 +90,7 @@ export function targets(over: Partial<BlendTargets> = {}): BlendTargets {
     bounds: {},
     objective: 'cost',
     referenceRecipeId: null,
+    minInBandProbability: null,
     ...over,
   };
 }

@@ -208,6 +208,7 @@ const libraryComponent = (i: number, currency: fc.Arbitrary<string>, grade: numb
       availability: r.availability,
       oxidationRating: r.oxidationRating,
       shearLossPct: r.category === 'polymer' ? r.shearLossPct : null,
+      kv40LotSpreadPct: null,
       calibration: null,
       source: 'invented fuzz data',
       sourceDate: '2024-01-01',
@@ -273,6 +274,7 @@ describe('solver fuzzing: solveBlend', () => {
           bounds: g.bounds,
           objective: g.objective,
           referenceRecipeId: g.objective === 'closest' ? 'ref' : null,
+          minInBandProbability: null,
         };
         const wsum = g.referenceWeights.reduce((s, x) => s + x, 0);
         const reference: Recipe = {

@@ -29,6 +29,7 @@ function comp(id: string, category: ComponentCategory, kv40: number, density15: 
     availability: 'available',
     oxidationRating: null,
     shearLossPct: null,
+    kv40LotSpreadPct: null,
     calibration: null,
     source: 'invented test data',
     sourceDate: '2025-01-01',

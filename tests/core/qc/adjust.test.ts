@@ -1,0 +1,120 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { adjustRecipe, type AdjustInput, type AdjustStock } from '../../../src/core/qc/adjust';
+import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
+import { FractionSumError, ViscosityOrderError } from '../../../src/core/errors';
+import { rng } from '../solver/helpers';
+import { expectClose } from '../../helpers/tolerance';
+
+const light: AdjustStock = { id: 'l', label: 'BW-240', kv40: 100, kv100: 11, density15: 0.872, savedFraction: 0.5 };
+const heavy: AdjustStock = { id: 'h', label: 'BW-280', kv40: 460, kv100: 31, density15: 0.885, savedFraction: 0.5 };
+
+describe('lot-adjusted recipe', () => {
+  it('two stocks land exactly at the aim: the Refutas linear inverse', () => {
+    // ν 100 + ν 460 reaching 220: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3)
+    const r = adjustRecipe({ stocks: [light, heavy], batchKg: 10_000, aimKv40: 220, additive: null });
+    expect(r.status).toBe('optimal');
+    if (r.status !== 'optimal') return;
+    expectClose(r.addedFractions.h!, 0.55126, 1e-4);
+    expectClose(r.addKg.h!, 5512.6, 1);
+    expectClose(r.batch.kv40, 220, 1e-4);
+  });
+
+  it('a heel of the same oil at the aim leaves the saved shares unchanged', () => {
+    const ep: AdjustStock = { id: 'ep', label: 'EP', kv40: 250, kv100: 15, density15: 1.05, savedFraction: 0.02 };
+    const saved = [
+      { ...light, savedFraction: 0.43 },
+      { ...heavy, savedFraction: 0.55 },
+      ep,
+    ];
+    // the saved recipe's own ν40 by Refutas (check-values §3): the aim it lands on
+    const x = 0.43 * refutasVbn(100) + 0.55 * refutasVbn(460) + 0.02 * refutasVbn(250);
+    const x100 = 0.43 * refutasVbn(11) + 0.55 * refutasVbn(31) + 0.02 * refutasVbn(15);
+    const aim = kvFromRefutasVbn(x);
+    const r = adjustRecipe({
+      stocks: saved,
+      batchKg: 10_000,
+      aimKv40: aim,
+      additive: { id: 'ep', massFraction: 0.02 },
+      heel: { massKg: 1_500, kv40: aim, kv100: kvFromRefutasVbn(x100), density15: 0.9, additiveFraction: 0.02 },
+    });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    expectClose(r.addKg.l!, 0.43 * 8_500, 1e-3);
+    expectClose(r.addKg.h!, 0.55 * 8_500, 1e-3);
+    expectClose(r.addKg.ep!, 0.02 * 8_500, 1e-6);
+    expectClose(r.changePct, 0, 1e-6);
+  });
+
+  it('a heel without additive: the additions carry the whole batch\'s treat', () => {
+    const ep: AdjustStock = { id: 'ep', label: 'EP', kv40: 250, kv100: 15, density15: 1.05, savedFraction: 0.02 };
+    const r = adjustRecipe({
+      stocks: [{ ...light, savedFraction: 0.43 }, { ...heavy, savedFraction: 0.55 }, ep],
+      batchKg: 10_000,
+      aimKv40: 220,
+      additive: { id: 'ep', massFraction: 0.02 },
+      heel: { massKg: 1_000, kv40: 200, kv100: 18, density15: 0.88, additiveFraction: 0 },
+    });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    expectClose(r.addKg.ep!, 200, 1e-6); // 2 % of 10 000 kg, all from the additions
+    expectClose(r.batch.kv40, 220, 1e-4);
+    expectClose(Object.values(r.addKg).reduce((s, v) => s + v, 0), 9_000, 1e-3);
+  });
+
+  it('an aim out of reach of these lots says so, with the range they reach', () => {
+    const r = adjustRecipe({ stocks: [light, heavy], batchKg: 1000, aimKv40: 500, additive: null });
+    expect(r.status).toBe('infeasible');
+    if (r.status !== 'infeasible') return;
+    expect(r.reason).toMatch(/the heaviest batch these lots make reaches only 460 mm²\/s \(reachable 100(\.0)?–460 mm²\/s\)/);
+    expectClose(r.reachable!.max, 460, 1e-9);
+  });
+
+  it('refuses impossible input with named errors', () => {
+    expect(() => adjustRecipe({ stocks: [light, { ...heavy, kv100: 500 }], batchKg: 1000, aimKv40: 220, additive: null })).toThrow(ViscosityOrderError);
+    expect(() => adjustRecipe({ stocks: [light, { ...heavy, savedFraction: 0.6 }], batchKg: 1000, aimKv40: 220, additive: null })).toThrow(FractionSumError);
+    expect(() => adjustRecipe({ stocks: [light, heavy], batchKg: 1000, aimKv40: 220, additive: null, heel: { massKg: 1200, kv40: 200, kv100: 18, density15: 0.88, additiveFraction: 0 } })).toThrow(/heel.massKg = 1200/);
+  });
+});
+
+describe('lot-adjusted recipe against HiGHS (least change, an LP)', () => {
+  // HiGHS (test-only oracle) solves the least-change LP written independently in kg: variables mᵢ and
+  // deviations eᵢ ≥ ±(mᵢ − tᵢ), Σ mᵢ = M − H, Σ mᵢ(VBNᵢ − VBN_aim) = −H(VBN_h − VBN_aim), minimise Σ eᵢ.
+  let highs: { solve(lp: string): { Status: string; ObjectiveValue: number } };
+  beforeAll(async () => {
+    const mod = (await import('highs')) as unknown as { default: () => Promise<typeof highs> };
+    highs = await mod.default();
+  });
+  const num = (x: number): string => (x >= 0 ? `+ ${x.toPrecision(17)}` : `- ${(-x).toPrecision(17)}`);
+
+  it('matches the least change on random recipes, lots and heels', () => {
+    const r = rng(1203);
+    let optimal = 0;
+    for (let n = 0; n < 40; n++) {
+      const k = 2 + Math.floor(r() * 4);
+      const kv = [30, 110, 460, 1240, 42, 395].sort(() => r() - 0.5).slice(0, k).map((v) => v * (0.95 + 0.1 * r()));
+      const raw = kv.map(() => r() + 0.05);
+      const sum = raw.reduce((s, v) => s + v, 0);
+      const stocks = kv.map((v, i) => ({ id: `s${i}`, label: `S${i}`, kv40: v, kv100: v ** 0.55, density15: 0.87, savedFraction: raw[i]! / sum }));
+      const M = 10_000;
+      const H = r() < 0.5 ? 500 + 2000 * r() : 0;
+      const aim = Math.exp(Math.log(Math.min(...kv)) + (0.2 + 0.6 * r()) * (Math.log(Math.max(...kv)) - Math.log(Math.min(...kv))));
+      const input: AdjustInput = { stocks, batchKg: M, aimKv40: aim, additive: null, ...(H > 0 ? { heel: { massKg: H, kv40: aim * (0.8 + 0.4 * r()), kv100: 20, density15: 0.88, additiveFraction: 0 } } : {}) };
+      const mine = adjustRecipe(input);
+      const m = (i: number) => `m${i}`;
+      const e = (i: number) => `e${i}`;
+      const va = refutasVbn(aim);
+      const hx = H > 0 ? -H * (refutasVbn(input.heel!.kv40) - va) : 0;
+      const rows = [
+        `tot: ${stocks.map((_, i) => `+ ${m(i)}`).join(' ')} = ${M - H}`,
+        `aim: ${stocks.map((s, i) => `${num(refutasVbn(s.kv40) - va)} ${m(i)}`).join(' ')} = ${hx}`,
+        ...stocks.flatMap((s, i) => [`p${i}: ${e(i)} - ${m(i)} >= ${-(M - H) * s.savedFraction}`, `q${i}: ${e(i)} + ${m(i)} >= ${(M - H) * s.savedFraction}`]),
+      ];
+      const ref = highs.solve(`Minimize\n obj: ${stocks.map((_, i) => `+ ${e(i)}`).join(' ')}\nSubject To\n ${rows.join('\n ')}\nEnd\n`);
+      expect(mine.status, JSON.stringify(input)).toBe(ref.Status === 'Optimal' ? 'optimal' : 'infeasible');
+      if (mine.status !== 'optimal') continue;
+      optimal++;
+      const dev = stocks.reduce((s, st) => s + Math.abs(mine.addKg[st.id]! - (M - H) * st.savedFraction), 0);
+      expectClose(dev, ref.ObjectiveValue, 1e-6 * M);
+      expectClose(mine.batch.kv40, aim, 1e-6 * aim);
+    }
+    expect(optimal).toBeGreaterThan(25);
+  });
+});
