@@ -23,6 +23,7 @@ const base: Recipe = {
 const targets: BlendTargets = {
   grade: 320, targetKv40: null, tolerancePct: 10, minVi: null, maxAnilinePoint: null, maxPolymerFraction: 0.25,
   maxPourPoint: null, minFlashPoint: null, additive: null, bounds: {}, objective: 'cost', referenceRecipeId: null,
+    minInBandProbability: null,
 };
 
 describe('release hold', () => {

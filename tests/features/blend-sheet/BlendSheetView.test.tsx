@@ -174,7 +174,7 @@ describe('BlendSheetView', () => {
     const targets = {
       r320: {
         grade: 320, targetKv40: null, tolerancePct: 5, minVi: 120, maxAnilinePoint: null, maxPolymerFraction: null,
-        maxPourPoint: null, minFlashPoint: null, additive: null, bounds: {}, objective: 'cost' as const, referenceRecipeId: null,
+        maxPourPoint: null, minFlashPoint: null, additive: null, bounds: {}, objective: 'cost' as const, referenceRecipeId: null, minInBandProbability: null,
       },
     };
     renderSheet({ targets, predict: () => ({ ...prediction, properties: properties as never }) });
