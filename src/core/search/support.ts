@@ -33,7 +33,8 @@
  * bound.
  *
  * Rows added to the search's solves in future (e.g. through `extra` rows in `solver/rows.ts`) must be
- * added to {@link SupportBound.base} — each can make one more stock useful.
+ * added to {@link SupportBound.base} — each can make one more stock useful. A minimum probability in
+ * band (`qc/robust.ts`) is a curved condition, not a row: with it the bound is switched off.
  */
 import type { PreparedProblem } from '../solver/prepared';
 
@@ -68,6 +69,9 @@ export function supportBound(P: PreparedProblem, pool: readonly number[], extraR
   if (t.objective !== 'cost') base++; // tie-break row
   if (t.objective === 'closest') base += 3;
   base += extraRows;
+  // A minimum probability in band is not a row: independent lots average out, so a robust optimum
+  // can use every member of a combination (qc/robust.ts). No combination is settled by this bound then.
+  if ((t.minInBandProbability ?? 0) > 0 && P.components.some((k) => (k.kv40RelSd ?? 0) > 0)) base = Number.POSITIVE_INFINITY;
   let forcedPolymer = false;
   for (const i of P.forced) {
     const k = P.components[i]!;

@@ -89,6 +89,33 @@ describe('searchSubstitutesPlain', () => {
     expect(nonEmpty).toBeGreaterThan(10);
   });
 
+  it('agrees with the brute force with a minimum probability in band (no support-bound settling: lots average out)', () => {
+    // brute force over all combinations, each solved on its own (issue 12: robust recipes in the explorer)
+    let nonEmpty = 0;
+    let wide = 0;
+    for (let seed = 41; seed <= 60; seed++) {
+      const base = randomRequest(seed);
+      const r = rng(seed * 7);
+      const req: PlainSubstituteRequest = {
+        ...base,
+        components: base.components.map((c) => ({ ...c, kv40RelSd: 0.01 + 0.03 * r() })),
+        maxComponents: 3 + (seed % 2),
+        minInBandProbability: [0.9, 0.99][seed % 2]!,
+      };
+      const got = searchSubstitutesPlain(req).candidates;
+      const want = bruteForce(req);
+      const gotKeys = got.map((c) => usedKey(c.massFractions));
+      expect([...gotKeys].sort(), `seed ${seed}`).toEqual([...want.keys()].sort());
+      for (const c of got) {
+        expect(isClose(c.costPerLitre, want.get(usedKey(c.massFractions))!, 1e-7), `seed ${seed}`).toBe(true);
+      }
+      if (got.length > 0) nonEmpty++;
+      if (gotKeys.some((k) => k.split('+').filter((id) => id !== 'add').length >= 3)) wide++;
+    }
+    expect(nonEmpty).toBeGreaterThan(8);
+    expect(wide).toBeGreaterThan(0); // some robust optima use three or more free stocks
+  });
+
   it('returns feasible candidates, sorted by cost, every id present, withdrawn unused', () => {
     // feasibility tolerances of issue 3 item 7; Refutas (check-values.md §3) and D2270 recomputed here
     for (let seed = 41; seed <= 60; seed++) {
