@@ -9,6 +9,10 @@
  * Reading (React hooks; pass a selector to avoid needless re-renders):
  *   useLibrary(s => s.components)            Component[] (demo on first start)
  *   useComponentsById() / componentsById(list) Map<id, Component> (memoised per library array)
+ *   usePricedLibrary() / pricedLibrary(list, settings)  the library with prices in the base currency
+ *                                            (Settings → exchange rates) + the stocks without a rate;
+ *                                            every cost figure and solve uses it (solvableLibrary(…)
+ *                                            from core leaves the unpriced stocks out of solves)
  *   useRecipes(s => s.recipes)               Recipe[];  useRecipes(s => s.targets[id]) BlendTargets | undefined
  *   useActiveRecipe()                        Recipe | null (the one the designer / sheet opens on)
  *   useSettings()                            Settings (units, currency symbol, number format, company,
@@ -43,6 +47,7 @@
 import { useMemo } from 'react';
 import { useStore } from 'zustand';
 import type { Component, Recipe } from '../core/formulation/model';
+import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../core/currency/exchange-rates';
 import { useLibraryStore, LIBRARY_SPEC } from './library';
 import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
@@ -124,6 +129,31 @@ export function componentsById(components: readonly Component[]): Map<string, Co
     byIdCache.set(components, m);
   }
   return m;
+}
+
+const pricedCache = new WeakMap<readonly Component[], { base: string; rates: readonly ExchangeRate[]; value: PricedLibrary }>();
+/**
+ * The library with every price restated in the base currency (exchange rates from the settings),
+ * and the stocks whose currency has no rate — the boundary every cost figure and solve goes through.
+ * Memoised per library array and rates.
+ */
+export function pricedLibrary(
+  components: readonly Component[],
+  settings: Pick<Settings, 'baseCurrency' | 'exchangeRates'>,
+): PricedLibrary {
+  const hit = pricedCache.get(components);
+  if (hit && hit.base === settings.baseCurrency && hit.rates === settings.exchangeRates) return hit.value;
+  const value = priceLibraryInBase(components, settings.baseCurrency, settings.exchangeRates);
+  pricedCache.set(components, { base: settings.baseCurrency, rates: settings.exchangeRates, value });
+  return value;
+}
+
+/** {@link pricedLibrary} of the current library and settings (React hook). */
+export function usePricedLibrary(): PricedLibrary {
+  const components = useLibraryStore((s) => s.components);
+  const base = useSettingsStore((s) => s.settings.baseCurrency);
+  const rates = useSettingsStore((s) => s.settings.exchangeRates);
+  return useMemo(() => pricedLibrary(components, { baseCurrency: base, exchangeRates: rates }), [components, base, rates]);
 }
 
 export function useComponentsById(): Map<string, Component> {

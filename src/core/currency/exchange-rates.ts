@@ -154,11 +154,12 @@ export function describeRate(rate: ExchangeRate, base: string, formatRate: (x: n
  *
  * @param unpriced - from {@link priceLibraryInBase}
  * @param base - base currency code
+ * @param maxCodes - most stock codes named per currency before "and n more" (default 8)
  * @returns one sentence, or '' when every stock is priced
  * @example unpricedMessage([{ code: 'BW-999', currency: 'USD', … }], 'EUR')
  *   // → 'BW-999 is priced in USD, which has no exchange rate to EUR: it is left out of costing and solving until a rate is entered under Settings → Exchange rates.'
  */
-export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string): string {
+export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string, maxCodes = 8): string {
   if (unpriced.length === 0) return '';
   const b = normaliseCurrency(base);
   const byCurrency = new Map<string, string[]>();
@@ -166,8 +167,10 @@ export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string
     const c = u.currency || '(no currency)';
     byCurrency.set(c, [...(byCurrency.get(c) ?? []), u.code]);
   }
+  const list = (codes: string[]) =>
+    codes.length > maxCodes ? `${codes.slice(0, maxCodes).join(', ')} and ${codes.length - maxCodes} more` : codes.join(', ');
   const parts = [...byCurrency].map(([cur, codes]) =>
-    codes.length === 1 ? `${codes[0]} is priced in ${cur}` : `${codes.join(', ')} are priced in ${cur}`,
+    codes.length === 1 ? `${codes[0]} is priced in ${cur}` : `${list(codes)} are priced in ${cur}`,
   );
   const which = byCurrency.size === 1 ? 'which has' : 'which have';
   const it = unpriced.length === 1 ? 'it is' : 'they are';

@@ -287,7 +287,9 @@ export function predictBlend(
     pricePerKg: pricePerKg(p.component.price, p.component.density15),
   }));
   if (mixedCurrencies) {
-    warnings.push(`Prices are in different currencies (${currencies.join(', ')}); Blendbench never converts them, so no cost is shown.`);
+    warnings.push(
+      `Prices are in different currencies (${currencies.join(', ')}); a price is never added into another currency, so no cost is shown (enter an exchange rate under Settings).`,
+    );
   } else {
     costPerKg = blendCostPerKg(priceParts);
     costPerLitre = blendCostPerLitre(priceParts);

@@ -1,7 +1,7 @@
 /**
  * Cost of a blend per kg, per litre and per batch, and batch quantities in kg and litres at 15 °C.
  *
- * All money amounts are in the one currency the user names; Blendbench never converts between
+ * All money amounts are in the one currency the user names; these functions never convert between
  * currencies. Volumes are at 15 °C (densities ρ15 [kg/L]); blend density by ideal mixing.
  *
  *   price per kg of a part:  p_kg = amount (per kg) | amount/ρ15 (per litre) | amount/1000 (per tonne)

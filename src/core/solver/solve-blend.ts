@@ -273,7 +273,7 @@ export function prepareComponents(
     fail(
       'components.price.currency',
       [...currencies],
-      `${fn}: prices are in ${[...currencies].join(' and ')}; Blendbench never converts currencies — give every available component's price in one currency`,
+      `${fn}: prices are in ${[...currencies].join(' and ')}; the solver never converts currencies — restate every usable component's price in one currency first (the app does it with the exchange rates in Settings)`,
     );
   }
   let referenceFractions: number[] | null = null;

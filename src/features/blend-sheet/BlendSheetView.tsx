@@ -91,9 +91,10 @@ function Refusal({ id, message }: { id: string; message: string | null }) {
   );
 }
 
-/** Decimals that show an exchange rate to about five significant digits. */
+/** Decimals that print an exchange rate as entered (at least 2, at most 6). */
 function rateDecimals(x: number): number {
-  return Math.min(6, Math.max(2, 4 - Math.floor(Math.log10(Math.abs(x) || 1))));
+  for (let d = 2; d < 6; d++) if (Math.abs(Number(x.toFixed(d)) - x) < 1e-12 * Math.max(1, Math.abs(x))) return d;
+  return 6;
 }
 
 function errorText(e: unknown, components: readonly Component[]): string {

@@ -5,7 +5,18 @@ import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-ba
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { componentsById, defaultTargets, nextRevisionNumber, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import {
+  componentsById,
+  defaultTargets,
+  nextRevisionNumber,
+  pricedLibrary,
+  recipeActions,
+  useLibrary,
+  usePricedLibrary,
+  useRecipes,
+  useSettings,
+} from '../../state';
+import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
@@ -24,7 +35,10 @@ function targetsFor(recipe: Recipe, stored: BlendTargets | undefined, additiveId
 }
 
 export default function DesignerScreen() {
-  const components = useLibrary((s) => s.components);
+  // Prices restated in the base currency at the boundary (Settings → exchange rates); stocks whose
+  // currency has no rate keep their own price and are left out of costing and solving.
+  const priced = usePricedLibrary();
+  const components = priced.components;
   const byId = componentsById(components);
   const recipes = useRecipes((s) => s.recipes);
   const storedTargets = useRecipes((s) => s.targets);
@@ -63,7 +77,7 @@ export default function DesignerScreen() {
   }, [initialised, seenActiveId, recipes, activeRecipeId, storedTargets, additiveId, actions]);
 
   const density = useMemo(() => densityLookup(components), [components]);
-  const view = useMemo(() => deriveDraft(lines, byId), [lines, byId]);
+  const view = useMemo(() => deriveDraft(lines, byId, priced.base), [lines, byId, priced.base]);
   const prediction = usePrediction(lines, components, settings, targets.grade);
 
   const [solving, setSolving] = useState(false);
@@ -73,12 +87,12 @@ export default function DesignerScreen() {
     setTimeout(() => {
       const s = useDesignerStore.getState();
       const reference = s.targets.referenceRecipeId ? useRecipes.getState().recipes.find((r) => r.id === s.targets.referenceRecipeId) ?? null : null;
-      const outcome = runSolve(useLibrary.getState().components, s.targets, reference, settings.blendMethod, fmt);
+      const outcome = runSolve(solvableLibrary(pricedLibrary(useLibrary.getState().components, settings)), s.targets, reference, settings.blendMethod, fmt);
       if (outcome.kind === 'optimal') s.applySolution(outcome.lines, outcome.message);
       else s.setNotice(outcome);
       setSolving(false);
     }, 0);
-  }, [settings.blendMethod, fmt]);
+  }, [settings, fmt]);
 
   const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density), [density]);
 
@@ -115,6 +129,11 @@ export default function DesignerScreen() {
           />
         </aside>
         <div className="designer-main">
+          {priced.unpriced.length > 0 && (
+            <Notice tone="warning" title="Stocks without an exchange rate">
+              <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
+            </Notice>
+          )}
           <SolveNoticeView notice={notice} />
           <RecipeTable
             view={view}

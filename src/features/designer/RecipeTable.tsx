@@ -30,7 +30,8 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
   const addId = useId();
   const [toAdd, setToAdd] = useState('');
   const editable = (id: string) => !(p.rebalanceMode === 'balance' && p.balanceId === id);
-  const totalCost = p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
+  // A line without a cost (no price, or no exchange rate) leaves the total unknown rather than short.
+  const totalCost = p.view.lines.some((l) => l.costPerLitre === null) ? null : p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
   return (
     <section className="recipe-table" aria-labelledby="recipe-h">
       <h3 id="recipe-h">Recipe</h3>
@@ -134,7 +135,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
             <td className="num" data-testid="total-mass">{fmt.num(p.view.total * 100, 2)}</td>
             <td className="num">{fmt.num(p.view.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2)}</td>
             <td />
-            <td className="num">{fmt.num(totalCost, 3)}</td>
+            <td className="num">{totalCost === null ? '—' : fmt.num(totalCost, 3)}</td>
             {p.rebalanceMode === 'balance' && <td />}
             <td />
           </tr>

@@ -7,7 +7,7 @@ export interface LineView {
   component: Component | null;
   massFraction: number;
   volumeFraction: number;
-  /** Price converted to per kg [currency/kg]; null when it cannot be (unknown component). */
+  /** Price converted to per kg [base currency/kg]; null when it cannot be (unknown component, or no exchange rate). */
   pricePerKg: number | null;
   /** Contribution to the blend cost [currency per litre of blend]: ρ_blend·wᵢ·pᵢ. */
   costPerLitre: number | null;
@@ -27,8 +27,10 @@ export interface DraftView {
 
 /**
  * Volume fractions φᵢ = (wᵢ/ρᵢ)/Σ(wⱼ/ρⱼ) and cost contributions ρ·wᵢ·pᵢ (ideal mixing, common practice).
+ * With `baseCurrency` (prices already restated at the boundary), a line priced in any other currency
+ * has no cost (null), so no figure mixes currencies.
  */
-export function deriveDraft(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Component>): DraftView {
+export function deriveDraft(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Component>, baseCurrency?: string): DraftView {
   const missing: string[] = [];
   let specificVolume = 0;
   let total = 0;
@@ -45,7 +47,8 @@ export function deriveDraft(lines: readonly RecipeLine[], byId: ReadonlyMap<stri
     if (c) currencies.add(c.price.currency);
     const rho = c?.density15 ?? 0.88;
     let ppk: number | null = null;
-    if (c) {
+    // A price still in another currency (no exchange rate) is never added into the base currency.
+    if (c && (baseCurrency === undefined || c.price.currency === baseCurrency)) {
       try {
         ppk = pricePerKg(c.price, c.density15);
       } catch {

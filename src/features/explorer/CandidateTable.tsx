@@ -2,6 +2,12 @@ import { memo, useMemo, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { useFormat } from '../../components/format';
+import {
+  DEFAULT_EQUIVALENCE_TOLERANCE,
+  groupCandidates,
+  sourceGroups,
+  type CandidateGroup,
+} from '../../core/search/equivalent-sources';
 import { useExplorerStore, type SortKey } from './store';
 
 const PAGE = 25;
@@ -22,7 +28,16 @@ export function sortCandidates(list: readonly SubstituteCandidate[], key: SortKe
   return [...list].sort((a, b) => sign * (f(a) - f(b)) || a.rank - b.rank);
 }
 
-/** The ranked candidates; click a column heading to sort, a row's button to compare it. */
+/** Total mass share of polymer stocks in a candidate (0–1). */
+export function polymerShare(c: Pick<SubstituteCandidate, 'lines'>, components: ReadonlyMap<string, Component>): number {
+  return c.lines.reduce((s, l) => s + (components.get(l.componentId)?.category === 'polymer' ? l.massFraction : 0), 0);
+}
+
+/**
+ * The ranked candidates; click a column heading to sort, a row's button to compare it. Candidates
+ * that differ only by equivalent sources (same category, viscosities, density and aniline point
+ * within DEFAULT_EQUIVALENCE_TOLERANCE) share one row that expands to the alternatives.
+ */
 export const CandidateTable = memo(function CandidateTable({
   candidates,
   components,
@@ -30,6 +45,7 @@ export const CandidateTable = memo(function CandidateTable({
   frontierCount,
   total,
   forcedIds,
+  polymerCap,
 }: {
   candidates: readonly SubstituteCandidate[];
   components: ReadonlyMap<string, Component>;
@@ -38,13 +54,25 @@ export const CandidateTable = memo(function CandidateTable({
   total: number;
   /** Components in every candidate (the fixed additive): listed once, above the table. */
   forcedIds: readonly string[];
+  /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
+  polymerCap: number;
 }) {
   const fmt = useFormat();
   const sort = useExplorerStore((s) => s.sort);
   const selectedKey = useExplorerStore((s) => s.selectedKey);
   const adopted = useExplorerStore((s) => s.adopted);
   const [shown, setShown] = useState(PAGE);
+  const [open, setOpen] = useState<ReadonlySet<string>>(() => new Set());
   const sorted = useMemo(() => sortCandidates(candidates, sort.key, sort.dir), [candidates, sort]);
+  // Group equivalent sources among the stocks the candidates use (only those: grouping is quadratic).
+  const groups = useMemo(() => {
+    const used = new Set(candidates.flatMap((c) => c.componentIds));
+    const stocks = [...components.values()].filter((c) => used.has(c.id));
+    return groupCandidates(sorted, sourceGroups(stocks));
+  }, [candidates, components, sorted]);
+  const tol = DEFAULT_EQUIVALENCE_TOLERANCE;
+  // A group opens when asked, or when the candidate being compared is one of its alternatives.
+  const isOpen = (g: CandidateGroup<SubstituteCandidate>) => open.has(g.key) || g.alternatives.some((a) => a.key === selectedKey);
   const head = (key: SortKey, label: string, numeric = true) => (
     <th scope="col" className={numeric ? 'num' : undefined} aria-sort={sort.key === key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined}>
       <button type="button" className="sort" onClick={() => useExplorerStore.getState().sortBy(key)}>
@@ -53,6 +81,72 @@ export const CandidateTable = memo(function CandidateTable({
       </button>
     </th>
   );
+  const row = (c: SubstituteCandidate, group: CandidateGroup<SubstituteCandidate> | null, alternative: boolean) => {
+    const isSel = c.key === selectedKey;
+    const delta = referenceCost === null ? null : c.costPerLitre - referenceCost;
+    const poly = polymerShare(c, components);
+    const expanded = group !== null && isOpen(group);
+    // Stocks by share, largest first (the fixed additive is listed once above the table).
+    const lines = c.lines.filter((l) => !forcedIds.includes(l.componentId)).sort((a, b) => b.massFraction - a.massFraction);
+    return (
+      <tr key={c.key} className={`${isSel ? 'selected' : ''}${alternative ? ' alternative' : ''}`} aria-selected={isSel} data-key={c.key}>
+        <td className="num">{c.rank}</td>
+        <td className="recipe-cell">
+          {alternative ? <span className="visually-hidden">Alternative source: </span> : null}
+          {lines.map((l) => {
+            const stock = components.get(l.componentId);
+            return (
+              <span key={l.componentId} className="chip">
+                <span className="code">{stock?.code ?? l.componentId}</span> {fmt.num(l.massFraction * 100, 1)}
+                {stock?.availability === 'limited' ? <span className="tag tag-limited">limited</span> : null}
+              </span>
+            );
+          })}
+          {poly > polymerCap + 1e-6 && (
+            <span className="tag tag-bad" data-testid="polymer-warning">
+              polymer {fmt.num(poly * 100, 0)} % — above the {fmt.num(polymerCap * 100, 0)} % cap
+            </span>
+          )}
+          {adopted[c.key] && <span className="tag">adopted</span>}
+          {group && group.alternatives.length > 0 && (
+            <div>
+              <button
+                type="button"
+                className="link"
+                aria-expanded={expanded}
+                onClick={() =>
+                  setOpen((o) => {
+                    const n = new Set(o);
+                    if (n.has(group.key)) n.delete(group.key);
+                    else n.add(group.key);
+                    return n;
+                  })
+                }
+              >
+                {expanded ? 'hide' : 'show'} {group.alternatives.length} with equivalent sources
+                <span className="visually-hidden"> for candidate {c.rank}</span>
+              </button>
+            </div>
+          )}
+        </td>
+        <td className="num">{fmt.num(c.costPerLitre, 3)}</td>
+        <td className={`num ${delta !== null && delta > 0 ? 'worse' : 'better'}`}>
+          {delta === null ? '—' : `${delta > 0 ? '+' : ''}${fmt.num(delta, 3)}`}
+        </td>
+        <td className="num">{fmt.num(c.kv40, 1)}</td>
+        <td className="num">{c.vi === null ? '—' : fmt.num(c.vi, 0)}</td>
+        <td className="num">{c.anilinePoint === null ? '—' : fmt.num(fmt.tempValue(c.anilinePoint), 1)}</td>
+        <td className="num">{c.oxidationRating === null ? '—' : fmt.num(c.oxidationRating, 1)}</td>
+        <td className="center">{c.onFrontier ? <span aria-label="on the frontier">●</span> : ''}</td>
+        <td>
+          <button type="button" className="link" aria-pressed={isSel} onClick={() => useExplorerStore.getState().select(c.key)}>
+            {isSel ? 'comparing' : 'compare'}
+            <span className="visually-hidden"> candidate {c.rank}</span>
+          </button>
+        </td>
+      </tr>
+    );
+  };
   return (
     <section className="candidates" aria-labelledby="cand-h">
       <h3 id="cand-h">
@@ -63,6 +157,11 @@ export const CandidateTable = memo(function CandidateTable({
           Every candidate also holds {forcedIds.map((id) => components.get(id)?.code ?? id).join(', ')} at its fixed share (not repeated below).
         </p>
       )}
+      <p className="muted" data-testid="grouping-note">
+        Stocks listed by share, largest first. Recipes that differ only by an equivalent source share a row: same category, ν40 and ν100
+        within {fmt.num(tol.viscosityPct, 0)} %, density within {fmt.num(tol.densityKgL, 3)} kg/L, aniline point within{' '}
+        {fmt.num(tol.anilineC, 0)} °C (common practice, no source).
+      </p>
       <table className="data-table" data-testid="candidates">
         <thead>
           <tr>
@@ -81,43 +180,15 @@ export const CandidateTable = memo(function CandidateTable({
           </tr>
         </thead>
         <tbody>
-          {sorted.slice(0, shown).map((c) => {
-            const isSel = c.key === selectedKey;
-            const delta = referenceCost === null ? null : c.costPerLitre - referenceCost;
-            return (
-              <tr key={c.key} className={isSel ? 'selected' : undefined} aria-selected={isSel} data-key={c.key}>
-                <td className="num">{c.rank}</td>
-                <td className="recipe-cell">
-                  {c.lines.filter((l) => !forcedIds.includes(l.componentId)).map((l) => (
-                    <span key={l.componentId} className="chip">
-                      <span className="code">{components.get(l.componentId)?.code ?? l.componentId}</span> {fmt.num(l.massFraction * 100, 1)}
-                    </span>
-                  ))}
-                  {adopted[c.key] && <span className="tag">adopted</span>}
-                </td>
-                <td className="num">{fmt.num(c.costPerLitre, 3)}</td>
-                <td className={`num ${delta !== null && delta > 0 ? 'worse' : 'better'}`}>
-                  {delta === null ? '—' : `${delta > 0 ? '+' : ''}${fmt.num(delta, 3)}`}
-                </td>
-                <td className="num">{fmt.num(c.kv40, 1)}</td>
-                <td className="num">{c.vi === null ? '—' : fmt.num(c.vi, 0)}</td>
-                <td className="num">{c.anilinePoint === null ? '—' : fmt.num(fmt.tempValue(c.anilinePoint), 1)}</td>
-                <td className="num">{c.oxidationRating === null ? '—' : fmt.num(c.oxidationRating, 1)}</td>
-                <td className="center">{c.onFrontier ? <span aria-label="on the frontier">●</span> : ''}</td>
-                <td>
-                  <button type="button" className="link" aria-pressed={isSel} onClick={() => useExplorerStore.getState().select(c.key)}>
-                    {isSel ? 'comparing' : 'compare'}
-                    <span className="visually-hidden"> candidate {c.rank}</span>
-                  </button>
-                </td>
-              </tr>
-            );
-          })}
+          {groups.slice(0, shown).flatMap((g) => [
+            row(g.lead, g, false),
+            ...(isOpen(g) ? g.alternatives.map((a) => row(a, null, true)) : []),
+          ])}
         </tbody>
       </table>
-      {sorted.length > shown && (
+      {groups.length > shown && (
         <button type="button" onClick={() => setShown((n) => n + PAGE)}>
-          Show {Math.min(PAGE, sorted.length - shown)} more
+          Show {Math.min(PAGE, groups.length - shown)} more
         </button>
       )}
     </section>

@@ -3,7 +3,12 @@ import type { BlendTargets, Component, Objective, Recipe } from '../../core/form
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { componentsById, defaultTargets, recipeActions, useLibrary, useRecipes, useSettings } from '../../state';
+import { NumberField } from '../../components/fields';
+import { checkNumber } from '../../state/field-rules';
+import { componentsById, defaultTargets, recipeActions, usePricedLibrary, useRecipes, useSettings } from '../../state';
+import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
+import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
+import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { startSearch, type SearchHandle } from './search-client';
 import { useExplorerStore, type Scenario } from './store';
 import { CandidateTable } from './CandidateTable';
@@ -23,16 +28,31 @@ const RANKING_LABEL: Record<Objective, string> = {
 let running: SearchHandle | null = null;
 
 /** Targets of the search: the reference's stored targets (or defaults for its grade), ranked by `objective`. */
-export function scenarioTargets(reference: Recipe, stored: BlendTargets | undefined, components: readonly Component[], objective: Objective): BlendTargets {
+/**
+ * Targets of the search: the reference's stored targets (or defaults for its grade), ranked by
+ * `objective`. The polymer cap: `polymerCap` when given (null = none); otherwise the recipe's own cap,
+ * or the common-practice default when the recipe has none (an uncapped search offers thickener-rich
+ * blends no plant would make).
+ */
+export function scenarioTargets(
+  reference: Recipe,
+  stored: BlendTargets | undefined,
+  components: readonly Component[],
+  objective: Objective,
+  polymerCap?: number | null,
+): BlendTargets {
   const additive = components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn') ?? null;
   const base = stored ?? defaultTargets(reference.grade, additive?.id ?? null, reference.id);
-  return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id };
+  const cap = polymerCap !== undefined ? polymerCap : (base.maxPolymerFraction ?? DEFAULT_MAX_POLYMER_FRACTION);
+  return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id, maxPolymerFraction: cap };
 }
 
 export default function ExplorerScreen() {
   const fmt = useFormat();
   const settings = useSettings();
-  const components = useLibrary((s) => s.components);
+  // Prices in the base currency at the boundary; stocks without an exchange rate are left out of the search.
+  const priced = usePricedLibrary();
+  const components = priced.components;
   const byId = componentsById(components);
   const recipes = useRecipes((s) => s.recipes);
   const storedTargets = useRecipes((s) => s.targets);
@@ -50,8 +70,8 @@ export default function ExplorerScreen() {
   const reference = recipes.find((r) => r.id === st.referenceId) ?? null;
   const storedForRef = reference ? storedTargets[reference.id] : undefined;
   const targets = useMemo(
-    () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective) : null),
-    [reference, storedForRef, components, st.objective],
+    () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective, st.polymerCap) : null),
+    [reference, storedForRef, components, st.objective, st.polymerCap],
   );
   const refAssessed = useMemo(
     () =>
@@ -72,12 +92,18 @@ export default function ExplorerScreen() {
 
   const run = () => {
     if (!reference || !targets || running) return;
-    const scenario: Scenario = { referenceId: reference.id, withdrawn: [...st.withdrawn], maxComponents: st.maxComponents, objective: st.objective };
+    const scenario: Scenario = {
+      referenceId: reference.id,
+      withdrawn: [...st.withdrawn],
+      maxComponents: st.maxComponents,
+      objective: st.objective,
+      polymerCap: targets.maxPolymerFraction,
+    };
     const s = useExplorerStore.getState();
     s.started(scenario);
     const handle = startSearch(
       {
-        components,
+        components: solvableLibrary(priced),
         targets,
         reference,
         withdrawn: scenario.withdrawn,
@@ -111,6 +137,10 @@ export default function ExplorerScreen() {
         `Adopted from the substitute explorer as a replacement for “${reference.name}”` +
         (withdrawnCodes.length ? ` (withdrawn: ${withdrawnCodes.join(', ')})` : '') +
         `. Ranked ${c.rank} by ${RANKING_LABEL[st.resultFor?.objective ?? 'cost']}. Predicted, not yet confirmed in the laboratory.`,
+      // Same product: the reference's release specification; the stock data the candidate was solved with.
+      specification: reference.specification,
+      stockBasis: recordStockBasis(components, c.lines, new Date().toISOString()),
+      reasonForChange: withdrawnCodes.length ? `Substitute for withdrawn ${withdrawnCodes.join(', ')}` : '',
     });
     recipeActions.setTargets(id, { ...targets, referenceRecipeId: reference.id });
     recipeActions.setActiveRecipe(id);
@@ -123,6 +153,7 @@ export default function ExplorerScreen() {
     (st.resultFor.referenceId !== st.referenceId ||
       st.resultFor.maxComponents !== st.maxComponents ||
       st.resultFor.objective !== st.objective ||
+      (st.resultFor.polymerCap ?? null) !== (targets?.maxPolymerFraction ?? null) ||
       [...st.resultFor.withdrawn].sort().join() !== [...st.withdrawn].sort().join());
   const adoptedId = selected ? st.adopted[selected.key] : undefined;
   const adoptedRecipe = adoptedId ? recipes.find((r) => r.id === adoptedId) : undefined;
@@ -139,10 +170,16 @@ export default function ExplorerScreen() {
         reference={reference}
         components={components}
         targets={targets}
+        storedCap={storedForRef ? storedForRef.maxPolymerFraction : null}
         running={running_}
         onRun={run}
         onCancel={() => running?.cancel()}
       />
+      {priced.unpriced.length > 0 && (
+        <Notice tone="warning" title="Stocks without an exchange rate">
+          <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
+        </Notice>
+      )}
       <RunStatusView />
       {stale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
       {st.result && (
@@ -162,6 +199,7 @@ export default function ExplorerScreen() {
                 frontierCount={st.result.frontier.length}
                 total={st.result.distinct}
                 forcedIds={st.result.forcedIds}
+                polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
               />
               {selected && reference && targets && (
                 <ComparisonPanel
@@ -202,6 +240,7 @@ function ScenarioForm({
   reference,
   components,
   targets,
+  storedCap,
   running,
   onRun,
   onCancel,
@@ -210,6 +249,8 @@ function ScenarioForm({
   reference: Recipe | null;
   components: readonly Component[];
   targets: BlendTargets | null;
+  /** The reference recipe's own polymer cap (null: none saved). */
+  storedCap: number | null;
   running: boolean;
   onRun: () => void;
   onCancel: () => void;
@@ -254,11 +295,14 @@ function ScenarioForm({
           <div className="field">
             <label htmlFor={refId}>Reference recipe (the one to replace)</label>
             <select id={refId} value={reference?.id ?? ''} disabled={running} onChange={(e) => st.setReference(e.target.value || null)}>
-              {recipes.map((r) => (
-                <option key={r.id} value={r.id}>
-                  {r.name}
-                </option>
-              ))}
+              {recipes
+                .filter((r) => !r.archived || r.id === reference?.id)
+                .map((r) => (
+                  <option key={r.id} value={r.id}>
+                    {r.name}
+                    {r.status !== 'approved' ? ` (${r.status})` : ''}
+                  </option>
+                ))}
             </select>
           </div>
           {reference && targets && (
@@ -291,6 +335,25 @@ function ScenarioForm({
                 ))}
               </select>
             </div>
+            <NumberField
+              label="Polymer cap"
+              unit="mass %"
+              size={5}
+              allowEmpty
+              disabled={running}
+              value={targets?.maxPolymerFraction == null ? null : Number((targets.maxPolymerFraction * 100).toFixed(4))}
+              validate={(v) => ({ error: v === null ? undefined : (checkNumber('maxPolymerFraction', v / 100) ?? undefined) })}
+              onCommit={(v) => st.setPolymerCap(v === null ? null : v / 100)}
+              hint={
+                <span className="field-hint" data-testid="polymer-cap-hint">
+                  {st.polymerCap !== undefined
+                    ? 'set for this search; blank = no cap'
+                    : storedCap === null
+                      ? `the reference has no cap: the usual ${fmt.num(DEFAULT_MAX_POLYMER_FRACTION * 100, 0)} % applies (common practice, no source); blank = no cap`
+                      : 'the reference recipe’s cap; blank = no cap'}
+                </span>
+              }
+            />
           </div>
         </div>
         <fieldset className="withdrawn">

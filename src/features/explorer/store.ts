@@ -12,6 +12,8 @@ export type SortKey = 'rank' | 'cost' | 'kv40' | 'vi' | 'aniline' | 'oxidation' 
 
 export interface Scenario {
   referenceId: string;
+  /** Polymer cap the search ran with (mass fraction; null → none). */
+  polymerCap?: number | null;
   withdrawn: string[];
   maxComponents: number;
   objective: Objective;
@@ -23,6 +25,11 @@ export interface ExplorerState {
   withdrawn: string[];
   maxComponents: number;
   objective: Objective;
+  /**
+   * Polymer cap for the search (mass fraction); null → no cap; undefined → the reference recipe's own
+   * cap, or the common-practice default when it has none.
+   */
+  polymerCap: number | null | undefined;
   status: RunStatus;
   progress: SubstituteSearchProgress | null;
   result: SubstituteSearchResult | null;
@@ -38,6 +45,7 @@ export interface ExplorerState {
   toggleWithdrawn: (id: string, on: boolean) => void;
   setMaxComponents: (k: number) => void;
   setObjective: (o: Objective) => void;
+  setPolymerCap: (cap: number | null | undefined) => void;
   started: (scenario: Scenario) => void;
   progressed: (p: SubstituteSearchProgress) => void;
   finished: (r: SubstituteSearchResult) => void;
@@ -53,6 +61,7 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   withdrawn: [],
   maxComponents: 4,
   objective: 'cost',
+  polymerCap: undefined,
   status: 'idle',
   progress: null,
   result: null,
@@ -62,11 +71,13 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   sort: { key: 'rank', dir: 'asc' },
   adopted: {},
 
-  setReference: (referenceId) => set({ referenceId }),
+  // Another reference brings its own polymer cap.
+  setReference: (referenceId) => set({ referenceId, polymerCap: undefined }),
   toggleWithdrawn: (id, on) =>
     set((s) => ({ withdrawn: on ? [...new Set([...s.withdrawn, id])] : s.withdrawn.filter((x) => x !== id) })),
   setMaxComponents: (maxComponents) => set({ maxComponents }),
   setObjective: (objective) => set({ objective }),
+  setPolymerCap: (polymerCap) => set({ polymerCap }),
   started: (scenario) => set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null }),
   progressed: (progress) => set({ progress }),
   finished: (result) =>

@@ -3,7 +3,18 @@ import { NumberField, SelectField, TextField } from '../../components/fields';
 import { makeFormatter, useFormat } from '../../components/format';
 import { Notice } from '../../components/notices';
 import { downloadText, readFileText } from '../../components/download';
-import { requestPersistentStorage, resetDemo, settingsActions, useSettings, useStorageStatus, DEMO_PLANT } from '../../state';
+import {
+  requestPersistentStorage,
+  resetDemo,
+  settingsActions,
+  useLibrary,
+  usePricedLibrary,
+  useSettings,
+  useStorageStatus,
+  DEMO_PLANT,
+} from '../../state';
+import { checkDate, checkNumber, checkText } from '../../state/field-rules';
+import { normaliseCurrency, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
 import { applyBackup, backupFileName, makeBackupText, parseBackupText, type BackupParse } from '../../state/backup';
 
@@ -77,6 +88,159 @@ function BackupImport() {
   );
 }
 
+/**
+ * Base currency and exchange rates: every cost figure and solve works in the base currency; a stock
+ * priced in a currency without a rate is named and left out until a rate is entered.
+ */
+function ExchangeRates() {
+  const s = useSettings();
+  const fmt = useFormat();
+  const components = useLibrary((st) => st.components);
+  const priced = usePricedLibrary();
+  const [adding, setAdding] = useState({ currency: '', rate: '', asOf: '' });
+  const [message, setMessage] = useState('');
+  const base = normaliseCurrency(s.baseCurrency);
+  // Currencies the library uses, with how many stocks each.
+  const inUse = new Map<string, number>();
+  for (const c of components) {
+    const k = normaliseCurrency(c.price.currency);
+    inUse.set(k, (inUse.get(k) ?? 0) + 1);
+  }
+  const setRates = (rates: ExchangeRate[]): string | null => update({ exchangeRates: rates });
+  const add = () => {
+    const currency = normaliseCurrency(adding.currency);
+    const rate = fmt.parse(adding.rate);
+    const who = `the rate for ${currency || '(no currency)'}`;
+    const problem =
+      checkText('rateCurrency', currency, who) ??
+      (currency === base ? `${currency} is the base currency; it needs no rate` : null) ??
+      (s.exchangeRates.some((r) => normaliseCurrency(r.currency) === currency) ? `${currency} has a rate already; change that one` : null) ??
+      (rate === null || Number.isNaN(rate) ? `${who}: “${adding.rate}” is not a number` : checkNumber('exchangeRate', rate, who)) ??
+      checkDate('rateAsOf', adding.asOf, who);
+    if (problem) {
+      setMessage(problem);
+      return;
+    }
+    const refused = setRates([...s.exchangeRates, { currency, rate: rate!, asOf: adding.asOf }]);
+    setMessage(refused ?? '');
+    if (!refused) setAdding({ currency: '', rate: '', asOf: '' });
+  };
+  return (
+    <fieldset className="wide exchange-rates">
+      <legend>Currency and exchange rates</legend>
+      <p className="small">
+        Every cost, the solver and the explorer work in the base currency. A stock priced in another currency is restated with its rate;
+        a stock whose currency has no rate is named wherever costs are shown and left out of costing and solving until you enter one.
+        Costing copies of the blend sheet print the rates used with their dates.
+      </p>
+      <TextField
+        label="Base currency (code)"
+        size={6}
+        maxLength={12}
+        value={s.baseCurrency}
+        validate={(v) => ({ error: checkText('baseCurrency', normaliseCurrency(v)) ?? undefined })}
+        onCommit={(v) => {
+          setMessage(update({ baseCurrency: normaliseCurrency(v) }) ?? '');
+        }}
+      />
+      <p className="small muted">
+        The currency symbol above ({s.currencySymbol}) is printed with costs: keep it matching the base currency.
+      </p>
+      <table className="data rates-table">
+        <caption className="visually-hidden">Exchange rates to {base}</caption>
+        <thead>
+          <tr>
+            <th scope="col">Currency</th>
+            <th scope="col" className="num">
+              {base} per unit
+            </th>
+            <th scope="col">As of</th>
+            <th scope="col">Stocks</th>
+            <th scope="col">
+              <span className="visually-hidden">Remove</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {s.exchangeRates.map((r, i) => (
+            <tr key={normaliseCurrency(r.currency)}>
+              <th scope="row">{normaliseCurrency(r.currency)}</th>
+              <td className="num">
+                <NumberField
+                  label={`Rate ${normaliseCurrency(r.currency)} → ${base}`}
+                  hideLabel
+                  size={9}
+                  value={r.rate}
+                  validate={(v) => ({ error: checkNumber('exchangeRate', v, `the rate for ${r.currency}`) ?? undefined })}
+                  onCommit={(v) => v !== null && setMessage(setRates(s.exchangeRates.map((x, j) => (j === i ? { ...x, rate: v } : x))) ?? '')}
+                />
+              </td>
+              <td>
+                <TextField
+                  label={`Rate ${normaliseCurrency(r.currency)} as of (YYYY-MM-DD)`}
+                  hideLabel
+                  size={11}
+                  maxLength={10}
+                  value={r.asOf}
+                  validate={(v) => ({ error: checkDate('rateAsOf', v.trim()) ?? undefined })}
+                  onCommit={(v) => setMessage(setRates(s.exchangeRates.map((x, j) => (j === i ? { ...x, asOf: v.trim() } : x))) ?? '')}
+                />
+              </td>
+              <td>{inUse.get(normaliseCurrency(r.currency)) ?? 0}</td>
+              <td>
+                <button type="button" onClick={() => setMessage(setRates(s.exchangeRates.filter((_, j) => j !== i)) ?? '')}>
+                  Remove<span className="visually-hidden"> the rate for {r.currency}</span>
+                </button>
+              </td>
+            </tr>
+          ))}
+          {s.exchangeRates.length === 0 && (
+            <tr>
+              <td colSpan={5} className="muted">
+                No rates yet.
+              </td>
+            </tr>
+          )}
+        </tbody>
+      </table>
+      <form
+        className="add-rate"
+        aria-label="Add an exchange rate"
+        onSubmit={(e) => {
+          e.preventDefault();
+          add();
+        }}
+      >
+        <label className="inline-field">
+          Currency
+          <input size={6} maxLength={12} value={adding.currency} onChange={(e) => setAdding({ ...adding, currency: e.target.value })} />
+        </label>
+        <label className="inline-field">
+          {base} per unit
+          <input size={9} inputMode="decimal" value={adding.rate} onChange={(e) => setAdding({ ...adding, rate: e.target.value })} />
+        </label>
+        <label className="inline-field">
+          As of
+          <input type="date" value={adding.asOf} onChange={(e) => setAdding({ ...adding, asOf: e.target.value })} />
+        </label>
+        <button type="submit">Add rate</button>
+      </form>
+      {message && (
+        <p className="field-error" role="alert">
+          {message}
+        </p>
+      )}
+      {priced.unpriced.length > 0 ? (
+        <Notice tone="warning" title="Stocks without an exchange rate">
+          <p data-testid="unpriced">{unpricedMessage(priced.unpriced, base)}</p>
+        </Notice>
+      ) : (
+        <p className="small muted">Every stock in the library is priced in {base} or has a rate.</p>
+      )}
+    </fieldset>
+  );
+}
+
 export default function SettingsScreen() {
   const s = useSettings();
   const fmt = useFormat();
@@ -125,7 +289,7 @@ export default function SettingsScreen() {
           </span>
           <p className="small muted">
             Example: {sample.num(12345.678, 2)} mm²/s · {sample.money(1234.5)} · {sample.temp(40)}. Stored values stay in °C, mm²/s and
-            kg/L; prices are never converted between currencies.
+            kg/L; prices are restated in the base currency only with the exchange rates below.
           </p>
         </fieldset>
 
@@ -164,6 +328,8 @@ export default function SettingsScreen() {
             onChange={(blendMethod) => update({ blendMethod })}
           />
         </fieldset>
+
+        <ExchangeRates />
 
         <fieldset className="wide">
           <legend>Saved work</legend>

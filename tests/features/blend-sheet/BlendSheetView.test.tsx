@@ -114,6 +114,21 @@ describe('BlendSheetView', () => {
     expect(screen.getByText(/1,362\.00 EUR per batch/)).toBeTruthy();
   });
 
+  it('costs in the base currency with the rates and dates printed, and never mixes a currency without a rate (issue 10, item 13)', () => {
+    const usd = components.map((c) => (c.id === 'hv' ? { ...c, price: { ...c.price, amount: 2, currency: 'USD' } } : c));
+    // Invented rate, chosen for an exact check: 2 USD/kg × 0.7 = 1.4 EUR/kg, so the batch costs as before.
+    renderSheet({ components: usd, exchange: { base: 'EUR', rates: [{ currency: 'USD', rate: 0.7, asOf: '2026-11-30' }] } });
+    fireEvent.click(screen.getByLabelText('Costing copy'));
+    // 0.3·1.1 + 0.68·(2 × 0.7) + 0.02·4.0 = 1.362 EUR per kg → 1,362.00 per 1000 kg batch (by hand)
+    expect(screen.getByText(/1,362\.00 EUR per batch/)).toBeTruthy();
+    expect(screen.getByTestId('rates-used').textContent).toMatch(/USD → EUR 0\.70 as of 2026-11-30/);
+    cleanup();
+    renderSheet({ components: usd, exchange: { base: 'EUR', rates: [] } });
+    fireEvent.click(screen.getByLabelText('Costing copy'));
+    expect(screen.getByText(/Cost not available: HV is priced in USD, which has no exchange rate to EUR/)).toBeTruthy();
+    expect(screen.queryByText(/per batch/)).toBeNull();
+  });
+
   it('recomputes quantities for a batch given in litres', () => {
     renderSheet();
     fireEvent.change(screen.getByLabelText('Batch size'), { target: { value: '2000' } });

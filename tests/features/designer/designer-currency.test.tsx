@@ -1,0 +1,50 @@
+// @vitest-environment jsdom
+/**
+ * Mixed currencies in the designer (issue 10, item 13): one USD-priced stock no longer stops every
+ * solve, and no cost figure adds USD into EUR. With a rate entered, its price is restated in the base
+ * currency at the boundary.
+ */
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
+import DesignerScreen from '../../../src/features/designer/DesignerScreen';
+import { useDesignerStore } from '../../../src/features/designer/store';
+import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
+
+const costCell = (code: string) => {
+  const row = screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
+  const cells = [...row.querySelectorAll('td.num')];
+  return cells[cells.length - 1]!.textContent;
+};
+
+beforeEach(() => {
+  resetDemo();
+  settingsActions.updateSettings({ baseCurrency: 'EUR', exchangeRates: [] });
+  // BW-160 is priced in USD (invented): 1040 USD per tonne.
+  const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+  useLibrary.getState().updateComponent(c.id, { price: { ...c.price, currency: 'USD' } });
+  useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional', notice: null });
+});
+afterEach(cleanup);
+
+describe('designer with a stock priced in another currency', () => {
+  it('names the stock and currency, shows no cost for it, and still solves without it', async () => {
+    render(<DesignerScreen />);
+    expect(screen.getByTestId('unpriced').textContent).toMatch(/BW-160 is priced in USD, which has no exchange rate to EUR/);
+    // The VG 320 demo recipe holds BW-160: its cost share is not added in.
+    expect(costCell('BW-160')).toBe('—');
+    fireEvent.click(screen.getByRole('button', { name: 'Solve' }));
+    await act(async () => new Promise((r) => setTimeout(r, 50)));
+    expect(screen.getByText('Solved')).toBeTruthy();
+    expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();
+  });
+
+  it('restates the price with a rate: 1040 USD/t × 0.5 = 0.52 EUR/kg', async () => {
+    // Invented rate (not market data), chosen for an exact check by hand.
+    settingsActions.updateSettings({ exchangeRates: [{ currency: 'USD', rate: 0.5, asOf: '2026-11-30' }] });
+    render(<DesignerScreen />);
+    expect(screen.queryByTestId('unpriced')).toBeNull();
+    // cost share = ρ_blend·w·p = 0.8991 kg/L × 0.225 × 0.52 EUR/kg = 0.1052 EUR/L (by hand; ρ_blend of the
+    // demo VG 320 recipe by ideal mixing, as the designer shows it)
+    expect(costCell('BW-160')).toBe('0.105');
+  });
+});
