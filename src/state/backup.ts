@@ -44,7 +44,13 @@ export function makeBackupText(now = new Date()): string {
       library: { version: LIBRARY_SPEC.version, data: { components: lib.components } },
       recipes: {
         version: RECIPES_SPEC.version,
-        data: { recipes: rec.recipes, targets: rec.targets, activeRecipeId: rec.activeRecipeId, sheets: rec.sheets },
+        data: {
+          recipes: rec.recipes,
+          targets: rec.targets,
+          activeRecipeId: rec.activeRecipeId,
+          sheets: rec.sheets,
+          linePlan: rec.linePlan,
+        },
       },
       settings: { version: SETTINGS_SPEC.version, data: { settings: set.settings } },
     },

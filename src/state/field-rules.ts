@@ -90,6 +90,8 @@ export const TEXT_RULES = Object.freeze({
   specText: textRule('specification limit', 60),
   /** ISO date-time stamps written by Blendbench. */
   timestamp: textRule('time stamp', 40),
+  /** Line plan: what the planning period is called ("2026", "next 12 months"). */
+  planPeriod: textRule('planning period', 80),
 } satisfies Record<string, TextRule>);
 
 export type TextRuleKey = keyof typeof TEXT_RULES;
@@ -218,6 +220,17 @@ export const NUMBER_RULES = Object.freeze({
    * currencies in use (common practice, no source); zero or a negative rate is refused.
    */
   exchangeRate: numberRule('exchange rate', '', 1e-9, 1e9),
+  /**
+   * Line plan: a grade's demand over the planning period [kg]; above 0 and at most 10¹⁰ kg (ten million
+   * tonnes, beyond any blending plant's year; common practice, no source).
+   */
+  demandKg: numberRule('demand', 'kg', 0, 1e10, { minExclusive: true }),
+  /** Line plan: supply of a limited stock over the period [kg]; 0 to 10¹⁰ kg. */
+  supplyKg: numberRule('supply', 'kg', 0, 1e10),
+  /** Line plan: least use over the period of a stock that must stay in use [kg]; 0 to 10¹⁰ kg. */
+  minUseKg: numberRule('least use', 'kg', 0, 1e10),
+  /** Line plan: most distinct stocks (tanks) across the line; 1 to 1,000 (common practice, no source). */
+  maxStocks: numberRule('number of stocks', '', 1, 1000, { integer: true, nullable: true }),
 } satisfies Record<string, NumberRule>);
 
 export type NumberRuleKey = keyof typeof NUMBER_RULES;
@@ -727,4 +740,27 @@ export class FieldRuleError extends Error {
 /** The first message of a list of problems, or null when there is none (for actions that refuse). */
 export function firstProblem(problems: readonly FieldProblem[]): string | null {
   return problems[0]?.message ?? null;
+}
+
+/** A line plan as stored (structurally `LinePlanInputs` of `lineplan.ts`). */
+export interface LinePlanFields {
+  period: string;
+  demands: Record<string, number>;
+  supplies: Record<string, number | null>;
+  keep: Record<string, number>;
+  maxStocks: number | null;
+}
+
+/** Every field of the line plan against its rule (demands, supplies, least uses, tank limit, period). */
+export function linePlanProblems(p: LinePlanFields): FieldProblem[] {
+  const { out, add } = collector();
+  add(['period'], checkText('planPeriod', p.period));
+  add(['demands'], checkCount('recipes', Object.keys(p.demands).length));
+  for (const [id, kg] of Object.entries(p.demands)) add(['demands', id], checkNumber('demandKg', kg));
+  add(['supplies'], checkCount('stocks', Object.keys(p.supplies).length));
+  for (const [id, kg] of Object.entries(p.supplies)) add(['supplies', id], kg === null ? null : checkNumber('supplyKg', kg));
+  add(['keep'], checkCount('stocks', Object.keys(p.keep).length));
+  for (const [id, kg] of Object.entries(p.keep)) add(['keep', id], checkNumber('minUseKg', kg));
+  add(['maxStocks'], checkNumber('maxStocks', p.maxStocks));
+  return out;
 }

@@ -36,6 +36,10 @@
  *     | setSheetInputs(recipeId, Partial<SheetInputs>) (blend-sheet lot, batch size/unit, vessel, edited
  *       instructions; saved, not an undo step; read with useRecipes(s => s.sheets[id]))
  *     (also available as useRecipes.getState().addRecipe … )
+ *   linePlanActions: setDemand(recipeId, kg|null) | setSupply(stockId, kg|null) | limitStock(id) | unlimitStock(id)
+ *     | setKeep(stockId, kg|null) | setMaxStocks(n|null) | setPeriod(text) | setDemandUnit('kg'|'t') | clear()
+ *     (the line plan's inputs, read with useRecipes(s => s.linePlan); each one undo step of the recipes)
+ *   adoptPlanRevisions([{ recipeId, lines, note }]) → { recipeId: new revision } (one undo step)
  *   settingsActions.updateSettings(patch)
  *   defaultTargets(grade, additiveId, referenceRecipeId) → BlendTargets
  * Undo/redo (zundo), one history per store:
@@ -65,6 +69,9 @@ export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
 export type { RecipesState, RecipesData, NewRecipe, SheetInputs, RecipeChanges } from './recipes';
 export { DEFAULT_SHEET_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
+export type { LinePlanInputs } from './lineplan';
+export { emptyLinePlan } from './lineplan';
+export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
 export { blankComponent, freeCode } from './library';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS } from './settings';
@@ -216,8 +223,8 @@ export function useSavedWorkReady(): boolean {
 export function persistedData(key: StoreKey): unknown {
   if (key === 'library') return { components: useLibraryStore.getState().components };
   if (key === 'recipes') {
-    const { recipes, targets, activeRecipeId, sheets } = useRecipesStore.getState();
-    return { recipes, targets, activeRecipeId, sheets };
+    const { recipes, targets, activeRecipeId, sheets, linePlan } = useRecipesStore.getState();
+    return { recipes, targets, activeRecipeId, sheets, linePlan };
   }
   return { settings: useSettingsStore.getState().settings };
 }
@@ -259,7 +266,7 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
         if (!external && s.components !== p.components) noteEdit();
       }),
       useRecipesStore.subscribe((s, p) => {
-        if (!external && (s.recipes !== p.recipes || s.targets !== p.targets)) noteEdit();
+        if (!external && (s.recipes !== p.recipes || s.targets !== p.targets || s.linePlan !== p.linePlan)) noteEdit();
       }),
       onSavedInOtherTab((key) => {
         external = true;

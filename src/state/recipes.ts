@@ -19,6 +19,7 @@ import {
   sheetProblems,
   targetsProblems,
 } from './field-rules';
+import { emptyLinePlan, type LinePlanInputs } from './lineplan';
 
 export interface RecipesData {
   recipes: Recipe[];
@@ -28,6 +29,8 @@ export interface RecipesData {
   activeRecipeId: string | null;
   /** Blend-sheet header fields and edited instructions per recipe id (schema 3); not part of undo history. */
   sheets: Record<string, SheetInputs>;
+  /** The line plan's inputs (schema 6; see `lineplan.ts`); part of undo history. */
+  linePlan: LinePlanInputs;
 }
 
 /** What the plant types on a recipe's blend sheet, remembered between visits. */
@@ -146,9 +149,11 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 5,
+  version: 6,
   schema: recipesDataSchema,
   migrations: {
+    // Schema 5 had no line plan: start with an empty one.
+    5: (d) => ({ ...(d as object), linePlan: emptyLinePlan() }),
     // Schema 4 had no minimum probability in band: every recipe's targets ask for none.
     4: (d) => {
       const targets = (d as { targets?: unknown }).targets;
@@ -190,9 +195,10 @@ export const demoRecipesData = (): RecipesData => ({
   targets: demoTargets(),
   activeRecipeId: demoRecipeId(320),
   sheets: {},
+  linePlan: emptyLinePlan(),
 });
 
-type Tracked = Pick<RecipesData, 'recipes' | 'targets'>;
+type Tracked = Pick<RecipesData, 'recipes' | 'targets' | 'linePlan'>;
 
 /** The revision number a new revision of `old` gets: one above every revision made from it so far. */
 export function nextRevisionNumber(recipes: readonly Recipe[], old: Recipe): number {
@@ -384,13 +390,19 @@ export const useRecipesStore = create<RecipesState>()(
             return missing.length;
           },
           replaceAll: (data) =>
-            set({ recipes: data.recipes, targets: data.targets, activeRecipeId: data.activeRecipeId, sheets: data.sheets ?? {} }),
+            set({
+              recipes: data.recipes,
+              targets: data.targets,
+              activeRecipeId: data.activeRecipeId,
+              sheets: data.sheets ?? {},
+              linePlan: data.linePlan ?? emptyLinePlan(),
+            }),
         };
       },
       {
-        partialize: (s): Tracked => ({ recipes: s.recipes, targets: s.targets }),
+        partialize: (s): Tracked => ({ recipes: s.recipes, targets: s.targets, linePlan: s.linePlan }),
         // Selecting another recipe is not an edit: skip history entries where nothing tracked changed.
-        equality: (a, b) => a.recipes === b.recipes && a.targets === b.targets,
+        equality: (a, b) => a.recipes === b.recipes && a.targets === b.targets && a.linePlan === b.linePlan,
         limit: 100,
       },
     ),
@@ -398,7 +410,13 @@ export const useRecipesStore = create<RecipesState>()(
       name: 'recipes',
       version: RECIPES_SPEC.version,
       storage: idbPersistStorage(RECIPES_SPEC),
-      partialize: (s): RecipesData => ({ recipes: s.recipes, targets: s.targets, activeRecipeId: s.activeRecipeId, sheets: s.sheets }),
+      partialize: (s): RecipesData => ({
+        recipes: s.recipes,
+        targets: s.targets,
+        activeRecipeId: s.activeRecipeId,
+        sheets: s.sheets,
+        linePlan: s.linePlan,
+      }),
       skipHydration: true,
     },
   ),

@@ -8,8 +8,10 @@
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES } from '../core/formulation/model';
 import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/formulation/model';
+import type { LinePlanInputs } from './lineplan';
 import {
   checkCount,
+  linePlanProblems,
   recipeProblems,
   settingsProblems,
   sheetProblems,
@@ -183,6 +185,18 @@ export const sheetInputsSchema = z
   })
   .superRefine((s, ctx) => report(ctx, sheetProblems(s)));
 
+/** The line plan (kept with the recipes; see `lineplan.ts`). */
+export const linePlanSchema = z
+  .object({
+    period: str,
+    demandUnit: z.enum(['kg', 't']),
+    demands: z.record(str, finite),
+    supplies: z.record(str, finite.nullable()),
+    keep: z.record(str, finite),
+    maxStocks: finite.nullable(),
+  })
+  .superRefine((p, ctx) => report(ctx, linePlanProblems(p)));
+
 /** Persisted slice of the library store. */
 export const libraryDataSchema = z.object({ components: list(componentSchema, 'stocks') });
 /** Persisted slice of the recipes store. */
@@ -191,6 +205,7 @@ export const recipesDataSchema = z.object({
   targets: z.record(str, targetsSchema),
   activeRecipeId: str.nullable(),
   sheets: z.record(str, sheetInputsSchema),
+  linePlan: linePlanSchema,
 });
 /** Persisted slice of the settings store. */
 export const settingsDataSchema = z.object({ settings: settingsSchema });
@@ -203,6 +218,8 @@ agree<z.infer<typeof recipeSchema>, Recipe>();
 agree<Recipe, z.infer<typeof recipeSchema>>();
 agree<z.infer<typeof targetsSchema>, BlendTargets>();
 agree<BlendTargets, z.infer<typeof targetsSchema>>();
+agree<z.infer<typeof linePlanSchema>, LinePlanInputs>();
+agree<LinePlanInputs, z.infer<typeof linePlanSchema>>();
 
 /** One-line, human-readable summary of a zod error: "viscosityPoints: …; price.amount: …". */
 export function describeIssues(error: z.ZodError, max = 4): string {

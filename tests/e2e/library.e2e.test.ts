@@ -109,7 +109,7 @@ describe('component library and saved work', () => {
     expect(await libraryRowCount(page)).toBe(30);
     await expect(page.getByRole('columnheader', { name: /Aniline pt °F/ }).isVisible()).resolves.toBe(true);
     const recipes = (await stored(page, 'recipes')) as { version: number; state: { recipes: unknown[] } };
-    expect(recipes.version).toBe(5); // schema 5: minimum probability in band in the targets
+    expect(recipes.version).toBe(6); // schema 6: minimum probability in band (5), the line plan (6)
     expect(recipes.state.recipes.length).toBe(4);
   });
 

@@ -1,0 +1,74 @@
+import { beforeEach, describe, expect, it } from 'vitest';
+import { interpretStored } from '../../src/state/persistence';
+import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
+import { adoptPlanRevisions, emptyLinePlan, linePlanActions, persistedData, resetDemo, useRecipes } from '../../src/state';
+import { makeBackupText, parseBackupText } from '../../src/state/backup';
+
+beforeEach(() => {
+  resetDemo();
+  useRecipes.temporal.getState().clear();
+});
+
+describe('the line plan in the recipes store (schema 5)', () => {
+  it('upgrades a schema-4 record with an empty plan and refuses impossible stored values by field', () => {
+    const { linePlan: _p, ...v4 } = demoRecipesData();
+    const up = interpretStored(RECIPES_SPEC, { state: v4, version: 4 });
+    expect(up.kind).toBe('ok');
+    if (up.kind === 'ok') {
+      expect(up.migratedFrom).toBe(4);
+      expect(up.data.linePlan).toEqual(emptyLinePlan());
+    }
+    const plan = { ...emptyLinePlan(), demands: { 'demo-vg320': 400_000 }, supplies: { 'demo-bw-190': 250_000, 'demo-bw-160': null }, maxStocks: 6 };
+    const cur = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: plan }, version: 5 });
+    expect(cur.kind === 'ok' && cur.data.linePlan).toEqual(plan);
+    const bad = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: { ...plan, demands: { 'demo-vg320': -5 } } }, version: 5 });
+    expect(bad.kind).toBe('problem');
+    if (bad.kind === 'problem') expect(bad.problem.message).toContain('demand');
+    const half = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: { ...plan, maxStocks: 2.5 } }, version: 5 });
+    expect(half.kind).toBe('problem');
+  });
+
+  it('each edit is one undo step and is saved', () => {
+    linePlanActions.setDemand('demo-vg220', 300_000);
+    linePlanActions.setSupply('demo-bw-190', 250_000);
+    linePlanActions.setMaxStocks(6);
+    expect(useRecipes.getState().linePlan.demands).toEqual({ 'demo-vg220': 300_000 });
+    expect((persistedData('recipes') as { linePlan: unknown }).linePlan).toEqual(useRecipes.getState().linePlan);
+    expect(useRecipes.temporal.getState().pastStates.length).toBe(3);
+    useRecipes.temporal.getState().undo();
+    expect(useRecipes.getState().linePlan.maxStocks).toBeNull();
+    linePlanActions.setDemand('demo-vg220', null);
+    expect(useRecipes.getState().linePlan.demands).toEqual({});
+  });
+
+  it('adopts new revisions of every planned recipe in one undo step', () => {
+    const before = useRecipes.getState().recipes;
+    const lines = [
+      { componentId: 'demo-bw-280', massFraction: 0.98 },
+      { componentId: 'demo-bw-901', massFraction: 0.02 },
+    ];
+    const revs = adoptPlanRevisions(
+      [
+        { recipeId: 'demo-vg460', lines, note: 'from the line plan.' },
+        { recipeId: 'demo-vg680', lines, note: 'from the line plan.' },
+      ],
+      '2025-06-01T00:00:00.000Z',
+    );
+    expect(revs).toEqual({ 'demo-vg460': 2, 'demo-vg680': 2 });
+    const r460 = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg460')!;
+    expect(r460.lines).toEqual(lines);
+    expect(r460.notes).toContain('Revision 2: from the line plan.');
+    expect(useRecipes.temporal.getState().pastStates.length).toBe(1);
+    useRecipes.temporal.getState().undo();
+    expect(useRecipes.getState().recipes).toEqual(before);
+  });
+
+  it('travels in the backup file and back', () => {
+    linePlanActions.setDemand('demo-vg320', 400_000);
+    linePlanActions.setKeep('demo-bw-220', 50_000);
+    const text = makeBackupText(new Date('2025-06-01T00:00:00Z'));
+    const parsed = parseBackupText(text);
+    expect(parsed.ok).toBe(true);
+    if (parsed.ok) expect(parsed.backup.recipes.linePlan).toEqual(useRecipes.getState().linePlan);
+  });
+});
