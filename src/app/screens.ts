@@ -24,6 +24,7 @@ export const SCREENS: ScreenEntry[] = [
   { id: 'designer', label: 'Recipe designer', blurb: 'Solve and fine-tune a recipe', predictions: true, load: () => import('../features/designer/DesignerScreen') },
   { id: 'explorer', label: 'Substitute explorer', blurb: 'Replace a withdrawn stock', predictions: true, load: () => import('../features/explorer/ExplorerScreen') },
   { id: 'recipes', label: 'Recipes', blurb: 'Status, revisions, specification', predictions: true, load: () => import('../features/recipes/RecipesScreen') },
+  { id: 'line-plan', label: 'Whole-line plan', blurb: 'Every grade against limited stocks', predictions: true, load: () => import('../features/lineplan/LinePlanScreen') },
   { id: 'blend-sheet', label: 'Blend sheet', blurb: 'Printable sheet for the plant', predictions: true, load: () => import('../features/blend-sheet/BlendSheetScreen') },
   { id: 'settings', label: 'Settings', blurb: 'Units, saved work, backups', predictions: false, load: () => import('../features/settings/SettingsScreen') },
 ];

@@ -15,3 +15,5 @@ export { useWidth } from './useWidth';
 export { LiveMarksContext } from './live';
 export type { LiveMarks, LiveBar } from './live';
 export { roundUp } from './CompositionChart';
+export { AllocationChart } from './AllocationChart';
+export type { AllocationRow, AllocationChartProps } from './AllocationChart';

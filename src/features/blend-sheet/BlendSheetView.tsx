@@ -23,6 +23,7 @@ import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
+import '../../components/print.css';
 import './blend-sheet.css';
 
 export type PaperSize = 'a4' | 'letter';
@@ -306,7 +307,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       </div>
 
       <article
-        className={`blend-sheet bs-paper-${paper}${sheet && sheet.rows.length >= 10 ? ' bs-dense' : ''}`}
+        className={`blend-sheet print-page bs-paper-${paper}${sheet && sheet.rows.length >= 10 ? ' bs-dense' : ''}`}
         aria-label="Printable blend sheet"
       >
         <header className="bs-head">

@@ -1,0 +1,85 @@
+// Where each limited stock goes in the plan while it lasts: a table and a stacked bar chart (loaded
+// with the charts, lazily).
+import type { LinePlanOptimal } from '../../core/lineplan/plan';
+import { AllocationChart, useWidth } from '../../components/charts';
+import { useFormat } from '../../components/format';
+import { overPeriod } from './words';
+
+export interface AllocationPanelProps {
+  plan: LinePlanOptimal;
+  limited: readonly string[];
+  /** Supplies entered [kg], by stock id. */
+  supplyKg: Readonly<Record<string, number>>;
+  code: (id: string) => string;
+  period: string;
+}
+
+export default function AllocationPanel({ plan, limited, supplyKg, code, period }: AllocationPanelProps) {
+  const fmt = useFormat();
+  const [ref, width] = useWidth<HTMLDivElement>(640);
+  const rows = limited.map((id) => {
+    const use = plan.stockUse.find((u) => u.id === id);
+    const byGrade = use ? use.byGrade : plan.grades.map(() => 0);
+    const total = byGrade.reduce((s, x) => s + x, 0);
+    return { id, byGrade, total, supplyKg: supplyKg[id] ?? null };
+  });
+  const t = (kg: number) => fmt.num(kg / 1000, kg >= 100_000 ? 0 : 1);
+  return (
+    <section className="panel lp-allocation" aria-labelledby="lp-alloc-h">
+      <h3 id="lp-alloc-h">Where the limited stocks go (while they last, {overPeriod(period)})</h3>
+      <div className="table-scroll">
+        <table className="data" data-testid="allocation-table">
+          <thead>
+            <tr>
+              <th scope="col">Stock</th>
+              {plan.grades.map((g) => (
+                <th key={g.id} scope="col" className="num">
+                  {g.label} [t]
+                </th>
+              ))}
+              <th scope="col" className="num">
+                Used [t]
+              </th>
+              <th scope="col" className="num">
+                Supply [t]
+              </th>
+              <th scope="col" className="num">
+                Not needed [t]
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r.id}>
+                <th scope="row" className="code">
+                  {code(r.id)}
+                </th>
+                {r.byGrade.map((kg, k) => (
+                  <td key={k} className="num">
+                    {kg > 0 ? t(kg) : '—'}
+                  </td>
+                ))}
+                <td className="num">{t(r.total)}</td>
+                <td className="num">{r.supplyKg === null ? 'not given' : t(r.supplyKg)}</td>
+                <td className="num">{r.supplyKg === null ? '—' : t(Math.max(0, r.supplyKg - r.total))}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <div ref={ref}>
+        <AllocationChart
+          title="Tonnes of each limited stock by grade"
+          rows={rows.map((r) => ({
+            label: code(r.id),
+            amounts: r.byGrade.map((kg) => kg / 1000),
+            unused: r.supplyKg === null ? 0 : Math.max(0, r.supplyKg - r.total) / 1000,
+          }))}
+          series={plan.grades.map((g) => g.label)}
+          unit="t"
+          width={Math.max(320, Math.min(width, 900))}
+        />
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,211 @@
+// The whole-line plan: every grade of the line planned together against the limited stocks, the plan
+// while they last beside the plan after they are gone, adopt as new revisions, a printable summary.
+import { useDeferredValue, useEffect, useMemo, useState, type ComponentType } from 'react';
+import type { AllocationPanelProps } from './AllocationPanel';
+import { Notice } from '../../components/notices';
+import { useFormat } from '../../components/format';
+import { adoptPlanRevisions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { derivePlan } from './derive';
+import { PlanInputs } from './PlanInputs';
+import { PLAN_TITLE, PlanResults } from './PlanResults';
+import { PlanSummary } from './PlanSummary';
+import { cancelPlan, runPlan, warmPlanWorker } from './plan-client';
+import { screenActions, useLinePlanScreen, type PlanWhich } from './store';
+import { overPeriod } from './words';
+import './lineplan.css';
+
+function localIsoDate(d: Date): string {
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
+
+export default function LinePlanScreen() {
+  const components = useLibrary((s) => s.components);
+  const recipes = useRecipes((s) => s.recipes);
+  const targets = useRecipes((s) => s.targets);
+  const linePlan = useRecipes((s) => s.linePlan);
+  const settings = useSettings();
+  const history = useRecipesHistory();
+  const fmt = useFormat();
+  const st = useLinePlanScreen();
+  const today = useMemo(() => localIsoDate(new Date()), []);
+  const derived = useMemo(() => derivePlan(components, recipes, targets, linePlan, settings), [components, recipes, targets, linePlan, settings]);
+  const planning = st.status === 'planning';
+  // The printable summary follows the result in a later, interruptible render: the plans show first.
+  const summaryResult = useDeferredValue(st.result);
+  const b = st.basis;
+  const stale =
+    b !== null &&
+    (b.components !== components || b.recipes !== recipes || b.targets !== targets || b.linePlan !== linePlan || b.settings !== settings);
+
+  // The worker and the result's charts load while the user is still entering the plan (held in
+  // state, not React.lazy: a lazy component would suspend on its first render and React holds a
+  // revealed fallback back for a while).
+  const [AllocationPanel, setAllocationPanel] = useState<ComponentType<AllocationPanelProps> | null>(null);
+  useEffect(() => {
+    warmPlanWorker();
+    let live = true;
+    void import('./AllocationPanel').then((m) => live && setAllocationPanel(() => m.default));
+    return () => {
+      live = false;
+    };
+  }, []);
+
+  const run = async () => {
+    if (!derived.input) return;
+    screenActions.started();
+    const basis = { components, recipes, targets, linePlan, settings };
+    const t0 = performance.now();
+    const o = await runPlan(derived.input, derived.limited);
+    if (o.kind === 'done') screenActions.finished(o.result, basis, derived.limited, derived.input.supplyKg ?? {}, performance.now() - t0);
+    else if (o.kind === 'cancelled') screenActions.cancelled();
+    else screenActions.failed(o.message);
+  };
+
+  const adopt = (which: PlanWhich) => {
+    const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;
+    if (!plan || plan.status !== 'optimal') return;
+    const codes = st.limited.map((id) => components.find((c) => c.id === id)?.code ?? id).join(', ');
+    const what = which === 'lasting' ? `while the limited stocks last (${codes} at the supplies given)` : `after ${codes || 'the limited stocks'} are gone`;
+    const note =
+      `adopted ${today} from the whole-line plan ${overPeriod(linePlan.period)}, the plan ${what}. ` +
+      'Predicted, not yet confirmed in the laboratory.';
+    const revisions = adoptPlanRevisions(plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, note })));
+    screenActions.adopted(which, revisions);
+  };
+
+  // Use of each limited stock by the current recipes at the planned demands [kg].
+  const currentUseKg = useMemo(() => {
+    const out: Record<string, number> = {};
+    for (const id of derived.limited) out[id] = 0;
+    for (const g of derived.grades) {
+      for (const l of g.recipe.lines) if (l.componentId in out) out[l.componentId]! += g.demandKg * l.massFraction;
+    }
+    return out;
+  }, [derived]);
+
+  return (
+    <section className="lineplan" aria-labelledby="lineplan-h" data-testid="lineplan">
+      <h2 id="lineplan-h">Whole-line plan</h2>
+      <p className="lead">
+        Plan every grade of the line at once, at the least total cost over the period: the limited stocks go where they save most, each grade keeps
+        its own saved limits (band, minimum VI, aniline point, polymer, additive, per-stock limits), and the plan after the limited stocks are gone
+        shows what their withdrawal costs.
+      </p>
+      <PlanInputs plan={linePlan} recipes={recipes} components={components} disabled={planning} />
+
+      <div className="toolbar lp-toolbar">
+        <button type="button" className="primary" onClick={() => void run()} disabled={planning || !derived.input}>
+          Plan the line
+        </button>
+        {planning && (
+          <>
+            <span role="status" className="lp-status">
+              Planning {derived.grades.length} grades…
+            </span>
+            <button type="button" onClick={cancelPlan}>
+              Cancel
+            </button>
+          </>
+        )}
+        {!planning && st.status === 'done' && st.ms !== null && (
+          <span className="small muted lp-status" role="status">
+            Planned in {fmt.num(st.ms, 0)} ms ({st.result?.lpCount ?? 0} LPs).
+          </span>
+        )}
+        <span className="toolbar-gap" />
+        <button type="button" onClick={history.undo} disabled={!history.canUndo || planning} title="Undo the last change to the plan or the recipes">
+          Undo
+        </button>
+        <button type="button" onClick={history.redo} disabled={!history.canRedo || planning}>
+          Redo
+        </button>
+      </div>
+      {!derived.input && <p className="muted">Give at least one recipe a demand to plan the line.</p>}
+      {derived.warnings.length > 0 && (
+        <Notice tone="info">
+          <ul>
+            {derived.warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
+          </ul>
+        </Notice>
+      )}
+      {st.status === 'error' && (
+        <Notice tone="error" title="The plan could not be made">
+          {st.error}
+        </Notice>
+      )}
+      {stale && st.result && (
+        <p className="stale" role="status">
+          The plan’s inputs, the recipes or the library changed since this plan was made: plan again to update it.
+        </p>
+      )}
+      {st.result && (
+        <>
+          <PlanResults
+            result={st.result}
+            run={st.runs}
+            AllocationPanel={AllocationPanel}
+            components={components}
+            limited={st.limited}
+            period={linePlan.period}
+            currentUseKg={currentUseKg}
+            supplyKg={st.supplyKg}
+            stale={stale}
+            confirming={st.confirming}
+            adopted={st.adopted}
+            onConfirm={screenActions.confirm}
+            onAdopt={adopt}
+            onUndoAdopt={() => {
+              history.undo();
+              screenActions.unadopted();
+            }}
+          />
+          <section className="lp-summary-area" aria-labelledby="lp-summary-h">
+            <div className="no-print lp-summary-controls">
+              <h3 id="lp-summary-h">One-page summary</h3>
+              <div className="toolbar">
+                <label>
+                  Summary of{' '}
+                  <select value={st.summaryOf} onChange={(e) => screenActions.summaryOf(e.target.value as PlanWhich)}>
+                    {(['lasting', 'after'] as const).map((w) => (
+                      <option key={w} value={w}>
+                        {PLAN_TITLE[w].toLowerCase()}
+                      </option>
+                    ))}
+                  </select>
+                </label>
+                <label>
+                  Paper{' '}
+                  <select value={st.paper} onChange={(e) => screenActions.paper(e.target.value as 'a4' | 'letter')}>
+                    <option value="a4">A4</option>
+                    <option value="letter">US Letter</option>
+                  </select>
+                </label>
+                <button type="button" onClick={() => window.print()} disabled={summaryResult !== st.result}>
+                  Print summary
+                </button>
+              </div>
+              <p className="small muted">Your browser’s print dialog also saves a PDF.</p>
+            </div>
+            {summaryResult && (
+            <PlanSummary
+              result={summaryResult}
+              which={st.summaryOf}
+              components={components}
+              limited={st.limited}
+              supplyKg={st.supplyKg}
+              period={linePlan.period}
+              companyName={settings.companyName}
+              today={today}
+              paper={st.paper}
+              fmt={fmt}
+            />
+            )}
+          </section>
+        </>
+      )}
+    </section>
+  );
+}

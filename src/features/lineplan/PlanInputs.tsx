@@ -1,0 +1,311 @@
+// The plan's inputs: which recipes take part and their demand, the limited stocks and their supply,
+// the stocks that must stay in use and the tank limit. Every edit is saved and is one undo step.
+import { useId, useState } from 'react';
+import type { Component, Recipe } from '../../core/formulation/model';
+import { NumberField, TextField, type Verdict } from '../../components/fields';
+import { useFormat } from '../../components/format';
+import { linePlanActions, type LinePlanInputs } from '../../state';
+import { NUMBER_RULES, TEXT_RULES, checkText } from '../../state/field-rules';
+import { limitedStocks } from './derive';
+
+/** kg per unit the user types in. */
+const PER_UNIT = { kg: 1, t: 1000 } as const;
+
+/** A quantity field's verdict in the user's unit, from the stored field's rule [kg]. */
+function quantityVerdict(
+  rule: 'demandKg' | 'supplyKg' | 'minUseKg',
+  unit: 'kg' | 't',
+  label: string,
+  v: number | null,
+  empty: string,
+): Verdict {
+  if (v === null) return {};
+  const r = NUMBER_RULES[rule];
+  const kg = v * PER_UNIT[unit];
+  const max = r.max / PER_UNIT[unit];
+  if (r.minExclusive ? kg <= r.min : kg < r.min) {
+    return { error: `${label}: must be ${r.minExclusive ? 'above' : 'at least'} 0 ${unit}${empty}` };
+  }
+  if (kg > r.max) return { error: `${label}: at most ${max.toLocaleString('en-US')} ${unit} can be planned` };
+  return {};
+}
+
+export function PlanInputs({
+  plan,
+  recipes,
+  components,
+  disabled,
+}: {
+  plan: LinePlanInputs;
+  recipes: readonly Recipe[];
+  components: readonly Component[];
+  disabled: boolean;
+}) {
+  const fmt = useFormat();
+  const unit = plan.demandUnit;
+  const toShown = (kg: number | null | undefined) => (kg === null || kg === undefined ? null : kg / PER_UNIT[unit]);
+  const toKg = (v: number) => v * PER_UNIT[unit];
+  const [showAll, setShowAll] = useState(false);
+  const unitId = useId();
+  const addLimitId = useId();
+  const addKeepId = useId();
+  const [toLimit, setToLimit] = useState('');
+  const [toKeep, setToKeep] = useState('');
+
+  const sorted = [...recipes].sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
+  const shown = showAll ? sorted : sorted.filter((r) => r.isReference || r.id in plan.demands);
+  const hidden = sorted.length - shown.length;
+  const limited = limitedStocks(components, plan);
+  const limitable = components.filter((c) => c.availability !== 'withdrawn' && !limited.includes(c));
+  const keepIds = Object.keys(plan.keep).filter((id) => components.some((c) => c.id === id));
+  const keepable = components.filter((c) => c.availability !== 'withdrawn' && !(c.id in plan.keep));
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const plannedTotal = Object.entries(plan.demands)
+    .filter(([id]) => recipes.some((r) => r.id === id))
+    .reduce((s, [, kg]) => s + kg, 0);
+
+  return (
+    <div className="lp-inputs">
+      <section className="panel lp-grades" aria-labelledby={`${unitId}-grades`}>
+        <h3 id={`${unitId}-grades`}>Grades and demand</h3>
+        <div className="lp-row">
+          <TextField
+            label="Planning period"
+            value={plan.period}
+            placeholder="e.g. 2026"
+            size={12}
+            maxLength={TEXT_RULES.planPeriod.max}
+            validate={(v) => ({ error: checkText('planPeriod', v) ?? undefined })}
+            onCommit={(v) => linePlanActions.setPeriod(v)}
+            disabled={disabled}
+          />
+          <fieldset className="lp-unit" disabled={disabled}>
+            <legend id={unitId}>Quantities in</legend>
+            {(['t', 'kg'] as const).map((u) => (
+              <label key={u}>
+                <input type="radio" name={unitId} checked={unit === u} onChange={() => linePlanActions.setDemandUnit(u)} /> {u === 't' ? 'tonnes' : 'kg'}
+              </label>
+            ))}
+          </fieldset>
+        </div>
+        <p className="small muted">Give each recipe that takes part its demand over the period; leave it empty to keep a recipe out of the plan.</p>
+        <div className="table-scroll">
+          <table className="data lp-demand-table">
+            <thead>
+              <tr>
+                <th scope="col">Grade</th>
+                <th scope="col">Recipe</th>
+                <th scope="col" className="num">
+                  Demand [{unit}]
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {shown.map((r) => (
+                <tr key={r.id}>
+                  <td>VG {r.grade}</td>
+                  <th scope="row">
+                    {r.name}
+                    {r.isReference ? <span className="tag"> current</span> : null}
+                  </th>
+                  <td className="num">
+                    <NumberField
+                      label={`Demand of “${r.name}”`}
+                      hideLabel
+                      allowEmpty
+                      size={9}
+                      value={toShown(plan.demands[r.id])}
+                      validate={(v) => quantityVerdict('demandKg', unit, `Demand of ${r.name}`, v, ' (leave it empty to keep the recipe out of the plan)')}
+                      onCommit={(v) => linePlanActions.setDemand(r.id, v === null ? null : toKg(v))}
+                      disabled={disabled}
+                    />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+            <tfoot>
+              <tr>
+                <th scope="row" colSpan={2}>
+                  Total demand
+                </th>
+                <td className="num">
+                  {fmt.num(plannedTotal / PER_UNIT[unit], unit === 't' ? 1 : 0)} {unit}
+                </td>
+              </tr>
+            </tfoot>
+          </table>
+        </div>
+        {(hidden > 0 || showAll) && (
+          <button type="button" className="link-button" onClick={() => setShowAll(!showAll)}>
+            {showAll ? 'Show only current and planned recipes' : `Show every recipe (${hidden} more)`}
+          </button>
+        )}
+      </section>
+
+      <section className="panel lp-limited" aria-labelledby={`${unitId}-limited`}>
+        <h3 id={`${unitId}-limited`}>Limited stocks</h3>
+        <p className="small muted">
+          Supply over the period. While they last the plan shares it between the grades; in the plan after they are gone these stocks are not used.
+        </p>
+        {limited.length === 0 ? (
+          <p className="muted">No stock is limited. Mark a stock limited on Stocks, or limit one for this plan below.</p>
+        ) : (
+          <table className="data">
+            <thead>
+              <tr>
+                <th scope="col">Stock</th>
+                <th scope="col">Limited</th>
+                <th scope="col" className="num">
+                  Supply [{unit}]
+                </th>
+                <th scope="col">
+                  <span className="visually-hidden">Actions</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {limited.map((c) => (
+                <tr key={c.id}>
+                  <th scope="row">
+                    <span className="code">{c.code}</span> <span className="small">{c.name}</span>
+                  </th>
+                  <td className="small">{c.availability === 'limited' ? 'in the library' : 'in this plan'}</td>
+                  <td className="num">
+                    <NumberField
+                      label={`Supply of ${c.code}`}
+                      hideLabel
+                      allowEmpty
+                      size={9}
+                      value={toShown(plan.supplies[c.id])}
+                      validate={(v) => quantityVerdict('supplyKg', unit, `Supply of ${c.code}`, v, '')}
+                      onCommit={(v) => linePlanActions.setSupply(c.id, v === null ? null : toKg(v))}
+                      disabled={disabled}
+                    />
+                  </td>
+                  <td>
+                    {c.availability !== 'limited' && (
+                      <button type="button" onClick={() => linePlanActions.unlimitStock(c.id)} disabled={disabled} aria-label={`Stop limiting ${c.code} in this plan`}>
+                        Remove
+                      </button>
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+        <div className="lp-add">
+          <label htmlFor={addLimitId}>Limit another stock in this plan</label>
+          <select id={addLimitId} value={toLimit} onChange={(e) => setToLimit(e.target.value)} disabled={disabled}>
+            <option value="">Choose a stock…</option>
+            {limitable.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.code} — {c.name}
+              </option>
+            ))}
+          </select>
+          <button
+            type="button"
+            disabled={disabled || !toLimit}
+            onClick={() => {
+              linePlanActions.limitStock(toLimit);
+              setToLimit('');
+            }}
+          >
+            Limit
+          </button>
+        </div>
+      </section>
+
+      <section className="panel lp-limits" aria-labelledby={`${unitId}-line`}>
+        <h3 id={`${unitId}-line`}>Tanks and stocks kept</h3>
+        <NumberField
+          label="Most distinct stocks across the line"
+          allowEmpty
+          size={5}
+          value={plan.maxStocks}
+          digits={0}
+          validate={(v) => {
+            if (v === null) return {};
+            const r = NUMBER_RULES.maxStocks;
+            if (!Number.isInteger(v) || v < r.min || v > r.max) {
+              return { error: `Most distinct stocks: a whole number from ${r.min} to ${r.max} (or empty for no limit)` };
+            }
+            return {};
+          }}
+          onCommit={(v) => linePlanActions.setMaxStocks(v)}
+          hint={<span className="small muted"> Empty: no limit. Every stock in use counts, the additive package too.</span>}
+          disabled={disabled}
+        />
+        <h4>Stocks that must stay in use</h4>
+        {keepIds.length === 0 ? (
+          <p className="small muted">None. A stock kept in use always counts toward the limit and is used at least as much as you give.</p>
+        ) : (
+          <table className="data">
+            <thead>
+              <tr>
+                <th scope="col">Stock</th>
+                <th scope="col" className="num">
+                  Least use [{unit}]
+                </th>
+                <th scope="col">
+                  <span className="visually-hidden">Actions</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {keepIds.map((id) => {
+                const c = byId.get(id)!;
+                return (
+                  <tr key={id}>
+                    <th scope="row">
+                      <span className="code">{c.code}</span>
+                      {c.availability === 'withdrawn' ? <span className="text-error small"> withdrawn</span> : null}
+                    </th>
+                    <td className="num">
+                      <NumberField
+                        label={`Least use of ${c.code}`}
+                        hideLabel
+                        size={9}
+                        value={toShown(plan.keep[id])}
+                        validate={(v) => quantityVerdict('minUseKg', unit, `Least use of ${c.code}`, v, '')}
+                        onCommit={(v) => linePlanActions.setKeep(id, v === null ? 0 : toKg(v))}
+                        disabled={disabled}
+                      />
+                    </td>
+                    <td>
+                      <button type="button" onClick={() => linePlanActions.setKeep(id, null)} disabled={disabled} aria-label={`No longer keep ${c.code} in use`}>
+                        Remove
+                      </button>
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        )}
+        <div className="lp-add">
+          <label htmlFor={addKeepId}>Keep a stock in use</label>
+          <select id={addKeepId} value={toKeep} onChange={(e) => setToKeep(e.target.value)} disabled={disabled}>
+            <option value="">Choose a stock…</option>
+            {keepable.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.code} — {c.name}
+              </option>
+            ))}
+          </select>
+          <button
+            type="button"
+            disabled={disabled || !toKeep}
+            onClick={() => {
+              linePlanActions.setKeep(toKeep, 0);
+              setToKeep('');
+            }}
+          >
+            Keep
+          </button>
+        </div>
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,206 @@
+// The one-page printable summary of a line plan: grades × stocks with mass %, demand, supply use,
+// totals and cautions. Printed through the shared print path (components/print.css), as the blend sheet.
+import { useId } from 'react';
+import type { Component } from '../../core/formulation/model';
+import type { LinePlanScenarios } from '../../core/lineplan/plan';
+import type { Formatter } from '../../components/format';
+import '../../components/print.css';
+import { PLAN_TITLE } from './PlanResults';
+import type { PlanWhich } from './store';
+import { changeText, marginalSentence, overPeriod } from './words';
+
+export const SUMMARY_CAUTIONS: readonly string[] = [
+  'Predicted properties are estimates by published methods (Refutas or ASTM D7152 blending, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
+  'Costs use the library’s prices on the day of printing; demands and supplies are the planner’s own figures.',
+  'A planned recipe is made only after it is adopted as a new revision, approved, and batched from its own blend sheet.',
+  'Safety data sheets, site procedures and local regulations govern the handling of hot oil and additive packages; this plan does not replace them.',
+];
+
+export interface PlanSummaryProps {
+  result: LinePlanScenarios;
+  which: PlanWhich;
+  components: readonly Component[];
+  limited: readonly string[];
+  supplyKg: Readonly<Record<string, number>>;
+  period: string;
+  companyName: string;
+  /** Date printed on the summary (YYYY-MM-DD). */
+  today: string;
+  paper: 'a4' | 'letter';
+  fmt: Formatter;
+}
+
+export function PlanSummary({ result, which, components, limited, supplyKg, period, companyName, today, paper, fmt }: PlanSummaryProps) {
+  const id = useId();
+  const plan = which === 'lasting' ? result.lasting : result.after;
+  const other = which === 'lasting' ? result.after : result.lasting;
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const code = (cid: string) => byId.get(cid)?.code ?? cid;
+  const t = (kg: number) => fmt.num(kg / 1000, kg >= 100_000 ? 0 : 1);
+  const limitedCodes = limited.map(code);
+  return (
+    <article className={`lp-summary print-page lp-paper-${paper}`} aria-labelledby={`${id}-title`} data-testid="plan-summary">
+      <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 9mm 10mm; }`}</style>
+      <header className="lps-head">
+        <span className="lps-company">{companyName || 'Blending plant'}</span>
+        <span id={`${id}-title`} className="lps-title">
+          Whole-line plan — summary
+        </span>
+      </header>
+      <p className="lps-sub">
+        <strong>{PLAN_TITLE[which]}</strong>
+        {which === 'lasting'
+          ? ` (${limitedCodes.join(', ') || 'no limited stock'} at the supplies given)`
+          : ` (without ${limitedCodes.join(', ') || 'the limited stocks'})`}
+        {' · '}Demand {overPeriod(period)} · Printed {today} · Least total cost over the period, each grade to its own saved limits
+      </p>
+
+      {plan.status !== 'optimal' ? (
+        <p className="lps-none">
+          <strong>No plan.</strong> {plan.status === 'invalid-input' ? plan.message : plan.reason}
+        </p>
+      ) : (
+        <>
+          <table className="lps-table">
+            <caption>Recipes by grade, mass % (predicted)</caption>
+            <thead>
+              <tr>
+                <th scope="col">Stock</th>
+                {plan.grades.map((g) => (
+                  <th key={g.id} scope="col" className="lps-num">
+                    {g.label}
+                  </th>
+                ))}
+                <th scope="col" className="lps-num">
+                  Use [t]
+                </th>
+                <th scope="col" className="lps-num">
+                  Supply [t]
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {plan.stockUse.map((u) => (
+                <tr key={u.id}>
+                  <th scope="row">
+                    <span className="lps-code">{u.code}</span> <span className="lps-name">{byId.get(u.id)?.name ?? ''}</span>
+                  </th>
+                  {plan.grades.map((g) => {
+                    const w = g.lines.find((l) => l.componentId === u.id)?.massFraction ?? 0;
+                    return (
+                      <td key={g.id} className="lps-num">
+                        {w > 0 ? fmt.num(100 * w, 1) : ''}
+                      </td>
+                    );
+                  })}
+                  <td className="lps-num">{t(u.useKg)}</td>
+                  <td className="lps-num">{supplyKg[u.id] === undefined ? '' : t(supplyKg[u.id]!)}</td>
+                </tr>
+              ))}
+            </tbody>
+            <tfoot>
+              <tr>
+                <th scope="row">Demand [t]</th>
+                {plan.grades.map((g) => (
+                  <td key={g.id} className="lps-num">
+                    {t(g.demandKg)}
+                  </td>
+                ))}
+                <td className="lps-num">{t(plan.grades.reduce((s, g) => s + g.demandKg, 0))}</td>
+                <td />
+              </tr>
+              <tr>
+                <th scope="row">ν40 [mm²/s] · VI</th>
+                {plan.grades.map((g) => (
+                  <td key={g.id} className="lps-num">
+                    {fmt.num(g.properties.kv40, 0)} · {g.properties.reportedVi ?? '—'}
+                  </td>
+                ))}
+                <td colSpan={2} />
+              </tr>
+              <tr>
+                <th scope="row">Cost per litre</th>
+                {plan.grades.map((g) => (
+                  <td key={g.id} className="lps-num">
+                    {fmt.money(g.costPerLitre, 3)}
+                  </td>
+                ))}
+                <td colSpan={2} />
+              </tr>
+              <tr>
+                <th scope="row">Change per litre</th>
+                {plan.grades.map((g) => (
+                  <td key={g.id} className="lps-num">
+                    {g.current ? changeText(fmt, g.costPerLitre - g.current.costPerLitre, null, 3) : '—'}
+                  </td>
+                ))}
+                <td colSpan={2} />
+              </tr>
+            </tfoot>
+          </table>
+
+          <div className="lps-columns">
+            <section>
+              <h3>Totals {overPeriod(period)}</h3>
+              <table className="lps-table lps-totals">
+                <tbody>
+                  <tr>
+                    <th scope="row">This plan</th>
+                    <td className="lps-num">{fmt.money(plan.totalCost, 0)}</td>
+                  </tr>
+                  <tr>
+                    <th scope="row">{PLAN_TITLE[which === 'lasting' ? 'after' : 'lasting']}</th>
+                    <td className="lps-num">{other.status === 'optimal' ? fmt.money(other.totalCost, 0) : 'no plan'}</td>
+                  </tr>
+                  <tr>
+                    <th scope="row">Cost of the withdrawal</th>
+                    <td className="lps-num">{result.withdrawalCost === null ? '—' : fmt.money(result.withdrawalCost, 0)}</td>
+                  </tr>
+                  <tr>
+                    <th scope="row">Current recipes, same demand</th>
+                    <td className="lps-num">{plan.currentTotalCost === null ? '—' : fmt.money(plan.currentTotalCost, 0)}</td>
+                  </tr>
+                </tbody>
+              </table>
+            </section>
+            <section>
+              <h3>Stocks</h3>
+              <p>
+                <strong>In use ({plan.stocksUsed.length}):</strong> {plan.stocksUsed.map(code).join(', ')}.
+              </p>
+              {plan.stocksNoLongerNeeded.length > 0 && (
+                <p>
+                  <strong>No longer needed:</strong> {plan.stocksNoLongerNeeded.map(code).join(', ')}.
+                </p>
+              )}
+              {which === 'lasting' && result.marginal.length > 0 && (
+                <ul>
+                  {result.marginal.map((m) => (
+                    <li key={m.id}>{marginalSentence(m, fmt, period)}</li>
+                  ))}
+                </ul>
+              )}
+            </section>
+          </div>
+        </>
+      )}
+
+      <section className="lps-cautions">
+        <h3>Cautions</h3>
+        <ul>
+          {SUMMARY_CAUTIONS.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+      </section>
+      <div className="lps-signoff">
+        {['Prepared by', 'Checked by (laboratory)', 'Approved by'].map((r) => (
+          <div key={r}>
+            <div className="lps-sign-role">{r}</div>
+            <div className="lps-sign-line">Name, signature, date</div>
+          </div>
+        ))}
+      </div>
+    </article>
+  );
+}

@@ -1,0 +1,93 @@
+// From the saved inputs (library, recipes, targets, the plan) to the core's line-plan input.
+import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
+import type { LinePlanInput } from '../../core/lineplan/plan';
+import { defaultTargets, type LinePlanInputs, type Settings } from '../../state';
+
+/** A recipe as a grade of the plan. */
+export interface PlanGrade {
+  recipe: Recipe;
+  /** "VG 460", or "VG 460 · <name>" when two planned recipes share a grade. */
+  label: string;
+  demandKg: number;
+}
+
+export interface DerivedPlan {
+  /** The core's input (limited stocks at their supplies), or null when no recipe has a demand. */
+  input: LinePlanInput | null;
+  /** Ids of the limited stocks (gone in the plan after they are gone), library order. */
+  limited: string[];
+  grades: PlanGrade[];
+  /** Plain warnings about the inputs (e.g. a limited stock without a supply). */
+  warnings: string[];
+}
+
+/** The additive package the designer would default to: the first one not withdrawn. */
+export function defaultAdditiveId(components: readonly Component[]): string | null {
+  return components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn')?.id ?? null;
+}
+
+/** A recipe's saved targets, else the defaults for its grade (as the designer opens it). */
+export function targetsOf(recipe: Recipe, stored: BlendTargets | undefined, additiveId: string | null): BlendTargets {
+  return stored ?? defaultTargets(recipe.grade, additiveId, recipe.isReference ? recipe.id : null);
+}
+
+/** Stocks limited in this plan: marked limited in the library, or given a supply in the plan; never withdrawn ones. */
+export function limitedStocks(components: readonly Component[], plan: LinePlanInputs): Component[] {
+  return components.filter((c) => c.availability !== 'withdrawn' && (c.availability === 'limited' || c.id in plan.supplies));
+}
+
+/** The planned recipes (a demand above 0, recipe still saved), by grade then name. */
+export function plannedGrades(recipes: readonly Recipe[], plan: LinePlanInputs): PlanGrade[] {
+  const planned = recipes
+    .filter((r) => (plan.demands[r.id] ?? 0) > 0)
+    .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
+  const perGrade = new Map<number, number>();
+  for (const r of planned) perGrade.set(r.grade, (perGrade.get(r.grade) ?? 0) + 1);
+  return planned.map((recipe) => ({
+    recipe,
+    label: perGrade.get(recipe.grade)! > 1 ? `VG ${recipe.grade} · ${recipe.name}` : `VG ${recipe.grade}`,
+    demandKg: plan.demands[recipe.id]!,
+  }));
+}
+
+export function derivePlan(
+  components: readonly Component[],
+  recipes: readonly Recipe[],
+  targets: Readonly<Record<string, BlendTargets>>,
+  plan: LinePlanInputs,
+  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'>,
+): DerivedPlan {
+  const grades = plannedGrades(recipes, plan);
+  const limited = limitedStocks(components, plan);
+  const warnings: string[] = [];
+  const supplyKg: Record<string, number> = {};
+  for (const c of limited) {
+    const s = plan.supplies[c.id];
+    if (typeof s === 'number') supplyKg[c.id] = s;
+    else warnings.push(`No supply is entered for ${c.code}: while it lasts, the plan treats it as unlimited.`);
+  }
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const keepKg: Record<string, number> = {};
+  for (const [id, kg] of Object.entries(plan.keep)) if (byId.has(id)) keepKg[id] = kg;
+  const additiveId = defaultAdditiveId(components);
+  const input: LinePlanInput | null =
+    grades.length === 0
+      ? null
+      : {
+          components,
+          grades: grades.map((g) => ({
+            id: g.recipe.id,
+            label: g.label,
+            targets: targetsOf(g.recipe, targets[g.recipe.id], additiveId),
+            demandKg: g.demandKg,
+            current: g.recipe.lines,
+          })),
+          supplyKg,
+          keepKg,
+          maxStocks: plan.maxStocks,
+          method: settings.blendMethod,
+          operatingTempC: settings.operatingTempC,
+          coldTempC: settings.coldStartTempC,
+        };
+  return { input, limited: limited.map((c) => c.id), grades, warnings };
+}

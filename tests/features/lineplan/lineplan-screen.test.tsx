@@ -1,0 +1,126 @@
+// @vitest-environment jsdom
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { act, cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
+import LinePlanScreen from '../../../src/features/lineplan/LinePlanScreen';
+import { setPlanWorkerFactory, type PlanReply, type PlanRequest, type PlanWorker } from '../../../src/features/lineplan/plan-client';
+import { screenActions } from '../../../src/features/lineplan/store';
+import { planLineScenarios } from '../../../src/core/lineplan/plan';
+import { resetDemo, useRecipes } from '../../../src/state';
+
+/** The worker's job, run in this thread on the next task (jsdom has no Worker). */
+function inThreadPlanWorker(): PlanWorker {
+  const w: PlanWorker = {
+    onmessage: null,
+    onerror: null,
+    postMessage(m: PlanRequest) {
+      setTimeout(() => {
+        const reply: PlanReply = { runId: m.runId, ok: true, result: planLineScenarios(m.input, m.limited) };
+        w.onmessage?.({ data: reply } as MessageEvent<PlanReply>);
+      }, 0);
+    },
+    terminate() {},
+  };
+  return w;
+}
+
+beforeEach(() => {
+  resetDemo();
+  useRecipes.temporal.getState().clear();
+  screenActions.reset();
+  setPlanWorkerFactory(inThreadPlanWorker);
+});
+afterEach(() => {
+  cleanup();
+  setPlanWorkerFactory(null);
+});
+
+/** Type into a field and commit it (Enter), as the user does. */
+function enter(label: string | RegExp, value: string) {
+  const f = screen.getByLabelText(label);
+  fireEvent.focus(f);
+  fireEvent.change(f, { target: { value } });
+  fireEvent.keyDown(f, { key: 'Enter' });
+}
+
+async function planDemo() {
+  render(<LinePlanScreen />);
+  enter(/Demand of “Gear oil VG 220/, '300');
+  enter(/Demand of “Gear oil VG 320/, '400');
+  enter(/Demand of “Gear oil VG 460/, '250');
+  enter(/Demand of “Gear oil VG 680/, '150');
+  enter('Supply of BW-190', '250');
+  fireEvent.click(screen.getByText('Plan the line'));
+  await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
+}
+
+describe('Whole-line plan screen', () => {
+  it('saves demands and supplies as typed, and refuses a bad entry at the field in the user’s words', () => {
+    render(<LinePlanScreen />);
+    enter(/Demand of “Gear oil VG 320/, '400');
+    expect(useRecipes.getState().linePlan.demands['demo-vg320']).toBe(400_000); // 400 t in kg (unit conversion)
+    enter(/Demand of “Gear oil VG 460/, '-5');
+    expect(screen.getByRole('alert').textContent).toMatch(/Demand of Gear oil VG 460 .*must be above 0 t/);
+    expect(useRecipes.getState().linePlan.demands['demo-vg460']).toBeUndefined();
+    enter('Most distinct stocks across the line', '2.5');
+    expect(screen.getAllByRole('alert').some((a) => /whole number/.test(a.textContent ?? ''))).toBe(true);
+    expect(useRecipes.getState().linePlan.maxStocks).toBeNull();
+  });
+
+  it('shows both plans side by side, the cost of the withdrawal, the marginal value in words and where the stock goes', async () => {
+    await planDemo();
+    const lasting = screen.getByTestId('plan-lasting');
+    const after = screen.getByTestId('plan-after');
+    expect(within(lasting).getByText(/While the limited stocks last/)).toBeTruthy();
+    expect(within(after).getByText(/After they are gone/)).toBeTruthy();
+    // The withdrawal's cost is the difference of the two totals (same numbers, no calculation here).
+    expect(screen.getByTestId('withdrawal-cost').textContent).toMatch(/€/);
+    // Demo supplies: BW-160 and BW-161 are limited in the library with no supply entered.
+    expect(screen.getByText(/No supply is entered for BW-160/)).toBeTruthy();
+    expect(screen.getByTestId('marginal-values').textContent).toMatch(/One more tonne of BW-190 would save about €.[0-9]/);
+    const table = await screen.findByTestId('allocation-table', {}, { timeout: 10_000 });
+    expect(within(table).getByText('BW-190')).toBeTruthy();
+    expect(within(after).queryByText('BW-190')).toBeNull();
+    expect((await screen.findByTestId('plan-summary')).textContent).toContain('Whole-line plan — summary');
+    expect(screen.getByTestId('plan-summary').textContent).toMatch(/laboratory confirmation/);
+  });
+
+  it('adopts the plan’s recipes as new revisions in one undo step, and undoes them', async () => {
+    await planDemo();
+    const before = useRecipes.getState().recipes;
+    const lasting = screen.getByTestId('plan-lasting');
+    fireEvent.click(within(lasting).getByText('Adopt these recipes…'));
+    fireEvent.click(within(lasting).getByText('Save the new revisions'));
+    const after = useRecipes.getState().recipes;
+    for (const id of ['demo-vg220', 'demo-vg320', 'demo-vg460', 'demo-vg680']) {
+      expect(after.find((r) => r.id === id)!.revision).toBe(2);
+    }
+    expect(screen.getByTestId('adopted-lasting').textContent).toContain('VG 320 revision 2');
+    act(() => {
+      fireEvent.click(within(lasting).getByText('Undo'));
+    });
+    expect(useRecipes.getState().recipes).toEqual(before);
+  });
+
+  it('says in words why a plan cannot be made', async () => {
+    render(<LinePlanScreen />);
+    enter(/Demand of “Gear oil VG 680/, '150');
+    enter('Supply of BW-190', '0');
+    // A minimum VI of 200 is beyond every demo stock at VG 680 (PAO 100 has VI ≈ 170; typicals from memory).
+    act(() => {
+      useRecipes.getState().setTargets('demo-vg680', { ...useRecipes.getState().targets['demo-vg680']!, minVi: 200 });
+    });
+    fireEvent.click(screen.getByText('Plan the line'));
+    await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
+    expect(screen.getByTestId('reason-after').textContent).toMatch(/^VG 680 cannot be made/);
+  });
+
+  it('prints the summary through the browser’s print dialog', async () => {
+    const print = vi.spyOn(window, 'print').mockImplementation(() => {});
+    await planDemo();
+    await screen.findByTestId('plan-summary');
+    fireEvent.click(screen.getByText('Print summary'));
+    await waitFor(() => expect(print).toHaveBeenCalledTimes(1));
+    expect(document.querySelector('.lp-summary.print-page')).not.toBeNull();
+    print.mockRestore();
+  });
+});
