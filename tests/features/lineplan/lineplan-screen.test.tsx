@@ -80,7 +80,7 @@ describe('Whole-line plan screen', () => {
     const table = await screen.findByTestId('allocation-table', {}, { timeout: 10_000 });
     expect(within(table).getByText('BW-190')).toBeTruthy();
     expect(within(after).queryByText('BW-190')).toBeNull();
-    expect((await screen.findByTestId('plan-summary')).textContent).toContain('Whole-line plan — summary');
+    expect((await screen.findByTestId('plan-summary', {}, { timeout: 10_000 })).textContent).toContain('Whole-line plan — summary');
     expect(screen.getByTestId('plan-summary').textContent).toMatch(/laboratory confirmation/);
   });
 
@@ -117,7 +117,7 @@ describe('Whole-line plan screen', () => {
   it('prints the summary through the browser’s print dialog', async () => {
     const print = vi.spyOn(window, 'print').mockImplementation(() => {});
     await planDemo();
-    await screen.findByTestId('plan-summary');
+    await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
     fireEvent.click(screen.getByText('Print summary'));
     await waitFor(() => expect(print).toHaveBeenCalledTimes(1));
     expect(document.querySelector('.lp-summary.print-page')).not.toBeNull();
