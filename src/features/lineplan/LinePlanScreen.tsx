@@ -11,7 +11,7 @@ import { PLAN_TITLE, PlanResults } from './PlanResults';
 import { PlanSummary } from './PlanSummary';
 import { cancelPlan, runPlan, warmPlanWorker } from './plan-client';
 import { screenActions, useLinePlanScreen, type PlanWhich } from './store';
-import { overPeriod } from './words';
+import { limitedText, overPeriod } from './words';
 import './lineplan.css';
 
 function localIsoDate(d: Date): string {
@@ -65,8 +65,11 @@ export default function LinePlanScreen() {
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;
     if (!plan || plan.status !== 'optimal') return;
-    const codes = st.limited.map((id) => components.find((c) => c.id === id)?.code ?? id).join(', ');
-    const what = which === 'lasting' ? `while the limited stocks last (${codes} at the supplies given)` : `after ${codes || 'the limited stocks'} are gone`;
+    const code = (id: string) => components.find((c) => c.id === id)?.code ?? id;
+    const what =
+      which === 'lasting'
+        ? `while the limited stocks last (${limitedText(st.limited, st.supplyKg, code, fmt)})`
+        : `after ${st.limited.map(code).join(', ') || 'the limited stocks'} are gone`;
     const note =
       `adopted ${today} from the whole-line plan ${overPeriod(linePlan.period)}, the plan ${what}. ` +
       'Predicted, not yet confirmed in the laboratory.';

@@ -5,7 +5,7 @@ import type { Component } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { Notice } from '../../components/notices';
 import { useFormat, type Formatter } from '../../components/format';
-import { changeText, marginalSentence, overPeriod, tonnes } from './words';
+import { changeText, limitedText, marginalSentence, overPeriod, tonnes } from './words';
 import type { PlanWhich } from './store';
 
 import type { AllocationPanelProps } from './AllocationPanel';
@@ -66,6 +66,7 @@ export function PlanResults(props: ResultsProps) {
             fmt={fmt}
             period={period}
             limitedCodes={limitedCodes}
+            lastingText={limitedText(props.limited, props.supplyKg, code, fmt)}
             stale={props.stale}
             confirming={props.confirming === which}
             adopted={props.adopted?.which === which ? props.adopted.revisions : null}
@@ -152,6 +153,7 @@ function PlanColumn({
   fmt,
   period,
   limitedCodes,
+  lastingText,
   stale,
   confirming,
   adopted,
@@ -166,6 +168,8 @@ function PlanColumn({
   fmt: Formatter;
   period: string;
   limitedCodes: string[];
+  /** The limited stocks as the plan while they last takes them. */
+  lastingText: string;
   stale: boolean;
   confirming: boolean;
   adopted: Record<string, number> | null;
@@ -175,7 +179,7 @@ function PlanColumn({
 }) {
   const title = PLAN_TITLE[which];
   const hId = `lp-${which}-h`;
-  const sub = which === 'lasting' ? `${limitedCodes.join(', ')} at the supplies given` : `without ${limitedCodes.join(', ') || 'the limited stocks'}`;
+  const sub = which === 'lasting' ? lastingText : `without ${limitedCodes.join(', ') || 'the limited stocks'}`;
   return (
     <section className="panel lp-plan" aria-labelledby={hId} data-testid={`plan-${which}`}>
       <h3 id={hId}>

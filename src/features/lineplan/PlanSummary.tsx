@@ -7,7 +7,7 @@ import type { Formatter } from '../../components/format';
 import '../../components/print.css';
 import { PLAN_TITLE } from './PlanResults';
 import type { PlanWhich } from './store';
-import { changeText, marginalSentence, overPeriod } from './words';
+import { changeText, limitedText, marginalSentence, overPeriod } from './words';
 
 export const SUMMARY_CAUTIONS: readonly string[] = [
   'Predicted properties are estimates by published methods (Refutas or ASTM D7152 blending, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
@@ -50,7 +50,7 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
       <p className="lps-sub">
         <strong>{PLAN_TITLE[which]}</strong>
         {which === 'lasting'
-          ? ` (${limitedCodes.join(', ') || 'no limited stock'} at the supplies given)`
+          ? ` (${limitedText(limited, supplyKg, code, fmt)})`
           : ` (without ${limitedCodes.join(', ') || 'the limited stocks'})`}
         {' · '}Demand {overPeriod(period)} · Printed {today} · Least total cost over the period, each grade to its own saved limits
       </p>

@@ -34,3 +34,15 @@ export function marginalSentence(m: MarginalValue, fmt: Formatter, period: strin
   if (m.savingPerTonne < 0.5) return `${m.code} is used up, but one more tonne would save nothing ${overPeriod(period)}.`;
   return `One more tonne of ${m.code} would save ${aboutMoney(fmt, m.savingPerTonne)} ${overPeriod(period)}.`;
 }
+
+/**
+ * The limited stocks as the plan while they last takes them: "BW-190 250 t; BW-160, BW-161 with no
+ * supply given", or "no limited stock".
+ */
+export function limitedText(limited: readonly string[], supplyKg: Readonly<Record<string, number>>, code: (id: string) => string, fmt: Formatter): string {
+  const given = limited.filter((id) => supplyKg[id] !== undefined).map((id) => `${code(id)} ${tonnes(fmt, supplyKg[id]!)}`);
+  const open = limited.filter((id) => supplyKg[id] === undefined).map(code);
+  const parts = [...given];
+  if (open.length > 0) parts.push(`${open.join(', ')} with no supply given`);
+  return parts.join('; ') || 'no limited stock';
+}
