@@ -10,10 +10,16 @@
 import type { RecipeLine } from '../core/formulation/model';
 import { useRecipesStore } from './recipes';
 import type { LinePlanInputs } from './lineplan';
-import { TEXT_RULES } from './field-rules';
+import { TEXT_RULES, firstProblem, linePlanProblems, recipeProblems, recipeWho } from './field-rules';
 
-function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>): void {
-  useRecipesStore.setState((s) => ({ linePlan: { ...s.linePlan, ...f(s.linePlan) } }));
+/** Change the plan if the result passes the field rules; returns the refusal in words, or null. */
+function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>): string | null {
+  const cur = useRecipesStore.getState().linePlan;
+  const next = { ...cur, ...f(cur) };
+  const refused = firstProblem(linePlanProblems(next));
+  if (refused) return refused;
+  useRecipesStore.setState({ linePlan: next });
+  return null;
 }
 
 function without<T>(rec: Record<string, T>, key: string): Record<string, T> {
@@ -31,6 +37,7 @@ export interface PlanRevision {
   note: string;
 }
 
+/** Each action returns null when done, or why the entry was refused (entry forms check first). */
 export const linePlanActions = {
   /** Demand of a recipe over the period [kg]; null takes it out of the plan. */
   setDemand: (recipeId: string, kg: number | null) =>
@@ -57,22 +64,31 @@ const NOTES_MAX = TEXT_RULES.recipeNotes.max;
 /**
  * Save the plan's recipes as new revisions, all in one undo step: lines replaced, revision + 1,
  * the note appended to the recipe's notes (older notes are shortened from the start if the notes
- * would exceed their limit). Returns the new revision number of each recipe.
+ * would exceed their limit). Nothing changes unless every new revision passes the field rules.
+ *
+ * @returns the new revision number of each recipe, or the first refusal in words
  */
-export function adoptPlanRevisions(revisions: readonly PlanRevision[], now: string = new Date().toISOString()): Record<string, number> {
+export function adoptPlanRevisions(
+  revisions: readonly PlanRevision[],
+  now: string = new Date().toISOString(),
+): { ok: true; revisions: Record<string, number> } | { ok: false; message: string } {
   const byId = new Map(revisions.map((r) => [r.recipeId, r]));
   const out: Record<string, number> = {};
-  useRecipesStore.setState((s) => ({
-    recipes: s.recipes.map((r) => {
-      const rev = byId.get(r.id);
-      if (!rev) return r;
-      const revision = r.revision + 1;
-      out[r.id] = revision;
-      const add = `Revision ${revision}: ${rev.note}`;
-      let notes = r.notes.trim() ? `${r.notes.trim()}\n${add}` : add;
-      if (notes.length > NOTES_MAX) notes = `…${notes.slice(notes.length - NOTES_MAX + 1)}`;
-      return { ...r, lines: rev.lines.map((l) => ({ ...l })), revision, notes, updatedAt: now };
-    }),
-  }));
-  return out;
+  const recipes = useRecipesStore.getState().recipes.map((r) => {
+    const rev = byId.get(r.id);
+    if (!rev) return r;
+    const revision = r.revision + 1;
+    out[r.id] = revision;
+    const add = `Revision ${revision}: ${rev.note}`;
+    let notes = r.notes.trim() ? `${r.notes.trim()}\n${add}` : add;
+    if (notes.length > NOTES_MAX) notes = `…${notes.slice(notes.length - NOTES_MAX + 1)}`;
+    return { ...r, lines: rev.lines.map((l) => ({ ...l })), revision, notes, updatedAt: now };
+  });
+  for (const r of recipes) {
+    if (!byId.has(r.id)) continue;
+    const refused = firstProblem(recipeProblems(r, recipeWho(r.name)));
+    if (refused) return { ok: false, message: refused };
+  }
+  useRecipesStore.setState({ recipes });
+  return { ok: true, revisions: out };
 }

@@ -28,6 +28,15 @@ describe('the line plan in the recipes store (schema 5)', () => {
     expect(half.kind).toBe('problem');
   });
 
+  it('refuses what the field rules refuse, changing nothing', () => {
+    expect(linePlanActions.setDemand('demo-vg220', -1)).toMatch(/demand/);
+    expect(linePlanActions.setMaxStocks(0)).toMatch(/number of stocks/);
+    expect(useRecipes.getState().linePlan).toEqual(emptyLinePlan());
+    const bad = adoptPlanRevisions([{ recipeId: 'demo-vg220', lines: [{ componentId: 'demo-bw-280', massFraction: 0.5 }], note: 'x' }]);
+    expect(bad.ok).toBe(false);
+    expect(useRecipes.getState().recipes.find((r) => r.id === 'demo-vg220')!.revision).toBe(1);
+  });
+
   it('each edit is one undo step and is saved', () => {
     linePlanActions.setDemand('demo-vg220', 300_000);
     linePlanActions.setSupply('demo-bw-190', 250_000);
@@ -54,7 +63,7 @@ describe('the line plan in the recipes store (schema 5)', () => {
       ],
       '2025-06-01T00:00:00.000Z',
     );
-    expect(revs).toEqual({ 'demo-vg460': 2, 'demo-vg680': 2 });
+    expect(revs).toEqual({ ok: true, revisions: { 'demo-vg460': 2, 'demo-vg680': 2 } });
     const r460 = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg460')!;
     expect(r460.lines).toEqual(lines);
     expect(r460.notes).toContain('Revision 2: from the line plan.');

@@ -73,8 +73,9 @@ export default function LinePlanScreen() {
     const note =
       `adopted ${today} from the whole-line plan ${overPeriod(linePlan.period)}, the plan ${what}. ` +
       'Predicted, not yet confirmed in the laboratory.';
-    const revisions = adoptPlanRevisions(plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, note })));
-    screenActions.adopted(which, revisions);
+    const r = adoptPlanRevisions(plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, note })));
+    if (r.ok) screenActions.adopted(which, r.revisions);
+    else screenActions.failed(`The recipes were not saved: ${r.message}`);
   };
 
   // Use of each limited stock by the current recipes at the planned demands [kg].
