@@ -4,13 +4,9 @@
  * a fresh one started on the next run).
  */
 import type { LinePlanInput, LinePlanScenarios } from '../../core/lineplan/plan';
+import type { PlanReply, PlanRequest } from './protocol';
 
-export interface PlanRequest {
-  runId: number;
-  input: LinePlanInput;
-  limited: string[];
-}
-export type PlanReply = { runId: number; ok: true; result: LinePlanScenarios } | { runId: number; ok: false; message: string };
+export type { PlanReply, PlanRequest } from './protocol';
 
 /** The part of `Worker` the client uses (tests supply an in-thread stand-in). */
 export interface PlanWorker {

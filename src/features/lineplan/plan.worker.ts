@@ -1,7 +1,7 @@
 /// <reference lib="webworker" />
 // Module Web Worker: plans the line (both plans and the marginal values) off the main thread.
 import { planLineScenarios } from '../../core/lineplan/plan';
-import type { PlanRequest, PlanReply } from './plan-client';
+import type { PlanRequest, PlanReply } from './protocol';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
