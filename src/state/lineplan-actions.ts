@@ -2,15 +2,13 @@
  * Line-plan actions: edits of the plan's inputs and "adopt", each ONE undo step of the recipes
  * store (the plan lives there, see `lineplan.ts`).
  *
- * Adopt is written here, in one place, against the recipes store as it is: each planned recipe gets
- * the plan's lines as its next revision (revision + 1, a note saying where it came from). When
- * recipes get a lifecycle of their own (draft / approved / superseded), only `adoptPlanRevisions`
- * changes.
+ * Adopt saves each planned recipe's new lines as a draft revision through the recipes store's own
+ * `saveRevision` (the recipe lifecycle), all in one undo step.
  */
-import type { RecipeLine } from '../core/formulation/model';
+import type { RecipeLine, StockBasis } from '../core/formulation/model';
 import { useRecipesStore } from './recipes';
 import type { LinePlanInputs } from './lineplan';
-import { TEXT_RULES, firstProblem, linePlanProblems, recipeProblems, recipeWho } from './field-rules';
+import { FieldRuleError, firstProblem, linePlanProblems } from './field-rules';
 
 /** Change the plan if the result passes the field rules; returns the refusal in words, or null. */
 function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>): string | null {
@@ -33,15 +31,21 @@ export interface PlanRevision {
   recipeId: string;
   /** Mass fractions summing to 1. */
   lines: RecipeLine[];
-  /** Why, in words (appended to the recipe's notes with the new revision number). */
-  note: string;
+  /** The stock data the lines were planned with (`recordStockBasis`). */
+  stockBasis: StockBasis | null;
 }
 
-/** Each action returns null when done, or why the entry was refused (entry forms check first). */
 export const linePlanActions = {
-  /** Demand of a recipe over the period [kg]; null takes it out of the plan. */
-  setDemand: (recipeId: string, kg: number | null) =>
-    patchPlan((p) => ({ demands: kg === null ? without(p.demands, recipeId) : { ...p.demands, [recipeId]: kg } })),
+  /**
+   * Demand of a recipe over the period [kg]; null takes it out of the plan. `replaces`: ids of the
+   * recipe's earlier revisions whose demand this one takes over (their entries are dropped).
+   */
+  setDemand: (recipeId: string, kg: number | null, replaces: readonly string[] = []) =>
+    patchPlan((p) => {
+      let demands = p.demands;
+      for (const id of replaces) if (id !== recipeId) demands = without(demands, id);
+      return { demands: kg === null ? without(demands, recipeId) : { ...demands, [recipeId]: kg } };
+    }),
   /** Supply of a limited stock over the period [kg]; null → limited, supply not entered. */
   setSupply: (componentId: string, kg: number | null) => patchPlan((p) => ({ supplies: { ...p.supplies, [componentId]: kg } })),
   /** Limit a stock in this plan (it is then gone in the plan after the limited stocks). */
@@ -59,36 +63,43 @@ export const linePlanActions = {
   clear: () => patchPlan(() => ({ demands: {}, supplies: {}, keep: {}, maxStocks: null })),
 };
 
-const NOTES_MAX = TEXT_RULES.recipeNotes.max;
-
 /**
- * Save the plan's recipes as new revisions, all in one undo step: lines replaced, revision + 1,
- * the note appended to the recipe's notes (older notes are shortened from the start if the notes
- * would exceed their limit). Nothing changes unless every new revision passes the field rules.
+ * Save the plan's recipes as new revisions, all in ONE undo step. Each is a draft revision that
+ * supersedes the recipe it replaces (the recipes store's `saveRevision`: next revision number,
+ * the reason for change, the same targets and blend-sheet fields); the recipe it replaces stays as
+ * it is until the new one is approved on Recipes. The plan's demands stay with the products: a
+ * planned recipe's demand follows it to its approved successor (see `currentRecipe`).
  *
- * @returns the new revision number of each recipe, or the first refusal in words
+ * One undo step: history is paused while the revisions are saved, the state before is put back
+ * unrecorded, and the whole change is then applied as one recorded update.
+ *
+ * @returns the new recipe id of each planned recipe, or the first refusal in words (nothing saved)
  */
 export function adoptPlanRevisions(
   revisions: readonly PlanRevision[],
-  now: string = new Date().toISOString(),
-): { ok: true; revisions: Record<string, number> } | { ok: false; message: string } {
-  const byId = new Map(revisions.map((r) => [r.recipeId, r]));
-  const out: Record<string, number> = {};
-  const recipes = useRecipesStore.getState().recipes.map((r) => {
-    const rev = byId.get(r.id);
-    if (!rev) return r;
-    const revision = r.revision + 1;
-    out[r.id] = revision;
-    const add = `Revision ${revision}: ${rev.note}`;
-    let notes = r.notes.trim() ? `${r.notes.trim()}\n${add}` : add;
-    if (notes.length > NOTES_MAX) notes = `…${notes.slice(notes.length - NOTES_MAX + 1)}`;
-    return { ...r, lines: rev.lines.map((l) => ({ ...l })), revision, notes, updatedAt: now };
-  });
-  for (const r of recipes) {
-    if (!byId.has(r.id)) continue;
-    const refused = firstProblem(recipeProblems(r, recipeWho(r.name)));
-    if (refused) return { ok: false, message: refused };
+  reason: string,
+): { ok: true; ids: Record<string, string> } | { ok: false; message: string } {
+  const store = useRecipesStore;
+  const history = store.temporal.getState();
+  const before = store.getState();
+  const snapshot = { recipes: before.recipes, targets: before.targets, sheets: before.sheets };
+  const ids: Record<string, string> = {};
+  history.pause();
+  try {
+    for (const r of revisions) {
+      const id = store.getState().saveRevision(r.recipeId, { lines: r.lines, stockBasis: r.stockBasis }, reason);
+      if (id === null) throw new Error(`the recipe ${r.recipeId} is no longer saved`);
+      ids[r.recipeId] = id;
+    }
+  } catch (e) {
+    store.setState(snapshot);
+    history.resume();
+    return { ok: false, message: e instanceof FieldRuleError ? e.message : e instanceof Error ? e.message : String(e) };
   }
-  useRecipesStore.setState({ recipes });
-  return { ok: true, revisions: out };
+  const after = store.getState();
+  const change = { recipes: after.recipes, targets: after.targets, sheets: after.sheets };
+  store.setState(snapshot);
+  history.resume();
+  store.setState(change);
+  return { ok: true, ids };
 }

@@ -64,12 +64,14 @@ describe('whole-line plan', () => {
     await page.getByTestId('plan-lasting').getByRole('button', { name: 'Adopt these recipes…' }).click();
     await page.getByRole('button', { name: 'Save the new revisions' }).click();
     await expect(page.getByTestId('adopted-lasting').innerText()).resolves.toMatch(/VG 220 revision 2, VG 320 revision 2, VG 460 revision 2, VG 680 revision 2/);
-    await expect
-      .poll(async () => {
-        const rec = (await stored(page, 'recipes')) as { state: { recipes: { id: string; revision: number }[] } } | undefined;
-        return rec?.state.recipes.filter((r) => r.revision === 2).map((r) => r.id).sort();
-      })
-      .toEqual(['demo-vg220', 'demo-vg320', 'demo-vg460', 'demo-vg680']);
+    // Saved as draft revisions that supersede the recipes made now, one undo step.
+    type StoredRecipe = { id: string; revision: number; status: string; supersedes: string | null };
+    const drafts = async () =>
+      ((await stored(page, 'recipes')) as { state: { recipes: StoredRecipe[] } } | undefined)?.state.recipes.filter(
+        (r) => r.revision === 2 && r.status === 'draft',
+      ) ?? [];
+    await expect.poll(async () => (await drafts()).map((r) => r.supersedes).sort()).toEqual(['demo-vg220', 'demo-vg320', 'demo-vg460', 'demo-vg680']);
+    const vg320rev2 = (await drafts()).find((r) => r.supersedes === 'demo-vg320')!.id;
 
     // The one-page summary, printed to PDF through the shared print path and read back.
     await page.getByTestId('plan-summary').waitFor();
@@ -100,9 +102,11 @@ describe('whole-line plan', () => {
     await expect(page.getByLabel(/^Demand of “Gear oil VG 320/).inputValue()).resolves.toBe('400');
     await expect(page.getByLabel('Supply of BW-190').inputValue()).resolves.toBe('250');
     await page.goto('about:blank');
-    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
+    await page.goto(`${inject('baseURL')}#/blend-sheet/${vg320rev2}`);
     await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
-    await expect(page.locator('.blend-sheet').innerText()).resolves.toMatch(/Revision\s*2/i);
+    const sheet = await page.locator('.blend-sheet').innerText();
+    expect(sheet).toMatch(/Recipe revision\s*2/i);
+    expect(sheet).toContain('BW-280'); // the planned VG 320 (screen above) uses the Group II heavy stock
 
     expect(s.offHost).toEqual([]);
     expect(s.errors).toEqual([]);

@@ -3,6 +3,7 @@ import { interpretStored } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { adoptPlanRevisions, emptyLinePlan, linePlanActions, persistedData, resetDemo, useRecipes } from '../../src/state';
 import { makeBackupText, parseBackupText } from '../../src/state/backup';
+import { plannedGrades } from '../../src/features/lineplan/derive';
 
 beforeEach(() => {
   resetDemo();
@@ -32,9 +33,17 @@ describe('the line plan in the recipes store (schema 5)', () => {
     expect(linePlanActions.setDemand('demo-vg220', -1)).toMatch(/demand/);
     expect(linePlanActions.setMaxStocks(0)).toMatch(/number of stocks/);
     expect(useRecipes.getState().linePlan).toEqual(emptyLinePlan());
-    const bad = adoptPlanRevisions([{ recipeId: 'demo-vg220', lines: [{ componentId: 'demo-bw-280', massFraction: 0.5 }], note: 'x' }]);
+    const before = useRecipes.getState().recipes;
+    const bad = adoptPlanRevisions(
+      [
+        { recipeId: 'demo-vg220', lines: [{ componentId: 'demo-bw-280', massFraction: 1 }], stockBasis: null },
+        { recipeId: 'demo-vg320', lines: [{ componentId: 'demo-bw-280', massFraction: 0.5 }], stockBasis: null },
+      ],
+      'test',
+    );
     expect(bad.ok).toBe(false);
-    expect(useRecipes.getState().recipes.find((r) => r.id === 'demo-vg220')!.revision).toBe(1);
+    expect(useRecipes.getState().recipes).toBe(before);
+    expect(useRecipes.temporal.getState().pastStates.length).toBe(0);
   });
 
   it('each edit is one undo step and is saved', () => {
@@ -50,26 +59,38 @@ describe('the line plan in the recipes store (schema 5)', () => {
     expect(useRecipes.getState().linePlan.demands).toEqual({});
   });
 
-  it('adopts new revisions of every planned recipe in one undo step', () => {
+  it('adopts draft revisions of every planned recipe in one undo step, superseding them', () => {
     const before = useRecipes.getState().recipes;
     const lines = [
       { componentId: 'demo-bw-280', massFraction: 0.98 },
       { componentId: 'demo-bw-901', massFraction: 0.02 },
     ];
-    const revs = adoptPlanRevisions(
+    const r = adoptPlanRevisions(
       [
-        { recipeId: 'demo-vg460', lines, note: 'from the line plan.' },
-        { recipeId: 'demo-vg680', lines, note: 'from the line plan.' },
+        { recipeId: 'demo-vg460', lines, stockBasis: null },
+        { recipeId: 'demo-vg680', lines, stockBasis: null },
       ],
-      '2025-06-01T00:00:00.000Z',
+      'Whole-line plan (test).',
     );
-    expect(revs).toEqual({ ok: true, revisions: { 'demo-vg460': 2, 'demo-vg680': 2 } });
-    const r460 = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg460')!;
-    expect(r460.lines).toEqual(lines);
-    expect(r460.notes).toContain('Revision 2: from the line plan.');
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    const rev = useRecipes.getState().recipes.find((x) => x.id === r.ids['demo-vg460'])!;
+    expect(rev).toMatchObject({ lines, revision: 2, status: 'draft', supersedes: 'demo-vg460', reasonForChange: 'Whole-line plan (test).' });
+    expect(useRecipes.getState().recipes.find((x) => x.id === 'demo-vg460')!.status).toBe('approved'); // until the draft is approved
     expect(useRecipes.temporal.getState().pastStates.length).toBe(1);
     useRecipes.temporal.getState().undo();
     expect(useRecipes.getState().recipes).toEqual(before);
+  });
+
+  it('a demand follows its recipe to the approved revision that supersedes it', () => {
+    linePlanActions.setDemand('demo-vg460', 250_000);
+    const r = adoptPlanRevisions([{ recipeId: 'demo-vg460', lines: [{ componentId: 'demo-bw-280', massFraction: 0.98 }, { componentId: 'demo-bw-901', massFraction: 0.02 }], stockBasis: null }], 'x');
+    if (!r.ok) throw new Error(r.message);
+    const recipes = () => useRecipes.getState().recipes;
+    expect(plannedGrades(recipes(), useRecipes.getState().linePlan).map((g) => g.recipe.id)).toEqual(['demo-vg460']); // draft: not yet
+    useRecipes.getState().approveRecipe(r.ids['demo-vg460']!);
+    const planned = plannedGrades(recipes(), useRecipes.getState().linePlan);
+    expect(planned.map((g) => [g.recipe.id, g.demandKg])).toEqual([[r.ids['demo-vg460'], 250_000]]);
   });
 
   it('travels in the backup file and back', () => {

@@ -5,6 +5,7 @@ import type { AllocationPanelProps } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { adoptPlanRevisions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { derivePlan } from './derive';
 import { PlanInputs } from './PlanInputs';
 import { PLAN_TITLE, PlanResults } from './PlanResults';
@@ -70,11 +71,15 @@ export default function LinePlanScreen() {
       which === 'lasting'
         ? `while the limited stocks last (${limitedText(st.limited, st.supplyKg, code, fmt)})`
         : `after ${st.limited.map(code).join(', ') || 'the limited stocks'} are gone`;
-    const note =
-      `adopted ${today} from the whole-line plan ${overPeriod(linePlan.period)}, the plan ${what}. ` +
+    const reason =
+      `Whole-line plan ${overPeriod(linePlan.period)} (${today}): the plan ${what}, least total cost for the line. ` +
       'Predicted, not yet confirmed in the laboratory.';
-    const r = adoptPlanRevisions(plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, note })));
-    if (r.ok) screenActions.adopted(which, r.revisions);
+    const stamp = new Date().toISOString();
+    const r = adoptPlanRevisions(
+      plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, stockBasis: recordStockBasis(components, g.lines, stamp) })),
+      reason,
+    );
+    if (r.ok) screenActions.adopted(which, r.ids);
     else screenActions.failed(`The recipes were not saved: ${r.message}`);
   };
 
@@ -149,6 +154,7 @@ export default function LinePlanScreen() {
         <>
           <PlanResults
             result={st.result}
+            recipes={recipes}
             run={st.runs}
             AllocationPanel={AllocationPanel}
             components={components}

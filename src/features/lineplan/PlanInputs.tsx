@@ -6,7 +6,7 @@ import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { linePlanActions, type LinePlanInputs } from '../../state';
 import { NUMBER_RULES, TEXT_RULES, checkText } from '../../state/field-rules';
-import { limitedStocks } from './derive';
+import { limitedStocks, plannedDemands } from './derive';
 
 /** kg per unit the user types in. */
 const PER_UNIT = { kg: 1, t: 1000 } as const;
@@ -52,17 +52,20 @@ export function PlanInputs({
   const [toLimit, setToLimit] = useState('');
   const [toKeep, setToKeep] = useState('');
 
-  const sorted = [...recipes].sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
-  const shown = showAll ? sorted : sorted.filter((r) => r.isReference || r.id in plan.demands);
+  // Recipes that can take part: not replaced by an approved revision, not archived. By default the
+  // approved ones and those with a demand; drafts on request.
+  const demands = plannedDemands(recipes, plan);
+  const sorted = recipes
+    .filter((r) => r.status !== 'superseded' && !r.archived)
+    .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
+  const shown = showAll ? sorted : sorted.filter((r) => r.status === 'approved' || demands.has(r.id));
   const hidden = sorted.length - shown.length;
   const limited = limitedStocks(components, plan);
   const limitable = components.filter((c) => c.availability !== 'withdrawn' && !limited.includes(c));
   const keepIds = Object.keys(plan.keep).filter((id) => components.some((c) => c.id === id));
   const keepable = components.filter((c) => c.availability !== 'withdrawn' && !(c.id in plan.keep));
   const byId = new Map(components.map((c) => [c.id, c]));
-  const plannedTotal = Object.entries(plan.demands)
-    .filter(([id]) => recipes.some((r) => r.id === id))
-    .reduce((s, [, kg]) => s + kg, 0);
+  const plannedTotal = [...demands.values()].reduce((s, d) => s + d.kg, 0);
 
   return (
     <div className="lp-inputs">
@@ -105,8 +108,8 @@ export function PlanInputs({
                 <tr key={r.id}>
                   <td>VG {r.grade}</td>
                   <th scope="row">
-                    {r.name}
-                    {r.isReference ? <span className="tag"> current</span> : null}
+                    {r.name} <span className="small muted">rev. {r.revision}</span>
+                    {r.status === 'draft' ? <span className="tag"> draft</span> : null}
                   </th>
                   <td className="num">
                     <NumberField
@@ -114,9 +117,9 @@ export function PlanInputs({
                       hideLabel
                       allowEmpty
                       size={9}
-                      value={toShown(plan.demands[r.id])}
+                      value={toShown(demands.get(r.id)?.kg)}
                       validate={(v) => quantityVerdict('demandKg', unit, `Demand of ${r.name}`, v, ' (leave it empty to keep the recipe out of the plan)')}
-                      onCommit={(v) => linePlanActions.setDemand(r.id, v === null ? null : toKg(v))}
+                      onCommit={(v) => linePlanActions.setDemand(r.id, v === null ? null : toKg(v), demands.get(r.id)?.keys)}
                       disabled={disabled}
                     />
                   </td>
@@ -137,7 +140,7 @@ export function PlanInputs({
         </div>
         {(hidden > 0 || showAll) && (
           <button type="button" className="link-button" onClick={() => setShowAll(!showAll)}>
-            {showAll ? 'Show only current and planned recipes' : `Show every recipe (${hidden} more)`}
+            {showAll ? 'Show only approved and planned recipes' : `Show drafts too (${hidden} more)`}
           </button>
         )}
       </section>

@@ -1,7 +1,7 @@
 // The two plans side by side, the cost of the withdrawal, the marginal value of each limited stock,
 // where each limited stock goes, and adopting a plan's recipes as new revisions.
 import type { ComponentType } from 'react';
-import type { Component } from '../../core/formulation/model';
+import type { Component, Recipe } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { Notice } from '../../components/notices';
 import { useFormat, type Formatter } from '../../components/format';
@@ -19,6 +19,8 @@ export interface ResultsProps {
   result: LinePlanScenarios;
   /** Which run this is (data-run on the result). */
   run: number;
+  /** The saved recipes (to name the revisions an adoption made). */
+  recipes: readonly Recipe[];
   components: readonly Component[];
   limited: readonly string[];
   period: string;
@@ -28,7 +30,7 @@ export interface ResultsProps {
   supplyKg: Readonly<Record<string, number>>;
   stale: boolean;
   confirming: PlanWhich | null;
-  adopted: { which: PlanWhich; revisions: Record<string, number> } | null;
+  adopted: { which: PlanWhich; ids: Record<string, string> } | null;
   onConfirm: (which: PlanWhich | null) => void;
   onAdopt: (which: PlanWhich) => void;
   onUndoAdopt: () => void;
@@ -69,7 +71,8 @@ export function PlanResults(props: ResultsProps) {
             lastingText={limitedText(props.limited, props.supplyKg, code, fmt)}
             stale={props.stale}
             confirming={props.confirming === which}
-            adopted={props.adopted?.which === which ? props.adopted.revisions : null}
+            adopted={props.adopted?.which === which ? props.adopted.ids : null}
+            recipes={props.recipes}
             onConfirm={props.onConfirm}
             onAdopt={props.onAdopt}
             onUndoAdopt={props.onUndoAdopt}
@@ -157,6 +160,7 @@ function PlanColumn({
   stale,
   confirming,
   adopted,
+  recipes,
   onConfirm,
   onAdopt,
   onUndoAdopt,
@@ -172,7 +176,8 @@ function PlanColumn({
   lastingText: string;
   stale: boolean;
   confirming: boolean;
-  adopted: Record<string, number> | null;
+  adopted: Record<string, string> | null;
+  recipes: readonly Recipe[];
   onConfirm: (which: PlanWhich | null) => void;
   onAdopt: (which: PlanWhich) => void;
   onUndoAdopt: () => void;
@@ -206,6 +211,7 @@ function PlanColumn({
           stale={stale}
           confirming={confirming}
           adopted={adopted}
+          recipes={recipes}
           onConfirm={onConfirm}
           onAdopt={onAdopt}
           onUndoAdopt={onUndoAdopt}
@@ -224,6 +230,7 @@ function PlanBody({
   stale,
   confirming,
   adopted,
+  recipes,
   onConfirm,
   onAdopt,
   onUndoAdopt,
@@ -236,7 +243,8 @@ function PlanBody({
   period: string;
   stale: boolean;
   confirming: boolean;
-  adopted: Record<string, number> | null;
+  adopted: Record<string, string> | null;
+  recipes: readonly Recipe[];
   onConfirm: (which: PlanWhich | null) => void;
   onAdopt: (which: PlanWhich) => void;
   onUndoAdopt: () => void;
@@ -309,7 +317,7 @@ function PlanBody({
         {adopted ? (
           <Notice
             tone="success"
-            title="Saved as new revisions"
+            title="Saved as draft revisions"
             actions={
               <button type="button" onClick={onUndoAdopt}>
                 Undo
@@ -317,15 +325,18 @@ function PlanBody({
             }
           >
             <span data-testid={`adopted-${which}`}>
-              {plan.grades.map((g) => `${g.label} revision ${adopted[g.id] ?? '?'}`).join(', ')}. The blend sheets now print these recipes:{' '}
-              <a href="#/blend-sheet">open the blend sheet</a>.
+              {plan.grades
+                .map((g) => `${g.label} revision ${recipes.find((r) => r.id === adopted[g.id])?.revision ?? '?'}`)
+                .join(', ')}
+              . Each supersedes the recipe it replaces once approved on <a href="#/recipes">Recipes</a>, after laboratory confirmation; their{' '}
+              <a href={`#/blend-sheet/${encodeURIComponent(adopted[plan.grades[0]!.id] ?? '')}`}>blend sheets</a> print them, held until then.
             </span>
           </Notice>
         ) : confirming ? (
           <div className="lp-confirm" role="group" aria-label="Confirm adoption">
             <p>
-              Save these {plan.grades.length} recipes as new revisions of {plan.grades.map((g) => g.label).join(', ')}? The current recipes stay in the
-              undo history. Predicted properties still need laboratory confirmation before release.
+              Save these {plan.grades.length} recipes as new draft revisions of {plan.grades.map((g) => g.label).join(', ')}? The recipes made now
+              stay approved until the new revisions are approved on Recipes. Predicted properties need laboratory confirmation before release.
             </p>
             <div className="button-row">
               <button type="button" className="primary" onClick={() => onAdopt(which)}>

@@ -36,17 +36,50 @@ export function limitedStocks(components: readonly Component[], plan: LinePlanIn
   return components.filter((c) => c.availability !== 'withdrawn' && (c.availability === 'limited' || c.id in plan.supplies));
 }
 
+/**
+ * The recipe the plant makes now in the line of revisions that `id` belongs to: `id` itself, or its
+ * newest approved successor (an approved revision that supersedes it, and so on). A draft revision
+ * does not replace the recipe it supersedes until it is approved; null when `id` is not saved.
+ */
+export function currentRecipe(recipes: readonly Recipe[], id: string): Recipe | null {
+  let r = recipes.find((x) => x.id === id) ?? null;
+  for (let guard = 0; r && guard < 1000; guard++) {
+    const cur: Recipe = r;
+    const next = recipes.filter((x) => x.supersedes === cur.id && x.status === 'approved').sort((a, b) => b.revision - a.revision)[0];
+    if (!next) break;
+    r = next;
+  }
+  return r;
+}
+
+/** Demands by the recipe they now apply to (see `currentRecipe`), with the ids they are saved under. */
+export function plannedDemands(recipes: readonly Recipe[], plan: LinePlanInputs): Map<string, { kg: number; keys: string[] }> {
+  const out = new Map<string, { kg: number; keys: string[] }>();
+  for (const [id, kg] of Object.entries(plan.demands)) {
+    const r = currentRecipe(recipes, id);
+    if (!r || r.archived) continue;
+    const e = out.get(r.id);
+    // The entry saved under the recipe itself wins over one carried from an earlier revision.
+    if (e) {
+      e.keys.push(id);
+      if (id === r.id) e.kg = kg;
+    } else out.set(r.id, { kg, keys: [id] });
+  }
+  return out;
+}
+
 /** The planned recipes (a demand above 0, recipe still saved), by grade then name. */
 export function plannedGrades(recipes: readonly Recipe[], plan: LinePlanInputs): PlanGrade[] {
+  const demands = plannedDemands(recipes, plan);
   const planned = recipes
-    .filter((r) => (plan.demands[r.id] ?? 0) > 0)
+    .filter((r) => (demands.get(r.id)?.kg ?? 0) > 0)
     .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
   const perGrade = new Map<number, number>();
   for (const r of planned) perGrade.set(r.grade, (perGrade.get(r.grade) ?? 0) + 1);
   return planned.map((recipe) => ({
     recipe,
     label: perGrade.get(recipe.grade)! > 1 ? `VG ${recipe.grade} · ${recipe.name}` : `VG ${recipe.grade}`,
-    demandKg: plan.demands[recipe.id]!,
+    demandKg: demands.get(recipe.id)!.kg,
   }));
 }
 

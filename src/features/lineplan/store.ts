@@ -32,8 +32,8 @@ interface LinePlanScreenState {
   runs: number;
   /** The plan whose adoption is being confirmed. */
   confirming: PlanWhich | null;
-  /** The last adoption: which plan and the new revision of each recipe. */
-  adopted: { which: PlanWhich; revisions: Record<string, number> } | null;
+  /** The last adoption: which plan and the id of each planned recipe's new draft revision. */
+  adopted: { which: PlanWhich; ids: Record<string, string> } | null;
   summaryOf: PlanWhich;
   paper: 'a4' | 'letter';
 }
@@ -62,7 +62,7 @@ export const screenActions = {
   failed: (error: string) => useLinePlanScreen.setState({ status: 'error', error }),
   cancelled: () => useLinePlanScreen.setState((s) => ({ status: s.result ? 'done' : 'idle' })),
   confirm: (which: PlanWhich | null) => useLinePlanScreen.setState({ confirming: which }),
-  adopted: (which: PlanWhich, revisions: Record<string, number>) => useLinePlanScreen.setState({ adopted: { which, revisions }, confirming: null }),
+  adopted: (which: PlanWhich, ids: Record<string, string>) => useLinePlanScreen.setState({ adopted: { which, ids }, confirming: null }),
   /** The adoption was undone. */
   unadopted: () => useLinePlanScreen.setState({ adopted: null }),
   summaryOf: (summaryOf: PlanWhich) => useLinePlanScreen.setState({ summaryOf }),

@@ -84,17 +84,19 @@ describe('Whole-line plan screen', () => {
     expect(screen.getByTestId('plan-summary').textContent).toMatch(/laboratory confirmation/);
   });
 
-  it('adopts the plan’s recipes as new revisions in one undo step, and undoes them', async () => {
+  it('adopts the plan’s recipes as draft revisions in one undo step, and undoes them', async () => {
     await planDemo();
     const before = useRecipes.getState().recipes;
     const lasting = screen.getByTestId('plan-lasting');
     fireEvent.click(within(lasting).getByText('Adopt these recipes…'));
     fireEvent.click(within(lasting).getByText('Save the new revisions'));
     const after = useRecipes.getState().recipes;
+    expect(after.length).toBe(before.length + 4);
     for (const id of ['demo-vg220', 'demo-vg320', 'demo-vg460', 'demo-vg680']) {
-      expect(after.find((r) => r.id === id)!.revision).toBe(2);
+      expect(after.find((r) => r.supersedes === id)).toMatchObject({ revision: 2, status: 'draft' });
     }
     expect(screen.getByTestId('adopted-lasting').textContent).toContain('VG 320 revision 2');
+    expect(useRecipes.temporal.getState().pastStates.length).toBeGreaterThan(0);
     act(() => {
       fireEvent.click(within(lasting).getByText('Undo'));
     });
@@ -107,7 +109,8 @@ describe('Whole-line plan screen', () => {
     enter('Supply of BW-190', '0');
     // A minimum VI of 200 is beyond every demo stock at VG 680 (PAO 100 has VI ≈ 170; typicals from memory).
     act(() => {
-      useRecipes.getState().setTargets('demo-vg680', { ...useRecipes.getState().targets['demo-vg680']!, minVi: 200 });
+      // (test set-up straight into the store: an approved recipe's saved targets are never edited in place)
+      useRecipes.setState((st) => ({ targets: { ...st.targets, 'demo-vg680': { ...st.targets['demo-vg680']!, minVi: 200 } } }));
     });
     fireEvent.click(screen.getByText('Plan the line'));
     await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
