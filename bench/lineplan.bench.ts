@@ -50,6 +50,7 @@ export function benchLinePlan(maxStocks: number | null): LinePlanInput {
     bounds: {},
     objective: 'cost',
     referenceRecipeId: null,
+    minInBandProbability: null,
   });
   // The two cheapest heavy stocks (ν40 above 300 mm²/s) on a short supply.
   const heavy = components

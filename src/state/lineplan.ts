@@ -1,7 +1,7 @@
 /**
  * The line plan as stored: the user's inputs only (demands, supplies, stocks that must stay in use,
  * the tank limit); the plans themselves are derived by the core (`core/lineplan`). Kept inside the
- * recipes store (schema 5), so it is saved with the recipes, undone with them and included in
+ * recipes store (schema 6), so it is saved with the recipes, undone with them and included in
  * backups. No store import here: `recipes.ts` imports this module.
  */
 
@@ -24,7 +24,7 @@ export interface LinePlanInputs {
   maxStocks: number | null;
 }
 
-/** A plan with nothing in it (first start, and data saved before schema 5). */
+/** A plan with nothing in it (first start, and data saved before schema 6). */
 export function emptyLinePlan(): LinePlanInputs {
   return { period: '', demandUnit: 't', demands: {}, supplies: {}, keep: {}, maxStocks: null };
 }

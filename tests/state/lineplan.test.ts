@@ -10,22 +10,22 @@ beforeEach(() => {
   useRecipes.temporal.getState().clear();
 });
 
-describe('the line plan in the recipes store (schema 5)', () => {
-  it('upgrades a schema-4 record with an empty plan and refuses impossible stored values by field', () => {
-    const { linePlan: _p, ...v4 } = demoRecipesData();
-    const up = interpretStored(RECIPES_SPEC, { state: v4, version: 4 });
+describe('the line plan in the recipes store (schema 6)', () => {
+  it('upgrades a schema-5 record with an empty plan and refuses impossible stored values by field', () => {
+    const { linePlan: _p, ...v5 } = demoRecipesData();
+    const up = interpretStored(RECIPES_SPEC, { state: v5, version: 5 });
     expect(up.kind).toBe('ok');
     if (up.kind === 'ok') {
-      expect(up.migratedFrom).toBe(4);
+      expect(up.migratedFrom).toBe(5);
       expect(up.data.linePlan).toEqual(emptyLinePlan());
     }
     const plan = { ...emptyLinePlan(), demands: { 'demo-vg320': 400_000 }, supplies: { 'demo-bw-190': 250_000, 'demo-bw-160': null }, maxStocks: 6 };
-    const cur = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: plan }, version: 5 });
+    const cur = interpretStored(RECIPES_SPEC, { state: { ...v5, linePlan: plan }, version: 6 });
     expect(cur.kind === 'ok' && cur.data.linePlan).toEqual(plan);
-    const bad = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: { ...plan, demands: { 'demo-vg320': -5 } } }, version: 5 });
+    const bad = interpretStored(RECIPES_SPEC, { state: { ...v5, linePlan: { ...plan, demands: { 'demo-vg320': -5 } } }, version: 6 });
     expect(bad.kind).toBe('problem');
     if (bad.kind === 'problem') expect(bad.problem.message).toContain('demand');
-    const half = interpretStored(RECIPES_SPEC, { state: { ...v4, linePlan: { ...plan, maxStocks: 2.5 } }, version: 5 });
+    const half = interpretStored(RECIPES_SPEC, { state: { ...v5, linePlan: { ...plan, maxStocks: 2.5 } }, version: 6 });
     expect(half.kind).toBe('problem');
   });
 

@@ -9,6 +9,10 @@
  * recipe it returns is recomputed by the core (`predictBlend`), checked against its grade's
  * constraints (`checkConstraints`, the tolerances of `solveBlend`), and the supplies and the tank
  * limit are checked on the recomputed use.
+ *
+ * A grade's minimum probability in band (lot spread, `qc/robust.ts`) is not a condition of the line
+ * plan: the grade is planned to its band, and the planned recipe's probability is reported beside
+ * the minimum it asks for (`inBand`), so the formulator can make it robust in the designer.
  */
 import type { BlendTargets, Component, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
@@ -18,6 +22,7 @@ import { predictBlend, type BlendProperties } from '../formulation/blend-propert
 import { checkConstraints, prepareComponents, type ConstraintCheck, type PreparedBlend } from '../solver/solve-blend';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
 import { diagnoseLinePlan, type PlanDiagnosis } from './diagnose';
+import { recipeInBand } from '../qc/recipe-spread';
 
 /** One grade of the line: a recipe taking part, with its targets and its demand. */
 export interface LinePlanGradeInput {
@@ -73,6 +78,11 @@ export interface LinePlanGradeResult extends LinePlanCost {
   checks: ConstraintCheck[];
   /** The current recipe, costed at today's prices; null when there is none or it cannot be predicted. */
   current: (LinePlanCost & { properties: BlendProperties }) | null;
+  /**
+   * Where the grade asks for a minimum probability in band (not applied by the plan): that minimum
+   * and the planned recipe's probability of landing in the band under the stocks' lot spread.
+   */
+  inBand: { minimum: number; probability: number } | null;
 }
 
 /** Use of one stock over the period. */
@@ -175,7 +185,9 @@ export function prepareLinePlan(input: LinePlanInput): PreparedLinePlan {
     }
     demandKg.push(g.demandKg);
     try {
-      prepared.push(prepareComponents(components, { ...g.targets, objective: 'cost' }, input.method ?? 'refutas'));
+      // The plan minimises the line's cost (not each grade's own objective) and plans each grade to
+      // its band (a minimum probability in band is reported, not applied: see the module notes).
+      prepared.push(prepareComponents(components, { ...g.targets, objective: 'cost', minInBandProbability: null }, input.method ?? 'refutas'));
     } catch (e) {
       if (e instanceof BlendbenchInputError) {
         const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
@@ -332,7 +344,12 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     }
     if (current && currentTotal !== null) currentTotal += current.cost;
     else currentTotal = null;
-    return { id: g.id, label: g.label, demandKg: g.demandKg, lines, properties, checks, ...cost, current };
+    const pMin = g.targets.minInBandProbability ?? null;
+    const inBand =
+      pMin !== null && pMin > 0
+        ? { minimum: pMin, probability: recipeInBand(components, lines, g.targets.grade, prepared[k]!.band, prepared[k]!.method).plant.probability }
+        : null;
+    return { id: g.id, label: g.label, demandKg: g.demandKg, lines, properties, checks, ...cost, current, inBand };
   });
 
   // Supplies, least uses and the tank limit, on the recomputed use.

@@ -298,6 +298,15 @@ function PlanBody({
           </tbody>
         </table>
       </div>
+      {plan.grades
+        .filter((g) => g.inBand && g.inBand.probability < g.inBand.minimum)
+        .map((g) => (
+          <p key={g.id} className="small text-warning">
+            {g.label} asks for {fmt.pct(g.inBand!.minimum, 1)} of batches in band; the planned recipe lands in band with{' '}
+            {fmt.pct(g.inBand!.probability, 1)} under the stocks’ lot spread. The line plan plans each grade to its band only: make this one robust
+            in the recipe designer.
+          </p>
+        ))}
       <p className="small">
         <strong>The line needs {plan.stocksUsed.length} stocks:</strong> {plan.stocksUsed.map(code).join(', ')}.
         {plan.stocksNoLongerNeeded.length > 0 && (
