@@ -113,6 +113,20 @@ describe('planLine on the invented demo plant', () => {
   });
 });
 
+describe('planLine and a minimum probability in band', () => {
+  it('plans the grade to its band and reports the planned recipe’s probability beside the minimum', () => {
+    const input = demoInput({ supplyKg: { [BS]: 250_000 } });
+    const grades = input.grades.map((g) => (g.label === 'VG 320' ? { ...g, targets: { ...g.targets, minInBandProbability: 0.99 } } : g));
+    const r = ok(planLine({ ...input, grades }));
+    const vg320 = r.grades.find((g) => g.label === 'VG 320')!;
+    expect(vg320.inBand?.minimum).toBe(0.99);
+    expect(vg320.inBand!.probability).toBeGreaterThanOrEqual(0);
+    expect(vg320.inBand!.probability).toBeLessThanOrEqual(1);
+    expect(r.grades.filter((g) => g.label !== 'VG 320').every((g) => g.inBand === null)).toBe(true);
+    expect(vg320.checks.filter((c) => !c.ok)).toEqual([]);
+  });
+});
+
 describe('planLine — infeasible plans in words, and bad input', () => {
   it('names the grade that cannot be made', () => {
     const input = demoInput();
