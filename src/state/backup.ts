@@ -86,9 +86,20 @@ export function parseBackupText(text: string): BackupParse {
   const lib = interpretStored(LIBRARY_SPEC, { state: s.library.data, version: s.library.version });
   const rec = interpretStored(RECIPES_SPEC, { state: s.recipes.data, version: s.recipes.version });
   const set = interpretStored(SETTINGS_SPEC, { state: s.settings.data, version: s.settings.version });
-  for (const r of [lib, rec, set]) {
-    if (r.kind === 'problem') errors.push(r.problem.message.replace('The saved', 'The backup’s'));
-    if (r.kind === 'empty') errors.push('A section of the backup is empty.');
+  const sections = [
+    ['library', lib],
+    ['recipes', rec],
+    ['settings', set],
+  ] as const;
+  for (const [name, r] of sections) {
+    if (r.kind === 'empty') errors.push(`The backup’s ${name} section is empty.`);
+    if (r.kind !== 'problem') continue;
+    // Every refused field on its own line, naming the record and the field (the same rules as entry).
+    if (r.issues?.length) {
+      const total = r.issues.length;
+      errors.push(`The backup’s ${name} section has ${total === 200 ? 'at least 200' : total} refused value${total > 1 ? 's' : ''}:`);
+      errors.push(...r.issues);
+    } else errors.push(r.problem.message.replace('The saved', 'The backup’s'));
   }
   if (lib.kind !== 'ok' || rec.kind !== 'ok' || set.kind !== 'ok') return { ok: false, errors };
   // Cross-checks: unique codes and ids; every recipe line names a component in the backup.

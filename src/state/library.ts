@@ -6,7 +6,10 @@ import type { Availability, Component } from '../core/formulation/model';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { libraryDataSchema } from './schemas';
 import { demoComponents } from './demo';
-import { newId, today } from './ids';
+import { newId } from './ids';
+import { blankComponent, freeCode } from './stock-defaults';
+
+export { blankComponent, freeCode } from './stock-defaults';
 import { FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
 
 /** Throws FieldRuleError when a library of `count` stocks would exceed COLLECTION_LIMITS.stocks. */
@@ -75,46 +78,6 @@ export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   },
 };
 
-/** A blank component with safe placeholder values (a Group II medium neutral-like stock). */
-export function blankComponent(init: Partial<Omit<Component, 'id'>> = {}): Component {
-  return {
-    id: newId('c'),
-    code: '',
-    name: '',
-    category: 'group-ii',
-    viscosityPoints: [
-      { tempC: 40, kv: 40 },
-      { tempC: 100, kv: 6.3 },
-    ],
-    density15: 0.86,
-    anilinePoint: null,
-    pourPoint: null,
-    flashPoint: null,
-    sulfurPct: null,
-    saturatesPct: null,
-    price: { amount: 0, basis: 'per-kg', currency: 'EUR' },
-    availability: 'available',
-    oxidationRating: null,
-    shearLossPct: null,
-    kv40LotSpreadPct: null,
-    calibration: null,
-    source: '',
-    sourceDate: today(),
-    notes: '',
-    ...init,
-  };
-}
-
-/** The first code of the form `<base>`, `<base>-2`, `<base>-3` … not used in `components`. */
-export function freeCode(components: readonly Component[], base: string): string {
-  const used = new Set(components.map((c) => c.code.trim().toLowerCase()));
-  if (base && !used.has(base.toLowerCase())) return base;
-  for (let i = 2; ; i++) {
-    const code = `${base || 'NEW'}-${i}`;
-    if (!used.has(code.toLowerCase())) return code;
-  }
-}
-
 export const useLibraryStore = create<LibraryState>()(
   persist(
     temporal(
@@ -155,13 +118,20 @@ export const useLibraryStore = create<LibraryState>()(
         removeComponent: (id) => set((s) => ({ components: s.components.filter((c) => c.id !== id) })),
         upsertByCode: (incoming) =>
           set((s) => {
-            const byCode = new Map(s.components.map((c) => [c.code.trim().toLowerCase(), c]));
+            // One pass with an index by code (a whole library of 20,000 rows is imported at once).
+            const at = new Map<string, number>();
+            s.components.forEach((c, i) => {
+              const k = c.code.trim().toLowerCase();
+              if (!at.has(k)) at.set(k, i);
+            });
             const next = [...s.components];
             for (const inc of incoming) {
-              const existing = byCode.get(inc.code.trim().toLowerCase());
-              if (existing) {
-                next[next.indexOf(existing)] = { ...inc, id: existing.id };
+              const k = inc.code.trim().toLowerCase();
+              const i = at.get(k);
+              if (i !== undefined) {
+                next[i] = { ...inc, id: next[i]!.id };
               } else {
+                at.set(k, next.length);
                 next.push(inc);
               }
             }

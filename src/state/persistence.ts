@@ -16,7 +16,7 @@ import { createStore as createIdbStore, get as idbGet, set as idbSet, type UseSt
 import { create } from 'zustand';
 import type { PersistStorage, StorageValue } from 'zustand/middleware';
 import type { z } from 'zod';
-import { describeStoredIssues } from './schemas';
+import { describeStoredIssues, storedIssueLines } from './schemas';
 
 export type StoreKey = 'library' | 'recipes' | 'settings';
 export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings'];
@@ -125,7 +125,8 @@ export interface StoreSpec<D> {
 export type LoadResult<D> =
   | { kind: 'empty' }
   | { kind: 'ok'; data: D; migratedFrom: number | null }
-  | { kind: 'problem'; problem: Omit<StorageProblem, 'keptAs'> };
+  /** `issues`: every refused field, one line each naming the record and the field (integrity check). */
+  | { kind: 'problem'; problem: Omit<StorageProblem, 'keptAs'>; issues?: string[] };
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
@@ -172,6 +173,7 @@ export function interpretStored<D>(spec: StoreSpec<D>, raw: unknown): LoadResult
     return {
       kind: 'problem',
       problem: { kind: 'corrupt', message: `The saved ${what} failed its integrity check: ${describeStoredIssues(parsed.error, data)}.` },
+      issues: storedIssueLines(parsed.error, data),
     };
   }
   return { kind: 'ok', data: parsed.data, migratedFrom: storedVersion < spec.version ? storedVersion : null };

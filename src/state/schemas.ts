@@ -268,9 +268,16 @@ function recordOf(data: unknown, path: readonly PropertyKey[]): { who: string; r
  * (entry 2): the shares add up to 300 %, not 100 %". At most `max` issues, then "… and n more".
  */
 export function describeStoredIssues(error: z.ZodError, data: unknown, max = 12): string {
+  const parts = storedIssueLines(error, data, max);
+  if (error.issues.length > max) parts.push(`… and ${error.issues.length - max} more`);
+  return parts.join('; ');
+}
+
+/** The refused fields of stored or imported data, one line each (at most `max`), as in describeStoredIssues. */
+export function storedIssueLines(error: z.ZodError, data: unknown, max = 200): string[] {
   const cap = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
   const low = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
-  const parts = error.issues.slice(0, max).map((i) => {
+  return error.issues.slice(0, max).map((i) => {
     const { who, rest } = recordOf(data, i.path);
     // Messages from the field rules name the field themselves ("The density at 15 °C …").
     const named = i.code === 'custom';
@@ -279,6 +286,4 @@ export function describeStoredIssues(error: z.ZodError, data: unknown, max = 12)
     if (named) return `${cap(who)}: ${low(i.message)}`;
     return `${cap(who)}${field ? `, ${field}` : ''}: ${low(i.message)}`;
   });
-  if (error.issues.length > max) parts.push(`… and ${error.issues.length - max} more`);
-  return parts.join('; ');
 }

@@ -73,11 +73,13 @@ describe('CSV import preview', () => {
     expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5); // no calculation: '45,5' read with a decimal comma
   });
 
-  it('round-trips the demo library through CSV (as updates of the same stocks)', () => {
+  it('round-trips the demo library through CSV (every row matches its stock and changes nothing)', () => {
     const p = previewCsv(libraryToCsv(lib), lib);
     expect(p.fileErrors).toEqual([]);
     expect(p.rows.filter((r) => r.errors.length)).toEqual([]);
-    expect(p.updates).toBe(lib.length);
+    expect(p.unchanged).toBe(lib.length);
+    expect(p.updates).toBe(0);
+    expect(p.rows.every((r) => r.action === 'unchanged' && r.changes.length === 0)).toBe(true);
     for (const r of p.rows) {
       const orig = lib.find((c) => c.id === r.component!.id)!;
       expect(r.component).toEqual(orig);
@@ -92,12 +94,74 @@ describe('CSV import preview', () => {
   });
 });
 
+describe('CSV update semantics (issue 10 item 3)', () => {
+  const REQUIRED_ONLY = 'code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price';
+
+  it('an update with only the required columns keeps every stored value whose column is absent', () => {
+    const lib = demoComponents();
+    const bs = lib.find((c) => c.code === 'BW-190')!;
+    // A withdrawn stock priced per tonne, with aniline, pour and flash points, source and notes (invented data).
+    const stored = { ...bs, availability: 'withdrawn' as const, price: { amount: 1150, basis: 'per-tonne' as const, currency: 'EUR' }, notes: 'keep me', source: 'lab report 7' };
+    const others = lib.map((c) => (c.id === bs.id ? stored : c));
+    const at = (t: number) => stored.viscosityPoints.find((p) => p.tempC === t)!.kv;
+    const p = previewCsv(`${REQUIRED_ONLY}\nBW-190,group-i,${at(40)},${at(100)},${stored.density15},1200\n`, others);
+    expect(p.valid).toBe(true);
+    const row = p.rows[0]!;
+    expect(row.action).toBe('update');
+    const c = row.component!;
+    expect(c.name).toBe(stored.name);
+    expect(c.anilinePoint).toBe(stored.anilinePoint);
+    expect(c.pourPoint).toBe(stored.pourPoint);
+    expect(c.flashPoint).toBe(stored.flashPoint);
+    expect(c.source).toBe('lab report 7');
+    expect(c.notes).toBe('keep me');
+    expect(c.availability).toBe('withdrawn');
+    expect(c.price).toEqual({ amount: 1200, basis: 'per-tonne', currency: 'EUR' });
+    // The preview lists exactly the one field that changes, stored → imported.
+    expect(row.changes).toEqual([{ field: 'price', from: '1150', to: '1200' }]);
+  });
+
+  it('the preview names every changed field, old → new, and shows unchanged rows as such', () => {
+    const lib = demoComponents();
+    const withAniline = lib.filter((c) => c.anilinePoint !== null && c.availability === 'available');
+    const a = withAniline[0]!;
+    const b = withAniline[1]!;
+    const kv = (c: typeof a, t: number) => c.viscosityPoints.find((p) => p.tempC === t)!.kv;
+    const line = (c: typeof a, extra: string) => `${c.code},${c.category},${kv(c, 40)},${kv(c, 100)},${c.density15},${c.price.amount}${extra}`;
+    const p = previewCsv(
+      [`${REQUIRED_ONLY},name,availability,aniline_point_c`, line(a, `,New name,limited,`), line(b, `,"${b.name.replace(/"/g, '""')}",${b.availability},${b.anilinePoint ?? ''}`)].join('\n'),
+      lib,
+    );
+    expect(p.valid).toBe(true);
+    const [ra, rb] = p.rows;
+    expect(ra!.action).toBe('update');
+    expect(ra!.changes).toEqual([
+      { field: 'name', from: a.name, to: 'New name' },
+      { field: 'aniline point [°C]', from: String(a.anilinePoint), to: '(blank)' },
+      { field: 'availability', from: a.availability, to: 'limited' },
+    ]);
+    expect(rb!.action).toBe('unchanged');
+    expect(rb!.changes).toEqual([]);
+    expect(p.updates).toBe(1);
+    expect(p.unchanged).toBe(1);
+  });
+
+  it('a new stock without optional columns takes the defaults (available, per kg)', () => {
+    const p = previewCsv(`${REQUIRED_ONLY}\nNEW-9,group-ii,45,6.6,0.862,1.1\n`, demoComponents());
+    const c = p.rows[0]!.component!;
+    expect(p.rows[0]!.action).toBe('add');
+    expect(c.availability).toBe('available');
+    expect(c.price.basis).toBe('per-kg');
+    expect(c.name).toBe('');
+  });
+});
+
 describe('JSON import preview', () => {
   const lib = demoComponents();
   it('round-trips the library export', () => {
     const p = previewJson(libraryToJson(lib), lib);
     expect(p.valid).toBe(true);
-    expect(p.updates).toBe(lib.length);
+    expect(p.unchanged).toBe(lib.length);
   });
   it('reports bad items per item and invalid JSON as a file error', () => {
     const good = { ...lib[0]!, code: 'J-1' };

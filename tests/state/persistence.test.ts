@@ -264,4 +264,34 @@ describe('export-all and import-all backups', () => {
     expect(m.backup.parseBackupText(JSON.stringify(dup)).ok).toBe(false);
     expect(JSON.stringify(m.state.persistedData('library'))).toBe(before);
   });
+
+  it('refuses absurd values with the same field rules as entry, naming every record and field, and touches nothing stored (issue 10 item 6)', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    await m.persistence.whenSaved();
+    const storedBefore = await get('library', db());
+    const bad = JSON.parse(m.backup.makeBackupText());
+    const comps = bad.sections.library.data.components;
+    comps[0].density15 = 1e-300;
+    comps[1].price.amount = 1e300;
+    comps[2].notes = 'n'.repeat(3000);
+    const recipe = bad.sections.recipes.data.recipes[0];
+    recipe.lines = recipe.lines.map((l: { componentId: string }) => ({ ...l, massFraction: 1 }));
+    const lineCount = recipe.lines.length;
+    bad.sections.settings.data.settings.operatingTempC = 5000;
+    const r = m.backup.parseBackupText(JSON.stringify(bad));
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    const text = r.errors.join('\n');
+    // Limits from src/state/field-rules.ts: density 0.6–1.3 kg/L, price ≤ 1e12, notes ≤ 2000 characters, shares sum to 100 %.
+    expect(text).toContain(`Stock ${comps[0].code} (entry 1): the density at 15 °C 1e−300 kg/L is outside the possible range`);
+    expect(text).toContain(`Stock ${comps[1].code} (entry 2): the price 1e+300 is outside the possible range`);
+    expect(text).toContain(`Stock ${comps[2].code} (entry 3): the notes field is 3000 characters long`);
+    expect(text).toMatch(new RegExp(`Recipe “[^”]+” \\(entry 1\\): the shares add up to ${lineCount * 100} %, not 100 %`));
+    expect(text).toContain('Settings: the operating temperature 5000 °C is outside the possible range');
+    // Nothing in memory or in IndexedDB was touched.
+    expect(m.state.useLibrary.getState().components[0]!.density15).not.toBe(1e-300);
+    await m.persistence.whenSaved();
+    expect(await get('library', db())).toEqual(storedBefore);
+  });
 });

@@ -1,47 +1,113 @@
-import { useId, useRef, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import { Notice } from '../../components/notices';
 import { readFileText } from '../../components/download';
-import { applyLibraryImport, CSV_COLUMNS, previewLibraryImport, type ImportPreview } from '../../state/library-io';
+import { applyLibraryImport, CSV_COLUMNS, type ImportPreview, type ImportRow } from '../../state/library-io';
+import { COLLECTION_LIMITS } from '../../state/field-rules';
 import { useLibrary } from '../../state';
+import { startImportPreview, type ImportHandle } from './import-client';
 
-/** Choose a CSV or JSON file, see a preview with per-row errors, confirm only a valid set. */
+type RowFilter = 'all' | 'errors' | 'update' | 'add' | 'unchanged';
+const SHOWN_ROWS = 500;
+
+const emptyPreview = (message: string): ImportPreview => ({
+  format: 'csv',
+  fileErrors: [message],
+  rows: [],
+  valid: false,
+  adds: 0,
+  updates: 0,
+  unchanged: 0,
+});
+
+function resultLabel(r: ImportRow): string {
+  if (r.errors.length) return 'error';
+  if (r.action === 'unchanged') return 'no change';
+  return r.action;
+}
+
+/**
+ * Choose a CSV or JSON file; its rows are checked off the page's main thread with a progress bar and
+ * Cancel; the preview shows every row's errors and, for an update, every field that would change
+ * (stored → imported). Only a file without errors can be confirmed.
+ */
 export function ImportPanel({ onClose, onImported }: { onClose: () => void; onImported: (msg: string) => void }) {
   const fileId = useId();
   const [fileName, setFileName] = useState('');
   const [preview, setPreview] = useState<ImportPreview | null>(null);
-  const [reading, setReading] = useState(false);
+  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
+  const [filter, setFilter] = useState<RowFilter>('all');
+  const run = useRef<ImportHandle | null>(null);
   const inputRef = useRef<HTMLInputElement>(null);
   const components = useLibrary((s) => s.components);
 
+  useEffect(() => () => run.current?.cancel(), []);
+
   const choose = async (file: File | undefined) => {
     if (!file) return;
-    setReading(true);
+    run.current?.cancel();
     setFileName(file.name);
+    setPreview(null);
+    setFilter('all');
+    setProgress({ done: 0, total: 0 });
+    let text: string;
     try {
-      const text = await readFileText(file);
-      setPreview(previewLibraryImport(file.name, text, components));
+      text = await readFileText(file);
     } catch (e) {
-      setPreview({ format: 'csv', fileErrors: [`The file could not be read: ${(e as Error).message}`], rows: [], valid: false, adds: 0, updates: 0 });
-    } finally {
-      setReading(false);
+      setProgress(null);
+      setPreview(emptyPreview(`The file could not be read: ${(e as Error).message}`));
+      return;
+    }
+    const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }));
+    run.current = handle;
+    const outcome = await handle.outcome;
+    if (run.current !== handle) return; // a newer file was chosen
+    run.current = null;
+    setProgress(null);
+    if (outcome.kind === 'done') setPreview(outcome.preview);
+    else if (outcome.kind === 'error') setPreview(emptyPreview(`The file could not be checked: ${outcome.message}`));
+    else {
+      setFileName('');
+      if (inputRef.current) inputRef.current.value = '';
     }
   };
-  const errorRows = preview?.rows.filter((r) => r.errors.length) ?? [];
-  const warnRows = preview?.rows.filter((r) => !r.errors.length && r.warnings.length) ?? [];
+
+  const counts = useMemo(() => {
+    const rows = preview?.rows ?? [];
+    return { errors: rows.filter((r) => r.errors.length).length, warnings: rows.filter((r) => !r.errors.length && r.warnings.length).length };
+  }, [preview]);
+  const shown = useMemo(() => {
+    const rows = preview?.rows ?? [];
+    const keep = (r: ImportRow) =>
+      filter === 'all' ? true : filter === 'errors' ? r.errors.length > 0 : !r.errors.length && r.action === filter;
+    return rows.filter(keep);
+  }, [preview, filter]);
+  const checking = progress !== null;
 
   return (
     <section className="panel import-panel" aria-labelledby={`${fileId}-h`}>
       <h3 id={`${fileId}-h`}>Import stocks from CSV or JSON</h3>
       <p className="small">
-        Rows are matched on stock code: a known code updates that stock (recipes keep using it), a new code adds one.
-        Nothing changes until you confirm a file without errors. CSV columns: <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in
-        °C, viscosities in mm²/s, density in kg/L).
+        Rows are matched on stock code: a known code updates that stock (recipes keep using it), a new code adds one. In a CSV
+        update, a column the file does not have keeps the stored value; an empty cell clears an optional value. Nothing changes
+        until you confirm a file without errors. Up to {COLLECTION_LIMITS.importRows.toLocaleString('en-US')} rows. CSV columns:{' '}
+        <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in °C, viscosities in mm²/s, density in kg/L).
       </p>
       <label htmlFor={fileId} className="field-label">
         File
       </label>{' '}
       <input ref={inputRef} id={fileId} type="file" accept=".csv,.json,text/csv,application/json" onChange={(e) => void choose(e.target.files?.[0])} />
-      {reading ? <p role="status">Reading {fileName}…</p> : null}
+      {checking ? (
+        <div className="import-progress" role="status">
+          <label htmlFor={`${fileId}-progress`}>
+            Checking {fileName}:{' '}
+            {progress.total ? `${progress.done.toLocaleString('en-US')} of ${progress.total.toLocaleString('en-US')} rows` : 'reading…'}
+          </label>{' '}
+          <progress id={`${fileId}-progress`} max={progress.total || 1} value={progress.done} />{' '}
+          <button type="button" onClick={() => run.current?.cancel()}>
+            Cancel checking
+          </button>
+        </div>
+      ) : null}
       {preview ? (
         <div className="import-preview">
           {preview.fileErrors.length ? (
@@ -52,58 +118,83 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
                 ))}
               </ul>
             </Notice>
-          ) : errorRows.length ? (
-            <Notice tone="error" title={`${errorRows.length} of ${preview.rows.length} rows have errors; nothing was imported.`}>
+          ) : counts.errors ? (
+            <Notice tone="error" title={`${counts.errors} of ${preview.rows.length} rows have errors; nothing was imported.`}>
               Correct the file and choose it again. The library is unchanged.
             </Notice>
           ) : (
             <Notice tone="success" title={`${fileName} is valid.`}>
-              It will add {preview.adds} and update {preview.updates} stocks{warnRows.length ? `; ${warnRows.length} rows carry warnings (shown below)` : ''}.
+              It will add {preview.adds} and update {preview.updates} stocks; {preview.unchanged} rows match a stored stock
+              without changing it{counts.warnings ? `; ${counts.warnings} rows carry warnings (shown below)` : ''}. Each update
+              lists the fields it changes, stored → imported.
             </Notice>
           )}
           {preview.rows.length ? (
-            <div className="table-scroll">
-              <table className="data import-table" aria-label="Import preview">
-                <thead>
-                  <tr>
-                    <th scope="col">{preview.format === 'csv' ? 'Line' : 'Item'}</th>
-                    <th scope="col">Code</th>
-                    <th scope="col">Name</th>
-                    <th scope="col">Result</th>
-                    <th scope="col">Errors and warnings</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {preview.rows.slice(0, 500).map((r) => (
-                    <tr key={r.line} className={r.errors.length ? 'row-error' : r.warnings.length ? 'row-warning' : undefined}>
-                      <td className="num">{r.line}</td>
-                      <td>{r.code || '—'}</td>
-                      <td>{r.name}</td>
-                      <td>{r.errors.length ? 'error' : r.action === 'add' ? 'add' : 'update'}</td>
-                      <td>
-                        {r.errors.length || r.warnings.length ? (
-                          <ul className="issues">
-                            {r.errors.map((e, i) => (
-                              <li key={`e${i}`} className="issue-error">
-                                {e}
-                              </li>
-                            ))}
-                            {r.warnings.map((w, i) => (
-                              <li key={`w${i}`} className="issue-warning">
-                                {w}
-                              </li>
-                            ))}
-                          </ul>
-                        ) : (
-                          'ok'
-                        )}
-                      </td>
+            <>
+              <label className="field-label" htmlFor={`${fileId}-filter`}>
+                Show
+              </label>{' '}
+              <select id={`${fileId}-filter`} value={filter} onChange={(e) => setFilter(e.target.value as RowFilter)}>
+                <option value="all">all rows ({preview.rows.length})</option>
+                <option value="errors">rows with errors ({counts.errors})</option>
+                <option value="update">updates ({preview.updates})</option>
+                <option value="add">additions ({preview.adds})</option>
+                <option value="unchanged">no change ({preview.unchanged})</option>
+              </select>
+              <div className="table-scroll">
+                <table className="data import-table" aria-label="Import preview">
+                  <thead>
+                    <tr>
+                      <th scope="col">{preview.format === 'csv' ? 'Line' : 'Item'}</th>
+                      <th scope="col">Code</th>
+                      <th scope="col">Name</th>
+                      <th scope="col">Result</th>
+                      <th scope="col">Changes, errors and warnings</th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
-              {preview.rows.length > 500 ? <p className="small">Showing the first 500 of {preview.rows.length} rows.</p> : null}
-            </div>
+                  </thead>
+                  <tbody>
+                    {shown.slice(0, SHOWN_ROWS).map((r) => (
+                      <tr key={r.line} className={r.errors.length ? 'row-error' : r.warnings.length ? 'row-warning' : undefined}>
+                        <td className="num">{r.line}</td>
+                        <td>{r.code || '—'}</td>
+                        <td>{r.name}</td>
+                        <td>{resultLabel(r)}</td>
+                        <td>
+                          {r.errors.length || r.warnings.length || r.changes.length ? (
+                            <ul className="issues">
+                              {r.errors.map((e, i) => (
+                                <li key={`e${i}`} className="issue-error">
+                                  {e}
+                                </li>
+                              ))}
+                              {r.changes.map((c, i) => (
+                                <li key={`c${i}`} className="issue-change">
+                                  {c.field}: {c.from} → {c.to}
+                                </li>
+                              ))}
+                              {r.warnings.map((w, i) => (
+                                <li key={`w${i}`} className="issue-warning">
+                                  {w}
+                                </li>
+                              ))}
+                            </ul>
+                          ) : r.action === 'unchanged' ? (
+                            'every field as stored'
+                          ) : (
+                            'ok'
+                          )}
+                        </td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+                {shown.length > SHOWN_ROWS ? (
+                  <p className="small">
+                    Showing the first {SHOWN_ROWS} of {shown.length} rows; choose what to show above.
+                  </p>
+                ) : null}
+              </div>
+            </>
           ) : null}
         </div>
       ) : null}
@@ -111,10 +202,12 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
         <button
           type="button"
           className="primary"
-          disabled={!preview?.valid}
+          disabled={!preview?.valid || checking}
           onClick={() => {
             if (preview && applyLibraryImport(preview)) {
-              onImported(`Imported ${fileName}: ${preview.adds} added, ${preview.updates} updated.`);
+              onImported(
+                `Imported ${fileName}: ${preview.adds} added, ${preview.updates} updated${preview.unchanged ? `, ${preview.unchanged} unchanged` : ''}.`,
+              );
             }
           }}
         >

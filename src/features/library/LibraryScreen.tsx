@@ -47,9 +47,15 @@ export default function LibraryScreen() {
   const issues = useMemo(() => {
     let errors = 0;
     let warnings = 0;
+    // Codes counted once (a clash check per stock against the whole library is quadratic: minutes at 20,000).
+    const codes = new Map<string, number>();
     for (const c of components) {
-      const r = checkComponent(c, components);
-      if (r.errors.length) errors++;
+      const k = c.code.trim().toLowerCase();
+      codes.set(k, (codes.get(k) ?? 0) + 1);
+    }
+    for (const c of components) {
+      const r = checkComponent(c);
+      if (r.errors.length || (codes.get(c.code.trim().toLowerCase()) ?? 0) > 1) errors++;
       else if (r.warnings.length) warnings++;
     }
     return { errors, warnings };

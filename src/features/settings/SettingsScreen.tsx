@@ -48,8 +48,8 @@ function BackupImport() {
       />
       {parsed && !parsed.ok ? (
         <Notice tone="error" title={`${name} cannot be imported; nothing was changed.`}>
-          <ul>
-            {parsed.errors.slice(0, 20).map((e, i) => (
+          <ul className="backup-errors">
+            {parsed.errors.map((e, i) => (
               <li key={i}>{e}</li>
             ))}
           </ul>

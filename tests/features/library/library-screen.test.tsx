@@ -3,6 +3,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
+import { setImportWorkerFactory, type ImportWorkerLike } from '../../../src/features/library/import-client';
 
 const bs = () => useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!;
 const rowOf = (code: string) => screen.getByLabelText(`Stock code of ${useLibrary.getState().components.find((c) => c.code === code)!.name}`).closest('tr')!;
@@ -176,5 +177,62 @@ describe('Library screen', () => {
     type(code, ' ');
     expect(screen.getByRole('alert').textContent).toBe('a stock code is required');
     expect(bs().code).toBe('BW-190');
+  });
+
+  it('previews an update field by field (stored → imported), shows unchanged rows, and keeps absent columns (issue 10 item 3)', async () => {
+    useLibrary.getState().updateComponent('demo-bw-190', { availability: 'withdrawn', price: { amount: 1150, basis: 'per-tonne', currency: 'EUR' } });
+    const b = bs();
+    const kv = (t: number) => b.viscosityPoints.find((p) => p.tempC === t)!.kv;
+    renderFor('BW-190');
+    fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
+    const csv = `code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nBW-190,${b.category},${kv(40)},${kv(100)},${b.density15},1200\n`;
+    await act(async () => {
+      fireEvent.change(screen.getByLabelText('File'), { target: { files: [new File([csv], 'update.csv', { type: 'text/csv' })] } });
+    });
+    await screen.findByText('update.csv is valid.');
+    const table = screen.getByRole('table', { name: 'Import preview' });
+    expect(within(table).getByText('price: 1150 → 1200')).toBeTruthy();
+    expect(within(table).queryByText(/availability/)).toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Import: add 0, update 1' }));
+    expect(bs().availability).toBe('withdrawn');
+    expect(bs().price).toEqual({ amount: 1200, basis: 'per-tonne', currency: 'EUR' });
+    expect(bs().name).toBe(b.name);
+    expect(bs().notes).toBe(b.notes);
+  });
+
+  it('checks a file with a progress bar and can cancel it, changing nothing', async () => {
+    renderFor('BW-190');
+    fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
+    const before = useLibrary.getState().components;
+    // A stand-in worker that reports progress and then waits (as a long check would).
+    let terminated = false;
+    setImportWorkerFactory(() => {
+      const w: ImportWorkerLike = {
+        onmessage: null,
+        onerror: null,
+        postMessage(m) {
+          if (m.type === 'start') setTimeout(() => w.onmessage?.({ data: { type: 'progress', runId: m.runId, done: 5000, total: 20000 } } as MessageEvent));
+        },
+        terminate() {
+          terminated = true;
+        },
+      };
+      return w;
+    });
+    const file = new File(['code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nP-1,group-ii,45,6.6,0.86,1\n'], 'big.csv', { type: 'text/csv' });
+    await act(async () => {
+      fireEvent.change(screen.getByLabelText('File'), { target: { files: [file] } });
+    });
+    await screen.findByText('Checking big.csv: 5,000 of 20,000 rows');
+    expect((screen.getByRole('progressbar') as HTMLProgressElement).value).toBe(5000);
+    fireEvent.click(screen.getByRole('button', { name: 'Cancel checking' }));
+    await act(async () => {
+      await new Promise((r) => setTimeout(r, 20));
+    });
+    expect(screen.queryByRole('progressbar')).toBeNull();
+    expect(screen.queryByRole('table', { name: 'Import preview' })).toBeNull();
+    expect(terminated).toBe(true);
+    expect(useLibrary.getState().components).toBe(before);
+    setImportWorkerFactory(null);
   });
 });
