@@ -34,9 +34,19 @@ export {
 } from './viscosity/viscosity-index';
 export { D2270_KV100, D2270_L, D2270_H, D2270_TABLE1_ROWS } from './viscosity/d2270-table1';
 
-// Viscosity–temperature — ASTM D341
-export type { WaltherLine } from './viscosity/viscosity-temperature';
+// Viscosity–temperature — ASTM D341-20 (full Z and its published inverse; simple form selectable)
+export type { WaltherLine, D341Form } from './viscosity/viscosity-temperature';
 export {
+  d341Z,
+  kvFromD341Z,
+  d341LogLogZ,
+  kvFromD341LogLogZ,
+  d341MinKv,
+  assessTemperature,
+  temperatureForViscosityAssessed,
+  D341_FORM_LABEL,
+  D341_MIN_KV,
+  D341_TRUSTED_BAND_C,
   viscosityAtTemperature,
   temperatureForViscosity,
   waltherLine,
@@ -50,8 +60,16 @@ export {
 // Blend viscosity — Refutas, ASTM D7152, any temperature
 export { blendViscosityRefutas, refutasVbn, kvFromRefutasVbn, refutasHeavyFraction } from './blending/refutas';
 export { blendViscosityAstmD7152, astmLogLog, kvFromAstmLogLog, astmHeavyFraction } from './blending/astm-loglog';
-export type { BlendMethod, BlendPart } from './blending/blend-viscosity';
-export { blendViscosityAt, blendKv40Kv100, BLEND_METHODS, BLEND_METHOD_LABEL } from './blending/blend-viscosity';
+export type { WrightPart } from './blending/wright';
+export { blendViscosityWright, wrightBlendLine, wrightHeavyFraction, wrightWeight } from './blending/wright';
+export type { BlendMethod, BlendPart, CalibrationMethod } from './blending/blend-viscosity';
+export {
+  blendViscosityAt,
+  blendKv40Kv100,
+  BLEND_METHODS,
+  BLEND_METHOD_LABEL,
+  BLEND_METHOD_STANDARD,
+} from './blending/blend-viscosity';
 
 // ISO viscosity grades — ISO 3448, ASTM D2422
 export type { IsoGrade } from './viscosity/iso-grades';
@@ -69,12 +87,44 @@ export {
 // Density, fractions, cost, batch quantities
 export { blendDensity, massToVolumeFractions, volumeToMassFractions } from './blending/density';
 export type { BatchSize } from './formulation/cost';
-export { pricePerKg, blendCostPerKg, blendCostPerLitre, batchQuantities } from './formulation/cost';
+export { pricePerKg, blendCostPerKg, blendCostPerLitre, blendCostPerLitreAt, batchQuantities } from './formulation/cost';
+// Density and volume at a temperature — ASTM D1250-80 / ISO 91-1 Table 54D (lubricating oils)
+export {
+  lubeThermalExpansion15,
+  lubeVolumeCorrectionFactor,
+  densityAtTemperature,
+  blendDensityAtTemperature,
+  lubeTableInRange,
+  LUBE_OIL_TABLE_54D,
+  REFERENCE_TEMP_C,
+} from './blending/density-temperature';
+
+// API base-stock categories — API 1509 Appendix E
+export type { ApiGroupIssue } from './classification/api-1509';
+export {
+  apiGroupIssues,
+  API_SATURATES_MIN_PCT,
+  API_SULFUR_MAX_PCT,
+  API_VI_MIN,
+  API_VI_GROUP_III,
+} from './classification/api-1509';
 
 // Other blend properties (estimates)
 export { blendAnilinePoint } from './blending/aniline';
-export { flashBlendingIndex, flashPointFromIndex, blendFlashPoint } from './blending/flash-point';
-export { pourBlendingIndex, pourPointFromIndex, blendPourPoint } from './blending/pour-point';
+export {
+  flashBlendingIndex,
+  flashPointFromIndex,
+  blendFlashPoint,
+  flashIndexExtrapolated,
+  FLASH_INDEX_FITTED_MAX_C,
+} from './blending/flash-point';
+export {
+  pourBlendingIndex,
+  pourPointFromIndex,
+  blendPourPoint,
+  pourIndexExtrapolated,
+  POUR_INDEX_FITTED_C,
+} from './blending/pour-point';
 export { krlShearLossPct, shearedKv, inGradeAfterShear } from './viscosity/shear';
 
 // Units at the boundary
@@ -110,7 +160,7 @@ export {
 } from './sheet/blend-sheet';
 
 // Predicted blend properties (with "show working" explanations)
-export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions } from './formulation/blend-properties';
+export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions, KvAtTemperature } from './formulation/blend-properties';
 export { predictBlend, blendingViscosities } from './formulation/blend-properties';
 
 // Solver: recipes to a grade (least cost per litre, solvency, oxidation, closest), fast path, plain API
@@ -142,6 +192,7 @@ export {
   OXIDATION_CLASS_LABEL,
   OXIDATION_RATING_MIN,
   OXIDATION_RATING_MAX,
+  ESTER_HYDROLYSIS_CAVEAT,
 } from './scoring/oxidation';
 export type { SolvencyBand, SolvencyScore, BlendSolvency, SolvencyContribution } from './scoring/solvency';
 export { solvencyScore, blendSolvency, SOLVENCY_BANDS, SOLVENCY_BAND_LABEL, SOLVENCY_THRESHOLDS } from './scoring/solvency';
@@ -159,8 +210,8 @@ export type { CalibrationInput } from './formulation/calibration';
 export { calibrateComponent, MIN_CALIBRATION_FRACTION, MIN_EFFECTIVE_KV } from './formulation/calibration';
 
 // Blend after permanent shear (KRL) — in grade after shear
-export type { BlendAfterShear, ShearedPolymer } from './formulation/shear-blend';
-export { blendAfterShear, SHEAR_ASSUMPTION } from './formulation/shear-blend';
+export type { BlendAfterShear, ShearedPolymer, ShearStatedAt } from './formulation/shear-blend';
+export { blendAfterShear, SHEAR_ASSUMPTION, VI_AFTER_SHEAR_NOTE } from './formulation/shear-blend';
 
 // Substitute search (chunked, for a Web Worker), Pareto frontier, ε-constraint sweep, comparison
 export type {

@@ -9,7 +9,8 @@
  */
 import { ABSOLUTE_ZERO_C, DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
 import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxidation';
-import { VI_MIN_KV100, viscosityIndex } from '../core/viscosity/viscosity-index';
+import { VI_MIN_KV100, reportedViscosityIndex, viscosityIndex } from '../core/viscosity/viscosity-index';
+import { apiGroupIssues } from '../core/classification/api-1509';
 import { kv40kv100FromPoints } from '../core/viscosity/viscosity-temperature';
 import type { Component } from '../core/formulation/model';
 import { checkNumber, checkText, FILE_NUMBERS, type NumberRuleKey, type SayNumbers } from './field-rules';
@@ -254,12 +255,13 @@ export function checkComponent(c: Component, others: readonly Component[] = []):
     add('kv100', checkValue('kv100', p.kv100));
     add('kv100', checkViscosityPair(p.kv40, p.kv100));
     const vi = p.kv100 < p.kv40 ? safeVi(p.kv40, p.kv100) : null;
-    if (vi !== null && c.category === 'group-iii' && vi < 120) {
-      warnings.push({ field: 'category', message: `VI ${Math.round(vi)} is below 120, the Group III floor (API 1509 Appendix E)` });
+    const reported = vi === null ? null : reportedViscosityIndex(p.kv40, p.kv100);
+    for (const issue of apiGroupIssues(c.category, { reportedVi: reported, sulfurPct: null, saturatesPct: null })) {
+      warnings.push({ field: 'category', message: issue.message });
     }
-    if (vi !== null && (c.category === 'group-i' || c.category === 'group-ii') && (vi < 80 || vi > 120)) {
-      warnings.push({ field: 'category', message: `VI ${Math.round(vi)} is outside 80–120, the Group I/II range (API 1509 Appendix E)` });
-    }
+  }
+  for (const issue of apiGroupIssues(c.category, { reportedVi: null, sulfurPct: c.sulfurPct, saturatesPct: c.saturatesPct })) {
+    warnings.push({ field: issue.field === 'sulfurPct' ? 'sulfurPct' : 'saturatesPct', message: issue.message });
   }
   add('density15', checkValue('density15', c.density15));
   add('anilinePoint', checkValue('anilinePoint', c.anilinePoint));

@@ -178,6 +178,8 @@ export const NUMBER_RULES = Object.freeze({
    * with any lot spread, so at most 99.99 % (common practice, no source).
    */
   minInBandProbability: numberRule('probability in band', '%', 0, 0.9999, { nullable: true, percent: true }),
+  /** Measured permanent shear loss of ν40 (ISO 26422 allows 40 °C too) [%]. */
+  shearLoss40Pct: numberRule('ν40 shear loss', '%', 0, 100, { nullable: true }),
   /** Effective blending viscosity of a calibrated stock [mm²/s]. */
   effectiveKv: numberRule('effective viscosity', 'mm²/s', 0, KV_MAX, { minExclusive: true }),
   /** A mass fraction in a recipe or trial blend (0–1, shown in %). */
@@ -231,6 +233,10 @@ export const NUMBER_RULES = Object.freeze({
   minUseKg: numberRule('least use', 'kg', 0, 1e10),
   /** Line plan: most distinct stocks (tanks) across the line; 1 to 1,000 (common practice, no source). */
   maxStocks: numberRule('number of stocks', '', 1, 1000, { integer: true, nullable: true }),
+  /** Metering temperature of the blend sheet's litres [°C]; the tables' and the D341 band's −20…150 °C. */
+  meteringTempC: numberRule('metering temperature', '°C', -20, 150),
+  /** Temperature at which delivered litres are costed [°C]. */
+  deliveryTempC: numberRule('delivery temperature', '°C', -20, 150),
 } satisfies Record<string, NumberRule>);
 
 export type NumberRuleKey = keyof typeof NUMBER_RULES;
@@ -451,6 +457,7 @@ export interface StockFields {
   oxidationRating: number | null;
   shearLossPct: number | null;
   kv40LotSpreadPct: number | null;
+  shearLoss40Pct?: number | null;
   calibration: {
     effectiveKv40: number;
     effectiveKv100: number;
@@ -505,6 +512,7 @@ export function stockProblems(c: StockFields, who: string = stockWho(String(c.co
   add(['oxidationRating'], checkNumber('oxidationRating', c.oxidationRating, who));
   add(['shearLossPct'], checkNumber('shearLossPct', c.shearLossPct, who));
   add(['kv40LotSpreadPct'], checkNumber('kv40LotSpreadPct', c.kv40LotSpreadPct, who));
+  add(['shearLoss40Pct'], checkNumber('shearLoss40Pct', c.shearLoss40Pct ?? null, who));
   if (c.calibration) {
     const k = c.calibration;
     add(['calibration', 'effectiveKv40'], checkNumber('effectiveKv', k.effectiveKv40, who));
@@ -699,6 +707,8 @@ export interface SettingsFields {
   companyName: string;
   operatingTempC: number;
   coldStartTempC: number;
+  meteringTempC: number;
+  deliveryTempC: number;
   lastBackupAt: string | null;
   baseCurrency: string;
   exchangeRates: ReadonlyArray<{ currency: string; rate: number; asOf: string }>;
@@ -711,6 +721,8 @@ export function settingsProblems(s: SettingsFields): FieldProblem[] {
   add(['companyName'], checkText('companyName', s.companyName));
   add(['operatingTempC'], checkNumber('operatingTempC', s.operatingTempC));
   add(['coldStartTempC'], checkNumber('coldStartTempC', s.coldStartTempC));
+  add(['meteringTempC'], checkNumber('meteringTempC', s.meteringTempC));
+  add(['deliveryTempC'], checkNumber('deliveryTempC', s.deliveryTempC));
   add(['lastBackupAt'], s.lastBackupAt === null ? null : checkText('timestamp', s.lastBackupAt));
   add(['baseCurrency'], checkText('baseCurrency', s.baseCurrency));
   add(['exchangeRates'], checkCount('exchangeRates', s.exchangeRates.length));

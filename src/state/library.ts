@@ -45,9 +45,12 @@ export interface LibraryState extends LibraryData {
 
 export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
-  version: 4,
+  version: 5,
   schema: libraryDataSchema,
   migrations: {
+    // Schema 4 → 5: calibrations may name the D7152 Wright method, and a polymer may carry a measured
+    // ν40 shear loss (optional field, `shearLoss40Pct`). Existing data are valid as they are.
+    4: (d) => d,
     // Schema 3 had no lot spread of ν40: every stock takes its category's common-practice default.
     3: (d) => {
       const comps = (d as { components?: unknown }).components;

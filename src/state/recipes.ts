@@ -149,9 +149,11 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 6,
+  version: 7,
   schema: recipesDataSchema,
   migrations: {
+    // Schema 6 → 7: targets may ask for the least cost per kg ('cost-kg'). Existing data are valid as they are.
+    6: (d) => d,
     // Schema 5 had no line plan: start with an empty one.
     5: (d) => ({ ...(d as object), linePlan: emptyLinePlan() }),
     // Schema 4 had no minimum probability in band: every recipe's targets ask for none.

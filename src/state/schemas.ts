@@ -56,7 +56,7 @@ export const calibrationSchema = z.object({
     measuredKv100: finite,
     labReference: str,
   }),
-  method: z.enum(['refutas', 'astm-d7152']),
+  method: z.enum(['refutas', 'astm-d7152', 'd7152-wright']),
   calibratedOn: str,
 });
 
@@ -79,6 +79,7 @@ export const componentSchema = z
     oxidationRating: nullableNum,
     shearLossPct: nullableNum,
     kv40LotSpreadPct: nullableNum,
+    shearLoss40Pct: nullableNum.optional(),
     calibration: calibrationSchema.nullable(),
     source: str,
     sourceDate: str,
@@ -151,7 +152,7 @@ export const targetsSchema = z
     minFlashPoint: nullableNum,
     additive: z.object({ componentId: str, massFraction: finite }).nullable(),
     bounds: z.record(str, boundsSchema),
-    objective: z.enum(['cost', 'solvency', 'oxidation', 'closest']),
+    objective: z.enum(['cost', 'cost-kg', 'solvency', 'oxidation', 'closest']),
     referenceRecipeId: str.nullable(),
     minInBandProbability: nullableNum,
   })
@@ -167,7 +168,9 @@ export const settingsSchema = z
     companyName: str,
     operatingTempC: finite,
     coldStartTempC: finite,
-    blendMethod: z.enum(['refutas', 'astm-d7152']),
+    blendMethod: z.enum(['refutas', 'astm-d7152', 'd7152-wright']),
+    meteringTempC: finite,
+    deliveryTempC: finite,
     lastBackupAt: str.nullable(),
     baseCurrency: str,
     exchangeRates: z.array(z.object({ currency: str, rate: finite, asOf: str })),

@@ -6,6 +6,7 @@ import { settingsDataSchema } from './schemas';
 import { demoSettingsPatch } from './demo';
 import { firstProblem, settingsProblems } from './field-rules';
 import { normaliseCurrency, type ExchangeRate } from '../core/currency/exchange-rates';
+import type { BlendMethod } from '../core/blending/blend-viscosity';
 
 export interface Settings {
   /** Display unit for temperatures; stored values are always °C. */
@@ -22,7 +23,11 @@ export interface Settings {
   /** Default cold-start temperature [°C]. */
   coldStartTempC: number;
   /** Default blending rule for viscosity. */
-  blendMethod: 'refutas' | 'astm-d7152';
+  blendMethod: BlendMethod;
+  /** Temperature at which the plant meters litres (blend sheet "L at t") [°C]. */
+  meteringTempC: number;
+  /** Temperature at which delivered litres are counted for costing [°C]. */
+  deliveryTempC: number;
   /** ISO time of the last export-all backup, or null. */
   lastBackupAt: string | null;
   /**
@@ -46,6 +51,10 @@ export const DEFAULT_SETTINGS: Settings = {
   operatingTempC: 65,
   coldStartTempC: -10,
   blendMethod: 'refutas',
+  // Common practice (no source): base stocks are charged and metered warm, 50–65 °C; delivered
+  // litres are usually counted at the tables' 15 °C reference. The user sets their own.
+  meteringTempC: 60,
+  deliveryTempC: 15,
   lastBackupAt: null,
   baseCurrency: 'EUR',
   exchangeRates: [],
@@ -67,9 +76,15 @@ export const demoSettings = (): Settings => ({ ...DEFAULT_SETTINGS, ...demoSetti
 
 export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   key: 'settings',
-  version: 3,
+  version: 4,
   schema: settingsDataSchema,
   migrations: {
+    // Schema 3 → 4: metering and delivery temperatures (defaults 60 and 15 °C); the blend method may
+    // also be the D7152 Wright method.
+    3: (d) => {
+      const s = (d as { settings?: Record<string, unknown> }).settings ?? {};
+      return { settings: { meteringTempC: 60, deliveryTempC: 15, ...s } };
+    },
     // Schema 2 had no exchange rates: the base currency is read from the currency symbol (€ → EUR,
     // $ → USD, £ → GBP, a code as it is; blank → EUR), with no rates yet.
     2: (d) => {

@@ -97,10 +97,11 @@ describe('stores saved in IndexedDB', () => {
     expect(m.state.useSettingsState.getState().settings.blendMethod).toBe('refutas');
     expect(((await get('library', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.library);
     expect(((await get('settings', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.settings);
-    expect(((await get('settings', db())) as { version: number }).version).toBe(3);
     // Settings schema 2 → 3: the base currency is read from the symbol ($ → USD), with no rates yet.
     expect(m.state.useSettingsState.getState().settings.baseCurrency).toBe('USD');
     expect(m.state.useSettingsState.getState().settings.exchangeRates).toEqual([]);
+    expect(m.state.useSettingsState.getState().settings.meteringTempC).toBe(60);
+    expect(m.state.useSettingsState.getState().settings.deliveryTempC).toBe(15);
   });
 
   for (const [what, raw, kind] of [

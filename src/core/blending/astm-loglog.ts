@@ -1,58 +1,62 @@
 /**
- * Blend viscosity by the ASTM D7152 "ASTM method": the constant-temperature log-log rule, on a
- * volume basis.
+ * Blend viscosity by the ASTM D7152 ASTM Blending Method (constant temperature), on a volume basis.
  *
- *   log₁₀ log₁₀(ν_blend + 0.7) = Σ φᵢ · log₁₀ log₁₀(νᵢ + 0.7)
+ *   log₁₀ log₁₀ Z(ν_blend) = Σ φᵢ · log₁₀ log₁₀ Z(νᵢ),   Z(ν) = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²)
  *
- * with φᵢ volume fractions and every νᵢ at the same temperature [mm²/s]. The transform is the
- * Walther function of ASTM D341 (Z = ν + 0.7), so the same valid range applies in spirit
- * (ν ≥ 2 mm²/s for base stocks; mathematically ν > 0.3 mm²/s).
+ * with φᵢ volume fractions and every νᵢ at the same temperature [mm²/s]. Z is the ASTM D341-20
+ * function (`viscosity/viscosity-temperature.ts`), inverted by D341-20's published inverse; valid
+ * range that of D341-20, ν ≥ 0.21 mm²/s. Above 5 mm²/s the exponential term is below 1e-10, so the
+ * check values computed with Z = ν + 0.7 (B4) hold unchanged.
  *
  * ASTM D7152 states that its methods may not apply to viscosity-index improvers, additive packages
  * or strongly non-Newtonian fluids: a polymeric component needs its own treatment (an effective
  * blending viscosity calibrated from a measured blend, see `Calibration` in model.ts).
  *
  * @see ASTM D7152, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
- *   "ASTM method" (constant-temperature form); form as in shared/reference/check-values.md §3 (B4).
+ *   ASTM Blending Method (constant temperature); ASTM D341-20 for Z. Form as in
+ *   shared/reference/check-values.md §3 (B4, computed there with Z = ν + 0.7).
  */
 import { ViscosityOutOfRangeError, assertFinite, assertFractions, assertViscosity } from '../errors';
+import { D341_MIN_KV, d341LogLogZ, kvFromD341LogLogZ } from '../viscosity/viscosity-temperature';
 import { assertTwoComponent } from './refutas';
 
-function assertLogLogKv(fn: string, field: string, kv: unknown): asserts kv is number {
+/** Throws unless ν is within the D341-20 range (≥ 0.21 mm²/s). */
+export function assertLogLogKv(fn: string, field: string, kv: unknown): asserts kv is number {
   assertViscosity(fn, field, kv);
-  if (kv <= 0.3) {
+  if (kv < D341_MIN_KV) {
     throw new ViscosityOutOfRangeError(
       field,
       kv,
-      `${fn}: ${field} = ${kv} mm²/s; the log-log rule needs ν > 0.3 mm²/s (log₁₀(ν + 0.7) > 0)`,
+      `${fn}: ${field} = ${kv} mm²/s; the log-log rule needs ν ≥ ${D341_MIN_KV} mm²/s (the ASTM D341-20 range)`,
     );
   }
 }
 
 /**
- * The D7152 / D341 blending value of a viscosity:  log₁₀ log₁₀(ν + 0.7).
+ * The D7152 / D341-20 blending value of a viscosity:  log₁₀ log₁₀ Z(ν).
  *
- * @param kv - ν at the blending temperature [mm²/s], > 0.3
- * @returns log₁₀ log₁₀(ν + 0.7) [dimensionless]
- * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOutOfRangeError (ν ≤ 0.3)
+ * @param kv - ν at the blending temperature [mm²/s], ≥ 0.21
+ * @returns log₁₀ log₁₀ Z(ν) [dimensionless]
+ * @throws InvalidNumberError, NonPositiveViscosityError, ViscosityOutOfRangeError (ν < 0.21)
  * @example astmLogLog(100) // → 0.30329
+ * @see ASTM D341-20 (Z); ASTM D7152.
  */
 export function astmLogLog(kv: number): number {
   assertLogLogKv('astmLogLog', 'kv', kv);
-  return Math.log10(Math.log10(kv + 0.7));
+  return d341LogLogZ(kv);
 }
 
-/** Inverse of {@link astmLogLog}: ν = 10^(10^x) − 0.7. */
+/** Inverse of {@link astmLogLog}: ν = Z⁻¹(10^(10^x)), D341-20's published inverse. */
 export function kvFromAstmLogLog(x: number): number {
   const fn = 'kvFromAstmLogLog';
   assertFinite(fn, 'x', x);
-  const kv = Math.pow(10, Math.pow(10, x)) - 0.7;
+  const kv = kvFromD341LogLogZ(x);
   assertFinite(fn, 'result', kv);
   return kv;
 }
 
 /**
- * Kinematic viscosity of a blend by the ASTM D7152 constant-temperature log-log rule.
+ * Kinematic viscosity of a blend by the ASTM D7152 ASTM Blending Method (constant temperature).
  *
  * @param parts - `volumeFraction` φᵢ [0–1, sum 1 within 1e-9] and `kv` νᵢ [mm²/s] of each part, all
  *   at the same temperature
@@ -77,7 +81,7 @@ export function blendViscosityAstmD7152(parts: readonly { volumeFraction: number
 /**
  * Volume fraction of the heavy stock in a two-component blend reaching a target viscosity by the
  * log-log rule (exact, since the rule is linear in φ):
- * φ_heavy = (x_target − x_light)/(x_heavy − x_light), x = log₁₀ log₁₀(ν + 0.7).
+ * φ_heavy = (x_target − x_light)/(x_heavy − x_light), x = log₁₀ log₁₀ Z(ν) (ASTM D341-20).
  *
  * @param kvLight - ν of the light stock [mm²/s]
  * @param kvHeavy - ν of the heavy stock [mm²/s], above kvLight

@@ -4,9 +4,12 @@
  * Each component is first moved along its own ASTM D341 line (through its ν40 and ν100) to the
  * blending temperature; the rule then mixes the component viscosities at that one temperature:
  * - `'refutas'`: Refutas blending number, mass fractions ({@link blendViscosityRefutas});
- * - `'astm-d7152'`: ASTM D7152 constant-temperature log-log rule, volume fractions (mass fractions
- *   converted by ideal mixing at 15 °C, see `density.ts`) ({@link blendViscosityAstmD7152}).
- * Every result names the method that produced it.
+ * - `'astm-d7152'`: ASTM D7152 ASTM Blending Method (constant temperature), volume fractions (mass
+ *   fractions converted by ideal mixing at 15 °C, see `density.ts`) ({@link blendViscosityAstmD7152});
+ * - `'d7152-wright'`: ASTM D7152 Wright method, volume fractions, each component's D341 line through
+ *   its ν40 and ν100 ({@link blendViscosityWright}).
+ * Refutas is not part of ASTM D7152 and is never labelled as such. Every result names the method
+ * that produced it.
  */
 import { massToVolumeFractions } from './density';
 import {
@@ -19,18 +22,30 @@ import {
 import { viscosityAtTemperature } from '../viscosity/viscosity-temperature';
 import { blendViscosityAstmD7152 } from './astm-loglog';
 import { blendViscosityRefutas } from './refutas';
+import { blendViscosityWright } from './wright';
 
 /** A blend-viscosity mixing rule. */
-export type BlendMethod = 'refutas' | 'astm-d7152';
+export type BlendMethod = 'refutas' | 'astm-d7152' | 'd7152-wright';
 
 /** Every mixing rule, in display order. */
-export const BLEND_METHODS: readonly BlendMethod[] = ['refutas', 'astm-d7152'];
+export const BLEND_METHODS: readonly BlendMethod[] = ['d7152-wright', 'astm-d7152', 'refutas'];
 
 /** Human-readable name of each mixing rule, with its fraction basis. */
 export const BLEND_METHOD_LABEL: Record<BlendMethod, string> = {
   refutas: 'Refutas blending number (mass fractions)',
-  'astm-d7152': 'ASTM D7152 log-log rule (volume fractions)',
+  'astm-d7152': 'D7152 ASTM Blending Method (constant temperature), volume fractions',
+  'd7152-wright': 'D7152 Wright method (two temperatures per component), volume fractions',
 };
+
+/** The standard (or source) behind each mixing rule, for "show working". */
+export const BLEND_METHOD_STANDARD: Record<BlendMethod, string> = {
+  refutas: 'Refutas viscosity blending number (not an ASTM D7152 method)',
+  'astm-d7152': 'ASTM D7152, ASTM Blending Method (constant temperature); Z of ASTM D341-20',
+  'd7152-wright': 'ASTM D7152, Wright method; lines of ASTM D341-20',
+};
+
+/** The mixing rules a trial-blend calibration can be solved with (linear in one transformed viscosity). */
+export type CalibrationMethod = 'refutas' | 'astm-d7152';
 
 /** One component of a blend, with what every mixing rule needs. */
 export interface BlendPart {
@@ -51,7 +66,7 @@ export interface BlendPart {
  * measured value itself); (2) mix with Refutas on mass fractions, or with the D7152 log-log rule on
  * volume fractions φᵢ = (wᵢ/ρᵢ)/Σ(wⱼ/ρⱼ).
  *
- * @param method - mixing rule, `'refutas'` or `'astm-d7152'`
+ * @param method - mixing rule, `'refutas'`, `'astm-d7152'` or `'d7152-wright'`
  * @param parts - the blend's parts (mass fractions summing to 1 within 1e-9)
  * @param tempC - blending temperature [°C]
  * @returns `kv`, the blend's kinematic viscosity at `tempC` [mm²/s], and the `method` used
@@ -63,7 +78,7 @@ export interface BlendPart {
  *   { massFraction: 0.5, density15: 0.88, kv40: 100, kv100: 11 },
  *   { massFraction: 0.5, density15: 0.90, kv40: 460, kv100: 31 },
  * ], 40) // → { kv: 203.39, method: 'refutas' }
- * @see ASTM D341; Refutas; ASTM D7152.
+ * @see ASTM D341-20; Refutas; ASTM D7152 (ASTM Blending Method, Wright method).
  */
 export function blendViscosityAt(
   method: BlendMethod,
@@ -86,6 +101,7 @@ export function blendViscosityAt(
       throw renameField(e, i);
     }
   });
+  if (method === 'd7152-wright') return { kv: wrightAt(parts, tempC), method };
   const kvs = parts.map((p, i) => {
     if (tempC === 40) return p.kv40;
     if (tempC === 100) return p.kv100;
@@ -102,6 +118,15 @@ export function blendViscosityAt(
   const phi = massToVolumeFractions(parts);
   const kv = blendViscosityAstmD7152(phi.map((f, i) => ({ volumeFraction: f, kv: kvs[i]! })));
   return { kv, method };
+}
+
+/** The Wright method: the blend's own D341 line from the components' lines (see `wright.ts`). */
+function wrightAt(parts: readonly BlendPart[], tempC: number): number {
+  const phi = massToVolumeFractions(parts);
+  return blendViscosityWright(
+    parts.map((p, i) => ({ volumeFraction: phi[i]!, kv40: p.kv40, kv100: p.kv100 })),
+    tempC,
+  );
 }
 
 /**

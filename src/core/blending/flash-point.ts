@@ -1,14 +1,27 @@
 /**
- * Flash point of a blend by a flash-point blending index, on a volume basis — an estimate.
+ * Flash point of a blend by the Wickey–Chittenden flash-point blending index, on a volume basis —
+ * an estimate.
  *
  *   log₁₀ BI = −6.1188 + 2414/(T − 42.6),   T = t + 273.15 [K]
  *   BI_blend = Σ φᵢ·BIᵢ,   T_blend = 2414/(log₁₀ BI_blend + 6.1188) + 42.6
  *
+ * The same index is often printed in °F: log₁₀ BI = −6.1188 + 4345.2/(t_F + 383). The two forms are
+ * one equation (T − 42.6 K = (t_F + 383)/1.8 and 2414 × 1.8 = 4345.2) — checked in the tests; the
+ * constants themselves are from memory (shared/reference/check-values.md F1), no copy of the paper
+ * being at hand.
+ *
  * The index is large for low flash points, so a small share of a volatile component (e.g. an
  * additive package's light diluent) lowers the blend flash point more than its share suggests —
- * the point of blending by index rather than by temperature. Constants from memory; they reproduce
- * a published constants table (shared/reference/check-values.md F1). A flash point is a safety
+ * the point of blending by index rather than by temperature.
+ *
+ * Fitted range: the correlation was fitted on petroleum fuels and distillate fractions, whose flash
+ * points lie well below {@link FLASH_INDEX_FITTED_MAX_C} = 200 °C (from memory). Gear-oil base stocks
+ * flash at 200–300 °C, so every gear-oil estimate is an EXTRAPOLATION of the index
+ * ({@link flashIndexExtrapolated}); the app says so beside the value. A flash point is a safety
  * property: this estimate never replaces the measured value (ASTM D92 / D93) required before release.
+ *
+ * @see Wickey, R. O. and Chittenden, D. H., "Flash points of blends correlated", Hydrocarbon
+ *   Processing 42 (6) (1963) 157–158 (citation from memory).
  */
 import { BlendbenchInputError, assertTemperatureC, assertFinite } from '../errors';
 import { blendByVolumeIndex } from './volume-index';
@@ -16,6 +29,22 @@ import { blendByVolumeIndex } from './volume-index';
 const KELVIN_OFFSET = 273.15;
 /** Below T = 42.6 K the index is undefined (pole of the equation). */
 const POLE_K = 42.6;
+
+/** Upper end of the flash points the Wickey–Chittenden index was fitted on [°C] (from memory). */
+export const FLASH_INDEX_FITTED_MAX_C = 200;
+
+/**
+ * Whether a flash-point estimate relies on the index beyond its fitted range: true when the result or
+ * any component's flash point lies at or above {@link FLASH_INDEX_FITTED_MAX_C}.
+ *
+ * @param resultC - the blend estimate [°C]
+ * @param componentFlashC - the components' flash points [°C] (nulls ignored)
+ * @returns true for an extrapolation
+ * @example flashIndexExtrapolated(230, [220, 250]) // → true
+ */
+export function flashIndexExtrapolated(resultC: number, componentFlashC: readonly (number | null)[]): boolean {
+  return resultC >= FLASH_INDEX_FITTED_MAX_C || componentFlashC.some((t) => t !== null && t >= FLASH_INDEX_FITTED_MAX_C);
+}
 
 /**
  * Flash-point blending index of a flash point:  log₁₀ BI = −6.1188 + 2414/(T − 42.6).
@@ -62,7 +91,7 @@ export function flashPointFromIndex(bi: number): number {
  *   point (an unknown, possibly volatile component could dominate: no safe estimate exists)
  * @throws InvalidNumberError, FractionSumError, BelowAbsoluteZeroError
  * @example blendFlashPoint([{ volumeFraction: 0.5, flashPoint: 200 }, { volumeFraction: 0.5, flashPoint: 250 }]) // → 215.95
- * @see check-values F1, F2 (formula; constants from memory).
+ * @see Wickey and Chittenden (1963); check-values F1, F2 (formula; constants from memory).
  */
 export function blendFlashPoint(
   parts: readonly { volumeFraction: number; flashPoint: number | null }[],

@@ -1,18 +1,46 @@
 /**
- * Pour point of a blend by a pour-point blending index, on a volume basis — a flagged estimate.
+ * Pour point of a blend by the Hu–Burns pour-point blending index, on a volume basis — a flagged
+ * estimate.
  *
  *   BI = T^(1/0.08) = T^12.5,   T = t + 273.15 [K]
  *   BI_blend = Σ φᵢ·BIᵢ,   T_blend = BI_blend^0.08
  *
- * From memory (shared/reference/check-values.md P1), an estimate only: wax crystallisation and
- * pour-point depressants defeat any such index, and a blend's pour point must be measured
- * (ASTM D97) before release. The app flags every value from here as an estimate.
+ * Hu and Burns wrote the index in degrees Rankine; the result does not depend on which absolute
+ * scale is used (every index scales by the same factor 1.8^12.5), which the tests check. The
+ * exponent 1/0.08 is from memory (shared/reference/check-values.md P1); no copy of the paper is at
+ * hand. Fitted range: distillate fuel blends with pour points of roughly
+ * {@link POUR_INDEX_FITTED_C} = −50…+10 °C (from memory); outside it the app marks the estimate as an
+ * extrapolation ({@link pourIndexExtrapolated}).
+ *
+ * An estimate only: wax crystallisation and pour-point depressants defeat any such index, and a
+ * blend's pour point must be measured (ASTM D97) before release. The app flags every value from
+ * here as an estimate.
+ *
+ * @see Hu, J. and Burns, A. M., "Index predicts cloud, pour and flash points of distillate fuel
+ *   blends", Hydrocarbon Processing 49 (11) (1970) 213–216 (citation from memory).
  */
 import { BlendbenchInputError, assertFinite, assertTemperatureC } from '../errors';
 import { blendByVolumeIndex } from './volume-index';
 
 const KELVIN_OFFSET = 273.15;
 const EXPONENT = 1 / 0.08; // 12.5
+
+/** Pour points the Hu–Burns index was fitted on [°C] (distillate fuels; from memory). */
+export const POUR_INDEX_FITTED_C = { min: -50, max: 10 } as const;
+
+/**
+ * Whether a pour-point estimate relies on the index outside its fitted range: true when the result or
+ * any component's pour point lies outside {@link POUR_INDEX_FITTED_C}.
+ *
+ * @param resultC - the blend estimate [°C]
+ * @param componentPourC - the components' pour points [°C] (nulls ignored)
+ * @returns true for an extrapolation
+ * @example pourIndexExtrapolated(-12, [-15, -9]) // → false
+ */
+export function pourIndexExtrapolated(resultC: number, componentPourC: readonly (number | null)[]): boolean {
+  const out = (t: number) => t < POUR_INDEX_FITTED_C.min || t > POUR_INDEX_FITTED_C.max;
+  return out(resultC) || componentPourC.some((t) => t !== null && out(t));
+}
 
 /**
  * Pour-point blending index:  BI = T^12.5, T in kelvin.

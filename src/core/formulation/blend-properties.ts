@@ -7,16 +7,17 @@
  */
 import type { Component, RecipeLine } from './model';
 import { BlendbenchInputError, assertTemperatureC } from '../errors';
-import { BLEND_METHOD_LABEL, blendKv40Kv100, type BlendMethod } from '../blending/blend-viscosity';
+import { BLEND_METHOD_LABEL, BLEND_METHOD_STANDARD, blendKv40Kv100, type BlendMethod } from '../blending/blend-viscosity';
 import { VI_MIN_KV100, reportedViscosityIndex, viscosityIndex } from '../viscosity/viscosity-index';
-import { kv40kv100FromPoints, viscosityAtTemperature } from '../viscosity/viscosity-temperature';
+import { assessTemperature, kv40kv100FromPoints, viscosityAtTemperature } from '../viscosity/viscosity-temperature';
 import { blendDensity, massToVolumeFractions } from '../blending/density';
-import { blendCostPerKg, blendCostPerLitre, pricePerKg } from './cost';
+import { blendDensityAtTemperature } from '../blending/density-temperature';
+import { blendCostPerKg, blendCostPerLitre, blendCostPerLitreAt, pricePerKg } from './cost';
 import { blendAnilinePoint } from '../blending/aniline';
-import { blendFlashPoint } from '../blending/flash-point';
-import { blendPourPoint } from '../blending/pour-point';
+import { FLASH_INDEX_FITTED_MAX_C, blendFlashPoint, flashIndexExtrapolated } from '../blending/flash-point';
+import { POUR_INDEX_FITTED_C, blendPourPoint, pourIndexExtrapolated } from '../blending/pour-point';
 import { deviationFromMidPct, isoViscosityGrade } from '../viscosity/iso-grades';
-import { blendOxidationRating } from '../scoring/oxidation';
+import { ESTER_HYDROLYSIS_CAVEAT, blendOxidationRating } from '../scoring/oxidation';
 
 /** How one predicted number was obtained (for the interface's "show working"). */
 export interface PropertyExplain {
@@ -55,12 +56,19 @@ export interface BlendProperties {
   density15: number;
   /** Aniline point [°C], volume basis; basis 'base-fluid' when parts without one were left out. */
   anilinePoint: { value: number; basis: 'all' | 'base-fluid' } | null;
+  /** Density at the delivery temperature [kg/L] (ASTM D1250-80 Table 54D per component, ideal mixing). */
+  densityAtDelivery: { tempC: number; density: number };
   /** Flash-point and pour-point estimates [°C]; null if a used component's value is unknown. */
   flashPoint: number | null;
   pourPoint: number | null;
-  /** Cost per kg and per litre (15 °C), in `currency`; null when currencies are mixed. */
+  /** True when the index is used beyond the range it was fitted on (gear oils: always for flash). */
+  flashPointExtrapolated: boolean;
+  pourPointExtrapolated: boolean;
+  /** Cost per kg and per litre at 15 °C, in `currency`; null when currencies are mixed. */
   costPerKg: number | null;
   costPerLitre: number | null;
+  /** Cost per delivered litre, counted at the delivery temperature; null when currencies are mixed. */
+  costPerDeliveredLitre: { tempC: number; cost: number } | null;
   /** The common currency of the used components; null when they differ (see `mixedCurrencies`). */
   currency: string | null;
   mixedCurrencies: boolean;
@@ -68,9 +76,13 @@ export interface BlendProperties {
   grade: number | null;
   /** Deviation of ν40 from that grade's mid-point [%], null between grades. */
   deviationFromMidPct: number | null;
-  /** ν at the operating / cold temperature (ASTM D341 line of the blend), null if not asked or not defined. */
-  kvAtOperating: { tempC: number; kv: number } | null;
-  kvAtCold: { tempC: number; kv: number } | null;
+  /**
+   * ν at the operating / cold temperature (ASTM D341-20 line of the blend), null if not asked or not
+   * defined; flagged when outside the fitted 40–100 °C (`extrapolated`) and outside −20…150 °C
+   * (`outsideBand`).
+   */
+  kvAtOperating: KvAtTemperature | null;
+  kvAtCold: KvAtTemperature | null;
   /** Mass fraction of polymer components (0–1). */
   polymerFraction: number;
   /** Base-fluid oxidation-stability rating (Blendbench's 1–5 scale), null without base fluid. */
@@ -81,9 +93,21 @@ export interface BlendProperties {
   warnings: string[];
 }
 
+/** A viscosity read off the blend's D341 line, with the extrapolation guard's verdict. */
+export interface KvAtTemperature {
+  tempC: number;
+  kv: number;
+  /** Outside the measured 40–100 °C. */
+  extrapolated: boolean;
+  /** Outside −20…150 °C: shown only with a warning. */
+  outsideBand: boolean;
+}
+
 export interface PredictOptions {
   /** Mixing rule; default 'refutas'. */
   method?: BlendMethod;
+  /** Temperature at which delivered litres are counted [°C]; default 15 (the tables' reference). */
+  deliveryTempC?: number;
   /** Operating temperature of the gearbox [°C]. */
   operatingTempC?: number;
   /** Cold-start temperature [°C]. */
@@ -193,8 +217,10 @@ export function predictBlend(
   const viscEquation =
     method === 'refutas'
       ? 'VBN = 14.534·ln(ln(ν + 0.8)) + 10.975;  VBN_blend = Σ wᵢ·VBNᵢ (mass fractions);  ν = exp(exp((VBN − 10.975)/14.534)) − 0.8'
-      : 'log₁₀ log₁₀(ν_blend + 0.7) = Σ φᵢ·log₁₀ log₁₀(νᵢ + 0.7) (volume fractions)';
-  const viscStandard = method === 'refutas' ? 'Refutas viscosity blending number' : 'ASTM D7152 (ASTM method)';
+      : method === 'astm-d7152'
+        ? 'log₁₀ log₁₀ Z(ν_blend) = Σ φᵢ·log₁₀ log₁₀ Z(νᵢ) (volume fractions), Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²)'
+        : 'log₁₀ T_blend(ν) = Σ φᵢ·log₁₀ Tᵢ(ν) (volume fractions), Tᵢ(ν) on component i’s ASTM D341-20 line through its ν40 and ν100';
+  const viscStandard = BLEND_METHOD_STANDARD[method];
   const compInputs = (key: 'kv40' | 'kv100'): Record<string, number> => {
     const out: Record<string, number> = {};
     for (const p of parts) {
@@ -231,6 +257,9 @@ export function predictBlend(
 
   // Density and volume fractions.
   const density15 = blendDensity(blendParts);
+  const deliveryTempC = opts.deliveryTempC ?? 15;
+  assertTemperatureC(fn, 'deliveryTempC', deliveryTempC);
+  const densityAtDelivery = { tempC: deliveryTempC, density: blendDensityAtTemperature(blendParts, deliveryTempC) };
   const phi = massToVolumeFractions(blendParts);
   explain.density15 = {
     equation: '1/ρ = Σ wᵢ/ρᵢ (ideal mixing, densities at 15 °C)',
@@ -261,18 +290,34 @@ export function predictBlend(
   const pourPoint = blendPourPoint(parts.map((p, i) => ({ volumeFraction: phi[i]!, pourPoint: p.component.pourPoint })));
   explain.flashPoint = {
     equation: 'log₁₀ BI = −6.1188 + 2414/(T − 42.6), T [K];  BI_blend = Σ φᵢ·BIᵢ',
-    standard: 'flash-point blending index (estimate); measure by ASTM D92',
+    standard: 'Wickey–Chittenden flash-point blending index (1963), estimate; measure by ASTM D92',
     inputs: Object.fromEntries(parts.map((p) => [`${p.component.code} flash [°C]`, p.component.flashPoint])),
     note: 'An estimate; a light diluent in the additive package can dominate the real flash point.',
   };
   explain.pourPoint = {
     equation: 'BI = T^12.5, T [K];  BI_blend = Σ φᵢ·BIᵢ;  T = BI^0.08',
-    standard: 'pour-point blending index (estimate); measure by ASTM D97',
+    standard: 'Hu–Burns pour-point blending index (1970), estimate; measure by ASTM D97',
     inputs: Object.fromEntries(parts.map((p) => [`${p.component.code} pour [°C]`, p.component.pourPoint])),
     note: 'An estimate only: wax and pour-point depressants defeat any mixing rule.',
   };
   if (flashPoint === null) warnings.push('Flash point not estimated: a component in the blend has no flash point.');
   if (pourPoint === null) warnings.push('Pour point not estimated: a component in the blend has no pour point.');
+  const usedParts = parts.filter((p) => p.line.massFraction > 0);
+  const flashPointExtrapolated =
+    flashPoint !== null && flashIndexExtrapolated(flashPoint, usedParts.map((p) => p.component.flashPoint));
+  const pourPointExtrapolated = pourPoint !== null && pourIndexExtrapolated(pourPoint, usedParts.map((p) => p.component.pourPoint));
+  if (flashPointExtrapolated) {
+    explain.flashPoint.note =
+      `Extrapolation: the Wickey–Chittenden index was fitted on flash points below ${FLASH_INDEX_FITTED_MAX_C} °C (petroleum fuels and ` +
+      'distillates); gear-oil flash points lie beyond that. ' +
+      explain.flashPoint.note;
+  }
+  if (pourPointExtrapolated) {
+    explain.pourPoint.note =
+      `Extrapolation: the Hu–Burns index was fitted on pour points of ${POUR_INDEX_FITTED_C.min}…${POUR_INDEX_FITTED_C.max} °C ` +
+      '(distillate fuels). ' +
+      explain.pourPoint.note;
+  }
 
   // Cost.
   const used = parts.filter((p) => p.line.massFraction > 0);
@@ -280,6 +325,7 @@ export function predictBlend(
   const mixedCurrencies = currencies.length > 1;
   let costPerKg: number | null = null;
   let costPerLitre: number | null = null;
+  let costPerDeliveredLitre: { tempC: number; cost: number } | null = null;
   const currency = mixedCurrencies ? null : (currencies[0] ?? null);
   const priceParts = parts.map((p) => ({
     massFraction: p.line.massFraction,
@@ -293,13 +339,19 @@ export function predictBlend(
   } else {
     costPerKg = blendCostPerKg(priceParts);
     costPerLitre = blendCostPerLitre(priceParts);
+    costPerDeliveredLitre = { tempC: deliveryTempC, cost: blendCostPerLitreAt(priceParts, deliveryTempC) };
   }
   explain.costPerLitre = {
-    equation: 'c_kg = Σ wᵢ·p_kg,ᵢ;  c_L = ρ_blend·c_kg (= Σ φᵢ·p_L,ᵢ)',
+    equation: 'c_kg = Σ wᵢ·p_kg,ᵢ;  c_L(15 °C) = ρ15,blend·c_kg (= Σ φᵢ·p_L,ᵢ)',
     standard: 'common practice',
     inputs: Object.fromEntries(priceParts.map((p, i) => [`${parts[i]!.component.code} price [${parts[i]!.component.price.currency}/kg]`, fmt(p.pricePerKg)])),
   };
   explain.costPerKg = { ...explain.costPerLitre };
+  explain.costPerDeliveredLitre = {
+    equation: `c_L(t) = ρ_blend(t)·c_kg, 1/ρ_blend(t) = Σ wᵢ/ρᵢ(t), ρᵢ(t) = ρ15,ᵢ·exp(−α₁₅Δt(1 + 0.8α₁₅Δt)), α₁₅ = 0.6278/ρ15 [kg/m³], Δt = t − 15 °C`,
+    standard: 'ASTM D1250-80 / ISO 91-1 Table 54D (lubricating oils); common practice for cost',
+    inputs: { 'delivery temperature t [°C]': deliveryTempC, 'ρ_blend(t) [kg/L]': fmt(densityAtDelivery.density) },
+  };
 
   // Grade.
   const grade = isoViscosityGrade(kv40);
@@ -310,12 +362,15 @@ export function predictBlend(
     inputs: { 'ν40 [mm²/s]': kv40 },
   };
 
-  // Viscosity at the operating and cold temperatures (the blend's own D341 line).
-  const atTemp = (tempC: number | undefined, field: string): { tempC: number; kv: number } | null => {
+  // Viscosity at the operating and cold temperatures (the blend's own D341 line), with the guard.
+  const atTemp = (tempC: number | undefined, field: string): KvAtTemperature | null => {
     if (tempC === undefined) return null;
     assertTemperatureC(fn, field, tempC);
     try {
-      return { tempC, kv: viscosityAtTemperature(kv40, kv100, tempC) };
+      const kv = viscosityAtTemperature(kv40, kv100, tempC);
+      const a = assessTemperature(tempC);
+      if (a.outsideBand) warnings.push(`Viscosity at ${tempC} °C: ${a.note}`);
+      return { tempC, kv, extrapolated: a.extrapolated, outsideBand: a.outsideBand };
     } catch (e) {
       if (e instanceof BlendbenchInputError) {
         warnings.push(`No viscosity at ${tempC} °C: ${e.message}`);
@@ -327,10 +382,12 @@ export function predictBlend(
   const kvAtOperating = atTemp(opts.operatingTempC, 'operatingTempC');
   const kvAtCold = atTemp(opts.coldTempC, 'coldTempC');
   explain.kvAtTemperature = {
-    equation: 'log₁₀ log₁₀(ν + 0.7) = A − B·log₁₀ T, T [K], through the blend’s ν40 and ν100',
-    standard: 'ASTM D341',
+    equation: 'log₁₀ log₁₀ Z = A − B·log₁₀ T, T [K], Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²), through the blend’s ν40 and ν100',
+    standard: 'ASTM D341-20',
     inputs: { 'ν40 [mm²/s]': kv40, 'ν100 [mm²/s]': kv100 },
-    note: 'Not meaningful below the pour point or for polymer-thickened oils at low temperature.',
+    note:
+      'Outside 40–100 °C the line is extrapolated, and outside −20…150 °C it is not to be trusted; not meaningful below ' +
+      'the pour point or for polymer-thickened oils at low temperature.',
   };
 
   // Polymer share and oxidation rating.
@@ -343,6 +400,7 @@ export function predictBlend(
     equation: 'r = Σ wᵢ·rᵢ / Σ wᵢ over the base fluid (additive packages left out)',
     standard: 'Blendbench’s own ordinal 1–5 scale (common practice ordering, not a measurement)',
     inputs: {},
+    note: parts.some((p) => p.component.category === 'group-v' && p.line.massFraction > 0) ? ESTER_HYDROLYSIS_CAVEAT : undefined,
   };
   explain.method = { equation: BLEND_METHOD_LABEL[method], standard: viscStandard, inputs: {} };
 
@@ -361,11 +419,15 @@ export function predictBlend(
     vi,
     reportedVi,
     density15,
+    densityAtDelivery,
     anilinePoint,
     flashPoint,
     pourPoint,
+    flashPointExtrapolated,
+    pourPointExtrapolated,
     costPerKg,
     costPerLitre,
+    costPerDeliveredLitre,
     currency,
     mixedCurrencies,
     grade,

@@ -59,8 +59,8 @@ export interface CalibrationInput {
 export const MIN_CALIBRATION_FRACTION = 0.001;
 
 /**
- * Smallest effective viscosity accepted [mm²/s]: below 2.0 mm²/s ASTM D341's simple Walther form
- * and ASTM D2270 no longer apply, and no gear-oil component is that thin.
+ * Smallest effective viscosity accepted [mm²/s]: below 2.0 mm²/s ASTM D2270 no longer applies, and
+ * no gear-oil component is that thin.
  */
 export const MIN_EFFECTIVE_KV = 2.0;
 
@@ -83,7 +83,8 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
  * @example calibrateComponent({ components, unknownId: 'pib', massFractions: { base: 0.9, pib: 0.1 },
  *   measuredKv40: 220, measuredKv100: 21, method: 'refutas', labReference: 'TB-7', calibratedOn: '2024-05-02' })
  *   // → { effectiveKv40: …, effectiveKv100: …, trial: {…}, method: 'refutas', calibratedOn: '2024-05-02' }
- * Source: inverse of the Refutas rule / ASTM D7152 constant-temperature rule (check-values.md §3).
+ * Source: inverse of the Refutas rule / ASTM D7152 ASTM Blending Method (check-values.md §3) / the
+ * D7152 Wright method (fixed point on the unknown's own slope, see `blending/wright.ts`).
  */
 export function calibrateComponent(input: CalibrationInput): Calibration {
   const fn = 'calibrateComponent';
@@ -117,10 +118,9 @@ export function calibrateComponent(input: CalibrationInput): Calibration {
   }
 
   const coords = blendCoordinates(method);
-  let sumCw = 0;
+  let sumOthersCw = 0;
   const others40: number[] = [];
   const others100: number[] = [];
-  let cU = 1;
   for (const id of ids) {
     const w = massFractions[id]!;
     const c = byId.get(id);
@@ -128,19 +128,16 @@ export function calibrateComponent(input: CalibrationInput): Calibration {
       throw new BlendbenchInputError('massFractions', id, `${fn}: trial component "${id}" is not in the component library`);
     }
     assertDensity15(fn, `${id}.density15`, c.density15);
-    const weight = coords.massBasis ? 1 : 1 / c.density15;
-    sumCw += weight * w;
-    if (id === unknownId) {
-      cU = weight;
-      continue;
-    }
-    if (w === 0) continue;
+    if (id === unknownId || w === 0) continue;
     const v = blendingViscosities(c);
+    const weight = coords.basisWeight(v.kv40, v.kv100, c.density15);
+    sumOthersCw += weight * w;
     others40.push(weight * w * coords.toX(v.kv40));
     others100.push(weight * w * coords.toX(v.kv100));
   }
 
-  const solveAt = (measured: number, others: number[], label: 'ν40' | 'ν100', field: string): number => {
+  const solveAt = (measured: number, others: number[], label: 'ν40' | 'ν100', field: string, cU: number): number => {
+    const sumCw = sumOthersCw + cU * wU;
     const xU = (coords.toX(measured) * sumCw - others.reduce((s, x) => s + x, 0)) / (cU * wU);
     let kv: number;
     let usable = true;
@@ -162,8 +159,23 @@ export function calibrateComponent(input: CalibrationInput): Calibration {
     }
     return kv;
   };
-  const effectiveKv40 = solveAt(measuredKv40, others40, 'ν40', 'measuredKv40');
-  const effectiveKv100 = solveAt(measuredKv100, others100, 'ν100', 'measuredKv100');
+  // Unknown's weight: 1 (Refutas) or 1/ρ (ASTM Blending Method). For the Wright method it is
+  // 1/(ρ·B_u), B_u the slope of the unknown's own effective D341 line, so the two temperatures are
+  // coupled: solve with the current weight, recompute B_u from the result, repeat (a fixed point that
+  // converges in a few steps, since B moves the weights only slightly).
+  let cU = coords.massBasis ? 1 : 1 / unknown.density15;
+  let effectiveKv40 = solveAt(measuredKv40, others40, 'ν40', 'measuredKv40', cU);
+  let effectiveKv100 = solveAt(measuredKv100, others100, 'ν100', 'measuredKv100', cU);
+  if (method === 'd7152-wright') {
+    for (let it = 0; it < 200 && effectiveKv100 < effectiveKv40; it++) {
+      const next = coords.basisWeight(effectiveKv40, effectiveKv100, unknown.density15);
+      const done = Math.abs(next - cU) <= 1e-15 * cU;
+      cU = next;
+      effectiveKv40 = solveAt(measuredKv40, others40, 'ν40', 'measuredKv40', cU);
+      effectiveKv100 = solveAt(measuredKv100, others100, 'ν100', 'measuredKv100', cU);
+      if (done) break;
+    }
+  }
   assertFinite(fn, 'effectiveKv40', effectiveKv40);
   if (!(effectiveKv100 < effectiveKv40)) {
     throw new ViscosityOutOfRangeError(

@@ -10,6 +10,7 @@
  */
 import type { Price } from './model';
 import { blendDensity } from '../blending/density';
+import { blendDensityAtTemperature, densityAtTemperature } from '../blending/density-temperature';
 import { BlendbenchInputError, assertDensity15, assertFinite, assertFractions } from '../errors';
 
 function assertPrice(fn: string, field: string, v: unknown): asserts v is number {
@@ -88,27 +89,58 @@ export function blendCostPerLitre(
   return rho * perKg;
 }
 
+/**
+ * Cost per litre of a blend at a temperature (e.g. per delivered litre at the delivery temperature):
+ * c_L(t) = ρ_blend(t)·Σ wᵢ·p_kg,ᵢ, with ρ_blend(t) by the petroleum measurement tables' lubricating-oil
+ * correction of each component (ASTM D1250-80 Table 54D, `blending/density-temperature.ts`).
+ * At 15 °C it equals {@link blendCostPerLitre}.
+ *
+ * @param parts - `massFraction` wᵢ, `pricePerKg` [currency/kg], `density15` ρᵢ [kg/L] of each part
+ * @param tempC - the temperature at which the litres are counted [°C]
+ * @returns blend cost [currency per litre at tempC]
+ * @throws as {@link blendCostPerLitre}; BlendbenchInputError (temperature outside −50…300 °C)
+ * @example blendCostPerLitreAt([{ massFraction: 1, pricePerKg: 2, density15: 0.88 }], 60) // → 1.70299
+ * @see ASTM D1250-80 Table 54D; common practice.
+ */
+export function blendCostPerLitreAt(
+  parts: readonly { massFraction: number; pricePerKg: number; density15: number }[],
+  tempC: number,
+): number {
+  const perKg = blendCostPerKg(parts);
+  return blendDensityAtTemperature(parts, tempC) * perKg;
+}
+
 /** A batch size, by mass or by volume at 15 °C. */
 export type BatchSize = { kg: number } | { litres: number };
 
 /**
- * Quantities of each part for a batch, in kg and in litres at 15 °C.
+ * Quantities of each part for a batch, in kg, in litres at 15 °C and, when a metering temperature
+ * is given, in litres at that temperature (what a hot meter counts).
  *
  *   total kg = batch kg, or batch litres × ρ_blend;  total L = total kg / ρ_blend
  *   line kg = wᵢ × total kg;  line L = line kg / ρᵢ   (Σ line L = total L under ideal mixing)
+ *   line L at t = line kg / ρᵢ(t), ρᵢ(t) by ASTM D1250-80 Table 54D; total L at t = Σ line L at t
  *
  * @param parts - `massFraction` wᵢ [0–1, sum 1] and `density15` ρᵢ [kg/L] of each part
  * @param batch - `{ kg }` or `{ litres }` (at 15 °C), > 0
+ * @param meteringTempC - optional metering temperature t [°C] for litres at t
  * @returns totals and per-part lines, in part order
  * @throws InvalidNumberError, FractionSumError, ImplausibleDensityError, BlendbenchInputError
  *   (batch size not positive)
  * @example batchQuantities([{ massFraction: 1, density15: 0.9 }], { kg: 900 }) // → { totalKg: 900, totalLitres: 1000, … }
+ * @example batchQuantities([{ massFraction: 1, density15: 0.88 }], { kg: 880 }, 60) // → { …, totalLitresAtMetering: 1033.47 }
  * @see common practice.
  */
 export function batchQuantities(
   parts: readonly { massFraction: number; density15: number }[],
   batch: BatchSize,
-): { totalKg: number; totalLitres: number; lines: { kg: number; litres: number }[] } {
+  meteringTempC?: number,
+): {
+  totalKg: number;
+  totalLitres: number;
+  lines: { kg: number; litres: number; litresAtMetering: number | null }[];
+  totalLitresAtMetering: number | null;
+} {
   const fn = 'batchQuantities';
   const rho = blendDensity(parts);
   parts.forEach((p, i) => assertDensity15(fn, `parts[${i}].density15`, p.density15));
@@ -121,11 +153,13 @@ export function batchQuantities(
     totalKg = batch.litres * rho;
   }
   const totalLitres = 'litres' in batch ? batch.litres : totalKg / rho;
+  const at = meteringTempC === undefined ? null : meteringTempC;
   const lines = parts.map((p) => {
     const kg = p.massFraction * totalKg;
-    return { kg, litres: kg / p.density15 };
+    return { kg, litres: kg / p.density15, litresAtMetering: at === null ? null : kg / densityAtTemperature(p.density15, at) };
   });
-  return { totalKg, totalLitres, lines };
+  const totalLitresAtMetering = at === null ? null : lines.reduce((s, l) => s + l.litresAtMetering!, 0);
+  return { totalKg, totalLitres, lines, totalLitresAtMetering };
 }
 
 function assertPositive(fn: string, field: string, v: unknown): asserts v is number {

@@ -80,7 +80,7 @@ export interface Calibration {
     labReference: string;
   };
   /** Blending rule the calibration is valid for (the one used to solve it). */
-  method: 'refutas' | 'astm-d7152';
+  method: 'refutas' | 'astm-d7152' | 'd7152-wright';
   /** ISO date (YYYY-MM-DD) the calibration was made. */
   calibratedOn: string;
 }
@@ -121,6 +121,11 @@ export interface Component {
    * common-practice default.
    */
   kv40LotSpreadPct: number | null;
+  /**
+   * Measured permanent shear loss of ν40 [%] (ISO 26422 allows measuring the loss at 40 °C as well as
+   * at 100 °C); polymers; absent or null → not measured. Used directly at 40 °C when given.
+   */
+  shearLoss40Pct?: number | null;
   calibration: Calibration | null;
   /** Where the data come from (datasheet, lab report, "invented demo data"). */
   source: string;
@@ -264,8 +269,11 @@ export function newRecipeLifecycle(): Pick<
   };
 }
 
-/** What the solver optimises. */
-export type Objective = 'cost' | 'solvency' | 'oxidation' | 'closest';
+/**
+ * What the solver optimises: least cost per litre (at 15 °C), least cost per kg, best solvency,
+ * highest oxidation class, or closest to a reference recipe.
+ */
+export type Objective = 'cost' | 'cost-kg' | 'solvency' | 'oxidation' | 'closest';
 
 /** Per-component mass-fraction bounds (0–1). */
 export interface FractionBounds {

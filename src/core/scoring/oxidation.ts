@@ -3,24 +3,31 @@
  *
  * Scale: 1 to 5, higher = more oxidation-stable **in a finished, antioxidant-treated oil** (the
  * relevant case for a gear oil made with an additive package). The ordering of the defaults follows
- * common practice (no source) for the response of base-stock types to antioxidants:
+ * common practice (from memory, no source) for the response of base-stock types to antioxidants:
  *
- *   PAO ≈ Group III > Group II > alkylated naphthalene > Group I > saturated ester > unsaturated ester
+ *   PAO ≈ Group III ≥ saturated polyol ester ≈ alkylated naphthalene ≥ Group II > Group I
+ *     > unsaturated (natural or oleate) ester
  *
- * | Category          | Default | Why (common practice, no source)                                      |
+ * | Category          | Default | Why (common practice, from memory)                                    |
  * |-------------------|---------|-----------------------------------------------------------------------|
  * | Group IV (PAO)    | 5       | saturated, no aromatics or sulfur; strongest antioxidant response      |
  * | Group III         | 5       | severely hydroprocessed; ≈ PAO                                        |
  * | Group II          | 4       | hydroprocessed, low aromatics and sulfur                              |
- * | Group V           | 3       | mixed class (esters, alkylated naphthalene, PAG …): middle, override  |
+ * | Group V           | 4       | the Group V fluids of gear oils — saturated polyol esters and         |
+ * |                   |         | alkylated naphthalenes — are good to excellent, better than Group I;  |
+ * |                   |         | override: 1 for an unsaturated ester, lower for other chemistries     |
  * | Polymer           | 3       | small fraction, behaviour depends on chemistry: middle, override       |
  * | Group I           | 2       | aromatics and sulfur oxidise readily once natural inhibitors are used  |
  * | Additive package  | 3       | not a base fluid: excluded from the blend rating (see below)          |
  *
+ * Esters carry a second risk the scale does not rate: hydrolysis. With water present (and heat, acid
+ * or some additive chemistries) an ester splits back into acid and alcohol, raising acidity and
+ * attacking seals and deposits control — keep water out and check the ester's hydrolytic stability
+ * separately ({@link ESTER_HYDROLYSIS_CAVEAT}).
+ *
  * Untreated, a Group I oil can look better than a PAO because of its natural sulfur inhibitors;
  * the scale deliberately ranks the treated (finished-oil) behaviour. Users override the default per
- * component (`Component.oxidationRating`, any number in [1, 5]) — e.g. 3 for an alkylated
- * naphthalene, 2 for a saturated ester, 1 for an unsaturated ester.
+ * component (`Component.oxidationRating`, any number in [1, 5]) — e.g. 1 for an unsaturated ester.
  *
  * Blend rating: the mass-weighted mean over the **base fluid** (every component except additive
  * packages, fractions renormalised to sum 1). It is linear in the mass fractions, so a solver can
@@ -41,10 +48,15 @@ export const DEFAULT_OXIDATION_RATING: Readonly<Record<ComponentCategory, number
   'group-ii': 4,
   'group-iii': 5,
   'group-iv': 5,
-  'group-v': 3,
+  'group-v': 4,
   polymer: 3,
   'additive-package': 3,
 };
+
+/** The hydrolysis caveat shown wherever a Group V stock (possibly an ester) is in a blend. */
+export const ESTER_HYDROLYSIS_CAVEAT =
+  'Esters can hydrolyse: with water present they split into acid and alcohol, raising acidity; the oxidation ' +
+  'rating does not cover this — keep the oil dry and check the ester’s hydrolytic stability.';
 
 /** Named classes of the blend rating, lowest first. Names are Blendbench's own. */
 export type OxidationClass = 'low' | 'fair' | 'moderate' | 'good' | 'high';

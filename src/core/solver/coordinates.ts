@@ -4,9 +4,12 @@
  * Both rules are linear in a transformed viscosity X(ν):
  *
  * - Refutas:      X = VBN = 14.534·ln(ln(ν + 0.8)) + 10.975,  X_blend = Σ wᵢ·Xᵢ  (mass fractions wᵢ)
- * - ASTM D7152:   X = log₁₀ log₁₀(ν + 0.7),                   X_blend = Σ φᵢ·Xᵢ  (volume fractions φᵢ)
+ * - D7152 ASTM Blending Method:  X = log₁₀ log₁₀ Z(ν) (ASTM D341-20 Z),  X_blend = Σ φᵢ·Xᵢ  (volume fractions φᵢ)
+ * - D7152 Wright method:  the same X, X_blend = Σ (φᵢ/Bᵢ)·Xᵢ / Σ φᵢ/Bᵢ at any one temperature, Bᵢ the
+ *   slope of component i's D341-20 line through its ν40 and ν100 (derivation in `blending/wright.ts`)
  *
- * With basis weights cᵢ = 1 (mass) or cᵢ = 1/ρᵢ (volume, since φᵢ = (wᵢ/ρᵢ)/Σ wⱼ/ρⱼ) both read
+ * With basis weights cᵢ = 1 (mass), cᵢ = 1/ρᵢ (volume, since φᵢ = (wᵢ/ρᵢ)/Σ wⱼ/ρⱼ) or
+ * cᵢ = 1/(ρᵢ·Bᵢ) (Wright) all three read
  *
  *   X_blend = Σ cᵢ·wᵢ·Xᵢ / Σ cᵢ·wᵢ,
  *
@@ -14,17 +17,24 @@
  * fractions — the form every solver row takes. X is increasing in ν, so a viscosity band maps to an
  * X band.
  *
- * @see `blending/refutas.ts` and `blending/astm-loglog.ts` for the rules themselves (the solver calls
- *   the same functions, so its numbers agree with the calculation core).
+ * @see `blending/refutas.ts`, `blending/astm-loglog.ts` and `blending/wright.ts` for the rules
+ *   themselves (the solver calls the same functions, so its numbers agree with the calculation core).
  */
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { kvFromRefutasVbn, refutasVbn } from '../blending/refutas';
 import { astmLogLog, kvFromAstmLogLog } from '../blending/astm-loglog';
+import { wrightWeight } from '../blending/wright';
+import { d341LogLogZ, kvFromD341LogLogZ } from '../viscosity/viscosity-temperature';
 
 export interface BlendCoordinates {
   readonly method: BlendMethod;
-  /** True when the rule blends by mass fraction (cᵢ = 1); false for volume (cᵢ = 1/ρᵢ). */
+  /** True when the rule blends by mass fraction (cᵢ = 1); false for volume (cᵢ = 1/ρᵢ, Wright 1/(ρᵢBᵢ)). */
   readonly massBasis: boolean;
+  /**
+   * The basis weight cᵢ of a component with these ν40, ν100 [mm²/s] and ρ15 [kg/L]:
+   * 1 (Refutas), 1/ρ (ASTM Blending Method) or 1/(ρ·B) (Wright).
+   */
+  basisWeight(kv40: number, kv100: number, density15: number): number;
   /** X(ν) [dimensionless] of a kinematic viscosity ν [mm²/s]. */
   toX(kv: number): number;
   /** ν(X) [mm²/s], the inverse of {@link toX}. */
@@ -47,6 +57,7 @@ export interface BlendCoordinates {
 const REFUTAS: BlendCoordinates = {
   method: 'refutas',
   massBasis: true,
+  basisWeight: () => 1,
   toX: refutasVbn,
   toKv: kvFromRefutasVbn,
   // Same expressions as blending/refutas.ts (14.534, 10.975, natural logarithms).
@@ -60,17 +71,27 @@ const REFUTAS: BlendCoordinates = {
 const ASTM_D7152: BlendCoordinates = {
   method: 'astm-d7152',
   massBasis: false,
+  basisWeight: (_kv40, _kv100, density15) => 1 / density15,
   toX: astmLogLog,
   toKv: kvFromAstmLogLog,
-  // Same expressions as blending/astm-loglog.ts.
-  toXRaw: (kv) => Math.log10(Math.log10(kv + 0.7)),
-  toKvRaw: (x) => Math.pow(10, Math.pow(10, x)) - 0.7,
-  // d/dν log₁₀ log₁₀(ν + 0.7) = 1 / (ln10² · log₁₀(ν + 0.7) · (ν + 0.7)); × ν/100.
+  // Same functions as blending/astm-loglog.ts (ASTM D341-20 Z and its published inverse).
+  toXRaw: (kv) => d341LogLogZ(kv),
+  toKvRaw: (x) => kvFromD341LogLogZ(x),
+  // d/dν log₁₀ log₁₀(ν + 0.7) = 1 / (ln10² · log₁₀(ν + 0.7) · (ν + 0.7)); × ν/100. (The D341-20 term
+  // changes this local scale by less than 0.1 % above 2 mm²/s; it only weighs the 'closest' distance.)
   perPct: (kv) => ((1 / (Math.LN10 * Math.LN10 * Math.log10(kv + 0.7) * (kv + 0.7))) * kv) / 100,
   rowScale: 30,
 };
 
+const D7152_WRIGHT: BlendCoordinates = {
+  ...ASTM_D7152,
+  method: 'd7152-wright',
+  basisWeight: (kv40, kv100, density15) => wrightWeight(kv40, kv100) / density15,
+};
+
 /** The blending coordinates of a mixing rule. */
 export function blendCoordinates(method: BlendMethod): BlendCoordinates {
-  return method === 'astm-d7152' ? ASTM_D7152 : REFUTAS;
+  if (method === 'astm-d7152') return ASTM_D7152;
+  if (method === 'd7152-wright') return D7152_WRIGHT;
+  return REFUTAS;
 }

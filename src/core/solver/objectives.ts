@@ -17,9 +17,14 @@ export interface ExtraRow {
   lift?: ArrayLike<number>;
 }
 
-/** Cost per litre: Σ pᵢwᵢ / Σ wᵢ/ρᵢ. */
+/** Cost per litre (at 15 °C): Σ pᵢwᵢ / Σ wᵢ/ρᵢ. */
 export function costObjective(P: PreparedProblem): RatioObjective {
   return { kind: 'ratio', sense: 'minimize', num: P.price, den: P.invRho };
+}
+
+/** Cost per kg: Σ pᵢwᵢ / Σ wᵢ (ties go to the lower cost per litre, as for every non-cost objective). */
+export function costPerKgObjective(P: PreparedProblem): RatioObjective {
+  return { kind: 'ratio', sense: 'minimize', num: P.price, den: new Float64Array(P.n).fill(1) };
 }
 
 /** Blend aniline point: Σ_A (wᵢ/ρᵢ)APᵢ / Σ_A wᵢ/ρᵢ. */
@@ -88,6 +93,8 @@ function makePrimaryObjective(P: PreparedProblem): EngineObjective {
       return oxidationObjective(P);
     case 'closest':
       return { kind: 'closest' };
+    case 'cost-kg':
+      return costPerKgObjective(P);
     case 'cost':
     default:
       return costObjective(P);

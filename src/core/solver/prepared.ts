@@ -128,7 +128,7 @@ export interface PreparedProblem {
   readonly n: number;
   readonly x40: Float64Array;
   readonly x100: Float64Array;
-  /** Viscosity basis weight cᵢ (1 or 1/ρᵢ). */
+  /** Viscosity basis weight cᵢ (1, 1/ρᵢ, or 1/(ρᵢBᵢ) for Wright). */
   readonly c: Float64Array;
   readonly invRho: Float64Array;
   /** Aniline point, NaN where null. */
@@ -188,7 +188,7 @@ export function prepareEngine(
     x40[i] = coords.toX(k.kv40);
     x100[i] = coords.toX(k.kv100);
     invRho[i] = 1 / k.density15;
-    c[i] = coords.massBasis ? 1 : invRho[i]!;
+    c[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
     ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
     price[i] = k.pricePerKg;
     ox[i] = k.baseFluid ? k.oxidation : 0;

@@ -148,7 +148,7 @@ export function prepareComponents(
   reference: Recipe | null = null,
 ): PreparedBlend {
   const fn = 'prepareComponents';
-  if (method !== 'refutas' && method !== 'astm-d7152') fail('method', method, `${fn}: unknown mixing rule "${String(method)}"`);
+  if (method !== 'refutas' && method !== 'astm-d7152' && method !== 'd7152-wright') fail('method', method, `${fn}: unknown mixing rule "${String(method)}"`);
   // Targets.
   let iso: ReturnType<typeof gradeBand>;
   try {
@@ -181,7 +181,7 @@ export function prepareComponents(
   if (targets.minInBandProbability !== null && targets.minInBandProbability !== undefined) {
     assertProbability(fn, 'targets.minInBandProbability', targets.minInBandProbability);
   }
-  const objectives: Objective[] = ['cost', 'solvency', 'oxidation', 'closest'];
+  const objectives: Objective[] = ['cost', 'cost-kg', 'solvency', 'oxidation', 'closest'];
   if (!objectives.includes(targets.objective)) {
     fail('targets.objective', targets.objective, `${fn}: unknown objective "${String(targets.objective)}"`);
   }
@@ -394,6 +394,7 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
   }
   let objectiveValue = r.objectiveValue;
   if (P.blendTargets.objective === 'cost' && properties.costPerLitre !== null) objectiveValue = properties.costPerLitre;
+  if (P.blendTargets.objective === 'cost-kg' && properties.costPerKg !== null) objectiveValue = properties.costPerKg;
   if (P.blendTargets.objective === 'solvency' && properties.anilinePoint) objectiveValue = properties.anilinePoint.value;
   if (P.blendTargets.objective === 'oxidation' && properties.oxidationRating !== null) objectiveValue = properties.oxidationRating;
   const inBand = recipeInBand(P.library, lines, P.blendTargets.grade, P.band, P.method);

@@ -217,12 +217,17 @@ export function shearRow(pred: Extract<Prediction, { ok: true }>, targets: Blend
   const inputs: Record<string, string | number> = {
     'ν40 before shear [mm²/s]': Number(sh.kv40Before.toFixed(2)),
     'ν100 before → after shear [mm²/s]': `${fmt.num(sh.kv100Before, 2)} → ${fmt.num(sh.kv100After, 2)}`,
-    'blend loss of ν100, L = Σ sₚ·Lₚ [%]': Number(sh.lossKv100Pct.toFixed(2)),
-    'resulting loss of ν40 [%]': Number(sh.lossKv40Pct.toFixed(2)),
-    'ν40 if it lost the same % as ν100 (simpler assumption) [mm²/s]': Number(sh.kv40AfterSameRelativeLoss.toFixed(1)),
+    'losses measured at': sh.statedAt === 'both' ? '40 and 100 °C' : `${sh.statedAt} °C`,
+    'blend loss of ν100 [%]': Number(sh.lossKv100Pct.toFixed(2)),
+    'blend loss of ν40 [%]': Number(sh.lossKv40Pct.toFixed(2)),
+    'VI after shear (indicative only)': sh.viAfter === null ? 'not defined' : Number(sh.viAfter.toFixed(0)),
   };
+  if (sh.kv40AfterSameRelativeLoss !== null) {
+    inputs['ν40 if it lost the same % as ν100 (simpler assumption) [mm²/s]'] = Number(sh.kv40AfterSameRelativeLoss.toFixed(1));
+  }
   for (const p of sh.polymers) {
-    inputs[`${pred.codes.get(p.componentId) ?? p.componentId} stated KRL loss Lₚ [%] / share of thickening sₚ`] = `${fmt.num(p.shearLossPct, 1)} / ${fmt.num(p.share, 3)}`;
+    const stated = p.shearLoss40Pct === null ? `ν100 ${fmt.num(p.shearLossPct, 1)}` : p.shearLossPct > 0 ? `ν100 ${fmt.num(p.shearLossPct, 1)}, ν40 ${fmt.num(p.shearLoss40Pct, 1)}` : `ν40 ${fmt.num(p.shearLoss40Pct, 1)}`;
+    inputs[`${pred.codes.get(p.componentId) ?? p.componentId} stated loss [%] / share of thickening sₚ`] = `${stated} / ${fmt.num(p.share, 3)}`;
   }
   return {
     ...base,

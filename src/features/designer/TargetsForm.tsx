@@ -7,7 +7,8 @@ import { useFormat } from '../../components/format';
 import { checkNumber, type SayNumbers } from '../../state/field-rules';
 
 export const OBJECTIVE_LABEL: Record<Objective, string> = {
-  cost: 'Least cost per litre',
+  cost: 'Least cost per litre (at 15 °C)',
+  'cost-kg': 'Least cost per kg',
   solvency: 'Best solvency (lowest aniline point)',
   oxidation: 'Highest oxidation-stability class',
   closest: 'Closest to a reference recipe',

@@ -19,7 +19,8 @@ import './explorer.css';
 const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
 
 const RANKING_LABEL: Record<Objective, string> = {
-  cost: 'least cost per litre',
+  cost: 'least cost per litre (at 15 °C)',
+  'cost-kg': 'least cost per kg',
   solvency: 'best solvency (lowest aniline point)',
   oxidation: 'highest oxidation-stability rating',
   closest: 'closest to the reference',

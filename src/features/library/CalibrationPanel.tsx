@@ -9,7 +9,11 @@ import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature'
 import type { Formatter } from '../../components/format';
 
 export type BlendRule = Calibration['method'];
-export const RULE_LABEL: Record<BlendRule, string> = { refutas: 'Refutas (mass basis)', 'astm-d7152': 'ASTM D7152 (volume basis)' };
+export const RULE_LABEL: Record<BlendRule, string> = {
+  refutas: 'Refutas (mass basis)',
+  'astm-d7152': 'D7152 ASTM Blending Method (constant temperature, volume basis)',
+  'd7152-wright': 'D7152 Wright method (volume basis)',
+};
 
 interface TrialLine {
   key: number;

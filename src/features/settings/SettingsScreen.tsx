@@ -17,6 +17,7 @@ import { checkDate, checkNumber, checkText } from '../../state/field-rules';
 import { normaliseCurrency, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
 import { applyBackup, backupFileName, makeBackupText, parseBackupText, type BackupParse } from '../../state/backup';
+import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 
 const update = settingsActions.updateSettings;
 
@@ -318,15 +319,36 @@ export default function SettingsScreen() {
             validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -60 || fmt.tempToC(v) > 60) ? 'between −60 and 60 °C' : undefined })}
             onCommit={(v) => v !== null && update({ coldStartTempC: fmt.tempToC(v) })}
           />
-          <SelectField<'refutas' | 'astm-d7152'>
+          <NumberField
+            label="Metering temperature (litres on the blend sheet)"
+            unit={fmt.tempUnit}
+            digits={s.temperatureUnit === 'F' ? 1 : undefined}
+            value={fmt.tempValue(s.meteringTempC)}
+            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -20 || fmt.tempToC(v) > 150) ? 'between −20 and 150 °C' : undefined })}
+            onCommit={(v) => v !== null && update({ meteringTempC: fmt.tempToC(v) })}
+          />
+          <NumberField
+            label="Delivery temperature (cost per delivered litre)"
+            unit={fmt.tempUnit}
+            digits={s.temperatureUnit === 'F' ? 1 : undefined}
+            value={fmt.tempValue(s.deliveryTempC)}
+            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -20 || fmt.tempToC(v) > 150) ? 'between −20 and 150 °C' : undefined })}
+            onCommit={(v) => v !== null && update({ deliveryTempC: fmt.tempToC(v) })}
+          />
+          <p className="small muted">
+            Litres at a temperature follow the petroleum measurement tables for lubricating oils (ASTM D1250-80 / ISO 91-1,
+            Table 54D); litres without a temperature are at 15 °C.
+          </p>
+          <SelectField<BlendMethod>
             label="Blend viscosity method"
             value={s.blendMethod}
-            options={[
-              { value: 'refutas', label: 'Refutas (mass fractions)' },
-              { value: 'astm-d7152', label: 'ASTM D7152 log-log (volume fractions)' },
-            ]}
+            options={BLEND_METHODS.map((m) => ({ value: m, label: BLEND_METHOD_LABEL[m] }))}
             onChange={(blendMethod) => update({ blendMethod })}
           />
+          <p className="small muted">
+            The D7152 Wright method uses each stock’s viscosity at two temperatures; ASTM D7152 calls it generally preferred to its
+            ASTM Blending Method (one temperature). Refutas is a separate, mass-based rule, not part of D7152.
+          </p>
         </fieldset>
 
         <ExchangeRates />

@@ -75,7 +75,9 @@ describe('ASTM D7152 log-log rule: check values', () => {
   it('inverse reaches the B4 blend at φ = 0.5', () => {
     // formula, exact linear inverse of the log-log rule (check-values.md B4)
     expectClose(astmHeavyFraction(100, 460, 203.35), 0.5, 1e-4);
-    for (const kv of [2, 10, 460, 6500]) expectRelClose(kvFromAstmLogLog(astmLogLog(kv)), kv, 1e-12); // identity
+    for (const kv of [10, 460, 6500]) expectRelClose(kvFromAstmLogLog(astmLogLog(kv)), kv, 1e-12); // identity
+    // ASTM D341-20's published inverse is exact to rounding only from about 5 mm²/s up (viscosity-temperature.test.ts)
+    expectRelClose(kvFromAstmLogLog(astmLogLog(2)), 2, 1e-4);
   });
 });
 
@@ -139,7 +141,10 @@ describe('blend at any temperature', () => {
   it('names every method', () => {
     expect(Object.keys(BLEND_METHOD_LABEL).sort()).toEqual([...BLEND_METHODS].sort());
     expect(BLEND_METHOD_LABEL.refutas).toMatch(/Refutas/);
-    expect(BLEND_METHOD_LABEL['astm-d7152']).toMatch(/ASTM D7152/);
+    expect(BLEND_METHOD_LABEL['astm-d7152']).toMatch(/^D7152 ASTM Blending Method \(constant temperature\)/);
+    expect(BLEND_METHOD_LABEL['d7152-wright']).toMatch(/^D7152 Wright method/);
+    // Refutas is not a D7152 method and is never labelled as one (issue 13)
+    expect(BLEND_METHOD_LABEL.refutas).not.toMatch(/D7152/);
   });
 
   it('rejects impossible parts with the part named', () => {
@@ -156,8 +161,8 @@ describe('blend at any temperature', () => {
     expect(() => blendViscosityAt('other' as never, [light, heavy], 40)).toThrow(BlendbenchInputError);
     expect(() => blendViscosityAt('refutas', [light, heavy], -274)).toThrow(/absolute zero/);
     // a component thinned below the D341 range at the blending temperature names the part
-    expect(() => blendViscosityAt('refutas', [heavy, { ...light, kv40: 20, kv100: 4 }], 200)).toThrow(
-      /^blendViscosityAt: parts\[1\]: viscosityAtTemperature: at tempC = 200 °C/,
+    expect(() => blendViscosityAt('refutas', [heavy, { ...light, kv40: 20, kv100: 4 }], 3000)).toThrow(
+      /^blendViscosityAt: parts\[\d\]: viscosityAtTemperature: at tempC = 3000 °C/,
     );
   });
 });
@@ -227,7 +232,9 @@ describe.each(rules)('%s properties', (_name, rule) => {
       fc.property(partsArb, (parts) => {
         const kv = rule(parts);
         const kvs = parts.map((p) => p.kv);
-        return kv >= Math.min(...kvs) * (1 - 1e-9) && kv <= Math.max(...kvs) * (1 + 1e-9);
+        // D341-20's published inverse (D7152 rule) is exact to rounding only from about 5 mm²/s up
+        const tol = Math.min(...kvs) < 5 ? 2e-4 : 1e-9;
+        return kv >= Math.min(...kvs) * (1 - tol) && kv <= Math.max(...kvs) * (1 + tol);
       }),
     );
   });
@@ -239,7 +246,9 @@ describe.each(rules)('%s properties', (_name, rule) => {
         const [lo, hi] = a < b ? [a, b] : [b, a];
         const [w1, w2] = x < y ? [x, y] : [y, x];
         const blend = (w: number): number => rule([{ f: 1 - w, kv: lo }, { f: w, kv: hi }]);
-        return blend(w1) <= blend(w2) * (1 + 1e-12);
+        // a single part returns its ν exactly; a blend goes through D341-20's published inverse, exact
+        // to rounding only from about 5 mm²/s up (viscosity-temperature.test.ts)
+        return blend(w1) <= blend(w2) * (1 + (lo < 5 ? 2e-4 : 1e-12));
       }),
     );
   });
@@ -252,7 +261,8 @@ describe('two-component inverses reproduce their target', () => {
       fc.property(kvArb, kvArb, fc.double({ min: 0, max: 1, noNaN: true }), (a, b, s) => {
         fc.pre(Math.abs(a - b) > 1e-6 * Math.max(a, b));
         const [lo, hi] = a < b ? [a, b] : [b, a];
-        const target = lo + s * (hi - lo);
+        // clamped: lo + 1·(hi − lo) can round one ulp above hi (found by the property, seed −1026814035)
+        const target = Math.min(hi, lo + s * (hi - lo));
         const w = refutasHeavyFraction(lo, hi, target);
         const phi = astmHeavyFraction(lo, hi, target);
         const r = blendViscosityRefutas([
@@ -263,7 +273,8 @@ describe('two-component inverses reproduce their target', () => {
           { volumeFraction: 1 - phi, kv: lo },
           { volumeFraction: phi, kv: hi },
         ]);
-        return w >= -1e-12 && w <= 1 + 1e-12 && isClose(r, target, 1e-8) && isClose(d, target, 1e-8);
+        // the D7152 rule inverts Z by D341-20's published inverse: exact to rounding from about 5 mm²/s
+        return w >= -1e-12 && w <= 1 + 1e-12 && isClose(r, target, 1e-8) && isClose(d, target, target < 5 ? 2e-4 : 1e-8);
       }),
     );
   });

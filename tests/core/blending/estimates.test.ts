@@ -6,8 +6,8 @@ import {
   FractionSumError,
   NonPositiveViscosityError,
 } from '../../../src/core/errors';
-import { blendFlashPoint, flashBlendingIndex, flashPointFromIndex } from '../../../src/core/blending/flash-point';
-import { blendPourPoint, pourBlendingIndex, pourPointFromIndex } from '../../../src/core/blending/pour-point';
+import { blendFlashPoint, flashBlendingIndex, flashIndexExtrapolated, flashPointFromIndex } from '../../../src/core/blending/flash-point';
+import { blendPourPoint, pourBlendingIndex, pourIndexExtrapolated, pourPointFromIndex } from '../../../src/core/blending/pour-point';
 import { inGradeAfterShear, krlShearLossPct, shearedKv } from '../../../src/core/viscosity/shear';
 import { expectClose } from '../../helpers/tolerance';
 
@@ -105,3 +105,32 @@ describe('permanent shear loss, KRL definition', () => {
     expect(() => krlShearLossPct(0, 1)).toThrow(NonPositiveViscosityError);
   });
 });
+
+describe('published forms and fitted ranges of the flash and pour indices (issue 13 §3)', () => {
+  it('Wickey–Chittenden in kelvin equals its °F form log BI = −6.1188 + 4345.2/(t_F + 383)', () => {
+    // algebraic identity of the two published forms (constants from memory, check-values.md F1)
+    for (const tC of [20, 50, 150, 250]) {
+      const tF = tC * 1.8 + 32;
+      expectClose(Math.log10(flashBlendingIndex(tC)), -6.1188 + 4345.2 / (tF + 383), 1e-3);
+    }
+  });
+  it('Hu–Burns gives the same blend in kelvin or in Rankine', () => {
+    // identity: T^12.5 scales by 1.8^12.5 for every part (check-values.md P1 value −25.12 °C)
+    const parts = [
+      { volumeFraction: 0.5, pourPoint: -15 },
+      { volumeFraction: 0.5, pourPoint: -45 },
+    ];
+    const k = blendPourPoint(parts)!;
+    const rankine = Math.pow(0.5 * Math.pow((-15 + 273.15) * 1.8, 12.5) + 0.5 * Math.pow((-45 + 273.15) * 1.8, 12.5), 0.08) / 1.8 - 273.15;
+    expectClose(k, rankine, 1e-9);
+    expectClose(k, -25.12, 0.05);
+  });
+  it('gear-oil flash points (200–300 °C) are marked as extrapolation; pour points outside −50…10 °C too', () => {
+    // fitted ranges as stated in flash-point.ts / pour-point.ts (from memory)
+    expect(flashIndexExtrapolated(230, [220, 250])).toBe(true);
+    expect(flashIndexExtrapolated(150, [140, 160])).toBe(false);
+    expect(pourIndexExtrapolated(-12, [-15, -9])).toBe(false);
+    expect(pourIndexExtrapolated(-12, [-60, 3])).toBe(true);
+  });
+});
+

@@ -98,3 +98,42 @@ describe('predictBlend', () => {
     expect(() => predictBlend([A], [{ componentId: 'x', massFraction: 1 }])).toThrow(/names no component/);
   });
 });
+
+describe('predictBlend — issue 13: guards, methods, density and cost at temperature', () => {
+  const lines = [
+    { componentId: 'a', massFraction: 0.5 },
+    { componentId: 'b', massFraction: 0.5 },
+  ];
+  it('flags viscosities outside 40–100 °C and outside −20…150 °C', () => {
+    // extrapolation guard (ASTM D341-20 line; band −20…150 °C common practice, no source)
+    const p = predictBlend([A, B], lines, { operatingTempC: 65, coldTempC: -30 });
+    expect(p.kvAtOperating).toMatchObject({ tempC: 65, extrapolated: false, outsideBand: false });
+    expect(p.kvAtCold).toMatchObject({ tempC: -30, extrapolated: true, outsideBand: true });
+    expect(p.warnings.join(' ')).toMatch(/−?-?30 °C lies outside -20…150 °C/);
+  });
+  it('names the D7152 methods and never Refutas as one', () => {
+    // labels required by issue 13 §2
+    expect(predictBlend([A, B], lines, { method: 'astm-d7152' }).explain.kv40!.standard).toMatch(/ASTM D7152, ASTM Blending Method \(constant temperature\)/);
+    expect(predictBlend([A, B], lines, { method: 'd7152-wright' }).explain.kv40!.standard).toMatch(/ASTM D7152, Wright method/);
+    expect(predictBlend([A, B], lines).explain.kv40!.standard).toMatch(/not an ASTM D7152 method/);
+  });
+  it('marks the gear-oil flash estimate as an extrapolation of the Wickey–Chittenden index', () => {
+    // fitted range as stated in flash-point.ts (from memory): components flash at 200 and 250 °C
+    const p = predictBlend([A, B], lines);
+    expect(p.flashPointExtrapolated).toBe(true);
+    expect(p.explain.flashPoint!.note).toMatch(/Extrapolation/);
+    expect(p.explain.flashPoint!.standard).toMatch(/Wickey–Chittenden/);
+    expect(p.explain.pourPoint!.standard).toMatch(/Hu–Burns/);
+  });
+  it('density and cost per delivered litre at the delivery temperature (Table 54D)', () => {
+    // identity with the Table 54D functions (ASTM D1250-80); at 15 °C equal to the 15 °C values (D1, D2)
+    const at15 = predictBlend([A, B], lines);
+    expect(at15.densityAtDelivery.tempC).toBe(15);
+    expect(at15.densityAtDelivery.density).toBeCloseTo(at15.density15, 12);
+    expect(at15.costPerDeliveredLitre!.cost).toBeCloseTo(at15.costPerLitre!, 12);
+    const at40 = predictBlend([A, B], lines, { deliveryTempC: 40 });
+    expect(at40.densityAtDelivery.density).toBeLessThan(at40.density15);
+    expect(at40.costPerDeliveredLitre!.cost).toBeCloseTo(at40.costPerKg! * at40.densityAtDelivery.density, 12);
+  });
+});
+

@@ -21,7 +21,7 @@ describe('calibrateComponent', () => {
   const lib = [stock('g2heavy'), stock('g2med'), stock('pib'), stock('add')];
   const trial = { g2heavy: 0.6, g2med: 0.28, pib: 0.1, add: 0.02 };
 
-  for (const method of ['refutas', 'astm-d7152'] as const) {
+  for (const method of ['refutas', 'astm-d7152', 'd7152-wright'] as const) {
     it(`round-trips: calibrate then predict reproduces the measured trial (${method})`, () => {
       // identity of the exact inverse of the rule (check-values.md §3 equations), 1e-9 relative
       const cal = calibrateComponent({

@@ -68,7 +68,7 @@ describe('blendAfterShear', () => {
     expect(r.inGradeAfter).toBe(false);
     // the mild polymer keeps it in grade
     expect(blendAfterShear(lib, withPib, { grade: 320 }).inGradeAfter).toBe(true);
-    expectRelClose(r.kv40AfterSameRelativeLoss, r.kv40Before * 0.7, 1e-12);
+    expectRelClose(r.kv40AfterSameRelativeLoss!, r.kv40Before * 0.7, 1e-12);
   });
 
   it('splits the loss between two polymers by their share of the thickening', () => {
@@ -84,3 +84,43 @@ describe('blendAfterShear', () => {
     expectClose(krlShearLossPct(r.kv100Before, r.kv100After), 16, 1e-9);
   });
 });
+
+describe('blendAfterShear — a measured ν40 loss (ISO 26422 allows either temperature)', () => {
+  const pib40 = makeComponent({ ...STOCKS.pib!, id: 'pib40', shearLossPct: null });
+  const lib40 = [stock('g2heavy'), { ...pib40, shearLoss40Pct: 3 }, stock('add')];
+  const lines40 = [
+    { componentId: 'g2heavy', massFraction: 0.66 },
+    { componentId: 'pib40', massFraction: 0.32 },
+    { componentId: 'add', massFraction: 0.02 },
+  ];
+  for (const method of ['refutas', 'astm-d7152'] as const) {
+    it(`a stated ν40 loss is met exactly at 40 °C and carried to 100 °C (${method})`, () => {
+      // KRL loss definition (check-values.md S1) applied at 40 °C; carry-over as stated in shear-blend.ts
+      const r = blendAfterShear(lib40, lines40, { method });
+      expect(r.statedAt).toBe('40');
+      expectClose(r.lossKv40Pct, 3, 1e-9);
+      expect(r.lossKv100Pct).toBeGreaterThan(0);
+      expect(r.kv40AfterSameRelativeLoss).toBeNull();
+      expect(r.polymers[0]!.shearLoss40Pct).toBe(3);
+      expect(r.viAfterNote).toMatch(/Indicative only/);
+    });
+  }
+  it('with both losses stated each temperature uses its own measurement', () => {
+    // KRL loss definition (check-values.md S1) at both temperatures; no carry-over
+    const both = [stock('g2heavy'), { ...makeComponent({ ...STOCKS.pib!, id: 'pib40', shearLossPct: 2 }), shearLoss40Pct: 4 }, stock('add')];
+    const r = blendAfterShear(both, lines40, { method: 'refutas' });
+    expect(r.statedAt).toBe('both');
+    expectClose(r.lossKv40Pct, 4, 1e-9);
+    expectClose(r.lossKv100Pct, 2, 1e-9);
+  });
+  it('refuses a ν40 loss outside [0, 100) naming the field', () => {
+    const bad = [stock('g2heavy'), { ...pib40, shearLoss40Pct: 120 }, stock('add')];
+    expect(() => blendAfterShear(bad, lines40)).toThrow(/pib40\.shearLoss40Pct|ν40 shear loss/);
+  });
+  it('Wright method: the blend loss at 100 °C is met after rescaling for the sheared slope', () => {
+    // KRL loss definition (check-values.md S1); Wright weights use the unsheared slope (shear-blend.ts note)
+    const r = blendAfterShear(lib, withPib, { method: 'd7152-wright' });
+    expectClose(krlShearLossPct(r.kv100Before, r.kv100After), 2, 1e-6);
+  });
+});
+

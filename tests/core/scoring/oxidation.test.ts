@@ -22,9 +22,10 @@ describe('oxidationRating (Blendbench ordinal scale)', () => {
     expect(r('group-ii')).toBeGreaterThan(r('group-i'));
   });
 
-  it('puts the mixed Group V class in the middle of the scale by default', () => {
-    // design choice of Blendbench's own scale (common practice, no source)
-    expect(oxidationRating(comp('x', 'group-v'))).toBe(3);
+  it('rates Group V (saturated polyol esters, alkylated naphthalenes) above Group I by default', () => {
+    // issue 13 §5, common practice (from memory): those Group V fluids are good to excellent, better than Group I
+    expect(oxidationRating(comp('x', 'group-v'))).toBe(4);
+    expect(oxidationRating(comp('x', 'group-v'))).toBeGreaterThan(oxidationRating(comp('x', 'group-i')));
   });
 
   it('uses the component override when set', () => {

@@ -77,7 +77,7 @@ describe('solveBlend — every constraint holds when the recipe is recomputed by
     targets({ grade: 220, targetKv40: 230, tolerancePct: 3, objective: 'solvency', maxPolymerFraction: 0.1 }),
     targets({ grade: 460, objective: 'oxidation', minVi: 120 }),
   ];
-  for (const method of ['refutas', 'astm-d7152'] as const) {
+  for (const method of ['refutas', 'astm-d7152', 'd7152-wright'] as const) {
     it(`(${method})`, () => {
       for (const t of cases) {
         const r = optimal(solveBlend({ components: LIBRARY, targets: t, method }));
@@ -116,6 +116,21 @@ describe('solveBlend — objectives', () => {
     // common practice (no source): cost per litre = ρ × cost per kg, so the lighter stock wins per litre
     expect(frac(r, 'lite')).toBeGreaterThan(0);
     expect(frac(r, 'dense')).toBe(0);
+  });
+  it('least cost per kg: its per-kg cost is the lowest, its objective value the blend cost per kg', () => {
+    // comparison of two optima (no external source): per kg the cost-kg optimum cannot be beaten, per
+    // litre the cost optimum cannot; identity of the objective value with the predicted cost per kg
+    const kg = optimal(solveBlend({ components: LIBRARY, targets: { ...t, objective: 'cost-kg' } }));
+    expect(kg.properties.costPerKg!).toBeLessThanOrEqual(cost.properties.costPerKg! + 1e-9);
+    expect(cost.properties.costPerLitre!).toBeLessThanOrEqual(kg.properties.costPerLitre! + 1e-9);
+    expect(kg.objectiveValue).toBeCloseTo(kg.properties.costPerKg!, 9);
+    // the per-kg objective prefers the dense stock that the per-litre objective rejects (see above)
+    const dense = { ...stock('dense', 'group-v', 460, 31, 1.2, 100, 1.45), price: { amount: 1.05, basis: 'per-kg' as const, currency: 'EUR' } };
+    const light = { ...stock('lite', 'group-ii', 460, 31, 0.8, 127, 1.1), price: { amount: 1.3, basis: 'per-kg' as const, currency: 'EUR' } };
+    const mid = stock('mid', 'group-ii', 110, 12, 0.872, 121, 1.2);
+    const rk = optimal(solveBlend({ components: [dense, light, mid], targets: targets({ grade: 320, additive: null, objective: 'cost-kg' }) }));
+    expect(frac(rk, 'dense')).toBeGreaterThan(0);
+    expect(frac(rk, 'lite')).toBe(0);
   });
   it('best solvency has a lower aniline point than least cost, and costs no less', () => {
     const s = optimal(solveBlend({ components: LIBRARY, targets: { ...t, objective: 'solvency' } }));

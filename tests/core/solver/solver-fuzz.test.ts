@@ -249,9 +249,9 @@ const blendProblem = fc
         }),
         { maxKeys: 2 },
       ),
-      objective: fc.constantFrom('cost' as const, 'solvency' as const, 'oxidation' as const, 'closest' as const),
+      objective: fc.constantFrom('cost' as const, 'cost-kg' as const, 'solvency' as const, 'oxidation' as const, 'closest' as const),
       referenceWeights: fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: components.length, maxLength: components.length }),
-      method: fc.constantFrom('refutas' as const, 'astm-d7152' as const),
+      method: fc.constantFrom('refutas' as const, 'astm-d7152' as const, 'd7152-wright' as const),
     });
   });
 
