@@ -274,6 +274,8 @@ export type { StockFieldChange, StockChange } from './recipes/stock-basis';
 export { stockSnapshot, recordStockBasis, stockBasisChanges } from './recipes/stock-basis';
 export type { ShareChange } from './recipes/share-changes';
 export { shareChanges } from './recipes/share-changes';
+export type { RecipeImpact, ImpactPrediction } from './recipes/impact';
+export { predictionImpact } from './recipes/impact';
 
 // Release hold: why a blend sheet is not for release
 export type { HoldKind, HoldReason, ReleaseHoldInput, ReleaseAssessment } from './release/release-hold';

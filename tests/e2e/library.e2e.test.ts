@@ -93,6 +93,10 @@ describe('component library and saved work', () => {
     const kv40 = page.getByLabel('ν40 of BW-190 [mm²/s]');
     await kv40.fill('490');
     await kv40.press('Enter');
+    // BW-190 is in every demo recipe: the change is shown with the recipes it moves, then stored (issue 10, item 14).
+    const dialog = page.getByRole('alertdialog');
+    await dialog.getByText(/moves 4 saved recipes/).waitFor();
+    await dialog.getByRole('button', { name: /Store the change/ }).click();
     await page.getByRole('link', { name: /Settings/ }).click();
     await page.getByRole('heading', { name: 'Settings' }).waitFor();
     await page.getByLabel('Temperatures in').selectOption('F');

@@ -2,6 +2,7 @@
 // the stored calibration's provenance, and the form that solves a new one with the core.
 import { useId, useMemo, useState } from 'react';
 import { userMessage } from '../../state/messages';
+import type { StockUpdateOutcome } from './ImpactConfirm';
 import type { Calibration, Component, Recipe } from '../../core/formulation/model';
 import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/formulation/calibration';
 import { blendingViscosities, predictBlend } from '../../core/formulation/blend-properties';
@@ -30,7 +31,8 @@ export interface CalibrationPanelProps {
   /** Today's ISO date (YYYY-MM-DD), the date a new calibration is stored with. */
   today: string;
   fmt: Formatter;
-  onStore: (calibration: Calibration | null) => void;
+  /** Stores (or asks to confirm, when it moves saved recipes) a calibration; null removes it. */
+  onStore: (calibration: Calibration | null) => StockUpdateOutcome | void;
 }
 
 function ownKv(c: Component): { kv40: number; kv100: number } | null {
@@ -415,9 +417,17 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
                 type="button"
                 className="primary"
                 onClick={() => {
-                  onStore(result);
+                  const outcome = onStore(result);
+                  if (outcome && outcome.kind === 'refused') {
+                    setStored(`Not stored: ${outcome.message}`);
+                    return;
+                  }
                   setOpen(false);
-                  setStored(`Calibration stored for ${c.code}: blends now use ν40 ${fmt.sig(result.effectiveKv40, 4)} / ν100 ${fmt.sig(result.effectiveKv100, 4)} mm²/s.`);
+                  setStored(
+                    outcome && outcome.kind === 'confirm'
+                      ? `The calibration of ${c.code} moves saved recipes: confirm or cancel in the window that opened.`
+                      : `Calibration stored for ${c.code}: blends now use ν40 ${fmt.sig(result.effectiveKv40, 4)} / ν100 ${fmt.sig(result.effectiveKv100, 4)} mm²/s.`,
+                  );
                 }}
               >
                 Store calibration for {c.code}

@@ -1,5 +1,6 @@
 import type { Component, PriceBasis, Recipe } from '../../core/formulation/model';
 import { oxidationRating } from '../../core/scoring/oxidation';
+import type { StockUpdateOutcome } from './ImpactConfirm';
 import { PRICE_BASIS_LABEL } from '../../core/units';
 import { pricePerKg } from '../../core/formulation/cost';
 import { NumberField, SelectField, TextField } from '../../components/fields';
@@ -19,7 +20,8 @@ export interface DetailsProps {
   defaultMethod: BlendRule;
   /** Today's ISO date (YYYY-MM-DD), passed in by the screen. */
   today: string;
-  onUpdate: (id: string, patch: Partial<Omit<Component, 'id'>>) => void;
+  /** Stores a change (or asks to confirm one that moves saved recipes; see ImpactConfirm). */
+  onUpdate: (id: string, patch: Partial<Omit<Component, 'id'>>) => StockUpdateOutcome | void;
 }
 
 function safePerKg(c: Component): number | null {

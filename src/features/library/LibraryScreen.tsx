@@ -11,6 +11,17 @@ import { checkComponent } from '../../state/checks';
 import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
 import { ComponentDetails } from './ComponentDetails';
 import { ImportPanel } from './ImportPanel';
+import { ImpactConfirm, type PendingStockChange, type StockUpdateOutcome } from './ImpactConfirm';
+import { predictionImpact } from '../../core/recipes/impact';
+
+
+/** Stock fields whose change moves the viscosity and density predictions of recipes. */
+const PREDICTION_INPUTS = ['viscosityPoints', 'density15', 'calibration'] as const;
+const PREDICTION_INPUT_LABEL: Record<(typeof PREDICTION_INPUTS)[number], string> = {
+  viscosityPoints: 'viscosities',
+  density15: 'density',
+  calibration: 'calibration',
+};
 
 function localIsoDate(d: Date): string {
   const pad = (n: number) => String(n).padStart(2, '0');
@@ -69,7 +80,43 @@ export default function LibraryScreen() {
     },
     [],
   );
-  const onUpdate = useCallback((id: string, patch: Partial<Omit<Component, 'id'>>) => useLibrary.getState().updateComponent(id, patch), []);
+  // A change that moves saved recipes' predictions waits for the user's confirmation (issue 10, item 14).
+  const [pending, setPending] = useState<PendingStockChange | null>(null);
+  const onUpdate = useCallback(
+    (id: string, patch: Partial<Omit<Component, 'id'>>): StockUpdateOutcome => {
+      const store = useLibrary.getState();
+      const apply = () => store.updateComponent(id, patch);
+      const what = PREDICTION_INPUTS.filter((k) => k in patch);
+      if (what.length === 0) {
+        const refused = apply();
+        return refused ? { kind: 'refused', message: refused } : { kind: 'stored' };
+      }
+      const before = store.components;
+      const c = before.find((x) => x.id === id);
+      if (!c) return { kind: 'stored' };
+      const after = before.map((x) => (x.id === id ? { ...x, ...patch } : x));
+      const impact = predictionImpact(useRecipes.getState().recipes, before, after, [id], blendMethod);
+      if (impact.length === 0) {
+        const refused = apply();
+        return refused ? { kind: 'refused', message: refused } : { kind: 'stored' };
+      }
+      setPending({
+        code: c.code,
+        what: what.map((k) => PREDICTION_INPUT_LABEL[k]).join(' and '),
+        impact,
+        apply: () => {
+          const refused = apply();
+          setFlash(
+            refused
+              ? { tone: 'warning', text: refused }
+              : { tone: 'success', text: `Stored the ${what.map((k) => PREDICTION_INPUT_LABEL[k]).join(' and ')} of ${c.code}; ${impact.length} saved ${impact.length === 1 ? 'recipe is' : 'recipes are'} flagged as changed since saved.`, undo: true },
+          );
+        },
+      });
+      return { kind: 'confirm' };
+    },
+    [blendMethod],
+  );
   const onToggleDetails = useCallback((id: string) => setExpanded((e) => (e === id ? null : id)), []);
   const onClone = useCallback((id: string) => {
     const newId = useLibrary.getState().cloneComponent(id);
@@ -188,6 +235,16 @@ export default function LibraryScreen() {
         >
           {flash.text}
         </Notice>
+      ) : null}
+
+      {pending ? (
+        <ImpactConfirm
+          pending={pending}
+          onDone={(applied) => {
+            setPending(null);
+            if (!applied) setFlash({ tone: 'info', text: `Nothing changed: ${pending.code} keeps its stored ${pending.what}.` });
+          }}
+        />
       ) : null}
 
       {importing ? (
