@@ -53,6 +53,10 @@ describe('Calibration from a trial blend (library details)', () => {
     // Calibration reproduces its own trial blend — identity (no external source): predicted with = measured.
     expect(within(table).getByRole('row', { name: /predicted with calibration/ }).textContent).toMatch(/640\.0.*38\.50/);
     fireEvent.click(within(form).getByRole('button', { name: 'Store calibration for BW-510' }));
+    // It moves the VG 680 demo recipe: shown first, stored on confirmation (issue 10, item 14).
+    expect(screen.getByRole('status').textContent).toMatch(/moves saved recipes: confirm or cancel/);
+    expect(pib().calibration).toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
 
     const cal = pib().calibration!;
     expect(cal.trial.labReference).toBe('LAB-0417');
@@ -81,7 +85,7 @@ describe('Calibration from a trial blend (library details)', () => {
     // Provenance is shown; one undo removes the calibration.
     expect(screen.getByText('LAB-0417')).toBeTruthy();
     expect(screen.getByText(/BW-190 82\.00 % \+ BW-510 16\.00 % \+ BW-901 2\.00 %/)).toBeTruthy();
-    expect(screen.getByRole('status').textContent).toMatch(/Calibration stored for BW-510/);
+    expect(screen.getByText(/Stored the calibration of BW-510; 1 saved recipe is flagged/)).toBeTruthy();
     useLibrary.temporal.getState().undo();
     expect(pib().calibration).toBeNull();
   });
@@ -92,7 +96,11 @@ describe('Calibration from a trial blend (library details)', () => {
     fillMeasured(form, '640', '38.5');
     solve(form);
     fireEvent.click(within(form).getByRole('button', { name: 'Store calibration for BW-510' }));
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
+    expect(pib().calibration).not.toBeNull();
+    // Removing it moves the recipe back: confirmed the same way.
     fireEvent.click(screen.getByRole('button', { name: 'Remove calibration of BW-510' }));
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     expect(pib().calibration).toBeNull();
   });
 

@@ -74,6 +74,8 @@ describe('Library screen', () => {
     renderFor('BW-190');
     // no calculation: 485 is the invented demo value, 490 the typed one
     type(screen.getByLabelText('ν40 of BW-190 [mm²/s]'), '490');
+    // BW-190 is in every demo recipe: the change is confirmed first (issue 10, item 14)
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     expect(bs().viscosityPoints[0]!.kv).toBe(490);
     fireEvent.change(screen.getByLabelText('Availability of BW-190'), { target: { value: 'withdrawn' } });
     expect(bs().availability).toBe('withdrawn');
@@ -160,6 +162,7 @@ describe('Library screen', () => {
     renderFor('BW-190');
     const kv40 = screen.getByLabelText('ν40 of BW-190 [mm²/s]');
     type(kv40, '5000');
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     // ISO 3448 / ASTM D2422: VG 3200 ends at 3520 mm²/s
     expect(within(rowOf('BW-190')).getByTestId('grade-cell').textContent).toBe('above VG 3200');
   });
