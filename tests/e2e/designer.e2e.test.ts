@@ -22,7 +22,7 @@ describe('recipe designer', () => {
     await page.getByRole('link', { name: /Recipe designer/ }).click();
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await page.getByLabel('ISO viscosity grade', { exact: true }).selectOption('320');
-    await expect(page.getByLabel('Least cost per litre').isChecked()).resolves.toBe(true);
+    await expect(page.getByLabel('Least cost per litre (at 15 °C)').isChecked()).resolves.toBe(true);
     await page.getByRole('button', { name: 'Solve', exact: true }).click();
     await page.getByText('Solved', { exact: true }).waitFor();
     const kv40 = await kvOf(page);

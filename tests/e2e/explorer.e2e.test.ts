@@ -38,7 +38,7 @@ describe('substitute explorer', () => {
     await expect(table.innerText()).resolves.not.toContain('BW-190');
     // side-by-side comparison of the best candidate with the reference, caution included
     const cmp = page.getByTestId('comparison');
-    await expect(cmp.getByText('Cost per litre', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(cmp.getByText('Cost per litre at 15 °C', { exact: true }).isVisible()).resolves.toBe(true);
     await expect(cmp.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
     await page.waitForSelector('[data-chart="frontier"] .recharts-scatter-symbol');
     // sorting by a column

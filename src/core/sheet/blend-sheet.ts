@@ -193,6 +193,11 @@ export interface BlendSheetRow {
   runningKg: number;
   /** Running total of the displayed litres, this row included [L]. */
   runningLitres: number;
+  /**
+   * Volume to charge at the metering temperature as displayed [L] (ASTM D1250-80 Table 54D, same
+   * rounding; the column sums to its total); null when no metering temperature is given.
+   */
+  litresAtMetering: number | null;
   /** Density at 15 °C [kg/L], for the operator who meters by volume. */
   density15: number;
   /** Price per kg in the component's currency, or null when the price cannot be converted. */
@@ -221,6 +226,8 @@ export interface BlendSheet {
   /** Displayed totals: exactly the sum of the displayed rows. */
   totalKg: number;
   totalLitres: number;
+  /** Metering temperature [°C] and the displayed total litres at it; null without one. */
+  metering: { tempC: number; totalLitres: number; totalLitresExact: number } | null;
   /** Blend density at 15 °C, ideal mixing (1/ρ = Σ wᵢ/ρᵢ) [kg/L]. */
   density15: number;
   /** Decimals of the kg and litre columns. */
@@ -237,6 +244,8 @@ export interface BlendSheetOptions {
   quantityDecimals?: number;
   /** Decimals for mass % and volume %; default 2 (common practice (no source)). */
   percentDecimals?: number;
+  /** Metering temperature [°C] for a "L at t" column (ASTM D1250-80 Table 54D); none by default. */
+  meteringTempC?: number;
 }
 
 /**
@@ -307,6 +316,7 @@ export function buildBlendSheet(
   const q = batchQuantities(
     parts.map(({ line, c }) => ({ massFraction: line.massFraction, density15: c.density15 })),
     batch,
+    options.meteringTempC,
   );
 
   // Charging order: explicit ids first, the rest by role, viscosity, mass, code.
@@ -338,6 +348,10 @@ export function buildBlendSheet(
   const lRaw = idx.map((i) => q.lines[i]!.litres);
   const kgUnits = largestRemainderUnits(kgRaw, q.totalKg, qd);
   const lUnits = largestRemainderUnits(lRaw, q.totalLitres, qd);
+  const mUnits =
+    q.totalLitresAtMetering === null
+      ? null
+      : largestRemainderUnits(idx.map((i) => q.lines[i]!.litresAtMetering!), q.totalLitresAtMetering, qd);
   const massPctUnits = largestRemainderUnits(kgRaw.map((k) => (100 * k) / q.totalKg), 100, pd);
   const volPctUnits = largestRemainderUnits(lRaw.map((l) => (100 * l) / q.totalLitres), 100, pd);
   const qs = 10 ** qd;
@@ -366,6 +380,7 @@ export function buildBlendSheet(
       litres: lUnits[k]! / qs,
       runningKg: runKg / qs,
       runningLitres: runL / qs,
+      litresAtMetering: mUnits === null ? null : mUnits[k]! / qs,
       density15: c.density15,
       pricePerKg: ppk,
       lineCost: ppk === null ? null : q.lines[i]!.kg * ppk,
@@ -383,6 +398,10 @@ export function buildBlendSheet(
     totalLitresExact: q.totalLitres,
     totalKg: runKg / qs,
     totalLitres: runL / qs,
+    metering:
+      mUnits === null || options.meteringTempC === undefined
+        ? null
+        : { tempC: options.meteringTempC, totalLitres: mUnits.reduce((a, b) => a + b, 0) / qs, totalLitresExact: q.totalLitresAtMetering! },
     density15: q.totalKg / q.totalLitres,
     quantityDecimals: qd,
     percentDecimals: pd,

@@ -58,6 +58,7 @@ export default function BlendSheetScreen() {
         recipeActions.setActiveRecipe(id);
       }}
       companyName={settings.companyName}
+      meteringTempC={settings.meteringTempC}
       predict={predict}
       targets={targets}
       method={settings.blendMethod}

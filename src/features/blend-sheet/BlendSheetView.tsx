@@ -48,6 +48,8 @@ export interface BlendSheetViewProps {
   method?: BlendMethod;
   /** Base currency and exchange rates (Settings): every cost is restated in the base currency. */
   exchange?: { base: string; rates: readonly ExchangeRate[] };
+  /** Metering temperature [°C] (Settings): adds a "L at t" column (ASTM D1250-80 Table 54D). */
+  meteringTempC?: number;
   /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
   today: string;
   /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
@@ -155,11 +157,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     if (!recipe) return null;
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
-      return { sheet: buildBlendSheet(priced?.components ?? components, recipe, batch) };
+      return {
+        sheet: buildBlendSheet(priced?.components ?? components, recipe, batch, { meteringTempC: props.meteringTempC }),
+      };
     } catch (e) {
       return { error: errorText(e, components) };
     }
-  }, [components, priced, recipe, batchUnit, batchValue]);
+  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC]);
 
   const qc = useMemo(
     (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {
@@ -459,6 +463,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col" className="bs-num">Vol. %</th>
                 <th scope="col" className="bs-num">kg</th>
                 <th scope="col" className="bs-num">L at 15 °C</th>
+                {sheet.metering && <th scope="col" className="bs-num">L at {fmt(sheet.metering.tempC, 0)} °C</th>}
                 <th scope="col" className="bs-num">Running kg</th>
                 {costing && (
                   <>
@@ -480,6 +485,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   <td className="bs-num">{fmt(r.volumePct, pd)}</td>
                   <td className="bs-num bs-qty">{fmt(r.kg, qd)}</td>
                   <td className="bs-num">{fmt(r.litres, qd)}</td>
+                  {sheet.metering && <td className="bs-num">{r.litresAtMetering === null ? '—' : fmt(r.litresAtMetering, qd)}</td>}
                   <td className="bs-num">{fmt(r.runningKg, qd)}</td>
                   {costing && (
                     <>
@@ -501,6 +507,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <td className="bs-num">{fmt(100, pd)}</td>
                 <td className="bs-num bs-qty">{fmt(sheet.totalKg, qd)}</td>
                 <td className="bs-num">{fmt(sheet.totalLitres, qd)}</td>
+                {sheet.metering && <td className="bs-num">{fmt(sheet.metering.totalLitres, qd)}</td>}
                 <td className="bs-num">{fmt(sheet.totalKg, qd)}</td>
                 {costing && (
                   <>

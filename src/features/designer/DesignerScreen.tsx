@@ -15,7 +15,9 @@ import {
   usePricedLibrary,
   useRecipes,
   useSettings,
+  settingsActions,
 } from '../../state';
+import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
@@ -127,6 +129,19 @@ export default function DesignerScreen() {
             onSolve={onSolve}
             solving={solving}
           />
+          <label className="field">
+            <span>Blend viscosity method (also in Settings)</span>
+            <select
+              value={settings.blendMethod}
+              onChange={(e) => settingsActions.updateSettings({ blendMethod: e.target.value as BlendMethod })}
+            >
+              {BLEND_METHODS.map((m) => (
+                <option key={m} value={m}>
+                  {BLEND_METHOD_LABEL[m]}
+                </option>
+              ))}
+            </select>
+          </label>
         </aside>
         <div className="designer-main">
           {priced.unpriced.length > 0 && (

@@ -132,8 +132,8 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
       key: 'kvOperating',
       label: `Viscosity at ${fmt.temp(p.kvAtOperating.tempC)} (operating)`,
       value: `${fmt.sig(p.kvAtOperating.kv, 3)} mm²/s`,
-      status: 'info',
-      statusText: '',
+      status: p.kvAtOperating.outsideBand ? 'warn' : 'info',
+      statusText: p.kvAtOperating.outsideBand ? 'outside −20…150 °C: not to be trusted' : p.kvAtOperating.extrapolated ? 'extrapolated' : '',
       explain: ex.kvAtTemperature ?? null,
     });
   }
@@ -142,8 +142,8 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
       key: 'kvCold',
       label: `Viscosity at ${fmt.temp(p.kvAtCold.tempC)} (cold start)`,
       value: `${fmt.sig(p.kvAtCold.kv, 3)} mm²/s`,
-      status: 'info',
-      statusText: 'extrapolated',
+      status: p.kvAtCold.outsideBand ? 'warn' : 'info',
+      statusText: p.kvAtCold.outsideBand ? 'outside −20…150 °C: not to be trusted' : p.kvAtCold.extrapolated ? 'extrapolated' : '',
       explain: ex.kvAtTemperature ?? null,
     });
   }
@@ -180,15 +180,32 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     explain: ex.pourPoint ?? null,
   });
   const cur = p.currency ? ` (${p.currency})` : '';
-  rows.push({ key: 'costPerKg', label: `Cost per kg${cur}`, value: fmt.money(p.costPerKg, 3), status: 'info', statusText: '', explain: ex.costPerKg ?? null });
+  rows.push({
+    key: 'costPerKg',
+    label: `Cost per kg${cur}`,
+    value: fmt.money(p.costPerKg, 3),
+    status: 'info',
+    statusText: targets.objective === 'cost-kg' ? 'objective' : '',
+    explain: ex.costPerKg ?? null,
+  });
   rows.push({
     key: 'costPerLitre',
-    label: `Cost per litre${cur}`,
+    label: `Cost per litre at 15 °C${cur}`,
     value: fmt.money(p.costPerLitre, 3),
     status: 'info',
     statusText: targets.objective === 'cost' ? 'objective' : '',
     explain: ex.costPerLitre ?? null,
   });
+  if (p.costPerDeliveredLitre && p.costPerDeliveredLitre.tempC !== 15) {
+    rows.push({
+      key: 'costPerDeliveredLitre',
+      label: `Cost per delivered litre at ${fmt.temp(p.costPerDeliveredLitre.tempC)}${cur}`,
+      value: fmt.money(p.costPerDeliveredLitre.cost, 3),
+      status: 'info',
+      statusText: '',
+      explain: ex.costPerDeliveredLitre ?? null,
+    });
+  }
   return rows;
 }
 

@@ -71,7 +71,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
             <th scope="col" className="num">Mass %</th>
             <th scope="col" className="num">Volume %</th>
             <th scope="col" className="num">ν40, mm²/s</th>
-            <th scope="col" className="num">Cost share, {fmt.settings.currencySymbol}/L</th>
+            <th scope="col" className="num">Cost share, {fmt.settings.currencySymbol}/L at 15 °C</th>
             {p.rebalanceMode === 'balance' && <th scope="col">Balance</th>}
             <th scope="col"><span className="visually-hidden">Remove</span></th>
           </tr>

@@ -34,7 +34,7 @@ export function predictRecipe(
   lines: readonly RecipeLine[],
   components: readonly Component[],
   method: BlendMethod,
-  temps: { operatingTempC?: number; coldTempC?: number; grade?: number } = {},
+  temps: { operatingTempC?: number; coldTempC?: number; deliveryTempC?: number; grade?: number } = {},
 ): Prediction {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
@@ -72,12 +72,18 @@ export function predictRecipe(
 export function usePrediction(
   lines: readonly RecipeLine[],
   components: readonly Component[],
-  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'>,
+  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC'>,
   grade?: number,
 ): Prediction {
-  const { blendMethod, operatingTempC, coldStartTempC } = settings;
+  const { blendMethod, operatingTempC, coldStartTempC, deliveryTempC } = settings;
   return useMemo(
-    () => predictRecipe(lines, components, blendMethod, { operatingTempC, coldTempC: coldStartTempC, ...(grade === undefined ? {} : { grade }) }),
-    [lines, components, blendMethod, operatingTempC, coldStartTempC, grade],
+    () =>
+      predictRecipe(lines, components, blendMethod, {
+        operatingTempC,
+        coldTempC: coldStartTempC,
+        deliveryTempC,
+        ...(grade === undefined ? {} : { grade }),
+      }),
+    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, grade],
   );
 }

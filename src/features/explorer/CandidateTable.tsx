@@ -167,7 +167,7 @@ export const CandidateTable = memo(function CandidateTable({
           <tr>
             {head('rank', 'Rank')}
             <th scope="col">Recipe (mass %)</th>
-            {head('cost', `Cost, ${fmt.settings.currencySymbol}/L`)}
+            {head('cost', `Cost, ${fmt.settings.currencySymbol}/L at 15 °C`)}
             <th scope="col" className="num">vs reference</th>
             {head('kv40', 'ν40')}
             {head('vi', 'VI')}

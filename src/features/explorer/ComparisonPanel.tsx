@@ -55,7 +55,7 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   const rows: Row[] = [];
   const costD = r?.costPerLitre != null && c?.costPerLitre != null ? c.costPerLitre - r.costPerLitre : null;
   rows.push({
-    label: 'Cost per litre',
+    label: 'Cost per litre at 15 °C',
     ref: fmt.money(r?.costPerLitre, 3),
     cand: fmt.money(c?.costPerLitre, 3),
     change:
@@ -278,7 +278,7 @@ function TradeOffSection({
             </caption>
             <thead>
               <tr>
-                <th scope="col">Cost per litre</th>
+                <th scope="col">Cost per litre at 15 °C</th>
                 <th scope="col">Aniline point</th>
                 <th scope="col">ν40, mm²/s</th>
                 <th scope="col">Recipe</th>

@@ -375,3 +375,29 @@ describe('blendSheetCsvRows and cautions', () => {
     expect(text).toMatch(/hydrogen sulfide/);
   });
 });
+
+describe('litres at the metering temperature (issue 13 §8)', () => {
+  it('adds a column by ASTM D1250-80 Table 54D that sums to its total', async () => {
+    const { buildBlendSheet } = await import('../../../src/core/sheet/blend-sheet');
+    const { densityAtTemperature } = await import('../../../src/core/blending/density-temperature');
+    const { makeComponent, STOCKS } = await import('../../helpers/formulation-fixtures');
+    const lib = [makeComponent(STOCKS.g2heavy!), makeComponent(STOCKS.g2hv!), makeComponent(STOCKS.add!)];
+    const recipe = {
+      id: 'r', name: 'invented', grade: 320, revision: 1, isReference: false, notes: '', updatedAt: '2024-01-01T00:00:00Z',
+      lines: [
+        { componentId: 'g2heavy', massFraction: 0.4 },
+        { componentId: 'g2hv', massFraction: 0.58 },
+        { componentId: 'add', massFraction: 0.02 },
+      ],
+    } as unknown as Parameters<typeof buildBlendSheet>[1];
+    const sheet = buildBlendSheet(lib, recipe, { kg: 10000 }, { meteringTempC: 60 });
+    expect(sheet.metering!.tempC).toBe(60);
+    // identity: each line kg / ρ(60 °C) by Table 54D, rounded to the sheet's decimals; the column adds up
+    const row = sheet.rows.find((r) => r.componentId === 'g2hv')!;
+    expect(Math.abs(row.litresAtMetering! - 5800 / densityAtTemperature(0.885, 60))).toBeLessThanOrEqual(0.1);
+    const sum = sheet.rows.reduce((s, r) => s + r.litresAtMetering!, 0);
+    expect(Math.abs(sum - sheet.metering!.totalLitres)).toBeLessThan(1e-6);
+    expect(sheet.metering!.totalLitres).toBeGreaterThan(sheet.totalLitres);
+    expect(buildBlendSheet(lib, recipe, { kg: 10000 }).metering).toBeNull();
+  });
+});

@@ -45,7 +45,7 @@ describe('Substitute explorer', () => {
     const viHead = screen.getByText('VI', { selector: 'button' }).closest('th')!;
     expect(viHead.getAttribute('aria-sort')).toBe('descending');
     const cmp = screen.getByTestId('comparison');
-    expect(within(cmp).getByText('Cost per litre')).toBeTruthy();
+    expect(within(cmp).getByText('Cost per litre at 15 °C')).toBeTruthy();
     expect(within(cmp).getByText('Deposit propensity')).toBeTruthy();
     expect(within(cmp).getAllByText(/laboratory confirmation/).length).toBeGreaterThan(0);
     // the reference recipe's withdrawn stock is flagged in the comparison
