@@ -52,14 +52,16 @@ import { useMemo } from 'react';
 import { useStore } from 'zustand';
 import type { Component, Recipe } from '../core/formulation/model';
 import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../core/currency/exchange-rates';
-import { useLibraryStore, LIBRARY_SPEC } from './library';
-import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges } from './recipes';
+import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
+import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, type RecipesData } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
 import {
   useStorageStatus,
   saveNow,
   noteEdit,
   onSavedInOtherTab,
+  mergeFromOtherTab,
+  registerApplier,
   requestPersistentStorage,
   type StoreKey,
 } from './persistence';
@@ -268,17 +270,27 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
       useRecipesStore.subscribe((s, p) => {
         if (!external && (s.recipes !== p.recipes || s.targets !== p.targets || s.linePlan !== p.linePlan)) noteEdit();
       }),
-      onSavedInOtherTab((key) => {
+      // Records saved in another tab are merged in per record (persistence.ts says which changed).
+      registerApplier('library', (d) => {
         external = true;
-        void rehydrate[key]().finally(() => {
+        try {
+          useLibraryStore.setState(d as LibraryData);
+          useLibraryStore.temporal.getState().clear();
+        } finally {
           external = false;
-          if (key === 'library') useLibraryStore.temporal.getState().clear();
-          if (key === 'recipes') useRecipesStore.temporal.getState().clear();
-          useStorageStatus.setState({
-            externalChange: `The ${key} was changed in another Blendbench tab; this tab now shows that version (undo history cleared).`,
-          });
-        });
+        }
       }),
+      registerApplier('recipes', (d) => {
+        external = true;
+        try {
+          useRecipesStore.setState(d as Partial<RecipesData>);
+          useRecipesStore.temporal.getState().clear();
+        } finally {
+          external = false;
+        }
+      }),
+      registerApplier('settings', (d) => useSettingsStore.setState(d as { settings: Settings })),
+      onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
     if (opts.requestPersistence !== false) void requestPersistentStorage();
   })();

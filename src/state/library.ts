@@ -47,6 +47,11 @@ export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
   version: 5,
   schema: libraryDataSchema,
+  // Each stock is a record of its own when tabs merge their saves.
+  layout: {
+    lists: { components: 'id' },
+    label: (_key, v) => `stock ${String((v as { code?: unknown } | undefined)?.code ?? 'deleted')}`,
+  },
   migrations: {
     // Schema 4 → 5: calibrations may name the D7152 Wright method, and a polymer may carry a measured
     // ν40 shear loss (optional field, `shearLoss40Pct`). Existing data are valid as they are.

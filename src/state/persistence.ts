@@ -17,6 +17,16 @@ import { create } from 'zustand';
 import type { PersistStorage, StorageValue } from 'zustand/middleware';
 import type { z } from 'zod';
 import { describeStoredIssues, storedIssueLines } from './schemas';
+import {
+  joinRecords,
+  mergeRecords,
+  pruneGone,
+  splitRecords,
+  stampMaker,
+  type RecordLayout,
+  type RecordSet,
+  type Stamp,
+} from './record-merge';
 
 export type StoreKey = 'library' | 'recipes' | 'settings';
 export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings'];
@@ -120,6 +130,10 @@ export interface StoreSpec<D> {
   schema: z.ZodType<D>;
   /** `migrations[n]` converts data at version n into version n + 1. */
   migrations: Record<number, (data: unknown) => unknown>;
+  /** How the data divide into records for the per-record merge across tabs (default: one record per field). */
+  layout?: RecordLayout;
+  /** Merge saves made by other tabs into this tab (default true; false for a tab's own scratch pad). */
+  crossTab?: boolean;
 }
 
 export type LoadResult<D> =
@@ -191,8 +205,20 @@ function describeSaveError(e: unknown): string {
   return String((e as Error)?.message ?? e);
 }
 
+// ---------------------------------------------------------------------------------------------
+// Records, stamps and tabs (issue 10 item 4)
+//
+// Each store's data is cut into records (record-merge.ts). Every record committed in this tab gets a
+// stamp (commit time, tab, counter) when zustand hands the new state to `setItem`. A save is one
+// IndexedDB read-write transaction: read the stored copy, merge it per record with this tab's records
+// (a record changed only here → ours; changed only elsewhere → theirs; changed in both → the later
+// commit), write the result if it differs from what is stored, then take the other tab's records into
+// this tab (telling the user which) and tell the other tabs. Two tabs saving at once are serialised by
+// IndexedDB, so no committed edit is lost.
+
 const channelName = 'blendbench-saved-work';
-const tabId = Math.random().toString(36).slice(2);
+const tabId = Array.from({ length: 10 }, () => Math.floor(Math.random() * 36).toString(36)).join('');
+const nextStamp = stampMaker(tabId, () => Date.now());
 let channel: BroadcastChannel | null = null;
 function broadcast(key: StoreKey): void {
   try {
@@ -215,34 +241,220 @@ export function onSavedInOtherTab(cb: (key: StoreKey) => void): () => void {
   return () => ch.close();
 }
 
-interface WriteQueue {
-  writing: boolean;
-  pending: StorageValue<unknown> | null;
+/** How a store puts records merged from another tab into memory (set by the app at start). */
+export type Applier = (data: unknown) => void;
+const appliers = new Map<StoreKey, Applier>();
+/** Register how merged data from another tab enters a store (its setState, clearing undo history). */
+export function registerApplier(key: StoreKey, apply: Applier): () => void {
+  appliers.set(key, apply);
+  return () => appliers.delete(key);
+}
+
+interface SyncState {
+  spec: StoreSpec<unknown>;
+  layout: RecordLayout;
+  /** This tab's records (by identity, as in memory) and their stamps. */
+  mine: RecordSet;
+  /** Stamps both this tab and storage agreed on at the last save or load. */
+  base: Pick<RecordSet, 'stamps' | 'gone'>;
+  /** The newest persisted state handed to setItem (holds the tab-local fields). */
+  latest: unknown;
+  /** True while records from another tab are being put into memory (not new commits). */
+  applying: boolean;
+  /** The next save replaces the stored copy outright (after an unusable copy was set aside). */
+  force: boolean;
+  /** Whether saves of other tabs are merged into this tab (false: this tab's copy only, e.g. a scratch pad). */
+  crossTab: boolean;
+}
+const syncs = new Map<StoreKey, SyncState>();
+const emptySet = (): RecordSet => ({ records: new Map(), stamps: {}, gone: {} });
+
+function syncOf<D>(spec: StoreSpec<D>): SyncState {
+  let st = syncs.get(spec.key);
+  if (!st) {
+    st = {
+      spec: spec as StoreSpec<unknown>,
+      layout: spec.layout ?? {},
+      mine: emptySet(),
+      base: { stamps: {}, gone: {} },
+      latest: null,
+      applying: false,
+      force: false,
+      crossTab: spec.crossTab ?? true,
+    };
+    syncs.set(spec.key, st);
+  }
+  return st;
+}
+
+/** Record this tab's new state: every record whose object changed (or is new, or gone) gets a stamp. */
+function commit(st: SyncState, state: unknown): void {
+  st.latest = state;
+  const next = splitRecords(state, st.layout);
+  if (st.applying) {
+    st.mine.records = next;
+    return;
+  }
+  const { records, stamps, gone } = st.mine;
+  for (const [k, v] of next) {
+    if (!records.has(k) || records.get(k) !== v) {
+      stamps[k] = nextStamp();
+      delete gone[k];
+    }
+  }
+  for (const k of records.keys()) {
+    if (!next.has(k)) {
+      gone[k] = nextStamp();
+      delete stamps[k];
+    }
+  }
+  st.mine.records = next;
+}
+
+const asStamps = (v: unknown): Record<string, Stamp> => {
+  const out: Record<string, Stamp> = {};
+  if (isRecord(v)) for (const [k, s] of Object.entries(v)) if (typeof s === 'string') out[k] = s;
+  return out;
+};
+
+interface Queue {
+  running: boolean;
+  again: boolean;
   idle: Promise<void>;
   resolveIdle: (() => void) | null;
 }
-const queues = new Map<StoreKey, WriteQueue>();
-/** The newest value of each store whose last save failed; retried once another save succeeds. */
-const failedWrites = new Map<StoreKey, StorageValue<unknown>>();
+const queues = new Map<StoreKey, Queue>();
+/** Stores whose last save failed; retried once another save succeeds. */
+const failedSaves = new Set<StoreKey>();
 
-async function drain(key: StoreKey, q: WriteQueue): Promise<void> {
-  while (q.pending) {
-    const value = q.pending;
-    q.pending = null;
+type SyncOutcome =
+  | { kind: 'newer'; version: number }
+  | { kind: 'saved'; merged: RecordSet & { fromTheirs: string[]; replacedMine: string[] }; wrote: boolean; snapshot: RecordSet };
+
+/** One save: read, merge and (if needed) write in a single IndexedDB transaction. */
+function saveOnce(key: StoreKey, st: SyncState): Promise<SyncOutcome> {
+  const snapshot: RecordSet = { records: new Map(st.mine.records), stamps: { ...st.mine.stamps }, gone: { ...st.mine.gone } };
+  const local = st.latest;
+  const force = st.force;
+  const version = st.spec.version;
+  return savedWorkDb()('readwrite', (store) => {
+    return new Promise<SyncOutcome>((resolve, reject) => {
+      let outcome: SyncOutcome | null = null;
+      const tx = store.transaction;
+      tx.oncomplete = () => (outcome ? resolve(outcome) : reject(new Error('the save did not finish')));
+      tx.onabort = () => reject(tx.error ?? new Error('the save was aborted'));
+      const req = store.get(key);
+      req.onsuccess = () => {
+        try {
+          const raw: unknown = req.result;
+          const storedVersion = isRecord(raw) && typeof raw.version === 'number' ? raw.version : null;
+          if (!force && storedVersion !== null && storedVersion > version) {
+            outcome = { kind: 'newer', version: storedVersion };
+            return;
+          }
+          const theirsUsable = !force && st.crossTab && isRecord(raw) && storedVersion === version && 'state' in raw;
+          const theirs: RecordSet = theirsUsable
+            ? { records: splitRecords(raw.state, st.layout), stamps: asStamps(raw.stamps), gone: asStamps(raw.gone) }
+            : emptySet();
+          const merged = theirsUsable
+            ? mergeRecords(st.base, snapshot, theirs)
+            : { ...snapshot, fromTheirs: [], replacedMine: [], differsFromTheirs: true };
+          const wrote = merged.differsFromTheirs;
+          if (wrote) {
+            const value = {
+              state: joinRecords(merged.records, st.layout, local),
+              version,
+              stamps: merged.stamps,
+              gone: pruneGone(merged.gone, Date.now()),
+            };
+            store.put(value, key);
+          }
+          outcome = { kind: 'saved', merged, wrote, snapshot };
+        } catch (e) {
+          tx.abort();
+          reject(e);
+        }
+      };
+    });
+  });
+}
+
+const MAX_NAMED = 4;
+function nameRecords(st: SyncState, keys: readonly string[], values: Map<string, unknown>): string {
+  const label = st.layout.label ?? ((k: string) => k);
+  const names = keys.slice(0, MAX_NAMED).map((k) => label(k, values.get(k)));
+  return keys.length > MAX_NAMED ? `${names.join(', ')} and ${keys.length - MAX_NAMED} more` : names.join(', ');
+}
+
+/** Put records saved by another tab into memory, keeping this tab's commits made meanwhile, and say which. */
+function takeFromOtherTab(key: StoreKey, st: SyncState, snapshot: RecordSet, merged: RecordSet & { replacedMine: string[] }): void {
+  // Commits made in this tab while the save ran are newer than the snapshot: they stay.
+  const now = mergeRecords({ stamps: snapshot.stamps, gone: snapshot.gone }, st.mine, merged);
+  if (now.fromTheirs.length === 0) return;
+  const apply = appliers.get(key);
+  if (!apply) return;
+  st.mine = { records: now.records, stamps: now.stamps, gone: now.gone };
+  st.applying = true;
+  try {
+    apply(joinRecords(now.records, st.layout, st.latest));
+  } finally {
+    st.applying = false;
+  }
+  const replaced = merged.replacedMine.filter((k) => now.fromTheirs.includes(k));
+  const changed = now.fromTheirs.filter((k) => !replaced.includes(k));
+  const values = new Map([...now.records, ...snapshot.records]);
+  const parts: string[] = [];
+  if (changed.length) {
+    parts.push(
+      changed.length === 1
+        ? `${capitalise(nameRecords(st, changed, values))} was changed in another Blendbench tab; this tab now shows that version`
+        : `Records changed in another Blendbench tab: ${nameRecords(st, changed, values)}; this tab now shows those versions`,
+    );
+  }
+  if (replaced.length) {
+    parts.push(
+      `Your edit of ${nameRecords(st, replaced, values)} was replaced by a later edit of the same record in another Blendbench tab (the later commit wins)`,
+    );
+  }
+  useStorageStatus.setState({ externalChange: `${parts.join('. ')} (undo history cleared).` });
+}
+
+const capitalise = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
+
+async function drain(key: StoreKey, q: Queue): Promise<void> {
+  while (q.again) {
+    q.again = false;
+    const st = syncs.get(key);
+    const status = useStorageStatus.getState().stores[key];
+    if (!st || status.savingPaused || status.phase !== 'ready') continue;
     try {
-      await idbSet(key, value, savedWorkDb());
+      const outcome = await saveOnce(key, st);
+      if (outcome.kind === 'newer') {
+        patchStatus(key, {
+          savingPaused: true,
+          problem: {
+            kind: 'newer-schema',
+            message:
+              `The saved ${STORE_LABEL[key]} was written by a newer version of Blendbench in another tab (schema ${outcome.version}; ` +
+              `this version reads up to schema ${st.spec.version}). This tab stops saving it; use the newer version.`,
+            keptAs: null,
+          },
+        });
+        continue;
+      }
+      st.force = false;
+      st.base = { stamps: outcome.merged.stamps, gone: outcome.merged.gone };
       patchStatus(key, { saveError: null, lastSavedAt: new Date().toISOString() });
-      broadcast(key);
-      failedWrites.delete(key);
-      // Storage works again: retry the other stores' failed saves (a failing retry does not retry again).
-      for (const [other, v] of [...failedWrites]) {
-        const busy = queues.get(other);
-        if (busy?.writing || busy?.pending) continue; // a newer value is on its way
-        failedWrites.delete(other);
-        enqueueWrite(other, v);
+      if (outcome.wrote) broadcast(key);
+      takeFromOtherTab(key, st, outcome.snapshot, outcome.merged);
+      failedSaves.delete(key);
+      // Storage works again: retry the other stores' failed saves.
+      for (const other of [...failedSaves]) {
+        failedSaves.delete(other);
+        requestSave(other);
       }
     } catch (e) {
-      failedWrites.set(key, value);
+      failedSaves.add(key);
       patchStatus(key, {
         saveError:
           `Saving the ${STORE_LABEL[key]} failed: ${describeSaveError(e)}. ` +
@@ -250,24 +462,31 @@ async function drain(key: StoreKey, q: WriteQueue): Promise<void> {
       });
     }
   }
-  q.writing = false;
+  q.running = false;
   q.resolveIdle?.();
   q.resolveIdle = null;
 }
 
-function enqueueWrite(key: StoreKey, value: StorageValue<unknown>): void {
+/** Save this store (merging with what other tabs saved); coalesced while a save is running. */
+function requestSave(key: StoreKey): void {
   let q = queues.get(key);
   if (!q) {
-    q = { writing: false, pending: null, idle: Promise.resolve(), resolveIdle: null };
+    q = { running: false, again: false, idle: Promise.resolve(), resolveIdle: null };
     queues.set(key, q);
   }
-  q.pending = value;
-  if (!q.writing) {
-    q.writing = true;
+  q.again = true;
+  if (!q.running) {
+    q.running = true;
     const queue = q;
     q.idle = new Promise((r) => (queue.resolveIdle = r));
     void drain(key, q);
   }
+}
+
+/** Another tab saved `key`: merge its records into this tab (and save this tab's own pending ones). */
+export function mergeFromOtherTab(key: StoreKey): void {
+  const st = syncs.get(key);
+  if (st?.crossTab) requestSave(key);
 }
 
 /** Resolves when every queued save has finished (successfully or not). */
@@ -281,11 +500,13 @@ export async function whenSaved(): Promise<void> {
 /**
  * A PersistStorage for zustand's persist middleware. `getItem` returns data already migrated to
  * `spec.version` and validated (so persist's own `migrate` never runs), or null when there is
- * nothing usable (the status then says why). `setItem` never throws: failures go to the status.
+ * nothing usable (the status then says why). `setItem` stamps the records this tab changed and
+ * saves them (merged per record with other tabs); it never throws: failures go to the status.
  */
 export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
   return {
     async getItem(): Promise<StorageValue<D> | null> {
+      const st = syncOf(spec);
       let raw: unknown;
       try {
         raw = await idbGet(spec.key, savedWorkDb());
@@ -322,7 +543,17 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         });
         return null;
       }
+      // This tab starts from the stored records and their stamps (none in copies written before stamps).
+      const stored = result.migratedFrom === null && isRecord(raw) ? raw : null;
+      st.latest = result.data;
+      st.mine = {
+        records: splitRecords(result.data, st.layout),
+        stamps: stored ? asStamps(stored.stamps) : {},
+        gone: stored ? asStamps(stored.gone) : {},
+      };
+      st.base = { stamps: { ...st.mine.stamps }, gone: { ...st.mine.gone } };
       let upgraded: StoreStatus['upgraded'] = null;
+      let writeBack = false;
       if (result.migratedFrom !== null) {
         // Keep the original before the upgraded copy replaces it; if that copy cannot be written,
         // leave the original in place (the upgrade simply runs again at the next start).
@@ -333,7 +564,7 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
           keptAs = null;
         }
         upgraded = { from: result.migratedFrom, to: spec.version, keptAs };
-        if (keptAs) enqueueWrite(spec.key, { state: result.data, version: spec.version });
+        writeBack = keptAs !== null;
       }
       patchStatus(spec.key, {
         phase: 'ready',
@@ -342,12 +573,16 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         savingPaused: false,
         upgraded,
       });
+      if (writeBack) requestSave(spec.key);
       return { state: result.data, version: spec.version };
     },
     setItem(_name: string, value: StorageValue<D>): void {
+      const st = syncOf(spec);
       const status = useStorageStatus.getState().stores[spec.key];
-      if (status.savingPaused || status.phase !== 'ready') return;
-      enqueueWrite(spec.key, value);
+      if (status.phase !== 'ready') return;
+      commit(st, value.state);
+      if (status.savingPaused || st.applying) return;
+      requestSave(spec.key);
     },
     removeItem(): void {
       /* never called by Blendbench: stored work is only replaced, never deleted */
@@ -359,9 +594,13 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
  * After the user has seen the problem: resume saving this store, so the state now in memory
  * (demo or fresh) replaces the unusable stored copy. The raw copy stays under `keptCopyKey(key)`.
  */
-export function resumeSaving(key: StoreKey, currentData: unknown, version: number): void {
+export function resumeSaving(key: StoreKey, currentData: unknown, _version: number): void {
   patchStatus(key, { savingPaused: false, problem: null, origin: 'fresh' });
-  enqueueWrite(key, { state: currentData, version });
+  const st = syncs.get(key);
+  if (!st) return;
+  commit(st, currentData);
+  st.force = true;
+  requestSave(key);
 }
 
 /** The raw copy kept after a problem (for download), or undefined. */
@@ -370,10 +609,12 @@ export async function readKeptCopy(key: StoreKey): Promise<unknown> {
 }
 
 /** Write the current state now (e.g. first start, so the demo is saved). */
-export function saveNow(key: StoreKey, data: unknown, version: number): void {
+export function saveNow(key: StoreKey, data: unknown, _version: number): void {
   const status = useStorageStatus.getState().stores[key];
-  if (status.savingPaused) return;
-  enqueueWrite(key, { state: data, version });
+  const st = syncs.get(key);
+  if (status.savingPaused || !st) return;
+  commit(st, data);
+  requestSave(key);
 }
 
 /** Ask the browser to keep our storage (not evict it under pressure) and record the answer. */

@@ -151,6 +151,25 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
   version: 7,
   schema: recipesDataSchema,
+  // Each recipe, each recipe's targets and blend sheet, and the line plan are records of their own
+  // when tabs merge their saves; the active recipe belongs to the tab.
+  layout: {
+    lists: { recipes: 'id' },
+    maps: ['targets', 'sheets'],
+    local: ['activeRecipeId'],
+    label: (key, v) => {
+      const [field, id] = key.split('/') as [string, string | undefined];
+      const nameOf = (rid: string) => {
+        const r = useRecipesStore.getState().recipes.find((x) => x.id === rid);
+        return r ? recipeWho(r.name) : 'a deleted recipe';
+      };
+      if (field === 'recipes') return v ? recipeWho(String((v as { name?: unknown }).name ?? '')) : 'a deleted recipe';
+      if (field === 'targets' && id) return `the targets of ${nameOf(id)}`;
+      if (field === 'sheets' && id) return `the blend sheet of ${nameOf(id)}`;
+      if (field === 'linePlan') return 'the line plan';
+      return field;
+    },
+  },
   migrations: {
     // Schema 6 → 7: targets may ask for the least cost per kg ('cost-kg'). Existing data are valid as they are.
     6: (d) => d,

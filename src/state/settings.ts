@@ -78,6 +78,8 @@ export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   key: 'settings',
   version: 4,
   schema: settingsDataSchema,
+  // Each setting is a record of its own when tabs merge their saves.
+  layout: { maps: ['settings'], label: (key) => `the setting “${key.slice('settings/'.length)}”` },
   migrations: {
     // Schema 3 → 4: metering and delivery temperatures (defaults 60 and 15 °C); the blend method may
     // also be the D7152 Wright method.

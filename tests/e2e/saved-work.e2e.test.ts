@@ -27,6 +27,26 @@ async function storedStockCount(page: Page): Promise<number | null> {
   );
 }
 
+/** Codes and names of the saved stocks, read inside the page. */
+async function storedNames(page: Page): Promise<Array<{ code: string; name: string }>> {
+  return page.evaluate(
+    () =>
+      new Promise<Array<{ code: string; name: string }>>((resolve, reject) => {
+        const open = indexedDB.open('blendbench');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const req = open.result.transaction('saved-work', 'readonly').objectStore('saved-work').get('library');
+          req.onsuccess = () => {
+            const comps = (req.result as { state: { components: Array<{ code: string; name: string }> } }).state.components;
+            resolve(comps.map((c) => ({ code: c.code, name: c.name })));
+            open.result.close();
+          };
+          req.onerror = () => reject(req.error);
+        };
+      }),
+  );
+}
+
 async function openLibrary(page: Page): Promise<void> {
   await page.goto(`${inject('baseURL')}#/library`);
   await page.getByRole('heading', { name: 'Stocks' }).waitFor();
@@ -70,6 +90,56 @@ describe('saved work', () => {
     expect(s.offHost).toEqual([]);
     expect(s.errors).toEqual([]);
   }, 240_000);
+});
+
+describe('two tabs (item 4)', () => {
+  let s: Session | null = null;
+  afterEach(async () => {
+    await s?.close();
+    s = null;
+  });
+
+  async function rename(page: Page, code: string, name: string): Promise<void> {
+    const field = page.getByLabel(`Name of ${code}`, { exact: true });
+    await field.fill(name);
+    await field.press('Enter');
+  }
+
+  it('40 edits committed in two tabs within milliseconds, interleaved, are all there after a reload, in both', async () => {
+    s = await launch();
+    const a = s.page;
+    await openLibrary(a);
+    await expect.poll(() => storedStockCount(a), { timeout: 10_000 }).toBe(29); // the invented demo is saved
+    const b = await s.newPage();
+    await openLibrary(b);
+    const codes = (await storedNames(a)).map((c) => c.code);
+    expect(codes.length).toBe(29);
+    const aCodes = codes.slice(0, 20);
+    const bCodes = codes.slice(20); // 9 stocks renamed in tab B, and 11 clones made there
+    // Each round fires one edit in each tab at the same moment.
+    for (let i = 0; i < 20; i++) {
+      await Promise.all([
+        rename(a, aCodes[i]!, `Tab A name ${i}`),
+        i < bCodes.length ? rename(b, bCodes[i]!, `Tab B name ${i}`) : b.getByRole('button', { name: `Clone ${bCodes[i % bCodes.length]}` }).first().click(),
+      ]);
+    }
+    await screenshot(b, 'saved-work-two-tabs');
+    // After both tabs have saved and heard of each other's saves, a reload of each shows all 40.
+    await expect.poll(() => storedStockCount(a), { timeout: 20_000 }).toBe(29 + 11);
+    await a.waitForTimeout(500);
+    for (const page of [a, b]) {
+      await page.reload();
+      await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+      const shown = await Promise.all(
+        (await storedNames(page)).map((c) => page.getByLabel(`Name of ${c.code}`, { exact: true }).inputValue()),
+      );
+      for (let i = 0; i < 20; i++) expect(shown).toContain(`Tab A name ${i}`);
+      for (let i = 0; i < bCodes.length; i++) expect(shown).toContain(`Tab B name ${i}`);
+      expect(shown.length).toBe(29 + 11); // 11 clones made in tab B (a count)
+    }
+    expect(s.offHost).toEqual([]);
+    expect(s.errors).toEqual([]);
+  });
 });
 
 process.on('exit', () => rmSync(files, { recursive: true, force: true }));
