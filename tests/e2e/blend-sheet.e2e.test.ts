@@ -43,8 +43,9 @@ function componentRows(text: string, codes: readonly string[]) {
     const line = lines.find((l) => new RegExp(`^\\s*\\d+\\s+${code}\\s`).test(l));
     if (!line) throw new Error(`no PDF line for ${code}:\n${text}`);
     const nums = numbers(line.slice(line.indexOf(code) + code.length));
-    const [massPct, volPct, kg, litres, running] = nums.slice(-5) as [number, number, number, number, number];
-    return { code, massPct, volPct, kg, litres, running };
+    // mass %, vol. %, kg, L at 15 °C, L at the metering temperature (60 °C by default), running kg
+    const [massPct, volPct, kg, litres, litresHot, running] = nums.slice(-6) as [number, number, number, number, number, number];
+    return { code, massPct, volPct, kg, litres, litresHot, running };
   });
 }
 
@@ -103,6 +104,9 @@ describe('blend sheet', () => {
     // Displayed kg sum exactly to the 5000.0 kg batch (largest-remainder rounding; common practice (no source)).
     expect(Math.round(rows.reduce((a, r) => a + r.kg, 0) * 10)).toBe(50000);
     expect(Math.round(rows.reduce((a, r) => a + r.massPct, 0) * 100)).toBe(10000);
+    // litres at 60 °C (ASTM D1250-80 Table 54D) exceed litres at 15 °C for every line
+    for (const r of rows) expect(r.litresHot).toBeGreaterThan(r.litres);
+    expect(text).toMatch(/L at 60 °C/);
     expect(rows.at(-1)!.running).toBe(5000);
     const total = text.split('\n').find((l) => /^\s*Total\s/.test(l));
     expect(total).toBeDefined();
