@@ -40,3 +40,47 @@ export function Notice({
     </div>
   );
 }
+
+/**
+ * A short message after an action, with Undo (when the action can be undone) and Dismiss: the
+ * pattern of the Stocks and Recipes screens.
+ */
+export function ActionNotice({
+  tone,
+  text,
+  canUndo,
+  onUndo,
+  onDismiss,
+}: {
+  tone: 'error' | 'warning' | 'info' | 'success';
+  text: ReactNode;
+  canUndo: boolean;
+  onUndo: () => void;
+  onDismiss: () => void;
+}) {
+  return (
+    <Notice
+      tone={tone}
+      actions={
+        <>
+          {canUndo ? (
+            <button
+              type="button"
+              onClick={() => {
+                onUndo();
+                onDismiss();
+              }}
+            >
+              Undo
+            </button>
+          ) : null}
+          <button type="button" onClick={onDismiss}>
+            Dismiss
+          </button>
+        </>
+      }
+    >
+      {text}
+    </Notice>
+  );
+}

@@ -33,6 +33,7 @@
  * the wrong column, a hostile file). Each range states why; most are common practice (no source).
  */
 import { DENSITY15_MAX, DENSITY15_MIN } from '../core/errors';
+import type { ReleaseSpecification } from '../core/formulation/model';
 import { OXIDATION_RATING_MAX, OXIDATION_RATING_MIN } from '../core/scoring/oxidation';
 import { MAX_KV40_LOT_SPREAD_PCT } from '../core/qc/lot-spread';
 
@@ -546,19 +547,8 @@ export interface RecipeFields {
   stockBasis: { recordedAt: string; stocks: ReadonlyArray<SnapshotFields> } | null;
 }
 
-/** A recipe's product specification as stored (structurally the core's `ReleaseSpecification`). */
-export interface SpecificationFields {
-  reference: string;
-  kv100Min: number | null;
-  kv100Max: number | null;
-  viMin: number | null;
-  density15Min: number | null;
-  density15Max: number | null;
-  flashMin: number | null;
-  pourMax: number | null;
-  copper: string;
-  foam: string;
-}
+/** A recipe's product specification as stored (the core's `ReleaseSpecification`). */
+export type SpecificationFields = ReleaseSpecification;
 
 /** The stock data recorded with a recipe (structurally the core's `StockSnapshot`). */
 export interface SnapshotFields {

@@ -2,7 +2,7 @@ import { Fragment, useCallback, useMemo, useState } from 'react';
 import './library.css';
 import type { Component, ComponentCategory } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
-import { DemoTag, Notice } from '../../components/notices';
+import { ActionNotice, DemoTag } from '../../components/notices';
 import { downloadText } from '../../components/download';
 import { useFormat } from '../../components/format';
 import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
@@ -212,29 +212,13 @@ export default function LibraryScreen() {
       </div>
 
       {flash ? (
-        <Notice
+        <ActionNotice
           tone={flash.tone}
-          actions={
-            <>
-              {flash.undo && history.canUndo ? (
-                <button
-                  type="button"
-                  onClick={() => {
-                    history.undo();
-                    setFlash(null);
-                  }}
-                >
-                  Undo
-                </button>
-              ) : null}
-              <button type="button" onClick={() => setFlash(null)}>
-                Dismiss
-              </button>
-            </>
-          }
-        >
-          {flash.text}
-        </Notice>
+          text={flash.text}
+          canUndo={Boolean(flash.undo && history.canUndo)}
+          onUndo={history.undo}
+          onDismiss={() => setFlash(null)}
+        />
       ) : null}
 
       {pending ? (

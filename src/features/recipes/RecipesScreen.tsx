@@ -6,7 +6,7 @@ import { BLANK_SPECIFICATION, RECIPE_STATUS_LABEL } from '../../core/formulation
 import { assessRelease } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
-import { Notice } from '../../components/notices';
+import { ActionNotice, Notice } from '../../components/notices';
 import { NumberField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
@@ -72,24 +72,13 @@ export default function RecipesScreen() {
         </button>
       </div>
       {flash && (
-        <Notice
+        <ActionNotice
           tone={flash.tone}
-          actions={
-            flash.undo ? (
-              <button
-                type="button"
-                onClick={() => {
-                  history.undo();
-                  setFlash(null);
-                }}
-              >
-                Undo
-              </button>
-            ) : undefined
-          }
-        >
-          {flash.text}
-        </Notice>
+          text={flash.text}
+          canUndo={Boolean(flash.undo && history.canUndo)}
+          onUndo={history.undo}
+          onDismiss={() => setFlash(null)}
+        />
       )}
       <div className="recipes-grid">
         <div className="table-scroll">
