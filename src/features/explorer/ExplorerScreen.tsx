@@ -8,7 +8,8 @@ import { checkNumber } from '../../state/field-rules';
 import { componentsById, defaultTargets, recipeActions, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
-import { recordStockBasis } from '../../core/recipes/stock-basis';
+import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
+import { StockChangeList } from '../../components/recipe-status';
 import { startSearch, type SearchHandle } from './search-client';
 import { useExplorerStore, type Scenario } from './store';
 import { CandidateTable } from './CandidateTable';
@@ -257,6 +258,7 @@ function ScenarioForm({
   onCancel: () => void;
 }) {
   const fmt = useFormat();
+  const refChanges = useMemo(() => (reference ? stockBasisChanges(reference.stockBasis, components) : []), [reference, components]);
   const refId = useId();
   const kId = useId();
   const objId = useId();
@@ -306,6 +308,12 @@ function ScenarioForm({
                 ))}
             </select>
           </div>
+          {reference && refChanges.length > 0 && (
+            <div className="stock-changed-note" data-testid="reference-stock-changed">
+              <strong>Stock data changed since this recipe was saved:</strong>
+              <StockChangeList changes={refChanges} />
+            </div>
+          )}
           {reference && targets && (
             <p className="muted" data-testid="scenario-targets">
               Targets: VG {targets.grade}, ν40 {targets.targetKv40 === null ? 'at the mid-point' : `${fmt.num(targets.targetKv40, 1)} mm²/s`} ±{' '}
