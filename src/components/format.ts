@@ -185,3 +185,28 @@ export function gradeLabel(kv40: number | null | undefined): string {
   if (p.kind === 'between') return `between VG ${p.lower} and ${p.upper}`;
   return `${p.kind} VG ${p.grade}`;
 }
+
+/**
+ * One input of a calculation's working ("show working"), in the user's format: the unit in the
+ * name's brackets tells how to write each number (°C values converted to the user's unit, which
+ * the label then names). A list is written "a / b" with its units in the same order.
+ */
+export function formatWorkingInput(
+  name: string,
+  value: number | string | null | readonly (number | null)[],
+  fmt: Formatter,
+): { label: string; text: string } {
+  const m = /^(.*?)\s*\[([^\]]*)\]$/.exec(name);
+  const units = m ? m[2]!.split(' / ') : [];
+  const values = Array.isArray(value) ? value : [value as number | string | null];
+  const text = values
+    .map((v, i) => {
+      if (v === null || v === undefined) return '—';
+      if (typeof v === 'string') return v;
+      const unit = units[i] ?? units[0];
+      return unit === '°C' ? fmt.sig(fmt.tempValue(v), 5) : fmt.sig(v, 5);
+    })
+    .join(' / ');
+  const label = m ? `${m[1]} [${units.map((u) => (u === '°C' ? fmt.tempUnit : u)).join(' / ')}]` : name;
+  return { label, text };
+}

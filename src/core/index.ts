@@ -160,7 +160,7 @@ export {
 } from './sheet/blend-sheet';
 
 // Predicted blend properties (with "show working" explanations)
-export type { BlendProperties, BlendPropertyLine, PropertyExplain, PredictOptions, KvAtTemperature } from './formulation/blend-properties';
+export type { BlendProperties, BlendPropertyLine, PropertyExplain, ExplainValue, PredictOptions, KvAtTemperature } from './formulation/blend-properties';
 export { predictBlend, blendingViscosities } from './formulation/blend-properties';
 
 // Solver: recipes to a grade (least cost per litre, solvency, oxidation, closest), fast path, plain API

@@ -3,6 +3,7 @@ import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceStep, niceTicks, tickDecimals } from './nice';
 import { LiveBars, LiveMarksContext } from './live';
+import { useFormat, type Formatter } from '../format';
 
 export interface CompositionRow {
   id: string;
@@ -43,6 +44,7 @@ export function roundUp(v: number): number {
 /** Composition (mass % and volume %) and cost contribution per component, side by side. */
 export const CompositionChart = memo(function CompositionChart({ rows, currency, width, height, live = false, pctMax, costMax }: CompositionChartProps) {
   const descId = useId();
+  const f = useFormat();
   const half = Math.floor((width - 16) / 2);
   const pctDomain: [number, number] = [0, live && pctMax ? pctMax : roundUp(Math.max(1, ...rows.map((r) => Math.max(r.massPct, r.volumePct))))];
   const costDomain: [number, number] = [0, live && costMax ? costMax : roundUp(Math.max(1e-3, ...rows.map((r) => r.costPerLitre)))];
@@ -61,9 +63,15 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
           </ul>
           <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
             <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-            <XAxis type="number" unit=" %" domain={pctDomain} ticks={niceTicks(pctDomain, 4)} allowDataOverflow />
+            <XAxis
+              type="number"
+              domain={pctDomain}
+              ticks={niceTicks(pctDomain, 4)}
+              tickFormatter={(v: number) => `${f.num(v, tickDecimals(pctDomain, 4))} %`}
+              allowDataOverflow
+            />
             <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(2)} %`} />}
+            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 2)} %`} />}
             {!live && <Bar dataKey="massPct" name="mass %" fill={CHART_COLOURS.mass} isAnimationActive={false} />}
             {!live && <Bar dataKey="volumePct" name="volume %" fill={CHART_COLOURS.volume} isAnimationActive={false} />}
             {live && <LiveBars which="composition" domain={pctDomain} unit="%" />}
@@ -75,9 +83,9 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
           </ul>
           <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
             <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
-            <XAxis type="number" domain={costDomain} ticks={costTicks} allowDataOverflow tickFormatter={(v: number) => v.toFixed(tickDecimals(costDomain, 4))} />
+            <XAxis type="number" domain={costDomain} ticks={costTicks} allowDataOverflow tickFormatter={(v: number) => f.num(v, tickDecimals(costDomain, 4))} />
             <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(3)} ${currency}/L`} />}
+            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 3)} ${currency}/L`} />}
             {!live && <Bar dataKey="cost" name={`cost, ${currency} per litre of blend`} fill={CHART_COLOURS.cost} isAnimationActive={false} />}
             {live && <LiveBars which="cost" domain={costDomain} unit={`${currency}/L`} />}
           </BarChart>
@@ -88,25 +96,27 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
   );
 });
 
-function describe(rows: readonly Pick<CompositionRow, 'label' | 'massPct' | 'volumePct' | 'costPerLitre'>[], currency: string): string {
+function describe(rows: readonly Pick<CompositionRow, 'label' | 'massPct' | 'volumePct' | 'costPerLitre'>[], currency: string, f: Formatter): string {
   return rows
-    .map((r) => `${r.label}: ${r.massPct.toFixed(1)} % by mass, ${r.volumePct.toFixed(1)} % by volume, ${r.costPerLitre.toFixed(3)} ${currency}/L`)
+    .map((r) => `${r.label}: ${f.num(r.massPct, 1)} % by mass, ${f.num(r.volumePct, 1)} % by volume, ${f.num(r.costPerLitre, 3)} ${currency}/L`)
     .join('; ');
 }
 
 function Description({ id, rows, currency }: { id: string; rows: readonly CompositionRow[]; currency: string }) {
+  const f = useFormat();
   return (
     <p id={id} className="visually-hidden">
-      {describe(rows, currency)}
+      {describe(rows, currency, f)}
     </p>
   );
 }
 
 function LiveDescription({ id, currency }: { id: string; currency: string }) {
   const bars = useContext(LiveMarksContext).bars ?? [];
+  const f = useFormat();
   return (
     <p id={id} className="visually-hidden">
-      {describe(bars, currency)}
+      {describe(bars, currency, f)}
     </p>
   );
 }

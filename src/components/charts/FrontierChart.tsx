@@ -2,6 +2,7 @@ import { memo } from 'react';
 import { CartesianGrid, Cell, Line, ComposedChart, Scatter, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
+import { useFormat } from '../format';
 
 export interface FrontierPoint {
   id: string;
@@ -33,8 +34,10 @@ const FILL: Record<FrontierPoint['role'], string> = {
  * (no candidate both cheaper and more solvent) is joined by a line.
  */
 export const FrontierChart = memo(function FrontierChart({ points, currency, width, height, onSelect }: FrontierChartProps) {
+  const f = useFormat();
   // `kind`, not `role`: recharts copies point fields onto the SVG shape, and role="frontier" is no ARIA role.
-  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.costPerLitre, y: p.anilinePoint }));
+  // The aniline point (°C) is drawn in the user's temperature unit.
+  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.costPerLitre, y: f.tempValue(p.anilinePoint) }));
   const frontier = data.filter((p) => p.kind === 'frontier' || (p.kind === 'selected' && isOnFrontier(p, data))).sort((a, b) => a.x - b.x);
   const xs = data.map((p) => p.x);
   const ys = data.map((p) => p.y);
@@ -54,7 +57,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             dataKey="x"
             domain={xDomain}
             ticks={xTicks}
-            tickFormatter={(v: number) => v.toFixed(tickDecimals(xDomain))}
+            tickFormatter={(v: number) => f.num(v, tickDecimals(xDomain))}
             label={{ value: `cost, ${currency} per litre`, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
@@ -63,11 +66,11 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             domain={yDomain}
             ticks={yTicks}
             width={64}
-            tickFormatter={(v: number) => v.toFixed(tickDecimals(yDomain))}
-            label={{ value: 'aniline point, °C', angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
+            tickFormatter={(v: number) => f.num(v, tickDecimals(yDomain))}
+            label={{ value: `aniline point, ${f.tempUnit}`, angle: -90, position: 'insideLeft', offset: 6, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[50, 50]} />
-          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [Number(v).toFixed(2), String(n)]} />
+          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [f.num(Number(v), 2), String(n)]} />
           <Line data={frontier} dataKey="y" stroke={CHART_COLOURS.frontier} strokeWidth={2} dot={false} activeDot={false} isAnimationActive={false} name="frontier" />
           <Scatter
             data={data}

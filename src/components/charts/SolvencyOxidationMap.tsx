@@ -1,7 +1,8 @@
 import { memo } from 'react';
 import { CartesianGrid, Cell, ReferenceArea, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
-import { niceTicks } from './nice';
+import { niceDomain, niceTicks, tickDecimals } from './nice';
+import { useFormat } from '../format';
 import { LiveMapPoint } from './live';
 
 export interface MapPoint {
@@ -28,8 +29,13 @@ export interface SolvencyOxidationMapProps {
   riskRegion?: { x: readonly [number, number]; y: readonly [number, number]; label: string } | null;
   /** Draw the x axis high-to-low (e.g. aniline point, where lower means more solvent). */
   xReversed?: boolean;
-  /** Label for an x value; default the number. */
+  /** Label for an x value; default the number in the user's format. */
   formatX?: (v: number) => string;
+  /**
+   * The x values (points, domain, live point) are temperatures in °C: the axis shows them in the
+   * user's unit, at round values of that unit.
+   */
+  xTemperature?: boolean;
   title?: string;
   /** Also draw the blend from {@link LiveMarksContext} (`point`) as a live layer. */
   live?: boolean;
@@ -56,13 +62,20 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   riskRegion = null,
   xReversed = false,
   formatX,
+  xTemperature = false,
   live = false,
   legend = {},
   title = 'Solvency against oxidation stability (estimated scores, not measurements)',
 }: SolvencyOxidationMapProps) {
+  const f = useFormat();
+  const toX = xTemperature ? f.tempValue : (v: number) => v;
+  // In °F the converted ends are rounded out to round values of the user's unit.
+  const shownX: readonly [number, number] = xTemperature && f.tempUnit !== '°C' ? niceDomain(toX(xDomain[0]), toX(xDomain[1]), 0) : xDomain;
+  const xTicks = niceTicks(shownX);
+  const xFormat = formatX ?? ((v: number) => f.num(v, tickDecimals(shownX)));
   // `kind`, not `role`: recharts copies point fields onto the SVG shape, and role="reference" is no ARIA role.
-  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: p.solvency, y: p.oxidation }));
-  const describe = points.map((p) => `${p.label}: ${xLabel} ${p.solvency.toFixed(1)}, ${yLabel} ${p.oxidation.toFixed(1)}`).join('; ');
+  const data = points.map(({ role, ...p }) => ({ ...p, kind: role, x: toX(p.solvency), y: p.oxidation }));
+  const describe = points.map((p) => `${p.label}: ${xLabel} ${f.num(toX(p.solvency), 1)}, ${yLabel} ${f.num(p.oxidation, 1)}`).join('; ');
   return (
     <figure className="chart" data-chart="solvency-oxidation" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
@@ -71,8 +84,8 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           {riskRegion && (
             <ReferenceArea
-              x1={riskRegion.x[0]}
-              x2={riskRegion.x[1]}
+              x1={toX(riskRegion.x[0])}
+              x2={toX(riskRegion.x[1])}
               y1={riskRegion.y[0]}
               y2={riskRegion.y[1]}
               fill={CHART_COLOURS.hot}
@@ -83,12 +96,12 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
           <XAxis
             type="number"
             dataKey="x"
-            domain={[...xDomain]}
+            domain={[...shownX]}
             reversed={xReversed}
             allowDataOverflow
-            ticks={niceTicks(xDomain)}
+            ticks={xTicks}
             name={xLabel}
-            tickFormatter={formatX}
+            tickFormatter={xFormat}
             label={{ value: xLabel, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
@@ -98,12 +111,12 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             allowDataOverflow
             name={yLabel}
             width={formatY ? 100 : 60}
-            tickFormatter={formatY}
-            ticks={formatY ? integerTicks(yDomain) : undefined}
+            tickFormatter={formatY ?? ((v: number) => f.num(v, tickDecimals(yDomain)))}
+            ticks={formatY ? integerTicks(yDomain) : niceTicks(yDomain)}
             label={{ value: yLabel, angle: -90, position: 'left', offset: 0, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[60, 60]} />
-          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [Number(v).toFixed(1), String(n)]} />
+          <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [f.num(Number(v), 1), String(n)]} />
           <Scatter data={data} name="blends" isAnimationActive={false}>
             {data.map((p) => (
               <Cell
@@ -114,7 +127,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
               />
             ))}
           </Scatter>
-          {live && <LiveMapPoint xDomain={xDomain} yDomain={yDomain} />}
+          {live && <LiveMapPoint xDomain={shownX} yDomain={yDomain} toX={toX} />}
         </ScatterChart>
       </div>
       <ul className="chart-legend" aria-hidden="true">

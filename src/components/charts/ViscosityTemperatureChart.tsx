@@ -1,16 +1,7 @@
 import { memo, useMemo } from 'react';
 import { CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
-import {
-  KV_TICK_CANDIDATES,
-  TEMP_TICK_CANDIDATES,
-  d341Kv,
-  d341LineFromPoints,
-  d341TempC,
-  d341X,
-  d341Y,
-  formatKvTick,
-  pickTicks,
-} from './d341-scale';
+import { d341Kv, d341LineFromPoints, d341TempC, d341X, d341Y, formatKvTick, kvAxis, temperatureTicks } from './d341-scale';
+import { useFormat } from '../format';
 import { CHART_COLOURS } from './palette';
 import { LiveD341Line } from './live';
 
@@ -37,7 +28,7 @@ export interface ViscosityTemperatureChartProps {
   tempRangeC?: readonly [number, number];
   width: number;
   height: number;
-  /** Label for a temperature given in °C (lets the screen show °F); default "40 °C". */
+  /** Label for a temperature given in °C; default the user's unit and number format ("40 °C"). */
   formatTemp?: (tempC: number) => string;
   title?: string;
   /**
@@ -49,10 +40,6 @@ export interface ViscosityTemperatureChartProps {
 
 const KV_MIN = 2;
 const KV_MAX = 1e6;
-
-function defaultFormatTemp(c: number): string {
-  return `${Math.round(c)} °C`;
-}
 
 interface LineSeries {
   id: string;
@@ -72,10 +59,13 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
   tempRangeC,
   width,
   height,
-  formatTemp = defaultFormatTemp,
+  formatTemp: formatTempProp,
   title = 'Viscosity against temperature (ASTM D341 axes)',
   live = false,
 }: ViscosityTemperatureChartProps) {
+  const f = useFormat();
+  const formatTemp = formatTempProp ?? f.temp;
+  const fmtKv = (v: number) => (!Number.isFinite(v) ? '—' : f.num(v, v >= 100 ? 0 : v >= 10 ? 1 : 2));
   const model = useMemo(() => {
     const marks = [operatingTempC, coldStartTempC].filter((t): t is number => t !== null && Number.isFinite(t));
     const lo = tempRangeC?.[0] ?? Math.min(-20, ...marks.map((t) => Math.floor((t - 10) / 10) * 10));
@@ -96,21 +86,18 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     }
     const kvLo = Number.isFinite(yMin) ? Math.max(KV_MIN, d341Kv(yMin)) : 5;
     const kvHi = Number.isFinite(yMax) ? Math.min(KV_MAX, d341Kv(yMax)) : 10000;
-    // Round the viscosity range out to the nearest tick candidates so the frame starts and ends on a label.
-    const sortedKv = [...KV_TICK_CANDIDATES].sort((a, b) => a - b);
-    const kvFloor = [...sortedKv].reverse().find((v) => v <= kvLo) ?? KV_MIN;
-    const kvCeil = sortedKv.find((v) => v >= kvHi) ?? KV_MAX;
-    const yDomain: [number, number] = [d341Y(kvFloor), d341Y(kvCeil)];
     const plotH = Math.max(50, height - 70);
     const plotW = Math.max(50, width - 90);
-    const yGap = ((yDomain[1] - yDomain[0]) / plotH) * 16;
-    const xGap = ((xHi - xLo) / plotW) * 38;
-    const kvTicks = pickTicks(KV_TICK_CANDIDATES, kvFloor, kvCeil, d341Y, yGap).map(d341Y);
-    const tempTicks = pickTicks(TEMP_TICK_CANDIDATES, lo, hi, d341X, xGap).map(d341X);
+    // Round ticks of one even series, at least a label apart; the frame starts and ends on a label.
+    const axis = kvAxis(kvLo, kvHi, d341Y, ([a, b]) => ((b - a) / plotH) * 16);
+    const yDomain: [number, number] = [d341Y(axis.range[0]), d341Y(axis.range[1])];
+    const kvTicks = axis.ticks.map(d341Y);
+    const xGap = ((xHi - xLo) / plotW) * 44;
+    const tempTicks = temperatureTicks(lo, hi, f.tempValue, f.tempToC, d341X, xGap).map(d341X);
     return { series, xDomain: [xLo, xHi] as [number, number], yDomain, kvTicks, tempTicks, marks };
-  }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height]);
+  }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height, f]);
 
-  const describe = lines.map((l) => `${l.label}: ${fmt(l.kv40)} mm²/s at 40 °C, ${fmt(l.kv100)} at 100 °C`).join('; ');
+  const describe = lines.map((l) => `${l.label}: ${fmtKv(l.kv40)} mm²/s at 40 °C, ${fmtKv(l.kv100)} at 100 °C`).join('; ');
 
   return (
     <figure className="chart" data-chart="viscosity-temperature" style={{ width }}>
@@ -124,7 +111,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
             domain={model.xDomain}
             ticks={model.tempTicks}
             allowDataOverflow
-            tickFormatter={(x: number) => formatTemp(Math.round(d341TempC(x)))}
+            tickFormatter={(x: number) => formatTemp(d341TempC(x))}
             label={{ value: 'temperature (log absolute scale)', position: 'insideBottom', offset: -18 }}
           />
           <YAxis
@@ -134,12 +121,12 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
             ticks={model.kvTicks}
             allowDataOverflow
             width={70}
-            tickFormatter={(y: number) => formatKvTick(Math.round(d341Kv(y) * 1000) / 1000)}
+            tickFormatter={(y: number) => formatKvTick(Math.round(d341Kv(y) * 1000) / 1000, f.num)}
             label={{ value: 'ν, mm²/s', angle: -90, position: 'left', offset: 2, style: { textAnchor: 'middle' } }}
           />
           <Tooltip
             isAnimationActive={false}
-            formatter={(y) => [`${fmt(d341Kv(Number(y)))} mm²/s`]}
+            formatter={(y) => [`${fmtKv(d341Kv(Number(y)))} mm²/s`]}
             labelFormatter={(x) => formatTemp(d341TempC(Number(x)))}
           />
           {coldStartTempC !== null && Number.isFinite(coldStartTempC) && (
@@ -199,8 +186,3 @@ const LEGEND: Record<OilRole, string> = {
   reference: 'reference recipe',
   component: 'components',
 };
-
-function fmt(v: number): string {
-  if (!Number.isFinite(v)) return '—';
-  return v >= 100 ? v.toFixed(0) : v >= 10 ? v.toFixed(1) : v.toFixed(2);
-}

@@ -86,9 +86,87 @@ export function pickTicks(
   return taken.sort((a, b) => a.v - b.v).map((o) => o.v);
 }
 
-/** Formats a viscosity tick label [mm²/s] compactly: 2, 50, 1000, 20 000, 1e6. */
-export function formatKvTick(kv: number): string {
-  if (kv >= 1e6) return `${kv / 1e6}e6`;
-  if (kv >= 10000) return `${(kv / 1000).toFixed(0)} 000`;
-  return String(Math.round(kv * 100) / 100);
+/**
+ * Round viscosity ticks for a D341 axis, evenly chosen. The axis is the data range rounded out to
+ * the 1–2–5 series (so it stays tight); the ticks are the finest of the series 1–2–5, 1–5, 1 per
+ * decade and 1 per two decades whose neighbouring ticks lie at least `minGap` apart once transformed.
+ *
+ * @param lo - lowest viscosity to show [mm²/s] (> 0)
+ * @param hi - highest viscosity to show [mm²/s]
+ * @param transform - data → axis co-ordinate (d341Y)
+ * @param minGap - least distance between ticks [axis units] for the axis range (in axis units)
+ * @returns the rounded-out range [mm²/s] and its ticks, ascending
+ */
+export function kvAxis(
+  lo: number,
+  hi: number,
+  transform: (v: number) => number,
+  minGap: (range: readonly [number, number]) => number,
+): { range: [number, number]; ticks: number[] } {
+  const seriesValues = (mults: readonly number[], every: number): number[] => {
+    const values: number[] = [];
+    for (let e = -1; e <= 7; e++) {
+      if (e % every !== 0) continue;
+      for (const m of mults) values.push(Number((m * 10 ** e).toPrecision(6)));
+    }
+    return values;
+  };
+  const fine = seriesValues([1, 2, 5], 1);
+  const below = fine.filter((v) => v <= lo * (1 + 1e-9));
+  const above = fine.filter((v) => v >= hi * (1 - 1e-9));
+  const range: [number, number] = [below.length ? Math.max(...below) : fine[0]!, above.length ? Math.min(...above) : fine[fine.length - 1]!];
+  const gap = minGap([transform(range[0]), transform(range[1])]);
+  let ticks: number[] = [];
+  for (const [mults, every] of [
+    [[1, 2, 5], 1],
+    [[1, 5], 1],
+    [[1], 1],
+    [[1], 2],
+  ] as const) {
+    ticks = seriesValues(mults, every).filter((v) => v >= range[0] && v <= range[1]);
+    if (ticks.every((v, i) => i === 0 || transform(v) - transform(ticks[i - 1]!) >= gap)) break;
+  }
+  return { range, ticks };
+}
+
+/**
+ * Round, evenly spaced temperature ticks in the user's unit for a D341 axis: multiples of the
+ * smallest step of 5, 10, 20, 25, 50 or 100 degrees whose neighbouring ticks lie at least `minGap`
+ * apart once transformed (on the log-absolute scale the hot end is the tightest).
+ *
+ * @param loC - lowest temperature shown [°C]
+ * @param hiC - highest temperature shown [°C]
+ * @param toUser - °C → the user's unit; `toC` its inverse
+ * @param transform - °C → axis co-ordinate (d341X)
+ * @param minGap - least distance between ticks [axis units]
+ * @returns the ticks in °C (at round values of the user's unit), ascending
+ */
+export function temperatureTicks(
+  loC: number,
+  hiC: number,
+  toUser: (c: number) => number,
+  toC: (u: number) => number,
+  transform: (c: number) => number,
+  minGap: number,
+): number[] {
+  const lo = toUser(loC);
+  const hi = toUser(hiC);
+  let ticks: number[] = [];
+  for (const step of [5, 10, 20, 25, 50, 100]) {
+    ticks = [];
+    for (let u = Math.ceil(lo / step - 1e-9) * step; u <= hi + 1e-9; u += step) ticks.push(toC(u));
+    if (ticks.every((t, i) => i === 0 || transform(t) - transform(ticks[i - 1]!) >= minGap)) return ticks;
+  }
+  return ticks;
+}
+
+/**
+ * Formats a viscosity tick label [mm²/s]: whole numbers from 10 up, one decimal below; `num`
+ * writes the number (the user's separators); by default digits grouped by a space (20 000).
+ */
+export function formatKvTick(kv: number, num?: (v: number, decimals: number) => string): string {
+  const decimals = kv >= 10 || Number.isInteger(kv) ? 0 : 1;
+  if (num) return num(kv, decimals);
+  const text = kv.toFixed(decimals);
+  return kv >= 10000 ? text.replace(/\B(?=(\d{3})+(?!\d))/g, ' ') : text;
 }

@@ -9,6 +9,7 @@ import { createContext, useContext, useId } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { d341LineFromPoints } from './d341-scale';
 import { CHART_COLOURS } from './palette';
+import { useFormat } from '../format';
 
 export interface LiveBar {
   id: string;
@@ -50,6 +51,7 @@ function ClipToPlot({ id }: { id: string }) {
 /** The blend's straight line on the D341 chart (x = log10 T, y = log10 log10(ν + 0.7)). */
 export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
   const live = useContext(LiveMarksContext).vt;
+  const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
   const clip = useId().replace(/:/g, '');
@@ -66,15 +68,27 @@ export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, 
         <ClipToPlot id={clip} />
       </defs>
       <path d={d} stroke={CHART_COLOURS.candidate} strokeWidth={2.5} fill="none" clipPath={`url(#${clip})`}>
-        <title>{`${live.label}: ${live.kv40.toFixed(1)} mm²/s at 40 °C, ${live.kv100.toFixed(2)} at 100 °C`}</title>
+        <title>{`${live.label}: ${f.num(live.kv40, 1)} mm²/s at 40 °C, ${f.num(live.kv100, 2)} at 100 °C`}</title>
       </path>
     </g>
   );
 }
 
-/** The blend's point on the solvency–stability map. */
-export function LiveMapPoint({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
+/** The blend's point on the solvency–stability map; `toX` maps the context's x to the axis (e.g. °C → °F). */
+export function LiveMapPoint({
+  xDomain,
+  yDomain,
+  toX = (v) => v,
+  describe,
+}: {
+  xDomain: readonly [number, number];
+  yDomain: readonly [number, number];
+  toX?: (v: number) => number;
+  /** The point's title text from its (axis) values. */
+  describe?: (x: number, y: number) => string;
+}) {
   const live = useContext(LiveMarksContext).point;
+  const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
   if (!live || !xs || !ys) return null;
@@ -82,8 +96,8 @@ export function LiveMapPoint({ xDomain, yDomain }: { xDomain: readonly [number, 
   const py = linear(ys, yDomain);
   if (!px || !py) return null;
   return (
-    <circle className="live-point" cx={px(live.x)} cy={py(live.y)} r={5} fill={CHART_COLOURS.candidate} stroke="#1d2a2f">
-      <title>{`${live.label}: ${live.x.toFixed(1)}, ${live.y.toFixed(1)}`}</title>
+    <circle className="live-point" cx={px(toX(live.x))} cy={py(live.y)} r={5} fill={CHART_COLOURS.candidate} stroke="#1d2a2f">
+      <title>{`${live.label}: ${describe ? describe(toX(live.x), live.y) : `${f.num(toX(live.x), 1)}, ${f.num(live.y, 1)}`}`}</title>
     </circle>
   );
 }
@@ -91,6 +105,7 @@ export function LiveMapPoint({ xDomain, yDomain }: { xDomain: readonly [number, 
 /** Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. */
 export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string }) {
   const bars = useContext(LiveMarksContext).bars;
+  const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
   if (!bars || !xs || !ys) return null;
@@ -109,7 +124,7 @@ export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost
           const w = Math.max(0, px(r.costPerLitre) - x0);
           return (
             <rect key={r.id} className="live-bar" x={x0} y={top + pad} width={w} height={band - 2 * pad} fill={CHART_COLOURS.cost}>
-              <title>{`${r.label}: ${r.costPerLitre.toFixed(3)} ${unit}`}</title>
+              <title>{`${r.label}: ${f.num(r.costPerLitre, 3)} ${unit}`}</title>
             </rect>
           );
         }
@@ -117,10 +132,10 @@ export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost
         return (
           <g key={r.id}>
             <rect className="live-bar" x={x0} y={top + pad} width={Math.max(0, px(r.massPct) - x0)} height={h} fill={CHART_COLOURS.mass}>
-              <title>{`${r.label}: ${r.massPct.toFixed(2)} % by mass`}</title>
+              <title>{`${r.label}: ${f.num(r.massPct, 2)} % by mass`}</title>
             </rect>
             <rect className="live-bar" x={x0} y={top + pad + h} width={Math.max(0, px(r.volumePct) - x0)} height={h} fill={CHART_COLOURS.volume}>
-              <title>{`${r.label}: ${r.volumePct.toFixed(2)} % by volume`}</title>
+              <title>{`${r.label}: ${f.num(r.volumePct, 2)} % by volume`}</title>
             </rect>
           </g>
         );

@@ -20,13 +20,21 @@ import { deviationFromMidPct, isoViscosityGrade } from '../viscosity/iso-grades'
 import { ESTER_HYDROLYSIS_CAVEAT, blendOxidationRating } from '../scoring/oxidation';
 
 /** How one predicted number was obtained (for the interface's "show working"). */
+/** One input of a {@link PropertyExplain}: a number, a list of numbers, a word, or nothing. */
+export type ExplainValue = number | string | null | readonly (number | null)[];
+
 export interface PropertyExplain {
   /** The equation(s), in plain text. */
   equation: string;
   /** The standard or source of the method. */
   standard: string;
-  /** The inputs, by name, with units in the name (e.g. "ν40 blend [mm²/s]"). */
-  inputs: Record<string, number | string | null>;
+  /**
+   * The inputs, by name, with the unit in brackets at the end of the name (e.g. "ν40 blend [mm²/s]").
+   * A list holds several numbers of one line, their units in the same order separated by " / "
+   * ("BW-190 φ / AP [– / °C]"). Temperatures are in °C; the screen converts them and every number
+   * to the user's format.
+   */
+  inputs: Record<string, ExplainValue>;
   /** Caveat, if any. */
   note?: string;
 }
@@ -278,7 +286,7 @@ export function predictBlend(
   explain.anilinePoint = {
     equation: 'AP ≈ Σ φᵢ·APᵢ / Σ φᵢ over the parts that have an aniline point (volume fractions)',
     standard: 'ASTM D611 values; volume-weighted mean is common practice (no source), non-ideal for polar Group V fluids',
-    inputs: Object.fromEntries(parts.map((p, i) => [`${p.component.code} φ / AP [°C]`, `${fmt(phi[i]!)} / ${p.component.anilinePoint ?? '—'}`])),
+    inputs: Object.fromEntries(parts.map((p, i) => [`${p.component.code} φ / AP [– / °C]`, [fmt(phi[i]!), p.component.anilinePoint]])),
     note:
       anilinePoint?.basis === 'base-fluid'
         ? 'Taken over the base fluid: parts without an aniline point (additive package) are left out and the rest renormalised.'
@@ -344,7 +352,7 @@ export function predictBlend(
   explain.costPerLitre = {
     equation: 'c_kg = Σ wᵢ·p_kg,ᵢ;  c_L(15 °C) = ρ15,blend·c_kg (= Σ φᵢ·p_L,ᵢ)',
     standard: 'common practice',
-    inputs: Object.fromEntries(priceParts.map((p, i) => [`${parts[i]!.component.code} price [${parts[i]!.component.price.currency}/kg]`, fmt(p.pricePerKg)])),
+    inputs: Object.fromEntries(priceParts.map((p, i) => [`${parts[i]!.component.code} price [${parts[i]!.component.price.currency}/kg]`, p.pricePerKg])),
   };
   explain.costPerKg = { ...explain.costPerLitre };
   explain.costPerDeliveredLitre = {

@@ -29,6 +29,12 @@ export interface ComparisonInput {
   /** Cold-start temperature [°C]. */
   coldTempC: number;
   method?: BlendMethod;
+  /**
+   * How the summary writes numbers: `formatNumber(x, decimals)` (the user's decimal separator;
+   * default `toFixed`, a dot) and the temperature unit (default °C; a difference of aniline point
+   * converts by 9/5, a temperature by t_F = 9/5·t_C + 32).
+   */
+  display?: { formatNumber?: (x: number, decimals: number) => string; temperatureUnit?: 'C' | 'F' };
 }
 
 /** One number on both sides and its difference (candidate − reference); null where undefined. */
@@ -179,13 +185,18 @@ export function compareRecipes(input: ComparisonInput): Comparison {
     },
     summary: [],
   };
-  result.summary = summarise(result, rp.currency);
+  result.summary = summarise(result, rp.currency, input.display ?? {});
   return result;
 }
 
-const signed = (x: number, digits: number): string => `${x > 0 ? '+' : x < 0 ? '−' : '±'}${Math.abs(x).toFixed(digits)}`;
-
-function summarise(c: Comparison, currency: string | null): string[] {
+function summarise(c: Comparison, currency: string | null, display: NonNullable<ComparisonInput['display']>): string[] {
+  const num = display.formatNumber ?? ((x: number, d: number) => x.toFixed(d));
+  const isF = display.temperatureUnit === 'F';
+  const deg = isF ? '°F' : '°C';
+  // A temperature, and a difference of temperatures, in the display unit (definition of °F).
+  const temp = (tC: number) => num(isF ? (tC * 9) / 5 + 32 : tC, 0);
+  const tempDelta = (dC: number) => (isF ? (dC * 9) / 5 : dC);
+  const signed = (x: number, digits: number): string => `${x > 0 ? '+' : x < 0 ? '−' : '±'}${num(Math.abs(x), digits)}`;
   const out: string[] = [];
   if (c.costPerLitre.delta !== null) {
     const pct = c.costPerLitre.deltaPct === null ? '' : ` (${signed(c.costPerLitre.deltaPct, 1)} %)`;
@@ -196,7 +207,7 @@ function summarise(c: Comparison, currency: string | null): string[] {
   if (c.vi.delta !== null) out.push(`VI ${signed(c.vi.delta, 1)}`);
   if (c.anilinePoint.delta !== null) {
     const word = c.anilinePoint.delta < 0 ? 'more solvent' : c.anilinePoint.delta > 0 ? 'less solvent' : 'same solvency';
-    out.push(`Aniline point ${signed(c.anilinePoint.delta, 1)} °C (${word}; approximate)`);
+    out.push(`Aniline point ${signed(tempDelta(c.anilinePoint.delta), 1)} ${deg} (${word}; approximate)`);
   }
   if (c.oxidation.change !== 'same') {
     out.push(
@@ -211,11 +222,11 @@ function summarise(c: Comparison, currency: string | null): string[] {
     ['operating', c.kvAtOperating],
     ['cold-start', c.kvAtCold],
   ] as const) {
-    if (d.deltaPct !== null) out.push(`Viscosity at ${d.tempC} °C (${label}) ${signed(d.deltaPct, 1)} %`);
+    if (d.deltaPct !== null) out.push(`Viscosity at ${temp(d.tempC)} ${deg} (${label}) ${signed(d.deltaPct, 1)} %`);
   }
   const s = c.shear;
-  if (!s.candidate.inGradeAfter) out.push(`The candidate falls out of VG ${s.grade} after shear (ν40 ≈ ${s.candidate.kv40After.toFixed(0)} mm²/s).`);
-  if (!s.reference.inGradeAfter) out.push(`The reference falls out of VG ${s.grade} after shear (ν40 ≈ ${s.reference.kv40After.toFixed(0)} mm²/s).`);
+  if (!s.candidate.inGradeAfter) out.push(`The candidate falls out of VG ${s.grade} after shear (ν40 ≈ ${num(s.candidate.kv40After, 0)} mm²/s).`);
+  if (!s.reference.inGradeAfter) out.push(`The reference falls out of VG ${s.grade} after shear (ν40 ≈ ${num(s.reference.kv40After, 0)} mm²/s).`);
   out.push('Predicted values are estimates: laboratory confirmation is required before release.');
   return out;
 }

@@ -544,6 +544,11 @@ export interface QcOptions {
    * in this unit too. The standard test temperatures (40, 100 and 15 °C) stay in °C.
    */
   temperatureUnit?: SheetTemperatureUnit;
+  /**
+   * Writes a number with a fixed number of decimals for print (the user's decimal separator and
+   * grouping); default `x.toFixed(decimals)` (a dot, no grouping).
+   */
+  formatNumber?: (x: number, decimals: number) => string;
 }
 
 export type QcKey =
@@ -584,12 +589,12 @@ export interface QcRow {
   predictedOutsideTarget: boolean;
 }
 
-const fmt = (x: number, d: number) => x.toFixed(d);
+const fixedDot = (x: number, d: number) => x.toFixed(d);
 
 export const PER_SPECIFICATION = 'Per specification';
 
-/** "a–b", "≥ a", "≤ b" or "Per specification", with `d` decimals. */
-function limitText(min: number | null, max: number | null, d: number): string {
+/** "a–b", "≥ a", "≤ b" or "Per specification", with `d` decimals written by `fmt`. */
+function limitText(min: number | null, max: number | null, d: number, fmt: (x: number, d: number) => string = fixedDot): string {
   if (min !== null && max !== null) return `${fmt(min, d)}–${fmt(max, d)}`;
   if (min !== null) return `≥ ${fmt(min, d)}`;
   if (max !== null) return `≤ ${fmt(max, d)}`;
@@ -616,6 +621,8 @@ function limitText(min: number | null, max: number | null, d: number): string {
 export function qcReleaseTargets(grade: number, predicted: SheetPrediction, options: QcOptions = {}): QcRow[] {
   const tol40 = options.kv40TolerancePct ?? 5;
   const spec = options.specification ?? BLANK_SPECIFICATION;
+  const fmt = options.formatNumber ?? fixedDot;
+  const limit = (min: number | null, max: number | null, d: number) => limitText(min, max, d, fmt);
 
   // ISO 3448 limits as tabulated exact decimals (iso-grades.ts); the aim band is computed in
   // thousandths so 320 × 0.95 prints 304.0, not 303.99999999999994.
@@ -636,29 +643,29 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
     },
     {
       key: 'kv100', property: 'Kinematic viscosity at 100 °C', unit: 'mm²/s', predicted: fmt(predicted.kv100, 2),
-      target: limitText(spec.kv100Min, spec.kv100Max, 2), min: spec.kv100Min, max: spec.kv100Max, method: 'ASTM D445',
+      target: limit(spec.kv100Min, spec.kv100Max, 2), min: spec.kv100Min, max: spec.kv100Max, method: 'ASTM D445',
       release: true, limitSource: fromSpec(spec.kv100Min, spec.kv100Max),
     },
     {
       key: 'vi', property: 'Viscosity index', unit: '', predicted: predicted.reportedVi === null ? '—' : fmt(predicted.reportedVi, 0),
-      target: limitText(spec.viMin, null, 0), min: spec.viMin, max: null, method: 'ASTM D2270', release: true,
+      target: limit(spec.viMin, null, 0), min: spec.viMin, max: null, method: 'ASTM D2270', release: true,
       limitSource: fromSpec(spec.viMin, null),
     },
     {
       key: 'density15', property: 'Density at 15 °C', unit: 'kg/L', predicted: fmt(predicted.density15, 4),
-      target: limitText(spec.density15Min, spec.density15Max, 4), min: spec.density15Min, max: spec.density15Max,
+      target: limit(spec.density15Min, spec.density15Max, 4), min: spec.density15Min, max: spec.density15Max,
       method: 'ASTM D4052', release: true, limitSource: fromSpec(spec.density15Min, spec.density15Max),
     },
     {
       key: 'flash', property: predicted.flashPoint === null ? 'Flash point, open cup' : 'Flash point, open cup (estimate)', unit: '°C',
       predicted: predicted.flashPoint === null ? '—' : fmt(predicted.flashPoint, 0),
-      target: limitText(spec.flashMin, null, 0), min: spec.flashMin, max: null, method: 'ASTM D92', release: true,
+      target: limit(spec.flashMin, null, 0), min: spec.flashMin, max: null, method: 'ASTM D92', release: true,
       limitSource: fromSpec(spec.flashMin, null),
     },
     {
       key: 'pour', property: predicted.pourPoint === null ? 'Pour point' : 'Pour point (estimate)', unit: '°C',
       predicted: predicted.pourPoint === null ? '—' : fmt(predicted.pourPoint, 0),
-      target: limitText(null, spec.pourMax, 0), min: null, max: spec.pourMax, method: 'ASTM D97', release: true,
+      target: limit(null, spec.pourMax, 0), min: null, max: spec.pourMax, method: 'ASTM D97', release: true,
       limitSource: fromSpec(null, spec.pourMax),
     },
     {
@@ -687,23 +694,23 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
   const unit = options.temperatureUnit ?? 'C';
   return rows.map((r) => {
     const judged = { ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) };
-    return unit === 'C' ? judged : inFahrenheit(judged, predicted);
+    return unit === 'C' ? judged : inFahrenheit(judged, predicted, fmt);
   });
 }
 
 /** A QC row's temperatures re-expressed in °F (judged in °C before, so the verdict does not change). */
-function inFahrenheit(r: QcRow, p: SheetPrediction): QcRow {
+function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) => string): QcRow {
   const f = (tC: number) => sheetTemp(tC, 'F');
   const value: Partial<Record<QcKey, number | null>> = { flash: p.flashPoint, pour: p.pourPoint, aniline: p.anilinePoint };
   if (r.key === 'kvOperating' && p.operating !== null) {
-    return { ...r, property: `Viscosity at ${f(p.operating.tempC)} °F (calculated)` };
+    return { ...r, property: `Viscosity at ${fmt(f(p.operating.tempC), 0)} °F (calculated)` };
   }
   if (!(r.key in value)) return r;
   const v = value[r.key];
   const min = r.min === null ? null : f(r.min);
   const max = r.max === null ? null : f(r.max);
-  const target = min !== null ? `≥ ${min}` : max !== null ? `≤ ${max}` : r.target;
-  return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : String(f(v)), target, min, max };
+  const target = min !== null ? `≥ ${fmt(min, 0)}` : max !== null ? `≤ ${fmt(max, 0)}` : r.target;
+  return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : fmt(f(v), 0), target, min, max };
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */

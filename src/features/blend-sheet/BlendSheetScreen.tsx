@@ -35,6 +35,7 @@ export default function BlendSheetScreen() {
     () => ({ base: settings.baseCurrency, rates: settings.exchangeRates }),
     [settings.baseCurrency, settings.exchangeRates],
   );
+  const formatNumber = useCallback((x: number, d: number) => f.num(x, d), [f]);
   const recipeId = picked ?? active?.id ?? null;
 
   const predict = useCallback(
@@ -67,7 +68,7 @@ export default function BlendSheetScreen() {
       temperatureUnit={settings.temperatureUnit}
       sheetInputs={sheets}
       onSheetInputsChange={recipeActions.setSheetInputs}
-      formatNumber={(x, d) => f.num(x, d)}
+      formatNumber={formatNumber}
     />
   );
 }

@@ -171,7 +171,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       try {
         const p = predict(recipe);
         return {
-          rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit, specification: recipe.specification }),
+          rows: qcReleaseTargets(recipe.grade, p, { temperatureUnit: tUnit, specification: recipe.specification, formatNumber: fmt }),
           warnings: p.warnings ?? [],
           properties: p.properties ?? null,
         };
@@ -179,7 +179,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         return { error: errorText(e, components) };
       }
     },
-    [recipe, predict, tUnit, components],
+    [recipe, predict, tUnit, components, fmt],
   );
 
   const hold = useMemo((): HoldReason[] => {

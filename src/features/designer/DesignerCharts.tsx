@@ -139,7 +139,8 @@ export default function DesignerCharts({ view, prediction, components, reference
             live
             width={half}
             height={380}
-            xLabel="aniline point, °C (right = more solvent)"
+            xLabel={`aniline point, ${fmt.tempUnit} (right = more solvent)`}
+            xTemperature
             yLabel="oxidation-stability rating"
             xDomain={apDomain}
             xReversed

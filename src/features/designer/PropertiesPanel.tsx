@@ -7,7 +7,7 @@ import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { CautionBanner } from '../../components/notices';
-import { gradeLabel, useFormat, type Formatter } from '../../components/format';
+import { formatWorkingInput, gradeLabel, useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
@@ -73,7 +73,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   rows.push({
     key: 'vi',
     label: 'Viscosity index',
-    value: p.vi === null ? 'not defined' : `${p.reportedVi} (${fmt.num(p.vi, 1)})`,
+    value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, 1)})`,
     status: targets.minVi === null ? 'info' : viOk ? 'ok' : 'fail',
     statusText: targets.minVi === null ? '' : `minimum ${fmt.num(targets.minVi, 0)}`,
     explain: ex.vi ?? null,
@@ -366,11 +366,14 @@ function Working({ explain, fmt }: { explain: PropertyExplain; fmt: Formatter })
             <dt>Inputs</dt>
             <dd>
               <ul className="inputs">
-                {inputs.map(([k, v]) => (
-                  <li key={k}>
-                    {k}: {typeof v === 'number' ? fmt.sig(v, 5) : (v ?? '—')}
-                  </li>
-                ))}
+                {inputs.map(([k, v]) => {
+                  const { label, text } = formatWorkingInput(k, v, fmt);
+                  return (
+                    <li key={k}>
+                      {label}: {text}
+                    </li>
+                  );
+                })}
               </ul>
             </dd>
           </>

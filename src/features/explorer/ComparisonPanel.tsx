@@ -65,7 +65,7 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   rows.push({ label: 'ν40, mm²/s', ref: fmt.num(r?.kv40, 1), cand: fmt.num(c?.kv40, 1), change: delta(r?.kv40, c?.kv40, fmt, 1) });
   rows.push({ label: 'ν100, mm²/s', ref: fmt.num(r?.kv100, 2), cand: fmt.num(c?.kv100, 2), change: delta(r?.kv100, c?.kv100, fmt, 2) });
   const viD = r?.vi != null && c?.vi != null ? c.vi - r.vi : null;
-  rows.push({ label: 'Viscosity index', ref: r?.reportedVi ?? '—', cand: c?.reportedVi ?? '—', change: delta(r?.vi, c?.vi, fmt, 1), tone: tone(viD, false) });
+  rows.push({ label: 'Viscosity index', ref: fmt.num(r?.reportedVi, 0), cand: fmt.num(c?.reportedVi, 0), change: delta(r?.vi, c?.vi, fmt, 1), tone: tone(viD, false) });
   const rAp = r?.anilinePoint?.value ?? null;
   const cAp = c?.anilinePoint?.value ?? null;
   rows.push({
@@ -179,11 +179,12 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         operatingTempC: settings.operatingTempC,
         coldTempC: settings.coldStartTempC,
         method: settings.blendMethod,
+        display: { formatNumber: (x, d) => fmt.num(x, d), temperatureUnit: settings.temperatureUnit },
       }).summary;
     } catch {
       return [];
     }
-  }, [components, reference, candidate, settings.operatingTempC, settings.coldStartTempC, settings.blendMethod]);
+  }, [components, reference, candidate, settings.operatingTempC, settings.coldStartTempC, settings.blendMethod, settings.temperatureUnit, fmt]);
   return (
     <section className="comparison" aria-labelledby="cmp-h" data-testid="comparison">
       <h3 id="cmp-h">Candidate {candidate.rank} beside the reference</h3>

@@ -102,7 +102,8 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
           points={mapPoints}
           width={half}
           height={360}
-          xLabel="aniline point, °C (right = more solvent)"
+          xLabel={`aniline point, ${fmt.tempUnit} (right = more solvent)`}
+          xTemperature
           yLabel="oxidation-stability rating"
           xDomain={[apLo, apHi]}
           xReversed

@@ -317,7 +317,7 @@ function ScenarioForm({
           {reference && targets && (
             <p className="muted" data-testid="scenario-targets">
               Targets: VG {targets.grade}, ν40 {targets.targetKv40 === null ? 'at the mid-point' : `${fmt.num(targets.targetKv40, 1)} mm²/s`} ±{' '}
-              {fmt.num(targets.tolerancePct, 1)} %{targets.minVi !== null ? `, VI ≥ ${targets.minVi}` : ''}
+              {fmt.num(targets.tolerancePct, 1)} %{targets.minVi !== null ? `, VI ≥ ${fmt.say(targets.minVi)}` : ''}
               {targets.maxAnilinePoint !== null ? `, aniline point ≤ ${fmt.temp(targets.maxAnilinePoint)}` : ''}
               {targets.additive ? `, additive package at ${fmt.pct(targets.additive.massFraction, 1)}` : ''} (from the recipe’s saved targets; edit
               them in the designer).
@@ -391,6 +391,7 @@ function ScenarioForm({
 }
 
 function RunStatusView() {
+  const fmt = useFormat();
   const status = useExplorerStore((s) => s.status);
   const p = useExplorerStore((s) => s.progress);
   const error = useExplorerStore((s) => s.error);
@@ -403,7 +404,7 @@ function RunStatusView() {
           <label htmlFor="explorer-progress">{status === 'running' ? 'Searching…' : 'Search'}</label>
           <progress id="explorer-progress" max={p?.total ?? 1} value={p?.evaluated ?? 0} aria-valuetext={`${pct} %`} />
           <span role="status" aria-live="polite">
-            {p ? `${p.evaluated.toLocaleString('en')} of ${p.total.toLocaleString('en')} combinations, ${p.feasible} feasible, ${p.distinct} distinct recipes` : 'starting…'}
+            {p ? `${fmt.num(p.evaluated, 0)} of ${fmt.num(p.total, 0)} combinations, ${fmt.num(p.feasible, 0)} feasible, ${fmt.num(p.distinct, 0)} distinct recipes` : 'starting…'}
             {status === 'cancelled' ? ' — cancelled' : ''}
           </span>
         </div>

@@ -74,6 +74,7 @@ export function checkTrial(
   lines: readonly { componentId: string; pct: number | null }[],
   measured: { kv40: number | null; kv100: number | null },
   components: readonly Component[],
+  say: (v: number) => string = (v) => String(Number(v.toPrecision(6))),
 ): string[] {
   const errors: string[] = [];
   const seen = new Set<string>();
@@ -83,19 +84,19 @@ export function checkTrial(
     else if (seen.has(l.componentId)) errors.push(`${code} appears twice in the trial blend; enter it once with its total mass %.`);
     seen.add(l.componentId);
     if (l.pct === null || Number.isNaN(l.pct)) errors.push(`Enter the mass % of ${l.componentId ? code : 'every line'} as a number.`);
-    else if (l.pct < 0 || l.pct > 100) errors.push(`The mass % of ${code} must be between 0 and 100 (got ${l.pct}).`);
+    else if (l.pct < 0 || l.pct > 100) errors.push(`The mass % of ${code} must be between 0 and 100 (got ${say(l.pct)}).`);
   }
   const unknownLine = lines.find((l) => l.componentId === unknown.id);
   if (!unknownLine || !(unknownLine.pct !== null && unknownLine.pct > 0)) {
     errors.push(`${unknown.code} is not in the trial blend: the blend must contain the stock being calibrated.`);
   } else if (unknownLine.pct < 100 * MIN_CALIBRATION_FRACTION) {
-    errors.push(`${unknown.code} is only ${unknownLine.pct} % of the trial; calibrate from a blend with at least ${100 * MIN_CALIBRATION_FRACTION} % of it.`);
+    errors.push(`${unknown.code} is only ${say(unknownLine.pct)} % of the trial; calibrate from a blend with at least ${say(100 * MIN_CALIBRATION_FRACTION)} % of it.`);
   } else if (unknownLine.pct >= 100) {
     errors.push(`The trial must contain at least one other stock besides ${unknown.code}; for ${unknown.code} alone, enter its measured viscosities instead.`);
   }
   const sum = lines.reduce((s, l) => s + (l.pct !== null && Number.isFinite(l.pct) ? l.pct : 0), 0);
   if (lines.every((l) => l.pct !== null && Number.isFinite(l.pct)) && Math.abs(sum - 100) > 0.01) {
-    errors.push(`The mass % of the trial blend add up to ${Number(sum.toFixed(4))} %, not 100 %.`);
+    errors.push(`The mass % of the trial blend add up to ${say(Number(sum.toFixed(4)))} %, not 100 %.`);
   }
   const { kv40, kv100 } = measured;
   if (kv40 === null || Number.isNaN(kv40)) errors.push('Enter the measured ν40 of the trial blend (mm²/s) as a number.');
@@ -149,7 +150,7 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
     const r = recipes.find((x) => x.id === recipeId);
     if (!r) return;
     edit(() => {
-      const ls = r.lines.filter((l) => l.massFraction > 0).map((l, i) => ({ key: nextKey + i, componentId: l.componentId, pct: String(Number((l.massFraction * 100).toFixed(4))) }));
+      const ls = r.lines.filter((l) => l.massFraction > 0).map((l, i) => ({ key: nextKey + i, componentId: l.componentId, pct: fmt.plain(Number((l.massFraction * 100).toFixed(4))) }));
       setLines(ls);
       setNextKey(nextKey + ls.length);
     });
@@ -158,7 +159,7 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
   const solve = () => {
     const parsed = lines.map((l) => ({ componentId: l.componentId, pct: fmt.parse(l.pct) }));
     const measured = { kv40: fmt.parse(kv40), kv100: fmt.parse(kv100) };
-    const problems = checkTrial(c, parsed, measured, components);
+    const problems = checkTrial(c, parsed, measured, components, fmt.say);
     if (problems.length) {
       setErrors(problems);
       setResult(null);

@@ -119,7 +119,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         />
       </td>
       <td className="num computed" title="Viscosity index, ASTM D2270, computed from ν40 and ν100" data-testid="vi-cell">
-        {'vi' in vi ? roundHalfEven(vi.vi) : <span className="no-value" title={vi.why}>{vi.reason}<span className="visually-hidden"> ({vi.why})</span></span>}
+        {'vi' in vi ? fmt.num(roundHalfEven(vi.vi), 0) : <span className="no-value" title={vi.why}>{vi.reason}<span className="visually-hidden"> ({vi.why})</span></span>}
       </td>
       <td className="num computed" title="ISO 3448 viscosity grade of ν40" data-testid="grade-cell">
         {gradeText.startsWith('VG ') ? gradeText : <span className="muted">{gradeText}</span>}

@@ -36,7 +36,7 @@ describe('ViscosityTemperatureChart', () => {
     expect(ticks).toContain('100');
     expect(ticks).toContain('1000');
     expect(container.textContent).toContain('operating 70 °C');
-    expect(container.textContent).toContain('cold start -10 °C');
+    expect(container.textContent).toContain('cold start −10 °C');
     expect(getByRole('img').getAttribute('aria-label')).toContain('reference: 320 mm²/s at 40 °C');
   });
 
@@ -109,6 +109,60 @@ describe('other charts', () => {
     );
     expect(container.querySelectorAll('.recharts-scatter-symbol').length).toBe(4);
     expect(container.querySelector('.recharts-line-curve')?.getAttribute('d')).toMatch(/^M.+L/);
+  });
+});
+
+describe('one formatter for every chart', () => {
+  it('ticks use the decimal comma and °F from the settings, and never "1e6"', async () => {
+    const { settingsActions } = await import('../../../src/state');
+    settingsActions.updateSettings({ decimalSeparator: ',', temperatureUnit: 'F' });
+    try {
+      const vt = render(
+        <ViscosityTemperatureChart
+          width={640}
+          height={360}
+          lines={[{ id: 'b', label: 'heavy', kv40: 2000, kv100: 80, role: 'component' }]}
+        />,
+      );
+      const ticks = [...vt.container.querySelectorAll('.recharts-cartesian-axis-tick-value')].map((t) => t.textContent ?? '');
+      expect(ticks.join(' ')).not.toMatch(/e\d/);
+      expect(ticks.some((t) => / °F$/.test(t))).toBe(true);
+      expect(ticks.some((t) => / °C$/.test(t))).toBe(false);
+      vt.unmount();
+      const fr = render(
+        <FrontierChart
+          width={500}
+          height={300}
+          currency="EUR"
+          points={[
+            { id: 'a', label: 'a', costPerLitre: 1.0, anilinePoint: 120, role: 'frontier' },
+            { id: 'b', label: 'b', costPerLitre: 1.2, anilinePoint: 105, role: 'frontier' },
+          ]}
+        />,
+      );
+      const frTicks = [...fr.container.querySelectorAll('.recharts-cartesian-axis-tick-value')].map((t) => t.textContent ?? '');
+      expect(fr.container.textContent).toContain('aniline point, °F');
+      expect(frTicks.some((t) => /^\d+,\d+$/.test(t))).toBe(true); // cost ticks with a decimal comma
+      expect(frTicks.some((t) => /\d\.\d/.test(t))).toBe(false);
+      fr.unmount();
+      const map = render(
+        <SolvencyOxidationMap
+          width={400}
+          height={300}
+          xTemperature
+          xDomain={[80, 140]}
+          yDomain={[1, 5]}
+          points={[{ id: 'r', label: 'ref', role: 'reference', solvency: 110, oxidation: 3 }]}
+        />,
+      );
+      const mapTicks = [...map.container.querySelectorAll('.recharts-xAxis .recharts-cartesian-axis-tick-value')].map((t) => Number(t.textContent));
+      // 80–140 °C is 176–284 °F: round °F ticks
+      expect(Math.min(...mapTicks)).toBeGreaterThanOrEqual(170);
+      expect(Math.max(...mapTicks)).toBeLessThanOrEqual(290);
+      for (const t of mapTicks) expect(t % 10).toBe(0);
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.', temperatureUnit: 'C' });
+    }
   });
 });
 

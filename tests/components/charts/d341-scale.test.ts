@@ -7,7 +7,9 @@ import {
   d341X,
   d341Y,
   formatKvTick,
+  kvAxis,
   pickTicks,
+  temperatureTicks,
 } from '../../../src/components/charts/d341-scale';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
@@ -54,6 +56,29 @@ describe('ASTM D341 chart axes', () => {
     }
     expect(formatKvTick(20000)).toBe('20 000');
     expect(formatKvTick(320)).toBe('320');
+    expect(formatKvTick(1e6)).toBe('1 000 000'); // never "1e6"
+  });
+
+  it('kvAxis: ticks of one even series, at least a label apart', () => {
+    // design choice, not a check value: a tight 1–2–5 frame, ticks from one series
+    const { range, ticks } = kvAxis(6, 150000, d341Y, () => 0.02);
+    expect(range).toEqual([5, 200000]);
+    const mantissas = new Set(ticks.map((t) => Number((t / 10 ** Math.floor(Math.log10(t))).toPrecision(3))));
+    for (const series of [[1, 2, 5], [1, 5], [1]]) {
+      if ([...mantissas].every((m) => series.includes(m))) return;
+    }
+    throw new Error(`irregular ticks ${ticks.join(', ')}`);
+  });
+
+  it('temperature ticks are round in the user’s unit, evenly stepped', () => {
+    // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale)
+    const toF = (c: number) => (c * 9) / 5 + 32;
+    const toC = (f: number) => ((f - 32) * 5) / 9;
+    const ticks = temperatureTicks(-20, 120, toF, toC, d341X, 0.004).map(toF);
+    const steps = new Set(ticks.slice(1).map((t, i) => Math.round(t - ticks[i]!)));
+    expect(steps.size).toBe(1);
+    for (const t of ticks) expect(Math.abs(t - Math.round(t))).toBeLessThan(1e-9);
+    expect(ticks[0]! % [...steps][0]!).toBeCloseTo(0, 9);
   });
 });
 

@@ -28,6 +28,20 @@ const candidate = [
 const base = { components: lib, reference, candidate, grade: 220, operatingTempC: 65, coldTempC: -10 };
 
 describe('compareRecipes', () => {
+  it('writes the summary in the display format: decimal comma, °F (temperatures and differences)', () => {
+    const comma = (x: number, d: number) => x.toFixed(d).replace('.', ',');
+    const c = compareRecipes({ ...base, display: { formatNumber: comma, temperatureUnit: 'F' } });
+    const text = c.summary.join('\n');
+    expect(text).not.toMatch(/°C/);
+    expect(text).not.toMatch(/\d\.\d/);
+    // 65 °C = 149 °F and −10 °C = 14 °F (t_F = 9/5·t_C + 32, definition of the Fahrenheit scale)
+    expect(text).toMatch(/Viscosity at 149 °F \(operating\)/);
+    expect(text).toMatch(/Viscosity at 14 °F \(cold-start\)/);
+    // A difference converts by 9/5 only (no offset), by definition.
+    const dF = (c.anilinePoint.delta! * 9) / 5;
+    expect(text).toContain(`Aniline point ${dF > 0 ? '+' : '−'}${comma(Math.abs(dF), 1)} °F`);
+  });
+
   it('reports every difference as candidate − reference from the core predictions', () => {
     // identity: Δ = candidate − reference of predictBlend's values (same rule and temperatures)
     const c = compareRecipes(base);

@@ -90,4 +90,17 @@ describe('Blend sheet fields keep to the stored limits (issue 10 item 1)', () =>
     expect(useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!.name).not.toBe('x'.repeat(5000));
     expect(() => recipeActions.addRecipe({ name: 'y'.repeat(5000), grade: 320 })).toThrow(/recipe name is 5000 characters long/);
   });
+
+  it('section 3 (predicted properties and QC release) uses the decimal comma and °F from the settings', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',', temperatureUnit: 'F' });
+    render(<BlendSheetScreen />);
+    const qc = screen.getByRole('table', { name: /3\. Predicted properties and QC release/ });
+    const row = (name: RegExp) => within(qc).getByText(name).closest('tr')!;
+    // ν40 printed with a comma (e.g. "312,4"), its aim band too; no "." decimals anywhere in the section.
+    expect(within(row(/Kinematic viscosity at 40/)).getAllByText(/^\d+,\d$/).length).toBeGreaterThan(0);
+    expect(qc.textContent).not.toMatch(/\d\.\d/);
+    // The operating temperature 60 °C = 140 °F (definition of the Fahrenheit scale).
+    expect(qc.textContent).toMatch(/Viscosity at 140 °F/);
+    expect(within(row(/Flash point/)).getByText('°F')).toBeTruthy();
+  });
 });

@@ -3,7 +3,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
-import { resetDemo, useRecipes } from '../../../src/state';
+import { resetDemo, settingsActions, useRecipes } from '../../../src/state';
 
 function lineRow(code: string): HTMLElement {
   return screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
@@ -99,6 +99,22 @@ describe('Recipe designer', () => {
     expect(working.textContent).toMatch(/BW-190/);
     fireEvent.click(screen.getByLabelText('show working for Viscosity index'));
     expect(document.getElementById('working-vi')!.textContent).toMatch(/ASTM D2270/);
+  });
+
+  it('shows the working in the user’s format: decimal comma and °F', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',', temperatureUnit: 'F' });
+    try {
+      render(<DesignerScreen />);
+      fireEvent.click(screen.getByLabelText('show working for Aniline point (solvency)'));
+      const working = document.getElementById('working-anilinePoint')!;
+      // BW-190's invented aniline point 122 °C = 251,6 °F (t_F = 9/5·t_C + 32, definition)
+      expect(working.textContent).toMatch(/BW-190 φ \/ AP \[– \/ °F\]: 0,\d+ \/ 251,6/);
+      expect(working.textContent).not.toMatch(/°C\]/);
+      fireEvent.click(screen.getByLabelText('show working for Viscosity at 40 °C'));
+      expect(document.getElementById('working-kv40')!.querySelector('.inputs')!.textContent).not.toMatch(/\d\.\d/);
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.', temperatureUnit: 'C' });
+    }
   });
 
   it('adds and removes stocks', () => {
