@@ -2,7 +2,7 @@ import { lazy, Suspense, useEffect, useRef, useState, type ComponentType, type L
 import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
-import { CautionBanner, DemoTag } from '../components/notices';
+import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
 import { isDemoComponent, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
 const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
@@ -71,7 +71,10 @@ export function App() {
           <h1>Blendbench</h1>
           <span className="tagline">gear-oil reformulation workbench</span>
         </div>
-        <DemoLabel />
+        <div className="header-notes">
+          <StandingCaution />
+          <DemoLabel />
+        </div>
       </header>
       <div className="app-body">
         <nav className="app-nav" aria-label="Screens">
@@ -88,7 +91,8 @@ export function App() {
         </nav>
         <main id="main" ref={mainRef} tabIndex={-1} className="app-main">
           <SavedWorkNotices />
-          <CautionBanner compact={!screen.predictions} />
+          {/* On paper the frame's one-line caution is gone: the full text prints instead (the blend sheet prints its own list). */}
+          {screen.id === 'blend-sheet' ? null : <CautionBanner className="print-only" />}
           {ready ? (
             <ErrorBoundary resetKey={screen.id}>
               <Suspense fallback={<p className="loading">Opening {screen.label}…</p>}>
@@ -103,8 +107,8 @@ export function App() {
         </main>
       </div>
       <footer className="app-footer">
-        Blendbench runs entirely in this browser; nothing is sent anywhere. Predictions are estimates by published
-        methods (ASTM D341, D2270, D7152, Refutas, ISO 3448) and require laboratory confirmation before release.
+        Blendbench runs entirely in this browser; nothing is sent anywhere. Predictions use published methods (ASTM D341,
+        D2270, D7152, Refutas, ISO 3448).
       </footer>
     </div>
   );

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Notice } from '../components/notices';
+import { Notice, persistentStorageText } from '../components/notices';
 import { downloadText } from '../components/download';
 import { useStorageStatus, STORE_KEYS, STORE_LABEL, readKeptCopy, resumeSaving, type StoreKey } from '../state/persistence';
 import { persistedData, STORE_VERSION } from '../state';
@@ -24,6 +24,7 @@ async function downloadKept(key: StoreKey) {
 /** Banners about saved work: unusable stored copies, failed saves, eviction risk, backup reminder. */
 export function SavedWorkNotices() {
   const status = useStorageStatus();
+  const persistence = persistentStorageText(status.persistent);
   const [dismissPersist, setDismissPersist] = useState(false);
   const [snoozedAt, setSnoozedAt] = useState(0);
 
@@ -99,7 +100,7 @@ export function SavedWorkNotices() {
           </div>
         );
       })}
-      {status.persistent === 'refused' && !dismissPersist ? (
+      {persistence.atRisk && !dismissPersist ? (
         <Notice
           tone="info"
           title="The browser may clear saved work."
@@ -109,8 +110,7 @@ export function SavedWorkNotices() {
             </button>
           }
         >
-          It did not grant persistent storage to Blendbench, so it may delete the saved library and recipes when the disk
-          runs low. Export a backup regularly (Settings → Export everything).
+          <span data-testid="persistence-banner">{persistence.text}</span>
         </Notice>
       ) : null}
       {status.editsSinceBackup - snoozedAt >= BACKUP_REMINDER_EDITS ? (

@@ -3,7 +3,7 @@
  *
  * To add a screen: create `src/features/<name>/<Name>Screen.tsx` with a DEFAULT export (a component
  * taking no props that renders its own <h2>), then add ONE line below, before `settings`.
- * `predictions: true` makes the shell show the full laboratory caution above the screen.
+ * The frame carries one standing caution on every screen (and prints the full text).
  */
 import type { ComponentType } from 'react';
 

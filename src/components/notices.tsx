@@ -1,19 +1,50 @@
 /** Shared notices: the laboratory caution, the invented-demo label, status messages. */
 import type { ReactNode } from 'react';
+import type { PersistentStorageState } from '../state/persistence';
 
-/** The standing caution: shown wherever predicted properties are. */
-export function CautionBanner({ compact = false }: { compact?: boolean }) {
+/**
+ * The full caution, where predictions are printed (the app frame prints it on every screen's paper
+ * copy; the blend sheet prints its own, longer list).
+ */
+export function CautionBanner({ className = '' }: { className?: string }) {
   return (
-    <p className={`caution ${compact ? 'caution-compact' : ''}`} role="note" aria-label="Caution">
-      <strong>Estimates only.</strong> Predicted properties require laboratory confirmation before release.
-      {compact ? null : (
-        <>
-          {' '}
-          Safety data sheets, site procedures and local regulations govern handling; this tool does not replace them.
-        </>
-      )}
+    <p className={`caution ${className}`} role="note" aria-label="Caution">
+      <strong>Estimates only.</strong> Predicted properties require laboratory confirmation before release. Safety data
+      sheets, site procedures and local regulations govern handling; this tool does not replace them.
     </p>
   );
+}
+
+/** The one persistent, unobtrusive caution in the app frame (on screen; the printout has the full text). */
+export function StandingCaution() {
+  return (
+    <p className="standing-caution" role="note" aria-label="Caution">
+      Predictions are estimates: laboratory confirmation is required before release.
+    </p>
+  );
+}
+
+/**
+ * What Blendbench says about persistent storage, for the banner and for Settings alike (one
+ * wording per state, so the two can never disagree). `atRisk`: the browser may clear saved work.
+ */
+export function persistentStorageText(state: PersistentStorageState): { atRisk: boolean; text: string } {
+  switch (state) {
+    case 'granted':
+      return { atRisk: false, text: 'Persistent storage granted: the browser will not clear saved work to free space.' };
+    case 'refused':
+      return {
+        atRisk: true,
+        text: 'Persistent storage refused: the browser may clear the saved library and recipes when space runs low. Export a backup regularly (Settings → Export everything).',
+      };
+    case 'unsupported':
+      return {
+        atRisk: true,
+        text: 'Persistent storage is not offered by this browser: it may clear the saved library and recipes when space runs low. Export a backup regularly (Settings → Export everything).',
+      };
+    default:
+      return { atRisk: false, text: 'Persistent storage not asked for yet.' };
+  }
 }
 
 /** A small tag saying the data shown are invented demo data. */

@@ -618,7 +618,10 @@ export function saveNow(key: StoreKey, data: unknown, _version: number): void {
 }
 
 /** Ask the browser to keep our storage (not evict it under pressure) and record the answer. */
+let persistRequests = 0;
 export async function requestPersistentStorage(): Promise<PersistentStorageState> {
+  // The latest request's answer is the state (a slow first answer must not overwrite a later one).
+  const mine = ++persistRequests;
   let result: PersistentStorageState = 'unsupported';
   try {
     if (typeof navigator !== 'undefined' && navigator.storage?.persist) {
@@ -628,7 +631,7 @@ export async function requestPersistentStorage(): Promise<PersistentStorageState
   } catch {
     result = 'refused';
   }
-  useStorageStatus.setState({ persistent: result });
+  if (mine === persistRequests) useStorageStatus.setState({ persistent: result });
   return result;
 }
 

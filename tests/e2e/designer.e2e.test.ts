@@ -31,8 +31,9 @@ describe('recipe designer', () => {
     expect(kv40).toBeLessThanOrEqual(352);
     await expect(page.getByTestId('prop-grade').innerText()).resolves.toBe('VG 320');
     await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
-    // the caution sits with the numbers
-    await expect(page.getByTestId('predicted').getByText(/laboratory confirmation/i).isVisible()).resolves.toBe(true);
+    // one standing caution in the app frame, not repeated beside the numbers
+    await expect(page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).resolves.toBe(1);
+    await expect(page.getByTestId('predicted').getByText(/laboratory confirmation/i).count()).resolves.toBe(0);
     await page.waitForSelector('[data-chart="viscosity-temperature"] .recharts-line-curve');
     await screenshot(page, 'designer');
   });

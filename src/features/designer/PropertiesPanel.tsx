@@ -6,7 +6,6 @@ import { gradeBand } from '../../core/viscosity/iso-grades';
 import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
-import { CautionBanner } from '../../components/notices';
 import { formatWorkingInput, gradeLabel, useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';
 
@@ -278,7 +277,6 @@ export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targe
   return (
     <section className="props" aria-labelledby="props-h" data-testid="predicted">
       <h3 id="props-h">Predicted properties</h3>
-      <CautionBanner compact />
       {!prediction.ok ? (
         <p className="muted" role="status">
           {prediction.message}

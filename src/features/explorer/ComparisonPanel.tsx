@@ -4,7 +4,6 @@ import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { DEPOSIT_PROPENSITY_LABEL } from '../../core/scoring/deposit';
-import { CautionBanner } from '../../components/notices';
 import { useFormat, type Formatter } from '../../components/format';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/formulation/comparison';
@@ -188,7 +187,6 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   return (
     <section className="comparison" aria-labelledby="cmp-h" data-testid="comparison">
       <h3 id="cmp-h">Candidate {candidate.rank} beside the reference</h3>
-      <CautionBanner compact />
       {summary.length > 0 && (
         <ul className="cmp-summary" data-testid="comparison-summary">
           {summary.map((line) => (

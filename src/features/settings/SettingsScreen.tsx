@@ -1,7 +1,7 @@
 import { useId, useState } from 'react';
 import { NumberField, SelectField, TextField } from '../../components/fields';
 import { makeFormatter, useFormat } from '../../components/format';
-import { Notice } from '../../components/notices';
+import { Notice, persistentStorageText } from '../../components/notices';
 import { downloadText, readFileText } from '../../components/download';
 import {
   requestPersistentStorage,
@@ -367,14 +367,7 @@ export default function SettingsScreen() {
             })}
           </p>
           <p className="small">
-            Persistent storage:{' '}
-            {status.persistent === 'granted'
-              ? 'granted — the browser will not clear saved work to free space.'
-              : status.persistent === 'refused'
-                ? 'refused — the browser may clear saved work when space runs low. Export backups regularly.'
-                : status.persistent === 'unsupported'
-                  ? 'not offered by this browser. Export backups regularly.'
-                  : 'not asked yet.'}{' '}
+            <span data-testid="persistence-setting">{persistentStorageText(status.persistent).text}</span>{' '}
             {status.persistent !== 'granted' ? (
               <button type="button" onClick={() => void requestPersistentStorage()}>
                 Ask the browser again
