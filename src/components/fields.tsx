@@ -150,6 +150,8 @@ export interface TextFieldProps extends CommonProps {
   multiline?: boolean;
   maxLength?: number;
   placeholder?: string;
+  /** Show the whole text as the field's title (a tooltip) when the field is narrower than the text. */
+  fullTitle?: boolean;
 }
 
 export function TextField(props: TextFieldProps) {
@@ -179,6 +181,7 @@ export function TextField(props: TextFieldProps) {
     disabled: props.disabled,
     maxLength: props.maxLength,
     placeholder: props.placeholder,
+    title: props.fullTitle && draft ? draft : undefined,
     'aria-invalid': verdict.error ? true : undefined,
     'aria-describedby': verdict.error || verdict.warning ? msgId : undefined,
     className: verdict.error ? 'invalid' : undefined,

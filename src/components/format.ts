@@ -175,14 +175,14 @@ export function useFormat(): Formatter {
 }
 
 /**
- * The ISO grade of a ν40 in words: "VG 460", "between VG 460 and 680", "above VG 3200",
+ * The ISO grade of a ν40 in words: "VG 460", "between 460 and 680" (two grades), "above VG 3200",
  * "below VG 2" (ISO 3448 / ASTM D2422 bands); "—" when there is no usable ν40.
  */
 export function gradeLabel(kv40: number | null | undefined): string {
   if (kv40 === null || kv40 === undefined || !(kv40 > 0) || !Number.isFinite(kv40)) return '—';
   const p = gradePosition(kv40);
   if (p.kind === 'in') return `VG ${p.grade}`;
-  if (p.kind === 'between') return `between VG ${p.lower} and ${p.upper}`;
+  if (p.kind === 'between') return `between ${p.lower} and ${p.upper}`;
   return `${p.kind} VG ${p.grade}`;
 }
 

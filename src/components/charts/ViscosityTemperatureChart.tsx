@@ -92,7 +92,8 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     const axis = kvAxis(kvLo, kvHi, d341Y, ([a, b]) => ((b - a) / plotH) * 16);
     const yDomain: [number, number] = [d341Y(axis.range[0]), d341Y(axis.range[1])];
     const kvTicks = axis.ticks.map(d341Y);
-    const xGap = ((xHi - xLo) / plotW) * 44;
+    // A label such as "−20 °C" or "100 °F" is about 45 px wide at the axis font: keep 60 px between ticks.
+    const xGap = ((xHi - xLo) / plotW) * 60;
     const tempTicks = temperatureTicks(lo, hi, f.tempValue, f.tempToC, d341X, xGap).map(d341X);
     return { series, xDomain: [xLo, xHi] as [number, number], yDomain, kvTicks, tempTicks, marks };
   }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height, f]);

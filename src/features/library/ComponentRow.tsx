@@ -70,24 +70,26 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           label={`Stock code of ${c.name || who}`}
           hideLabel
           size={7}
+          fullTitle
           maxLength={40}
           value={c.code}
           validate={(v) => ({ error: checkLabelText('stock code', v) ?? codeError(v, c.id) })}
           onCommit={(v) => onUpdate(c.id, { code: v.trim() })}
         />
       </th>
-      <td>
+      <td className="name-cell">
         <TextField
           label={`Name of ${who}`}
           hideLabel
           size={16}
+          fullTitle
           maxLength={200}
           value={c.name}
           validate={(v) => ({ error: checkLabelText('name', v) })}
           onCommit={(v) => onUpdate(c.id, { name: v.trim() })}
         />
       </td>
-      <td>
+      <td className="category-cell">
         <SelectField<ComponentCategory>
           label={`Category of ${who}`}
           hideLabel

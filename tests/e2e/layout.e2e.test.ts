@@ -1,0 +1,132 @@
+// Layout from 1024 to 2560 px (issue 10, item 18): every screen at 1024, 1440, 1920 and 2560 px wide,
+// with screenshots in test-output/screens/layout-<screen>-<width>.png. Checks: the page never scrolls
+// sideways; the Stocks row actions and the designer's share inputs can be reached (inside the window
+// or inside their own scrolling box); stock names are not cut off without the full text as a title;
+// on wide windows the tables use the width.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
+import { launch, screenshot, type Session } from './support';
+
+const WIDTHS = [1024, 1440, 1920, 2560] as const;
+
+/** The page does not scroll sideways. */
+async function noSidewaysScroll(page: Page): Promise<void> {
+  const [scroll, inner] = await page.evaluate(() => [document.documentElement.scrollWidth, window.innerWidth]);
+  expect(scroll, 'page scrolls sideways').toBeLessThanOrEqual(inner + 1);
+}
+
+/** A table's own box does not scroll sideways either: every column is in view. */
+async function fitsItsBox(page: Page, selector: string): Promise<void> {
+  const [scroll, client] = await page.$eval(selector, (el) => [el.scrollWidth, el.clientWidth]);
+  expect(scroll, `${selector} scrolls sideways`).toBeLessThanOrEqual(client + 1);
+}
+
+/**
+ * The element can be reached: scrolled into view (the page or its own scrolling box), it lies inside
+ * the window and inside every box that clips it.
+ */
+async function reachable(el: Locator, what: string): Promise<void> {
+  await el.scrollIntoViewIfNeeded();
+  const ok = await el.evaluate((node) => {
+    const r = node.getBoundingClientRect();
+    if (r.width === 0 || r.height === 0) return 'not shown';
+    if (r.left < -1 || r.right > window.innerWidth + 1 || r.top < -1 || r.bottom > window.innerHeight + 1) return `outside the window (${Math.round(r.left)}–${Math.round(r.right)} of ${window.innerWidth})`;
+    for (let p = node.parentElement; p; p = p.parentElement) {
+      const st = getComputedStyle(p);
+      if (st.overflowX === 'visible' && st.overflowY === 'visible') continue;
+      const b = p.getBoundingClientRect();
+      if (r.left < b.left - 1 || r.right > b.right + 1) return `clipped by ${p.className || p.tagName}`;
+    }
+    return 'ok';
+  });
+  expect(ok, what).toBe('ok');
+}
+
+/** Text inputs whose text does not fit carry the full text as their title. */
+async function namesNotCutOff(page: Page, selector: string): Promise<number> {
+  const bad = await page.$$eval(selector, (els) =>
+    (els as HTMLInputElement[])
+      .filter((e) => e.scrollWidth > e.clientWidth + 1 && e.title !== e.value)
+      .map((e) => e.value),
+  );
+  expect(bad, 'names cut off without a full-text title').toEqual([]);
+  return (await page.$$(selector)).length;
+}
+
+describe('layout at 1024–2560 px', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+    await s.page.goto(inject('baseURL'));
+    await s.page.getByRole('heading', { name: 'Blendbench' }).waitFor();
+    // One search, kept in memory while the window is resized.
+    await s.page.getByRole('link', { name: /Substitute explorer/ }).click();
+    await s.page.getByLabel('Treat BW-190 as withdrawn').check();
+    await s.page.getByRole('button', { name: 'Run search' }).click();
+    await s.page.getByTestId('candidates').waitFor({ timeout: 60_000 });
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  for (const width of WIDTHS) {
+    it(`${width} px: every screen fits, its controls can be reached, names are whole`, async () => {
+      const { page } = s;
+      await page.setViewportSize({ width, height: 900 });
+
+      // Stocks
+      await page.getByRole('link', { name: /^Stocks/ }).click();
+      await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+      await screenshot(page, `layout-stocks-${width}`);
+      await noSidewaysScroll(page);
+      await fitsItsBox(page, '.library-screen .table-scroll');
+      await reachable(page.getByRole('button', { name: 'Delete BW-190' }), 'Stocks row actions');
+      await reachable(page.getByRole('button', { name: 'More fields of BW-190' }), 'Stocks row actions');
+      expect(await namesNotCutOff(page, '.library-table tbody tr > td:nth-of-type(1) input')).toBeGreaterThan(10);
+      if (width >= 1920) {
+        const [table, main] = await page.evaluate(() => [
+          document.querySelector('.library-table')!.getBoundingClientRect().width,
+          document.querySelector('.app-main')!.getBoundingClientRect().width,
+        ]);
+        expect(table / main, 'the Stocks table uses the width').toBeGreaterThan(0.9);
+      }
+
+      // Recipe designer
+      await page.getByRole('link', { name: /Recipe designer/ }).click();
+      await page.getByTestId('recipe-lines').waitFor();
+      await page.waitForSelector('[data-chart="viscosity-temperature"] .recharts-line-curve');
+      await screenshot(page, `layout-designer-${width}`);
+      await noSidewaysScroll(page);
+      await fitsItsBox(page, '.designer .recipe-table');
+      for (const code of ['BW-190', 'BW-160', 'BW-901']) await reachable(page.getByLabel(`Mass % of ${code}`), `designer share of ${code}`);
+      await reachable(page.getByRole('button', { name: 'Remove BW-160' }), 'designer remove');
+      await reachable(page.getByRole('button', { name: 'Solve', exact: true }), 'Solve');
+
+      // Substitute explorer (the search result is still there)
+      await page.getByRole('link', { name: /Substitute explorer/ }).click();
+      await page.getByTestId('candidates').waitFor();
+      await screenshot(page, `layout-explorer-${width}`);
+      await noSidewaysScroll(page);
+      await reachable(page.getByTestId('candidates').getByRole('button', { name: /compare/ }).first(), 'explorer compare');
+      await reachable(page.getByRole('button', { name: /Adopt as a new recipe|Adopted/ }), 'explorer adopt');
+
+      // Blend sheet
+      await page.getByRole('link', { name: /Blend sheet/ }).click();
+      await page.getByRole('heading', { name: 'Blend sheet' }).waitFor();
+      await screenshot(page, `layout-sheet-${width}`);
+      await noSidewaysScroll(page);
+      await reachable(page.getByRole('button', { name: 'Print' }), 'Print');
+
+      // Settings
+      await page.getByRole('link', { name: /^Settings/ }).click();
+      await page.getByRole('heading', { name: 'Settings' }).waitFor();
+      await screenshot(page, `layout-settings-${width}`);
+      await noSidewaysScroll(page);
+
+      // One standing caution on every screen.
+      await expect(page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).resolves.toBe(1);
+      expect(s.errors).toEqual([]);
+      expect(s.offHost).toEqual([]);
+    });
+  }
+});
