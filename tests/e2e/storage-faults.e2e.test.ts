@@ -264,9 +264,13 @@ describe('storage faults', () => {
     await openLibrary(page);
     const note = page.getByRole('status').filter({ hasText: 'The browser may clear saved work.' });
     await note.waitFor();
-    await expect(note.innerText()).resolves.toMatch(/did not grant persistent storage.*Export a backup regularly/s);
+    await expect(note.innerText()).resolves.toMatch(/Persistent storage refused.*Export a backup regularly/s);
+    // Settings says the same thing, word for word.
+    const said = await note.getByTestId('persistence-banner').innerText();
     await note.getByRole('button', { name: 'Understood' }).click();
     await expect.poll(() => note.count()).toBe(0);
+    await page.getByRole('link', { name: /^Settings/ }).click();
+    await expect(page.getByTestId('persistence-setting').innerText()).resolves.toBe(said);
   });
 
   it('persistent storage granted: no warning', async () => {
