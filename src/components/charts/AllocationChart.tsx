@@ -3,6 +3,7 @@ import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS, SERIES_FILLS } from './palette';
 import { niceTicks, tickDecimals } from './nice';
 import { roundUp } from './CompositionChart';
+import { useFormat } from '../format';
 
 export interface AllocationRow {
   /** The stock's code. */
@@ -29,6 +30,7 @@ const UNUSED_FILL = '#e4e0d6';
 /** Where each limited stock goes: one horizontal bar per stock, stacked by grade, with the supply left over. */
 export const AllocationChart = memo(function AllocationChart({ rows, series, unit, width, title }: AllocationChartProps) {
   const descId = useId();
+  const f = useFormat();
   const data = rows.map((r) => {
     const d: Record<string, number | string> = { label: r.label, unused: r.unused };
     r.amounts.forEach((a, k) => (d[`s${k}`] = a));
@@ -65,10 +67,10 @@ export const AllocationChart = memo(function AllocationChart({ rows, series, uni
             ticks={ticks}
             allowDataOverflow
             unit={` ${unit}`}
-            tickFormatter={(v: number) => v.toFixed(tickDecimals(domain, 5))}
+            tickFormatter={(v: number) => f.num(v, tickDecimals(domain, 5))}
           />
           <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-          <Tooltip isAnimationActive={false} formatter={(v) => `${Number(v).toFixed(1)} ${unit}`} />
+          <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 1)} ${unit}`} />
           {series.map((s, k) => (
             <Bar key={s} dataKey={`s${k}`} name={s} stackId="use" fill={fill(k)} isAnimationActive={false} />
           ))}
@@ -79,8 +81,8 @@ export const AllocationChart = memo(function AllocationChart({ rows, series, uni
         {rows
           .map(
             (r) =>
-              `${r.label}: ${r.amounts.map((a, k) => `${a.toFixed(1)} ${unit} to ${series[k]}`).join(', ')}` +
-              (r.unused > 0 ? `, ${r.unused.toFixed(1)} ${unit} not needed` : ''),
+              `${r.label}: ${r.amounts.map((a, k) => `${f.num(a, 1)} ${unit} to ${series[k]}`).join(', ')}` +
+              (r.unused > 0 ? `, ${f.num(r.unused, 1)} ${unit} not needed` : ''),
           )
           .join('; ')}
       </p>

@@ -1,4 +1,5 @@
 import { useEffect, useId, useMemo, useRef, useState } from 'react';
+import { useFormat } from '../../components/format';
 import { Notice } from '../../components/notices';
 import { readFileText } from '../../components/download';
 import { applyLibraryImport, CSV_COLUMNS, type ImportPreview, type ImportRow } from '../../state/library-io';
@@ -31,6 +32,7 @@ function resultLabel(r: ImportRow): string {
  * (stored → imported). Only a file without errors can be confirmed.
  */
 export function ImportPanel({ onClose, onImported }: { onClose: () => void; onImported: (msg: string) => void }) {
+  const fmt = useFormat();
   const fileId = useId();
   const [fileName, setFileName] = useState('');
   const [preview, setPreview] = useState<ImportPreview | null>(null);
@@ -89,7 +91,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
       <p className="small">
         Rows are matched on stock code: a known code updates that stock (recipes keep using it), a new code adds one. In a CSV
         update, a column the file does not have keeps the stored value; an empty cell clears an optional value. Nothing changes
-        until you confirm a file without errors. Up to {COLLECTION_LIMITS.importRows.toLocaleString('en-US')} rows. CSV columns:{' '}
+        until you confirm a file without errors. Up to {fmt.num(COLLECTION_LIMITS.importRows, 0)} rows. CSV columns:{' '}
         <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in °C, viscosities in mm²/s, density in kg/L).
       </p>
       <label htmlFor={fileId} className="field-label">
@@ -100,7 +102,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
         <div className="import-progress" role="status">
           <label htmlFor={`${fileId}-progress`}>
             Checking {fileName}:{' '}
-            {progress.total ? `${progress.done.toLocaleString('en-US')} of ${progress.total.toLocaleString('en-US')} rows` : 'reading…'}
+            {progress.total ? `${fmt.num(progress.done, 0)} of ${fmt.num(progress.total, 0)} rows` : 'reading…'}
           </label>{' '}
           <progress id={`${fileId}-progress`} max={progress.total || 1} value={progress.done} />{' '}
           <button type="button" onClick={() => run.current?.cancel()}>

@@ -226,7 +226,8 @@ describe('Library screen', () => {
     await act(async () => {
       fireEvent.change(screen.getByLabelText('File'), { target: { files: [file] } });
     });
-    await screen.findByText('Checking big.csv: 5,000 of 20,000 rows');
+    // Counts in the user's number format (default: no grouping below five digits, a narrow space above).
+    await screen.findByText(/^Checking big\.csv: 5000 of 20\s000 rows$/);
     expect((screen.getByRole('progressbar') as HTMLProgressElement).value).toBe(5000);
     fireEvent.click(screen.getByRole('button', { name: 'Cancel checking' }));
     await act(async () => {
