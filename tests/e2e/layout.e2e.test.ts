@@ -64,6 +64,18 @@ describe('layout at 1024–2560 px', () => {
     await s.page.getByLabel('Treat BW-190 as withdrawn').check();
     await s.page.getByRole('button', { name: 'Run search' }).click();
     await s.page.getByTestId('candidates').waitFor({ timeout: 60_000 });
+    // One line plan (invented demands), kept in memory too.
+    await s.page.getByRole('link', { name: /Whole-line plan/ }).click();
+    await s.page.getByRole('heading', { name: 'Whole-line plan', level: 2 }).waitFor();
+    for (const [grade, t] of [[220, '300'], [320, '400'], [460, '250'], [680, '150']] as const) {
+      const f = s.page.getByLabel(new RegExp(`^Demand of “Gear oil VG ${grade}`));
+      await f.fill(t);
+      await f.press('Enter');
+    }
+    await s.page.getByLabel('Supply of BW-190').fill('250');
+    await s.page.getByLabel('Supply of BW-190').press('Enter');
+    await s.page.getByRole('button', { name: 'Plan the line' }).click();
+    await s.page.getByTestId('plan-results').waitFor({ timeout: 60_000 });
   });
   afterAll(async () => {
     await s?.close();
@@ -109,6 +121,21 @@ describe('layout at 1024–2560 px', () => {
       await noSidewaysScroll(page);
       await reachable(page.getByTestId('candidates').getByRole('button', { name: /compare/ }).first(), 'explorer compare');
       await reachable(page.getByRole('button', { name: /Adopt as a new recipe|Adopted/ }), 'explorer adopt');
+
+      // Recipes
+      await page.getByRole('link', { name: /^Recipes/ }).click();
+      await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+      await screenshot(page, `layout-recipes-${width}`);
+      await noSidewaysScroll(page);
+
+      // Whole-line plan (the plan is still there)
+      await page.getByRole('link', { name: /Whole-line plan/ }).click();
+      await page.getByTestId('plan-results').waitFor();
+      await page.locator('[data-chart="allocation"] .recharts-bar-rectangle').first().waitFor();
+      await screenshot(page, `layout-lineplan-${width}`);
+      await noSidewaysScroll(page);
+      await reachable(page.getByRole('button', { name: 'Plan the line' }), 'Plan the line');
+      await reachable(page.getByLabel('Supply of BW-190'), 'line plan supply');
 
       // Blend sheet
       await page.getByRole('link', { name: /Blend sheet/ }).click();
