@@ -4,7 +4,8 @@ import { useDeferredValue, useEffect, useMemo, useState, type ComponentType } fr
 import type { AllocationPanelProps } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { adoptPlanRevisions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { adoptPlanRevisions, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { derivePlan } from './derive';
 import { PlanInputs } from './PlanInputs';
@@ -21,7 +22,10 @@ function localIsoDate(d: Date): string {
 }
 
 export default function LinePlanScreen() {
-  const components = useLibrary((s) => s.components);
+  // Prices restated in the base currency at the boundary (Settings → exchange rates); stocks whose
+  // currency has no rate are left out of the plan, and the screen says so.
+  const priced = usePricedLibrary();
+  const components = priced.components;
   const recipes = useRecipes((s) => s.recipes);
   const targets = useRecipes((s) => s.targets);
   const linePlan = useRecipes((s) => s.linePlan);
@@ -30,7 +34,11 @@ export default function LinePlanScreen() {
   const fmt = useFormat();
   const st = useLinePlanScreen();
   const today = useMemo(() => localIsoDate(new Date()), []);
-  const derived = useMemo(() => derivePlan(components, recipes, targets, linePlan, settings), [components, recipes, targets, linePlan, settings]);
+  const derived = useMemo(() => {
+    const d = derivePlan(solvableLibrary(priced), recipes, targets, linePlan, settings);
+    const unpriced = unpricedMessage(priced.unpriced, settings.baseCurrency);
+    return unpriced ? { ...d, warnings: [unpriced, ...d.warnings] } : d;
+  }, [priced, recipes, targets, linePlan, settings]);
   const planning = st.status === 'planning';
   // The printable summary follows the result in a later, interruptible render: the plans show first.
   const summaryResult = useDeferredValue(st.result);
