@@ -200,3 +200,31 @@ export function assertFractions(fn: string, field: string, fractions: readonly n
     );
   }
 }
+
+/**
+ * Run `f`; an input error it throws is thrown again, of the same class, with `prefix` in front of its
+ * field (`targetKv40` → `grades[2].targetKv40`) and of the field named in its message — so a caller
+ * that validates a part of its input reports the whole path. Other errors pass through unchanged.
+ *
+ * @param prefix - e.g. `grades[2].`
+ * @param f - the validation or computation
+ * @param opts - `keep(field)`: true for fields already complete (left alone); `message(m)`: rewrites
+ *   the message instead of the default (the field renamed in the "field =" part)
+ * @returns what `f` returns
+ */
+export function inField<T>(
+  prefix: string,
+  f: () => T,
+  opts: { keep?: (field: string) => boolean; message?: (message: string) => string } = {},
+): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof BlendbenchInputError && !(opts.keep?.(e.field) ?? false)) {
+      const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
+      const field = `${prefix}${e.field}`;
+      throw new Ctor(field, e.value, opts.message ? opts.message(e.message) : e.message.replace(`: ${e.field} =`, `: ${field} =`));
+    }
+    throw e;
+  }
+}

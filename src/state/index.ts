@@ -75,6 +75,8 @@ export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
 export { blankComponent, freeCode } from './library';
+/** Today's date as YYYY-MM-DD, local time (the date printed on sheets and summaries). */
+export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS } from './settings';
 export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';

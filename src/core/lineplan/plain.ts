@@ -12,7 +12,7 @@
  * 1e-6 in any grade. Exact: LP optimum, VI floors by branch and bound (VI ≥ minVi − 0.005 when
  * recomputed), tank limit by branch and bound on the choice of stocks (see `joint.ts`).
  */
-import { BlendbenchInputError, assertFinite } from '../errors';
+import { BlendbenchInputError, assertFinite, inField } from '../errors';
 import { preparePlain, plainBlendProperties, type PlainComponent } from '../solver/plain';
 import type { PreparedProblem } from '../solver/prepared';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
@@ -77,16 +77,7 @@ const FN = 'planLinePlain';
 
 /** Re-raise a grade-level error of `preparePlain` with `grades[g].` in front of its field. */
 function inGrade<T>(g: number, f: () => T): T {
-  try {
-    return f();
-  } catch (e) {
-    if (e instanceof BlendbenchInputError && !e.field.startsWith('components')) {
-      const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
-      const field = `grades[${g}].${e.field}`;
-      throw new Ctor(field, e.value, e.message.replace(`: ${e.field} =`, `: ${field} =`));
-    }
-    throw e;
-  }
+  return inField(`grades[${g}].`, f, { keep: (field) => field.startsWith('components') });
 }
 
 /**

@@ -16,7 +16,7 @@
  */
 import type { BlendTargets, Component, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
-import { BlendbenchInputError, assertFinite } from '../errors';
+import { BlendbenchInputError, assertFinite, inField } from '../errors';
 import { gradeBand } from '../viscosity/iso-grades';
 import { predictBlend, type BlendProperties } from '../formulation/blend-properties';
 import { checkConstraints, prepareComponents, type ConstraintCheck, type PreparedBlend } from '../solver/solve-blend';
@@ -184,17 +184,10 @@ export function prepareLinePlan(input: LinePlanInput): PreparedLinePlan {
       fail(`grades[${k}].demandKg`, g.demandKg, `${FN}: the demand for ${g.label} must be above 0 (leave a grade without demand out of the plan)`);
     }
     demandKg.push(g.demandKg);
-    try {
-      // The plan minimises the line's cost (not each grade's own objective) and plans each grade to
-      // its band (a minimum probability in band is reported, not applied: see the module notes).
-      prepared.push(prepareComponents(components, { ...g.targets, objective: 'cost', minInBandProbability: null }, input.method ?? 'refutas'));
-    } catch (e) {
-      if (e instanceof BlendbenchInputError) {
-        const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
-        throw new Ctor(`grades[${k}].${e.field}`, e.value, `${g.label}: ${e.message}`);
-      }
-      throw e;
-    }
+    // The plan minimises the line's cost (not each grade's own objective) and plans each grade to its
+    // band (a minimum probability in band is reported, not applied: see the module notes).
+    const targets = { ...g.targets, objective: 'cost' as const, minInBandProbability: null };
+    prepared.push(inField(`grades[${k}].`, () => prepareComponents(components, targets, input.method ?? 'refutas'), { message: (m) => `${g.label}: ${m}` }));
   });
   const currencies = new Set(prepared.map((P) => P.currency).filter((c): c is string => c !== null));
   if (currencies.size > 1) {

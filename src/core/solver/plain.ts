@@ -23,6 +23,7 @@ import {
   assertFinite,
   assertKv40Kv100,
   assertViscosity,
+  inField,
 } from '../errors';
 import { blendKv40Kv100 } from '../blending/blend-viscosity';
 import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
@@ -96,16 +97,7 @@ export type PlainSolveResult =
 
 /** Re-raise a core error with the component's index in its field name. */
 function inComponent<T>(i: number, f: () => T): T {
-  try {
-    return f();
-  } catch (e) {
-    if (e instanceof BlendbenchInputError && !e.field.startsWith('components[')) {
-      const Ctor = e.constructor as new (field: string, value: unknown, message: string) => BlendbenchInputError;
-      const field = `components[${i}].${e.field}`;
-      throw new Ctor(field, e.value, e.message.replace(`: ${e.field} =`, `: ${field} =`));
-    }
-    throw e;
-  }
+  return inField(`components[${i}].`, f, { keep: (field) => field.startsWith('components[') });
 }
 
 /** `components[i].name`, the field name in error messages. */

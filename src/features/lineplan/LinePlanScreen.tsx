@@ -4,7 +4,7 @@ import { useDeferredValue, useEffect, useMemo, useState, type ComponentType } fr
 import type { AllocationPanelProps } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { adoptPlanRevisions, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { adoptPlanRevisions, todayIso, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { derivePlan } from './derive';
@@ -15,11 +15,6 @@ import { cancelPlan, runPlan, warmPlanWorker } from './plan-client';
 import { screenActions, useLinePlanScreen, type PlanWhich } from './store';
 import { limitedText, overPeriod } from './words';
 import './lineplan.css';
-
-function localIsoDate(d: Date): string {
-  const pad = (n: number) => String(n).padStart(2, '0');
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
-}
 
 export default function LinePlanScreen() {
   // Prices restated in the base currency at the boundary (Settings → exchange rates); stocks whose
@@ -33,7 +28,7 @@ export default function LinePlanScreen() {
   const history = useRecipesHistory();
   const fmt = useFormat();
   const st = useLinePlanScreen();
-  const today = useMemo(() => localIsoDate(new Date()), []);
+  const today = useMemo(() => todayIso(), []);
   const derived = useMemo(() => {
     const d = derivePlan(solvableLibrary(priced), recipes, targets, linePlan, settings);
     const unpriced = unpricedMessage(priced.unpriced, settings.baseCurrency);

@@ -47,10 +47,6 @@ export function PlanInputs({
   const toKg = (v: number) => v * PER_UNIT[unit];
   const [showAll, setShowAll] = useState(false);
   const unitId = useId();
-  const addLimitId = useId();
-  const addKeepId = useId();
-  const [toLimit, setToLimit] = useState('');
-  const [toKeep, setToKeep] = useState('');
 
   // Recipes that can take part: not replaced by an approved revision, not archived. By default the
   // approved ones and those with a demand; drafts on request.
@@ -197,27 +193,13 @@ export function PlanInputs({
             </tbody>
           </table>
         )}
-        <div className="lp-add">
-          <label htmlFor={addLimitId}>Limit another stock in this plan</label>
-          <select id={addLimitId} value={toLimit} onChange={(e) => setToLimit(e.target.value)} disabled={disabled}>
-            <option value="">Choose a stock…</option>
-            {limitable.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.code} — {c.name}
-              </option>
-            ))}
-          </select>
-          <button
-            type="button"
-            disabled={disabled || !toLimit}
-            onClick={() => {
-              linePlanActions.limitStock(toLimit);
-              setToLimit('');
-            }}
-          >
-            Limit
-          </button>
-        </div>
+        <AddStock
+          label="Limit another stock in this plan"
+          button="Limit"
+          stocks={limitable}
+          onAdd={(id) => linePlanActions.limitStock(id)}
+          disabled={disabled}
+        />
       </section>
 
       <section className="panel lp-limits" aria-labelledby={`${unitId}-line`}>
@@ -287,28 +269,49 @@ export function PlanInputs({
             </tbody>
           </table>
         )}
-        <div className="lp-add">
-          <label htmlFor={addKeepId}>Keep a stock in use</label>
-          <select id={addKeepId} value={toKeep} onChange={(e) => setToKeep(e.target.value)} disabled={disabled}>
-            <option value="">Choose a stock…</option>
-            {keepable.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.code} — {c.name}
-              </option>
-            ))}
-          </select>
-          <button
-            type="button"
-            disabled={disabled || !toKeep}
-            onClick={() => {
-              linePlanActions.setKeep(toKeep, 0);
-              setToKeep('');
-            }}
-          >
-            Keep
-          </button>
-        </div>
+        <AddStock label="Keep a stock in use" button="Keep" stocks={keepable} onAdd={(id) => linePlanActions.setKeep(id, 0)} disabled={disabled} />
       </section>
+    </div>
+  );
+}
+
+/** A stock picker with its button (limit a stock, keep a stock in use). */
+function AddStock({
+  label,
+  button,
+  stocks,
+  onAdd,
+  disabled,
+}: {
+  label: string;
+  button: string;
+  stocks: readonly Component[];
+  onAdd: (id: string) => void;
+  disabled: boolean;
+}) {
+  const id = useId();
+  const [picked, setPicked] = useState('');
+  return (
+    <div className="lp-add">
+      <label htmlFor={id}>{label}</label>
+      <select id={id} value={picked} onChange={(e) => setPicked(e.target.value)} disabled={disabled}>
+        <option value="">Choose a stock…</option>
+        {stocks.map((c) => (
+          <option key={c.id} value={c.id}>
+            {c.code} — {c.name}
+          </option>
+        ))}
+      </select>
+      <button
+        type="button"
+        disabled={disabled || !picked}
+        onClick={() => {
+          onAdd(picked);
+          setPicked('');
+        }}
+      >
+        {button}
+      </button>
     </div>
   );
 }

@@ -63,7 +63,6 @@ export function PlanResults(props: ResultsProps) {
             key={which}
             which={which}
             plan={which === 'lasting' ? lasting : after}
-            other={which === 'lasting' ? after : lasting}
             code={code}
             fmt={fmt}
             period={period}
@@ -148,26 +147,10 @@ function Headline({
   );
 }
 
-function PlanColumn({
-  which,
-  plan,
-  other,
-  code,
-  fmt,
-  period,
-  limitedCodes,
-  lastingText,
-  stale,
-  confirming,
-  adopted,
-  recipes,
-  onConfirm,
-  onAdopt,
-  onUndoAdopt,
-}: {
+/** What one plan's column shows and does. */
+interface ColumnProps {
   which: PlanWhich;
   plan: LinePlanResult;
-  other: LinePlanResult;
   code: (id: string) => string;
   fmt: Formatter;
   period: string;
@@ -181,7 +164,10 @@ function PlanColumn({
   onConfirm: (which: PlanWhich | null) => void;
   onAdopt: (which: PlanWhich) => void;
   onUndoAdopt: () => void;
-}) {
+}
+
+function PlanColumn(props: ColumnProps) {
+  const { which, plan, limitedCodes, lastingText } = props;
   const title = PLAN_TITLE[which];
   const hId = `lp-${which}-h`;
   const sub = which === 'lasting' ? lastingText : `without ${limitedCodes.join(', ') || 'the limited stocks'}`;
@@ -200,23 +186,7 @@ function PlanColumn({
           <span data-testid={`reason-${which}`}>{plan.reason}</span>
         </Notice>
       )}
-      {plan.status === 'optimal' && (
-        <PlanBody
-          which={which}
-          plan={plan}
-          other={other}
-          code={code}
-          fmt={fmt}
-          period={period}
-          stale={stale}
-          confirming={confirming}
-          adopted={adopted}
-          recipes={recipes}
-          onConfirm={onConfirm}
-          onAdopt={onAdopt}
-          onUndoAdopt={onUndoAdopt}
-        />
-      )}
+      {plan.status === 'optimal' && <PlanBody {...props} plan={plan} />}
     </section>
   );
 }
@@ -234,21 +204,7 @@ function PlanBody({
   onConfirm,
   onAdopt,
   onUndoAdopt,
-}: {
-  which: PlanWhich;
-  plan: LinePlanOptimal;
-  other: LinePlanResult;
-  code: (id: string) => string;
-  fmt: Formatter;
-  period: string;
-  stale: boolean;
-  confirming: boolean;
-  adopted: Record<string, string> | null;
-  recipes: readonly Recipe[];
-  onConfirm: (which: PlanWhich | null) => void;
-  onAdopt: (which: PlanWhich) => void;
-  onUndoAdopt: () => void;
-}) {
+}: ColumnProps & { plan: LinePlanOptimal }) {
   const change = plan.currentTotalCost === null ? null : plan.totalCost - plan.currentTotalCost;
   return (
     <>
