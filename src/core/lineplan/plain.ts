@@ -13,7 +13,7 @@
  * recomputed), tank limit by branch and bound on the choice of stocks (see `joint.ts`).
  */
 import { BlendbenchInputError, assertFinite, inField } from '../errors';
-import { preparePlain, plainBlendProperties, type PlainComponent } from '../solver/plain';
+import { preparePlain, plainBlendProperties, type PlainBlend, type PlainComponent } from '../solver/plain';
 import type { PreparedProblem } from '../solver/prepared';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
 import { diagnoseLinePlan } from './diagnose';
@@ -47,18 +47,8 @@ export interface PlainLineProblem {
   maxStocks?: number;
 }
 
-/** One grade of a plain line plan's answer (properties recomputed by the core). */
-export interface PlainLineGradeResult {
-  id: string;
-  /** Mass fraction of every given component id, zeros included. */
-  massFractions: Record<string, number>;
-  kv40: number;
-  kv100: number;
-  vi: number;
-  density15: number;
-  anilinePoint: number;
-  costPerLitre: number;
-}
+/** One grade of a plain line plan's answer: its id and its blend, recomputed by the core (as `solveBlendPlain`'s). */
+export type PlainLineGradeResult = { id: string } & PlainBlend;
 
 export type PlainLineResult =
   | {
