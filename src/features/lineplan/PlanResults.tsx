@@ -228,7 +228,7 @@ function PlanBody({
               </th>
               <th scope="col">Recipe (mass %)</th>
               <th scope="col" className="num">
-                Cost per litre
+                Cost per litre (15 °C)
               </th>
               <th scope="col" className="num">
                 Change

@@ -119,7 +119,7 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
                 <td colSpan={2} />
               </tr>
               <tr>
-                <th scope="row">Cost per litre</th>
+                <th scope="row">Cost per litre (15 °C)</th>
                 {plan.grades.map((g) => (
                   <td key={g.id} className="lps-num">
                     {fmt.money(g.costPerLitre, 3)}
@@ -128,7 +128,7 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
                 <td colSpan={2} />
               </tr>
               <tr>
-                <th scope="row">Change per litre</th>
+                <th scope="row">Change per litre (15 °C)</th>
                 {plan.grades.map((g) => (
                   <td key={g.id} className="lps-num">
                     {g.current ? changeText(fmt, g.costPerLitre - g.current.costPerLitre, null, 3) : '—'}
