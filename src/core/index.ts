@@ -39,6 +39,7 @@ export type { WaltherLine, D341Form } from './viscosity/viscosity-temperature';
 export {
   d341Z,
   kvFromD341Z,
+  kvFromD341ZPublished,
   d341LogLogZ,
   kvFromD341LogLogZ,
   d341MinKv,
