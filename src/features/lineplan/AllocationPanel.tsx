@@ -2,20 +2,15 @@
 // with the charts, lazily).
 import type { LinePlanOptimal } from '../../core/lineplan/plan';
 import { AllocationChart, useWidth } from '../../components/charts';
-import { useFormat } from '../../components/format';
-import { overPeriod } from './words';
+import { overPeriod, tonnesNumber, type PlanView } from './words';
 
 export interface AllocationPanelProps {
   plan: LinePlanOptimal;
-  limited: readonly string[];
-  /** Supplies entered [kg], by stock id. */
-  supplyKg: Readonly<Record<string, number>>;
-  code: (id: string) => string;
-  period: string;
+  view: PlanView;
 }
 
-export default function AllocationPanel({ plan, limited, supplyKg, code, period }: AllocationPanelProps) {
-  const fmt = useFormat();
+export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
+  const { fmt, limited, supplyKg, code, period } = view;
   const [ref, width] = useWidth<HTMLDivElement>(640);
   const rows = limited.map((id) => {
     const use = plan.stockUse.find((u) => u.id === id);
@@ -23,7 +18,7 @@ export default function AllocationPanel({ plan, limited, supplyKg, code, period 
     const total = byGrade.reduce((s, x) => s + x, 0);
     return { id, byGrade, total, supplyKg: supplyKg[id] ?? null };
   });
-  const t = (kg: number) => fmt.num(kg / 1000, kg >= 100_000 ? 0 : 1);
+  const t = (kg: number) => tonnesNumber(fmt, kg);
   return (
     <section className="panel lp-allocation" aria-labelledby="lp-alloc-h">
       <h3 id="lp-alloc-h">Where the limited stocks go (while they last, {overPeriod(period)})</h3>

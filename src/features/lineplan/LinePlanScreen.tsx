@@ -9,11 +9,11 @@ import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-r
 import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { derivePlan } from './derive';
 import { PlanInputs } from './PlanInputs';
-import { PLAN_TITLE, PlanResults } from './PlanResults';
+import { PlanResults, type AdoptProps } from './PlanResults';
 import { PlanSummary } from './PlanSummary';
 import { cancelPlan, runPlan, warmPlanWorker } from './plan-client';
 import { screenActions, useLinePlanScreen, type PlanWhich } from './store';
-import { limitedText, overPeriod } from './words';
+import { limitedCodes, overPeriod, PLAN_TITLE, planAssumes, planView } from './words';
 import './lineplan.css';
 
 export default function LinePlanScreen() {
@@ -66,14 +66,13 @@ export default function LinePlanScreen() {
     else screenActions.failed(o.message);
   };
 
+  // What the views of the result share (the run's limited stocks and supplies, codes, period, format).
+  const view = useMemo(() => planView(components, st.limited, st.supplyKg, linePlan.period, fmt), [components, st.limited, st.supplyKg, linePlan.period, fmt]);
+
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;
     if (!plan || plan.status !== 'optimal') return;
-    const code = (id: string) => components.find((c) => c.id === id)?.code ?? id;
-    const what =
-      which === 'lasting'
-        ? `while the limited stocks last (${limitedText(st.limited, st.supplyKg, code, fmt)})`
-        : `after ${st.limited.map(code).join(', ') || 'the limited stocks'} are gone`;
+    const what = which === 'lasting' ? `while the limited stocks last (${planAssumes(view, which)})` : `after ${limitedCodes(view)} are gone`;
     const reason =
       `Whole-line plan ${overPeriod(linePlan.period)} (${today}): the plan ${what}, least total cost for the line. ` +
       'Predicted, not yet confirmed in the laboratory.';
@@ -84,6 +83,19 @@ export default function LinePlanScreen() {
     );
     if (r.ok) screenActions.adopted(which, r.ids);
     else screenActions.failed(`The recipes were not saved: ${r.message}`);
+  };
+
+  const adoptProps: AdoptProps = {
+    recipes,
+    stale,
+    confirming: st.confirming,
+    adopted: st.adopted,
+    onConfirm: screenActions.confirm,
+    onAdopt: adopt,
+    onUndoAdopt: () => {
+      history.undo();
+      screenActions.unadopted();
+    },
   };
 
   // Use of each limited stock by the current recipes at the planned demands [kg].
@@ -155,26 +167,7 @@ export default function LinePlanScreen() {
       )}
       {st.result && (
         <>
-          <PlanResults
-            result={st.result}
-            recipes={recipes}
-            run={st.runs}
-            AllocationPanel={AllocationPanel}
-            components={components}
-            limited={st.limited}
-            period={linePlan.period}
-            currentUseKg={currentUseKg}
-            supplyKg={st.supplyKg}
-            stale={stale}
-            confirming={st.confirming}
-            adopted={st.adopted}
-            onConfirm={screenActions.confirm}
-            onAdopt={adopt}
-            onUndoAdopt={() => {
-              history.undo();
-              screenActions.unadopted();
-            }}
-          />
+          <PlanResults result={st.result} run={st.runs} view={view} currentUseKg={currentUseKg} adopt={adoptProps} AllocationPanel={AllocationPanel} />
           <section className="lp-summary-area" aria-labelledby="lp-summary-h">
             <div className="no-print lp-summary-controls">
               <h3 id="lp-summary-h">One-page summary</h3>
@@ -203,18 +196,7 @@ export default function LinePlanScreen() {
               <p className="small muted">Your browser’s print dialog also saves a PDF.</p>
             </div>
             {summaryResult && (
-            <PlanSummary
-              result={summaryResult}
-              which={st.summaryOf}
-              components={components}
-              limited={st.limited}
-              supplyKg={st.supplyKg}
-              period={linePlan.period}
-              companyName={settings.companyName}
-              today={today}
-              paper={st.paper}
-              fmt={fmt}
-            />
+              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} />
             )}
           </section>
         </>

@@ -1,6 +1,6 @@
 // The plan's inputs: which recipes take part and their demand, the limited stocks and their supply,
 // the stocks that must stay in use and the tank limit. Every edit is saved and is one undo step.
-import { useId, useState } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
@@ -149,49 +149,17 @@ export function PlanInputs({
         {limited.length === 0 ? (
           <p className="muted">No stock is limited. Mark a stock limited on Stocks, or limit one for this plan below.</p>
         ) : (
-          <table className="data">
-            <thead>
-              <tr>
-                <th scope="col">Stock</th>
-                <th scope="col">Limited</th>
-                <th scope="col" className="num">
-                  Supply [{unit}]
-                </th>
-                <th scope="col">
-                  <span className="visually-hidden">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {limited.map((c) => (
-                <tr key={c.id}>
-                  <th scope="row">
-                    <span className="code">{c.code}</span> <span className="small">{c.name}</span>
-                  </th>
-                  <td className="small">{c.availability === 'limited' ? 'in the library' : 'in this plan'}</td>
-                  <td className="num">
-                    <NumberField
-                      label={`Supply of ${c.code}`}
-                      hideLabel
-                      allowEmpty
-                      size={9}
-                      value={toShown(plan.supplies[c.id])}
-                      validate={(v) => quantityVerdict('supplyKg', unit, `Supply of ${c.code}`, v, '')}
-                      onCommit={(v) => linePlanActions.setSupply(c.id, v === null ? null : toKg(v))}
-                      disabled={disabled}
-                    />
-                  </td>
-                  <td>
-                    {c.availability !== 'limited' && (
-                      <button type="button" onClick={() => linePlanActions.unlimitStock(c.id)} disabled={disabled} aria-label={`Stop limiting ${c.code} in this plan`}>
-                        Remove
-                      </button>
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <StockQuantities
+            stocks={limited}
+            quantity="Supply"
+            rule="supplyKg"
+            unit={unit}
+            column={{ title: 'Limited', cell: (c) => (c.availability === 'limited' ? 'in the library' : 'in this plan') }}
+            value={(c) => plan.supplies[c.id] ?? null}
+            onCommit={(c, kg) => linePlanActions.setSupply(c.id, kg)}
+            remove={(c) => (c.availability === 'limited' ? null : { label: `Stop limiting ${c.code} in this plan`, run: () => linePlanActions.unlimitStock(c.id) })}
+            disabled={disabled}
+          />
         )}
         <AddStock
           label="Limit another stock in this plan"
@@ -226,52 +194,106 @@ export function PlanInputs({
         {keepIds.length === 0 ? (
           <p className="small muted">None. A stock kept in use always counts toward the limit and is used at least as much as you give.</p>
         ) : (
-          <table className="data">
-            <thead>
-              <tr>
-                <th scope="col">Stock</th>
-                <th scope="col" className="num">
-                  Least use [{unit}]
-                </th>
-                <th scope="col">
-                  <span className="visually-hidden">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {keepIds.map((id) => {
-                const c = byId.get(id)!;
-                return (
-                  <tr key={id}>
-                    <th scope="row">
-                      <span className="code">{c.code}</span>
-                      {c.availability === 'withdrawn' ? <span className="text-error small"> withdrawn</span> : null}
-                    </th>
-                    <td className="num">
-                      <NumberField
-                        label={`Least use of ${c.code}`}
-                        hideLabel
-                        size={9}
-                        value={toShown(plan.keep[id])}
-                        validate={(v) => quantityVerdict('minUseKg', unit, `Least use of ${c.code}`, v, '')}
-                        onCommit={(v) => linePlanActions.setKeep(id, v === null ? 0 : toKg(v))}
-                        disabled={disabled}
-                      />
-                    </td>
-                    <td>
-                      <button type="button" onClick={() => linePlanActions.setKeep(id, null)} disabled={disabled} aria-label={`No longer keep ${c.code} in use`}>
-                        Remove
-                      </button>
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
+          <StockQuantities
+            stocks={keepIds.map((id) => byId.get(id)!)}
+            quantity="Least use"
+            rule="minUseKg"
+            unit={unit}
+            required
+            value={(c) => plan.keep[c.id] ?? 0}
+            onCommit={(c, kg) => linePlanActions.setKeep(c.id, kg ?? 0)}
+            remove={(c) => ({ label: `No longer keep ${c.code} in use`, run: () => linePlanActions.setKeep(c.id, null) })}
+            disabled={disabled}
+          />
         )}
         <AddStock label="Keep a stock in use" button="Keep" stocks={keepable} onAdd={(id) => linePlanActions.setKeep(id, 0)} disabled={disabled} />
       </section>
     </div>
+  );
+}
+
+/**
+ * A table of stocks each with a quantity over the period, typed in the user's unit and saved in kg
+ * (the limited stocks' supplies, the least use of stocks kept in use), and a Remove button.
+ */
+function StockQuantities({
+  stocks,
+  quantity,
+  rule,
+  unit,
+  required = false,
+  column,
+  value,
+  onCommit,
+  remove,
+  disabled,
+}: {
+  stocks: readonly Component[];
+  /** "Supply": heads the column and names each field ("Supply of BW-190"). */
+  quantity: string;
+  rule: 'supplyKg' | 'minUseKg';
+  unit: 'kg' | 't';
+  /** An empty field is refused (else it is saved as null). */
+  required?: boolean;
+  /** A column between the stock and its quantity. */
+  column?: { title: string; cell: (c: Component) => ReactNode };
+  /** The saved quantity [kg]. */
+  value: (c: Component) => number | null;
+  onCommit: (c: Component, kg: number | null) => void;
+  /** The Remove button's accessible name and action, or null for none. */
+  remove: (c: Component) => { label: string; run: () => void } | null;
+  disabled: boolean;
+}) {
+  return (
+    <table className="data">
+      <thead>
+        <tr>
+          <th scope="col">Stock</th>
+          {column && <th scope="col">{column.title}</th>}
+          <th scope="col" className="num">
+            {quantity} [{unit}]
+          </th>
+          <th scope="col">
+            <span className="visually-hidden">Actions</span>
+          </th>
+        </tr>
+      </thead>
+      <tbody>
+        {stocks.map((c) => {
+          const label = `${quantity} of ${c.code}`;
+          const v = value(c);
+          const r = remove(c);
+          return (
+            <tr key={c.id}>
+              <th scope="row">
+                <span className="code">{c.code}</span> <span className="small">{c.name}</span>
+                {c.availability === 'withdrawn' ? <span className="text-error small"> withdrawn</span> : null}
+              </th>
+              {column && <td className="small">{column.cell(c)}</td>}
+              <td className="num">
+                <NumberField
+                  label={label}
+                  hideLabel
+                  allowEmpty={!required}
+                  size={9}
+                  value={v === null ? null : v / PER_UNIT[unit]}
+                  validate={(x) => quantityVerdict(rule, unit, label, x, '')}
+                  onCommit={(x) => onCommit(c, x === null ? null : x * PER_UNIT[unit])}
+                  disabled={disabled}
+                />
+              </td>
+              <td>
+                {r && (
+                  <button type="button" onClick={r.run} disabled={disabled} aria-label={r.label}>
+                    Remove
+                  </button>
+                )}
+              </td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
   );
 }
 

@@ -1,81 +1,47 @@
 // The two plans side by side, the cost of the withdrawal, the marginal value of each limited stock,
 // where each limited stock goes, and adopting a plan's recipes as new revisions.
 import type { ComponentType } from 'react';
-import type { Component, Recipe } from '../../core/formulation/model';
+import type { Recipe } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { Notice } from '../../components/notices';
-import { useFormat, type Formatter } from '../../components/format';
-import { changeText, limitedText, marginalSentence, overPeriod, tonnes } from './words';
+import { changeText, limitedCodes, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnes, type PlanView } from './words';
 import type { PlanWhich } from './store';
 
 import type { AllocationPanelProps } from './AllocationPanel';
 
-export const PLAN_TITLE: Record<PlanWhich, string> = {
-  lasting: 'While the limited stocks last',
-  after: 'After they are gone',
-};
-
-export interface ResultsProps {
-  result: LinePlanScenarios;
-  /** Which run this is (data-run on the result). */
-  run: number;
+/** What adopting a plan's recipes needs: the state of the confirmation and the actions. */
+export interface AdoptProps {
   /** The saved recipes (to name the revisions an adoption made). */
   recipes: readonly Recipe[];
-  components: readonly Component[];
-  limited: readonly string[];
-  period: string;
-  /** Current recipes' use of each limited stock over the period [kg], by id. */
-  currentUseKg: Readonly<Record<string, number>>;
-  /** Supplies of the limited stocks [kg], by id (those entered). */
-  supplyKg: Readonly<Record<string, number>>;
+  /** The inputs changed since the run: adopting is refused until the line is planned again. */
   stale: boolean;
   confirming: PlanWhich | null;
   adopted: { which: PlanWhich; ids: Record<string, string> } | null;
   onConfirm: (which: PlanWhich | null) => void;
   onAdopt: (which: PlanWhich) => void;
   onUndoAdopt: () => void;
+}
+
+export interface ResultsProps {
+  result: LinePlanScenarios;
+  /** Which run this is (data-run on the result). */
+  run: number;
+  view: PlanView;
+  /** Current recipes' use of each limited stock over the period [kg], by id. */
+  currentUseKg: Readonly<Record<string, number>>;
+  adopt: AdoptProps;
   /** The chart panel, once its code (with the charts) has loaded; null → a placeholder. */
   AllocationPanel: ComponentType<AllocationPanelProps> | null;
 }
 
-export function PlanResults(props: ResultsProps) {
-  const { AllocationPanel } = props;
-  const { result, period } = props;
-  const fmt = useFormat();
-  const byId = new Map(props.components.map((c) => [c.id, c]));
-  const code = (id: string) => byId.get(id)?.code ?? id;
+export function PlanResults({ result, run, view, currentUseKg, adopt, AllocationPanel }: ResultsProps) {
   const { lasting, after } = result;
-  const limitedCodes = props.limited.map(code);
   return (
-    <div className="lp-results" data-testid="plan-results" data-run={props.run}>
-      <Headline
-        result={result}
-        period={period}
-        fmt={fmt}
-        limitedCodes={limitedCodes}
-        currentUseKg={props.currentUseKg}
-        supplyKg={props.supplyKg}
-        code={code}
-      />
+    <div className="lp-results" data-testid="plan-results" data-run={run}>
+      <Headline result={result} view={view} currentUseKg={currentUseKg} />
       <div className="lp-side-by-side">
         {(['lasting', 'after'] as const).map((which) => (
-          <PlanColumn
-            key={which}
-            which={which}
-            plan={which === 'lasting' ? lasting : after}
-            code={code}
-            fmt={fmt}
-            period={period}
-            limitedCodes={limitedCodes}
-            lastingText={limitedText(props.limited, props.supplyKg, code, fmt)}
-            stale={props.stale}
-            confirming={props.confirming === which}
-            adopted={props.adopted?.which === which ? props.adopted.ids : null}
-            recipes={props.recipes}
-            onConfirm={props.onConfirm}
-            onAdopt={props.onAdopt}
-            onUndoAdopt={props.onUndoAdopt}
-          />
+          <PlanColumn key={which} which={which} plan={which === 'lasting' ? lasting : after} view={view} adopt={adopt} />
         ))}
       </div>
       {result.marginal.length > 0 && (
@@ -83,7 +49,7 @@ export function PlanResults(props: ResultsProps) {
           <h3 id="lp-marginal-h">What one more tonne is worth</h3>
           <ul data-testid="marginal-values">
             {result.marginal.map((m) => (
-              <li key={m.id}>{marginalSentence(m, fmt, period)}</li>
+              <li key={m.id}>{marginalSentence(m, view.fmt, view.period)}</li>
             ))}
           </ul>
           <p className="small muted">
@@ -92,35 +58,16 @@ export function PlanResults(props: ResultsProps) {
         </section>
       )}
       {lasting.status === 'optimal' &&
-        props.limited.length > 0 &&
-        (AllocationPanel ? (
-          <AllocationPanel plan={lasting} limited={props.limited} supplyKg={props.supplyKg} code={code} period={period} />
-        ) : (
-          <p className="muted">Drawing where the limited stocks go…</p>
-        ))}
+        view.limited.length > 0 &&
+        (AllocationPanel ? <AllocationPanel plan={lasting} view={view} /> : <p className="muted">Drawing where the limited stocks go…</p>)}
     </div>
   );
 }
 
-function Headline({
-  result,
-  period,
-  fmt,
-  limitedCodes,
-  currentUseKg,
-  supplyKg,
-  code,
-}: {
-  result: LinePlanScenarios;
-  period: string;
-  fmt: Formatter;
-  limitedCodes: string[];
-  currentUseKg: Readonly<Record<string, number>>;
-  supplyKg: Readonly<Record<string, number>>;
-  code: (id: string) => string;
-}) {
+function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; view: PlanView; currentUseKg: Readonly<Record<string, number>> }) {
   const { lasting, after, withdrawalCost } = result;
-  const over = overPeriod(period);
+  const { fmt, supplyKg, code } = view;
+  const over = overPeriod(view.period);
   const current = lasting.status === 'optimal' ? lasting.currentTotalCost : after.status === 'optimal' ? after.currentTotalCost : null;
   // Limited stocks the current recipes would need more of than is on offer.
   const shortNow: string[] = [];
@@ -132,7 +79,7 @@ function Headline({
     <section className="lp-headline" aria-label="Cost of the withdrawal" data-testid="plan-headline">
       {withdrawalCost !== null ? (
         <p className="lp-big">
-          The withdrawal of {limitedCodes.join(', ') || 'the limited stocks'} costs the line <strong data-testid="withdrawal-cost">{fmt.money(withdrawalCost, 0)}</strong> {over}.
+          The withdrawal of {limitedCodes(view)} costs the line <strong data-testid="withdrawal-cost">{fmt.money(withdrawalCost, 0)}</strong> {over}.
         </p>
       ) : (
         <p className="lp-big">The cost of the withdrawal cannot be given: one of the two plans has no answer (see below).</p>
@@ -147,34 +94,13 @@ function Headline({
   );
 }
 
-/** What one plan's column shows and does. */
-interface ColumnProps {
-  which: PlanWhich;
-  plan: LinePlanResult;
-  code: (id: string) => string;
-  fmt: Formatter;
-  period: string;
-  limitedCodes: string[];
-  /** The limited stocks as the plan while they last takes them. */
-  lastingText: string;
-  stale: boolean;
-  confirming: boolean;
-  adopted: Record<string, string> | null;
-  recipes: readonly Recipe[];
-  onConfirm: (which: PlanWhich | null) => void;
-  onAdopt: (which: PlanWhich) => void;
-  onUndoAdopt: () => void;
-}
-
-function PlanColumn(props: ColumnProps) {
-  const { which, plan, limitedCodes, lastingText } = props;
-  const title = PLAN_TITLE[which];
+/** One plan's column: its title, and its recipes or why there are none. */
+function PlanColumn({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePlanResult; view: PlanView; adopt: AdoptProps }) {
   const hId = `lp-${which}-h`;
-  const sub = which === 'lasting' ? lastingText : `without ${limitedCodes.join(', ') || 'the limited stocks'}`;
   return (
     <section className="panel lp-plan" aria-labelledby={hId} data-testid={`plan-${which}`}>
       <h3 id={hId}>
-        {title} <span className="small muted">({sub})</span>
+        {PLAN_TITLE[which]} <span className="small muted">({planAssumes(view, which)})</span>
       </h3>
       {plan.status === 'invalid-input' && (
         <Notice tone="error" title="This plan cannot be made from these inputs">
@@ -186,25 +112,16 @@ function PlanColumn(props: ColumnProps) {
           <span data-testid={`reason-${which}`}>{plan.reason}</span>
         </Notice>
       )}
-      {plan.status === 'optimal' && <PlanBody {...props} plan={plan} />}
+      {plan.status === 'optimal' && <PlanBody which={which} plan={plan} view={view} adopt={adopt} />}
     </section>
   );
 }
 
-function PlanBody({
-  which,
-  plan,
-  code,
-  fmt,
-  period,
-  stale,
-  confirming,
-  adopted,
-  recipes,
-  onConfirm,
-  onAdopt,
-  onUndoAdopt,
-}: ColumnProps & { plan: LinePlanOptimal }) {
+function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePlanOptimal; view: PlanView; adopt: AdoptProps }) {
+  const { fmt, period, code } = view;
+  const { stale, recipes, onConfirm, onAdopt, onUndoAdopt } = adopt;
+  const confirming = adopt.confirming === which;
+  const adopted = adopt.adopted?.which === which ? adopt.adopted.ids : null;
   const change = plan.currentTotalCost === null ? null : plan.totalCost - plan.currentTotalCost;
   return (
     <>

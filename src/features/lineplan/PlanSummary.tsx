@@ -1,13 +1,10 @@
 // The one-page printable summary of a line plan: grades × stocks with mass %, demand, supply use,
 // totals and cautions. Printed through the shared print path (components/print.css), as the blend sheet.
-import { useId } from 'react';
-import type { Component } from '../../core/formulation/model';
-import type { LinePlanScenarios } from '../../core/lineplan/plan';
-import type { Formatter } from '../../components/format';
+import { useId, type ReactNode } from 'react';
+import type { LinePlanGradeResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import '../../components/print.css';
-import { PLAN_TITLE } from './PlanResults';
 import type { PlanWhich } from './store';
-import { changeText, limitedText, marginalSentence, overPeriod } from './words';
+import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnesNumber, type PlanView } from './words';
 
 export const SUMMARY_CAUTIONS: readonly string[] = [
   'Predicted properties are estimates by published methods (Refutas or ASTM D7152 blending, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
@@ -19,25 +16,19 @@ export const SUMMARY_CAUTIONS: readonly string[] = [
 export interface PlanSummaryProps {
   result: LinePlanScenarios;
   which: PlanWhich;
-  components: readonly Component[];
-  limited: readonly string[];
-  supplyKg: Readonly<Record<string, number>>;
-  period: string;
+  view: PlanView;
   companyName: string;
   /** Date printed on the summary (YYYY-MM-DD). */
   today: string;
   paper: 'a4' | 'letter';
-  fmt: Formatter;
 }
 
-export function PlanSummary({ result, which, components, limited, supplyKg, period, companyName, today, paper, fmt }: PlanSummaryProps) {
+export function PlanSummary({ result, which, view, companyName, today, paper }: PlanSummaryProps) {
   const id = useId();
+  const { fmt, period, supplyKg, code } = view;
   const plan = which === 'lasting' ? result.lasting : result.after;
   const other = which === 'lasting' ? result.after : result.lasting;
-  const byId = new Map(components.map((c) => [c.id, c]));
-  const code = (cid: string) => byId.get(cid)?.code ?? cid;
-  const t = (kg: number) => fmt.num(kg / 1000, kg >= 100_000 ? 0 : 1);
-  const limitedCodes = limited.map(code);
+  const t = (kg: number) => tonnesNumber(fmt, kg);
   return (
     <article className={`lp-summary print-page lp-paper-${paper}`} aria-labelledby={`${id}-title`} data-testid="plan-summary">
       <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 9mm 10mm; }`}</style>
@@ -48,10 +39,7 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
         </span>
       </header>
       <p className="lps-sub">
-        <strong>{PLAN_TITLE[which]}</strong>
-        {which === 'lasting'
-          ? ` (${limitedText(limited, supplyKg, code, fmt)})`
-          : ` (without ${limitedCodes.join(', ') || 'the limited stocks'})`}
+        <strong>{PLAN_TITLE[which]}</strong> ({planAssumes(view, which)})
         {' · '}Demand {overPeriod(period)} · Printed {today} · Least total cost over the period, each grade to its own saved limits
       </p>
 
@@ -83,7 +71,7 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
               {plan.stockUse.map((u) => (
                 <tr key={u.id}>
                   <th scope="row">
-                    <span className="lps-code">{u.code}</span> <span className="lps-name">{byId.get(u.id)?.name ?? ''}</span>
+                    <span className="lps-code">{u.code}</span> <span className="lps-name">{view.name(u.id)}</span>
                   </th>
                   {plan.grades.map((g) => {
                     const w = g.lines.find((l) => l.componentId === u.id)?.massFraction ?? 0;
@@ -109,33 +97,13 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
                 <td className="lps-num">{t(plan.grades.reduce((s, g) => s + g.demandKg, 0))}</td>
                 <td />
               </tr>
-              <tr>
-                <th scope="row">ν40 [mm²/s] · VI</th>
-                {plan.grades.map((g) => (
-                  <td key={g.id} className="lps-num">
-                    {fmt.num(g.properties.kv40, 0)} · {g.properties.reportedVi ?? '—'}
-                  </td>
-                ))}
-                <td colSpan={2} />
-              </tr>
-              <tr>
-                <th scope="row">Cost per litre (15 °C)</th>
-                {plan.grades.map((g) => (
-                  <td key={g.id} className="lps-num">
-                    {fmt.money(g.costPerLitre, 3)}
-                  </td>
-                ))}
-                <td colSpan={2} />
-              </tr>
-              <tr>
-                <th scope="row">Change per litre (15 °C)</th>
-                {plan.grades.map((g) => (
-                  <td key={g.id} className="lps-num">
-                    {g.current ? changeText(fmt, g.costPerLitre - g.current.costPerLitre, null, 3) : '—'}
-                  </td>
-                ))}
-                <td colSpan={2} />
-              </tr>
+              <GradeRow grades={plan.grades} label="ν40 [mm²/s] · VI" cell={(g) => `${fmt.num(g.properties.kv40, 0)} · ${g.properties.reportedVi ?? '—'}`} />
+              <GradeRow grades={plan.grades} label="Cost per litre (15 °C)" cell={(g) => fmt.money(g.costPerLitre, 3)} />
+              <GradeRow
+                grades={plan.grades}
+                label="Change per litre (15 °C)"
+                cell={(g) => (g.current ? changeText(fmt, g.costPerLitre - g.current.costPerLitre, null, 3) : '—')}
+              />
             </tfoot>
           </table>
 
@@ -202,5 +170,20 @@ export function PlanSummary({ result, which, components, limited, supplyKg, peri
         ))}
       </div>
     </article>
+  );
+}
+
+/** A footer row of the grades × stocks table: one cell per grade, the use and supply columns empty. */
+function GradeRow({ grades, label, cell }: { grades: readonly LinePlanGradeResult[]; label: string; cell: (g: LinePlanGradeResult) => ReactNode }) {
+  return (
+    <tr>
+      <th scope="row">{label}</th>
+      {grades.map((g) => (
+        <td key={g.id} className="lps-num">
+          {cell(g)}
+        </td>
+      ))}
+      <td colSpan={2} />
+    </tr>
   );
 }

@@ -1,6 +1,47 @@
 // The plan's numbers in words, in the user's currency and units.
+import type { Component } from '../../core/formulation/model';
 import type { MarginalValue } from '../../core/lineplan/plan';
 import type { Formatter } from '../../components/format';
+import type { PlanWhich } from './store';
+
+/** The two plans' titles. */
+export const PLAN_TITLE: Record<PlanWhich, string> = {
+  lasting: 'While the limited stocks last',
+  after: 'After they are gone',
+};
+
+/**
+ * What every view of a result shares: the run's limited stocks and their supplies, the stocks' codes
+ * and names, the period and the user's number format.
+ */
+export interface PlanView {
+  fmt: Formatter;
+  period: string;
+  /** Ids of the limited stocks of the run, library order. */
+  limited: readonly string[];
+  /** Supplies entered [kg], by stock id (limited stocks without one are absent). */
+  supplyKg: Readonly<Record<string, number>>;
+  code: (id: string) => string;
+  name: (id: string) => string;
+}
+
+export function planView(
+  components: readonly Component[],
+  limited: readonly string[],
+  supplyKg: Readonly<Record<string, number>>,
+  period: string,
+  fmt: Formatter,
+): PlanView {
+  const byId = new Map(components.map((c) => [c.id, c]));
+  return { fmt, period, limited, supplyKg, code: (id) => byId.get(id)?.code ?? id, name: (id) => byId.get(id)?.name ?? '' };
+}
+
+/** "BW-160, BW-190", or "the limited stocks" when none is limited. */
+export const limitedCodes = (v: PlanView): string => v.limited.map(v.code).join(', ') || 'the limited stocks';
+
+/** What a plan assumes of the limited stocks: "BW-190 250 t" (while they last) or "without BW-190". */
+export const planAssumes = (v: PlanView, which: PlanWhich): string =>
+  which === 'lasting' ? limitedText(v.limited, v.supplyKg, v.code, v.fmt) : `without ${limitedCodes(v)}`;
 
 /** "over 2026", or "over the period" when the period has no name. */
 export const overPeriod = (period: string): string => `over ${period.trim() || 'the period'}`;
@@ -19,11 +60,11 @@ export function changeText(fmt: Formatter, delta: number, base: number | null, d
   return `${sign}${fmt.money(Math.abs(delta), digits)}${pct}`;
 }
 
-/** Tonnes from kg for the screen: one decimal below 100 t, whole tonnes above. */
-export function tonnes(fmt: Formatter, kg: number): string {
-  const t = kg / 1000;
-  return `${fmt.num(t, Math.abs(t) >= 100 ? 0 : 1)} t`;
-}
+/** Tonnes from kg, without the unit (columns headed [t]): one decimal below 100 t, whole tonnes above. */
+export const tonnesNumber = (fmt: Formatter, kg: number): string => fmt.num(kg / 1000, Math.abs(kg) >= 100_000 ? 0 : 1);
+
+/** Tonnes from kg with the unit: "12.5 t", "250 t". */
+export const tonnes = (fmt: Formatter, kg: number): string => `${tonnesNumber(fmt, kg)} t`;
 
 /** The value of one more tonne of a limited stock, in words. */
 export function marginalSentence(m: MarginalValue, fmt: Formatter, period: string): string {

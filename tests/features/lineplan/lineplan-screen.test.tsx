@@ -66,6 +66,34 @@ describe('Whole-line plan screen', () => {
     expect(useRecipes.getState().linePlan.maxStocks).toBeNull();
   });
 
+  it('limits a stock and keeps one in use for this plan, each saved in kg, and removes them again', () => {
+    render(<LinePlanScreen />);
+    const pick = (label: string, code: string, button: string) => {
+      const select = screen.getByLabelText(label) as HTMLSelectElement;
+      const option = [...select.options].find((o) => o.textContent?.startsWith(code))!;
+      fireEvent.change(select, { target: { value: option.value } });
+      fireEvent.click(within(select.parentElement!).getByRole('button', { name: button }));
+      return option.value;
+    };
+    const limitedId = pick('Limit another stock in this plan', 'BW-280', 'Limit');
+    expect(useRecipes.getState().linePlan.supplies[limitedId]).toBeNull();
+    enter('Supply of BW-280', '120');
+    expect(useRecipes.getState().linePlan.supplies[limitedId]).toBe(120_000); // 120 t in kg (unit conversion)
+    const keptId = pick('Keep a stock in use', 'BW-220', 'Keep');
+    enter('Least use of BW-220', '-1');
+    expect(screen.getByRole('alert').textContent).toMatch(/Least use of BW-220: must be at least 0 t/);
+    expect(useRecipes.getState().linePlan.keep[keptId]).toBe(0);
+    fireEvent.keyDown(screen.getByLabelText('Least use of BW-220'), { key: 'Escape' });
+    enter('Least use of BW-220', '30');
+    expect(useRecipes.getState().linePlan.keep[keptId]).toBe(30_000);
+    fireEvent.click(screen.getByRole('button', { name: 'Stop limiting BW-280 in this plan' }));
+    fireEvent.click(screen.getByRole('button', { name: 'No longer keep BW-220 in use' }));
+    expect(useRecipes.getState().linePlan.supplies).not.toHaveProperty(limitedId);
+    expect(useRecipes.getState().linePlan.keep).not.toHaveProperty(keptId);
+    // A stock limited in the library has no Remove button in the plan.
+    expect(screen.queryByRole('button', { name: 'Stop limiting BW-190 in this plan' })).toBeNull();
+  });
+
   it('shows both plans side by side, the cost of the withdrawal, the marginal value in words and where the stock goes', async () => {
     await planDemo();
     const lasting = screen.getByTestId('plan-lasting');
