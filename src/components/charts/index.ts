@@ -8,6 +8,9 @@ export type { MapPoint, SolvencyOxidationMapProps } from './SolvencyOxidationMap
 export { CompositionChart } from './CompositionChart';
 export type { CompositionRow, CompositionChartProps } from './CompositionChart';
 export { FrontierChart } from './FrontierChart';
+export { BatchDistributionChart } from './BatchDistributionChart';
+export type { BatchDistributionChartProps, DensityPoint } from './BatchDistributionChart';
+export { batchDistributionData } from './batch-distribution-data';
 export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints } from './d341-scale';
 export { CHART_COLOURS } from './palette';

@@ -6,10 +6,12 @@
  * on the solvency–stability map and its composition bars — is passed through `LiveMarksContext`
  * and drawn by live layers inside each chart, so an edit re-renders only those layers.
  */
-import { useCallback, useMemo, useRef } from 'react';
+import { useCallback, useDeferredValue, useMemo, useRef } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import type { Settings } from '../../state';
 import {
+  BatchDistributionChart,
+  batchDistributionData,
   CompositionChart,
   LiveMarksContext,
   SolvencyOxidationMap,
@@ -25,6 +27,13 @@ import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature'
 import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
 import { oxidationClass } from '../../core/scoring/oxidation';
+import { recipeSpreadParts } from '../../core/qc/recipe-spread';
+import { monteCarloKv40, shareInBand } from '../../core/qc/monte-carlo';
+import { fmtProbability } from './PropertiesPanel';
+
+/** Batches simulated for the distribution chart, and the seed (the same picture every time). */
+export const SIMULATED_BATCHES = 4000;
+export const SIMULATION_SEED = 1;
 
 export interface DesignerChartsProps {
   view: DraftView;
@@ -117,6 +126,26 @@ export default function DesignerCharts({ view, prediction, components, reference
     [prediction, view],
   );
 
+  // Batch ν40 under lot spread: the model (from the prediction) and a seeded Monte Carlo of the exact rule.
+  // Deferred: a typed fraction repaints the table and the live marks first, the simulation after.
+  const inBand = useDeferredValue(prediction.ok ? prediction.inBand : null);
+  const deferredView = useDeferredValue(view);
+  const distribution = useMemo(() => {
+    if (!inBand || !(inBand.distribution.sdX > 0)) return null;
+    try {
+      const parts = recipeSpreadParts(
+        components,
+        deferredView.lines.filter((l) => l.massFraction > 0).map((l) => ({ componentId: l.componentId, massFraction: l.massFraction })),
+      );
+      const mc = monteCarloKv40(parts, { samples: SIMULATED_BATCHES, seed: SIMULATION_SEED, method: settings.blendMethod });
+      const data = batchDistributionData(inBand.distribution, inBand.iso, mc.samples);
+      const share = shareInBand(mc.samples, inBand.plant);
+      return { ...data, share };
+    } catch {
+      return null;
+    }
+  }, [inBand, deferredView, components, settings.blendMethod]);
+
   const full = Math.max(320, width);
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
 
@@ -159,6 +188,18 @@ export default function DesignerCharts({ view, prediction, components, reference
           width={full}
           height={Math.max(140, 40 + rowLabels.length * 26)}
         />
+        {inBand && distribution && (
+          <BatchDistributionChart
+            curve={distribution.curve}
+            histogram={distribution.histogram}
+            plantBand={{ ...inBand.plant, label: 'solve band' }}
+            isoBand={{ ...inBand.iso, label: 'ISO band' }}
+            simulation={`${fmt.num(SIMULATED_BATCHES, 0)} simulated batches (seed ${SIMULATION_SEED}), each stock's lot drawn and blended by the exact rule: ${fmtProbability(distribution.share, fmt)} in the solve band`}
+            formatPct={(p) => fmtProbability(p, fmt)}
+            width={full}
+            height={260}
+          />
+        )}
       </section>
     </LiveMarksContext.Provider>
   );

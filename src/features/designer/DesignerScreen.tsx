@@ -26,7 +26,7 @@ import { deriveDraft } from './derive';
 import { densityLookup, useDesignerStore } from './store';
 import { runSolve } from './solve';
 import { usePrediction } from './predict';
-import { PropertiesPanel } from './PropertiesPanel';
+import { PropertiesPanel, solveBand } from './PropertiesPanel';
 import './designer.css';
 
 const DesignerCharts = lazy(() => import('./DesignerCharts'));
@@ -80,7 +80,11 @@ export default function DesignerScreen() {
 
   const density = useMemo(() => densityLookup(components), [components]);
   const view = useMemo(() => deriveDraft(lines, byId, priced.base), [lines, byId, priced.base]);
-  const prediction = usePrediction(lines, components, settings, targets.grade);
+  const band = useMemo(() => {
+    const b = solveBand(targets);
+    return b ? { min: b.lo, max: b.hi } : null;
+  }, [targets]);
+  const prediction = usePrediction(lines, components, settings, targets.grade, band);
 
   const [solving, setSolving] = useState(false);
   const onSolve = useCallback(() => {

@@ -66,6 +66,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     statusText: p.grade === null ? '' : `${p.deviationFromMidPct! >= 0 ? '+' : ''}${fmt.num(p.deviationFromMidPct, 1)} % from mid-point`,
     explain: ex.grade ?? null,
   });
+  rows.push(...inBandRows(pred, targets, fmt));
   rows.push(shearRow(pred, targets, fmt));
   rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
   const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
@@ -206,6 +207,57 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     });
   }
   return rows;
+}
+
+/** A probability for a property row: one decimal, two near 100 %, never rounded to a certainty it is not. */
+export function fmtProbability(p: number, fmt: Formatter): string {
+  // Never round a probability below 1 up to 100 %, nor one above 0 down to 0 %.
+  if (p < 1 && p >= 0.99995) return `> ${fmt.num(99.99, 2)} %`;
+  if (p >= 0.9995 && p < 1) return `${fmt.num(p * 100, 2)} %`;
+  if (p > 0 && p < 0.0005) return `< ${fmt.num(0.05, 2)} %`;
+  return `${fmt.num(p * 100, 1)} %`;
+}
+
+/**
+ * "Lands in the solve band" and "lands in the ISO band": the probability that a batch does, under the
+ * stocks' lot-to-lot spread of ν40 (core/qc/lot-spread.ts).
+ */
+export function inBandRows(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row[] {
+  const ib = pred.inBand;
+  if (!ib) return [];
+  const d = ib.distribution;
+  const pMin = targets.minInBandProbability;
+  const working = (band: { min: number; max: number }): PropertyExplain => ({
+    equation: 'P = Φ((b − μ)/σ) − Φ((a − μ)/σ); μ = Σ cᵢwᵢXᵢ / Σ cᵢwᵢ, σ = √Σ (cᵢwᵢ·X′(ν40ᵢ)·ν40ᵢ·sᵢ)² / Σ cᵢwᵢ',
+    standard:
+      'Blendbench’s lot-spread model: each lot’s ν40 varies by its stock’s relative standard deviation sᵢ (normal, independent), X linearised per stock (the mixing rule’s blending coordinate); spreads are the stocks’ own or common-practice defaults (no source)',
+    inputs: {
+      'band ends a–b [mm²/s]': `${fmt.num(band.min, 1)}–${fmt.num(band.max, 1)}`,
+      'μ (blending coordinate of the median batch)': Number(d.meanX.toFixed(5)),
+      'σ (its standard deviation)': Number(d.sdX.toFixed(5)),
+      'median batch ν40 [mm²/s]': Number(d.medianKv40.toFixed(1)),
+    },
+    note: 'An estimate: enter each stock’s measured lot-to-lot spread on the Stocks screen for a figure the plant can rely on.',
+  });
+  const plantOk = pMin === null || ib.plant.probability >= pMin;
+  return [
+    {
+      key: 'inBandPlant',
+      label: 'Lands in the solve band (lot spread)',
+      value: fmtProbability(ib.plant.probability, fmt),
+      status: pMin === null ? 'info' : plantOk ? 'ok' : 'fail',
+      statusText: `${fmt.num(ib.plant.min, 1)}–${fmt.num(ib.plant.max, 1)} mm²/s${pMin === null ? '' : `; at least ${fmtProbability(pMin, fmt)}`}`,
+      explain: working(ib.plant),
+    },
+    {
+      key: 'inBandIso',
+      label: 'Lands in the ISO band (lot spread)',
+      value: fmtProbability(ib.iso.probability, fmt),
+      status: 'info',
+      statusText: `VG ${targets.grade}: ${fmt.num(ib.iso.min, 1)}–${fmt.num(ib.iso.max, 1)} mm²/s`,
+      explain: working(ib.iso),
+    },
+  ];
 }
 
 /** "In grade after shear": ν40 after permanent (KRL) shear of the polymers, against the target grade's band. */

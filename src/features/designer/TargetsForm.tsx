@@ -98,6 +98,15 @@ export const TargetsForm = memo(function TargetsForm({
           max={10}
           onChange={(v) => onChange({ tolerancePct: v ?? 5 })}
         />
+        <Opt
+          label="Probability in the solve band, at least"
+          unit="%"
+          value={pct(targets.minInBandProbability)}
+          min={0}
+          max={99.99}
+          hint="blank = least cost, on the band's edge (about half the batches outside); uses each stock's lot spread of ν40 (Stocks)"
+          onChange={(v) => onChange({ minInBandProbability: v === null || v === 0 ? null : frac(v) })}
+        />
         <p className="band-note" data-testid="solve-band">
           Solve band: {fmt.num(lo, 1)}–{fmt.num(hi, 1)} mm²/s at {fmt.temp(40)} (always inside the ISO band).
         </p>

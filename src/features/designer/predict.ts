@@ -5,6 +5,7 @@ import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import { predictBlend, type BlendProperties } from '../../core/formulation/blend-properties';
 import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
+import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import type { Settings } from '../../state';
 import { userMessage } from '../../state/messages';
 
@@ -23,6 +24,11 @@ export type Prediction =
       oxidationRating: number;
       /** Stock code by component id (for labels). */
       codes: ReadonlyMap<string, string>;
+      /**
+       * Probability of landing in the solve band and in the ISO band under the stocks' lot spread
+       * (`core/qc`); null without a grade and band, or when it cannot be assessed.
+       */
+      inBand: RecipeInBand | null;
     }
   | { ok: false; message: string };
 
@@ -34,12 +40,12 @@ export function predictRecipe(
   lines: readonly RecipeLine[],
   components: readonly Component[],
   method: BlendMethod,
-  temps: { operatingTempC?: number; coldTempC?: number; deliveryTempC?: number; grade?: number } = {},
+  temps: { operatingTempC?: number; coldTempC?: number; deliveryTempC?: number; grade?: number; band?: { min: number; max: number } } = {},
 ): Prediction {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
   try {
-    const { grade, ...at } = temps;
+    const { grade, band, ...at } = temps;
     const props = predictBlend(components, used, { method, ...at });
     let deposit: DepositAssessment | null = null;
     try {
@@ -63,9 +69,28 @@ export function predictRecipe(
       anilinePoint: props.anilinePoint?.value ?? null,
       oxidationRating: props.oxidationRating ?? 1,
       codes: new Map(used.map((l) => [l.componentId, components.find((c) => c.id === l.componentId)?.code ?? l.componentId])),
+      inBand: inBandOf(components, used, method, grade, band),
     };
   } catch (e) {
     return { ok: false, message: userMessage(e, { components }) };
+  }
+}
+
+/** The lot-spread probabilities of a recipe; null when there is no band or they cannot be assessed. */
+function inBandOf(
+  components: readonly Component[],
+  used: readonly RecipeLine[],
+  method: BlendMethod,
+  grade: number | undefined,
+  band: { min: number; max: number } | undefined,
+): RecipeInBand | null {
+  if (grade === undefined || band === undefined) return null;
+  try {
+    const total = used.reduce((s, l) => s + l.massFraction, 0);
+    if (Math.abs(total - 1) > 1e-6) return null;
+    return recipeInBand(components, used, grade, band, method);
+  } catch {
+    return null;
   }
 }
 
@@ -74,8 +99,11 @@ export function usePrediction(
   components: readonly Component[],
   settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC'>,
   grade?: number,
+  band?: { min: number; max: number } | null,
 ): Prediction {
   const { blendMethod, operatingTempC, coldStartTempC, deliveryTempC } = settings;
+  const lo = band?.min;
+  const hi = band?.max;
   return useMemo(
     () =>
       predictRecipe(lines, components, blendMethod, {
@@ -83,7 +111,8 @@ export function usePrediction(
         coldTempC: coldStartTempC,
         deliveryTempC,
         ...(grade === undefined ? {} : { grade }),
+        ...(lo === undefined || hi === undefined ? {} : { band: { min: lo, max: hi } }),
       }),
-    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, grade],
+    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, grade, lo, hi],
   );
 }

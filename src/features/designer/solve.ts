@@ -6,6 +6,7 @@ import { BlendbenchInputError } from '../../core/errors';
 import type { Formatter } from '../../components/format';
 import { userMessage } from '../../state/messages';
 import { OBJECTIVE_LABEL } from './TargetsForm';
+import { fmtProbability } from './PropertiesPanel';
 import type { SolveNotice } from './store';
 
 export type SolveOutcome = { kind: 'optimal'; lines: RecipeLine[]; message: string } | Exclude<SolveNotice, { kind: 'optimal' }>;
@@ -24,7 +25,27 @@ const BINDING_LABEL: Record<string, string> = {
   'max-pour': 'maximum pour point',
   'min-flash': 'minimum flash point',
   combination: 'several constraints together',
+  'in-band-probability': 'probability in band',
 };
+
+
+/**
+ * The premium of a robust recipe, in the plant's words:
+ *  "+0.006 EUR/L buys 99.0 % instead of 50.0 % in the solve band (the recipe without it: 1.146 EUR/L)".
+ */
+export function premiumText(
+  robust: { nominalCostPerLitre: number | null; nominalProbability: number | null },
+  costPerLitre: number | null,
+  probability: number,
+  currency: string,
+  fmt: Formatter,
+): string {
+  if (robust.nominalCostPerLitre === null || costPerLitre === null) return `${fmtProbability(probability, fmt)} of batches in the solve band`;
+  const d = costPerLitre - robust.nominalCostPerLitre;
+  const sign = d >= 0 ? '+' : '−';
+  const was = robust.nominalProbability === null ? '' : ` instead of ${fmtProbability(robust.nominalProbability, fmt)}`;
+  return `${sign}${fmt.num(Math.abs(d), 3)} ${currency}/L buys ${fmtProbability(probability, fmt)}${was} in the solve band (the recipe without it: ${fmt.num(robust.nominalCostPerLitre, 3)} ${currency}/L)`;
+}
 
 export function runSolve(
   components: readonly Component[],
@@ -42,6 +63,7 @@ export function runSolve(
         `ν40 ${fmt.num(r.properties.kv40, 1)} mm²/s (band ${fmt.num(r.band.min, 1)}–${fmt.num(r.band.max, 1)})`,
         cost === null ? null : `${fmt.num(cost, 3)} ${cur} per litre`,
         `${r.lines.length} components`,
+        r.robust ? premiumText(r.robust, cost, r.inBand.plant.probability, cur, fmt) : null,
       ].filter(Boolean);
       return {
         kind: 'optimal',

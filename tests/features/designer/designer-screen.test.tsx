@@ -155,6 +155,21 @@ describe('Solve', () => {
     expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
   });
 
+  it('solves VG 320 at 99 % in band: the probability is met, the premium stated, both probabilities shown', async () => {
+    render(<DesignerScreen />);
+    const p = screen.getByLabelText(/Probability in the solve band, at least/) as HTMLInputElement;
+    fireEvent.focus(p);
+    fireEvent.change(p, { target: { value: '99' } });
+    fireEvent.blur(p);
+    fireEvent.click(screen.getByText('Solve', { selector: 'button' }));
+    await screen.findByText('Solved', {}, { timeout: 20000 });
+    // the condition asked for, recomputed by the core's lot-spread model (issue 12)
+    expect(num(screen.getByTestId('prop-inBandPlant').textContent)).toBeGreaterThanOrEqual(99);
+    expect(screen.getByTestId('prop-inBandIso').textContent).toMatch(/%/);
+    // least cost without it sits on the band's edge: about half the batches in band (model)
+    expect(screen.getByText(/buys 99\.0 % instead of (49|50|51)\.\d % in the solve band/)).toBeTruthy();
+  });
+
   it('explains an infeasible target with the reason and a suggested fix', async () => {
     render(<DesignerScreen />);
     // Exclude every stock heavier than VG 100 by excluding them through the per-stock limits.
