@@ -1,4 +1,6 @@
 import type { Component, PriceBasis, Recipe } from '../../core/formulation/model';
+import { CATEGORY_LABEL } from '../../core/formulation/model';
+import { DEFAULT_KV40_LOT_SPREAD_PCT } from '../../core/qc/lot-spread';
 import { oxidationRating } from '../../core/scoring/oxidation';
 import type { StockUpdateOutcome } from './ImpactConfirm';
 import { PRICE_BASIS_LABEL } from '../../core/units';
@@ -123,6 +125,22 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           value={c.shearLossPct}
           validate={(v) => checkValue('shearLossPct', v, fmt)}
           onCommit={(v) => onUpdate(c.id, { shearLossPct: v })}
+        />
+        <NumberField
+          label="Lot-to-lot spread of ν40"
+          unit="% (relative std. dev.)"
+          allowEmpty
+          size={4}
+          value={c.kv40LotSpreadPct}
+          validate={(v) => checkValue('kv40LotSpreadPct', v, fmt)}
+          onCommit={(v) => onUpdate(c.id, { kv40LotSpreadPct: v })}
+          hint={
+            <span className="muted small">
+              {' '}
+              empty = default for {CATEGORY_LABEL[c.category]}: {fmt.num(DEFAULT_KV40_LOT_SPREAD_PCT[c.category], 1)} % (common practice, no source; enter
+              the plant&rsquo;s lot records)
+            </span>
+          }
         />
       </fieldset>
       <fieldset>

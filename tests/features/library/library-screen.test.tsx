@@ -60,6 +60,19 @@ describe('Library screen', () => {
     expect(screen.getByText(/250 °C is outside the usual −60 °C to 180 °C for an aniline point/)).toBeTruthy();
   });
 
+  it('edits the lot spread of ν40: empty = the category default (stated), 0–25 % accepted, beyond refused', () => {
+    renderFor('BW-190');
+    fireEvent.click(screen.getByRole('button', { name: /More fields of/ }));
+    const field = screen.getByLabelText(/Lot-to-lot spread of ν40/);
+    // the invented demo stock has none of its own: the Group I default applies (core/qc/lot-spread.ts)
+    expect(screen.getByText(/empty = default for Group I: 2\.5 % \(common practice, no source/)).toBeTruthy();
+    type(field, '30');
+    expect(screen.getByText(/lot spread of ν40.*25/i)).toBeTruthy(); // the field rule: 0–25 % (field-rules.ts)
+    expect(bs().kv40LotSpreadPct).toBeNull();
+    type(field, '3.5');
+    expect(bs().kv40LotSpreadPct).toBe(3.5);
+  });
+
   it('rejects garbage and a density typed in kg/m³', () => {
     renderFor('BW-190');
     const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
