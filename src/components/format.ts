@@ -210,3 +210,17 @@ export function formatWorkingInput(
   const label = m ? `${m[1]} [${units.map((u) => (u === '°C' ? fmt.tempUnit : u)).join(' / ')}]` : name;
   return { label, text };
 }
+
+/**
+ * A probability for the screen and the sheets: one decimal, two near 100 %, and never rounded to a
+ * certainty it is not ("> 99.99 %", "< 0.05 %").
+ *
+ * @param p - probability 0–1
+ * @param num - formats a number with fixed decimals (the user's separator)
+ */
+export function probabilityText(p: number, num: (x: number, digits: number) => string): string {
+  if (p < 1 && p >= 0.99995) return `> ${num(99.99, 2)} %`;
+  if (p >= 0.9995 && p < 1) return `${num(p * 100, 2)} %`;
+  if (p > 0 && p < 0.0005) return `< ${num(0.05, 2)} %`;
+  return `${num(p * 100, 1)} %`;
+}

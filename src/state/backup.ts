@@ -50,6 +50,7 @@ export function makeBackupText(now = new Date()): string {
           activeRecipeId: rec.activeRecipeId,
           sheets: rec.sheets,
           linePlan: rec.linePlan,
+          qc: rec.qc,
         },
       },
       settings: { version: SETTINGS_SPEC.version, data: { settings: set.settings } },

@@ -77,6 +77,8 @@ export const TEXT_RULES = Object.freeze({
   /** Blend sheet: the batch size as typed (its number is checked with NUMBER_RULES.batchSize). */
   batchSize: textRule('batch size', 32),
   instructions: textRule('text of the blending instructions', 20_000, { singleLine: false }),
+  /** Blend sheet: what the heel in the vessel is (e.g. "previous batch of VG 320, lot 2291"). */
+  heelSource: textRule('description of the heel', 200),
   companyName: textRule('company name', 200),
   currencySymbol: textRule('currency symbol', 8),
   /** The currency every cost is restated in (Settings); a code such as EUR. */
@@ -202,6 +204,8 @@ export const NUMBER_RULES = Object.freeze({
   maxPolymerFraction: numberRule('polymer cap', '%', 0, 1, { nullable: true, percent: true }),
   maxPourPoint: numberRule('highest pour point', '°C', -100, 100, { nullable: true }),
   minFlashPoint: numberRule('lowest flash point', '°C', -50, 500, { nullable: true }),
+  /** A mass in a vessel or on hand [kg] (heel, batch in the vessel, vessel limit, stock on hand); 0–10,000 t. */
+  massKg: numberRule('mass', 'kg', 0, 1e7),
   /** Batch size [kg or litres]: up to 10,000 t, beyond any blending vessel (common practice, no source). */
   batchSize: numberRule('batch size', '', 0, 1e7, { minExclusive: true }),
   /** Gearbox operating temperature [°C]. */
@@ -688,6 +692,53 @@ export function sheetProblems(s: SheetFields, who?: string, parseBatch?: (text: 
     const size = checkText('batchSize', s.batchSize, who);
     add(['batchSize'], size ?? (/^[0-9 .,'eE+\-\u00a0\u202f]*$/.test(s.batchSize) ? null : notNumber));
   }
+  return out;
+}
+
+/** QC-loop inputs of one recipe as stored (structurally `QcInputs` in recipes.ts). */
+export interface QcFields {
+  aimKv40: number | null;
+  lots: Record<string, { kv40: number | null; kv100: number | null; density15: number | null }>;
+  heel: { massKg: number | null; kv40: number | null; kv100: number | null; density15: number | null; additiveFraction: number | null; source: string };
+  correction: {
+    kv40: number | null;
+    kv100: number | null;
+    massKg: number | null;
+    vesselLimitKg: number | null;
+    bandPct: number | null;
+    onHandKg: Record<string, number | null>;
+    stockIds: readonly string[];
+  };
+}
+
+/**
+ * Every QC-loop field of a recipe's blend sheet against its rule: the aim and lot viscosities and
+ * densities, the heel, the QC result of the batch and the correction's limits. Blank (null) is allowed
+ * everywhere: it means "not measured" or "no limit".
+ */
+export function qcProblems(q: QcFields, who?: string): FieldProblem[] {
+  const { out, add } = collector();
+  const opt = (path: Array<string | number>, field: NumberRuleKey, v: number | null) => add(path, v === null ? null : checkNumber(field, v, who));
+  opt(['aimKv40'], 'targetKv40', q.aimKv40);
+  for (const [id, lot] of Object.entries(q.lots)) {
+    opt(['lots', id, 'kv40'], 'kv40', lot.kv40);
+    opt(['lots', id, 'kv100'], 'kv100', lot.kv100);
+    opt(['lots', id, 'density15'], 'density15', lot.density15);
+  }
+  opt(['heel', 'massKg'], 'massKg', q.heel.massKg);
+  opt(['heel', 'kv40'], 'kv40', q.heel.kv40);
+  opt(['heel', 'kv100'], 'kv100', q.heel.kv100);
+  opt(['heel', 'density15'], 'density15', q.heel.density15);
+  opt(['heel', 'additiveFraction'], 'treatRate', q.heel.additiveFraction);
+  add(['heel', 'source'], checkText('heelSource', q.heel.source, who));
+  const c = q.correction;
+  opt(['correction', 'kv40'], 'kv40', c.kv40);
+  opt(['correction', 'kv100'], 'kv100', c.kv100);
+  opt(['correction', 'massKg'], 'massKg', c.massKg);
+  opt(['correction', 'vesselLimitKg'], 'massKg', c.vesselLimitKg);
+  opt(['correction', 'bandPct'], 'tolerancePct', c.bandPct);
+  for (const [id, kg] of Object.entries(c.onHandKg)) opt(['correction', 'onHandKg', id], 'massKg', kg);
+  add(['correction', 'stockIds'], checkCount('linesPerRecipe', c.stockIds.length, who));
   return out;
 }
 

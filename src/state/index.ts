@@ -69,8 +69,8 @@ import { demoComponents, demoSettingsPatch } from './demo';
 
 export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
-export type { RecipesState, RecipesData, NewRecipe, SheetInputs, RecipeChanges } from './recipes';
-export { DEFAULT_SHEET_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
+export type { RecipesState, RecipesData, NewRecipe, SheetInputs, QcInputs, RecipeChanges } from './recipes';
+export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
 export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
@@ -117,6 +117,8 @@ export const recipeActions = {
     useRecipesStore.getState().setTargets(...a),
   setSheetInputs: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setSheetInputs']>) =>
     useRecipesStore.getState().setSheetInputs(...a),
+  setQcInputs: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setQcInputs']>) =>
+    useRecipesStore.getState().setQcInputs(...a),
 };
 
 /** Library actions, callable outside React. */
@@ -227,8 +229,8 @@ export function useSavedWorkReady(): boolean {
 export function persistedData(key: StoreKey): unknown {
   if (key === 'library') return { components: useLibraryStore.getState().components };
   if (key === 'recipes') {
-    const { recipes, targets, activeRecipeId, sheets, linePlan } = useRecipesStore.getState();
-    return { recipes, targets, activeRecipeId, sheets, linePlan };
+    const { recipes, targets, activeRecipeId, sheets, linePlan, qc } = useRecipesStore.getState();
+    return { recipes, targets, activeRecipeId, sheets, linePlan, qc };
   }
   return { settings: useSettingsStore.getState().settings };
 }

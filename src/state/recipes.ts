@@ -17,6 +17,7 @@ import {
   recipeProblems,
   recipeWho,
   sheetProblems,
+  qcProblems,
   targetsProblems,
 } from './field-rules';
 import { emptyLinePlan, type LinePlanInputs } from './lineplan';
@@ -31,7 +32,46 @@ export interface RecipesData {
   sheets: Record<string, SheetInputs>;
   /** The line plan's inputs (schema 6; see `lineplan.ts`); part of undo history. */
   linePlan: LinePlanInputs;
+  /** QC-loop entries per recipe id (schema 8): lots, heel, QC result, correction; not part of undo history. */
+  qc: Record<string, QcInputs>;
 }
+
+/**
+ * What the plant enters for a recipe's QC loop on its blend sheet (every number null = not entered):
+ * the aim, the measured lots in the tanks, the heel in the vessel, and the QC result of a batch with
+ * the limits of its correction. Units: mm²/s, kg/L at 15 °C, kg; fractions 0–1.
+ */
+export interface QcInputs {
+  /** Aim ν40 of the batch [mm²/s]; null → the grade mid-point. */
+  aimKv40: number | null;
+  /** Measured values of the lot in the tank, by stock id; null → the library's value. */
+  lots: Record<string, { kv40: number | null; kv100: number | null; density15: number | null }>;
+  /** Oil already in the vessel; massKg null or 0 → none. `additiveFraction` is its additive package share. */
+  heel: { massKg: number | null; kv40: number | null; kv100: number | null; density15: number | null; additiveFraction: number | null; source: string };
+  correction: {
+    /** Measured ν40 and ν100 of the batch [mm²/s]. */
+    kv40: number | null;
+    kv100: number | null;
+    /** Mass in the vessel [kg]; null → the batch size. */
+    massKg: number | null;
+    /** Most the vessel holds [kg]; null → no limit. */
+    vesselLimitKg: number | null;
+    /** Correct to within ± this % of the aim (inside the release band); null → the default. */
+    bandPct: number | null;
+    objective: 'cost' | 'mass';
+    /** kg on hand by stock id; null → unlimited. */
+    onHandKg: Record<string, number | null>;
+    /** Stocks besides the recipe's that may be added. */
+    stockIds: string[];
+  };
+}
+
+export const DEFAULT_QC_INPUTS: QcInputs = {
+  aimKv40: null,
+  lots: {},
+  heel: { massKg: null, kv40: null, kv100: null, density15: null, additiveFraction: null, source: '' },
+  correction: { kv40: null, kv100: null, massKg: null, vesselLimitKg: null, bandPct: null, objective: 'cost', onHandKg: {}, stockIds: [] },
+};
 
 /** What the plant types on a recipe's blend sheet, remembered between visits. */
 export interface SheetInputs {
@@ -142,6 +182,8 @@ export interface RecipesState extends RecipesData {
   recordMissingStockBasis: (components: readonly Component[]) => number;
   /** Replace everything (reset demo, import-all backup). */
   replaceAll: (data: RecipesData) => void;
+  /** Remember QC-loop entries of a recipe (merged into its saved ones; not an undo step). Null, or why refused. */
+  setQcInputs: (recipeId: string, patch: Partial<QcInputs>) => string | null;
 }
 
 /** Fields of a recipe that an approved or superseded recipe keeps for good. */
@@ -149,7 +191,7 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 7,
+  version: 8,
   schema: recipesDataSchema,
   // Each recipe, each recipe's targets and blend sheet, and the line plan are records of their own
   // when tabs merge their saves; the active recipe belongs to the tab.
@@ -171,6 +213,8 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
     },
   },
   migrations: {
+    // Schema 7 had no QC-loop entries: every recipe starts with none.
+    7: (d) => ({ ...(d as object), qc: {} }),
     // Schema 6 → 7: targets may ask for the least cost per kg ('cost-kg'). Existing data are valid as they are.
     6: (d) => d,
     // Schema 5 had no line plan: start with an empty one.
@@ -217,6 +261,7 @@ export const demoRecipesData = (): RecipesData => ({
   activeRecipeId: demoRecipeId(320),
   sheets: {},
   linePlan: emptyLinePlan(),
+  qc: {},
 });
 
 type Tracked = Pick<RecipesData, 'recipes' | 'targets' | 'linePlan'>;
@@ -417,7 +462,15 @@ export const useRecipesStore = create<RecipesState>()(
               activeRecipeId: data.activeRecipeId,
               sheets: data.sheets ?? {},
               linePlan: data.linePlan ?? emptyLinePlan(),
+              qc: data.qc ?? {},
             }),
+          setQcInputs: (recipeId, patch) => {
+            const next: QcInputs = { ...DEFAULT_QC_INPUTS, ...get().qc[recipeId], ...patch };
+            const refused = firstProblem(qcProblems(next, whoOf(recipeId)));
+            if (refused) return refused;
+            set((s) => ({ qc: { ...s.qc, [recipeId]: next } }));
+            return null;
+          },
         };
       },
       {
@@ -437,6 +490,7 @@ export const useRecipesStore = create<RecipesState>()(
         activeRecipeId: s.activeRecipeId,
         sheets: s.sheets,
         linePlan: s.linePlan,
+        qc: s.qc,
       }),
       skipHydration: true,
     },

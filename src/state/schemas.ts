@@ -15,6 +15,7 @@ import {
   recipeProblems,
   settingsProblems,
   sheetProblems,
+  qcProblems,
   stockProblems,
   targetsProblems,
   type CollectionKey,
@@ -199,6 +200,32 @@ export const linePlanSchema = z
     maxStocks: finite.nullable(),
   })
   .superRefine((p, ctx) => report(ctx, linePlanProblems(p)));
+const nullableFinite = finite.nullable();
+/** QC-loop inputs of one recipe's blend sheet: shape here, every value checked by `qcProblems` (field-rules.ts). */
+export const qcInputsSchema = z
+  .object({
+    aimKv40: nullableFinite,
+    lots: z.record(str, z.object({ kv40: nullableFinite, kv100: nullableFinite, density15: nullableFinite })),
+    heel: z.object({
+      massKg: nullableFinite,
+      kv40: nullableFinite,
+      kv100: nullableFinite,
+      density15: nullableFinite,
+      additiveFraction: nullableFinite,
+      source: str,
+    }),
+    correction: z.object({
+      kv40: nullableFinite,
+      kv100: nullableFinite,
+      massKg: nullableFinite,
+      vesselLimitKg: nullableFinite,
+      bandPct: nullableFinite,
+      objective: z.enum(['cost', 'mass']),
+      onHandKg: z.record(str, nullableFinite),
+      stockIds: z.array(str),
+    }),
+  })
+  .superRefine((q, ctx) => report(ctx, qcProblems(q)));
 
 /** Persisted slice of the library store. */
 export const libraryDataSchema = z.object({ components: list(componentSchema, 'stocks') });
@@ -209,6 +236,7 @@ export const recipesDataSchema = z.object({
   activeRecipeId: str.nullable(),
   sheets: z.record(str, sheetInputsSchema),
   linePlan: linePlanSchema,
+  qc: z.record(str, qcInputsSchema),
 });
 /** Persisted slice of the settings store. */
 export const settingsDataSchema = z.object({ settings: settingsSchema });
@@ -261,6 +289,7 @@ function recordOf(data: unknown, path: readonly PropertyKey[]): { who: string; r
   }
   if (head === 'targets' && key !== undefined) return { who: `the targets of ${recipeName(key)}`, rest };
   if (head === 'sheets' && key !== undefined) return { who: `the blend sheet of ${recipeName(key)}`, rest };
+  if (head === 'qc' && key !== undefined) return { who: `the QC entries of ${recipeName(key)}`, rest };
   if (head === 'settings') return { who: 'settings', rest: path.slice(1) };
   return { who: '', rest: [...path] };
 }

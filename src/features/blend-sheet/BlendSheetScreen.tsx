@@ -23,6 +23,7 @@ export default function BlendSheetScreen() {
   const recipes = useRecipes((s) => s.recipes);
   const sheets = useRecipes((s) => s.sheets);
   const targets = useRecipes((s) => s.targets);
+  const qcInputs = useRecipes((s) => s.qc);
   const active = useActiveRecipe();
   const settings = useSettings();
   const f = useFormat();
@@ -68,6 +69,8 @@ export default function BlendSheetScreen() {
       temperatureUnit={settings.temperatureUnit}
       sheetInputs={sheets}
       onSheetInputsChange={recipeActions.setSheetInputs}
+      qcInputs={qcInputs}
+      onQcInputsChange={recipeActions.setQcInputs}
       formatNumber={formatNumber}
     />
   );

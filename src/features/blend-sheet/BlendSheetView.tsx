@@ -1,6 +1,7 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
 import { useId, useMemo, useState } from 'react';
+import { flushSync } from 'react-dom';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendProperties } from '../../core/formulation/blend-properties';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
@@ -19,7 +20,13 @@ import {
   type QcRow,
   type SheetPrediction,
 } from '../../core/sheet/blend-sheet';
-import { DEFAULT_SHEET_INPUTS, type SheetInputs } from '../../state';
+import { DEFAULT_QC_INPUTS, DEFAULT_SHEET_INPUTS, type QcInputs, type SheetInputs } from '../../state';
+import { BLEND_METHOD_LABEL } from '../../core/blending/blend-viscosity';
+import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
+import { QcPanel } from './QcPanel';
+import { probabilityText } from '../../components/format';
+import { CorrectionSheet } from './CorrectionSheet';
+import { adjustedRecipe, correctionFor, recipeAdditive } from './qc';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
@@ -67,8 +74,11 @@ export interface BlendSheetViewProps {
     patch: Partial<SheetInputs>,
     parseBatch?: (text: string) => number | null,
   ) => string | null | void;
-  /** Called instead of `window.print()` (tests). */
-  onPrint?: () => void;
+  /** Saved QC-loop entries by recipe id, with the setter that saves them (returns null or why refused). */
+  qcInputs?: Readonly<Record<string, QcInputs>>;
+  onQcInputsChange?: (recipeId: string, patch: Partial<QcInputs>) => string | null;
+  /** Called instead of `window.print()` (tests); told which document is printed. */
+  onPrint?: (doc?: 'sheet' | 'correction') => void;
   /** Called instead of the browser download with the CSV text and file name (tests). */
   onExportCsv?: (csv: string, fileName: string) => void;
 }
@@ -115,6 +125,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const [copy, setCopy] = useState<CopyKind>('plant');
   const [paper, setPaper] = useState<PaperSize>('a4');
   const [editingSteps, setEditingSteps] = useState(false);
+  /** Which document the printer gets: the blend sheet or the correction sheet. */
+  const [printDoc, setPrintDoc] = useState<'sheet' | 'correction'>('sheet');
+  const [localQc, setLocalQc] = useState<Record<string, QcInputs>>({});
   /** Fields typed on this visit when the caller does not save them (by recipe id). */
   const [localInputs, setLocalInputs] = useState<Record<string, SheetInputs>>({});
   const tUnit = props.temperatureUnit ?? 'C';
@@ -196,6 +209,75 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   }, [recipe, components, props.targets, qc, props.method, recipes]);
   const stockChanges = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
 
+  // The QC loop: entries saved per recipe; the probability in band, the adjusted recipe and the
+  // correction derived from them (qc.ts, core/qc).
+  const method = props.method ?? 'refutas';
+  const qcIn: QcInputs = (recipe ? (props.qcInputs ?? localQc)[recipe.id] : undefined) ?? DEFAULT_QC_INPUTS;
+  const setQc = (patch: Partial<QcInputs>): string | null => {
+    if (!recipe) return null;
+    if (props.onQcInputsChange) return props.onQcInputsChange(recipe.id, patch);
+    setLocalQc((m) => ({ ...m, [recipe.id]: { ...DEFAULT_QC_INPUTS, ...m[recipe.id], ...patch } }));
+    return null;
+  };
+  const kvRow = qc && 'rows' in qc ? qc.rows.find((r) => r.key === 'kv40') : undefined;
+  const releaseBand = kvRow && kvRow.min !== undefined && kvRow.min !== null && kvRow.max !== undefined && kvRow.max !== null ? { min: kvRow.min, max: kvRow.max } : null;
+  const inBand = useMemo((): RecipeInBand | null => {
+    if (!recipe || !releaseBand) return null;
+    try {
+      return recipeInBand(components, recipe.lines.filter((l) => l.massFraction > 0), recipe.grade, releaseBand, method);
+    } catch {
+      return null;
+    }
+  }, [recipe, components, releaseBand?.min, releaseBand?.max, method]); // eslint-disable-line react-hooks/exhaustive-deps
+  const builtSheet = built && 'sheet' in built ? built.sheet : null;
+  const adjusted = useMemo(
+    () => (recipe && builtSheet ? adjustedRecipe(recipe, components, qcIn, builtSheet.totalKgExact, method) : null),
+    [recipe, builtSheet, components, qcIn, method],
+  );
+  /** The sheet of the additions when the recipe is adjusted (lot densities; batch less the heel). */
+  const adjustedSheet = useMemo((): BlendSheet | null => {
+    if (!recipe || !builtSheet || !adjusted || !('result' in adjusted) || adjusted.result.status !== 'optimal') return null;
+    const r = adjusted.result;
+    const lotDensity = new Map(adjusted.lots.map((l) => [l.id, l.density15]));
+    const base = priced?.components ?? components;
+    const lotComponents = base.map((c) => (lotDensity.has(c.id) ? { ...c, density15: lotDensity.get(c.id)! } : c));
+    const lines = Object.entries(r.addedFractions)
+      .filter(([, f]) => f > 0)
+      .map(([componentId, massFraction]) => ({ componentId, massFraction }));
+    try {
+      return buildBlendSheet(lotComponents, { ...recipe, lines }, { kg: r.batch.massKg - adjusted.heelKg }, { meteringTempC: props.meteringTempC });
+    } catch {
+      return null;
+    }
+  }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC]);
+  const correction = useMemo(
+    () =>
+      recipe
+        ? correctionFor(recipe, priced?.components ?? components, qcIn, {
+            releaseBand: releaseBand ?? { min: 0, max: Number.POSITIVE_INFINITY },
+            predictedVi: qc && 'properties' in qc ? (qc.properties?.vi ?? null) : null,
+            batchKg: builtSheet?.totalKgExact ?? null,
+            targets: props.targets?.[recipe.id] ?? null,
+            method,
+          })
+        : null,
+    [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, props.targets, method], // eslint-disable-line react-hooks/exhaustive-deps
+  );
+  const heelSources = useMemo(() => {
+    const byIdAll = new Map(components.map((c) => [c.id, c]));
+    return recipes
+      .filter((r) => !r.archived && r.lines.length > 0)
+      .flatMap((r) => {
+        try {
+          const p = predict(r).properties;
+          if (!p) return [];
+          return [{ recipe: r, kv40: p.kv40, kv100: p.kv100, density15: p.density15, additiveFraction: recipeAdditive(r, byIdAll)?.massFraction ?? 0 }];
+        } catch {
+          return [];
+        }
+      });
+  }, [recipes, components, predict]);
+
   if (!recipe) {
     return (
       <section className="bs-screen" aria-labelledby={`${id}-h`}>
@@ -205,7 +287,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     );
   }
 
-  const sheet = built && 'sheet' in built ? built.sheet : null;
+  const savedSheet = built && 'sheet' in built ? built.sheet : null;
+  // With lots, a heel or an aim entered the sheet charges the adjusted recipe (the additions), the
+  // heel printed as the vessel's first line; otherwise the saved recipe.
+  const sheet = adjustedSheet ?? savedSheet;
+  const adjustedOk = adjustedSheet !== null && adjusted !== null && 'result' in adjusted && adjusted.result.status === 'optimal' ? adjusted : null;
+  const heelKg = adjustedOk ? adjustedOk.heelKg : 0;
+  const savedPct = new Map(recipe.lines.map((l) => [l.componentId, l.massFraction * 100]));
   const defaultSteps = sheet ? defaultBlendingInstructions(sheet, { temperatureUnit: tUnit }) : [];
   const stepsText = instructions ?? defaultSteps.join('\n');
   const steps = stepsText
@@ -243,10 +331,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);
   };
-  const print = () => (props.onPrint ? props.onPrint() : window.print());
+  const printDocument = (doc: 'sheet' | 'correction') => {
+    flushSync(() => setPrintDoc(doc));
+    if (props.onPrint) props.onPrint(doc);
+    else window.print();
+  };
+  const print = () => printDocument('sheet');
 
   return (
-    <section className="bs-screen" aria-labelledby={`${id}-h`}>
+    <section className="bs-screen" aria-labelledby={`${id}-h`} data-print={printDoc}>
       <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 8mm 10mm; }`}</style>
       <div className="bs-controls bs-no-print">
         <h2 id={`${id}-h`}>Blend sheet</h2>
@@ -310,8 +403,22 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         </p>
       </div>
 
+      <QcPanel
+        recipe={recipe}
+        components={components}
+        heelSources={heelSources}
+        qc={qcIn}
+        onChange={setQc}
+        adjusted={adjusted}
+        correction={correction}
+        inBand={inBand}
+        releaseBand={releaseBand}
+        onPrintCorrection={() => printDocument('correction')}
+        fmt={fmt}
+      />
+
       <article
-        className={`blend-sheet print-page bs-paper-${paper}${sheet && sheet.rows.length >= 10 ? ' bs-dense' : ''}`}
+        className={`blend-sheet print-page bs-paper-${paper}${sheet && sheet.rows.length + (heelKg > 0 ? 1 : 0) >= 10 ? ' bs-dense' : ''}`}
         aria-label="Printable blend sheet"
       >
         <header className="bs-head">
@@ -451,6 +558,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           <table className="bs-table bs-components">
             <caption>
               1. Components, in charging order
+              {adjustedOk ? (
+                <span className="bs-caption-note" data-testid="adjusted-caption">
+                  {' '}
+                  — adjusted to the lots in the tanks{heelKg > 0 ? ' and the heel' : ''}, aim ν40 {fmt(adjustedOk.aim, 1)} mm²/s
+                </span>
+              ) : null}
               {costing && currency ? <span className="bs-caption-note"> (prices and costs in {currency})</span> : null}
             </caption>
             <thead>
@@ -459,7 +572,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col">Code</th>
                 <th scope="col">Name</th>
                 <th scope="col">Category</th>
-                <th scope="col" className="bs-num">Mass %</th>
+                {adjustedOk && <th scope="col" className="bs-num">Saved mass %</th>}
+                <th scope="col" className="bs-num">{adjustedOk ? 'Mass % of additions' : 'Mass %'}</th>
                 <th scope="col" className="bs-num">Vol. %</th>
                 <th scope="col" className="bs-num">kg</th>
                 <th scope="col" className="bs-num">L at 15 °C</th>
@@ -475,18 +589,41 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               </tr>
             </thead>
             <tbody>
+              {heelKg > 0 && adjustedOk && (
+                <tr className="bs-heel" data-testid="heel-row">
+                  <td className="bs-num">0</td>
+                  <th scope="row" className="bs-code">HEEL</th>
+                  <td>Heel already in the vessel{qcIn.heel.source.trim() ? ` (${qcIn.heel.source.trim()})` : ''}</td>
+                  <td>in vessel</td>
+                  <td className="bs-num">—</td>
+                  <td className="bs-num">—</td>
+                  <td className="bs-num">—</td>
+                  <td className="bs-num bs-qty">{fmt(heelKg, qd)}</td>
+                  <td className="bs-num">{fmt(heelKg / (qcIn.heel.density15 ?? 0.88), qd)}</td>
+                  {sheet.metering && <td className="bs-num">—</td>}
+                  <td className="bs-num">{fmt(heelKg, qd)}</td>
+                  {costing && (
+                    <>
+                      <td className="bs-num">—</td>
+                      <td className="bs-num">—</td>
+                    </>
+                  )}
+                  <td className="bs-initials" />
+                </tr>
+              )}
               {sheet.rows.map((r) => (
                 <tr key={r.componentId}>
                   <td className="bs-num">{r.chargeOrder}</td>
                   <th scope="row" className="bs-code">{r.code}</th>
                   <td>{r.name}</td>
                   <td>{r.categoryLabel}</td>
+                  {adjustedOk && <td className="bs-num">{fmt(savedPct.get(r.componentId) ?? 0, pd)}</td>}
                   <td className="bs-num">{fmt(r.massPct, pd)}</td>
                   <td className="bs-num">{fmt(r.volumePct, pd)}</td>
                   <td className="bs-num bs-qty">{fmt(r.kg, qd)}</td>
                   <td className="bs-num">{fmt(r.litres, qd)}</td>
                   {sheet.metering && <td className="bs-num">{r.litresAtMetering === null ? '—' : fmt(r.litresAtMetering, qd)}</td>}
-                  <td className="bs-num">{fmt(r.runningKg, qd)}</td>
+                  <td className="bs-num">{fmt(r.runningKg + heelKg, qd)}</td>
                   {costing && (
                     <>
                       <td className="bs-num">{r.pricePerKg === null ? '—' : fmt(r.pricePerKg, 3)}</td>
@@ -500,15 +637,16 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             <tfoot>
               <tr>
                 <td />
-                <th scope="row">Total</th>
+                <th scope="row">{heelKg > 0 && adjustedOk ? 'Total added' : 'Total'}</th>
                 <td />
                 <td />
+                {adjustedOk && <td className="bs-num">{fmt(100, pd)}</td>}
                 <td className="bs-num">{fmt(100, pd)}</td>
                 <td className="bs-num">{fmt(100, pd)}</td>
                 <td className="bs-num bs-qty">{fmt(sheet.totalKg, qd)}</td>
                 <td className="bs-num">{fmt(sheet.totalLitres, qd)}</td>
                 {sheet.metering && <td className="bs-num">{fmt(sheet.metering.totalLitres, qd)}</td>}
-                <td className="bs-num">{fmt(sheet.totalKg, qd)}</td>
+                <td className="bs-num">{fmt(sheet.totalKg + heelKg, qd)}</td>
                 {costing && (
                   <>
                     <td className="bs-num">{sheet.costing.available ? fmt(sheet.costing.perKg, 3) : '—'}</td>
@@ -519,6 +657,22 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               </tr>
             </tfoot>
           </table>
+        )}
+
+        {adjustedOk && adjustedOk.result.status === 'optimal' && (
+          <p className="bs-lots" data-testid="lot-values">
+            <strong>Lot values used:</strong>{' '}
+            {adjustedOk.lots
+              .map(
+                (l) =>
+                  `${l.code} ν40 ${fmt(l.kv40, 1)}${l.measured.kv40 ? ' (lot)' : ''}, ν100 ${fmt(l.kv100, 2)}${l.measured.kv100 ? ' (lot)' : ''}, ${fmt(l.density15, 4)} kg/L${l.measured.density15 ? ' (lot)' : ''}`,
+              )
+              .join('; ')}
+            . {heelKg > 0 ? `Heel ${fmt(heelKg, qd)} kg: ν40 ${fmt(qcIn.heel.kv40 ?? 0, 1)}, ν100 ${fmt(qcIn.heel.kv100 ?? 0, 2)} mm²/s. ` : ''}
+            Batch {fmt(adjustedOk.result.batch.massKg, qd)} kg predicted at ν40 {fmt(adjustedOk.result.batch.kv40, 1)} mm²/s; saved shares moved by{' '}
+            {fmt(adjustedOk.result.changePct, 2)} points (least change that lands at the aim). “(lot)” = measured on the lot in the tank; the others are
+            the library’s values.
+          </p>
         )}
 
         {sheet && costing && (
@@ -654,6 +808,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           )}
           <p className="bs-note">
             {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
+            {inBand ? (
+              <span data-testid="printed-in-band">
+                Lot-to-lot spread of the stocks (model, an estimate): {probabilityText(inBand.plant.probability, fmt)} of batches of this recipe land in the ν40
+                release band, {probabilityText(inBand.iso.probability, fmt)} in the ISO band.{' '}
+              </span>
+            ) : null}
             Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
             from the product specification
             {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
@@ -681,6 +841,26 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           ))}
         </section>
       </article>
+
+      {correction && 'result' in correction && correction.result.status === 'optimal' && correction.result.addedKg > 0 && (
+        <CorrectionSheet
+          companyName={companyName}
+          recipe={recipe}
+          lot={lot}
+          vessel={vessel}
+          date={date}
+          problem={correction.problem}
+          result={correction.result}
+          band={correction.band}
+          kv100Estimated={correction.kv100Estimated}
+          names={new Map(components.map((c) => [c.code, c.name]))}
+          additiveCode={correction.problem.additive?.id ?? null}
+          paper={paper}
+          methodLabel={BLEND_METHOD_LABEL[method]}
+          fmt={fmt}
+        />
+      )}
     </section>
   );
 }
+

@@ -6,7 +6,7 @@ import { gradeBand } from '../../core/viscosity/iso-grades';
 import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
-import { formatWorkingInput, gradeLabel, useFormat, type Formatter } from '../../components/format';
+import { formatWorkingInput, gradeLabel, probabilityText, useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
@@ -211,11 +211,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
 
 /** A probability for a property row: one decimal, two near 100 %, never rounded to a certainty it is not. */
 export function fmtProbability(p: number, fmt: Formatter): string {
-  // Never round a probability below 1 up to 100 %, nor one above 0 down to 0 %.
-  if (p < 1 && p >= 0.99995) return `> ${fmt.num(99.99, 2)} %`;
-  if (p >= 0.9995 && p < 1) return `${fmt.num(p * 100, 2)} %`;
-  if (p > 0 && p < 0.0005) return `< ${fmt.num(0.05, 2)} %`;
-  return `${fmt.num(p * 100, 1)} %`;
+  return probabilityText(p, (x, d) => fmt.num(x, d));
 }
 
 /**

@@ -1,0 +1,239 @@
+/**
+ * The blend sheet's QC loop, derived from the stored entries (never stored): the recipe adjusted to
+ * the lots in the tanks and the heel in the vessel, and the correction of a batch that missed.
+ * Every number comes from the core (`core/qc`); this file only maps the sheet's entries onto it.
+ */
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
+import { blendingViscosities } from '../../core/formulation/blend-properties';
+import { pricePerKg } from '../../core/formulation/cost';
+import { gradeBand } from '../../core/viscosity/iso-grades';
+import { viscosityIndex } from '../../core/viscosity/viscosity-index';
+import { adjustRecipe, type AdjustResult, type AdjustStock } from '../../core/qc/adjust';
+import { correctBatchPlain, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
+import type { QcInputs } from '../../state';
+import { userMessage } from '../../state/messages';
+
+/** Default half-width of the band a correction aims into, around the aim [%] (common practice, no source). */
+export const DEFAULT_CORRECTION_BAND_PCT = 2;
+
+/** The stock and the treat rate of the recipe's additive package (its first additive line), or null. */
+export function recipeAdditive(recipe: Recipe, byId: ReadonlyMap<string, Component>): { id: string; massFraction: number } | null {
+  const line = recipe.lines.find((l) => l.massFraction > 0 && byId.get(l.componentId)?.category === 'additive-package');
+  return line ? { id: line.componentId, massFraction: line.massFraction } : null;
+}
+
+/** The aim ν40 [mm²/s]: the entered one, else the grade mid-point. */
+export function aimOf(recipe: Recipe, qc: QcInputs): number {
+  if (qc.aimKv40 !== null) return qc.aimKv40;
+  try {
+    return gradeBand(recipe.grade).mid;
+  } catch {
+    return recipe.grade;
+  }
+}
+
+/** Whether any lot value, a heel or an aim is entered (then the sheet charges the adjusted recipe). */
+export function hasAdjustment(qc: QcInputs): boolean {
+  const lot = Object.values(qc.lots).some((l) => l.kv40 !== null || l.kv100 !== null || l.density15 !== null);
+  return lot || (qc.heel.massKg ?? 0) > 0 || qc.aimKv40 !== null;
+}
+
+/** A stock with the values of the lot in its tank: measured where entered, else the library's. */
+export interface LotValues {
+  id: string;
+  code: string;
+  kv40: number;
+  kv100: number;
+  density15: number;
+  /** Which values were measured. */
+  measured: { kv40: boolean; kv100: boolean; density15: boolean };
+}
+
+/** Lot values of the recipe's stocks (library values where nothing was measured). */
+export function lotValues(recipe: Recipe, byId: ReadonlyMap<string, Component>, qc: QcInputs): LotValues[] {
+  return recipe.lines
+    .filter((l) => l.massFraction > 0)
+    .map((l) => {
+      const c = byId.get(l.componentId);
+      if (!c) throw new Error(`the recipe names a stock that is no longer in the library (${l.componentId})`);
+      const own = blendingViscosities(c);
+      const lot = qc.lots[c.id];
+      return {
+        id: c.id,
+        code: c.code,
+        kv40: lot?.kv40 ?? own.kv40,
+        kv100: lot?.kv100 ?? own.kv100,
+        density15: lot?.density15 ?? c.density15,
+        measured: { kv40: lot?.kv40 != null, kv100: lot?.kv100 != null, density15: lot?.density15 != null },
+      };
+    });
+}
+
+/** The adjusted recipe, or why there is none. */
+export type Adjusted = { result: AdjustResult; lots: LotValues[]; aim: number; heelKg: number } | { error: string };
+
+/**
+ * The recipe re-solved for the lots, the heel and the aim (least change from the saved shares).
+ *
+ * @param batchKg - the batch's mass [kg], heel included
+ * @returns null when nothing is entered; else the core's answer or the message why it cannot be worked out
+ */
+export function adjustedRecipe(
+  recipe: Recipe,
+  components: readonly Component[],
+  qc: QcInputs,
+  batchKg: number,
+  method: BlendMethod,
+): Adjusted | null {
+  if (!hasAdjustment(qc)) return null;
+  const byId = new Map(components.map((c) => [c.id, c]));
+  try {
+    const lots = lotValues(recipe, byId, qc);
+    const aim = aimOf(recipe, qc);
+    const additive = recipeAdditive(recipe, byId);
+    const h = qc.heel;
+    const heelKg = h.massKg ?? 0;
+    let heel = null;
+    if (heelKg > 0) {
+      if (h.kv40 === null || h.kv100 === null) return { error: 'Enter the heel’s ν40 and ν100 (measured, or from the recipe it was made to).' };
+      heel = {
+        massKg: heelKg,
+        kv40: h.kv40,
+        kv100: h.kv100,
+        density15: h.density15 ?? 0.88,
+        additiveFraction: h.additiveFraction ?? additive?.massFraction ?? 0,
+      };
+    }
+    const stocks: AdjustStock[] = lots.map((l) => ({
+      id: l.id,
+      label: l.code,
+      kv40: l.kv40,
+      kv100: l.kv100,
+      density15: l.density15,
+      savedFraction: recipe.lines.find((x) => x.componentId === l.id)!.massFraction,
+    }));
+    const sum = stocks.reduce((s, x) => s + x.savedFraction, 0);
+    stocks.forEach((x) => (x.savedFraction /= sum));
+    const result = adjustRecipe({ stocks, batchKg, aimKv40: aim, additive, heel, method });
+    return { result, lots, aim, heelKg };
+  } catch (e) {
+    return { error: userMessage(e, { components }) };
+  }
+}
+
+/** ν100 at which a batch of measured ν40 keeps the VI `vi` (bisection on ASTM D2270; null if none). */
+export function kv100AtVi(kv40: number, vi: number): number | null {
+  let lo = 2.0;
+  let hi = kv40 * 0.999;
+  const f = (kv100: number) => viscosityIndex(kv40, kv100) - vi;
+  try {
+    if (f(lo) > 0 || f(hi) < 0) return null;
+    for (let k = 0; k < 80; k++) {
+      const mid = (lo + hi) / 2;
+      if (f(mid) < 0) lo = mid;
+      else hi = mid;
+    }
+    return (lo + hi) / 2;
+  } catch {
+    return null;
+  }
+}
+
+/** The correction worked out, with the problem it solved (for the printed sheet). */
+export type Correction =
+  | { problem: CorrectionProblem; result: CorrectionResult; band: { min: number; max: number }; kv100Estimated: boolean; codes: ReadonlyMap<string, string> }
+  | { error: string };
+
+/**
+ * The correction of a batch that missed: the additions that bring it into the band around the aim
+ * (within the release band) at least cost or least added mass, the additive topped up in proportion.
+ *
+ * @param releaseBand - the sheet's ν40 release band [mm²/s]
+ * @param predicted - the recipe's predicted ν40 and VI (a missing ν100 is estimated at this VI)
+ * @param batchKg - the batch size [kg] (the mass in the vessel when none is entered)
+ * @returns null until a measured ν40 is entered
+ */
+export function correctionFor(
+  recipe: Recipe,
+  components: readonly Component[],
+  qc: QcInputs,
+  opts: {
+    releaseBand: { min: number; max: number };
+    predictedVi: number | null;
+    batchKg: number | null;
+    targets: BlendTargets | null;
+    method: BlendMethod;
+  },
+): Correction | null {
+  const c = qc.correction;
+  if (c.kv40 === null) return null;
+  const byId = new Map(components.map((x) => [x.id, x]));
+  try {
+    const massKg = c.massKg ?? opts.batchKg;
+    if (massKg === null || !(massKg > 0)) return { error: 'Enter the mass of the batch in the vessel.' };
+    if (c.vesselLimitKg !== null && c.vesselLimitKg < massKg) {
+      return { error: `The vessel limit (${c.vesselLimitKg} kg) is below the ${massKg} kg already in it.` };
+    }
+    let kv100 = c.kv100;
+    const kv100Estimated = kv100 === null;
+    if (kv100 === null) {
+      kv100 = opts.predictedVi === null ? null : kv100AtVi(c.kv40, opts.predictedVi);
+      if (kv100 === null) return { error: 'Enter the batch’s measured ν100 as well (it cannot be estimated from the recipe’s VI).' };
+    }
+    const aim = aimOf(recipe, qc);
+    const b = (c.bandPct ?? DEFAULT_CORRECTION_BAND_PCT) / 100;
+    const lo = Math.max(opts.releaseBand.min, aim * (1 - b));
+    const hi = Math.min(opts.releaseBand.max, aim * (1 + b));
+    if (!(hi >= lo)) return { error: `The aim ${aim} mm²/s ± ${b * 100} % lies outside the release band.` };
+    const lots = new Map(lotValues(recipe, byId, qc).map((l) => [l.id, l]));
+    const ids = [...new Set([...recipe.lines.filter((l) => l.massFraction > 0).map((l) => l.componentId), ...c.stockIds])];
+    const additive = recipeAdditive(recipe, byId);
+    const codes = new Map<string, string>();
+    const stocks = ids.flatMap((id) => {
+      const k = byId.get(id);
+      if (!k) return [];
+      const own = blendingViscosities(k);
+      const lot = lots.get(id);
+      codes.set(k.code, id);
+      const onHand = c.onHandKg[id];
+      return [
+        {
+          id: k.code,
+          kv40: lot?.kv40 ?? own.kv40,
+          kv100: lot?.kv100 ?? own.kv100,
+          density15: lot?.density15 ?? k.density15,
+          anilinePoint: k.anilinePoint ?? 0,
+          pricePerKg: pricePerKg(k.price, k.density15),
+          ...(onHand === null || onHand === undefined ? {} : { maxAddKg: onHand }),
+        },
+      ];
+    });
+    const problem: CorrectionProblem = {
+      vessel: { massKg, kv40: c.kv40, kv100, density15: recipe.lines.length ? densityOf(recipe, byId) : 0.88, anilinePoint: 0 },
+      components: stocks,
+      targetKv40: (lo + hi) / 2,
+      tolerancePct: hi + lo > 0 ? ((hi - lo) / (hi + lo)) * 100 : 0,
+      objective: c.objective,
+      ...(additive ? { additive: { id: byId.get(additive.id)!.code, massFraction: additive.massFraction } } : {}),
+      ...(c.vesselLimitKg === null ? {} : { maxFinalMassKg: c.vesselLimitKg }),
+      ...(opts.targets?.minVi === null || opts.targets?.minVi === undefined ? {} : { minVi: opts.targets.minVi }),
+    };
+    return { problem, result: correctBatchPlain(problem, opts.method), band: { min: lo, max: hi }, kv100Estimated, codes };
+  } catch (e) {
+    return { error: userMessage(e, { components }) };
+  }
+}
+
+/** Blend density of the recipe by ideal mixing [kg/L]. */
+function densityOf(recipe: Recipe, byId: ReadonlyMap<string, Component>): number {
+  let v = 0;
+  let m = 0;
+  for (const l of recipe.lines) {
+    const c = byId.get(l.componentId);
+    if (!c || l.massFraction <= 0) continue;
+    m += l.massFraction;
+    v += l.massFraction / c.density15;
+  }
+  return v > 0 ? m / v : 0.88;
+}

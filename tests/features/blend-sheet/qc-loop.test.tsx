@@ -1,0 +1,79 @@
+// @vitest-environment jsdom
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import BlendSheetScreen from '../../../src/features/blend-sheet/BlendSheetScreen';
+import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
+
+beforeEach(() => {
+  resetDemo();
+  window.location.hash = '';
+  recipeActions.setActiveRecipe('demo-vg320');
+  settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.', thousandsGrouping: false });
+  recipeActions.setSheetInputs('demo-vg320', { batchSize: '10000' });
+});
+afterEach(cleanup);
+
+/** Type a value into a number field and leave it (commits it). */
+function enter(label: RegExp, value: string) {
+  const el = screen.getByLabelText(label) as HTMLInputElement;
+  fireEvent.focus(el);
+  fireEvent.change(el, { target: { value } });
+  fireEvent.blur(el);
+}
+const num = (t: string) => Number(t.replace(/[^\d.−-]/g, '').replace('−', '-'));
+
+describe('Blend sheet — the QC loop', () => {
+  it('states the probability in the release band and the ISO band for the recipe, on screen and in print', () => {
+    render(<BlendSheetScreen />);
+    expect(screen.getByTestId('sheet-in-band').textContent).toMatch(/of batches of this recipe land in the release band 304\.0–336\.0 mm²\/s/);
+    expect(screen.getByTestId('printed-in-band').textContent).toMatch(/% of batches of this recipe land in the ν40 release band/);
+  });
+
+  it('charges the recipe adjusted to a measured lot and a heel: heel line, both sets of shares, lot values printed', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Lot ν40 of BW-190/, '470');
+    enter(/^Heel mass/, '1500');
+    enter(/^Heel ν40/, '300');
+    enter(/^Heel ν100/, '23');
+    expect(screen.getByTestId('adjusted-caption').textContent).toMatch(/adjusted to the lots in the tanks and the heel, aim ν40 320\.0 mm²\/s/);
+    const table = screen.getByRole('table', { name: /Components, in charging order/ });
+    expect(within(table).getByRole('columnheader', { name: 'Saved mass %' })).toBeTruthy();
+    const heel = screen.getByTestId('heel-row');
+    expect(heel.textContent).toContain('1500.0');
+    const total = within(table).getAllByRole('row').at(-1)!;
+    // heel 1500 kg + additions 8500 kg = the 10 000 kg batch (the exact batch mass, largest-remainder rounding)
+    expect(total.textContent).toContain('8500.0');
+    expect(total.textContent).toContain('10000.0');
+    expect(screen.getByTestId('lot-values').textContent).toMatch(/BW-190 ν40 470\.0 \(lot\)/);
+    expect(screen.getByTestId('adjust-summary').textContent).toMatch(/batch ν40 320\.0 mm²\/s at the aim/);
+    expect(useRecipes.getState().qc['demo-vg320']!.heel.massKg).toBe(1500);
+  });
+
+  it('works out a correction of an off-grade batch and prints it as its own one-page sheet', () => {
+    const print = vi.fn();
+    window.print = print;
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const summary = screen.getByTestId('correction-summary').textContent!;
+    expect(summary).toMatch(/Add [\d.]+ kg of BW-190, [\d.]+ kg of BW-901/);
+    fireEvent.click(screen.getByRole('button', { name: 'Print correction sheet' }));
+    expect(print).toHaveBeenCalledTimes(1);
+    expect(screen.getByTestId('correction-sheet').closest('[data-print]')!.getAttribute('data-print')).toBe('correction');
+    const sheet = screen.getByTestId('correction-sheet');
+    expect(within(sheet).getByText('Batch correction sheet')).toBeTruthy();
+    const predicted = num(within(sheet).getByTestId('correction-predicted').textContent!.match(/ν40 ([\d.]+) mm²\/s/)![1]!);
+    // lands within ±2 % of the aim 320 mm²/s (the correction's default band, common practice) and in the release band
+    expect(predicted).toBeGreaterThanOrEqual(313.6 * (1 - 1e-4));
+    expect(predicted).toBeLessThanOrEqual(326.4);
+    expect(within(sheet).getByText(/Predicted properties are estimates/)).toBeTruthy(); // the same cautions
+  });
+
+  it('says why in numbers when the vessel cannot take the correction', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '10100');
+    expect(screen.getByTestId('correction-reason').textContent).toMatch(/needs [\d,]+ kg of BW-190 .*the vessel takes only 100 kg more/);
+    expect(screen.queryByTestId('correction-sheet')).toBeNull();
+  });
+});
