@@ -219,7 +219,8 @@ export function formatWorkingInput(
  * @param num - formats a number with fixed decimals (the user's separator)
  */
 export function probabilityText(p: number, num: (x: number, digits: number) => string): string {
-  if (p < 1 && p >= 0.99995) return `> ${num(99.99, 2)} %`;
+  // 1 itself is only a rounding of Φ's far tail unless nothing varies; "> 99.99 %" is true either way.
+  if (p >= 0.99995) return `> ${num(99.99, 2)} %`;
   if (p >= 0.9995 && p < 1) return `${num(p * 100, 2)} %`;
   if (p > 0 && p < 0.0005) return `< ${num(0.05, 2)} %`;
   return `${num(p * 100, 1)} %`;

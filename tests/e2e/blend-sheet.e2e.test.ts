@@ -82,7 +82,7 @@ describe('blend sheet', () => {
     const codes = await openSheet(page, 'demo-vg320');
     expect(codes.length).toBeGreaterThan(1);
     await page.getByLabel('Batch / lot no.').fill('L-2025-0142');
-    await page.getByLabel('Vessel').fill('Kettle 3');
+    await page.getByLabel('Vessel', { exact: true }).fill('Kettle 3');
     await page.getByLabel('Batch size', { exact: true }).fill('5000');
     await page.getByText(/^5,?\u202f?000\.0 kg/).first().waitFor();
     await screenshot(page, 'blend-sheet-vg320');
@@ -122,7 +122,7 @@ describe('blend sheet', () => {
     const codes = await openSheet(page, 'demo-vg320');
     // The header fields typed in the previous test are remembered for this recipe across the reload.
     await expect(page.getByLabel('Batch / lot no.').inputValue()).resolves.toBe('L-2025-0142');
-    await expect(page.getByLabel('Vessel').inputValue()).resolves.toBe('Kettle 3');
+    await expect(page.getByLabel('Vessel', { exact: true }).inputValue()).resolves.toBe('Kettle 3');
     await expect(page.getByLabel('Batch size', { exact: true }).inputValue()).resolves.toBe('5000');
     await page.getByLabel('Batch size', { exact: true }).fill('1000');
     await page.getByLabel('Costing copy').check();
@@ -214,7 +214,7 @@ describe('blend sheet', () => {
     const codes = await openSheet(page, 'e2e-twelve');
     expect(codes).toHaveLength(12);
     await page.getByLabel('Batch / lot no.').fill('L-2025-0999');
-    await page.getByLabel('Vessel').fill('Blend tank 12');
+    await page.getByLabel('Vessel', { exact: true }).fill('Blend tank 12');
     await screenshot(page, 'blend-sheet-12');
 
     const pdf = await printPdf(page, 'blend-sheet-12-a4');

@@ -776,7 +776,16 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             </>
           ) : (
             <table className="bs-table bs-qc">
-              <caption id={`${id}-qc`}>3. Predicted properties and QC release</caption>
+              <caption id={`${id}-qc`}>
+                3. Predicted properties and QC release
+                {inBand ? (
+                  <span className="bs-caption-note" data-testid="printed-in-band">
+                    {' '}
+                    — lot spread (model): {probabilityText(inBand.plant.probability, fmt)} of batches in the ν40 release band,{' '}
+                    {probabilityText(inBand.iso.probability, fmt)} in the ISO band
+                  </span>
+                ) : null}
+              </caption>
               <thead>
                 <tr>
                   <th scope="col">Property</th>
@@ -808,12 +817,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           )}
           <p className="bs-note">
             {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
-            {inBand ? (
-              <span data-testid="printed-in-band">
-                Lot-to-lot spread of the stocks (model, an estimate): {probabilityText(inBand.plant.probability, fmt)} of batches of this recipe land in the ν40
-                release band, {probabilityText(inBand.iso.probability, fmt)} in the ISO band.{' '}
-              </span>
-            ) : null}
+
             Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
             from the product specification
             {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
