@@ -193,11 +193,11 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
   version: 8,
   schema: recipesDataSchema,
-  // Each recipe, each recipe's targets and blend sheet, and the line plan are records of their own
-  // when tabs merge their saves; the active recipe belongs to the tab.
+  // Each recipe, each recipe's targets, blend sheet and QC entries, and the line plan are records of
+  // their own when tabs merge their saves; the active recipe belongs to the tab.
   layout: {
     lists: { recipes: 'id' },
-    maps: ['targets', 'sheets'],
+    maps: ['targets', 'sheets', 'qc'],
     local: ['activeRecipeId'],
     label: (key, v) => {
       const [field, id] = key.split('/') as [string, string | undefined];
@@ -208,6 +208,7 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
       if (field === 'recipes') return v ? recipeWho(String((v as { name?: unknown }).name ?? '')) : 'a deleted recipe';
       if (field === 'targets' && id) return `the targets of ${nameOf(id)}`;
       if (field === 'sheets' && id) return `the blend sheet of ${nameOf(id)}`;
+      if (field === 'qc' && id) return `the QC entries of ${nameOf(id)}`;
       if (field === 'linePlan') return 'the line plan';
       return field;
     },
