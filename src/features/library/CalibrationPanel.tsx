@@ -100,11 +100,11 @@ export function checkTrial(
   }
   const { kv40, kv100 } = measured;
   if (kv40 === null || Number.isNaN(kv40)) errors.push('Enter the measured ν40 of the trial blend (mm²/s) as a number.');
-  else if (!(kv40 > 0)) errors.push(`The measured ν40 must be above zero (got ${kv40} mm²/s).`);
+  else if (!(kv40 > 0)) errors.push(`The measured ν40 must be above zero (got ${say(kv40)} mm²/s).`);
   if (kv100 === null || Number.isNaN(kv100)) errors.push('Enter the measured ν100 of the trial blend (mm²/s) as a number.');
-  else if (!(kv100 > 0)) errors.push(`The measured ν100 must be above zero (got ${kv100} mm²/s).`);
+  else if (!(kv100 > 0)) errors.push(`The measured ν100 must be above zero (got ${say(kv100)} mm²/s).`);
   if (kv40 !== null && kv100 !== null && kv40 > 0 && kv100 > 0 && kv100 >= kv40) {
-    errors.push(`The measured ν100 (${kv100} mm²/s) must be below the measured ν40 (${kv40} mm²/s): viscosity falls as temperature rises.`);
+    errors.push(`The measured ν100 (${say(kv100)} mm²/s) must be below the measured ν40 (${say(kv40)} mm²/s): viscosity falls as temperature rises.`);
   }
   return errors;
 }

@@ -18,15 +18,16 @@ function quantityVerdict(
   label: string,
   v: number | null,
   empty: string,
+  say: (v: number) => string,
 ): Verdict {
   if (v === null) return {};
   const r = NUMBER_RULES[rule];
   const kg = v * PER_UNIT[unit];
   const max = r.max / PER_UNIT[unit];
   if (r.minExclusive ? kg <= r.min : kg < r.min) {
-    return { error: `${label}: must be ${r.minExclusive ? 'above' : 'at least'} 0 ${unit}${empty}` };
+    return { error: `${label}: must be ${r.minExclusive ? 'above' : 'at least'} ${say(r.min / PER_UNIT[unit])} ${unit}${empty}` };
   }
-  if (kg > r.max) return { error: `${label}: at most ${max.toLocaleString('en-US')} ${unit} can be planned` };
+  if (kg > r.max) return { error: `${label}: at most ${say(max)} ${unit} can be planned` };
   return {};
 }
 
@@ -114,7 +115,7 @@ export function PlanInputs({
                       allowEmpty
                       size={9}
                       value={toShown(demands.get(r.id)?.kg)}
-                      validate={(v) => quantityVerdict('demandKg', unit, `Demand of ${r.name}`, v, ' (leave it empty to keep the recipe out of the plan)')}
+                      validate={(v) => quantityVerdict('demandKg', unit, `Demand of ${r.name}`, v, ' (leave it empty to keep the recipe out of the plan)', fmt.say)}
                       onCommit={(v) => linePlanActions.setDemand(r.id, v === null ? null : toKg(v), demands.get(r.id)?.keys)}
                       disabled={disabled}
                     />
@@ -244,6 +245,7 @@ function StockQuantities({
   remove: (c: Component) => { label: string; run: () => void } | null;
   disabled: boolean;
 }) {
+  const fmt = useFormat();
   return (
     <table className="data">
       <thead>
@@ -277,7 +279,7 @@ function StockQuantities({
                   allowEmpty={!required}
                   size={9}
                   value={v === null ? null : v / PER_UNIT[unit]}
-                  validate={(x) => quantityVerdict(rule, unit, label, x, '')}
+                  validate={(x) => quantityVerdict(rule, unit, label, x, '', fmt.say)}
                   onCommit={(x) => onCommit(c, x === null ? null : x * PER_UNIT[unit])}
                   disabled={disabled}
                 />

@@ -121,8 +121,16 @@ describe('Calibration from a trial blend (library details)', () => {
     fillMeasured(form, '-3', 'abc');
     solve(form);
     const alert = within(form).getByRole('alert').textContent!;
-    expect(alert).toContain('The measured ν40 must be above zero (got -3 mm²/s).');
+    expect(alert).toContain('The measured ν40 must be above zero (got −3 mm²/s).');
     expect(alert).toContain('Enter the measured ν100 of the trial blend (mm²/s) as a number.');
+  });
+
+  it('writes the measured values back in the user’s format (decimal comma)', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',' });
+    const form = openForm();
+    fillMeasured(form, '40,5', '45,5');
+    solve(form);
+    expect(within(form).getByRole('alert').textContent).toContain('The measured ν100 (45,5 mm²/s) must be below the measured ν40 (40,5 mm²/s)');
   });
 
   it('says when the stock being calibrated is not in the trial', () => {

@@ -5,7 +5,7 @@ import LinePlanScreen from '../../../src/features/lineplan/LinePlanScreen';
 import { setPlanWorkerFactory, type PlanReply, type PlanRequest, type PlanWorker } from '../../../src/features/lineplan/plan-client';
 import { screenActions } from '../../../src/features/lineplan/store';
 import { planLineScenarios } from '../../../src/core/lineplan/plan';
-import { resetDemo, useRecipes } from '../../../src/state';
+import { resetDemo, settingsActions, useRecipes } from '../../../src/state';
 
 /** The worker's job, run in this thread on the next task (jsdom has no Worker). */
 function inThreadPlanWorker(): PlanWorker {
@@ -153,5 +153,30 @@ describe('Whole-line plan screen', () => {
     await waitFor(() => expect(print).toHaveBeenCalledTimes(1));
     expect(document.querySelector('.lp-summary.print-page')).not.toBeNull();
     print.mockRestore();
+  });
+
+  it('writes every number in the user’s format: decimal comma, also in the refusal of a too-large demand', async () => {
+    settingsActions.updateSettings({ decimalSeparator: ',', thousandsGrouping: true });
+    try {
+      render(<LinePlanScreen />);
+      // The stored limit is 1e10 kg = 1e7 t (field rule demandKg); with "," as the decimal separator a
+      // "10,000,000" would read as ten. Design choice, not a check value.
+      enter(/Demand of “Gear oil VG 220/, '20000000');
+      const alert = screen.getByRole('alert').textContent ?? '';
+      expect(alert).toMatch(/at most 10000000 t can be planned/);
+      expect(alert).not.toMatch(/\d,\d{3}/);
+      cleanup();
+      settingsActions.updateSettings({ thousandsGrouping: false }); // so that any "." would be a decimal point
+      await planDemo();
+      await screen.findByTestId('allocation-table', {}, { timeout: 10_000 });
+      await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+      // Costs, tonnes, shares, the allocation table and the printed summary: comma decimals only.
+      const text = document.body.textContent ?? '';
+      expect(screen.getByTestId('plan-results').textContent).toMatch(/\d,\d/);
+      expect(screen.getByTestId('plan-summary').textContent).toMatch(/\d,\d/);
+      expect(text).not.toMatch(/\d\.\d/);
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.', thousandsGrouping: true });
+    }
   });
 });
