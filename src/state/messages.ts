@@ -70,6 +70,14 @@ export function userMessage(e: unknown, ctx: Context): string {
   const words = ctx.words ?? FILE_NUMBERS;
   const { components } = ctx;
   if (e instanceof BlendbenchInputError) {
+    // A line plan names the grade: "grades[2].targets.…" with the message "VG 320: …".
+    const grade = /^grades\[\d+\]\.(.+)$/.exec(e.field);
+    if (grade) {
+      const opening = /^(.+?): /.exec(e.message)?.[1];
+      const label = opening && !/^[a-z]+[A-Z][A-Za-z]*$/.test(opening) ? opening : undefined; // not a function name
+      const inner = userMessage(new BlendbenchInputError(grade[1]!, e.value, label ? e.message.slice(label.length + 2) : e.message), ctx);
+      return label ? `${label}: ${inner}` : inner;
+    }
     const f = e.field;
     const bound = /^targets\.bounds\.(.+?)(?:\.(min|max))?$/.exec(f);
     if (bound) {

@@ -41,6 +41,13 @@ describe('core errors in the user’s words', () => {
     expect(m).toMatch(/tolerance/);
   });
 
+  it('a line plan’s error keeps the grade’s name and drops the plan’s field path', () => {
+    const e = new BlendbenchInputError('grades[1].targets.bounds.demo-bw-280', { min: 0.4, max: 0.3 }, 'VG 320: prepareComponents: the minimum …');
+    expect(userMessage(e, { components })).toBe('VG 320: BW-280: minimum 40 % is above its maximum 30 %. Lower the minimum or raise the maximum (Per-stock limits).');
+    const d = new BlendbenchInputError('grades[0].demandKg', -1, 'planLine: the demand for VG 220 must be above 0');
+    expect(userMessage(d, { components })).toBe('The demand for VG 220 must be above 0');
+  });
+
   it('an error from a prediction names the stock and the property', () => {
     const bad = lib.map((c) => (c.id === 'demo-bw-280' ? { ...c, viscosityPoints: [{ tempC: 40, kv: 100 }, { tempC: 100, kv: 0.1 }] } : c));
     let caught: unknown;

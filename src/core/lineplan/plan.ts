@@ -135,6 +135,8 @@ export interface LinePlanInfeasible {
 export interface LinePlanInvalid {
   status: 'invalid-input';
   field: string;
+  /** The offending value, as the core's error gives it. */
+  value?: unknown;
   message: string;
 }
 
@@ -245,7 +247,7 @@ export function planLine(input: LinePlanInput): LinePlanResult {
   try {
     plan = prepareLinePlan(input);
   } catch (e) {
-    if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, message: e.message };
+    if (e instanceof BlendbenchInputError) return { status: 'invalid-input', field: e.field, value: e.value, message: e.message };
     throw e;
   }
   return solvePreparedLinePlan(plan);
@@ -458,7 +460,7 @@ export function planLineScenarios(input: LinePlanInput, limited: readonly string
     lasting = solvePreparedLinePlan(plan);
   } catch (e) {
     if (!(e instanceof BlendbenchInputError)) throw e;
-    lasting = { status: 'invalid-input', field: e.field, message: e.message };
+    lasting = { status: 'invalid-input', field: e.field, value: e.value, message: e.message };
   }
   const after = planLine({ ...input, withdraw: [...(input.withdraw ?? []), ...limited] });
   let lpCount = (lasting.status === 'invalid-input' ? 0 : lasting.lpCount) + (after.status === 'invalid-input' ? 0 : after.lpCount);

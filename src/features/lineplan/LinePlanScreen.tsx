@@ -7,6 +7,9 @@ import { useFormat } from '../../components/format';
 import { adoptPlanRevisions, todayIso, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis } from '../../core/recipes/stock-basis';
+import { BlendbenchInputError } from '../../core/errors';
+import type { LinePlanResult } from '../../core/lineplan/plan';
+import { userMessage } from '../../state/messages';
 import { derivePlan } from './derive';
 import { PlanInputs } from './PlanInputs';
 import { PlanResults, type AdoptProps } from './PlanResults';
@@ -61,9 +64,14 @@ export default function LinePlanScreen() {
     const basis = { components, recipes, targets, linePlan, settings };
     const t0 = performance.now();
     const o = await runPlan(derived.input, derived.limited);
-    if (o.kind === 'done') screenActions.finished(o.result, basis, derived.limited, derived.input.supplyKg ?? {}, performance.now() - t0);
-    else if (o.kind === 'cancelled') screenActions.cancelled();
-    else screenActions.failed(o.message);
+    // The core names fields and functions (for programmers): the screen says it in the user's words.
+    const say = (r: LinePlanResult): LinePlanResult =>
+      r.status === 'invalid-input' ? { ...r, message: userMessage(new BlendbenchInputError(r.field, r.value, r.message), { components, words: fmt }) } : r;
+    if (o.kind === 'done') {
+      const result = { ...o.result, lasting: say(o.result.lasting), after: say(o.result.after) };
+      screenActions.finished(result, basis, derived.limited, derived.input.supplyKg ?? {}, performance.now() - t0);
+    } else if (o.kind === 'cancelled') screenActions.cancelled();
+    else screenActions.failed(userMessage(new Error(o.message), { components, words: fmt }));
   };
 
   // What the views of the result share (the run's limited stocks and supplies, codes, period, format).

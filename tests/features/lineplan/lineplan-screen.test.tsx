@@ -155,6 +155,19 @@ describe('Whole-line plan screen', () => {
     print.mockRestore();
   });
 
+  it('says in the user’s words why a grade’s saved limits cannot be planned: no field paths, function names or stock ids', async () => {
+    // Saved data the entry screens would refuse (e.g. from an older version): BW-280 at least 40 % and at most 30 % in VG 320.
+    const { defaultTargets } = await import('../../../src/state/demo');
+    useRecipes.setState((s) => ({
+      targets: { ...s.targets, 'demo-vg320': { ...defaultTargets(320, null, null), bounds: { 'demo-bw-280': { min: 0.4, max: 0.3 } } } },
+    }));
+    await planDemo();
+    const text = screen.getByTestId('plan-lasting').textContent ?? '';
+    expect(text).toContain('BW-280: minimum 40 % is above its maximum 30 %');
+    expect(text).toMatch(/VG 320/);
+    expect(text).not.toMatch(/prepareComponents|planLine|grades\[|targets\.|demo-/);
+  });
+
   it('writes every number in the user’s format: decimal comma, also in the refusal of a too-large demand', async () => {
     settingsActions.updateSettings({ decimalSeparator: ',', thousandsGrouping: true });
     try {
