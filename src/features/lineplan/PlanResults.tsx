@@ -145,7 +145,7 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
               </th>
               <th scope="col">Recipe (mass %)</th>
               <th scope="col" className="num">
-                Cost per litre (15 °C)
+                Cost per litre <span className="lp-keep">(15 °C)</span>
               </th>
               <th scope="col" className="num">
                 Change
