@@ -292,6 +292,8 @@ export {
   solvableLibrary,
   describeRate,
   unpricedMessage,
+  pricingFor,
+  rateDecimals,
 } from './currency/exchange-rates';
 
 // The plant's QC loop: lot spread and probability in band, robust recipes, lot-adjusted recipe,

@@ -93,6 +93,7 @@ describe('whole-line plan', () => {
     expect(flat).toContain(totalOnScreen.replace(/[\u202f\u00a0]/g, ' '));
     expect(flat).toContain(costOnScreen.replace(/[\u202f\u00a0]/g, ' '));
     expect(text).toMatch(/laboratory\s+confirmation/);
+    expect(text).toMatch(/Plan only — not for batching or release/);
     expect(text).not.toContain('Plan the line'); // nothing of the app around it
     execFileSync('pdftoppm', ['-png', '-r', '80', pdf, join(SCREEN_DIR, 'lineplan-summary')]);
 

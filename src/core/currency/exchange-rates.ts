@@ -137,6 +137,41 @@ export function solvableLibrary(priced: PricedLibrary): Component[] {
 }
 
 /**
+ * The exchange rates and the unpriced stocks behind the cost of some stocks (one recipe's, or a
+ * plan's), for printing beside that cost.
+ *
+ * @param priced - from {@link priceLibraryInBase}
+ * @param quoted - the library as entered (prices in their quoted currencies)
+ * @param ids - ids of the stocks whose cost is shown
+ * @returns the rates used by those stocks (in `priced.ratesUsed` order) and those of them without a rate
+ * @example pricingFor(priced, library, ['bw-160']) // → { ratesUsed: [{ currency: 'USD', rate: 0.92, … }], unpriced: [] }
+ */
+export function pricingFor(
+  priced: PricedLibrary,
+  quoted: readonly Component[],
+  ids: Iterable<string>,
+): { ratesUsed: ExchangeRate[]; unpriced: UnpricedStock[] } {
+  const wanted = new Set(ids);
+  const currencies = new Set(quoted.filter((c) => wanted.has(c.id)).map((c) => normaliseCurrency(c.price.currency)));
+  return {
+    ratesUsed: priced.ratesUsed.filter((r) => currencies.has(normaliseCurrency(r.currency))),
+    unpriced: priced.unpriced.filter((u) => wanted.has(u.componentId)),
+  };
+}
+
+/**
+ * Decimals that print an exchange rate as entered: at least 2, at most 6.
+ *
+ * @param rate - the rate
+ * @returns the number of decimals
+ * @example rateDecimals(0.9215) // → 4
+ */
+export function rateDecimals(rate: number): number {
+  for (let d = 2; d < 6; d++) if (Math.abs(Number(rate.toFixed(d)) - rate) < 1e-12 * Math.max(1, Math.abs(rate))) return d;
+  return 6;
+}
+
+/**
  * The line printed on costing copies for a rate: "USD → EUR 0.92 as of 2026-11-30".
  *
  * @param rate - the rate entry

@@ -6,7 +6,7 @@ import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendProperties } from '../../core/formulation/blend-properties';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
-import { describeRate, normaliseCurrency, priceLibraryInBase, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
+import { describeRate, priceLibraryInBase, pricingFor, rateDecimals, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
@@ -102,12 +102,6 @@ function Refusal({ id, message }: { id: string; message: string | null }) {
       {message}. Not saved; the last saved value is kept.
     </span>
   );
-}
-
-/** Decimals that print an exchange rate as entered (at least 2, at most 6). */
-function rateDecimals(x: number): number {
-  for (let d = 2; d < 6; d++) if (Math.abs(Number(x.toFixed(d)) - x) < 1e-12 * Math.max(1, Math.abs(x))) return d;
-  return 6;
 }
 
 function errorText(e: unknown, components: readonly Component[]): string {
@@ -308,12 +302,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const byId = new Map(components.map((c) => [c.id, c]));
   const codeOf = (id: string) => byId.get(id)?.code ?? id;
   // Exchange rates behind this recipe's costs, and its stocks that have no rate.
-  const recipeIds = new Set(recipe.lines.map((l) => l.componentId));
-  const ratesUsed =
-    exchange && priced
-      ? priced.ratesUsed.filter((r) => recipe.lines.some((l) => normaliseCurrency(byId.get(l.componentId)?.price.currency ?? '') === normaliseCurrency(r.currency)))
-      : [];
-  const unpriced = priced ? priced.unpriced.filter((u) => recipeIds.has(u.componentId)) : [];
+  const { ratesUsed, unpriced } = priced
+    ? pricingFor(priced, components, recipe.lines.map((l) => l.componentId))
+    : { ratesUsed: [], unpriced: [] };
   const superseded = recipe.supersedes ? (recipes.find((r) => r.id === recipe.supersedes) ?? null) : null;
   const changes = superseded ? shareChanges(superseded.lines, recipe.lines) : [];
   const holdId = `${id}-hold`;

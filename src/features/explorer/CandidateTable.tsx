@@ -160,7 +160,7 @@ export const CandidateTable = memo(function CandidateTable({
       <p className="muted" data-testid="grouping-note">
         Stocks listed by share, largest first. Recipes that differ only by an equivalent source share a row: same category, ν40 and ν100
         within {fmt.num(tol.viscosityPct, 0)} %, density within {fmt.num(tol.densityKgL, 3)} kg/L, aniline point within{' '}
-        {fmt.num(tol.anilineC, 0)} °C (common practice, no source).
+        {fmt.num(fmt.tempValue(tol.anilineC) - fmt.tempValue(0), fmt.tempUnit === '°C' ? 0 : 1)} {fmt.tempUnit} (common practice, no source).
       </p>
       <table className="data-table" data-testid="candidates">
         <thead>

@@ -48,7 +48,11 @@ function lineList(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Compon
   );
 }
 
-export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt: Formatter): Row[] {
+/**
+ * The comparison's rows. `polymerCap` (mass fraction) is the cap the polymer share is held against:
+ * the search's, or the common-practice default when the search had none.
+ */
+export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt: Formatter, polymerCap: number): Row[] {
   const r = ref?.props;
   const c = cand?.props;
   const rows: Row[] = [];
@@ -119,6 +123,22 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   const shearText = (a: Assessed | null) =>
     !a?.shear ? '—' : a.shear.unchanged ? 'yes (no polymer loss)' : `${a.shear.inGradeAfter ? 'yes' : 'NO'} (ν40 ${fmt.num(a.shear.kv40After, 1)})`;
   rows.push({ label: 'In grade after shear', ref: shearText(ref), cand: shearText(cand), change: '' });
+  const poly = (w: number | undefined): ReactNode =>
+    w === undefined ? (
+      '—'
+    ) : (
+      <>
+        {fmt.num(w * 100, 1)}
+        {w > polymerCap + 1e-6 && <span className="tag tag-bad"> above the {fmt.num(polymerCap * 100, 0)} % cap</span>}
+      </>
+    );
+  rows.push({
+    label: 'Polymer thickener, mass %',
+    ref: poly(r?.polymerFraction),
+    cand: poly(c?.polymerFraction),
+    change: r && c ? delta(r.polymerFraction * 100, c.polymerFraction * 100, fmt, 1) : '—',
+    tone: r && c ? tone(c.polymerFraction - r.polymerFraction, true) : undefined,
+  });
   rows.push({ label: 'Density at 15 °C, kg/L', ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
   return rows;
 }
@@ -144,6 +164,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   settings,
   adoptedName,
   onAdopt,
+  polymerCap,
 }: {
   reference: Recipe;
   candidate: SubstituteCandidate;
@@ -154,6 +175,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   settings: Settings;
   adoptedName: string | null;
   onAdopt: () => void;
+  /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
+  polymerCap: number;
 }) {
   const fmt = useFormat();
   const byId = useMemo(() => new Map(components.map((c) => [c.id, c])), [components]);
@@ -167,7 +190,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
       }),
     [components, candidate, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC, reference.grade],
   );
-  const rows = comparisonRows(refAssessed, candAssessed, fmt);
+  const rows = comparisonRows(refAssessed, candAssessed, fmt, polymerCap);
   const summary = useMemo(() => {
     try {
       return compareRecipes({

@@ -12,7 +12,7 @@ import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-ba
 import { StockChangeList } from '../../components/recipe-status';
 import { startSearch, type SearchHandle } from './search-client';
 import { useExplorerStore, type Scenario } from './store';
-import { CandidateTable } from './CandidateTable';
+import { CandidateTable, polymerShare } from './CandidateTable';
 import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
 import './explorer.css';
@@ -29,7 +29,6 @@ const RANKING_LABEL: Record<Objective, string> = {
 
 let running: SearchHandle | null = null;
 
-/** Targets of the search: the reference's stored targets (or defaults for its grade), ranked by `objective`. */
 /**
  * Targets of the search: the reference's stored targets (or defaults for its grade), ranked by
  * `objective`. The polymer cap: `polymerCap` when given (null = none); otherwise the recipe's own cap,
@@ -213,6 +212,7 @@ export default function ExplorerScreen() {
                   settings={settings}
                   adoptedName={adoptedRecipe?.name ?? null}
                   onAdopt={() => adopt(selected)}
+                  polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
                 />
               )}
             </div>
@@ -259,6 +259,11 @@ function ScenarioForm({
 }) {
   const fmt = useFormat();
   const refChanges = useMemo(() => (reference ? stockBasisChanges(reference.stockBasis, components) : []), [reference, components]);
+  // The reference's polymer share, held against the search's cap (or the usual one when it has none).
+  const refPolymer = useMemo(
+    () => (reference ? polymerShare(reference, new Map(components.map((c) => [c.id, c]))) : null),
+    [reference, components],
+  );
   const refId = useId();
   const kId = useId();
   const objId = useId();
@@ -364,6 +369,14 @@ function ScenarioForm({
               }
             />
           </div>
+          {refPolymer !== null && refPolymer > (targets?.maxPolymerFraction ?? DEFAULT_MAX_POLYMER_FRACTION) + 1e-6 && (
+            <p className="field-warning" data-testid="reference-polymer-warning">
+              The reference recipe holds {fmt.num(refPolymer * 100, 0)} % polymer thickener,{' '}
+              {targets?.maxPolymerFraction == null
+                ? `above the usual ${fmt.num(DEFAULT_MAX_POLYMER_FRACTION * 100, 0)} % (common practice, no source); this search has no cap.`
+                : `above the ${fmt.num(targets.maxPolymerFraction * 100, 0)} % cap: the search offers only recipes within the cap.`}
+            </p>
+          )}
         </div>
         <fieldset className="withdrawn">
           <legend>Stocks to treat as withdrawn</legend>

@@ -4,8 +4,8 @@ import { useDeferredValue, useEffect, useMemo, useState, type ComponentType } fr
 import type { AllocationPanelProps } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { adoptPlanRevisions, todayIso, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
-import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
+import { adoptPlanRevisions, todayIso, useLibrary, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { pricingFor, solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { BlendbenchInputError } from '../../core/errors';
 import type { LinePlanResult } from '../../core/lineplan/plan';
@@ -22,6 +22,7 @@ import './lineplan.css';
 export default function LinePlanScreen() {
   // Prices restated in the base currency at the boundary (Settings → exchange rates); stocks whose
   // currency has no rate are left out of the plan, and the screen says so.
+  const quoted = useLibrary((s) => s.components);
   const priced = usePricedLibrary();
   const components = priced.components;
   const recipes = useRecipes((s) => s.recipes);
@@ -40,6 +41,14 @@ export default function LinePlanScreen() {
   const planning = st.status === 'planning';
   // The printable summary follows the result in a later, interruptible render: the plans show first.
   const summaryResult = useDeferredValue(st.result);
+  // The exchange rates behind the summary's costs: the stocks of both plans and of the current recipes.
+  const summaryPricing = useMemo(() => {
+    const ids = new Set(derived.grades.flatMap((g) => g.recipe.lines.map((l) => l.componentId)));
+    for (const plan of summaryResult ? [summaryResult.lasting, summaryResult.after] : []) {
+      if (plan.status === 'optimal') for (const u of plan.stockUse) ids.add(u.id);
+    }
+    return { base: priced.base, ...pricingFor(priced, quoted, ids) };
+  }, [derived, summaryResult, priced, quoted]);
   const b = st.basis;
   const stale =
     b !== null &&
@@ -204,7 +213,7 @@ export default function LinePlanScreen() {
               <p className="small muted">Your browser’s print dialog also saves a PDF.</p>
             </div>
             {summaryResult && (
-              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} />
+              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} pricing={summaryPricing} />
             )}
           </section>
         </>

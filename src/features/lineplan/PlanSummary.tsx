@@ -2,6 +2,7 @@
 // totals and cautions. Printed through the shared print path (components/print.css), as the blend sheet.
 import { useId, type ReactNode } from 'react';
 import type { LinePlanGradeResult, LinePlanScenarios } from '../../core/lineplan/plan';
+import { describeRate, rateDecimals, unpricedMessage, type ExchangeRate, type UnpricedStock } from '../../core/currency/exchange-rates';
 import '../../components/print.css';
 import type { PlanWhich } from './store';
 import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnesNumber, type PlanView } from './words';
@@ -9,7 +10,6 @@ import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonn
 export const SUMMARY_CAUTIONS: readonly string[] = [
   'Predicted properties are estimates by published methods (Refutas or ASTM D7152 blending, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
   'Costs use the library’s prices on the day of printing; demands and supplies are the planner’s own figures.',
-  'A planned recipe is made only after it is adopted as a new revision, approved, and batched from its own blend sheet.',
   'Safety data sheets, site procedures and local regulations govern the handling of hot oil and additive packages; this plan does not replace them.',
 ];
 
@@ -21,9 +21,15 @@ export interface PlanSummaryProps {
   /** Date printed on the summary (YYYY-MM-DD). */
   today: string;
   paper: 'a4' | 'letter';
+  /** The base currency of every cost, the exchange rates behind them and the stocks left out for want of a rate. */
+  pricing?: { base: string; ratesUsed: readonly ExchangeRate[]; unpriced: readonly UnpricedStock[] };
 }
 
-export function PlanSummary({ result, which, view, companyName, today, paper }: PlanSummaryProps) {
+/** Printed under the title: the summary plans, it does not release (item 11 of issue 10). */
+export const PLAN_NOT_FOR_RELEASE =
+  'Plan only — not for batching or release: each planned recipe is a prediction, made only after it is adopted as a new revision, approved, and batched from its own blend sheet.';
+
+export function PlanSummary({ result, which, view, companyName, today, paper, pricing }: PlanSummaryProps) {
   const id = useId();
   const { fmt, period, supplyKg, code } = view;
   const plan = which === 'lasting' ? result.lasting : result.after;
@@ -41,6 +47,9 @@ export function PlanSummary({ result, which, view, companyName, today, paper }: 
       <p className="lps-sub">
         <strong>{PLAN_TITLE[which]}</strong> ({planAssumes(view, which)})
         {' · '}Demand {overPeriod(period)} · Printed {today} · Least total cost over the period, each grade to its own saved limits
+      </p>
+      <p className="lps-hold" data-testid="summary-not-for-release">
+        <strong>{PLAN_NOT_FOR_RELEASE}</strong>
       </p>
 
       {plan.status !== 'optimal' ? (
@@ -153,6 +162,13 @@ export function PlanSummary({ result, which, view, companyName, today, paper }: 
         </>
       )}
 
+      {pricing && (pricing.ratesUsed.length > 0 || pricing.unpriced.length > 0) && (
+        <p className="lps-pricing" data-testid="summary-pricing">
+          {pricing.ratesUsed.length > 0 &&
+            `Prices converted at ${pricing.ratesUsed.map((r) => describeRate(r, pricing.base, (x) => fmt.num(x, rateDecimals(x)))).join('; ')}. `}
+          {pricing.unpriced.length > 0 && unpricedMessage(pricing.unpriced, pricing.base)}
+        </p>
+      )}
       <section className="lps-cautions">
         <h3>Cautions</h3>
         <ul>

@@ -4,6 +4,8 @@ import {
   normaliseCurrency,
   priceInBase,
   priceLibraryInBase,
+  pricingFor,
+  rateDecimals,
   rateToBase,
   solvableLibrary,
   unpricedMessage,
@@ -49,5 +51,21 @@ describe('exchange rates at the boundary', () => {
   it('describes a rate as printed on costing copies', () => {
     expect(describeRate(rates[0]!, 'eur')).toBe('USD → EUR 0.92 as of 2026-11-30');
     expect(describeRate({ currency: 'USD', rate: 0.92, asOf: '' }, 'EUR')).toBe('USD → EUR 0.92 (date not given)');
+  });
+
+  it('names the rates and unpriced stocks behind the cost of some stocks only', () => {
+    const eur = makeComponent(STOCKS.g2heavy!);
+    const usd = { ...makeComponent(STOCKS.g2hv!), price: { amount: 2000, basis: 'per-tonne' as const, currency: 'usd' } };
+    const gbp = { ...makeComponent(STOCKS.pao6!), price: { amount: 3, basis: 'per-kg' as const, currency: '£' } };
+    const lib = [eur, usd, gbp];
+    const priced = priceLibraryInBase(lib, 'EUR', rates);
+    expect(pricingFor(priced, lib, [eur.id])).toEqual({ ratesUsed: [], unpriced: [] });
+    expect(pricingFor(priced, lib, [eur.id, usd.id])).toEqual({ ratesUsed: [rates[0]], unpriced: [] });
+    expect(pricingFor(priced, lib, [gbp.id, usd.id])).toEqual({ ratesUsed: [rates[0]], unpriced: [{ componentId: 'pao6', code: 'PAO6', currency: '£' }] });
+  });
+
+  it('prints a rate with the decimals it was entered with (2 to 6)', () => {
+    // common practice (no source): a rate is quoted to 2–6 decimals
+    expect([0.92, 0.9215, 1, 1.23456789, 0.5].map(rateDecimals)).toEqual([2, 4, 2, 6, 2]);
   });
 });

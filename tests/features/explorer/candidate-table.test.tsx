@@ -11,6 +11,7 @@ import { scenarioTargets } from '../../../src/features/explorer/ExplorerScreen';
 import { useExplorerStore } from '../../../src/features/explorer/store';
 import { demoComponents, demoRecipes } from '../../../src/state/demo';
 import type { SubstituteCandidate } from '../../../src/core/search/substitutes';
+import { settingsActions } from '../../../src/state';
 
 afterEach(cleanup);
 
@@ -101,5 +102,15 @@ describe('candidate table', () => {
     expect(scenarioTargets(ref, { ...uncappedTargets, maxPolymerFraction: 0.3 }, lib, 'cost').maxPolymerFraction).toBe(0.3);
     // cleared for this search: no cap
     expect(scenarioTargets(ref, uncappedTargets, lib, 'cost', null).maxPolymerFraction).toBeNull();
+  });
+});
+
+describe('candidate table in °F', () => {
+  afterEach(() => settingsActions.updateSettings({ temperatureUnit: 'C' }));
+  it('states the aniline tolerance in the unit chosen in the settings', () => {
+    settingsActions.updateSettings({ temperatureUnit: 'F' });
+    renderTable([cand(1, [['BW-280', 0.98], ['BW-901', 0.02]], 1.5)]);
+    // 3 °C difference = 5.4 °F (ΔF = 1.8 ΔC, by hand)
+    expect(screen.getByTestId('grouping-note').textContent).toMatch(/aniline point within 5.4 °F/);
   });
 });

@@ -4,13 +4,13 @@ import { cleanup, fireEvent, render, screen, waitFor, within } from '@testing-li
 import ExplorerScreen from '../../../src/features/explorer/ExplorerScreen';
 import { setWorkerFactory } from '../../../src/features/explorer/search-client';
 import { useExplorerStore } from '../../../src/features/explorer/store';
-import { resetDemo, useRecipes } from '../../../src/state';
+import { recipeActions, resetDemo, useRecipes } from '../../../src/state';
 import { inThreadWorker } from './in-thread-worker';
 
 beforeEach(() => {
   resetDemo();
   setWorkerFactory(inThreadWorker());
-  useExplorerStore.setState({ referenceId: null, withdrawn: [], maxComponents: 3, status: 'idle', result: null, resultFor: null, progress: null, selectedKey: null, adopted: {} });
+  useExplorerStore.setState({ referenceId: null, polymerCap: undefined, withdrawn: [], maxComponents: 3, status: 'idle', result: null, resultFor: null, progress: null, selectedKey: null, adopted: {} });
 });
 afterEach(() => {
   cleanup();
@@ -63,5 +63,49 @@ describe('Substitute explorer', () => {
     expect(r.lines.some((l) => l.componentId === 'demo-bw-190')).toBe(false);
     expect(useRecipes.getState().activeRecipeId).toBe(r.id);
     expect(screen.getByTestId('adopted').textContent).toContain(r.name);
+  });
+});
+
+describe('Substitute explorer: polymer cap (issue 10, item 21)', () => {
+  /** An invented polymer-rich reference: 40 % BW-510 thickener (recipe shares, not a calculation). */
+  function polymerRichReference(): string {
+    const id = recipeActions.addRecipe({
+      name: 'Thickened VG 320 (invented)',
+      grade: 320,
+      lines: [
+        { componentId: 'demo-bw-510', massFraction: 0.4 },
+        { componentId: 'demo-bw-220', massFraction: 0.58 },
+        { componentId: 'demo-bw-901', massFraction: 0.02 },
+      ],
+    });
+    useExplorerStore.setState({ referenceId: id });
+    return id;
+  }
+
+  it('warns beside a reference recipe beyond the search’s polymer cap, and beyond the usual cap when the search has none', () => {
+    polymerRichReference();
+    render(<ExplorerScreen />);
+    // 25 %: the default cap (common practice, no source)
+    expect(screen.getByTestId('reference-polymer-warning').textContent).toMatch(/The reference recipe holds 40 % polymer thickener, above the 25 % cap/);
+    const cap = screen.getByLabelText(/Polymer cap/);
+    fireEvent.focus(cap);
+    fireEvent.change(cap, { target: { value: '' } });
+    fireEvent.keyDown(cap, { key: 'Enter' });
+    expect(screen.getByTestId('reference-polymer-warning').textContent).toMatch(/above the usual 25 % \(common practice, no source\); this search has no cap/);
+    fireEvent.focus(cap);
+    fireEvent.change(cap, { target: { value: '45' } });
+    fireEvent.keyDown(cap, { key: 'Enter' });
+    expect(screen.queryByTestId('reference-polymer-warning')).toBeNull();
+  });
+
+  it('shows the polymer share of the reference and the candidate side by side, flagging the one beyond the cap', async () => {
+    polymerRichReference();
+    render(<ExplorerScreen />);
+    fireEvent.click(screen.getByText('Run search'));
+    await screen.findByTestId('candidates', {}, { timeout: 30000 });
+    const row = within(screen.getByTestId('comparison')).getByText('Polymer thickener, mass %').closest('tr')!;
+    const [ref, cand] = [...row.querySelectorAll('td')].map((td) => td.textContent);
+    expect(ref).toMatch(/^40\.0.*above the 25 % cap/);
+    expect(cand).not.toMatch(/above/);
   });
 });

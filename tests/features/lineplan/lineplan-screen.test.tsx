@@ -5,7 +5,7 @@ import LinePlanScreen from '../../../src/features/lineplan/LinePlanScreen';
 import { setPlanWorkerFactory, type PlanReply, type PlanRequest, type PlanWorker } from '../../../src/features/lineplan/plan-client';
 import { screenActions } from '../../../src/features/lineplan/store';
 import { planLineScenarios } from '../../../src/core/lineplan/plan';
-import { resetDemo, settingsActions, useRecipes } from '../../../src/state';
+import { resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 
 /** The worker's job, run in this thread on the next task (jsdom has no Worker). */
 function inThreadPlanWorker(): PlanWorker {
@@ -152,6 +152,8 @@ describe('Whole-line plan screen', () => {
     fireEvent.click(screen.getByText('Print summary'));
     await waitFor(() => expect(print).toHaveBeenCalledTimes(1));
     expect(document.querySelector('.lp-summary.print-page')).not.toBeNull();
+    // a plan is not a batching document: the summary says so under its title (issue 10, item 11)
+    expect(screen.getByTestId('summary-not-for-release').textContent).toMatch(/^Plan only — not for batching or release/);
     print.mockRestore();
   });
 
@@ -191,5 +193,35 @@ describe('Whole-line plan screen', () => {
     } finally {
       settingsActions.updateSettings({ decimalSeparator: '.', thousandsGrouping: true });
     }
+  });
+});
+
+describe('Whole-line plan with a stock priced in another currency (issue 10, item 13)', () => {
+  beforeEach(() => {
+    settingsActions.updateSettings({ baseCurrency: 'EUR', exchangeRates: [] });
+    // BW-160 is priced in USD (invented): 1040 USD per tonne.
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    useLibrary.getState().updateComponent(c.id, { price: { ...c.price, currency: 'USD' } });
+  });
+  afterEach(() => settingsActions.updateSettings({ exchangeRates: [] }));
+
+  it('names the stock without a rate, leaves it out and still plans, never adding USD into EUR', async () => {
+    await planDemo();
+    const named = screen.getAllByText(/BW-160 is priced in USD, which has no exchange rate to EUR/);
+    expect(named.some((e) => !e.closest('[data-testid="plan-summary"]'))).toBe(true); // on screen, not only on paper
+    const lasting = screen.getByTestId('plan-lasting');
+    expect(lasting.textContent).not.toMatch(/currenc|USD/);
+    const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+    // the VG 320 demo recipe holds BW-160: the current recipes cannot be costed, and the summary says why
+    expect(within(summary).getByTestId('summary-pricing').textContent).toMatch(/BW-160 is priced in USD, which has no exchange rate to EUR/);
+  });
+
+  it('restates the price with the entered rate and prints the rate on the summary', async () => {
+    // Invented rate (not market data).
+    settingsActions.updateSettings({ exchangeRates: [{ currency: 'USD', rate: 0.5, asOf: '2026-11-30' }] });
+    await planDemo();
+    expect(screen.queryByText(/no exchange rate/)).toBeNull();
+    const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+    expect(within(summary).getByTestId('summary-pricing').textContent).toMatch(/Prices converted at USD → EUR 0\.50 as of 2026-11-30/);
   });
 });
