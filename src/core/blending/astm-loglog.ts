@@ -13,8 +13,9 @@
  * blending viscosity calibrated from a measured blend, see `Calibration` in model.ts).
  *
  * @see ASTM D7152, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
- *   ASTM Blending Method (constant temperature); ASTM D341-20 for Z. Form as in
- *   shared/reference/check-values.md §3 (B4, computed there with Z = ν + 0.7).
+ *   ASTM Blending Method (constant temperature); ASTM D341-20 for Z. Form as recalled
+ *   (no copy of D7152 at hand); D7152-11's published definition: "a blending method at constant
+ *   temperature, using components in volume percent".
  */
 import { ViscosityOutOfRangeError, assertFinite, assertFractions, assertViscosity } from '../errors';
 import { D341_MIN_KV, d341LogLogZ, kvFromD341LogLogZ } from '../viscosity/viscosity-temperature';

@@ -9,16 +9,20 @@
  *
  * VCF (the table's "volume correction factor", CTL) turns a volume at t into the volume at 15 °C;
  * the density at t is ρ₁₅ times the same factor. Valid for the lubricating-oil commodity group over
- * ρ₁₅ = 800–1164 kg/m³ (Table 54D's density range, from memory) and, in Blendbench's use, −20…150 °C.
+ * ρ₁₅ = 800–1164 kg/m³ (Table 54D's density range, as listed by fuel_mcp, below) and, in Blendbench's use, −20…150 °C.
  * Outside the density range the same equation is used and {@link lubeTableInRange} says so (an
  * additive package or a polar Group V fluid is not a lubricating oil in the tables' sense either).
  *
- * Constant check: the 2004 revision (API MPMS 11.1-2004 / ASTM D1250-04, base 60 °F) gives the
- * lubricating-oil group K₀ = 0, K₁ = 0.34878 per °F with ρ in kg/m³ and a range of 800.9–1163.5 kg/m³
- * (as listed in the documentation of an open-source thermodynamics library); 0.34878 × 1.8 = 0.62780
- * per °C, the 1980 metric constant used here. The 2004 revision also shifts temperatures to ITS-90 and
- * rounds intermediate values; this implementation does not round (the printed tables give VCF to
- * 4–5 decimals), so it agrees with the tables to their last printed digit, not beyond.
+ * What is verified and what is not: no copy of the printed tables was at hand, and no published
+ * Table 54D value was found to check a VCF against. The constants and the form were verified against
+ * independent open-source implementations: Zubastic120993/fuel_mcp (`vcf_official_full.py`, "ISO 91-1 /
+ * ASTM D1250 Tables 54A–54D"): Table 54D K₀ = 0, K₁ = 0.6278, ρ₁₅ 800–1164 kg/m³, with the same
+ * α and VCF equations; and joe02740/energycal (`src/lib/calc/REFERENCE.md` §2.3, API MPMS 11.1-2004):
+ * lubricating oils K₀ = 0, K₁ = 0.34878, 800.9–1163.5 kg/m³ — the per-°F constant of the 60 °F tables
+ * (0.34878 × 1.8 = 0.62780 per °C, the metric constant used here). The 2004 revision also shifts
+ * temperatures to ITS-90 and rounds intermediate values; this implementation does not round (the
+ * printed tables give VCF to 4–5 decimals), so it should agree with them to their last printed digit,
+ * not beyond — unchecked against a printed row.
  *
  * @see ASTM D1250-80 (API MPMS 11.1, 1980), Volume X, Table 54D; ISO 91-1:1992.
  */

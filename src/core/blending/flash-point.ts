@@ -6,9 +6,14 @@
  *   BI_blend = Σ φᵢ·BIᵢ,   T_blend = 2414/(log₁₀ BI_blend + 6.1188) + 42.6
  *
  * The same index is often printed in °F: log₁₀ BI = −6.1188 + 4345.2/(t_F + 383). The two forms are
- * one equation (T − 42.6 K = (t_F + 383)/1.8 and 2414 × 1.8 = 4345.2) — checked in the tests; the
- * constants themselves are from memory (shared/reference/check-values.md F1), no copy of the paper
- * being at hand.
+ * one equation (T − 42.6 K = (t_F + 383)/1.8 and 2414 × 1.8 = 4345.2) — checked in the tests.
+ *
+ * What is verified and what is not: the constants (−6.1188, 2414, 42.6) reproduce, to the printed
+ * whole number, every row of a published flash-point blending table (flash point 20–110 °C → index,
+ * e.g. 20 °C → 3281, 50 °C → 306, 110 °C → 9; R. J. Patel, "Flash Point Prediction – Petroleum
+ * Products Blending – Calculation formula and table", 2017), which blends the index by volume as here.
+ * That table does not name its origin: the attribution to Wickey and Chittenden, the paper's
+ * citation and the fitted range below remain from memory (no copy of the paper at hand).
  *
  * The index is large for low flash points, so a small share of a volatile component (e.g. an
  * additive package's light diluent) lowers the blend flash point more than its share suggests —

@@ -6,9 +6,13 @@
  *   BI_blend = Σ φᵢ·BIᵢ,   T_blend = BI_blend^0.08
  *
  * Hu and Burns wrote the index in degrees Rankine; the result does not depend on which absolute
- * scale is used (every index scales by the same factor 1.8^12.5), which the tests check. The
- * exponent 1/0.08 is from memory (shared/reference/check-values.md P1); no copy of the paper is at
- * hand. Fitted range: distillate fuel blends with pour points of roughly
+ * scale is used (every index scales by the same factor 1.8^12.5), which the tests check.
+ *
+ * What is verified and what is not: the citation (authors, title, journal, volume, page) is as listed
+ * in the references of Fahim, Al-Sahhaf and Elkilani, "Fundamentals of Petroleum Refining" (2010),
+ * chapter "Product Blending" — Oil & Gas Journal, not Hydrocarbon Processing as first recalled. The
+ * form BI = T^(1/0.08) and its exponent could not be checked against a published copy and stay from
+ * memory. Fitted range: distillate fuel blends with pour points of roughly
  * {@link POUR_INDEX_FITTED_C} = −50…+10 °C (from memory); outside it the app marks the estimate as an
  * extrapolation ({@link pourIndexExtrapolated}).
  *
@@ -16,8 +20,9 @@
  * blend's pour point must be measured (ASTM D97) before release. The app flags every value from
  * here as an estimate.
  *
- * @see Hu, J. and Burns, A. M., "Index predicts cloud, pour and flash points of distillate fuel
- *   blends", Hydrocarbon Processing 49 (11) (1970) 213–216 (citation from memory).
+ * @see Hu, J. and Burns, A., "Index predicts cloud, pour and flash points of distillate fuel blends",
+ *   Oil & Gas Journal 68 (45) (1970) 66 (as cited in Fahim et al., Fundamentals of Petroleum Refining,
+ *   2010, ch. Product Blending).
  */
 import { BlendbenchInputError, assertFinite, assertTemperatureC } from '../errors';
 import { blendByVolumeIndex } from './volume-index';

@@ -23,10 +23,18 @@
  * D7152 states that its methods may not apply to viscosity-index improvers, additive packages or
  * strongly non-Newtonian fluids (calibrate those from a measured blend).
  *
- * Source note: the form above is the constant-viscosity (iso-viscous) interpolation in log T that the
- * Wright method of ASTM D7152 is known by — written from memory (no copy of D7152 at hand) and
- * checked here only for self-consistency: the closed form against the definition solved numerically
- * by an independent root finder (tests).
+ * Source note: no copy of D7152 was at hand; the form above (the constant-viscosity interpolation in
+ * log T) was written from memory and then verified, not changed, against:
+ * - the published scope of D7152-11 (2016): the Wright Blending Methods need each component's
+ *   viscosity at two temperatures, are "generally preferred", work "at constant viscosity" (the
+ *   standard's Excel adjunct), and use volume fractions (mass fractions "with minimal error" for base
+ *   stocks); the ASTM Blending Method works at constant temperature;
+ * - an independent implementation of D7152-11 with two temperatures per component
+ *   (rensalzado/DiluentESPOptimization, `cInjectionObj.m`, `BlendingASTM_D7152`), which solves
+ *   Σ xᵢ·log Tᵢ(W) = log T_blend for the blend's W = log log Z — the same equation; the tests compare
+ *   the two to 1e-9;
+ * - the closed form against the definition solved by an independent root finder (tests).
+ * The D7152 worked example itself was not available: no check value from the standard.
  *
  * @see ASTM D7152, Standard Practice for Calculating Viscosity of a Blend of Petroleum Products,
  *   Wright method (the standard calls it generally preferred to the ASTM Blending Method);

@@ -15,7 +15,7 @@
  * test results. Sulfur and saturates are checked only where entered (null = not measured).
  *
  * @see API 1509, Engine Oil Licensing and Certification System, Appendix E (base-stock
- *   interchangeability), Table E-1 (categories as restated in shared/reference/check-values.md §6).
+ *   interchangeability), Table E-1 (categories as recalled; common practice).
  */
 import type { ComponentCategory } from '../formulation/model';
 

@@ -132,7 +132,7 @@ const ROLE_RANK: Record<ChargeRole, number> = {
  * The charging role of a component category. Groups I–IV are base stocks; Group V fluids (esters,
  * alkylated naphthalene, alkylbenzene) are treated as solvency boosters, charged after the base
  * stocks; polymers next, the additive package last.
- * Source: /work/shared/domain/gear-oil-blending.md, "Blending practice" (common practice).
+ * Source: common practice of gear-oil blending plants (no published source).
  *
  * @param category - the component's category
  * @returns its charging role
@@ -268,7 +268,7 @@ function pricePerKgOf(c: Component): number | null {
  * given as a volume V, M = V·ρ with 1/ρ = Σ wᵢ/ρᵢ. Volume fractions φᵢ = Vᵢ/V.
  * Displayed values are rounded by {@link largestRemainderUnits} so each column sums to its total.
  *
- * Default charging order (common practice, /work/shared/domain/gear-oil-blending.md): base stocks,
+ * Default charging order (common practice of blending plants, no published source): base stocks,
  * most viscous first; then solvency boosters; then polymers (added slowly or pre-dissolved); the
  * additive package last. Within a role: higher ν40 first, then larger mass, then stock code.
  *
@@ -443,7 +443,7 @@ export interface InstructionOptions {
  * Default blending instructions for the sheet, one step per string, in the order the operator works.
  * Editable: the print view offers them as text the plant changes to its own procedure.
  *
- * Source: /work/shared/domain/gear-oil-blending.md, "Blending practice and cautions" — charge base
+ * Source: common practice of blending plants (no published source) — charge base
  * stocks, heat to about 50–65 °C, add polymer slowly or pre-dissolved, additive package last, mix
  * until uniform (often 30–60 min), sample for QC (common practice).
  *

@@ -20,6 +20,16 @@
  * 2e-4 mm²/s at 2 mm²/s and to rounding from about 4 mm²/s upward (tests check it with an independent
  * root finder).
  *
+ * What is verified and what is not (no copy of D341-20 was at hand): the constants of Z and of the
+ * inverse agree with three independent transcriptions — DWSIM (DanWBR/dwsim, petroleum
+ * characterisation, `PropertyMethods`), a public MATLAB script citing ASTM D341-09(2015) Annex A1,
+ * Eqs. A1.1–A1.3 (so the single-term Z predates the 2020 edition), and a pipeline-toolbox wiki page on
+ * D341. The two-point line, ν at T and T at ν reproduce published worked examples on the same line
+ * (olezol.com's D341 calculator, Examples 1 and 2; a D341 spreadsheet's A = 9.5259, B = 3.7449), and
+ * below 2 mm²/s the single term follows the earlier editions' six-term series (as carried by DWSIM) to
+ * 0.15 % in Z from 0.5 to 3 mm²/s — all in the tests. D341-20's own worked example was not available,
+ * and the 0.21 mm²/s lower limit stays from memory.
+ *
  * Extrapolation beyond the measured points, below the pour point, or for polymer-thickened oils at
  * low temperature is arithmetic, not a prediction (common practice): {@link assessTemperature} flags
  * results outside the fitted temperatures and outside the −20…150 °C band

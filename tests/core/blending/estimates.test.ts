@@ -17,6 +17,23 @@ describe('flash point by blending index', () => {
     expectClose(flashBlendingIndex(20), 3281, 0.5);
     expectClose(flashBlendingIndex(50), 306.0, 0.5);
   });
+  it('reproduces every row of a published flash-point blending table (20–110 °C, whole numbers)', () => {
+    // published table: R. J. Patel, "Flash Point Prediction - Petroleum Products Blending - Calculation
+    // formula and table" (2017): flash point [°C] → index A, blended by volume %; printed as whole numbers,
+    // so each row must agree within ±0.5. Every row of the table is checked.
+    const table: Record<number, number> = {
+      20: 3281, 21: 3004, 22: 2752, 23: 2524, 24: 2315, 25: 2126, 26: 1953, 27: 1795, 28: 1652, 29: 1520,
+      30: 1400, 31: 1291, 32: 1190, 33: 1098, 34: 1014, 35: 937, 36: 866, 37: 801, 38: 742, 39: 687,
+      40: 636, 41: 590, 42: 547, 43: 508, 44: 472, 45: 438, 46: 408, 47: 379, 48: 353, 49: 328,
+      50: 306, 51: 285, 52: 266, 53: 248, 54: 232, 55: 216, 56: 202, 57: 189, 58: 177, 59: 165,
+      60: 155, 61: 145, 62: 136, 63: 127, 64: 119, 65: 112, 66: 105, 67: 99, 68: 93, 69: 87,
+      70: 82, 71: 77, 72: 72, 73: 68, 74: 64, 75: 60, 76: 57, 77: 54, 78: 51, 79: 48,
+      80: 45, 81: 43, 82: 40, 83: 38, 84: 36, 85: 34, 86: 32, 87: 30, 88: 29, 89: 27,
+      90: 26, 91: 24, 92: 23, 93: 22, 94: 21, 95: 20, 96: 19, 97: 18, 98: 17, 99: 16,
+      100: 15, 101: 15, 102: 14, 103: 13, 104: 12, 105: 12, 106: 11, 107: 11, 108: 10, 109: 10, 110: 9,
+    };
+    for (const [t, a] of Object.entries(table)) expectClose(flashBlendingIndex(Number(t)), a, 0.5);
+  });
   it('F2: 50/50 by volume of 200 °C and 250 °C → 215.95 °C', () => {
     // formula (shared/reference/check-values.md F2)
     expectClose(
