@@ -140,7 +140,7 @@ describe('blend sheet', () => {
     ]);
     const csv = readFileSync(await download.path(), 'utf8').replace(/^\uFEFF/, '');
     const lines = csv.trim().split(/\r\n/);
-    expect(lines[0]).toMatch(/^Charge order,Code,Name,Category,Mass %,Volume %,kg,Litres at 15 °C,Running total kg,Price per kg/);
+    expect(lines[0]).toMatch(/^Charge order,Code,Name,Category,Mass %,Volume %,kg,Litres at 15 °C,Litres at 60 °C \(metering\),Running total kg,Price per kg/);
     expect(lines).toHaveLength(codes.length + 2);
     expect(lines.at(-1)).toMatch(/^,TOTAL,,,100\.00,100\.00,1000\.0,/);
     await page.getByLabel('Plant copy (no prices)').check();

@@ -756,9 +756,15 @@ export interface CsvFixed {
  */
 export type CsvRecord = Record<string, string | number | CsvFixed | null>;
 
+/** A metering temperature as printed in a header: whole degrees, or one decimal when it has one. */
+function meteringLabel(tempC: number): string {
+  return Number.isInteger(tempC) ? String(tempC) : tempC.toFixed(1);
+}
+
 /**
  * The component table as CSV records, in charging order, with a final totals row. Numbers carry the
- * displayed precision (the columns still add up to the printed totals).
+ * displayed precision (the columns still add up to the printed totals). With a metering temperature
+ * the sheet's "L at t" column follows the 15 °C litres, its header naming t (ASTM D1250-80 Table 54D).
  *
  * @param sheet - the sheet from {@link buildBlendSheet}
  * @param options - `includePrices`: add price per kg and line cost columns (costing copy only)
@@ -771,6 +777,9 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
   const currency = sheet.costing.available ? sheet.costing.currency : '';
   const at = (value: number, decimals: number): CsvFixed => ({ value, decimals });
   const priceKey = `Price per kg${currency ? ` (${currency})` : ''}`;
+  // The metering column names its temperature (never a bare "litres"); "(metering)" keeps it apart from
+  // the 15 °C column even when the plant meters at 15 °C.
+  const meterKey = sheet.metering ? `Litres at ${meteringLabel(sheet.metering.tempC)} °C (metering)` : null;
   const costKey = `Line cost${currency ? ` (${currency})` : ''}`;
   const records: CsvRecord[] = sheet.rows.map((r) => {
     const rec: CsvRecord = {
@@ -782,8 +791,9 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
       'Volume %': at(r.volumePct, pd),
       kg: at(r.kg, qd),
       'Litres at 15 °C': at(r.litres, qd),
-      'Running total kg': at(r.runningKg, qd),
     };
+    if (meterKey) rec[meterKey] = r.litresAtMetering === null ? null : at(r.litresAtMetering, qd);
+    rec['Running total kg'] = at(r.runningKg, qd);
     if (priced) {
       rec[priceKey] = r.pricePerKg === null ? null : at(r.pricePerKg, 4);
       rec[costKey] = r.lineCost === null ? null : at(r.lineCost, 2);
@@ -799,8 +809,9 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
     'Volume %': at(100, pd),
     kg: at(sheet.totalKg, qd),
     'Litres at 15 °C': at(sheet.totalLitres, qd),
-    'Running total kg': at(sheet.totalKg, qd),
   };
+  if (meterKey) total[meterKey] = at(sheet.metering!.totalLitres, qd);
+  total['Running total kg'] = at(sheet.totalKg, qd);
   if (priced) {
     total[priceKey] = sheet.costing.available ? at(sheet.costing.perKg, 4) : null;
     total[costKey] = sheet.costing.available ? at(sheet.costing.perBatch, 2) : null;

@@ -400,4 +400,32 @@ describe('litres at the metering temperature (issue 13 §8)', () => {
     expect(sheet.metering!.totalLitres).toBeGreaterThan(sheet.totalLitres);
     expect(buildBlendSheet(lib, recipe, { kg: 10000 }).metering).toBeNull();
   });
+
+  it('the CSV export carries the column, its header naming the temperature, and its total', async () => {
+    const { buildBlendSheet, blendSheetCsvRows } = await import('../../../src/core/sheet/blend-sheet');
+    const { makeComponent, STOCKS } = await import('../../helpers/formulation-fixtures');
+    const lib = [makeComponent(STOCKS.g2heavy!), makeComponent(STOCKS.g2hv!)];
+    const recipe = {
+      id: 'r', name: 'invented', grade: 320, revision: 1, isReference: false, notes: '', updatedAt: '2024-01-01T00:00:00Z',
+      lines: [
+        { componentId: 'g2heavy', massFraction: 0.4 },
+        { componentId: 'g2hv', massFraction: 0.6 },
+      ],
+    } as unknown as Parameters<typeof buildBlendSheet>[1];
+    const sheet = buildBlendSheet(lib, recipe, { kg: 10000 }, { meteringTempC: 60 });
+    const rows = blendSheetCsvRows(sheet);
+    expect(Object.keys(rows[0]!)).toEqual([
+      'Charge order', 'Code', 'Name', 'Category', 'Mass %', 'Volume %', 'kg', 'Litres at 15 °C', 'Litres at 60 °C (metering)', 'Running total kg',
+    ]);
+    // identity: the CSV cells are the sheet's displayed values (same decimals), the total row the column's total
+    sheet.rows.forEach((r, i) => expect(rows[i]!['Litres at 60 °C (metering)']).toEqual({ value: r.litresAtMetering, decimals: sheet.quantityDecimals }));
+    expect(rows.at(-1)!['Litres at 60 °C (metering)']).toEqual({ value: sheet.metering!.totalLitres, decimals: sheet.quantityDecimals });
+    // a plant metering at 15 °C still gets two distinct columns; a fractional temperature keeps its decimal
+    const at15 = blendSheetCsvRows(buildBlendSheet(lib, recipe, { kg: 10000 }, { meteringTempC: 15 }));
+    expect(Object.keys(at15[0]!)).toContain('Litres at 15 °C (metering)');
+    const at575 = blendSheetCsvRows(buildBlendSheet(lib, recipe, { kg: 10000 }, { meteringTempC: 57.5 }));
+    expect(Object.keys(at575[0]!)).toContain('Litres at 57.5 °C (metering)');
+    // without a metering temperature the export is as before
+    expect(Object.keys(blendSheetCsvRows(buildBlendSheet(lib, recipe, { kg: 10000 }))[0]!)).not.toContain('Litres at 60 °C (metering)');
+  });
 });
