@@ -31,6 +31,7 @@ export type CheckField =
   | 'price'
   | 'oxidationRating'
   | 'shearLossPct'
+  | 'shearLoss40Pct'
   | 'kv40LotSpreadPct'
   | 'category';
 
@@ -96,6 +97,7 @@ const RULE_OF: Partial<Record<CheckField, NumberRuleKey>> = {
   price: 'price',
   oxidationRating: 'oxidationRating',
   shearLossPct: 'shearLossPct',
+  shearLoss40Pct: 'shearLoss40Pct',
   kv40LotSpreadPct: 'kv40LotSpreadPct',
 };
 
@@ -170,6 +172,9 @@ function checkValueSpecific(field: CheckField, v: number | null, words: SayNumbe
       return {};
     case 'shearLossPct':
       if (v < 0 || v > 100) return { error: 'shear loss must be between 0 and 100 %' };
+      return outside(PLAUSIBLE.shearLossPct, 'a permanent shear loss', '%');
+    case 'shearLoss40Pct':
+      // The hard limits (0–100 %) are the field rule's (RULE_OF); the usual range is the ν100 loss's.
       return outside(PLAUSIBLE.shearLossPct, 'a permanent shear loss', '%');
     case 'kv40LotSpreadPct':
       // The hard limits (0–25 %) are the field rule's (RULE_OF); a wide spread is only unusual.
@@ -272,6 +277,7 @@ export function checkComponent(c: Component, others: readonly Component[] = []):
   add('price', checkValue('price', c.price.amount));
   add('oxidationRating', checkValue('oxidationRating', c.oxidationRating));
   add('shearLossPct', checkValue('shearLossPct', c.shearLossPct));
+  add('shearLoss40Pct', checkValue('shearLoss40Pct', c.shearLoss40Pct ?? null));
   add('kv40LotSpreadPct', checkValue('kv40LotSpreadPct', c.kv40LotSpreadPct));
   return { errors, warnings };
 }

@@ -38,6 +38,7 @@ export const CSV_COLUMNS = [
   'availability',
   'oxidation_rating',
   'shear_loss_pct',
+  'kv40_shear_loss_pct',
   'kv40_lot_spread_pct',
   'source',
   'source_date',
@@ -173,7 +174,8 @@ export function stockChanges(from: Component, to: Component): FieldChange[] {
   cmp('currency', from.price.currency, to.price.currency);
   cmp('availability', from.availability, to.availability);
   cmp('oxidation rating', from.oxidationRating, to.oxidationRating);
-  cmp('shear loss [%]', from.shearLossPct, to.shearLossPct);
+  cmp('ν100 shear loss [%]', from.shearLossPct, to.shearLossPct);
+  cmp('ν40 shear loss [%]', from.shearLoss40Pct ?? null, to.shearLoss40Pct ?? null);
   cmp('lot spread of ν40 [%]', from.kv40LotSpreadPct, to.kv40LotSpreadPct);
   const cal = (c: Component) => (c.calibration ? `calibrated ${c.calibration.calibratedOn} (${c.calibration.trial.labReference || 'no lab reference'})` : null);
   if (JSON.stringify(from.calibration) !== JSON.stringify(to.calibration)) out.push({ field: 'calibration', from: shown(cal(from)), to: shown(cal(to)) });
@@ -386,13 +388,17 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
         price: { amount: price ?? 0, basis: basis ?? base.price.basis, currency: get('currency').trim() || base.price.currency },
         availability: AVAILABILITY.includes(availability) ? availability : base.availability,
         oxidationRating: opt('oxidation_rating', 'oxidation rating', base.oxidationRating),
-        shearLossPct: opt('shear_loss_pct', 'shear loss', base.shearLossPct),
+        shearLossPct: opt('shear_loss_pct', 'ν100 shear loss', base.shearLossPct),
         kv40LotSpreadPct: opt('kv40_lot_spread_pct', 'lot spread of ν40', base.kv40LotSpreadPct),
         calibration: match?.calibration ?? null,
         source: text('source', base.source),
         sourceDate: text('source_date', base.sourceDate),
         notes: text('notes', base.notes, false),
       };
+      // The ν40 shear loss is an optional field of the model: a blank cell for a stock that never had one
+      // leaves it absent (so a CSV round trip changes nothing); otherwise the cell sets or clears it.
+      const loss40 = opt('kv40_shear_loss_pct', 'ν40 shear loss', base.shearLoss40Pct ?? null);
+      if (loss40 !== null || base.shearLoss40Pct !== undefined) candidate.shearLoss40Pct = loss40;
       if (!candidate.code) errors.push('code: a stock code is required');
       return finishRow(line, candidate, errors, stored, seen);
     };

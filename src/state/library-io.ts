@@ -42,6 +42,7 @@ export function libraryToCsv(components: readonly Component[]): string {
       availability: c.availability,
       oxidation_rating: c.oxidationRating,
       shear_loss_pct: c.shearLossPct,
+      kv40_shear_loss_pct: c.shearLoss40Pct ?? null,
       kv40_lot_spread_pct: c.kv40LotSpreadPct,
       source: c.source,
       source_date: c.sourceDate,

@@ -1,3 +1,4 @@
+import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { demoComponents } from '../../src/state/demo';
 import { libraryToCsv, libraryToJson, previewCsv, previewJson, previewLibraryImport } from '../../src/state/library-io';
@@ -144,6 +145,31 @@ describe('CSV update semantics (issue 10 item 3)', () => {
     expect(rb!.changes).toEqual([]);
     expect(p.updates).toBe(1);
     expect(p.unchanged).toBe(1);
+  });
+
+  it('the measured ν40 shear loss has its own column: exported, imported, shown in the preview, checked by its field rule', () => {
+    const lib = demoComponents();
+    const poly = lib.find((c) => c.category === 'polymer')!;
+    const withLoss = lib.map((c) => (c.id === poly.id ? { ...c, shearLoss40Pct: 4.5 } : c));
+    // export: the column sits beside the ν100 loss and carries the value (blank where none is stated)
+    const csv = libraryToCsv(withLoss);
+    const [cols, ...rows] = Papa.parse<string[]>(csv.trim()).data;
+    expect(cols!.indexOf('kv40_shear_loss_pct')).toBe(cols!.indexOf('shear_loss_pct') + 1);
+    const polyRow = rows.find((r) => r[0] === poly.code)!;
+    expect(polyRow[cols!.indexOf('kv40_shear_loss_pct')]).toBe('4.5');
+    // import back: unchanged; into the library without the value: one change, named, blank → 4.5
+    expect(previewCsv(csv, withLoss).rows.every((r) => r.action === 'unchanged')).toBe(true);
+    const upd = previewCsv(csv, lib).rows.find((r) => r.code === poly.code)!;
+    expect(upd.action).toBe('update');
+    expect(upd.changes).toEqual([{ field: 'ν40 shear loss [%]', from: '(blank)', to: '4.5' }]);
+    expect(upd.component!.shearLoss40Pct).toBe(4.5);
+    // the field rule (0–100 %) refuses 120 % in the user's words; a file without the column keeps the stored value
+    const at = (t: number) => poly.viscosityPoints.find((p) => p.tempC === t)!.kv;
+    const bad = previewCsv(`${REQUIRED_ONLY},kv40_shear_loss_pct\n${poly.code},polymer,${at(40)},${at(100)},${poly.density15},${poly.price.amount},120\n`, lib);
+    expect(bad.valid).toBe(false);
+    expect(bad.rows[0]!.errors.join()).toMatch(/ν40 shear loss/);
+    const kept = previewCsv(`${REQUIRED_ONLY}\n${poly.code},polymer,${at(40)},${at(100)},${poly.density15},${poly.price.amount}\n`, withLoss);
+    expect(kept.rows[0]!.component!.shearLoss40Pct).toBe(4.5);
   });
 
   it('a new stock without optional columns takes the defaults (available, per kg)', () => {

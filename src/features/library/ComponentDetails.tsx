@@ -127,6 +127,16 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           onCommit={(v) => onUpdate(c.id, { shearLossPct: v })}
         />
         <NumberField
+          label="Permanent shear loss of ν40"
+          unit="%"
+          allowEmpty
+          size={4}
+          value={c.shearLoss40Pct ?? null}
+          validate={(v) => checkValue('shearLoss40Pct', v, fmt)}
+          onCommit={(v) => onUpdate(c.id, { shearLoss40Pct: v })}
+          hint={<span className="muted small"> measured at 40 °C (ISO 26422); empty = the ν100 loss carried over</span>}
+        />
+        <NumberField
           label="Lot-to-lot spread of ν40"
           unit="% (relative std. dev.)"
           allowEmpty

@@ -92,7 +92,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
         Rows are matched on stock code: a known code updates that stock (recipes keep using it), a new code adds one. In a CSV
         update, a column the file does not have keeps the stored value; an empty cell clears an optional value. Nothing changes
         until you confirm a file without errors. Up to {fmt.num(COLLECTION_LIMITS.importRows, 0)} rows. CSV columns:{' '}
-        <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in °C, viscosities in mm²/s, density in kg/L;
+        <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in °C, viscosities in mm²/s, density in kg/L, shear losses in %;
         kv40_lot_spread_pct is the lot-to-lot relative standard deviation of ν40 in %, blank = the category default).
       </p>
       <label htmlFor={fileId} className="field-label">

@@ -73,6 +73,22 @@ describe('Library screen', () => {
     expect(bs().kv40LotSpreadPct).toBe(3.5);
   });
 
+  it('takes a measured ν40 shear loss beside the ν100 loss, checked by its field rule (0–100 %)', () => {
+    renderFor('BW-510');
+    fireEvent.click(screen.getByRole('button', { name: 'More fields of BW-510' }));
+    const loss40 = screen.getByLabelText('Permanent shear loss of ν40 [%]');
+    expect(screen.getByLabelText('Permanent shear loss of ν100 [%]')).toBeTruthy();
+    const poly = () => useLibrary.getState().components.find((c) => c.code === 'BW-510')!;
+    type(loss40, '120');
+    expect(loss40.getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByText(/ν40 shear loss/)).toBeTruthy();
+    expect(poly().shearLoss40Pct ?? null).toBeNull(); // refused: nothing stored
+    type(loss40, '4.5');
+    expect(poly().shearLoss40Pct).toBe(4.5);
+    type(loss40, '');
+    expect(poly().shearLoss40Pct).toBeNull();
+  });
+
   it('rejects garbage and a density typed in kg/m³', () => {
     renderFor('BW-190');
     const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
