@@ -85,7 +85,7 @@ export function mm2sToCSt(mm2s: number): number {
 /** Display label of each price basis. */
 export const PRICE_BASIS_LABEL: Record<PriceBasis, string> = {
   'per-kg': 'per kg',
-  'per-litre': 'per litre',
+  'per-litre': 'per litre at 15 °C',
   'per-tonne': 'per tonne',
 };
 

@@ -113,7 +113,7 @@ const CATEGORY_ALIASES: Record<string, ComponentCategory> = (() => {
 
 const BASIS_ALIASES: Record<string, PriceBasis> = {
   'per-kg': 'per-kg', kg: 'per-kg', '/kg': 'per-kg', 'per kg': 'per-kg',
-  'per-litre': 'per-litre', 'per-liter': 'per-litre', l: 'per-litre', litre: 'per-litre', liter: 'per-litre', '/l': 'per-litre', 'per litre': 'per-litre',
+  'per-litre': 'per-litre', 'per-liter': 'per-litre', l: 'per-litre', litre: 'per-litre', liter: 'per-litre', '/l': 'per-litre', 'per litre': 'per-litre', 'per litre at 15 °c': 'per-litre',
   'per-tonne': 'per-tonne', t: 'per-tonne', tonne: 'per-tonne', '/t': 'per-tonne', 'per tonne': 'per-tonne', 'per-ton': 'per-tonne',
 };
 

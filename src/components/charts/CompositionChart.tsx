@@ -79,15 +79,15 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
         </div>
         <div>
           <ul className="chart-legend" aria-hidden="true">
-            <li><span className="block block-cost" /> cost, {currency} per litre of blend</li>
+            <li><span className="block block-cost" /> cost, {currency} per litre of blend at 15 °C</li>
           </ul>
           <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
             <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
             <XAxis type="number" domain={costDomain} ticks={costTicks} allowDataOverflow tickFormatter={(v: number) => f.num(v, tickDecimals(costDomain, 4))} />
             <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 3)} ${currency}/L`} />}
-            {!live && <Bar dataKey="cost" name={`cost, ${currency} per litre of blend`} fill={CHART_COLOURS.cost} isAnimationActive={false} />}
-            {live && <LiveBars which="cost" domain={costDomain} unit={`${currency}/L`} />}
+            {!live && <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 3)} ${currency}/L at 15 °C`} />}
+            {!live && <Bar dataKey="cost" name={`cost, ${currency} per litre of blend at 15 °C`} fill={CHART_COLOURS.cost} isAnimationActive={false} />}
+            {live && <LiveBars which="cost" domain={costDomain} unit={`${currency}/L at 15 °C`} />}
           </BarChart>
         </div>
       </div>
@@ -98,7 +98,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
 
 function describe(rows: readonly Pick<CompositionRow, 'label' | 'massPct' | 'volumePct' | 'costPerLitre'>[], currency: string, f: Formatter): string {
   return rows
-    .map((r) => `${r.label}: ${f.num(r.massPct, 1)} % by mass, ${f.num(r.volumePct, 1)} % by volume, ${f.num(r.costPerLitre, 3)} ${currency}/L`)
+    .map((r) => `${r.label}: ${f.num(r.massPct, 1)} % by mass, ${f.num(r.volumePct, 1)} % by volume, ${f.num(r.costPerLitre, 3)} ${currency}/L at 15 °C`)
     .join('; ');
 }
 

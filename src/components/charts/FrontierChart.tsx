@@ -7,7 +7,7 @@ import { useFormat } from '../format';
 export interface FrontierPoint {
   id: string;
   label: string;
-  /** Cost [currency per litre]. */
+  /** Cost [currency per litre at 15 °C]. */
   costPerLitre: number;
   /** Blend aniline point [°C]; lower = more solvent. */
   anilinePoint: number;
@@ -45,7 +45,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   const yDomain = ys.length ? niceDomain(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
   const xTicks = niceTicks(xDomain);
   const yTicks = niceTicks(yDomain);
-  const title = `Cost–solvency frontier (cost per litre against blend aniline point; lower aniline point = more solvent)`;
+  const title = `Cost–solvency frontier (cost per litre at 15 °C against blend aniline point; lower aniline point = more solvent)`;
   return (
     <figure className="chart" data-chart="frontier" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
@@ -58,7 +58,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             domain={xDomain}
             ticks={xTicks}
             tickFormatter={(v: number) => f.num(v, tickDecimals(xDomain))}
-            label={{ value: `cost, ${currency} per litre`, position: 'insideBottom', offset: -18 }}
+            label={{ value: `cost, ${currency} per litre at 15 °C`, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
             type="number"

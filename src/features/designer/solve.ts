@@ -61,7 +61,7 @@ export function runSolve(
       const cur = r.properties.currency ?? '';
       const parts = [
         `ν40 ${fmt.num(r.properties.kv40, 1)} mm²/s (band ${fmt.num(r.band.min, 1)}–${fmt.num(r.band.max, 1)})`,
-        cost === null ? null : `${fmt.num(cost, 3)} ${cur} per litre`,
+        cost === null ? null : `${fmt.num(cost, 3)} ${cur} per litre at 15 °C`,
         `${r.lines.length} components`,
         r.robust ? premiumText(r.robust, cost, r.inBand.plant.probability, cur, fmt) : null,
       ].filter(Boolean);

@@ -12,7 +12,8 @@ export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: s
   { value: 'limited', label: 'Limited' },
   { value: 'withdrawn', label: 'Withdrawn' },
 ];
-const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L', 'per-tonne': '/t' } as const;
+// A per-litre price is for litres at 15 °C (converted to per kg with the stock's ρ15).
+const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L at 15 °C', 'per-tonne': '/t' } as const;
 
 /** Set the viscosity at one temperature (replacing a point there, or adding one). */
 export function withKvAt(c: Component, tempC: number, kv: number): Component['viscosityPoints'] {

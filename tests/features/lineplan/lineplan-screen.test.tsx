@@ -110,6 +110,12 @@ describe('Whole-line plan screen', () => {
     expect(within(after).queryByText('BW-190')).toBeNull();
     expect((await screen.findByTestId('plan-summary', {}, { timeout: 10_000 })).textContent).toContain('Whole-line plan — summary');
     expect(screen.getByTestId('plan-summary').textContent).toMatch(/laboratory confirmation/);
+    // every per-litre figure says at which temperature its litres are counted (issue 13 §8)
+    expect(within(lasting).getByText('Cost per litre (15 °C)')).toBeTruthy();
+    const summary = screen.getByTestId('plan-summary').textContent ?? '';
+    expect(summary).toContain('Cost per litre (15 °C)');
+    expect(summary).toContain('Change per litre (15 °C)');
+    expect(summary.replace(/per litre \(15 °C\)/g, '')).not.toMatch(/per litre/);
   });
 
   it('adopts the plan’s recipes as draft revisions in one undo step, and undoes them', async () => {
