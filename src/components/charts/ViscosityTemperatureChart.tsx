@@ -1,6 +1,20 @@
 import { memo, useMemo } from 'react';
-import { CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
-import { d341Kv, d341LineFromPoints, d341TempC, d341X, d341Y, formatKvTick, kvAxis, temperatureTicks } from './d341-scale';
+import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
+import {
+  D341_SEGMENT_STYLE,
+  TRUSTED_BAND_C,
+  d341Kv,
+  d341LineFromPoints,
+  d341Segments,
+  d341TempC,
+  d341X,
+  d341Y,
+  formatKvTick,
+  kvAxis,
+  temperatureFlag,
+  temperatureTicks,
+  type D341SegmentKind,
+} from './d341-scale';
 import { useFormat } from '../format';
 import { CHART_COLOURS } from './palette';
 import { LiveD341Line } from './live';
@@ -16,6 +30,10 @@ export interface ViscosityLineInput {
   /** ν at 100 °C [mm²/s]. */
   kv100: number;
   role: OilRole;
+  /** Lowest and highest measured temperature of the oil's line [°C]; default 40 and 100. */
+  fittedC?: { minC: number; maxC: number };
+  /** Pour point [°C] (measured, or a blend's estimate): the line below it is drawn dotted; null/absent = unknown. */
+  pourPointC?: number | null;
 }
 
 export interface ViscosityTemperatureChartProps {
@@ -45,12 +63,15 @@ interface LineSeries {
   id: string;
   label: string;
   role: OilRole;
-  points: { x: number; y: number }[];
+  /** The line's stretches: measured, extrapolated, below the pour point (two points each). */
+  segments: { kind: D341SegmentKind; points: { x: number; y: number }[] }[];
 }
 
 /**
- * Viscosity against temperature on ASTM D341 axes: x = log10(T / K), y = log10(log10(ν + 0.7)),
- * so each oil is a straight line; ticks are labelled back in °C and mm²/s at round values.
+ * Viscosity against temperature on ASTM D341 axes: x = log10(T / K), y = log10(log10(Z)) with the
+ * D341-20 Z (the core's functions), so each oil is a straight line; ticks are labelled back in °C and
+ * mm²/s at round values. Each line is solid between its measured temperatures, faded where it is
+ * extrapolated and dotted below the oil's pour point; the chart shades what lies outside −20…150 °C.
  */
 export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart({
   lines,
@@ -77,13 +98,26 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     let yMax = -Infinity;
     for (const l of lines) {
       if (!(l.kv40 > 0 && l.kv100 > 0 && l.kv40 > l.kv100)) continue;
-      const { a, b } = d341LineFromPoints({ tempC: 40, kv: l.kv40 }, { tempC: 100, kv: l.kv100 });
-      const yAtLo = a - b * xLo;
-      const yAtHi = a - b * xHi;
-      yMin = Math.min(yMin, yAtHi);
-      yMax = Math.max(yMax, yAtLo);
-      series.push({ id: l.id, label: l.label, role: l.role, points: [{ x: xLo, y: yAtLo }, { x: xHi, y: yAtHi }] });
+      let line: { a: number; b: number };
+      try {
+        line = d341LineFromPoints({ tempC: 40, kv: l.kv40 }, { tempC: 100, kv: l.kv100 });
+      } catch {
+        continue; // data the core refuses (e.g. below the D341-20 range) is not drawn
+      }
+      const { a, b } = line;
+      yMin = Math.min(yMin, a - b * xHi);
+      yMax = Math.max(yMax, a - b * xLo);
+      const segments = d341Segments(lo, hi, l.fittedC, l.pourPointC ?? null).map((sg) => {
+        const x0 = d341X(sg.fromC);
+        const x1 = d341X(sg.toC);
+        return { kind: sg.kind, points: [{ x: x0, y: a - b * x0 }, { x: x1, y: a - b * x1 }] };
+      });
+      series.push({ id: l.id, label: l.label, role: l.role, segments });
     }
+    // Outside −20…150 °C no D341 line of a gear oil is to be trusted: those parts of the chart are shaded.
+    const bands: [number, number][] = [];
+    if (lo < TRUSTED_BAND_C.min) bands.push([xLo, d341X(TRUSTED_BAND_C.min)]);
+    if (hi > TRUSTED_BAND_C.max) bands.push([d341X(TRUSTED_BAND_C.max), xHi]);
     const kvLo = Number.isFinite(yMin) ? Math.max(KV_MIN, d341Kv(yMin)) : 5;
     const kvHi = Number.isFinite(yMax) ? Math.min(KV_MAX, d341Kv(yMax)) : 10000;
     const plotH = Math.max(50, height - 70);
@@ -95,10 +129,13 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     // A label such as "−20 °C" or "100 °F" is about 45 px wide at the axis font: keep 60 px between ticks.
     const xGap = ((xHi - xLo) / plotW) * 60;
     const tempTicks = temperatureTicks(lo, hi, f.tempValue, f.tempToC, d341X, xGap).map(d341X);
-    return { series, xDomain: [xLo, xHi] as [number, number], yDomain, kvTicks, tempTicks, marks };
+    const kinds = new Set(series.flatMap((sr) => sr.segments.map((sg) => sg.kind)));
+    return { series, bands, kinds, xDomain: [xLo, xHi] as [number, number], yDomain, kvTicks, tempTicks, marks };
   }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height, f]);
 
-  const describe = lines.map((l) => `${l.label}: ${fmtKv(l.kv40)} mm²/s at 40 °C, ${fmtKv(l.kv100)} at 100 °C`).join('; ');
+  const describe = lines
+    .map((l) => `${l.label}: ${fmtKv(l.kv40)} mm²/s at 40 °C, ${fmtKv(l.kv100)} at 100 °C${l.pourPointC != null ? `, pour point ${formatTemp(l.pourPointC)}` : ''}`)
+    .join('; ');
 
   return (
     <figure className="chart" data-chart="viscosity-temperature" style={{ width }}>
@@ -128,8 +165,30 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
           <Tooltip
             isAnimationActive={false}
             formatter={(y) => [`${fmtKv(d341Kv(Number(y)))} mm²/s`]}
-            labelFormatter={(x) => formatTemp(d341TempC(Number(x)))}
+            labelFormatter={(x) => {
+              const t = d341TempC(Number(x));
+              const flag = temperatureFlag(t, formatTemp);
+              return `${formatTemp(t)}${flag ? ` (${flag})` : ''}`;
+            }}
           />
+          {model.bands.map(([x1, x2]) => (
+            <ReferenceArea
+              key={`band-${x1}`}
+              x1={x1}
+              x2={x2}
+              ifOverflow="hidden"
+              fill={CHART_COLOURS.untrusted}
+              fillOpacity={0.55}
+              stroke="none"
+              className="vt-untrusted"
+              label={{
+                value: x1 === model.xDomain[0] ? `below ${formatTemp(TRUSTED_BAND_C.min)}` : `above ${formatTemp(TRUSTED_BAND_C.max)}`,
+                position: 'insideBottom',
+                fill: '#55606a',
+                fontSize: 11,
+              }}
+            />
+          ))}
           {coldStartTempC !== null && Number.isFinite(coldStartTempC) && (
             <ReferenceLine
               x={d341X(coldStartTempC)}
@@ -146,22 +205,25 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
               label={{ value: `operating ${formatTemp(operatingTempC)}`, position: 'insideTopRight', fill: CHART_COLOURS.hot, fontSize: 11 }}
             />
           )}
-          {model.series.map((s) => (
-            <Line
-              key={s.id}
-              data={s.points}
-              dataKey="y"
-              name={s.label}
-              type="linear"
-              dot={false}
-              activeDot={false}
-              isAnimationActive={false}
-              stroke={s.role === 'component' ? CHART_COLOURS.component : s.role === 'reference' ? CHART_COLOURS.reference : CHART_COLOURS.candidate}
-              strokeWidth={s.role === 'component' ? 1 : 2.5}
-              strokeDasharray={s.role === 'reference' ? '7 4' : undefined}
-              className={`vt-line vt-${s.role}`}
-            />
-          ))}
+          {model.series.flatMap((s) =>
+            s.segments.map((sg, i) => (
+              <Line
+                key={`${s.id}-${i}`}
+                data={sg.points}
+                dataKey="y"
+                name={sg.kind === 'measured' ? s.label : `${s.label} (${SEGMENT_WORDS[sg.kind]})`}
+                type="linear"
+                dot={false}
+                activeDot={false}
+                isAnimationActive={false}
+                stroke={s.role === 'component' ? CHART_COLOURS.component : s.role === 'reference' ? CHART_COLOURS.reference : CHART_COLOURS.candidate}
+                strokeOpacity={D341_SEGMENT_STYLE[sg.kind].opacity}
+                strokeWidth={s.role === 'component' ? 1 : 2.5}
+                strokeDasharray={D341_SEGMENT_STYLE[sg.kind].dash ?? (s.role === 'reference' ? '7 4' : undefined)}
+                className={`vt-line vt-${s.role} vt-${sg.kind}`}
+              />
+            )),
+          )}
           {live && <LiveD341Line xDomain={model.xDomain} yDomain={model.yDomain} />}
         </LineChart>
       </div>
@@ -174,13 +236,39 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
             </li>
           ))}
       </ul>
+      <ul className="chart-legend chart-legend-styles" aria-hidden="true">
+        <li data-legend="measured">
+          <span className="swatch swatch-measured" /> between the measured {formatTemp(40)} and {formatTemp(100)}
+        </li>
+        <li data-legend="extrapolated">
+          <span className="swatch swatch-extrapolated" /> extrapolated
+        </li>
+        {(model.kinds.has('below-pour') || live) && (
+          <li data-legend="below-pour">
+            <span className="swatch swatch-below-pour" /> below the pour point
+          </li>
+        )}
+        {model.bands.length > 0 && (
+          <li data-legend="untrusted">
+            <span className="block block-untrusted" /> outside {formatTemp(TRUSTED_BAND_C.min)}…{formatTemp(TRUSTED_BAND_C.max)}
+          </li>
+        )}
+      </ul>
       <p className="chart-note">
-        Each oil is a straight line on these axes (ASTM D341). Below the pour point, and for polymer-thickened oils at
-        low temperature, the line is an extrapolation, not a prediction.
+        Each oil is a straight line on these axes (ASTM D341-20). Beyond the measured {formatTemp(40)}–{formatTemp(100)} the
+        line is extrapolated (faded); below the pour point it is no prediction at all (dotted), nor for polymer-thickened oils
+        at low temperature. Outside {formatTemp(TRUSTED_BAND_C.min)}…{formatTemp(TRUSTED_BAND_C.max)} (shaded) no value read
+        off it is to be trusted.
       </p>
     </figure>
   );
 });
+
+const SEGMENT_WORDS: Record<D341SegmentKind, string> = {
+  measured: 'measured range',
+  extrapolated: 'extrapolated',
+  'below-pour': 'below its pour point',
+};
 
 const LEGEND: Record<OilRole, string> = {
   candidate: 'blend / candidate',

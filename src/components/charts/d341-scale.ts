@@ -1,17 +1,27 @@
 /**
  * Axis transform for viscosity–temperature charts on ASTM D341 co-ordinates.
  *
- * ASTM D341 (Walther form): log log Z = A − B · log T, with Z = ν + 0.7 [ν in mm²/s] and T the
- * absolute temperature [K]. Plotting x = log10(T) against y = log10(log10(ν + 0.7)) therefore draws
- * every Newtonian oil as a straight line. The chart works in these transformed co-ordinates and
+ * ASTM D341-20: log log Z = A − B · log T, with Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²) [ν in mm²/s]
+ * and T the absolute temperature [K]. Plotting x = log10(T) against y = log10(log10(Z(ν))) therefore
+ * draws every Newtonian oil as a straight line. The chart works in these transformed co-ordinates and
  * labels its ticks back in °C and mm²/s at round values.
  *
- * Presentation only: the core (`src/core/viscosity/viscosity-temperature.ts`) owns the method itself.
+ * Presentation only: every co-ordinate and every line comes from the core's D341-20 functions
+ * (`src/core/viscosity/viscosity-temperature.ts`: the full Z, its published inverse and the fit), so the
+ * chart draws exactly the lines the calculations use.
  */
+import {
+  assessTemperature,
+  d341LogLogZ,
+  fitWalther,
+  kvFromD341LogLogZ,
+  D341_TRUSTED_BAND_C,
+} from '../../core/viscosity/viscosity-temperature';
 
 const KELVIN_OFFSET = 273.15;
-/** The D341 constant added to ν before the double logarithm (adequate for ν ≥ 2 mm²/s). */
-const Z_OFFSET = 0.7;
+
+/** The −20…150 °C band outside which a D341 line is not to be trusted for a gear oil (core). */
+export const TRUSTED_BAND_C = D341_TRUSTED_BAND_C;
 
 /** x co-ordinate: log10 of the absolute temperature. @param tempC temperature [°C] (> −273.15). */
 export function d341X(tempC: number): number {
@@ -23,31 +33,111 @@ export function d341TempC(x: number): number {
   return 10 ** x - KELVIN_OFFSET;
 }
 
-/** y co-ordinate: log10(log10(ν + 0.7)). @param kv kinematic viscosity [mm²/s] (> 0.3). */
+/** y co-ordinate: log10(log10(Z(ν))) with the D341-20 Z (core). @param kv kinematic viscosity [mm²/s] (≥ 0.21). */
 export function d341Y(kv: number): number {
-  return Math.log10(Math.log10(kv + Z_OFFSET));
+  return d341LogLogZ(kv);
 }
 
-/** Inverse of {@link d341Y}: kinematic viscosity [mm²/s] for a y co-ordinate. */
+/** Inverse of {@link d341Y}: kinematic viscosity [mm²/s] by D341-20's published inverse (core). */
 export function d341Kv(y: number): number {
-  return 10 ** 10 ** y - Z_OFFSET;
+  return kvFromD341LogLogZ(y);
 }
 
 /**
- * The straight line of an oil through two measured points in D341 co-ordinates, y = a − b·x.
- * Equivalent to the two-point Walther fit (B = (y1 − y2)/(x2 − x1), A = y1 + B·x1).
+ * The straight line of an oil through two measured points in D341 co-ordinates, y = a − b·x: the
+ * core's D341-20 fit (a = A, b = B).
+ *
+ * @throws the core's input errors (e.g. equal temperatures, a hotter point not thinner)
  */
 export function d341LineFromPoints(
   p1: { tempC: number; kv: number },
   p2: { tempC: number; kv: number },
 ): { a: number; b: number } {
-  const x1 = d341X(p1.tempC);
-  const x2 = d341X(p2.tempC);
-  const y1 = d341Y(p1.kv);
-  const y2 = d341Y(p2.kv);
-  if (x1 === x2) throw new RangeError('d341LineFromPoints: the two points need different temperatures');
-  const b = (y1 - y2) / (x2 - x1);
-  return { a: y1 + b * x1, b };
+  const { A, B } = fitWalther([p1, p2]);
+  return { a: A, b: B };
+}
+
+/** How a stretch of an oil's line is drawn: between its measured points, extrapolated, or below its pour point. */
+export type D341SegmentKind = 'measured' | 'extrapolated' | 'below-pour';
+
+/** Stroke of a stretch of line by its kind (on top of the role's colour and width); live and static lines share it. */
+export const D341_SEGMENT_STYLE: Record<D341SegmentKind, { opacity: number; dash?: string }> = {
+  measured: { opacity: 1 },
+  extrapolated: { opacity: 0.5 },
+  'below-pour': { opacity: 0.55, dash: '1 4' },
+};
+
+/** One stretch of a line over [fromC, toC] °C. */
+export interface D341Segment {
+  kind: D341SegmentKind;
+  fromC: number;
+  toC: number;
+}
+
+/**
+ * Splits the chart's temperature range [loC, hiC] into the stretches of one oil's line: measured
+ * (inside the temperatures its line was fitted on), extrapolated (outside them, along the D341 line),
+ * and below the pour point (where the line means nothing — the oil does not flow as a Newtonian liquid).
+ * Segments are in ascending temperature and cover [loC, hiC] without gaps.
+ *
+ * @param loC - lower end of the chart [°C]
+ * @param hiC - upper end of the chart [°C]
+ * @param fitted - the lowest and highest measured temperature [°C] (40 and 100 for ν40/ν100)
+ * @param pourPointC - the oil's pour point [°C], or null when unknown
+ */
+export function d341Segments(
+  loC: number,
+  hiC: number,
+  fitted: { minC: number; maxC: number } = { minC: 40, maxC: 100 },
+  pourPointC: number | null = null,
+): D341Segment[] {
+  const cuts = [loC, hiC, fitted.minC, fitted.maxC];
+  if (pourPointC !== null && Number.isFinite(pourPointC)) cuts.push(pourPointC);
+  const xs = [...new Set(cuts.filter((t) => t >= loC && t <= hiC))].sort((a, b) => a - b);
+  const out: D341Segment[] = [];
+  for (let i = 1; i < xs.length; i++) {
+    const fromC = xs[i - 1]!;
+    const toC = xs[i]!;
+    const mid = (fromC + toC) / 2;
+    const kind: D341SegmentKind =
+      pourPointC !== null && Number.isFinite(pourPointC) && mid < pourPointC
+        ? 'below-pour'
+        : assessTemperature(mid, fitted).extrapolated
+          ? 'extrapolated'
+          : 'measured';
+    const last = out[out.length - 1];
+    if (last && last.kind === kind) last.toC = toC;
+    else out.push({ kind, fromC, toC });
+  }
+  return out;
+}
+
+/**
+ * The temperatures an oil's line was fitted on: the lowest and highest of its measured points [°C]
+ * (at least 40–100 °C, the two points a chart line is drawn through).
+ */
+export function fittedRangeOf(points: readonly { tempC: number }[]): { minC: number; maxC: number } {
+  const ts = points.map((p) => p.tempC).filter((t) => Number.isFinite(t));
+  return { minC: Math.min(40, ...ts), maxC: Math.max(100, ...ts) };
+}
+
+/**
+ * A temperature read off the chart with its flag, in words: extrapolated beyond the measured range,
+ * or outside the −20…150 °C band (core `assessTemperature`); '' when neither.
+ *
+ * @param tempC - the temperature [°C]
+ * @param formatTemp - writes a temperature in the user's unit (default "−20 °C")
+ * @param fitted - the measured range [°C], default 40–100
+ */
+export function temperatureFlag(
+  tempC: number,
+  formatTemp: (c: number) => string = (c) => `${c} °C`,
+  fitted: { minC: number; maxC: number } = { minC: 40, maxC: 100 },
+): string {
+  const a = assessTemperature(tempC, fitted);
+  if (a.outsideBand) return `outside ${formatTemp(TRUSTED_BAND_C.min)}…${formatTemp(TRUSTED_BAND_C.max)}: not to be trusted`;
+  if (a.extrapolated) return 'extrapolated';
+  return '';
 }
 
 /**

@@ -12,7 +12,7 @@ export { BatchDistributionChart } from './BatchDistributionChart';
 export type { BatchDistributionChartProps, DensityPoint } from './BatchDistributionChart';
 export { batchDistributionData } from './batch-distribution-data';
 export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
-export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints } from './d341-scale';
+export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints, d341Segments, fittedRangeOf, temperatureFlag } from './d341-scale';
 export { CHART_COLOURS } from './palette';
 export { useWidth } from './useWidth';
 export { LiveMarksContext } from './live';

@@ -7,7 +7,7 @@
  */
 import { createContext, useContext, useId } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
-import { d341LineFromPoints } from './d341-scale';
+import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
 import { useFormat } from '../format';
 
@@ -20,8 +20,8 @@ export interface LiveBar {
 }
 
 export interface LiveMarks {
-  /** The blend's ASTM D341 line (ν40, ν100 in mm²/s). */
-  vt?: { label: string; kv40: number; kv100: number } | null;
+  /** The blend's ASTM D341 line (ν40, ν100 in mm²/s) and its pour point estimate [°C] (null: unknown). */
+  vt?: { label: string; kv40: number; kv100: number; pourPointC?: number | null } | null;
   /** The blend's point on the solvency–stability map (x, y in the map's units). */
   point?: { label: string; x: number; y: number } | null;
   /** The blend's composition and cost bars, one per stock (same order as the chart's categories). */
@@ -48,7 +48,10 @@ function ClipToPlot({ id }: { id: string }) {
   );
 }
 
-/** The blend's straight line on the D341 chart (x = log10 T, y = log10 log10(ν + 0.7)). */
+/**
+ * The blend's straight line on the D341 chart (x = log10 T, y = log10 log10 Z, D341-20), drawn like the
+ * static lines: solid between 40 and 100 °C, faded where extrapolated, dotted below the pour point.
+ */
 export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
   const live = useContext(LiveMarksContext).vt;
   const f = useFormat();
@@ -59,17 +62,40 @@ export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, 
   const px = linear(xs, xDomain);
   const py = linear(ys, yDomain);
   if (!px || !py) return null;
-  const { a, b } = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 });
-  const [x0, x1] = xDomain;
-  const d = `M${px(x0).toFixed(2)},${py(a - b * x0).toFixed(2)}L${px(x1).toFixed(2)},${py(a - b * x1).toFixed(2)}`;
+  let line: { a: number; b: number };
+  try {
+    line = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 });
+  } catch {
+    return null; // values the core refuses are not drawn
+  }
+  const { a, b } = line;
+  const segments = d341Segments(d341TempC(xDomain[0]), d341TempC(xDomain[1]), undefined, live.pourPointC ?? null);
+  const title = `${live.label}: ${f.num(live.kv40, 1)} mm²/s at 40 °C, ${f.num(live.kv100, 2)} at 100 °C`;
   return (
     <g className="vt-line vt-candidate live-line">
       <defs>
         <ClipToPlot id={clip} />
       </defs>
-      <path d={d} stroke={CHART_COLOURS.candidate} strokeWidth={2.5} fill="none" clipPath={`url(#${clip})`}>
-        <title>{`${live.label}: ${f.num(live.kv40, 1)} mm²/s at 40 °C, ${f.num(live.kv100, 2)} at 100 °C`}</title>
-      </path>
+      {segments.map((sg, i) => {
+        const x0 = d341X(sg.fromC);
+        const x1 = d341X(sg.toC);
+        const d = `M${px(x0).toFixed(2)},${py(a - b * x0).toFixed(2)}L${px(x1).toFixed(2)},${py(a - b * x1).toFixed(2)}`;
+        return (
+          <path
+            key={i}
+            d={d}
+            className={`vt-${sg.kind}`}
+            stroke={CHART_COLOURS.candidate}
+            strokeWidth={2.5}
+            strokeOpacity={D341_SEGMENT_STYLE[sg.kind].opacity}
+            strokeDasharray={D341_SEGMENT_STYLE[sg.kind].dash}
+            fill="none"
+            clipPath={`url(#${clip})`}
+          >
+            <title>{sg.kind === 'measured' ? title : `${title} (${sg.kind === 'extrapolated' ? 'extrapolated' : 'below its pour point'})`}</title>
+          </path>
+        );
+      })}
     </g>
   );
 }

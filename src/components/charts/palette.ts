@@ -10,6 +10,8 @@ export const CHART_COLOURS = {
   cost: '#b5651d',
   mass: '#0b7a75',
   volume: '#6a8f3a',
+  /** Shading of the temperatures outside −20…150 °C on the viscosity–temperature chart. */
+  untrusted: '#e4e0d4',
 } as const;
 
 /** A repeating set of distinct fills for per-component bars. */

@@ -506,8 +506,11 @@ export interface SheetPrediction {
   flashPoint: number | null;
   /** Pour point estimate [°C], or null. */
   pourPoint: number | null;
-  /** Viscosity at the operating temperature, or null. */
-  operating: { tempC: number; kv: number } | null;
+  /**
+   * Viscosity at the operating temperature, or null; flagged when the temperature lies outside the
+   * measured 40–100 °C (extrapolated) or outside −20…150 °C (not to be trusted; ASTM D341 line).
+   */
+  operating: { tempC: number; kv: number; extrapolated?: boolean; outsideBand?: boolean } | null;
 }
 
 /**
@@ -676,7 +679,9 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
   ];
   if (predicted.operating !== null) {
     rows.push({
-      key: 'kvOperating', property: `Viscosity at ${fmt(predicted.operating.tempC, 0)} °C (calculated)`, unit: 'mm²/s',
+      key: 'kvOperating',
+      property: `Viscosity at ${fmt(predicted.operating.tempC, 0)} °C (calculated${operatingFlag(predicted.operating)})`,
+      unit: 'mm²/s',
       predicted: fmt(predicted.operating.kv, 1), target: 'Information', min: null, max: null,
       method: 'ASTM D341', release: false, limitSource: 'none',
     });
@@ -698,12 +703,17 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
   });
 }
 
+/** The flag of a viscosity read off the D341 line at the operating temperature: extrapolated, or outside −20…150 °C. */
+function operatingFlag(o: NonNullable<SheetPrediction['operating']>): string {
+  return o.outsideBand ? '; outside −20…150 °C, not to be trusted' : o.extrapolated ? '; extrapolated' : '';
+}
+
 /** A QC row's temperatures re-expressed in °F (judged in °C before, so the verdict does not change). */
 function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) => string): QcRow {
   const f = (tC: number) => sheetTemp(tC, 'F');
   const value: Partial<Record<QcKey, number | null>> = { flash: p.flashPoint, pour: p.pourPoint, aniline: p.anilinePoint };
   if (r.key === 'kvOperating' && p.operating !== null) {
-    return { ...r, property: `Viscosity at ${fmt(f(p.operating.tempC), 0)} °F (calculated)` };
+    return { ...r, property: `Viscosity at ${fmt(f(p.operating.tempC), 0)} °F (calculated${operatingFlag(p.operating)})` };
   }
   if (!(r.key in value)) return r;
   const v = value[r.key];

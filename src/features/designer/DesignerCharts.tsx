@@ -16,6 +16,7 @@ import {
   LiveMarksContext,
   SolvencyOxidationMap,
   ViscosityTemperatureChart,
+  fittedRangeOf,
   roundUp,
   useWidth,
   type LiveMarks,
@@ -78,12 +79,21 @@ export default function DesignerCharts({ view, prediction, components, reference
       if (c.category === 'additive-package') continue;
       try {
         const { kv40, kv100 } = kv40kv100FromPoints(c.viscosityPoints);
-        out.push({ id: c.id, label: c.code, kv40, kv100, role: 'component' });
+        out.push({ id: c.id, label: c.code, kv40, kv100, role: 'component', fittedC: fittedRangeOf(c.viscosityPoints), pourPointC: c.pourPoint });
       } catch {
         /* a stock without usable viscosities is left off the chart */
       }
     }
-    if (reference?.ok) out.push({ id: 'reference', label: referenceRecipe?.name ?? 'reference', kv40: reference.kv40, kv100: reference.kv100, role: 'reference' });
+    if (reference?.ok) {
+      out.push({
+        id: 'reference',
+        label: referenceRecipe?.name ?? 'reference',
+        kv40: reference.kv40,
+        kv100: reference.kv100,
+        role: 'reference',
+        pourPointC: reference.props.pourPoint,
+      });
+    }
     return out;
   }, [stocks, reference, referenceRecipe]);
 
@@ -112,7 +122,7 @@ export default function DesignerCharts({ view, prediction, components, reference
 
   const live = useMemo<LiveMarks>(
     () => ({
-      vt: prediction.ok ? { label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100 } : null,
+      vt: prediction.ok ? { label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100, pourPointC: prediction.props.pourPoint } : null,
       point:
         prediction.ok && prediction.anilinePoint !== null ? { label: 'this blend', x: prediction.anilinePoint, y: prediction.oxidationRating } : null,
       bars: view.lines.map((l) => ({

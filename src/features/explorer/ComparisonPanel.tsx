@@ -102,9 +102,14 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
     change: ref?.deposit && cand?.deposit ? (ref.deposit.propensity === cand.deposit.propensity ? 'same' : `${ref.deposit.propensity} → ${cand.deposit.propensity}`) : '—',
     tone: ref?.deposit && cand?.deposit ? tone(rank[cand.deposit.propensity] - rank[ref.deposit.propensity], true) : undefined,
   });
+  // A temperature outside the measured 40–100 °C is an extrapolation along the D341 line; outside −20…150 °C
+  // it is not to be trusted (core assessTemperature) — the label says so.
+  const flag = (a: { extrapolated: boolean; outsideBand: boolean }) =>
+    a.outsideBand ? '; outside −20…150 °C, not to be trusted' : a.extrapolated ? '; extrapolated' : '';
   if (r?.kvAtOperating || c?.kvAtOperating) {
+    const at = (r?.kvAtOperating ?? c?.kvAtOperating)!;
     rows.push({
-      label: `ν at ${fmt.temp((r?.kvAtOperating ?? c?.kvAtOperating)!.tempC)} (operating), mm²/s`,
+      label: `ν at ${fmt.temp(at.tempC)} (operating${flag(at)}), mm²/s`,
       ref: fmt.sig(r?.kvAtOperating?.kv, 3),
       cand: fmt.sig(c?.kvAtOperating?.kv, 3),
       change: pctChange(r?.kvAtOperating?.kv, c?.kvAtOperating?.kv, fmt),
@@ -112,8 +117,9 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   }
   if (r?.kvAtCold || c?.kvAtCold) {
     const cd = r?.kvAtCold && c?.kvAtCold ? c.kvAtCold.kv - r.kvAtCold.kv : null;
+    const at = (r?.kvAtCold ?? c?.kvAtCold)!;
     rows.push({
-      label: `ν at ${fmt.temp((r?.kvAtCold ?? c?.kvAtCold)!.tempC)} (cold start), mm²/s`,
+      label: `ν at ${fmt.temp(at.tempC)} (cold start${flag(at)}), mm²/s`,
       ref: fmt.sig(r?.kvAtCold?.kv, 3),
       cand: fmt.sig(c?.kvAtCold?.kv, 3),
       change: pctChange(r?.kvAtCold?.kv, c?.kvAtCold?.kv, fmt),

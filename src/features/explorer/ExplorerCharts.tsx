@@ -8,6 +8,7 @@ import {
   FrontierChart,
   SolvencyOxidationMap,
   ViscosityTemperatureChart,
+  fittedRangeOf,
   useWidth,
   type FrontierPoint,
   type MapPoint,
@@ -75,13 +76,22 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
         if (!c || c.category === 'additive-package') continue;
         try {
           const v = kv40kv100FromPoints(c.viscosityPoints);
-          out.push({ id, label: c.code, kv40: v.kv40, kv100: v.kv100, role: 'component' });
+          out.push({ id, label: c.code, kv40: v.kv40, kv100: v.kv100, role: 'component', fittedC: fittedRangeOf(c.viscosityPoints), pourPointC: c.pourPoint });
         } catch {
           /* skip unusable data */
         }
       }
     }
-    if (refAssessed) out.push({ id: 'reference', label: reference?.name ?? 'reference', kv40: refAssessed.props.kv40, kv100: refAssessed.props.kv100, role: 'reference' });
+    if (refAssessed) {
+      out.push({
+        id: 'reference',
+        label: reference?.name ?? 'reference',
+        kv40: refAssessed.props.kv40,
+        kv100: refAssessed.props.kv100,
+        role: 'reference',
+        pourPointC: refAssessed.props.pourPoint,
+      });
+    }
     if (selected) out.push({ id: 'candidate', label: `candidate ${selected.rank}`, kv40: selected.kv40, kv100: selected.kv100, role: 'candidate' });
     return out;
   }, [selected, byId, refAssessed, reference]);

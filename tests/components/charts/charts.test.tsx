@@ -27,8 +27,12 @@ describe('ViscosityTemperatureChart', () => {
       />,
     );
     const paths = container.querySelectorAll('.recharts-line-curve');
-    expect(paths.length).toBe(4);
-    // every line is a single straight segment: "M x,y L x,y"
+    // each oil is drawn in three straight stretches over −20…120 °C: extrapolated below 40 °C, measured
+    // 40–100 °C, extrapolated above 100 °C (no pour points given)
+    expect(container.querySelectorAll('.vt-measured').length).toBe(4);
+    expect(container.querySelectorAll('.vt-extrapolated').length).toBe(8);
+    expect(paths.length).toBe(12);
+    // every stretch is a single straight segment: "M x,y L x,y"
     for (const p of paths) expect(p.getAttribute('d')).toMatch(/^M[\d.,-]+L[\d.,-]+$/);
     const ticks = [...container.querySelectorAll('.recharts-cartesian-axis-tick-value')].map((t) => t.textContent);
     expect(ticks).toContain('40 °C');
@@ -38,6 +42,38 @@ describe('ViscosityTemperatureChart', () => {
     expect(container.textContent).toContain('operating 70 °C');
     expect(container.textContent).toContain('cold start −10 °C');
     expect(getByRole('img').getAttribute('aria-label')).toContain('reference: 320 mm²/s at 40 °C');
+  });
+
+  it('marks the part below a pour point, and shades what lies outside −20…150 °C', () => {
+    const { container } = render(
+      <ViscosityTemperatureChart
+        width={640}
+        height={360}
+        coldStartTempC={-30}
+        tempRangeC={[-40, 160]}
+        lines={[
+          { id: 'a', label: 'stock A', kv40: 220, kv100: 19, role: 'component', pourPointC: -9 },
+          { id: 'b', label: 'stock B', kv40: 480, kv100: 31.5, role: 'component', fittedC: { minC: 20, maxC: 100 } },
+        ]}
+      />,
+    );
+    // stock A: below pour −40…−9, extrapolated −9…40, measured 40…100, extrapolated 100…160
+    expect(container.querySelectorAll('.vt-below-pour').length).toBe(1);
+    // stock B measured from 20 °C (its own points), so its measured stretch is 20…100
+    expect(container.querySelectorAll('.vt-measured').length).toBe(2);
+    // two shaded areas: below −20 °C and above 150 °C (ASTM D341 band, core D341_TRUSTED_BAND_C)
+    expect(container.querySelectorAll('.vt-untrusted').length).toBe(2);
+    expect(container.textContent).toMatch(/below [−-]20 °C/);
+    expect(container.textContent).toContain('above 150 °C');
+    expect(container.textContent).toContain('below the pour point');
+    expect(container.querySelector('[role="img"]')!.getAttribute('aria-label')).toMatch(/pour point [−-]9 °C/);
+  });
+
+  it('shows no shading when the range stays inside −20…150 °C', () => {
+    const { container } = render(
+      <ViscosityTemperatureChart width={500} height={300} lines={[{ id: 'a', label: 'A', kv40: 220, kv100: 19, role: 'candidate' }]} />,
+    );
+    expect(container.querySelectorAll('.vt-untrusted').length).toBe(0);
   });
 
   it('shows °F labels when given a formatter', () => {

@@ -336,6 +336,11 @@ describe('qcReleaseTargets', () => {
     // aniline 118.2 °C → 244.8 → 245 °F; operating 60 °C → 140 °F
     expect([by.aniline!.unit, by.aniline!.predicted]).toEqual(['°F', '245']);
     expect(by.kvOperating!.property).toBe('Viscosity at 140 °F (calculated)');
+    // a viscosity read off the line outside 40–100 °C says so, in either unit (core assessTemperature flags)
+    const hot = qcReleaseTargets(320, { ...p, operating: { tempC: 110, kv: 16, extrapolated: true, outsideBand: false } });
+    expect(hot.find((r) => r.key === 'kvOperating')!.property).toBe('Viscosity at 110 °C (calculated; extrapolated)');
+    const far = qcReleaseTargets(320, { ...p, operating: { tempC: 160, kv: 7, extrapolated: true, outsideBand: true } }, { temperatureUnit: 'F' });
+    expect(far.find((r) => r.key === 'kvOperating')!.property).toBe('Viscosity at 320 °F (calculated; outside −20…150 °C, not to be trusted)');
     // The standard test temperatures stay in °C; verdicts do not change with the unit.
     expect(by.kv40!.property).toBe('Kinematic viscosity at 40 °C');
     expect(rows.map((r) => r.predictedOutsideTarget)).toEqual(
