@@ -80,11 +80,11 @@ describe('ASTM D341 chart axes', () => {
   });
 
   it('round-trips both axes', () => {
-    // identity (inverse functions), common practice (no source); ASTM D341-20's published inverse below 5 mm²/s
+    // identity (inverse functions), common practice (no source)
     for (const t of [-30, 0, 40, 100, 150]) expect(d341TempC(d341X(t))).toBeCloseTo(t, 9);
     for (const v of [10, 320, 1e5]) expect(rel(d341Kv(d341Y(v)), v)).toBeLessThan(1e-9);
-    // at 2 mm²/s D341-20's published inverse is itself an approximation, within 2e-4 mm²/s (see the core tests)
-    expect(Math.abs(d341Kv(d341Y(2)) - 2)).toBeLessThan(2e-4);
+    // at 2 mm²/s too: the core inverts D341-20's Z exactly (published inverse polished by Newton steps)
+    expect(rel(d341Kv(d341Y(2)), 2)).toBeLessThan(1e-9);
   });
 
   it('picks round, well-spaced ticks', () => {
