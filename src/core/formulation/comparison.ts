@@ -14,6 +14,7 @@ import type { Component, RecipeLine } from './model';
 import { OXIDATION_CLASSES, OXIDATION_CLASS_LABEL, type OxidationClass } from '../scoring/oxidation';
 import { blendAfterShear, type BlendAfterShear } from './shear-blend';
 import { SOLVENCY_BANDS, type SolvencyBand } from '../scoring/solvency';
+import { assessTemperature, D341_TRUSTED_BAND_C } from '../viscosity/viscosity-temperature';
 
 export interface ComparisonInput {
   /** Library holding every component of both recipes (withdrawn ones included). */
@@ -200,9 +201,9 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
   const out: string[] = [];
   if (c.costPerLitre.delta !== null) {
     const pct = c.costPerLitre.deltaPct === null ? '' : ` (${signed(c.costPerLitre.deltaPct, 1)} %)`;
-    out.push(`Cost per litre at 15 °C ${signed(c.costPerLitre.delta, 3)}${currency ? ` ${currency}` : ''}${pct}`);
+    out.push(`Cost per litre at ${temp(15)} ${deg} ${signed(c.costPerLitre.delta, 3)}${currency ? ` ${currency}` : ''}${pct}`);
   } else {
-    out.push('Cost per litre at 15 °C not compared (prices in different currencies or missing).');
+    out.push(`Cost per litre at ${temp(15)} ${deg} not compared (prices in different currencies or missing).`);
   }
   if (c.vi.delta !== null) out.push(`VI ${signed(c.vi.delta, 1)}`);
   if (c.anilinePoint.delta !== null) {
@@ -222,7 +223,15 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
     ['operating', c.kvAtOperating],
     ['cold-start', c.kvAtCold],
   ] as const) {
-    if (d.deltaPct !== null) out.push(`Viscosity at ${temp(d.tempC)} ${deg} (${label}) ${signed(d.deltaPct, 1)} %`);
+    if (d.deltaPct === null) continue;
+    // Outside the measured 40–100 °C the D341 line is extrapolated; outside −20…150 °C not to be trusted.
+    const a = assessTemperature(d.tempC);
+    const flag = a.outsideBand
+      ? `; outside ${temp(D341_TRUSTED_BAND_C.min)}…${temp(D341_TRUSTED_BAND_C.max)} ${deg}, not to be trusted`
+      : a.extrapolated
+        ? '; extrapolated'
+        : '';
+    out.push(`Viscosity at ${temp(d.tempC)} ${deg} (${label}${flag}) ${signed(d.deltaPct, 1)} %`);
   }
   const s = c.shear;
   if (!s.candidate.inGradeAfter) out.push(`The candidate falls out of VG ${s.grade} after shear (ν40 ≈ ${num(s.candidate.kv40After, 0)} mm²/s).`);

@@ -36,7 +36,12 @@ describe('compareRecipes', () => {
     expect(text).not.toMatch(/\d\.\d/);
     // 65 °C = 149 °F and −10 °C = 14 °F (t_F = 9/5·t_C + 32, definition of the Fahrenheit scale)
     expect(text).toMatch(/Viscosity at 149 °F \(operating\)/);
-    expect(text).toMatch(/Viscosity at 14 °F \(cold-start\)/);
+    // −10 °C lies outside the measured 40–100 °C: flagged as extrapolated (core assessTemperature)
+    expect(text).toMatch(/Viscosity at 14 °F \(cold-start; extrapolated\)/);
+    // cost per litre names the temperature of its litres, in the display unit: 15 °C = 59 °F
+    expect(text).toMatch(/Cost per litre at 59 °F /);
+    const far = compareRecipes({ ...base, coldTempC: -30 }).summary.join('\n');
+    expect(far).toMatch(/Viscosity at -30 °C \(cold-start; outside -20…150 °C, not to be trusted\)/);
     // A difference converts by 9/5 only (no offset), by definition.
     const dF = (c.anilinePoint.delta! * 9) / 5;
     expect(text).toContain(`Aniline point ${dF > 0 ? '+' : '−'}${comma(Math.abs(dF), 1)} °F`);
