@@ -111,7 +111,8 @@ describe('Whole-line plan screen', () => {
     expect((await screen.findByTestId('plan-summary', {}, { timeout: 10_000 })).textContent).toContain('Whole-line plan — summary');
     expect(screen.getByTestId('plan-summary').textContent).toMatch(/laboratory confirmation/);
     // every per-litre figure says at which temperature its litres are counted (issue 13 §8)
-    expect(within(lasting).getByText('Cost per litre (15 °C)')).toBeTruthy();
+    // the header keeps '(15 °C)' in a no-wrap span, so match the whole cell's text
+    expect(within(lasting).getByText((_, el) => el?.tagName === 'TH' && el.textContent === 'Cost per litre (15 °C)')).toBeTruthy();
     const summary = screen.getByTestId('plan-summary').textContent ?? '';
     expect(summary).toContain('Cost per litre (15 °C)');
     expect(summary).toContain('Change per litre (15 °C)');
