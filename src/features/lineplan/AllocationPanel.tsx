@@ -1,5 +1,6 @@
 // Where each limited stock goes in the plan while it lasts: a table and a stacked bar chart (loaded
 // with the charts, lazily).
+import { useEffect } from 'react';
 import type { LinePlanOptimal } from '../../core/lineplan/plan';
 import { AllocationChart, useWidth } from '../../components/charts';
 import { overPeriod, tonnesNumber, type PlanView } from './words';
@@ -76,5 +77,24 @@ export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
         />
       </div>
     </section>
+  );
+}
+
+/**
+ * The chart drawn once, out of sight and out of reach (inert, hidden from assistive technology),
+ * while the user is still entering the plan, then removed: the chart library's first draw (code
+ * compiled, its store set up) is then done before the first "Plan the line", so the first result
+ * shows as fast as the next ones.
+ */
+export function ChartWarmUp({ onDone }: { onDone: () => void }) {
+  useEffect(() => {
+    // The chart library draws its bars in a later pass than its first commit: leave it a moment.
+    const id = setTimeout(onDone, 300);
+    return () => clearTimeout(id);
+  }, [onDone]);
+  return (
+    <div className="lp-warm-up" aria-hidden="true" inert>
+      <AllocationChart title="" rows={[{ label: 'A', amounts: [1, 1], unused: 1 }]} series={['a', 'b']} unit="t" width={320} />
+    </div>
   );
 }

@@ -1,7 +1,7 @@
 // The whole-line plan: every grade of the line planned together against the limited stocks, the plan
 // while they last beside the plan after they are gone, adopt as new revisions, a printable summary.
-import { useDeferredValue, useEffect, useMemo, useState, type ComponentType } from 'react';
-import type { AllocationPanelProps } from './AllocationPanel';
+import { useCallback, useDeferredValue, useEffect, useMemo, useState, type ComponentType } from 'react';
+import type { AllocationPanelProps, ChartWarmUp as ChartWarmUpType } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { adoptPlanRevisions, todayIso, useLibrary, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
@@ -58,10 +58,16 @@ export default function LinePlanScreen() {
   // state, not React.lazy: a lazy component would suspend on its first render and React holds a
   // revealed fallback back for a while).
   const [AllocationPanel, setAllocationPanel] = useState<ComponentType<AllocationPanelProps> | null>(null);
+  const [WarmUp, setWarmUp] = useState<typeof ChartWarmUpType | null>(null);
+  const warmedUp = useCallback(() => setWarmUp(null), []);
   useEffect(() => {
     warmPlanWorker();
     let live = true;
-    void import('./AllocationPanel').then((m) => live && setAllocationPanel(() => m.default));
+    void import('./AllocationPanel').then((m) => {
+      if (!live) return;
+      setAllocationPanel(() => m.default);
+      setWarmUp(() => m.ChartWarmUp);
+    });
     return () => {
       live = false;
     };
@@ -128,6 +134,7 @@ export default function LinePlanScreen() {
   return (
     <section className="lineplan" aria-labelledby="lineplan-h" data-testid="lineplan">
       <h2 id="lineplan-h">Whole-line plan</h2>
+      {WarmUp && !st.result && <WarmUp onDone={warmedUp} />}
       <p className="lead">
         Plan every grade of the line at once, at the least total cost over the period: the limited stocks go where they save most, each grade keeps
         its own saved limits (band, minimum VI, aniline point, polymer, additive, per-stock limits), and the plan after the limited stocks are gone
