@@ -14,7 +14,9 @@
  * in the page, the time from the click on "Plan the line" until the result is drawn: both plans, the
  * marginal values (three re-solves) and the stacked bar chart in the DOM, then two animation frames
  * (the frame that shows it). The screen starts its worker and fetches the chart code on opening, as
- * a user's first click finds them; the first click is the line, the next five are in the note.
+ * a user's first click finds them. The line is the median of the first click on three fresh pages
+ * (empty cache and storage; one page alone swings with the shared machine); each first click and the
+ * next five clicks on the first page are in the note.
  */
 import { performance } from 'node:perf_hooks';
 import { planLine, type LinePlanInput, type LinePlanResult } from '../src/core/lineplan/plan';
@@ -115,38 +117,47 @@ const CLICK_TO_DRAWN = `async () => {
   return [performance.now() - t0, Number((/Planned in ([0-9.,]+) ms/.exec(status) ?? [])[1]?.replace(',', '') ?? NaN)];
 }`;
 
-/** Click-to-drawn on the demo in headless Chromium: first click and the next five [ms]. */
-async function clickToDrawn(): Promise<{ first: number; next: number[]; planMs: number[] }> {
+/** Click-to-drawn on the demo in headless Chromium [ms]: the first click on each of three fresh
+ * pages (empty cache and storage), and on the first page the next five clicks. */
+async function clickToDrawn(): Promise<{ firsts: number[]; next: number[]; planMs: number[] }> {
   return withServedApp('lineplan', async (app) => {
-    const context = await app.newContext();
-    const page = await context.newPage();
-    await page.goto(`${app.url}#/line-plan`);
-    await page.getByRole('heading', { name: 'Whole-line plan' }).waitFor();
-    const enter = async (label: string | RegExp, value: string) => {
-      const f = page.getByLabel(label);
-      await f.fill(value);
-      await f.press('Enter');
-    };
-    for (const [grade, t] of [[220, '300'], [320, '400'], [460, '250'], [680, '150']] as const) {
-      await enter(new RegExp(`^Demand of “Gear oil VG ${grade}`), t);
-    }
-    await enter('Supply of BW-190', '250');
-    await enter('Supply of BW-160', '120');
-    await enter('Supply of BW-161', '80');
-    await page.waitForTimeout(500);
-    const planMs: number[] = [];
-    const click = async () => {
-      const [total, plan] = (await page.evaluate(`(${CLICK_TO_DRAWN})()`)) as [number, number];
-      planMs.push(plan);
-      return total;
-    };
-    const first = await click();
+    const firsts: number[] = [];
     const next: number[] = [];
-    for (let k = 0; k < 5; k++) next.push(await click());
-    await context.close();
-    return { first, next, planMs };
+    const planMs: number[] = [];
+    for (let p = 0; p < 3; p++) {
+      const context = await app.newContext();
+      const page = await context.newPage();
+      await page.goto(`${app.url}#/line-plan`);
+      await page.getByRole('heading', { name: 'Whole-line plan' }).waitFor();
+      const enter = async (label: string | RegExp, value: string) => {
+        const f = page.getByLabel(label);
+        await f.fill(value);
+        await f.press('Enter');
+      };
+      for (const [grade, t] of [[220, '300'], [320, '400'], [460, '250'], [680, '150']] as const) {
+        await enter(new RegExp(`^Demand of “Gear oil VG ${grade}`), t);
+      }
+      await enter('Supply of BW-190', '250');
+      await enter('Supply of BW-160', '120');
+      await enter('Supply of BW-161', '80');
+      await page.waitForTimeout(500);
+      const click = async () => {
+        const [total, plan] = (await page.evaluate(`(${CLICK_TO_DRAWN})()`)) as [number, number];
+        planMs.push(plan);
+        return total;
+      };
+      firsts.push(await click());
+      if (p === 0) for (let k = 0; k < 5; k++) next.push(await click());
+      await context.close();
+    }
+    return { firsts, next, planMs };
   });
 }
+
+const median = (xs: number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)]!;
+};
 
 export async function run(): Promise<BenchLine[]> {
   const free = benchLinePlan(null);
@@ -155,7 +166,6 @@ export async function run(): Promise<BenchLine[]> {
   const b = timed(tank);
   const unlimitedStocks = a.r.status === 'optimal' ? a.r.stocksUsed.length : Number.NaN;
   const c = await clickToDrawn();
-  const sortedNext = [...c.next].sort((x, y) => x - y);
   return [
     {
       name: 'line plan 6 grades x 30 stocks, 2 supply caps, VI floors (Node)',
@@ -175,12 +185,13 @@ export async function run(): Promise<BenchLine[]> {
     },
     {
       name: 'line plan click to drawn result, demo, Chromium',
-      measured: c.first,
+      measured: median(c.firsts),
       unit: 'ms',
       op: '<=',
       goal: 500,
       note:
-        `first click; the next five ${c.next.map((t) => t.toFixed(0)).join(', ')} ms (median ${sortedNext[2]!.toFixed(0)} ms); ` +
+        `median of the first click on three fresh pages (${c.firsts.map((t) => t.toFixed(0)).join(', ')} ms); ` +
+        `the next five on the first page ${c.next.map((t) => t.toFixed(0)).join(', ')} ms (median ${median(c.next).toFixed(0)} ms); ` +
         `of which planning in the worker (click to answer) ${c.planMs.map((t) => t.toFixed(0)).join(', ')} ms`,
     },
   ];
