@@ -5,6 +5,7 @@
  */
 import { useMemo } from 'react';
 import { cToF, fToC } from '../core/units';
+import { decimalsOf, formatFixed, sayNumber } from '../core/words/display';
 import { gradePosition } from '../core/viscosity/iso-grades';
 import { useSettings, type Settings } from '../state';
 
@@ -42,16 +43,7 @@ const NARROW_NBSP = '\u202f';
 
 
 function fixed(v: number, digits: number, s: Pick<Settings, 'decimalSeparator' | 'thousandsGrouping'>): string {
-  const neg = v < 0 || Object.is(v, -0);
-  const abs = Math.abs(v).toFixed(digits);
-  let [int = '0', frac] = abs.split('.');
-  if (s.thousandsGrouping && int.length > 4) {
-    const sep = s.decimalSeparator === ',' ? '.' : NARROW_NBSP;
-    int = int.replace(/\B(?=(\d{3})+(?!\d))/g, sep);
-  }
-  const body = frac !== undefined ? `${int}${s.decimalSeparator}${frac}` : int;
-  // Do not print "-0.0": a rounded zero has no sign.
-  return neg && /[1-9]/.test(body) ? `−${body}` : body;
+  return formatFixed(v, digits, s);
 }
 
 /** The result of reading a typed number: the value (null for an empty field) or why it was refused. */
@@ -125,10 +117,7 @@ export function parseNumber(text: string, decimalSeparator: '.' | ','): number |
 }
 
 /** Decimals needed to show a number without losing digits (at most 6). */
-export function decimalsOf(v: number): number {
-  for (let d = 0; d <= 6; d++) if (Math.abs(Number(v.toFixed(d)) - v) < 1e-9 * Math.max(1, Math.abs(v))) return d;
-  return 6;
-}
+export { decimalsOf };
 
 export function makeFormatter(settings: Settings): Formatter {
   const isF = settings.temperatureUnit === 'F';
@@ -157,11 +146,7 @@ export function makeFormatter(settings: Settings): Formatter {
       c === null || c === undefined || !Number.isFinite(c) ? '—' : `${fixed(isF ? cToF(c) : c, digits, settings)} ${isF ? '°F' : '°C'}`,
     parse: (text) => parseNumber(text, settings.decimalSeparator),
     parseEntry: (text) => parseEntry(text, settings.decimalSeparator),
-    say: (v) => {
-      if (!Number.isFinite(v)) return String(v);
-      const r = Number(v.toPrecision(6));
-      return fixed(r, decimalsOf(r), { decimalSeparator: settings.decimalSeparator, thousandsGrouping: false });
-    },
+    say: (v) => sayNumber(v, settings),
     sayTemp: (c) => `${f.say(isF ? cToF(c) : c)} ${isF ? '°F' : '°C'}`,
     plain: (v, digits) => fixed(v, digits ?? decimalsOf(v), { decimalSeparator: settings.decimalSeparator, thousandsGrouping: false }).replace('−', '-'),
   };

@@ -128,6 +128,10 @@ export {
 } from './blending/pour-point';
 export { krlShearLossPct, shearedKv, inGradeAfterShear } from './viscosity/shear';
 
+// Numbers in text the core writes (the user's decimal separator, grouping, temperature unit)
+export type { NumberDisplay, DisplayWords } from './words/display';
+export { formatFixed, sayNumber, decimalsOf, displayWords } from './words/display';
+
 // Units at the boundary
 export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';
 
@@ -177,7 +181,7 @@ export type {
   EngineOptimal,
   EngineInfeasible,
 } from './solver/solve-blend';
-export { solveBlend, prepareComponents, solvePrepared, checkConstraints, CHECK_TOLERANCE } from './solver/solve-blend';
+export { solveBlend, prepareComponents, solvePrepared, checkConstraints, checkInWords, CHECK_TOLERANCE } from './solver/solve-blend';
 export type { PlainComponent, PlainProblem, PlainBlend, PlainSolveResult } from './solver/plain';
 export { solveBlendPlain } from './solver/plain';
 

@@ -1,6 +1,7 @@
 import { memo, useId } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { useFormat } from '../format';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
 
 /** One point of a density curve or of the histogram's outline. */
@@ -42,6 +43,7 @@ export const BatchDistributionChart = memo(function BatchDistributionChart({
   height,
 }: BatchDistributionChartProps) {
   const descId = useId();
+  const f = useFormat();
   const xs = [...curve.map((p) => p.kv), ...histogram.map((p) => p.kv), isoBand.min, isoBand.max];
   const xDomain = niceDomain(Math.min(...xs), Math.max(...xs));
   const xTicks = niceTicks(xDomain);
@@ -62,11 +64,11 @@ export const BatchDistributionChart = memo(function BatchDistributionChart({
             domain={xDomain}
             ticks={xTicks}
             allowDataOverflow
-            tickFormatter={(v: number) => v.toFixed(tickDecimals(xDomain))}
+            tickFormatter={(v: number) => f.num(v, tickDecimals(xDomain))}
             label={{ value: 'batch ν40, mm²/s', position: 'insideBottom', offset: -18 }}
           />
           <YAxis type="number" dataKey="y" domain={yDomain} tick={false} width={28} label={{ value: 'share of batches', angle: -90, position: 'insideLeft', offset: 8, style: { textAnchor: 'middle' } }} />
-          <Tooltip isAnimationActive={false} cursor={false} formatter={(v) => [Number(v).toPrecision(3), 'density']} labelFormatter={(v) => `ν40 ${Number(v).toFixed(1)} mm²/s`} />
+          <Tooltip isAnimationActive={false} cursor={false} formatter={(v) => [f.sig(Number(v), 3), 'density']} labelFormatter={(v) => `ν40 ${f.num(Number(v), 1)} mm²/s`} />
           <Area
             data={histogram as DensityPoint[]}
             dataKey="y"
@@ -87,8 +89,8 @@ export const BatchDistributionChart = memo(function BatchDistributionChart({
         <li><span className="block block-iso" /> {isoBand.label}</li>
       </ul>
       <p id={descId} className="chart-note" data-testid="distribution-note">
-        Model: {formatPct(plantBand.probability)} of batches in the {plantBand.label} ({plantBand.min.toFixed(1)}–{plantBand.max.toFixed(1)} mm²/s),{' '}
-        {formatPct(isoBand.probability)} in the {isoBand.label} ({isoBand.min.toFixed(1)}–{isoBand.max.toFixed(1)} mm²/s). Simulation: {simulation}.
+        Model: {formatPct(plantBand.probability)} of batches in the {plantBand.label} ({f.num(plantBand.min, 1)}–{f.num(plantBand.max, 1)} mm²/s),{' '}
+        {formatPct(isoBand.probability)} in the {isoBand.label} ({f.num(isoBand.min, 1)}–{f.num(isoBand.max, 1)} mm²/s). Simulation: {simulation}.
       </p>
     </figure>
   );

@@ -12,6 +12,7 @@
  * 3. the least number of distinct stocks the line can be made from under the supplies
  *    (Σ yᵢ minimised, exactly); above the limit, that number is the reason.
  */
+import { formatFixed, type NumberDisplay } from '../words/display';
 import { solvePrepared } from '../solver/engine';
 import { diagnoseInfeasible, type DiagnosisLabels } from '../solver/diagnose';
 import { solveJoint, type JointProblem } from './joint';
@@ -22,6 +23,8 @@ export interface PlanLabels {
   grades: readonly DiagnosisLabels[];
   /** Per stock: its code. */
   stocks: readonly string[];
+  /** How the reason writes numbers (default "."). */
+  display?: NumberDisplay;
 }
 
 export interface PlanDiagnosis {
@@ -38,12 +41,10 @@ export interface PlanDiagnosis {
   lpCount: number;
 }
 
-/** Tonnes for a message: whole tonnes from 10 t, else one or two decimals. */
-export function fmtTonnes(t: number): string {
+/** Tonnes for a message: whole tonnes from 10 t (grouped, as the app's tables), else one or two decimals. */
+export function fmtTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }): string {
   const a = Math.abs(t);
-  if (a >= 10) return `${Math.round(t).toLocaleString('en-US')} t`;
-  if (a >= 1) return `${t.toFixed(1)} t`;
-  return `${t.toFixed(2)} t`;
+  return `${formatFixed(t, a >= 10 ? 0 : a >= 1 ? 1 : 2, display)} t`;
 }
 
 /**
@@ -55,6 +56,7 @@ export function fmtTonnes(t: number): string {
  * @returns the reason and what it names
  */
 export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4000): PlanDiagnosis {
+  const tonnes = (t: number) => fmtTonnes(t, { thousandsGrouping: true, ...labels.display });
   let lpCount = 0;
   const out = (d: Omit<PlanDiagnosis, 'lpCount' | 'grade' | 'short' | 'minStocks'> & Partial<PlanDiagnosis>): PlanDiagnosis => ({
     grade: null,
@@ -91,16 +93,16 @@ export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4
         const users = J.grades.map((_, g) => g).filter((g) => sf.fractions[g]![i]! > 1e-6);
         const need = (J.supplyKg[i]! / 1000 + s);
         parts.push(
-          `${labels.stocks[i]} is short by ${fmtTonnes(s)} (${fmtTonnes(J.supplyKg[i]! / 1000)} on offer; ` +
-            `the plan needs at least ${fmtTonnes(need)}${users.length ? ` for ${users.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
+          `${labels.stocks[i]} is short by ${tonnes(s)} (${tonnes(J.supplyKg[i]! / 1000)} on offer; ` +
+            `the plan needs at least ${tonnes(need)}${users.length ? ` for ${users.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
         );
       }
       const u = sf.useShortT![i]!;
       if (u > 1e-6) {
         short.push({ stock: i, tonnes: u });
         useParts.push(
-          `${labels.stocks[i]} can be used at most ${fmtTonnes(J.minUseKg[i]! / 1000 - u)} over the period, ` +
-            `${fmtTonnes(u)} less than the ${fmtTonnes(J.minUseKg[i]! / 1000)} it must stay in use for`,
+          `${labels.stocks[i]} can be used at most ${tonnes(J.minUseKg[i]! / 1000 - u)} over the period, ` +
+            `${tonnes(u)} less than the ${tonnes(J.minUseKg[i]! / 1000)} it must stay in use for`,
         );
       }
     }

@@ -19,7 +19,8 @@ import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, assertFinite, inField } from '../errors';
 import { gradeBand } from '../viscosity/iso-grades';
 import { predictBlend, type BlendProperties } from '../formulation/blend-properties';
-import { checkConstraints, prepareComponents, type ConstraintCheck, type PreparedBlend } from '../solver/solve-blend';
+import { checkConstraints, checkInWords, prepareComponents, type ConstraintCheck, type PreparedBlend } from '../solver/solve-blend';
+import type { NumberDisplay } from '../words/display';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
 import { diagnoseLinePlan, type PlanDiagnosis } from './diagnose';
 import { recipeInBand } from '../qc/recipe-spread';
@@ -55,6 +56,8 @@ export interface LinePlanInput {
   /** Temperatures for the predicted properties [°C]. */
   operatingTempC?: number;
   coldTempC?: number;
+  /** How reasons write numbers and temperatures (the user's decimal separator and unit; default ".", °C). Plain data. */
+  display?: NumberDisplay;
 }
 
 /** Costs of a recipe over the period. */
@@ -282,11 +285,12 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     const d = diagnoseLinePlan(J, {
       grades: input.grades.map((g, k) => {
         const iso = gradeBand(g.targets.grade);
-        const label = { product: g.label };
+        const label = { product: g.label, display: input.display };
         const P = prepared[k]!;
         return P.band.min > iso.min || P.band.max < iso.max ? { ...label, gradeMin: iso.min, gradeMax: iso.max } : label;
       }),
       stocks: components.map((c) => c.code),
+      display: input.display,
     });
     return infeasible({
       reason: d.reason,
@@ -322,7 +326,7 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     });
     const properties = predictBlend(components, lines, opts);
     const checks = checkConstraints(prepared[k]!, lines, properties);
-    for (const c of checks) if (!c.ok) failures.push(`${g.label}: ${c.constraint} ${c.value === null ? 'unknown' : Number(c.value.toPrecision(6))} (limit ${c.limit})`);
+    for (const c of checks) if (!c.ok) failures.push(`${g.label}: ${checkInWords(c, input.display)}`);
     const cost = costOf(prepared[k]!, w, properties, g.demandKg);
     total += cost.cost;
     let current: LinePlanGradeResult['current'] = null;
@@ -356,8 +360,12 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     if (s < Number.POSITIVE_INFINITY) {
       limitChecks.push({
         constraint: `supply of ${c.code} [kg]`,
+        name: `supply of ${c.code}`,
+        quantity: 'mass',
         value: useKg[i]!,
         limit: `≤ ${s}`,
+        min: null,
+        max: s,
         ok: useKg[i]! <= s * (1 + SUPPLY_CHECK_TOLERANCE.relative) + SUPPLY_CHECK_TOLERANCE.kg,
       });
     }
@@ -365,17 +373,30 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
       const m = J0.minUseKg[i]!;
       limitChecks.push({
         constraint: `least use of ${c.code} [kg]`,
+        name: `least use of ${c.code}`,
+        quantity: 'mass',
         value: useKg[i]!,
         limit: `≥ ${m}`,
+        min: m,
+        max: null,
         ok: useKg[i]! >= m * (1 - SUPPLY_CHECK_TOLERANCE.relative) - SUPPLY_CHECK_TOLERANCE.kg,
       });
     }
   });
   const usedIdx = components.map((_, i) => i).filter((i) => J0.keep[i] || r.fractions.some((w) => w[i]! > IN_USE_FRACTION));
   if (J0.maxStocks !== null) {
-    limitChecks.push({ constraint: 'distinct stocks in use', value: usedIdx.length, limit: `≤ ${J0.maxStocks}`, ok: usedIdx.length <= J0.maxStocks });
+    limitChecks.push({
+      constraint: 'distinct stocks in use',
+      name: 'distinct stocks in use',
+      quantity: 'count',
+      value: usedIdx.length,
+      limit: `≤ ${J0.maxStocks}`,
+      min: null,
+      max: J0.maxStocks,
+      ok: usedIdx.length <= J0.maxStocks,
+    });
   }
-  for (const c of limitChecks) if (!c.ok) failures.push(`${c.constraint} ${c.value} (limit ${c.limit})`);
+  for (const c of limitChecks) if (!c.ok) failures.push(checkInWords(c, input.display));
   if (failures.length > 0) {
     return infeasible({
       kind: 'check',

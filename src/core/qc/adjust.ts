@@ -24,7 +24,7 @@ import { BlendbenchInputError, FractionSumError, assertDensity15, assertFinite, 
 import { VI_MIN_KV100, viscosityIndex } from '../viscosity/viscosity-index';
 import { blendCoordinates } from '../solver/coordinates';
 import { solveLp, type LpRow } from '../solver/lp';
-import { fmtKv } from '../solver/diagnose';
+import { displayWords, type NumberDisplay } from '../words/display';
 import { withFieldPrefix } from './correction';
 
 /** One stock of the recipe with the values of the lot in the tank. */
@@ -63,6 +63,8 @@ export interface AdjustInput {
   heel?: AdjustHeel | null;
   /** Mixing rule (default 'refutas'). */
   method?: BlendMethod;
+  /** How the reason writes numbers (the user's decimal separator; default "."). */
+  display?: NumberDisplay;
 }
 
 export type AdjustResult =
@@ -98,6 +100,7 @@ export type AdjustResult =
  */
 export function adjustRecipe(input: AdjustInput): AdjustResult {
   const fn = 'adjustRecipe';
+  const words = displayWords({ thousandsGrouping: true, ...input.display });
   const method = input.method ?? 'refutas';
   const co = blendCoordinates(method);
   const stocks = input.stocks;
@@ -143,7 +146,7 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
     if (fa < -1e-12) {
       return {
         status: 'infeasible',
-        reason: `The heel (${Math.round(heel!.massKg)} kg at ${(heel!.additiveFraction * 100).toFixed(2)} % additive) already carries more additive than a ${Math.round(M)} kg batch at ${(r * 100).toFixed(2)} % needs. Make a larger batch, or lower the heel.`,
+        reason: `The heel (${words.kg(heel!.massKg)} at ${words.pct(heel!.additiveFraction, 2)} additive) already carries more additive than a ${words.kg(M)} batch at ${words.pct(r, 2)} needs. Make a larger batch, or lower the heel.`,
         reachable: null,
       };
     }
@@ -189,10 +192,10 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
       lo = Math.min(lo, kv);
       hi = Math.max(hi, kv);
     }
-    const side = input.aimKv40 > hi ? `the heaviest batch these lots make reaches only ${fmtKv(hi)} mm²/s` : `the lightest batch these lots make is ${fmtKv(lo)} mm²/s`;
+    const side = input.aimKv40 > hi ? `the heaviest batch these lots make reaches only ${words.kv(hi)} mm²/s` : `the lightest batch these lots make is ${words.kv(lo)} mm²/s`;
     return {
       status: 'infeasible',
-      reason: `The aim ν40 ${fmtKv(input.aimKv40)} mm²/s cannot be reached with these lots${heel ? ' and this heel' : ''}: ${side} (reachable ${fmtKv(lo)}–${fmtKv(hi)} mm²/s). Choose an aim in that range, or add a ${input.aimKv40 > hi ? 'heavier' : 'lighter'} stock to the recipe.`,
+      reason: `The aim ν40 ${words.kv(input.aimKv40)} mm²/s cannot be reached with these lots${heel ? ' and this heel' : ''}: ${side} (reachable ${words.kv(lo)}–${words.kv(hi)} mm²/s). Choose an aim in that range, or add a ${input.aimKv40 > hi ? 'heavier' : 'lighter'} stock to the recipe.`,
       reachable: { min: lo, max: hi },
     };
   }

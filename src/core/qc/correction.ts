@@ -30,7 +30,7 @@ import { VI_MIN_KV100, viscosityIndex } from '../viscosity/viscosity-index';
 import { prepareEngine, tieBreakRow, type EngineComponent, type PreparedProblem, type RatioObjective, type ExtraRow, ALL_GROUPS, type ConstraintGroup } from '../solver/engine';
 import { optimise } from '../solver/branch-and-bound';
 import type { PlainComponent } from '../solver/plain';
-import { fmtKv } from '../solver/diagnose';
+import { displayWords, type NumberDisplay } from '../words/display';
 
 /** The oil in the vessel (a batch that missed, or a heel). */
 export interface CorrectionVessel {
@@ -67,6 +67,8 @@ export interface CorrectionProblem {
   minVi?: number;
   /** 'cost': least cost of the additions; 'mass': least added mass. */
   objective: 'cost' | 'mass';
+  /** How the reason writes numbers (the user's decimal separator and grouping; default ".", grouped). */
+  display?: NumberDisplay;
 }
 
 export type CorrectionResult =
@@ -344,10 +346,9 @@ function batchOf(Q: Prepared, masses: Float64Array): { massKg: number; kv40: num
   return { massKg: total, kv40, kv100, vi: viscosityIndex(kv40, kv100) };
 }
 
-const kg = (m: number): string => `${Math.ceil(m).toLocaleString('en-US')} kg`;
 
 /** The additions of a masses vector, largest first, in words ("1,450 kg of BW-220 and 30 kg of BW-900"). */
-function listOf(Q: Prepared, masses: Float64Array, only?: (i: number) => boolean): string {
+function listOf(Q: Prepared, masses: Float64Array, kg: (m: number) => string, only?: (i: number) => boolean): string {
   const parts: [number, string][] = [];
   for (let i = 1; i < Q.P.n; i++) if (masses[i]! > 0.5 && (!only || only(i))) parts.push([masses[i]!, `${kg(masses[i]!)} of ${Q.P.components[i]!.label}`]);
   parts.sort((a, b) => b[0] - a[0]);
@@ -358,6 +359,8 @@ function listOf(Q: Prepared, masses: Float64Array, only?: (i: number) => boolean
 /** Why no addition brings the batch into band, in numbers. */
 function diagnose(Q: Prepared): string {
   const { P, c } = Q;
+  const words = displayWords({ thousandsGrouping: true, ...c.display });
+  const { kg, kv: fmtKv } = words;
   const band = `${fmtKv(P.targets.kv40Min)}–${fmtKv(P.targets.kv40Max)} mm²/s`;
   const v = c.vessel;
   // 1. No amount of the stocks on hand reaches the band.
@@ -380,8 +383,8 @@ function diagnose(Q: Prepared): string {
     if (need > room + 1e-6) {
       reasons.push(
         c.finalMassKg !== undefined && need > room
-          ? `it needs at least ${kg(need)} of additions (${listOf(Q, noRoom.masses)}); a batch of ${kg(c.finalMassKg)} on ${kg(v.massKg)} in the vessel leaves room for only ${kg(room)}`
-          : `it needs ${listOf(Q, noRoom.masses)} (${kg(need)} in all); the vessel takes only ${kg(room)} more`,
+          ? `it needs at least ${kg(need)} of additions (${listOf(Q, noRoom.masses, kg)}); a batch of ${kg(c.finalMassKg)} on ${kg(v.massKg)} in the vessel leaves room for only ${kg(room)}`
+          : `it needs ${listOf(Q, noRoom.masses, kg)} (${kg(need)} in all); the vessel takes only ${kg(room)} more`,
       );
     } else if (c.finalMassKg !== undefined) {
       reasons.push(`with exactly ${kg(room)} of additions (a batch of ${kg(c.finalMassKg)}) the stocks on hand cannot land in the band`);
@@ -402,7 +405,7 @@ function diagnose(Q: Prepared): string {
     const noVi = solveMasses(Q, { room: true, stock: true, vi: false }, 'mass');
     if (typeof noVi === 'object') {
       const b = batchOf(Q, noVi.masses);
-      reasons.push(`the additions that reach the band leave the VI below ${c.minVi} (${b.vi.toFixed(1)} with the least addition, ${listOf(Q, noVi.masses)})`);
+      reasons.push(`the additions that reach the band leave the VI below ${words.say(c.minVi)} (${words.num(b.vi, 1)} with the least addition, ${listOf(Q, noVi.masses, kg)})`);
     }
   }
   if (reasons.length === 0) {

@@ -4,7 +4,7 @@
  * the stocks can reach under the other constraints — the reason given to the user.
  */
 import { solvePrepared, type EngineResult, type PreparedProblem } from '../solver/engine';
-import { fmtKv } from '../solver/diagnose';
+import { displayWords, type NumberDisplay } from '../words/display';
 
 /** The prepared problem with another minimum probability in band (the caches are shared). */
 export function withInBandProbability<T extends PreparedProblem>(P: T, p: number | null): T {
@@ -66,12 +66,18 @@ export function solveRobustAndNominal(P: PreparedProblem, subset: readonly numbe
  * @returns the sentence, e.g. "No recipe lands in 304–336 mm²/s with 99.0 % probability: the most
  *   robust recipe of these stocks reaches 97.3 %. Widen the band, …"
  */
-export function inBandInfeasibleReason(P: PreparedProblem, band: { min: number; max: number }, subset: readonly number[] | null = null): string {
+export function inBandInfeasibleReason(
+  P: PreparedProblem,
+  band: { min: number; max: number },
+  subset: readonly number[] | null = null,
+  display?: NumberDisplay,
+): string {
   const p = P.targets.minInBandProbability ?? 0;
   const best = highestInBandProbability(P, subset);
-  const pct = (x: number): string => `${(Math.floor(x * 1000) / 10).toFixed(1)} %`;
+  const w = displayWords(display);
+  const pct = (x: number): string => w.pct(Math.floor(x * 1000) / 1000); // rounded down: never overstated
   return (
-    `No recipe lands in ${fmtKv(band.min)}–${fmtKv(band.max)} mm²/s with ${Number((p * 100).toPrecision(6))} % probability under the stocks' lot spread: ` +
+    `No recipe lands in ${w.kv(band.min)}–${w.kv(band.max)} mm²/s with ${w.say(p * 100)} % probability under the stocks' lot spread: ` +
     `the most robust recipe of these stocks reaches ${pct(best)}. Widen the band, lower the probability asked for, ` +
     'or use stocks with a tighter lot-to-lot spread of ν40 (measured lot records rather than the defaults).'
   );

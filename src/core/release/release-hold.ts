@@ -19,7 +19,8 @@ import type { BlendMethod } from '../blending/blend-viscosity';
 import type { BlendProperties } from '../formulation/blend-properties';
 import type { BlendTargets, Component, Recipe } from '../formulation/model';
 import { RECIPE_STATUS_LABEL } from '../formulation/model';
-import { checkConstraints, prepareComponents } from '../solver/solve-blend';
+import { checkConstraints, checkInWords, prepareComponents } from '../solver/solve-blend';
+import { formatFixed, type NumberDisplay } from '../words/display';
 import { predictBlend } from '../formulation/blend-properties';
 import { qcReleaseTargets, sheetPrediction, type QcRow, type SheetTemperatureUnit } from '../sheet/blend-sheet';
 
@@ -49,6 +50,8 @@ export interface ReleaseHoldInput {
   method: BlendMethod;
   /** The recipe that supersedes this one, when there is one (for the message). */
   supersededBy?: Recipe | null;
+  /** How the reasons write numbers and temperatures (the user's decimal separator and unit; default ".", °C). */
+  display?: NumberDisplay;
 }
 
 /**
@@ -106,10 +109,7 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
     try {
       const P = prepareComponents(neutral, { ...input.targets, objective: 'cost', referenceRecipeId: null }, input.method);
       const missed = checkConstraints(P, recipe.lines, p).filter((c) => !c.ok && !c.constraint.endsWith(' not usable'));
-      for (const c of missed) {
-        const value = c.value === null ? 'not predicted' : String(Number(c.value.toPrecision(5)));
-        out.push({ kind: 'constraint', message: `It misses its own constraint — ${c.constraint}: ${value}, limit ${c.limit}.` });
-      }
+      for (const c of missed) out.push({ kind: 'constraint', message: `It misses its own constraint — ${checkInWords(c, input.display)}.` });
     } catch (e) {
       out.push({ kind: 'constraint', message: `Its own constraints cannot be checked: ${e instanceof Error ? e.message : String(e)}` });
     }
@@ -138,27 +138,33 @@ export interface ReleaseAssessment {
  * the same composition the blend sheet prints, for screens that only need the verdict.
  *
  * @param input - recipe, library, own targets, mixing rule, optional operating temperature [°C],
- *   temperature unit and the superseding recipe
+ *   the display style (decimal separator, grouping, temperature unit) and the superseding recipe
  * @returns prediction, QC rows, hold reasons
  */
 export function assessRelease(
-  input: Omit<ReleaseHoldInput, 'prediction' | 'qcRows'> & { operatingTempC?: number; temperatureUnit?: SheetTemperatureUnit },
+  input: Omit<ReleaseHoldInput, 'prediction' | 'qcRows'> & {
+    operatingTempC?: number;
+    /** Words for an error that stops the prediction (default: its message). */
+    sayError?: (e: unknown) => string;
+  },
 ): ReleaseAssessment {
+  const say = input.sayError ?? ((e: unknown) => (e instanceof Error ? e.message : String(e)));
   let prediction: BlendProperties | { error: string };
   let qcRows: QcRow[] | null = null;
   try {
     prediction = predictBlend(input.components, input.recipe.lines, { method: input.method, operatingTempC: input.operatingTempC });
   } catch (e) {
-    prediction = { error: e instanceof Error ? e.message : String(e) };
+    prediction = { error: say(e) };
   }
   if (!('error' in prediction)) {
     try {
       qcRows = qcReleaseTargets(input.recipe.grade, sheetPrediction(prediction), {
         specification: input.recipe.specification,
-        temperatureUnit: input.temperatureUnit,
+        ...(input.display?.temperatureUnit ? { temperatureUnit: input.display.temperatureUnit } : {}),
+        formatNumber: (x, d) => formatFixed(x, d, input.display),
       });
     } catch (e) {
-      prediction = { error: e instanceof Error ? e.message : String(e) };
+      prediction = { error: say(e) };
     }
   }
   return { prediction, qcRows, reasons: releaseHoldReasons({ ...input, prediction, qcRows }) };

@@ -9,6 +9,7 @@
  *    feasible is binding, and the reason quotes the best value reachable for it under all the other
  *    constraints (highest VI, lowest aniline point, least polymer, …) against its limit.
  */
+import { displayWords, type NumberDisplay } from '../words/display';
 import { flashBlendingIndex, flashPointFromIndex } from '../blending/flash-point';
 import { pourBlendingIndex, pourPointFromIndex } from '../blending/pour-point';
 import {
@@ -51,19 +52,14 @@ export interface DiagnosisLabels {
   /** The grade's own ν40 limits [mm²/s], when the band is a tighter target band inside it. */
   gradeMin?: number;
   gradeMax?: number;
+  /** How the reason writes numbers and temperatures (default ".", °C). */
+  display?: NumberDisplay;
 }
 
-/** A viscosity for a message: 3 significant figures, no trailing exponent. */
+/** A viscosity for a message: 3 significant figures, no trailing exponent ("." as decimal separator). */
 export function fmtKv(kv: number): string {
-  if (kv >= 100) return kv.toFixed(0);
-  if (kv >= 10) return kv.toFixed(1);
-  return kv.toFixed(2);
+  return displayWords().kv(kv);
 }
-const pct = (f: number): string => `${(100 * f).toFixed(1)} %`;
-const deg = (t: number): string => `${t.toFixed(1)} °C`;
-/** "<what> reachable in <where> is 12.3 °C", or, when the LP could not say (knife-edge tolerances), no number. */
-const reachable = (what: string, where: string, t: number): string =>
-  `${what} reachable in ${where} under the other constraints ${Number.isFinite(t) ? `is ${deg(t)}` : 'could not be determined'}`;
 
 const GROUP_BINDING: Record<ConstraintGroup, string> = {
   band: 'band',
@@ -91,7 +87,14 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
   let lpCount = 0;
   const comps = P.components;
   const usable = P.usableIndices;
-  const bandText = `${labels.product} (ν40 ${fmtKv(t.kv40Min)}–${fmtKv(t.kv40Max)} mm²/s)`;
+  const words = displayWords(labels.display);
+  const kv = words.kv;
+  const pct = (f: number) => words.pct(f);
+  const deg = (tC: number) => words.temp(tC);
+  /** "<what> reachable in <where> is 12.3 °C", or, when the LP could not say (knife-edge tolerances), no number. */
+  const reachable = (what: string, where: string, tC: number): string =>
+    `${what} reachable in ${where} under the other constraints ${Number.isFinite(tC) ? `is ${deg(tC)}` : 'could not be determined'}`;
+  const bandText = `${labels.product} (ν40 ${kv(t.kv40Min)}–${kv(t.kv40Max)} mm²/s)`;
   const done = (d: Omit<Diagnosis, 'lpCount' | 'relaxable'> & { relaxable?: ConstraintGroup[] }): Diagnosis => ({
     relaxable: [],
     ...d,
@@ -162,11 +165,11 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
   const lightest = pool.reduce((a, i) => (comps[i]!.kv40 < comps[a]!.kv40 ? i : a), pool[0]!);
   const minNote =
     labels.gradeMin !== undefined && t.kv40Min > labels.gradeMin * (1 + 1e-9)
-      ? ` (the target band; the grade itself starts at ${fmtKv(labels.gradeMin)})`
+      ? ` (the target band; the grade itself starts at ${kv(labels.gradeMin)})`
       : '';
   const maxNote =
     labels.gradeMax !== undefined && t.kv40Max < labels.gradeMax * (1 - 1e-9)
-      ? ` (the target band; the grade itself ends at ${fmtKv(labels.gradeMax)})`
+      ? ` (the target band; the grade itself ends at ${kv(labels.gradeMax)})`
       : '';
   const withOthers = (): string => {
     const notes: string[] = [];
@@ -178,11 +181,11 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
   if (kvMax < t.kv40Min * (1 - 1e-9)) {
     const h = comps[heaviest]!;
     const blendNote =
-      Math.abs(kvMax - h.kv40) > 0.005 * h.kv40 ? `; the heaviest blend${withOthers()} reaches ${fmtKv(kvMax)} mm²/s` : '';
+      Math.abs(kvMax - h.kv40) > 0.005 * h.kv40 ? `; the heaviest blend${withOthers()} reaches ${kv(kvMax)} mm²/s` : '';
     return done({
       reason:
-        `The heaviest available stock, ${h.label}, reaches only ${fmtKv(h.kv40)} mm²/s at 40 °C${blendNote}; ` +
-        `${labels.product} needs at least ${fmtKv(t.kv40Min)} mm²/s${minNote} — add a heavier stock or a thickener.`,
+        `The heaviest available stock, ${h.label}, reaches only ${kv(h.kv40)} mm²/s at 40 °C${blendNote}; ` +
+        `${labels.product} needs at least ${kv(t.kv40Min)} mm²/s${minNote} — add a heavier stock or a thickener.`,
       binding: 'kv40-min',
       suggestion:
         'Add a heavier stock (a high-viscosity Group II stock, a high-viscosity PAO or a bright stock) or a thickening polymer, or allow more of the heaviest stock.',
@@ -191,11 +194,11 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
   if (kvMin > t.kv40Max * (1 + 1e-9)) {
     const l = comps[lightest]!;
     const blendNote =
-      Math.abs(kvMin - l.kv40) > 0.005 * l.kv40 ? `; the lightest blend${withOthers()} reaches ${fmtKv(kvMin)} mm²/s` : '';
+      Math.abs(kvMin - l.kv40) > 0.005 * l.kv40 ? `; the lightest blend${withOthers()} reaches ${kv(kvMin)} mm²/s` : '';
     return done({
       reason:
-        `The lightest available stock, ${l.label}, is ${fmtKv(l.kv40)} mm²/s at 40 °C${blendNote}; ` +
-        `${labels.product} needs at most ${fmtKv(t.kv40Max)} mm²/s${maxNote} — add a lighter stock.`,
+        `The lightest available stock, ${l.label}, is ${kv(l.kv40)} mm²/s at 40 °C${blendNote}; ` +
+        `${labels.product} needs at most ${kv(t.kv40Max)} mm²/s${maxNote} — add a lighter stock.`,
       binding: 'kv40-max',
       suggestion: 'Add a lighter base stock, or allow more of the lightest one.',
     });
@@ -241,7 +244,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
     return done({
       reason:
         `No single constraint is responsible: ${names.length ? names.join(', ') + ' and ' : ''}the viscosity band of ` +
-        `${bandText} cannot be met together with these stocks (reachable ν40 ${fmtKv(kvMin)}–${fmtKv(kvMax)} mm²/s).`,
+        `${bandText} cannot be met together with these stocks (reachable ν40 ${kv(kvMin)}–${kv(kvMax)} mm²/s).`,
       binding: 'combination',
       suggestion: 'Relax several limits at once, or add stocks that bring the missing properties.',
     });
@@ -265,8 +268,8 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const best = maxReachableVi(P, others, (n) => (lpCount += n));
       return done({
         reason:
-          `The highest VI reachable in ${bandText} under the other constraints is ${best.toFixed(1)}; ` +
-          `the minimum asked is ${t.minVi!.toFixed(1)}.`,
+          `The highest VI reachable in ${bandText} under the other constraints is ${words.num(best, 1)}; ` +
+          `the minimum asked is ${words.num(t.minVi!, 1)}.`,
         binding: 'min-vi',
         suggestion: 'Add a higher-VI stock (Group III, PAO) or a VI-improving polymer, or lower the minimum VI.',
         relaxable,
@@ -341,7 +344,7 @@ export function diagnoseInfeasible(P: PreparedProblem, labels: DiagnosisLabels):
       const hi = solve(others, x40Objective(P, 'maximize'));
       const lo = solve(others, x40Objective(P, 'minimize'));
       const range =
-        hi.status === 'optimal' && lo.status === 'optimal' ? `${fmtKv(lo.kv40)}–${fmtKv(hi.kv40)} mm²/s` : 'outside the band';
+        hi.status === 'optimal' && lo.status === 'optimal' ? `${kv(lo.kv40)}–${kv(hi.kv40)} mm²/s` : 'outside the band';
       return done({
         reason: `Under the other constraints the blends reach ν40 ${range} only; ${bandText} is out of reach.`,
         binding: 'band',

@@ -8,6 +8,7 @@
  * against every constraint (`checks`); infeasible problems come back with a reason computed from
  * the achievable range and the binding constraint (`diagnose.ts`).
  */
+import { displayWords, type NumberDisplay } from '../words/display';
 import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, assertDensity15, assertFinite, assertTemperatureC, assertViscosity } from '../errors';
@@ -47,14 +48,69 @@ export interface SolveBlendInput {
   /** Temperatures for the predicted properties [°C] (optional). */
   operatingTempC?: number;
   coldTempC?: number;
+  /** How reasons write numbers and temperatures (the user's decimal separator and unit; default ".", °C). */
+  display?: NumberDisplay;
 }
 
 /** One constraint as recomputed by the core. */
 export interface ConstraintCheck {
+  /** The constraint with its unit, e.g. "maximum aniline point [°C]" (stored units). */
   constraint: string;
+  /** The constraint in words, without unit, e.g. "maximum aniline point", "BW-280 share". */
+  name: string;
+  /** What the value measures, for writing it: ν40 [mm²/s], VI, a temperature [°C], a share (0–1), a probability (0–1), a mass [kg], a count. */
+  quantity: 'kv' | 'vi' | 'temperature' | 'fraction' | 'probability' | 'mass' | 'count';
   value: number | null;
+  /** The limit as text in stored units (".", °C, fractions), e.g. "≤ 0.25". */
   limit: string;
+  /** The limit's ends in stored units; null = open. */
+  min: number | null;
+  max: number | null;
   ok: boolean;
+}
+
+/**
+ * A recomputed constraint in words for a reason, e.g. "maximum polymer share: 31.0 %, limit at most 25 %"
+ * or "minimum VI: 98.2, limit at least 120", in the display style (temperatures in its unit).
+ */
+export function checkInWords(c: ConstraintCheck, display?: NumberDisplay): string {
+  const w = displayWords(display);
+  const value = (v: number): string => {
+    switch (c.quantity) {
+      case 'kv':
+        return `${w.kv(v)} mm²/s`;
+      case 'temperature':
+        return w.temp(v);
+      case 'fraction':
+      case 'probability':
+        return w.pct(v);
+      case 'mass':
+        return `${w.num(v, 0)} kg`;
+      case 'count':
+        return w.num(v, 0);
+      default:
+        return w.num(v, 1);
+    }
+  };
+  const limit = (v: number): string => {
+    switch (c.quantity) {
+      case 'kv':
+        return `${w.kv(v)} mm²/s`;
+      case 'temperature':
+        return w.sayTemp(v);
+      case 'fraction':
+      case 'probability':
+        return `${w.say(100 * v)} %`;
+      case 'mass':
+        return `${w.say(v)} kg`;
+      default:
+        return w.say(v);
+    }
+  };
+  const { min, max } = c;
+  const lim =
+    min !== null && max !== null ? (min === max ? `exactly ${limit(min)}` : `${limit(min)} to ${limit(max)}`) : min !== null ? `at least ${limit(min)}` : max !== null ? `at most ${limit(max)}` : c.limit;
+  return `${c.name}: ${c.value === null ? 'not predicted' : value(c.value)}, limit ${lim}`;
 }
 
 export interface SolveOptimal {
@@ -344,7 +400,7 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
   if (r.status !== 'optimal') {
     const iso = gradeBand(P.blendTargets.grade);
     if (pMin !== null && pMin > 0 && solvePrepared(P, null, { nominal: true }).status === 'optimal') {
-      const reason = inBandInfeasibleReason(P, P.band);
+      const reason = inBandInfeasibleReason(P, P.band, null, input.display);
       return {
         status: 'infeasible',
         reason,
@@ -354,7 +410,7 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
         lpCount: r.lpCount,
       };
     }
-    const d = diagnoseInfeasible(withInBandProbability(P, null), { product: P.productLabel, gradeMin: iso.min, gradeMax: iso.max });
+    const d = diagnoseInfeasible(withInBandProbability(P, null), { product: P.productLabel, gradeMin: iso.min, gradeMax: iso.max, display: input.display });
     const solverNote = r.solverFailure ? ' (The LP solver also reported a numerical failure.)' : '';
     return {
       status: 'infeasible',
@@ -380,9 +436,7 @@ export function solveBlend(input: SolveBlendInput): SolveResult {
   // aniline point is unknown under an aniline limit, or a knife-edge LP tolerance).
   const failed = checks.filter((c) => !c.ok);
   if (failed.length > 0) {
-    const what = failed
-      .map((c) => `${c.constraint} ${c.value === null ? 'unknown' : Number(c.value.toPrecision(6))} (limit ${c.limit})`)
-      .join('; ');
+    const what = failed.map((c) => checkInWords(c, input.display)).join('; ');
     return {
       status: 'infeasible',
       reason: `The best recipe found fails a constraint when recomputed by the core: ${what}. Blendbench does not offer it.`,
@@ -435,56 +489,39 @@ export function checkConstraints(P: PreparedBlend, lines: readonly RecipeLine[],
   const t = P.blendTargets;
   const tol = CHECK_TOLERANCE;
   const out: ConstraintCheck[] = [];
-  out.push({
-    constraint: 'ν40 band [mm²/s]',
-    value: p.kv40,
-    limit: `${fmtKv(P.band.min)}–${fmtKv(P.band.max)}`,
-    ok: p.kv40 >= P.band.min * (1 - tol.kv40Relative) && p.kv40 <= P.band.max * (1 + tol.kv40Relative),
-  });
-  if (t.minVi !== null) {
-    out.push({ constraint: 'minimum VI', value: p.vi, limit: `≥ ${t.minVi}`, ok: p.vi !== null && p.vi >= t.minVi - tol.vi });
-  }
+  /** "a–b", "≥ a", "≤ b" or "= a" in stored units (programmers' text). */
+  const limitText = (min: number | null, max: number | null, show: (x: number) => string = String): string =>
+    min !== null && max !== null ? (min === max ? `= ${show(min)}` : `${show(min)}–${show(max)}`) : min !== null ? `≥ ${show(min)}` : `≤ ${show(max!)}`;
+  const add = (name: string, unit: string, quantity: ConstraintCheck['quantity'], value: number | null, min: number | null, max: number | null, ok: boolean, show?: (x: number) => string) =>
+    out.push({ constraint: unit ? `${name} [${unit}]` : name, name, quantity, value, limit: limitText(min, max, show), min, max, ok });
+  add('ν40 band', 'mm²/s', 'kv', p.kv40, P.band.min, P.band.max, p.kv40 >= P.band.min * (1 - tol.kv40Relative) && p.kv40 <= P.band.max * (1 + tol.kv40Relative), fmtKv);
+  if (t.minVi !== null) add('minimum VI', '', 'vi', p.vi, t.minVi, null, p.vi !== null && p.vi >= t.minVi - tol.vi);
   if (t.maxAnilinePoint !== null) {
     const v = p.anilinePoint?.value ?? null;
-    out.push({ constraint: 'maximum aniline point [°C]', value: v, limit: `≤ ${t.maxAnilinePoint}`, ok: v !== null && v <= t.maxAnilinePoint + tol.temperature });
+    add('maximum aniline point', '°C', 'temperature', v, null, t.maxAnilinePoint, v !== null && v <= t.maxAnilinePoint + tol.temperature);
   }
   if (t.maxPolymerFraction !== null) {
-    out.push({
-      constraint: 'maximum polymer fraction',
-      value: p.polymerFraction,
-      limit: `≤ ${t.maxPolymerFraction}`,
-      ok: p.polymerFraction <= t.maxPolymerFraction + tol.fraction,
-    });
+    add('maximum polymer fraction', '', 'fraction', p.polymerFraction, null, t.maxPolymerFraction, p.polymerFraction <= t.maxPolymerFraction + tol.fraction);
   }
-  if (t.maxPourPoint !== null) {
-    out.push({ constraint: 'maximum pour point [°C]', value: p.pourPoint, limit: `≤ ${t.maxPourPoint}`, ok: p.pourPoint !== null && p.pourPoint <= t.maxPourPoint + tol.temperature });
-  }
-  if (t.minFlashPoint !== null) {
-    out.push({ constraint: 'minimum flash point [°C]', value: p.flashPoint, limit: `≥ ${t.minFlashPoint}`, ok: p.flashPoint !== null && p.flashPoint >= t.minFlashPoint - tol.temperature });
-  }
+  if (t.maxPourPoint !== null) add('maximum pour point', '°C', 'temperature', p.pourPoint, null, t.maxPourPoint, p.pourPoint !== null && p.pourPoint <= t.maxPourPoint + tol.temperature);
+  if (t.minFlashPoint !== null) add('minimum flash point', '°C', 'temperature', p.flashPoint, t.minFlashPoint, null, p.flashPoint !== null && p.flashPoint >= t.minFlashPoint - tol.temperature);
   const pMin = t.minInBandProbability ?? null;
   if (pMin !== null && pMin > 0) {
     const q = recipeInBand(P.library, lines, t.grade, P.band, P.method).plant.probability;
-    out.push({ constraint: 'probability in band', value: q, limit: `≥ ${pMin}`, ok: q >= pMin });
+    add('probability in band', '', 'probability', q, pMin, null, q >= pMin);
   }
   const byId = new Map(lines.map((l) => [l.componentId, l.massFraction]));
   const sum = lines.reduce((s, l) => s + l.massFraction, 0);
-  out.push({ constraint: 'fractions sum to 1', value: sum, limit: '= 1', ok: Math.abs(sum - 1) <= tol.fraction });
-  P.components.forEach((k, i) => {
+  add('fractions sum to 1', '', 'fraction', sum, 1, 1, Math.abs(sum - 1) <= tol.fraction);
+  P.components.forEach((k) => {
     const w = byId.get(k.id) ?? 0;
     if (!k.usable) {
-      if (w > 0) out.push({ constraint: `${k.label} not usable`, value: w, limit: '= 0', ok: false });
+      if (w > 0) add(`${k.label} not usable`, '', 'fraction', w, 0, 0, false);
       return;
     }
     if (k.min > 0 || k.max < 1) {
-      out.push({
-        constraint: `${k.label} ${k.fixedAdditive ? 'treat rate' : 'fraction'}`,
-        value: w,
-        limit: k.min === k.max ? `= ${k.min}` : `${k.min}–${k.max}`,
-        ok: w >= k.min - tol.fraction && w <= k.max + tol.fraction,
-      });
+      add(`${k.label} ${k.fixedAdditive ? 'treat rate' : 'fraction'}`, '', 'fraction', w, k.min, k.max, w >= k.min - tol.fraction && w <= k.max + tol.fraction);
     }
-    void i;
   });
   return out;
 }

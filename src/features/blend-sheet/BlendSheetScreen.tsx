@@ -72,6 +72,7 @@ export default function BlendSheetScreen() {
       qcInputs={qcInputs}
       onQcInputsChange={recipeActions.setQcInputs}
       formatNumber={formatNumber}
+      display={settings}
     />
   );
 }

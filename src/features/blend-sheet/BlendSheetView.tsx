@@ -1,5 +1,6 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
+import { displayWords, formatFixed, type NumberDisplay } from '../../core/words/display';
 import { useId, useMemo, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
@@ -59,10 +60,15 @@ export interface BlendSheetViewProps {
   meteringTempC?: number;
   /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
   today: string;
-  /** Formats a number with a fixed number of decimals; default en-US grouping ("1,234.5"). */
+  /** Formats a number with a fixed number of decimals; default "." with grouped thousands ("12 345.6"). */
   formatNumber?: (x: number, decimals: number) => string;
   /** Unit the sheet prints temperatures in (heat-to, operating temperature, flash, pour, aniline); default °C. */
   temperatureUnit?: 'C' | 'F';
+  /**
+   * The user's number style (decimal separator, grouping, temperature unit) for the sentences the core
+   * composes: the hold's reasons and the QC loop's reasons. Default ".", no grouping, `temperatureUnit`.
+   */
+  display?: NumberDisplay;
   /**
    * Saved header fields and edited instructions by recipe id, with the setter that saves them. Without
    * them the sheet keeps its fields for as long as it is shown.
@@ -83,8 +89,8 @@ export interface BlendSheetViewProps {
   onExportCsv?: (csv: string, fileName: string) => void;
 }
 
-const defaultFormat = (x: number, d: number) =>
-  x.toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d });
+/** Without the user's formatter: the app's default style ("." and grouped thousands, "12 345.6"). */
+const defaultFormat = (x: number, d: number) => formatFixed(x, d, { thousandsGrouping: true });
 
 /** Sheet fields typed as text (a refused value stays shown in its field with the message). */
 type TypedField = 'lot' | 'vessel' | 'batchSize' | 'instructions';
@@ -104,8 +110,8 @@ function Refusal({ id, message }: { id: string; message: string | null }) {
   );
 }
 
-function errorText(e: unknown, components: readonly Component[]): string {
-  return userMessage(e, { components });
+function errorText(e: unknown, components: readonly Component[], display: NumberDisplay): string {
+  return userMessage(e, { components, words: displayWords(display) });
 }
 
 export function BlendSheetView(props: BlendSheetViewProps) {
@@ -125,6 +131,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   /** Fields typed on this visit when the caller does not save them (by recipe id). */
   const [localInputs, setLocalInputs] = useState<Record<string, SheetInputs>>({});
   const tUnit = props.temperatureUnit ?? 'C';
+  const display = useMemo((): NumberDisplay => props.display ?? { temperatureUnit: tUnit }, [props.display, tUnit]);
   const saved = recipe ? (props.sheetInputs ?? localInputs)[recipe.id] : undefined;
   const { batchSize, batchUnit, lot, vessel, instructions } = saved ?? DEFAULT_SHEET_INPUTS;
   // A typed value the field rules refuse stays in its field with the message; the stored value is kept.
@@ -168,9 +175,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         sheet: buildBlendSheet(priced?.components ?? components, recipe, batch, { meteringTempC: props.meteringTempC }),
       };
     } catch (e) {
-      return { error: errorText(e, components) };
+      return { error: errorText(e, components, display) };
     }
-  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC]);
+  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC, display]);
 
   const qc = useMemo(
     (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {
@@ -183,10 +190,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           properties: p.properties ?? null,
         };
       } catch (e) {
-        return { error: errorText(e, components) };
+        return { error: errorText(e, components, display) };
       }
     },
-    [recipe, predict, tUnit, components, fmt],
+    [recipe, predict, tUnit, components, fmt, display],
   );
 
   const hold = useMemo((): HoldReason[] => {
@@ -199,8 +206,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       qcRows: qc && 'rows' in qc ? qc.rows : null,
       method: props.method ?? 'refutas',
       supersededBy: recipes.find((r) => r.supersedes === recipe.id && r.status === 'approved') ?? null,
+      display,
     });
-  }, [recipe, components, props.targets, qc, props.method, recipes]);
+  }, [recipe, components, props.targets, qc, props.method, recipes, display]);
   const stockChanges = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
 
   // The QC loop: entries saved per recipe; the probability in band, the adjusted recipe and the
@@ -225,8 +233,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   }, [recipe, components, releaseBand?.min, releaseBand?.max, method]); // eslint-disable-line react-hooks/exhaustive-deps
   const builtSheet = built && 'sheet' in built ? built.sheet : null;
   const adjusted = useMemo(
-    () => (recipe && builtSheet ? adjustedRecipe(recipe, components, qcIn, builtSheet.totalKgExact, method) : null),
-    [recipe, builtSheet, components, qcIn, method],
+    () => (recipe && builtSheet ? adjustedRecipe(recipe, components, qcIn, builtSheet.totalKgExact, method, display) : null),
+    [recipe, builtSheet, components, qcIn, method, display],
   );
   /** The sheet of the additions when the recipe is adjusted (lot densities; batch less the heel). */
   const adjustedSheet = useMemo((): BlendSheet | null => {
@@ -253,9 +261,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             batchKg: builtSheet?.totalKgExact ?? null,
             targets: props.targets?.[recipe.id] ?? null,
             method,
+            display,
           })
         : null,
-    [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, props.targets, method], // eslint-disable-line react-hooks/exhaustive-deps
+    [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, props.targets, method, display], // eslint-disable-line react-hooks/exhaustive-deps
   );
   const heelSources = useMemo(() => {
     const byIdAll = new Map(components.map((c) => [c.id, c]));

@@ -13,6 +13,7 @@ import { adjustRecipe, type AdjustResult, type AdjustStock } from '../../core/qc
 import { correctBatchPlain, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
 import type { QcInputs } from '../../state';
 import { userMessage } from '../../state/messages';
+import { displayWords, type NumberDisplay } from '../../core/words/display';
 
 /** Default half-width of the band a correction aims into, around the aim [%] (common practice, no source). */
 export const DEFAULT_CORRECTION_BAND_PCT = 2;
@@ -85,8 +86,10 @@ export function adjustedRecipe(
   qc: QcInputs,
   batchKg: number,
   method: BlendMethod,
+  display?: NumberDisplay,
 ): Adjusted | null {
   if (!hasAdjustment(qc)) return null;
+  const words = displayWords(display);
   const byId = new Map(components.map((c) => [c.id, c]));
   try {
     const lots = lotValues(recipe, byId, qc);
@@ -115,10 +118,10 @@ export function adjustedRecipe(
     }));
     const sum = stocks.reduce((s, x) => s + x.savedFraction, 0);
     stocks.forEach((x) => (x.savedFraction /= sum));
-    const result = adjustRecipe({ stocks, batchKg, aimKv40: aim, additive, heel, method });
+    const result = adjustRecipe({ stocks, batchKg, aimKv40: aim, additive, heel, method, ...(display ? { display } : {}) });
     return { result, lots, aim, heelKg };
   } catch (e) {
-    return { error: userMessage(e, { components }) };
+    return { error: userMessage(e, { components, words }) };
   }
 }
 
@@ -164,16 +167,19 @@ export function correctionFor(
     batchKg: number | null;
     targets: BlendTargets | null;
     method: BlendMethod;
+    /** The user's number style for the reasons (default ".", °C). */
+    display?: NumberDisplay;
   },
 ): Correction | null {
   const c = qc.correction;
+  const words = displayWords(opts.display);
   if (c.kv40 === null) return null;
   const byId = new Map(components.map((x) => [x.id, x]));
   try {
     const massKg = c.massKg ?? opts.batchKg;
     if (massKg === null || !(massKg > 0)) return { error: 'Enter the mass of the batch in the vessel.' };
     if (c.vesselLimitKg !== null && c.vesselLimitKg < massKg) {
-      return { error: `The vessel limit (${c.vesselLimitKg} kg) is below the ${massKg} kg already in it.` };
+      return { error: `The vessel limit (${words.say(c.vesselLimitKg)} kg) is below the ${words.say(massKg)} kg already in it.` };
     }
     let kv100 = c.kv100;
     const kv100Estimated = kv100 === null;
@@ -185,7 +191,7 @@ export function correctionFor(
     const b = (c.bandPct ?? DEFAULT_CORRECTION_BAND_PCT) / 100;
     const lo = Math.max(opts.releaseBand.min, aim * (1 - b));
     const hi = Math.min(opts.releaseBand.max, aim * (1 + b));
-    if (!(hi >= lo)) return { error: `The aim ${aim} mm²/s ± ${b * 100} % lies outside the release band.` };
+    if (!(hi >= lo)) return { error: `The aim ${words.say(aim)} mm²/s ± ${words.say(b * 100)} % lies outside the release band.` };
     const lots = new Map(lotValues(recipe, byId, qc).map((l) => [l.id, l]));
     const ids = [...new Set([...recipe.lines.filter((l) => l.massFraction > 0).map((l) => l.componentId), ...c.stockIds])];
     const additive = recipeAdditive(recipe, byId);
@@ -218,10 +224,11 @@ export function correctionFor(
       ...(additive ? { additive: { id: byId.get(additive.id)!.code, massFraction: additive.massFraction } } : {}),
       ...(c.vesselLimitKg === null ? {} : { maxFinalMassKg: c.vesselLimitKg }),
       ...(opts.targets?.minVi === null || opts.targets?.minVi === undefined ? {} : { minVi: opts.targets.minVi }),
+      ...(opts.display ? { display: opts.display } : {}),
     };
     return { problem, result: correctBatchPlain(problem, opts.method), band: { min: lo, max: hi }, kv100Estimated, codes };
   } catch (e) {
-    return { error: userMessage(e, { components }) };
+    return { error: userMessage(e, { components, words }) };
   }
 }
 

@@ -55,7 +55,7 @@ export function runSolve(
   fmt: Formatter,
 ): SolveOutcome {
   try {
-    const r = solveBlend({ components, targets, reference, method });
+    const r = solveBlend({ components, targets, reference, method, display: fmt.settings });
     if (r.status === 'optimal') {
       const cost = r.properties.costPerLitre;
       const cur = r.properties.currency ?? '';

@@ -88,7 +88,7 @@ export function derivePlan(
   recipes: readonly Recipe[],
   targets: Readonly<Record<string, BlendTargets>>,
   plan: LinePlanInputs,
-  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'>,
+  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC'> & Partial<Pick<Settings, 'decimalSeparator' | 'thousandsGrouping' | 'temperatureUnit'>>,
 ): DerivedPlan {
   const grades = plannedGrades(recipes, plan);
   const limited = limitedStocks(components, plan);
@@ -121,6 +121,8 @@ export function derivePlan(
           method: settings.blendMethod,
           operatingTempC: settings.operatingTempC,
           coldTempC: settings.coldStartTempC,
+          // The user's number style for the reasons (plain data: the plan runs in a worker).
+          display: { decimalSeparator: settings.decimalSeparator, thousandsGrouping: settings.thousandsGrouping, temperatureUnit: settings.temperatureUnit },
         };
   return { input, limited: limited.map((c) => c.id), grades, warnings };
 }

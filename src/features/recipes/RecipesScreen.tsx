@@ -10,6 +10,7 @@ import { ActionNotice, Notice } from '../../components/notices';
 import { NumberField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
+import { userMessage } from '../../state/messages';
 import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
 
@@ -173,6 +174,7 @@ function RecipeDetail({
   const components = useLibrary((s) => s.components);
   const targets = useRecipes((s) => s.targets[recipe.id]) ?? null;
   const settings = useSettings();
+  const fmt = useFormat();
   const codeOf = (id: string) => components.find((c) => c.id === id)?.code ?? id;
   const release = useMemo(
     () =>
@@ -182,8 +184,10 @@ function RecipeDetail({
         targets,
         method: settings.blendMethod,
         supersededBy: supersededBy.find((r) => r.status === 'approved') ?? null,
+        display: settings,
+        sayError: (e) => userMessage(e, { components, words: fmt }),
       }),
-    [recipe, components, targets, settings.blendMethod, supersededBy],
+    [recipe, components, targets, settings, supersededBy, fmt],
   );
   const stockChanges = useMemo(() => stockBasisChanges(recipe.stockBasis, components), [recipe, components]);
   // Reasons other than the status itself stop an approval.
