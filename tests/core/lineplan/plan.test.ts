@@ -94,6 +94,8 @@ describe('planLine on the invented demo plant', () => {
   });
 
   it('the tank limit holds and costs what it costs', () => {
+    // The additive package is a stock in use like any other: it takes a tank and counts.
+    expect(free.stocksUsed).toContain(demoComponentId('BW-901'));
     const k = free.stocksUsed.length - 1;
     const r = planLine(demoInput({ maxStocks: k }));
     if (r.status === 'optimal') {
@@ -137,6 +139,21 @@ describe('planLine — infeasible plans in words, and bad input', () => {
     expect(r.kind).toBe('grade');
     expect(r.gradeId).toBe('demo-vg680');
     expect(r.reason).toMatch(/^VG 680 cannot be made/);
+  });
+
+  it('names the short supply, by how many tonnes, and the grade that needs it', () => {
+    // VG 680's saved limits hold at least 50 % BW-190; 150 t of VG 680 need at least 75 t of it, and
+    // 10 t are on offer: short by 65 t (arithmetic on the invented demand; no other grade must use it).
+    const input = demoInput({ supplyKg: { [BS]: 10_000 } });
+    const grades = input.grades.map((g) =>
+      g.label === 'VG 680' ? { ...g, targets: { ...g.targets, bounds: { ...g.targets.bounds, [BS]: { min: 0.5 } } } } : g,
+    );
+    const r = planLine({ ...input, grades });
+    expect(r.status).toBe('infeasible');
+    if (r.status !== 'infeasible') return;
+    expect(r.kind).toBe('supply');
+    expect(r.short).toEqual([{ id: BS, code: 'BW-190', tonnes: expect.closeTo(65, 3) as number }]);
+    expect(r.reason).toMatch(/BW-190 is short by 65(\.0)? t \(10(\.0)? t on offer; the plan needs at least 75(\.0)? t for VG 680\)/);
   });
 
   it('names the stock that cannot be used as much as it must stay in use', () => {
