@@ -152,6 +152,24 @@ describe('Whole-line plan screen', () => {
     expect(screen.getByTestId('reason-after').textContent).toMatch(/^VG 680 cannot be made/);
   });
 
+  it('says which supply is short and by how many tonnes', async () => {
+    render(<LinePlanScreen />);
+    enter(/Demand of “Gear oil VG 680/, '150');
+    enter('Supply of BW-190', '10');
+    // VG 680 saved with at least 50 % BW-190: 150 t need 75 t, 10 t on offer → 65 t short (arithmetic).
+    act(() => {
+      // (test set-up straight into the store: an approved recipe's saved targets are never edited in place)
+      useRecipes.setState((st) => {
+        const t = st.targets['demo-vg680']!;
+        const bs = useLibrary.getState().components.find((c) => c.code === 'BW-190')!.id;
+        return { targets: { ...st.targets, 'demo-vg680': { ...t, bounds: { ...t.bounds, [bs]: { min: 0.5 } } } } };
+      });
+    });
+    fireEvent.click(screen.getByText('Plan the line'));
+    await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
+    expect(screen.getByTestId('reason-lasting').textContent).toMatch(/BW-190 is short by 65(,0)? t \(10(,0)? t on offer; the plan needs at least 75(,0)? t for VG 680\)/);
+  });
+
   it('prints the summary through the browser’s print dialog', async () => {
     const print = vi.spyOn(window, 'print').mockImplementation(() => {});
     await planDemo();
