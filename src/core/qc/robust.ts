@@ -319,6 +319,21 @@ export function inBandSeparator(P: PreparedProblem, p: number): InBandSeparator 
       const sHat = rho / S;
       const dev = sHat < cutLevel.sMax ? allowedDeviation(sHat, h, cutLevel.p) : null;
       if (!dev || side * L > S * dev.delta * (1 + 1e-12) + 1e-15 * S * h) addDeviation(vars, side, sHat, out);
+      // At the cap σ̂ ≥ σ_max the tangent there is vertical (δ_p′ → −∞) and only restates ρ ≤ σ_max·S;
+      // a point off centre there is cut by the tangent at the largest σ₁ = σ_max(1 − 2⁻ᵏ) whose line
+      // passes at most halfway to it, δ(σ₁) + δ′(σ₁)(σ̂ − σ₁) ≤ d̂/2 (the line falls as σ₁ grows, since
+      // δ_p is concave; without it Kelley's iterates stall at the cap).
+      const dHat = (side * L) / S;
+      if (!dev && dHat > 1e-12 * h) {
+        for (let k = 1; k <= 60; k++) {
+          const s1 = cutLevel.sMax * (1 - Math.pow(2, -k));
+          const t = allowedDeviation(s1, h, cutLevel.p);
+          if (t && Number.isFinite(t.slope) && t.delta + t.slope * (sHat - s1) <= dHat / 2) {
+            addDeviation(vars, side, s1, out);
+            break;
+          }
+        }
+      }
       const sTrue = Math.sqrt(r2) / S;
       if (Math.abs(sTrue - sHat) > 1e-9 * sTrue) addDeviation(vars, side, sTrue, out);
     }
