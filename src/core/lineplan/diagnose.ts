@@ -16,6 +16,7 @@ import { formatFixed, type NumberDisplay } from '../words/display';
 import { solvePrepared } from '../solver/engine';
 import { diagnoseInfeasible, type DiagnosisLabels } from '../solver/diagnose';
 import { solveJoint, type JointProblem } from './joint';
+import { inBandInfeasibleReason, withInBandProbability } from '../qc/robust-solve';
 
 /** Wording for a plan's messages. */
 export interface PlanLabels {
@@ -72,7 +73,16 @@ export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4
     const r = solvePrepared(P);
     lpCount += r.lpCount;
     if (r.status === 'optimal') continue;
-    const d = diagnoseInfeasible(P, labels.grades[g]!);
+    // Possible without its minimum probability in band: that minimum is the reason.
+    if ((P.targets.minInBandProbability ?? 0) > 0) {
+      const r0 = solvePrepared(P, null, { nominal: true });
+      lpCount += r0.lpCount;
+      if (r0.status === 'optimal') {
+        const band = { min: P.targets.kv40Min, max: P.targets.kv40Max };
+        return out({ kind: 'grade', grade: g, reason: `${labels.grades[g]!.product} cannot be made, even on its own: ${inBandInfeasibleReason(P, band)}` });
+      }
+    }
+    const d = diagnoseInfeasible(withInBandProbability(P, null), labels.grades[g]!);
     lpCount += d.lpCount;
     const why = d.binding === 'kv40-min' || d.binding === 'kv40-max' ? d.reason : `${d.reason} ${d.suggestion}`;
     return out({ kind: 'grade', grade: g, reason: `${labels.grades[g]!.product} cannot be made, even on its own: ${why}` });

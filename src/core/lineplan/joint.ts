@@ -32,6 +32,15 @@
  * and the first node popped whose solution meets every condition when recomputed (VI by ASTM D2270
  * within `VI_ACCEPT_TOLERANCE`, stocks in use ≤ K) is optimal.
  *
+ * - **Minimum probability in band of a grade** (`qc/robust.ts`). The grade's separator gives the
+ *   lifted outer approximation (ρ ≥ ‖Dw‖ in the rotated-cone form and tangents of the allowed
+ *   deviation, all rows homogeneous in the grade's fractions, so they hold with Σ w = 1 as they do
+ *   in the single-grade solver's Charnes–Cooper variables). A node solution whose recomputed
+ *   probability falls short gets tangents at itself and the node is solved again (Kelley's cutting
+ *   planes, as in the single-grade solver; the rows are valid for every blend meeting the
+ *   probability, so they are kept for every node). A node is accepted only when every grade's
+ *   probability, recomputed, reaches the solver's acceptance level — above the minimum asked for.
+ *
  * The same tree also answers the two questions an infeasible plan raises: the least shortfall of
  * supply (slack tonnes on the supply and minimum-use rows, minimised), and the least number of
  * distinct stocks the line can be made from (Σ y minimised; an integer, so a node is accepted when
@@ -42,6 +51,9 @@ import { viRoot } from '../solver/prepared';
 import type { ViChord } from '../solver/vi-boundary';
 import { viOf, VI_ACCEPT_TOLERANCE } from '../solver/branch-and-bound';
 import { LpWorkspace, solveDenseLp } from '../solver/lp';
+import type { ExtraRow } from '../solver/objectives';
+import { inBandModel, inBandSeparator, type InBandSeparator } from '../qc/robust';
+import { solvePrepared } from '../solver/engine';
 
 /** A line-plan problem in plain numbers; every grade is prepared on the same components, in the same order. */
 export interface JointProblem {
@@ -114,6 +126,8 @@ interface Node {
   bound: number;
   /** Raw fractions per grade (with dust), from the node's LP. */
   w: Float64Array[];
+  /** Lifted variables of each grade's probability condition (null for a grade without one). */
+  lift: (Float64Array | null)[];
   /** y per stock (tank and count modes), or the shortfall slacks [t]: supply then minimum use (shortfall mode). */
   aux: Float64Array | null;
 }
@@ -126,6 +140,19 @@ interface GradeSetup {
   /** Stocks at a fixed share (min = max > 0) and their shares. */
   fixed: number[];
   fixedShare: number[];
+  /** The grade's minimum probability in band, when it has one and some stock has a lot spread. */
+  robust: RobustGrade | null;
+}
+
+/** A grade's probability condition: its separator, the stocks it spans and the rows drawn so far. */
+interface RobustGrade {
+  sep: InBandSeparator;
+  /** Every stock of the grade (variables and fixed shares), ascending: the separator's variables. */
+  all: number[];
+  /** Number of lifted LP variables. */
+  nLift: number;
+  /** Rows so far (valid for every blend that meets the probability: kept for every node). */
+  rows: ExtraRow[];
 }
 
 class Rows {
@@ -186,7 +213,7 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
   const forced = new Uint8Array(n);
   for (let g = 0; g < G; g++) {
     const P = J.grades[g]!;
-    const s: GradeSetup = { P, vars: [], fixed: [], fixedShare: [] };
+    const s: GradeSetup = { P, vars: [], fixed: [], fixedShare: [], robust: null };
     for (let i = 0; i < n; i++) {
       const k = P.components[i]!;
       if (!k.usable) {
@@ -202,6 +229,19 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
         s.vars.push(i);
         if (k.min > 0) forced[i] = 1;
       }
+    }
+    const pMin = P.targets.minInBandProbability ?? null;
+    if (pMin !== null && pMin > 0 && inBandModel(P).any) {
+      // A grade that cannot reach its probability even on its own makes the plan impossible. The
+      // cutting planes would approach an empty set only slowly, so the single-grade solver (whose
+      // small LPs prove it quickly) is asked first.
+      const alone = solvePrepared(P);
+      lpCount += alone.lpCount;
+      if (alone.status !== 'optimal') return none('infeasible');
+      const all = [...s.vars, ...s.fixed].sort((x, y) => x - y);
+      const sep = inBandSeparator(P, pMin);
+      const start = sep.begin(all);
+      s.robust = { sep, all, nLift: start.lift, rows: start.rows.slice() };
     }
     grades.push(s);
   }
@@ -225,12 +265,16 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
 
   /** Build and solve the LP of a node (with the link-row cut loop); fills node.bound, node.w. */
   const solveNode = (node: Node): 'optimal' | 'infeasible' | 'failed' => {
-    for (let round = 0; round < 50; round++) {
+    for (let round = 0; round < 200; round++) {
       const r = buildAndSolve(node);
       if (r !== 'optimal') return r;
-      if (!useY) return 'optimal';
+      // Probability in band: tangents where a grade's recomputed probability falls short.
+      let added = separateRobust(node);
+      if (!useY) {
+        if (!added) return 'optimal';
+        continue;
+      }
       // Cut loop: add w_gi ≤ y_i where broken.
-      let added = false;
       const y = node.aux!;
       for (let g = 0; g < G; g++) {
         const w = node.w[g]!;
@@ -245,6 +289,35 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
       if (!added) return 'optimal';
     }
     return 'failed';
+  };
+
+  /** Probability cuts for every grade whose node solution falls short; true when any was added. */
+  const separateRobust = (node: Node): boolean => {
+    let added = false;
+    for (let g = 0; g < G; g++) {
+      const rg = grades[g]!.robust;
+      if (!rg) continue;
+      const w = node.w[g]!;
+      const nv = rg.all.length;
+      const wv = new Float64Array(nv);
+      const x = new Float64Array(nv + rg.nLift);
+      let sum = 0;
+      for (let j = 0; j < nv; j++) {
+        const v = Math.max(0, w[rg.all[j]!]!);
+        x[j] = v;
+        sum += v;
+      }
+      if (!(sum > 0)) continue;
+      for (let j = 0; j < nv; j++) wv[j] = x[j]! / sum;
+      const l = node.lift[g]!;
+      for (let k = 0; k < rg.nLift; k++) x[nv + k] = l[k]!;
+      const rows = rg.sep.separate(rg.all, wv, x, nv);
+      if (rows) {
+        for (const row of rows) rg.rows.push(row);
+        added = true;
+      }
+    }
+    return added;
   };
 
   /** One LP for a node: fills node.w, node.bound and node.aux. */
@@ -271,6 +344,15 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
         let any = false;
         for (let g = 0; g < G && !any; g++) any = col[g]![i]! >= 0;
         if (any) yCol[i] = width++;
+      }
+    }
+    // Lifted variables of each grade's probability condition.
+    const liftAt = new Int32Array(G).fill(-1);
+    for (let g = 0; g < G; g++) {
+      const rg = grades[g]!.robust;
+      if (rg) {
+        liftAt[g] = width;
+        width += rg.nLift;
       }
     }
     const sCol = new Int32Array(n).fill(-1); // supply shortfall slack [t]
@@ -331,6 +413,18 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
         }
         if (k.min > 0) R.add(k.min, Number.POSITIVE_INFINITY)[c[i]!] = 1;
         if (k.max < 1) R.add(Number.NEGATIVE_INFINITY, k.max)[c[i]!] = 1;
+      }
+      // Probability in band: the separator's homogeneous rows, fixed shares moved to the right.
+      const rg = grades[g]!.robust;
+      if (rg) {
+        for (const er of rg.rows) {
+          let k = 0;
+          for (let q = 0; q < fixed.length; q++) k += er.coef[fixed[q]!]! * fixedShare[q]!;
+          const le = er.sense === 'le';
+          const row = R.add(le ? Number.NEGATIVE_INFINITY : -k, le ? -k : Number.POSITIVE_INFINITY);
+          for (const i of vars) if (c[i]! >= 0) row[c[i]!] = er.coef[i]!;
+          if (er.lift) for (let q = 0; q < rg.nLift; q++) row[liftAt[g]! + q] = er.lift[q] ?? 0;
+        }
       }
       // Objective: cost of this grade's share of the line, per kg of the whole line.
       if (mode === 'cost') for (const i of vars) if (c[i]! >= 0) obj[c[i]!] = (J.demandKg[g]! / dTot) * P.price[i]!;
@@ -433,6 +527,8 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
         if (mode === 'cost') constant += J.demandKg[g]! * fixedShare[q]! * P.price[fixed[q]!]!;
       }
       node.w[g] = w;
+      const rg = grades[g]!.robust;
+      node.lift[g] = rg ? Float64Array.from({ length: rg.nLift }, (_, q) => Math.max(0, x[liftAt[g]! + q]!)) : null;
     }
     if (mode === 'cost') node.bound = sol.objective * dTot + constant;
     else if (mode === 'count') node.bound = sol.objective + forcedCount + keptCount;
@@ -499,6 +595,7 @@ export function solveJoint(J: JointProblem, options: JointOptions = {}): JointRe
     links: parent ? parent.links.slice() : new Uint8Array(G * n),
     bound: Number.NaN,
     w: new Array<Float64Array>(G),
+    lift: new Array<Float64Array | null>(G).fill(null),
     aux: null,
   });
 

@@ -17,6 +17,7 @@ import { preparePlain, plainBlendProperties, type PlainBlend, type PlainComponen
 import type { PreparedProblem } from '../solver/prepared';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
 import { diagnoseLinePlan } from './diagnose';
+import { inBandProbabilityPlain } from '../qc/probability-plain';
 
 /** A component of a plain line plan: as in `solveBlendPlain`, with an optional supply over the period. */
 export type PlainLineComponent = PlainComponent & {
@@ -38,6 +39,11 @@ export interface PlainLineGrade {
   minVi?: number;
   /** Maximum blend aniline point [°C]. */
   maxAnilinePoint?: number;
+  /**
+   * Least probability (0 to below 1) that a batch lands in the band under the components'
+   * `kv40RelSd` (as `solveBlendPlain`'s `minInBandProbability`); met exactly by the plan.
+   */
+  minInBandProbability?: number;
 }
 
 export interface PlainLineProblem {
@@ -47,8 +53,11 @@ export interface PlainLineProblem {
   maxStocks?: number;
 }
 
-/** One grade of a plain line plan's answer: its id and its blend, recomputed by the core (as `solveBlendPlain`'s). */
-export type PlainLineGradeResult = { id: string } & PlainBlend;
+/**
+ * One grade of a plain line plan's answer: its id and its blend, recomputed by the core (as
+ * `solveBlendPlain`'s); with `inBandProbability` when any component has a `kv40RelSd`.
+ */
+export type PlainLineGradeResult = { id: string; inBandProbability?: number } & PlainBlend;
 
 export type PlainLineResult =
   | {
@@ -104,6 +113,7 @@ export function preparePlainLine(p: PlainLineProblem): JointProblem {
       objective: 'cost' as const,
       ...(g.minVi === undefined ? {} : { minVi: g.minVi }),
       ...(g.maxAnilinePoint === undefined ? {} : { maxAnilinePoint: g.maxAnilinePoint }),
+      ...(g.minInBandProbability === undefined ? {} : { minInBandProbability: g.minInBandProbability }),
     };
     grades.push(inGrade(k, () => preparePlain(problem, FN)));
   });
@@ -139,8 +149,8 @@ export function preparePlainLine(p: PlainLineProblem): JointProblem {
  * distinct components in use across the line.
  *
  * @param p - the plan ({@link PlainLineProblem}): components (as `solveBlendPlain`, plus `supplyKg`
- *   [kg]), grades (target ν40 [mm²/s], tolerance [%], demand [kg], optional minimum VI and maximum
- *   aniline point [°C]) and an optional `maxStocks`
+ *   [kg]), grades (target ν40 [mm²/s], tolerance [%], demand [kg], optional minimum VI, maximum
+ *   aniline point [°C] and least probability in band) and an optional `maxStocks`
  * @returns `{ status: 'optimal', totalCost, grades, stockUseKg, stocksUsed }`, each grade's
  *   properties recomputed by the core, or `{ status: 'infeasible', reason }` naming the grade that
  *   cannot be made, the supply that is short (in tonnes) or the least number of stocks needed
@@ -175,6 +185,7 @@ export function planLinePlain(p: PlainLineProblem): PlainLineResult {
   const stockUseKg: Record<string, number> = {};
   for (const c of comps) stockUseKg[c.id] = 0;
   let totalCost = 0;
+  const spread = comps.some((c) => c.kv40RelSd !== undefined);
   const grades = p.grades.map((g, k) => {
     const w = r.fractions[k]!;
     const props = plainBlendProperties(comps, w);
@@ -184,7 +195,11 @@ export function planLinePlain(p: PlainLineProblem): PlainLineResult {
       stockUseKg[c.id] = stockUseKg[c.id]! + g.demandKg * w[i]!;
     });
     totalCost += g.demandKg * costPerKg;
-    return { id: g.id, ...props };
+    if (!spread) return { id: g.id, ...props };
+    const massFractions: Record<string, number> = {};
+    comps.forEach((c, i) => (massFractions[c.id] = w[i]!));
+    const band = { components: comps, targetKv40: g.targetKv40, tolerancePct: g.tolerancePct, objective: 'cost' as const };
+    return { id: g.id, ...props, inBandProbability: inBandProbabilityPlain(band, massFractions) };
   });
   const stocksUsed = comps.filter((_, i) => r.fractions.some((w) => w[i]! > IN_USE_FRACTION)).map((c) => c.id);
   return { status: 'optimal', totalCost, grades, stockUseKg, stocksUsed };

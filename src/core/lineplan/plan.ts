@@ -10,9 +10,10 @@
  * constraints (`checkConstraints`, the tolerances of `solveBlend`), and the supplies and the tank
  * limit are checked on the recomputed use.
  *
- * A grade's minimum probability in band (lot spread, `qc/robust.ts`) is not a condition of the line
- * plan: the grade is planned to its band, and the planned recipe's probability is reported beside
- * the minimum it asks for (`inBand`), so the formulator can make it robust in the designer.
+ * A grade's minimum probability in band (lot spread, `qc/robust.ts`) is a condition of the plan,
+ * met exactly by the engine (tangent cuts of the grade's cone condition, `joint.ts`) and checked on
+ * the recomputed recipe. The plan is then solved once more without the probabilities, so that the
+ * premium they cost the line is stated (`nominalTotalCost`, each grade's `inBand.nominalProbability`).
  */
 import type { BlendTargets, Component, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
@@ -24,6 +25,7 @@ import type { NumberDisplay } from '../words/display';
 import { solveJoint, IN_USE_FRACTION, type JointProblem } from './joint';
 import { diagnoseLinePlan, type PlanDiagnosis } from './diagnose';
 import { recipeInBand } from '../qc/recipe-spread';
+import { withInBandProbability } from '../qc/robust-solve';
 
 /** One grade of the line: a recipe taking part, with its targets and its demand. */
 export interface LinePlanGradeInput {
@@ -82,10 +84,12 @@ export interface LinePlanGradeResult extends LinePlanCost {
   /** The current recipe, costed at today's prices; null when there is none or it cannot be predicted. */
   current: (LinePlanCost & { properties: BlendProperties }) | null;
   /**
-   * Where the grade asks for a minimum probability in band (not applied by the plan): that minimum
-   * and the planned recipe's probability of landing in the band under the stocks' lot spread.
+   * Where the grade asks for a minimum probability in band (a condition of the plan): that minimum,
+   * the planned recipe's probability of landing in the band under the stocks' lot spread, and the
+   * probability of the grade's recipe in the plan solved without any minimum (null when that plan
+   * has no solution or was not solved).
    */
-  inBand: { minimum: number; probability: number } | null;
+  inBand: { minimum: number; probability: number; nominalProbability: number | null } | null;
 }
 
 /** Use of one stock over the period. */
@@ -118,6 +122,11 @@ export interface LinePlanOptimal {
   stocksNewlyNeeded: string[];
   /** Supply and tank limits on the recomputed use. */
   limitChecks: ConstraintCheck[];
+  /**
+   * When a grade asks for a minimum probability in band: the total cost of the line planned without
+   * any minimum (the premium is totalCost − this); null otherwise or when that plan has no solution.
+   */
+  nominalTotalCost: number | null;
   lpCount: number;
   nodeCount: number;
 }
@@ -189,9 +198,9 @@ export function prepareLinePlan(input: LinePlanInput): PreparedLinePlan {
       fail(`grades[${k}].demandKg`, g.demandKg, `${FN}: the demand for ${g.label} must be above 0 (leave a grade without demand out of the plan)`);
     }
     demandKg.push(g.demandKg);
-    // The plan minimises the line's cost (not each grade's own objective) and plans each grade to its
-    // band (a minimum probability in band is reported, not applied: see the module notes).
-    const targets = { ...g.targets, objective: 'cost' as const, minInBandProbability: null };
+    // The plan minimises the line's cost (not each grade's own objective); a minimum probability in
+    // band is a condition of the grade (see the module notes).
+    const targets = { ...g.targets, objective: 'cost' as const };
     prepared.push(inField(`grades[${k}].`, () => prepareComponents(components, targets, input.method ?? 'refutas'), { message: (m) => `${g.label}: ${m}` }));
   });
   const currencies = new Set(prepared.map((P) => P.currency).filter((c): c is string => c !== null));
@@ -262,11 +271,15 @@ export function planLine(input: LinePlanInput): LinePlanResult {
  *
  * @param plan - from {@link prepareLinePlan}
  * @param supplyKg - supplies [kg] aligned with the components; default the plan's own
+ * @param nominal - also solve the plan without the grades' minimum probabilities in band, for the
+ *   premium (default true; the marginal values leave it out)
  */
-export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonly number[]): LinePlanResult {
+export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonly number[], nominal = true): LinePlanResult {
   const J = supplyKg ? { ...plan.joint, supplyKg } : plan.joint;
   const { input, components, prepared } = plan;
   const r = solveJoint(J);
+  const robust = J.grades.some((P) => (P.targets.minInBandProbability ?? 0) > 0);
+  const r0 = r.status === 'optimal' && robust && nominal ? solveJoint({ ...J, grades: J.grades.map((P) => withInBandProbability(P, null)) }) : null;
   const infeasible = (d: Partial<LinePlanInfeasible> & Pick<LinePlanInfeasible, 'reason' | 'kind'>): LinePlanInfeasible => ({
     status: 'infeasible',
     gradeId: null,
@@ -344,9 +357,16 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     if (current && currentTotal !== null) currentTotal += current.cost;
     else currentTotal = null;
     const pMin = g.targets.minInBandProbability ?? null;
+    const probabilityOf = (f: Float64Array): number => {
+      const ls: RecipeLine[] = [];
+      components.forEach((c, i) => {
+        if (f[i]! > 0) ls.push({ componentId: c.id, massFraction: f[i]! });
+      });
+      return recipeInBand(components, ls, g.targets.grade, prepared[k]!.band, prepared[k]!.method).plant.probability;
+    };
     const inBand =
       pMin !== null && pMin > 0
-        ? { minimum: pMin, probability: recipeInBand(components, lines, g.targets.grade, prepared[k]!.band, prepared[k]!.method).plant.probability }
+        ? { minimum: pMin, probability: probabilityOf(w), nominalProbability: r0?.status === 'optimal' ? probabilityOf(r0.fractions[k]!) : null }
         : null;
     return { id: g.id, label: g.label, demandKg: g.demandKg, lines, properties, checks, ...cost, current, inBand };
   });
@@ -422,9 +442,19 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     stocksNoLongerNeeded: components.filter((c) => currentUsed.has(c.id) && !usedSet.has(c.id)).map((c) => c.id),
     stocksNewlyNeeded: stocksUsed.filter((id) => !currentUsed.has(id)),
     limitChecks,
-    lpCount: r.lpCount,
+    nominalTotalCost: r0?.status === 'optimal' ? r0.fractions.reduce((sum, f, k) => sum + costOf(prepared[k]!, f, predictBlend(components, linesOf(components, f), opts), input.grades[k]!.demandKg).cost, 0) : null,
+    lpCount: r.lpCount + (r0?.lpCount ?? 0),
     nodeCount: r.nodeCount,
   };
+}
+
+/** Recipe lines of fractions aligned with the components (stocks above 0, library order). */
+function linesOf(components: readonly Component[], w: Float64Array): RecipeLine[] {
+  const lines: RecipeLine[] = [];
+  components.forEach((c, i) => {
+    if (w[i]! > 0) lines.push({ componentId: c.id, massFraction: w[i]! });
+  });
+  return lines;
 }
 
 /** Cost per kg and per litre of a planned grade (the engine's prices), and over the period. */
@@ -497,7 +527,7 @@ export function planLineScenarios(input: LinePlanInput, limited: readonly string
       if (binding) {
         const more = base.slice();
         more[i] = s + MARGINAL_STEP_KG;
-        const r = solvePreparedLinePlan(plan!, more);
+        const r = solvePreparedLinePlan(plan!, more, false);
         if (r.status !== 'invalid-input') lpCount += r.lpCount;
         savingPerTonne = r.status === 'optimal' ? Math.max(0, lasting.totalCost - r.totalCost) : null;
       }

@@ -4,6 +4,7 @@ import type { ComponentType } from 'react';
 import type { Recipe } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { Notice } from '../../components/notices';
+import { probabilityText } from '../../components/format';
 import { changeText, limitedCodes, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnes, type PlanView } from './words';
 import type { PlanWhich } from './store';
 
@@ -171,15 +172,7 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
           </tbody>
         </table>
       </div>
-      {plan.grades
-        .filter((g) => g.inBand && g.inBand.probability < g.inBand.minimum)
-        .map((g) => (
-          <p key={g.id} className="small text-warning">
-            {g.label} asks for {fmt.pct(g.inBand!.minimum, 1)} of batches in band; the planned recipe lands in band with{' '}
-            {fmt.pct(g.inBand!.probability, 1)} under the stocks’ lot spread. The line plan plans each grade to its band only: make this one robust
-            in the recipe designer.
-          </p>
-        ))}
+      <InBandNote plan={plan} which={which} view={view} />
       <p className="small">
         <strong>The line needs {plan.stocksUsed.length} stocks:</strong> {plan.stocksUsed.map(code).join(', ')}.
         {plan.stocksNoLongerNeeded.length > 0 && (
@@ -236,5 +229,32 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
         )}
       </div>
     </>
+  );
+}
+
+/**
+ * The grades' minimum probabilities in band, met by the plan, and what they cost the line: the plan
+ * solved once more without them (its total cost and each grade's probability then).
+ */
+function InBandNote({ plan, which, view }: { plan: LinePlanOptimal; which: PlanWhich; view: PlanView }) {
+  const { fmt, period } = view;
+  const robust = plan.grades.filter((g) => g.inBand !== null);
+  if (robust.length === 0) return null;
+  const p = (x: number) => probabilityText(x, (v, d) => fmt.num(v, d));
+  const premium = plan.nominalTotalCost === null ? null : plan.totalCost - plan.nominalTotalCost;
+  return (
+    <p className="small" data-testid={`in-band-${which}`}>
+      <strong>Probability in band</strong> (the stocks’ lot spread of ν40):{' '}
+      {robust
+        .map((g) => {
+          const b = g.inBand!;
+          return `${g.label} ${p(b.probability)}, at least ${p(b.minimum)} asked${b.nominalProbability === null ? '' : ` (${p(b.nominalProbability)} if planned without it)`}`;
+        })
+        .join('; ')}
+      .{' '}
+      {premium === null
+        ? 'Without these minimums the line has no plan, so their premium is not stated.'
+        : `These minimums cost the line ${changeText(fmt, premium, plan.nominalTotalCost)} ${overPeriod(period)} (${fmt.money(plan.nominalTotalCost, 0)} without them).`}
+    </p>
   );
 }

@@ -7,6 +7,7 @@ import type { PlainLineProblem, PlainLineResult } from '../../../src/core/linepl
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
 import { viscosityIndex } from '../../../src/core/viscosity/viscosity-index';
 import { checkPlain } from '../solver/helpers';
+import { inBandProbabilityPlain } from '../../../src/core/qc/probability-plain';
 
 const num = (x: number): string => (x >= 0 ? `+ ${x.toPrecision(17)}` : `- ${(-x).toPrecision(17)}`);
 
@@ -72,6 +73,11 @@ export function checkLinePlan(p: PlainLineProblem, r: PlainLineResult & { status
       w,
     );
     for (const f of chk.failures) failures.push(`${g.id}: ${f}`);
+    if (g.minInBandProbability !== undefined) {
+      const q = inBandProbabilityPlain({ components: p.components, targetKv40: g.targetKv40, tolerancePct: g.tolerancePct, objective: 'cost' }, res.massFractions);
+      if (q < g.minInBandProbability) failures.push(`${g.id}: probability in band ${q} < ${g.minInBandProbability}`);
+      if (res.inBandProbability === undefined || Math.abs(res.inBandProbability - q) > 1e-12) failures.push(`${g.id}: inBandProbability ${res.inBandProbability} ≠ ${q}`);
+    }
     p.components.forEach((c, i) => {
       use.set(c.id, use.get(c.id)! + g.demandKg * w[i]!);
       totalCost += g.demandKg * w[i]! * c.pricePerKg;
@@ -91,7 +97,8 @@ export function checkLinePlan(p: PlainLineProblem, r: PlainLineResult & { status
 /**
  * Brute force over the allocation of one limited stock between two grades: every blend of each
  * grade on a grid of 1/steps in every fraction, checked exactly (band, VI, aniline point; strict
- * limits, no tolerance) with the core's Refutas and D2270 functions; then the cheapest pair whose
+ * limits, no tolerance) with the core's Refutas and D2270 functions, and the probability in band where
+ * the grade asks for one (`inBandProbabilityPlain`); then the cheapest pair whose
  * use of the limited stock fits its supply. Returns the least total cost, or null.
  */
 export function gridLinePlan(p: PlainLineProblem, limited: number, steps: number): number | null {
@@ -127,6 +134,12 @@ export function gridLinePlan(p: PlainLineProblem, limited: number, steps: number
       if (g.minVi !== undefined) {
         const kv100 = kvFromRefutasVbn(x100);
         if (kv100 < 2 || viscosityIndex(kvFromRefutasVbn(x40), kv100) < g.minVi) return;
+      }
+      if (g.minInBandProbability !== undefined) {
+        const f: Record<string, number> = {};
+        p.components.forEach((c, i) => (f[c.id] = w[i]!));
+        const q = inBandProbabilityPlain({ components: p.components, targetKv40: g.targetKv40, tolerancePct: g.tolerancePct, objective: 'cost' }, f);
+        if (q < g.minInBandProbability) return;
       }
       pts.push([w[limited]!, cost]);
     };

@@ -138,6 +138,16 @@ describe('Whole-line plan screen', () => {
     expect(useRecipes.getState().recipes).toEqual(before);
   });
 
+  it('meets a grade’s minimum probability in band and states what it costs the line', async () => {
+    const t = useRecipes.getState().targets['demo-vg320']!;
+    useRecipes.setState({ targets: { ...useRecipes.getState().targets, 'demo-vg320': { ...t, minInBandProbability: 0.99 } } });
+    await planDemo();
+    const note = screen.getByTestId('in-band-lasting').textContent!;
+    // met by the plan (recomputed by the core: planLine's checks), with the plan without it beside
+    expect(note).toMatch(/VG 320 99\.\d+ %, at least 99\.0 % asked \(\d+\.\d % if planned without it\)/);
+    expect(note).toMatch(/These minimums cost the line \+/);
+  });
+
   it('says in words why a plan cannot be made', async () => {
     render(<LinePlanScreen />);
     enter(/Demand of “Gear oil VG 680/, '150');
