@@ -204,3 +204,35 @@ describe('JSON import preview', () => {
     expect(previewLibraryImport('x.csv', '', lib).format).toBe('csv');
   });
 });
+
+describe('lot spread of ν40 in imports (issue 12)', () => {
+  const lib = demoComponents();
+  it('reads the CSV column kv40_lot_spread_pct: a value, blank = the category default, out of range refused', () => {
+    const p = previewCsv(
+      [
+        `${HEADER},kv40_lot_spread_pct`,
+        'NEW-1,Measured lots,group-ii,45,6.6,0.862,1.1,per-kg,0.8',
+        'NEW-2,Default,group-ii,45,6.6,0.862,1.1,per-kg,',
+        'NEW-3,Too wide,group-ii,45,6.6,0.862,1.1,per-kg,40',
+      ].join('\n'),
+      lib,
+    );
+    expect(p.rows[0]!.errors).toEqual([]);
+    expect(p.rows[0]!.component!.kv40LotSpreadPct).toBe(0.8);
+    expect(p.rows[1]!.errors).toEqual([]);
+    expect(p.rows[1]!.component!.kv40LotSpreadPct ?? null).toBeNull();
+    expect(p.rows[2]!.errors.join()).toMatch(/lot spread of ν40/);
+    expect(p.rows[2]!.errors.join()).toMatch(/25/);
+  });
+
+  it('reads kv40LotSpreadPct from JSON and writes it back to CSV and JSON', () => {
+    const src = lib.map((c, i) => (i === 0 ? { ...c, kv40LotSpreadPct: 1.2 } : c));
+    const csv = libraryToCsv(src);
+    expect(csv.split(/\r?\n/)[0]).toContain('kv40_lot_spread_pct');
+    const back = previewCsv(csv, lib);
+    expect(back.rows[0]!.component!.kv40LotSpreadPct).toBe(1.2);
+    const j = previewJson(libraryToJson(src), lib);
+    expect(j.rows[0]!.errors).toEqual([]);
+    expect(j.rows[0]!.component!.kv40LotSpreadPct).toBe(1.2);
+  });
+});

@@ -9,10 +9,13 @@ import {
   type CandidateGroup,
 } from '../../core/search/equivalent-sources';
 import { useExplorerStore, type SortKey } from './store';
+import { probabilityText } from '../../components/format';
+import type { InBandOf } from './in-band';
 
 const PAGE = 25;
+const NO_PROBABILITIES: ReadonlyMap<string, InBandOf> = new Map();
 
-const VALUE: Record<SortKey, (c: SubstituteCandidate) => number> = {
+const VALUE: Record<Exclude<SortKey, 'inBand'>, (c: SubstituteCandidate) => number> = {
   rank: (c) => c.rank,
   size: (c) => c.componentIds.length,
   cost: (c) => c.costPerLitre,
@@ -22,8 +25,17 @@ const VALUE: Record<SortKey, (c: SubstituteCandidate) => number> = {
   oxidation: (c) => c.oxidationRating ?? Number.NEGATIVE_INFINITY,
 };
 
-export function sortCandidates(list: readonly SubstituteCandidate[], key: SortKey, dir: 'asc' | 'desc'): SubstituteCandidate[] {
-  const f = VALUE[key];
+/**
+ * Candidates sorted by a column (ties by rank). 'inBand' sorts by the probability in the plant band,
+ * read from `inBand` (a candidate without one sorts last).
+ */
+export function sortCandidates(
+  list: readonly SubstituteCandidate[],
+  key: SortKey,
+  dir: 'asc' | 'desc',
+  inBand?: ReadonlyMap<string, InBandOf>,
+): SubstituteCandidate[] {
+  const f = key === 'inBand' ? (c: SubstituteCandidate) => inBand?.get(c.key)?.plant ?? (dir === 'asc' ? 2 : -1) : VALUE[key];
   const sign = dir === 'asc' ? 1 : -1;
   return [...list].sort((a, b) => sign * (f(a) - f(b)) || a.rank - b.rank);
 }
@@ -46,6 +58,8 @@ export const CandidateTable = memo(function CandidateTable({
   total,
   forcedIds,
   polymerCap,
+  inBand = NO_PROBABILITIES,
+  minInBandProbability = null,
 }: {
   candidates: readonly SubstituteCandidate[];
   components: ReadonlyMap<string, Component>;
@@ -56,6 +70,10 @@ export const CandidateTable = memo(function CandidateTable({
   forcedIds: readonly string[];
   /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
   polymerCap: number;
+  /** Probabilities in the plant and ISO bands by candidate key (and the nominal recipe of its stocks). */
+  inBand?: ReadonlyMap<string, InBandOf>;
+  /** The least probability in the plant band the search asked for (null: none). */
+  minInBandProbability?: number | null;
 }) {
   const fmt = useFormat();
   const sort = useExplorerStore((s) => s.sort);
@@ -63,7 +81,8 @@ export const CandidateTable = memo(function CandidateTable({
   const adopted = useExplorerStore((s) => s.adopted);
   const [shown, setShown] = useState(PAGE);
   const [open, setOpen] = useState<ReadonlySet<string>>(() => new Set());
-  const sorted = useMemo(() => sortCandidates(candidates, sort.key, sort.dir), [candidates, sort]);
+  const sorted = useMemo(() => sortCandidates(candidates, sort.key, sort.dir, inBand), [candidates, sort, inBand]);
+  const prob = (p: number | undefined) => (p === undefined ? '—' : probabilityText(p, (x, d) => fmt.num(x, d)));
   // Group equivalent sources among the stocks the candidates use (only those: grouping is quadratic).
   const groups = useMemo(() => {
     const used = new Set(candidates.flatMap((c) => c.componentIds));
@@ -81,6 +100,20 @@ export const CandidateTable = memo(function CandidateTable({
       </button>
     </th>
   );
+  const premiumCell = (b: InBandOf | undefined, cost: number) => {
+    if (!b?.nominal) return '—';
+    const d = cost - b.nominal.costPerLitre;
+    return (
+      <span title={`${prob(b.plant)} instead of ${prob(b.nominal.probability)} in the plant band (the same stocks without the condition: ${fmt.num(b.nominal.costPerLitre, 3)} ${fmt.settings.currencySymbol}/L)`}>
+        {d >= 0 ? '+' : '−'}
+        {fmt.num(Math.abs(d), 3)}
+        <span className="visually-hidden">
+          {' '}
+          buys {prob(b.plant)} instead of {prob(b.nominal.probability)}
+        </span>
+      </span>
+    );
+  };
   const row = (c: SubstituteCandidate, group: CandidateGroup<SubstituteCandidate> | null, alternative: boolean) => {
     const isSel = c.key === selectedKey;
     const delta = referenceCost === null ? null : c.costPerLitre - referenceCost;
@@ -137,6 +170,9 @@ export const CandidateTable = memo(function CandidateTable({
         <td className="num">{c.vi === null ? '—' : fmt.num(c.vi, 0)}</td>
         <td className="num">{c.anilinePoint === null ? '—' : fmt.num(fmt.tempValue(c.anilinePoint), 1)}</td>
         <td className="num">{c.oxidationRating === null ? '—' : fmt.num(c.oxidationRating, 1)}</td>
+        <td className="num" data-testid="p-plant">{prob(inBand.get(c.key)?.plant)}</td>
+        <td className="num" data-testid="p-iso">{prob(inBand.get(c.key)?.iso)}</td>
+        {minInBandProbability !== null && <td className="num" data-testid="premium">{premiumCell(inBand.get(c.key), c.costPerLitre)}</td>}
         <td className="center">{c.onFrontier ? <span aria-label="on the frontier">●</span> : ''}</td>
         <td>
           <button type="button" className="link" aria-pressed={isSel} onClick={() => useExplorerStore.getState().select(c.key)}>
@@ -157,6 +193,13 @@ export const CandidateTable = memo(function CandidateTable({
           Every candidate also holds {forcedIds.map((id) => components.get(id)?.code ?? id).join(', ')} at its fixed share (not repeated below).
         </p>
       )}
+      <p className="muted" data-testid="in-band-note">
+        Probability that a batch lands in the plant band (the search’s ν40 band) and in the ISO band, from each stock’s lot-to-lot spread
+        of ν40 (Stocks; category defaults are common practice, no source).{' '}
+        {minInBandProbability !== null
+          ? `Every candidate lands in the plant band with at least ${prob(minInBandProbability)}; the premium is its extra cost per litre over the least-cost recipe of the same stocks without that condition.`
+          : 'Least-cost recipes sit on the band’s edge, so about half their batches land outside: set a probability to plan robust recipes.'}
+      </p>
       <p className="muted" data-testid="grouping-note">
         Stocks listed by share, largest first. Recipes that differ only by an equivalent source share a row: same category, ν40 and ν100
         within {fmt.num(tol.viscosityPct, 0)} %, density within {fmt.num(tol.densityKgL, 3)} kg/L, aniline point within{' '}
@@ -173,6 +216,15 @@ export const CandidateTable = memo(function CandidateTable({
             {head('vi', 'VI')}
             {head('aniline', `Aniline pt, ${fmt.tempUnit}`)}
             {head('oxidation', 'Oxid. rating')}
+            {head('inBand', 'In plant band')}
+            <th scope="col" className="num">
+              In ISO band
+            </th>
+            {minInBandProbability !== null && (
+              <th scope="col" className="num">
+                Premium, {fmt.settings.currencySymbol}/L
+              </th>
+            )}
             <th scope="col">Frontier</th>
             <th scope="col">
               <span className="visually-hidden">Compare</span>

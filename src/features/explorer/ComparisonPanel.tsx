@@ -4,7 +4,8 @@ import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { DEPOSIT_PROPENSITY_LABEL } from '../../core/scoring/deposit';
-import { useFormat, type Formatter } from '../../components/format';
+import { probabilityText, useFormat, type Formatter } from '../../components/format';
+import type { InBandOf } from './in-band';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/formulation/comparison';
 import { assess, type Assessed } from './compare';
@@ -149,6 +150,41 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   return rows;
 }
 
+/** The probability rows: in the plant band (the search's band) and in the ISO band, reference and candidate. */
+export function inBandRows(
+  inBand: { reference: { plant: number; iso: number } | null; candidate: { plant: number; iso: number } | null } | null,
+  fmt: Formatter,
+): Row[] {
+  if (!inBand) return [];
+  const p = (x: number | undefined) => (x === undefined ? '—' : probabilityText(x, (v, d) => fmt.num(v, d)));
+  const pts = (a: number | undefined, b: number | undefined) =>
+    a === undefined || b === undefined ? '—' : `${b - a >= 0 ? '+' : '−'}${fmt.num(Math.abs(b - a) * 100, 1)} points`;
+  const r = inBand.reference ?? undefined;
+  const c = inBand.candidate ?? undefined;
+  return [
+    {
+      label: 'Batches in the plant band (lot spread)',
+      ref: p(r?.plant),
+      cand: p(c?.plant),
+      change: pts(r?.plant, c?.plant),
+      tone: r && c ? tone(c.plant - r.plant, false) : undefined,
+    },
+    { label: 'Batches in the ISO band (lot spread)', ref: p(r?.iso), cand: p(c?.iso), change: pts(r?.iso, c?.iso), tone: r && c ? tone(c.iso - r.iso, false) : undefined },
+  ];
+}
+
+/** "+0.006 EUR/L buys 99.0 % instead of 50.2 % in the plant band (the same stocks without it: 1.146 EUR/L)." */
+export function premiumSentence(b: InBandOf, costPerLitre: number, fmt: Formatter): string {
+  const n = b.nominal!;
+  const d = costPerLitre - n.costPerLitre;
+  const p = (x: number) => probabilityText(x, (v, k) => fmt.num(v, k));
+  const cur = fmt.settings.currencySymbol;
+  return (
+    `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
+    `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L).`
+  );
+}
+
 function scoreChange(a: number, b: number): string {
   if (a === b) return 'same band';
   return `${b > a ? '+' : '−'}${Math.abs(b - a)} band${Math.abs(b - a) > 1 ? 's' : ''}`;
@@ -168,6 +204,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   targets,
   refAssessed,
   settings,
+  inBand = null,
   adoptedName,
   onAdopt,
   polymerCap,
@@ -179,6 +216,11 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   components: readonly Component[];
   refAssessed: Assessed | null;
   settings: Settings;
+  /**
+   * Probabilities in the plant and ISO bands of the reference and the candidate (lot spread), the
+   * candidate's nominal recipe for the premium, and the minimum the search asked for.
+   */
+  inBand?: { reference: { plant: number; iso: number } | null; candidate: InBandOf | null; minimum: number | null } | null;
   adoptedName: string | null;
   onAdopt: () => void;
   /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
@@ -196,7 +238,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
       }),
     [components, candidate, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC, reference.grade],
   );
-  const rows = comparisonRows(refAssessed, candAssessed, fmt, polymerCap);
+  const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap), ...inBandRows(inBand ?? null, fmt)];
+  const premium = inBand?.candidate?.nominal && inBand.minimum !== null ? inBand.candidate : null;
   const summary = useMemo(() => {
     try {
       return compareRecipes({
@@ -249,6 +292,11 @@ export const ComparisonPanel = memo(function ComparisonPanel({
           ))}
         </tbody>
       </table>
+      {premium && (
+        <p className="premium-note" data-testid="comparison-premium">
+          {premiumSentence(premium, candidate.costPerLitre, fmt)}
+        </p>
+      )}
       {candAssessed?.deposit && <p className="deposit-note">{candAssessed.deposit.explanation}</p>}
       <TradeOffSection key={`${candidate.key}|${settings.blendMethod}`} candidate={candidate} components={components} byId={byId} targets={targets} settings={settings} />
       <div className="adopt-row">

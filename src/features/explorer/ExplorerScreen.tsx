@@ -15,6 +15,7 @@ import { useExplorerStore, type Scenario } from './store';
 import { CandidateTable, polymerShare } from './CandidateTable';
 import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
+import { candidatesInBand, recipeProbabilities, type InBandOf } from './in-band';
 import './explorer.css';
 
 const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
@@ -41,11 +42,13 @@ export function scenarioTargets(
   components: readonly Component[],
   objective: Objective,
   polymerCap?: number | null,
+  minInBandProbability?: number | null,
 ): BlendTargets {
   const additive = components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn') ?? null;
   const base = stored ?? defaultTargets(reference.grade, additive?.id ?? null, reference.id);
   const cap = polymerCap !== undefined ? polymerCap : (base.maxPolymerFraction ?? DEFAULT_MAX_POLYMER_FRACTION);
-  return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id, maxPolymerFraction: cap };
+  const pMin = minInBandProbability !== undefined ? minInBandProbability : (base.minInBandProbability ?? null);
+  return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id, maxPolymerFraction: cap, minInBandProbability: pMin };
 }
 
 export default function ExplorerScreen() {
@@ -71,8 +74,8 @@ export default function ExplorerScreen() {
   const reference = recipes.find((r) => r.id === st.referenceId) ?? null;
   const storedForRef = reference ? storedTargets[reference.id] : undefined;
   const targets = useMemo(
-    () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective, st.polymerCap) : null),
-    [reference, storedForRef, components, st.objective, st.polymerCap],
+    () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective, st.polymerCap, st.minInBandProbability) : null),
+    [reference, storedForRef, components, st.objective, st.polymerCap, st.minInBandProbability],
   );
   const refAssessed = useMemo(
     () =>
@@ -88,6 +91,17 @@ export default function ExplorerScreen() {
   );
 
   const candidates = st.result?.candidates ?? [];
+  // Probability in the plant band (the search's band) and the ISO band of every candidate and of the
+  // reference; with a minimum probability, the recipe of the same stocks without it (the premium).
+  const inBand = useMemo(() => {
+    if (!st.result || !st.resultFor || !targets) return new Map<string, InBandOf>();
+    const t = { ...targets, minInBandProbability: st.resultFor.minInBandProbability ?? null };
+    return candidatesInBand(solvableLibrary(priced), st.result.candidates, t, st.result.band, st.result.forcedIds, settings.blendMethod);
+  }, [st.result, st.resultFor, targets, priced, settings.blendMethod]);
+  const refInBand = useMemo(
+    () => (st.result && reference ? recipeProbabilities(components, reference.lines, reference.grade, st.result.band, settings.blendMethod) : null),
+    [st.result, reference, components, settings.blendMethod],
+  );
   const selected = candidates.find((c) => c.key === st.selectedKey) ?? null;
   const running_ = st.status === 'running';
 
@@ -99,6 +113,7 @@ export default function ExplorerScreen() {
       maxComponents: st.maxComponents,
       objective: st.objective,
       polymerCap: targets.maxPolymerFraction,
+      minInBandProbability: targets.minInBandProbability ?? null,
     };
     const s = useExplorerStore.getState();
     s.started(scenario);
@@ -155,6 +170,7 @@ export default function ExplorerScreen() {
       st.resultFor.maxComponents !== st.maxComponents ||
       st.resultFor.objective !== st.objective ||
       (st.resultFor.polymerCap ?? null) !== (targets?.maxPolymerFraction ?? null) ||
+      (st.resultFor.minInBandProbability ?? null) !== (targets?.minInBandProbability ?? null) ||
       [...st.resultFor.withdrawn].sort().join() !== [...st.withdrawn].sort().join());
   const adoptedId = selected ? st.adopted[selected.key] : undefined;
   const adoptedRecipe = adoptedId ? recipes.find((r) => r.id === adoptedId) : undefined;
@@ -172,6 +188,7 @@ export default function ExplorerScreen() {
         components={components}
         targets={targets}
         storedCap={storedForRef ? storedForRef.maxPolymerFraction : null}
+        storedP={storedForRef?.minInBandProbability ?? null}
         running={running_}
         onRun={run}
         onCancel={() => running?.cancel()}
@@ -201,6 +218,8 @@ export default function ExplorerScreen() {
                 total={st.result.distinct}
                 forcedIds={st.result.forcedIds}
                 polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
+                inBand={inBand}
+                minInBandProbability={st.resultFor?.minInBandProbability ?? null}
               />
               {selected && reference && targets && (
                 <ComparisonPanel
@@ -210,6 +229,7 @@ export default function ExplorerScreen() {
                   targets={targets}
                   refAssessed={refAssessed}
                   settings={settings}
+                  inBand={{ reference: refInBand, candidate: inBand.get(selected.key) ?? null, minimum: st.resultFor?.minInBandProbability ?? null }}
                   adoptedName={adoptedRecipe?.name ?? null}
                   onAdopt={() => adopt(selected)}
                   polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
@@ -243,6 +263,7 @@ function ScenarioForm({
   components,
   targets,
   storedCap,
+  storedP,
   running,
   onRun,
   onCancel,
@@ -253,6 +274,8 @@ function ScenarioForm({
   targets: BlendTargets | null;
   /** The reference recipe's own polymer cap (null: none saved). */
   storedCap: number | null;
+  /** The reference recipe's own minimum probability in band (null: none saved). */
+  storedP: number | null;
   running: boolean;
   onRun: () => void;
   onCancel: () => void;
@@ -365,6 +388,26 @@ function ScenarioForm({
                     : storedCap === null
                       ? `the reference has no cap: the usual ${fmt.num(DEFAULT_MAX_POLYMER_FRACTION * 100, 0)} % applies (common practice, no source); blank = no cap`
                       : 'the reference recipe’s cap; blank = no cap'}
+                </span>
+              }
+            />
+            <NumberField
+              label="Probability in the plant band, at least"
+              unit="%"
+              size={6}
+              allowEmpty
+              disabled={running}
+              value={targets?.minInBandProbability == null ? null : Number((targets.minInBandProbability * 100).toFixed(4))}
+              validate={(v) => ({ error: v === null ? undefined : (checkNumber('minInBandProbability', v / 100) ?? undefined) })}
+              onCommit={(v) => st.setMinInBandProbability(v === null || v === 0 ? null : v / 100)}
+              hint={
+                <span className="field-hint" data-testid="probability-hint">
+                  {st.minInBandProbability !== undefined
+                    ? 'set for this search'
+                    : storedP === null
+                      ? 'the reference has none'
+                      : 'the reference recipe’s target'}
+                  ; blank = least cost on the band’s edge (about half the batches outside). Uses each stock’s lot spread of ν40 (Stocks).
                 </span>
               }
             />

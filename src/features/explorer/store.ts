@@ -8,12 +8,14 @@ import type { Objective } from '../../core/formulation/model';
 import type { SubstituteSearchProgress, SubstituteSearchResult } from '../../core/search/substitutes';
 
 export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'error';
-export type SortKey = 'rank' | 'cost' | 'kv40' | 'vi' | 'aniline' | 'oxidation' | 'size';
+export type SortKey = 'rank' | 'cost' | 'kv40' | 'vi' | 'aniline' | 'oxidation' | 'size' | 'inBand';
 
 export interface Scenario {
   referenceId: string;
   /** Polymer cap the search ran with (mass fraction; null → none). */
   polymerCap?: number | null;
+  /** Least probability in the plant band the search asked for (0–1; null → none). */
+  minInBandProbability?: number | null;
   withdrawn: string[];
   maxComponents: number;
   objective: Objective;
@@ -30,6 +32,11 @@ export interface ExplorerState {
    * cap, or the common-practice default when it has none.
    */
   polymerCap: number | null | undefined;
+  /**
+   * Least probability in the plant band (0–1) for the search; null → none; undefined → the
+   * reference recipe's own target.
+   */
+  minInBandProbability: number | null | undefined;
   status: RunStatus;
   progress: SubstituteSearchProgress | null;
   result: SubstituteSearchResult | null;
@@ -46,6 +53,7 @@ export interface ExplorerState {
   setMaxComponents: (k: number) => void;
   setObjective: (o: Objective) => void;
   setPolymerCap: (cap: number | null | undefined) => void;
+  setMinInBandProbability: (p: number | null | undefined) => void;
   started: (scenario: Scenario) => void;
   progressed: (p: SubstituteSearchProgress) => void;
   finished: (r: SubstituteSearchResult) => void;
@@ -62,6 +70,7 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   maxComponents: 4,
   objective: 'cost',
   polymerCap: undefined,
+  minInBandProbability: undefined,
   status: 'idle',
   progress: null,
   result: null,
@@ -72,12 +81,13 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   adopted: {},
 
   // Another reference brings its own polymer cap.
-  setReference: (referenceId) => set({ referenceId, polymerCap: undefined }),
+  setReference: (referenceId) => set({ referenceId, polymerCap: undefined, minInBandProbability: undefined }),
   toggleWithdrawn: (id, on) =>
     set((s) => ({ withdrawn: on ? [...new Set([...s.withdrawn, id])] : s.withdrawn.filter((x) => x !== id) })),
   setMaxComponents: (maxComponents) => set({ maxComponents }),
   setObjective: (objective) => set({ objective }),
   setPolymerCap: (polymerCap) => set({ polymerCap }),
+  setMinInBandProbability: (minInBandProbability) => set({ minInBandProbability }),
   started: (scenario) => set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null }),
   progressed: (progress) => set({ progress }),
   finished: (result) =>
@@ -86,6 +96,6 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   failed: (error) => set({ status: 'error', error }),
   select: (selectedKey) => set({ selectedKey }),
   sortBy: (key) =>
-    set((s) => ({ sort: { key, dir: s.sort.key === key ? (s.sort.dir === 'asc' ? 'desc' : 'asc') : key === 'vi' || key === 'oxidation' ? 'desc' : 'asc' } })),
+    set((s) => ({ sort: { key, dir: s.sort.key === key ? (s.sort.dir === 'asc' ? 'desc' : 'asc') : key === 'vi' || key === 'oxidation' || key === 'inBand' ? 'desc' : 'asc' } })),
   markAdopted: (key, recipeId) => set((s) => ({ adopted: { ...s.adopted, [key]: recipeId } })),
 }));

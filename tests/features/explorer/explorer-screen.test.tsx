@@ -10,7 +10,7 @@ import { inThreadWorker } from './in-thread-worker';
 beforeEach(() => {
   resetDemo();
   setWorkerFactory(inThreadWorker());
-  useExplorerStore.setState({ referenceId: null, polymerCap: undefined, withdrawn: [], maxComponents: 3, status: 'idle', result: null, resultFor: null, progress: null, selectedKey: null, adopted: {} });
+  useExplorerStore.setState({ referenceId: null, withdrawn: [], maxComponents: 3, polymerCap: undefined, minInBandProbability: undefined, status: 'idle', result: null, resultFor: null, progress: null, selectedKey: null, adopted: {} });
 });
 afterEach(() => {
   cleanup();
@@ -63,6 +63,46 @@ describe('Substitute explorer', () => {
     expect(r.lines.some((l) => l.componentId === 'demo-bw-190')).toBe(false);
     expect(useRecipes.getState().activeRecipeId).toBe(r.id);
     expect(screen.getByTestId('adopted').textContent).toContain(r.name);
+  });
+
+  it('shows every candidate’s probability in the plant and ISO bands, and beside the reference', async () => {
+    await runWithBrightStockWithdrawn();
+    const table = screen.getByTestId('candidates');
+    const plant = within(table).getAllByTestId('p-plant').map((e) => e.textContent);
+    expect(plant.length).toBeGreaterThan(1);
+    for (const t of plant) expect(t).toMatch(/%$/);
+    expect(within(table).getAllByTestId('p-iso').length).toBe(plant.length);
+    // least cost sits on the band's edge: about half the batches in the plant band (the model, issue 12)
+    expect(Number(plant[0]!.replace(/[^\d.]/g, ''))).toBeGreaterThan(40);
+    expect(Number(plant[0]!.replace(/[^\d.]/g, ''))).toBeLessThan(60);
+    const cmp = screen.getByTestId('comparison');
+    expect(within(cmp).getByText('Batches in the plant band (lot spread)')).toBeTruthy();
+    expect(within(cmp).getByText('Batches in the ISO band (lot spread)')).toBeTruthy();
+    expect(screen.queryByTestId('comparison-premium')).toBeNull();
+  });
+
+  it('searches at 99 % in the plant band: every candidate meets it, with its premium over the same stocks', async () => {
+    render(<ExplorerScreen />);
+    fireEvent.click(screen.getByLabelText('Treat BW-190 as withdrawn'));
+    const p = screen.getByLabelText(/Probability in the plant band, at least/) as HTMLInputElement;
+    fireEvent.focus(p);
+    fireEvent.change(p, { target: { value: '99' } });
+    fireEvent.blur(p);
+    fireEvent.click(screen.getByText('Run search'));
+    const table = await screen.findByTestId('candidates', {}, { timeout: 60000 });
+    const plant = within(table).getAllByTestId('p-plant').map((e) => e.textContent!);
+    expect(plant.length).toBeGreaterThan(1);
+    // met when recomputed by the core's lot-spread model (the condition asked for)
+    for (const t of plant) expect(t.startsWith('>') || Number(t.replace(/[^\d.]/g, '')) >= 99).toBe(true);
+    const premiums = within(table).getAllByTestId('premium').map((e) => e.textContent!);
+    expect(premiums[0]).toMatch(/^\+\d\.\d{3}/);
+    expect(screen.getByTestId('comparison-premium').textContent).toMatch(/^\+\d\.\d{3} .\/L buys 99\.\d+ % instead of \d+\.\d % of batches in the plant band/);
+    expect(screen.getByTestId('in-band-note').textContent).toContain('at least 99.0 %');
+    // a new probability makes the result stale
+    fireEvent.focus(p);
+    fireEvent.change(p, { target: { value: '95' } });
+    fireEvent.blur(p);
+    expect(screen.getByText(/The settings changed since this result was computed/)).toBeTruthy();
   });
 });
 
