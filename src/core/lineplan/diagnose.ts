@@ -79,7 +79,7 @@ export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4
       lpCount += r0.lpCount;
       if (r0.status === 'optimal') {
         const band = { min: P.targets.kv40Min, max: P.targets.kv40Max };
-        return out({ kind: 'grade', grade: g, reason: `${labels.grades[g]!.product} cannot be made, even on its own: ${inBandInfeasibleReason(P, band)}` });
+        return out({ kind: 'grade', grade: g, reason: `${labels.grades[g]!.product} cannot be made, even on its own: ${inBandInfeasibleReason(P, band, null, labels.grades[g]!.display ?? labels.display)}` });
       }
     }
     const d = diagnoseInfeasible(withInBandProbability(P, null), labels.grades[g]!);
