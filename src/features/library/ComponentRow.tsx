@@ -14,6 +14,9 @@ export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: s
 ];
 // A per-litre price is for litres at 15 °C (converted to per kg with the stock's ρ15).
 const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L at 15 °C', 'per-tonne': '/t' } as const;
+// Beside the price cell the basis is short; the column header says litres are at 15 °C, and the
+// field's label (read by screen readers) carries the full basis.
+const BASIS_HINT = { 'per-kg': '/kg', 'per-litre': '/L', 'per-tonne': '/t' } as const;
 
 /** Set the viscosity at one temperature (replacing a point there, or adding one). */
 export function withKvAt(c: Component, tempC: number, kv: number): Component['viscosityPoints'] {
@@ -146,7 +149,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           value={c.price.amount}
           validate={(v) => toVerdict(checkValue('price', v, fmt))}
           onCommit={(v) => v !== null && onUpdate(c.id, { price: { ...c.price, amount: v } })}
-          hint={<span className="unit">{BASIS_SHORT[c.price.basis]}</span>}
+          hint={<span className="unit" title={BASIS_SHORT[c.price.basis]}>{BASIS_HINT[c.price.basis]}</span>}
         />
       </td>
       <td>

@@ -267,7 +267,7 @@ export default function LibraryScreen() {
                 Aniline pt <span className="unit">{fmt.tempUnit}</span>
               </th>
               <th scope="col" className="num">
-                Price
+                Price <span className="unit">(L at 15 °C)</span>
               </th>
               <th scope="col">Availability</th>
               <th scope="col">
