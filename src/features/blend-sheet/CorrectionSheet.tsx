@@ -34,7 +34,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
     .sort((a, b) => (a.code === p.additiveCode ? 1 : b.code === p.additiveCode ? -1 : b.kv40 - a.kv40));
   let running = problem.vessel.massKg;
   return (
-    <article className={`blend-sheet bs-correction bs-paper-${p.paper}`} aria-label="Printable correction sheet" data-testid="correction-sheet">
+    <article className={`blend-sheet bs-correction print-page bs-paper-${p.paper}`} aria-label="Printable correction sheet" data-testid="correction-sheet">
       <header className="bs-head">
         <div className="bs-company">{p.companyName || 'Company name (set it in the settings)'}</div>
         <div className="bs-title">Batch correction sheet</div>
