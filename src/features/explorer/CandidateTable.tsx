@@ -170,9 +170,9 @@ export const CandidateTable = memo(function CandidateTable({
         <td className="num">{c.vi === null ? '—' : fmt.num(c.vi, 0)}</td>
         <td className="num">{c.anilinePoint === null ? '—' : fmt.num(fmt.tempValue(c.anilinePoint), 1)}</td>
         <td className="num">{c.oxidationRating === null ? '—' : fmt.num(c.oxidationRating, 1)}</td>
-        <td className="num" data-testid="p-plant">{prob(inBand.get(c.key)?.plant)}</td>
-        <td className="num" data-testid="p-iso">{prob(inBand.get(c.key)?.iso)}</td>
-        {minInBandProbability !== null && <td className="num" data-testid="premium">{premiumCell(inBand.get(c.key), c.costPerLitre)}</td>}
+        <td className="num nowrap" data-testid="p-plant">{prob(inBand.get(c.key)?.plant)}</td>
+        <td className="num nowrap" data-testid="p-iso">{prob(inBand.get(c.key)?.iso)}</td>
+        {minInBandProbability !== null && <td className="num nowrap" data-testid="premium">{premiumCell(inBand.get(c.key), c.costPerLitre)}</td>}
         <td className="center">{c.onFrontier ? <span aria-label="on the frontier">●</span> : ''}</td>
         <td>
           <button type="button" className="link" aria-pressed={isSel} onClick={() => useExplorerStore.getState().select(c.key)}>

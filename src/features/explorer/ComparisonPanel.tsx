@@ -157,19 +157,16 @@ export function inBandRows(
 ): Row[] {
   if (!inBand) return [];
   const p = (x: number | undefined) => (x === undefined ? '—' : probabilityText(x, (v, d) => fmt.num(v, d)));
+  // A change below 0.05 points does not show at the one decimal printed: 'same', without a tone.
+  const same = (a: number, b: number) => Math.abs(b - a) < 0.0005;
   const pts = (a: number | undefined, b: number | undefined) =>
-    a === undefined || b === undefined ? '—' : `${b - a >= 0 ? '+' : '−'}${fmt.num(Math.abs(b - a) * 100, 1)} points`;
+    a === undefined || b === undefined ? '—' : same(a, b) ? 'same' : `${b - a >= 0 ? '+' : '−'}${fmt.num(Math.abs(b - a) * 100, 1)} points`;
+  const toneOf = (a: number | undefined, b: number | undefined) => (a === undefined || b === undefined || same(a, b) ? undefined : tone(b - a, false));
   const r = inBand.reference ?? undefined;
   const c = inBand.candidate ?? undefined;
   return [
-    {
-      label: 'Batches in the plant band (lot spread)',
-      ref: p(r?.plant),
-      cand: p(c?.plant),
-      change: pts(r?.plant, c?.plant),
-      tone: r && c ? tone(c.plant - r.plant, false) : undefined,
-    },
-    { label: 'Batches in the ISO band (lot spread)', ref: p(r?.iso), cand: p(c?.iso), change: pts(r?.iso, c?.iso), tone: r && c ? tone(c.iso - r.iso, false) : undefined },
+    { label: 'Batches in the plant band (lot spread)', ref: p(r?.plant), cand: p(c?.plant), change: pts(r?.plant, c?.plant), tone: toneOf(r?.plant, c?.plant) },
+    { label: 'Batches in the ISO band (lot spread)', ref: p(r?.iso), cand: p(c?.iso), change: pts(r?.iso, c?.iso), tone: toneOf(r?.iso, c?.iso) },
   ];
 }
 
