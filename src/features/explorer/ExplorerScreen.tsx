@@ -128,6 +128,7 @@ export default function ExplorerScreen() {
         limit: 200,
       },
       (p) => useExplorerStore.getState().progressed(p),
+      (r) => useExplorerStore.getState().ranked(r),
     );
     running = handle;
     void handle.outcome.then((o) => {
@@ -202,12 +203,20 @@ export default function ExplorerScreen() {
       {stale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
       {st.result && (
         <>
+          {running_ && (
+            <p className="muted" role="status" data-testid="ranked-so-far">
+              Ranked so far: every recipe of up to {st.result.completedSize} {st.result.completedSize === 1 ? 'stock' : 'stocks'} (besides the fixed
+              additive package) is in the list; larger combinations are still being searched.
+            </p>
+          )}
           {candidates.length === 0 ? (
+            running_ ? null : (
             <Notice tone="warning" title="No substitute found">
               No combination of up to {st.result.maxComponents} remaining stocks meets the targets (ν40 band {fmt.num(st.result.band.min, 1)}–
               {fmt.num(st.result.band.max, 1)} mm²/s). Allow more components per recipe, relax the reference recipe’s targets in the designer, or add
               a heavier stock or thickener to the library.
             </Notice>
+            )
           ) : (
             <div className="explorer-results">
               <CandidateTable

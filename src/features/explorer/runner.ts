@@ -1,7 +1,8 @@
 /**
  * The chunked substitute-search loop, shared by the Web Worker and by tests (which run it
- * in-thread). Solves combinations in chunks of about `sliceMs`, reports progress after each, and
- * yields to the event loop between chunks so a cancel message can arrive.
+ * in-thread). Solves combinations in chunks of about `sliceMs`, reports progress after each, posts
+ * the ranked result so far whenever another combination size is settled (so the screen can show
+ * final candidates early), and yields to the event loop between chunks so a cancel message can arrive.
  */
 import { createSubstituteSearch, type SubstituteSearchInput } from '../../core/search/substitutes';
 import type { FromWorker } from './protocol';
@@ -29,6 +30,7 @@ export async function runSearch(
   try {
     const search = createSubstituteSearch(input);
     let budget = 50;
+    let posted = 0;
     post({ type: 'progress', runId, progress: search.progress() });
     for (;;) {
       if (isCancelled()) return post({ type: 'cancelled', runId });
@@ -40,6 +42,10 @@ export async function runSearch(
       else budget = Math.min(20000, budget * 2);
       post({ type: 'progress', runId, progress: p });
       if (p.done) break;
+      if (p.completedSize > posted) {
+        posted = p.completedSize;
+        post({ type: 'partial', runId, result: search.result() });
+      }
       await yieldNow();
     }
     if (isCancelled()) return post({ type: 'cancelled', runId });

@@ -56,6 +56,8 @@ export interface ExplorerState {
   setMinInBandProbability: (p: number | null | undefined) => void;
   started: (scenario: Scenario) => void;
   progressed: (p: SubstituteSearchProgress) => void;
+  /** Ranked candidates while the search runs (final for recipes of up to `completedSize` stocks). */
+  ranked: (r: SubstituteSearchResult) => void;
   finished: (r: SubstituteSearchResult) => void;
   cancelled: () => void;
   failed: (message: string) => void;
@@ -88,10 +90,20 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   setObjective: (objective) => set({ objective }),
   setPolymerCap: (polymerCap) => set({ polymerCap }),
   setMinInBandProbability: (minInBandProbability) => set({ minInBandProbability }),
-  started: (scenario) => set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null }),
+  started: (scenario) =>
+    set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null, sort: { key: 'rank', dir: 'asc' }, adopted: {} }),
   progressed: (progress) => set({ progress }),
+  ranked: (result) =>
+    set((s) => ({
+      result,
+      selectedKey: s.selectedKey && result.candidates.some((c) => c.key === s.selectedKey) ? s.selectedKey : (result.candidates[0]?.key ?? null),
+    })),
   finished: (result) =>
-    set({ status: 'done', result, selectedKey: result.candidates[0]?.key ?? null, sort: { key: 'rank', dir: 'asc' }, adopted: {} }),
+    set((s) => ({
+      status: 'done',
+      result,
+      selectedKey: s.selectedKey && result.candidates.some((c) => c.key === s.selectedKey) ? s.selectedKey : (result.candidates[0]?.key ?? null),
+    })),
   cancelled: () => set({ status: 'cancelled' }),
   failed: (error) => set({ status: 'error', error }),
   select: (selectedKey) => set({ selectedKey }),

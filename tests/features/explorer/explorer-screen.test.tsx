@@ -22,6 +22,9 @@ async function runWithBrightStockWithdrawn() {
   fireEvent.click(screen.getByLabelText('Treat BW-190 as withdrawn'));
   fireEvent.click(screen.getByText('Run search'));
   await screen.findByTestId('candidates', {}, { timeout: 30000 });
+  // Ranked candidates stream in while the search runs; the checks below are about the final list.
+  await waitFor(() => expect(useExplorerStore.getState().status).toBe('done'), { timeout: 30000 });
+  expect(screen.queryByTestId('ranked-so-far')).toBeNull();
 }
 
 describe('Substitute explorer', () => {
