@@ -26,6 +26,9 @@ describe('substitute explorer', () => {
     await page.getByRole('button', { name: 'Run search' }).click();
     const table = page.getByTestId('candidates');
     await table.waitFor({ timeout: 60_000 });
+    // ranked candidates stream in while the search runs; wait for the end of the search
+    await page.locator('.run-status[data-status="done"]').waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId('ranked-so-far').count()).resolves.toBe(0);
     // the progress bar ends full, with the count of combinations solved
     const [value, max] = await page.locator('#explorer-progress').evaluate((el: HTMLProgressElement) => [el.value, el.max]);
     expect(value).toBe(max);

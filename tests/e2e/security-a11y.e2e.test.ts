@@ -178,6 +178,8 @@ describe('security and accessibility', () => {
       await expect(page.getByLabel('Treat BW-190 as withdrawn').isChecked()).resolves.toBe(true);
       await tabTo(page, 'button', /^Run search$/);
       await page.keyboard.press('Enter');
+      // ranked candidates stream in while the search runs; go on once it has ended
+      await page.locator('.run-status[data-status="done"]').waitFor({ timeout: 60_000 });
       await tabTo(page, 'button', /^compar(e|ing) candidate 1$/, 'forward', 60_000);
       await page.keyboard.press('Enter');
       await tabTo(page, 'button', /^Adopt as a new recipe$/);

@@ -10,8 +10,9 @@ import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
 import { StockChangeList } from '../../components/recipe-status';
-import { startSearch, type SearchHandle } from './search-client';
-import { useExplorerStore, type Scenario } from './store';
+import { prewarmSearchWorkers, releaseSearchWorkers, startSearch, type SearchHandle } from './search-client';
+import { useShallow } from 'zustand/react/shallow';
+import { useExplorerStore, type ExplorerState, type Scenario } from './store';
 import { CandidateTable, polymerShare } from './CandidateTable';
 import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
@@ -61,7 +62,15 @@ export default function ExplorerScreen() {
   const recipes = useRecipes((s) => s.recipes);
   const storedTargets = useRecipes((s) => s.targets);
   const activeRecipeId = useRecipes((s) => s.activeRecipeId);
-  const st = useExplorerStore();
+  // Everything but the progress counts (RunStatusView follows those), so that a progress message
+  // does not re-render the candidate table while the search runs.
+  const st = useExplorerStore(useShallow(screenState));
+
+  // Search workers are started when the explorer opens and ended when it closes.
+  useEffect(() => {
+    prewarmSearchWorkers();
+    return releaseSearchWorkers;
+  }, []);
 
   // Default reference: the active recipe if it is a reference, else the first reference recipe.
   useEffect(() => {
@@ -246,7 +255,8 @@ export default function ExplorerScreen() {
               )}
             </div>
           )}
-          {candidates.length > 0 && (
+          {candidates.length > 0 && running_ && <p className="muted">The charts are drawn when the search has ended.</p>}
+          {candidates.length > 0 && !running_ && (
             <Suspense fallback={<p className="muted">Loading charts…</p>}>
               <ExplorerCharts
                 candidates={candidates}
@@ -264,6 +274,26 @@ export default function ExplorerScreen() {
       )}
     </section>
   );
+}
+
+function screenState(s: ExplorerState) {
+  return {
+    referenceId: s.referenceId,
+    withdrawn: s.withdrawn,
+    maxComponents: s.maxComponents,
+    objective: s.objective,
+    polymerCap: s.polymerCap,
+    status: s.status,
+    result: s.result,
+    resultFor: s.resultFor,
+    selectedKey: s.selectedKey,
+    adopted: s.adopted,
+    toggleWithdrawn: s.toggleWithdrawn,
+    setReference: s.setReference,
+    setMaxComponents: s.setMaxComponents,
+    setObjective: s.setObjective,
+    setPolymerCap: s.setPolymerCap,
+  };
 }
 
 function ScenarioForm({
@@ -299,7 +329,7 @@ function ScenarioForm({
   const refId = useId();
   const kId = useId();
   const objId = useId();
-  const st = useExplorerStore();
+  const st = useExplorerStore(useShallow(screenState));
   const inRef = new Set(reference?.lines.map((l) => l.componentId) ?? []);
   const libWithdrawn = components.filter((c) => c.availability === 'withdrawn');
   const markable = components.filter((c) => c.availability !== 'withdrawn');

@@ -7,6 +7,12 @@
  * core), each running one shard of the combinations (`shard` in the core search). Their counts are
  * added and their candidates merged with `mergeSubstituteResults`, which gives exactly the answer
  * of one search. Ranked candidates are passed on once every worker has settled another size.
+ *
+ * The workers are kept between searches (a pool): starting a module worker — fetching, compiling and
+ * instantiating the solver — costs more than a small search, and a fresh worker per search left
+ * garbage behind each time. A search that is cancelled, or fails, ends its workers at once; the next
+ * search starts new ones. `prewarmSearchWorkers` starts the pool ahead of the first search (the
+ * explorer does it when it opens) and `releaseSearchWorkers` ends it (when the explorer closes).
  */
 import {
   mergeSubstituteResults,
@@ -43,14 +49,37 @@ function browserWorker(): WorkerLike {
 let makeWorker: () => WorkerLike = browserWorker;
 let workerCount: number | null = null;
 
+/** Idle workers, ready for the next search. */
+const idle: WorkerLike[] = [];
+
 /** Replace the worker factory (unit tests under jsdom, which has no Worker). Pass null to restore. */
 export function setWorkerFactory(factory: (() => WorkerLike) | null): void {
+  releaseSearchWorkers();
   makeWorker = factory ?? browserWorker;
 }
 
 /** Fix the number of workers (tests); null → `navigator.hardwareConcurrency − 1`, at least one. */
 export function setWorkerCount(count: number | null): void {
+  releaseSearchWorkers();
   workerCount = count;
+}
+
+/** Start the pool of search workers now, so that the first search does not wait for them. */
+export function prewarmSearchWorkers(): void {
+  try {
+    while (idle.length < searchWorkerCount()) idle.push(makeWorker());
+  } catch {
+    /* no workers here (the search will report it) */
+  }
+}
+
+/** End the idle search workers (a running search keeps its own until it ends). */
+export function releaseSearchWorkers(): void {
+  for (const w of idle.splice(0)) w.terminate();
+}
+
+function takeWorker(): WorkerLike {
+  return idle.pop() ?? makeWorker();
 }
 
 /** Workers for a search: one per core but the main thread's, at least one, at most 16. */
@@ -88,7 +117,13 @@ export function startSearch(
     settle = (o) => {
       if (settled) return;
       settled = true;
-      for (const w of workers) w.terminate();
+      for (const w of workers) {
+        w.onmessage = null;
+        w.onerror = null;
+        // Finished workers go back to the pool; a cancelled or failed search ends its workers.
+        if (o.kind === 'done' && idle.length < searchWorkerCount()) idle.push(w);
+        else w.terminate();
+      }
       workers.length = 0;
       resolve(o);
     };
@@ -138,7 +173,7 @@ export function startSearch(
   };
   try {
     for (let index = 0; index < count; index++) {
-      const w = makeWorker();
+      const w = takeWorker();
       workers.push(w);
       w.onmessage = (e) => onMessage(index, e.data);
       w.onerror = (e) => settle({ kind: 'error', message: e.message || 'The search worker failed.' });
