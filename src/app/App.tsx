@@ -3,6 +3,7 @@ import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
+import { useUnitConversionsReady } from '../components/format';
 import { isDemoComponent, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
 const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
@@ -42,7 +43,10 @@ function DemoLabel() {
 }
 
 export function App() {
-  const ready = useSavedWorkReady();
+  const savedWorkReady = useSavedWorkReady();
+  // In °F the screens wait for the unit conversions (mathjs), fetched only for °F.
+  const unitsReady = useUnitConversionsReady();
+  const ready = savedWorkReady && unitsReady;
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
   const shownId = useRef<string | null>(null);

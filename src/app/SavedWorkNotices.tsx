@@ -3,12 +3,13 @@ import { Notice, persistentStorageText } from '../components/notices';
 import { downloadText } from '../components/download';
 import { useStorageStatus, STORE_KEYS, STORE_LABEL, readKeptCopy, resumeSaving, type StoreKey } from '../state/persistence';
 import { persistedData, STORE_VERSION } from '../state';
-import { backupFileName, makeBackupText } from '../state/backup';
 
 /** Edits to library or recipes after which the shell suggests an export-all backup. */
 export const BACKUP_REMINDER_EDITS = 25;
 
-export function exportBackup(): void {
+/** Download the export-all backup (the backup module, with zod, is loaded on the first use). */
+export async function exportBackup(): Promise<void> {
+  const { backupFileName, makeBackupText } = await import('../state/backup');
   downloadText(backupFileName(), makeBackupText(), 'application/json');
 }
 
@@ -89,7 +90,7 @@ export function SavedWorkNotices() {
                 tone="error"
                 title="Not saved"
                 actions={
-                  <button type="button" onClick={exportBackup}>
+                  <button type="button" onClick={() => void exportBackup()}>
                     Export a backup now
                   </button>
                 }
@@ -119,7 +120,7 @@ export function SavedWorkNotices() {
           title="Time for a backup?"
           actions={
             <>
-              <button type="button" onClick={exportBackup}>
+              <button type="button" onClick={() => void exportBackup()}>
                 Export everything
               </button>
               <button type="button" onClick={() => setSnoozedAt(status.editsSinceBackup)}>

@@ -2,12 +2,47 @@
  * Display formatting for the user's habits (decimal separator, thousands grouping, °C/°F, currency
  * symbol). Stored values are always SI-like (°C, mm²/s, kg/L); conversion happens only here and in
  * `parseNumber` on the way back in.
+ *
+ * °C ↔ °F goes through the core's unit conversions (mathjs), which are loaded only when the user
+ * works in °F: the opening screen in °C needs no mathjs. The shell waits for them before showing a
+ * screen in °F (`useUnitConversionsReady`); should a formatter be made before they arrive, it
+ * shows and reads °C throughout (the label says so), never a °C value labelled °F.
  */
-import { useMemo } from 'react';
-import { cToF, fToC } from '../core/units';
+import { useEffect, useMemo, useSyncExternalStore } from 'react';
+import type * as Units from '../core/units';
 import { decimalsOf, formatFixed, sayNumber } from '../core/words/display';
 import { gradePosition } from '../core/viscosity/iso-grades';
 import { useSettings, type Settings } from '../state';
+
+let units: typeof Units | null = null;
+let unitsLoading: Promise<typeof Units> | null = null;
+const unitsListeners = new Set<() => void>();
+
+/** Load the unit conversions (mathjs) once; resolves when they can be used. */
+export function loadUnitConversions(): Promise<void> {
+  unitsLoading ??= import('../core/units').then((m) => {
+    units = m;
+    for (const l of unitsListeners) l();
+    return m;
+  });
+  return unitsLoading.then(() => undefined);
+}
+
+const subscribeUnits = (l: () => void) => {
+  unitsListeners.add(l);
+  return () => unitsListeners.delete(l);
+};
+const unitsLoaded = () => units !== null;
+
+/** True when the settings' temperature unit can be shown: °C, or °F with the conversions loaded (loads them). */
+export function useUnitConversionsReady(): boolean {
+  const wantF = useSettings().temperatureUnit === 'F';
+  const loaded = useSyncExternalStore(subscribeUnits, unitsLoaded, unitsLoaded);
+  useEffect(() => {
+    if (wantF && !loaded) void loadUnitConversions();
+  }, [wantF, loaded]);
+  return !wantF || loaded;
+}
 
 export interface Formatter {
   /** A number with `digits` decimals (fixed), or "—" for null/NaN. */
@@ -120,7 +155,10 @@ export function parseNumber(text: string, decimalSeparator: '.' | ','): number |
 export { decimalsOf };
 
 export function makeFormatter(settings: Settings): Formatter {
-  const isF = settings.temperatureUnit === 'F';
+  const u = units;
+  const isF = settings.temperatureUnit === 'F' && u !== null;
+  const cToF = (c: number) => u!.cToF(c);
+  const fToC = (f: number) => u!.fToC(f);
   const f: Formatter = {
     settings,
     num: (v, digits = 2) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : fixed(v, digits, settings)),
@@ -153,10 +191,14 @@ export function makeFormatter(settings: Settings): Formatter {
   return f;
 }
 
-/** Formatters for the current settings (memoised). */
+/** Formatters for the current settings (memoised; made again once the unit conversions arrive). */
 export function useFormat(): Formatter {
   const settings = useSettings();
-  return useMemo(() => makeFormatter(settings), [settings]);
+  const loaded = useSyncExternalStore(subscribeUnits, unitsLoaded, unitsLoaded);
+  useEffect(() => {
+    if (settings.temperatureUnit === 'F' && !loaded) void loadUnitConversions();
+  }, [settings.temperatureUnit, loaded]);
+  return useMemo(() => makeFormatter(settings), [settings, loaded]);
 }
 
 /**

@@ -82,12 +82,8 @@ export function mm2sToCSt(mm2s: number): number {
   return mm2s;
 }
 
-/** Display label of each price basis. */
-export const PRICE_BASIS_LABEL: Record<PriceBasis, string> = {
-  'per-kg': 'per kg',
-  'per-litre': 'per litre at 15 °C',
-  'per-tonne': 'per tonne',
-};
+/** Display label of each price basis (kept in the model, beside the other labels, so that showing it needs no mathjs). */
+export { PRICE_BASIS_LABEL } from './formulation/model';
 
 /** Kilograms in one basis unit, for a stock of density ρ15 [kg/L]. */
 function kgPerBasisUnit(fn: string, basis: PriceBasis, density15: number): number {

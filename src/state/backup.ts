@@ -3,6 +3,7 @@
  * with its schema version. Importing validates everything (older sections are migrated with the
  * stores' own migrations) and changes nothing until `applyBackup` is called with a valid backup.
  */
+import * as schemas from './schemas';
 import { z } from './schemas';
 import { interpretStored, noteBackupTaken } from './persistence';
 import { COLLECTION_LIMITS } from './field-rules';
@@ -84,9 +85,9 @@ export function parseBackupText(text: string): BackupParse {
   }
   const errors: string[] = [];
   const s = env.data.sections;
-  const lib = interpretStored(LIBRARY_SPEC, { state: s.library.data, version: s.library.version });
-  const rec = interpretStored(RECIPES_SPEC, { state: s.recipes.data, version: s.recipes.version });
-  const set = interpretStored(SETTINGS_SPEC, { state: s.settings.data, version: s.settings.version });
+  const lib = interpretStored(LIBRARY_SPEC, { state: s.library.data, version: s.library.version }, schemas);
+  const rec = interpretStored(RECIPES_SPEC, { state: s.recipes.data, version: s.recipes.version }, schemas);
+  const set = interpretStored(SETTINGS_SPEC, { state: s.settings.data, version: s.settings.version }, schemas);
   const sections = [
     ['library', lib],
     ['recipes', rec],

@@ -4,7 +4,6 @@ import { persist } from 'zustand/middleware';
 import { temporal } from 'zundo';
 import type { Availability, Component } from '../core/formulation/model';
 import { idbPersistStorage, type StoreSpec } from './persistence';
-import { libraryDataSchema } from './schemas';
 import { demoComponents } from './demo';
 import { newId } from './ids';
 import { blankComponent, freeCode } from './stock-defaults';
@@ -46,7 +45,7 @@ export interface LibraryState extends LibraryData {
 export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
   version: 5,
-  schema: libraryDataSchema,
+  schema: (m) => m.libraryDataSchema,
   // Each stock is a record of its own when tabs merge their saves.
   layout: {
     lists: { components: 'id' },

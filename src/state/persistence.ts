@@ -16,7 +16,6 @@ import { createStore as createIdbStore, get as idbGet, set as idbSet, type UseSt
 import { create } from 'zustand';
 import type { PersistStorage, StorageValue } from 'zustand/middleware';
 import type { z } from 'zod';
-import { describeStoredIssues, storedIssueLines } from './schemas';
 import {
   joinRecords,
   mergeRecords,
@@ -122,12 +121,26 @@ export const preUpgradeCopyKey = (key: StoreKey, fromVersion: number): string =>
 // ---------------------------------------------------------------------------------------------
 // Reading: version check, migrations, validation (pure, testable)
 
+/** The zod schemas module (./schemas.ts), loaded only when stored data or an import is read. */
+export type SchemasModule = typeof import('./schemas');
+
+let schemasModule: SchemasModule | null = null;
+let schemasLoading: Promise<SchemasModule> | null = null;
+
+/**
+ * Load zod and the schemas of the stored data (once). The opening screen of a first visit needs
+ * neither: they are fetched only when there is stored data to check (or a file to import).
+ */
+export function loadSchemas(): Promise<SchemasModule> {
+  return (schemasLoading ??= import('./schemas').then((m) => (schemasModule = m)));
+}
+
 export interface StoreSpec<D> {
   key: StoreKey;
   /** Current schema version of this store's persisted data. */
   version: number;
-  /** zod schema of the persisted data at `version`. */
-  schema: z.ZodType<D>;
+  /** The zod schema of the persisted data at `version`, picked from the schemas module. */
+  schema: (schemas: SchemasModule) => z.ZodType<D>;
   /** `migrations[n]` converts data at version n into version n + 1. */
   migrations: Record<number, (data: unknown) => unknown>;
   /** How the data divide into records for the per-record merge across tabs (default: one record per field). */
@@ -146,11 +159,13 @@ const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 
 /**
  * Interpret a raw stored value `{ state, version }`: migrate older versions, refuse newer ones,
- * validate the result. Never throws.
+ * validate the result. Never throws, except when called before the schemas are loaded (pass them,
+ * or await {@link loadSchemas} first).
  */
-export function interpretStored<D>(spec: StoreSpec<D>, raw: unknown): LoadResult<D> {
+export function interpretStored<D>(spec: StoreSpec<D>, raw: unknown, schemas: SchemasModule | null = schemasModule): LoadResult<D> {
   const what = STORE_LABEL[spec.key];
   if (raw === undefined || raw === null) return { kind: 'empty' };
+  if (!schemas) throw new Error('interpretStored: the schemas are not loaded yet (await loadSchemas())');
   if (!isRecord(raw) || !('state' in raw) || typeof raw.version !== 'number' || !Number.isInteger(raw.version)) {
     return {
       kind: 'problem',
@@ -182,12 +197,12 @@ export function interpretStored<D>(spec: StoreSpec<D>, raw: unknown): LoadResult
       problem: { kind: 'corrupt', message: `The saved ${what} (schema ${storedVersion}) could not be upgraded: ${(e as Error).message}.` },
     };
   }
-  const parsed = spec.schema.safeParse(data);
+  const parsed = spec.schema(schemas).safeParse(data);
   if (!parsed.success) {
     return {
       kind: 'problem',
-      problem: { kind: 'corrupt', message: `The saved ${what} failed its integrity check: ${describeStoredIssues(parsed.error, data)}.` },
-      issues: storedIssueLines(parsed.error, data),
+      problem: { kind: 'corrupt', message: `The saved ${what} failed its integrity check: ${schemas.describeStoredIssues(parsed.error, data)}.` },
+      issues: schemas.storedIssueLines(parsed.error, data),
     };
   }
   return { kind: 'ok', data: parsed.data, migratedFrom: storedVersion < spec.version ? storedVersion : null };
@@ -523,7 +538,8 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         });
         return null;
       }
-      const result = interpretStored(spec, raw);
+      // zod and the schemas are fetched only when there is something stored to check.
+      const result = raw === undefined || raw === null ? ({ kind: 'empty' } as const) : interpretStored(spec, raw, await loadSchemas());
       if (result.kind === 'empty') {
         patchStatus(spec.key, { phase: 'ready', origin: 'fresh', problem: null, savingPaused: false });
         return null;

@@ -6,7 +6,6 @@ import type { BlendTargets, Component, Recipe, RecipeLine, ReleaseSpecification,
 import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../core/formulation/model';
 import { recordStockBasis } from '../core/recipes/stock-basis';
 import { idbPersistStorage, type StoreSpec } from './persistence';
-import { recipesDataSchema } from './schemas';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
 import { newId } from './ids';
 import {
@@ -192,7 +191,7 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
   version: 8,
-  schema: recipesDataSchema,
+  schema: (m) => m.recipesDataSchema,
   // Each recipe, each recipe's targets, blend sheet and QC entries, and the line plan are records of
   // their own when tabs merge their saves; the active recipe belongs to the tab.
   layout: {

@@ -2,7 +2,6 @@
 import { create } from 'zustand';
 import { persist } from 'zustand/middleware';
 import { idbPersistStorage, type StoreSpec } from './persistence';
-import { settingsDataSchema } from './schemas';
 import { demoSettingsPatch } from './demo';
 import { firstProblem, settingsProblems } from './field-rules';
 import { normaliseCurrency, type ExchangeRate } from '../core/currency/exchange-rates';
@@ -77,7 +76,7 @@ export const demoSettings = (): Settings => ({ ...DEFAULT_SETTINGS, ...demoSetti
 export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   key: 'settings',
   version: 4,
-  schema: settingsDataSchema,
+  schema: (m) => m.settingsDataSchema,
   // Each setting is a record of its own when tabs merge their saves.
   layout: { maps: ['settings'], label: (key) => `the setting “${key.slice('settings/'.length)}”` },
   migrations: {

@@ -36,6 +36,7 @@ describe('interpretStored (pure)', () => {
     const { LIBRARY_SPEC } = await import('../../src/state/library');
     const { demoComponents } = await import('../../src/state/demo');
     const comps = demoComponents();
+    await persistence.loadSchemas(); // zod and the schemas are loaded on demand
     expect(persistence.interpretStored(LIBRARY_SPEC, undefined).kind).toBe('empty');
     const ok = persistence.interpretStored(LIBRARY_SPEC, { state: { components: comps }, version: LIBRARY_SPEC.version });
     expect(ok.kind).toBe('ok');

@@ -42,6 +42,13 @@ export type Availability = 'available' | 'limited' | 'withdrawn';
 /** The basis on which a supplier quotes a price. */
 export type PriceBasis = 'per-kg' | 'per-litre' | 'per-tonne';
 
+/** Display label of each price basis. */
+export const PRICE_BASIS_LABEL: Record<PriceBasis, string> = {
+  'per-kg': 'per kg',
+  'per-litre': 'per litre at 15 °C',
+  'per-tonne': 'per tonne',
+};
+
 export interface Price {
   /** Amount in `currency` per `basis` unit. */
   amount: number;

@@ -3,7 +3,7 @@ import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { DEFAULT_KV40_LOT_SPREAD_PCT } from '../../core/qc/lot-spread';
 import { oxidationRating } from '../../core/scoring/oxidation';
 import type { StockUpdateOutcome } from './ImpactConfirm';
-import { PRICE_BASIS_LABEL } from '../../core/units';
+import { PRICE_BASIS_LABEL } from '../../core/formulation/model';
 import { pricePerKg } from '../../core/formulation/cost';
 import { NumberField, SelectField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';

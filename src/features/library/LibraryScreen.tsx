@@ -1,4 +1,4 @@
-import { Fragment, useCallback, useMemo, useState } from 'react';
+import { Fragment, Suspense, lazy, useCallback, useMemo, useState } from 'react';
 import './library.css';
 import type { Component, ComponentCategory } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
@@ -6,11 +6,9 @@ import { ActionNotice, DemoTag } from '../../components/notices';
 import { downloadText } from '../../components/download';
 import { useFormat } from '../../components/format';
 import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
-import { libraryToCsv, libraryToJson } from '../../state/library-io';
 import { checkComponent } from '../../state/checks';
 import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
 import { ComponentDetails } from './ComponentDetails';
-import { ImportPanel } from './ImportPanel';
 import { ImpactConfirm, type PendingStockChange, type StockUpdateOutcome } from './ImpactConfirm';
 import { predictionImpact } from '../../core/recipes/impact';
 
@@ -22,6 +20,10 @@ const PREDICTION_INPUT_LABEL: Record<(typeof PREDICTION_INPUTS)[number], string>
   density15: 'density',
   calibration: 'calibration',
 };
+
+// Import and export (zod, CSV parsing) load on first use, not with the opening screen.
+const ImportPanel = lazy(() => import('./ImportPanel').then((m) => ({ default: m.ImportPanel })));
+const libraryIo = () => import('../../state/library-io');
 
 function localIsoDate(d: Date): string {
   const pad = (n: number) => String(n).padStart(2, '0');
@@ -187,10 +189,10 @@ export default function LibraryScreen() {
         <button type="button" aria-expanded={importing} onClick={() => setImporting((v) => !v)}>
           Import CSV / JSON…
         </button>
-        <button type="button" onClick={() => downloadText(`blendbench-stocks-${stamp}.csv`, libraryToCsv(components), 'text/csv')}>
+        <button type="button" onClick={() => void libraryIo().then((io) => downloadText(`blendbench-stocks-${stamp}.csv`, io.libraryToCsv(components), 'text/csv'))}>
           Export CSV
         </button>
-        <button type="button" onClick={() => downloadText(`blendbench-stocks-${stamp}.json`, libraryToJson(components), 'application/json')}>
+        <button type="button" onClick={() => void libraryIo().then((io) => downloadText(`blendbench-stocks-${stamp}.json`, io.libraryToJson(components), 'application/json'))}>
           Export JSON
         </button>
         <span className="toolbar-gap" />
@@ -232,13 +234,15 @@ export default function LibraryScreen() {
       ) : null}
 
       {importing ? (
-        <ImportPanel
-          onClose={() => setImporting(false)}
-          onImported={(text) => {
-            setImporting(false);
-            setFlash({ tone: 'success', text, undo: true });
-          }}
-        />
+        <Suspense fallback={<p className="muted">Opening the import…</p>}>
+          <ImportPanel
+            onClose={() => setImporting(false)}
+            onImported={(text) => {
+              setImporting(false);
+              setFlash({ tone: 'success', text, undo: true });
+            }}
+          />
+        </Suspense>
       ) : null}
 
       <div className="table-scroll">

@@ -156,8 +156,9 @@ describe('Library screen', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
     const before = useLibrary.getState().components;
     const file = new File(['code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nX-1,group-ii,10,20,0.86,1\n'], 'bad.csv', { type: 'text/csv' });
+    const input = await screen.findByLabelText('File', {}, { timeout: 15_000 }); // the import panel loads on first use
     await act(async () => {
-      fireEvent.change(screen.getByLabelText('File'), { target: { files: [file] } });
+      fireEvent.change(input, { target: { files: [file] } });
     });
     await screen.findByText('1 of 1 rows have errors; nothing was imported.');
     expect(within(screen.getByRole('table', { name: 'Import preview' })).getByText(/must be below ν40/)).toBeTruthy();
