@@ -11,7 +11,7 @@ export default defineConfig({
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
     exclude: ['tests/e2e/**', 'node_modules/**'],
     environment: 'node',
-    setupFiles: ['tests/setup/fast-check-seed.ts', 'tests/setup.ts'],
+    setupFiles: ['tests/setup/fast-check-seed.ts'],
     testTimeout: 60_000,
   },
 });

@@ -1,9 +1,25 @@
-import { describe, expect, it } from 'vitest';
-import { makeFormatter, parseEntry, parseNumber } from '../../src/components/format';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { loadUnitConversions, makeFormatter, parseEntry, parseNumber, type Formatter } from '../../src/components/format';
 import { DEFAULT_SETTINGS } from '../../src/state/settings';
 
 const point = makeFormatter({ ...DEFAULT_SETTINGS, currencySymbol: '€' });
-const comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', temperatureUnit: 'F' });
+// Made before the °F conversions (mathjs) have loaded: it must show and read °C, labelled °C.
+const early = makeFormatter({ ...DEFAULT_SETTINGS, temperatureUnit: 'F' });
+let comma: Formatter;
+
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+  comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', temperatureUnit: 'F' });
+});
+
+describe('°F before the unit conversions have loaded', () => {
+  it('shows and reads °C, labelled °C, never a °C value labelled °F', () => {
+    // identity: no conversion at all (no source needed)
+    expect(early.temp(40)).toBe('40 °C');
+    expect(early.tempUnit).toBe('°C');
+    expect(early.tempToC(40)).toBe(40);
+  });
+});
 
 describe('number formatting for the user’s habits', () => {
 

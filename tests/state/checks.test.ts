@@ -1,8 +1,14 @@
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { loadUnitConversions } from '../../src/components/format';
 import { checkComponent, checkLabelText, checkValue, checkViscosityPair, viOrReason } from '../../src/state/checks';
 import { makeFormatter } from '../../src/components/format';
 import { DEFAULT_SETTINGS } from '../../src/state/settings';
 import { demoComponents } from '../../src/state/demo';
+
+
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+});
 
 describe('entry checks for a component', () => {
   const bs = demoComponents().find((c) => c.code === 'BW-190')!;

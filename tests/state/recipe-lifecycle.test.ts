@@ -3,8 +3,8 @@
  * approved recipe, saving constraints alone, rename / archive / delete with undo, and the schema
  * 3 → 4 migration. Also the stock data recorded with a recipe (item 14).
  */
-import { beforeEach, describe, expect, it } from 'vitest';
-import { interpretStored } from '../../src/state/persistence';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
 import { BLANK_SPECIFICATION } from '../../src/core/formulation/model';
@@ -15,6 +15,11 @@ const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === i
 beforeEach(() => {
   resetDemo();
   useRecipes.temporal.getState().clear();
+});
+
+
+beforeAll(async () => {
+  await loadSchemas(); // zod and the stored-data schemas load on demand
 });
 
 describe('recipe lifecycle', () => {

@@ -1,11 +1,16 @@
-import { beforeEach, describe, expect, it } from 'vitest';
-import { interpretStored } from '../../src/state/persistence';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { DEFAULT_SHEET_INPUTS, persistedData, recipeActions, resetDemo, useRecipes } from '../../src/state';
 
 beforeEach(() => {
   resetDemo();
   useRecipes.temporal.getState().clear();
+});
+
+
+beforeAll(async () => {
+  await loadSchemas(); // zod and the stored-data schemas load on demand
 });
 
 describe('blend-sheet inputs in the recipes store (schema 3)', () => {

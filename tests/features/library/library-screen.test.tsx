@@ -1,5 +1,6 @@
 // @vitest-environment jsdom
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { beforeAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
@@ -27,6 +28,11 @@ beforeEach(() => {
   settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.' });
 });
 afterEach(cleanup);
+
+
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+});
 
 describe('Library screen', () => {
   it('lists the invented demo stocks with computed VI and grade beside the entered values', () => {
