@@ -1,9 +1,13 @@
-import { beforeEach, describe, expect, it } from 'vitest';
-import { interpretStored } from '../../src/state/persistence';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { adoptPlanRevisions, emptyLinePlan, linePlanActions, persistedData, resetDemo, useRecipes } from '../../src/state';
 import { makeBackupText, parseBackupText } from '../../src/state/backup';
 import { plannedGrades } from '../../src/features/lineplan/derive';
+
+beforeAll(async () => {
+  await loadSchemas(); // zod and the stored-data schemas load on demand
+});
 
 beforeEach(() => {
   resetDemo();

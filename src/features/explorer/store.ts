@@ -44,6 +44,8 @@ export interface ExplorerState {
   resultFor: Scenario | null;
   error: string;
   selectedKey: string | null;
+  /** The user picked `selectedKey` (then it is kept as results stream in); otherwise the best candidate is shown. */
+  selectedByUser: boolean;
   sort: { key: SortKey; dir: 'asc' | 'desc' };
   /** Candidate key → id of the recipe it was adopted as. */
   adopted: Record<string, string>;
@@ -79,6 +81,7 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   resultFor: null,
   error: '',
   selectedKey: null,
+  selectedByUser: false,
   sort: { key: 'rank', dir: 'asc' },
   adopted: {},
 
@@ -91,23 +94,20 @@ export const useExplorerStore = create<ExplorerState>()((set) => ({
   setPolymerCap: (polymerCap) => set({ polymerCap }),
   setMinInBandProbability: (minInBandProbability) => set({ minInBandProbability }),
   started: (scenario) =>
-    set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null, sort: { key: 'rank', dir: 'asc' }, adopted: {} }),
+    set({ status: 'running', progress: null, error: '', resultFor: scenario, result: null, selectedKey: null, selectedByUser: false, sort: { key: 'rank', dir: 'asc' }, adopted: {} }),
   progressed: (progress) => set({ progress }),
-  ranked: (result) =>
-    set((s) => ({
-      result,
-      selectedKey: s.selectedKey && result.candidates.some((c) => c.key === s.selectedKey) ? s.selectedKey : (result.candidates[0]?.key ?? null),
-    })),
-  finished: (result) =>
-    set((s) => ({
-      status: 'done',
-      result,
-      selectedKey: s.selectedKey && result.candidates.some((c) => c.key === s.selectedKey) ? s.selectedKey : (result.candidates[0]?.key ?? null),
-    })),
+  ranked: (result) => set((s) => ({ result, ...selectionIn(s, result) })),
+  finished: (result) => set((s) => ({ status: 'done', result, ...selectionIn(s, result) })),
   cancelled: () => set({ status: 'cancelled' }),
   failed: (error) => set({ status: 'error', error }),
-  select: (selectedKey) => set({ selectedKey }),
+  select: (selectedKey) => set({ selectedKey, selectedByUser: selectedKey !== null }),
   sortBy: (key) =>
     set((s) => ({ sort: { key, dir: s.sort.key === key ? (s.sort.dir === 'asc' ? 'desc' : 'asc') : key === 'vi' || key === 'oxidation' || key === 'inBand' ? 'desc' : 'asc' } })),
   markAdopted: (key, recipeId) => set((s) => ({ adopted: { ...s.adopted, [key]: recipeId } })),
 }));
+
+/** The candidate to compare in a new (streamed or final) result: the user's pick while it is listed, else the best. */
+function selectionIn(s: ExplorerState, result: SubstituteSearchResult): Pick<ExplorerState, 'selectedKey' | 'selectedByUser'> {
+  if (s.selectedByUser && s.selectedKey && result.candidates.some((c) => c.key === s.selectedKey)) return { selectedKey: s.selectedKey, selectedByUser: true };
+  return { selectedKey: result.candidates[0]?.key ?? null, selectedByUser: false };
+}
