@@ -1,5 +1,6 @@
 // @vitest-environment jsdom
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { loadUnitConversions } from '../../../src/components/format';
 import { cleanup, render } from '@testing-library/react';
 import {
   CompositionChart,
@@ -9,6 +10,9 @@ import {
 } from '../../../src/components/charts';
 
 afterEach(cleanup);
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+});
 
 describe('ViscosityTemperatureChart', () => {
   it('draws one straight line per oil, ticks in °C and mm²/s, and the marked temperatures', () => {

@@ -1,5 +1,6 @@
 // @vitest-environment jsdom
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
@@ -15,6 +16,9 @@ beforeEach(() => {
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
 });
 afterEach(cleanup);
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+});
 
 describe('Recipe designer', () => {
   it('opens the active demo recipe with predictions (the caution is the app frame’s, not repeated here)', async () => {
