@@ -1,9 +1,12 @@
-import { beforeEach, describe, expect, it } from 'vitest';
-import { interpretStored } from '../../src/state/persistence';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { DEFAULT_QC_INPUTS, persistedData, recipeActions, resetDemo, useRecipes } from '../../src/state';
 import { makeBackupText, parseBackupText } from '../../src/state/backup';
 
+beforeAll(async () => {
+  await loadSchemas(); // zod's schemas load on demand
+});
 beforeEach(() => {
   resetDemo();
   useRecipes.temporal.getState().clear();
