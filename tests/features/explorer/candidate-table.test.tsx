@@ -4,7 +4,7 @@
  * badged; candidates that differ only by an equivalent source grouped into one row that expands;
  * a warning beside any candidate whose polymer share is beyond the cap; the search capped by default.
  */
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import { CandidateTable } from '../../../src/features/explorer/CandidateTable';
 import { scenarioTargets } from '../../../src/features/explorer/ExplorerScreen';
@@ -12,6 +12,7 @@ import { useExplorerStore } from '../../../src/features/explorer/store';
 import { demoComponents, demoRecipes } from '../../../src/state/demo';
 import type { SubstituteCandidate } from '../../../src/core/search/substitutes';
 import { settingsActions } from '../../../src/state';
+import { loadUnitConversions } from '../../../src/components/format';
 
 afterEach(cleanup);
 
@@ -106,6 +107,9 @@ describe('candidate table', () => {
 });
 
 describe('candidate table in °F', () => {
+  beforeAll(async () => {
+    await loadUnitConversions(); // °F conversions (mathjs) load on demand
+  });
   afterEach(() => settingsActions.updateSettings({ temperatureUnit: 'C' }));
   it('states the aniline tolerance in the unit chosen in the settings', () => {
     settingsActions.updateSettings({ temperatureUnit: 'F' });
