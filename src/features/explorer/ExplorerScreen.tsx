@@ -283,6 +283,7 @@ function screenState(s: ExplorerState) {
     maxComponents: s.maxComponents,
     objective: s.objective,
     polymerCap: s.polymerCap,
+    minInBandProbability: s.minInBandProbability,
     status: s.status,
     result: s.result,
     resultFor: s.resultFor,
@@ -293,6 +294,7 @@ function screenState(s: ExplorerState) {
     setMaxComponents: s.setMaxComponents,
     setObjective: s.setObjective,
     setPolymerCap: s.setPolymerCap,
+    setMinInBandProbability: s.setMinInBandProbability,
   };
 }
 
