@@ -167,6 +167,11 @@ describe('planLinePlain against HiGHS (no VI floors: LPs, and MILPs with a tank 
   });
 });
 
+/** Whether some grade of the plan sits on its VI floor (within 0.05), so the floor shaped the plan. */
+function viFloorBinds(p: PlainLineProblem, plan: { grades: { vi: number }[] }): boolean {
+  return plan.grades.some((g, i) => p.grades[i]!.minVi !== undefined && g.vi < p.grades[i]!.minVi! + 0.05);
+}
+
 describe('planLinePlain with VI floors and no supply caps against solveBlendPlain grade by grade', () => {
   it('costs the sum of the single-grade optima, within 0.5 %', () => {
     // Without supply caps or a tank limit the grades do not interact, so the line's optimum is the sum
@@ -189,7 +194,7 @@ describe('planLinePlain with VI floors and no supply caps against solveBlendPlai
       const sum = singles.reduce((s, x, g) => s + (x.status === 'optimal' ? (p.grades[g]!.demandKg * x.costPerLitre) / 0.88 : 0), 0);
       expect(Math.abs(mine.totalCost - sum) / sum, JSON.stringify(p)).toBeLessThan(0.005);
       compared++;
-      if (mine.grades.some((g, i) => p.grades[i]!.minVi !== undefined && g.vi < p.grades[i]!.minVi! + 0.05)) viBinding++;
+      if (viFloorBinds(p, mine)) viBinding++;
     }
     expect(compared).toBeGreaterThan(10);
     expect(viBinding).toBeGreaterThan(3);
@@ -217,7 +222,7 @@ describe('planLinePlain with VI floors against a grid over the limited stock’s
       if (grid === null) continue;
       compared++;
       expect(mine.totalCost, JSON.stringify(p)).toBeLessThanOrEqual(grid * (1 + 1e-9));
-      if (mine.grades.some((g, i) => g.vi < p.grades[i]!.minVi! + 0.05)) viBinding++;
+      if (viFloorBinds(p, mine)) viBinding++;
     }
     expect(compared).toBeGreaterThan(6);
     expect(viBinding).toBeGreaterThan(1);
