@@ -329,10 +329,9 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
   const failures: string[] = [];
   const grades: LinePlanGradeResult[] = input.grades.map((g, k) => {
     const w = r.fractions[k]!;
-    const lines: RecipeLine[] = [];
-    components.forEach((c, i) => {
+    const lines = linesOf(components, w);
+    components.forEach((_, i) => {
       if (w[i]! > 0) {
-        lines.push({ componentId: c.id, massFraction: w[i]! });
         useKg[i] = useKg[i]! + g.demandKg * w[i]!;
         byGrade[i]![k] = g.demandKg * w[i]!;
       }
@@ -357,13 +356,8 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     if (current && currentTotal !== null) currentTotal += current.cost;
     else currentTotal = null;
     const pMin = g.targets.minInBandProbability ?? null;
-    const probabilityOf = (f: Float64Array): number => {
-      const ls: RecipeLine[] = [];
-      components.forEach((c, i) => {
-        if (f[i]! > 0) ls.push({ componentId: c.id, massFraction: f[i]! });
-      });
-      return recipeInBand(components, ls, g.targets.grade, prepared[k]!.band, prepared[k]!.method).plant.probability;
-    };
+    const probabilityOf = (f: Float64Array): number =>
+      recipeInBand(components, linesOf(components, f), g.targets.grade, prepared[k]!.band, prepared[k]!.method).plant.probability;
     const inBand =
       pMin !== null && pMin > 0
         ? { minimum: pMin, probability: probabilityOf(w), nominalProbability: r0?.status === 'optimal' ? probabilityOf(r0.fractions[k]!) : null }
