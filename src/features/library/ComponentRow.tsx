@@ -4,6 +4,7 @@ import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/formulation/mod
 import { roundHalfEven } from '../../core/viscosity/viscosity-index';
 import { NumberField, SelectField, TextField, type Verdict } from '../../components/fields';
 import { gradeLabel, useFormat } from '../../components/format';
+import { ROW_KEY_ATTR } from '../../components/row-window';
 import { checkLabelText, checkValue, checkViscosityPair, kv40kv100, viOrReason } from '../../state/checks';
 
 export const CATEGORY_OPTIONS = COMPONENT_CATEGORIES.map((c) => ({ value: c, label: CATEGORY_LABEL[c] }));
@@ -37,10 +38,12 @@ export interface RowProps {
   onClone: (id: string) => void;
   onDelete: (id: string) => void;
   detailsId: string;
+  /** The row's place in the whole table (header = 1), when only part of the table is drawn. */
+  rowIndex?: number;
 }
 
 /** One stock in the library table: key fields editable in place, VI and grade computed beside. */
-export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded, onUpdate, onToggleDetails, onClone, onDelete, detailsId }: RowProps) {
+export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded, onUpdate, onToggleDetails, onClone, onDelete, detailsId, rowIndex }: RowProps) {
   const fmt = useFormat();
   const kv = kv40kv100(c);
   const kv40 = kv?.kv40 ?? null;
@@ -68,7 +71,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
     </td>
   );
   return (
-    <tr className={`avail-${c.availability}`}>
+    <tr className={`avail-${c.availability}`} {...{ [ROW_KEY_ATTR]: c.id }} aria-rowindex={rowIndex}>
       <th scope="row" className="code-cell">
         <TextField
           label={`Stock code of ${c.name || who}`}

@@ -1,9 +1,10 @@
-import { Fragment, Suspense, lazy, useCallback, useMemo, useState } from 'react';
+import { Fragment, Suspense, lazy, useCallback, useMemo, useState, type FocusEvent } from 'react';
 import './library.css';
 import type { Component, ComponentCategory } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { ActionNotice, DemoTag } from '../../components/notices';
 import { downloadText } from '../../components/download';
+import { DETAILS_OF_ATTR, useRowWindow } from '../../components/row-window';
 import { useFormat } from '../../components/format';
 import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
 import { checkComponent } from '../../state/checks';
@@ -143,6 +144,15 @@ export default function LibraryScreen() {
     [usedIn],
   );
 
+  // A long library draws only the rows near the viewport (plus the focused row and open details).
+  const keys = useMemo(() => shown.map((c) => c.id), [shown]);
+  const [focusedKey, setFocusedKey] = useState<string | null>(null);
+  const rows = useRowWindow(keys, [focusedKey, expanded]);
+  const onBodyFocus = useCallback((e: FocusEvent<HTMLTableSectionElement>) => {
+    const tr = (e.target as Element).closest?.('tr[data-row-key]');
+    setFocusedKey(tr ? tr.getAttribute('data-row-key') : null);
+  }, []);
+
   const hasDemo = components.some(isDemoComponent);
   const stamp = new Date().toISOString().slice(0, 10);
   const today = localIsoDate(new Date());
@@ -246,7 +256,7 @@ export default function LibraryScreen() {
       ) : null}
 
       <div className="table-scroll">
-        <table className="data library-table" aria-label="Component library">
+        <table className="data library-table" aria-label="Component library" aria-rowcount={rows.windowed ? shown.length + 1 : undefined}>
           <thead>
             <tr>
               <th scope="col">Code</th>
@@ -279,36 +289,46 @@ export default function LibraryScreen() {
               </th>
             </tr>
           </thead>
-          <tbody>
-            {shown.map((c) => (
-              <Fragment key={c.id}>
-                <ComponentRow
-                  c={c}
-                  codeError={codeError}
-                  expanded={expanded === c.id}
-                  detailsId={`details-${c.id}`}
-                  onUpdate={onUpdate}
-                  onToggleDetails={onToggleDetails}
-                  onClone={onClone}
-                  onDelete={onDelete}
-                />
-                {expanded === c.id ? (
-                  <tr className="details-row" id={`details-${c.id}`}>
-                    <td colSpan={12}>
-                      <ComponentDetails
-                        c={c}
-                        usedIn={usedIn.get(c.id) ?? []}
-                        components={components}
-                        recipes={recipes}
-                        defaultMethod={blendMethod}
-                        today={today}
-                        onUpdate={onUpdate}
-                      />
-                    </td>
-                  </tr>
-                ) : null}
-              </Fragment>
-            ))}
+          <tbody ref={rows.bodyRef} onFocus={onBodyFocus}>
+            {/* One flat list keyed by stock, so that a row keeps its state (focus, typed value) as the window moves. */}
+            {rows.segments.flatMap((seg) =>
+              seg.kind === 'gap' ? (
+                <tr key={`gap-${seg.start}`} className="row-gap" aria-hidden="true" data-testid="row-gap" style={{ height: `${seg.height}px` }}>
+                  <td colSpan={12} />
+                </tr>
+              ) : (
+                shown.slice(seg.start, seg.end).map((c, k) => (
+                  <Fragment key={c.id}>
+                    <ComponentRow
+                      c={c}
+                      codeError={codeError}
+                      expanded={expanded === c.id}
+                      detailsId={`details-${c.id}`}
+                      rowIndex={rows.windowed ? seg.start + k + 2 : undefined}
+                      onUpdate={onUpdate}
+                      onToggleDetails={onToggleDetails}
+                      onClone={onClone}
+                      onDelete={onDelete}
+                    />
+                    {expanded === c.id ? (
+                      <tr className="details-row" id={`details-${c.id}`} {...{ [DETAILS_OF_ATTR]: c.id }}>
+                        <td colSpan={12}>
+                          <ComponentDetails
+                            c={c}
+                            usedIn={usedIn.get(c.id) ?? []}
+                            components={components}
+                            recipes={recipes}
+                            defaultMethod={blendMethod}
+                            today={today}
+                            onUpdate={onUpdate}
+                          />
+                        </td>
+                      </tr>
+                    ) : null}
+                  </Fragment>
+                ))
+              ),
+            )}
           </tbody>
         </table>
         {shown.length === 0 ? <p className="muted">No stock matches {query ? `“${query}”` : 'this filter'}.</p> : null}
