@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, type Session, stored } from './support';
+import { largeLibraryCsv } from '../helpers/large-library';
 
 async function libraryRowCount(page: Page): Promise<number> {
   return page.getByRole('table', { name: 'Component library' }).locator(':scope > tbody > tr:not(.details-row)').count();
@@ -155,4 +156,51 @@ describe('component library and saved work', () => {
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+});
+
+describe('a long library (issue 9, item 3)', () => {
+  let s: Session | null = null;
+  const dir = mkdtempSync(join(tmpdir(), 'blendbench-long-'));
+  afterAll(async () => {
+    await s?.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('20,000 stocks: only the rows near the viewport are drawn; scrolling, keyboard entry and Tab work down to the last stock', async () => {
+    s = await launch();
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    const file = join(dir, 'plant-20000.csv');
+    writeFileSync(file, largeLibraryCsv(20_000)); // invented stocks LG-00001 … LG-20000
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(file);
+    await page.getByText('plant-20000.csv is valid.').waitFor({ timeout: 90_000 });
+    await page.getByRole('button', { name: 'Import: add 20000, update 0' }).click();
+    await page.getByText(/^20029 stocks\./).waitFor({ timeout: 90_000 }); // + the 29 invented demo stocks
+    const table = page.getByRole('table', { name: 'Component library' });
+    const drawn = () => table.locator(':scope > tbody > tr[data-row-key]').count();
+    expect(await drawn()).toBeLessThan(150);
+    await expect(table.getAttribute('aria-rowcount')).resolves.toBe('20030');
+    // The page is as tall as the whole table: scroll to the end and the last stock is drawn.
+    await page.evaluate(() => window.scrollTo(0, document.documentElement.scrollHeight));
+    const lastCode = page.getByLabel('Stock code of Invented stock 20000', { exact: true });
+    await lastCode.waitFor();
+    await expect(lastCode.inputValue()).resolves.toBe('LG-20000');
+    expect(await drawn()).toBeLessThan(150);
+    // Keyboard entry: type a name, Tab to the next field, Shift+Tab back; the name is saved.
+    const name = page.getByLabel('Name of LG-20000', { exact: true });
+    await name.focus();
+    await name.fill('Invented stock, renamed by keyboard');
+    await page.keyboard.press('Tab');
+    await expect(page.evaluate(() => document.activeElement?.closest('td')?.className)).resolves.toBe('category-cell');
+    await page.keyboard.press('Shift+Tab');
+    await expect(page.evaluate(() => (document.activeElement as HTMLInputElement).value)).resolves.toBe('Invented stock, renamed by keyboard');
+    // Back to the top: the first demo stock is drawn again.
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.getByLabel('Stock code of Group I bright stock', { exact: true }).waitFor();
+    await page.screenshot({ path: join(process.cwd(), 'test-output', 'screens', 'library-long.png') }); // the viewport (the page is 20,000 rows tall)
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  }, 240_000);
 });
