@@ -1,20 +1,24 @@
 /**
  * Bench: responsiveness of the recipe designer in headless Chromium — editing a fraction in a
- * 12-component recipe must update every number and chart within one frame (goal ≤ 16 ms per edit).
+ * 12-component recipe (issue 9, item 4): main-thread work per edit ≤ 8 ms (mean), and input to the
+ * next painted frame ≤ 16 ms at the 95th percentile.
  *
  * Setup: the production build served by `vite preview` on 127.0.0.1; the designer opens the demo
  * VG 320 recipe (3 lines) and 9 more stocks are added through the "Add a stock" control and given
  * 3 % each, making 12 lines.
- * Measurement, in the page, for each of a batch of edits: main-thread time from dispatching the
- * `input` event on a line's mass-% field (as typing does) until ALL of these show the new blend and
- * the page's style and layout are up to date (forced by reading the layout) — the predicted ν40, the
- * cost per litre, the blend's line on the ASTM D341 chart, the composition bars and the blend's point
- * on the solvency–stability map (the charts draw the blend in live layers, see
- * src/components/charts/live.tsx). Had anything been left to a later task (recharts' own follow-up
- * renders), the clock runs on until it lands (polled between MessageChannel tasks). Raster and
- * compositing happen off the main thread and are not counted. The wall time to the next task, which
- * also holds the browser's frame work and whatever else the machine is doing, is given in the note.
- * `performance.now()` is coarsened to 0.1 ms in the page, so a batch is timed and averaged.
+ * Measurement, in the page, for each of a batch of edits:
+ * - work per edit: main-thread time from dispatching the `input` event on a line's mass-% field (as
+ *   typing does) until ALL of these show the new blend and the page's style and layout are up to
+ *   date (forced by reading the layout) — the predicted ν40, the cost per litre, the blend's line on
+ *   the ASTM D341 chart, the composition bars and the blend's point on the solvency–stability map
+ *   (the charts draw the blend in live layers, see src/components/charts/live.tsx). Had anything
+ *   been left to a later task (recharts' own follow-up renders), the clock runs on until it lands
+ *   (polled between MessageChannel tasks);
+ * - input to next frame: that work plus the next frame's own main-thread work (from its
+ *   animation-frame callbacks to the next task: style, layout, paint records). The idle wait for the
+ *   frame's turn (vsync) is not counted; raster and compositing happen off the main thread.
+ * `performance.now()` is coarsened to 0.1 ms in the page. Wall times, which also hold whatever else
+ * the (shared) machine is doing, are in the note.
  */
 import { withServedApp } from './chromium';
 import type { BenchLine } from './types';
@@ -48,6 +52,7 @@ const EDIT_BATCH = `async (args) => {
   input.focus();
   const times = [];
   const wallTimes = [];
+  const frames = [];
   let syncDone = 0;
   for (let i = 0; i < args.edits; i++) {
     const before = parts();
@@ -67,14 +72,19 @@ const EDIT_BATCH = `async (args) => {
       await hop();
     }
     times.push(Math.max(t1, performance.now()) - t0);
+    // The frame that shows the edit: from its animation-frame callbacks to the next task, i.e. the
+    // frame's own main-thread work (style, layout, paint records). The wait for the frame's turn
+    // (vsync) is idle time and is not counted.
+    const tr = await new Promise((r) => requestAnimationFrame(() => r(performance.now())));
     await hop();
+    frames.push(performance.now() - tr);
     wallTimes.push(performance.now() - t0);
   }
-  return { times, wallTimes, syncDone };
+  return { times, frames, wallTimes, syncDone };
 }`;
 
 const editBatch = (page: import('playwright-core').Page, args: { label: string; edits: number; values: string[] }) =>
-  page.evaluate(`(${EDIT_BATCH})(${JSON.stringify(args)})`) as Promise<{ times: number[]; wallTimes: number[]; syncDone: number }>;
+  page.evaluate(`(${EDIT_BATCH})(${JSON.stringify(args)})`) as Promise<{ times: number[]; frames: number[]; wallTimes: number[]; syncDone: number }>;
 
 export async function run(): Promise<BenchLine[]> {
   return withServedApp('designer-edit', async (app) => {
@@ -106,30 +116,36 @@ export async function run(): Promise<BenchLine[]> {
     // Edit the lightest added line (largest effect per % on ν40): alternate 3 % and 4 %.
     const label = `Mass % of ${added[0]}`;
     await editBatch(page, { label, edits: WARMUP, values: ['4', '3'] });
-    const { times, wallTimes, syncDone } = await editBatch(page, { label, edits: EDITS, values: ['4', '3'] });
-    const wallMean = wallTimes.reduce((a, t) => a + t, 0) / wallTimes.length;
+    const { times, frames, wallTimes, syncDone } = await editBatch(page, { label, edits: EDITS, values: ['4', '3'] });
     await context.close();
-    const sorted = [...times].sort((a, b) => a - b);
-    const mean = times.reduce((s, t) => s + t, 0) / times.length;
-    const p95 = sorted[Math.min(sorted.length - 1, Math.floor(0.95 * sorted.length))]!;
+    const sorted = (xs: number[]) => [...xs].sort((a, b) => a - b);
+    const mean = (xs: number[]) => xs.reduce((a, t) => a + t, 0) / xs.length;
+    const p95 = (xs: number[]) => sorted(xs)[Math.min(xs.length - 1, Math.floor(0.95 * xs.length))]!;
+    const median = (xs: number[]) => sorted(xs)[xs.length >> 1]!;
+    // Input to the painted frame: the edit's own work, then the frame's (vsync wait excluded).
+    const toFrame = times.map((t, i) => t + frames[i]!);
     return [
       {
-        name: 'designer fraction edit, 12 components, all numbers and charts updated, mean',
-        measured: mean,
+        name: 'designer fraction edit, 12 components: main-thread work per edit, mean',
+        measured: mean(times),
+        unit: 'ms',
+        op: '<=',
+        goal: 8,
+        note:
+          `${EDITS} edits of ${label} in Chromium, from the input event until every number and chart shows the new blend and layout is ` +
+          `up to date; median ${median(times).toFixed(1)} ms, p95 ${p95(times).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms; ` +
+          `every number and chart updated within the input event in ${syncDone} of ${EDITS} edits`,
+      },
+      {
+        name: 'designer fraction edit, 12 components: input to next frame, 95th percentile',
+        measured: p95(toFrame),
         unit: 'ms',
         op: '<=',
         goal: 16,
         note:
-          `${EDITS} edits of ${label} in Chromium; median ${sorted[sorted.length >> 1]!.toFixed(1)} ms, max ${sorted.at(-1)!.toFixed(1)} ms; ` +
-          `every number and chart updated within the input event in ${syncDone} of ${EDITS} edits; ` +
-          `wall time to the next task (includes the browser's own frame work and other processes) ${wallMean.toFixed(1)} ms mean`,
-      },
-      {
-        name: 'designer fraction edit, 12 components, 95th percentile',
-        measured: p95,
-        unit: 'ms',
-        op: '<=',
-        goal: 16,
+          `the edit's work plus the next frame's main-thread work (its animation-frame callbacks to the next task; the idle wait for ` +
+          `the frame's turn is not counted); median ${median(toFrame).toFixed(1)} ms; frame work alone median ${median(frames).toFixed(1)} ms, ` +
+          `p95 ${p95(frames).toFixed(1)} ms; wall time from the input to after the frame, idle wait included, median ${median(wallTimes).toFixed(1)} ms`,
       },
     ];
   });
