@@ -30,7 +30,12 @@ let server: ChildProcess | undefined;
 
 export default async function setup(project: TestProject) {
   if (!process.env.E2E_SKIP_BUILD) {
-    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', OUT_DIR, '--emptyOutDir'], { stdio: 'inherit' });
+    // Vitest sets NODE_ENV=test, which would make Vite build React's development bundle; the
+    // end-to-end tests drive what a user gets, the production build.
+    execFileSync('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', OUT_DIR, '--emptyOutDir'], {
+      stdio: 'inherit',
+      env: { ...process.env, NODE_ENV: 'production' },
+    });
   }
   server = spawn('npx', ['vite', 'preview', '--host', '127.0.0.1', '--port', String(PORT), '--strictPort', '--outDir', OUT_DIR], {
     detached: true,
