@@ -105,6 +105,29 @@ describe('Library screen', () => {
     expect(bs().density15).toBe(0.9); // no calculation: the last valid typed value (invented demo data)
   });
 
+  it('a density typed with the other separator is refused naming the setting, never read as kg/m³ with a hint echoing it (issue 10, item 7)', () => {
+    renderFor('BW-190');
+    const before = bs().density15;
+    const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    // "." chosen: "0,885" could be 0.885 or 885; it must not become 885 with "looks like kg/m³ … (e.g. 0.885)"
+    type(rho, '0,885');
+    const alert = screen.getByRole('alert').textContent!;
+    expect(alert).toMatch(/Decimal separator is “\.” \(Settings\): “0,885” could mean 0\.885 or 885/);
+    expect(alert).not.toMatch(/kg\/m³/);
+    expect(bs().density15).toBe(before); // nothing stored
+    cleanup();
+    settingsActions.updateSettings({ decimalSeparator: ',' });
+    renderFor('BW-190');
+    const rho2 = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    type(rho2, '0.885'); // the mirror case
+    const alert2 = screen.getByRole('alert').textContent!;
+    expect(alert2).toMatch(/Decimal separator is “,” \(Settings\): “0\.885” could mean 0,885 or 885/);
+    expect(alert2).not.toMatch(/kg\/m³/);
+    type(rho2, '1.234,5'); // grouped thousands: a real 1234.5, so the hint applies
+    expect(screen.getByRole('alert').textContent).toMatch(/looks like kg\/m³/);
+    expect(bs().density15).toBe(before);
+  });
+
   it('edits are one undo step each; clone, withdraw and delete can be undone', () => {
     renderFor('BW-190');
     // no calculation: 485 is the invented demo value, 490 the typed one
