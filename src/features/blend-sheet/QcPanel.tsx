@@ -9,7 +9,7 @@ import { NumberField, type Verdict } from '../../components/fields';
 import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
 import { checkNumber, type NumberRuleKey } from '../../state/field-rules';
-import { DEFAULT_CORRECTION_BAND_PCT, aimOf, hasAdjustment, type Adjusted, type Correction } from './qc';
+import { DEFAULT_CORRECTION_BAND_PCT, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
 
 export interface QcPanelProps {
   recipe: Recipe;
@@ -41,12 +41,14 @@ function RuleField(props: {
   size?: number;
   /** Label read by assistive technology only (a table cell under a column heading). */
   hideLabel?: boolean;
+  /** A further check of a value the rule allows (e.g. ν100 below the ν40 beside it): why it is refused, or null. */
+  also?: (v: number) => string | null;
 }) {
   const words = useFormat();
   const scale = props.percent ? 100 : 1;
   const validate = (v: number | null): Verdict => {
     if (v === null) return {};
-    const m = checkNumber(props.rule, v / scale, undefined, words);
+    const m = checkNumber(props.rule, v / scale, undefined, words) ?? props.also?.(v / scale) ?? null;
     return m ? { error: m } : {};
   };
   return (
@@ -66,6 +68,7 @@ function RuleField(props: {
 
 export function QcPanel(props: QcPanelProps) {
   const { recipe, components, qc, onChange, fmt } = props;
+  const words = useFormat();
   const id = useId();
   const byId = new Map(components.map((c) => [c.id, c]));
   const lines = recipe.lines.filter((l) => l.massFraction > 0);
@@ -81,6 +84,14 @@ export function QcPanel(props: QcPanelProps) {
   );
   const corrIds = [...lines.map((l) => l.componentId), ...qc.correction.stockIds];
   const pctText = (p: number) => probabilityText(p, fmt);
+  /** A lot's ν40/ν100 against each other, the library's value standing in for one not measured. */
+  const lotPair = (code: string, kv40: number | null, kv100: number | null, library: number | undefined, typed: 'kv40' | 'kv100') => {
+    const a = typed === 'kv40' ? kv40 : (kv40 ?? library);
+    const b = typed === 'kv100' ? kv100 : (kv100 ?? library);
+    if (a == null || b == null) return null;
+    const src = (k: 'kv40' | 'kv100', measured: number | null) => (k === typed || measured !== null ? 'lot' : 'library');
+    return pairProblem(code, a, b, words, { kv40: src('kv40', kv40), kv100: src('kv100', kv100) });
+  };
 
   return (
     <section className="bs-qc-panel bs-no-print" aria-labelledby={`${id}-h`} data-testid="qc-panel">
@@ -126,10 +137,28 @@ export function QcPanel(props: QcPanelProps) {
                 <tr key={c.id}>
                   <th scope="row">{c.code}</th>
                   <td>
-                    <RuleField label={`Lot ν40 of ${c.code}`} hideLabel unit="mm²/s" rule="kv40" value={lot?.kv40 ?? null} hint={own ? `library ${fmt(own.kv40, 1)}` : undefined} onCommit={(v) => setLot(c.id, 'kv40', v)} />
+                    <RuleField
+                      label={`Lot ν40 of ${c.code}`}
+                      hideLabel
+                      unit="mm²/s"
+                      rule="kv40"
+                      value={lot?.kv40 ?? null}
+                      hint={own ? `library ${fmt(own.kv40, 1)}` : undefined}
+                      also={(v) => lotPair(c.code, v, lot?.kv100 ?? null, own?.kv100, 'kv40')}
+                      onCommit={(v) => setLot(c.id, 'kv40', v)}
+                    />
                   </td>
                   <td>
-                    <RuleField label={`Lot ν100 of ${c.code}`} hideLabel unit="mm²/s" rule="kv100" value={lot?.kv100 ?? null} hint={own ? `library ${fmt(own.kv100, 2)}` : undefined} onCommit={(v) => setLot(c.id, 'kv100', v)} />
+                    <RuleField
+                      label={`Lot ν100 of ${c.code}`}
+                      hideLabel
+                      unit="mm²/s"
+                      rule="kv100"
+                      value={lot?.kv100 ?? null}
+                      hint={own ? `library ${fmt(own.kv100, 2)}` : undefined}
+                      also={(v) => lotPair(c.code, lot?.kv40 ?? null, v, own?.kv40, 'kv100')}
+                      onCommit={(v) => setLot(c.id, 'kv100', v)}
+                    />
                   </td>
                   <td>
                     <RuleField label={`Lot density of ${c.code}`} hideLabel unit="kg/L" rule="density15" value={lot?.density15 ?? null} hint={`library ${fmt(c.density15, 4)}`} onCommit={(v) => setLot(c.id, 'density15', v)} />
@@ -167,8 +196,22 @@ export function QcPanel(props: QcPanelProps) {
               ))}
             </select>
           </label>
-          <RuleField label="Heel ν40" unit="mm²/s" rule="kv40" value={qc.heel.kv40} onCommit={(v) => setHeel({ kv40: v })} />
-          <RuleField label="Heel ν100" unit="mm²/s" rule="kv100" value={qc.heel.kv100} onCommit={(v) => setHeel({ kv100: v })} />
+          <RuleField
+            label="Heel ν40"
+            unit="mm²/s"
+            rule="kv40"
+            value={qc.heel.kv40}
+            also={(v) => (qc.heel.kv100 === null ? null : pairProblem('Heel', v, qc.heel.kv100, words))}
+            onCommit={(v) => setHeel({ kv40: v })}
+          />
+          <RuleField
+            label="Heel ν100"
+            unit="mm²/s"
+            rule="kv100"
+            value={qc.heel.kv100}
+            also={(v) => (qc.heel.kv40 === null ? null : pairProblem('Heel', qc.heel.kv40, v, words))}
+            onCommit={(v) => setHeel({ kv100: v })}
+          />
           <RuleField label="Heel density" unit="kg/L" rule="density15" value={qc.heel.density15} hint="blank = 0.88" onCommit={(v) => setHeel({ density15: v })} />
           <RuleField
             label="Heel additive content"
@@ -211,12 +254,20 @@ export function QcPanel(props: QcPanelProps) {
           additive package up in proportion.
         </p>
         <div className="bs-qc-row">
-          <RuleField label="Measured ν40 of the batch" unit="mm²/s" rule="kv40" value={qc.correction.kv40} onCommit={(v) => setCorr({ kv40: v })} />
+          <RuleField
+            label="Measured ν40 of the batch"
+            unit="mm²/s"
+            rule="kv40"
+            value={qc.correction.kv40}
+            also={(v) => (qc.correction.kv100 === null ? null : pairProblem('The batch', v, qc.correction.kv100, words))}
+            onCommit={(v) => setCorr({ kv40: v })}
+          />
           <RuleField
             label="Measured ν100 of the batch"
             unit="mm²/s"
             rule="kv100"
             value={qc.correction.kv100}
+            also={(v) => (qc.correction.kv40 === null ? null : pairProblem('The batch', qc.correction.kv40, v, words))}
             hint="blank = estimated at the recipe’s predicted VI"
             onCommit={(v) => setCorr({ kv100: v })}
           />

@@ -15,6 +15,23 @@ import type { QcInputs } from '../../state';
 import { userMessage } from '../../state/messages';
 import { displayWords, type NumberDisplay } from '../../core/words/display';
 
+/**
+ * Why a ν40/ν100 pair cannot be one oil, in the user's words, or null when ν100 is below ν40:
+ * "BW-190: ν100 (31.8 mm²/s, library) must be below ν40 (20 mm²/s, lot) — …". `src` names where each
+ * value comes from when the two may differ (a lot value against the library's).
+ */
+export function pairProblem(
+  who: string,
+  kv40: number,
+  kv100: number,
+  words: { say: (x: number) => string },
+  src: { kv40?: string; kv100?: string } = {},
+): string | null {
+  if (!(kv100 >= kv40)) return null;
+  const from = (t?: string) => (t ? `, ${t}` : '');
+  return `${who}: ν100 (${words.say(kv100)} mm²/s${from(src.kv100)}) must be below ν40 (${words.say(kv40)} mm²/s${from(src.kv40)}) — a viscosity falls as the oil warms.`;
+}
+
 /** Default half-width of the band a correction aims into, around the aim [%] (common practice, no source). */
 export const DEFAULT_CORRECTION_BAND_PCT = 2;
 
@@ -71,6 +88,16 @@ export function lotValues(recipe: Recipe, byId: ReadonlyMap<string, Component>, 
     });
 }
 
+/** The first lot whose ν100 is not below its ν40 (lot or library values), in words, or null. */
+function lotPairProblem(lots: readonly LotValues[], words: { say: (x: number) => string }): string | null {
+  for (const l of lots) {
+    const src = (measured: boolean) => (measured ? 'lot' : 'library');
+    const p = pairProblem(l.code, l.kv40, l.kv100, words, { kv40: src(l.measured.kv40), kv100: src(l.measured.kv100) });
+    if (p) return p;
+  }
+  return null;
+}
+
 /** The adjusted recipe, or why there is none. */
 export type Adjusted = { result: AdjustResult; lots: LotValues[]; aim: number; heelKg: number } | { error: string };
 
@@ -93,6 +120,8 @@ export function adjustedRecipe(
   const byId = new Map(components.map((c) => [c.id, c]));
   try {
     const lots = lotValues(recipe, byId, qc);
+    const lotPair = lotPairProblem(lots, words);
+    if (lotPair) return { error: lotPair };
     const aim = aimOf(recipe, qc);
     const additive = recipeAdditive(recipe, byId);
     const h = qc.heel;
@@ -100,6 +129,8 @@ export function adjustedRecipe(
     let heel = null;
     if (heelKg > 0) {
       if (h.kv40 === null || h.kv100 === null) return { error: 'Enter the heel’s ν40 and ν100 (measured, or from the recipe it was made to).' };
+      const heelPair = pairProblem('Heel', h.kv40, h.kv100, words);
+      if (heelPair) return { error: heelPair };
       heel = {
         massKg: heelKg,
         kv40: h.kv40,
@@ -186,13 +217,19 @@ export function correctionFor(
     if (kv100 === null) {
       kv100 = opts.predictedVi === null ? null : kv100AtVi(c.kv40, opts.predictedVi);
       if (kv100 === null) return { error: 'Enter the batch’s measured ν100 as well (it cannot be estimated from the recipe’s VI).' };
+    } else {
+      const batchPair = pairProblem('The batch', c.kv40, kv100, words);
+      if (batchPair) return { error: batchPair };
     }
     const aim = aimOf(recipe, qc);
     const b = (c.bandPct ?? DEFAULT_CORRECTION_BAND_PCT) / 100;
     const lo = Math.max(opts.releaseBand.min, aim * (1 - b));
     const hi = Math.min(opts.releaseBand.max, aim * (1 + b));
     if (!(hi >= lo)) return { error: `The aim ${words.say(aim)} mm²/s ± ${words.say(b * 100)} % lies outside the release band.` };
-    const lots = new Map(lotValues(recipe, byId, qc).map((l) => [l.id, l]));
+    const lotList = lotValues(recipe, byId, qc);
+    const lotPair = lotPairProblem(lotList, words);
+    if (lotPair) return { error: lotPair };
+    const lots = new Map(lotList.map((l) => [l.id, l]));
     const ids = [...new Set([...recipe.lines.filter((l) => l.massFraction > 0).map((l) => l.componentId), ...c.stockIds])];
     const additive = recipeAdditive(recipe, byId);
     const codes = new Map<string, string>();

@@ -76,4 +76,30 @@ describe('Blend sheet — the QC loop', () => {
     expect(screen.getByTestId('correction-reason').textContent).toMatch(/needs [\d,]+ kg of BW-190 .*the vessel takes only 100 kg more/);
     expect(screen.queryByTestId('correction-sheet')).toBeNull();
   });
+  it('refuses a ν100 not below its ν40 where typed — lot (against the library value), heel and batch — naming the stock, and words a saved pair the same way (issue 10, item 10)', () => {
+    render(<BlendSheetScreen />);
+    // BW-190's library ν100 is 31.8 mm²/s (invented demo data): a lot ν40 of 20 cannot go with it
+    enter(/^Lot ν40 of BW-190/, '20');
+    const lotAlert = screen.getAllByRole('alert').map((a) => a.textContent).join(' ');
+    expect(lotAlert).toMatch(/BW-190: ν100 \(31\.8 mm²\/s, library\) must be below ν40 \(20 mm²\/s, lot\)/);
+    expect(lotAlert).not.toMatch(/stocks\[|Stocks\[/);
+    expect(useRecipes.getState().qc['demo-vg320']?.lots['demo-bw-190']?.kv40 ?? null).toBeNull(); // not stored
+    enter(/^Heel ν40/, '20');
+    enter(/^Heel ν100/, '23');
+    expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toMatch(/Heel: ν100 \(23 mm²\/s\) must be below ν40 \(20 mm²\/s\)/);
+    expect(useRecipes.getState().qc['demo-vg320']!.heel.kv100).toBeNull();
+    enter(/^Measured ν40 of the batch/, '20');
+    enter(/^Measured ν100 of the batch/, '23');
+    expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toMatch(/The batch: ν100 \(23 mm²\/s\) must be below ν40 \(20 mm²\/s\)/);
+    expect(useRecipes.getState().qc['demo-vg320']!.correction.kv100).toBeNull();
+  });
+
+  it('a saved lot that no longer fits the library is said in words, naming the stock, never a field path', () => {
+    // Stored before the library changed: lot ν40 20 mm²/s of BW-190 against its library ν100 31.8 mm²/s
+    recipeActions.setQcInputs('demo-vg320', { lots: { 'demo-bw-190': { kv40: 20, kv100: null, density15: null } } });
+    render(<BlendSheetScreen />);
+    const text = screen.getAllByRole('alert').map((a) => a.textContent).join(' ');
+    expect(text).toMatch(/BW-190: ν100 \(31\.8 mm²\/s, library\) must be below ν40 \(20 mm²\/s, lot\)/);
+    expect(text).not.toMatch(/Stocks\[0\]/);
+  });
 });
