@@ -204,6 +204,7 @@ export { solvencyScore, blendSolvency, SOLVENCY_BANDS, SOLVENCY_BAND_LABEL, SOLV
 export type { DepositPropensity, DepositPattern, DepositAssessment, DepositDriver } from './scoring/deposit';
 export {
   assessDeposit,
+  explainDeposit,
   depositPropensity,
   DEPOSIT_PROPENSITIES,
   DEPOSIT_PROPENSITY_LABEL,

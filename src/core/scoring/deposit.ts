@@ -22,6 +22,7 @@
  * Patterns: 'late-abrupt' (r ≥ 3.5 and s ≤ 2), 'early-gradual' (r < 2.5 and s ≥ 3),
  * 'early-insoluble' (r < 2.5 and s ≤ 2), otherwise 'balanced'.
  */
+import { displayWords, type NumberDisplay } from '../words/display';
 import { blendOxidationRating, oxidationClass, OXIDATION_CLASS_LABEL } from './oxidation';
 import type { BlendOxidation, OxidationClass } from './oxidation';
 import { blendSolvency, SOLVENCY_BAND_LABEL } from './solvency';
@@ -169,6 +170,20 @@ export function assessDeposit(
   return { propensity, pattern, oxidation, solvency, drivers, explanation, approximate: true };
 }
 
+/**
+ * The plain-language explanation of an assessment written in the user's number style: the oxidation
+ * rating with their decimal separator, the blend aniline point in their temperature unit
+ * (t_F = 9/5·t_C + 32). `assessDeposit(…).explanation` is the same text with "." and °C.
+ *
+ * @param a - an assessment from {@link assessDeposit}
+ * @param display - decimal separator and temperature unit (default ".", °C)
+ * @returns the explanation, e.g. "… (rating 3,2 of 5) … (aniline point about 221 °F, by volume) …"
+ * Source: Blendbench's own scales (common practice, no source).
+ */
+export function explainDeposit(a: DepositAssessment, display?: NumberDisplay): string {
+  return explain(a.propensity, a.pattern, a.oxidation, a.solvency, a.drivers, display);
+}
+
 const list = (ds: DepositDriver[]): string => ds.map((d) => d.code).join(' and ');
 
 function explain(
@@ -177,16 +192,18 @@ function explain(
   ox: BlendOxidation,
   sol: BlendSolvency,
   d: DepositAssessment['drivers'],
+  display?: NumberDisplay,
 ): string {
+  const w = displayWords(display);
   const s: string[] = [];
   s.push(`${DEPOSIT_PROPENSITY_LABEL[propensity]} (${DEPOSIT_PATTERN_LABEL[pattern]}).`);
-  let oxLine = `${OXIDATION_CLASS_LABEL[ox.oxidationClass]} (rating ${ox.rating.toFixed(1)} of 5)`;
+  let oxLine = `${OXIDATION_CLASS_LABEL[ox.oxidationClass]} (rating ${w.num(ox.rating, 1)} of 5)`;
   const up = d.raiseStability.length ? `raised by ${list(d.raiseStability)}` : '';
   const down = d.lowerStability.length ? `lowered by ${list(d.lowerStability)}` : '';
   if (up || down) oxLine += `, ${[up, down].filter(Boolean).join(', ')}`;
   s.push(`${oxLine}.`);
   const basis = sol.basis === 'base-fluid' ? 'by volume over the base fluid' : 'by volume';
-  let solLine = `${SOLVENCY_BAND_LABEL[sol.band]} (aniline point about ${Math.round(sol.anilinePoint)} °C, ${basis})`;
+  let solLine = `${SOLVENCY_BAND_LABEL[sol.band]} (aniline point about ${w.temp(sol.anilinePoint, 0)}, ${basis})`;
   const apUp = d.raiseAniline.length ? `pushed up most by ${list(d.raiseAniline)}` : '';
   const apDown = d.lowerAniline.length ? `pulled down by ${list(d.lowerAniline)}` : '';
   if (apUp || apDown) solLine += `, ${[apUp, apDown].filter(Boolean).join(', ')}`;

@@ -6,6 +6,7 @@ import { gradeBand } from '../../core/viscosity/iso-grades';
 import { SHEAR_ASSUMPTION } from '../../core/formulation/shear-blend';
 import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidation';
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
+import { explainDeposit } from '../../core/scoring/deposit';
 import { formatWorkingInput, gradeLabel, probabilityText, useFormat, type Formatter } from '../../components/format';
 import type { Prediction } from './predict';
 
@@ -123,7 +124,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
         equation: 'look-up: oxidation-stability class × solvency band (matrix in the README)',
         standard: 'Blendbench’s own assessment (common practice, no source); not a measurement',
         inputs: { 'oxidation rating [1–5]': Number(pred.deposit.oxidation.rating.toFixed(2)), 'solvency score [1–5]': pred.deposit.solvency.score },
-        note: pred.deposit.explanation,
+        note: explainDeposit(pred.deposit, fmt.settings),
       },
     });
   }

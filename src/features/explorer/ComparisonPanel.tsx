@@ -8,6 +8,7 @@ import { probabilityText, useFormat, type Formatter } from '../../components/for
 import type { InBandOf } from './in-band';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/formulation/comparison';
+import { explainDeposit } from '../../core/scoring/deposit';
 import { assess, type Assessed } from './compare';
 import { combinationTradeOff, type TradeOff } from './tradeoff';
 
@@ -294,7 +295,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
           {premiumSentence(premium, candidate.costPerLitre, fmt)}
         </p>
       )}
-      {candAssessed?.deposit && <p className="deposit-note">{candAssessed.deposit.explanation}</p>}
+      {candAssessed?.deposit && <p className="deposit-note">{explainDeposit(candAssessed.deposit, fmt.settings)}</p>}
       <TradeOffSection key={`${candidate.key}|${settings.blendMethod}`} candidate={candidate} components={components} byId={byId} targets={targets} settings={settings} />
       <div className="adopt-row">
         <button type="button" className="primary" onClick={onAdopt} disabled={adoptedName !== null}>

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assessDeposit, depositPropensity } from '../../../src/core/scoring/deposit';
+import { assessDeposit, depositPropensity, explainDeposit } from '../../../src/core/scoring/deposit';
 import { stock } from '../../helpers/formulation-fixtures';
 
 describe('depositPropensity (Blendbench matrix)', () => {
@@ -44,6 +44,21 @@ describe('assessDeposit', () => {
     expect(a.explanation).toContain('PAO40');
     expect(a.explanation).toMatch(/not a measurement/);
     expect(a.approximate).toBe(true);
+  });
+  it('writes the explanation in the user’s number style: decimal comma and °F (issue 10, item 17)', () => {
+    const a = assessDeposit(lib, [
+      { componentId: 'pao40', massFraction: 0.7 },
+      { componentId: 'pao6', massFraction: 0.28 },
+      { componentId: 'add', massFraction: 0.02 },
+    ]);
+    // the default text is the same sentences with "." and °C
+    expect(explainDeposit(a)).toBe(a.explanation);
+    const text = explainDeposit(a, { decimalSeparator: ',', temperatureUnit: 'F' });
+    // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale), whole degrees as printed
+    const apF = Math.round((a.solvency.anilinePoint * 9) / 5 + 32);
+    expect(text).toContain(`aniline point about ${apF} °F`);
+    expect(text).toContain(`rating ${a.oxidation.rating.toFixed(1).replace('.', ',')} of 5`);
+    expect(text).not.toMatch(/°C/);
   });
   it('names the solvency booster as lowering the aniline point', () => {
     // alkylated naphthalene is a solvency booster (domain doc, materials) — ordering, not a value
