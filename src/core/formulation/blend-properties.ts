@@ -6,6 +6,7 @@
  * laboratory must confirm them before a batch is released.
  */
 import type { Component, RecipeLine } from './model';
+import { displayWords, type NumberDisplay } from '../words/display';
 import { BlendbenchInputError, assertTemperatureC } from '../errors';
 import { BLEND_METHOD_LABEL, BLEND_METHOD_STANDARD, blendKv40Kv100, type BlendMethod } from '../blending/blend-viscosity';
 import { VI_MIN_KV100, reportedViscosityIndex, viscosityIndex } from '../viscosity/viscosity-index';
@@ -120,6 +121,8 @@ export interface PredictOptions {
   operatingTempC?: number;
   /** Cold-start temperature [°C]. */
   coldTempC?: number;
+  /** How warnings and notes write numbers and temperatures (the user's separator and unit; default ".", °C). */
+  display?: NumberDisplay;
 }
 
 /**
@@ -212,6 +215,7 @@ export function predictBlend(
   const method: BlendMethod = opts.method ?? 'refutas';
   const parts = resolveBlendParts(fn, components, lines);
   const warnings: string[] = [];
+  const words = displayWords(opts.display);
   const explain: Record<string, PropertyExplain> = {};
   const blendParts = parts.map((p) => ({
     massFraction: p.line.massFraction,
@@ -253,7 +257,7 @@ export function predictBlend(
     vi = viscosityIndex(kv40, kv100);
     reportedVi = reportedViscosityIndex(kv40, kv100);
   } else {
-    warnings.push(`ν100 = ${fmt(kv100, 3)} mm²/s is below 2.0 mm²/s: ASTM D2270 defines no viscosity index.`);
+    warnings.push(`ν100 = ${words.say(fmt(kv100, 3))} mm²/s is below ${words.num(VI_MIN_KV100, 1)} mm²/s: ASTM D2270 defines no viscosity index.`);
   }
   explain.vi = {
     equation:
@@ -316,13 +320,13 @@ export function predictBlend(
   const pourPointExtrapolated = pourPoint !== null && pourIndexExtrapolated(pourPoint, usedParts.map((p) => p.component.pourPoint));
   if (flashPointExtrapolated) {
     explain.flashPoint.note =
-      `Extrapolation: the Wickey–Chittenden index was fitted on flash points below ${FLASH_INDEX_FITTED_MAX_C} °C (petroleum fuels and ` +
+      `Extrapolation: the Wickey–Chittenden index was fitted on flash points below ${words.sayTemp(FLASH_INDEX_FITTED_MAX_C)} (petroleum fuels and ` +
       'distillates); gear-oil flash points lie beyond that. ' +
       explain.flashPoint.note;
   }
   if (pourPointExtrapolated) {
     explain.pourPoint.note =
-      `Extrapolation: the Hu–Burns index was fitted on pour points of ${POUR_INDEX_FITTED_C.min}…${POUR_INDEX_FITTED_C.max} °C ` +
+      `Extrapolation: the Hu–Burns index was fitted on pour points of ${words.sayTemp(POUR_INDEX_FITTED_C.min)}…${words.sayTemp(POUR_INDEX_FITTED_C.max)} ` +
       '(distillate fuels). ' +
       explain.pourPoint.note;
   }
@@ -376,12 +380,12 @@ export function predictBlend(
     assertTemperatureC(fn, field, tempC);
     try {
       const kv = viscosityAtTemperature(kv40, kv100, tempC);
-      const a = assessTemperature(tempC);
-      if (a.outsideBand) warnings.push(`Viscosity at ${tempC} °C: ${a.note}`);
+      const a = assessTemperature(tempC, undefined, opts.display);
+      if (a.outsideBand) warnings.push(`Viscosity at ${words.sayTemp(tempC)}: ${a.note}`);
       return { tempC, kv, extrapolated: a.extrapolated, outsideBand: a.outsideBand };
     } catch (e) {
       if (e instanceof BlendbenchInputError) {
-        warnings.push(`No viscosity at ${tempC} °C: ${e.message}`);
+        warnings.push(`No viscosity at ${words.sayTemp(tempC)}: ${e.message}`);
         return null;
       }
       throw e;

@@ -41,6 +41,7 @@
  *   Viscosity–Temperature Chart for Hydrocarbons", Journal of Materials 4 (1969) 19–27 (origin of
  *   the correction term).
  */
+import { displayWords, type NumberDisplay } from '../words/display';
 import {
   ViscosityOrderError,
   ViscosityOutOfRangeError,
@@ -235,28 +236,30 @@ function kvOnLine(line: WaltherLine, T: number): number {
  *
  * @param tempC - the temperature a result refers to [°C]
  * @param fitted - the lowest and highest measured temperature of the line [°C] (40 and 100 for a two-point line)
+ * @param display - how the note writes temperatures (the user's separator and unit; default ".", °C)
  * @returns flags and a plain-language note (null when inside the fitted range)
  * @example assessTemperature(560, { minC: 40, maxC: 100 }) // → { extrapolated: true, outsideBand: true, note: '…' }
  */
 export function assessTemperature(
   tempC: number,
   fitted: { minC: number; maxC: number } = { minC: 40, maxC: 100 },
+  display?: NumberDisplay,
 ): { extrapolated: boolean; outsideBand: boolean; note: string | null } {
   const extrapolated = !(tempC >= fitted.minC && tempC <= fitted.maxC);
   const outsideBand = !(tempC >= D341_TRUSTED_BAND_C.min && tempC <= D341_TRUSTED_BAND_C.max);
+  const w = displayWords(display);
+  /** A temperature [°C] in the display unit, to one decimal at most; a range "a–b °F" with one unit. */
+  const t = (c: number) => w.sayTemp(Math.round(c * 10) / 10);
+  const range = (a: number, b: number, sep: string) => `${w.sayTemp(a).replace(` ${w.tempUnit}`, '')}${sep}${t(b)}`;
   let note: string | null = null;
   if (outsideBand) {
     note =
-      `${round1(tempC)} °C lies outside ${D341_TRUSTED_BAND_C.min}…${D341_TRUSTED_BAND_C.max} °C: ` +
-      `an extrapolation of the ASTM D341 line far beyond the measured ${fitted.minC}–${fitted.maxC} °C, not a prediction.`;
+      `${t(tempC)} lies outside ${range(D341_TRUSTED_BAND_C.min, D341_TRUSTED_BAND_C.max, '…')}: ` +
+      `an extrapolation of the ASTM D341 line far beyond the measured ${range(fitted.minC, fitted.maxC, '–')}, not a prediction.`;
   } else if (extrapolated) {
-    note = `${round1(tempC)} °C is outside the measured ${fitted.minC}–${fitted.maxC} °C: extrapolated along the ASTM D341 line.`;
+    note = `${t(tempC)} is outside the measured ${range(fitted.minC, fitted.maxC, '–')}: extrapolated along the ASTM D341 line.`;
   }
   return { extrapolated, outsideBand, note };
-}
-
-function round1(x: number): number {
-  return Math.round(x * 10) / 10;
 }
 
 /**

@@ -44,10 +44,11 @@ export default function BlendSheetScreen() {
       const p = predictBlend(components, recipe.lines, {
         method: settings.blendMethod,
         operatingTempC: settings.operatingTempC,
+        display: settings,
       });
       return { ...sheetPrediction(p), warnings: p.warnings, properties: p };
     },
-    [components, settings.blendMethod, settings.operatingTempC],
+    [components, settings],
   );
 
   return (

@@ -1,4 +1,5 @@
 /** Predicted properties of the draft, recomputed by the core on every change (never stored). */
+import type { NumberDisplay } from '../../core/words/display';
 import { useMemo } from 'react';
 import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
@@ -40,7 +41,15 @@ export function predictRecipe(
   lines: readonly RecipeLine[],
   components: readonly Component[],
   method: BlendMethod,
-  temps: { operatingTempC?: number; coldTempC?: number; deliveryTempC?: number; grade?: number; band?: { min: number; max: number } } = {},
+  temps: {
+    operatingTempC?: number;
+    coldTempC?: number;
+    deliveryTempC?: number;
+    grade?: number;
+    band?: { min: number; max: number };
+    /** How the prediction's warnings and notes write numbers (the user's settings). */
+    display?: NumberDisplay;
+  } = {},
 ): Prediction {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
@@ -97,11 +106,11 @@ function inBandOf(
 export function usePrediction(
   lines: readonly RecipeLine[],
   components: readonly Component[],
-  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC'>,
+  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC' | 'decimalSeparator' | 'thousandsGrouping' | 'temperatureUnit'>,
   grade?: number,
   band?: { min: number; max: number } | null,
 ): Prediction {
-  const { blendMethod, operatingTempC, coldStartTempC, deliveryTempC } = settings;
+  const { blendMethod, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit } = settings;
   const lo = band?.min;
   const hi = band?.max;
   return useMemo(
@@ -110,9 +119,10 @@ export function usePrediction(
         operatingTempC,
         coldTempC: coldStartTempC,
         deliveryTempC,
+        display: { decimalSeparator, thousandsGrouping, temperatureUnit },
         ...(grade === undefined ? {} : { grade }),
         ...(lo === undefined || hi === undefined ? {} : { band: { min: lo, max: hi } }),
       }),
-    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, grade, lo, hi],
+    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit, grade, lo, hi],
   );
 }

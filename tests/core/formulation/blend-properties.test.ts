@@ -109,7 +109,15 @@ describe('predictBlend — issue 13: guards, methods, density and cost at temper
     const p = predictBlend([A, B], lines, { operatingTempC: 65, coldTempC: -30 });
     expect(p.kvAtOperating).toMatchObject({ tempC: 65, extrapolated: false, outsideBand: false });
     expect(p.kvAtCold).toMatchObject({ tempC: -30, extrapolated: true, outsideBand: true });
-    expect(p.warnings.join(' ')).toMatch(/−?-?30 °C lies outside -20…150 °C/);
+    expect(p.warnings.join(' ')).toMatch(/−30 °C lies outside −20…150 °C/);
+  });
+  it('writes its warnings and notes in the user’s number style: decimal comma and °F (issue 10, item 17)', () => {
+    const p = predictBlend([A, B], lines, { operatingTempC: 65, coldTempC: -30, display: { decimalSeparator: ',', temperatureUnit: 'F' } });
+    // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale): −30 °C = −22 °F, −20 °C = −4 °F, 150 °C = 302 °F,
+    // 40 °C = 104 °F, 100 °C = 212 °F
+    const w = p.warnings.join(' ');
+    expect(w).toMatch(/Viscosity at −22 °F: −22 °F lies outside −4…302 °F: an extrapolation of the ASTM D341 line far beyond the measured 104–212 °F/);
+    expect(w).not.toMatch(/°C/);
   });
   it('names the D7152 methods and never Refutas as one', () => {
     // labels required by issue 13 §2
