@@ -66,6 +66,40 @@ function RuleField(props: {
   );
 }
 
+/** A measured ν40 and ν100 side by side, each refused where typed unless ν100 is below the ν40 beside it. */
+function PairFields(props: {
+  who: string;
+  labels: readonly [string, string];
+  kv40: number | null;
+  kv100: number | null;
+  kv100Hint?: string;
+  onCommit: (patch: { kv40?: number | null; kv100?: number | null }) => void;
+}) {
+  const words = useFormat();
+  const { who, kv40, kv100 } = props;
+  return (
+    <>
+      <RuleField
+        label={props.labels[0]}
+        unit="mm²/s"
+        rule="kv40"
+        value={kv40}
+        also={(v) => (kv100 === null ? null : pairProblem(who, v, kv100, words))}
+        onCommit={(v) => props.onCommit({ kv40: v })}
+      />
+      <RuleField
+        label={props.labels[1]}
+        unit="mm²/s"
+        rule="kv100"
+        value={kv100}
+        also={(v) => (kv40 === null ? null : pairProblem(who, kv40, v, words))}
+        hint={props.kv100Hint}
+        onCommit={(v) => props.onCommit({ kv100: v })}
+      />
+    </>
+  );
+}
+
 export function QcPanel(props: QcPanelProps) {
   const { recipe, components, qc, onChange, fmt } = props;
   const words = useFormat();
@@ -196,22 +230,7 @@ export function QcPanel(props: QcPanelProps) {
               ))}
             </select>
           </label>
-          <RuleField
-            label="Heel ν40"
-            unit="mm²/s"
-            rule="kv40"
-            value={qc.heel.kv40}
-            also={(v) => (qc.heel.kv100 === null ? null : pairProblem('Heel', v, qc.heel.kv100, words))}
-            onCommit={(v) => setHeel({ kv40: v })}
-          />
-          <RuleField
-            label="Heel ν100"
-            unit="mm²/s"
-            rule="kv100"
-            value={qc.heel.kv100}
-            also={(v) => (qc.heel.kv40 === null ? null : pairProblem('Heel', qc.heel.kv40, v, words))}
-            onCommit={(v) => setHeel({ kv100: v })}
-          />
+          <PairFields who="Heel" labels={['Heel ν40', 'Heel ν100']} kv40={qc.heel.kv40} kv100={qc.heel.kv100} onCommit={(patch) => setHeel(patch)} />
           <RuleField label="Heel density" unit="kg/L" rule="density15" value={qc.heel.density15} hint="blank = 0.88" onCommit={(v) => setHeel({ density15: v })} />
           <RuleField
             label="Heel additive content"
@@ -254,22 +273,13 @@ export function QcPanel(props: QcPanelProps) {
           additive package up in proportion.
         </p>
         <div className="bs-qc-row">
-          <RuleField
-            label="Measured ν40 of the batch"
-            unit="mm²/s"
-            rule="kv40"
-            value={qc.correction.kv40}
-            also={(v) => (qc.correction.kv100 === null ? null : pairProblem('The batch', v, qc.correction.kv100, words))}
-            onCommit={(v) => setCorr({ kv40: v })}
-          />
-          <RuleField
-            label="Measured ν100 of the batch"
-            unit="mm²/s"
-            rule="kv100"
-            value={qc.correction.kv100}
-            also={(v) => (qc.correction.kv40 === null ? null : pairProblem('The batch', qc.correction.kv40, v, words))}
-            hint="blank = estimated at the recipe’s predicted VI"
-            onCommit={(v) => setCorr({ kv100: v })}
+          <PairFields
+            who="The batch"
+            labels={['Measured ν40 of the batch', 'Measured ν100 of the batch']}
+            kv40={qc.correction.kv40}
+            kv100={qc.correction.kv100}
+            kv100Hint="blank = estimated at the recipe’s predicted VI"
+            onCommit={(patch) => setCorr(patch)}
           />
           <RuleField label="Mass in the vessel" unit="kg" rule="massKg" value={qc.correction.massKg} hint="blank = the batch size" onCommit={(v) => setCorr({ massKg: v })} />
           <RuleField label="Vessel holds at most" unit="kg" rule="massKg" value={qc.correction.vesselLimitKg} hint="blank = no limit" onCommit={(v) => setCorr({ vesselLimitKg: v })} />
