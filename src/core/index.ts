@@ -285,7 +285,7 @@ export { predictionImpact } from './recipes/impact';
 
 // Release hold: why a blend sheet is not for release
 export type { HoldKind, HoldReason, ReleaseHoldInput, ReleaseAssessment } from './release/release-hold';
-export { releaseHoldReasons, assessRelease, RELEASE_HOLD_LABEL } from './release/release-hold';
+export { releaseHoldReasons, assessRelease, correctionHoldReasons, RELEASE_HOLD_LABEL } from './release/release-hold';
 
 // Exchange rates at the boundary (prices restated in one base currency)
 export type { ExchangeRate, UnpricedStock, PricedLibrary } from './currency/exchange-rates';

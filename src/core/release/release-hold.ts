@@ -123,6 +123,29 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
   return out;
 }
 
+/**
+ * The reasons a batch correction sheet is held: every reason of the recipe's own blend sheet (the
+ * batch was made from that recipe, so it is released on the same terms), and each stock the
+ * correction adds that is withdrawn in the library. Common practice (no source).
+ *
+ * @param sheetHold - the blend sheet's hold reasons for the recipe ({@link releaseHoldReasons})
+ * @param addedCodes - codes of the stocks the correction adds (more than 0 kg)
+ * @param components - the library (withdrawn stocks included)
+ * @returns the sheet's reasons, then one reason naming the withdrawn additions (if any); empty → no hold
+ * @example correctionHoldReasons([], ['BW-191'], lib) // → [{ kind: 'withdrawn-stock', message: 'The correction adds a withdrawn stock: BW-191.' }]
+ */
+export function correctionHoldReasons(
+  sheetHold: readonly HoldReason[],
+  addedCodes: readonly string[],
+  components: readonly Component[],
+): HoldReason[] {
+  const withdrawn = new Set(components.filter((c) => c.availability === 'withdrawn').map((c) => c.code));
+  const added = addedCodes.filter((c) => withdrawn.has(c));
+  if (added.length === 0) return [...sheetHold];
+  const what = added.length === 1 ? 'a withdrawn stock' : 'withdrawn stocks';
+  return [...sheetHold, { kind: 'withdrawn-stock', message: `The correction adds ${what}: ${added.join(', ')}.` }];
+}
+
 /** A recipe's prediction, QC table and release hold, computed together (as the blend sheet shows them). */
 export interface ReleaseAssessment {
   /** The prediction, or the message of the error that stopped it. */

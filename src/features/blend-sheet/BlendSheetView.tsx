@@ -8,7 +8,7 @@ import type { BlendProperties } from '../../core/formulation/blend-properties';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { describeRate, priceLibraryInBase, pricingFor, rateDecimals, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
-import { releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
+import { correctionHoldReasons, releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
 import {
@@ -266,6 +266,14 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         : null,
     [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, props.targets, method, display], // eslint-disable-line react-hooks/exhaustive-deps
   );
+  // The correction sheet is held for the sheet's reasons and for any withdrawn stock it adds.
+  const corrHold = useMemo((): HoldReason[] => {
+    if (!correction || !('result' in correction) || correction.result.status !== 'optimal') return hold;
+    const added = Object.entries(correction.result.addKg)
+      .filter(([, kg]) => kg > 0)
+      .map(([code]) => code);
+    return correctionHoldReasons(hold, added, components);
+  }, [correction, hold, components]);
   const heelSources = useMemo(() => {
     const byIdAll = new Map(components.map((c) => [c.id, c]));
     return recipes
@@ -414,6 +422,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         inBand={inBand}
         releaseBand={releaseBand}
         onPrintCorrection={() => printDocument('correction')}
+        correctionHold={corrHold}
         fmt={fmt}
       />
 
@@ -862,6 +871,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           paper={paper}
           methodLabel={BLEND_METHOD_LABEL[method]}
           fmt={fmt}
+          hold={corrHold}
         />
       )}
     </section>

@@ -2,8 +2,9 @@
 // order to charge it, with the same cautions as the blend sheet. Printed through the blend sheet's own
 // print path (the screen chooses which of the two documents the printer gets).
 import type { Recipe } from '../../core/formulation/model';
-import { BLEND_SHEET_CAUTIONS } from '../../core/sheet/blend-sheet';
+import { BLEND_SHEET_CAUTIONS, PER_SPECIFICATION } from '../../core/sheet/blend-sheet';
 import type { CorrectionProblem, CorrectionResult } from '../../core/qc/correction';
+import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 
 export interface CorrectionSheetProps {
   companyName: string;
@@ -23,6 +24,11 @@ export interface CorrectionSheetProps {
   /** The mixing rule of the prediction, named (e.g. "Refutas (mass fractions)"). */
   methodLabel: string;
   fmt: (x: number, d: number) => string;
+  /**
+   * Why the corrected batch is not for release (the blend sheet's hold, and any addition of a
+   * withdrawn stock); empty → no hold (the laboratory's release is still required).
+   */
+  hold: readonly HoldReason[];
 }
 
 export function CorrectionSheet(p: CorrectionSheetProps) {
@@ -39,6 +45,17 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
         <div className="bs-company">{p.companyName || 'Company name (set it in the settings)'}</div>
         <div className="bs-title">Batch correction sheet</div>
       </header>
+      {p.hold.length > 0 && (
+        <section className="bs-hold" aria-label={`Correction sheet: ${RELEASE_HOLD_LABEL}`} data-testid="correction-hold">
+          <div className="bs-hold-title">{RELEASE_HOLD_LABEL}</div>
+          <ul>
+            {p.hold.map((h) => (
+              <li key={h.message}>{h.message}</li>
+            ))}
+          </ul>
+          <div className="bs-hold-foot">Do not release the corrected batch until every reason is resolved.</div>
+        </section>
+      )}
       <dl className="bs-fields">
         <div className="bs-span3">
           <dt>Product</dt>
@@ -154,7 +171,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
             <th scope="row">Viscosity index</th>
             <td>—</td>
             <td className="bs-num">{fmt(result.vi, 0)}</td>
-            <td>{problem.minVi === undefined ? 'per specification' : `≥ ${fmt(problem.minVi, 0)}`}</td>
+            <td>{p.recipe.specification.viMin === null ? PER_SPECIFICATION : `≥ ${fmt(p.recipe.specification.viMin, 0)}`}</td>
             <td>ASTM D2270</td>
             <td className="bs-measured" />
             <td className="bs-initials" />

@@ -9,6 +9,7 @@ import { NumberField, type Verdict } from '../../components/fields';
 import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
 import { checkNumber, type NumberRuleKey } from '../../state/field-rules';
+import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 import { DEFAULT_CORRECTION_BAND_PCT, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
 
 export interface QcPanelProps {
@@ -25,6 +26,8 @@ export interface QcPanelProps {
   inBand: RecipeInBand | null;
   releaseBand: { min: number; max: number } | null;
   onPrintCorrection: () => void;
+  /** Why the correction sheet is not for release (printed on it as well); empty → no hold. */
+  correctionHold: readonly HoldReason[];
   fmt: (x: number, d: number) => string;
 }
 
@@ -376,8 +379,24 @@ export function QcPanel(props: QcPanelProps) {
                     .join(', ')} (${fmt(corr.result.addedKg, 1)} kg in all): the batch becomes ${fmt(corr.result.massKg, 1)} kg at ν40 ${fmt(corr.result.kv40, 1)} mm²/s (predicted).`
                 : `The batch is already within ${fmt(corr.band.min, 1)}–${fmt(corr.band.max, 1)} mm²/s: nothing to add.`}
             </p>
-            <button type="button" onClick={props.onPrintCorrection} disabled={corr.result.addedKg <= 0}>
-              Print correction sheet
+            {corr.result.addedKg > 0 && props.correctionHold.length > 0 && (
+              <div className="bs-hold-screen" role="alert" id={`${id}-corr-hold`} data-testid="correction-hold-screen">
+                <strong>{RELEASE_HOLD_LABEL}.</strong> The correction sheet will print with the hold and its reasons:
+                <ul>
+                  {props.correctionHold.map((h) => (
+                    <li key={h.message}>{h.message}</li>
+                  ))}
+                </ul>
+              </div>
+            )}
+            <button
+              type="button"
+              className={props.correctionHold.length > 0 ? 'bs-print-held' : undefined}
+              onClick={props.onPrintCorrection}
+              disabled={corr.result.addedKg <= 0}
+              aria-describedby={corr.result.addedKg > 0 && props.correctionHold.length > 0 ? `${id}-corr-hold` : undefined}
+            >
+              {props.correctionHold.length > 0 ? `Print correction sheet — ${RELEASE_HOLD_LABEL}` : 'Print correction sheet'}
             </button>
           </div>
         )}

@@ -260,13 +260,22 @@ export function correctionFor(
       objective: c.objective,
       ...(additive ? { additive: { id: byId.get(additive.id)!.code, massFraction: additive.massFraction } } : {}),
       ...(c.vesselLimitKg === null ? {} : { maxFinalMassKg: c.vesselLimitKg }),
-      ...(opts.targets?.minVi === null || opts.targets?.minVi === undefined ? {} : { minVi: opts.targets.minVi }),
+      ...(minViOf(recipe, opts.targets) === null ? {} : { minVi: minViOf(recipe, opts.targets)! }),
       ...(opts.display ? { display: opts.display } : {}),
     };
     return { problem, result: correctBatchPlain(problem, opts.method), band: { min: lo, max: hi }, kv100Estimated, codes };
   } catch (e) {
     return { error: userMessage(e, { components, words }) };
   }
+}
+
+/**
+ * The least VI a correction may leave: the stricter of the recipe's solve constraint and its product
+ * specification's release minimum (a correction that lands below the specification cannot be released).
+ */
+function minViOf(recipe: Recipe, targets: BlendTargets | null): number | null {
+  const limits = [targets?.minVi ?? null, recipe.specification.viMin].filter((v): v is number => v !== null);
+  return limits.length === 0 ? null : Math.max(...limits);
 }
 
 /** Blend density of the recipe by ideal mixing [kg/L]. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assessRelease, releaseHoldReasons } from '../../../src/core/release/release-hold';
+import { assessRelease, correctionHoldReasons, releaseHoldReasons } from '../../../src/core/release/release-hold';
 import { newRecipeLifecycle, type BlendTargets, type Recipe } from '../../../src/core/formulation/model';
 import { makeComponent, STOCKS } from '../../helpers/formulation-fixtures';
 
@@ -64,5 +64,18 @@ describe('release hold', () => {
     expect(a.reasons.map((x) => x.kind)).toEqual(['constraint', 'release-limit']);
     const bad = assessRelease({ recipe: { ...base, lines: [{ componentId: 'g2hv', massFraction: 0.5 }] }, components: lib, targets, method: 'refutas' });
     expect(bad.reasons.map((x) => x.kind)).toEqual(['no-prediction']);
+  });
+
+  it('holds a correction sheet for the sheet’s reasons and for each withdrawn stock it adds', () => {
+    const g2hv = lib[0]!;
+    const withdrawnLib = [{ ...g2hv, availability: 'withdrawn' as const }, lib[1]!];
+    const draft = [{ kind: 'status' as const, message: 'The recipe is a draft: it has not been approved.' }];
+    expect(correctionHoldReasons([], [lib[1]!.code], withdrawnLib)).toEqual([]);
+    expect(correctionHoldReasons(draft, [lib[1]!.code], withdrawnLib)).toEqual(draft);
+    expect(correctionHoldReasons(draft, [g2hv.code, lib[1]!.code], withdrawnLib)).toEqual([
+      ...draft,
+      { kind: 'withdrawn-stock', message: `The correction adds a withdrawn stock: ${g2hv.code}.` },
+    ]);
+    expect(correctionHoldReasons([], [g2hv.code], lib)).toEqual([]);
   });
 });

@@ -2,7 +2,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import BlendSheetScreen from '../../../src/features/blend-sheet/BlendSheetScreen';
-import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
+import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 
 beforeEach(() => {
   resetDemo();
@@ -101,5 +101,48 @@ describe('Blend sheet — the QC loop', () => {
     const text = screen.getAllByRole('alert').map((a) => a.textContent).join(' ');
     expect(text).toMatch(/BW-190: ν100 \(31\.8 mm²\/s, library\) must be below ν40 \(20 mm²\/s, lot\)/);
     expect(text).not.toMatch(/Stocks\[0\]/);
+  });
+
+  it('a correction of an approved recipe prints without a hold, its VI limit from the product specification', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    expect(screen.getByRole('button', { name: 'Print correction sheet' })).toBeTruthy();
+    expect(screen.queryByTestId('correction-hold-screen')).toBeNull();
+    const sheet = screen.getByTestId('correction-sheet');
+    expect(within(sheet).queryByTestId('correction-hold')).toBeNull();
+    // the release limit is the recipe's specification (demo: VI ≥ 90), not a solve constraint
+    const viRow = within(sheet).getByRole('rowheader', { name: 'Viscosity index' }).closest('tr')!;
+    expect(viRow.textContent).toContain('≥ 90');
+  });
+
+  it('a correction from a recipe that uses a withdrawn stock is held on screen and on the printed correction sheet', () => {
+    // the demo VG 320 charges BW-190; withdrawn after the batch was made, the correction still adds it
+    useLibrary.getState().updateComponent('demo-bw-190', { availability: 'withdrawn' });
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    expect(screen.getByTestId('correction-summary').textContent).toMatch(/kg of BW-190/);
+    const onScreen = screen.getByTestId('correction-hold-screen').textContent!;
+    expect(onScreen).toMatch(/HOLD — not for release/);
+    expect(onScreen).toContain('The correction adds a withdrawn stock: BW-190.');
+    const button = screen.getByRole('button', { name: 'Print correction sheet — HOLD — not for release' });
+    expect(button.getAttribute('aria-describedby')).toBeTruthy();
+    const printed = within(screen.getByTestId('correction-sheet')).getByTestId('correction-hold').textContent!;
+    expect(printed).toMatch(/HOLD — not for release/i);
+    expect(printed).toContain('It uses a withdrawn stock: BW-190.');
+    expect(printed).toContain('The correction adds a withdrawn stock: BW-190.');
+  });
+
+  it('a correction of a draft is held like its blend sheet', () => {
+    const id = recipeActions.saveRevision('demo-vg320', {}, 'test: a draft revision');
+    recipeActions.setActiveRecipe(id);
+    recipeActions.setSheetInputs(id, { batchSize: '10000' });
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const printed = within(screen.getByTestId('correction-sheet')).getByTestId('correction-hold').textContent!;
+    expect(printed).toContain('The recipe is a draft: it has not been approved.');
+    expect(printed).not.toContain('The correction adds');
   });
 });
