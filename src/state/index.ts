@@ -78,7 +78,7 @@ export { blankComponent, freeCode } from './library';
 /** Today's date as YYYY-MM-DD, local time (the date printed on sheets and summaries). */
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
-export { DEFAULT_SETTINGS } from './settings';
+export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
 export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';
 
 /** The library store hook (zustand): `useLibrary(s => s.components)`; `useLibrary.getState()` for actions. */

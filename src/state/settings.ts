@@ -102,13 +102,28 @@ export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   },
 };
 
+/**
+ * A change of the base currency while exchange rates are stored is refused unless the same change
+ * replaces the rates: each rate is in units of the base it was entered against, so keeping it would
+ * silently re-read "0.92 EUR per USD" as "0.92 GBP per USD".
+ */
+export function baseChangeProblem(current: Settings, patch: Partial<Settings>): string | null {
+  if (patch.baseCurrency === undefined || patch.exchangeRates !== undefined) return null;
+  const from = normaliseCurrency(current.baseCurrency);
+  const to = normaliseCurrency(patch.baseCurrency);
+  if (from === to || current.exchangeRates.length === 0) return null;
+  const listed = current.exchangeRates.map((r) => normaliseCurrency(r.currency)).join(', ');
+  return `The exchange rates (${listed}) are in ${from} per unit: remove them before changing the base currency to ${to}, then enter the rates to ${to}.`;
+}
+
 export const useSettingsStore = create<SettingsState>()(
   persist(
     (set, get) => ({
       settings: demoSettings(),
       updateSettings: (patch) => {
-        const next = { ...get().settings, ...patch };
-        const refused = firstProblem(settingsProblems(next));
+        const current = get().settings;
+        const next = { ...current, ...patch };
+        const refused = baseChangeProblem(current, patch) ?? firstProblem(settingsProblems(next));
         if (refused) return refused;
         set({ settings: next });
         return null;

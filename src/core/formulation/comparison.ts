@@ -127,7 +127,9 @@ export function assessRecipe(
  * oxidation class, solvency band and deposit propensity, Δ viscosity at the operating and cold
  * temperatures, and whether each is in grade after shear.
  *
- * Δx = x_candidate − x_reference (Δ% relative to the reference).
+ * Δx = x_candidate − x_reference (Δ% relative to the reference). The cost difference is given only
+ * when both recipes are costed in the same currency (otherwise null: restate prices in one currency
+ * first, see `core/currency/exchange-rates.ts`).
  *
  * @param input Library, both recipes (mass fractions), grade, operating and cold temperatures [°C],
  *   mixing rule.
@@ -168,7 +170,11 @@ export function compareRecipes(input: ComparisonInput): Comparison {
   const result: Comparison = {
     reference: ref,
     candidate: cand,
-    costPerLitre: delta(rp.costPerLitre, cp.costPerLitre),
+    // A cost is compared only in one currency: a price is never subtracted from one in another.
+    costPerLitre:
+      rp.currency !== null && rp.currency === cp.currency
+        ? delta(rp.costPerLitre, cp.costPerLitre)
+        : { reference: rp.costPerLitre, candidate: cp.costPerLitre, delta: null, deltaPct: null },
     kv40: delta(rp.kv40, cp.kv40),
     kv100: delta(rp.kv100, cp.kv100),
     vi: delta(rp.vi, cp.vi),

@@ -9,6 +9,7 @@ import type { InBandOf } from './in-band';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/formulation/comparison';
 import { explainDeposit } from '../../core/scoring/deposit';
+import { describeRate, rateDecimals, unpricedMessage, type ExchangeRate, type UnpricedStock } from '../../core/currency/exchange-rates';
 import { assess, type Assessed } from './compare';
 import { combinationTradeOff, type TradeOff } from './tradeoff';
 
@@ -54,17 +55,24 @@ function lineList(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Compon
  * The comparison's rows. `polymerCap` (mass fraction) is the cap the polymer share is held against:
  * the search's, or the common-practice default when the search had none.
  */
-export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt: Formatter, polymerCap: number): Row[] {
+export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt: Formatter, polymerCap: number, base: string | null = null): Row[] {
   const r = ref?.props;
   const c = cand?.props;
   const rows: Row[] = [];
-  const costD = r?.costPerLitre != null && c?.costPerLitre != null ? c.costPerLitre - r.costPerLitre : null;
+  // A cost is shown (and compared) only in the base currency: a recipe holding a stock without an
+  // exchange rate is "not costed", never printed with the base currency's symbol.
+  const inBase = (p: Assessed['props'] | undefined): number | null =>
+    p?.costPerLitre != null && (base === null || p.currency === base) ? p.costPerLitre : null;
+  const costText = (p: Assessed['props'] | undefined): string =>
+    inBase(p) !== null ? fmt.money(inBase(p), 3) : p?.costPerLitre != null && base !== null ? `not costed in ${base}` : fmt.money(null, 3);
+  const rCost = inBase(r);
+  const cCost = inBase(c);
+  const costD = rCost !== null && cCost !== null ? cCost - rCost : null;
   rows.push({
     label: 'Cost per litre at 15 °C',
-    ref: fmt.money(r?.costPerLitre, 3),
-    cand: fmt.money(c?.costPerLitre, 3),
-    change:
-      costD === null || !r?.costPerLitre ? '—' : `${delta(r.costPerLitre, c!.costPerLitre, fmt, 3)} (${costD > 0 ? '+' : ''}${fmt.num((100 * costD) / r.costPerLitre, 1)} %)`,
+    ref: costText(r),
+    cand: costText(c),
+    change: costD === null || !rCost ? '—' : `${delta(rCost, cCost, fmt, 3)} (${costD > 0 ? '+' : ''}${fmt.num((100 * costD) / rCost, 1)} %)`,
     tone: tone(costD, true),
   });
   rows.push({ label: 'ν40, mm²/s', ref: fmt.num(r?.kv40, 1), cand: fmt.num(c?.kv40, 1), change: delta(r?.kv40, c?.kv40, fmt, 1) });
@@ -206,6 +214,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   adoptedName,
   onAdopt,
   polymerCap,
+  pricing,
 }: {
   reference: Recipe;
   candidate: SubstituteCandidate;
@@ -223,6 +232,11 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   onAdopt: () => void;
   /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
   polymerCap: number;
+  /**
+   * The base currency, the exchange rates behind the costs of both recipes and their stocks without
+   * a rate (stated under the table, as on a costing copy).
+   */
+  pricing: { base: string; ratesUsed: readonly ExchangeRate[]; unpriced: readonly UnpricedStock[] };
 }) {
   const fmt = useFormat();
   const byId = useMemo(() => new Map(components.map((c) => [c.id, c])), [components]);
@@ -236,7 +250,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
       }),
     [components, candidate, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC, reference.grade],
   );
-  const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap), ...inBandRows(inBand ?? null, fmt)];
+  const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap, pricing.base), ...inBandRows(inBand ?? null, fmt)];
   const premium = inBand?.candidate?.nominal && inBand.minimum !== null ? inBand.candidate : null;
   const summary = useMemo(() => {
     try {
@@ -293,6 +307,13 @@ export const ComparisonPanel = memo(function ComparisonPanel({
       {premium && (
         <p className="premium-note" data-testid="comparison-premium">
           {premiumSentence(premium, candidate.costPerLitre, fmt)}
+        </p>
+      )}
+      {(pricing.ratesUsed.length > 0 || pricing.unpriced.length > 0) && (
+        <p className="small" data-testid="comparison-pricing">
+          {pricing.ratesUsed.length > 0 &&
+            `Prices converted at ${pricing.ratesUsed.map((x) => describeRate(x, pricing.base, (v) => fmt.num(v, rateDecimals(v)))).join('; ')}. `}
+          {pricing.unpriced.length > 0 && unpricedMessage(pricing.unpriced, pricing.base)}
         </p>
       )}
       {candAssessed?.deposit && <p className="deposit-note">{explainDeposit(candAssessed.deposit, fmt.settings)}</p>}

@@ -27,17 +27,19 @@ export interface ExplorerChartsProps {
   selected: SubstituteCandidate | null;
   reference: Recipe | null;
   refAssessed: Assessed | null;
+  /** The reference's cost per litre at the prices the search ran with (base currency); null → not costed. */
+  referenceCost: number | null;
   components: readonly Component[];
   settings: Settings;
   onSelect: (key: string) => void;
 }
 
-export default function ExplorerCharts({ candidates, frontier, selected, reference, refAssessed, components, settings, onSelect }: ExplorerChartsProps) {
+export default function ExplorerCharts({ candidates, frontier, selected, reference, refAssessed, referenceCost, components, settings, onSelect }: ExplorerChartsProps) {
   const [ref, width] = useWidth<HTMLElement>(900);
   const fmt = useMemo(() => makeFormatter(settings), [settings]);
   const byId = useMemo(() => new Map(components.map((c) => [c.id, c])), [components]);
   const frontierKeys = useMemo(() => new Set(frontier.map((c) => c.key)), [frontier]);
-  const refCost = refAssessed?.props.costPerLitre ?? null;
+  const refCost = referenceCost;
   const refAp = refAssessed?.props.anilinePoint?.value ?? null;
   const refOx = refAssessed?.props.oxidationRating ?? null;
 

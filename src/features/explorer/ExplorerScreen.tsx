@@ -5,9 +5,9 @@ import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { NumberField } from '../../components/fields';
 import { checkNumber } from '../../state/field-rules';
-import { componentsById, defaultTargets, recipeActions, usePricedLibrary, useRecipes, useSettings } from '../../state';
+import { componentsById, defaultTargets, recipeActions, useLibrary, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
-import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
+import { pricingFor, solvableLibrary, unpricedMessage, type PricedLibrary } from '../../core/currency/exchange-rates';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
 import { StockChangeList } from '../../components/recipe-status';
 import { prewarmSearchWorkers, releaseSearchWorkers, startSearch, type SearchHandle } from './search-client';
@@ -50,6 +50,14 @@ export function scenarioTargets(
   const cap = polymerCap !== undefined ? polymerCap : (base.maxPolymerFraction ?? DEFAULT_MAX_POLYMER_FRACTION);
   const pMin = minInBandProbability !== undefined ? minInBandProbability : (base.minInBandProbability ?? null);
   return { ...base, grade: reference.grade, objective, referenceRecipeId: reference.id, maxPolymerFraction: cap, minInBandProbability: pMin };
+}
+
+/**
+ * The prices a search runs with, as one comparable text: the base currency and every stock's price
+ * restated in it (or left unpriced). Two searches with the same key were costed alike.
+ */
+export function pricingKey(priced: PricedLibrary): string {
+  return `${priced.base}|${priced.components.map((c) => `${c.id}:${c.price.amount}:${c.price.basis}:${c.price.currency}`).join('|')}`;
 }
 
 export default function ExplorerScreen() {
@@ -99,6 +107,11 @@ export default function ExplorerScreen() {
     [reference, components, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC],
   );
 
+  const quoted = useLibrary((x) => x.components);
+  const currentPricing = useMemo(() => pricingKey(priced), [priced]);
+  // The reference's cost only in the base currency (a stock without a rate leaves it not costed).
+  const refCost = refAssessed && refAssessed.props.currency === priced.base ? refAssessed.props.costPerLitre : null;
+
   const candidates = st.result?.candidates ?? [];
   // Probability in the plant band (the search's band) and the ISO band of every candidate and of the
   // reference; with a minimum probability, the recipe of the same stocks without it (the premium).
@@ -123,6 +136,8 @@ export default function ExplorerScreen() {
       objective: st.objective,
       polymerCap: targets.maxPolymerFraction,
       minInBandProbability: targets.minInBandProbability ?? null,
+      pricingKey: currentPricing,
+      referenceCost: refCost,
     };
     const s = useExplorerStore.getState();
     s.started(scenario);
@@ -182,6 +197,8 @@ export default function ExplorerScreen() {
       (st.resultFor.polymerCap ?? null) !== (targets?.maxPolymerFraction ?? null) ||
       (st.resultFor.minInBandProbability ?? null) !== (targets?.minInBandProbability ?? null) ||
       [...st.resultFor.withdrawn].sort().join() !== [...st.withdrawn].sort().join());
+  // Prices or exchange rates changed since the search: its costs stay at the prices it ran with.
+  const pricesChanged = Boolean(st.result && st.resultFor?.pricingKey !== undefined && st.resultFor.pricingKey !== currentPricing);
   const adoptedId = selected ? st.adopted[selected.key] : undefined;
   const adoptedRecipe = adoptedId ? recipes.find((r) => r.id === adoptedId) : undefined;
 
@@ -210,6 +227,12 @@ export default function ExplorerScreen() {
       )}
       <RunStatusView />
       {stale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
+      {pricesChanged && (
+        <p className="stale" role="status" data-testid="prices-changed">
+          Prices or exchange rates changed since this search: the table’s costs and differences are at the prices the search ran with —
+          run the search again to cost the candidates at today’s prices.
+        </p>
+      )}
       {st.result && (
         <>
           {running_ && (
@@ -231,7 +254,7 @@ export default function ExplorerScreen() {
               <CandidateTable
                 candidates={candidates}
                 components={byId}
-                referenceCost={refAssessed?.props.costPerLitre ?? null}
+                referenceCost={st.resultFor?.referenceCost !== undefined ? st.resultFor.referenceCost : refCost}
                 frontierCount={st.result.frontier.length}
                 total={st.result.distinct}
                 forcedIds={st.result.forcedIds}
@@ -251,6 +274,10 @@ export default function ExplorerScreen() {
                   adoptedName={adoptedRecipe?.name ?? null}
                   onAdopt={() => adopt(selected)}
                   polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
+                  pricing={{
+                    base: priced.base,
+                    ...pricingFor(priced, quoted, [...reference.lines.map((l) => l.componentId), ...selected.componentIds]),
+                  }}
                 />
               )}
             </div>
@@ -264,6 +291,7 @@ export default function ExplorerScreen() {
                 selected={selected}
                 reference={reference}
                 refAssessed={refAssessed}
+                referenceCost={st.resultFor?.referenceCost !== undefined ? st.resultFor.referenceCost : refCost}
                 components={components}
                 settings={settings}
                 onSelect={(key: string) => useExplorerStore.getState().select(key)}

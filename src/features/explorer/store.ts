@@ -19,6 +19,13 @@ export interface Scenario {
   withdrawn: string[];
   maxComponents: number;
   objective: Objective;
+  /**
+   * The prices the search ran with (base currency, every price restated in it): a result is stale
+   * when they change, and its costs are never set against costs at other prices.
+   */
+  pricingKey?: string;
+  /** The reference recipe's cost per litre at those prices, in the base currency; null → not costed. */
+  referenceCost?: number | null;
 }
 
 export interface ExplorerState {

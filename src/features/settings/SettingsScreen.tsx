@@ -4,6 +4,7 @@ import { makeFormatter, useFormat } from '../../components/format';
 import { Notice, persistentStorageText } from '../../components/notices';
 import { downloadText, readFileText } from '../../components/download';
 import {
+  baseChangeProblem,
   requestPersistentStorage,
   resetDemo,
   settingsActions,
@@ -139,7 +140,7 @@ function ExchangeRates() {
         size={6}
         maxLength={12}
         value={s.baseCurrency}
-        validate={(v) => ({ error: checkText('baseCurrency', normaliseCurrency(v)) ?? undefined })}
+        validate={(v) => ({ error: checkText('baseCurrency', normaliseCurrency(v)) ?? baseChangeProblem(s, { baseCurrency: v }) ?? undefined })}
         onCommit={(v) => {
           setMessage(update({ baseCurrency: normaliseCurrency(v) }) ?? '');
         }}

@@ -100,4 +100,18 @@ describe('compareRecipes', () => {
   it('rejects empty recipes', () => {
     expect(() => compareRecipes({ ...base, candidate: [] })).toThrow(/candidate/);
   });
+
+  it('never subtracts a cost in one currency from a cost in another', () => {
+    // the reference's base stocks quoted in USD (no rate applied), everything else in the fixtures' currency
+    const usd = lib.map((c) => (c.id === 'g1bs' || c.id === 'g1sn600' ? { ...c, price: { ...c.price, currency: 'USD' } } : c));
+    const refOnly = [{ componentId: 'g1bs', massFraction: 0.6 }, { componentId: 'g1sn600', massFraction: 0.4 }];
+    const c = compareRecipes({ ...base, components: usd, reference: refOnly });
+    expect(c.reference.properties.currency).toBe('USD');
+    expect(c.candidate.properties.currency).not.toBe('USD');
+    expect(c.costPerLitre.reference).not.toBeNull();
+    expect(c.costPerLitre.candidate).not.toBeNull();
+    expect(c.costPerLitre.delta).toBeNull();
+    expect(c.costPerLitre.deltaPct).toBeNull();
+    expect(c.summary[0]).toBe('Cost per litre not compared (prices in different currencies or missing).');
+  });
 });

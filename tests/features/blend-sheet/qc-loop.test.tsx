@@ -135,7 +135,7 @@ describe('Blend sheet — the QC loop', () => {
   });
 
   it('a correction of a draft is held like its blend sheet', () => {
-    const id = recipeActions.saveRevision('demo-vg320', {}, 'test: a draft revision');
+    const id = recipeActions.saveRevision('demo-vg320', {}, 'test: a draft revision')!;
     recipeActions.setActiveRecipe(id);
     recipeActions.setSheetInputs(id, { batchSize: '10000' });
     render(<BlendSheetScreen />);

@@ -4,8 +4,14 @@ import { cleanup, fireEvent, render, screen, waitFor, within } from '@testing-li
 import ExplorerScreen from '../../../src/features/explorer/ExplorerScreen';
 import { setWorkerFactory } from '../../../src/features/explorer/search-client';
 import { useExplorerStore } from '../../../src/features/explorer/store';
-import { recipeActions, resetDemo, useRecipes } from '../../../src/state';
+import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
+import { act } from '@testing-library/react';
 import { inThreadWorker } from './in-thread-worker';
+import { comparisonRows } from '../../../src/features/explorer/ComparisonPanel';
+import { assess } from '../../../src/features/explorer/compare';
+import { demoComponents, demoRecipes } from '../../../src/state/demo';
+import { makeFormatter } from '../../../src/components/format';
+import { DEFAULT_SETTINGS } from '../../../src/state/settings';
 
 beforeEach(() => {
   resetDemo();
@@ -150,5 +156,63 @@ describe('Substitute explorer: polymer cap (issue 10, item 21)', () => {
     const [ref, cand] = [...row.querySelectorAll('td')].map((td) => td.textContent);
     expect(ref).toMatch(/^40\.0.*above the 25 % cap/);
     expect(cand).not.toMatch(/above/);
+  });
+
+  describe('costs in one currency, at the prices the search ran with', () => {
+    /** The reference's base stocks (BW-190, BW-160) quoted in USD; its additive package stays in EUR. */
+    function quoteReferenceInUsd() {
+      const lib = useLibrary.getState();
+      for (const code of ['BW-190', 'BW-160']) {
+        const c = lib.components.find((x) => x.code === code)!;
+        lib.updateComponent(c.id, { price: { ...c.price, currency: 'USD' } });
+      }
+    }
+    const firstRowCells = () => screen.getByTestId('candidates').querySelector('tbody tr')!.querySelectorAll('td');
+
+    it('a change of rate after the search is said, and the table keeps comparing at the search’s prices', async () => {
+      quoteReferenceInUsd();
+      settingsActions.updateSettings({ exchangeRates: [{ currency: 'USD', rate: 1, asOf: '2026-11-30' }] });
+      await runWithBrightStockWithdrawn();
+      const cost = Number(firstRowCells()[2]!.textContent);
+      const vs = Number(firstRowCells()[3]!.textContent);
+      // the comparison states the rate behind the reference's cost (as a costing copy does)
+      expect(screen.getByTestId('comparison-pricing').textContent).toContain('Prices converted at USD → EUR 1.00 as of 2026-11-30.');
+      expect(screen.queryByTestId('prices-changed')).toBeNull();
+      act(() => {
+        settingsActions.updateSettings({ exchangeRates: [{ currency: 'USD', rate: 2, asOf: '2026-12-01' }] });
+      });
+      expect(screen.getByTestId('prices-changed').textContent).toMatch(/Prices or exchange rates changed since this search/);
+      // identity: the candidate (no USD stock) and its difference stay at the search's prices
+      expect(Number(firstRowCells()[2]!.textContent)).toBe(cost);
+      expect(Number(firstRowCells()[3]!.textContent)).toBe(vs);
+      expect(screen.getByTestId('comparison-pricing').textContent).toContain('USD → EUR 2.00 as of 2026-12-01');
+    });
+
+    it('a reference holding a stock without a rate is not costed: no difference, no base-currency symbol on it', async () => {
+      settingsActions.updateSettings({ exchangeRates: [] });
+      quoteReferenceInUsd();
+      await runWithBrightStockWithdrawn();
+      expect(firstRowCells()[3]!.textContent).toBe('—');
+      const cmp = screen.getByTestId('comparison');
+      const costRow = within(cmp).getByText('Cost per litre at 15 °C').closest('tr')!;
+      const cells = costRow.querySelectorAll('td');
+      // prices in two currencies: not costed (never a sum of EUR and USD)
+      expect(cells[0]!.textContent).toBe('—');
+      expect(cells[2]!.textContent).toBe('—');
+      expect(screen.getByTestId('comparison-pricing').textContent).toMatch(/BW-160, BW-190 are priced in USD, which has no exchange rate to EUR/);
+    });
+  });
+});
+
+describe('comparisonRows', () => {
+  it('shows a reference costed in another currency as not costed in the base currency, with no difference', () => {
+    const lib = demoComponents().map((c) => ({ ...c, price: { ...c.price, currency: 'USD' } }));
+    const opts = { method: 'refutas' as const, grade: 320, operatingTempC: 65, coldTempC: -10 };
+    const ref = assess(lib, demoRecipes()[1]!.lines, opts)!;
+    const cand = assess(demoComponents(), demoRecipes()[1]!.lines, opts)!;
+    expect(ref.props.currency).toBe('USD');
+    const cost = comparisonRows(ref, cand, makeFormatter(DEFAULT_SETTINGS), 0.25, 'EUR')[0]!;
+    expect(cost.ref).toBe('not costed in EUR');
+    expect(cost.change).toBe('—');
   });
 });
