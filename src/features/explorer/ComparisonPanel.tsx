@@ -33,17 +33,20 @@ function tone(d: number | null, lowerIsBetter: boolean): 'better' | 'worse' | un
   return (d < 0) === lowerIsBetter ? 'better' : 'worse';
 }
 
-function lineList(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Component>, fmt: Formatter): ReactNode {
+/** A recipe's stocks by share, largest first, each flagged when withdrawn or limited (as in the candidate table). */
+export function lineList(lines: readonly RecipeLine[], byId: ReadonlyMap<string, Component>, fmt: Formatter): ReactNode {
   return (
     <ul className="mini-recipe">
       {lines
         .filter((l) => l.massFraction > 0)
+        .sort((a, b) => b.massFraction - a.massFraction)
         .map((l) => {
           const c = byId.get(l.componentId);
           return (
             <li key={l.componentId}>
               <span className="code">{c?.code ?? l.componentId}</span> {fmt.num(l.massFraction * 100, 1)} %
               {c?.availability === 'withdrawn' ? <span className="tag tag-bad"> withdrawn</span> : null}
+              {c?.availability === 'limited' ? <span className="tag tag-limited">limited</span> : null}
             </li>
           );
         })}

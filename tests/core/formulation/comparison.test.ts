@@ -112,6 +112,6 @@ describe('compareRecipes', () => {
     expect(c.costPerLitre.candidate).not.toBeNull();
     expect(c.costPerLitre.delta).toBeNull();
     expect(c.costPerLitre.deltaPct).toBeNull();
-    expect(c.summary[0]).toBe('Cost per litre not compared (prices in different currencies or missing).');
+    expect(c.summary[0]).toBe('Cost per litre at 15 °C not compared (prices in different currencies or missing).');
   });
 });

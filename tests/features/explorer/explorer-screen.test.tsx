@@ -7,7 +7,7 @@ import { useExplorerStore } from '../../../src/features/explorer/store';
 import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 import { act } from '@testing-library/react';
 import { inThreadWorker } from './in-thread-worker';
-import { comparisonRows } from '../../../src/features/explorer/ComparisonPanel';
+import { comparisonRows, lineList } from '../../../src/features/explorer/ComparisonPanel';
 import { assess } from '../../../src/features/explorer/compare';
 import { demoComponents, demoRecipes } from '../../../src/state/demo';
 import { makeFormatter } from '../../../src/components/format';
@@ -201,6 +201,25 @@ describe('Substitute explorer: polymer cap (issue 10, item 21)', () => {
       expect(cells[2]!.textContent).toBe('—');
       expect(screen.getByTestId('comparison-pricing').textContent).toMatch(/BW-160, BW-190 are priced in USD, which has no exchange rate to EUR/);
     });
+  });
+});
+
+describe('the comparison lists each recipe by share', () => {
+  it('largest share first, with the limited and withdrawn stocks badged', () => {
+    const lib = demoComponents();
+    const byId = new Map(lib.map((c) => [c.id, c]));
+    const id = (code: string) => lib.find((c) => c.code === code)!.id;
+    // saved additive first, smallest share: the list puts the largest share first
+    const lines = [
+      { componentId: id('BW-901'), massFraction: 0.02 },
+      { componentId: id('BW-161'), massFraction: 0.243 },
+      { componentId: id('BW-280'), massFraction: 0.737 },
+    ];
+    const withdrawn = new Map(byId);
+    withdrawn.set(id('BW-280'), { ...byId.get(id('BW-280'))!, availability: 'withdrawn' });
+    const { container } = render(<>{lineList(lines, withdrawn, makeFormatter(DEFAULT_SETTINGS))}</>);
+    const items = [...container.querySelectorAll('li')].map((li) => li.textContent);
+    expect(items).toEqual(['BW-280 73.7 % withdrawn', 'BW-161 24.3 %limited', 'BW-901 2.0 %']);
   });
 });
 
