@@ -152,6 +152,8 @@ describe('Substitute explorer: polymer cap (issue 10, item 21)', () => {
     render(<ExplorerScreen />);
     fireEvent.click(screen.getByText('Run search'));
     await screen.findByTestId('candidates', {}, { timeout: 30000 });
+    // let the search end: a search still streaming would keep the next test's "Run search" waiting
+    await waitFor(() => expect(useExplorerStore.getState().status).toBe('done'), { timeout: 30000 });
     const row = within(screen.getByTestId('comparison')).getByText('Polymer thickener, mass %').closest('tr')!;
     const [ref, cand] = [...row.querySelectorAll('td')].map((td) => td.textContent);
     expect(ref).toMatch(/^40\.0.*above the 25 % cap/);
