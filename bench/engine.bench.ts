@@ -23,7 +23,7 @@
  * Times are CPU time of this process (the machine is shared), each side's fastest of five rounds
  * (the same rule for every side), all sides measured in the same run: compare the ratios, not the
  * absolute times, across runs. Problems are random but seeded (the same every run); stocks are
- * invented around generic typicals (from memory, shared/reference/base-stock-typicals.md).
+ * invented around generic typicals (from memory, tests/reference/base-stock-typicals.md).
  */
 import { refutasVbn, kvFromRefutasVbn } from '../src/core/blending/refutas';
 import { viscosityIndex } from '../src/core/viscosity/viscosity-index';

@@ -11,7 +11,7 @@
  *   included), mean time per call; goal ≤ 5 µs.
  *
  * Times are CPU time of this process (the machine is shared), the fastest of five rounds; stocks are
- * invented around generic typicals (from memory, shared/reference/base-stock-typicals.md).
+ * invented around generic typicals (from memory, tests/reference/base-stock-typicals.md).
  */
 import { solveBlendPlain, type PlainComponent, type PlainProblem } from '../src/core/solver/plain';
 import { correctBatchPlain, type CorrectionProblem } from '../src/core/qc/correction';

@@ -21,7 +21,7 @@ describe('public API (src/core/index.ts)', () => {
   });
 
   it('answers with plain numbers', () => {
-    // ASTM D2270 worked example (shared/reference/check-values.md V1)
+    // ASTM D2270 worked example (tests/reference/check-values.md V1)
     expectClose(core.viscosityIndex(73.3, 8.86), 92.43, 0.02);
     expect(core.reportedViscosityIndex(73.3, 8.86)).toBe(92);
     // formula, ASTM D341 (check-values.md W2, W1)
@@ -43,7 +43,7 @@ describe('public API (src/core/index.ts)', () => {
   });
 
   it('plans a line in plain numbers (planLinePlain, issue 11)', () => {
-    // Two stocks to an exact target: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3)
+    // Two stocks to an exact target: heavy mass fraction 0.55126 ± 1e-4 (tests/reference/check-values.md B3)
     const r = core.planLinePlain({
       components: [
         { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 },

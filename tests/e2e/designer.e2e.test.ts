@@ -26,7 +26,7 @@ describe('recipe designer', () => {
     await page.getByRole('button', { name: 'Solve', exact: true }).click();
     await page.getByText('Solved', { exact: true }).waitFor();
     const kv40 = await kvOf(page);
-    // ISO 3448 band of VG 320: 288–352 mm²/s, inclusive (shared/reference/check-values.md G2)
+    // ISO 3448 band of VG 320: 288–352 mm²/s, inclusive (tests/reference/check-values.md G2)
     expect(kv40).toBeGreaterThanOrEqual(288);
     expect(kv40).toBeLessThanOrEqual(352);
     await expect(page.getByTestId('prop-grade').innerText()).resolves.toBe('VG 320');
@@ -89,7 +89,7 @@ describe('recipe designer', () => {
     // the saved recipe is the active one: the designer opens it
     await expect(page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).resolves.toMatch(/Trial VG 320 least cost/);
     const kv40 = await kvOf(page);
-    expect(kv40).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (shared/reference/check-values.md G2)
+    expect(kv40).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (tests/reference/check-values.md G2)
     expect(kv40).toBeLessThanOrEqual(352);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);

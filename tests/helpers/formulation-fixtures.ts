@@ -1,6 +1,6 @@
 /**
  * Invented test components for the formulation tests (scoring, calibration, shear, substitutes).
- * Properties are the generic mid-range typicals of shared/reference/base-stock-typicals.md (all from
+ * Properties are the generic mid-range typicals of tests/reference/base-stock-typicals.md (all from
  * memory, demo data only); codes and prices are invented. Not check values: tests that use them
  * check identities, orderings and agreement between independent computations.
  */

@@ -37,7 +37,7 @@ describe('entry checks for a component', () => {
   });
 
   it('warns when VI does not fit the category (API 1509 Appendix E: Group III has VI ≥ 120)', () => {
-    // ν40 100 / ν100 11.0 gives VI ≈ 94-95 by ASTM D2270 (cf. shared/reference/check-values.md V6: 100/11.4 → 100.26)
+    // ν40 100 / ν100 11.0 gives VI ≈ 94-95 by ASTM D2270 (cf. tests/reference/check-values.md V6: 100/11.4 → 100.26)
     const g3 = { ...bs, category: 'group-iii' as const, viscosityPoints: [{ tempC: 40, kv: 100 }, { tempC: 100, kv: 11.0 }] };
     expect(checkComponent(g3).warnings.map((w) => w.message).join()).toMatch(/below 120, the Group III floor/);
   });
@@ -56,7 +56,7 @@ describe('entry checks for a component', () => {
     expect(viOrReason(485, 500)).toEqual({ reason: 'ν100 ≥ ν40', why: 'no VI: ν100 must be below ν40' });
     expect(viOrReason(485, 485)).toMatchObject({ reason: 'ν100 ≥ ν40' });
     expect(viOrReason(3, 1.5)).toMatchObject({ reason: 'ν100 < 2' });
-    // ν40 485 / ν100 31.8 → VI 96 by ASTM D2270 (cf. shared/reference/check-values.md V8: 480/31.5 → 96.09)
+    // ν40 485 / ν100 31.8 → VI 96 by ASTM D2270 (cf. tests/reference/check-values.md V8: 480/31.5 → 96.09)
     expect(Math.round((viOrReason(485, 31.8) as { vi: number }).vi)).toBe(96);
   });
 

@@ -51,7 +51,7 @@ describe('invented demo scenario', () => {
       const sum = r.lines.reduce((s, l) => s + l.massFraction, 0);
       expect(Math.abs(sum - 1)).toBeLessThan(1e-12); // exact by construction (no source needed)
       for (const l of r.lines) expect(byId.has(l.componentId)).toBe(true);
-      // The gear EP package at 2 % by mass: common practice treat 1.5–3 % (shared/domain/gear-oil-blending.md).
+      // The gear EP package at 2 % by mass: common practice treat 1.5–3 % (no source).
       expect(r.lines.find((l) => l.componentId === DEMO_ADDITIVE_ID)?.massFraction).toBe(0.02);
       expect(targets[r.id]?.grade).toBe(r.grade);
     }
@@ -60,8 +60,8 @@ describe('invented demo scenario', () => {
   it('each reference recipe is in its ISO grade by Refutas (ν40, mass fractions)', () => {
     for (const r of demoRecipes()) {
       const kv40 = blendViscosityRefutas(r.lines.map((l) => ({ massFraction: l.massFraction, kv: kvAt(l.componentId, 40) })));
-      // ISO 3448 band: mid-point ±10 % (shared/reference/check-values.md §4); plants aim near the middle
-      // (±5 %: common practice, shared/domain/gear-oil-blending.md).
+      // ISO 3448 band: mid-point ±10 % (tests/reference/check-values.md §4); plants aim near the middle
+      // (±5 %: common practice, no source).
       expect(isInGrade(kv40, r.grade), `VG ${r.grade}: ν40 ${kv40}`).toBe(true);
       expect(Math.abs(kv40 / gradeBand(r.grade).mid - 1)).toBeLessThan(0.05);
     }

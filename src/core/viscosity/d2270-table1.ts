@@ -7,9 +7,9 @@
  * Interpolate linearly between rows (ASTM D2270 §7); above 70 mm²/s the standard gives equations
  * instead (see `viscosity-index.ts`).
  *
- * Provenance: generated verbatim from the project's shared reference file
- * `d2270-table1-L-H.csv`, which was transcribed from two independent open-source libraries that
- * each carry the table and each reproduce the standard's worked examples, and which agree on all
+ * Provenance: generated verbatim from the project's reference file
+ * `tests/reference/d2270-table1-L-H.csv`, which was transcribed from two independent open-source
+ * libraries that each carry the table and each reproduce the standard's worked examples, and which agree on all
  * 311 rows: the `chemicals` Python library (MIT licence, module `chemicals/viscosity.py`, arrays
  * `VI_nus`, `VI_Ls`, `VI_Hs`) and the `libvisc` C++ library (header `libvisc.h`, array
  * `table_astmd2270`). Committed here so that neither the app nor the tests read outside the

@@ -20,17 +20,17 @@ const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 describe('ASTM D341 chart axes', () => {
   it('puts the W1 oil on the straight line y = A − B·x', () => {
-    // ASTM D341 two-point fit, W1: ν40 73.30, ν100 8.86 → A = 9.458393, B = 3.680946 (shared/reference/check-values.md §2 W1)
+    // ASTM D341 two-point fit, W1: ν40 73.30, ν100 8.86 → A = 9.458393, B = 3.680946 (tests/reference/check-values.md §2 W1)
     const { a, b } = d341LineFromPoints({ tempC: 40, kv: 73.3 }, { tempC: 100, kv: 8.86 });
     expect(rel(a, 9.458393)).toBeLessThan(1e-4);
     expect(rel(b, 3.680946)).toBeLessThan(1e-4);
-    // ν at 60 °C = 30.0826 and at 0 °C = 1233.07 lie on that line (shared/reference/check-values.md §2 W1)
+    // ν at 60 °C = 30.0826 and at 0 °C = 1233.07 lie on that line (tests/reference/check-values.md §2 W1)
     expect(rel(d341Y(30.0826), a - b * d341X(60))).toBeLessThan(1e-4);
     expect(rel(d341Kv(a - b * d341X(0)), 1233.07)).toBeLessThan(1e-4);
   });
 
   it('passes through both W2 points and gives ν at 80 °C', () => {
-    // ASTM D341, W2: ν40 220, ν100 19.0; ν at 80 °C = 35.60 ± 0.01 (shared/reference/check-values.md §2 W2)
+    // ASTM D341, W2: ν40 220, ν100 19.0; ν at 80 °C = 35.60 ± 0.01 (tests/reference/check-values.md §2 W2)
     const { a, b } = d341LineFromPoints({ tempC: 40, kv: 220 }, { tempC: 100, kv: 19 });
     expect(rel(d341Kv(a - b * d341X(40)), 220)).toBeLessThan(1e-6);
     expect(rel(d341Kv(a - b * d341X(100)), 19)).toBeLessThan(1e-6);
@@ -38,7 +38,7 @@ describe('ASTM D341 chart axes', () => {
   });
 
   it('uses log10 of the absolute temperature and log10 log10 Z with the D341-20 Z (the core functions)', () => {
-    // Definition of the D341 co-ordinates (shared/reference/check-values.md §2): T = t + 273.15 K; at 99.3 mm²/s
+    // Definition of the D341 co-ordinates (tests/reference/check-values.md §2): T = t + 273.15 K; at 99.3 mm²/s
     // D341-20's extra term is below 1e-20, so Z = ν + 0.7 = 100 and log10 log10 Z = log10 2
     expect(d341X(26.85)).toBeCloseTo(Math.log10(300), 12);
     expect(d341Y(99.3)).toBeCloseTo(Math.log10(2), 12);

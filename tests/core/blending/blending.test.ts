@@ -34,13 +34,13 @@ import { expectClose, expectRelClose, isClose } from '../../helpers/tolerance';
 
 describe('Refutas: check values', () => {
   it('B1: blending numbers of 10, 100 and 460 mm²/s', () => {
-    // formula, Refutas VBN = 14.534·ln(ln(ν + 0.8)) + 10.975 (shared/reference/check-values.md B1)
+    // formula, Refutas VBN = 14.534·ln(ln(ν + 0.8)) + 10.975 (tests/reference/check-values.md B1)
     expectClose(refutasVbn(10), 23.5747, 1e-4);
     expectClose(refutasVbn(100), 33.1962, 1e-4);
     expectClose(refutasVbn(460), 37.335, 1e-4);
   });
   it('B2: 50/50 by mass of 100 and 460 mm²/s → 203.39', () => {
-    // formula, Refutas (shared/reference/check-values.md B2)
+    // formula, Refutas (tests/reference/check-values.md B2)
     expectClose(
       blendViscosityRefutas([
         { massFraction: 0.5, kv: 100 },
@@ -51,7 +51,7 @@ describe('Refutas: check values', () => {
     );
   });
   it('B3: mass fraction of the 460 stock for 220 → 0.55126', () => {
-    // formula, Refutas exact linear inverse (shared/reference/check-values.md B3)
+    // formula, Refutas exact linear inverse (tests/reference/check-values.md B3)
     expectClose(refutasHeavyFraction(100, 460, 220), 0.55126, 1e-4);
   });
   it('VBN ↔ ν round-trips', () => {
@@ -62,7 +62,7 @@ describe('Refutas: check values', () => {
 
 describe('ASTM D7152 log-log rule: check values', () => {
   it('B4: 50/50 by volume of 100 and 460 mm²/s → 203.35', () => {
-    // formula, ASTM D7152 constant-temperature form (shared/reference/check-values.md B4)
+    // formula, ASTM D7152 constant-temperature form (tests/reference/check-values.md B4)
     expectClose(
       blendViscosityAstmD7152([
         { volumeFraction: 0.5, kv: 100 },
@@ -83,7 +83,7 @@ describe('ASTM D7152 log-log rule: check values', () => {
 
 describe('B5: a one-component blend returns the component', () => {
   it('at fraction 1, by each rule', () => {
-    // identity (shared/reference/check-values.md B5), 1e-9 relative
+    // identity (tests/reference/check-values.md B5), 1e-9 relative
     expectRelClose(blendViscosityRefutas([{ massFraction: 1, kv: 320 }]), 320, 1e-9);
     expectRelClose(blendViscosityAstmD7152([{ volumeFraction: 1, kv: 320 }]), 320, 1e-9);
     expectRelClose(
@@ -107,7 +107,7 @@ describe('blend at any temperature', () => {
   const heavy: BlendPart = { massFraction: 0.5, density15: 0.9, kv40: 460, kv100: 31 };
 
   it('at 40 °C equals the constant-temperature rule on the measured ν40', () => {
-    // Refutas B2 and D7152 with ideal-mixing volume fractions (shared/reference/check-values.md B2, D1)
+    // Refutas B2 and D7152 with ideal-mixing volume fractions (tests/reference/check-values.md B2, D1)
     const r = blendViscosityAt('refutas', [light, heavy], 40);
     expectClose(r.kv, 203.39, 0.05);
     expect(r.method).toBe('refutas');
@@ -216,7 +216,7 @@ const rules: [string, Rule][] = [
 
 describe.each(rules)('%s properties', (_name, rule) => {
   it('a one-component blend returns the component', () => {
-    // identity (shared/reference/check-values.md B5)
+    // identity (tests/reference/check-values.md B5)
     fc.assert(fc.property(kvArb, (kv) => isClose(rule([{ f: 1, kv }]), kv, 1e-9)));
   });
 
@@ -256,7 +256,7 @@ describe.each(rules)('%s properties', (_name, rule) => {
 
 describe('two-component inverses reproduce their target', () => {
   it('Refutas (mass) and D7152 (volume)', () => {
-    // exact linear inverses of the rules (shared/reference/check-values.md B3)
+    // exact linear inverses of the rules (tests/reference/check-values.md B3)
     fc.assert(
       fc.property(kvArb, kvArb, fc.double({ min: 0, max: 1, noNaN: true }), (a, b, s) => {
         fc.pre(Math.abs(a - b) > 1e-6 * Math.max(a, b));

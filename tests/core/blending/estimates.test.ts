@@ -13,7 +13,7 @@ import { expectClose } from '../../helpers/tolerance';
 
 describe('flash point by blending index', () => {
   it('F1: BI(20 °C) = 3281, BI(50 °C) = 306.0', () => {
-    // formula, log BI = −6.1188 + 2414/(T − 42.6) (shared/reference/check-values.md F1; constants from memory)
+    // formula, log BI = −6.1188 + 2414/(T − 42.6) (tests/reference/check-values.md F1; constants from memory)
     expectClose(flashBlendingIndex(20), 3281, 0.5);
     expectClose(flashBlendingIndex(50), 306.0, 0.5);
   });
@@ -35,7 +35,7 @@ describe('flash point by blending index', () => {
     for (const [t, a] of Object.entries(table)) expectClose(flashBlendingIndex(Number(t)), a, 0.5);
   });
   it('F2: 50/50 by volume of 200 °C and 250 °C → 215.95 °C', () => {
-    // formula (shared/reference/check-values.md F2)
+    // formula (tests/reference/check-values.md F2)
     expectClose(
       blendFlashPoint([
         { volumeFraction: 0.5, flashPoint: 200 },
@@ -68,7 +68,7 @@ describe('flash point by blending index', () => {
 
 describe('pour point by blending index (an estimate)', () => {
   it('P1: 50/50 by volume of −15 °C and −45 °C → −25.12 °C', () => {
-    // formula, BI = T^(1/0.08) (shared/reference/check-values.md P1; from memory, an estimate only)
+    // formula, BI = T^(1/0.08) (tests/reference/check-values.md P1; from memory, an estimate only)
     expectClose(
       blendPourPoint([
         { volumeFraction: 0.5, pourPoint: -15 },
@@ -108,7 +108,7 @@ describe('aniline point (volume basis, an approximation)', () => {
 
 describe('permanent shear loss, KRL definition', () => {
   it('S1: loss % = 100(ν_before − ν_after)/ν_before', () => {
-    // standard, KRL definition ISO 26422 / CEC L-45 (shared/reference/check-values.md S1)
+    // standard, KRL definition ISO 26422 / CEC L-45 (tests/reference/check-values.md S1)
     expect(krlShearLossPct(20, 18)).toBe(10);
     expect(krlShearLossPct(40, 30)).toBe(25);
     expect(shearedKv(20, 10)).toBe(18);

@@ -1,4 +1,4 @@
-// API 1509 Appendix E base-stock categories (shared/reference/check-values.md §6; issue 13 §6).
+// API 1509 Appendix E base-stock categories (tests/reference/check-values.md §6; issue 13 §6).
 import { describe, expect, it } from 'vitest';
 import { apiGroupIssues } from '../../../src/core/classification/api-1509';
 

@@ -8,7 +8,7 @@ const EP = stock('ep', 'additive-package', 250, 15, 1.05, null, 5.5);
 
 describe('predictBlend', () => {
   it('Refutas viscosity of a 50/50 blend', () => {
-    // 50/50 by mass of ν 100 and ν 460 → 203.39 ± 0.05 (shared/reference/check-values.md B2)
+    // 50/50 by mass of ν 100 and ν 460 → 203.39 ± 0.05 (tests/reference/check-values.md B2)
     const p = predictBlend([A, B], [
       { componentId: 'a', massFraction: 0.5 },
       { componentId: 'b', massFraction: 0.5 },

@@ -17,7 +17,7 @@ const d1 = [
 
 describe('density by ideal mixing', () => {
   it('D1: 0.6 at 0.865 + 0.4 at 0.900 kg/L → 0.87867 kg/L', () => {
-    // common practice, ideal mixing 1/ρ = Σ wᵢ/ρᵢ (shared/reference/check-values.md D1)
+    // common practice, ideal mixing 1/ρ = Σ wᵢ/ρᵢ (tests/reference/check-values.md D1)
     expectClose(blendDensity(d1), 0.87867, 1e-5);
   });
 
@@ -75,7 +75,7 @@ describe('cost', () => {
   });
 
   it('D2: cost per litre = ρ_blend·Σ wᵢ·priceᵢ = Σ φᵢ·price per litreᵢ', () => {
-    // common practice (shared/reference/check-values.md D2), exact up to float rounding
+    // common practice (tests/reference/check-values.md D2), exact up to float rounding
     const parts = [
       { massFraction: 0.6, density15: 0.865, pricePerKg: 1.1 },
       { massFraction: 0.4, density15: 0.9, pricePerKg: 1.9 },

@@ -14,7 +14,7 @@ beforeAll(async () => {
   highs = await mod.default();
 });
 
-// Invented stocks; properties are generic typicals (from memory, shared/reference/base-stock-typicals.md).
+// Invented stocks; properties are generic typicals (from memory, tests/reference/base-stock-typicals.md).
 const LIGHT = { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 };
 const HEAVY = { id: 'heavy', kv40: 460, kv100: 31, density15: 0.9, anilinePoint: 125, pricePerKg: 1.5 };
 const PAO = { id: 'pao', kv40: 395, kv100: 39.5, density15: 0.85, anilinePoint: 145, pricePerKg: 4.6 };
@@ -22,7 +22,7 @@ const THIN = { id: 'thin', kv40: 30, kv100: 5.1, density15: 0.868, anilinePoint:
 
 describe('planLinePlain — worked cases', () => {
   it('one grade, no limits: the same recipe as solveBlendPlain would give by cost per kg', () => {
-    // Two stocks to an exact target: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3, Refutas)
+    // Two stocks to an exact target: heavy mass fraction 0.55126 ± 1e-4 (tests/reference/check-values.md B3, Refutas)
     const r = planLinePlain({
       components: [LIGHT, HEAVY],
       grades: [{ id: 'VG 220', targetKv40: 220, tolerancePct: 0, demandKg: 100_000 }],

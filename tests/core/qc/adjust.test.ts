@@ -10,7 +10,7 @@ const heavy: AdjustStock = { id: 'h', label: 'BW-280', kv40: 460, kv100: 31, den
 
 describe('lot-adjusted recipe', () => {
   it('two stocks land exactly at the aim: the Refutas linear inverse', () => {
-    // ν 100 + ν 460 reaching 220: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3)
+    // ν 100 + ν 460 reaching 220: heavy mass fraction 0.55126 ± 1e-4 (tests/reference/check-values.md B3)
     const r = adjustRecipe({ stocks: [light, heavy], batchKg: 10_000, aimKv40: 220, additive: null });
     expect(r.status).toBe('optimal');
     if (r.status !== 'optimal') return;

@@ -19,7 +19,7 @@ const part = (massFraction: number, kv40: number, relSd: number, density15 = 0.8
 
 describe('lot spread — the model', () => {
   it('a closed-form two-stock case: ν 100 and ν 460 at 45/55 by mass, 2 % and 3 % spread, band 220 ± 5 %', () => {
-    // VBN(100) = 33.1962, VBN(460) = 37.3350 (shared/reference/check-values.md B1, Refutas)
+    // VBN(100) = 33.1962, VBN(460) = 37.3350 (tests/reference/check-values.md B1, Refutas)
     const v1 = 33.1962;
     const v2 = 37.335;
     // VBN′(ν)·ν by a central difference of the core's Refutas number (independent of the model's derivative)

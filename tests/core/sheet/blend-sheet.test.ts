@@ -119,7 +119,7 @@ describe('buildBlendSheet', () => {
 
   it('reproduces ideal-mixing density and litres for a 1000 kg batch', () => {
     const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
-    // shared/reference/check-values.md D1: ρ = 0.87867 kg/L for 0.6 @ 0.865 + 0.4 @ 0.900 (ideal mixing)
+    // tests/reference/check-values.md D1: ρ = 0.87867 kg/L for 0.6 @ 0.865 + 0.4 @ 0.900 (ideal mixing)
     expect(s.density15).toBeCloseTo(0.87867, 5);
     // 600/0.865 + 400/0.900 = 693.64 + 444.44 = 1138.09 L, worked by hand from D1's inputs
     expect(s.totalLitresExact).toBeCloseTo(1138.086, 3);

@@ -1,6 +1,6 @@
 /**
  * Invented scenario stocks for the solver tests. Properties are generic typicals
- * (from memory, shared/reference/base-stock-typicals.md); codes, prices and the plant are invented.
+ * (from memory, tests/reference/base-stock-typicals.md); codes, prices and the plant are invented.
  */
 import type { BlendTargets, Component, ComponentCategory } from '../../../src/core/formulation/model';
 
@@ -35,14 +35,14 @@ export function stock(
     shearLossPct: null,
     kv40LotSpreadPct: null,
     calibration: null,
-    source: 'invented test data; typicals from memory (shared/reference/base-stock-typicals.md)',
+    source: 'invented test data; typicals from memory (tests/reference/base-stock-typicals.md)',
     sourceDate: '2024-01-01',
     notes: '',
     ...extra,
   };
 }
 
-// Typicals: from memory, shared/reference/base-stock-typicals.md (ρ15 kg/m³ ÷ 1000; ν40, ν100 mm²/s;
+// Typicals: from memory, tests/reference/base-stock-typicals.md (ρ15 kg/m³ ÷ 1000; ν40, ν100 mm²/s;
 // aniline °C; pour and flash °C). Prices invented.
 export const G2_LIGHT = stock('g2l', 'group-ii', 20, 4.1, 0.858, 106, 1.05, { pourPoint: -18, flashPoint: 205 });
 export const G2_MEDIUM = stock('g2m', 'group-ii', 42, 6.4, 0.862, 113, 1.1, { pourPoint: -15, flashPoint: 230 });

@@ -14,7 +14,7 @@ const fractionsOf = (p: PlainProblem, m: Record<string, number>): number[] => p.
 
 describe('solveBlendPlain — worked cases', () => {
   it('two stocks to an exact target: the Refutas linear inverse', () => {
-    // ν 100 + ν 460 reaching 220: heavy mass fraction 0.55126 ± 1e-4 (shared/reference/check-values.md B3)
+    // ν 100 + ν 460 reaching 220: heavy mass fraction 0.55126 ± 1e-4 (tests/reference/check-values.md B3)
     const r = solveBlendPlain({
       components: [
         { id: 'light', kv40: 100, kv100: 11, density15: 0.88, anilinePoint: 110, pricePerKg: 1.0 },
@@ -52,7 +52,7 @@ describe('solveBlendPlain — worked cases', () => {
     for (const k of ['kv40', 'kv100', 'vi', 'density15', 'anilinePoint', 'costPerLitre'] as const) {
       expect(r[k]).toBeCloseTo(core[k], 9);
     }
-    // cost per litre = density × Σ wᵢ·priceᵢ (shared/reference/check-values.md D2)
+    // cost per litre = density × Σ wᵢ·priceᵢ (tests/reference/check-values.md D2)
     const perKg = p.components.reduce((s, c) => s + r.massFractions[c.id]! * c.pricePerKg, 0);
     expect(r.costPerLitre).toBeCloseTo(r.density15 * perKg, 12);
   });

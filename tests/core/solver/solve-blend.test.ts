@@ -30,8 +30,8 @@ const frac = (r: SolveOptimal, id: string): number => r.lines.find((l) => l.comp
 
 const G2_NEUTRALS = [G2_LIGHT, G2_MEDIUM, G2_HEAVY, EP_PACKAGE];
 
-describe('solveBlend — facts of the trade (shared/reference/check-values.md §6, common practice)', () => {
-  // Stocks: generic typicals, from memory, shared/reference/base-stock-typicals.md.
+describe('solveBlend — facts of the trade (tests/reference/check-values.md §6, common practice)', () => {
+  // Stocks: generic typicals, from memory, tests/reference/base-stock-typicals.md.
   it('Group II neutrals alone cannot make VG 220, and the reason names the heaviest stock', () => {
     // §6: hydroprocessed Group II neutrals top out around VG 100 at 40 °C
     const r = solveBlend({ components: G2_NEUTRALS, targets: targets({ grade: 220, tolerancePct: 10 }) });

@@ -1,6 +1,6 @@
 /**
  * Integrity of the embedded ASTM D2270 Table 1 (src/core/viscosity/d2270-table1.ts).
- * Expected values were read from the shared transcription shared/reference/d2270-table1-L-H.csv when
+ * Expected values were read from the shared transcription tests/reference/d2270-table1-L-H.csv when
  * the table was committed (the tests do not read /work/shared: a user's clone has none).
  */
 import { describe, expect, it } from 'vitest';
@@ -14,7 +14,7 @@ function rowAt(kv100: number): { L: number; H: number } {
 
 describe('ASTM D2270 Table 1 as embedded', () => {
   it('has 311 rows in each column', () => {
-    // ASTM D2270 Table 1: 311 rows from 2.0 to 70.0 mm²/s (shared/reference/README.md)
+    // ASTM D2270 Table 1: 311 rows from 2.0 to 70.0 mm²/s (tests/reference/README.md)
     expect(D2270_TABLE1_ROWS).toBe(311);
     expect(D2270_KV100.length).toBe(311);
     expect(D2270_L.length).toBe(311);
@@ -22,7 +22,7 @@ describe('ASTM D2270 Table 1 as embedded', () => {
   });
 
   it('runs 2.0 → 70.0 in steps of 0.1 to 20, 0.2 to 30, 0.5 to 70, strictly increasing', () => {
-    // ASTM D2270 Table 1 layout (shared/reference/README.md)
+    // ASTM D2270 Table 1 layout (tests/reference/README.md)
     expect(D2270_KV100[0]).toBe(2.0);
     expect(D2270_KV100[310]).toBe(70.0);
     for (let i = 1; i < 311; i++) {
@@ -39,7 +39,7 @@ describe('ASTM D2270 Table 1 as embedded', () => {
   });
 
   it('spot rows at 2.0, 8.8, 20.0, 30.0 and 70.0 mm²/s', () => {
-    // ASTM D2270 Table 1 rows, read from shared/reference/d2270-table1-L-H.csv (transcribed from the
+    // ASTM D2270 Table 1 rows, read from tests/reference/d2270-table1-L-H.csv (transcribed from the
     // `chemicals` and `libvisc` libraries, which agree on every row)
     expect(rowAt(2.0)).toEqual({ L: 7.994, H: 6.394 });
     expect(rowAt(8.8)).toEqual({ L: 118.5, H: 68.79 });
@@ -49,7 +49,7 @@ describe('ASTM D2270 Table 1 as embedded', () => {
   });
 
   it('column sums match the shared transcription', () => {
-    // Sums computed (exact decimal arithmetic) from shared/reference/d2270-table1-L-H.csv when the
+    // Sums computed (exact decimal arithmetic) from tests/reference/d2270-table1-L-H.csv when the
     // table was committed: Σ kv100 = 7266.0, Σ L = 293891.363, Σ H = 110746.508
     const sum = (a: Float64Array): number => a.reduce((s, x) => s + x, 0);
     expect(Math.abs(sum(D2270_KV100) - 7266.0)).toBeLessThan(1e-6);

@@ -13,7 +13,7 @@ import { expectClose } from '../../helpers/tolerance';
 
 describe('ISO 3448 / ASTM D2422 grades', () => {
   it('G1: VG 220 edges are inclusive', () => {
-    // standard, ISO 3448 table (shared/reference/check-values.md G1)
+    // standard, ISO 3448 table (tests/reference/check-values.md G1)
     expect(isInGrade(198.0, 220)).toBe(true);
     expect(isInGrade(197.9, 220)).toBe(false);
     expect(isInGrade(242.0, 220)).toBe(true);
@@ -25,7 +25,7 @@ describe('ISO 3448 / ASTM D2422 grades', () => {
   });
 
   it('G2: VG 320 edges 288.0 and 352.0 are in', () => {
-    // standard, ISO 3448 table (shared/reference/check-values.md G2)
+    // standard, ISO 3448 table (tests/reference/check-values.md G2)
     expect(isInGrade(288.0, 320)).toBe(true);
     expect(isInGrade(352.0, 320)).toBe(true);
     expect(isoViscosityGrade(288.0)).toBe(320);
@@ -33,7 +33,7 @@ describe('ISO 3448 / ASTM D2422 grades', () => {
   });
 
   it('lists VG 2 … 1500 (ISO 3448) and 2200, 3200 (ASTM D2422) with mid-points', () => {
-    // standard, ISO 3448 table and ASTM D2422 (shared/reference/check-values.md §4)
+    // standard, ISO 3448 table and ASTM D2422 (tests/reference/check-values.md §4)
     expect(ISO_GRADES.map((g) => g.grade)).toEqual([
       2, 3, 5, 7, 10, 15, 22, 32, 46, 68, 100, 150, 220, 320, 460, 680, 1000, 1500, 2200, 3200,
     ]);

@@ -15,7 +15,7 @@ import { expectClose } from '../../helpers/tolerance';
 
 describe('ASTM D2270 worked examples', () => {
   it('V1: procedure A, U = 73.30, Y = 8.86', () => {
-    // ASTM D2270 worked example, Procedure A (shared/reference/check-values.md V1)
+    // ASTM D2270 worked example, Procedure A (tests/reference/check-values.md V1)
     const { L, H } = referenceViscosities(8.86);
     expectClose(L, 119.94, 0.01);
     expectClose(H, 69.48, 0.01);
@@ -24,7 +24,7 @@ describe('ASTM D2270 worked examples', () => {
   });
 
   it('V2: procedure B, U = 22.83, Y = 5.05', () => {
-    // ASTM D2270 worked example, Procedure B (shared/reference/check-values.md V2):
+    // ASTM D2270 worked example, Procedure B (tests/reference/check-values.md V2):
     // H = 28.975 interpolated; VI 156.42 with the interpolated H; reported 156
     expectClose(referenceViscosities(5.05).H, 28.975, 0.0005);
     expectClose(viscosityIndex(22.83, 5.05), 156.42, 0.1);
@@ -34,14 +34,14 @@ describe('ASTM D2270 worked examples', () => {
 
 describe('Table 1 rows and the equations above 70 mm²/s', () => {
   it('V3: tabulated rows are returned exactly', () => {
-    // ASTM D2270 Table 1, via the two transcriptions (shared/reference/check-values.md V3)
+    // ASTM D2270 Table 1, via the two transcriptions (tests/reference/check-values.md V3)
     expect(referenceViscosities(2.0)).toEqual({ L: 7.994, H: 6.394 });
     expect(referenceViscosities(10.0)).toEqual({ L: 147.7, H: 82.87 });
     expect(referenceViscosities(70.0)).toEqual({ L: 4905, H: 1558 });
   });
 
   it('V4: Y = 100 uses L = 0.8353Y² + 14.67Y − 216, H = 0.1684Y² + 11.85Y − 97', () => {
-    // formula, ASTM D2270 equations for Y > 70 (shared/reference/check-values.md V4)
+    // formula, ASTM D2270 equations for Y > 70 (tests/reference/check-values.md V4)
     const { L, H } = referenceViscosities(100);
     expectClose(L, 9604.0, 0.01);
     expectClose(H, 2772.0, 0.01);
@@ -50,33 +50,33 @@ describe('Table 1 rows and the equations above 70 mm²/s', () => {
 
 describe('computed cases', () => {
   it('V5: 1500 / 100 → 150.27', () => {
-    // formula (shared/reference/check-values.md V5)
+    // formula (tests/reference/check-values.md V5)
     expectClose(viscosityIndex(1500, 100), 150.27, 0.05);
   });
   it('V6: 100 / 11.4 → procedure B, 100.26, reported 100', () => {
-    // formula + table (shared/reference/check-values.md V6)
+    // formula + table (tests/reference/check-values.md V6)
     const { H } = referenceViscosities(11.4);
     expect(100).toBeLessThan(H); // U < H, so procedure B applies
     expectClose(viscosityIndex(100, 11.4), 100.26, 0.05);
     expect(reportedViscosityIndex(100, 11.4)).toBe(100);
   });
   it('V7: 31.0 / 5.9 → 137.50', () => {
-    // formula + table (shared/reference/check-values.md V7)
+    // formula + table (tests/reference/check-values.md V7)
     expectClose(viscosityIndex(31.0, 5.9), 137.5, 0.05);
   });
   it('V8: 480 / 31.5 → 96.09', () => {
-    // formula + table (shared/reference/check-values.md V8)
+    // formula + table (tests/reference/check-values.md V8)
     expectClose(viscosityIndex(480, 31.5), 96.09, 0.05);
   });
   it('V9: not defined below ν100 = 2.0 mm²/s', () => {
-    // standard, D2270 scope (shared/reference/check-values.md V9)
+    // standard, D2270 scope (tests/reference/check-values.md V9)
     expect(() => viscosityIndex(10, 1.9)).toThrow(ViscosityOutOfRangeError);
     expect(() => reportedViscosityIndex(10, 1.9)).toThrow(ViscosityOutOfRangeError);
     expect(() => referenceViscosities(1.9)).toThrow(ViscosityOutOfRangeError);
     expect(() => viscosityIndex(10, 1.9)).toThrow(/viscosityIndex: kv100 = 1.9 .*below 2.0/);
   });
   it('procedures A and B both give 100 at U = H', () => {
-    // ASTM D2270 definitions: both procedures give VI 100 at U = H (shared/reference/check-values.md §1)
+    // ASTM D2270 definitions: both procedures give VI 100 at U = H (tests/reference/check-values.md §1)
     const { H } = referenceViscosities(11.4);
     expectClose(viscosityIndex(H, 11.4), 100, 1e-9);
     expectClose(viscosityIndex(H * (1 - 1e-9), 11.4), 100, 1e-5); // just into procedure B
@@ -85,7 +85,7 @@ describe('computed cases', () => {
 
 describe('reported VI: ASTM E29 round half to even', () => {
   it('exact halves go to the even neighbour', () => {
-    // ASTM E29 rounding as quoted in shared/reference/check-values.md §1 (116.5 → 116, 115.5 → 116)
+    // ASTM E29 rounding as quoted in tests/reference/check-values.md §1 (116.5 → 116, 115.5 → 116)
     expect(roundHalfEven(116.5)).toBe(116);
     expect(roundHalfEven(115.5)).toBe(116);
     expect(roundHalfEven(-2.5)).toBe(-2); // E29 rule applied to a negative half (common practice, no source)

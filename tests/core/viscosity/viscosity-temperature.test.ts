@@ -29,7 +29,7 @@ import { expectClose, expectRelClose, isClose } from '../../helpers/tolerance';
 
 describe('ASTM D341 Walther form: check values', () => {
   it('W1: ν40 73.30, ν100 8.86', () => {
-    // formula, ASTM D341 two-point form (shared/reference/check-values.md W1), 1e-4 relative
+    // formula, ASTM D341 two-point form (tests/reference/check-values.md W1), 1e-4 relative
     const line = waltherLine(73.3, 8.86);
     expectRelClose(line.A, 9.458393, 1e-4);
     expectRelClose(line.B, 3.680946, 1e-4);
@@ -39,7 +39,7 @@ describe('ASTM D341 Walther form: check values', () => {
   });
 
   it('W2: ν40 220, ν100 19.0', () => {
-    // formula, ASTM D341 two-point form (shared/reference/check-values.md W2)
+    // formula, ASTM D341 two-point form (tests/reference/check-values.md W2)
     const line = waltherLine(220, 19.0);
     expectRelClose(kvAtTemperature(line, 40), 220, 1e-6);
     expectRelClose(kvAtTemperature(line, 100), 19.0, 1e-6);
@@ -47,7 +47,7 @@ describe('ASTM D341 Walther form: check values', () => {
   });
 
   it('temperature for a viscosity inverts the line', () => {
-    // inverse of the W1 line (shared/reference/check-values.md W1: 30.0826 mm²/s at 60 °C)
+    // inverse of the W1 line (tests/reference/check-values.md W1: 30.0826 mm²/s at 60 °C)
     expectClose(temperatureForViscosity(73.3, 8.86, 30.0826), 60, 0.01);
     expectClose(temperatureAtKv(waltherLine(73.3, 8.86), 1233.07), 0, 0.01);
     expect(temperatureForViscosity(73.3, 8.86, 73.3)).toBe(40);
@@ -55,7 +55,7 @@ describe('ASTM D341 Walther form: check values', () => {
   });
 
   it('returns measured values unchanged at 40 and 100 °C', () => {
-    // identity: the two-point line passes through its inputs (shared/reference/check-values.md W2)
+    // identity: the two-point line passes through its inputs (tests/reference/check-values.md W2)
     expect(viscosityAtTemperature(220, 19, 40)).toBe(220);
     expect(viscosityAtTemperature(220, 19, 100)).toBe(19);
   });
@@ -164,7 +164,7 @@ describe('least-squares fit for three or more points', () => {
 
 describe('stated valid range and input errors', () => {
   it('simple form refuses viscosities below 2.0 mm²/s; D341-20 goes down to 0.21 mm²/s', () => {
-    // ranges: simple form ≥ 2.0 (shared/reference/check-values.md §2); D341-20 ≥ 0.21 (from memory)
+    // ranges: simple form ≥ 2.0 (tests/reference/check-values.md §2); D341-20 ≥ 0.21 (from memory)
     expect(WALTHER_MIN_KV).toBe(2.0);
     expect(D341_MIN_KV).toBe(0.21);
     expect(() => waltherLine(8, 1.8, 'walther-simple')).toThrow(ViscosityOutOfRangeError);
@@ -239,7 +239,7 @@ describe('ASTM D341-20 full Z and its published inverse', () => {
     expectClose(d341Z(2) - 2.7, Math.exp(-7.19), 1e-12);
     expect(d341Z(2, 'walther-simple')).toBe(2.7);
     // at ν = 8.86 (check value W1) the term is below 1e-20: W1's A, B were computed with the simple
-    // form and hold unchanged for D341-20 (shared/reference/check-values.md W1)
+    // form and hold unchanged for D341-20 (tests/reference/check-values.md W1)
     expect(d341Z(8.86) - (8.86 + 0.7)).toBeLessThan(1e-20);
   });
 

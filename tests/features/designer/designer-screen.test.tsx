@@ -29,7 +29,7 @@ describe('Recipe designer', () => {
     const predicted = screen.getByTestId('predicted');
     expect(within(predicted).queryByText(/laboratory confirmation/i)).toBeNull();
     const kv40 = num(screen.getByTestId('prop-kv40').textContent);
-    // The invented VG 320 demo recipe was made to sit inside VG 320 (ISO 3448 band 288–352, shared/reference/check-values.md G2)
+    // The invented VG 320 demo recipe was made to sit inside VG 320 (ISO 3448 band 288–352, tests/reference/check-values.md G2)
     expect(kv40).toBeGreaterThanOrEqual(288);
     expect(kv40).toBeLessThanOrEqual(352);
     expect(screen.getByTestId('prop-grade').textContent).toBe('VG 320');
@@ -153,7 +153,7 @@ describe('Solve', () => {
     fireEvent.click(screen.getByText('Solve', { selector: 'button' }));
     await screen.findByText('Solved', {}, { timeout: 20000 });
     const kv40 = num(screen.getByTestId('prop-kv40').textContent);
-    // ISO 3448 band of VG 320: 288–352 mm²/s (shared/reference/check-values.md G2)
+    // ISO 3448 band of VG 320: 288–352 mm²/s (tests/reference/check-values.md G2)
     expect(kv40).toBeGreaterThanOrEqual(288);
     expect(kv40).toBeLessThanOrEqual(352);
     expect(screen.getByTestId('total-mass').textContent).toBe('100.00');

@@ -39,7 +39,7 @@ describe('editFraction', () => {
   });
 
   it('volume view: the edited line reaches the volume share entered (ideal mixing at 15 °C)', () => {
-    // Ideal mixing φ = (w/ρ)/Σ(w/ρ): common practice (shared/reference/check-values.md D1 uses the same rule)
+    // Ideal mixing φ = (w/ρ)/Σ(w/ρ): common practice (tests/reference/check-values.md D1 uses the same rule)
     for (const rebalance of [{ mode: 'balance', balanceId: 'a' } as const, { mode: 'proportional', lockedIds: ['add'] } as const]) {
       const r = editFraction(recipe, density, 'volume', 'b', 0.4, rebalance);
       const vol = basisFractions(r.lines, density, 'volume');

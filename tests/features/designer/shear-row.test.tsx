@@ -50,7 +50,7 @@ describe('shearRow', () => {
     const pred = predictRecipe(r.lines, components, 'refutas', { grade: 460 });
     if (!pred.ok) throw new Error(pred.message);
     const row = shearRow(pred, { ...demoTargets()[r.id]!, grade: 460 }, fmt());
-    // the VG 320 demo blend is far below the VG 460 band (ISO 3448: 414–506, shared/reference/check-values.md G2)
+    // the VG 320 demo blend is far below the VG 460 band (ISO 3448: 414–506, tests/reference/check-values.md G2)
     expect(row.value).toMatch(/^no, /);
     expect(row.status).toBe('fail');
   });

@@ -40,7 +40,7 @@ describe('Library screen', () => {
     expect(screen.getByText('Stocks', { selector: 'h2' })).toBeTruthy();
     expect(screen.getByText(/Invented demo library/)).toBeTruthy();
     const row = rowOf('BW-190');
-    // Computed by the core from ν40 485 / ν100 31.8: VI 96 (ASTM D2270, cf. shared/reference/check-values.md V8
+    // Computed by the core from ν40 485 / ν100 31.8: VI 96 (ASTM D2270, cf. tests/reference/check-values.md V8
     // for 480/31.5 → 96.09) and in the VG 460 band 414–506 (ISO 3448).
     expect(within(row).getByText('96')).toBeTruthy();
     expect(within(row).getByText('VG 460')).toBeTruthy();
@@ -213,7 +213,7 @@ describe('Library screen', () => {
     expect(vi.textContent).toMatch(/^ν100 ≥ ν40/);
     expect(vi.textContent).not.toMatch(/\d{3}$/);
     fireEvent.keyDown(kv100, { key: 'Escape' });
-    // ν40 485 / ν100 31.8 → VI 96 (ASTM D2270; cf. shared/reference/check-values.md V8: 480/31.5 → 96.09)
+    // ν40 485 / ν100 31.8 → VI 96 (ASTM D2270; cf. tests/reference/check-values.md V8: 480/31.5 → 96.09)
     expect(within(row).getByTestId('vi-cell').textContent).toBe('96');
   });
 
