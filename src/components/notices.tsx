@@ -1,6 +1,7 @@
 /** Shared notices: the laboratory caution, the invented-demo label, status messages. */
 import type { ReactNode } from 'react';
 import type { PersistentStorageState } from '../state/persistence';
+import { BLEND_METHOD_LABEL, type BlendMethod } from '../core/blending/blend-viscosity';
 
 /**
  * The full caution, where predictions are printed (the app frame prints it on every screen's paper
@@ -45,6 +46,24 @@ export function persistentStorageText(state: PersistentStorageState): { atRisk: 
     default:
       return { atRisk: false, text: 'Persistent storage not asked for yet.' };
   }
+}
+
+/**
+ * The blend-viscosity method a result was predicted with, named in full beside the result (issue 13:
+ * every result names its method — D7152 Wright method, D7152 ASTM Blending Method, or Refutas, which
+ * is not a D7152 method). One wording for every screen and printout.
+ */
+export function methodText(method: BlendMethod): string {
+  return `Blend viscosity method: ${BLEND_METHOD_LABEL[method]}.`;
+}
+
+/** {@link methodText} as a small note, for screens and printouts alike. */
+export function MethodNote({ method, className = '' }: { method: BlendMethod; className?: string }) {
+  return (
+    <p className={`method-note ${className}`} data-testid="method-note">
+      {methodText(method)}
+    </p>
+  );
 }
 
 /** A small tag saying the data shown are invented demo data. */

@@ -507,6 +507,13 @@ export interface SheetPrediction {
   /** Pour point estimate [°C], or null. */
   pourPoint: number | null;
   /**
+   * True when the flash estimate relies on the Wickey–Chittenden index beyond its fitted range (every
+   * gear oil: flash points of 200–300 °C); the row then says "index extrapolated". Absent → false.
+   */
+  flashPointExtrapolated?: boolean;
+  /** True when the pour estimate lies beyond the Hu–Burns index's fitted range. Absent → false. */
+  pourPointExtrapolated?: boolean;
+  /**
    * Viscosity at the operating temperature, or null; flagged when the temperature lies outside the
    * measured 40–100 °C (extrapolated) or outside −20…150 °C (not to be trusted; ASTM D341 line).
    */
@@ -528,6 +535,8 @@ export function sheetPrediction(p: BlendProperties): SheetPrediction {
     anilinePoint: p.anilinePoint?.value ?? null,
     flashPoint: p.flashPoint,
     pourPoint: p.pourPoint,
+    flashPointExtrapolated: p.flashPointExtrapolated,
+    pourPointExtrapolated: p.pourPointExtrapolated,
     operating: p.kvAtOperating,
   };
 }
@@ -593,6 +602,12 @@ export interface QcRow {
 }
 
 const fixedDot = (x: number, d: number) => x.toFixed(d);
+
+/**
+ * The QC row's mark for a flash or pour estimate beyond the range its blending index was fitted on
+ * (Wickey–Chittenden: flash points below 200 °C; Hu–Burns: pour points of about −50…+10 °C).
+ */
+export const INDEX_EXTRAPOLATED = 'index extrapolated';
 
 export const PER_SPECIFICATION = 'Per specification';
 
@@ -660,13 +675,23 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       method: 'ASTM D4052', release: true, limitSource: fromSpec(spec.density15Min, spec.density15Max),
     },
     {
-      key: 'flash', property: predicted.flashPoint === null ? 'Flash point, open cup' : 'Flash point, open cup (estimate)', unit: '°C',
+      key: 'flash',
+      property:
+        predicted.flashPoint === null
+          ? 'Flash point, open cup'
+          : `Flash point, open cup (estimate${predicted.flashPointExtrapolated ? `; ${INDEX_EXTRAPOLATED}` : ''})`,
+      unit: '°C',
       predicted: predicted.flashPoint === null ? '—' : fmt(predicted.flashPoint, 0),
       target: limit(spec.flashMin, null, 0), min: spec.flashMin, max: null, method: 'ASTM D92', release: true,
       limitSource: fromSpec(spec.flashMin, null),
     },
     {
-      key: 'pour', property: predicted.pourPoint === null ? 'Pour point' : 'Pour point (estimate)', unit: '°C',
+      key: 'pour',
+      property:
+        predicted.pourPoint === null
+          ? 'Pour point'
+          : `Pour point (estimate${predicted.pourPointExtrapolated ? `; ${INDEX_EXTRAPOLATED}` : ''})`,
+      unit: '°C',
       predicted: predicted.pourPoint === null ? '—' : fmt(predicted.pourPoint, 0),
       target: limit(null, spec.pourMax, 0), min: null, max: spec.pourMax, method: 'ASTM D97', release: true,
       limitSource: fromSpec(null, spec.pourMax),

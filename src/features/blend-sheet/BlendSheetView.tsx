@@ -17,6 +17,7 @@ import {
   buildBlendSheet,
   defaultBlendingInstructions,
   qcReleaseTargets,
+  INDEX_EXTRAPOLATED,
   type BlendSheet,
   type QcRow,
   type SheetPrediction,
@@ -26,6 +27,7 @@ import { BLEND_METHOD_LABEL } from '../../core/blending/blend-viscosity';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { QcPanel } from './QcPanel';
 import { probabilityText } from '../../components/format';
+import { methodText } from '../../components/notices';
 import { CorrectionSheet } from './CorrectionSheet';
 import { adjustedRecipe, correctionFor, recipeAdditive } from './qc';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
@@ -830,7 +832,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
             from the product specification
             {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
-            recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.
+            recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.{' '}
+            <span data-testid="method-note">{methodText(method)}</span>
+            {qc && 'rows' in qc && qc.rows.some((r) => r.property.includes(INDEX_EXTRAPOLATED)) ? (
+              <>
+                {' '}
+                “{INDEX_EXTRAPOLATED[0]!.toUpperCase() + INDEX_EXTRAPOLATED.slice(1)}”: the blending index is used beyond the range it was fitted on
+                (flash points below 200 °C, pour points of about −50…+10 °C), so the estimate is rougher still; only the measured value counts.
+              </>
+            ) : null}
           </p>
         </section>
 

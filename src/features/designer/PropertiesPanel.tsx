@@ -8,6 +8,7 @@ import { OXIDATION_CLASS_LABEL, oxidationClass } from '../../core/scoring/oxidat
 import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { explainDeposit } from '../../core/scoring/deposit';
 import { formatWorkingInput, gradeLabel, probabilityText, useFormat, type Formatter } from '../../components/format';
+import { MethodNote } from '../../components/notices';
 import type { Prediction } from './predict';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
@@ -169,7 +170,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     label: 'Flash point (estimate)',
     value: p.flashPoint === null ? 'unknown' : fmt.temp(p.flashPoint),
     status: targets.minFlashPoint === null || p.flashPoint === null ? 'info' : p.flashPoint >= targets.minFlashPoint - 0.01 ? 'ok' : 'fail',
-    statusText: targets.minFlashPoint === null ? '' : `minimum ${fmt.temp(targets.minFlashPoint)}`,
+    statusText: withExtrapolation(targets.minFlashPoint === null ? '' : `minimum ${fmt.temp(targets.minFlashPoint)}`, p.flashPointExtrapolated),
     explain: ex.flashPoint ?? null,
   });
   rows.push({
@@ -177,7 +178,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     label: 'Pour point (estimate)',
     value: p.pourPoint === null ? 'unknown' : fmt.temp(p.pourPoint),
     status: targets.maxPourPoint === null || p.pourPoint === null ? 'info' : p.pourPoint <= targets.maxPourPoint + 0.01 ? 'ok' : 'fail',
-    statusText: targets.maxPourPoint === null ? '' : `maximum ${fmt.temp(targets.maxPourPoint)}`,
+    statusText: withExtrapolation(targets.maxPourPoint === null ? '' : `maximum ${fmt.temp(targets.maxPourPoint)}`, p.pourPointExtrapolated),
     explain: ex.pourPoint ?? null,
   });
   const cur = p.currency ? ` (${p.currency})` : '';
@@ -310,6 +311,12 @@ export function shearRow(pred: Extract<Prediction, { ok: true }>, targets: Blend
   };
 }
 
+/** A flash or pour estimate beyond its index's fitted range says so beside its status (issue 13). */
+function withExtrapolation(text: string, extrapolated: boolean): string {
+  if (!extrapolated) return text;
+  return text ? `${text}; extrapolated beyond the index's fitted range` : "extrapolated beyond the index's fitted range";
+}
+
 const STATUS_MARK: Record<Status, string> = { ok: '✓', warn: '!', fail: '✗', info: '' };
 
 /** Predicted properties, each with its working (equation, standard, inputs) on demand. */
@@ -332,6 +339,7 @@ export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targe
         </p>
       ) : (
         <>
+          <MethodNote method={prediction.props.method} />
           <table className="props-table">
             <thead className="visually-hidden">
               <tr>

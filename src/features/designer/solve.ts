@@ -31,7 +31,7 @@ const BINDING_LABEL: Record<string, string> = {
 
 /**
  * The premium of a robust recipe, in the plant's words:
- *  "+0.006 EUR/L buys 99.0 % instead of 50.0 % in the solve band (the recipe without it: 1.146 EUR/L)".
+ *  "+0.006 EUR/L at 15 °C buys 99.0 % instead of 50.0 % in the solve band (the recipe without it: 1.146 EUR/L at 15 °C)".
  */
 export function premiumText(
   robust: { nominalCostPerLitre: number | null; nominalProbability: number | null },
@@ -44,7 +44,7 @@ export function premiumText(
   const d = costPerLitre - robust.nominalCostPerLitre;
   const sign = d >= 0 ? '+' : '−';
   const was = robust.nominalProbability === null ? '' : ` instead of ${fmtProbability(robust.nominalProbability, fmt)}`;
-  return `${sign}${fmt.num(Math.abs(d), 3)} ${currency}/L buys ${fmtProbability(probability, fmt)}${was} in the solve band (the recipe without it: ${fmt.num(robust.nominalCostPerLitre, 3)} ${currency}/L)`;
+  return `${sign}${fmt.num(Math.abs(d), 3)} ${currency}/L at 15 °C buys ${fmtProbability(probability, fmt)}${was} in the solve band (the recipe without it: ${fmt.num(robust.nominalCostPerLitre, 3)} ${currency}/L at 15 °C)`;
 }
 
 export function runSolve(

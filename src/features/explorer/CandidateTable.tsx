@@ -2,6 +2,8 @@ import { memo, useMemo, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { useFormat } from '../../components/format';
+import { MethodNote } from '../../components/notices';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import {
   DEFAULT_EQUIVALENCE_TOLERANCE,
   groupCandidates,
@@ -60,6 +62,7 @@ export const CandidateTable = memo(function CandidateTable({
   polymerCap,
   inBand = NO_PROBABILITIES,
   minInBandProbability = null,
+  method,
 }: {
   candidates: readonly SubstituteCandidate[];
   components: ReadonlyMap<string, Component>;
@@ -74,6 +77,8 @@ export const CandidateTable = memo(function CandidateTable({
   inBand?: ReadonlyMap<string, InBandOf>;
   /** The least probability in the plant band the search asked for (null: none). */
   minInBandProbability?: number | null;
+  /** Blend-viscosity method the candidates were solved with, named above the table. */
+  method: BlendMethod;
 }) {
   const fmt = useFormat();
   const sort = useExplorerStore((s) => s.sort);
@@ -188,6 +193,7 @@ export const CandidateTable = memo(function CandidateTable({
       <h3 id="cand-h">
         Candidates <span className="muted">({total} distinct recipes{total > candidates.length ? `, best ${candidates.length} listed` : ''}; {frontierCount} on the cost–solvency frontier)</span>
       </h3>
+      <MethodNote method={method} />
       {forcedIds.length > 0 && (
         <p className="muted">
           Every candidate also holds {forcedIds.map((id) => components.get(id)?.code ?? id).join(', ')} at its fixed share (not repeated below).

@@ -6,6 +6,7 @@ import { SOLVENCY_BAND_LABEL } from '../../core/scoring/solvency';
 import { DEPOSIT_PROPENSITY_LABEL } from '../../core/scoring/deposit';
 import { probabilityText, useFormat, type Formatter } from '../../components/format';
 import type { InBandOf } from './in-band';
+import { MethodNote } from '../../components/notices';
 import type { Settings } from '../../state';
 import { compareRecipes } from '../../core/formulation/comparison';
 import { explainDeposit } from '../../core/scoring/deposit';
@@ -274,6 +275,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   return (
     <section className="comparison" aria-labelledby="cmp-h" data-testid="comparison">
       <h3 id="cmp-h">Candidate {candidate.rank} beside the reference</h3>
+      <MethodNote method={settings.blendMethod} />
       {summary.length > 0 && (
         <ul className="cmp-summary" data-testid="comparison-summary">
           {summary.map((line) => (

@@ -1,7 +1,7 @@
 import { Suspense, lazy, useEffect, useId, useMemo } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
-import { Notice } from '../../components/notices';
+import { Notice, methodText } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { NumberField } from '../../components/fields';
 import { checkNumber } from '../../state/field-rules';
@@ -138,6 +138,7 @@ export default function ExplorerScreen() {
       minInBandProbability: targets.minInBandProbability ?? null,
       pricingKey: currentPricing,
       referenceCost: refCost,
+      method: settings.blendMethod,
     };
     const s = useExplorerStore.getState();
     s.started(scenario);
@@ -177,7 +178,8 @@ export default function ExplorerScreen() {
       notes:
         `Adopted from the substitute explorer as a replacement for “${reference.name}”` +
         (withdrawnCodes.length ? ` (withdrawn: ${withdrawnCodes.join(', ')})` : '') +
-        `. Ranked ${c.rank} by ${RANKING_LABEL[st.resultFor?.objective ?? 'cost']}. Predicted, not yet confirmed in the laboratory.`,
+        `. Ranked ${c.rank} by ${RANKING_LABEL[st.resultFor?.objective ?? 'cost']}. ${methodText(st.resultFor?.method ?? settings.blendMethod)} ` +
+        'Predicted, not yet confirmed in the laboratory.',
       // Same product: the reference's release specification; the stock data the candidate was solved with.
       specification: reference.specification,
       stockBasis: recordStockBasis(components, c.lines, new Date().toISOString()),
@@ -194,6 +196,7 @@ export default function ExplorerScreen() {
     (st.resultFor.referenceId !== st.referenceId ||
       st.resultFor.maxComponents !== st.maxComponents ||
       st.resultFor.objective !== st.objective ||
+      (st.resultFor.method !== undefined && st.resultFor.method !== settings.blendMethod) ||
       (st.resultFor.polymerCap ?? null) !== (targets?.maxPolymerFraction ?? null) ||
       (st.resultFor.minInBandProbability ?? null) !== (targets?.minInBandProbability ?? null) ||
       [...st.resultFor.withdrawn].sort().join() !== [...st.withdrawn].sort().join());
@@ -261,6 +264,7 @@ export default function ExplorerScreen() {
                 polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
                 inBand={inBand}
                 minInBandProbability={st.resultFor?.minInBandProbability ?? null}
+                method={st.resultFor?.method ?? settings.blendMethod}
               />
               {selected && reference && targets && (
                 <ComparisonPanel

@@ -5,6 +5,7 @@
  */
 import { create } from 'zustand';
 import type { Objective } from '../../core/formulation/model';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { SubstituteSearchProgress, SubstituteSearchResult } from '../../core/search/substitutes';
 
 export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'error';
@@ -26,6 +27,8 @@ export interface Scenario {
   pricingKey?: string;
   /** The reference recipe's cost per litre at those prices, in the base currency; null → not costed. */
   referenceCost?: number | null;
+  /** Blend-viscosity method the search ran with (named beside the results). */
+  method?: BlendMethod;
 }
 
 export interface ExplorerState {

@@ -90,7 +90,8 @@ export default function LinePlanScreen() {
   };
 
   // What the views of the result share (the run's limited stocks and supplies, codes, period, format).
-  const view = useMemo(() => planView(components, st.limited, st.supplyKg, linePlan.period, fmt), [components, st.limited, st.supplyKg, linePlan.period, fmt]);
+  const runMethod = st.basis?.settings.blendMethod ?? settings.blendMethod;
+  const view = useMemo(() => planView(components, st.limited, st.supplyKg, linePlan.period, fmt, runMethod), [components, st.limited, st.supplyKg, linePlan.period, fmt, runMethod]);
 
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;

@@ -3,8 +3,8 @@
 import type { ComponentType } from 'react';
 import type { Recipe } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
-import { Notice } from '../../components/notices';
 import { probabilityText } from '../../components/format';
+import { MethodNote, Notice } from '../../components/notices';
 import { changeText, limitedCodes, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnes, type PlanView } from './words';
 import type { PlanWhich } from './store';
 
@@ -40,6 +40,7 @@ export function PlanResults({ result, run, view, currentUseKg, adopt, Allocation
   return (
     <div className="lp-results" data-testid="plan-results" data-run={run}>
       <Headline result={result} view={view} currentUseKg={currentUseKg} />
+      <MethodNote method={view.method} />
       <div className="lp-side-by-side">
         {(['lasting', 'after'] as const).map((which) => (
           <PlanColumn key={which} which={which} plan={which === 'lasting' ? lasting : after} view={view} adopt={adopt} />

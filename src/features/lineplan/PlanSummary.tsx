@@ -3,12 +3,13 @@
 import { useId, type ReactNode } from 'react';
 import type { LinePlanGradeResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { describeRate, rateDecimals, unpricedMessage, type ExchangeRate, type UnpricedStock } from '../../core/currency/exchange-rates';
+import { MethodNote } from '../../components/notices';
 import '../../components/print.css';
 import type { PlanWhich } from './store';
 import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnesNumber, type PlanView } from './words';
 
 export const SUMMARY_CAUTIONS: readonly string[] = [
-  'Predicted properties are estimates by published methods (Refutas or ASTM D7152 blending, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
+  'Predicted properties are estimates by published methods (the blend-viscosity method named above, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
   'Costs use the library’s prices on the day of printing; demands and supplies are the planner’s own figures.',
   'Safety data sheets, site procedures and local regulations govern the handling of hot oil and additive packages; this plan does not replace them.',
 ];
@@ -51,6 +52,7 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
       <p className="lps-hold" data-testid="summary-not-for-release">
         <strong>{PLAN_NOT_FOR_RELEASE}</strong>
       </p>
+      <MethodNote method={view.method} className="lps-method" />
 
       {plan.status !== 'optimal' ? (
         <p className="lps-none">

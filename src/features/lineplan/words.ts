@@ -2,6 +2,7 @@
 import type { Component } from '../../core/formulation/model';
 import type { MarginalValue } from '../../core/lineplan/plan';
 import type { Formatter } from '../../components/format';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { PlanWhich } from './store';
 
 /** The two plans' titles. */
@@ -23,6 +24,8 @@ export interface PlanView {
   supplyKg: Readonly<Record<string, number>>;
   code: (id: string) => string;
   name: (id: string) => string;
+  /** Blend-viscosity method the plan was solved with (named beside every result). */
+  method: BlendMethod;
 }
 
 export function planView(
@@ -31,9 +34,10 @@ export function planView(
   supplyKg: Readonly<Record<string, number>>,
   period: string,
   fmt: Formatter,
+  method: BlendMethod,
 ): PlanView {
   const byId = new Map(components.map((c) => [c.id, c]));
-  return { fmt, period, limited, supplyKg, code: (id) => byId.get(id)?.code ?? id, name: (id) => byId.get(id)?.name ?? '' };
+  return { fmt, period, limited, supplyKg, code: (id) => byId.get(id)?.code ?? id, name: (id) => byId.get(id)?.name ?? '', method };
 }
 
 /** "BW-160, BW-190", or "the limited stocks" when none is limited. */

@@ -7,6 +7,7 @@ import {
   defaultBlendingInstructions,
   largestRemainderUnits,
   qcReleaseTargets,
+  INDEX_EXTRAPOLATED,
   quantityDecimals,
   BLEND_SHEET_CAUTIONS,
   type SheetPrediction,
@@ -277,6 +278,20 @@ describe('qcReleaseTargets', () => {
     // ISO 3448 VG 220: 198–242 exactly (check-values G1), no floating-point edge
     const g220 = qcReleaseTargets(220, p, { kv40TolerancePct: 10 }).find((r) => r.key === 'kv40')!;
     expect([g220.min, g220.max]).toEqual([198, 242]);
+  });
+
+  it('marks a flash or pour estimate made beyond its blending index fitted range (issue 13)', () => {
+    const plain = Object.fromEntries(qcReleaseTargets(320, p).map((r) => [r.key, r.property]));
+    expect(plain.flash).toBe('Flash point, open cup (estimate)');
+    expect(plain.pour).toBe('Pour point (estimate)');
+    const marked = Object.fromEntries(
+      qcReleaseTargets(320, { ...p, flashPointExtrapolated: true, pourPointExtrapolated: true }).map((r) => [r.key, r.property]),
+    );
+    expect(marked.flash).toBe(`Flash point, open cup (estimate; ${INDEX_EXTRAPOLATED})`);
+    expect(marked.pour).toBe(`Pour point (estimate; ${INDEX_EXTRAPOLATED})`);
+    // In °F the label stays (only the numbers are converted).
+    const f = qcReleaseTargets(320, { ...p, flashPointExtrapolated: true }, { temperatureUnit: 'F' }).find((r) => r.key === 'flash')!;
+    expect(f.property).toBe(`Flash point, open cup (estimate; ${INDEX_EXTRAPOLATED})`);
   });
 
   it('flags a prediction that falls outside its own release target', () => {

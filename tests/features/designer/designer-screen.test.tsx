@@ -172,6 +172,8 @@ describe('Solve', () => {
     expect(screen.getByTestId('prop-inBandIso').textContent).toMatch(/%/);
     // least cost without it sits on the band's edge: about half the batches in band (model)
     expect(screen.getByText(/buys 99\.0 % instead of (49|50|51)\.\d % in the solve band/)).toBeTruthy();
+    // the premium names the temperature of its litres (issue 13 §8)
+    expect(screen.getByText(/\/L at 15 °C buys 99\.0 %.*\/L at 15 °C\)/)).toBeTruthy();
   });
 
   it('explains an infeasible target with the reason and a suggested fix', async () => {

@@ -52,12 +52,20 @@ function renderTable(candidates: SubstituteCandidate[], polymerCap = 0.25) {
       total={candidates.length}
       forcedIds={[id('BW-901')]}
       polymerCap={polymerCap}
+      method="d7152-wright"
     />,
   );
   return screen.getByTestId('candidates');
 }
 
 describe('candidate table', () => {
+  it('names the blend-viscosity method the candidates were solved with (issue 13)', () => {
+    renderTable([cand(1, [['BW-280', 0.7], ['BW-240', 0.28], ['BW-901', 0.02]], 1.5)]);
+    expect(screen.getByTestId('method-note').textContent).toBe(
+      'Blend viscosity method: D7152 Wright method (two temperatures per component), volume fractions.',
+    );
+  });
+
   it('lists stocks by share, largest first, and badges limited stocks', () => {
     // BW-160 is a limited stock in the invented demo.
     const t = renderTable([cand(1, [['BW-240', 0.28], ['BW-160', 0.1], ['BW-280', 0.6], ['BW-901', 0.02]], 1.5)]);

@@ -117,6 +117,10 @@ describe('Whole-line plan screen', () => {
     expect(summary).toContain('Cost per litre (15 °C)');
     expect(summary).toContain('Change per litre (15 °C)');
     expect(summary.replace(/per litre \(15 °C\)/g, '')).not.toMatch(/per litre/);
+    // the blend-viscosity method of the run is named on screen and on the printed summary (issue 13 §2)
+    const notes = screen.getAllByTestId('method-note').map((e) => e.textContent);
+    expect(notes).toEqual(Array(2).fill('Blend viscosity method: Refutas blending number (mass fractions).'));
+    expect(within(screen.getByTestId('plan-summary')).getByTestId('method-note')).toBeTruthy();
   });
 
   it('adopts the plan’s recipes as draft revisions in one undo step, and undoes them', async () => {
