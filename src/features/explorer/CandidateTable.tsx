@@ -109,7 +109,7 @@ export const CandidateTable = memo(function CandidateTable({
     if (!b?.nominal) return '—';
     const d = cost - b.nominal.costPerLitre;
     return (
-      <span title={`${prob(b.plant)} instead of ${prob(b.nominal.probability)} in the plant band (the same stocks without the condition: ${fmt.num(b.nominal.costPerLitre, 3)} ${fmt.settings.currencySymbol}/L)`}>
+      <span title={`${prob(b.plant)} instead of ${prob(b.nominal.probability)} in the plant band (the same stocks without the condition: ${fmt.num(b.nominal.costPerLitre, 3)} ${fmt.settings.currencySymbol}/L at 15 °C)`}>
         {d >= 0 ? '+' : '−'}
         {fmt.num(Math.abs(d), 3)}
         <span className="visually-hidden">
@@ -228,7 +228,7 @@ export const CandidateTable = memo(function CandidateTable({
             </th>
             {minInBandProbability !== null && (
               <th scope="col" className="num">
-                Premium, {fmt.settings.currencySymbol}/L
+                Premium, {fmt.settings.currencySymbol}/L at 15 °C
               </th>
             )}
             <th scope="col">Frontier</th>

@@ -183,15 +183,15 @@ export function inBandRows(
   ];
 }
 
-/** "+0.006 EUR/L buys 99.0 % instead of 50.2 % in the plant band (the same stocks without it: 1.146 EUR/L)." */
+/** "+0.006 EUR/L at 15 °C buys 99.0 % instead of 50.2 % in the plant band (the same stocks without it: 1.146 EUR/L at 15 °C)." */
 export function premiumSentence(b: InBandOf, costPerLitre: number, fmt: Formatter): string {
   const n = b.nominal!;
   const d = costPerLitre - n.costPerLitre;
   const p = (x: number) => probabilityText(x, (v, k) => fmt.num(v, k));
   const cur = fmt.settings.currencySymbol;
   return (
-    `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
-    `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L).`
+    `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L at 15 °C buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
+    `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L at 15 °C).`
   );
 }
 

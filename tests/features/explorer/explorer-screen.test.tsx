@@ -105,7 +105,7 @@ describe('Substitute explorer', () => {
     for (const t of plant) expect(t.startsWith('>') || Number(t.replace(/[^\d.]/g, '')) >= 99).toBe(true);
     const premiums = within(table).getAllByTestId('premium').map((e) => e.textContent!);
     expect(premiums[0]).toMatch(/^\+\d\.\d{3}/);
-    expect(screen.getByTestId('comparison-premium').textContent).toMatch(/^\+\d\.\d{3} .\/L buys 99\.\d+ % instead of \d+\.\d % of batches in the plant band/);
+    expect(screen.getByTestId('comparison-premium').textContent).toMatch(/^\+\d\.\d{3} .\/L at 15 °C buys 99\.\d+ % instead of \d+\.\d % of batches in the plant band/);
     expect(screen.getByTestId('in-band-note').textContent).toContain('at least 99.0 %');
     // a new probability makes the result stale
     fireEvent.focus(p);
