@@ -106,7 +106,7 @@ describe('the plant’s QC loop', () => {
     expect(flat).toMatch(/BW-\d+/);
     const predicted = /ν40 ([\d.]+) mm²\/s/.exec(flat.slice(flat.search(/predicted/i)));
     expect(predicted).not.toBeNull();
-    // lands in the release band, 304–336 mm²/s (ISO 3448 ±5 % of 320; shared/reference/check-values.md G2)
+    // lands in the release band, 304–336 mm²/s (ISO 3448 ±5 % of 320; tests/reference/check-values.md G2)
     expect(Number(predicted![1])).toBeGreaterThanOrEqual(304 * (1 - 1e-4));
     expect(Number(predicted![1])).toBeLessThanOrEqual(336 * (1 + 1e-4));
     expect(flat).toMatch(/Predicted properties are estimates/);
