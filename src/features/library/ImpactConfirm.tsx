@@ -17,12 +17,10 @@ export interface PendingStockChange {
 }
 
 export function ImpactConfirm({ pending, onDone }: { pending: PendingStockChange; onDone: (applied: boolean) => void }) {
-  const fmt = useFormat();
   // Focus the dialog itself, not a button: the Enter that committed the field must not answer it.
   const box = useRef<HTMLDivElement>(null);
   useEffect(() => box.current?.focus(), []);
   const leaving = pending.impact.filter((r) => r.inBandBefore && !r.inBandAfter).length;
-  const kv = (p: RecipeImpact['before']) => ('error' in p ? 'cannot be predicted' : `${fmt.num(p.kv40, 1)}`);
   return (
     <div className="impact-backdrop">
       <div
@@ -44,45 +42,7 @@ export function ImpactConfirm({ pending, onDone }: { pending: PendingStockChange
           Their predictions would change as below{leaving ? `; ${leaving} would leave ${leaving === 1 ? 'its' : 'their'} ISO viscosity grade` : ''}.
           Approved recipes are not changed, but their blend sheets will show the new predictions and flag the changed stock data.
         </p>
-        <div className="table-scroll">
-          <table className="data impact-table" data-testid="impact-table">
-            <thead>
-              <tr>
-                <th scope="col">Recipe</th>
-                <th scope="col">Status</th>
-                <th scope="col" className="num">ν40 now, mm²/s</th>
-                <th scope="col" className="num">ν40 after</th>
-                <th scope="col" className="num">Change</th>
-                <th scope="col">Grade band</th>
-              </tr>
-            </thead>
-            <tbody>
-              {pending.impact.map((r) => {
-                const pct = 'error' in r.before || 'error' in r.after ? null : (100 * (r.after.kv40 - r.before.kv40)) / r.before.kv40;
-                return (
-                  <tr key={r.recipeId} className={r.inBandBefore && !r.inBandAfter ? 'leaves-band' : undefined}>
-                    <th scope="row">
-                      {r.name} <span className="muted">rev. {r.revision}</span>
-                    </th>
-                    <td>
-                      <StatusBadge status={r.status} />
-                    </td>
-                    <td className="num">{kv(r.before)}</td>
-                    <td className="num">{kv(r.after)}</td>
-                    <td className="num">{pct === null ? '—' : `${pct > 0 ? '+' : pct < 0 ? '−' : ''}${fmt.num(Math.abs(pct), 1)} %`}</td>
-                    <td>
-                      {r.band === null
-                        ? '—'
-                        : `VG ${r.grade} (${fmt.num(r.band.min, 1)}–${fmt.num(r.band.max, 1)}): ${
-                            r.inBandAfter ? (r.inBandBefore ? 'stays inside' : 'comes inside') : r.inBandBefore ? 'LEAVES the band' : 'outside, as before'
-                          }`}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+        <ImpactTable impact={pending.impact} />
         <div className="button-row">
           <button
             type="button"
@@ -98,6 +58,53 @@ export function ImpactConfirm({ pending, onDone }: { pending: PendingStockChange
           </button>
         </div>
       </div>
+    </div>
+  );
+}
+
+/** The saved recipes a change of stock data moves: each ν40 now → after, the change and the grade band. */
+export function ImpactTable({ impact }: { impact: readonly RecipeImpact[] }) {
+  const fmt = useFormat();
+  const kv = (p: RecipeImpact['before']) => ('error' in p ? 'cannot be predicted' : `${fmt.num(p.kv40, 1)}`);
+  return (
+    <div className="table-scroll">
+      <table className="data impact-table" data-testid="impact-table">
+        <thead>
+          <tr>
+            <th scope="col">Recipe</th>
+            <th scope="col">Status</th>
+            <th scope="col" className="num">ν40 now, mm²/s</th>
+            <th scope="col" className="num">ν40 after</th>
+            <th scope="col" className="num">Change</th>
+            <th scope="col">Grade band</th>
+          </tr>
+        </thead>
+        <tbody>
+          {impact.map((r) => {
+            const pct = 'error' in r.before || 'error' in r.after ? null : (100 * (r.after.kv40 - r.before.kv40)) / r.before.kv40;
+            return (
+              <tr key={r.recipeId} className={r.inBandBefore && !r.inBandAfter ? 'leaves-band' : undefined}>
+                <th scope="row">
+                  {r.name} <span className="muted">rev. {r.revision}</span>
+                </th>
+                <td>
+                  <StatusBadge status={r.status} />
+                </td>
+                <td className="num">{kv(r.before)}</td>
+                <td className="num">{kv(r.after)}</td>
+                <td className="num">{pct === null ? '—' : `${pct > 0 ? '+' : pct < 0 ? '−' : ''}${fmt.num(Math.abs(pct), 1)} %`}</td>
+                <td>
+                  {r.band === null
+                    ? '—'
+                    : `VG ${r.grade} (${fmt.num(r.band.min, 1)}–${fmt.num(r.band.max, 1)}): ${
+                        r.inBandAfter ? (r.inBandBefore ? 'stays inside' : 'comes inside') : r.inBandBefore ? 'LEAVES the band' : 'outside, as before'
+                      }`}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
     </div>
   );
 }

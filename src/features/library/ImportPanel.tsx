@@ -4,7 +4,10 @@ import { Notice } from '../../components/notices';
 import { readFileText } from '../../components/download';
 import { applyLibraryImport, CSV_COLUMNS, type ImportPreview, type ImportRow } from '../../state/library-io';
 import { COLLECTION_LIMITS } from '../../state/field-rules';
-import { useLibrary } from '../../state';
+import { useLibrary, useRecipes, useSettings } from '../../state';
+import type { Component } from '../../core/formulation/model';
+import { predictionImpact, type RecipeImpact } from '../../core/recipes/impact';
+import { ImpactTable } from './ImpactConfirm';
 import { startImportPreview, type ImportHandle } from './import-client';
 
 type RowFilter = 'all' | 'errors' | 'update' | 'add' | 'unchanged';
@@ -73,6 +76,15 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
     }
   };
 
+  // The saved recipes the import would move (issue 10, item 14): shown before it is confirmed.
+  const recipes = useRecipes((s) => s.recipes);
+  const blendMethod = useSettings().blendMethod;
+  const impact = useMemo(
+    (): RecipeImpact[] => (preview?.valid ? importImpact(preview, components, recipes, blendMethod) : []),
+    [preview, components, recipes, blendMethod],
+  );
+
+  const leaving = impact.filter((r) => r.inBandBefore && !r.inBandAfter).length;
   const counts = useMemo(() => {
     const rows = preview?.rows ?? [];
     return { errors: rows.filter((r) => r.errors.length).length, warnings: rows.filter((r) => !r.errors.length && r.warnings.length).length };
@@ -201,6 +213,19 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
           ) : null}
         </div>
       ) : null}
+      {impact.length > 0 && (
+        <section className="import-impact" aria-labelledby={`${fileId}-impact`} data-testid="import-impact">
+          <h4 id={`${fileId}-impact`}>
+            This import moves {impact.length} saved {impact.length === 1 ? 'recipe' : 'recipes'}
+            {leaving > 0 ? `; ${leaving} would leave ${leaving === 1 ? 'its' : 'their'} ISO viscosity grade` : ''}
+          </h4>
+          <p className="small">
+            Their predictions would change as below. Approved recipes are not changed, but their blend sheets will show the new predictions
+            and flag the changed stock data.
+          </p>
+          <ImpactTable impact={impact} />
+        </section>
+      )}
       <div className="button-row">
         <button
           type="button"
@@ -214,7 +239,9 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
             }
           }}
         >
-          {preview?.valid ? `Import: add ${preview.adds}, update ${preview.updates}` : 'Import'}
+          {preview?.valid
+            ? `Import: add ${preview.adds}, update ${preview.updates}${impact.length ? ` (${impact.length} saved ${impact.length === 1 ? 'recipe moves' : 'recipes move'})` : ''}`
+            : 'Import'}
         </button>
         <button type="button" onClick={onClose}>
           Cancel
@@ -222,4 +249,24 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
       </div>
     </section>
   );
+}
+
+/**
+ * The saved recipes whose predictions an import would move: the library after the import (updates
+ * matched by code, as the import stores them) against the library now.
+ */
+function importImpact(preview: ImportPreview, before: readonly Component[], recipes: Parameters<typeof predictionImpact>[0], method: Parameters<typeof predictionImpact>[4]): RecipeImpact[] {
+  const updates = new Map<string, Component>();
+  for (const r of preview.rows) if (r.action === 'update' && r.component) updates.set(r.component.code.trim().toLowerCase(), r.component);
+  if (updates.size === 0) return [];
+  const changed: string[] = [];
+  const after = before.map((c) => {
+    const k = c.code.trim().toLowerCase();
+    const u = updates.get(k);
+    if (!u) return c;
+    updates.delete(k); // the first stock with the code is the one updated (as the import stores it)
+    changed.push(c.id);
+    return { ...u, id: c.id };
+  });
+  return predictionImpact(recipes, before, after, changed, method);
 }

@@ -5,7 +5,7 @@
  * value; storing it flags the recipes as changed since saved.
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 import { stockBasisChanges } from '../../../src/core/recipes/stock-basis';
@@ -62,5 +62,29 @@ describe('stock changes that move saved recipes', () => {
     expect(screen.queryByRole('alertdialog')).toBeNull();
     expect(kv40Of('demo-bw-612')).toBe(111);
     expect(pib().calibration).toBeNull();
+  });
+
+  it('an import that updates a stock shows the saved recipes it moves before it is confirmed', async () => {
+    await import('../../../src/features/library/ImportPanel'); // loaded on first use
+    render(<LibraryScreen />);
+    await act(async () => {
+      fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
+    });
+    const p = pib();
+    const kv100 = p.viscosityPoints.find((x) => x.tempC === 100)!.kv;
+    const csv = `code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nBW-510,${p.category},9000,${kv100},${p.density15},${p.price.amount}\n`;
+    await act(async () => {
+      fireEvent.change(await screen.findByLabelText('File', {}, { timeout: 20000 }), { target: { files: [new File([csv], 'pib.csv', { type: 'text/csv' })] } });
+    });
+    await screen.findByText('pib.csv is valid.');
+    const box = screen.getByTestId('import-impact');
+    expect(box.textContent).toMatch(/This import moves 1 saved recipe/);
+    const row = within(within(box).getByTestId('impact-table')).getAllByRole('row')[1]!;
+    // The invented VG 680 demo recipe predicts 682.9 mm²/s with the stored data (Refutas; as the designer shows).
+    expect(row.textContent).toMatch(/Gear oil VG 680/);
+    expect(row.textContent).toMatch(/682\.9/);
+    expect(kv40Of('demo-bw-510')).toBe(6500); // nothing stored yet (invented demo value)
+    fireEvent.click(screen.getByRole('button', { name: 'Import: add 0, update 1 (1 saved recipe moves)' }));
+    expect(kv40Of('demo-bw-510')).toBe(9000);
   });
 });
