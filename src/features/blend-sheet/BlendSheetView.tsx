@@ -588,7 +588,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col" className="bs-num">Vol. %</th>
                 <th scope="col" className="bs-num">kg</th>
                 <th scope="col" className="bs-num">L at 15 °C</th>
-                {sheet.metering && <th scope="col" className="bs-num">L at {fmt(sheet.metering.tempC, 0)} °C</th>}
+                {sheet.metering && <th scope="col" className="bs-num">L at {displayWords(display).sayTemp(sheet.metering.tempC)}</th>}
                 <th scope="col" className="bs-num">Running kg</th>
                 {costing && (
                   <>

@@ -49,6 +49,11 @@ describe('Blend sheet screen (stores wired)', () => {
     expect(within(flash).getByText('°F')).toBeTruthy();
     const pour = within(qc).getByRole('row', { name: /Pour point/ });
     expect(within(pour).getByText('°F')).toBeTruthy();
+    // the metering column names the Settings temperature in the chosen unit: 60 °C = 140 °F (same definition);
+    // litres at 15 °C keep the standard reference temperature of the volume tables
+    const components = screen.getByRole('table', { name: /Components, in charging order/ });
+    expect(within(components).getByRole('columnheader', { name: 'L at 140 °F' })).toBeTruthy();
+    expect(within(components).queryByRole('columnheader', { name: /L at 60 °C/ })).toBeNull();
   });
 });
 
