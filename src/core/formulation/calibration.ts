@@ -35,6 +35,7 @@ import {
   assertKv40Kv100,
 } from '../errors';
 import type { Calibration, Component } from './model';
+import { displayWords, type NumberDisplay } from '../words/display';
 
 export interface CalibrationInput {
   /** The library: every component named in `massFractions` (others are ignored). */
@@ -53,6 +54,8 @@ export interface CalibrationInput {
   labReference: string;
   /** ISO date YYYY-MM-DD of the calibration, passed in (the core has no clock). */
   calibratedOn: string;
+  /** How a refusal writes numbers (the user's decimal separator; default "."). Plain data. */
+  display?: NumberDisplay;
 }
 
 /** Smallest trial fraction of the unknown accepted: below it the inverse magnifies error > 1000×. */
@@ -88,6 +91,7 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
  */
 export function calibrateComponent(input: CalibrationInput): Calibration {
   const fn = 'calibrateComponent';
+  const words = displayWords(input.display);
   const { components, unknownId, massFractions, measuredKv40, measuredKv100, method } = input;
   assertKv40Kv100(fn, measuredKv40, measuredKv100);
   if (typeof input.calibratedOn !== 'string' || !ISO_DATE.test(input.calibratedOn)) {
@@ -153,8 +157,8 @@ export function calibrateComponent(input: CalibrationInput): Calibration {
       throw new ViscosityOutOfRangeError(
         field,
         measured,
-        `${fn}: the measured ${label} = ${measured} mm²/s is ${dir} than any effective ${label} of ` +
-          `${unknown.code} can explain at ${(100 * wU).toPrecision(3)} % by mass; check the measurement and the trial fractions`,
+        `${fn}: the measured ${label} = ${words.say(measured)} mm²/s is ${dir} than any effective ${label} of ` +
+          `${unknown.code} can explain at ${words.say(Number((100 * wU).toPrecision(3)))} % by mass; check the measurement and the trial fractions`,
       );
     }
     return kv;
@@ -181,8 +185,8 @@ export function calibrateComponent(input: CalibrationInput): Calibration {
     throw new ViscosityOutOfRangeError(
       'measuredKv100',
       measuredKv100,
-      `${fn}: the effective values solved for ${unknown.code} (ν40 ${effectiveKv40.toPrecision(4)}, ν100 ` +
-        `${effectiveKv100.toPrecision(4)} mm²/s) do not fall with temperature; check the measurements`,
+      `${fn}: the effective values solved for ${unknown.code} (ν40 ${words.say(Number(effectiveKv40.toPrecision(4)))}, ν100 ` +
+        `${words.say(Number(effectiveKv100.toPrecision(4)))} mm²/s) do not fall with temperature; check the measurements`,
     );
   }
   return {

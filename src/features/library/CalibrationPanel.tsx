@@ -179,6 +179,7 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
         method,
         labReference: labRef.trim(),
         calibratedOn: today,
+        display: fmt.settings,
       });
       setErrors([]);
       setResult(cal);

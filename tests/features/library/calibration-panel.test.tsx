@@ -152,4 +152,15 @@ describe('Calibration from a trial blend (library details)', () => {
     expect(within(form).getByRole('alert').textContent).toMatch(/measured ν40 of 20 mm²\/s is thinner than any effective ν40 of BW-510/);
     expect(pib().calibration).toBeNull();
   });
+
+  it('words the core’s reason with the user’s decimal comma (issue 10, item 17)', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',' });
+    const form = openForm();
+    // as above, with a measured ν40 of 19,5 mm²/s: thinner than the base stock itself (physical bound, no external source)
+    fillMeasured(form, '19,5', '4');
+    solve(form);
+    const text = within(form).getByRole('alert').textContent!;
+    expect(text).toMatch(/measured ν40 of 19,5 mm²\/s is thinner than any effective ν40 of BW-510 can explain at \d+(,\d+)? % by mass/);
+    expect(text).not.toMatch(/\d\.\d/);
+  });
 });
