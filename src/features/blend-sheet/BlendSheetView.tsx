@@ -818,7 +818,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                       {r.predicted}
                     </td>
                     <td>{r.target}</td>
-                    <td>{r.method}</td>
+                    <td className="bs-method">{r.method}</td>
                     <td className="bs-measured" />
                     <td className="bs-initials" />
                   </tr>
