@@ -44,6 +44,9 @@
  *   defaultTargets(grade, additiveId, referenceRecipeId) → BlendTargets
  * Undo/redo (zundo), one history per store:
  *   useLibraryHistory() / useRecipesHistory() → { canUndo, canRedo, undo, redo }
+ * Workspace (designer draft, explorer session; kept across reloads, not merged across tabs, not in backups):
+ *   useWorkspaceStore(s => s.designer | s.explorer), .getState().setDesigner(draft) / setExplorer(session);
+ *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
  * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
  * entry checks shared by screens and imports in ./checks.ts; every stored field's limits in ./field-rules.ts.
@@ -55,6 +58,7 @@ import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../co
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
 import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, type RecipesData } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
+import { useWorkspaceStore, WORKSPACE_SPEC } from './workspace';
 import {
   useStorageStatus,
   saveNow,
@@ -79,6 +83,7 @@ export { blankComponent, freeCode } from './library';
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
+export { useWorkspaceStore, fingerprint, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
 export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';
 
 /** The library store hook (zustand): `useLibrary(s => s.components)`; `useLibrary.getState()` for actions. */
@@ -232,6 +237,10 @@ export function persistedData(key: StoreKey): unknown {
     const { recipes, targets, activeRecipeId, sheets, linePlan, qc } = useRecipesStore.getState();
     return { recipes, targets, activeRecipeId, sheets, linePlan, qc };
   }
+  if (key === 'workspace') {
+    const { designer, explorer } = useWorkspaceStore.getState();
+    return { designer, explorer };
+  }
   return { settings: useSettingsStore.getState().settings };
 }
 
@@ -239,12 +248,14 @@ export const STORE_VERSION: Record<StoreKey, number> = {
   library: LIBRARY_SPEC.version,
   recipes: RECIPES_SPEC.version,
   settings: SETTINGS_SPEC.version,
+  workspace: WORKSPACE_SPEC.version,
 };
 
 const rehydrate: Record<StoreKey, () => Promise<void>> = {
   library: () => useLibraryStore.persist.rehydrate(),
   recipes: () => useRecipesStore.persist.rehydrate(),
   settings: () => useSettingsStore.persist.rehydrate(),
+  workspace: () => useWorkspaceStore.persist.rehydrate(),
 };
 
 let started: Promise<void> | null = null;
@@ -257,13 +268,13 @@ let stopWatching: Array<() => void> = [];
  */
 export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
   started ??= (async () => {
-    await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings()]);
+    await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings(), rehydrate.workspace()]);
     // Recipes saved before stock data were recorded: record the library as it is now, once.
     useRecipesStore.getState().recordMissingStockBasis(useLibraryStore.getState().components);
     useLibraryStore.temporal.getState().clear();
     useRecipesStore.temporal.getState().clear();
     const status = useStorageStatus.getState().stores;
-    for (const key of ['library', 'recipes', 'settings'] as const) {
+    for (const key of ['library', 'recipes', 'settings', 'workspace'] as const) {
       if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
     }
     let external = false;

@@ -27,13 +27,14 @@ import {
   type Stamp,
 } from './record-merge';
 
-export type StoreKey = 'library' | 'recipes' | 'settings';
-export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings'];
+export type StoreKey = 'library' | 'recipes' | 'settings' | 'workspace';
+export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings', 'workspace'];
 
 export const STORE_LABEL: Record<StoreKey, string> = {
   library: 'component library',
   recipes: 'recipes',
   settings: 'settings',
+  workspace: 'designer draft and explorer session',
 };
 
 /** Why a stored copy was not used. */
@@ -85,7 +86,12 @@ const initialStoreStatus = (): StoreStatus => ({
 
 /** Status of saved work, for the shell's banners. Not persisted. */
 export const useStorageStatus = create<StorageStatusState>()(() => ({
-  stores: { library: initialStoreStatus(), recipes: initialStoreStatus(), settings: initialStoreStatus() },
+  stores: {
+    library: initialStoreStatus(),
+    recipes: initialStoreStatus(),
+    settings: initialStoreStatus(),
+    workspace: initialStoreStatus(),
+  },
   persistent: 'unknown',
   editsSinceBackup: 0,
   externalChange: null,

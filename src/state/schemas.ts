@@ -10,7 +10,10 @@ import { COMPONENT_CATEGORIES } from '../core/formulation/model';
 import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/formulation/model';
 import type { LinePlanInputs } from './lineplan';
 import {
+  COLLECTION_LIMITS,
   checkCount,
+  checkNumber,
+  checkText,
   linePlanProblems,
   recipeProblems,
   settingsProblems,
@@ -240,6 +243,98 @@ export const recipesDataSchema = z.object({
 });
 /** Persisted slice of the settings store. */
 export const settingsDataSchema = z.object({ settings: settingsSchema });
+
+/** Objectives, as the targets name them. */
+const objectiveSchema = targetsSchema.shape.objective;
+const nullableFinite = finite.nullable();
+const draftLines = list(recipeLineSchema, 'linesPerRecipe').superRefine((lines, ctx) => {
+  for (const l of lines) {
+    const m = checkNumber('massFraction', l.massFraction);
+    if (m) ctx.addIssue({ code: 'custom', message: m });
+  }
+});
+
+/** A candidate of the substitute search as kept in the workspace (further fields kept as they are). */
+const candidateSchema = z.looseObject({
+  key: str,
+  componentIds: z.array(str),
+  lines: draftLines,
+  objectiveValue: finite,
+  costPerLitre: finite,
+  anilinePoint: nullableFinite,
+  kv40: finite,
+  kv100: finite,
+  vi: nullableFinite,
+  density15: finite,
+  oxidationRating: nullableFinite,
+  rank: finite,
+  onFrontier: z.boolean(),
+});
+
+/** A finished substitute search as kept in the workspace (the explorer ranks at most 200 candidates). */
+const searchResultSchema = z.looseObject({
+  evaluated: finite,
+  total: finite,
+  feasible: finite,
+  distinct: finite,
+  done: z.boolean(),
+  objective: objectiveSchema,
+  candidates: z.array(candidateSchema).max(1000),
+  frontier: z.array(candidateSchema).max(COLLECTION_LIMITS.stocks),
+  excludedIds: z.array(str),
+  forcedIds: z.array(str),
+  poolIds: z.array(str),
+  maxComponents: finite,
+  band: z.object({ min: finite, max: finite }),
+});
+
+const scenarioSchema = z.object({
+  referenceId: str,
+  polymerCap: nullableFinite.optional(),
+  minInBandProbability: nullableFinite.optional(),
+  pricingKey: str.optional(),
+  method: z.enum(['refutas', 'astm-d7152', 'd7152-wright']).optional(),
+  referenceCost: nullableFinite.optional(),
+  withdrawn: z.array(str),
+  maxComponents: finite,
+  objective: objectiveSchema,
+});
+
+/** The designer's unsaved draft and the explorer's session (workspace store, see workspace.ts). */
+export const workspaceDataSchema = z.object({
+  designer: z
+    .object({
+      targets: targetsSchema,
+      lines: draftLines,
+      name: str.superRefine((v, ctx) => {
+        const m = checkText('recipeName', v);
+        if (m) ctx.addIssue({ code: 'custom', message: m });
+      }),
+      sourceRecipeId: str.nullable(),
+      basis: z.enum(['mass', 'volume']),
+      rebalanceMode: z.enum(['balance', 'proportional']),
+      balanceId: str.nullable(),
+      dirty: z.boolean(),
+    })
+    .nullable(),
+  explorer: z
+    .object({
+      referenceId: str.nullable(),
+      withdrawn: z.array(str),
+      maxComponents: finite,
+      objective: objectiveSchema,
+      polymerCap: nullableFinite.optional(),
+      // Optional: sessions kept before the explorer asked for a probability in band have none.
+      minInBandProbability: nullableFinite.optional(),
+      result: searchResultSchema.nullable(),
+      resultFor: scenarioSchema.nullable(),
+      resultBasis: str.nullable(),
+      selectedKey: str.nullable(),
+      sort: z.object({ key: str, dir: z.enum(['asc', 'desc']) }),
+      adopted: z.record(str, str),
+    })
+    .nullable(),
+});
 
 // Compile-time checks that the schemas and the domain model agree (each assignable to the other).
 function agree<A, B extends A>(_check?: [A, B]): void {}

@@ -82,4 +82,53 @@ describe('substitute explorer', () => {
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+  it('the reference, withdrawn set, ranked result and a designer constraint survive a reload; a library change marks the result stale (issue 10 item 5)', async () => {
+    const { page } = s;
+    const base = inject('baseURL');
+    // A constraint in the designer (not saved as a recipe).
+    await page.goto(`${base}#/designer`);
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await page.getByLabel(/^Minimum VI/).fill('97');
+    await page.getByLabel(/^Minimum VI/).press('Tab');
+    // A search against another reference than the default one.
+    await page.goto(`${base}#/explorer`);
+    await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
+    const ref = page.getByLabel('Reference recipe (the one to replace)');
+    const vg460 = await ref.locator('option', { hasText: 'VG 460 — current recipe' }).getAttribute('value');
+    await ref.selectOption(vg460!);
+    await page.getByLabel('Treat BW-190 as withdrawn').check();
+    await page.getByRole('button', { name: 'Run search' }).click();
+    const table = page.getByTestId('candidates');
+    await table.waitFor({ timeout: 60_000 });
+    const ranked = await table.locator('tbody tr').allInnerTexts();
+    await expect.poll(async () => JSON.stringify(await stored(page, 'workspace')), { timeout: 5000 }).toContain(vg460!);
+
+    await page.reload();
+    await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
+    await table.waitFor();
+    await expect(ref.inputValue()).resolves.toBe(vg460);
+    await expect(page.getByLabel('Treat BW-190 as withdrawn').isChecked()).resolves.toBe(true);
+    await expect(table.locator('tbody tr').allInnerTexts()).resolves.toEqual(ranked);
+    await page.getByText(/Result restored from your last session/).waitFor();
+    expect(await page.getByTestId('stale-library').count()).toBe(0);
+    await screenshot(page, 'explorer-restored');
+
+    await page.getByRole('link', { name: /Recipe designer/ }).click();
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await expect(page.getByLabel(/^Minimum VI/).inputValue()).resolves.toBe('97.0');
+    await page.getByText(/Restored the draft from your last session/).waitFor();
+
+    // A price changes in the library: the kept result is marked stale and cannot be adopted.
+    await page.getByRole('link', { name: /^Stocks/ }).click();
+    await page.getByPlaceholder('code or name').fill('BW-280');
+    const price = page.getByLabel(/^Price of BW-280/);
+    await price.fill('2400');
+    await price.press('Tab');
+    await page.getByRole('link', { name: /Substitute explorer/ }).click();
+    await page.getByTestId('stale-library').waitFor();
+    await expect(page.getByRole('button', { name: 'Adopt as a new recipe' }).isDisabled()).resolves.toBe(true);
+    await screenshot(page, 'explorer-stale');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
 });

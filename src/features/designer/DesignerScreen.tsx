@@ -70,6 +70,8 @@ export default function DesignerScreen() {
   // Later, a recipe made active elsewhere (e.g. adopted in the explorer) opens unless the draft has unsaved edits.
   const seenActiveId = useDesignerStore((s) => s.seenActiveId);
   useEffect(() => {
+    // After a reload: the draft kept from the last session (targets, limits, objective, lines) comes back.
+    if (!initialised && actions.restoreDraft()) return;
     if (initialised && activeRecipeId === seenActiveId) return;
     actions.setSeenActiveId(activeRecipeId);
     if (initialised && useDesignerStore.getState().dirty) return;

@@ -1,9 +1,12 @@
 /**
- * The designer's working draft: targets, the recipe being edited and the editing habits.
- * In memory only (a session's scratch pad); saving writes a recipe and its targets to the
- * recipes store. Holds inputs; predicted properties are derived on render.
+ * The designer's working draft: targets, the recipe being edited and the editing habits. Saving
+ * writes a recipe and its targets to the recipes store. The draft itself (targets, per-stock limits,
+ * objective, lines, name, habits) is copied to the workspace store whenever it changes, so a reload
+ * restores it (`restoreDraft`). Holds inputs; predicted properties are derived on render.
  */
 import { create } from 'zustand';
+import { useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft } from '../../state';
+import { targetsProblems, checkText, checkNumber } from '../../state/field-rules';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
 
@@ -50,6 +53,13 @@ export interface DesignerState {
   applySolution: (lines: RecipeLine[], message: string) => void;
   setNotice: (notice: SolveNotice | null) => void;
   markSaved: (recipeId: string) => void;
+  /**
+   * Take the draft kept from the last session, if there is one with unsaved edits and this tab has
+   * none yet; lines and limits of stocks no longer in the library are left out (and the note says so).
+   * True if restored. A draft without unsaved edits only hands back the editing habits (false): the
+   * screen then opens the saved recipe as it is now.
+   */
+  restoreDraft: () => boolean;
 }
 
 /** The heaviest base stock in the recipe is the natural balance (it sets the viscosity). */
@@ -161,7 +171,81 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   setNotice: (notice) => set({ notice }),
   markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false, seenActiveId: recipeId }),
   setSeenActiveId: (seenActiveId) => set({ seenActiveId }),
+  restoreDraft: () => {
+    const kept = useWorkspaceStore.getState().designer;
+    if (get().initialised || !kept) return false;
+    // A draft without unsaved edits is its saved recipe: open that recipe as it is now (it may have
+    // changed in another tab since), keeping only the editing habits.
+    const sourceSaved = kept.sourceRecipeId !== null && useRecipes.getState().recipes.some((r) => r.id === kept.sourceRecipeId);
+    if (!kept.dirty && sourceSaved) {
+      set({ basis: kept.basis, rebalanceMode: kept.rebalanceMode });
+      return false;
+    }
+    const known = new Set(useLibrary.getState().components.map((c) => c.id));
+    const lines = kept.lines.filter((l) => known.has(l.componentId));
+    const bounds = Object.fromEntries(Object.entries(kept.targets.bounds).filter(([id]) => known.has(id)));
+    const additive = kept.targets.additive && known.has(kept.targets.additive.componentId) ? kept.targets.additive : null;
+    const dropped = kept.lines.length - lines.length;
+    set({
+      targets: { ...EMPTY_TARGETS, ...structuredClone(kept.targets), bounds, additive },
+      lines: dropped ? normalise(lines) : lines,
+      name: kept.name,
+      sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
+      basis: kept.basis,
+      rebalanceMode: kept.rebalanceMode,
+      balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),
+      dirty: kept.dirty || dropped > 0,
+      notice: null,
+      editNote:
+        'Restored the draft from your last session.' +
+        (dropped ? ` ${dropped} line${dropped > 1 ? 's' : ''} of stocks no longer in the library ${dropped > 1 ? 'were' : 'was'} left out.` : ''),
+      initialised: true,
+      seenActiveId: useRecipes.getState().activeRecipeId,
+    });
+    return true;
+  },
 }));
+
+/** The draft as kept in the workspace store. */
+export function draftOf(s: DesignerState): DesignerDraft {
+  return {
+    targets: s.targets,
+    lines: s.lines,
+    name: s.name,
+    sourceRecipeId: s.sourceRecipeId,
+    basis: s.basis,
+    rebalanceMode: s.rebalanceMode,
+    balanceId: s.balanceId,
+    dirty: s.dirty,
+  };
+}
+
+/** True when the draft can be kept (the field rules accept it), so what is kept can be read back. */
+function keepable(d: DesignerDraft): boolean {
+  return (
+    targetsProblems(d.targets).length === 0 &&
+    checkText('recipeName', d.name) === null &&
+    d.lines.every((l) => checkNumber('massFraction', l.massFraction) === null)
+  );
+}
+
+// Keep the draft in the workspace store whenever a part of it changes.
+useDesignerStore.subscribe((s, p) => {
+  if (!s.initialised) return;
+  const same =
+    s.targets === p.targets &&
+    s.lines === p.lines &&
+    s.name === p.name &&
+    s.sourceRecipeId === p.sourceRecipeId &&
+    s.basis === p.basis &&
+    s.rebalanceMode === p.rebalanceMode &&
+    s.balanceId === p.balanceId &&
+    s.dirty === p.dirty &&
+    s.initialised === p.initialised;
+  if (same) return;
+  const draft = draftOf(s);
+  if (keepable(draft)) useWorkspaceStore.getState().setDesigner(draft);
+});
 
 /** Density lookup over a library [kg/L]; unknown ids fall back to 0.88 so a stale line cannot crash. */
 export function densityLookup(components: readonly Component[]): (id: string) => number {

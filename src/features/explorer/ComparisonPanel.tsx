@@ -216,6 +216,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   settings,
   inBand = null,
   adoptedName,
+  adoptBlocked = null,
   onAdopt,
   polymerCap,
   pricing,
@@ -233,6 +234,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
    */
   inBand?: { reference: { plant: number; iso: number } | null; candidate: InBandOf | null; minimum: number | null } | null;
   adoptedName: string | null;
+  /** Why the candidate cannot be adopted now (a stale result), or null. */
+  adoptBlocked?: string | null;
   onAdopt: () => void;
   /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
   polymerCap: number;
@@ -324,9 +327,14 @@ export const ComparisonPanel = memo(function ComparisonPanel({
       {candAssessed?.deposit && <p className="deposit-note">{explainDeposit(candAssessed.deposit, fmt.settings)}</p>}
       <TradeOffSection key={`${candidate.key}|${settings.blendMethod}`} candidate={candidate} components={components} byId={byId} targets={targets} settings={settings} />
       <div className="adopt-row">
-        <button type="button" className="primary" onClick={onAdopt} disabled={adoptedName !== null}>
+        <button type="button" className="primary" onClick={onAdopt} disabled={adoptedName !== null || adoptBlocked !== null} aria-describedby={adoptBlocked && !adoptedName ? 'adopt-blocked' : undefined}>
           {adoptedName ? 'Adopted' : 'Adopt as a new recipe'}
         </button>
+        {adoptBlocked && !adoptedName && (
+          <p id="adopt-blocked" className="muted">
+            {adoptBlocked}
+          </p>
+        )}
         {adoptedName && (
           <p role="status" data-testid="adopted">
             Saved as “{adoptedName}”. <a href="#/designer">Open it in the recipe designer</a> to fine-tune it, or print its blend sheet.

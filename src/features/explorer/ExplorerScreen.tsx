@@ -12,7 +12,7 @@ import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-ba
 import { StockChangeList } from '../../components/recipe-status';
 import { prewarmSearchWorkers, releaseSearchWorkers, startSearch, type SearchHandle } from './search-client';
 import { useShallow } from 'zustand/react/shallow';
-import { useExplorerStore, type ExplorerState, type Scenario } from './store';
+import { resultBasis, useExplorerStore, type ExplorerState, type Scenario } from './store';
 import { CandidateTable, polymerShare } from './CandidateTable';
 import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
@@ -80,9 +80,13 @@ export default function ExplorerScreen() {
     return releaseSearchWorkers;
   }, []);
 
-  // Default reference: the active recipe if it is a reference, else the first reference recipe.
+  // First visit after a start: the session kept from the last visit (reference, withdrawn set, ranked
+  // result) comes back; the screen only renders once saved work is read. Then, when there is no
+  // reference (or it was deleted): the active recipe if it is a reference, else the first reference recipe.
   useEffect(() => {
-    if (st.referenceId && recipes.some((r) => r.id === st.referenceId)) return;
+    useExplorerStore.getState().restoreSession();
+    const current = useExplorerStore.getState().referenceId;
+    if (current && recipes.some((r) => r.id === current)) return;
     const active = recipes.find((r) => r.id === activeRecipeId && r.isReference);
     const first = active ?? recipes.find((r) => r.isReference) ?? recipes[0];
     useExplorerStore.getState().setReference(first?.id ?? null);
@@ -112,6 +116,17 @@ export default function ExplorerScreen() {
   // The reference's cost only in the base currency (a stock without a rate leaves it not costed).
   const refCost = refAssessed && refAssessed.props.currency === priced.base ? refAssessed.props.costPerLitre : null;
 
+  // What a result is computed from: the stocks searched, the reference recipe and its saved targets, the
+  // blending rule. A result whose fingerprint differs (the library or that recipe changed since) is
+  // marked stale, never shown as current. The scenario's own choices (objective, cap, withdrawn set) are
+  // compared separately (`stale` below).
+  const resultRef = st.resultFor ? (recipes.find((r) => r.id === st.resultFor?.referenceId) ?? null) : null;
+  const resultRefTargets = resultRef ? storedTargets[resultRef.id] : undefined;
+  const basisNow = useMemo(
+    () => (st.result ? resultBasis(solvableLibrary(priced), resultRef, resultRefTargets, settings.blendMethod) : null),
+    [st.result, priced, resultRef, resultRefTargets, settings.blendMethod],
+  );
+  const libraryStale = Boolean(st.result && st.resultBasis && basisNow !== st.resultBasis);
   const candidates = st.result?.candidates ?? [];
   // Probability in the plant band (the search's band) and the ISO band of every candidate and of the
   // reference; with a minimum probability, the recipe of the same stocks without it (the premium).
@@ -141,10 +156,11 @@ export default function ExplorerScreen() {
       method: settings.blendMethod,
     };
     const s = useExplorerStore.getState();
-    s.started(scenario);
+    const searched = solvableLibrary(priced);
+    s.started(scenario, resultBasis(searched, reference, storedForRef, settings.blendMethod));
     const handle = startSearch(
       {
-        components: solvableLibrary(priced),
+        components: searched,
         targets,
         reference,
         withdrawn: scenario.withdrawn,
@@ -229,7 +245,18 @@ export default function ExplorerScreen() {
         </Notice>
       )}
       <RunStatusView />
-      {stale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
+      {st.fromLastSession && st.result && !libraryStale && (
+        <p className="muted" role="status">
+          Result restored from your last session; the library, targets and blending rule are unchanged since it was computed.
+        </p>
+      )}
+      {libraryStale && (
+        <p className="stale" role="status" data-testid="stale-library">
+          Stale result: the library, the reference recipe’s targets or the blending rule changed since it was computed
+          {st.fromLastSession ? ' (restored from your last session)' : ''}. It does not show what the search gives now: run the search again.
+        </p>
+      )}
+      {stale && !libraryStale && <p className="stale" role="status">The settings changed since this result was computed: run the search again to update it.</p>}
       {pricesChanged && (
         <p className="stale" role="status" data-testid="prices-changed">
           Prices or exchange rates changed since this search: the table’s costs and differences are at the prices the search ran with —
@@ -276,6 +303,7 @@ export default function ExplorerScreen() {
                   settings={settings}
                   inBand={{ reference: refInBand, candidate: inBand.get(selected.key) ?? null, minimum: st.resultFor?.minInBandProbability ?? null }}
                   adoptedName={adoptedRecipe?.name ?? null}
+                  adoptBlocked={libraryStale || stale ? 'This result is stale: run the search again before adopting a candidate.' : null}
                   onAdopt={() => adopt(selected)}
                   polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
                   pricing={{
@@ -321,6 +349,8 @@ function screenState(s: ExplorerState) {
     resultFor: s.resultFor,
     selectedKey: s.selectedKey,
     adopted: s.adopted,
+    resultBasis: s.resultBasis,
+    fromLastSession: s.fromLastSession,
     toggleWithdrawn: s.toggleWithdrawn,
     setReference: s.setReference,
     setMaxComponents: s.setMaxComponents,

@@ -8,7 +8,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
-import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
+import { resetDemo, settingsActions, useLibrary, useWorkspaceStore } from '../../../src/state';
 
 const costCell = (code: string) => {
   const row = screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
@@ -23,6 +23,7 @@ beforeEach(() => {
   const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
   useLibrary.getState().updateComponent(c.id, { price: { ...c.price, currency: 'USD' } });
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional', notice: null });
+  useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
 });
 afterEach(cleanup);
 

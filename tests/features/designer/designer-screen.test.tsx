@@ -4,7 +4,7 @@ import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
-import { resetDemo, settingsActions, useRecipes } from '../../../src/state';
+import { resetDemo, settingsActions, useRecipes, useWorkspaceStore } from '../../../src/state';
 
 function lineRow(code: string): HTMLElement {
   return screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
@@ -14,6 +14,7 @@ const num = (t: string | null) => Number((t ?? '').replace(/[^\d.−-]/g, '').re
 beforeEach(() => {
   resetDemo();
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
+  useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
 });
 afterEach(cleanup);
 beforeAll(async () => {

@@ -9,7 +9,7 @@ import { predictRecipe } from '../../../src/features/designer/predict';
 import { shearRow } from '../../../src/features/designer/PropertiesPanel';
 import { makeFormatter } from '../../../src/components/format';
 import { blendAfterShear, SHEAR_ASSUMPTION } from '../../../src/core/formulation/shear-blend';
-import { recipeActions, resetDemo, useSettingsState } from '../../../src/state';
+import { recipeActions, resetDemo, useSettingsState, useWorkspaceStore } from '../../../src/state';
 import { demoComponents, demoRecipes, demoTargets } from '../../../src/state/demo';
 
 const components = demoComponents();
@@ -60,6 +60,7 @@ describe('designer: In grade after shear row', () => {
   beforeEach(() => {
     resetDemo();
     useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
+    useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
   });
   afterEach(cleanup);
 

@@ -1,0 +1,118 @@
+/**
+ * Workspace store (issue 10 item 5): the designer's unsaved draft (targets, per-stock limits,
+ * objective, lines, name, editing habits) and the explorer's session (reference recipe, withdrawn set,
+ * combination size, ranking, polymer cap, the ranked candidates with the scenario they belong to, the
+ * selection and adopted candidates), kept in IndexedDB so a reload restores them. Schema-versioned and
+ * validated like the other stores; not merged across tabs (each tab's scratch pad; the last one saved
+ * is what a reload restores) and not part of backups.
+ *
+ * The feature stores own these values while a screen is open; they copy them here when they change
+ * and read them back once at the first visit after a start. An explorer result carries the
+ * fingerprint of what it was computed from (library, targets, blending rule): when the library or
+ * targets have changed since, the explorer marks it stale instead of showing it as current.
+ */
+import { create } from 'zustand';
+import { persist } from 'zustand/middleware';
+import type { BlendTargets, Objective, RecipeLine } from '../core/formulation/model';
+import type { SubstituteSearchResult } from '../core/search/substitutes';
+import { idbPersistStorage, type StoreSpec } from './persistence';
+import { workspaceDataSchema } from './schemas';
+
+/** The designer's draft as kept between visits. */
+export interface DesignerDraft {
+  targets: BlendTargets;
+  lines: RecipeLine[];
+  name: string;
+  /** The saved recipe the draft came from (null for a new draft). */
+  sourceRecipeId: string | null;
+  basis: 'mass' | 'volume';
+  rebalanceMode: 'balance' | 'proportional';
+  balanceId: string | null;
+  /** Lines or targets changed since the draft was loaded or saved. */
+  dirty: boolean;
+}
+
+/** The scenario a search ran with. */
+export interface ExplorerScenario {
+  referenceId: string;
+  polymerCap?: number | null | undefined;
+  minInBandProbability?: number | null | undefined;
+  /** The prices the search ran with (see the explorer's store). */
+  pricingKey?: string | undefined;
+  /** The blend-viscosity method the search ran with. */
+  method?: 'refutas' | 'astm-d7152' | 'd7152-wright' | undefined;
+  referenceCost?: number | null | undefined;
+  withdrawn: string[];
+  maxComponents: number;
+  objective: Objective;
+}
+
+/** The explorer's session as kept between visits. */
+export interface ExplorerSession {
+  referenceId: string | null;
+  withdrawn: string[];
+  maxComponents: number;
+  objective: Objective;
+  /** null → no cap; undefined → the reference recipe's own cap (see the explorer). */
+  polymerCap: number | null | undefined;
+  /** Least probability in the plant band (0–1); null → none; undefined → the reference recipe's own. */
+  minInBandProbability?: number | null | undefined;
+  result: SubstituteSearchResult | null;
+  resultFor: ExplorerScenario | null;
+  /** Fingerprint of the library, targets and blending rule the result was computed from. */
+  resultBasis: string | null;
+  selectedKey: string | null;
+  sort: { key: string; dir: 'asc' | 'desc' };
+  adopted: Record<string, string>;
+}
+
+export interface WorkspaceData {
+  designer: DesignerDraft | null;
+  explorer: ExplorerSession | null;
+}
+
+export interface WorkspaceState extends WorkspaceData {
+  setDesigner: (draft: DesignerDraft | null) => void;
+  setExplorer: (session: ExplorerSession | null) => void;
+}
+
+export const WORKSPACE_SPEC: StoreSpec<WorkspaceData> = {
+  key: 'workspace',
+  version: 1,
+  schema: workspaceDataSchema as unknown as StoreSpec<WorkspaceData>['schema'],
+  migrations: {},
+  crossTab: false,
+};
+
+export const useWorkspaceStore = create<WorkspaceState>()(
+  persist(
+    (set) => ({
+      designer: null,
+      explorer: null,
+      setDesigner: (designer) => set({ designer }),
+      setExplorer: (explorer) => set({ explorer }),
+    }),
+    {
+      name: 'workspace',
+      version: WORKSPACE_SPEC.version,
+      storage: idbPersistStorage(WORKSPACE_SPEC),
+      partialize: (s): WorkspaceData => ({ designer: s.designer, explorer: s.explorer }),
+      skipHydration: true,
+    },
+  ),
+);
+
+/**
+ * A short fingerprint of any JSON-serialisable value (FNV-1a, 32 bits, over its JSON text, with the
+ * text length): equal inputs give equal fingerprints; a change almost surely changes it. Used to tell
+ * whether an explorer result was computed from the library and targets now in force.
+ */
+export function fingerprint(value: unknown): string {
+  const text = JSON.stringify(value) ?? '';
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return `${text.length.toString(36)}-${h.toString(36)}`;
+}

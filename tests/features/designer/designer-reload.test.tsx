@@ -1,0 +1,88 @@
+// @vitest-environment jsdom
+// Issue 10 item 5: the designer's constraints (targets, per-stock limits, objective, robust
+// probability) and unsaved lines survive a reload. A "reload" is a fresh instance of every module
+// over the same IndexedDB (fake-indexeddb).
+import 'fake-indexeddb/auto';
+import { IDBFactory } from 'fake-indexeddb';
+import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { act, cleanup, render, screen } from '@testing-library/react';
+
+type StateModule = typeof import('../../../src/state');
+let previous: StateModule | null = null;
+
+/** Start the app's modules afresh (as a reload does) and open the designer. */
+async function reload() {
+  cleanup();
+  previous?.resetStartForTests();
+  vi.resetModules();
+  const state = await import('../../../src/state');
+  const persistence = await import('../../../src/state/persistence');
+  const { useDesignerStore } = await import('../../../src/features/designer/store');
+  const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
+  previous = state;
+  await state.startSavedWork({ requestPersistence: false });
+  render(<DesignerScreen />);
+  return { state, persistence, designer: useDesignerStore };
+}
+
+beforeAll(() => {
+  globalThis.indexedDB = new IDBFactory();
+});
+afterEach(cleanup);
+
+describe('Designer draft across a reload', () => {
+  it('keeps targets, per-stock limits, objective, robust probability and the edited lines', async () => {
+    const first = await reload();
+    const d = first.designer;
+    expect(d.getState().initialised).toBe(true);
+    const bwId = first.state.useLibrary.getState().components.find((c) => c.code === 'BW-160')!.id;
+    act(() => {
+      d.getState().setTargets({ objective: 'solvency', minVi: 95, maxPourPoint: -12, minInBandProbability: 0.9, tolerancePct: 4 });
+      d.getState().setBound(bwId, { max: 0.3 });
+      d.getState().setName('Trial with less heavy neutral');
+      d.getState().setBasis('volume');
+    });
+    const lines = d.getState().lines;
+    await first.persistence.whenSaved();
+
+    const second = await reload();
+    const t = second.designer.getState().targets;
+    expect(t.objective).toBe('solvency');
+    expect(t.minVi).toBe(95);
+    expect(t.maxPourPoint).toBe(-12);
+    expect(t.minInBandProbability).toBe(0.9);
+    expect(t.tolerancePct).toBe(4);
+    expect(t.bounds[bwId]).toEqual({ max: 0.3 });
+    expect(second.designer.getState().lines).toEqual(lines);
+    expect(second.designer.getState().name).toBe('Trial with less heavy neutral');
+    expect(second.designer.getState().basis).toBe('volume');
+    expect(second.designer.getState().dirty).toBe(true);
+    expect(screen.getByText(/Restored the draft from your last session/)).toBeTruthy();
+  });
+
+  it('a draft without unsaved edits opens its recipe as saved now; a deleted stock’s line is left out and said so', async () => {
+    // Save the draft (no unsaved edits), then change the recipe's saved name in "another session".
+    const a = await reload();
+    const srcId = a.designer.getState().sourceRecipeId!;
+    act(() => a.designer.getState().markSaved(srcId));
+    await a.persistence.whenSaved();
+    expect(a.state.useWorkspaceStore.getState().designer?.dirty).toBe(false);
+    act(() => void a.state.recipeActions.renameRecipe(srcId, 'Renamed elsewhere'));
+    await a.persistence.whenSaved();
+    const b = await reload();
+    expect(b.designer.getState().name).toBe('Renamed elsewhere');
+    expect(screen.queryByText(/Restored the draft/)).toBeNull();
+
+    // A dirty draft using a stock deleted since: that line is left out, the rest is renormalised.
+    const extra = b.state.useLibrary.getState().components.find((c) => c.code === 'BW-240')!.id;
+    act(() => b.designer.getState().addComponent(extra));
+    await b.persistence.whenSaved();
+    act(() => b.state.useLibrary.getState().removeComponent(extra));
+    await b.persistence.whenSaved();
+    const c = await reload();
+    expect(c.designer.getState().lines.some((l) => l.componentId === extra)).toBe(false);
+    const sum = c.designer.getState().lines.reduce((s, l) => s + l.massFraction, 0);
+    expect(sum).toBeCloseTo(1, 9); // shares sum to 100 % (common practice, no source)
+    expect(screen.getByText(/1 line of stocks no longer in the library was left out/)).toBeTruthy();
+  });
+});
