@@ -115,7 +115,7 @@ describe('substitute explorer', () => {
 
     await page.getByRole('link', { name: /Recipe designer/ }).click();
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
-    await expect(page.getByLabel(/^Minimum VI/).inputValue()).resolves.toBe('97.0');
+    await expect(page.getByLabel(/^Minimum VI/).inputValue()).resolves.toBe('97');
     await page.getByText(/Restored the draft from your last session/).waitFor();
 
     // A price changes in the library: the kept result is marked stale and cannot be adopted.

@@ -70,14 +70,17 @@ export default function DesignerScreen() {
   // Later, a recipe made active elsewhere (e.g. adopted in the explorer) opens unless the draft has unsaved edits.
   const seenActiveId = useDesignerStore((s) => s.seenActiveId);
   useEffect(() => {
+    // The store as it is now, not as rendered: an effect run twice (React's strict mode) must not
+    // open the active recipe over a draft the first run restored.
+    const now = useDesignerStore.getState();
     // After a reload: the draft kept from the last session (targets, limits, objective, lines) comes back.
-    if (!initialised && actions.restoreDraft()) return;
-    if (initialised && activeRecipeId === seenActiveId) return;
+    if (!now.initialised && actions.restoreDraft()) return;
+    if (now.initialised && activeRecipeId === now.seenActiveId) return;
     actions.setSeenActiveId(activeRecipeId);
-    if (initialised && useDesignerStore.getState().dirty) return;
-    const start = recipes.find((r) => r.id === activeRecipeId) ?? (initialised ? undefined : (recipes.find((r) => r.isReference) ?? recipes[0]));
+    if (now.initialised && now.dirty) return;
+    const start = recipes.find((r) => r.id === activeRecipeId) ?? (now.initialised ? undefined : (recipes.find((r) => r.isReference) ?? recipes[0]));
     if (start) actions.load(start, targetsFor(start, storedTargets[start.id], additiveId));
-    else if (!initialised) actions.startBlank(defaultTargets(320, additiveId, null));
+    else if (!now.initialised) actions.startBlank(defaultTargets(320, additiveId, null));
   }, [initialised, seenActiveId, recipes, activeRecipeId, storedTargets, additiveId, actions]);
 
   const density = useMemo(() => densityLookup(components), [components]);

@@ -4,6 +4,7 @@
 // over the same IndexedDB (fake-indexeddb).
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
+import { StrictMode } from 'react';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { act, cleanup, render, screen } from '@testing-library/react';
 
@@ -21,7 +22,11 @@ async function reload() {
   const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
   previous = state;
   await state.startSavedWork({ requestPersistence: false });
-  render(<DesignerScreen />);
+  render(
+    <StrictMode>
+      <DesignerScreen />
+    </StrictMode>,
+  ); // as main.tsx renders the app: effects run twice
   return { state, persistence, designer: useDesignerStore };
 }
 

@@ -5,6 +5,7 @@
 // same IndexedDB (fake-indexeddb).
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
+import { StrictMode } from 'react';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { act, cleanup, fireEvent, render, screen, waitFor } from '@testing-library/react';
 
@@ -24,7 +25,11 @@ async function reload() {
   previous = state;
   setWorkerFactory(inThreadWorker());
   await state.startSavedWork({ requestPersistence: false });
-  render(<ExplorerScreen />);
+  render(
+    <StrictMode>
+      <ExplorerScreen />
+    </StrictMode>,
+  ); // as main.tsx renders the app: effects run twice
   return { state, persistence, explorer: useExplorerStore };
 }
 
