@@ -6,6 +6,7 @@
  */
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import { useFormat } from './format';
+import { checkText, type TextRuleKey } from '../state/field-rules';
 
 export interface Verdict {
   /** Blocks the commit; says exactly what is wrong. */
@@ -147,6 +148,14 @@ export interface TextFieldProps extends CommonProps {
   value: string;
   onCommit: (v: string) => void;
   validate?: (v: string) => Verdict;
+  /**
+   * The stored field's rule (field-rules.ts): its length and characters are checked as typed, with the
+   * rule's own message, before `validate`. No `maxLength` then: a pasted over-long text is refused with
+   * its message, never cut short silently.
+   */
+  rule?: TextRuleKey;
+  /** Trim the value before the rule checks it (for fields whose commit trims). */
+  trimForRule?: boolean;
   multiline?: boolean;
   maxLength?: number;
   placeholder?: string;
@@ -162,11 +171,15 @@ export function TextField(props: TextFieldProps) {
   useEffect(() => {
     if (!dirty) setDraft(props.value);
   }, [props.value, dirty]);
-  const verdict = props.validate?.(dirty ? draft : props.value) ?? {};
+  const judge = (v: string): Verdict => {
+    const ruled = props.rule ? checkText(props.rule, props.trimForRule ? v.trim() : v) : null;
+    return ruled ? { error: ruled } : (props.validate?.(v) ?? {});
+  };
+  const verdict = judge(dirty ? draft : props.value);
   /** Enter (single line) and leaving the field both come here: same checks, same save. */
   const commit = (): boolean => {
     if (!dirty) return true;
-    if (props.validate?.(draft).error) return false;
+    if (judge(draft).error) return false;
     setDirty(false);
     if (draft !== props.value) props.onCommit(draft);
     return true;
@@ -179,7 +192,7 @@ export function TextField(props: TextFieldProps) {
     id,
     value: draft,
     disabled: props.disabled,
-    maxLength: props.maxLength,
+    maxLength: props.rule ? undefined : props.maxLength,
     placeholder: props.placeholder,
     title: props.fullTitle && draft ? draft : undefined,
     'aria-invalid': verdict.error ? true : undefined,

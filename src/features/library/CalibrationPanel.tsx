@@ -2,6 +2,7 @@
 // the stored calibration's provenance, and the form that solves a new one with the core.
 import { useId, useMemo, useState } from 'react';
 import { userMessage } from '../../state/messages';
+import { checkText } from '../../state/field-rules';
 import type { StockUpdateOutcome } from './ImpactConfirm';
 import type { Calibration, Component, Recipe } from '../../core/formulation/model';
 import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/formulation/calibration';
@@ -159,7 +160,8 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
   const solve = () => {
     const parsed = lines.map((l) => ({ componentId: l.componentId, pct: fmt.parse(l.pct) }));
     const measured = { kv40: fmt.parse(kv40), kv100: fmt.parse(kv100) };
-    const problems = checkTrial(c, parsed, measured, components, fmt.say);
+    const labProblem = checkText('labReference', labRef.trim());
+    const problems = [...checkTrial(c, parsed, measured, components, fmt.say), ...(labProblem ? [labProblem] : [])];
     if (problems.length) {
       setErrors(problems);
       setResult(null);
@@ -339,7 +341,7 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
             </label>
             <label className="field">
               <span className="field-label">Lab reference (sample or report no.)</span>
-              <input size={16} maxLength={120} value={labRef} onChange={(e) => edit(() => setLabRef(e.target.value))} />
+              <input size={16} value={labRef} onChange={(e) => edit(() => setLabRef(e.target.value))} />
             </label>
             <label className="field">
               <span className="field-label">Blending rule</span>

@@ -65,7 +65,8 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
         <TextField
           label="Currency"
           size={5}
-          maxLength={12}
+          rule="currency"
+          trimForRule
           value={c.price.currency}
           validate={(v) => ({ error: v.trim() ? undefined : 'name the currency (e.g. EUR)' })}
           onCommit={(currency) => onUpdate(c.id, { price: { ...c.price, currency: currency.trim() } })}
@@ -224,7 +225,7 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
       />
       <fieldset className="wide">
         <legend>Provenance</legend>
-        <TextField label="Source" size={36} maxLength={300} value={c.source} onCommit={(v) => onUpdate(c.id, { source: v })} />
+        <TextField label="Source" size={36} rule="source" value={c.source} onCommit={(v) => onUpdate(c.id, { source: v })} />
         <TextField
           label="Date of data (YYYY-MM-DD)"
           size={11}
@@ -233,7 +234,7 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           validate={(v) => ({ error: v === '' || /^\d{4}-\d{2}-\d{2}$/.test(v) ? undefined : 'use the form 2025-03-01' })}
           onCommit={(v) => onUpdate(c.id, { sourceDate: v })}
         />
-        <TextField label="Notes" multiline maxLength={2000} value={c.notes} onCommit={(v) => onUpdate(c.id, { notes: v })} />
+        <TextField label="Notes" multiline rule="stockNotes" value={c.notes} onCommit={(v) => onUpdate(c.id, { notes: v })} />
         <p className="muted small">{usedIn.length ? `Used in: ${usedIn.join('; ')}.` : 'Not used in any recipe.'}</p>
       </fieldset>
     </div>

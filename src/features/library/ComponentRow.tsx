@@ -78,7 +78,6 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={7}
           fullTitle
-          maxLength={40}
           value={c.code}
           validate={(v) => ({ error: checkLabelText('stock code', v) ?? codeError(v, c.id) })}
           onCommit={(v) => onUpdate(c.id, { code: v.trim() })}
@@ -90,7 +89,6 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           size={16}
           fullTitle
-          maxLength={200}
           value={c.name}
           validate={(v) => ({ error: checkLabelText('name', v) })}
           onCommit={(v) => onUpdate(c.id, { name: v.trim() })}

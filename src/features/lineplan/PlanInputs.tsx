@@ -5,7 +5,7 @@ import type { Component, Recipe } from '../../core/formulation/model';
 import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { linePlanActions, type LinePlanInputs } from '../../state';
-import { NUMBER_RULES, TEXT_RULES, checkText } from '../../state/field-rules';
+import { NUMBER_RULES, checkText } from '../../state/field-rules';
 import { limitedStocks, plannedDemands } from './derive';
 
 /** kg per unit the user types in. */
@@ -74,7 +74,6 @@ export function PlanInputs({
             value={plan.period}
             placeholder="e.g. 2026"
             size={12}
-            maxLength={TEXT_RULES.planPeriod.max}
             validate={(v) => ({ error: checkText('planPeriod', v) ?? undefined })}
             onCommit={(v) => linePlanActions.setPeriod(v)}
             disabled={disabled}

@@ -11,6 +11,7 @@ import { NumberField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { userMessage } from '../../state/messages';
+import { checkText } from '../../state/field-rules';
 import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
 
@@ -206,7 +207,8 @@ function RecipeDetail({
       <TextField
         label="Name"
         size={48}
-        maxLength={200}
+        rule="recipeName"
+        trimForRule
         value={recipe.name}
         validate={(v) => ({ error: v.trim() ? undefined : 'a recipe needs a name' })}
         onCommit={(v) => recipeActions.renameRecipe(recipe.id, v.trim())}
@@ -372,6 +374,7 @@ function SpecificationForm({
   const set = (patch: Partial<ReleaseSpecification>) => setSpec((s) => ({ ...s, ...patch }));
   const pairError = (lo: number | null, hi: number | null, what: string) =>
     lo !== null && hi !== null && lo > hi ? `the minimum ${what} is above the maximum` : undefined;
+  const reasonProblem = checkText('reasonForChange', reason.trim());
   const errors = [pairError(spec.kv100Min, spec.kv100Max, 'ν100'), pairError(spec.density15Min, spec.density15Max, 'density')].filter(Boolean);
   const tempField = (label: string, key: 'flashMin' | 'pourMax') => (
     <NumberField
@@ -390,7 +393,7 @@ function SpecificationForm({
         Limits printed in the blend sheet&rsquo;s QC table; a blank one prints “Per specification”. ν40 is set by the grade (ISO 3448) and the plant aim.
         Predictions are shown beside the limits for information only.
       </p>
-      <TextField label="Specification reference" size={36} maxLength={120} value={spec.reference} onCommit={(v) => set({ reference: v })} />
+      <TextField label="Specification reference" size={36} rule="specReference" value={spec.reference} onCommit={(v) => set({ reference: v })} />
       <div>
         <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={positive} onCommit={(v) => set({ kv100Min: v })} />
         <NumberField label="ν100 maximum" unit="mm²/s" allowEmpty value={spec.kv100Max} validate={positive} onCommit={(v) => set({ kv100Max: v })} />
@@ -409,8 +412,8 @@ function SpecificationForm({
         {tempField('Pour point maximum', 'pourMax')}
       </div>
       <div>
-        <TextField label="Copper strip corrosion (ASTM D130)" size={16} maxLength={60} value={spec.copper} placeholder="e.g. 1b max" onCommit={(v) => set({ copper: v })} />
-        <TextField label="Foaming (ASTM D892)" size={24} maxLength={60} value={spec.foam} onCommit={(v) => set({ foam: v })} />
+        <TextField label="Copper strip corrosion (ASTM D130)" size={16} rule="specText" value={spec.copper} placeholder="e.g. 1b max" onCommit={(v) => set({ copper: v })} />
+        <TextField label="Foaming (ASTM D892)" size={24} rule="specText" value={spec.foam} onCommit={(v) => set({ foam: v })} />
       </div>
       {errors.length > 0 && (
         <p className="field-error" role="alert">
@@ -420,13 +423,26 @@ function SpecificationForm({
       {changed && revising && (
         <p>
           <label htmlFor={`${id}-reason`}>Reason for change (required: an approved recipe is never overwritten)</label>{' '}
-          <input id={`${id}-reason`} type="text" size={40} maxLength={1000} value={reason} onChange={(e) => setReason(e.target.value)} />
+          <input
+            id={`${id}-reason`}
+            type="text"
+            size={40}
+            value={reason}
+            aria-invalid={reasonProblem ? true : undefined}
+            aria-describedby={reasonProblem ? `${id}-reason-msg` : undefined}
+            onChange={(e) => setReason(e.target.value)}
+          />
+          {reasonProblem && (
+            <span id={`${id}-reason-msg`} className="field-msg field-error" role="alert">
+              {reasonProblem}
+            </span>
+          )}
         </p>
       )}
       <div className="button-row">
         <button
           type="button"
-          disabled={!changed || errors.length > 0 || (revising && !reason.trim())}
+          disabled={!changed || errors.length > 0 || reasonProblem !== null || (revising && !reason.trim())}
           onClick={() => {
             const savedId = recipeActions.saveChanges(recipe.id, { specification: spec }, reason.trim() || recipe.reasonForChange);
             setReason('');

@@ -138,7 +138,6 @@ function ExchangeRates() {
       <TextField
         label="Base currency (code)"
         size={6}
-        maxLength={12}
         value={s.baseCurrency}
         validate={(v) => ({ error: checkText('baseCurrency', normaliseCurrency(v)) ?? baseChangeProblem(s, { baseCurrency: v }) ?? undefined })}
         onCommit={(v) => {
@@ -215,7 +214,7 @@ function ExchangeRates() {
       >
         <label className="inline-field">
           Currency
-          <input size={6} maxLength={12} value={adding.currency} onChange={(e) => setAdding({ ...adding, currency: e.target.value })} />
+          <input size={6} value={adding.currency} onChange={(e) => setAdding({ ...adding, currency: e.target.value })} />
         </label>
         <label className="inline-field">
           {base} per unit
@@ -269,7 +268,8 @@ export default function SettingsScreen() {
           <TextField
             label="Currency symbol"
             size={4}
-            maxLength={8}
+            rule="currencySymbol"
+            trimForRule
             value={s.currencySymbol}
             validate={(v) => ({ error: v.trim() ? undefined : 'enter a symbol or code, e.g. € or EUR' })}
             onCommit={(currencySymbol) => update({ currencySymbol: currencySymbol.trim() })}
@@ -300,7 +300,7 @@ export default function SettingsScreen() {
           <TextField
             label="Company or plant name (printed on the blend sheet)"
             size={34}
-            maxLength={200}
+            rule="companyName"
             value={s.companyName}
             onCommit={(companyName) => update({ companyName })}
           />

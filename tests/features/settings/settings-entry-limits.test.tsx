@@ -1,0 +1,44 @@
+// @vitest-environment jsdom
+// Issue 10 item 1: over-long text in Settings (company name, currency symbol, an exchange rate's
+// currency) is refused where it is entered with the stored field's limit; the settings are unchanged.
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import SettingsScreen from '../../../src/features/settings/SettingsScreen';
+import { resetDemo, settingsActions, useSettingsState } from '../../../src/state';
+import { TEXT_RULES } from '../../../src/state/field-rules';
+
+function paste(el: HTMLElement, text: string) {
+  fireEvent.focus(el);
+  fireEvent.change(el, { target: { value: text } });
+  fireEvent.blur(el);
+}
+
+beforeEach(() => {
+  resetDemo();
+  settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.', exchangeRates: [] });
+});
+afterEach(cleanup);
+
+describe('Settings: text limits at entry', () => {
+  it('refuses a 5,000-character company name and an over-long currency symbol; nothing is stored', () => {
+    render(<SettingsScreen />);
+    const before = structuredClone(useSettingsState.getState().settings);
+    const company = screen.getByLabelText('Company or plant name (printed on the blend sheet)') as HTMLInputElement;
+    expect(company.maxLength).toBe(-1);
+    paste(company, 'c'.repeat(5000));
+    expect(screen.getByText(`The company name is 5000 characters long; at most ${TEXT_RULES.companyName.max} can be saved`)).toBeTruthy();
+    paste(screen.getByLabelText('Currency symbol'), '€€€€€€€€€€');
+    expect(screen.getByText(/currency symbol is 10 characters long; at most 8/)).toBeTruthy();
+    expect(useSettingsState.getState().settings).toEqual(before);
+  });
+
+  it('an exchange rate with an over-long currency is refused when added, with the rule’s limit', () => {
+    render(<SettingsScreen />);
+    const form = screen.getByRole('form', { name: 'Add an exchange rate' });
+    fireEvent.change(within(form).getByLabelText('Currency'), { target: { value: 'USDOLLARSANDMORE' } });
+    fireEvent.change(within(form).getByLabelText(/per unit/), { target: { value: '0.9' } });
+    fireEvent.submit(form);
+    expect(screen.getByText(/currency of the rate is 16 characters long; at most 12/)).toBeTruthy();
+    expect(useSettingsState.getState().settings.exchangeRates).toEqual([]);
+  });
+});
