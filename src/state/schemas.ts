@@ -246,7 +246,6 @@ export const settingsDataSchema = z.object({ settings: settingsSchema });
 
 /** Objectives, as the targets name them. */
 const objectiveSchema = targetsSchema.shape.objective;
-const nullableFinite = finite.nullable();
 const draftLines = list(recipeLineSchema, 'linesPerRecipe').superRefine((lines, ctx) => {
   for (const l of lines) {
     const m = checkNumber('massFraction', l.massFraction);
