@@ -192,14 +192,16 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
   version: 8,
   schema: (m) => m.recipesDataSchema,
-  // Each recipe, each recipe's targets, blend sheet and QC entries, and the line plan are records of
-  // their own when tabs merge their saves; the active recipe belongs to the tab.
+  // Each recipe, each recipe's targets, blend sheet and QC entries, and each entry of the line plan
+  // (period, unit, tank limit, a grade's demand, a stock's supply or least use) are records of their
+  // own when tabs merge their saves; the active recipe belongs to the tab.
   layout: {
     lists: { recipes: 'id' },
     maps: ['targets', 'sheets', 'qc'],
+    parts: { linePlan: ['demands', 'supplies', 'keep'] },
     local: ['activeRecipeId'],
     label: (key, v) => {
-      const [field, id] = key.split('/') as [string, string | undefined];
+      const [field, id, entry] = key.split('/') as [string, string | undefined, string | undefined];
       const nameOf = (rid: string) => {
         const r = useRecipesStore.getState().recipes.find((x) => x.id === rid);
         return r ? recipeWho(r.name) : 'a deleted recipe';
@@ -208,6 +210,10 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
       if (field === 'targets' && id) return `the targets of ${nameOf(id)}`;
       if (field === 'sheets' && id) return `the blend sheet of ${nameOf(id)}`;
       if (field === 'qc' && id) return `the QC entries of ${nameOf(id)}`;
+      if (field === 'linePlan' && id === 'demands' && entry !== undefined) return `the line plan’s demand of ${nameOf(entry)}`;
+      if (field === 'linePlan' && id === 'supplies') return 'the line plan’s supply of a limited stock';
+      if (field === 'linePlan' && id === 'keep') return 'the line plan’s least use of a stock';
+      if (field === 'linePlan' && id === 'period') return 'the line plan’s period';
       if (field === 'linePlan') return 'the line plan';
       return field;
     },

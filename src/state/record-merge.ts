@@ -14,12 +14,16 @@
  * - `lists`: array fields whose items have an id (field → the id's property), e.g. components by `id`;
  * - `maps`: object fields whose entries are records (targets by recipe id, settings by field name);
  * - `local`: fields that belong to one tab and are never merged (the active recipe);
- * - every other top-level field is one record of its own (e.g. the line plan).
+ * - `parts`: object fields cut into one record per property, the properties named here being maps
+ *   cut into one record per entry (the line plan: its period, unit and tank limit, each grade's
+ *   demand, each stock's supply and least use), so two tabs editing different entries keep both;
+ * - every other top-level field is one record of its own.
  */
 export interface RecordLayout {
   lists?: Record<string, string>;
   maps?: readonly string[];
   local?: readonly string[];
+  parts?: Record<string, readonly string[]>;
   /** The record in the user's words for a message ("stock BW-190"); default: the key. */
   label?: (key: string, value: unknown) => string;
 }
@@ -39,16 +43,26 @@ export interface RecordSet {
 const SEP = '/';
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
-/** The records of persisted data, in order: `field/id` for list items and map entries, `field` for the rest. */
+/**
+ * The records of persisted data, in order: `field/id` for list items and map entries,
+ * `field/property` and `field/map/id` for parts, `field` for the rest.
+ */
 export function splitRecords(data: unknown, layout: RecordLayout): Map<string, unknown> {
   const out = new Map<string, unknown>();
   if (!isObject(data)) return out;
   const lists = layout.lists ?? {};
   const maps = new Set(layout.maps ?? []);
   const local = new Set(layout.local ?? []);
+  const parts = layout.parts ?? {};
   for (const [field, value] of Object.entries(data)) {
     if (local.has(field)) continue;
-    if (field in lists && Array.isArray(value)) {
+    if (field in parts && isObject(value)) {
+      const subMaps = parts[field]!;
+      for (const [prop, v] of Object.entries(value)) {
+        if (subMaps.includes(prop) && isObject(v)) for (const [k, x] of Object.entries(v)) out.set(`${field}${SEP}${prop}${SEP}${k}`, x);
+        else out.set(`${field}${SEP}${prop}`, v);
+      }
+    } else if (field in lists && Array.isArray(value)) {
       const idKey = lists[field]!;
       for (const item of value) {
         const id = isObject(item) ? item[idKey] : undefined;
@@ -66,12 +80,25 @@ export function joinRecords(records: Map<string, unknown>, layout: RecordLayout,
   const out: Record<string, unknown> = {};
   const lists = layout.lists ?? {};
   const maps = new Set(layout.maps ?? []);
+  const parts = layout.parts ?? {};
   for (const field of Object.keys(lists)) out[field] = [];
   for (const field of maps) out[field] = {};
   for (const [key, value] of records) {
     const cut = key.indexOf(SEP);
     const field = cut < 0 ? key : key.slice(0, cut);
-    if (cut >= 0 && field in lists) (out[field] as unknown[]).push(value);
+    if (cut >= 0 && field in parts) {
+      // A part's maps exist (empty) as soon as any of its records does.
+      const subMaps = parts[field]!;
+      if (!isObject(out[field])) out[field] = Object.fromEntries(subMaps.map((m) => [m, {}]));
+      const obj = out[field] as Record<string, unknown>;
+      const rest = key.slice(cut + 1);
+      const cut2 = rest.indexOf(SEP);
+      const prop = cut2 < 0 ? rest : rest.slice(0, cut2);
+      if (cut2 >= 0 && subMaps.includes(prop)) {
+        if (!isObject(obj[prop])) obj[prop] = {};
+        (obj[prop] as Record<string, unknown>)[rest.slice(cut2 + 1)] = value;
+      } else obj[rest] = value;
+    } else if (cut >= 0 && field in lists) (out[field] as unknown[]).push(value);
     else if (cut >= 0 && maps.has(field)) (out[field] as Record<string, unknown>)[key.slice(cut + 1)] = value;
     else out[key] = value;
   }

@@ -93,3 +93,37 @@ describe('two tabs committing at once', () => {
     expect(names(b).has('demo-bw-110')).toBe(false);
   });
 });
+
+describe('two tabs editing the line plan at once', () => {
+  it('keeps every grade’s demand, supply and the period typed in either tab (each entry its own record)', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const ids = a.state.useRecipes.getState().recipes.map((r) => r.id);
+    expect(ids.length).toBeGreaterThanOrEqual(2);
+    // Interleaved, without waiting for any save: tab A plans one grade and the period, tab B another
+    // grade and a stock's supply. Before the entries were records of their own, the whole plan was
+    // one record and the later tab's copy replaced the other's edits.
+    a.state.linePlanActions.setDemand(ids[0]!, 120_000);
+    b.state.linePlanActions.setDemand(ids[1]!, 80_000);
+    a.state.linePlanActions.setPeriod('2027');
+    b.state.linePlanActions.setSupply('demo-bw-190', 50_000);
+    await settle([a, b]);
+    const c = await openTab(); // a reload
+    for (const t of [a, b, c]) {
+      const plan = t.state.useRecipes.getState().linePlan;
+      expect(plan.demands).toEqual({ [ids[0]!]: 120_000, [ids[1]!]: 80_000 });
+      expect(plan.period).toBe('2027');
+      expect(plan.supplies['demo-bw-190']).toBe(50_000);
+    }
+    // A demand taken out in one tab while the other plans a third grade: both hold.
+    a.state.linePlanActions.setDemand(ids[0]!, null);
+    b.state.linePlanActions.setDemand(ids[2] ?? ids[1]!, 30_000);
+    await settle([a, b]);
+    const d = await openTab();
+    for (const t of [a, b, d]) {
+      const plan = t.state.useRecipes.getState().linePlan;
+      expect(ids[0]! in plan.demands).toBe(false);
+      expect(plan.demands[ids[2] ?? ids[1]!]).toBe(30_000);
+    }
+  });
+});
