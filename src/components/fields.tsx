@@ -6,13 +6,24 @@
  */
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import { useFormat } from './format';
-import { checkText, type TextRuleKey } from '../state/field-rules';
+import { checkNumber, checkText, type NumberRuleKey, type SayNumbers, type TextRuleKey } from '../state/field-rules';
 
 export interface Verdict {
   /** Blocks the commit; says exactly what is wrong. */
   error?: string | undefined;
   /** Commits, but stays visible beside the value. */
   warning?: string | undefined;
+}
+
+/**
+ * A stored number field's rule (state/field-rules.ts) applied to a value as typed, for a NumberField's
+ * `validate`: `toStored` turns the typed value into the stored one (% → fraction, °F → °C); blank
+ * passes (the field's `allowEmpty` decides). The message writes numbers as the user types them.
+ */
+export function ruleVerdict(rule: NumberRuleKey, v: number | null, words: SayNumbers, toStored: (typed: number) => number = (x) => x): Verdict {
+  if (v === null) return {};
+  const refused = checkNumber(rule, toStored(v), undefined, words);
+  return refused ? { error: refused } : {};
 }
 
 interface CommonProps {

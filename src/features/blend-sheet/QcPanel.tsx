@@ -5,10 +5,10 @@ import { useId } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import type { RecipeInBand } from '../../core/qc/recipe-spread';
 import { blendingViscosities } from '../../core/formulation/blend-properties';
-import { NumberField, type Verdict } from '../../components/fields';
+import { NumberField, TextField, ruleVerdict, type Verdict } from '../../components/fields';
 import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
-import { checkNumber, type NumberRuleKey } from '../../state/field-rules';
+import type { NumberRuleKey } from '../../state/field-rules';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 import { DEFAULT_CORRECTION_BAND_PCT, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
 
@@ -50,9 +50,10 @@ function RuleField(props: {
   const words = useFormat();
   const scale = props.percent ? 100 : 1;
   const validate = (v: number | null): Verdict => {
-    if (v === null) return {};
-    const m = checkNumber(props.rule, v / scale, undefined, words) ?? props.also?.(v / scale) ?? null;
-    return m ? { error: m } : {};
+    const ruled = ruleVerdict(props.rule, v, words, (x) => x / scale);
+    if (ruled.error || v === null) return ruled;
+    const also = props.also?.(v / scale) ?? null;
+    return also ? { error: also } : {};
   };
   return (
     <NumberField
@@ -244,10 +245,14 @@ export function QcPanel(props: QcPanelProps) {
             hint="blank = this recipe’s treat rate"
             onCommit={(v) => setHeel({ additiveFraction: v })}
           />
-          <label className="field">
-            <span className="field-label">What the heel is</span>{' '}
-            <input value={qc.heel.source} maxLength={200} size={40} onChange={(e) => setHeel({ source: e.target.value })} placeholder="e.g. previous batch, lot 2291; measured" />
-          </label>
+          <TextField
+            label="What the heel is"
+            rule="heelSource"
+            size={40}
+            value={qc.heel.source}
+            placeholder="e.g. previous batch, lot 2291; measured"
+            onCommit={(source) => setHeel({ source })}
+          />
         </fieldset>
         {props.adjusted && 'error' in props.adjusted && (
           <p className="bs-error" role="alert">

@@ -2,9 +2,9 @@ import { memo, useId } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
 import { CATEGORY_LABEL, DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import { ISO_GRADES, gradeBand } from '../../core/viscosity/iso-grades';
-import { NumberField, type Verdict } from '../../components/fields';
+import { NumberField, ruleVerdict, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
-import { checkNumber, type SayNumbers } from '../../state/field-rules';
+import { checkNumber, type NumberRuleKey, type SayNumbers } from '../../state/field-rules';
 
 export const OBJECTIVE_LABEL: Record<Objective, string> = {
   cost: 'Least cost per litre (at 15 °C)',
@@ -26,6 +26,7 @@ export interface TargetsFormProps {
 
 const pct = (f: number | null | undefined) => (f === null || f === undefined ? null : f * 100);
 const frac = (p: number | null) => (p === null ? null : p / 100);
+const pctToFrac = (p: number) => p / 100;
 
 /** Target grade, band, constraints and objective; the Solve button. */
 export const TargetsForm = memo(function TargetsForm({
@@ -82,6 +83,7 @@ export const TargetsForm = memo(function TargetsForm({
         </div>
         <Opt
           label="Target ν40"
+          rule="targetKv40"
           unit="mm²/s"
           value={targets.targetKv40}
           min={band?.min}
@@ -91,6 +93,7 @@ export const TargetsForm = memo(function TargetsForm({
         />
         <Opt
           label="Tolerance ±"
+          rule="tolerancePct"
           unit="% of target"
           value={targets.tolerancePct}
           required
@@ -100,6 +103,8 @@ export const TargetsForm = memo(function TargetsForm({
         />
         <Opt
           label="Probability in the solve band, at least"
+          rule="minInBandProbability"
+          toStored={pctToFrac}
           unit="%"
           value={pct(targets.minInBandProbability)}
           min={0}
@@ -114,9 +119,11 @@ export const TargetsForm = memo(function TargetsForm({
 
       <fieldset>
         <legend>Constraints</legend>
-        <Opt label="Minimum VI" value={targets.minVi} decimals={1} onChange={(v) => onChange({ minVi: v })} />
+        <Opt label="Minimum VI" rule="minVi" value={targets.minVi} decimals={1} onChange={(v) => onChange({ minVi: v })} />
         <Opt
           label="Maximum aniline point"
+          rule="maxAnilinePoint"
+          toStored={fmt.tempToC}
           unit={tUnit}
           value={toDisp(targets.maxAnilinePoint)}
           decimals={1}
@@ -125,6 +132,8 @@ export const TargetsForm = memo(function TargetsForm({
         />
         <Opt
           label="Maximum polymer"
+          rule="maxPolymerFraction"
+          toStored={pctToFrac}
           unit="mass %"
           value={pct(targets.maxPolymerFraction)}
           min={0}
@@ -134,6 +143,8 @@ export const TargetsForm = memo(function TargetsForm({
         />
         <Opt
           label="Maximum pour point (estimate)"
+          rule="maxPourPoint"
+          toStored={fmt.tempToC}
           unit={tUnit}
           value={toDisp(targets.maxPourPoint)}
           decimals={1}
@@ -141,6 +152,8 @@ export const TargetsForm = memo(function TargetsForm({
         />
         <Opt
           label="Minimum flash point (estimate)"
+          rule="minFlashPoint"
+          toStored={fmt.tempToC}
           unit={tUnit}
           value={toDisp(targets.minFlashPoint)}
           decimals={1}
@@ -168,6 +181,8 @@ export const TargetsForm = memo(function TargetsForm({
         {targets.additive && (
           <Opt
             label="Treat rate"
+            rule="treatRate"
+            toStored={pctToFrac}
             unit="mass %"
             value={pct(targets.additive.massFraction)}
             required
@@ -309,16 +324,20 @@ interface OptProps {
   hint?: string | undefined;
   decimals?: number;
   required?: boolean;
+  /** The stored field's rule (field-rules.ts), checked after min/max: what entry takes, storage takes. */
+  rule?: NumberRuleKey;
+  /** The typed value as stored (% → fraction, °F → °C); default as typed. */
+  toStored?: (typed: number) => number;
 }
 
 /** A constraint field: empty means "no limit"; range checked before it is written. */
-function Opt({ label, unit, value, onChange, min, max, hint, decimals = 2, required = false }: OptProps) {
+function Opt({ label, unit, value, onChange, min, max, hint, decimals = 2, required = false, rule, toStored }: OptProps) {
   const fmt = useFormat();
   const validate = (v: number | null): Verdict => {
     if (v === null) return required ? { error: `${label}: a value is required` } : {};
     if (min !== undefined && v < min) return { error: `${label}: at least ${fmt.say(min)}${unit ? ` ${unit}` : ''}` };
     if (max !== undefined && v > max) return { error: `${label}: at most ${fmt.say(max)}${unit ? ` ${unit}` : ''}` };
-    return {};
+    return rule ? ruleVerdict(rule, v, fmt, toStored) : {};
   };
   return (
     <NumberField

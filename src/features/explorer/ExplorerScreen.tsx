@@ -3,7 +3,7 @@ import type { BlendTargets, Component, Objective, Recipe } from '../../core/form
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice, methodText } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { NumberField } from '../../components/fields';
+import { NumberField, ruleVerdict } from '../../components/fields';
 import { checkNumber } from '../../state/field-rules';
 import { componentsById, defaultTargets, recipeActions, useLibrary, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
@@ -482,7 +482,7 @@ function ScenarioForm({
               allowEmpty
               disabled={running}
               value={targets?.maxPolymerFraction == null ? null : Number((targets.maxPolymerFraction * 100).toFixed(4))}
-              validate={(v) => ({ error: v === null ? undefined : (checkNumber('maxPolymerFraction', v / 100) ?? undefined) })}
+              validate={(v) => ruleVerdict('maxPolymerFraction', v, fmt, (x) => x / 100)}
               onCommit={(v) => st.setPolymerCap(v === null ? null : v / 100)}
               hint={
                 <span className="field-hint" data-testid="polymer-cap-hint">

@@ -7,7 +7,7 @@ import { assessRelease } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
 import { ActionNotice, Notice } from '../../components/notices';
-import { NumberField, TextField } from '../../components/fields';
+import { NumberField, TextField, ruleVerdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { userMessage } from '../../state/messages';
@@ -382,7 +382,7 @@ function SpecificationForm({
       unit={fmt.tempUnit}
       allowEmpty
       value={spec[key] === null ? null : fmt.tempValue(spec[key]!)}
-      validate={(v) => ({ error: v !== null && (fmt.tempToC(v) <= -100 || fmt.tempToC(v) >= 400) ? 'must lie between −100 and 400 °C' : undefined })}
+      validate={(v) => ruleVerdict(key === 'flashMin' ? 'specFlashMin' : 'specPourMax', v, fmt, fmt.tempToC)}
       onCommit={(v) => set({ [key]: v === null ? null : fmt.tempToC(v) })}
     />
   );
@@ -395,19 +395,19 @@ function SpecificationForm({
       </p>
       <TextField label="Specification reference" size={36} rule="specReference" value={spec.reference} onCommit={(v) => set({ reference: v })} />
       <div>
-        <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={positive} onCommit={(v) => set({ kv100Min: v })} />
-        <NumberField label="ν100 maximum" unit="mm²/s" allowEmpty value={spec.kv100Max} validate={positive} onCommit={(v) => set({ kv100Max: v })} />
+        <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={(v) => ruleVerdict('specKv100', v, fmt)} onCommit={(v) => set({ kv100Min: v })} />
+        <NumberField label="ν100 maximum" unit="mm²/s" allowEmpty value={spec.kv100Max} validate={(v) => ruleVerdict('specKv100', v, fmt)} onCommit={(v) => set({ kv100Max: v })} />
         <NumberField
           label="VI minimum"
           allowEmpty
           value={spec.viMin}
-          validate={(v) => ({ error: v !== null && (v < -100 || v > 400) ? 'must lie between −100 and 400' : undefined })}
+          validate={(v) => ruleVerdict('specViMin', v, fmt)}
           onCommit={(v) => set({ viMin: v })}
         />
       </div>
       <div>
-        <NumberField label="Density at 15 °C, minimum" unit="kg/L" allowEmpty value={spec.density15Min} validate={density} onCommit={(v) => set({ density15Min: v })} />
-        <NumberField label="Density at 15 °C, maximum" unit="kg/L" allowEmpty value={spec.density15Max} validate={density} onCommit={(v) => set({ density15Max: v })} />
+        <NumberField label="Density at 15 °C, minimum" unit="kg/L" allowEmpty value={spec.density15Min} validate={(v) => ruleVerdict('specDensity15', v, fmt)} onCommit={(v) => set({ density15Min: v })} />
+        <NumberField label="Density at 15 °C, maximum" unit="kg/L" allowEmpty value={spec.density15Max} validate={(v) => ruleVerdict('specDensity15', v, fmt)} onCommit={(v) => set({ density15Max: v })} />
         {tempField('Flash point minimum', 'flashMin')}
         {tempField('Pour point maximum', 'pourMax')}
       </div>
@@ -467,5 +467,3 @@ function SpecificationForm({
   );
 }
 
-const positive = (v: number | null) => ({ error: v !== null && v <= 0 ? 'must be above zero' : undefined });
-const density = (v: number | null) => ({ error: v !== null && (v < 0.5 || v > 2) ? 'must lie between 0.5 and 2 kg/L' : undefined });
