@@ -26,6 +26,7 @@
  *   libraryActions: addComponent(init?) → id | updateComponent(id, patch) | cloneComponent(id) → id
  *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
  *     (also useLibrary.getState().…)
+ *   libraryRoomProblem(count, adding, 'entry'|'import', say?) → why the library has no room (one stock limit) | null
  *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis? }) → id (a draft)
  *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
  *     | saveChanges(id, changes, reason) → id  (a draft in place; an approved recipe → a new draft revision)
@@ -78,7 +79,7 @@ export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, approvedMessage, nextRevisionN
 export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
-export { blankComponent, freeCode } from './library';
+export { blankComponent, freeCode, libraryRoomProblem } from './library';
 /** Today's date as YYYY-MM-DD, local time (the date printed on sheets and summaries). */
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';

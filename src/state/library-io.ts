@@ -4,15 +4,19 @@
  * library as CSV or JSON.
  */
 import type { Component } from '../core/formulation/model';
-import { useLibraryStore } from './library';
+import { libraryRoomProblem, useLibraryStore } from './library';
 import { writeCsv, type CsvCell } from './csv';
 import { CSV_COLUMNS, type CsvColumn, type ImportPreview } from './library-import';
 
 export * from './library-import';
 
-/** Apply a confirmed, valid preview to the library (one undo step). Refuses an invalid preview. */
+/**
+ * Apply a confirmed, valid preview to the library (one undo step). Refuses an invalid preview, and
+ * one whose additions would take the library over its limit (`libraryRoomProblem` says why).
+ */
 export function applyLibraryImport(preview: ImportPreview): boolean {
   if (!preview.valid) return false;
+  if (libraryRoomProblem(useLibraryStore.getState().components.length, preview.adds, 'import')) return false;
   const comps = preview.rows.filter((r) => r.action === 'add' || r.action === 'update').map((r) => r.component!);
   if (comps.length) useLibraryStore.getState().upsertByCode(comps);
   return true;

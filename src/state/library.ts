@@ -9,12 +9,25 @@ import { newId } from './ids';
 import { blankComponent, freeCode } from './stock-defaults';
 
 export { blankComponent, freeCode } from './stock-defaults';
-import { FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
+import { COLLECTION_LIMITS, FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
 
 /** Throws FieldRuleError when a library of `count` stocks would exceed COLLECTION_LIMITS.stocks. */
 function refuseIfFull(count: number): void {
   const full = checkCount('stocks', count, 'the library');
   if (full) throw new FieldRuleError([{ path: ['components'], message: full }]);
+}
+
+/**
+ * Why `adding` more stocks cannot join a library of `count` (the one stock limit,
+ * COLLECTION_LIMITS.stocks), in the user's words, or null when there is room. `via` says where the
+ * user acted: 'entry' (Add stock, Clone) or 'import'. `say` writes counts in the user's format.
+ */
+export function libraryRoomProblem(count: number, adding: number, via: 'entry' | 'import', say: (n: number) => string = String): string | null {
+  const max = COLLECTION_LIMITS.stocks;
+  if (count + adding <= max) return null;
+  return via === 'entry'
+    ? `The library holds ${say(count)} stocks, the most Blendbench keeps; delete stocks no longer in use before adding another.`
+    : `This import would add ${say(adding)} stocks to the library’s ${say(count)}; Blendbench keeps at most ${say(max)}. Delete stocks no longer in use, or import fewer rows; nothing was imported.`;
 }
 
 export interface LibraryData {

@@ -4,7 +4,7 @@ import { Notice } from '../../components/notices';
 import { readFileText } from '../../components/download';
 import { applyLibraryImport, CSV_COLUMNS, type ImportPreview, type ImportRow } from '../../state/library-io';
 import { COLLECTION_LIMITS } from '../../state/field-rules';
-import { useLibrary, useRecipes, useSettings } from '../../state';
+import { libraryRoomProblem, useLibrary, useRecipes, useSettings } from '../../state';
 import type { Component } from '../../core/formulation/model';
 import { predictionImpact, type RecipeImpact } from '../../core/recipes/impact';
 import { ImpactTable } from './ImpactConfirm';
@@ -96,6 +96,9 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
     return rows.filter(keep);
   }, [preview, filter]);
   const checking = progress !== null;
+  // A valid file whose additions would take the library over its one stock limit.
+  const full =
+    preview && preview.valid ? libraryRoomProblem(components.length, preview.adds, 'import', (n) => fmt.num(n, 0)) : null;
 
   return (
     <section className="panel import-panel" aria-labelledby={`${fileId}-h`}>
@@ -132,6 +135,10 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
                   <li key={i}>{e}</li>
                 ))}
               </ul>
+            </Notice>
+          ) : full ? (
+            <Notice tone="error" title={`${fileName} cannot be imported.`}>
+              {full}
             </Notice>
           ) : counts.errors ? (
             <Notice tone="error" title={`${counts.errors} of ${preview.rows.length} rows have errors; nothing was imported.`}>
@@ -230,7 +237,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
         <button
           type="button"
           className="primary"
-          disabled={!preview?.valid || checking}
+          disabled={!preview?.valid || checking || full !== null}
           onClick={() => {
             if (preview && applyLibraryImport(preview)) {
               onImported(

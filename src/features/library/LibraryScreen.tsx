@@ -6,7 +6,7 @@ import { ActionNotice, DemoTag } from '../../components/notices';
 import { downloadText } from '../../components/download';
 import { DETAILS_OF_ATTR, useRowWindow } from '../../components/row-window';
 import { useFormat } from '../../components/format';
-import { isDemoComponent, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
+import { isDemoComponent, libraryRoomProblem, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
 import { checkComponent } from '../../state/checks';
 import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
 import { ComponentDetails } from './ComponentDetails';
@@ -31,7 +31,7 @@ function localIsoDate(d: Date): string {
   return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
 }
 
-type Flash = { tone: 'info' | 'success' | 'warning'; text: string; undo?: boolean } | null;
+type Flash = { tone: 'info' | 'success' | 'warning' | 'error'; text: string; undo?: boolean } | null;
 
 export default function LibraryScreen() {
   const components = useLibrary((s) => s.components);
@@ -121,11 +121,18 @@ export default function LibraryScreen() {
     [blendMethod],
   );
   const onToggleDetails = useCallback((id: string) => setExpanded((e) => (e === id ? null : id)), []);
+  /** True (and said) when the library is at its one stock limit: Add and Clone then add nothing. */
+  const full = useCallback(() => {
+    const problem = libraryRoomProblem(useLibrary.getState().components.length, 1, 'entry', (n) => fmt.num(n, 0));
+    if (problem) setFlash({ tone: 'error', text: problem });
+    return problem !== null;
+  }, [fmt]);
   const onClone = useCallback((id: string) => {
+    if (full()) return;
     const newId = useLibrary.getState().cloneComponent(id);
     const copy = useLibrary.getState().components.find((c) => c.id === newId);
     if (copy) setFlash({ tone: 'success', text: `Cloned as ${copy.code}.`, undo: true });
-  }, []);
+  }, [full]);
   const onDelete = useCallback(
     (id: string) => {
       const c = useLibrary.getState().components.find((x) => x.id === id);
@@ -180,6 +187,7 @@ export default function LibraryScreen() {
           type="button"
           className="primary"
           onClick={() => {
+            if (full()) return;
             const id = useLibrary.getState().addComponent();
             setQuery('');
             setCategory('all');
