@@ -501,7 +501,7 @@ function ScenarioForm({
               allowEmpty
               disabled={running}
               value={targets?.minInBandProbability == null ? null : Number((targets.minInBandProbability * 100).toFixed(4))}
-              validate={(v) => ({ error: v === null ? undefined : (checkNumber('minInBandProbability', v / 100) ?? undefined) })}
+              validate={(v) => ruleVerdict('minInBandProbability', v, fmt, (x) => x / 100)}
               onCommit={(v) => st.setMinInBandProbability(v === null || v === 0 ? null : v / 100)}
               hint={
                 <span className="field-hint" data-testid="probability-hint">

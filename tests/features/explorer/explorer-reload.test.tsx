@@ -49,6 +49,8 @@ describe('Explorer session across a reload', () => {
     fireEvent.change(refSelect(), { target: { value: vg460.id } });
     const bright = first.state.useLibrary.getState().components.find((c) => c.code === 'BW-190')!;
     fireEvent.click(screen.getByLabelText('Treat BW-190 as withdrawn'));
+    // "No least probability in band for this search" (null), not the reference's own (undefined).
+    act(() => first.explorer.getState().setMinInBandProbability(null));
     fireEvent.click(screen.getByText('Run search'));
     await screen.findByTestId('candidates', {}, { timeout: 30000 });
     const ranked = rowKeys();
@@ -59,6 +61,7 @@ describe('Explorer session across a reload', () => {
     await screen.findByTestId('candidates');
     expect(refSelect().value).toBe(vg460.id);
     expect(second.explorer.getState().withdrawn).toEqual([bright.id]);
+    expect(second.explorer.getState().minInBandProbability).toBeNull();
     expect(rowKeys()).toEqual(ranked);
     expect(screen.getByText(/Result restored from your last session/)).toBeTruthy();
     expect(screen.queryByTestId('stale-library')).toBeNull();
