@@ -16,7 +16,6 @@ import { persist } from 'zustand/middleware';
 import type { BlendTargets, Objective, RecipeLine } from '../core/formulation/model';
 import type { SubstituteSearchResult } from '../core/search/substitutes';
 import { idbPersistStorage, type StoreSpec } from './persistence';
-import { workspaceDataSchema } from './schemas';
 
 /** The designer's draft as kept between visits. */
 export interface DesignerDraft {
@@ -79,7 +78,8 @@ export interface WorkspaceState extends WorkspaceData {
 export const WORKSPACE_SPEC: StoreSpec<WorkspaceData> = {
   key: 'workspace',
   version: 1,
-  schema: workspaceDataSchema as unknown as StoreSpec<WorkspaceData>['schema'],
+  // The zod schema is picked from the schemas module once it is loaded (persistence.loadSchemas).
+  schema: (m) => m.workspaceDataSchema as unknown as ReturnType<StoreSpec<WorkspaceData>['schema']>,
   migrations: {},
   crossTab: false,
 };
