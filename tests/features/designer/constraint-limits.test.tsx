@@ -1,7 +1,8 @@
 // @vitest-environment jsdom
 // Issue 10 item 1: the designer's constraints are refused where typed with the stored field's own range
 // (state/field-rules.ts), so a draft or recipe that could not be read back is never kept; in °F too.
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { loadUnitConversions } from '../../../src/components/format';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
@@ -14,6 +15,9 @@ beforeEach(() => {
   useWorkspaceStore.setState({ designer: null });
 });
 afterEach(cleanup);
+beforeAll(async () => {
+  await loadUnitConversions(); // °F conversions (mathjs) load on demand
+});
 
 function enter(label: RegExp, text: string): HTMLInputElement {
   const el = screen.getByLabelText(label) as HTMLInputElement;

@@ -52,7 +52,9 @@ describe('Explorer session across a reload', () => {
     // "No least probability in band for this search" (null), not the reference's own (undefined).
     act(() => first.explorer.getState().setMinInBandProbability(null));
     fireEvent.click(screen.getByText('Run search'));
-    await screen.findByTestId('candidates', {}, { timeout: 30000 });
+    // Candidates stream in while the search runs; only the final list is kept.
+    await waitFor(() => expect(first.explorer.getState().status).toBe('done'), { timeout: 30000 });
+    await screen.findByTestId('candidates');
     const ranked = rowKeys();
     expect(ranked.length).toBeGreaterThan(0);
     await first.persistence.whenSaved();

@@ -44,8 +44,9 @@ describe('Library at the stock limit', () => {
     fillToLimit();
     fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
     const csv = 'code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nNEW-1,group-ii,45,6.6,0.86,1\nNEW-2,group-ii,45,6.6,0.86,1\n';
+    const input = await screen.findByLabelText('File', {}, { timeout: 15_000 }); // the import panel loads on first use
     await act(async () => {
-      fireEvent.change(screen.getByLabelText('File'), { target: { files: [new File([csv], 'two-new.csv', { type: 'text/csv' })] } });
+      fireEvent.change(input, { target: { files: [new File([csv], 'two-new.csv', { type: 'text/csv' })] } });
     });
     await screen.findByText(`This import would add 2 stocks to the library’s ${MAX}; Blendbench keeps at most ${MAX}.`, { exact: false }, { timeout: 20_000 });
     expect((screen.getByRole('button', { name: 'Import: add 2, update 0' }) as HTMLButtonElement).disabled).toBe(true);
