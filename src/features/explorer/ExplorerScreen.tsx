@@ -4,7 +4,6 @@ import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice, methodText } from '../../components/notices';
 import { useFormat } from '../../components/format';
 import { NumberField, ruleVerdict } from '../../components/fields';
-import { checkNumber } from '../../state/field-rules';
 import { componentsById, defaultTargets, recipeActions, useLibrary, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import { pricingFor, solvableLibrary, unpricedMessage, type PricedLibrary } from '../../core/currency/exchange-rates';
