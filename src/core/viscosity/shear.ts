@@ -5,10 +5,11 @@
  *   loss % = 100·(ν_before − ν_after)/ν_before,   ν measured at 100 °C
  *   ν_after = ν_before·(1 − loss %/100)
  *
- * Carry-over assumption (common practice, no source): the KRL test reports the loss of ν100 only.
- * To judge the ISO grade (a ν40 band) after shear, Blendbench applies the same percentage loss to
- * ν40 as was measured at 100 °C. This is a simplification: the relative loss at 40 °C of a
- * polymer-thickened oil generally differs from that at 100 °C. Measure ν40 after shear to confirm.
+ * ISO 26422 allows the loss to be stated at 40 °C or at 100 °C. The functions here take one loss and
+ * its viscosity; when only the ν100 loss is known, the grade check (a ν40 band) applies the same
+ * percentage to ν40 (carry-over assumption, common practice, no source) — a simplification, as the
+ * relative loss at 40 °C of a polymer-thickened oil generally differs from that at 100 °C. A measured
+ * ν40 loss, where entered, is used as measured (`formulation/shear-blend.ts`).
  */
 import { BlendbenchInputError, assertFinite, assertViscosity } from '../errors';
 import { isInGrade } from './iso-grades';
