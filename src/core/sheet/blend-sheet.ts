@@ -17,6 +17,7 @@ import { BLANK_SPECIFICATION, CATEGORY_LABEL } from '../formulation/model';
 import { BlendbenchInputError, assertFinite } from '../errors';
 import { batchQuantities, pricePerKg, type BatchSize } from '../formulation/cost';
 import { gradeBand } from '../viscosity/iso-grades';
+import { blendDensityAtTemperature } from '../blending/density-temperature';
 import { cToF } from '../units';
 import type { BlendProperties } from '../formulation/blend-properties';
 
@@ -208,7 +209,19 @@ export interface BlendSheetRow {
 
 /** Cost of the batch, when every component is priced in the same currency. */
 export type BatchCosting =
-  | { available: true; currency: string; perKg: number; perLitre: number; perBatch: number }
+  | {
+      available: true;
+      currency: string;
+      perKg: number;
+      /** Per litre at 15 °C. */
+      perLitre: number;
+      perBatch: number;
+      /**
+       * Per delivered litre, counted at the delivery temperature (ρ_blend(t) by ASTM D1250-80 Table 54D,
+       * cost = ρ_blend(t) × per kg); null when no delivery temperature other than 15 °C is given.
+       */
+      perDeliveredLitre: { tempC: number; cost: number } | null;
+    }
   | { available: false; reason: string };
 
 export interface BlendSheet {
@@ -246,6 +259,8 @@ export interface BlendSheetOptions {
   percentDecimals?: number;
   /** Metering temperature [°C] for a "L at t" column (ASTM D1250-80 Table 54D); none by default. */
   meteringTempC?: number;
+  /** Delivery temperature [°C] for the cost per delivered litre (ASTM D1250-80 Table 54D); 15 °C by default. */
+  deliveryTempC?: number;
 }
 
 /**
@@ -405,7 +420,12 @@ export function buildBlendSheet(
     density15: q.totalKg / q.totalLitres,
     quantityDecimals: qd,
     percentDecimals: pd,
-    costing: batchCosting(parts.map((p) => p.c), rows, q.totalKg, q.totalLitres),
+    costing: batchCosting(parts.map((p) => p.c), rows, q.totalKg, q.totalLitres, () =>
+      blendDensityAtTemperature(
+        parts.map(({ line, c }) => ({ massFraction: line.massFraction, density15: c.density15 })),
+        options.deliveryTempC!,
+      ),
+    options.deliveryTempC),
   };
 }
 
@@ -414,6 +434,8 @@ function batchCosting(
   rows: readonly BlendSheetRow[],
   totalKg: number,
   totalLitres: number,
+  densityAtDelivery: () => number,
+  deliveryTempC: number | undefined,
 ): BatchCosting {
   const currencies = [...new Set(comps.map((c) => c.price.currency.trim()))];
   if (currencies.length !== 1) {
@@ -423,7 +445,10 @@ function batchCosting(
   if (missing.length > 0) return { available: false, reason: `no usable price for ${missing.join(', ')}` };
   // Cost per batch = Σ mᵢ·pᵢ; per kg = that / M; per litre = that / V (= ρ·Σ wᵢ·pᵢ, check-values D2).
   const perBatch = rows.reduce((s, r) => s + (r.lineCost ?? 0), 0);
-  return { available: true, currency: currencies[0]!, perBatch, perKg: perBatch / totalKg, perLitre: perBatch / totalLitres };
+  const perKg = perBatch / totalKg;
+  const perDeliveredLitre =
+    deliveryTempC === undefined || deliveryTempC === 15 ? null : { tempC: deliveryTempC, cost: densityAtDelivery() * perKg };
+  return { available: true, currency: currencies[0]!, perBatch, perKg, perLitre: perBatch / totalLitres, perDeliveredLitre };
 }
 
 // ---------------------------------------------------------------------------------------------

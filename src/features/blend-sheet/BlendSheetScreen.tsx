@@ -62,6 +62,7 @@ export default function BlendSheetScreen() {
       }}
       companyName={settings.companyName}
       meteringTempC={settings.meteringTempC}
+      deliveryTempC={settings.deliveryTempC}
       predict={predict}
       targets={targets}
       method={settings.blendMethod}

@@ -60,6 +60,8 @@ export interface BlendSheetViewProps {
   exchange?: { base: string; rates: readonly ExchangeRate[] };
   /** Metering temperature [°C] (Settings): adds a "L at t" column (ASTM D1250-80 Table 54D). */
   meteringTempC?: number;
+  /** Delivery temperature [°C] for the costing copy's cost per delivered litre; default 15 °C (none shown). */
+  deliveryTempC?: number;
   /** Today's date, ISO YYYY-MM-DD (the default date of the sheet). */
   today: string;
   /** Formats a number with a fixed number of decimals; default "." with grouped thousands ("12 345.6"). */
@@ -174,12 +176,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
       return {
-        sheet: buildBlendSheet(priced?.components ?? components, recipe, batch, { meteringTempC: props.meteringTempC }),
+        sheet: buildBlendSheet(priced?.components ?? components, recipe, batch, { meteringTempC: props.meteringTempC, deliveryTempC: props.deliveryTempC }),
       };
     } catch (e) {
       return { error: errorText(e, components, display) };
     }
-  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC, display]);
+  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC, props.deliveryTempC, display]);
 
   const qc = useMemo(
     (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {
@@ -249,11 +251,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       .filter(([, f]) => f > 0)
       .map(([componentId, massFraction]) => ({ componentId, massFraction }));
     try {
-      return buildBlendSheet(lotComponents, { ...recipe, lines }, { kg: r.batch.massKg - adjusted.heelKg }, { meteringTempC: props.meteringTempC });
+      return buildBlendSheet(lotComponents, { ...recipe, lines }, { kg: r.batch.massKg - adjusted.heelKg }, { meteringTempC: props.meteringTempC, deliveryTempC: props.deliveryTempC });
     } catch {
       return null;
     }
-  }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC]);
+  }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC, props.deliveryTempC]);
   const correction = useMemo(
     () =>
       recipe
@@ -693,6 +695,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             ) : sheet.costing.available ? (
               <>
                 Cost: {fmt(sheet.costing.perKg, 3)} {currency}/kg · {fmt(sheet.costing.perLitre, 3)} {currency}/L at 15 °C ·{' '}
+                {sheet.costing.perDeliveredLitre ? (
+                  <span data-testid="cost-delivered">
+                    {fmt(sheet.costing.perDeliveredLitre.cost, 3)} {currency} per delivered litre at {fmt(sheet.costing.perDeliveredLitre.tempC, 0)} °C
+                    (ASTM D1250 Table 54D) ·{' '}
+                  </span>
+                ) : null}
                 {fmt(sheet.costing.perBatch, 2)} {currency} per batch.{' '}
                 {ratesUsed.length > 0 && exchange ? (
                   <span data-testid="rates-used">

@@ -210,6 +210,22 @@ describe('buildBlendSheet', () => {
     expect(m.costing).toEqual({ available: false, reason: expect.stringMatching(/different currencies/) });
   });
 
+  it('prices the delivered litre at the delivery temperature (issue 13 §8)', () => {
+    const lib = [comp('a', 'group-ii', 100, 0.9, 1.2)];
+    expect(buildBlendSheet(lib, recipe([['a', 1]]), { kg: 1000 }).costing).toMatchObject({ perDeliveredLitre: null });
+    expect(buildBlendSheet(lib, recipe([['a', 1]]), { kg: 1000 }, { deliveryTempC: 15 }).costing).toMatchObject({ perDeliveredLitre: null });
+    const s = buildBlendSheet(lib, recipe([['a', 1]]), { kg: 1000 }, { deliveryTempC: 40 });
+    if (!s.costing.available) throw new Error('costing should be available');
+    // ASTM D1250-80 Table 54D equation (lubricating oils), by hand: α15 = 0.6278/900 per °C, Δt = 25 °C,
+    // VCF = exp(−α15·Δt·(1 + 0.8·α15·Δt)); per delivered litre = 0.9 kg/L × VCF × 1.2 per kg
+    const a = 0.6278 / 900;
+    const vcf = Math.exp(-a * 25 * (1 + 0.8 * a * 25));
+    expect(s.costing.perDeliveredLitre!.tempC).toBe(40);
+    expect(s.costing.perDeliveredLitre!.cost).toBeCloseTo(0.9 * vcf * 1.2, 10);
+    // warmer litres are fewer kg: cheaper per litre than at 15 °C
+    expect(s.costing.perDeliveredLitre!.cost).toBeLessThan(s.costing.perLitre);
+  });
+
   it('leaves lines at 0 % off the sheet', () => {
     const s = buildBlendSheet(two, recipe([['a', 0.6], ['b', 0.4], ['zz', 0]]), { kg: 1000 });
     expect(s.rows.map((r) => r.code)).toEqual(['B', 'A']);
