@@ -845,8 +845,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             {qc && 'rows' in qc && qc.rows.some((r) => r.property.includes(INDEX_EXTRAPOLATED)) ? (
               <>
                 {' '}
-                “{INDEX_EXTRAPOLATED[0]!.toUpperCase() + INDEX_EXTRAPOLATED.slice(1)}”: the blending index is used beyond the range it was fitted on
-                (flash points below 200 °C, pour points of about −50…+10 °C), so the estimate is rougher still; only the measured value counts.
+                “{INDEX_EXTRAPOLATED[0]!.toUpperCase() + INDEX_EXTRAPOLATED.slice(1)}”: beyond the blending index’s fitted range; only the measured value counts.
               </>
             ) : null}
           </p>

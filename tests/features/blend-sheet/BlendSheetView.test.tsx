@@ -92,7 +92,7 @@ describe('BlendSheetView', () => {
     );
     const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
     expect(within(qc).getByText('Flash point, open cup (estimate; index extrapolated)')).toBeTruthy();
-    expect(screen.getByText(/“Index extrapolated”: the blending index is used beyond the range it was fitted on/)).toBeTruthy();
+    expect(screen.getByText(/“Index extrapolated”: beyond the blending index’s fitted range; only the measured value counts/)).toBeTruthy();
     cleanup();
     renderSheet();
     // The default rule of a sheet rendered without one; no extrapolation note when no row is marked.
