@@ -533,7 +533,7 @@ export interface SheetPrediction {
   pourPoint: number | null;
   /**
    * True when the flash estimate relies on the Wickey–Chittenden index beyond its fitted range (every
-   * gear oil: flash points of 200–300 °C); the row then says "index extrapolated". Absent → false.
+   * gear oil: flash points of 200–300 °C); the row then says "extrapolated estimate". Absent → false.
    */
   flashPointExtrapolated?: boolean;
   /** True when the pour estimate lies beyond the Hu–Burns index's fitted range. Absent → false. */
@@ -632,7 +632,7 @@ const fixedDot = (x: number, d: number) => x.toFixed(d);
  * The QC row's mark for a flash or pour estimate beyond the range its blending index was fitted on
  * (Wickey–Chittenden: flash points below 200 °C; Hu–Burns: pour points of about −50…+10 °C).
  */
-export const INDEX_EXTRAPOLATED = 'index extrapolated';
+export const INDEX_EXTRAPOLATED = 'extrapolated estimate';
 
 export const PER_SPECIFICATION = 'Per specification';
 
@@ -704,7 +704,7 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       property:
         predicted.flashPoint === null
           ? 'Flash point, open cup'
-          : `Flash point, open cup (estimate${predicted.flashPointExtrapolated ? `; ${INDEX_EXTRAPOLATED}` : ''})`,
+          : `Flash point, open cup (${predicted.flashPointExtrapolated ? INDEX_EXTRAPOLATED : 'estimate'})`,
       unit: '°C',
       predicted: predicted.flashPoint === null ? '—' : fmt(predicted.flashPoint, 0),
       target: limit(spec.flashMin, null, 0), min: spec.flashMin, max: null, method: 'ASTM D92', release: true,
@@ -715,7 +715,7 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       property:
         predicted.pourPoint === null
           ? 'Pour point'
-          : `Pour point (estimate${predicted.pourPointExtrapolated ? `; ${INDEX_EXTRAPOLATED}` : ''})`,
+          : `Pour point (${predicted.pourPointExtrapolated ? INDEX_EXTRAPOLATED : 'estimate'})`,
       unit: '°C',
       predicted: predicted.pourPoint === null ? '—' : fmt(predicted.pourPoint, 0),
       target: limit(null, spec.pourMax, 0), min: null, max: spec.pourMax, method: 'ASTM D97', release: true,

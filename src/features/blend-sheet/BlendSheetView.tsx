@@ -17,7 +17,6 @@ import {
   buildBlendSheet,
   defaultBlendingInstructions,
   qcReleaseTargets,
-  INDEX_EXTRAPOLATED,
   type BlendSheet,
   type QcRow,
   type SheetPrediction,
@@ -842,12 +841,6 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
             recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.{' '}
             <span data-testid="method-note">{methodText(method)}</span>
-            {qc && 'rows' in qc && qc.rows.some((r) => r.property.includes(INDEX_EXTRAPOLATED)) ? (
-              <>
-                {' '}
-                “{INDEX_EXTRAPOLATED[0]!.toUpperCase() + INDEX_EXTRAPOLATED.slice(1)}”: beyond the blending index’s fitted range; only the measured value counts.
-              </>
-            ) : null}
           </p>
         </section>
 

@@ -303,11 +303,11 @@ describe('qcReleaseTargets', () => {
     const marked = Object.fromEntries(
       qcReleaseTargets(320, { ...p, flashPointExtrapolated: true, pourPointExtrapolated: true }).map((r) => [r.key, r.property]),
     );
-    expect(marked.flash).toBe(`Flash point, open cup (estimate; ${INDEX_EXTRAPOLATED})`);
-    expect(marked.pour).toBe(`Pour point (estimate; ${INDEX_EXTRAPOLATED})`);
+    expect(marked.flash).toBe('Flash point, open cup (extrapolated estimate)');
+    expect(marked.pour).toBe('Pour point (extrapolated estimate)');
     // In °F the label stays (only the numbers are converted).
     const f = qcReleaseTargets(320, { ...p, flashPointExtrapolated: true }, { temperatureUnit: 'F' }).find((r) => r.key === 'flash')!;
-    expect(f.property).toBe(`Flash point, open cup (estimate; ${INDEX_EXTRAPOLATED})`);
+    expect(f.property).toBe(`Flash point, open cup (${INDEX_EXTRAPOLATED})`);
   });
 
   it('flags a prediction that falls outside its own release target', () => {

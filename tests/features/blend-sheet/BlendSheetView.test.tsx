@@ -85,19 +85,18 @@ function renderSheet(extra: Partial<Parameters<typeof BlendSheetView>[0]> = {}) 
 }
 
 describe('BlendSheetView', () => {
-  it('names the blend-viscosity method and explains a flash estimate beyond its index range (issue 13)', () => {
+  it('names the blend-viscosity method and marks a flash estimate beyond its index range (issue 13)', () => {
     renderSheet({ method: 'd7152-wright', predict: () => ({ ...prediction, flashPointExtrapolated: true }) });
     expect(screen.getByTestId('method-note').textContent).toBe(
       'Blend viscosity method: D7152 Wright method (two temperatures per component), volume fractions.',
     );
     const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
-    expect(within(qc).getByText('Flash point, open cup (estimate; index extrapolated)')).toBeTruthy();
-    expect(screen.getByText(/“Index extrapolated”: beyond the blending index’s fitted range; only the measured value counts/)).toBeTruthy();
+    expect(within(qc).getByText('Flash point, open cup (extrapolated estimate)')).toBeTruthy();
     cleanup();
     renderSheet();
     // The default rule of a sheet rendered without one; no extrapolation note when no row is marked.
     expect(screen.getByTestId('method-note').textContent).toBe('Blend viscosity method: Refutas blending number (mass fractions).');
-    expect(screen.queryByText(/“Index extrapolated”/)).toBeNull();
+    expect(within(screen.getByRole('table', { name: /Predicted properties and QC release/ })).queryByText(/extrapolated estimate/)).toBeNull();
   });
 
   it('prints the header, the component table in charging order and totals equal to the batch', () => {
