@@ -95,6 +95,30 @@ export type PlainSolveResult =
   | ({ status: 'optimal'; /** Probability in band; present when any component has `kv40RelSd`. */ inBandProbability?: number } & PlainBlend)
   | { status: 'infeasible'; reason: string };
 
+// Local copies of the limits the per-component checks compare with (one module-binding look-up at
+// load: Node loaders that compile modules to CommonJS read every imported binding through a getter).
+const RHO_MIN: number = DENSITY15_MIN;
+const RHO_MAX: number = DENSITY15_MAX;
+const KV100_FLOOR: number = VI_MIN_KV100;
+
+/** Up to this many components, duplicate ids are found by comparing with the earlier ones (no Set). */
+const SMALL_PROBLEM = 12;
+
+/**
+ * Whether components[i].id already appeared among components[0..i−1] (ids checked to be strings);
+ * records it in `ids` when given (large problems), else compares with the earlier ids directly.
+ */
+function seenBefore(src: readonly PlainComponent[], i: number, ids: Set<string> | null): boolean {
+  const id = src[i]!.id;
+  if (ids) {
+    if (ids.has(id)) return true;
+    ids.add(id);
+    return false;
+  }
+  for (let j = 0; j < i; j++) if (src[j]!.id === id) return true;
+  return false;
+}
+
 /** Re-raise a core error with the component's index in its field name. */
 function inComponent<T>(i: number, f: () => T): T {
   return inField(`components[${i}].`, f, { keep: (field) => field.startsWith('components[') });
@@ -127,22 +151,21 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
   // it fails, the full assert (or the original check) runs and throws the same named error with
   // the same message. Field names are built only then (no strings or closures per component on
   // the fast path — this function runs once per solve in the substitute search).
-  const ids = new Set<string>();
   const src = p.components;
+  const ids = src.length > SMALL_PROBLEM ? new Set<string>() : null;
   const comps: EngineComponent[] = [];
   for (let i = 0; i < src.length; i++) {
     const c = src[i]!;
     if (typeof c.id !== 'string' || c.id === '') {
       throw new BlendbenchInputError(fieldOf(i, 'id'), c.id, `${fn}: ${fieldOf(i, 'id')} must be a non-empty string`);
     }
-    if (ids.has(c.id)) throw new BlendbenchInputError(fieldOf(i, 'id'), c.id, `${fn}: id "${c.id}" appears twice`);
-    ids.add(c.id);
+    if (seenBefore(src, i, ids)) throw new BlendbenchInputError(fieldOf(i, 'id'), c.id, `${fn}: id "${c.id}" appears twice`);
     const kv40 = c.kv40;
     const kv100 = c.kv100;
     if (!(typeof kv40 === 'number' && typeof kv100 === 'number' && kv100 > 0 && kv100 < kv40 && kv40 < Number.POSITIVE_INFINITY)) {
       inComponent(i, () => assertKv40Kv100(fn, c.kv40, c.kv100));
     }
-    if (kv100 < VI_MIN_KV100) {
+    if (kv100 < KV100_FLOOR) {
       throw new ViscosityOutOfRangeError(
         fieldOf(i, 'kv100'),
         kv100,
@@ -150,7 +173,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       );
     }
     const rho = c.density15;
-    if (!(typeof rho === 'number' && rho >= DENSITY15_MIN && rho <= DENSITY15_MAX)) {
+    if (!(typeof rho === 'number' && rho >= RHO_MIN && rho <= RHO_MAX)) {
       assertDensity15(fn, fieldOf(i, 'density15'), rho);
     }
     if (!(typeof c.anilinePoint === 'number' && Number.isFinite(c.anilinePoint))) {

@@ -44,6 +44,7 @@ export interface ViChord {
 const D2270_KV100: Float64Array = TABLE_KV100;
 const D2270_L: Float64Array = TABLE_L;
 const D2270_H: Float64Array = TABLE_H;
+const KV100_FLOOR: number = VI_MIN_KV100;
 
 /**
  * L and H at Y without checks or allocation: `referenceViscositiesInto` of the D2270 module, the
@@ -51,6 +52,29 @@ const D2270_H: Float64Array = TABLE_H;
  * `referenceViscosities` exactly).
  */
 export const referenceLH = referenceViscositiesInto;
+
+/** X of the Table 1 rows and the quarter points between them, per coordinate function (see below). */
+const QUARTER_X = new Map<(kv: number) => number, Float64Array>();
+
+/**
+ * toXRaw(y) at y = y_r + (q/4)·(y_{r+1} − y_r) for every Table 1 row r and q = 0…3, at index 4r + q:
+ * constants of the table and the mixing rule, computed once per coordinate function (not per
+ * problem) with the same arithmetic as `relaxation`'s row loop, so the values are identical.
+ */
+function tableQuarterX(toXRaw: (kv: number) => number): Float64Array {
+  let t = QUARTER_X.get(toXRaw);
+  if (!t) {
+    const rows = D2270_KV100.length;
+    t = new Float64Array(4 * (rows - 1));
+    for (let r = 0; r < rows - 1; r++) {
+      const y0 = D2270_KV100[r] as number;
+      const y1 = D2270_KV100[r + 1] as number;
+      for (let q = 0; q < 4; q++) t[4 * r + q] = toXRaw(y0 + 0.25 * q * (y1 - y0));
+    }
+    QUARTER_X.set(toXRaw, t);
+  }
+  return t;
+}
 
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
 const GAP_SAMPLES = 16;
@@ -91,7 +115,7 @@ export class ViBoundary {
 
   /** g(X100) = X(U_max(ν(X100))): the largest blend X40 allowed at a blend X100. */
   g(x100: number): number {
-    const y = Math.max(VI_MIN_KV100, this.coords.toKvRaw(x100));
+    const y = Math.max(KV100_FLOOR, this.coords.toKvRaw(x100));
     return this.coords.toXRaw(this.uMax(y));
   }
 
@@ -194,6 +218,7 @@ export class ViBoundary {
       // Within a row interval L and H are the linear interpolation of the two rows (the same
       // arithmetic as referenceLH), so the curve point is computed from Y directly.
       const { toXRaw } = this.coords;
+      const rowX = tableQuarterX(toXRaw);
       for (let r = i; r < D2270_KV100.length - 1; r++) {
         const y0 = D2270_KV100[r] as number;
         if (y0 > yHi) break;
@@ -205,8 +230,8 @@ export class ViBoundary {
         for (let q = 0; q < 4; q++) {
           const f = 0.25 * q;
           const y = y0 + f * (y1 - y0);
-          if (!(y > yLo && y < yHi) || y < VI_MIN_KV100) continue;
-          check(toXRaw(y), toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH)));
+          if (!(y > yLo && y < yHi) || y < KV100_FLOOR) continue;
+          check(rowX[4 * r + q] as number, toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH)));
         }
       }
     }

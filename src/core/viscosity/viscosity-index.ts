@@ -8,7 +8,7 @@
  * Symbols (as in ASTM D2270): U = ν40 of the oil, Y = ν100 of the oil, L and H = ν40 of the VI-0 and
  * VI-100 reference oils having ν100 = Y; all kinematic viscosities in mm²/s (= cSt).
  */
-import { D2270_H, D2270_KV100, D2270_L } from './d2270-table1';
+import { D2270_H as TABLE_H, D2270_KV100 as TABLE_KV100, D2270_L as TABLE_L } from './d2270-table1';
 import { ViscosityOutOfRangeError, assertKv40Kv100, assertViscosity, assertFinite } from '../errors';
 
 /** Lowest ν100 for which D2270 defines a VI [mm²/s] (scope of the standard). */
@@ -16,6 +16,13 @@ export const VI_MIN_KV100 = 2.0;
 
 /** Highest ν100 covered by Table 1 [mm²/s]; above it the standard's equations apply. */
 export const VI_TABLE_MAX_KV100 = 70.0;
+
+// Local references to the Table 1 columns: one module-binding look-up at load, not one per access
+// in the binary search (Node loaders that compile modules to CommonJS turn every imported binding
+// into a getter call; the solver evaluates this look-up thousands of times per second).
+const D2270_KV100: Float64Array = TABLE_KV100;
+const D2270_L: Float64Array = TABLE_L;
+const D2270_H: Float64Array = TABLE_H;
 
 /**
  * L and H for Y = ν100 [mm²/s], written into `out` without input checks or allocation: Table 1 with
