@@ -1,5 +1,6 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
+import { SheetFooter } from './SheetFooter';
 import { displayWords, formatFixed, type NumberDisplay } from '../../core/words/display';
 import { useId, useMemo, useState } from 'react';
 import { flushSync } from 'react-dom';
@@ -12,7 +13,6 @@ import { correctionHoldReasons, releaseHoldReasons, RELEASE_HOLD_LABEL, type Hol
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
 import {
-  BLEND_SHEET_CAUTIONS,
   blendSheetCsvRows,
   buildBlendSheet,
   defaultBlendingInstructions,
@@ -844,25 +844,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </p>
         </section>
 
-        <section className="bs-cautions" aria-labelledby={`${id}-caut`}>
-          <h3 id={`${id}-caut`}>Cautions</h3>
-          <ul>
-            {BLEND_SHEET_CAUTIONS.map((c) => (
-              <li key={c}>{c}</li>
-            ))}
-          </ul>
-        </section>
-
-        <section className="bs-signoff" aria-label="Sign-off">
-          {['Blended by', 'QC tested by', 'Released by'].map((who) => (
-            <div key={who} className="bs-sign">
-              <div className="bs-sign-line">
-                <span className="bs-sign-role">{who}</span> (name, signature)
-              </div>
-              <div className="bs-sign-line">Date, time</div>
-            </div>
-          ))}
-        </section>
+        <SheetFooter roles={['Blended by', 'QC tested by', 'Released by']} />
       </article>
 
       {correction && 'result' in correction && correction.result.status === 'optimal' && correction.result.addedKg > 0 && (

@@ -2,7 +2,8 @@
 // order to charge it, with the same cautions as the blend sheet. Printed through the blend sheet's own
 // print path (the screen chooses which of the two documents the printer gets).
 import type { Recipe } from '../../core/formulation/model';
-import { BLEND_SHEET_CAUTIONS, PER_SPECIFICATION } from '../../core/sheet/blend-sheet';
+import { PER_SPECIFICATION } from '../../core/sheet/blend-sheet';
+import { SheetFooter } from './SheetFooter';
 import type { CorrectionProblem, CorrectionResult } from '../../core/qc/correction';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 
@@ -182,24 +183,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
         Predicted values are estimates ({p.methodLabel}, the batch as measured blended with the stocks on hand); the corrected batch is released
         only on its measured results.
       </p>
-      <section className="bs-cautions" aria-label="Cautions">
-        <h3>Cautions</h3>
-        <ul>
-          {BLEND_SHEET_CAUTIONS.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
-      </section>
-      <section className="bs-signoff" aria-label="Sign-off">
-        {['Corrected by', 'QC tested by', 'Released by'].map((who) => (
-          <div key={who} className="bs-sign">
-            <div className="bs-sign-line">
-              <span className="bs-sign-role">{who}</span> (name, signature)
-            </div>
-            <div className="bs-sign-line">Date, time</div>
-          </div>
-        ))}
-      </section>
+      <SheetFooter roles={['Corrected by', 'QC tested by', 'Released by']} />
     </article>
   );
 }
