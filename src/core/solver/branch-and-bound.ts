@@ -3,7 +3,7 @@
  * the fractions; `vi-boundary.ts` bounds it by chords of h on X40 intervals, each node's LP is a
  * relaxation, and best-first search returns the first node whose solution meets the true VI.
  */
-import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
+import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import type { PreparedProblem } from './prepared';
 import { viRoot } from './prepared';
 import { solveNodeInto, type NodeSolution, type SolveContext } from './rows';
@@ -88,7 +88,7 @@ export function viOf(P: PreparedProblem, x40: number, x100: number): number {
   const kv100 = P.coords.toKvRaw(x100);
   if (!Number.isFinite(kv40) || !Number.isFinite(kv100)) return Number.NEGATIVE_INFINITY;
   if (!(kv100 >= VI_MIN_KV100) || !(kv100 < kv40)) return Number.NEGATIVE_INFINITY;
-  return viscosityIndex(kv40, kv100);
+  return viscosityIndexUnchecked(kv40, kv100);
 }
 
 export interface OptimiseOutcome {
@@ -122,6 +122,34 @@ function solveWith(ctx: OptimiseContext, a: number, b: number, bandRows: boolean
     count.lps++;
   }
   return sol;
+}
+
+/** An open node of the VI branch and bound: an X40 interval, h at its ends and its LP solution. */
+interface BbNode {
+  a: number;
+  b: number;
+  ha: number;
+  hb: number;
+  sol: NodeSolution;
+}
+
+/**
+ * Solve the node LP on [na, nb] with the given VI relaxation lines and keep it in `open` when
+ * optimal (its solution copied out of the LP scratch memory). Returns true when the LP solver failed.
+ */
+function addNode(
+  ctx: OptimiseContext,
+  open: BbNode[],
+  count: { lps: number },
+  na: number,
+  nb: number,
+  ha: number,
+  hb: number,
+  chords: readonly ViChord[],
+): boolean {
+  const sol = solveWith(ctx, na, nb, true, chords, count);
+  if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol: { status: sol.status, x: sol.x.slice(), objective: sol.objective } });
+  return sol.status === 'failed';
 }
 
 /**
@@ -171,25 +199,15 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
     return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
   }
   const minAccept = vi.minVi - VI_ACCEPT_TOLERANCE;
-  interface Node {
-    a: number;
-    b: number;
-    ha: number;
-    hb: number;
-    sol: NodeSolution;
-  }
-  const open: Node[] = [];
-  let failed = false;
-  const addNode = (na: number, nb: number, ha: number, hb: number, cached?: readonly ViChord[] | null): void => {
-    const chords = cached ?? vi.relaxation(na, ha, nb, hb);
-    const sol = solveWith(ctx, na, nb, true, chords, count);
-    if (sol.status === 'failed') failed = true;
-    // The node is kept: its solution is copied out of the LP scratch memory.
-    if (sol.status === 'optimal') open.push({ a: na, b: nb, ha, hb, sol: { ...sol, x: sol.x.slice() } });
-  };
+  const open: BbNode[] = [];
   const root = bandOn && vi === P.vi ? viRoot(P) : null;
-  if (root) addNode(a, b, root.hA, root.hB, root.chords);
-  else addNode(a, b, vi.h(a), vi.h(b));
+  let failed: boolean;
+  if (root) failed = addNode(ctx, open, count, a, b, root.hA, root.hB, root.chords);
+  else {
+    const ha = vi.h(a);
+    const hb = vi.h(b);
+    failed = addNode(ctx, open, count, a, b, ha, hb, vi.relaxation(a, ha, b, hb));
+  }
   const maxLps = ctx.lazy ? 20 * MAX_LPS : MAX_LPS; // lazy cuts add LPs without adding nodes
   while (open.length > 0 && count.lps < maxLps) {
     // Best-first: the open node with the smallest (signed) objective.
@@ -213,8 +231,8 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
     if (!(span > 1e-10)) continue; // a point interval whose chord is exact cannot improve
     const split = Math.min(node.b - 0.02 * span, Math.max(node.a + 0.02 * span, bx.x40));
     const hs = vi.h(split, node.ha);
-    addNode(node.a, split, node.ha, hs);
-    addNode(split, node.b, hs, node.hb);
+    if (addNode(ctx, open, count, node.a, split, node.ha, hs, vi.relaxation(node.a, node.ha, split, hs))) failed = true;
+    if (addNode(ctx, open, count, split, node.b, hs, node.hb, vi.relaxation(split, hs, node.b, node.hb))) failed = true;
   }
   return { ...empty, status: failed && open.length === 0 ? 'failed' : 'infeasible', lpCount: count.lps };
 }

@@ -34,7 +34,7 @@
  * For objectives other than cost, a second LP minimises cost among recipes within a hair of the
  * first optimum (lexicographic), so ties are broken by price.
  */
-import { viscosityIndex, VI_MIN_KV100 } from '../viscosity/viscosity-index';
+import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUPS, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
 import { blendX, optimise, type OptimiseContext } from './branch-and-bound';
@@ -235,7 +235,7 @@ function finish(
   const bx = blendX(P, vars, w);
   const kv40 = P.coords.toKv(bx.x40);
   const kv100 = P.coords.toKv(bx.x100);
-  const vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndex(kv40, kv100) : null;
+  const vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
   const density15 = 1 / sv;
   return {
     status: 'optimal',

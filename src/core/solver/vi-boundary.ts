@@ -79,6 +79,13 @@ function tableQuarterX(toXRaw: (kv: number) => number): Float64Array {
 /** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
 const GAP_SAMPLES = 16;
 
+/**
+ * Curve samples of one {@link ViBoundary.relaxation} call (X100, X40), module scratch memory: at
+ * most GAP_SAMPLES − 1 even samples plus four per Table 1 row interval.
+ */
+const SAMPLE_X100 = new Float64Array(GAP_SAMPLES + 4 * D2270_KV100.length);
+const SAMPLE_X40 = new Float64Array(SAMPLE_X100.length);
+
 export class ViBoundary {
   readonly minVi: number;
   readonly coords: BlendCoordinates;
@@ -119,8 +126,99 @@ export class ViBoundary {
     return this.coords.toXRaw(this.uMax(y));
   }
 
-  /** h(X40) = g⁻¹(X40): the smallest blend X100 that satisfies the VI condition at X40 (bisection). */
+  /**
+   * h(X40) = g⁻¹(X40): the smallest blend X100 that satisfies the VI condition at X40.
+   *
+   * Explicit within ASTM D2270 Table 1 (ν100 ≤ 70 mm²/s): U_max is increasing in Y, so the row
+   * interval [y_r, y_r+1] with U_max(y_r) ≤ U < U_max(y_r+1) is found by a binary search on the
+   * rows (U = ν(X40)); inside it L and H are linear in Y (§7 interpolation), so for m ≤ 100
+   * U_max = L − (m/100)(L − H) is linear in Y and Y follows directly; for m > 100,
+   * H(Y) = U·Y^N is solved by Newton's method from that linear estimate (Y^N is smooth across a
+   * row; two or three steps reach rounding). Above the table, m ≤ 100 makes U_max a quadratic in Y
+   * (the D2270 equations), solved in closed form; m > 100 there falls back to a bracketed search.
+   *
+   * @param x40 - blend X40 (blending coordinate of ν40)
+   * @returns X100 = X(Y) with VI(ν(X40), Y) = minVi, or X(2.0 mm²/s) where the ν100 floor binds
+   */
   h(x40: number, below?: number): number {
+    if (x40 <= this.x40AtFloor) return this.x100Min;
+    const U = this.coords.toKvRaw(x40);
+    const y = this.yForUMax(U);
+    if (y > 0) return this.coords.toXRaw(y);
+    return this.hSearch(x40, below);
+  }
+
+  /** U_max at Table 1 row r [mm²/s] (the row's own L and H). */
+  private uMaxRow(r: number): number {
+    const m = this.minVi;
+    const L = D2270_L[r] as number;
+    const H = D2270_H[r] as number;
+    if (m <= 100) return L - (m / 100) * (L - H);
+    return H / Math.pow(D2270_KV100[r] as number, this.procedureBExponent);
+  }
+
+  /**
+   * Y [mm²/s] with U_max(Y) = U [mm²/s], for U_max(2.0) ≤ U; −1 when the answer needs the search
+   * (m > 100 above Table 1).
+   */
+  private yForUMax(U: number): number {
+    const last = D2270_KV100.length - 1;
+    const m = this.minVi;
+    let uHi = this.uMaxRow(last);
+    if (U > uHi) {
+      if (m > 100) return -1;
+      // U_max = A·Y² + B·Y + C with L, H the D2270 equations above 70 mm²/s (procedure A, k = m/100).
+      const k = m / 100;
+      const A = 0.8353 - k * (0.8353 - 0.1684);
+      const B = 14.67 - k * (14.67 - 11.85);
+      const C = -216 - k * (-216 + 97);
+      const d = U - C;
+      return Math.max(D2270_KV100[last] as number, (2 * d) / (B + Math.sqrt(B * B + 4 * A * d)));
+    }
+    // Largest row r with U_max(y_r) ≤ U (r < last).
+    let lo = 0;
+    let hi = last;
+    let uLo = this.uMaxRow(0);
+    if (U <= uLo) return KV100_FLOOR;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      const u = this.uMaxRow(mid);
+      if (u <= U) {
+        lo = mid;
+        uLo = u;
+      } else {
+        hi = mid;
+        uHi = u;
+      }
+    }
+    const y0 = D2270_KV100[lo] as number;
+    const dy = (D2270_KV100[hi] as number) - y0;
+    let f = (U - uLo) / (uHi - uLo);
+    if (m > 100) {
+      // Newton on F(f) = H0 + f·dH − U·(y0 + f·dy)^N, F' = dH − U·N·dy·Y^(N−1).
+      const N = this.procedureBExponent;
+      const H0 = D2270_H[lo] as number;
+      const dH = (D2270_H[hi] as number) - H0;
+      for (let k = 0; k < 6; k++) {
+        const y = y0 + f * dy;
+        const yn = Math.pow(y, N);
+        const step = (H0 + f * dH - U * yn) / (dH - (U * N * dy * yn) / y);
+        f -= step;
+        if (!(Math.abs(step) > 1e-15)) break;
+      }
+    }
+    if (!(f >= 0)) f = 0;
+    else if (f > 1) f = 1;
+    return y0 + f * dy;
+  }
+
+  /**
+   * h by a bracketed root search on g (Illinois, to 1e-12 relative): the fallback of {@link h}
+   * above Table 1 for m > 100, and the reference the explicit form is tested against.
+   *
+   * @param below - optional X100 known to satisfy g(below) ≤ x40 (a warm start)
+   */
+  hSearch(x40: number, below?: number): number {
     if (x40 <= this.x40AtFloor) return this.x100Min;
     // Bracket [lo, hi] with g(lo) < x40 ≤ g(hi); g is increasing (ν100 up to ~1e6 mm²/s at most).
     // `below`, when given, is a known X100 with g(below) ≤ x40 (e.g. h at a smaller X40).
@@ -184,24 +282,10 @@ export class ViBoundary {
   relaxation(a: number, ha: number, b: number, hb: number): ViChord[] {
     if (!(b - a > 1e-12)) return [{ alpha: Math.min(ha, hb), beta: 0 }];
     const beta = (hb - ha) / (b - a);
-    let delta = 0;
-    let slopeA = beta;
-    let slopeB = beta;
-    const check = (x100: number, x40: number): void => {
-      if (!(x40 > a && x40 < b)) return;
-      const excess = ha + beta * (x40 - a) - x100;
-      if (excess > delta) delta = excess;
-      const sa = (x100 - ha) / (x40 - a);
-      if (sa < slopeA) slopeA = sa;
-      const sb = (hb - x100) / (b - x40);
-      if (sb > slopeB) slopeB = sb;
-    };
+    // Curve points (X100, X40) into the module's sample buffer, then one pass over them.
     const lo = Math.min(ha, hb);
     const hi = Math.max(ha, hb);
-    for (let k = 1; k < GAP_SAMPLES; k++) {
-      const x100 = lo + ((hi - lo) * k) / GAP_SAMPLES;
-      check(x100, this.g(x100));
-    }
+    let ns = 0;
     const yLo = this.coords.toKvRaw(lo);
     const yHi = this.coords.toKvRaw(hi);
     if (yLo < 70.0) {
@@ -231,9 +315,33 @@ export class ViBoundary {
           const f = 0.25 * q;
           const y = y0 + f * (y1 - y0);
           if (!(y > yLo && y < yHi) || y < KV100_FLOOR) continue;
-          check(rowX[4 * r + q] as number, toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH)));
+          SAMPLE_X100[ns] = rowX[4 * r + q] as number;
+          SAMPLE_X40[ns++] = toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH));
         }
       }
+    }
+    if (ns < GAP_SAMPLES) {
+      // Few Table 1 rows inside (or none, above 70 mm²/s): evenly spaced samples as well.
+      for (let k = 1; k < GAP_SAMPLES; k++) {
+        const x100 = lo + ((hi - lo) * k) / GAP_SAMPLES;
+        SAMPLE_X100[ns] = x100;
+        SAMPLE_X40[ns++] = this.g(x100);
+      }
+    }
+    // The chord's largest excess over the curve, and the extreme secant slopes from each end.
+    let delta = 0;
+    let slopeA = beta;
+    let slopeB = beta;
+    for (let k = 0; k < ns; k++) {
+      const x40 = SAMPLE_X40[k] as number;
+      if (!(x40 > a && x40 < b)) continue;
+      const x100 = SAMPLE_X100[k] as number;
+      const excess = ha + beta * (x40 - a) - x100;
+      if (excess > delta) delta = excess;
+      const sa = (x100 - ha) / (x40 - a);
+      if (sa < slopeA) slopeA = sa;
+      const sb = (hb - x100) / (b - x40);
+      if (sb > slopeB) slopeB = sb;
     }
     // The end lines must also respect h's one-sided slopes at the ends (h is convex just inside
     // a row interval, so the smallest secant slope from a is its right-hand derivative there).

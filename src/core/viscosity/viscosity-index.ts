@@ -136,9 +136,27 @@ export function viscosityIndex(kv40: number, kv100: number): number {
   const fn = 'viscosityIndex';
   assertKv40Kv100(fn, kv40, kv100);
   assertViRange(fn, kv100);
+  return viscosityIndexUnchecked(kv40, kv100);
+}
+
+/** L and H of {@link viscosityIndexUnchecked} (module scratch: the core is synchronous). */
+const LH_SCRATCH = { L: 0, H: 0 };
+
+/**
+ * {@link viscosityIndex} without its input checks and without allocation, for inner loops whose
+ * arguments are already known to be valid (finite, 2.0 ≤ kv100 < kv40 [mm²/s]); the same
+ * arithmetic, so the same result bit for bit.
+ *
+ * @param kv40 - U [mm²/s]
+ * @param kv100 - Y [mm²/s], ≥ 2.0
+ * @returns the unrounded viscosity index (ASTM D2270 procedure A or B)
+ */
+export function viscosityIndexUnchecked(kv40: number, kv100: number): number {
   const U = kv40;
   const Y = kv100;
-  const { L, H } = referenceViscosities(Y);
+  referenceViscositiesInto(Y, LH_SCRATCH);
+  const L = LH_SCRATCH.L;
+  const H = LH_SCRATCH.H;
   if (U >= H) {
     // Procedure A: linear position of U between the VI-0 and VI-100 reference oils.
     return (100 * (L - U)) / (L - H);

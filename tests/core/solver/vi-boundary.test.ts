@@ -57,6 +57,27 @@ describe('VI boundary (ASTM D2270 solved for ν40)', () => {
     }
   });
 
+  it('the explicit h equals the root search on g (Table 1 rows, between rows, above the table)', () => {
+    // identity: both invert the same g (ASTM D2270 Table 1 and equations); no external source
+    for (const method of ['refutas', 'astm-d7152'] as const) {
+      const c = blendCoordinates(method);
+      for (const m of [0, 60, 95, 100, 100.5, 105, 120, 140, 180]) {
+        const b = new ViBoundary(m, c);
+        for (let kv = 2.5; kv < 40000; kv *= 1.017) {
+          const x40 = c.toX(kv);
+          const h = b.h(x40);
+          expect(Math.abs(h - b.hSearch(x40))).toBeLessThanOrEqual(1e-11 * Math.max(1, Math.abs(h)));
+          if (h > b.x100Min) expect(Math.abs(b.g(h) - x40)).toBeLessThanOrEqual(1e-11 * Math.max(1, Math.abs(x40)));
+        }
+        // exactly at the rows of Table 1
+        for (const y of [2.1, 9.9, 20, 20.2, 30, 30.5, 69.5]) {
+          const x40 = c.toX(b.uMax(y));
+          expect(b.h(x40)).toBeCloseTo(c.toX(y), 11);
+        }
+      }
+    }
+  });
+
   it('every relaxation line lies below h on its interval (validity)', () => {
     // property: the lines are under-estimators of h, checked on a fine grid of the interval
     for (const method of ['refutas', 'astm-d7152'] as const)
