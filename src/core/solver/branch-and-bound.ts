@@ -5,7 +5,7 @@
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import type { PreparedProblem } from './prepared';
-import { viRoot } from './prepared';
+import { groupOn, viRoot } from './prepared';
 import { solveNodeInto, type NodeSolution, type SolveContext } from './rows';
 import type { ViChord } from './vi-boundary';
 import type { ExtraRow } from './objectives';
@@ -174,7 +174,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
   const nv = vars.length;
   const empty = { status: 'infeasible' as const, w: NO_FRACTIONS, value: Number.NaN, lpCount: 0 };
   if (nv === 0) return empty;
-  const bandOn = groups.has('band');
+  const bandOn = groupOn(groups, 'band');
   let a = P.bandA;
   let b = P.bandB;
   if (!bandOn) {
@@ -185,7 +185,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
       b = Math.max(b, P.x40[i]!);
     }
   }
-  const vi = groups.has('vi') ? ctx.vi : null;
+  const vi = groupOn(groups, 'vi') ? ctx.vi : null;
   const sign = ctx.objective.kind === 'ratio' && ctx.objective.sense === 'maximize' ? -1 : 1;
   // First LP without the VI condition: a relaxation; if its optimum already meets the VI it is
   // optimal, and the (costlier) VI relaxation is never built. Most recipes end here.

@@ -35,7 +35,7 @@
  * first optimum (lexicographic), so ties are broken by price.
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
-import { ALL_GROUPS, type ConstraintGroup, type PreparedProblem } from './prepared';
+import { ALL_GROUP_SET, groupOn, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
 import { blendX, optimise, type OptimiseContext } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
@@ -95,7 +95,6 @@ export interface SolvePreparedOptions {
   certify?: boolean;
 }
 
-const ALL_GROUP_SET: ReadonlySet<ConstraintGroup> = new Set(ALL_GROUPS);
 
 /**
  * Solve the prepared problem over a subset of its components — the fast path.
@@ -130,7 +129,7 @@ export function solvePrepared(
   // A forced component that cannot be used makes the problem infeasible (bounds active).
   for (const i of P.forced) {
     const k = P.components[i]!;
-    const active = k.fixedAdditive ? groups.has('additive') : groups.has('bounds');
+    const active = k.fixedAdditive ? groupOn(groups, 'additive') : groupOn(groups, 'bounds');
     if (active && !vars.includes(i)) return { status: 'infeasible', lpCount: 0 };
   }
   if (vars.length === 0) return { status: 'infeasible', lpCount: 0 };
@@ -147,18 +146,18 @@ export function solvePrepared(
       max100 = Math.max(max100, P.x100[i]!);
       if (!Number.isNaN(P.ap[i]!)) minAp = Math.min(minAp, P.ap[i]!);
     }
-    if (groups.has('band')) {
+    if (groupOn(groups, 'band')) {
       const eps = 1e-9;
       if (max40 < P.bandA - eps || min40 > P.bandB + eps) return { status: 'infeasible', lpCount: 0 };
       // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo);
       // the margin (≈ 0.05 VI) keeps this test strictly on the safe side of the VI tolerance.
       // Tested without h (a root search) as g(max X100 + margin) < X(ν_lo) — the same condition,
       // since g = h⁻¹ is increasing — at the cost of one evaluation of g.
-      if (groups.has('vi') && vi && vi === P.vi && vi.g(max100 + 1e-3 / P.coords.rowScale) < P.bandA) {
+      if (groupOn(groups, 'vi') && vi && vi === P.vi && vi.g(max100 + 1e-3 / P.coords.rowScale) < P.bandA) {
         return { status: 'infeasible', lpCount: 0 };
       }
     }
-    if (groups.has('aniline') && t.maxAnilinePoint !== null && minAp > t.maxAnilinePoint + 1e-9) {
+    if (groupOn(groups, 'aniline') && t.maxAnilinePoint !== null && minAp > t.maxAnilinePoint + 1e-9) {
       return { status: 'infeasible', lpCount: 0 };
     }
   }
@@ -167,7 +166,7 @@ export function solvePrepared(
   const withAux = objective.kind === 'closest';
   // The probability in band, as a lazy constraint of the branch and bound (qc/robust.ts).
   const pMin = options.nominal ? null : (t.minInBandProbability ?? null);
-  const lazy = pMin !== null && pMin > 0 && groups.has('band') ? inBandSeparator(P, pMin) : null;
+  const lazy = pMin !== null && pMin > 0 && groupOn(groups, 'band') ? inBandSeparator(P, pMin) : null;
   const ctx: OptimiseContext = { P, vars, groups, objective, extra: [], vi, withAux, lazy };
   const first = optimise(ctx);
   let lpCount = first.lpCount;

@@ -68,7 +68,7 @@ export function pourObjective(P: PreparedProblem): RatioObjective {
 export function flashObjective(P: PreparedProblem): RatioObjective {
   return relObjective(P, P.flashRel);
 }
-function relObjective(P: PreparedProblem, rel: Float64Array): RatioObjective {
+function relObjective(P: PreparedProblem, rel: ArrayLike<number>): RatioObjective {
   const num = new Float64Array(P.n);
   const den = new Float64Array(P.n);
   for (let i = 0; i < P.n; i++) {

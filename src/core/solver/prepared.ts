@@ -87,6 +87,14 @@ export const ALL_GROUPS: readonly ConstraintGroup[] = [
   'flash',
 ];
 
+/** Every constraint group (the default of a solve). */
+export const ALL_GROUP_SET: ReadonlySet<ConstraintGroup> = new Set(ALL_GROUPS);
+
+/** Whether a constraint group is switched on (no set look-up for the default, every group on). */
+export function groupOn(groups: ReadonlySet<ConstraintGroup>, g: ConstraintGroup): boolean {
+  return groups === ALL_GROUP_SET || groups.has(g);
+}
+
 /** Reference properties for the 'closest' objective (computed from the reference recipe). */
 export interface ClosestReference {
   x40: number;
@@ -107,14 +115,20 @@ export interface ClosestReference {
 export interface RatioObjective {
   kind: 'ratio';
   sense: 'minimize' | 'maximize';
-  num: Float64Array;
-  den: Float64Array;
+  num: ArrayLike<number>;
+  den: ArrayLike<number>;
 }
 /** The 'closest' objective: min Σ of three auxiliary deviation variables, normalise Σ w = 1. */
 export interface ClosestObjective {
   kind: 'closest';
 }
 export type EngineObjective = RatioObjective | ClosestObjective;
+
+/**
+ * One number per component, aligned with `components` (a plain array of doubles: far cheaper to
+ * create per problem than a typed array, and as fast to read).
+ */
+export type Column = readonly number[];
 
 /**
  * Per-component numbers precomputed once for a set of components, targets and mixing rule;
@@ -126,18 +140,18 @@ export interface PreparedProblem {
   readonly components: readonly EngineComponent[];
   readonly targets: EngineTargets;
   readonly n: number;
-  readonly x40: Float64Array;
-  readonly x100: Float64Array;
+  readonly x40: Column;
+  readonly x100: Column;
   /** Viscosity basis weight cᵢ (1, 1/ρᵢ, or 1/(ρᵢBᵢ) for Wright). */
-  readonly c: Float64Array;
-  readonly invRho: Float64Array;
+  readonly c: Column;
+  readonly invRho: Column;
   /** Aniline point, NaN where null. */
-  readonly ap: Float64Array;
-  readonly price: Float64Array;
-  readonly ox: Float64Array;
+  readonly ap: Column;
+  readonly price: Column;
+  readonly ox: Column;
   /** Pour index / BI_max and flash index / FI_max (NaN where unknown or no limit). */
-  readonly pourRel: Float64Array;
-  readonly flashRel: Float64Array;
+  readonly pourRel: Column;
+  readonly flashRel: Column;
   /** Band in X: [bandA, bandB]. */
   readonly bandA: number;
   readonly bandB: number;
@@ -170,30 +184,31 @@ export function prepareEngine(
 ): PreparedProblem {
   const coords = blendCoordinates(method);
   const n = components.length;
-  const x40 = new Float64Array(n);
-  const x100 = new Float64Array(n);
-  const c = new Float64Array(n);
-  const invRho = new Float64Array(n);
-  const ap = new Float64Array(n);
-  const price = new Float64Array(n);
-  const ox = new Float64Array(n);
-  const pourRel = new Float64Array(n).fill(Number.NaN);
-  const flashRel = new Float64Array(n).fill(Number.NaN);
+  // Plain arrays filled by push (packed doubles): cheaper to create than typed arrays.
+  const x40: number[] = [];
+  const x100: number[] = [];
+  const c: number[] = [];
+  const invRho: number[] = [];
+  const ap: number[] = [];
+  const price: number[] = [];
+  const ox: number[] = [];
+  const pourRel: number[] = [];
+  const flashRel: number[] = [];
   const pourMax = targets.maxPourPoint === null ? null : pourBlendingIndex(targets.maxPourPoint);
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
   const forced: number[] = [];
   const usableIndices: number[] = [];
   for (let i = 0; i < n; i++) {
     const k = components[i]!;
-    x40[i] = coords.toX(k.kv40);
-    x100[i] = coords.toX(k.kv100);
-    invRho[i] = 1 / k.density15;
-    c[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
-    ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
-    price[i] = k.pricePerKg;
-    ox[i] = k.baseFluid ? k.oxidation : 0;
-    if (pourMax !== null && k.pourPoint !== null) pourRel[i] = pourBlendingIndex(k.pourPoint) / pourMax;
-    if (flashMax !== null && k.flashPoint !== null) flashRel[i] = flashBlendingIndex(k.flashPoint) / flashMax;
+    x40.push(coords.toX(k.kv40));
+    x100.push(coords.toX(k.kv100));
+    invRho.push(1 / k.density15);
+    c.push(coords.basisWeight(k.kv40, k.kv100, k.density15));
+    ap.push(k.anilinePoint === null ? Number.NaN : k.anilinePoint);
+    price.push(k.pricePerKg);
+    ox.push(k.baseFluid ? k.oxidation : 0);
+    pourRel.push(pourMax !== null && k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN);
+    flashRel.push(flashMax !== null && k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN);
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
   }

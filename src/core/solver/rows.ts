@@ -3,7 +3,7 @@
  * path of the substitute search: no closures, few allocations). The rows are the homogeneous
  * inequalities listed in `engine.ts`; a fixed additive treat rate is folded into the other columns.
  */
-import type { PreparedProblem, ConstraintGroup } from './prepared';
+import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared';
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
 import { LpWorkspace, solveDenseLp } from './lp';
@@ -78,7 +78,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
   // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r); column a is folded into the others below.
   let fold = -1;
-  if (nv > 1 && groups.has('additive')) {
+  if (nv > 1 && groupOn(groups, 'additive')) {
     for (let j = 0; j < nv; j++) {
       const k = comps[vars[j]!]!;
       if (k.fixedAdditive && k.min === k.max && k.min < 1) {
@@ -141,7 +141,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     rowLo[m++] = 0;
     o += width;
   }
-  if (t.maxAnilinePoint !== null && groups.has('aniline')) {
+  if (t.maxAnilinePoint !== null && groupOn(groups, 'aniline')) {
     // Σ_A (wᵢ/ρᵢ)(APᵢ − AP_max) ≤ 0 (scaled by 0.1).
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
@@ -150,7 +150,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     rowHi[m++] = 0;
     o += width;
   }
-  if (t.maxPolymerFraction !== null && groups.has('polymer')) {
+  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) {
     // Σ_P wᵢ − p_max·Σ wᵢ ≤ 0.
     let any = false;
     for (let j = 0; j < nv; j++) {
@@ -163,7 +163,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
       o += width;
     } else buf.fill(0, o, o + width);
   }
-  if (t.maxPourPoint !== null && groups.has('pour')) {
+  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) {
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
       buf[o + j] = P.invRho[i]! * (P.pourRel[i]! - 1);
@@ -171,7 +171,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     rowHi[m++] = 0;
     o += width;
   }
-  if (t.minFlashPoint !== null && groups.has('flash')) {
+  if (t.minFlashPoint !== null && groupOn(groups, 'flash')) {
     for (let j = 0; j < nv; j++) {
       const i = vars[j]!;
       buf[o + j] = P.invRho[i]! * (P.flashRel[i]! - 1);
@@ -180,8 +180,8 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     o += width;
   }
   // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0 (the folded additive needs none).
-  const boundsOn = groups.has('bounds');
-  const additiveOn = groups.has('additive');
+  const boundsOn = groupOn(groups, 'bounds');
+  const additiveOn = groupOn(groups, 'additive');
   for (let j = 0; j < nv; j++) {
     if (j === fold) continue;
     const k = comps[vars[j]!]!;

@@ -53,6 +53,13 @@ const KV100_FLOOR: number = VI_MIN_KV100;
  */
 export const referenceLH = referenceViscositiesInto;
 
+/** ln of the Table 1 columns Y and H (the row search of h for VI > 100). */
+const LN_KV100 = D2270_KV100.map(Math.log);
+const LN_H = D2270_H.map(Math.log);
+
+/** X100 of ν100 = 2.0 mm²/s, per coordinate system. */
+const FLOOR_X100 = new Map<BlendCoordinates, number>();
+
 /** X of the Table 1 rows and the quarter points between them, per coordinate function (see below). */
 const QUARTER_X = new Map<(kv: number) => number, Float64Array>();
 
@@ -99,9 +106,12 @@ export class ViBoundary {
   constructor(minVi: number, coords: BlendCoordinates) {
     this.minVi = minVi;
     this.coords = coords;
-    this.x100Min = coords.toX(VI_MIN_KV100);
+    let x100Min = FLOOR_X100.get(coords);
+    if (x100Min === undefined) FLOOR_X100.set(coords, (x100Min = coords.toX(VI_MIN_KV100)));
+    this.x100Min = x100Min;
     this.procedureBExponent = minVi > 100 ? Math.log10(1 + 0.00715 * (minVi - 100)) : 0;
-    this.x40AtFloor = this.g(this.x100Min);
+    // g at the floor: U_max at Y = 2.0 mm²/s, the first row of Table 1.
+    this.x40AtFloor = coords.toXRaw(this.uMaxRow(0));
   }
 
   /**
@@ -180,16 +190,29 @@ export class ViBoundary {
     let hi = last;
     let uLo = this.uMaxRow(0);
     if (U <= uLo) return KV100_FLOOR;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      const u = this.uMaxRow(mid);
-      if (u <= U) {
-        lo = mid;
-        uLo = u;
-      } else {
-        hi = mid;
-        uHi = u;
+    if (m <= 100) {
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        const u = this.uMaxRow(mid);
+        if (u <= U) {
+          lo = mid;
+          uLo = u;
+        } else {
+          hi = mid;
+          uHi = u;
+        }
       }
+    } else {
+      // U_max(y_r) ≤ U ⇔ ln H_r − N·ln y_r ≤ ln U: no power per probe.
+      const lnU = Math.log(U);
+      const N = this.procedureBExponent;
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if ((LN_H[mid] as number) - N * (LN_KV100[mid] as number) <= lnU) lo = mid;
+        else hi = mid;
+      }
+      uLo = this.uMaxRow(lo);
+      uHi = this.uMaxRow(hi);
     }
     const y0 = D2270_KV100[lo] as number;
     const dy = (D2270_KV100[hi] as number) - y0;
