@@ -695,19 +695,33 @@ export function sheetProblems(s: SheetFields, who?: string, parseBatch?: (text: 
   return out;
 }
 
-/** QC-loop inputs of one recipe as stored (structurally `QcInputs` in recipes.ts). */
-export interface QcFields {
+/**
+ * What the plant enters for a recipe's QC loop on its blend sheet (every number null = not entered):
+ * the aim, the measured lots in the tanks, the heel in the vessel, and the QC result of a batch with
+ * the limits of its correction. Units: mm²/s, kg/L at 15 °C, kg; fractions 0–1.
+ */
+export interface QcInputs {
+  /** Aim ν40 of the batch [mm²/s]; null → the grade mid-point. */
   aimKv40: number | null;
+  /** Measured values of the lot in the tank, by stock id; null → the library's value. */
   lots: Record<string, { kv40: number | null; kv100: number | null; density15: number | null }>;
+  /** Oil already in the vessel; massKg null or 0 → none. `additiveFraction` is its additive package share. */
   heel: { massKg: number | null; kv40: number | null; kv100: number | null; density15: number | null; additiveFraction: number | null; source: string };
   correction: {
+    /** Measured ν40 and ν100 of the batch [mm²/s]. */
     kv40: number | null;
     kv100: number | null;
+    /** Mass in the vessel [kg]; null → the batch size. */
     massKg: number | null;
+    /** Most the vessel holds [kg]; null → no limit. */
     vesselLimitKg: number | null;
+    /** Correct to within ± this % of the aim (inside the release band); null → the default. */
     bandPct: number | null;
+    objective: 'cost' | 'mass';
+    /** kg on hand by stock id; null → unlimited. */
     onHandKg: Record<string, number | null>;
-    stockIds: readonly string[];
+    /** Stocks besides the recipe's that may be added. */
+    stockIds: string[];
   };
 }
 
@@ -716,7 +730,7 @@ export interface QcFields {
  * densities, the heel, the QC result of the batch and the correction's limits. Blank (null) is allowed
  * everywhere: it means "not measured" or "no limit".
  */
-export function qcProblems(q: QcFields, who?: string): FieldProblem[] {
+export function qcProblems(q: QcInputs, who?: string): FieldProblem[] {
   const { out, add } = collector();
   const opt = (path: Array<string | number>, field: NumberRuleKey, v: number | null) => add(path, v === null ? null : checkNumber(field, v, who));
   opt(['aimKv40'], 'targetKv40', q.aimKv40);

@@ -18,7 +18,10 @@ import {
   sheetProblems,
   qcProblems,
   targetsProblems,
+  type QcInputs,
 } from './field-rules';
+
+export type { QcInputs };
 import { emptyLinePlan, type LinePlanInputs } from './lineplan';
 
 export interface RecipesData {
@@ -33,36 +36,6 @@ export interface RecipesData {
   linePlan: LinePlanInputs;
   /** QC-loop entries per recipe id (schema 8): lots, heel, QC result, correction; not part of undo history. */
   qc: Record<string, QcInputs>;
-}
-
-/**
- * What the plant enters for a recipe's QC loop on its blend sheet (every number null = not entered):
- * the aim, the measured lots in the tanks, the heel in the vessel, and the QC result of a batch with
- * the limits of its correction. Units: mm²/s, kg/L at 15 °C, kg; fractions 0–1.
- */
-export interface QcInputs {
-  /** Aim ν40 of the batch [mm²/s]; null → the grade mid-point. */
-  aimKv40: number | null;
-  /** Measured values of the lot in the tank, by stock id; null → the library's value. */
-  lots: Record<string, { kv40: number | null; kv100: number | null; density15: number | null }>;
-  /** Oil already in the vessel; massKg null or 0 → none. `additiveFraction` is its additive package share. */
-  heel: { massKg: number | null; kv40: number | null; kv100: number | null; density15: number | null; additiveFraction: number | null; source: string };
-  correction: {
-    /** Measured ν40 and ν100 of the batch [mm²/s]. */
-    kv40: number | null;
-    kv100: number | null;
-    /** Mass in the vessel [kg]; null → the batch size. */
-    massKg: number | null;
-    /** Most the vessel holds [kg]; null → no limit. */
-    vesselLimitKg: number | null;
-    /** Correct to within ± this % of the aim (inside the release band); null → the default. */
-    bandPct: number | null;
-    objective: 'cost' | 'mass';
-    /** kg on hand by stock id; null → unlimited. */
-    onHandKg: Record<string, number | null>;
-    /** Stocks besides the recipe's that may be added. */
-    stockIds: string[];
-  };
 }
 
 export const DEFAULT_QC_INPUTS: QcInputs = {

@@ -19,6 +19,7 @@ import {
   settingsProblems,
   sheetProblems,
   qcProblems,
+  type QcInputs,
   stockProblems,
   targetsProblems,
   type CollectionKey,
@@ -345,6 +346,8 @@ agree<z.infer<typeof targetsSchema>, BlendTargets>();
 agree<BlendTargets, z.infer<typeof targetsSchema>>();
 agree<z.infer<typeof linePlanSchema>, LinePlanInputs>();
 agree<LinePlanInputs, z.infer<typeof linePlanSchema>>();
+agree<z.infer<typeof qcInputsSchema>, QcInputs>();
+agree<QcInputs, z.infer<typeof qcInputsSchema>>();
 
 /** One-line, human-readable summary of a zod error: "viscosityPoints: …; price.amount: …". */
 export function describeIssues(error: z.ZodError, max = 4): string {

@@ -1,3 +1,5 @@
+import { readFileSync, readdirSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
@@ -35,5 +37,15 @@ describe('QC-loop entries in the recipes store (schema 8)', () => {
     expect((persistedData('recipes') as { qc: unknown }).qc).toEqual(useRecipes.getState().qc);
     const parsed = parseBackupText(makeBackupText());
     expect(parsed.ok && parsed.backup.recipes.qc['demo-vg320']!.lots['demo-bw-190']!.kv40).toBe(470);
+  });
+
+  it('declares the shape of the QC entries once (field-rules.ts), for the store, its rules and its schema alike', () => {
+    // The store (recipes.ts), the field rules and the zod schema all import QcInputs from field-rules.ts;
+    // schemas.ts checks at compile time that the schema and the type agree both ways.
+    const dir = resolve(__dirname, '..', '..', 'src', 'state');
+    const declared = readdirSync(dir)
+      .filter((f) => f.endsWith('.ts'))
+      .flatMap((f) => [...readFileSync(join(dir, f), 'utf8').matchAll(/^export (?:interface|type) (Qc\w*(?:Inputs|Fields))\b/gm)].map((m) => `${f}:${m[1]}`));
+    expect(declared).toEqual(['field-rules.ts:QcInputs']);
   });
 });
