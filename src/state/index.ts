@@ -77,7 +77,7 @@ export type { LibraryState, LibraryData } from './library';
 export type { RecipesState, RecipesData, NewRecipe, SheetInputs, QcInputs, RecipeChanges } from './recipes';
 export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
 export type { LinePlanInputs } from './lineplan';
-export { emptyLinePlan } from './lineplan';
+export { emptyLinePlan, leastUseAboveSupply } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
 export { blankComponent, freeCode, libraryRoomProblem } from './library';
 /** Today's date as YYYY-MM-DD, local time (the date printed on sheets and summaries). */

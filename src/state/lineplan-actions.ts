@@ -7,17 +7,29 @@
  */
 import type { RecipeLine, StockBasis } from '../core/formulation/model';
 import { useRecipesStore } from './recipes';
-import type { LinePlanInputs } from './lineplan';
-import { FieldRuleError, firstProblem, linePlanProblems } from './field-rules';
+import { leastUseAboveSupply, type LinePlanInputs } from './lineplan';
+import { FieldRuleError, firstProblem, fmtRuleNumber, linePlanProblems } from './field-rules';
 
-/** Change the plan if the result passes the field rules; returns the refusal in words, or null. */
-function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>): string | null {
+/**
+ * Change the plan if the result passes the field rules (and `check`, a rule across fields of the
+ * record being edited); returns the refusal in words, or null.
+ */
+function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>, check?: (next: LinePlanInputs) => string | null): string | null {
   const cur = useRecipesStore.getState().linePlan;
   const next = { ...cur, ...f(cur) };
-  const refused = firstProblem(linePlanProblems(next));
+  const refused = firstProblem(linePlanProblems(next)) ?? check?.(next) ?? null;
   if (refused) return refused;
   useRecipesStore.setState({ linePlan: next });
   return null;
+}
+
+/**
+ * The store's own guard (the screen refuses first, with the stock's code and the user's unit): kg
+ * written plainly, as the field rules' messages are.
+ */
+function aboveSupply(p: LinePlanInputs, componentId: string): string | null {
+  const over = leastUseAboveSupply(p, componentId);
+  return over && `the least use (${fmtRuleNumber(over.leastUseKg)} kg) is above the stock's supply (${fmtRuleNumber(over.supplyKg)} kg) over the period`;
 }
 
 function without<T>(rec: Record<string, T>, key: string): Record<string, T> {
@@ -46,16 +58,23 @@ export const linePlanActions = {
       for (const id of replaces) if (id !== recipeId) demands = without(demands, id);
       return { demands: kg === null ? without(demands, recipeId) : { ...demands, [recipeId]: kg } };
     }),
-  /** Supply of a limited stock over the period [kg]; null → limited, supply not entered. */
-  setSupply: (componentId: string, kg: number | null) => patchPlan((p) => ({ supplies: { ...p.supplies, [componentId]: kg } })),
+  /**
+   * Supply of a limited stock over the period [kg]; null → limited, supply not entered. Refused below
+   * the stock's least use (`leastUseAboveSupply`; the entry field says so first, naming the stock).
+   */
+  setSupply: (componentId: string, kg: number | null) =>
+    patchPlan((p) => ({ supplies: { ...p.supplies, [componentId]: kg } }), (p) => aboveSupply(p, componentId)),
   /** Limit a stock in this plan (it is then gone in the plan after the limited stocks). */
   limitStock: (componentId: string) =>
     patchPlan((p) => (componentId in p.supplies ? {} : { supplies: { ...p.supplies, [componentId]: null } })),
   /** Drop a stock's entry from the plan's supplies (a stock limited in the library stays limited). */
   unlimitStock: (componentId: string) => patchPlan((p) => ({ supplies: without(p.supplies, componentId) })),
-  /** A stock that must stay in use, with its least use [kg]; null → no longer required. */
+  /**
+   * A stock that must stay in use, with its least use [kg]; null → no longer required. Refused above
+   * the stock's supply (`leastUseAboveSupply`; the entry field says so first, naming the stock).
+   */
   setKeep: (componentId: string, kg: number | null) =>
-    patchPlan((p) => ({ keep: kg === null ? without(p.keep, componentId) : { ...p.keep, [componentId]: kg } })),
+    patchPlan((p) => ({ keep: kg === null ? without(p.keep, componentId) : { ...p.keep, [componentId]: kg } }), (p) => aboveSupply(p, componentId)),
   setMaxStocks: (n: number | null) => patchPlan(() => ({ maxStocks: n })),
   setPeriod: (period: string) => patchPlan(() => ({ period })),
   setDemandUnit: (demandUnit: 'kg' | 't') => patchPlan(() => ({ demandUnit })),

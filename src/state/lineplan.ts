@@ -28,3 +28,20 @@ export interface LinePlanInputs {
 export function emptyLinePlan(): LinePlanInputs {
   return { period: '', demandUnit: 't', demands: {}, supplies: {}, keep: {}, maxStocks: null };
 }
+
+/**
+ * A stock kept in use with a least use above its supply over the period, both in kg, or null when
+ * they fit (no least use, no supply entered, or least use ≤ supply). `change` gives a value being
+ * typed in place of the stored one (`keepKg` for the least use, `supplyKg` for the supply), so the
+ * entry field and the store action refuse alike. No plan can use more of a stock than is supplied.
+ */
+export function leastUseAboveSupply(
+  plan: Pick<LinePlanInputs, 'keep' | 'supplies'>,
+  componentId: string,
+  change: { keepKg?: number | null; supplyKg?: number | null } = {},
+): { leastUseKg: number; supplyKg: number } | null {
+  const leastUseKg = change.keepKg !== undefined ? change.keepKg : (plan.keep[componentId] ?? null);
+  const supplyKg = change.supplyKg !== undefined ? change.supplyKg : (plan.supplies[componentId] ?? null);
+  if (leastUseKg === null || supplyKg === null || leastUseKg <= supplyKg) return null;
+  return { leastUseKg, supplyKg };
+}

@@ -4,7 +4,7 @@ import { useId, useState, type ReactNode } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
-import { linePlanActions, type LinePlanInputs } from '../../state';
+import { leastUseAboveSupply, linePlanActions, type LinePlanInputs } from '../../state';
 import { NUMBER_RULES, checkText } from '../../state/field-rules';
 import { limitedStocks, plannedDemands } from './derive';
 
@@ -63,6 +63,15 @@ export function PlanInputs({
   const keepable = components.filter((c) => c.availability !== 'withdrawn' && !(c.id in plan.keep));
   const byId = new Map(components.map((c) => [c.id, c]));
   const plannedTotal = [...demands.values()].reduce((s, d) => s + d.kg, 0);
+  const amount = (kg: number) => `${fmt.say(kg / PER_UNIT[unit])} ${unit}`;
+  /** A supply typed below the stock's least use, or a least use above its supply, in the user's words. */
+  const overSupply = (c: Component, change: { keepKg?: number | null; supplyKg?: number | null }): string | undefined => {
+    const over = leastUseAboveSupply(plan, c.id, change);
+    if (!over) return undefined;
+    return change.supplyKg !== undefined
+      ? `${c.code}: a supply of ${amount(over.supplyKg)} is below its least use of ${amount(over.leastUseKg)} (Stocks that must stay in use). Raise the supply or lower the least use.`
+      : `${c.code}: a least use of ${amount(over.leastUseKg)} is above its supply of ${amount(over.supplyKg)} over the period (Limited stocks). Lower the least use or raise the supply.`;
+  };
 
   return (
     <div className="lp-inputs">
@@ -156,6 +165,7 @@ export function PlanInputs({
             unit={unit}
             column={{ title: 'Limited', cell: (c) => (c.availability === 'limited' ? 'in the library' : 'in this plan') }}
             value={(c) => plan.supplies[c.id] ?? null}
+            across={(c, kg) => overSupply(c, { supplyKg: kg })}
             onCommit={(c, kg) => linePlanActions.setSupply(c.id, kg)}
             remove={(c) => (c.availability === 'limited' ? null : { label: `Stop limiting ${c.code} in this plan`, run: () => linePlanActions.unlimitStock(c.id) })}
             disabled={disabled}
@@ -201,6 +211,7 @@ export function PlanInputs({
             unit={unit}
             required
             value={(c) => plan.keep[c.id] ?? 0}
+            across={(c, kg) => overSupply(c, { keepKg: kg })}
             onCommit={(c, kg) => linePlanActions.setKeep(c.id, kg ?? 0)}
             remove={(c) => ({ label: `No longer keep ${c.code} in use`, run: () => linePlanActions.setKeep(c.id, null) })}
             disabled={disabled}
@@ -224,6 +235,7 @@ function StockQuantities({
   required = false,
   column,
   value,
+  across,
   onCommit,
   remove,
   disabled,
@@ -239,6 +251,8 @@ function StockQuantities({
   column?: { title: string; cell: (c: Component) => ReactNode };
   /** The saved quantity [kg]. */
   value: (c: Component) => number | null;
+  /** A refusal across fields for the quantity being typed [kg] (least use above supply), or undefined. */
+  across?: (c: Component, kg: number) => string | undefined;
   onCommit: (c: Component, kg: number | null) => void;
   /** The Remove button's accessible name and action, or null for none. */
   remove: (c: Component) => { label: string; run: () => void } | null;
@@ -278,7 +292,12 @@ function StockQuantities({
                   allowEmpty={!required}
                   size={9}
                   value={v === null ? null : v / PER_UNIT[unit]}
-                  validate={(x) => quantityVerdict(rule, unit, label, x, '', fmt.say)}
+                  validate={(x) => {
+                    const own = quantityVerdict(rule, unit, label, x, '', fmt.say);
+                    if (own.error || x === null || !across) return own;
+                    const error = across(c, x * PER_UNIT[unit]);
+                    return error ? { error } : own;
+                  }}
                   onCommit={(x) => onCommit(c, x === null ? null : x * PER_UNIT[unit])}
                   disabled={disabled}
                 />

@@ -5,7 +5,7 @@ import LinePlanScreen from '../../../src/features/lineplan/LinePlanScreen';
 import { setPlanWorkerFactory, type PlanReply, type PlanRequest, type PlanWorker } from '../../../src/features/lineplan/plan-client';
 import { screenActions } from '../../../src/features/lineplan/store';
 import { planLineScenarios } from '../../../src/core/lineplan/plan';
-import { resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
+import { linePlanActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 
 /** The worker's job, run in this thread on the next task (jsdom has no Worker). */
 function inThreadPlanWorker(): PlanWorker {
@@ -92,6 +92,38 @@ describe('Whole-line plan screen', () => {
     expect(useRecipes.getState().linePlan.keep).not.toHaveProperty(keptId);
     // A stock limited in the library has no Remove button in the plan.
     expect(screen.queryByRole('button', { name: 'Stop limiting BW-190 in this plan' })).toBeNull();
+  });
+
+  it('refuses a least use above the stock’s supply where typed, and a supply below its least use, naming the stock and both numbers (issue 10, item 10)', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',', thousandsGrouping: false });
+    try {
+      render(<LinePlanScreen />);
+      const bs = useLibrary.getState().components.find((c) => c.code === 'BW-190')!.id; // limited in the demo library
+      enter('Supply of BW-190', '50,5');
+      expect(useRecipes.getState().linePlan.supplies[bs]).toBe(50_500); // 50.5 t in kg (unit conversion)
+      const select = screen.getByLabelText('Keep a stock in use') as HTMLSelectElement;
+      fireEvent.change(select, { target: { value: bs } });
+      fireEvent.click(within(select.parentElement!).getByRole('button', { name: 'Keep' }));
+      enter('Least use of BW-190', '60,25');
+      expect(screen.getByRole('alert').textContent).toMatch(/BW-190: a least use of 60,25 t is above its supply of 50,5 t over the period/);
+      expect(useRecipes.getState().linePlan.keep[bs]).toBe(0); // the stored value stays
+      expect((screen.getByLabelText('Least use of BW-190') as HTMLInputElement).value).toBe('60,25'); // the typed value stays in its field
+      fireEvent.keyDown(screen.getByLabelText('Least use of BW-190'), { key: 'Escape' });
+      enter('Least use of BW-190', '40');
+      expect(useRecipes.getState().linePlan.keep[bs]).toBe(40_000);
+      // The mirror: a supply typed below the least use already saved.
+      enter('Supply of BW-190', '30');
+      expect(screen.getByRole('alert').textContent).toMatch(/BW-190: a supply of 30 t is below its least use of 40 t/);
+      expect(useRecipes.getState().linePlan.supplies[bs]).toBe(50_500);
+      // Equal is allowed: the whole supply kept in use.
+      enter('Supply of BW-190', '40');
+      expect(useRecipes.getState().linePlan.supplies[bs]).toBe(40_000);
+      // The store refuses alike when called directly (no entry field in between), and changes nothing.
+      expect(linePlanActions.setKeep(bs, 45_000)).toMatch(/least use \(45000 kg\) is above the stock's supply \(40000 kg\)/);
+      expect(useRecipes.getState().linePlan.keep[bs]).toBe(40_000);
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.', thousandsGrouping: true });
+    }
   });
 
   it('shows both plans side by side, the cost of the withdrawal, the marginal value in words and where the stock goes', async () => {
