@@ -7,7 +7,7 @@
  */
 import { BlendbenchInputError } from '../core/errors';
 import type { Component } from '../core/formulation/model';
-import { FILE_NUMBERS, type SayNumbers } from './checks';
+import type { SayNumbers } from './checks';
 
 /** Names on screen for the fields the core names in its messages. */
 const FIELD_WORDS: Record<string, string> = {
@@ -32,12 +32,20 @@ const FIELD_WORDS: Record<string, string> = {
   maxPourPoint: 'maximum pour point',
   minFlashPoint: 'minimum flash point',
   grade: 'viscosity grade',
+  tempC: 'temperature',
+  targetKv: 'target viscosity',
+  kvLight: 'ν of the light stock',
+  kvHeavy: 'ν of the heavy stock',
 };
 
 interface Context {
   components: readonly Component[];
-  /** Numbers in the user's format (default: "." and °C). */
-  words?: SayNumbers;
+  /**
+   * Numbers in the user's format: the app's formatter (`useFormat()`), or `FILE_NUMBERS` ("." and
+   * °C) for text meant for files. Required, so that no screen shows a core message in "." and °C
+   * against the user's settings.
+   */
+  words: SayNumbers;
 }
 
 /** A share 0–1 as per cent text, e.g. "40 %". */
@@ -67,7 +75,7 @@ function fieldWords(path: string, components: readonly Component[]): string {
  * @returns one or two sentences, naming the stock or field as the screens do
  */
 export function userMessage(e: unknown, ctx: Context): string {
-  const words = ctx.words ?? FILE_NUMBERS;
+  const { words } = ctx;
   const { components } = ctx;
   if (e instanceof BlendbenchInputError) {
     // A line plan names the grade: "grades[2].targets.…" with the message "VG 320: …".
@@ -91,27 +99,71 @@ export function userMessage(e: unknown, ctx: Context): string {
     }
     if (f === 'targets.additive.massFraction') return `The additive treat rate ${pct(e.value, words)} must be from 0 to below 100 %.`;
     if (f === 'reference') return 'Closest to a reference recipe needs a reference recipe: choose one under Objective.';
-    return polish(e.message, components);
+    return polish(e.message, components, words);
   }
-  if (e instanceof Error) return polish(e.message, components);
+  if (e instanceof Error) return polish(e.message, components, words);
   return String(e);
+}
+
+/** The standard reference temperatures a property is named at (ρ15, ν40, ν100): names, not values. */
+const REFERENCE_C = new Set([15, 40, 100]);
+/**
+ * A number as the core writes it into a message (`${x}`, `toPrecision`, `toFixed`), or a range of
+ * two ("0.6–1.3", "−20…150"): not part of a word, a code or a field path ("kv40", "D341-20",
+ * "BW-190", "parts[2]"), optionally followed by "°C". Groups: 1 the character before; 2 the number;
+ * 3 the range mark and 4 the second number; 5 " °C" when it is a temperature.
+ */
+const NUM = '[-−]?\\d+(?:\\.\\d+)?(?:e[-+]?\\d+)?';
+const CORE_NUMBER = new RegExp(`(^|[\\s(=:,;–…/<>≤≥±])(${NUM})(?:([–…])(${NUM}))?(?![\\w\\]]|\\.\\d)( ?°C\\b)?`, 'g');
+
+/**
+ * The numbers of a core message written by the user's formatter: temperatures in their unit
+ * (`sayTemp`; a reference temperature after "at" — "at 15 °C", "at 40 °C" — stays the name it is),
+ * other numbers with their decimal separator and a true minus, digits as the core wrote them
+ * (exponents kept: "1e-9").
+ */
+export function sayCoreNumbers(message: string, words: SayNumbers): string {
+  const sep = words.say(0.5).includes(',') ? ',' : '.';
+  const plain = (num: string) => num.replace(/^-/, '−').replace('.', sep);
+  const value = (num: string) => Number(num.replace('−', '-'));
+  return message.replace(
+    CORE_NUMBER,
+    (whole, before: string, a: string, mark: string | undefined, b: string | undefined, degC: string | undefined, offset: number) => {
+      if (!Number.isFinite(value(a)) || (b !== undefined && !Number.isFinite(value(b)))) return whole;
+      const isReference = b === undefined && REFERENCE_C.has(value(a)) && /\bat $/.test(message.slice(Math.max(0, offset - 3), offset + before.length));
+      if (degC && !isReference) {
+        const unit = words.sayTemp(0).replace(/^[^ ]* /, '');
+        // A temperature below absolute zero (the very thing such a message is about): the app's
+        // converter refuses it, so the unit's definition is applied here (t_F = 9/5·t_C + 32).
+        const say = (tC: number): string => {
+          if (tC > -273.15) return words.sayTemp(tC).replace(/ [^ ]*$/, '');
+          return words.say(unit === '°F' ? Number(((tC * 9) / 5 + 32).toPrecision(6)) : tC);
+        };
+        // "40–100 °C" → "104–212 °F": both ends converted, the unit written once.
+        return `${before}${say(value(a))}${b === undefined ? '' : `${mark}${say(value(b))}`} ${unit}`;
+      }
+      return `${before}${plain(a)}${b === undefined ? '' : `${mark}${plain(b)}`}${degC ?? ''}`;
+    },
+  );
 }
 
 /**
  * The generic rewording: drop "functionName: " openings, write field paths in words and stock ids
  * as codes, and "x = v" as "x of v".
  */
-function polish(message: string, components: readonly Component[]): string {
-  let m = message.replace(/\b[a-z]+[A-Z][A-Za-z]*: /g, '');
+function polish(message: string, components: readonly Component[], words: SayNumbers): string {
+  // Numbers first, while the message still holds the core's field names (their digits are not numbers).
+  let m = sayCoreNumbers(message.replace(/\b[a-z]+[A-Z][A-Za-z]*: /g, ''), words);
   // Field paths: components[i].x, parts[i].x, targets.x, bare known fields.
   m = m.replace(/\bpoints\[(\d+)\]\.kv\b/g, (_, i: string) => `measured viscosity ${Number(i) + 1}`);
   m = m.replace(/\bpoints\[(\d+)\]/g, (_, i: string) => `measured point ${Number(i) + 1}`);
   m = m.replace(/\b(?:components|parts|lines|reference\.lines)\[\d+\](?:\.[A-Za-z0-9]+)*|\btargets\.[A-Za-z0-9.]+/g, (p) => fieldWords(p, components));
-  m = m.replace(/\b(kv40|kv100|density15|anilinePoint|pourPoint|flashPoint|massFraction|shearLossPct|tolerancePct|componentId)\b/g, (w) => FIELD_WORDS[w] ?? w);
+  m = m.replace(/\b(kv40|kv100|density15|anilinePoint|pourPoint|flashPoint|massFraction|shearLossPct|tolerancePct|componentId|tempC|targetKv|kvLight|kvHeavy)\b/g, (w) => FIELD_WORDS[w] ?? w);
   // Stock ids in quotes or bare → codes.
   for (const c of components) {
     if (c.id && c.code && c.id !== c.code && m.includes(c.id)) m = m.split(`"${c.id}"`).join(c.code).split(c.id).join(c.code);
   }
   m = m.replace(/ = /g, ' of ');
-  return m.charAt(0).toUpperCase() + m.slice(1);
+  // A capital for a Latin opening only: "ν100 …" keeps its small nu (a capital Ν reads as N).
+  return /^[a-z]/.test(m) ? m.charAt(0).toUpperCase() + m.slice(1) : m;
 }

@@ -61,8 +61,13 @@ export default function DesignerCharts({ view, prediction, components, reference
   const fmt = useMemo(() => makeFormatter(settings), [settings]);
   const formatTemp = useCallback((c: number) => fmt.temp(c), [fmt]);
   const reference = useMemo(
-    () => (referenceRecipe ? predictRecipe(referenceRecipe.lines, components, settings.blendMethod) : null),
-    [referenceRecipe, components, settings.blendMethod],
+    () =>
+      referenceRecipe
+        ? predictRecipe(referenceRecipe.lines, components, settings.blendMethod, {
+            display: { decimalSeparator: settings.decimalSeparator, thousandsGrouping: settings.thousandsGrouping, temperatureUnit: settings.temperatureUnit },
+          })
+        : null,
+    [referenceRecipe, components, settings.blendMethod, settings.decimalSeparator, settings.thousandsGrouping, settings.temperatureUnit],
   );
 
   // Everything static depends on the set of stocks, not on their fractions.

@@ -1,5 +1,5 @@
 /** Predicted properties of the draft, recomputed by the core on every change (never stored). */
-import type { NumberDisplay } from '../../core/words/display';
+import { displayWords, type NumberDisplay } from '../../core/words/display';
 import { useMemo } from 'react';
 import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
@@ -52,6 +52,7 @@ export function predictRecipe(
   } = {},
 ): Prediction {
   const used = lines.filter((l) => l.massFraction > 0);
+  const words = displayWords(temps.display);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
   try {
     const { grade, band, ...at } = temps;
@@ -66,7 +67,7 @@ export function predictRecipe(
     try {
       shear = blendAfterShear(components, used, { method, ...(grade === undefined ? {} : { grade }) });
     } catch (e) {
-      shear = { error: userMessage(e, { components }) };
+      shear = { error: userMessage(e, { components, words }) };
     }
     return {
       ok: true,
@@ -81,7 +82,7 @@ export function predictRecipe(
       inBand: inBandOf(components, used, method, grade, band),
     };
   } catch (e) {
-    return { ok: false, message: userMessage(e, { components }) };
+    return { ok: false, message: userMessage(e, { components, words }) };
   }
 }
 

@@ -366,7 +366,7 @@ function TradeOffSection({
     <section className="tradeoff" aria-labelledby="tradeoff-h" data-testid="tradeoff">
       <h4 id="tradeoff-h">Cost–solvency trade-off</h4>
       {result === null ? (
-        <button type="button" onClick={() => setResult(combinationTradeOff(components, targets, candidate.componentIds, settings.blendMethod))}>
+        <button type="button" onClick={() => setResult(combinationTradeOff(components, targets, candidate.componentIds, settings.blendMethod, fmt))}>
           Cost–solvency trade-off of this combination
         </button>
       ) : result.kind === 'error' ? (

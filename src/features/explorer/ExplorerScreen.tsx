@@ -16,6 +16,8 @@ import { CandidateTable, polymerShare } from './CandidateTable';
 import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
 import { candidatesInBand, recipeProbabilities, type InBandOf } from './in-band';
+import { BlendbenchInputError } from '../../core/errors';
+import { userMessage } from '../../state/messages';
 import './explorer.css';
 
 const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
@@ -176,7 +178,7 @@ export default function ExplorerScreen() {
       const s2 = useExplorerStore.getState();
       if (o.kind === 'done') s2.finished(o.result);
       else if (o.kind === 'cancelled') s2.cancelled();
-      else s2.failed(o.message);
+      else s2.failed(userMessage(o.field === undefined ? new Error(o.message) : new BlendbenchInputError(o.field, o.value, o.message), { components, words: fmt }));
     });
   };
 

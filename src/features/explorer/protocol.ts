@@ -9,4 +9,8 @@ export type FromWorker =
   | { type: 'partial'; runId: number; result: SubstituteSearchResult }
   | { type: 'result'; runId: number; result: SubstituteSearchResult }
   | { type: 'cancelled'; runId: number }
-  | { type: 'error'; runId: number; message: string };
+  /**
+   * The core's own message, with the offending field and value of a core input error: the screen
+   * writes it in the user's words and number format (`userMessage`), which the worker does not know.
+   */
+  | { type: 'error'; runId: number; message: string; field?: string; value?: unknown };

@@ -6,7 +6,7 @@
  */
 import { createSubstituteSearch, type SubstituteSearchInput } from '../../core/search/substitutes';
 import type { FromWorker } from './protocol';
-import { userMessage } from '../../state/messages';
+import { BlendbenchInputError } from '../../core/errors';
 
 export interface RunnerOptions {
   /** Target duration of one chunk [ms]. */
@@ -51,6 +51,10 @@ export async function runSearch(
     if (isCancelled()) return post({ type: 'cancelled', runId });
     post({ type: 'result', runId, result: search.result() });
   } catch (e) {
-    post({ type: 'error', runId, message: userMessage(e, { components: input.components }) });
+    post(
+      e instanceof BlendbenchInputError
+        ? { type: 'error', runId, message: e.message, field: e.field, value: e.value }
+        : { type: 'error', runId, message: e instanceof Error ? e.message : String(e) },
+    );
   }
 }

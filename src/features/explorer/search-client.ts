@@ -33,7 +33,8 @@ export interface WorkerLike {
 export type SearchOutcome =
   | { kind: 'done'; result: SubstituteSearchResult }
   | { kind: 'cancelled' }
-  | { kind: 'error'; message: string };
+  /** `field`/`value`: of a core input error (see `FromWorker`), for `userMessage`. */
+  | { kind: 'error'; message: string; field?: string; value?: unknown };
 
 export interface SearchHandle {
   outcome: Promise<SearchOutcome>;
@@ -169,7 +170,7 @@ export function startSearch(
         }
       }
     } else if (m.type === 'cancelled') settle({ kind: 'cancelled' });
-    else settle({ kind: 'error', message: m.message });
+    else settle(m.field === undefined ? { kind: 'error', message: m.message } : { kind: 'error', message: m.message, field: m.field, value: m.value });
   };
   try {
     for (let index = 0; index < count; index++) {

@@ -9,6 +9,7 @@ import { useExplorerStore } from '../../../src/features/explorer/store';
 import { combinationTradeOff } from '../../../src/features/explorer/tradeoff';
 import { searchSubstitutes } from '../../../src/core/search/substitutes';
 import { resetDemo } from '../../../src/state';
+import { FILE_NUMBERS } from '../../../src/state/checks';
 import { DEMO_ADDITIVE_ID, demoComponents, demoRecipes, demoTargets } from '../../../src/state/demo';
 import { inThreadWorker } from './in-thread-worker';
 
@@ -20,7 +21,7 @@ const candidates = searchSubstitutes({ components, targets, reference, withdrawn
 describe('combinationTradeOff', () => {
   it('starts at the candidate itself when the candidate is the least-cost blend of its combination', () => {
     const best = candidates[0]!;
-    const r = combinationTradeOff(components, targets, best.componentIds, 'refutas');
+    const r = combinationTradeOff(components, targets, best.componentIds, 'refutas', FILE_NUMBERS);
     expect(r.kind).toBe('points');
     if (r.kind !== 'points') return;
     expect(r.points.length).toBeGreaterThanOrEqual(1);
@@ -32,7 +33,7 @@ describe('combinationTradeOff', () => {
 
   it('gives a non-dominated series: cost rises as the aniline point falls', () => {
     const multi = candidates
-      .map((c) => combinationTradeOff(components, targets, c.componentIds, 'refutas'))
+      .map((c) => combinationTradeOff(components, targets, c.componentIds, 'refutas', FILE_NUMBERS))
       .find((r) => r.kind === 'points' && r.points.length > 1);
     expect(multi?.kind).toBe('points');
     if (multi?.kind !== 'points') return;
@@ -44,7 +45,7 @@ describe('combinationTradeOff', () => {
   });
 
   it('reports an unknown component as an error, not a throw', () => {
-    const r = combinationTradeOff(components, targets, ['no-such-stock'], 'refutas');
+    const r = combinationTradeOff(components, targets, ['no-such-stock'], 'refutas', FILE_NUMBERS);
     expect(r.kind).toBe('error');
   });
 });
