@@ -4,7 +4,7 @@
  * it stays in the field with its message, and Escape puts back the stored value (the next value
  * typed is checked and saved like any other). A warning (implausible but possible) is written and stays visible.
  */
-import { useEffect, useId, useState, type ReactNode } from 'react';
+import { useCallback, useEffect, useId, useLayoutEffect, useRef, useState, type ReactNode, type RefObject } from 'react';
 import { useFormat } from './format';
 import { checkNumber, checkText, type NumberRuleKey, type SayNumbers, type TextRuleKey } from '../state/field-rules';
 
@@ -172,10 +172,46 @@ export interface TextFieldProps extends CommonProps {
   placeholder?: string;
   /** Show the whole text as the field's title (a tooltip) when the field is narrower than the text. */
   fullTitle?: boolean;
+  /**
+   * One line of text that wraps inside its field and grows to as many lines as the text needs, so a
+   * long name is read whole in a narrow column (a textarea without line breaks: Enter saves like
+   * Tab, a pasted line break becomes a space).
+   */
+  wrap?: boolean;
+}
+
+/**
+ * Where CSS `field-sizing: content` is not supported, a wrapping line's height follows its text by
+ * hand: set to its scroll height when the text or the field's width changes.
+ */
+function useGrowToText(ref: RefObject<HTMLTextAreaElement | null>, on: boolean, text: string): void {
+  const fit = useCallback(() => {
+    const el = ref.current;
+    if (!el || (typeof CSS !== 'undefined' && CSS.supports?.('field-sizing', 'content'))) return;
+    el.style.height = 'auto';
+    el.style.height = `${el.scrollHeight + el.offsetHeight - el.clientHeight}px`;
+  }, [ref]);
+  useLayoutEffect(() => {
+    if (on) fit();
+  }, [on, text, fit]);
+  useEffect(() => {
+    const el = ref.current;
+    if (!on || !el || typeof ResizeObserver === 'undefined') return;
+    let width = el.clientWidth;
+    const ro = new ResizeObserver(() => {
+      if (el.clientWidth !== width) {
+        width = el.clientWidth;
+        fit();
+      }
+    });
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, [on, ref, fit]);
 }
 
 export function TextField(props: TextFieldProps) {
   const id = useId();
+  const wrapRef = useRef<HTMLTextAreaElement>(null);
   const msgId = `${id}-msg`;
   const [draft, setDraft] = useState(props.value);
   const [dirty, setDirty] = useState(false);
@@ -187,6 +223,7 @@ export function TextField(props: TextFieldProps) {
     return ruled ? { error: ruled } : (props.validate?.(v) ?? {});
   };
   const verdict = judge(dirty ? draft : props.value);
+  useGrowToText(wrapRef, Boolean(props.wrap && !props.multiline), draft);
   /** Enter (single line) and leaving the field both come here: same checks, same save. */
   const commit = (): boolean => {
     if (!dirty) return true;
@@ -220,7 +257,23 @@ export function TextField(props: TextFieldProps) {
       <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
         {props.label}
       </label>
-      {props.multiline ? (
+      {props.wrap && !props.multiline ? (
+        <textarea
+          {...common}
+          ref={wrapRef}
+          rows={1}
+          className={`wrap-line${verdict.error ? ' invalid' : ''}`}
+          onChange={(e) => change(e.target.value.replace(/[\r\n]+/g, ' '))}
+          onKeyDown={(e) => {
+            if (e.key === 'Enter') {
+              e.preventDefault();
+              commit();
+            } else if (e.key === 'Escape') {
+              revert();
+            }
+          }}
+        />
+      ) : props.multiline ? (
         <textarea
           {...common}
           rows={3}

@@ -21,11 +21,12 @@ function Bound({ initial, saved, validate }: { initial: number; saved: (v: numbe
   );
 }
 
-function BoundText({ initial, saved }: { initial: string; saved: (v: string) => void }) {
+function BoundText({ initial, saved, wrap }: { initial: string; saved: (v: string) => void; wrap?: boolean }) {
   const [v, setV] = useState(initial);
   return (
     <TextField
       label="Name of BW-280"
+      wrap={wrap}
       value={v}
       validate={(x) => ({ error: x.trim() ? undefined : 'a name is required' })}
       onCommit={(x) => {
@@ -151,5 +152,24 @@ describe('TextField: Escape then typing', () => {
     fireEvent.change(input, { target: { value: 'Heavy neutral 2' } });
     fireEvent.keyDown(input, { key: 'Enter' });
     expect(saved).toHaveBeenCalledWith('Heavy neutral 2');
+  });
+});
+
+describe('TextField wrap: one line of text that wraps to its lines (issue 10, item 18)', () => {
+  it('is a textarea without line breaks: Enter saves like Tab, a pasted line break becomes a space, Escape puts the name back', () => {
+    const saved = vi.fn();
+    render(<BoundText initial="Group I heavy solvent neutral (600), second refinery" saved={saved} wrap />);
+    const field = screen.getByLabelText('Name of BW-280') as HTMLTextAreaElement;
+    expect(field.tagName).toBe('TEXTAREA');
+    expect(field.className).toMatch(/wrap-line/);
+    expect(field.value).toBe('Group I heavy solvent neutral (600), second refinery'); // the whole name, no tooltip needed
+    fireEvent.change(field, { target: { value: 'Heavy neutral\r\nsecond source' } });
+    expect(field.value).toBe('Heavy neutral second source');
+    fireEvent.keyDown(field, { key: 'Escape' });
+    expect(field.value).toBe('Group I heavy solvent neutral (600), second refinery');
+    fireEvent.change(field, { target: { value: 'Heavy neutral, second source' } });
+    const enter = fireEvent.keyDown(field, { key: 'Enter' });
+    expect(enter).toBe(false); // no line break typed
+    expect(saved).toHaveBeenCalledWith('Heavy neutral, second source');
   });
 });

@@ -42,6 +42,18 @@ async function reachable(el: Locator, what: string): Promise<void> {
   expect(ok, what).toBe('ok');
 }
 
+/**
+ * Every stock name in the Stocks table is read whole without hovering: its field neither scrolls
+ * sideways nor down (it wraps and grows to its lines). Returns the names checked.
+ */
+async function namesWhole(page: Page): Promise<string[]> {
+  const fields = await page.$$eval('.library-table tbody td.name-cell textarea', (els) =>
+    (els as HTMLTextAreaElement[]).map((e) => ({ name: e.value, cut: e.scrollWidth > e.clientWidth + 1 || e.scrollHeight > e.clientHeight + 1 })),
+  );
+  expect(fields.filter((f) => f.cut).map((f) => f.name), 'stock names cut off in their field').toEqual([]);
+  return fields.map((f) => f.name);
+}
+
 /** Text inputs whose text does not fit carry the full text as their title. */
 async function namesNotCutOff(page: Page, selector: string): Promise<number> {
   const bad = await page.$$eval(selector, (els) =>
@@ -94,7 +106,10 @@ describe('layout at 1024–2560 px', () => {
       await fitsItsBox(page, '.library-screen .table-scroll');
       await reachable(page.getByRole('button', { name: 'Delete BW-190' }), 'Stocks row actions');
       await reachable(page.getByRole('button', { name: 'More fields of BW-190' }), 'Stocks row actions');
-      expect(await namesNotCutOff(page, '.library-table tbody tr > td:nth-of-type(1) input')).toBeGreaterThan(10);
+      const names = await namesWhole(page);
+      expect(names.length).toBeGreaterThan(10);
+      // The demo's longest name (invented) is among those read whole.
+      expect(names).toContain('Industrial gear EP additive package (sulfur–phosphorus)');
       if (width >= 1920) {
         const [table, main] = await page.evaluate(() => [
           document.querySelector('.library-table')!.getBoundingClientRect().width,
@@ -156,4 +171,27 @@ describe('layout at 1024–2560 px', () => {
       expect(s.offHost).toEqual([]);
     });
   }
+
+  it('a 60-character stock name is read whole in the Stocks table at 1024, 1920 and 2560 px', async () => {
+    const { page } = s;
+    const long = 'Invented heavy Group II base stock from a third refinery, B1'; // 60 characters, invented
+    expect(long).toHaveLength(60);
+    await page.setViewportSize({ width: 1024, height: 900 });
+    await page.getByRole('link', { name: /^Stocks/ }).click();
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    const field = page.getByLabel('Name of BW-191', { exact: true });
+    await field.fill(long);
+    await field.press('Enter');
+    await expect(field.inputValue()).resolves.toBe(long);
+    for (const width of [1024, 1920, 2560]) {
+      await page.setViewportSize({ width, height: 900 });
+      await field.scrollIntoViewIfNeeded();
+      await screenshot(page, `layout-stocks-long-name-${width}`);
+      expect(await namesWhole(page)).toContain(long);
+      await noSidewaysScroll(page);
+      await reachable(page.getByRole('button', { name: 'Delete BW-191' }), 'Stocks row actions beside a long name');
+    }
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
 });

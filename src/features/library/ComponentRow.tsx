@@ -88,7 +88,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           label={`Name of ${who}`}
           hideLabel
           size={16}
-          fullTitle
+          wrap
           value={c.name}
           validate={(v) => ({ error: checkLabelText('name', v) })}
           onCommit={(v) => onUpdate(c.id, { name: v.trim() })}

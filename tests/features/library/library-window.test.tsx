@@ -20,7 +20,7 @@ function inventedLibrary(n: number) {
 }
 
 // Cells are found through their row (getByLabelText over a table of this size takes minutes in jsdom).
-const nameInput = (container: HTMLElement, id: string) => container.querySelector<HTMLInputElement>(`tr[data-row-key="${id}"] .name-cell input`);
+const nameInput = (container: HTMLElement, id: string) => container.querySelector<HTMLTextAreaElement>(`tr[data-row-key="${id}"] .name-cell textarea`);
 const drawnRows = (container: HTMLElement) => [...container.querySelectorAll('tbody tr[data-row-key]')];
 const nextFrame = () => act(() => new Promise<void>((r) => requestAnimationFrame(() => r())));
 
