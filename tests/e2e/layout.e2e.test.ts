@@ -1,8 +1,9 @@
 // Layout from 1024 to 2560 px (issue 10, item 18): every screen at 1024, 1440, 1920 and 2560 px wide,
 // with screenshots in test-output/screens/layout-<screen>-<width>.png. Checks: the page never scrolls
 // sideways; the Stocks row actions and the designer's share inputs can be reached (inside the window
-// or inside their own scrolling box); stock names are not cut off without the full text as a title;
-// on wide windows the tables use the width.
+// or inside their own scrolling box); stock names are read whole without hovering (the Stocks
+// table's name fields wrap to their lines; the designer's and explorer's names are not clipped); on
+// wide windows the tables use the width.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
 import { launch, screenshot, type Session } from './support';
@@ -54,14 +55,28 @@ async function namesWhole(page: Page): Promise<string[]> {
   return fields.map((f) => f.name);
 }
 
-/** Text inputs whose text does not fit carry the full text as their title. */
-async function namesNotCutOff(page: Page, selector: string): Promise<number> {
-  const bad = await page.$$eval(selector, (els) =>
-    (els as HTMLInputElement[])
-      .filter((e) => e.scrollWidth > e.clientWidth + 1 && e.title !== e.value)
-      .map((e) => e.value),
+/**
+ * Text showing stock names (a table's row headers, a list's labels) is whole: no element scrolls
+ * its text away, and no box clips it. Returns how many were checked.
+ */
+async function textWhole(page: Page, selector: string, what: string): Promise<number> {
+  const cut = await page.$$eval(selector, (els) =>
+    els
+      .filter((node) => {
+        const r = node.getBoundingClientRect();
+        if (r.width === 0 && r.height === 0) return false; // not shown (a closed list)
+        if (node.scrollWidth > node.clientWidth + 1) return true;
+        for (let p = node.parentElement; p; p = p.parentElement) {
+          const st = getComputedStyle(p);
+          if (st.overflowX === 'visible') continue;
+          const b = p.getBoundingClientRect();
+          if (r.left < b.left - 1 || r.right > b.right + 1) return true;
+        }
+        return false;
+      })
+      .map((node) => node.textContent ?? ''),
   );
-  expect(bad, 'names cut off without a full-text title').toEqual([]);
+  expect(cut, `${what}: names cut off`).toEqual([]);
   return (await page.$$(selector)).length;
 }
 
@@ -125,6 +140,7 @@ describe('layout at 1024–2560 px', () => {
       await screenshot(page, `layout-designer-${width}`);
       await noSidewaysScroll(page);
       await fitsItsBox(page, '.designer .recipe-table');
+      expect(await textWhole(page, '.designer .recipe-table tbody th', 'designer recipe lines')).toBeGreaterThan(2);
       for (const code of ['BW-190', 'BW-160', 'BW-901']) await reachable(page.getByLabel(`Mass % of ${code}`), `designer share of ${code}`);
       await reachable(page.getByRole('button', { name: 'Remove BW-160' }), 'designer remove');
       await reachable(page.getByRole('button', { name: 'Solve', exact: true }), 'Solve');
@@ -134,6 +150,7 @@ describe('layout at 1024–2560 px', () => {
       await page.getByTestId('candidates').waitFor();
       await screenshot(page, `layout-explorer-${width}`);
       await noSidewaysScroll(page);
+      expect(await textWhole(page, '.withdrawn .checklist label', 'explorer stocks to treat as withdrawn')).toBeGreaterThan(2);
       await reachable(page.getByTestId('candidates').getByRole('button', { name: /compare/ }).first(), 'explorer compare');
       await reachable(page.getByRole('button', { name: /Adopt as a new recipe|Adopted/ }), 'explorer adopt');
 
