@@ -60,6 +60,14 @@ const LN_H = D2270_H.map(Math.log);
 /** X100 of ν100 = 2.0 mm²/s, per coordinate system. */
 const FLOOR_X100 = new Map<BlendCoordinates, number>();
 
+/** ln Y at the Table 1 rows and the quarter points between them (index 4r + q, as below). */
+const QUARTER_LN_Y = new Float64Array(4 * (D2270_KV100.length - 1));
+for (let r = 0; r < D2270_KV100.length - 1; r++) {
+  const y0 = D2270_KV100[r] as number;
+  const y1 = D2270_KV100[r + 1] as number;
+  for (let q = 0; q < 4; q++) QUARTER_LN_Y[4 * r + q] = Math.log(y0 + 0.25 * q * (y1 - y0));
+}
+
 /** X of the Table 1 rows and the quarter points between them, per coordinate function (see below). */
 const QUARTER_X = new Map<(kv: number) => number, Float64Array>();
 
@@ -127,7 +135,15 @@ export class ViBoundary {
   private uMaxOf(kv100: number, L: number, H: number): number {
     const m = this.minVi;
     if (m <= 100) return L - (m / 100) * (L - H);
-    return H / Math.pow(kv100, this.procedureBExponent);
+    // H / Y^N as H·exp(−N·ln Y): the same value to rounding, a third of the cost of a power.
+    return H * Math.exp(-this.procedureBExponent * Math.log(kv100));
+  }
+
+  /** {@link uMaxOf} with ln Y given (Table 1 quarter points, whose logarithms are constants). */
+  private uMaxOfLn(lnKv100: number, L: number, H: number): number {
+    const m = this.minVi;
+    if (m <= 100) return L - (m / 100) * (L - H);
+    return H * Math.exp(-this.procedureBExponent * lnKv100);
   }
 
   /** g(X100) = X(U_max(ν(X100))): the largest blend X40 allowed at a blend X100. */
@@ -164,7 +180,7 @@ export class ViBoundary {
     const L = D2270_L[r] as number;
     const H = D2270_H[r] as number;
     if (m <= 100) return L - (m / 100) * (L - H);
-    return H / Math.pow(D2270_KV100[r] as number, this.procedureBExponent);
+    return H * Math.exp(-this.procedureBExponent * (LN_KV100[r] as number));
   }
 
   /**
@@ -224,7 +240,7 @@ export class ViBoundary {
       const dH = (D2270_H[hi] as number) - H0;
       for (let k = 0; k < 6; k++) {
         const y = y0 + f * dy;
-        const yn = Math.pow(y, N);
+        const yn = Math.exp(N * Math.log(y));
         const step = (H0 + f * dH - U * yn) / (dH - (U * N * dy * yn) / y);
         f -= step;
         if (!(Math.abs(step) > 1e-15)) break;
@@ -339,7 +355,7 @@ export class ViBoundary {
           const y = y0 + f * (y1 - y0);
           if (!(y > yLo && y < yHi) || y < KV100_FLOOR) continue;
           SAMPLE_X100[ns] = rowX[4 * r + q] as number;
-          SAMPLE_X40[ns++] = toXRaw(this.uMaxOf(y, L0 + f * dL, H0 + f * dH));
+          SAMPLE_X40[ns++] = toXRaw(this.uMaxOfLn(QUARTER_LN_Y[4 * r + q] as number, L0 + f * dL, H0 + f * dH));
         }
       }
     }
