@@ -118,6 +118,19 @@ export interface InBandModel {
   any: boolean;
 }
 
+/**
+ * Whether some component of a prepared problem has a lot spread (`kv40RelSd` > 0): the `any` of
+ * {@link inBandModel}, without building the model when it is not cached yet (a plain solve asks
+ * once per prepared problem).
+ */
+export function hasLotSpread(P: PreparedProblem): boolean {
+  const cached = (P.cache as { inBand?: InBandModel }).inBand;
+  if (cached !== undefined) return cached.any;
+  const comps = P.components;
+  for (let i = 0; i < comps.length; i++) if ((comps[i]!.kv40RelSd ?? 0) > 0) return true;
+  return false;
+}
+
 /** gᵢ of every component of a prepared problem (cached on the problem). */
 export function inBandModel(P: PreparedProblem): InBandModel {
   const cache = P.cache as { inBand?: InBandModel };

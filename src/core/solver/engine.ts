@@ -35,11 +35,11 @@
  * first optimum (lexicographic), so ties are broken by price.
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
-import { ALL_GROUP_SET, groupOn, type ConstraintGroup, type PreparedProblem } from './prepared';
+import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
 import { blendX, optimise, type OptimiseContext } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
-import { inBandModel, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
+import { hasLotSpread, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
 
 export * from './prepared';
 export * from './objectives';
@@ -149,11 +149,10 @@ export function solvePrepared(
     if (groupOn(groups, 'band')) {
       const eps = 1e-9;
       if (max40 < P.bandA - eps || min40 > P.bandB + eps) return { status: 'infeasible', lpCount: 0 };
-      // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo);
-      // the margin (≈ 0.05 VI) keeps this test strictly on the safe side of the VI tolerance.
-      // Tested without h (a root search) as g(max X100 + margin) < X(ν_lo) — the same condition,
-      // since g = h⁻¹ is increasing — at the cost of one evaluation of g.
-      if (groupOn(groups, 'vi') && vi && vi === P.vi && vi.g(max100 + 1e-3 / P.coords.rowScale) < P.bandA) {
+      // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo)
+      // (computed once per prepared problem); the margin (≈ 0.05 VI) keeps this test strictly on the
+      // safe side of the VI tolerance.
+      if (groupOn(groups, 'vi') && vi && vi === P.vi && max100 + 1e-3 / P.coords.rowScale < viBandFloor(P)!) {
         return { status: 'infeasible', lpCount: 0 };
       }
     }
@@ -247,6 +246,6 @@ function finish(
     anilinePoint: sa > 0 ? saAp / sa : null,
     costPerLitre: density15 * sp,
     lpCount,
-    inBandProbability: inBandModel(P).any ? probabilityOfFractions(P, vars, w) : null,
+    inBandProbability: hasLotSpread(P) ? probabilityOfFractions(P, vars, w) : null,
   };
 }

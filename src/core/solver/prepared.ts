@@ -160,7 +160,7 @@ export interface PreparedProblem {
    * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
    * root relaxation of the VI condition (see {@link viRoot}).
    */
-  readonly cache: { viRoot?: ViRoot; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>>; inBand?: unknown };
+  readonly cache: { viRoot?: ViRoot; viFloor?: number; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>>; inBand?: unknown };
   readonly reference: ClosestReference | null;
   /** Indices with min > 0 (always in every subset). */
   readonly forced: readonly number[];
@@ -285,11 +285,23 @@ export interface ViRoot {
   chords: readonly ViChord[];
 }
 
+/**
+ * h(X(ν_lo)): the least blend X100 that meets the minimum VI anywhere in the ν40 band (h rises
+ * with X40), computed on first use and cached; null without a minimum VI. A subset whose thickest
+ * stock at 100 °C stays below it cannot meet the minimum VI in band.
+ */
+export function viBandFloor(P: PreparedProblem): number | null {
+  if (!P.vi) return null;
+  let hA = P.cache.viFloor;
+  if (hA === undefined) P.cache.viFloor = hA = P.vi.h(P.bandA);
+  return hA;
+}
+
 /** The root VI relaxation of a prepared problem, computed on first use and cached. */
 export function viRoot(P: PreparedProblem): ViRoot | null {
   if (!P.vi) return null;
   if (!P.cache.viRoot) {
-    const hA = P.vi.h(P.bandA);
+    const hA = viBandFloor(P)!;
     const hB = P.vi.h(P.bandB, hA);
     P.cache.viRoot = { hA, hB, chords: P.vi.relaxation(P.bandA, hA, P.bandB, hB) };
   }
