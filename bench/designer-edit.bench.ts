@@ -12,8 +12,8 @@
  *   date (forced by reading the layout) — the predicted ν40, the cost per litre, the blend's line on
  *   the ASTM D341 chart, the composition bars, the blend's point on the solvency–stability map
  *   (the charts draw the blend in live layers, see src/components/charts/live.tsx) and, when the
- *   recipe has a band and a lot spread, the batch-distribution chart's model curve and simulated
- *   histogram. Had anything been left to a later task (a deferred chart, recharts' own follow-up
+ *   recipe has a band and a lot spread, the batch-distribution chart (all its drawn paths: the model
+ *   curve and the simulated histogram). Had anything been left to a later task (a deferred chart, recharts' own follow-up
  *   renders), the clock runs on until it lands (polled between MessageChannel tasks);
  * - input to next frame: that work plus the next frame's own main-thread work (from its
  *   animation-frame callbacks to the next task: style, layout, paint records). The idle wait for the
@@ -52,8 +52,7 @@ const EDIT_BATCH = `async (args) => {
       comp,
       map,
       ...(hasDist
-        ? [[...document.querySelectorAll('[data-chart="batch-distribution"] .recharts-line-curve, [data-chart="batch-distribution"] .recharts-area-curve')]
-            .map((p) => p.getAttribute('d')).join(';')]
+        ? [[...document.querySelectorAll('[data-chart="batch-distribution"] path')].map((p) => p.getAttribute('d')).join(';')]
         : []),
     ];
   };

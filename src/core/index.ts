@@ -315,8 +315,8 @@ export {
   kv40Density,
   probabilityInInterval,
 } from './qc/lot-spread';
-export type { MonteCarloKv40 } from './qc/monte-carlo';
-export { monteCarloKv40, shareInBand, seededUniform, seededNormal } from './qc/monte-carlo';
+export type { MonteCarloKv40, MonteCarloLots } from './qc/monte-carlo';
+export { monteCarloKv40, monteCarloLots, blendLots, shareInBand, seededUniform, seededNormal } from './qc/monte-carlo';
 export { allowedDeviation, maxSdForProbability, ROBUST_CUT_MARGIN } from './qc/robust';
 export type { RobustAnswer } from './qc/robust-solve';
 export { solveRobustAndNominal, highestInBandProbability } from './qc/robust-solve';

@@ -3,7 +3,7 @@
  * Monte Carlo's histogram, on a common ν40 range that covers the ISO band and 99.9 % of the batches.
  */
 import { kv40Density, kv40Quantile, type Kv40Distribution } from '../../core/qc/lot-spread';
-import type { DensityPoint } from './BatchDistributionChart';
+import type { DensityPoint } from './live';
 
 /**
  * Curve and histogram for {@link BatchDistributionChart}.

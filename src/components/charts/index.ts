@@ -8,15 +8,15 @@ export type { MapPoint, SolvencyOxidationMapProps } from './SolvencyOxidationMap
 export { CompositionChart } from './CompositionChart';
 export type { CompositionRow, CompositionChartProps } from './CompositionChart';
 export { FrontierChart } from './FrontierChart';
-export { BatchDistributionChart } from './BatchDistributionChart';
-export type { BatchDistributionChartProps, DensityPoint } from './BatchDistributionChart';
+export { BatchDistributionChart, distributionDomain, distributionPeak } from './BatchDistributionChart';
+export type { BatchDistributionChartProps, DensityPoint, DistributionBand } from './BatchDistributionChart';
 export { batchDistributionData } from './batch-distribution-data';
 export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints, d341Segments, fittedRangeOf, temperatureFlag } from './d341-scale';
 export { CHART_COLOURS } from './palette';
 export { useWidth } from './useWidth';
 export { LiveMarksContext } from './live';
-export type { LiveMarks, LiveBar } from './live';
+export type { LiveMarks, LiveBar, LiveDistribution } from './live';
 export { roundUp } from './CompositionChart';
 export { AllocationChart } from './AllocationChart';
 export type { AllocationRow, AllocationChartProps } from './AllocationChart';

@@ -19,6 +19,27 @@ export interface LiveBar {
   costPerLitre: number;
 }
 
+/** One point of a density curve or of the histogram's outline. */
+export interface DensityPoint {
+  /** ν40 [mm²/s]. */
+  kv: number;
+  /** Probability density [per mm²/s]. */
+  y: number;
+}
+
+/** The blend's batch-ν40 distribution under lot spread, as the batch-distribution chart draws it. */
+export interface LiveDistribution {
+  /** The model's density (line). */
+  curve: readonly DensityPoint[];
+  /** The seeded Monte Carlo's histogram as a step outline (left edge of each bin, then the last right edge). */
+  histogram: readonly DensityPoint[];
+  /** The model's probability of a batch in the plant band and in the ISO band (0–1). */
+  plantProbability: number;
+  isoProbability: number;
+  /** The simulation in words, e.g. "4,000 simulated batches (seed 1) …: 98.9 % in the solve band". */
+  simulation: string;
+}
+
 export interface LiveMarks {
   /** The blend's ASTM D341 line (ν40, ν100 in mm²/s) and its pour point estimate [°C] (null: unknown). */
   vt?: { label: string; kv40: number; kv100: number; pourPointC?: number | null } | null;
@@ -26,6 +47,8 @@ export interface LiveMarks {
   point?: { label: string; x: number; y: number } | null;
   /** The blend's composition and cost bars, one per stock (same order as the chart's categories). */
   bars?: readonly LiveBar[] | null;
+  /** The blend's batch-ν40 distribution (null: none to show). */
+  distribution?: LiveDistribution | null;
 }
 
 export const LiveMarksContext = createContext<LiveMarks>({});
@@ -166,6 +189,56 @@ export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost
           </g>
         );
       })}
+    </g>
+  );
+}
+
+/**
+ * The blend's batch distribution: the simulated histogram (shaded steps with their outline) and the
+ * model's density (line), drawn like the chart's static series were, clipped to the plot area.
+ */
+export function LiveDistributionMarks({
+  xDomain,
+  yDomain,
+  colours,
+}: {
+  xDomain: readonly [number, number];
+  yDomain: readonly [number, number];
+  colours: { histogram: string; curve: string };
+}) {
+  const live = useContext(LiveMarksContext).distribution;
+  const xs = useXAxisScale();
+  const ys = useYAxisScale();
+  const clip = useId().replace(/:/g, '');
+  if (!live || !xs || !ys) return null;
+  const px = linear(xs, xDomain);
+  const py = linear(ys, yDomain);
+  if (!px || !py) return null;
+  const h = live.histogram;
+  let steps = '';
+  for (let k = 0; k < h.length; k++) {
+    const x = px(h[k]!.kv).toFixed(2);
+    const y = py(h[k]!.y).toFixed(2);
+    // Step after: across to this point's x at the previous height, then up or down to its own.
+    steps += k === 0 ? `M${x},${y}` : `H${x}V${y}`;
+  }
+  const base = py(0).toFixed(2);
+  const area = h.length > 0 ? `M${px(h[0]!.kv).toFixed(2)},${base}${steps.replace(/^M/, 'L')}V${base}Z` : '';
+  const curve = live.curve.map((p, k) => `${k === 0 ? 'M' : 'L'}${px(p.kv).toFixed(2)},${py(p.y).toFixed(2)}`).join('');
+  return (
+    <g className="live-distribution">
+      <defs>
+        <ClipToPlot id={clip} />
+      </defs>
+      <g clipPath={`url(#${clip})`}>
+        <path className="live-histogram" d={area} fill={colours.histogram} fillOpacity={0.35} stroke="none" />
+        <path className="live-histogram-outline" d={steps} fill="none" stroke={colours.histogram}>
+          <title>simulated batches</title>
+        </path>
+        <path className="live-curve" d={curve} fill="none" stroke={colours.curve} strokeWidth={2}>
+          <title>model</title>
+        </path>
+      </g>
     </g>
   );
 }

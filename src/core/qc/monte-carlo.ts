@@ -67,6 +67,38 @@ export interface MonteCarloKv40 {
   seed: number;
 }
 
+/** The checks and set-up shared by the simulations: the method, the sample count and the used parts. */
+function simulation(fn: string, parts: readonly SpreadPart[], options: { samples?: number; seed?: number; method?: BlendMethod }) {
+  const method = options.method ?? 'refutas';
+  batchKv40Distribution(parts, method); // validation
+  const n = options.samples ?? 10_000;
+  if (!Number.isInteger(n) || n < 1 || n > 10_000_000) {
+    throw new BlendbenchInputError('samples', n, `${fn}: samples = ${n}; give a whole number from 1 to 10,000,000`);
+  }
+  const co = blendCoordinates(method);
+  const used = parts.filter((p) => p.massFraction > 0);
+  // Blending weights: mass fractions (Refutas) or w/ρ, normalised below by their sum (D7152: volume fractions).
+  const cw = used.map((p) => (co.massBasis ? 1 : 1 / p.density15) * p.massFraction);
+  return { method, n, seed: options.seed ?? 1, co, used, cw, sc: cw.reduce((s, v) => s + v, 0) };
+}
+
+/**
+ * Draws the lots of `n` batches in order (batch by batch, stock by stock) and hands each lot's blending
+ * coordinate X(ν40ᵢ·(1 + εᵢ)) to `take`. One stream for {@link monteCarloKv40} and {@link monteCarloLots},
+ * so both draw the very same lots from a seed.
+ */
+function drawLots(used: readonly SpreadPart[], n: number, seed: number, toX: (kv: number) => number, take: (k: number, i: number, x: number) => void): void {
+  const normal = seededNormal(seed);
+  for (let k = 0; k < n; k++) {
+    for (let i = 0; i < used.length; i++) {
+      const p = used[i]!;
+      let kv = p.kv40 * (1 + p.kv40RelSd * normal());
+      while (!(kv > 0.3)) kv = p.kv40 * (1 + p.kv40RelSd * normal());
+      take(k, i, toX(kv));
+    }
+  }
+}
+
 /**
  * Simulate batches of a recipe: each stock's lot ν40ᵢ·(1 + εᵢ) with εᵢ ~ N(0, sᵢ²), blended by the
  * exact rule. A lot whose drawn ν40 would not be above 0.3 mm²/s (ε < −1 + …, impossible at the
@@ -81,31 +113,82 @@ export function monteCarloKv40(
   parts: readonly SpreadPart[],
   options: { samples?: number; seed?: number; method?: BlendMethod } = {},
 ): MonteCarloKv40 {
-  const fn = 'monteCarloKv40';
-  const method = options.method ?? 'refutas';
-  batchKv40Distribution(parts, method); // validation
-  const n = options.samples ?? 10_000;
-  if (!Number.isInteger(n) || n < 1 || n > 10_000_000) {
-    throw new BlendbenchInputError('samples', n, `${fn}: samples = ${n}; give a whole number from 1 to 10,000,000`);
-  }
-  const seed = options.seed ?? 1;
-  const co = blendCoordinates(method);
-  const used = parts.filter((p) => p.massFraction > 0);
-  const cw = used.map((p) => (co.massBasis ? 1 : 1 / p.density15) * p.massFraction);
-  const sc = cw.reduce((s, v) => s + v, 0);
-  const normal = seededNormal(seed);
+  const { n, seed, co, used, cw, sc } = simulation('monteCarloKv40', parts, options);
   const samples = new Float64Array(n);
-  for (let k = 0; k < n; k++) {
-    let x = 0;
-    for (let i = 0; i < used.length; i++) {
-      const p = used[i]!;
-      let kv = p.kv40 * (1 + p.kv40RelSd * normal());
-      while (!(kv > 0.3)) kv = p.kv40 * (1 + p.kv40RelSd * normal());
-      x += cw[i]! * co.toXRaw(kv);
+  const last = used.length - 1;
+  let x = 0;
+  drawLots(used, n, seed, co.toXRaw, (k, i, xi) => {
+    x += cw[i]! * xi;
+    if (i === last) {
+      samples[k] = co.toKvRaw(x / sc);
+      x = 0;
     }
-    samples[k] = co.toKvRaw(x / sc);
-  }
+  });
   return { samples, seed };
+}
+
+/**
+ * The drawn lots of a simulation, kept so that the same batches can be blended again at other
+ * fractions of the same stocks (a recipe being edited) without drawing again: see {@link blendLots}.
+ */
+export interface MonteCarloLots {
+  /** The blending coordinate X of every drawn lot, batch by batch: `x[k·parts + i]` is stock i of batch k. */
+  x: Float64Array;
+  /** Batches drawn. */
+  samples: number;
+  /** Stocks per batch (the parts with a mass fraction above 0, in the order given). */
+  parts: number;
+  seed: number;
+  method: BlendMethod;
+}
+
+/**
+ * Draws the lots of a simulation (the same lots, from the same seed, as {@link monteCarloKv40}) and
+ * keeps each lot's blending coordinate X (Refutas: VBN; ASTM D7152: log log(ν + 0.7)). The lots
+ * depend on the stocks (ν40ᵢ, sᵢ), the seed and the method, not on the fractions.
+ *
+ * @param parts - the recipe's parts (validated as for `batchKv40Distribution`); parts at 0 % draw no lot
+ * @param options - `samples` (1–10⁷, default 10 000), `seed` (default 1), `method` (default 'refutas')
+ * @returns the drawn lots, samples × used parts coordinates (8 bytes each)
+ * @throws as {@link monteCarloKv40}
+ */
+export function monteCarloLots(
+  parts: readonly SpreadPart[],
+  options: { samples?: number; seed?: number; method?: BlendMethod } = {},
+): MonteCarloLots {
+  const { method, n, seed, co, used } = simulation('monteCarloLots', parts, options);
+  const m = used.length;
+  const x = new Float64Array(n * m);
+  drawLots(used, n, seed, co.toXRaw, (k, i, xi) => {
+    x[k * m + i] = xi;
+  });
+  return { x, samples: n, parts: m, seed, method };
+}
+
+/**
+ * Blends drawn lots at a recipe's fractions by the exact rule: batch k's ν40 = X⁻¹(Σ cᵢXₖᵢ / Σ cᵢ),
+ * cᵢ = wᵢ (Refutas) or wᵢ/ρᵢ (D7152). With the fractions the lots were drawn for, the result equals
+ * {@link monteCarloKv40}'s to the last bit (same lots, same sums in the same order).
+ *
+ * @param lots - from {@link monteCarloLots}, drawn for the same stocks in the same order
+ * @param parts - the recipe's parts at the fractions wanted (the parts above 0 % must be the stocks the lots were drawn for)
+ * @returns the simulated batch ν40 values [mm²/s]
+ * @throws the errors of `batchKv40Distribution`; BlendbenchInputError when the stocks above 0 % do not match the lots
+ */
+export function blendLots(lots: MonteCarloLots, parts: readonly SpreadPart[]): MonteCarloKv40 {
+  const { co, used, cw, sc } = simulation('blendLots', parts, { samples: lots.samples, seed: lots.seed, method: lots.method });
+  const m = used.length;
+  if (m !== lots.parts) {
+    throw new BlendbenchInputError('parts', m, `blendLots: ${m} stocks above 0 %, but the lots were drawn for ${lots.parts}; draw the lots again`);
+  }
+  const { x, samples: n } = lots;
+  const samples = new Float64Array(n);
+  for (let k = 0, o = 0; k < n; k++, o += m) {
+    let s = 0;
+    for (let i = 0; i < m; i++) s += cw[i]! * x[o + i]!;
+    samples[k] = co.toKvRaw(s / sc);
+  }
+  return { samples, seed: lots.seed };
 }
 
 /**

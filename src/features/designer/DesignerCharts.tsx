@@ -2,16 +2,19 @@
  * The designer's charts (lazy chunk: recharts loads only when the designer shows them).
  *
  * The charts keep the same props while a fraction is typed: their axes and static series depend
- * only on the set of stocks and the reference recipe. The blend itself — its D341 line, its point
- * on the solvency–stability map and its composition bars — is passed through `LiveMarksContext`
- * and drawn by live layers inside each chart, so an edit re-renders only those layers.
+ * only on the set of stocks and the reference recipe (and the distribution chart's on sticky axis
+ * ranges). The blend itself — its D341 line, its point on the solvency–stability map, its composition
+ * bars and its batch distribution — is passed through `LiveMarksContext` and drawn by live layers
+ * inside each chart, so an edit re-renders only those layers.
  */
-import { useCallback, useDeferredValue, useMemo, useRef } from 'react';
+import { useCallback, useMemo, useRef } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import type { Settings } from '../../state';
 import {
   BatchDistributionChart,
   batchDistributionData,
+  distributionDomain,
+  distributionPeak,
   CompositionChart,
   LiveMarksContext,
   SolvencyOxidationMap,
@@ -29,7 +32,7 @@ import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
 import { oxidationClass } from '../../core/scoring/oxidation';
 import { recipeSpreadParts } from '../../core/qc/recipe-spread';
-import { monteCarloKv40, shareInBand } from '../../core/qc/monte-carlo';
+import { blendLots, monteCarloLots, shareInBand } from '../../core/qc/monte-carlo';
 import { fmtProbability } from './PropertiesPanel';
 
 /** Batches simulated for the distribution chart, and the seed (the same picture every time). */
@@ -54,6 +57,17 @@ function useStickyMax(value: number): number {
   const ref = useRef(0);
   if (value > ref.current || value < ref.current * 0.45) ref.current = roundUp(Math.max(value * 1.05, 1e-3));
   return ref.current;
+}
+
+/**
+ * An axis range that changes only when the range wanted leaves it or is well inside it (less than
+ * 60 % of its span): while a fraction is typed, the axes keep still and only the marks move.
+ */
+function useStickyDomain(wanted: readonly [number, number] | null): readonly [number, number] | null {
+  const ref = useRef<readonly [number, number] | null>(null);
+  const cur = ref.current;
+  if (wanted && (!cur || wanted[0] < cur[0] || wanted[1] > cur[1] || wanted[1] - wanted[0] < 0.6 * (cur[1] - cur[0]))) ref.current = wanted;
+  return wanted ? ref.current : null;
 }
 
 export default function DesignerCharts({ view, prediction, components, referenceRecipe, settings }: DesignerChartsProps) {
@@ -125,6 +139,42 @@ export default function DesignerCharts({ view, prediction, components, reference
   const pctMax = Math.min(100, useStickyMax(Math.max(1, ...view.lines.map((l) => 100 * Math.max(l.massFraction, l.volumeFraction)))));
   const costMax = useStickyMax(Math.max(1e-3, ...view.lines.map((l) => l.costPerLitre ?? 0)));
 
+  // Batch ν40 under lot spread: the model (from the prediction) and a seeded Monte Carlo of the exact
+  // rule. The simulated lots depend only on the stocks in use, so they are drawn once per set of stocks
+  // and blended again at each edit's fractions (the same batches as drawing afresh, to the last bit).
+  const inBand = prediction.ok ? prediction.inBand : null;
+  const usedLines = useMemo(
+    () => view.lines.filter((l) => l.massFraction > 0).map((l) => ({ componentId: l.componentId, massFraction: l.massFraction })),
+    [view],
+  );
+  const usedKey = usedLines.map((l) => l.componentId).join('|');
+  const lots = useMemo(() => {
+    try {
+      return monteCarloLots(recipeSpreadParts(components, usedLines), { samples: SIMULATED_BATCHES, seed: SIMULATION_SEED, method: settings.blendMethod });
+    } catch {
+      return null;
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [usedKey, components, settings.blendMethod]);
+  const distribution = useMemo(() => {
+    if (!inBand || !lots || !(inBand.distribution.sdX > 0)) return null;
+    try {
+      const mc = blendLots(lots, recipeSpreadParts(components, usedLines));
+      return { ...batchDistributionData(inBand.distribution, inBand.iso, mc.samples), share: shareInBand(mc.samples, inBand.plant) };
+    } catch {
+      return null;
+    }
+  }, [inBand, lots, components, usedLines]);
+  const distX = useStickyDomain(distribution ? distributionDomain(distribution.curve, distribution.histogram, inBand!.iso) : null);
+  const distYMax = useStickyMax(distribution ? distributionPeak(distribution.curve, distribution.histogram) : 0);
+  const plantMin = inBand?.plant.min;
+  const plantMax = inBand?.plant.max;
+  const isoMin = inBand?.iso.min;
+  const isoMax = inBand?.iso.max;
+  const plantBand = useMemo(() => ({ min: plantMin ?? NaN, max: plantMax ?? NaN, label: 'solve band' }), [plantMin, plantMax]);
+  const isoBand = useMemo(() => ({ min: isoMin ?? NaN, max: isoMax ?? NaN, label: 'ISO band' }), [isoMin, isoMax]);
+  const formatPct = useCallback((p: number) => fmtProbability(p, fmt), [fmt]);
+
   const live = useMemo<LiveMarks>(
     () => ({
       vt: prediction.ok ? { label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100, pourPointC: prediction.props.pourPoint } : null,
@@ -137,29 +187,19 @@ export default function DesignerCharts({ view, prediction, components, reference
         volumePct: l.volumeFraction * 100,
         costPerLitre: l.costPerLitre ?? 0,
       })),
+      distribution:
+        distribution && inBand
+          ? {
+              curve: distribution.curve,
+              histogram: distribution.histogram,
+              plantProbability: inBand.plant.probability,
+              isoProbability: inBand.iso.probability,
+              simulation: `${fmt.num(SIMULATED_BATCHES, 0)} simulated batches (seed ${SIMULATION_SEED}), each stock's lot drawn and blended by the exact rule: ${formatPct(distribution.share)} in the solve band`,
+            }
+          : null,
     }),
-    [prediction, view],
+    [prediction, view, distribution, inBand, fmt, formatPct],
   );
-
-  // Batch ν40 under lot spread: the model (from the prediction) and a seeded Monte Carlo of the exact rule.
-  // Deferred: a typed fraction repaints the table and the live marks first, the simulation after.
-  const inBand = useDeferredValue(prediction.ok ? prediction.inBand : null);
-  const deferredView = useDeferredValue(view);
-  const distribution = useMemo(() => {
-    if (!inBand || !(inBand.distribution.sdX > 0)) return null;
-    try {
-      const parts = recipeSpreadParts(
-        components,
-        deferredView.lines.filter((l) => l.massFraction > 0).map((l) => ({ componentId: l.componentId, massFraction: l.massFraction })),
-      );
-      const mc = monteCarloKv40(parts, { samples: SIMULATED_BATCHES, seed: SIMULATION_SEED, method: settings.blendMethod });
-      const data = batchDistributionData(inBand.distribution, inBand.iso, mc.samples);
-      const share = shareInBand(mc.samples, inBand.plant);
-      return { ...data, share };
-    } catch {
-      return null;
-    }
-  }, [inBand, deferredView, components, settings.blendMethod]);
 
   const full = Math.max(320, width);
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
@@ -203,14 +243,14 @@ export default function DesignerCharts({ view, prediction, components, reference
           width={full}
           height={Math.max(140, 40 + rowLabels.length * 26)}
         />
-        {inBand && distribution && (
+        {distribution && distX && (
           <BatchDistributionChart
-            curve={distribution.curve}
-            histogram={distribution.histogram}
-            plantBand={{ ...inBand.plant, label: 'solve band' }}
-            isoBand={{ ...inBand.iso, label: 'ISO band' }}
-            simulation={`${fmt.num(SIMULATED_BATCHES, 0)} simulated batches (seed ${SIMULATION_SEED}), each stock's lot drawn and blended by the exact rule: ${fmtProbability(distribution.share, fmt)} in the solve band`}
-            formatPct={(p) => fmtProbability(p, fmt)}
+            live
+            xDomain={distX}
+            yMax={distYMax}
+            plantBand={plantBand}
+            isoBand={isoBand}
+            formatPct={formatPct}
             width={full}
             height={260}
           />

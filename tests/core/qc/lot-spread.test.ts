@@ -8,7 +8,7 @@ import {
   DEFAULT_KV40_LOT_SPREAD_PCT,
   type SpreadPart,
 } from '../../../src/core/qc/lot-spread';
-import { monteCarloKv40, seededNormal, seededUniform, shareInBand } from '../../../src/core/qc/monte-carlo';
+import { blendLots, monteCarloKv40, monteCarloLots, seededNormal, seededUniform, shareInBand } from '../../../src/core/qc/monte-carlo';
 import { standardNormalCdf } from '../../../src/core/qc/normal';
 import { refutasVbn } from '../../../src/core/blending/refutas';
 import { BlendbenchInputError, FractionSumError, NonPositiveViscosityError } from '../../../src/core/errors';
@@ -113,6 +113,22 @@ describe('lot spread — against a seeded Monte Carlo of the exact rule', () => 
       expectRelClose(sorted[50_000]!, d.medianKv40, 0.002); // the median batch is ν(μ) (model), to sampling error
     });
   }
+
+  it('draws its lots once: blending the kept lots at any fractions of the same stocks gives the simulation to the last bit', () => {
+    // Identity with monteCarloKv40 itself (the same lots, the same sums in the same order); no external value.
+    for (const method of ['refutas', 'astm-d7152'] as const) {
+      const drawnAt = [part(0.3, 30, 0.03), part(0.5, 460, 0.05, 0.9), part(0.2, 100, 0.08, 0.86), part(0, 50, 0.1)];
+      const lots = monteCarloLots(drawnAt, { samples: 500, seed: 11, method });
+      expect(lots.parts).toBe(3);
+      const editedTo = [part(0.25, 30, 0.03), part(0.6, 460, 0.05, 0.9), part(0.15, 100, 0.08, 0.86), part(0, 50, 0.1)];
+      for (const parts of [drawnAt, editedTo]) {
+        expect(Array.from(blendLots(lots, parts).samples)).toEqual(Array.from(monteCarloKv40(parts, { samples: 500, seed: 11, method }).samples));
+      }
+    }
+    // Another set of stocks above 0 % needs lots of its own.
+    const lots = monteCarloLots([part(0.5, 100, 0.02), part(0.5, 460, 0.02)], { samples: 10 });
+    expect(() => blendLots(lots, [part(0.4, 100, 0.02), part(0.3, 460, 0.02), part(0.3, 30, 0.02)])).toThrow(/draw the lots again/);
+  });
 
   it('is a pure function of the seed', () => {
     const parts = [part(0.5, 100, 0.02), part(0.5, 460, 0.02)];
