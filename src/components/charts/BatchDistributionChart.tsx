@@ -1,9 +1,9 @@
-import { memo, useContext, useId } from 'react';
+import { memo, useId } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { useFormat, type Formatter } from '../format';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
-import { LiveDistributionMarks, LiveMarksContext, type DensityPoint } from './live';
+import { LiveDistributionMarks, useLiveMarks, type DensityPoint } from './live';
 
 export type { DensityPoint } from './live';
 
@@ -30,7 +30,7 @@ export interface BatchDistributionChartProps {
   width: number;
   height: number;
   /**
-   * Draw the curve, the histogram and the caption's numbers from {@link LiveMarksContext}
+   * Draw the curve, the histogram and the caption's numbers from {@link LiveMarksProvider}
    * (`distribution`) as live layers; the axes are then set by `xDomain` and `yMax`, so that the chart
    * keeps its props while the recipe is edited.
    */
@@ -140,7 +140,7 @@ function distributionNote(plantBand: DistributionBand, isoBand: DistributionBand
 }
 
 function LiveNote({ id, plantBand, isoBand, formatPct }: { id: string; plantBand: DistributionBand; isoBand: DistributionBand; formatPct: (p: number) => string }) {
-  const live = useContext(LiveMarksContext).distribution;
+  const live = useLiveMarks((m) => m.distribution);
   const f = useFormat();
   return (
     <p id={id} className="chart-note" data-testid="distribution-note">

@@ -1,8 +1,8 @@
-import { memo, useContext, useId } from 'react';
+import { memo, useId } from 'react';
 import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceStep, niceTicks, tickDecimals } from './nice';
-import { LiveBars, LiveMarksContext } from './live';
+import { LiveBars, useLiveMarks } from './live';
 import { useFormat, type Formatter } from '../format';
 
 export interface CompositionRow {
@@ -25,7 +25,7 @@ export interface CompositionChartProps {
   width: number;
   height: number;
   /**
-   * Draw the bars from {@link LiveMarksContext} (`bars`) as a live layer; the axes are then set by
+   * Draw the bars from {@link LiveMarksProvider} (`bars`) as a live layer; the axes are then set by
    * `pctMax` and `costMax` so that the chart keeps its props while the recipe is edited.
    */
   live?: boolean;
@@ -112,7 +112,7 @@ function Description({ id, rows, currency }: { id: string; rows: readonly Compos
 }
 
 function LiveDescription({ id, currency }: { id: string; currency: string }) {
-  const bars = useContext(LiveMarksContext).bars ?? [];
+  const bars = useLiveMarks((m) => m.bars) ?? [];
   const f = useFormat();
   return (
     <p id={id} className="visually-hidden">

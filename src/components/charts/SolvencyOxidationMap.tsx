@@ -37,7 +37,7 @@ export interface SolvencyOxidationMapProps {
    */
   xTemperature?: boolean;
   title?: string;
-  /** Also draw the blend from {@link LiveMarksContext} (`point`) as a live layer. */
+  /** Also draw the blend from {@link LiveMarksProvider} (`point`) as a live layer. */
   live?: boolean;
   /** Legend wording; `candidate: null` leaves that entry out. */
   legend?: { selected?: string; candidate?: string | null };

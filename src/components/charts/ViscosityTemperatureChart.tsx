@@ -50,7 +50,7 @@ export interface ViscosityTemperatureChartProps {
   formatTemp?: (tempC: number) => string;
   title?: string;
   /**
-   * Draw the blend from {@link LiveMarksContext} (`vt`) as a live layer: the chart keeps its props
+   * Draw the blend from {@link LiveMarksProvider} (`vt`) as a live layer: the chart keeps its props
    * while the blend changes. The axes are set by `lines` (a blend lies inside its components' envelope).
    */
   live?: boolean;

@@ -15,7 +15,7 @@ export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints, d341Segments, fittedRangeOf, temperatureFlag } from './d341-scale';
 export { CHART_COLOURS } from './palette';
 export { useWidth } from './useWidth';
-export { LiveMarksContext } from './live';
+export { LiveMarksProvider } from './live';
 export type { LiveMarks, LiveBar, LiveDistribution } from './live';
 export { roundUp } from './CompositionChart';
 export { AllocationChart } from './AllocationChart';

@@ -3,9 +3,11 @@
  * small components INSIDE the recharts chart with recharts' own scales (`useXAxisScale`,
  * `useYAxisScale`, `usePlotArea`). The chart itself (axes, grid, static series) keeps the same props
  * while a fraction is typed, so it does not re-render; only these layers do, which keeps an edit
- * within one frame. The values come from {@link LiveMarksContext}, provided by the screen.
+ * within one frame. The values come from {@link LiveMarksProvider}, placed by the screen around its
+ * charts: a small store the live layers subscribe to, so a new blend re-renders only them (a changed
+ * React context value would make React search every chart's whole tree for its readers).
  */
-import { createContext, useContext, useId } from 'react';
+import { createContext, useContext, useId, useLayoutEffect, useState, useSyncExternalStore, type ReactNode } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
@@ -51,7 +53,49 @@ export interface LiveMarks {
   distribution?: LiveDistribution | null;
 }
 
-export const LiveMarksContext = createContext<LiveMarks>({});
+/** Where the live layers read the blend. */
+interface LiveMarksSource {
+  get(): LiveMarks;
+  subscribe(onChange: () => void): () => void;
+  set(marks: LiveMarks): void;
+}
+
+function liveMarksSource(initial: LiveMarks): LiveMarksSource {
+  let marks = initial;
+  const listeners = new Set<() => void>();
+  return {
+    get: () => marks,
+    subscribe: (onChange) => {
+      listeners.add(onChange);
+      return () => void listeners.delete(onChange);
+    },
+    set: (next) => {
+      if (next === marks) return;
+      marks = next;
+      for (const l of listeners) l();
+    },
+  };
+}
+
+const LiveMarksSourceContext = createContext<LiveMarksSource>(liveMarksSource({}));
+
+/**
+ * Gives the live layers below the blend to draw. The context holds one store for the provider's
+ * lifetime; a new `marks` is handed to the store after the render, and only the live layers, its
+ * subscribers, render again (before the browser paints).
+ */
+export function LiveMarksProvider({ marks, children }: { marks: LiveMarks; children?: ReactNode }) {
+  const [source] = useState(() => liveMarksSource(marks));
+  useLayoutEffect(() => source.set(marks), [source, marks]);
+  return <LiveMarksSourceContext.Provider value={source}>{children}</LiveMarksSourceContext.Provider>;
+}
+
+/** One part of the blend from the nearest {@link LiveMarksProvider}; the caller re-renders when it changes. */
+export function useLiveMarks<T>(select: (marks: LiveMarks) => T): T {
+  const source = useContext(LiveMarksSourceContext);
+  const read = () => select(source.get());
+  return useSyncExternalStore(source.subscribe, read, read);
+}
 
 /** Pixel position of a value on a linear axis, extrapolated beyond the domain from its two ends. */
 function linear(scale: (v: unknown) => number | undefined, domain: readonly [number, number]): ((v: number) => number) | null {
@@ -76,7 +120,7 @@ function ClipToPlot({ id }: { id: string }) {
  * static lines: solid between 40 and 100 °C, faded where extrapolated, dotted below the pour point.
  */
 export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
-  const live = useContext(LiveMarksContext).vt;
+  const live = useLiveMarks((m) => m.vt);
   const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
@@ -136,7 +180,7 @@ export function LiveMapPoint({
   /** The point's title text from its (axis) values. */
   describe?: (x: number, y: number) => string;
 }) {
-  const live = useContext(LiveMarksContext).point;
+  const live = useLiveMarks((m) => m.point);
   const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
@@ -153,7 +197,7 @@ export function LiveMapPoint({
 
 /** Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. */
 export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string }) {
-  const bars = useContext(LiveMarksContext).bars;
+  const bars = useLiveMarks((m) => m.bars);
   const f = useFormat();
   const xs = useXAxisScale();
   const ys = useYAxisScale();
@@ -206,7 +250,7 @@ export function LiveDistributionMarks({
   yDomain: readonly [number, number];
   colours: { histogram: string; curve: string };
 }) {
-  const live = useContext(LiveMarksContext).distribution;
+  const live = useLiveMarks((m) => m.distribution);
   const xs = useXAxisScale();
   const ys = useYAxisScale();
   const clip = useId().replace(/:/g, '');

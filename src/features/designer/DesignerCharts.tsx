@@ -4,7 +4,7 @@
  * The charts keep the same props while a fraction is typed: their axes and static series depend
  * only on the set of stocks and the reference recipe (and the distribution chart's on sticky axis
  * ranges). The blend itself — its D341 line, its point on the solvency–stability map, its composition
- * bars and its batch distribution — is passed through `LiveMarksContext` and drawn by live layers
+ * bars and its batch distribution — is passed through `LiveMarksProvider` and drawn by live layers
  * inside each chart, so an edit re-renders only those layers.
  */
 import { useCallback, useMemo, useRef } from 'react';
@@ -16,7 +16,7 @@ import {
   distributionDomain,
   distributionPeak,
   CompositionChart,
-  LiveMarksContext,
+  LiveMarksProvider,
   SolvencyOxidationMap,
   ViscosityTemperatureChart,
   fittedRangeOf,
@@ -205,7 +205,7 @@ export default function DesignerCharts({ view, prediction, components, reference
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
 
   return (
-    <LiveMarksContext.Provider value={live}>
+    <LiveMarksProvider marks={live}>
       <section className="designer-charts" aria-label="Charts" ref={ref}>
         <h3>Charts</h3>
         <div className="chart-row">
@@ -256,6 +256,6 @@ export default function DesignerCharts({ view, prediction, components, reference
           />
         )}
       </section>
-    </LiveMarksContext.Provider>
+    </LiveMarksProvider>
   );
 }

@@ -1,4 +1,4 @@
-import { memo, useEffect, useRef, useState } from 'react';
+import { memo, useRef, useState } from 'react';
 import { useFormat } from '../../components/format';
 
 export interface FractionInputProps {
@@ -20,20 +20,17 @@ export interface FractionInputProps {
 export const FractionInput = memo(function FractionInput({ label, value, onEdit, disabled }: FractionInputProps) {
   const fmt = useFormat();
   const show = (v: number) => fmt.plain(Number((v * 100).toFixed(2)), 2);
-  const [text, setText] = useState(() => show(value));
+  // The text as typed, kept only while the user is typing (dirty); otherwise the cell shows the
+  // stored share, so an edit of another line repaints it in the same render.
+  const [text, setText] = useState('');
   const [dirty, setDirty] = useState(false);
   const [error, setError] = useState('');
   /** The share when the current edit began (what Escape restores). */
   const start = useRef<number | null>(null);
-  useEffect(() => {
-    if (!dirty) setText(show(value));
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value, dirty, fmt]);
   const finish = () => {
     if (error) return false;
     setDirty(false);
     start.current = null;
-    setText(show(value));
     return true;
   };
   return (
@@ -48,7 +45,7 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
         title={error || undefined}
         size={7}
         disabled={disabled}
-        value={text}
+        value={dirty ? text : show(value)}
         onBlur={() => void finish()}
         onKeyDown={(e) => {
           if (e.key === 'Enter') {
@@ -58,7 +55,6 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
             setError('');
             setDirty(false);
             start.current = null;
-            setText(show(value));
           } else if (e.key === 'ArrowUp' || e.key === 'ArrowDown') {
             e.preventDefault();
             if (start.current === null) start.current = value;

@@ -1,4 +1,4 @@
-import { memo, useId, useState } from 'react';
+import { memo, useId, useRef, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { useFormat } from '../../components/format';
@@ -29,6 +29,19 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
   const fmt = useFormat();
   const addId = useId();
   const [toAdd, setToAdd] = useState('');
+  // One edit callback per line, kept across renders (calling the latest onEdit), so a line whose
+  // share did not change is not re-rendered (balance-stock mode).
+  const onEditRef = useRef(p.onEdit);
+  onEditRef.current = p.onEdit;
+  const editors = useRef(new Map<string, (f: number) => void>()).current;
+  const editorFor = (id: string) => {
+    let e = editors.get(id);
+    if (!e) {
+      e = (f: number) => onEditRef.current(id, f);
+      editors.set(id, e);
+    }
+    return e;
+  };
   const editable = (id: string) => !(p.rebalanceMode === 'balance' && p.balanceId === id);
   // A line without a cost (no price, or no exchange rate) leaves the total unknown rather than short.
   const totalCost = p.view.lines.some((l) => l.costPerLitre === null) ? null : p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
@@ -84,13 +97,13 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
             const canEdit = editable(l.componentId);
             const massCell =
               p.basis === 'mass' && canEdit ? (
-                <FractionInput label={`Mass % of ${code}`} value={l.massFraction} onEdit={(f) => p.onEdit(l.componentId, f)} />
+                <FractionInput label={`Mass % of ${code}`} value={l.massFraction} onEdit={editorFor(l.componentId)} />
               ) : (
                 fmt.num(l.massFraction * 100, 2)
               );
             const volCell =
               p.basis === 'volume' && canEdit ? (
-                <FractionInput label={`Volume % of ${code}`} value={l.volumeFraction} onEdit={(f) => p.onEdit(l.componentId, f)} />
+                <FractionInput label={`Volume % of ${code}`} value={l.volumeFraction} onEdit={editorFor(l.componentId)} />
               ) : (
                 fmt.num(l.volumeFraction * 100, 2)
               );

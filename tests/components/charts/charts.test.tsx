@@ -3,6 +3,7 @@ import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { loadUnitConversions } from '../../../src/components/format';
 import { cleanup, render } from '@testing-library/react';
 import {
+  BatchDistributionChart,
   CompositionChart,
   FrontierChart,
   SolvencyOxidationMap,
@@ -208,7 +209,7 @@ describe('one formatter for every chart', () => {
 
 describe('live layers (the blend drawn with the chart\'s own scales)', () => {
   it('draws the blend line, point and bars from the context, and follows it without new chart props', async () => {
-    const { LiveMarksContext } = await import('../../../src/components/charts');
+    const { LiveMarksProvider } = await import('../../../src/components/charts');
     const lines = [
       { id: 'a', label: 'light', kv40: 30, kv100: 5.2, role: 'component' as const },
       { id: 'b', label: 'heavy', kv40: 480, kv100: 31.5, role: 'component' as const },
@@ -226,11 +227,11 @@ describe('live layers (the blend drawn with the chart\'s own scales)', () => {
       ],
     });
     const ui = (w: number) => (
-      <LiveMarksContext.Provider value={marks(w)}>
+      <LiveMarksProvider marks={marks(w)}>
         <ViscosityTemperatureChart width={600} height={340} lines={lines} live />
         <SolvencyOxidationMap width={400} height={300} points={[]} xDomain={[80, 140]} yDomain={[1, 5]} live />
         <CompositionChart width={700} height={200} currency="EUR" rows={rows} live pctMax={100} costMax={1} />
-      </LiveMarksContext.Provider>
+      </LiveMarksProvider>
     );
     const { container, rerender } = render(ui(0.3));
     const blendPath = () => container.querySelector('.vt-candidate path')!.getAttribute('d');
@@ -248,5 +249,54 @@ describe('live layers (the blend drawn with the chart\'s own scales)', () => {
     // the heavy stock's mass bar is now twice as long as before (60 % vs 30 % on the same linear axis; arithmetic)
     expect(barWidths()[2]! / heavyBefore).toBeCloseTo(2, 6);
     expect(container.querySelectorAll('.recharts-line-curve').length).toBe(plotLines);
+  });
+});
+
+describe('BatchDistributionChart, live', () => {
+  it('draws the histogram and the model curve from the provider on fixed axes, and follows the blend', async () => {
+    const { LiveMarksProvider } = await import('../../../src/components/charts');
+    // A made-up distribution (arithmetic only): a triangle of density around ν40 = c, histogram of 4 bins.
+    const dist = (c: number) => ({
+      curve: [-10, -5, 0, 5, 10].map((d) => ({ kv: c + d, y: (10 - Math.abs(d)) / 100 })),
+      histogram: [
+        { kv: c - 10, y: 0.02 },
+        { kv: c - 5, y: 0.08 },
+        { kv: c, y: 0.08 },
+        { kv: c + 5, y: 0.02 },
+        { kv: c + 10, y: 0 },
+      ],
+      plantProbability: 0.9,
+      isoProbability: 0.99,
+      simulation: `4000 simulated batches around ${c}`,
+    });
+    const ui = (c: number) => (
+      <LiveMarksProvider marks={{ distribution: dist(c) }}>
+        <BatchDistributionChart
+          live
+          xDomain={[280, 360]}
+          yMax={0.12}
+          plantBand={{ min: 304, max: 336, label: 'solve band' }}
+          isoBand={{ min: 288, max: 352, label: 'ISO band' }}
+          formatPct={(p) => `${(100 * p).toFixed(1)} %`}
+          width={600}
+          height={260}
+        />
+      </LiveMarksProvider>
+    );
+    const { container, getByTestId, rerender } = render(ui(318));
+    const curve = () => container.querySelector('.live-curve')!.getAttribute('d')!;
+    const area = () => container.querySelector('.live-histogram')!.getAttribute('d')!;
+    const ticks = () => [...container.querySelectorAll('.recharts-xAxis .recharts-cartesian-axis-tick-value')].map((t) => t.textContent).join();
+    expect(curve()).toMatch(/^M[\d.]+,[\d.]+(L[\d.]+,[\d.]+){4}$/); // 5 points
+    expect(area()).toMatch(/^M[\d.]+,[\d.]+L[\d.]+,[\d.]+(H[\d.]+V[\d.]+){4}V[\d.]+Z$/); // steps after 5 points, closed to the base
+    expect(getByTestId('distribution-note').textContent).toBe(
+      'Model: 90.0 % of batches in the solve band (304.0–336.0 mm²/s), 99.0 % in the ISO band (288.0–352.0 mm²/s). Simulation: 4000 simulated batches around 318.',
+    );
+    const before = [curve(), area(), ticks()];
+    rerender(ui(326));
+    expect(curve()).not.toBe(before[0]);
+    expect(area()).not.toBe(before[1]);
+    expect(ticks()).toBe(before[2]); // the axes keep still
+    expect(getByTestId('distribution-note').textContent).toContain('around 326');
   });
 });
