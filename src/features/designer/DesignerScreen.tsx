@@ -1,4 +1,4 @@
-import { Suspense, lazy, useCallback, useEffect, useId, useMemo, useState } from 'react';
+import { Suspense, lazy, memo, useCallback, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
@@ -59,7 +59,8 @@ export default function DesignerScreen() {
   const sourceRecipeId = useDesignerStore((s) => s.sourceRecipeId);
   const dirty = useDesignerStore((s) => s.dirty);
   const initialised = useDesignerStore((s) => s.initialised);
-  const actions = useDesignerStore.getState();
+  // The store's actions (the same functions in every state; the state read here is not used).
+  const actions = useMemo(() => useDesignerStore.getState(), []);
 
   const additiveId = useMemo(
     () => components.find((c) => c.category === 'additive-package' && c.availability !== 'withdrawn')?.id ?? null,
@@ -109,22 +110,91 @@ export default function DesignerScreen() {
 
   const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
   const sourceRecipe = recipes.find((r) => r.id === sourceRecipeId) ?? null;
-  const inRecipe = new Set(lines.map((l) => l.componentId));
-  const addable = components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
+  // The stocks that can be added change with the set of lines, not with their shares.
+  const lineKey = lines.map((l) => l.componentId).join('|');
+  const addable = useMemo(() => {
+    const inRecipe = new Set(lineKey.split('|'));
+    return components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
+  }, [components, lineKey]);
+
+  // Callbacks kept across edits, so the parts of the screen an edit does not change are not re-rendered.
+  const onLoadRecipe = useCallback(
+    (r: Recipe) => {
+      actions.load(r, targetsFor(r, storedTargets[r.id], additiveId));
+      recipeActions.setActiveRecipe(r.id);
+    },
+    [actions, storedTargets, additiveId],
+  );
+  const onBlank = useCallback(
+    () => actions.startBlank(defaultTargets(targets.grade, additiveId, targets.referenceRecipeId)),
+    [actions, targets.grade, additiveId, targets.referenceRecipeId],
+  );
+  const onSaveNew = useCallback(
+    (n: string, reason: string): SaveOutcome => {
+      const s = useDesignerStore.getState();
+      const lib = useLibrary.getState().components;
+      // The same field rules as storage: refuse before anything is written.
+      const refused = firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel)) ?? checkText('reasonForChange', reason, recipeWho(n));
+      if (refused) return { refused };
+      let id: string;
+      try {
+        id = recipeActions.addRecipe({
+          name: n,
+          grade: s.targets.grade,
+          lines: s.lines,
+          reasonForChange: reason,
+          specification: sourceRecipe?.specification,
+          stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
+        });
+      } catch (e) {
+        return { refused: (e as Error).message };
+      }
+      recipeActions.setTargets(id, s.targets);
+      recipeActions.setActiveRecipe(id);
+      s.markSaved(id);
+      s.setName(n);
+      return { id };
+    },
+    [stockLabel, sourceRecipe],
+  );
+  const onSaveChanges = useCallback(
+    (id: string, n: string, reason: string): SaveOutcome => {
+      const s = useDesignerStore.getState();
+      const lib = useLibrary.getState().components;
+      const target = recipes.find((r) => r.id === id);
+      const refused = firstProblem([
+        ...(target ? recipeProblems({ ...target, name: n, lines: s.lines, grade: s.targets.grade, reasonForChange: reason }) : []),
+        ...targetsProblems(s.targets, recipeWho(n), stockLabel),
+      ]);
+      if (refused) return { refused };
+      let savedId: string;
+      try {
+        savedId = recipeActions.saveChanges(
+          id,
+          {
+            name: n,
+            grade: s.targets.grade,
+            lines: s.lines,
+            targets: s.targets,
+            stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
+          },
+          reason,
+        );
+      } catch (e) {
+        return { refused: (e as Error).message };
+      }
+      recipeActions.setActiveRecipe(savedId);
+      s.markSaved(savedId);
+      return { id: savedId };
+    },
+    [recipes, stockLabel],
+  );
 
   return (
     <section className="designer" aria-labelledby="designer-h" data-testid="designer">
       <header className="screen-head">
         <h2 id="designer-h">Recipe designer</h2>
-        <StartFrom
-          recipes={recipes}
-          currentId={sourceRecipeId}
-          onLoad={(r) => {
-            actions.load(r, targetsFor(r, storedTargets[r.id], additiveId));
-            recipeActions.setActiveRecipe(r.id);
-          }}
-          onBlank={() => actions.startBlank(defaultTargets(targets.grade, additiveId, targets.referenceRecipeId))}
-        />
+        <StartFrom recipes={recipes} currentId={sourceRecipeId} onLoad={onLoadRecipe} onBlank={onBlank} />
       </header>
       <div className="designer-grid">
         <aside className="designer-targets">
@@ -184,61 +254,8 @@ export default function DesignerScreen() {
             dirty={dirty}
             canSave={lines.length > 0 && Math.abs(view.total - 1) < 1e-6}
             onName={actions.setName}
-            onSaveNew={(n, reason) => {
-              const s = useDesignerStore.getState();
-              const lib = useLibrary.getState().components;
-              // The same field rules as storage: refuse before anything is written.
-              const refused =
-                firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel)) ?? checkText('reasonForChange', reason, recipeWho(n));
-              if (refused) return { refused };
-              let id: string;
-              try {
-                id = recipeActions.addRecipe({
-                  name: n,
-                  grade: s.targets.grade,
-                  lines: s.lines,
-                  reasonForChange: reason,
-                  specification: sourceRecipe?.specification,
-                  stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
-                });
-              } catch (e) {
-                return { refused: (e as Error).message };
-              }
-              recipeActions.setTargets(id, s.targets);
-              recipeActions.setActiveRecipe(id);
-              s.markSaved(id);
-              s.setName(n);
-              return { id };
-            }}
-            onSaveChanges={(id, n, reason) => {
-              const s = useDesignerStore.getState();
-              const lib = useLibrary.getState().components;
-              const target = recipes.find((r) => r.id === id);
-              const refused = firstProblem([
-                ...(target ? recipeProblems({ ...target, name: n, lines: s.lines, grade: s.targets.grade, reasonForChange: reason }) : []),
-                ...targetsProblems(s.targets, recipeWho(n), stockLabel),
-              ]);
-              if (refused) return { refused };
-              let savedId: string;
-              try {
-                savedId = recipeActions.saveChanges(
-                  id,
-                  {
-                    name: n,
-                    grade: s.targets.grade,
-                    lines: s.lines,
-                    targets: s.targets,
-                    stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
-                  },
-                  reason,
-                );
-              } catch (e) {
-                return { refused: (e as Error).message };
-              }
-              recipeActions.setActiveRecipe(savedId);
-              s.markSaved(savedId);
-              return { id: savedId };
-            }}
+            onSaveNew={onSaveNew}
+            onSaveChanges={onSaveChanges}
           />
         </div>
       </div>
@@ -255,7 +272,7 @@ export default function DesignerScreen() {
   );
 }
 
-function StartFrom({
+const StartFrom = memo(function StartFrom({
   recipes,
   currentId,
   onLoad,
@@ -293,9 +310,9 @@ function StartFrom({
       <button type="submit">Open</button>
     </form>
   );
-}
+});
 
-function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStore.getState>['notice'] }) {
+const SolveNoticeView = memo(function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStore.getState>['notice'] }) {
   if (!notice) return null;
   if (notice.kind === 'optimal') {
     return (
@@ -329,10 +346,10 @@ function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStor
       <p>{notice.message}</p>
     </Notice>
   );
-}
+});
 
 /** Where the draft came from: the saved recipe's status, and whether its stock data changed since. */
-function SourceStatus({ recipe, components }: { recipe: Recipe | null; components: readonly Component[] }) {
+const SourceStatus = memo(function SourceStatus({ recipe, components }: { recipe: Recipe | null; components: readonly Component[] }) {
   const changes = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
   if (!recipe) return null;
   return (
@@ -351,12 +368,12 @@ function SourceStatus({ recipe, components }: { recipe: Recipe | null; component
       )}
     </>
   );
-}
+});
 
 /** What a save did: the id saved to, or why nothing was saved. */
 type SaveOutcome = { id: string } | { refused: string };
 
-function SaveBox({
+const SaveBox = memo(function SaveBox({
   name,
   grade,
   sourceRecipe,
@@ -480,4 +497,4 @@ function SaveBox({
       </p>
     </section>
   );
-}
+});

@@ -27,8 +27,6 @@ export interface RecipeTableProps {
 /** The recipe's lines with editable shares, kept at 100 % by the rule stated above the table. */
 export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
   const fmt = useFormat();
-  const addId = useId();
-  const [toAdd, setToAdd] = useState('');
   // One edit callback per line, kept across renders (calling the latest onEdit), so a line whose
   // share did not change is not re-rendered (balance-stock mode).
   const onEditRef = useRef(p.onEdit);
@@ -159,29 +157,38 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
           {p.editNote}
         </p>
       )}
-      <form
-        className="add-line"
-        onSubmit={(e) => {
-          e.preventDefault();
-          if (toAdd) {
-            p.onAdd(toAdd);
-            setToAdd('');
-          }
-        }}
-      >
-        <label htmlFor={addId}>Add a stock</label>
-        <select id={addId} value={toAdd} onChange={(e) => setToAdd(e.target.value)}>
-          <option value="">choose…</option>
-          {p.addable.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.code} — {c.name}
-            </option>
-          ))}
-        </select>
-        <button type="submit" disabled={!toAdd}>
-          Add
-        </button>
-      </form>
+      <AddLine addable={p.addable} onAdd={p.onAdd} />
     </section>
+  );
+});
+
+/** Adds a stock to the recipe (its own component: an edit of a share does not re-render the list of stocks). */
+const AddLine = memo(function AddLine({ addable, onAdd }: { addable: readonly Component[]; onAdd: (componentId: string) => void }) {
+  const addId = useId();
+  const [toAdd, setToAdd] = useState('');
+  return (
+    <form
+      className="add-line"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (toAdd) {
+          onAdd(toAdd);
+          setToAdd('');
+        }
+      }}
+    >
+      <label htmlFor={addId}>Add a stock</label>
+      <select id={addId} value={toAdd} onChange={(e) => setToAdd(e.target.value)}>
+        <option value="">choose…</option>
+        {addable.map((c) => (
+          <option key={c.id} value={c.id}>
+            {c.code} — {c.name}
+          </option>
+        ))}
+      </select>
+      <button type="submit" disabled={!toAdd}>
+        Add
+      </button>
+    </form>
   );
 });
