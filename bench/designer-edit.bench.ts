@@ -13,13 +13,16 @@
  *   the ASTM D341 chart, the composition bars, the blend's point on the solvency–stability map
  *   (the charts draw the blend in live layers, see src/components/charts/live.tsx) and, when the
  *   recipe has a band and a lot spread, the batch-distribution chart (all its drawn paths: the model
- *   curve and the simulated histogram). Had anything been left to a later task (a deferred chart, recharts' own follow-up
- *   renders), the clock runs on until it lands (polled between MessageChannel tasks);
+ *   curve and the simulated histogram). Had anything been left to a later task (a deferred chart,
+ *   recharts' own follow-up renders), the clock runs on until it lands (polled between MessageChannel
+ *   tasks; the polls' own reading of the page is not counted);
  * - input to next frame: that work plus the next frame's own main-thread work (from its
  *   animation-frame callbacks to the next task: style, layout, paint records). The idle wait for the
  *   frame's turn (vsync) is not counted; raster and compositing happen off the main thread.
- * `performance.now()` is coarsened to 0.1 ms in the page. Wall times, which also hold whatever else
- * the (shared) machine is doing, are in the note.
+ * `performance.now()` is coarsened to 0.1 ms in the page. Both lines are wall times of main-thread
+ * work, so on a shared machine they also hold the time the thread waited for a core; the note of the
+ * first line adds the main-thread CPU (thread time) of a further traced batch, and the second the
+ * wall time with the idle wait included.
  */
 import { withServedApp } from './chromium';
 import type { BenchLine } from './types';
@@ -129,6 +132,51 @@ export async function openTwelveLineRecipe(page: import('playwright-core').Page,
   return `Mass % of ${added[0]}`;
 }
 
+/** Edits of the traced batch (after the timed one). */
+const TRACED_EDITS = 40;
+
+/**
+ * Main-thread CPU per edit from a Chromium trace of a batch of edits: the thread time (`tdur`) of
+ * each top-level task, sorted into the task that handles the input event (the edit's work and its
+ * forced layout), the frame tasks (style, layout, paint, layerize) and the rest (the bench's polls,
+ * saving the draft, timers). Thread time leaves out the time the thread waits for a core, so on a
+ * shared machine it shows the work itself; tracing adds some overhead of its own.
+ */
+async function tracedCpu(
+  browser: import('playwright-core').Browser,
+  page: import('playwright-core').Page,
+  label: string,
+): Promise<{ input: number[]; frames: number[]; allPerEdit: number }> {
+  await browser.startTracing(page, { categories: ['toplevel', 'devtools.timeline', 'disabled-by-default-devtools.timeline'] });
+  await editBatch(page, { label, edits: TRACED_EDITS, values: ['4', '3'] });
+  const { traceEvents } = JSON.parse((await browser.stopTracing()).toString()) as {
+    traceEvents: { name: string; ph: string; pid: number; tid: number; ts: number; dur?: number; tdur?: number; args?: { name?: string; data?: { type?: string } } }[];
+  };
+  const main = traceEvents.find((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
+  if (!main) throw new Error('designer-edit bench: no renderer main thread in the trace');
+  const evs = traceEvents.filter((e) => e.pid === main.pid && e.tid === main.tid && e.ph === 'X').sort((a, b) => a.ts - b.ts);
+  const input: number[] = [];
+  const frames: number[] = [];
+  let all = 0;
+  let j = 0;
+  for (const t of evs) {
+    if (t.name !== 'RunTask') continue;
+    const end = t.ts + (t.dur ?? 0);
+    const cpu = (t.tdur ?? t.dur ?? 0) / 1000;
+    all += cpu;
+    while (j < evs.length && evs[j]!.ts < t.ts) j++;
+    let kind: 'input' | 'frame' | 'other' = 'other';
+    for (let k = j; k < evs.length && evs[k]!.ts < end; k++) {
+      const e = evs[k]!;
+      if (e.name === 'EventDispatch' && e.args?.data?.type === 'input') kind = 'input';
+      else if (kind === 'other' && (e.name === 'PrePaint' || e.name === 'Paint')) kind = 'frame';
+    }
+    if (kind === 'input') input.push(cpu);
+    else if (kind === 'frame') frames.push(cpu);
+  }
+  return { input, frames, allPerEdit: all / TRACED_EDITS };
+}
+
 export async function run(): Promise<BenchLine[]> {
   return withServedApp('designer-edit', async (app) => {
     const context = await app.newContext();
@@ -136,6 +184,7 @@ export async function run(): Promise<BenchLine[]> {
     const label = await openTwelveLineRecipe(page, app.url);
     await editBatch(page, { label, edits: WARMUP, values: ['4', '3'] });
     const { times, frames, wallTimes, syncDone, hasDist } = await editBatch(page, { label, edits: EDITS, values: ['4', '3'] });
+    const cpu = await tracedCpu(app.browser, page, label);
     await context.close();
     const sorted = (xs: number[]) => [...xs].sort((a, b) => a - b);
     const mean = (xs: number[]) => xs.reduce((a, t) => a + t, 0) / xs.length;
@@ -153,7 +202,9 @@ export async function run(): Promise<BenchLine[]> {
         note:
           `${EDITS} edits of ${label} in Chromium, from the input event until every number and chart shows the new blend and layout is ` +
           `up to date; median ${median(times).toFixed(1)} ms, p95 ${p95(times).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms; ` +
-          `every number and chart${hasDist ? ' (the batch-distribution chart included)' : ''} updated within the input event in ${syncDone} of ${EDITS} edits`,
+          `every number and chart${hasDist ? ' (the batch-distribution chart included)' : ''} updated within the input event in ${syncDone} of ${EDITS} edits; ` +
+          `main-thread CPU (thread time, Chromium trace of ${TRACED_EDITS} more edits): the input event's task median ${median(cpu.input).toFixed(1)} ms, ` +
+          `p95 ${p95(cpu.input).toFixed(1)} ms, its frame median ${median(cpu.frames).toFixed(1)} ms, every main-thread task ${cpu.allPerEdit.toFixed(1)} ms per edit (the bench's own polls included)`,
       },
       {
         name: 'designer fraction edit, 12 components: input to next frame, 95th percentile',
