@@ -2,6 +2,7 @@
 import type { ReactNode } from 'react';
 import type { PersistentStorageState } from '../state/persistence';
 import { BLEND_METHOD_LABEL, type BlendMethod } from '../core/blending/blend-viscosity';
+import { D341_FORM_SHORT, type D341Form } from '../core/viscosity/viscosity-temperature';
 
 /**
  * The full caution, where predictions are printed (the app frame prints it on every screen's paper
@@ -57,11 +58,23 @@ export function methodText(method: BlendMethod): string {
   return `Blend viscosity method: ${BLEND_METHOD_LABEL[method]}.`;
 }
 
-/** {@link methodText} as a small note, for screens and printouts alike. */
-export function MethodNote({ method, className = '' }: { method: BlendMethod; className?: string }) {
+/**
+ * The form of the ASTM D341 line a viscosity at temperature was read off (Settings), named beside the
+ * result: the full D341-20 Z, or the simple Z = ν + 0.7.
+ */
+export function d341FormText(form: D341Form): string {
+  return `Viscosity at other temperatures: ${D341_FORM_SHORT[form]} line through ν40 and ν100.`;
+}
+
+/**
+ * {@link methodText} as a small note, for screens and printouts alike; with `d341Form`, also the form
+ * of the D341 line behind the viscosities at other temperatures ({@link d341FormText}).
+ */
+export function MethodNote({ method, d341Form, className = '' }: { method: BlendMethod; d341Form?: D341Form; className?: string }) {
   return (
     <p className={`method-note ${className}`} data-testid="method-note">
       {methodText(method)}
+      {d341Form ? ` ${d341FormText(d341Form)}` : ''}
     </p>
   );
 }

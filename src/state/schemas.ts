@@ -174,6 +174,7 @@ export const settingsSchema = z
     operatingTempC: finite,
     coldStartTempC: finite,
     blendMethod: z.enum(['refutas', 'astm-d7152', 'd7152-wright']),
+    d341Form: z.enum(['d341-20', 'walther-simple']),
     meteringTempC: finite,
     deliveryTempC: finite,
     lastBackupAt: str.nullable(),

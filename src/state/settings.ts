@@ -6,6 +6,7 @@ import { demoSettingsPatch } from './demo';
 import { firstProblem, settingsProblems } from './field-rules';
 import { normaliseCurrency, type ExchangeRate } from '../core/currency/exchange-rates';
 import type { BlendMethod } from '../core/blending/blend-viscosity';
+import type { D341Form } from '../core/viscosity/viscosity-temperature';
 
 export interface Settings {
   /** Display unit for temperatures; stored values are always °C. */
@@ -23,6 +24,11 @@ export interface Settings {
   coldStartTempC: number;
   /** Default blending rule for viscosity. */
   blendMethod: BlendMethod;
+  /**
+   * Form of the ASTM D341 viscosity–temperature line (ν at the operating and cold-start temperatures,
+   * the D341 charts): the full D341-20 Z (default) or the simple Z = ν + 0.7.
+   */
+  d341Form: D341Form;
   /** Temperature at which the plant meters litres (blend sheet "L at t") [°C]. */
   meteringTempC: number;
   /** Temperature at which delivered litres are counted for costing [°C]. */
@@ -50,6 +56,7 @@ export const DEFAULT_SETTINGS: Settings = {
   operatingTempC: 65,
   coldStartTempC: -10,
   blendMethod: 'refutas',
+  d341Form: 'd341-20',
   // Common practice (no source): base stocks are charged and metered warm, 50–65 °C; delivered
   // litres are usually counted at the tables' 15 °C reference. The user sets their own.
   meteringTempC: 60,
@@ -75,11 +82,17 @@ export const demoSettings = (): Settings => ({ ...DEFAULT_SETTINGS, ...demoSetti
 
 export const SETTINGS_SPEC: StoreSpec<SettingsData> = {
   key: 'settings',
-  version: 4,
+  version: 5,
   schema: (m) => m.settingsDataSchema,
   // Each setting is a record of its own when tabs merge their saves.
   layout: { maps: ['settings'], label: (key) => `the setting “${key.slice('settings/'.length)}”` },
   migrations: {
+    // Schema 4 → 5: the form of the D341 line becomes a setting; older data keeps the full D341-20 Z
+    // it was computed with.
+    4: (d) => {
+      const s = (d as { settings?: Record<string, unknown> }).settings ?? {};
+      return { settings: { d341Form: 'd341-20', ...s } };
+    },
     // Schema 3 → 4: metering and delivery temperatures (defaults 60 and 15 °C); the blend method may
     // also be the D7152 Wright method.
     3: (d) => {

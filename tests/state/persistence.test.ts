@@ -103,6 +103,8 @@ describe('stores saved in IndexedDB', () => {
     expect(m.state.useSettingsState.getState().settings.exchangeRates).toEqual([]);
     expect(m.state.useSettingsState.getState().settings.meteringTempC).toBe(60);
     expect(m.state.useSettingsState.getState().settings.deliveryTempC).toBe(15);
+    // Settings schema 4 → 5: the D341 form, the full D341-20 Z the older data was computed with.
+    expect(m.state.useSettingsState.getState().settings.d341Form).toBe('d341-20');
   });
 
   for (const [what, raw, kind] of [

@@ -18,6 +18,7 @@ import {
 import { useFormat } from '../format';
 import { CHART_COLOURS } from './palette';
 import { LiveD341Line } from './live';
+import { D341_FORM_SHORT, type D341Form } from '../../core/viscosity/viscosity-temperature';
 
 /** The role of an oil on the chart; decides its stroke. */
 export type OilRole = 'component' | 'reference' | 'candidate';
@@ -54,6 +55,8 @@ export interface ViscosityTemperatureChartProps {
    * while the blend changes. The axes are set by `lines` (a blend lies inside its components' envelope).
    */
   live?: boolean;
+  /** Form of the D341 Z for the axes and every line (Settings); default 'd341-20'. Named in the caption. */
+  d341Form?: D341Form;
 }
 
 const KV_MIN = 2;
@@ -83,7 +86,10 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
   formatTemp: formatTempProp,
   title = 'Viscosity against temperature (ASTM D341 axes)',
   live = false,
+  d341Form = 'd341-20',
 }: ViscosityTemperatureChartProps) {
+  const y = (kv: number) => d341Y(kv, d341Form);
+  const kvAt = (yv: number) => d341Kv(yv, d341Form);
   const f = useFormat();
   const formatTemp = formatTempProp ?? f.temp;
   const fmtKv = (v: number) => (!Number.isFinite(v) ? '—' : f.num(v, v >= 100 ? 0 : v >= 10 ? 1 : 2));
@@ -100,7 +106,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
       if (!(l.kv40 > 0 && l.kv100 > 0 && l.kv40 > l.kv100)) continue;
       let line: { a: number; b: number };
       try {
-        line = d341LineFromPoints({ tempC: 40, kv: l.kv40 }, { tempC: 100, kv: l.kv100 });
+        line = d341LineFromPoints({ tempC: 40, kv: l.kv40 }, { tempC: 100, kv: l.kv100 }, d341Form);
       } catch {
         continue; // data the core refuses (e.g. below the D341-20 range) is not drawn
       }
@@ -118,20 +124,21 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     const bands: [number, number][] = [];
     if (lo < TRUSTED_BAND_C.min) bands.push([xLo, d341X(TRUSTED_BAND_C.min)]);
     if (hi > TRUSTED_BAND_C.max) bands.push([d341X(TRUSTED_BAND_C.max), xHi]);
-    const kvLo = Number.isFinite(yMin) ? Math.max(KV_MIN, d341Kv(yMin)) : 5;
-    const kvHi = Number.isFinite(yMax) ? Math.min(KV_MAX, d341Kv(yMax)) : 10000;
+    const kvLo = Number.isFinite(yMin) ? Math.max(KV_MIN, kvAt(yMin)) : 5;
+    const kvHi = Number.isFinite(yMax) ? Math.min(KV_MAX, kvAt(yMax)) : 10000;
     const plotH = Math.max(50, height - 70);
     const plotW = Math.max(50, width - 90);
     // Round ticks of one even series, at least a label apart; the frame starts and ends on a label.
-    const axis = kvAxis(kvLo, kvHi, d341Y, ([a, b]) => ((b - a) / plotH) * 16);
-    const yDomain: [number, number] = [d341Y(axis.range[0]), d341Y(axis.range[1])];
-    const kvTicks = axis.ticks.map(d341Y);
+    const axis = kvAxis(kvLo, kvHi, y, ([a, b]) => ((b - a) / plotH) * 16);
+    const yDomain: [number, number] = [y(axis.range[0]), y(axis.range[1])];
+    const kvTicks = axis.ticks.map(y);
     // A label such as "−20 °C" or "100 °F" is about 45 px wide at the axis font: keep 60 px between ticks.
     const xGap = ((xHi - xLo) / plotW) * 60;
     const tempTicks = temperatureTicks(lo, hi, f.tempValue, f.tempToC, d341X, xGap).map(d341X);
     const kinds = new Set(series.flatMap((sr) => sr.segments.map((sg) => sg.kind)));
     return { series, bands, kinds, xDomain: [xLo, xHi] as [number, number], yDomain, kvTicks, tempTicks, marks };
-  }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height, f]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- y and kvAt depend only on d341Form
+  }, [lines, operatingTempC, coldStartTempC, tempRangeC, width, height, f, d341Form]);
 
   const describe = lines
     .map((l) => `${l.label}: ${fmtKv(l.kv40)} mm²/s at 40 °C, ${fmtKv(l.kv100)} at 100 °C${l.pourPointC != null ? `, pour point ${formatTemp(l.pourPointC)}` : ''}`)
@@ -159,12 +166,12 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
             ticks={model.kvTicks}
             allowDataOverflow
             width={70}
-            tickFormatter={(y: number) => formatKvTick(Math.round(d341Kv(y) * 1000) / 1000, f.num)}
+            tickFormatter={(v: number) => formatKvTick(Math.round(kvAt(v) * 1000) / 1000, f.num)}
             label={{ value: 'ν, mm²/s', angle: -90, position: 'left', offset: 2, style: { textAnchor: 'middle' } }}
           />
           <Tooltip
             isAnimationActive={false}
-            formatter={(y) => [`${fmtKv(d341Kv(Number(y)))} mm²/s`]}
+            formatter={(v) => [`${fmtKv(kvAt(Number(v)))} mm²/s`]}
             labelFormatter={(x) => {
               const t = d341TempC(Number(x));
               const flag = temperatureFlag(t, formatTemp);
@@ -224,7 +231,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
               />
             )),
           )}
-          {live && <LiveD341Line xDomain={model.xDomain} yDomain={model.yDomain} />}
+          {live && <LiveD341Line xDomain={model.xDomain} yDomain={model.yDomain} form={d341Form} />}
         </LineChart>
       </div>
       <ul className="chart-legend" aria-hidden="true">
@@ -255,7 +262,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
         )}
       </ul>
       <p className="chart-note">
-        Each oil is a straight line on these axes (ASTM D341-20). Beyond the measured {formatTemp(40)}–{formatTemp(100)} the
+        Each oil is a straight line on these axes ({D341_FORM_SHORT[d341Form]}). Beyond the measured {formatTemp(40)}–{formatTemp(100)} the
         line is extrapolated (faded); below the pour point it is no prediction at all (dotted), nor for polymer-thickened oils
         at low temperature. Outside {formatTemp(TRUSTED_BAND_C.min)}…{formatTemp(TRUSTED_BAND_C.max)} (shaded) no value read
         off it is to be trusted.

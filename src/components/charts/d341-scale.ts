@@ -6,9 +6,10 @@
  * draws every Newtonian oil as a straight line. The chart works in these transformed co-ordinates and
  * labels its ticks back in °C and mm²/s at round values.
  *
- * Presentation only: every co-ordinate and every line comes from the core's D341-20 functions
+ * Presentation only: every co-ordinate and every line comes from the core's D341 functions
  * (`src/core/viscosity/viscosity-temperature.ts`: the full Z, its published inverse and the fit), so the
- * chart draws exactly the lines the calculations use.
+ * chart draws exactly the lines the calculations use. Each function takes the D341 form of the
+ * Settings (default 'd341-20'; 'walther-simple' = Z = ν + 0.7), so axes and lines use the same Z.
  */
 import {
   assessTemperature,
@@ -16,6 +17,7 @@ import {
   fitWalther,
   kvFromD341LogLogZ,
   D341_TRUSTED_BAND_C,
+  type D341Form,
 } from '../../core/viscosity/viscosity-temperature';
 
 const KELVIN_OFFSET = 273.15;
@@ -33,27 +35,32 @@ export function d341TempC(x: number): number {
   return 10 ** x - KELVIN_OFFSET;
 }
 
-/** y co-ordinate: log10(log10(Z(ν))) with the D341-20 Z (core). @param kv kinematic viscosity [mm²/s] (≥ 0.21). */
-export function d341Y(kv: number): number {
-  return d341LogLogZ(kv);
+/**
+ * y co-ordinate: log10(log10(Z(ν))) with the form's Z (core).
+ * @param kv kinematic viscosity [mm²/s] (≥ 0.21 for D341-20, ≥ 2 for the simple form)
+ * @param form D341 form; default 'd341-20'
+ */
+export function d341Y(kv: number, form: D341Form = 'd341-20'): number {
+  return d341LogLogZ(kv, form);
 }
 
-/** Inverse of {@link d341Y}: kinematic viscosity [mm²/s] by D341-20's published inverse (core). */
-export function d341Kv(y: number): number {
-  return kvFromD341LogLogZ(y);
+/** Inverse of {@link d341Y}: kinematic viscosity [mm²/s] by the form's inverse (core). */
+export function d341Kv(y: number, form: D341Form = 'd341-20'): number {
+  return kvFromD341LogLogZ(y, form);
 }
 
 /**
  * The straight line of an oil through two measured points in D341 co-ordinates, y = a − b·x: the
- * core's D341-20 fit (a = A, b = B).
+ * core's D341 fit in the given form (a = A, b = B; default 'd341-20').
  *
  * @throws the core's input errors (e.g. equal temperatures, a hotter point not thinner)
  */
 export function d341LineFromPoints(
   p1: { tempC: number; kv: number },
   p2: { tempC: number; kv: number },
+  form: D341Form = 'd341-20',
 ): { a: number; b: number } {
-  const { A, B } = fitWalther([p1, p2]);
+  const { A, B } = fitWalther([p1, p2], form);
   return { a: A, b: B };
 }
 

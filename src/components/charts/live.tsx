@@ -12,6 +12,7 @@ import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
 import { useFormat } from '../format';
+import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 
 export interface LiveBar {
   id: string;
@@ -116,10 +117,19 @@ function ClipToPlot({ id }: { id: string }) {
 }
 
 /**
- * The blend's straight line on the D341 chart (x = log10 T, y = log10 log10 Z, D341-20), drawn like the
+ * The blend's straight line on the D341 chart (x = log10 T, y = log10 log10 Z in the chart's form), drawn like the
  * static lines: solid between 40 and 100 °C, faded where extrapolated, dotted below the pour point.
  */
-export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, number]; yDomain: readonly [number, number] }) {
+export function LiveD341Line({
+  xDomain,
+  yDomain,
+  form = 'd341-20',
+}: {
+  xDomain: readonly [number, number];
+  yDomain: readonly [number, number];
+  /** The host chart's D341 form (its axes use the same Z). */
+  form?: D341Form;
+}) {
   const live = useLiveMarks((m) => m.vt);
   const f = useFormat();
   const xs = useXAxisScale();
@@ -131,7 +141,7 @@ export function LiveD341Line({ xDomain, yDomain }: { xDomain: readonly [number, 
   if (!px || !py) return null;
   let line: { a: number; b: number };
   try {
-    line = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 });
+    line = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 }, form);
   } catch {
     return null; // values the core refuses are not drawn
   }

@@ -10,7 +10,14 @@ import { displayWords, type NumberDisplay } from '../words/display';
 import { BlendbenchInputError, assertTemperatureC } from '../errors';
 import { BLEND_METHOD_LABEL, BLEND_METHOD_STANDARD, blendKv40Kv100, type BlendMethod } from '../blending/blend-viscosity';
 import { VI_MIN_KV100, reportedViscosityIndex, viscosityIndex } from '../viscosity/viscosity-index';
-import { assessTemperature, kv40kv100FromPoints, viscosityAtTemperature } from '../viscosity/viscosity-temperature';
+import {
+  D341_FORM_SHORT,
+  D341_Z_EQUATION,
+  assessTemperature,
+  kv40kv100FromPoints,
+  viscosityAtTemperature,
+  type D341Form,
+} from '../viscosity/viscosity-temperature';
 import { blendDensity, massToVolumeFractions } from '../blending/density';
 import { blendDensityAtTemperature } from '../blending/density-temperature';
 import { blendCostPerKg, blendCostPerLitre, blendCostPerLitreAt, pricePerKg } from './cost';
@@ -85,9 +92,11 @@ export interface BlendProperties {
   grade: number | null;
   /** Deviation of ν40 from that grade's mid-point [%], null between grades. */
   deviationFromMidPct: number | null;
+  /** The form of the D341 line behind `kvAtOperating` and `kvAtCold` (default 'd341-20'). */
+  d341Form: D341Form;
   /**
-   * ν at the operating / cold temperature (ASTM D341-20 line of the blend), null if not asked or not
-   * defined; flagged when outside the fitted 40–100 °C (`extrapolated`) and outside −20…150 °C
+   * ν at the operating / cold temperature (the blend's ASTM D341 line, in `d341Form`), null if not
+   * asked or not defined; flagged when outside the fitted 40–100 °C (`extrapolated`) and outside −20…150 °C
    * (`outsideBand`).
    */
   kvAtOperating: KvAtTemperature | null;
@@ -106,6 +115,8 @@ export interface BlendProperties {
 export interface KvAtTemperature {
   tempC: number;
   kv: number;
+  /** The D341 form of the line it was read off. */
+  form: D341Form;
   /** Outside the measured 40–100 °C. */
   extrapolated: boolean;
   /** Outside −20…150 °C: shown only with a warning. */
@@ -121,6 +132,11 @@ export interface PredictOptions {
   operatingTempC?: number;
   /** Cold-start temperature [°C]. */
   coldTempC?: number;
+  /**
+   * Form of the D341 line for ν at the operating and cold temperatures; default 'd341-20' (the full
+   * Z). The blending rules themselves (D7152 ASTM Blending Method and Wright) keep the D341-20 Z.
+   */
+  d341Form?: D341Form;
   /** How warnings and notes write numbers and temperatures (the user's separator and unit; default ".", °C). */
   display?: NumberDisplay;
 }
@@ -213,6 +229,7 @@ export function predictBlend(
 ): BlendProperties {
   const fn = 'predictBlend';
   const method: BlendMethod = opts.method ?? 'refutas';
+  const d341Form: D341Form = opts.d341Form ?? 'd341-20';
   const parts = resolveBlendParts(fn, components, lines);
   const warnings: string[] = [];
   const words = displayWords(opts.display);
@@ -379,10 +396,10 @@ export function predictBlend(
     if (tempC === undefined) return null;
     assertTemperatureC(fn, field, tempC);
     try {
-      const kv = viscosityAtTemperature(kv40, kv100, tempC);
+      const kv = viscosityAtTemperature(kv40, kv100, tempC, d341Form);
       const a = assessTemperature(tempC, undefined, opts.display);
       if (a.outsideBand) warnings.push(`Viscosity at ${words.sayTemp(tempC)}: ${a.note}`);
-      return { tempC, kv, extrapolated: a.extrapolated, outsideBand: a.outsideBand };
+      return { tempC, kv, form: d341Form, extrapolated: a.extrapolated, outsideBand: a.outsideBand };
     } catch (e) {
       if (e instanceof BlendbenchInputError) {
         warnings.push(`No viscosity at ${words.sayTemp(tempC)}: ${e.message}`);
@@ -394,8 +411,8 @@ export function predictBlend(
   const kvAtOperating = atTemp(opts.operatingTempC, 'operatingTempC');
   const kvAtCold = atTemp(opts.coldTempC, 'coldTempC');
   explain.kvAtTemperature = {
-    equation: 'log₁₀ log₁₀ Z = A − B·log₁₀ T, T [K], Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²), through the blend’s ν40 and ν100',
-    standard: 'ASTM D341-20',
+    equation: `log₁₀ log₁₀ Z = A − B·log₁₀ T, T [K], ${D341_Z_EQUATION[d341Form]}, through the blend’s ν40 and ν100`,
+    standard: D341_FORM_SHORT[d341Form],
     inputs: { 'ν40 [mm²/s]': kv40, 'ν100 [mm²/s]': kv100 },
     note:
       'Outside 40–100 °C the line is extrapolated, and outside −20…150 °C it is not to be trusted; not meaningful below ' +
@@ -418,6 +435,7 @@ export function predictBlend(
 
   return {
     method,
+    d341Form,
     lines: parts.map((p, i) => ({
       componentId: p.component.id,
       massFraction: p.line.massFraction,

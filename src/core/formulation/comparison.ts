@@ -14,7 +14,7 @@ import type { Component, RecipeLine } from './model';
 import { OXIDATION_CLASSES, OXIDATION_CLASS_LABEL, type OxidationClass } from '../scoring/oxidation';
 import { blendAfterShear, type BlendAfterShear } from './shear-blend';
 import { SOLVENCY_BANDS, type SolvencyBand } from '../scoring/solvency';
-import { assessTemperature, D341_TRUSTED_BAND_C } from '../viscosity/viscosity-temperature';
+import { assessTemperature, D341_TRUSTED_BAND_C, type D341Form } from '../viscosity/viscosity-temperature';
 
 export interface ComparisonInput {
   /** Library holding every component of both recipes (withdrawn ones included). */
@@ -30,6 +30,8 @@ export interface ComparisonInput {
   /** Cold-start temperature [°C]. */
   coldTempC: number;
   method?: BlendMethod;
+  /** Form of the D341 line for the viscosities at the operating and cold temperatures; default 'd341-20'. */
+  d341Form?: D341Form;
   /**
    * How the summary writes numbers: `formatNumber(x, decimals)` (the user's decimal separator;
    * default `toFixed`, a dot) and the temperature unit (default °C; a difference of aniline point
@@ -112,11 +114,16 @@ function change<T>(order: readonly T[], ref: T, cand: T, higherBetter: boolean):
 export function assessRecipe(
   components: readonly Component[],
   lines: readonly RecipeLine[],
-  opts: { grade: number; operatingTempC: number; coldTempC: number; method?: BlendMethod },
+  opts: { grade: number; operatingTempC: number; coldTempC: number; method?: BlendMethod; d341Form?: D341Form },
 ): RecipeAssessment {
   const method = opts.method ?? 'refutas';
   return {
-    properties: predictBlend(components, lines, { method, operatingTempC: opts.operatingTempC, coldTempC: opts.coldTempC }),
+    properties: predictBlend(components, lines, {
+      method,
+      operatingTempC: opts.operatingTempC,
+      coldTempC: opts.coldTempC,
+      d341Form: opts.d341Form ?? 'd341-20',
+    }),
     deposit: assessDeposit(components, lines),
     shear: blendAfterShear(components, lines, { method, grade: opts.grade }),
   };
@@ -145,7 +152,13 @@ export function compareRecipes(input: ComparisonInput): Comparison {
   if (input.candidate.length === 0) throw new BlendbenchInputError('candidate', input.candidate, `${fn}: the candidate recipe has no lines`);
   assertTemperatureC(fn, 'operatingTempC', input.operatingTempC);
   assertTemperatureC(fn, 'coldTempC', input.coldTempC);
-  const opts = { grade: input.grade, operatingTempC: input.operatingTempC, coldTempC: input.coldTempC, method: input.method ?? 'refutas' };
+  const opts = {
+    grade: input.grade,
+    operatingTempC: input.operatingTempC,
+    coldTempC: input.coldTempC,
+    method: input.method ?? 'refutas',
+    d341Form: input.d341Form ?? 'd341-20',
+  };
   const ref = assessRecipe(input.components, input.reference, opts);
   const cand = assessRecipe(input.components, input.candidate, opts);
   const rp = ref.properties;

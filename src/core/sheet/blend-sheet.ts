@@ -20,6 +20,7 @@ import { gradeBand } from '../viscosity/iso-grades';
 import { blendDensityAtTemperature } from '../blending/density-temperature';
 import { cToF } from '../units';
 import type { BlendProperties } from '../formulation/blend-properties';
+import { D341_FORM_SHORT, type D341Form } from '../viscosity/viscosity-temperature';
 
 /** Temperature unit a sheet prints in; values are always computed in °C. */
 export type SheetTemperatureUnit = 'C' | 'F';
@@ -541,8 +542,9 @@ export interface SheetPrediction {
   /**
    * Viscosity at the operating temperature, or null; flagged when the temperature lies outside the
    * measured 40–100 °C (extrapolated) or outside −20…150 °C (not to be trusted; ASTM D341 line).
+   * `form` names the D341 form of the line (absent → 'd341-20'); the QC row's method column names it.
    */
-  operating: { tempC: number; kv: number; extrapolated?: boolean; outsideBand?: boolean } | null;
+  operating: { tempC: number; kv: number; form?: D341Form; extrapolated?: boolean; outsideBand?: boolean } | null;
 }
 
 /**
@@ -733,7 +735,7 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
       property: `Viscosity at ${fmt(predicted.operating.tempC, 0)} °C (calculated${operatingFlag(predicted.operating)})`,
       unit: 'mm²/s',
       predicted: fmt(predicted.operating.kv, 1), target: 'Information', min: null, max: null,
-      method: 'ASTM D341', release: false, limitSource: 'none',
+      method: D341_FORM_SHORT[predicted.operating.form ?? 'd341-20'], release: false, limitSource: 'none',
     });
   }
   rows.push(

@@ -56,10 +56,25 @@ import {
 /** The two named forms of the D341 Z function. */
 export type D341Form = 'd341-20' | 'walther-simple';
 
+/** Both forms, the default first. */
+export const D341_FORMS: readonly D341Form[] = ['d341-20', 'walther-simple'];
+
 /** Display name of each form. */
 export const D341_FORM_LABEL: Record<D341Form, string> = {
   'd341-20': 'ASTM D341-20 (Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²))',
   'walther-simple': 'Walther simple form (Z = ν + 0.7, ν ≥ 2 mm²/s)',
+};
+
+/** Short name of each form, for a result's method column or a chart caption. */
+export const D341_FORM_SHORT: Record<D341Form, string> = {
+  'd341-20': 'ASTM D341-20',
+  'walther-simple': 'ASTM D341 (Z = ν + 0.7)',
+};
+
+/** The Z function of each form, in plain text (for "show working"). */
+export const D341_Z_EQUATION: Record<D341Form, string> = {
+  'd341-20': 'Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²)',
+  'walther-simple': 'Z = ν + 0.7',
 };
 
 /** A D341 line: log₁₀ log₁₀ Z(ν) = A − B·log₁₀(T / K). */

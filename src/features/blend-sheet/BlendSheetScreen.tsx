@@ -44,6 +44,7 @@ export default function BlendSheetScreen() {
       const p = predictBlend(components, recipe.lines, {
         method: settings.blendMethod,
         operatingTempC: settings.operatingTempC,
+        d341Form: settings.d341Form,
         display: settings,
       });
       return { ...sheetPrediction(p), warnings: p.warnings, properties: p };

@@ -217,6 +217,7 @@ export default function DesignerCharts({ view, prediction, components, reference
             operatingTempC={settings.operatingTempC}
             coldStartTempC={settings.coldStartTempC}
             formatTemp={formatTemp}
+            d341Form={settings.d341Form}
           />
           <SolvencyOxidationMap
             points={refPoint}

@@ -339,7 +339,7 @@ export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targe
         </p>
       ) : (
         <>
-          <MethodNote method={prediction.props.method} />
+          <MethodNote method={prediction.props.method} d341Form={prediction.props.d341Form} />
           <table className="props-table">
             <thead className="visually-hidden">
               <tr>

@@ -3,6 +3,7 @@ import { displayWords, type NumberDisplay } from '../../core/words/display';
 import { useMemo } from 'react';
 import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 import { predictBlend, type BlendProperties } from '../../core/formulation/blend-properties';
 import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
@@ -45,6 +46,8 @@ export function predictRecipe(
     operatingTempC?: number;
     coldTempC?: number;
     deliveryTempC?: number;
+    /** Form of the D341 line for ν at the operating and cold-start temperatures (Settings). */
+    d341Form?: D341Form;
     grade?: number;
     band?: { min: number; max: number };
     /** How the prediction's warnings and notes write numbers (the user's settings). */
@@ -107,11 +110,11 @@ function inBandOf(
 export function usePrediction(
   lines: readonly RecipeLine[],
   components: readonly Component[],
-  settings: Pick<Settings, 'blendMethod' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC' | 'decimalSeparator' | 'thousandsGrouping' | 'temperatureUnit'>,
+  settings: Pick<Settings, 'blendMethod' | 'd341Form' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC' | 'decimalSeparator' | 'thousandsGrouping' | 'temperatureUnit'>,
   grade?: number,
   band?: { min: number; max: number } | null,
 ): Prediction {
-  const { blendMethod, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit } = settings;
+  const { blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit } = settings;
   const lo = band?.min;
   const hi = band?.max;
   return useMemo(
@@ -120,10 +123,11 @@ export function usePrediction(
         operatingTempC,
         coldTempC: coldStartTempC,
         deliveryTempC,
+        d341Form,
         display: { decimalSeparator, thousandsGrouping, temperatureUnit },
         ...(grade === undefined ? {} : { grade }),
         ...(lo === undefined || hi === undefined ? {} : { band: { min: lo, max: hi } }),
       }),
-    [lines, components, blendMethod, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit, grade, lo, hi],
+    [lines, components, blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit, grade, lo, hi],
   );
 }

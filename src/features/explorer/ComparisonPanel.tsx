@@ -254,8 +254,9 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         grade: reference.grade,
         operatingTempC: settings.operatingTempC,
         coldTempC: settings.coldStartTempC,
+        d341Form: settings.d341Form,
       }),
-    [components, candidate, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC, reference.grade],
+    [components, candidate, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC, reference.grade],
   );
   const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap, pricing.base), ...inBandRows(inBand ?? null, fmt)];
   const premium = inBand?.candidate?.nominal && inBand.minimum !== null ? inBand.candidate : null;
@@ -269,16 +270,17 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         operatingTempC: settings.operatingTempC,
         coldTempC: settings.coldStartTempC,
         method: settings.blendMethod,
+        d341Form: settings.d341Form,
         display: { formatNumber: (x, d) => fmt.num(x, d), temperatureUnit: settings.temperatureUnit },
       }).summary;
     } catch {
       return [];
     }
-  }, [components, reference, candidate, settings.operatingTempC, settings.coldStartTempC, settings.blendMethod, settings.temperatureUnit, fmt]);
+  }, [components, reference, candidate, settings.operatingTempC, settings.coldStartTempC, settings.blendMethod, settings.d341Form, settings.temperatureUnit, fmt]);
   return (
     <section className="comparison" aria-labelledby="cmp-h" data-testid="comparison">
       <h3 id="cmp-h">Candidate {candidate.rank} beside the reference</h3>
-      <MethodNote method={settings.blendMethod} />
+      <MethodNote method={settings.blendMethod} d341Form={settings.d341Form} />
       {summary.length > 0 && (
         <ul className="cmp-summary" data-testid="comparison-summary">
           {summary.map((line) => (

@@ -131,6 +131,7 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
         operatingTempC={settings.operatingTempC}
         coldStartTempC={settings.coldStartTempC}
         formatTemp={(c) => fmt.temp(c)}
+        d341Form={settings.d341Form}
         title={`Viscosity against temperature: reference${selected ? ` and candidate ${selected.rank}` : ''} (ASTM D341 axes)`}
       />
     </section>

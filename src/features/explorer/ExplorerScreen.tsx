@@ -107,9 +107,10 @@ export default function ExplorerScreen() {
             grade: reference.grade,
             operatingTempC: settings.operatingTempC,
             coldTempC: settings.coldStartTempC,
+            d341Form: settings.d341Form,
           })
         : null,
-    [reference, components, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC],
+    [reference, components, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC],
   );
 
   const quoted = useLibrary((x) => x.components);

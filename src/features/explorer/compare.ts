@@ -1,6 +1,7 @@
 /** Side-by-side numbers for a candidate and the recipe it replaces (derived, never stored). */
 import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 import { predictBlend, type BlendProperties } from '../../core/formulation/blend-properties';
 import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
@@ -15,12 +16,17 @@ export interface Assessed {
 export function assess(
   components: readonly Component[],
   lines: readonly RecipeLine[],
-  opts: { method: BlendMethod; grade: number; operatingTempC: number; coldTempC: number },
+  opts: { method: BlendMethod; grade: number; operatingTempC: number; coldTempC: number; d341Form?: D341Form },
 ): Assessed | null {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return null;
   try {
-    const props = predictBlend(components, used, { method: opts.method, operatingTempC: opts.operatingTempC, coldTempC: opts.coldTempC });
+    const props = predictBlend(components, used, {
+      method: opts.method,
+      operatingTempC: opts.operatingTempC,
+      coldTempC: opts.coldTempC,
+      ...(opts.d341Form ? { d341Form: opts.d341Form } : {}),
+    });
     let deposit: DepositAssessment | null = null;
     let shear: BlendAfterShear | null = null;
     try {

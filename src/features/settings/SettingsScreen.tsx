@@ -19,6 +19,7 @@ import { normaliseCurrency, unpricedMessage, type ExchangeRate } from '../../cor
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
 import { applyBackup, backupFileName, makeBackupText, parseBackupText, type BackupParse } from '../../state/backup';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
+import { D341_FORMS, D341_FORM_LABEL, type D341Form } from '../../core/viscosity/viscosity-temperature';
 
 const update = settingsActions.updateSettings;
 
@@ -349,6 +350,18 @@ export default function SettingsScreen() {
           <p className="small muted">
             The D7152 Wright method uses each stock’s viscosity at two temperatures; ASTM D7152 calls it generally preferred to its
             ASTM Blending Method (one temperature). Refutas is a separate, mass-based rule, not part of D7152.
+          </p>
+          <SelectField<D341Form>
+            label="Viscosity–temperature line (ASTM D341)"
+            value={s.d341Form}
+            options={D341_FORMS.map((f) => ({ value: f, label: D341_FORM_LABEL[f] }))}
+            onChange={(d341Form) => update({ d341Form })}
+          />
+          <p className="small muted">
+            Used for the viscosity at the operating and cold-start temperatures and for the viscosity–temperature charts. The
+            full D341-20 form is the current standard; the simple form Z = ν + 0.7 of the older editions agrees with it to
+            0.03 % above 2.5 mm²/s, so for gear oils the two differ only in name. The D7152 blending methods always use the
+            D341-20 form.
           </p>
         </fieldset>
 

@@ -53,6 +53,19 @@ describe('predictBlend', () => {
     expect(p.kvAtCold).toBeNull();
   });
 
+  it('the D341 form is selectable and named: the simple form Z = ν + 0.7 gives the same gear-oil line to rounding', () => {
+    // ν40 220, ν100 19.0 → ν at 80 °C = 35.60 ± 0.01 (check-values W2); the two forms agree to 0.03 % above 2.5 mm²/s (issue 13)
+    const C = stock('c', 'group-ii', 220, 19.0, 0.88, 120, 1.0);
+    const full = predictBlend([C], [{ componentId: 'c', massFraction: 1 }], { operatingTempC: 80, coldTempC: -10 });
+    const simple = predictBlend([C], [{ componentId: 'c', massFraction: 1 }], { operatingTempC: 80, coldTempC: -10, d341Form: 'walther-simple' });
+    expect([full.d341Form, full.kvAtOperating!.form, simple.d341Form, simple.kvAtCold!.form]).toEqual(['d341-20', 'd341-20', 'walther-simple', 'walther-simple']);
+    expect(simple.kvAtOperating!.kv).toBeCloseTo(35.6, 2);
+    expect(Math.abs(simple.kvAtCold!.kv / full.kvAtCold!.kv - 1)).toBeLessThan(3e-4);
+    expect([full.explain.kvAtTemperature!.standard, simple.explain.kvAtTemperature!.standard]).toEqual(['ASTM D341-20', 'ASTM D341 (Z = ν + 0.7)']);
+    expect(full.explain.kvAtTemperature!.equation).toContain('Z = ν + 0.7 + exp(−1.47 − 1.84ν − 0.51ν²)');
+    expect(simple.explain.kvAtTemperature!.equation).not.toContain('exp(');
+  });
+
   it('the additive is left out of the aniline point and flagged; VI, grade and polymer share', () => {
     const p = predictBlend([A, B, EP], [
       { componentId: 'a', massFraction: 0.4 },

@@ -350,8 +350,11 @@ describe('qcReleaseTargets', () => {
     expect(strict.filter((r) => r.predictedOutsideTarget).map((r) => r.key)).toEqual(['vi', 'pour']);
     expect(rows.map((r) => r.method)).toEqual([
       'Visual', 'ASTM D445', 'ASTM D445', 'ASTM D2270', 'ASTM D4052', 'ASTM D92', 'ASTM D97', 'ASTM D611',
-      'ASTM D341', 'ASTM D130', 'ASTM D892',
+      'ASTM D341-20', 'ASTM D130', 'ASTM D892',
     ]);
+    // the calculated row names the D341 form of its line (Settings); the simple form by its Z
+    const simple = qcReleaseTargets(320, { ...p, operating: { ...p.operating!, form: 'walther-simple' } });
+    expect(simple.find((r) => r.key === 'kvOperating')!.method).toBe('ASTM D341 (Z = ν + 0.7)');
     expect(by.aniline!.release).toBe(false);
   });
 

@@ -23,10 +23,23 @@ describe('designer: method named, index extrapolation marked', () => {
       const pred = predictRecipe(r.lines, components, m, { grade: 320 });
       render(<PropertiesPanel prediction={pred} targets={demoTargets()[r.id]!} />);
       expect(within(screen.getByTestId('predicted')).getByTestId('method-note').textContent).toBe(
-        `Blend viscosity method: ${BLEND_METHOD_LABEL[m]}.`,
+        `Blend viscosity method: ${BLEND_METHOD_LABEL[m]}. Viscosity at other temperatures: ASTM D341-20 line through ν40 and ν100.`,
       );
       cleanup();
     }
+  });
+
+  it('names the D341 form of the line behind the viscosities at temperature (note and show working)', () => {
+    resetDemo();
+    const r = r320();
+    const pred = predictRecipe(r.lines, components, 'refutas', { grade: 320, operatingTempC: 65, d341Form: 'walther-simple' });
+    render(<PropertiesPanel prediction={pred} targets={demoTargets()[r.id]!} />);
+    expect(within(screen.getByTestId('predicted')).getByTestId('method-note').textContent).toContain(
+      'Viscosity at other temperatures: ASTM D341 (Z = ν + 0.7) line through ν40 and ν100.',
+    );
+    expect(pred.ok && pred.props.explain.kvAtTemperature!.standard).toBe('ASTM D341 (Z = ν + 0.7)');
+    expect(pred.ok && pred.props.explain.kvAtTemperature!.equation).toContain('Z = ν + 0.7, through');
+    expect(pred.ok && pred.props.kvAtOperating!.form).toBe('walther-simple');
   });
 
   it('marks a gear-oil flash point (200–300 °C) as beyond the index fitted range', () => {
