@@ -96,6 +96,8 @@ export { pricePerKg, blendCostPerKg, blendCostPerLitre, blendCostPerLitreAt, bat
 export {
   lubeThermalExpansion15,
   lubeVolumeCorrectionFactor,
+  tableThermalExpansion,
+  tableCtl,
   densityAtTemperature,
   blendDensityAtTemperature,
   lubeTableInRange,

@@ -22,7 +22,9 @@
  * (0.34878 × 1.8 = 0.62780 per °C, the metric constant used here). The 2004 revision also shifts
  * temperatures to ITS-90 and rounds intermediate values; this implementation does not round (the
  * printed tables give VCF to 4–5 decimals), so it should agree with them to their last printed digit,
- * not beyond — unchecked against a printed row.
+ * not beyond — unchecked against a printed row. The α and CTL equations themselves
+ * ({@link tableThermalExpansion}, {@link tableCtl}) reproduce the published worked examples of API MPMS
+ * 11.1-2004 § 11.1.6.1 (other commodity groups; values in the tests, with their provenance).
  *
  * @see ASTM D1250-80 (API MPMS 11.1, 1980), Volume X, Table 54D; ISO 91-1:1992.
  */
@@ -45,8 +47,41 @@ export const REFERENCE_TEMP_C = 15;
  */
 export function lubeThermalExpansion15(density15: number): number {
   assertDensity15('lubeThermalExpansion15', 'density15', density15);
-  const rho = density15 * 1000;
-  return LUBE_OIL_TABLE_54D.K0 / (rho * rho) + LUBE_OIL_TABLE_54D.K1 / rho;
+  return tableThermalExpansion(density15 * 1000, LUBE_OIL_TABLE_54D.K0, LUBE_OIL_TABLE_54D.K1);
+}
+
+/**
+ * The tables' thermal expansion coefficient at the base temperature for any commodity group with
+ * K₂ = 0:  α = K₀/ρ² + K₁/ρ = (K₀ + K₁·ρ)/ρ². No input check (the lubricating-oil functions check).
+ *
+ * @param rhoKgM3 - ρ at the base temperature [kg/m³]
+ * @param K0 - the group's K₀ [(kg/m³)²/°C, or per °F for the 60 °F tables]
+ * @param K1 - the group's K₁ [(kg/m³)/°C, or per °F]
+ * @returns α [1/°C] (or 1/°F with the 60 °F tables' constants)
+ * @example tableThermalExpansion(880, 0, 0.6278) // → 7.1341e-4
+ * @see ASTM D1250-80 / API MPMS 11.1 (1980, and the same form in 2004).
+ */
+export function tableThermalExpansion(rhoKgM3: number, K0: number, K1: number): number {
+  return (K0 + K1 * rhoKgM3) / (rhoKgM3 * rhoKgM3);
+}
+
+/**
+ * The tables' correction of a volume for temperature (CTL, the volume correction factor):
+ *   CTL = exp(−α·Δt·(1 + 0.8·α·Δt)),  Δt = t − t_base.
+ * No input check (the lubricating-oil functions check).
+ *
+ * @param alpha - α at the base temperature [1/°C] (or 1/°F with Δt in °F)
+ * @param deltaT - Δt = t − t_base [°C] (or °F)
+ * @returns CTL [dimensionless]
+ * @example tableCtl(7.1341e-4, 45) // → 0.96761
+ * @see ASTM D1250-80 / API MPMS 11.1 (1980). The 2004 revision writes the bracket 1 + 0.8·α·(Δt + δ₆₀)
+ *   with δ₆₀ = 0.01374979547 °F and Δt from 60.0068749 °F (IPTS-68) — both from memory, but with them
+ *   its published worked examples are reproduced to 1e-10 (tests); the shift changes CTL by less than
+ *   1e-6 for any lubricating oil between −20 and 150 °C, so the 1980 form is kept.
+ */
+export function tableCtl(alpha: number, deltaT: number): number {
+  // No rounding of intermediate values (the printed tables round VCF to 4–5 decimals).
+  return Math.exp(-alpha * deltaT * (1 + 0.8 * alpha * deltaT));
 }
 
 /**
@@ -64,9 +99,7 @@ export function lubeVolumeCorrectionFactor(density15: number, tempC: number): nu
   const fn = 'lubeVolumeCorrectionFactor';
   assertDensity15(fn, 'density15', density15);
   assertTableTemp(fn, tempC);
-  const alpha = lubeThermalExpansion15(density15);
-  const dt = tempC - REFERENCE_TEMP_C;
-  return Math.exp(-alpha * dt * (1 + 0.8 * alpha * dt));
+  return tableCtl(lubeThermalExpansion15(density15), tempC - REFERENCE_TEMP_C);
 }
 
 /**
