@@ -63,7 +63,8 @@ export { FILE_NUMBERS } from './field-rules';
 
 /**
  * Lowest ν40 and ν100 accepted in the library [mm²/s]: ASTM D2270 defines no VI below a ν100 of
- * 2.0 mm²/s, and the ASTM D341 line Blendbench uses (Z = ν + 0.7) is stated for ν ≥ 2.0 mm²/s.
+ * 2.0 mm²/s, and the simple ASTM D341 form (Z = ν + 0.7), selectable in Settings, is stated for
+ * ν ≥ 2.0 mm²/s (the default D341-20 form reaches lower).
  */
 export const MIN_LIBRARY_KV = VI_MIN_KV100;
 
