@@ -4,6 +4,9 @@ import { blendCoordinates } from '../../../src/core/solver/coordinates';
 import { referenceViscosities, viscosityIndex } from '../../../src/core/viscosity/viscosity-index';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
 import { astmLogLog, kvFromAstmLogLog } from '../../../src/core/blending/astm-loglog';
+import { preparePlain } from '../../../src/core/solver/plain';
+import { solvePrepared } from '../../../src/core/solver/engine';
+import { randomPlainProblem, rng } from './helpers';
 
 describe('solver blending coordinates', () => {
   it('the unchecked coordinate functions equal the core rules exactly', () => {
@@ -102,5 +105,33 @@ describe('VI boundary (ASTM D2270 solved for ν40)', () => {
         }
       }
     }
+  });
+});
+
+describe('VI floor and root relaxation computed once per prepared problem', () => {
+  it('solves every subset exactly as with a fresh boundary (no cached floor, no cached root)', () => {
+    // property: the per-problem cache (h at the band end, root relaxation) changes no answer;
+    // a fresh ViBoundary object bypasses both, so the two paths are compared on the same LPs
+    const r = rng(2609);
+    let compared = 0;
+    let rejectedEarly = 0;
+    for (let t = 0; t < 150; t++) {
+      const p = randomPlainProblem(r, { k: 4, vi: 1, aniline: 0.3 });
+      const P = preparePlain(p);
+      const fresh = new ViBoundary(P.targets.minVi!, P.coords);
+      for (const subset of [null, [0, 1], [0, 2, 3], [1, 2, 3], [1, 3]]) {
+        const cached = solvePrepared(P, subset);
+        const direct = solvePrepared(P, subset, { vi: fresh });
+        expect(cached.status).toBe(direct.status);
+        if (cached.status === 'optimal' && direct.status === 'optimal') {
+          expect(cached.objectiveValue).toBe(direct.objectiveValue);
+          expect(Array.from(cached.massFractions)).toEqual(Array.from(direct.massFractions));
+        }
+        if (cached.lpCount === 0 && direct.lpCount > 0) rejectedEarly++;
+        compared++;
+      }
+    }
+    expect(compared).toBe(750);
+    expect(rejectedEarly).toBeGreaterThan(0); // the floor test did reject some subsets without an LP
   });
 });
