@@ -37,7 +37,7 @@
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
-import { blendX, optimise, type OptimiseContext } from './branch-and-bound';
+import { optimise, type OptimiseContext } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
 import { hasLotSpread, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
 
@@ -219,10 +219,18 @@ function finish(
   // A recipe accepted for its probability in band keeps it: if dropping the dust would cost the
   // probability, the fractions stay as solved.
   if (raw && probabilityOfFractions(P, vars, w) < lazy!.p) w.set(raw);
+  // Blend X40 and X100 in the same pass (as blendX: Σ cᵢwᵢXᵢ / Σ cᵢwᵢ).
+  let sc = 0;
+  let s40 = 0;
+  let s100 = 0;
   for (let j = 0; j < vars.length; j++) {
     const i = vars[j]!;
     const wi = w[j]!;
     massFractions[i] = wi;
+    const cw = P.c[i]! * wi;
+    sc += cw;
+    s40 += cw * P.x40[i]!;
+    s100 += cw * P.x100[i]!;
     sv += wi * P.invRho[i]!;
     sp += wi * P.price[i]!;
     if (!Number.isNaN(P.ap[i]!) && wi > 0) {
@@ -230,9 +238,8 @@ function finish(
       saAp += wi * P.invRho[i]! * P.ap[i]!;
     }
   }
-  const bx = blendX(P, vars, w);
-  const kv40 = P.coords.toKv(bx.x40);
-  const kv100 = P.coords.toKv(bx.x100);
+  const kv40 = P.coords.toKv(s40 / sc);
+  const kv100 = P.coords.toKv(s100 / sc);
   const vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
   const density15 = 1 / sv;
   return {

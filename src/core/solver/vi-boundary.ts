@@ -57,6 +57,9 @@ export const referenceLH = referenceViscositiesInto;
 const LN_KV100 = D2270_KV100.map(Math.log);
 const LN_H = D2270_H.map(Math.log);
 
+/** L and H of one {@link ViBoundary.uMax} (module scratch memory: the core is synchronous). */
+const LH = { L: 0, H: 0 };
+
 /** X100 of ν100 = 2.0 mm²/s, per coordinate system. */
 const FLOOR_X100 = new Map<BlendCoordinates, number>();
 
@@ -109,7 +112,6 @@ export class ViBoundary {
   /** g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds. */
   private readonly x40AtFloor: number;
   private readonly procedureBExponent: number;
-  private readonly lh = { L: 0, H: 0 };
 
   constructor(minVi: number, coords: BlendCoordinates) {
     this.minVi = minVi;
@@ -127,8 +129,8 @@ export class ViBoundary {
    * Procedure A or B solved for U (see the module comment).
    */
   uMax(kv100: number): number {
-    referenceLH(kv100, this.lh);
-    return this.uMaxOf(kv100, this.lh.L, this.lh.H);
+    referenceLH(kv100, LH);
+    return this.uMaxOf(kv100, LH.L, LH.H);
   }
 
   /** U_max at Y = kv100 [mm²/s] from the reference viscosities L and H at that Y [mm²/s]. */
