@@ -270,6 +270,17 @@ export function TextField(props: TextFieldProps) {
               commit();
             } else if (e.key === 'Escape') {
               revert();
+            } else if ((e.key === 'Home' || e.key === 'End') && !e.ctrlKey && !e.metaKey && !e.altKey) {
+              // As in a one-line field: Home and End go to the start and end of the whole text, not of the wrapped line.
+              e.preventDefault();
+              const el = e.currentTarget;
+              const to = e.key === 'Home' ? 0 : el.value.length;
+              if (e.shiftKey) {
+                const anchor = e.key === 'Home' ? el.selectionEnd : el.selectionStart;
+                el.setSelectionRange(Math.min(anchor, to), Math.max(anchor, to), e.key === 'Home' ? 'backward' : 'forward');
+              } else {
+                el.setSelectionRange(to, to);
+              }
             }
           }}
         />

@@ -168,6 +168,12 @@ describe('TextField wrap: one line of text that wraps to its lines (issue 10, it
     fireEvent.keyDown(field, { key: 'Escape' });
     expect(field.value).toBe('Group I heavy solvent neutral (600), second refinery');
     fireEvent.change(field, { target: { value: 'Heavy neutral, second source' } });
+    // Home and End go to the start and end of the whole name, as in a one-line field (not of the wrapped line).
+    field.setSelectionRange(5, 5);
+    fireEvent.keyDown(field, { key: 'End' });
+    expect([field.selectionStart, field.selectionEnd]).toEqual([28, 28]);
+    fireEvent.keyDown(field, { key: 'Home', shiftKey: true });
+    expect([field.selectionStart, field.selectionEnd]).toEqual([0, 28]);
     const enter = fireEvent.keyDown(field, { key: 'Enter' });
     expect(enter).toBe(false); // no line break typed
     expect(saved).toHaveBeenCalledWith('Heavy neutral, second source');
