@@ -10,7 +10,7 @@ import { inThreadWorker } from './in-thread-worker';
 import { comparisonRows, lineList } from '../../../src/features/explorer/ComparisonPanel';
 import { assess } from '../../../src/features/explorer/compare';
 import { demoComponents, demoRecipes } from '../../../src/state/demo';
-import { makeFormatter } from '../../../src/components/format';
+import { loadUnitConversions, makeFormatter } from '../../../src/components/format';
 import { DEFAULT_SETTINGS } from '../../../src/state/settings';
 
 beforeEach(() => {
@@ -34,6 +34,24 @@ async function runWithBrightStockWithdrawn() {
 }
 
 describe('Substitute explorer', () => {
+  it('says why a search stopped in the user’s number format: comma decimals and °F (issue 10, item 17)', async () => {
+    await loadUnitConversions(); // °F conversions (mathjs) load on demand
+    settingsActions.updateSettings({ decimalSeparator: ',', temperatureUnit: 'F' });
+    try {
+      // A density the entry refuses (0.6–1.3 kg/L, core/errors.ts), as stored data written before the rule could hold it.
+      act(() => useLibrary.setState((st) => ({ components: st.components.map((c) => (c.code === 'BW-280' ? { ...c, density15: 1.35 } : c)) })));
+      render(<ExplorerScreen />);
+      fireEvent.click(screen.getByLabelText('Treat BW-190 as withdrawn'));
+      fireEvent.click(screen.getByText('Run search'));
+      await waitFor(() => expect(useExplorerStore.getState().status).toBe('error'), { timeout: 30000 });
+      const said = (await screen.findByText('The search stopped')).closest('[role]')?.textContent ?? document.body.textContent ?? '';
+      expect(said).toMatch(/BW-280 density at 15 °C of 1,35 kg\/L is outside the plausible range 0,6–1,3 kg\/L/);
+      expect(said).not.toMatch(/\d\.\d|demo-|density15|parts\[/);
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.', temperatureUnit: 'C' });
+    }
+  });
+
   it('lists ranked candidates without the withdrawn stock, with progress shown', async () => {
     await runWithBrightStockWithdrawn();
     const rows = screen.getByTestId('candidates').querySelectorAll('tbody tr');
