@@ -205,7 +205,11 @@ export function LiveMapPoint({
   );
 }
 
-/** Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. */
+/**
+ * Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. Each series is
+ * one path (a closed rectangle per stock; a zero-width bar draws nothing) with one title listing its
+ * values, so an edit changes three attributes instead of a rect and a title per bar.
+ */
 export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string }) {
   const bars = useLiveMarks((m) => m.bars);
   const f = useFormat();
@@ -215,32 +219,32 @@ export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost
   const px = linear(xs, domain);
   if (!px) return null;
   const x0 = px(0);
+  const r2 = (v: number) => Math.round(v * 100) / 100;
+  const series =
+    which === 'cost'
+      ? [{ key: 'cost', colour: CHART_COLOURS.cost, value: (r: LiveBar) => r.costPerLitre, slot: 0, slots: 1, say: (r: LiveBar) => `${r.label} ${f.num(r.costPerLitre, 3)}`, title: `Cost, ${unit}` }]
+      : [
+          { key: 'mass', colour: CHART_COLOURS.mass, value: (r: LiveBar) => r.massPct, slot: 0, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.massPct, 2)} %`, title: 'By mass' },
+          { key: 'volume', colour: CHART_COLOURS.volume, value: (r: LiveBar) => r.volumePct, slot: 1, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.volumePct, 2)} %`, title: 'By volume' },
+        ];
   return (
     <g className={`live-bars live-bars-${which}`}>
-      {bars.map((r) => {
-        const top = ys(r.label, { position: 'start' });
-        const bottom = ys(r.label, { position: 'end' });
-        if (top === undefined || bottom === undefined) return null;
-        const band = bottom - top;
-        const pad = band * 0.15;
-        if (which === 'cost') {
-          const w = Math.max(0, px(r.costPerLitre) - x0);
-          return (
-            <rect key={r.id} className="live-bar" x={x0} y={top + pad} width={w} height={band - 2 * pad} fill={CHART_COLOURS.cost}>
-              <title>{`${r.label}: ${f.num(r.costPerLitre, 3)} ${unit}`}</title>
-            </rect>
-          );
+      {series.map((s) => {
+        let d = '';
+        for (const r of bars) {
+          const top = ys(r.label, { position: 'start' });
+          const bottom = ys(r.label, { position: 'end' });
+          if (top === undefined || bottom === undefined) continue;
+          const band = bottom - top;
+          const pad = band * 0.15;
+          const h = (band - 2 * pad) / s.slots;
+          const w = Math.max(0, px(s.value(r)) - x0);
+          d += `M${r2(x0)},${r2(top + pad + s.slot * h)}h${r2(w)}v${r2(h)}h${r2(-w)}Z`;
         }
-        const h = (band - 2 * pad) / 2;
         return (
-          <g key={r.id}>
-            <rect className="live-bar" x={x0} y={top + pad} width={Math.max(0, px(r.massPct) - x0)} height={h} fill={CHART_COLOURS.mass}>
-              <title>{`${r.label}: ${f.num(r.massPct, 2)} % by mass`}</title>
-            </rect>
-            <rect className="live-bar" x={x0} y={top + pad + h} width={Math.max(0, px(r.volumePct) - x0)} height={h} fill={CHART_COLOURS.volume}>
-              <title>{`${r.label}: ${f.num(r.volumePct, 2)} % by volume`}</title>
-            </rect>
-          </g>
+          <path key={s.key} className={`live-bar live-bar-${s.key}`} d={d} fill={s.colour}>
+            <title>{`${s.title}: ${bars.map(s.say).join(', ')}`}</title>
+          </path>
         );
       })}
     </g>

@@ -236,18 +236,21 @@ describe('live layers (the blend drawn with the chart\'s own scales)', () => {
     const { container, rerender } = render(ui(0.3));
     const blendPath = () => container.querySelector('.vt-candidate path')!.getAttribute('d');
     const pointX = () => container.querySelector('.live-point')!.getAttribute('cx');
-    const barWidths = () => [...container.querySelectorAll('.live-bar')].map((r) => Number(r.getAttribute('width')));
+    // One path per series (mass, volume, cost), one closed rectangle per stock: M x,y h w v h h −w Z.
+    const barWidths = () =>
+      [...container.querySelectorAll('.live-bar')].flatMap((p) => [...p.getAttribute('d')!.matchAll(/M[^h]*h(-?[\d.]+)/g)].map((m) => Number(m[1])));
     const before = [blendPath(), pointX(), barWidths().join()];
     expect(before[0]).toMatch(/^M[\d.]+,[\d.]+L[\d.]+,[\d.]+$/);
     expect(barWidths().length).toBe(6); // 2 stocks × (mass, volume, cost)
     const plotLines = container.querySelectorAll('.recharts-line-curve').length;
-    const heavyBefore = barWidths()[2]!;
+    expect(container.querySelectorAll('.live-bar').length).toBe(3); // one path per series
+    const heavyBefore = barWidths()[1]!; // the mass series: LIGHT, HEAVY
     rerender(ui(0.6));
     expect(blendPath()).not.toBe(before[0]);
     expect(pointX()).not.toBe(before[1]);
     expect(barWidths().join()).not.toBe(before[2]);
     // the heavy stock's mass bar is now twice as long as before (60 % vs 30 % on the same linear axis; arithmetic)
-    expect(barWidths()[2]! / heavyBefore).toBeCloseTo(2, 6);
+    expect(barWidths()[1]! / heavyBefore).toBeCloseTo(2, 3); // drawn to 0.01 px
     expect(container.querySelectorAll('.recharts-line-curve').length).toBe(plotLines);
   });
 });
