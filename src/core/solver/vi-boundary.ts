@@ -63,14 +63,6 @@ const LH = { L: 0, H: 0 };
 /** X100 of ν100 = 2.0 mm²/s, per coordinate system. */
 const FLOOR_X100 = new Map<BlendCoordinates, number>();
 
-/** ln Y at the Table 1 rows and the quarter points between them (index 4r + q, as below). */
-const QUARTER_LN_Y = new Float64Array(4 * (D2270_KV100.length - 1));
-for (let r = 0; r < D2270_KV100.length - 1; r++) {
-  const y0 = D2270_KV100[r] as number;
-  const y1 = D2270_KV100[r + 1] as number;
-  for (let q = 0; q < 4; q++) QUARTER_LN_Y[4 * r + q] = Math.log(y0 + 0.25 * q * (y1 - y0));
-}
-
 /** X of the Table 1 rows and the quarter points between them, per coordinate function (see below). */
 const QUARTER_X = new Map<(kv: number) => number, Float64Array>();
 
@@ -94,15 +86,23 @@ function tableQuarterX(toXRaw: (kv: number) => number): Float64Array {
   return t;
 }
 
-/** Number of evenly spaced curve samples (besides the Table 1 rows) used to bound the chord gap. */
-const GAP_SAMPLES = 16;
+/** Least number of sample triplets over an interval (more where Table 1 rows cut it). */
+const GAP_TRIPLETS = 8;
 
 /**
- * Curve samples of one {@link ViBoundary.relaxation} call (X100, X40), module scratch memory: at
- * most GAP_SAMPLES − 1 even samples plus four per Table 1 row interval.
+ * Curve samples of one {@link ViBoundary.relaxation} call (X100, X40, margin μ), module scratch
+ * memory: the ends and the floor point, plus 2·(GAP_TRIPLETS + pieces) at most, one piece per
+ * Table 1 row interval and one above the table.
  */
-const SAMPLE_X100 = new Float64Array(GAP_SAMPLES + 4 * D2270_KV100.length);
+const SAMPLE_X100 = new Float64Array(4 + 2 * (GAP_TRIPLETS + D2270_KV100.length + 1));
 const SAMPLE_X40 = new Float64Array(SAMPLE_X100.length);
+const SAMPLE_MU = new Float64Array(SAMPLE_X100.length);
+/** The triplets of one relaxation call: index of the first point and margin μ of each. */
+const TRIPLET_K = new Int32Array(SAMPLE_X100.length);
+const TRIPLET_MU = new Float64Array(SAMPLE_X100.length);
+/** Excess of one line at each sample (scratch). */
+const SAMPLE_E = new Float64Array(SAMPLE_X100.length);
+let tripletCount = 0;
 
 export class ViBoundary {
   readonly minVi: number;
@@ -139,13 +139,6 @@ export class ViBoundary {
     if (m <= 100) return L - (m / 100) * (L - H);
     // H / Y^N as H·exp(−N·ln Y): the same value to rounding, a third of the cost of a power.
     return H * Math.exp(-this.procedureBExponent * Math.log(kv100));
-  }
-
-  /** {@link uMaxOf} with ln Y given (Table 1 quarter points, whose logarithms are constants). */
-  private uMaxOfLn(lnKv100: number, L: number, H: number): number {
-    const m = this.minVi;
-    if (m <= 100) return L - (m / 100) * (L - H);
-    return H * Math.exp(-this.procedureBExponent * lnKv100);
   }
 
   /** g(X100) = X(U_max(ν(X100))): the largest blend X40 allowed at a blend X100. */
@@ -310,95 +303,233 @@ export class ViBoundary {
    * Linear under-estimators of h on [a, b] (X40 coordinates), given h(a) and h(b): lines
    * X100 ≥ alpha + beta·X40, each valid for every X40 in [a, b]:
    *
-   * 1. the chord through (a, h(a)) and (b, h(b)), lowered by δ, the largest excess of the chord
+   * 1. the chord through (a, h(a)) and (b, h(b)), lowered by the largest excess of the chord
    *    over h on [a, b];
-   * 2. the steepest line through (a, h(a)) that stays below h on [a, b] — exact at a;
-   * 3. the flattest line through (b, h(b)) that stays below h on [a, b] — exact at b.
+   * 2. the steepest line through (a, h(a)) that stays below h on [a, b] — exact at a up to the
+   *    curvature margin below;
+   * 3. the flattest line through (b, h(b)) that stays below h on [a, b] — likewise at b.
    *
-   * The excess and the slopes are taken over the curve at the Table 1 rows inside the interval
-   * (where h has kinks) and at {@link GAP_SAMPLES} evenly spaced points; a small extra margin covers
-   * the curvature between samples. Exactness at the ends means that a relaxed optimum at an end of
-   * its interval already satisfies the VI condition.
+   * The curve is sampled on pieces on which h is smooth: the interval is cut at every Table 1 row
+   * inside it (the kinks of the interpolated L and H) and at 70 mm²/s (the seam between Table 1
+   * and the D2270 equations, where h's slope jumps), and each piece is sampled in triplets
+   * (x₀, x₁, x₂) — at least {@link GAP_TRIPLETS} over the interval, at least one per piece. h's
+   * curvature may change sign inside a piece, so a chord or a secant is not by itself an outer
+   * bound between samples; on a triplet the excess e = line − h is bounded by
+   *
+   *   max e ≤ max(e(x₀), e(x₁), e(x₂)) + μ,   μ = (x₂ − x₀)²·|h[x₀, x₁, x₂]| / 4,
+   *
+   * i.e. the largest rise of a function with |e''| ≤ 2·|h[x₀,x₁,x₂]| (the second divided difference)
+   * above its samples, taken in full although the middle sample already catches most of it (a
+   * fourfold reserve over a quadratic e, which covers the change of curvature across a triplet).
+   * Every line is finally lowered by its largest bounded excess over all triplets, so the feasible
+   * set of the relaxation contains the true one. Near the ends the lines are exact to μ, which
+   * shrinks with the square of the interval width.
    */
   relaxation(a: number, ha: number, b: number, hb: number): ViChord[] {
     if (!(b - a > 1e-12)) return [{ alpha: Math.min(ha, hb), beta: 0 }];
     const beta = (hb - ha) / (b - a);
-    // Curve points (X100, X40) into the module's sample buffer, then one pass over them.
     const lo = Math.min(ha, hb);
     const hi = Math.max(ha, hb);
+    const { toXRaw } = this.coords;
+    // Sample points (X40, X100) in order of X40, with a margin μ each (the largest μ of the
+    // triplets the point belongs to): first the interval's start.
     let ns = 0;
-    const yLo = this.coords.toKvRaw(lo);
-    const yHi = this.coords.toKvRaw(hi);
-    if (yLo < 70.0) {
-      // Rows of Table 1 are the kinks of the interpolated L and H (binary search for the first);
-      // h is convex between rows, so the chord's largest excess lies inside a row interval:
-      // sample each row and the quarter points between rows.
-      let i = 0;
-      let j = D2270_KV100.length - 1;
-      while (j - i > 1) {
-        const mid = (i + j) >> 1;
-        if ((D2270_KV100[mid] as number) <= yLo) i = mid;
-        else j = mid;
+    tripletCount = 0;
+    SAMPLE_X40[ns] = a;
+    SAMPLE_X100[ns] = ha;
+    SAMPLE_MU[ns++] = 0;
+    if (hi > lo) {
+      // Below X40 = g(floor) h is flat at the ν100 floor (exact, a straight piece).
+      if (ha <= this.x100Min && a < this.x40AtFloor) {
+        SAMPLE_X40[ns] = this.x40AtFloor;
+        SAMPLE_X100[ns] = this.x100Min;
+        SAMPLE_MU[ns++] = 0;
       }
-      // Within a row interval L and H are the linear interpolation of the two rows (the same
-      // arithmetic as referenceLH), so the curve point is computed from Y directly.
-      const { toXRaw } = this.coords;
-      const rowX = tableQuarterX(toXRaw);
-      for (let r = i; r < D2270_KV100.length - 1; r++) {
-        const y0 = D2270_KV100[r] as number;
-        if (y0 > yHi) break;
-        const y1 = D2270_KV100[r + 1] as number;
-        const L0 = D2270_L[r] as number;
-        const H0 = D2270_H[r] as number;
-        const dL = (D2270_L[r + 1] as number) - L0;
-        const dH = (D2270_H[r + 1] as number) - H0;
-        for (let q = 0; q < 4; q++) {
-          const f = 0.25 * q;
-          const y = y0 + f * (y1 - y0);
-          if (!(y > yLo && y < yHi) || y < KV100_FLOOR) continue;
-          SAMPLE_X100[ns] = rowX[4 * r + q] as number;
-          SAMPLE_X40[ns++] = toXRaw(this.uMaxOfLn(QUARTER_LN_Y[4 * r + q] as number, L0 + f * dL, H0 + f * dH));
+      const yLo = Math.max(KV100_FLOOR, this.coords.toKvRaw(lo));
+      const yHi = this.coords.toKvRaw(hi);
+      const last = D2270_KV100.length - 1;
+      const perX100 = GAP_TRIPLETS / (hi - lo);
+      // First Table 1 row strictly above yLo.
+      let r = 0;
+      if (yLo < (D2270_KV100[last] as number)) {
+        let i = 0;
+        let j = last;
+        while (j - i > 1) {
+          const mid = (i + j) >> 1;
+          if ((D2270_KV100[mid] as number) <= yLo) i = mid;
+          else j = mid;
         }
+        r = (D2270_KV100[i] as number) > yLo ? i : j;
+      } else r = last + 1;
+      const rowX = tableQuarterX(toXRaw);
+      let y0 = yLo;
+      let x0 = lo;
+      // Pieces inside Table 1: from y0 to the next row (or to yHi), with L and H interpolated
+      // linearly between rows r − 1 and r (the arithmetic of referenceLH).
+      while (r <= last && y0 < yHi) {
+        const yr = D2270_KV100[r] as number;
+        const endsAtRow = yr < yHi;
+        const y1 = endsAtRow ? yr : yHi;
+        const x1 = endsAtRow ? (r < last ? (rowX[4 * r] as number) : toXRaw(yr)) : hi;
+        const n = Math.max(1, Math.ceil((x1 - x0) * perX100));
+        const yA = D2270_KV100[r - 1] as number;
+        const LA = D2270_L[r - 1] as number;
+        const HA = D2270_H[r - 1] as number;
+        const dy = yr - yA;
+        const dL = (D2270_L[r] as number) - LA;
+        const dH = (D2270_H[r] as number) - HA;
+        for (let k = 1; k <= 2 * n; k++) {
+          if (k === 2 * n) {
+            if (endsAtRow) {
+              SAMPLE_X100[ns] = x1;
+              SAMPLE_X40[ns] = toXRaw(this.uMaxRow(r));
+            } else {
+              SAMPLE_X100[ns] = hb;
+              SAMPLE_X40[ns] = b;
+            }
+          } else {
+            const y = y0 + ((y1 - y0) * k) / (2 * n);
+            const f = (y - yA) / dy;
+            SAMPLE_X100[ns] = toXRaw(y);
+            SAMPLE_X40[ns] = toXRaw(this.uMaxOf(y, LA + f * dL, HA + f * dH));
+          }
+          SAMPLE_MU[ns++] = 0;
+        }
+        markTriplets(ns - 2 * n - 1, ns);
+        y0 = y1;
+        x0 = x1;
+        r++;
+      }
+      // Above Table 1 (the D2270 equations, smooth): one piece sampled evenly in X100.
+      if (y0 < yHi) {
+        const n = Math.max(1, Math.ceil((hi - x0) * perX100));
+        for (let k = 1; k <= 2 * n; k++) {
+          if (k === 2 * n) {
+            SAMPLE_X100[ns] = hb;
+            SAMPLE_X40[ns] = b;
+          } else {
+            const x100 = x0 + ((hi - x0) * k) / (2 * n);
+            SAMPLE_X100[ns] = x100;
+            SAMPLE_X40[ns] = this.g(x100);
+          }
+          SAMPLE_MU[ns++] = 0;
+        }
+        markTriplets(ns - 2 * n - 1, ns);
       }
     }
-    if (ns < GAP_SAMPLES) {
-      // Few Table 1 rows inside (or none, above 70 mm²/s): evenly spaced samples as well.
-      for (let k = 1; k < GAP_SAMPLES; k++) {
-        const x100 = lo + ((hi - lo) * k) / GAP_SAMPLES;
-        SAMPLE_X100[ns] = x100;
-        SAMPLE_X40[ns++] = this.g(x100);
-      }
+    if (SAMPLE_X40[ns - 1] !== b) {
+      SAMPLE_X40[ns] = b;
+      SAMPLE_X100[ns] = hb;
+      SAMPLE_MU[ns++] = 0;
     }
-    // The chord's largest excess over the curve, and the extreme secant slopes from each end.
-    let delta = 0;
+    // The extreme secant slopes from each end to the samples lowered by their margins.
     let slopeA = beta;
     let slopeB = beta;
     for (let k = 0; k < ns; k++) {
       const x40 = SAMPLE_X40[k] as number;
-      if (!(x40 > a && x40 < b)) continue;
-      const x100 = SAMPLE_X100[k] as number;
-      const excess = ha + beta * (x40 - a) - x100;
-      if (excess > delta) delta = excess;
-      const sa = (x100 - ha) / (x40 - a);
-      if (sa < slopeA) slopeA = sa;
-      const sb = (hb - x100) / (b - x40);
-      if (sb > slopeB) slopeB = sb;
+      const x100 = (SAMPLE_X100[k] as number) - (SAMPLE_MU[k] as number);
+      if (x40 > a) {
+        const sa = (x100 - ha) / (x40 - a);
+        if (sa < slopeA) slopeA = sa;
+      }
+      if (x40 < b) {
+        const sb = (hb - x100) / (b - x40);
+        if (sb > slopeB) slopeB = sb;
+      }
     }
-    // The end lines must also respect h's one-sided slopes at the ends (h is convex just inside
-    // a row interval, so the smallest secant slope from a is its right-hand derivative there).
+    // h's one-sided slopes at the ends (the smallest secant slope from a is at most its
+    // right-hand derivative there).
     const eps = 1e-7 * Math.max(1, Math.abs(hi - lo));
     const dA = this.g(ha + eps) - a; // Δx40 for Δx100 = eps at a
-    if (dA > 0) slopeA = Math.min(slopeA, eps / dA);
+    const derivA = dA > 0 ? eps / dA : beta;
+    slopeA = Math.min(slopeA, derivA);
     const dB = b - this.g(hb - eps);
-    if (dB > 0) slopeB = Math.max(slopeB, eps / dB);
-    // Margins for the curvature between samples: 5 % more excess, slopes eased by 1 %.
-    const lines: ViChord[] = [{ alpha: ha - beta * a - delta * 1.05, beta }];
-    if (delta > 0 || slopeA < beta || slopeB > beta) {
-      const sA = slopeA - 0.01 * Math.abs(beta - slopeA);
-      const sB = slopeB + 0.01 * Math.abs(slopeB - beta);
-      lines.push({ alpha: ha - sA * a, beta: sA });
-      lines.push({ alpha: hb - sB * b, beta: sB });
+    const derivB = dB > 0 ? eps / dB : beta;
+    slopeB = Math.max(slopeB, derivB);
+    // On the triplet that starts at a, a line through (a, h(a)) is valid while its slope stays
+    // below the secant slope σ(x) = (h(x) − h(a))/(x − a) everywhere on it: σ is sampled at a
+    // (h's one-sided derivative) and the triplet's two other points, and lowered by its own
+    // curvature margin (as μ for h). Likewise at b. So these lines stay exact at their end.
+    const floorA = tripletCount > 0 && TRIPLET_K[0] === 0 ? secantFloor(a, ha, derivA, 1, 2, 1) : NaN;
+    const last = tripletCount - 1;
+    const floorB = last >= 0 && (TRIPLET_K[last] as number) + 2 === ns - 1 ? secantFloor(b, hb, derivB, ns - 2, ns - 3, -1) : NaN;
+    // (NaN: no triplet at that end, or one too narrow to divide by — the check below covers it.)
+    const first = floorA === floorA;
+    const lastT = floorB === floorB;
+    if (first) slopeA = Math.min(slopeA, floorA);
+    if (lastT) slopeB = Math.max(slopeB, floorB);
+    const lines: ViChord[] = [{ alpha: ha - beta * a, beta }];
+    if (slopeA < beta || slopeB > beta) {
+      lines.push({ alpha: ha - slopeA * a, beta: slopeA });
+      lines.push({ alpha: hb - slopeB * b, beta: slopeB });
+    }
+    // Lower every line by its largest bounded excess (over every sample, and over every triplet
+    // by its samples' largest excess plus μ; the end lines skip the triplet at their own end,
+    // covered above), plus h's own accuracy at the ends (the root search of `hSearch` stops at
+    // 1e-12 relative, on the high side) and the rounding of the sums.
+    const round = 1.1e-12 * Math.max(1, Math.abs(lo), Math.abs(hi));
+    for (let l = 0; l < lines.length; l++) {
+      const line = lines[l] as ViChord;
+      let excess = -Infinity;
+      for (let k = 0; k < ns; k++) {
+        const e = line.alpha + line.beta * (SAMPLE_X40[k] as number) - (SAMPLE_X100[k] as number);
+        SAMPLE_E[k] = e;
+        if (e > excess) excess = e;
+      }
+      for (let t = 0; t < tripletCount; t++) {
+        if ((l === 1 && t === 0 && first) || (l === 2 && t === last && lastT)) continue;
+        const k = TRIPLET_K[t] as number;
+        const e = Math.max(SAMPLE_E[k] as number, SAMPLE_E[k + 1] as number, SAMPLE_E[k + 2] as number) + (TRIPLET_MU[t] as number);
+        if (e > excess) excess = e;
+      }
+      if (excess + round > 0) line.alpha -= excess + round;
     }
     return lines;
+  }
+}
+
+/**
+ * The least secant slope from an end (x_e, h_e) over the triplet at that end, lowered by its
+ * curvature margin: σ at the end is h's one-sided derivative `deriv`, at the triplet's other two
+ * points (indices i1, i2 of the sample buffer) the secant slope; the result is
+ * min σ − sign·(x₂ − x_e)²·|σ[x_e, x₁, x₂]|/4 for the end at a (sign 1), max σ + … at b (sign −1).
+ */
+function secantFloor(xe: number, he: number, deriv: number, i1: number, i2: number, sign: 1 | -1): number {
+  const x1 = SAMPLE_X40[i1] as number;
+  const x2 = SAMPLE_X40[i2] as number;
+  const s1 = ((SAMPLE_X100[i1] as number) - he) / (x1 - xe);
+  const s2 = ((SAMPLE_X100[i2] as number) - he) / (x2 - xe);
+  const w = x2 - xe;
+  const dd = ((s2 - s1) / (x2 - x1) - (s1 - deriv) / (x1 - xe)) / w;
+  const margin = (w * w * Math.abs(dd)) / 4;
+  if (!Number.isFinite(margin) || !Number.isFinite(s1) || !Number.isFinite(s2)) return NaN;
+  return sign > 0 ? Math.min(deriv, s1, s2) - margin : Math.max(deriv, s1, s2) + margin;
+}
+
+/**
+ * The curvature margin μ of each triplet (k, k+1, k+2), k = from, from + 2, …, < to − 2, of the
+ * module's sample buffer, kept as the largest μ at each of the triplet's three points.
+ */
+function markTriplets(from: number, to: number): void {
+  for (let k = from; k + 2 < to; k += 2) {
+    const x0 = SAMPLE_X40[k] as number;
+    const x1 = SAMPLE_X40[k + 1] as number;
+    const x2 = SAMPLE_X40[k + 2] as number;
+    if (!(x1 > x0 && x2 > x1)) {
+      // Points that coincide to rounding: bound the piece by its rise in X100 (h increasing).
+      const rise = Math.abs((SAMPLE_X100[k + 2] as number) - (SAMPLE_X100[k] as number));
+      TRIPLET_K[tripletCount] = k;
+      TRIPLET_MU[tripletCount++] = rise;
+      for (let q = k; q <= k + 2; q++) if (rise > (SAMPLE_MU[q] as number)) SAMPLE_MU[q] = rise;
+      continue;
+    }
+    const h0 = SAMPLE_X100[k] as number;
+    const h1 = SAMPLE_X100[k + 1] as number;
+    const h2 = SAMPLE_X100[k + 2] as number;
+    const dd = ((h2 - h1) / (x2 - x1) - (h1 - h0) / (x1 - x0)) / (x2 - x0);
+    const mu = ((x2 - x0) * (x2 - x0) * Math.abs(dd)) / 4;
+    TRIPLET_K[tripletCount] = k;
+    TRIPLET_MU[tripletCount++] = mu;
+    for (let q = k; q <= k + 2; q++) if (mu > (SAMPLE_MU[q] as number)) SAMPLE_MU[q] = mu;
   }
 }

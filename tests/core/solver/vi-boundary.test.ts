@@ -7,6 +7,7 @@ import { astmLogLog, kvFromAstmLogLog } from '../../../src/core/blending/astm-lo
 import { preparePlain } from '../../../src/core/solver/plain';
 import { solvePrepared } from '../../../src/core/solver/engine';
 import { randomPlainProblem, rng } from './helpers';
+import { D2270_KV100 } from '../../../src/core/viscosity/d2270-table1';
 
 describe('solver blending coordinates', () => {
   it('the unchecked coordinate functions equal the core rules exactly', () => {
@@ -133,5 +134,58 @@ describe('VI floor and root relaxation computed once per prepared problem', () =
     }
     expect(compared).toBe(750);
     expect(rejectedEarly).toBeGreaterThan(0); // the floor test did reject some subsets without an LP
+  });
+});
+
+describe('VI relaxation validity on dense random intervals', () => {
+  it('no line exceeds h anywhere on its interval (Table 1 rows, the 70 mm²/s seam, VI 0–180, both rules)', () => {
+    // property: a relaxation line must be an under-estimator of h on its whole interval, else the
+    // branch and bound can cut off feasible recipes. The curve is walked forward (X40 = g(X100),
+    // exact to rounding) at 300 even points, every Table 1 row inside, the seam at 70 mm²/s and
+    // points 1e-6 either side of each; tolerance 1e-12 relative (rounding only, no source needed)
+    const r = rng(7016);
+    const rows = Array.from(D2270_KV100);
+    let worst = 0;
+    let where = '';
+    let checked = 0;
+    for (let t = 0; t < 1500; t++) {
+      const method = t % 2 === 0 ? 'refutas' : 'astm-d7152';
+      const c = blendCoordinates(method);
+      const m = Math.round(r() * 180 * 2) / 2;
+      const b = new ViBoundary(m, c);
+      // interval centres: around the seam, near a Table 1 row, or anywhere in 2–600 mm²/s
+      const kind = t % 3;
+      const centre = kind === 0 ? 70 * Math.exp((r() - 0.5) * 0.6) : kind === 1 ? rows[Math.floor(r() * rows.length)]! * (1 + (r() - 0.5) * 0.02) : 2 * Math.exp(r() * Math.log(300));
+      const width = Math.exp(Math.log(1e-4) + r() * Math.log(1e4)) * 0.5; // relative half width 5e-5 … 0.5
+      const y1 = Math.max(2, centre * (1 - width));
+      const y2 = centre * (1 + width);
+      const a = b.g(c.toX(y1)) - (r() < 0.1 ? 0.05 / c.rowScale : 0);
+      const z = b.g(c.toX(y2));
+      const ha = b.h(a);
+      const hz = b.h(z);
+      const lines = b.relaxation(a, ha, z, hz);
+      const probes: number[] = [];
+      for (let k = 0; k <= 300; k++) probes.push(ha + ((hz - ha) * k) / 300);
+      for (const y of [...rows, 70]) {
+        const x = c.toX(y);
+        for (const d of [0, -1e-6, 1e-6]) if (x + d > ha && x + d < hz) probes.push(x + d);
+      }
+      for (const x100 of probes) {
+        const x40 = b.g(x100);
+        if (!(x40 >= a && x40 <= z)) continue;
+        for (const l of lines) {
+          const excess = (l.alpha + l.beta * x40 - x100) / Math.max(1, Math.abs(x100));
+          if (excess > worst) {
+            worst = excess;
+            where = `${method} VI ${m} on ν100 ${y1.toPrecision(6)}–${y2.toPrecision(6)} at X100 ${x100}`;
+          }
+        }
+        checked++;
+      }
+      // the flat stretch below the ν100 = 2.0 mm²/s floor
+      if (a < b.g(b.x100Min)) for (const l of lines) expect(l.alpha + l.beta * a).toBeLessThanOrEqual(b.x100Min + 1e-12 * Math.max(1, b.x100Min));
+    }
+    expect(checked).toBeGreaterThan(300000);
+    expect(worst, where).toBeLessThanOrEqual(1e-12);
   });
 });
