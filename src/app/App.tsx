@@ -3,8 +3,8 @@ import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
-import { useUnitConversionsReady } from '../components/format';
-import { isDemoComponent, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
+import { useFormat, useUnitConversionsReady } from '../components/format';
+import { isDemoComponent, setRefusalWords, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
 const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
 function screenComponent(entry: ScreenEntry): LazyExoticComponent<ComponentType> {
@@ -49,6 +49,9 @@ export function App() {
   const ready = savedWorkReady && unitsReady;
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
+  // The stores' refusals write numbers as every screen does (decimal separator, temperature unit).
+  const fmt = useFormat();
+  useEffect(() => setRefusalWords(fmt), [fmt]);
   const shownId = useRef<string | null>(null);
 
   useEffect(() => {

@@ -7,6 +7,7 @@ import * as schemas from './schemas';
 import { z } from './schemas';
 import { interpretStored, noteBackupTaken } from './persistence';
 import { COLLECTION_LIMITS } from './field-rules';
+import { sayRefusal } from './messages';
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
 import { useRecipesStore, RECIPES_SPEC, type RecipesData } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type SettingsData } from './settings';
@@ -100,8 +101,8 @@ export function parseBackupText(text: string): BackupParse {
     if (r.issues?.length) {
       const total = r.issues.length;
       errors.push(`The backup’s ${name} section has ${total === 200 ? 'at least 200' : total} refused value${total > 1 ? 's' : ''}:`);
-      errors.push(...r.issues);
-    } else errors.push(r.problem.message.replace('The saved', 'The backup’s'));
+      errors.push(...r.issues.map((m) => sayRefusal(m)!));
+    } else errors.push(sayRefusal(r.problem.message.replace('The saved', 'The backup’s'))!);
   }
   if (lib.kind !== 'ok' || rec.kind !== 'ok' || set.kind !== 'ok') return { ok: false, errors };
   // Cross-checks: unique codes and ids; every recipe line names a component in the backup.

@@ -86,6 +86,7 @@ export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo'
 export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
 export { useWorkspaceStore, fingerprint, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
 export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';
+export { setRefusalWords, sayRefusal } from './messages';
 
 /** The library store hook (zustand): `useLibrary(s => s.components)`; `useLibrary.getState()` for actions. */
 export const useLibrary = useLibraryStore;

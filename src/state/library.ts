@@ -10,6 +10,7 @@ import { blankComponent, freeCode } from './stock-defaults';
 
 export { blankComponent, freeCode } from './stock-defaults';
 import { COLLECTION_LIMITS, FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
+import { sayRefusal } from './messages';
 
 /** Throws FieldRuleError when a library of `count` stocks would exceed COLLECTION_LIMITS.stocks. */
 function refuseIfFull(count: number): void {
@@ -117,7 +118,7 @@ export const useLibraryStore = create<LibraryState>()(
           if (!old) return null;
           const next = { ...old, ...patch, id };
           const refused = firstProblem(stockProblems(next, stockWho(old.code)));
-          if (refused) return refused;
+          if (refused) return sayRefusal(refused);
           set((s) => ({ components: s.components.map((c) => (c.id === id ? next : c)) }));
           return null;
         },

@@ -9,6 +9,7 @@ import type { RecipeLine, StockBasis } from '../core/formulation/model';
 import { useRecipesStore } from './recipes';
 import { leastUseAboveSupply, type LinePlanInputs } from './lineplan';
 import { FieldRuleError, firstProblem, fmtRuleNumber, linePlanProblems } from './field-rules';
+import { sayRefusal } from './messages';
 
 /**
  * Change the plan if the result passes the field rules (and `check`, a rule across fields of the
@@ -18,7 +19,7 @@ function patchPlan(f: (p: LinePlanInputs) => Partial<LinePlanInputs>, check?: (n
   const cur = useRecipesStore.getState().linePlan;
   const next = { ...cur, ...f(cur) };
   const refused = firstProblem(linePlanProblems(next)) ?? check?.(next) ?? null;
-  if (refused) return refused;
+  if (refused) return sayRefusal(refused);
   useRecipesStore.setState({ linePlan: next });
   return null;
 }
@@ -113,7 +114,7 @@ export function adoptPlanRevisions(
   } catch (e) {
     store.setState(snapshot);
     history.resume();
-    return { ok: false, message: e instanceof FieldRuleError ? e.message : e instanceof Error ? e.message : String(e) };
+    return { ok: false, message: e instanceof FieldRuleError ? sayRefusal(e.message)! : e instanceof Error ? e.message : String(e) };
   }
   const after = store.getState();
   const change = { recipes: after.recipes, targets: after.targets, sheets: after.sheets };

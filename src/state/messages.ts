@@ -167,3 +167,24 @@ function polish(message: string, components: readonly Component[], words: SayNum
   // A capital for a Latin opening only: "ν100 …" keeps its small nu (a capital Ν reads as N).
   return /^[a-z]/.test(m) ? m.charAt(0).toUpperCase() + m.slice(1) : m;
 }
+
+/**
+ * How the stores write the numbers of their refusals (a field rule broken by a save, a change, an
+ * import): the app's formatter, handed over once by the composition (`setRefusalWords(useFormat())`
+ * in src/app), so that a refusal reads with the user's decimal separator and temperature unit as every
+ * other message does. Until then (and for text meant for files) the rules' own "." and °C stand.
+ */
+let refusalWords: SayNumbers | null = null;
+
+/** Hand the stores the app's number formatter (null: back to "." and °C). */
+export function setRefusalWords(words: SayNumbers | null): void {
+  refusalWords = words;
+}
+
+/**
+ * A store's refusal (written by the field rules with "." and °C) in the user's numbers, through
+ * {@link sayCoreNumbers} — the one rewriting every core message goes through. Null stays null.
+ */
+export function sayRefusal(message: string | null, words: SayNumbers | null = refusalWords): string | null {
+  return message === null || words === null ? message : sayCoreNumbers(message, words);
+}

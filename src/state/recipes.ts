@@ -23,6 +23,7 @@ import {
 
 export type { QcInputs };
 import { emptyLinePlan, type LinePlanInputs } from './lineplan';
+import { sayRefusal } from './messages';
 
 export interface RecipesData {
   recipes: Recipe[];
@@ -266,7 +267,7 @@ export const useRecipesStore = create<RecipesState>()(
           if (!r) return null;
           const next = { ...change(r), updatedAt: now() };
           const refused = firstProblem(recipeProblems(next, recipeWho(r.name)));
-          if (refused) return refused;
+          if (refused) return sayRefusal(refused);
           set((s) => ({ recipes: s.recipes.map((x) => (x.id === id ? next : x)) }));
           return null;
         };
@@ -414,14 +415,14 @@ export const useRecipesStore = create<RecipesState>()(
             const r = get().recipes.find((x) => x.id === recipeId);
             if (r && r.status !== 'draft') return approvedMessage(r);
             const refused = firstProblem(targetsProblems(targets, whoOf(recipeId)));
-            if (refused) return refused;
+            if (refused) return sayRefusal(refused);
             set((s) => ({ targets: { ...s.targets, [recipeId]: targets } }));
             return null;
           },
           setSheetInputs: (recipeId, patch, parseBatch) => {
             const next = { ...DEFAULT_SHEET_INPUTS, ...get().sheets[recipeId], ...patch };
             const refused = firstProblem(sheetProblems(next, undefined, patch.batchSize === undefined ? undefined : parseBatch));
-            if (refused) return refused;
+            if (refused) return sayRefusal(refused);
             set((s) => ({ sheets: { ...s.sheets, [recipeId]: next } }));
             return null;
           },
@@ -446,7 +447,7 @@ export const useRecipesStore = create<RecipesState>()(
           setQcInputs: (recipeId, patch) => {
             const next: QcInputs = { ...DEFAULT_QC_INPUTS, ...get().qc[recipeId], ...patch };
             const refused = firstProblem(qcProblems(next, whoOf(recipeId)));
-            if (refused) return refused;
+            if (refused) return sayRefusal(refused);
             set((s) => ({ qc: { ...s.qc, [recipeId]: next } }));
             return null;
           },

@@ -4,6 +4,7 @@ import { persist } from 'zustand/middleware';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { demoSettingsPatch } from './demo';
 import { firstProblem, settingsProblems } from './field-rules';
+import { sayRefusal } from './messages';
 import { normaliseCurrency, type ExchangeRate } from '../core/currency/exchange-rates';
 import type { BlendMethod } from '../core/blending/blend-viscosity';
 import type { D341Form } from '../core/viscosity/viscosity-temperature';
@@ -137,7 +138,7 @@ export const useSettingsStore = create<SettingsState>()(
         const current = get().settings;
         const next = { ...current, ...patch };
         const refused = baseChangeProblem(current, patch) ?? firstProblem(settingsProblems(next));
-        if (refused) return refused;
+        if (refused) return sayRefusal(refused);
         set({ settings: next });
         return null;
       },

@@ -21,7 +21,7 @@ import {
   type QcRow,
   type SheetPrediction,
 } from '../../core/sheet/blend-sheet';
-import { DEFAULT_QC_INPUTS, DEFAULT_SHEET_INPUTS, type QcInputs, type SheetInputs } from '../../state';
+import { DEFAULT_QC_INPUTS, DEFAULT_SHEET_INPUTS, sayRefusal, type QcInputs, type SheetInputs } from '../../state';
 import { BLEND_METHOD_LABEL } from '../../core/blending/blend-viscosity';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { QcPanel } from './QcPanel';
@@ -151,7 +151,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       firstProblem(sheetProblems(next, undefined, parse)) ??
       (props.onSheetInputsChange ? props.onSheetInputsChange(recipe.id, patch, parse) ?? null : null);
     if (message) {
-      if (field) setRefused({ recipeId: recipe.id, field, text: String(patch[field] ?? ''), message });
+      if (field) setRefused({ recipeId: recipe.id, field, text: String(patch[field] ?? ''), message: sayRefusal(message, displayWords(display))! });
       return;
     }
     if (refused && refused.field in patch) setRefused(null);

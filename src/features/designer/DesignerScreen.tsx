@@ -16,6 +16,7 @@ import {
   useRecipes,
   useSettings,
   settingsActions,
+  sayRefusal,
 } from '../../state';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
@@ -401,6 +402,7 @@ const SaveBox = memo(function SaveBox({
   const [reason, setReason] = useState('');
   const [saved, setSaved] = useState('');
   const [refused, setRefused] = useState('');
+  const fmt = useFormat();
   // The name as typed: kept here while the field rules refuse it, so the draft never holds it.
   const [draft, setDraft] = useState(name);
   useEffect(() => setDraft(name), [name]);
@@ -411,7 +413,8 @@ const SaveBox = memo(function SaveBox({
   const needsReason = revising && reason.trim() === '';
   const report = (outcome: SaveOutcome, ok: (savedId: string) => string) => {
     if ('refused' in outcome) {
-      setRefused(outcome.refused);
+      // The field rules write "." and °C; shown in the user's numbers like every other message.
+      setRefused(sayRefusal(outcome.refused, fmt)!);
       setSaved('');
       return;
     }
