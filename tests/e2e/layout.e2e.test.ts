@@ -80,6 +80,29 @@ async function textWhole(page: Page, selector: string, what: string): Promise<nu
   return (await page.$$(selector)).length;
 }
 
+/**
+ * Every choice of the matching selects is read whole: each select is at least as wide as it would be
+ * with no width limit (a select's own width is that of its longest choice, arrow included). Returns
+ * how many were checked.
+ */
+async function selectsWhole(page: Page, selector: string, what: string): Promise<number> {
+  const cut = await page.$$eval(selector, (els) =>
+    (els as HTMLSelectElement[])
+      .filter((sel) => {
+        if (sel.getBoundingClientRect().width === 0) return false; // not shown
+        const free = sel.cloneNode(true) as HTMLSelectElement;
+        Object.assign(free.style, { position: 'absolute', visibility: 'hidden', width: 'auto', minWidth: '0', maxWidth: 'none' });
+        sel.parentElement!.appendChild(free);
+        const need = free.getBoundingClientRect().width;
+        free.remove();
+        return sel.getBoundingClientRect().width + 0.5 < need;
+      })
+      .map((sel) => `${sel.labels?.[0]?.textContent ?? sel.id}: ${sel.selectedOptions[0]?.textContent ?? ''}`),
+  );
+  expect(cut, `${what}: choices cut off`).toEqual([]);
+  return (await page.$$(selector)).length;
+}
+
 describe('layout at 1024–2560 px', () => {
   let s: Session;
   beforeAll(async () => {
@@ -123,6 +146,8 @@ describe('layout at 1024–2560 px', () => {
       await reachable(page.getByRole('button', { name: 'More fields of BW-190' }), 'Stocks row actions');
       const names = await namesWhole(page);
       expect(names.length).toBeGreaterThan(10);
+      // The category and availability of every stock are read whole ("Group IV (PAO)", "Additive package", "Withdrawn").
+      expect(await selectsWhole(page, '.library-table tbody select', 'Stocks table')).toBeGreaterThan(20);
       // The demo's longest name (invented) is among those read whole.
       expect(names).toContain('Industrial gear EP additive package (sulfur–phosphorus)');
       if (width >= 1920) {

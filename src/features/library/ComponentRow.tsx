@@ -153,7 +153,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hint={<span className="unit" title={BASIS_SHORT[c.price.basis]}>{BASIS_HINT[c.price.basis]}</span>}
         />
       </td>
-      <td>
+      <td className="avail-cell">
         <SelectField<Availability>
           label={`Availability of ${who}`}
           hideLabel
