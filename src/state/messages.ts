@@ -183,8 +183,17 @@ export function setRefusalWords(words: SayNumbers | null): void {
 
 /**
  * A store's refusal (written by the field rules with "." and °C) in the user's numbers, through
- * {@link sayCoreNumbers} — the one rewriting every core message goes through. Null stays null.
+ * {@link sayCoreNumbers} — the one rewriting every core message goes through. What the user named is
+ * left as typed: the record the message opens with ("Stock SN 1.5: …") and anything in “quotes”
+ * (a recipe's name, a typed value). Null stays null.
  */
 export function sayRefusal(message: string | null, words: SayNumbers | null = refusalWords): string | null {
-  return message === null || words === null ? message : sayCoreNumbers(message, words);
+  if (message === null || words === null) return message;
+  const who = /^(?:Stock [^:]*|Recipe “[^”]*”|The rate for [^:]*): /.exec(message)?.[0] ?? '';
+  const rest = message
+    .slice(who.length)
+    .split(/(“[^”]*”)/)
+    .map((part, i) => (i % 2 === 1 ? part : sayCoreNumbers(part, words)))
+    .join('');
+  return who + rest;
 }

@@ -80,6 +80,19 @@ describe('store refusals in the user’s numbers (comma decimals, °F)', () => {
     expect(line).not.toMatch(POINT_DECIMAL);
   });
 
+  it('what the user named stays as typed: a stock code, a recipe name, a typed value', () => {
+    const id = useLibrary.getState().components[0]!.id;
+    expect(useLibrary.getState().updateComponent(id, { code: 'SN 1.5' })).toBeNull();
+    expect(useLibrary.getState().updateComponent(id, { density15: 2.5 })).toMatch(/^Stock SN 1\.5: the density at 15 °C 2,5 kg\/L/);
+    const lines = useRecipes.getState().recipes[0]!.lines;
+    const rid = recipeActions.addRecipe({ name: 'Plant 2.5', grade: 320, lines });
+    expect(useRecipes.getState().setTargets(rid, { ...defaultTargets(320, null, null), tolerancePct: 150.5 })).toMatch(
+      /^Recipe “Plant 2\.5”: the tolerance 150,5 % is outside/,
+    );
+    const sheet = useRecipes.getState().setSheetInputs(rid, { batchSize: '1.2.3' }, () => null);
+    expect(sheet).toMatch(/“1\.2\.3” is not a number/);
+  });
+
   it('without the app’s formatter the rules keep "." and °C (text meant for files)', () => {
     setRefusalWords(null);
     const id = useLibrary.getState().components[0]!.id;
