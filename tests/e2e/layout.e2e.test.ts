@@ -169,6 +169,9 @@ describe('layout at 1024–2560 px', () => {
       for (const code of ['BW-190', 'BW-160', 'BW-901']) await reachable(page.getByLabel(`Mass % of ${code}`), `designer share of ${code}`);
       await reachable(page.getByRole('button', { name: 'Remove BW-160' }), 'designer remove');
       await reachable(page.getByRole('button', { name: 'Solve', exact: true }), 'Solve');
+      // The chosen additive package: its list is cut on a narrow window, its name beside it is whole.
+      expect(await textWhole(page, '[data-testid="additive-name"]', 'designer additive package')).toBe(1);
+      await expect.poll(() => page.getByTestId('additive-name').textContent()).toBe('Industrial gear EP additive package (sulfur–phosphorus)');
 
       // Substitute explorer (the search result is still there)
       await page.getByRole('link', { name: /Substitute explorer/ }).click();

@@ -51,6 +51,7 @@ export const TargetsForm = memo(function TargetsForm({
   const fromDisp = (d: number | null) => (d === null ? null : fmt.tempToC(d));
   const tUnit = fmt.tempUnit;
   const additives = components.filter((c) => c.category === 'additive-package' && c.availability !== 'withdrawn');
+  const chosenAdditive = additives.find((c) => c.id === targets.additive?.componentId);
   const references = recipes.filter((r) => r.lines.length > 0);
   const usable = components.filter((c) => c.availability !== 'withdrawn' && c.id !== targets.additive?.componentId);
   const withdrawn = components.filter((c) => c.availability === 'withdrawn');
@@ -177,6 +178,8 @@ export const TargetsForm = memo(function TargetsForm({
               </option>
             ))}
           </select>
+          {/* A long name is cut in the closed list on a narrow window: the chosen package's name in full. */}
+          {chosenAdditive && chosenAdditive.name && <span className="field-hint" data-testid="additive-name">{chosenAdditive.name}</span>}
         </div>
         {targets.additive && (
           <Opt
