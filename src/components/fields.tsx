@@ -184,10 +184,14 @@ export interface TextFieldProps extends CommonProps {
  * Where CSS `field-sizing: content` is not supported, a wrapping line's height follows its text by
  * hand: set to its scroll height when the text or the field's width changes.
  */
-function useGrowToText(ref: RefObject<HTMLTextAreaElement | null>, on: boolean, text: string): void {
+const SIZED_BY_CSS = typeof CSS !== 'undefined' && CSS.supports?.('field-sizing', 'content') === true;
+
+function useGrowToText(ref: RefObject<HTMLTextAreaElement | null>, wanted: boolean, text: string): void {
+  // Where the browser sizes the field itself, no measuring and no observer per field.
+  const on = wanted && !SIZED_BY_CSS;
   const fit = useCallback(() => {
     const el = ref.current;
-    if (!el || (typeof CSS !== 'undefined' && CSS.supports?.('field-sizing', 'content'))) return;
+    if (!el) return;
     el.style.height = 'auto';
     el.style.height = `${el.scrollHeight + el.offsetHeight - el.clientHeight}px`;
   }, [ref]);
