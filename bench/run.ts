@@ -11,7 +11,11 @@
  * A module that throws is reported as one MISS line (`bench <file>: error …`) and the rest still run;
  * notes and errors go to stderr so that stdout holds only bench lines. Exit code: 1 only when a
  * module threw (a MISS is a measurement, not a failure of the run).
+ * Each module runs in a fresh Node process (this file again with `--module <file>`), so one module's
+ * heap, garbage and compiled code do not bias the next one's timings — as in the app, where the
+ * search runs in workers of its own.
  */
+import { spawnSync } from 'node:child_process';
 import { readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -39,33 +43,57 @@ export function formatLine(line: BenchLine): string {
   return `bench ${line.name}: ${formatMeasured(line.measured)} ${line.unit} goal ${line.op} ${formatMeasured(line.goal)} ${passes(line) ? 'pass' : 'MISS'}`;
 }
 
+/** Runs one module in this process, printing its lines; returns false when it threw. */
+async function runModule(file: string): Promise<boolean> {
+  let lines: BenchLine[];
+  try {
+    const mod = (await import(pathToFileURL(join(here, file)).href)) as BenchModule;
+    lines = await mod.run();
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e);
+    process.stderr.write(`bench ${file} failed: ${msg}\n`);
+    console.log(`bench ${file.replace(/\.bench\.ts$/, '')}: error - goal >= 0 MISS`);
+    return false;
+  }
+  for (const line of lines) {
+    console.log(formatLine(line));
+    if (line.note) process.stderr.write(`  (${line.name}: ${line.note})\n`);
+  }
+  return true;
+}
+
 async function main(): Promise<void> {
-  const filters = process.argv.slice(2);
+  const args = process.argv.slice(2);
+  if (args[0] === '--module' && args[1]) {
+    process.exitCode = (await runModule(args[1])) ? 0 : 1;
+    return;
+  }
   const files = readdirSync(here)
     .filter((f) => f.endsWith('.bench.ts'))
-    .filter((f) => filters.length === 0 || filters.some((s) => f.includes(s)))
+    .filter((f) => args.length === 0 || args.some((s) => f.includes(s)))
     .sort();
   let pass = 0;
   let miss = 0;
   let crashed = false;
   for (const file of files) {
-    let lines: BenchLine[];
-    try {
-      const mod = (await import(pathToFileURL(join(here, file)).href)) as BenchModule;
-      lines = await mod.run();
-    } catch (e) {
-      const msg = e instanceof Error ? e.message : String(e);
-      process.stderr.write(`bench ${file} failed: ${msg}\n`);
-      console.log(`bench ${file.replace(/\.bench\.ts$/, '')}: error - goal >= 0 MISS`);
-      miss++;
-      crashed = true;
-      continue;
+    const child = spawnSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), '--module', file], {
+      stdio: ['ignore', 'pipe', 'inherit'],
+      encoding: 'utf8',
+      maxBuffer: 16 * 1024 * 1024,
+    });
+    const out = child.stdout ?? '';
+    process.stdout.write(out);
+    for (const row of out.split('\n')) {
+      if (!row.startsWith('bench ')) continue;
+      if (row.endsWith(' pass')) pass++;
+      else if (row.endsWith(' MISS')) miss++;
     }
-    for (const line of lines) {
-      console.log(formatLine(line));
-      if (line.note) process.stderr.write(`  (${line.name}: ${line.note})\n`);
-      if (passes(line)) pass++;
-      else miss++;
+    if (child.status !== 0) {
+      if (!out.includes(' MISS') && !out.includes(' pass')) {
+        console.log(`bench ${file.replace(/\.bench\.ts$/, '')}: error - goal >= 0 MISS`);
+        miss++;
+      }
+      crashed = true;
     }
   }
   console.log(`bench summary: ${pass} pass, ${miss} miss`);
