@@ -3,7 +3,7 @@ import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
-import { useFormat, useUnitConversionsReady } from '../components/format';
+import { FormatContext, useFormat, useUnitConversionsReady } from '../components/format';
 import { isDemoComponent, setRefusalWords, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
 const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
@@ -49,7 +49,8 @@ export function App() {
   const ready = savedWorkReady && unitsReady;
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
-  // The stores' refusals write numbers as every screen does (decimal separator, temperature unit).
+  // The one formatter of the page, given to every screen (FormatContext); the stores' refusals
+  // write numbers with it too (decimal separator, temperature unit).
   const fmt = useFormat();
   useEffect(() => setRefusalWords(fmt), [fmt]);
   const shownId = useRef<string | null>(null);
@@ -69,6 +70,7 @@ export function App() {
 
   const Screen = screenComponent(screen);
   return (
+    <FormatContext value={fmt}>
     <div className="app">
       <a className="skip-link" href="#main">
         Skip to content
@@ -118,5 +120,6 @@ export function App() {
         D2270, D7152, Refutas, ISO 3448).
       </footer>
     </div>
+    </FormatContext>
   );
 }

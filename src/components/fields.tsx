@@ -28,13 +28,25 @@ export function ruleVerdict(rule: NumberRuleKey, v: number | null, words: SayNum
 
 interface CommonProps {
   label: string;
-  /** Hide the label visually (still read by screen readers), e.g. inside a table cell. */
+  /** No visible label, e.g. inside a table cell: the label is the control's aria-label (read by screen readers). */
   hideLabel?: boolean;
   className?: string;
   /** Width in characters. */
   size?: number;
   disabled?: boolean;
   hint?: ReactNode;
+}
+
+/**
+ * A field's visible label; a hidden label (inside a table cell) is the control's `aria-label`
+ * instead — the same accessible name without a clipped element per field.
+ */
+function FieldLabel({ id, label, hide }: { id: string; label: string; hide: boolean | undefined }) {
+  return hide ? null : (
+    <label htmlFor={id} className="field-label">
+      {label}
+    </label>
+  );
 }
 
 function Message({ id, verdict }: { id: string; verdict: Verdict }) {
@@ -76,14 +88,12 @@ export function NumberField(props: NumberFieldProps) {
   const id = useId();
   const msgId = `${id}-msg`;
   const show = (v: number | null) => (v === null ? '' : fmt.plain(v, props.digits));
-  const [draft, setDraft] = useState(() => show(props.value));
   // Only a value the user typed is committed: a displayed, rounded value is never written back.
-  // While nothing is typed, the field follows the stored value (undo, another tab, another field).
+  // While nothing is typed, the field shows the stored value (undo, another tab, another field):
+  // derived at render, so a field mounts without effects (a table of stocks holds hundreds).
+  const [draft, setDraft] = useState('');
   const [dirty, setDirty] = useState(false);
-  useEffect(() => {
-    if (!dirty) setDraft(show(props.value));
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [props.value, dirty, fmt]);
+  const text = dirty ? draft : show(props.value);
 
   const judge = (text: string): { v: number | null; verdict: Verdict } => {
     const r = fmt.parseEntry(text);
@@ -96,11 +106,9 @@ export function NumberField(props: NumberFieldProps) {
     return { v, verdict: props.validate?.(v) ?? {} };
   };
   const current = dirty ? judge(draft) : { v: props.value, verdict: props.validate?.(props.value) ?? {} };
+  // What is being typed goes to `onDraft` as it is typed, and undefined once nothing is pending
+  // (told in the same event, so the row re-renders once).
   const { onDraft } = props;
-  const pending = dirty ? (fmt.parseEntry(draft).value ?? null) : undefined;
-  useEffect(() => {
-    onDraft?.(pending);
-  }, [onDraft, pending]);
   /**
    * Enter and leaving the field (Tab, click elsewhere) both come here: same checks, same save.
    * False when the typed value was refused (it stays in the field with its message).
@@ -110,34 +118,39 @@ export function NumberField(props: NumberFieldProps) {
     const { v, verdict } = judge(draft);
     if (verdict.error) return false;
     setDirty(false);
+    onDraft?.(undefined);
     if (v !== props.value) props.onCommit(v);
     return true;
   };
   const revert = () => {
-    setDraft(show(props.value));
     setDirty(false);
+    onDraft?.(undefined);
   };
   const hasMsg = Boolean(current.verdict.error || current.verdict.warning);
   return (
     <span className={`field ${props.className ?? ''}`}>
-      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
-        {props.label}
-        {props.unit && !props.hideLabel ? <span className="unit"> [{props.unit}]</span> : null}
-      </label>
+      {props.hideLabel ? null : (
+        <label htmlFor={id} className="field-label">
+          {props.label}
+          {props.unit ? <span className="unit"> [{props.unit}]</span> : null}
+        </label>
+      )}
       <input
         id={id}
+        aria-label={props.hideLabel ? props.label : undefined}
         type="text"
         inputMode="decimal"
         autoComplete="off"
         size={props.size ?? 7}
         disabled={props.disabled}
-        value={draft}
+        value={text}
         aria-invalid={current.verdict.error ? true : undefined}
         aria-describedby={hasMsg ? msgId : undefined}
         className={current.verdict.error ? 'invalid' : current.verdict.warning ? 'doubtful' : undefined}
         onChange={(e) => {
           setDraft(e.target.value);
           setDirty(true);
+          onDraft?.(fmt.parseEntry(e.target.value).value ?? null);
         }}
         onBlur={() => void commit()}
         onKeyDown={(e) => {
@@ -186,9 +199,7 @@ export interface TextFieldProps extends CommonProps {
  */
 const SIZED_BY_CSS = typeof CSS !== 'undefined' && CSS.supports?.('field-sizing', 'content') === true;
 
-function useGrowToText(ref: RefObject<HTMLTextAreaElement | null>, wanted: boolean, text: string): void {
-  // Where the browser sizes the field itself, no measuring and no observer per field.
-  const on = wanted && !SIZED_BY_CSS;
+function useGrowToText(ref: RefObject<HTMLTextAreaElement | null>, on: boolean, text: string): void {
   const fit = useCallback(() => {
     const el = ref.current;
     if (!el) return;
@@ -217,17 +228,17 @@ export function TextField(props: TextFieldProps) {
   const id = useId();
   const wrapRef = useRef<HTMLTextAreaElement>(null);
   const msgId = `${id}-msg`;
-  const [draft, setDraft] = useState(props.value);
+  // While nothing is typed the field shows the stored value (derived at render: no effect per field).
+  const [draft, setDraft] = useState('');
   const [dirty, setDirty] = useState(false);
-  useEffect(() => {
-    if (!dirty) setDraft(props.value);
-  }, [props.value, dirty]);
+  const text = dirty ? draft : props.value;
   const judge = (v: string): Verdict => {
     const ruled = props.rule ? checkText(props.rule, props.trimForRule ? v.trim() : v) : null;
     return ruled ? { error: ruled } : (props.validate?.(v) ?? {});
   };
-  const verdict = judge(dirty ? draft : props.value);
-  useGrowToText(wrapRef, Boolean(props.wrap && !props.multiline), draft);
+  const verdict = judge(text);
+  // Where the browser sizes the field itself (decided once per page), no measuring, no observer and no effects.
+  if (!SIZED_BY_CSS) useGrowToText(wrapRef, Boolean(props.wrap && !props.multiline), text);
   /** Enter (single line) and leaving the field both come here: same checks, same save. */
   const commit = (): boolean => {
     if (!dirty) return true;
@@ -236,17 +247,15 @@ export function TextField(props: TextFieldProps) {
     if (draft !== props.value) props.onCommit(draft);
     return true;
   };
-  const revert = () => {
-    setDraft(props.value);
-    setDirty(false);
-  };
+  const revert = () => setDirty(false);
   const common = {
     id,
-    value: draft,
+    'aria-label': props.hideLabel ? props.label : undefined,
+    value: text,
     disabled: props.disabled,
     maxLength: props.rule ? undefined : props.maxLength,
     placeholder: props.placeholder,
-    title: props.fullTitle && draft ? draft : undefined,
+    title: props.fullTitle && text ? text : undefined,
     'aria-invalid': verdict.error ? true : undefined,
     'aria-describedby': verdict.error || verdict.warning ? msgId : undefined,
     className: verdict.error ? 'invalid' : undefined,
@@ -258,9 +267,7 @@ export function TextField(props: TextFieldProps) {
   };
   return (
     <span className={`field ${props.className ?? ''}`}>
-      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
-        {props.label}
-      </label>
+      <FieldLabel id={id} label={props.label} hide={props.hideLabel} />
       {props.wrap && !props.multiline ? (
         <textarea
           {...common}
@@ -328,10 +335,8 @@ export function SelectField<T extends string>(props: SelectFieldProps<T>) {
   const id = useId();
   return (
     <span className={`field ${props.className ?? ''}`}>
-      <label htmlFor={id} className={props.hideLabel ? 'visually-hidden' : 'field-label'}>
-        {props.label}
-      </label>
-      <select id={id} value={props.value} disabled={props.disabled} onChange={(e) => props.onChange(e.target.value as T)}>
+      <FieldLabel id={id} label={props.label} hide={props.hideLabel} />
+      <select id={id} aria-label={props.hideLabel ? props.label : undefined} value={props.value} disabled={props.disabled} onChange={(e) => props.onChange(e.target.value as T)}>
         {props.options.map((o) => (
           <option key={o.value} value={o.value}>
             {o.label}

@@ -8,7 +8,7 @@
  * screen in °F (`useUnitConversionsReady`); should a formatter be made before they arrive, it
  * shows and reads °C throughout (the label says so), never a °C value labelled °F.
  */
-import { useEffect, useMemo, useSyncExternalStore } from 'react';
+import { createContext, useContext, useEffect, useMemo, useSyncExternalStore } from 'react';
 import type * as Units from '../core/units';
 import { decimalsOf, formatFixed, sayNumber } from '../core/words/display';
 import { gradePosition } from '../core/viscosity/iso-grades';
@@ -191,8 +191,26 @@ export function makeFormatter(settings: Settings): Formatter {
   return f;
 }
 
-/** Formatters for the current settings (memoised; made again once the unit conversions arrive). */
+/**
+ * The app's one formatter, provided by the shell to every screen (src/app/App.tsx), so that a field
+ * reads it from context instead of subscribing to the settings itself (a table of stocks holds
+ * hundreds of fields; each subscription is work when the screen is first drawn).
+ */
+export const FormatContext = createContext<Formatter | null>(null);
+
+/**
+ * Formatters for the current settings (memoised; made again once the unit conversions arrive): the
+ * shell's formatter under {@link FormatContext}, else the component follows the settings itself
+ * (a screen rendered alone, as in tests). A component is under the provider or not for its whole
+ * life, so its hooks are the same at every render.
+ */
 export function useFormat(): Formatter {
+  const provided = useContext(FormatContext);
+  if (provided) return provided;
+  return useOwnFormat();
+}
+
+function useOwnFormat(): Formatter {
   const settings = useSettings();
   const loaded = useSyncExternalStore(subscribeUnits, unitsLoaded, unitsLoaded);
   useEffect(() => {
