@@ -24,7 +24,7 @@ import type { BlendMethod } from '../blending/blend-viscosity';
 import { kvFromRefutasVbn, refutasVbn } from '../blending/refutas';
 import { astmLogLog, kvFromAstmLogLog } from '../blending/astm-loglog';
 import { wrightWeight } from '../blending/wright';
-import { d341LogLogZ, kvFromD341LogLogZ } from '../viscosity/viscosity-temperature';
+import { D341_MIN_KV, d341LogLogZ, kvFromD341LogLogZ } from '../viscosity/viscosity-temperature';
 
 export interface BlendCoordinates {
   readonly method: BlendMethod;
@@ -45,6 +45,11 @@ export interface BlendCoordinates {
    */
   toXRaw(kv: number): number;
   toKvRaw(x: number): number;
+  /**
+   * Whether {@link toX} accepts ν [mm²/s] (a finite number in the rule's range); where it does,
+   * {@link toXRaw} returns the identical value without the checks.
+   */
+  acceptsKv(kv: unknown): boolean;
   /** dX for a +1 % change of ν at ν [per %], the local scale used by the 'closest' objective. */
   perPct(kv: number): number;
   /**
@@ -63,6 +68,8 @@ const REFUTAS: BlendCoordinates = {
   // Same expressions as blending/refutas.ts (14.534, 10.975, natural logarithms).
   toXRaw: (kv) => 14.534 * Math.log(Math.log(kv + 0.8)) + 10.975,
   toKvRaw: (x) => Math.exp(Math.exp((x - 10.975) / 14.534)) - 0.8,
+  // refutasVbn's checks: a finite number above 0.2 mm²/s.
+  acceptsKv: (kv) => typeof kv === 'number' && kv > 0.2 && kv < Number.POSITIVE_INFINITY,
   // d VBN/dν = 14.534 / ((ν + 0.8)·ln(ν + 0.8)); × ν/100 for one per cent.
   perPct: (kv) => ((14.534 / ((kv + 0.8) * Math.log(kv + 0.8))) * kv) / 100,
   rowScale: 1,
@@ -77,6 +84,8 @@ const ASTM_D7152: BlendCoordinates = {
   // Same functions as blending/astm-loglog.ts (ASTM D341-20 Z and its published inverse).
   toXRaw: (kv) => d341LogLogZ(kv),
   toKvRaw: (x) => kvFromD341LogLogZ(x),
+  // astmLogLog's checks: a finite number from the D341-20 minimum up.
+  acceptsKv: (kv) => typeof kv === 'number' && kv >= D341_MIN_KV && kv < Number.POSITIVE_INFINITY,
   // d/dν log₁₀ log₁₀(ν + 0.7) = 1 / (ln10² · log₁₀(ν + 0.7) · (ν + 0.7)); × ν/100. (The D341-20 term
   // changes this local scale by less than 0.1 % above 2 mm²/s; it only weighs the 'closest' distance.)
   perPct: (kv) => ((1 / (Math.LN10 * Math.LN10 * Math.log10(kv + 0.7) * (kv + 0.7))) * kv) / 100,

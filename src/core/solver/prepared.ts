@@ -200,8 +200,10 @@ export function prepareEngine(
   const usableIndices: number[] = [];
   for (let i = 0; i < n; i++) {
     const k = components[i]!;
-    x40.push(coords.toX(k.kv40));
-    x100.push(coords.toX(k.kv100));
+    // The checked toX only where it would throw (same value either way): the stock's two
+    // blending coordinates are its only logarithms of the preparation.
+    x40.push(coords.acceptsKv(k.kv40) ? coords.toXRaw(k.kv40) : coords.toX(k.kv40));
+    x100.push(coords.acceptsKv(k.kv100) ? coords.toXRaw(k.kv100) : coords.toX(k.kv100));
     invRho.push(1 / k.density15);
     c.push(coords.basisWeight(k.kv40, k.kv100, k.density15));
     ap.push(k.anilinePoint === null ? Number.NaN : k.anilinePoint);
@@ -212,8 +214,8 @@ export function prepareEngine(
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
   }
-  const bandA = coords.toX(targets.kv40Min);
-  const bandB = coords.toX(targets.kv40Max);
+  const bandA = coords.acceptsKv(targets.kv40Min) ? coords.toXRaw(targets.kv40Min) : coords.toX(targets.kv40Min);
+  const bandB = coords.acceptsKv(targets.kv40Max) ? coords.toXRaw(targets.kv40Max) : coords.toX(targets.kv40Max);
   let vi: ViBoundary | null = null;
   if (targets.minVi !== null) vi = new ViBoundary(targets.minVi, coords);
   let reference: ClosestReference | null = null;

@@ -31,7 +31,7 @@
  */
 import { D2270_KV100 as TABLE_KV100, D2270_L as TABLE_L, D2270_H as TABLE_H } from '../viscosity/d2270-table1';
 import { VI_MIN_KV100, referenceViscositiesInto } from '../viscosity/viscosity-index';
-import type { BlendCoordinates } from './coordinates';
+import { blendCoordinates, type BlendCoordinates } from './coordinates';
 
 /** A linear lower bound X100 ≥ alpha + beta·X40 valid on an interval of X40. */
 export interface ViChord {
@@ -104,6 +104,75 @@ const TRIPLET_MU = new Float64Array(SAMPLE_X100.length);
 const SAMPLE_E = new Float64Array(SAMPLE_X100.length);
 let tripletCount = 0;
 
+/**
+ * Refutas (blending/refutas.ts): X(ν) = A·ln(ln(ν + C)) + B, hence with s = ν + C, ℓ = ln s > 0
+ * (ν > 0.2 mm²/s):  X'(ν) = A/(s·ℓ) > 0 and X''(ν) = −A·(ℓ + 1)/(s²·ℓ²) < 0, both falling in
+ * magnitude as ν rises (the facts the closed-form bounds of `relaxationInTable` rest on).
+ */
+const VBN_A = 14.534;
+const VBN_B = 10.975;
+const VBN_C = 0.8;
+const ROWS = D2270_KV100.length;
+const REFUTAS = blendCoordinates('refutas');
+/** Refutas X100 of each Table 1 row (toXRaw, so identical to every other X of a row). */
+const REFUTAS_ROW_X100: Float64Array = D2270_KV100.map((y) => REFUTAS.toXRaw(y));
+/** Refutas X'(Y) and |X''(Y)| at each Table 1 row Y [per mm²/s, per (mm²/s)²]. */
+const REFUTAS_ROW_DX = new Float64Array(ROWS);
+const REFUTAS_ROW_DDX = new Float64Array(ROWS);
+for (let r = 0; r < ROWS; r++) {
+  const sy = (D2270_KV100[r] as number) + VBN_C;
+  const ly = Math.log(sy);
+  REFUTAS_ROW_DX[r] = VBN_A / (sy * ly);
+  REFUTAS_ROW_DDX[r] = (VBN_A * (ly + 1)) / (sy * sy * ly * ly);
+}
+/**
+ * Scratch of one `relaxationInTable` call (module memory: the core is synchronous): per Table 1
+ * row from the one below the interval to the one above it, U_max, its X, X'(U_max), |X''(U_max)|
+ * and Y^−N; the curve points (the interval's ends and the rows inside); per piece between
+ * consecutive points, bounds on h'' and h'.
+ */
+const ROW_U = new Float64Array(ROWS);
+const ROW_X40 = new Float64Array(ROWS);
+const ROW_DXU = new Float64Array(ROWS);
+const ROW_DDXU = new Float64Array(ROWS);
+const ROW_YN = new Float64Array(ROWS);
+const POINT_X40 = new Float64Array(ROWS + 2);
+const POINT_X100 = new Float64Array(ROWS + 2);
+const PIECE_H2_LO = new Float64Array(ROWS + 1);
+const PIECE_H2_HI = new Float64Array(ROWS + 1);
+const PIECE_H1_LO = new Float64Array(ROWS + 1);
+const PIECE_H1_HI = new Float64Array(ROWS + 1);
+
+/**
+ * The largest amount by which a line can exceed h on piece k of the module's point buffer
+ * (−(lower bound of h − line), the bounds of `relaxationInTable`); ≤ 0 where it cannot.
+ */
+function pieceDeficit(line: ViChord, k: number): number {
+  const x0 = POINT_X40[k] as number;
+  const x1 = POINT_X40[k + 1] as number;
+  const f0 = (POINT_X100[k] as number) - (line.alpha + line.beta * x0);
+  const f1 = (POINT_X100[k + 1] as number) - (line.alpha + line.beta * x1);
+  const w = x1 - x0;
+  const mHi = PIECE_H2_HI[k] as number;
+  const mLo = PIECE_H2_LO[k] as number;
+  let lb = Math.min(f0, f1) - (mHi > 0 ? (mHi * w * w) / 8 : 0);
+  const left = quadraticMin(f0, (PIECE_H1_LO[k] as number) - line.beta, mLo, w);
+  if (left > lb) lb = left;
+  const right = quadraticMin(f1, line.beta - (PIECE_H1_HI[k] as number), mLo, w);
+  if (right > lb) lb = right;
+  return -lb;
+}
+
+/** min over t ∈ [0, w] of f + d·t + m·t²/2. */
+function quadraticMin(f: number, d: number, m: number, w: number): number {
+  let v = Math.min(f, f + d * w + 0.5 * m * w * w);
+  if (m > 0) {
+    const t = -d / m;
+    if (t > 0 && t < w) v = Math.min(v, f + 0.5 * d * t);
+  }
+  return v;
+}
+
 export class ViBoundary {
   readonly minVi: number;
   readonly coords: BlendCoordinates;
@@ -112,6 +181,8 @@ export class ViBoundary {
   /** g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds. */
   private readonly x40AtFloor: number;
   private readonly procedureBExponent: number;
+  /** Refutas coordinates: {@link relaxation} bounds h'' in closed form inside Table 1. */
+  private readonly refutas: boolean;
 
   constructor(minVi: number, coords: BlendCoordinates) {
     this.minVi = minVi;
@@ -122,6 +193,7 @@ export class ViBoundary {
     this.procedureBExponent = minVi > 100 ? Math.log10(1 + 0.00715 * (minVi - 100)) : 0;
     // g at the floor: U_max at Y = 2.0 mm²/s, the first row of Table 1.
     this.x40AtFloor = coords.toXRaw(this.uMaxRow(0));
+    this.refutas = coords.method === 'refutas';
   }
 
   /**
@@ -327,6 +399,10 @@ export class ViBoundary {
    */
   relaxation(a: number, ha: number, b: number, hb: number): ViChord[] {
     if (!(b - a > 1e-12)) return [{ alpha: Math.min(ha, hb), beta: 0 }];
+    if (this.refutas && ha > this.x100Min && hb > ha && hb <= REFUTAS_ROW_X100[D2270_KV100.length - 1]!) {
+      const lines = this.relaxationInTable(a, ha, b, hb);
+      if (lines) return lines;
+    }
     const beta = (hb - ha) / (b - a);
     const lo = Math.min(ha, hb);
     const hi = Math.max(ha, hb);
@@ -483,6 +559,207 @@ export class ViBoundary {
         if (e > excess) excess = e;
       }
       if (excess + round > 0) line.alpha -= excess + round;
+    }
+    return lines;
+  }
+  /**
+   * {@link relaxation} for Refutas coordinates with ν100 inside Table 1 on the whole interval
+   * (h(a) above the 2.0 mm²/s floor, h(b) ≤ X(70 mm²/s)): h is sampled only at the Table 1 rows
+   * inside [a, b] (two logarithms a row) and bounded between them in closed form, so the lines are
+   * valid without sampling inside the pieces.
+   *
+   * Between two consecutive rows Y_r < Y_{r+1}, U = U_max(Y) is smooth: linear in Y for m ≤ 100
+   * (u' = (U_{r+1} − U_r)/(Y_{r+1} − Y_r), u'' = 0), and H(Y)·Y^−N with H linear for m > 100
+   * (u' = Y^−N·(H' − N·H/Y), u'' = N·Y^−N·((N + 1)·H/Y² − 2H'/Y)). With x = X40 = X(U) and
+   * h(x) = X(Y):
+   *
+   *   h'  = X'(Y) / (X'(U)·u'),
+   *   h'' = −|X''(Y)| / (u'²·X'(U)²) − X'(Y)·u'' / (u'³·X'(U)²) + X'(Y)·|X''(U)| / (u'·X'(U)³),
+   *
+   * and every factor is monotone in Y or U on the row interval, so interval arithmetic on the two
+   * rows' values bounds h' and h'' on the whole row interval (hence on any piece of it). For a line
+   * ℓ and φ = h − ℓ on a piece [x₀, x₁] of width w (φ'' = h'' ∈ [m_lo, m_hi], φ' at the ends
+   * bounded through h'), min φ is at least the largest of
+   *
+   *   min(φ(x₀), φ(x₁)) − max(m_hi, 0)·w²/8                       (below the chord of φ),
+   *   min_t φ(x₀) + (h'_lo − β)·t + m_lo·t²/2,  t ∈ [0, w]         (from the left end),
+   *   min_t φ(x₁) − (h'_hi − β)·t + m_lo·t²/2,  t ∈ [0, w]         (from the right end),
+   *
+   * and each line is lowered by the largest deficit over the pieces plus the rounding allowance.
+   * The three lines are those of the sampled form: the chord, the steepest line through (a, h(a))
+   * and the flattest through (b, h(b)) (slopes also bounded by h' on the end pieces, so they are
+   * exact at their end where h is convex there).
+   *
+   * @returns the lines, or null where a bound cannot be formed (U_max not rising; then the sampled
+   *   form is used)
+   */
+  private relaxationInTable(a: number, ha: number, b: number, hb: number): ViChord[] | null {
+    const X100 = REFUTAS_ROW_X100;
+    const last = ROWS - 1;
+    // Rows strictly inside (ha, hb): rA … rB (X100 of row 0 = x100Min < ha < hb ≤ X100 of the last).
+    let i = 0;
+    let j = last;
+    while (j - i > 1) {
+      const mid = (i + j) >> 1;
+      if ((X100[mid] as number) <= ha) i = mid;
+      else j = mid;
+    }
+    const rA = j;
+    i = rA - 1;
+    j = last;
+    while (j - i > 1) {
+      const mid = (i + j) >> 1;
+      if ((X100[mid] as number) < hb) i = mid;
+      else j = mid;
+    }
+    const rB = i;
+    // Row data from rA − 1 to rB + 1, at index r − r0 (U_max exactly as uMaxRow computes it).
+    const r0 = rA - 1;
+    const r1 = rB + 1;
+    const m = this.minVi;
+    const N = this.procedureBExponent;
+    const procB = m > 100;
+    for (let r = r0; r <= r1; r++) {
+      const q = r - r0;
+      let U: number;
+      let yN = 1;
+      if (procB) {
+        yN = Math.exp(-N * (LN_KV100[r] as number));
+        U = (D2270_H[r] as number) * yN;
+      } else U = this.uMaxRow(r);
+      const su = U + VBN_C;
+      const lu = Math.log(su);
+      ROW_U[q] = U;
+      ROW_X40[q] = VBN_A * Math.log(lu) + VBN_B;
+      ROW_DXU[q] = VBN_A / (su * lu);
+      ROW_DDXU[q] = (VBN_A * (lu + 1)) / (su * su * lu * lu);
+      ROW_YN[q] = yN;
+    }
+    // Curve points: a, the rows inside, b.
+    let np = 0;
+    POINT_X40[np] = a;
+    POINT_X100[np++] = ha;
+    for (let r = rA; r <= rB; r++) {
+      POINT_X40[np] = ROW_X40[r - r0] as number;
+      POINT_X100[np++] = X100[r] as number;
+    }
+    POINT_X40[np] = b;
+    POINT_X100[np++] = hb;
+    // Bounds of h'' and h' on each piece k, from its row interval [r0 + k, r0 + k + 1].
+    for (let k = 0; k < np - 1; k++) {
+      if (!((POINT_X40[k + 1] as number) >= (POINT_X40[k] as number))) return null;
+      const r = r0 + k;
+      const y0 = D2270_KV100[r] as number;
+      const y1 = D2270_KV100[r + 1] as number;
+      const U0 = ROW_U[k] as number;
+      const U1 = ROW_U[k + 1] as number;
+      if (!(U1 > U0)) return null;
+      let upLo: number;
+      let upHi: number;
+      let uppLo = 0;
+      let uppHi = 0;
+      if (!procB) {
+        const slope = (U1 - U0) / (y1 - y0);
+        upLo = slope;
+        upHi = slope;
+      } else {
+        const H0 = D2270_H[r] as number;
+        const H1 = D2270_H[r + 1] as number;
+        const dH = (H1 - H0) / (y1 - y0);
+        const hMin = Math.min(H0, H1);
+        const hMax = Math.max(H0, H1);
+        const iLo = dH - (N * hMax) / y0;
+        const iHi = dH - (N * hMin) / y1;
+        if (!(iLo > 0)) return null;
+        const yN0 = ROW_YN[k] as number; // Y^−N falls with Y
+        const yN1 = ROW_YN[k + 1] as number;
+        upLo = yN1 * iLo;
+        upHi = yN0 * iHi;
+        const jLo = (dH >= 0 ? (-2 * dH) / y0 : (-2 * dH) / y1) + ((N + 1) * hMin) / (y1 * y1);
+        const jHi = (dH >= 0 ? (-2 * dH) / y1 : (-2 * dH) / y0) + ((N + 1) * hMax) / (y0 * y0);
+        uppLo = N * (jLo < 0 ? yN0 : yN1) * jLo;
+        uppHi = N * (jHi > 0 ? yN0 : yN1) * jHi;
+      }
+      // A relative allowance for the rounding of the slopes.
+      upLo *= 1 - 1e-12;
+      upHi *= 1 + 1e-12;
+      const dxY0 = REFUTAS_ROW_DX[r] as number; // X'(Y) ∈ [dxY1, dxY0]
+      const dxY1 = REFUTAS_ROW_DX[r + 1] as number;
+      const ddY0 = REFUTAS_ROW_DDX[r] as number; // |X''(Y)| ∈ [ddY1, ddY0]
+      const ddY1 = REFUTAS_ROW_DDX[r + 1] as number;
+      const dxU0 = ROW_DXU[k] as number; // X'(U) ∈ [dxU1, dxU0]
+      const dxU1 = ROW_DXU[k + 1] as number;
+      const ddU0 = ROW_DDXU[k] as number; // |X''(U)| ∈ [ddU1, ddU0]
+      const ddU1 = ROW_DDXU[k + 1] as number;
+      const t1Lo = -ddY0 / (upLo * upLo * dxU1 * dxU1);
+      const t1Hi = -ddY1 / (upHi * upHi * dxU0 * dxU0);
+      const t3Lo = (dxY1 * ddU1) / (upHi * dxU0 * dxU0 * dxU0);
+      const t3Hi = (dxY0 * ddU0) / (upLo * dxU1 * dxU1 * dxU1);
+      const gLo = dxY1 / (upHi * upHi * upHi * dxU0 * dxU0);
+      const gHi = dxY0 / (upLo * upLo * upLo * dxU1 * dxU1);
+      const t2Lo = uppHi > 0 ? -uppHi * gHi : -uppHi * gLo;
+      const t2Hi = uppLo < 0 ? -uppLo * gHi : -uppLo * gLo;
+      PIECE_H2_LO[k] = t1Lo + t2Lo + t3Lo;
+      PIECE_H2_HI[k] = t1Hi + t2Hi + t3Hi;
+      PIECE_H1_LO[k] = dxY1 / (dxU0 * upHi);
+      PIECE_H1_HI[k] = dxY0 / (dxU1 * upLo);
+    }
+    // Slopes: the chord; the least secant from a (and h' on the first piece); the largest secant
+    // to b (and h' on the last piece).
+    const beta = (hb - ha) / (b - a);
+    let slopeA = Math.min(beta, PIECE_H1_LO[0] as number);
+    let slopeB = Math.max(beta, PIECE_H1_HI[np - 2] as number);
+    for (let k = 1; k < np - 1; k++) {
+      const x40 = POINT_X40[k] as number;
+      const x100 = POINT_X100[k] as number;
+      if (x40 > a) {
+        const sa = (x100 - ha) / (x40 - a);
+        if (sa < slopeA) slopeA = sa;
+      }
+      if (x40 < b) {
+        const sb = (hb - x100) / (b - x40);
+        if (sb > slopeB) slopeB = sb;
+      }
+    }
+    const lines: ViChord[] = [{ alpha: ha - beta * a, beta }];
+    if (slopeA < beta || slopeB > beta) {
+      lines.push({ alpha: ha - slopeA * a, beta: slopeA });
+      lines.push({ alpha: hb - slopeB * b, beta: slopeB });
+    }
+    // The end lines are first turned about their end until every piece but the one at that end
+    // is covered (the line drops by at least (slope change)·(distance from the end) on a piece),
+    // so they stay exact at their end; then every line is lowered by its remaining deficit.
+    if (lines.length === 3) {
+      let turnA = 0;
+      let turnB = 0;
+      for (let k = 0; k < np - 1; k++) {
+        if (k > 0) {
+          const d = pieceDeficit(lines[1] as ViChord, k) / ((POINT_X40[k] as number) - a);
+          if (d > turnA) turnA = d;
+        }
+        if (k < np - 2) {
+          const d = pieceDeficit(lines[2] as ViChord, k) / (b - (POINT_X40[k + 1] as number));
+          if (d > turnB) turnB = d;
+        }
+      }
+      if (turnA > 0) {
+        const s = slopeA - turnA;
+        lines[1] = { alpha: ha - s * a, beta: s };
+      }
+      if (turnB > 0) {
+        const s = slopeB + turnB;
+        lines[2] = { alpha: hb - s * b, beta: s };
+      }
+    }
+    const round = 1.1e-12 * Math.max(1, Math.abs(ha), Math.abs(hb));
+    for (let l = 0; l < lines.length; l++) {
+      const line = lines[l] as ViChord;
+      let deficit = -Infinity;
+      for (let k = 0; k < np - 1; k++) {
+        const d = pieceDeficit(line, k);
+        if (d > deficit) deficit = d;
+      }
+      if (deficit + round > 0) line.alpha -= deficit + round;
     }
     return lines;
   }

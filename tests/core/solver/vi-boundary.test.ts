@@ -189,3 +189,40 @@ describe('VI relaxation validity on dense random intervals', () => {
     expect(worst, where).toBeLessThanOrEqual(1e-12);
   });
 });
+
+describe('VI relaxation inside Table 1 (Refutas, closed-form bounds between rows)', () => {
+  it('its lines lie below h, and its end lines meet h at their ends', () => {
+    // property: inside Table 1 with Refutas coordinates the lines are bounded in closed form
+    // between rows (validity: the dense test above); the end lines are turned about their end, so
+    // h(a) and h(b) are met to the rounding allowance (1.1e-12 relative) — checked on random bands
+    const r = rng(4711);
+    const c = blendCoordinates('refutas');
+    const rows = Array.from(D2270_KV100);
+    let worstEnd = 0;
+    let worstValid = -Infinity;
+    for (let t = 0; t < 600; t++) {
+      const m = Math.round(r() * 180 * 2) / 2;
+      const b = new ViBoundary(m, c);
+      const y1 = 2.2 + r() * 60;
+      const y2 = Math.min(69.9, y1 * (1 + 0.002 + r() * 0.15));
+      const a = b.g(c.toX(y1));
+      const z = b.g(c.toX(y2));
+      const ha = b.h(a);
+      const hz = b.h(z);
+      const lines = b.relaxation(a, ha, z, hz);
+      const top = (x: number) => Math.max(...lines.map((l) => l.alpha + l.beta * x));
+      worstEnd = Math.max(worstEnd, (ha - top(a)) / ha, (hz - top(z)) / hz);
+      for (let k = 0; k <= 200; k++) {
+        const x100 = ha + ((hz - ha) * k) / 200;
+        const x40 = b.g(x100);
+        if (x40 >= a && x40 <= z) worstValid = Math.max(worstValid, (top(x40) - x100) / x100);
+      }
+      for (const y of rows) {
+        const x100 = c.toX(y);
+        if (x100 > ha && x100 < hz) worstValid = Math.max(worstValid, (top(b.g(x100)) - x100) / x100);
+      }
+    }
+    expect(worstValid).toBeLessThanOrEqual(1e-12);
+    expect(worstEnd).toBeLessThanOrEqual(3e-12);
+  });
+});
