@@ -1,19 +1,35 @@
-import { lazy, Suspense, useEffect, useRef, useState, type ComponentType, type LazyExoticComponent } from 'react';
+import { lazy, Suspense, useEffect, useRef, useState, type ComponentType } from 'react';
 import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
 import { FormatContext, useFormat, useUnitConversionsReady } from '../components/format';
+import { setOpeningDraw } from '../components/row-window';
 import { isDemoComponent, setRefusalWords, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
-const lazyScreens = new Map<string, LazyExoticComponent<ComponentType>>();
-function screenComponent(entry: ScreenEntry): LazyExoticComponent<ComponentType> {
-  let c = lazyScreens.get(entry.id);
+/**
+ * One component per screen for the page's life: the screen's own component when its code has
+ * already arrived (the opening screen, fetched while saved work is read), else a lazy one. A lazy
+ * component suspends at least once, and React then shows the fallback and holds the screen back
+ * for a moment (about 300 ms) when it arrives.
+ */
+const screenComponents = new Map<string, ComponentType>();
+const loadedScreens = new Map<string, ComponentType>();
+function screenComponent(entry: ScreenEntry): ComponentType {
+  let c = screenComponents.get(entry.id);
   if (!c) {
-    c = lazy(entry.load);
-    lazyScreens.set(entry.id, c);
+    c = loadedScreens.get(entry.id) ?? lazy(entry.load);
+    screenComponents.set(entry.id, c);
   }
   return c;
+}
+
+/** Fetch a screen's code (resolves, failed or not: a failed screen is reported by its lazy component). */
+function loadScreen(entry: ScreenEntry): Promise<void> {
+  return entry.load().then(
+    (m) => void loadedScreens.set(entry.id, m.default),
+    () => undefined,
+  );
 }
 
 function screenFromHash(): ScreenEntry {
@@ -46,7 +62,9 @@ export function App() {
   const savedWorkReady = useSavedWorkReady();
   // In °F the screens wait for the unit conversions (mathjs), fetched only for °F.
   const unitsReady = useUnitConversionsReady();
-  const ready = savedWorkReady && unitsReady;
+  // The opening screen is drawn once its code is here too (fetched while saved work is read).
+  const [openingCode, setOpeningCode] = useState(false);
+  const ready = savedWorkReady && unitsReady && openingCode;
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
   // The one formatter of the page, given to every screen (FormatContext); the stores' refusals
@@ -58,8 +76,13 @@ export function App() {
   useEffect(() => {
     void startSavedWork();
     // Fetch the opening screen's code while saved work is being read, not after.
-    void screenFromHash().load();
+    void loadScreen(screenFromHash()).then(() => setOpeningCode(true));
   }, []);
+
+  // Once a screen has been drawn, later screens draw every row at once.
+  useEffect(() => {
+    if (ready) setOpeningDraw(false);
+  }, [ready]);
 
   useEffect(() => {
     document.title = `${screen.label} — Blendbench`;
@@ -68,7 +91,7 @@ export function App() {
     shownId.current = screen.id;
   }, [screen]);
 
-  const Screen = screenComponent(screen);
+  const Screen = ready ? screenComponent(screen) : null;
   return (
     <FormatContext value={fmt}>
     <div className="app">
@@ -102,7 +125,7 @@ export function App() {
           <SavedWorkNotices />
           {/* On paper the frame's one-line caution is gone: the full text prints instead (the blend sheet prints its own list). */}
           {screen.id === 'blend-sheet' ? null : <CautionBanner className="print-only" />}
-          {ready ? (
+          {Screen ? (
             <ErrorBoundary resetKey={screen.id}>
               <Suspense fallback={<p className="loading">Opening {screen.label}…</p>}>
                 <Screen />

@@ -11,9 +11,29 @@
  *
  * The page (the document) is the scroll container; the rows' positions are read from the table
  * body's place in the viewport, on scroll and resize, at most once per animation frame.
+ *
+ * The page's opening screen (`inViewFirst`): its first draw holds only the rows that reach the
+ * bottom of the window (counted after layout, before the first paint) and one spacer for the rest;
+ * the rest are drawn right after the first paint, so a short table too is whole a frame later.
  */
-import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
+import { startTransition, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { flushSync } from 'react-dom';
+
+let openingDraw = false;
+/** What usually stands above a table's rows on an opening screen (header, title, toolbar) [px]: the first guess only. */
+const OPENING_ABOVE_PX = 250;
+/**
+ * The shell says whether the page's first screen is being drawn (set before the first render, cleared
+ * once a screen has been drawn): a screen may then pass `inViewFirst` to {@link useRowWindow}.
+ * Screens drawn later (navigation, a screen rendered alone) draw every row at once.
+ */
+export function setOpeningDraw(on: boolean): void {
+  openingDraw = on;
+}
+/** True while the page's first screen is being drawn (see {@link setOpeningDraw}). */
+export function isOpeningDraw(): boolean {
+  return openingDraw;
+}
 
 /** A run of rows [start, end) in the table's order: drawn, or stood in for by a spacer of `height` px. */
 export type RowSegment = { kind: 'rows'; start: number; end: number } | { kind: 'gap'; start: number; end: number; height: number };
@@ -25,6 +45,11 @@ export interface RowWindowOptions {
   estimatePx?: number;
   /** Rows drawn beyond each edge of the viewport [px]. */
   overscanPx?: number;
+  /**
+   * First draw: only the rows down to the bottom of the window (one spacer for the rest), every row
+   * right after the first paint. Read once, when the table is first drawn.
+   */
+  inViewFirst?: boolean;
 }
 
 export interface RowWindow {
@@ -103,6 +128,11 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
   const [view, setView] = useState({ top: 0, bottom: typeof window === 'undefined' ? 900 : window.innerHeight });
   const [printing, setPrinting] = useState(false);
   const windowed = keys.length > threshold && !printing;
+  // The opening draw of a table drawn whole: the first `inView` rows until the first paint.
+  const [inView, setInView] = useState<number | null>(() =>
+    options.inViewFirst && typeof window !== 'undefined' ? Math.max(1, Math.ceil((window.innerHeight - OPENING_ABOVE_PX) / estimatePx)) : null,
+  );
+  const staged = inView !== null && !windowed && !printing && inView < keys.length;
 
   const indexOf = useMemo(() => {
     const m = new Map<string, number>();
@@ -179,13 +209,45 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
     }
   });
 
+  // Opening draw: enough rows to reach the window's bottom, counted after layout (before the paint);
+  // where nothing is laid out (no layout engine) every row at once.
+  useLayoutEffect(() => {
+    if (!staged || !body) return;
+    const drawn = body.querySelectorAll<HTMLTableRowElement>(`tr[${ROW_KEY_ATTR}]`);
+    const last = drawn[drawn.length - 1];
+    const bottom = last?.getBoundingClientRect().bottom ?? 0;
+    const height = last?.getBoundingClientRect().height ?? 0;
+    if (height <= 0) setInView(null);
+    else if (bottom < window.innerHeight) setInView((n) => (n === null ? n : n + Math.ceil((window.innerHeight - bottom) / Math.min(height, estimatePx)) + 1));
+  });
+  // The rest right after the first paint (a transition: typing or a click comes first).
+  const stagedOnce = inView !== null;
+  useEffect(() => {
+    if (!stagedOnce) return;
+    let timer = 0;
+    const frame = requestAnimationFrame(() => {
+      timer = window.setTimeout(() => startTransition(() => setInView(null)));
+    });
+    return () => {
+      cancelAnimationFrame(frame);
+      window.clearTimeout(timer);
+    };
+  }, [stagedOnce]);
+
   const segments = useMemo<RowSegment[]>(() => {
+    if (staged) {
+      const rest = keys.length - inView;
+      return [
+        { kind: 'rows', start: 0, end: inView },
+        { kind: 'gap', start: inView, end: keys.length, height: rest * estimatePx },
+      ];
+    }
     if (!windowed) return keys.length ? [{ kind: 'rows', start: 0, end: keys.length }] : [];
     const t = typical.current;
     const heightOf = (k: string) => heights.current.get(k) ?? t;
     return rowSegments(keys, heightOf, view.top, view.bottom, overscanPx, pinned);
     // `measured` stands for the heights read after layout.
-  }, [windowed, keys, view, overscanPx, pinned, measured]);
+  }, [staged, inView, estimatePx, windowed, keys, view, overscanPx, pinned, measured]);
 
-  return { windowed, segments, bodyRef: setBody };
+  return { windowed: windowed || staged, segments, bodyRef: setBody };
 }

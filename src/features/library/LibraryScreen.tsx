@@ -4,7 +4,7 @@ import type { Component, ComponentCategory } from '../../core/formulation/model'
 import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { ActionNotice, DemoTag } from '../../components/notices';
 import { downloadText } from '../../components/download';
-import { DETAILS_OF_ATTR, useRowWindow } from '../../components/row-window';
+import { DETAILS_OF_ATTR, isOpeningDraw, useRowWindow } from '../../components/row-window';
 import { useFormat } from '../../components/format';
 import { isDemoComponent, libraryRoomProblem, useLibrary, useLibraryHistory, useRecipes, useSettings } from '../../state';
 import { checkComponent } from '../../state/checks';
@@ -151,10 +151,11 @@ export default function LibraryScreen() {
     [usedIn],
   );
 
-  // A long library draws only the rows near the viewport (plus the focused row and open details).
+  // A long library draws only the rows near the viewport (plus the focused row and open details);
+  // as the page's opening screen, the rows below the window follow right after the first paint.
   const keys = useMemo(() => shown.map((c) => c.id), [shown]);
   const [focusedKey, setFocusedKey] = useState<string | null>(null);
-  const rows = useRowWindow(keys, [focusedKey, expanded]);
+  const rows = useRowWindow(keys, [focusedKey, expanded], { inViewFirst: isOpeningDraw() });
   const onBodyFocus = useCallback((e: FocusEvent<HTMLTableSectionElement>) => {
     const tr = (e.target as Element).closest?.('tr[data-row-key]');
     setFocusedKey(tr ? tr.getAttribute('data-row-key') : null);

@@ -9,6 +9,7 @@ import { act, cleanup, fireEvent, render, screen } from '@testing-library/react'
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { resetDemo, useLibrary } from '../../../src/state';
 import { demoComponents } from '../../../src/state/demo';
+import { setOpeningDraw } from '../../../src/components/row-window';
 
 /** n invented stocks: the demo stocks repeated with codes INV-0001… (labelled invented). */
 function inventedLibrary(n: number) {
@@ -89,5 +90,50 @@ describe('Stocks table, long library', () => {
       window.dispatchEvent(new Event('afterprint'));
     });
     expect(drawnRows(container).length).toBe(41);
+  });
+});
+
+describe('Stocks table as the opening screen', () => {
+  afterEach(() => setOpeningDraw(false));
+
+  it('draws the rows down to the window bottom first (laid out before the paint), every row after the first paint', async () => {
+    useLibrary.setState({ components: inventedLibrary(100) });
+    setOpeningDraw(true);
+    // A laid-out table: the body starts 250 px down, every row 30 px tall (jsdom has no layout engine).
+    const real = Element.prototype.getBoundingClientRect;
+    Element.prototype.getBoundingClientRect = function (this: Element) {
+      if (this instanceof HTMLTableRowElement && this.hasAttribute('data-row-key')) {
+        const i = [...this.parentElement!.children].indexOf(this);
+        return { top: 250 + 30 * i, bottom: 280 + 30 * i, height: 30, left: 0, right: 100, width: 100, x: 0, y: 250 + 30 * i, toJSON: () => ({}) } as DOMRect;
+      }
+      return real.call(this);
+    };
+    try {
+      const { container } = render(<LibraryScreen />);
+      // jsdom's window is 768 px: first guess ceil((768 − 250) / 34) = 16 rows (bottom 730 px), then
+      // ceil((768 − 730) / 30) + 1 = 3 more, reaching 820 px (by hand).
+      expect(drawnRows(container).length).toBe(19);
+      const gaps = screen.getAllByTestId('row-gap');
+      expect(gaps).toHaveLength(1);
+      expect(gaps[0]!.style.height).toBe(`${(100 - 19) * 34}px`);
+      expect(container.querySelector('table')!.getAttribute('aria-rowcount')).toBe('101');
+      await nextFrame();
+      await act(() => new Promise<void>((r) => setTimeout(r, 10)));
+      expect(drawnRows(container).length).toBe(100);
+      expect(screen.queryAllByTestId('row-gap')).toHaveLength(0);
+    } finally {
+      Element.prototype.getBoundingClientRect = real;
+    }
+  });
+
+  it('draws every row at once where nothing is laid out, and when not the opening screen', () => {
+    useLibrary.setState({ components: inventedLibrary(100) });
+    setOpeningDraw(true);
+    const first = render(<LibraryScreen />);
+    expect(drawnRows(first.container).length).toBe(100);
+    first.unmount();
+    setOpeningDraw(false);
+    const { container } = render(<LibraryScreen />);
+    expect(drawnRows(container).length).toBe(100);
   });
 });
