@@ -6,6 +6,11 @@ import { join } from 'node:path';
 
 let built: string | null = null;
 
+/** Use an already built folder instead (diagnostic scripts that build with their own options). */
+export function setBuiltDir(dir: string): void {
+  built = dir;
+}
+
 /** Build the app once (vite build into a fresh temp folder) and return that folder. Removed at exit. */
 export function buildAppOnce(): string {
   if (built) return built;
