@@ -36,7 +36,7 @@
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';
-import { costObjective, primaryObjective, tieBreakRow, type EngineObjective } from './objectives';
+import { costObjective, primaryObjective, tieBreakRow, type EngineObjective, type ExtraRow } from './objectives';
 import { optimise, type OptimiseContext } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
 import { hasLotSpread, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
@@ -44,6 +44,9 @@ import { hasLotSpread, inBandSeparator, probabilityOfFractions, type InBandSepar
 export * from './prepared';
 export * from './objectives';
 export { VI_ACCEPT_TOLERANCE } from './branch-and-bound';
+
+/** No extra rows (shared and frozen: only a lazy constraint's private pool is ever added to). */
+const NO_EXTRA: readonly ExtraRow[] = Object.freeze([]);
 
 /** A solved blend in plain numbers (the fast path's answer). */
 export interface EngineOptimal {
@@ -113,18 +116,20 @@ export function solvePrepared(
   const groups = options.groups ?? ALL_GROUP_SET;
   const t = P.targets;
   // Variables: the subset's usable components plus every forced one.
-  let vars: number[];
-  if (subset === null) vars = P.usableIndices.slice();
+  // (Read-only from here on, so the prepared list itself serves when every usable one may be used.)
+  let vars: readonly number[];
+  if (subset === null) vars = P.usableIndices;
   else {
-    vars = [];
+    const chosen: number[] = [];
     for (let q = 0; q < subset.length; q++) {
       const i = subset[q]!;
-      if (P.components[i]?.usable && vars.indexOf(i) < 0) vars.push(i);
+      if (P.components[i]?.usable && chosen.indexOf(i) < 0) chosen.push(i);
     }
     for (let q = 0; q < P.forced.length; q++) {
       const i = P.forced[q]!;
-      if (vars.indexOf(i) < 0 && P.components[i]!.usable) vars.push(i);
+      if (chosen.indexOf(i) < 0 && P.components[i]!.usable) chosen.push(i);
     }
+    vars = chosen;
   }
   // A forced component that cannot be used makes the problem infeasible (bounds active).
   for (const i of P.forced) {
@@ -139,21 +144,32 @@ export function solvePrepared(
     let min40 = Number.POSITIVE_INFINITY;
     let max40 = Number.NEGATIVE_INFINITY;
     let max100 = Number.NEGATIVE_INFINITY;
+    let thickest = -1;
     let minAp = Number.POSITIVE_INFINITY;
-    for (const i of vars) {
-      min40 = Math.min(min40, P.x40[i]!);
-      max40 = Math.max(max40, P.x40[i]!);
-      max100 = Math.max(max100, P.x100[i]!);
-      if (!Number.isNaN(P.ap[i]!)) minAp = Math.min(minAp, P.ap[i]!);
+    for (let q = 0; q < vars.length; q++) {
+      const i = vars[q]!;
+      const x40 = P.x40[i]!;
+      if (x40 < min40) min40 = x40;
+      if (x40 > max40) max40 = x40;
+      if (P.x100[i]! > max100) {
+        max100 = P.x100[i]!;
+        thickest = i;
+      }
+      if (P.ap[i]! < minAp) minAp = P.ap[i]!; // (false for NaN: no aniline point)
     }
     if (groupOn(groups, 'band')) {
       const eps = 1e-9;
       if (max40 < P.bandA - eps || min40 > P.bandB + eps) return { status: 'infeasible', lpCount: 0 };
       // VI: X100 ≥ h(X40) ≥ h(ν_lo) (h increasing), so the thickest stock at 100 °C must reach h(ν_lo)
       // (computed once per prepared problem); the margin (≈ 0.05 VI) keeps this test strictly on the
-      // safe side of the VI tolerance.
-      if (groupOn(groups, 'vi') && vi && vi === P.vi && max100 + 1e-3 / P.coords.rowScale < viBandFloor(P)!) {
-        return { status: 'infeasible', lpCount: 0 };
+      // safe side of the VI tolerance. h(ν_lo) is needed only when the thickest stock's own ν100 Y
+      // does not already allow ν_lo (U_max(Y) ≥ ν_lo ⇒ h(ν_lo) ≤ X(Y), U_max rising with Y): that
+      // test needs no logarithm, so a problem solved once (the plain API) mostly skips h(ν_lo).
+      if (groupOn(groups, 'vi') && vi && vi === P.vi) {
+        const kv100 = P.components[thickest]!.kv100;
+        const floor = P.cache.viFloor;
+        const sure = floor === undefined && kv100 >= VI_MIN_KV100 && vi.uMax(kv100) >= t.kv40Min;
+        if (!sure && max100 + 1e-3 / P.coords.rowScale < viBandFloor(P)!) return { status: 'infeasible', lpCount: 0 };
       }
     }
     if (groupOn(groups, 'aniline') && t.maxAnilinePoint !== null && minAp > t.maxAnilinePoint + 1e-9) {
@@ -166,7 +182,7 @@ export function solvePrepared(
   // The probability in band, as a lazy constraint of the branch and bound (qc/robust.ts).
   const pMin = options.nominal ? null : (t.minInBandProbability ?? null);
   const lazy = pMin !== null && pMin > 0 && groupOn(groups, 'band') ? inBandSeparator(P, pMin) : null;
-  const ctx: OptimiseContext = { P, vars, groups, objective, extra: [], vi, withAux, lazy };
+  const ctx: OptimiseContext = { P, vars, groups, objective, extra: NO_EXTRA, vi, withAux, lazy };
   const first = optimise(ctx);
   let lpCount = first.lpCount;
   if (first.status !== 'optimal') {

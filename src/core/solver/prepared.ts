@@ -125,10 +125,10 @@ export interface ClosestObjective {
 export type EngineObjective = RatioObjective | ClosestObjective;
 
 /**
- * One number per component, aligned with `components` (a plain array of doubles: far cheaper to
- * create per problem than a typed array, and as fast to read).
+ * One number per component, aligned with `components` (written once by `prepareEngine`, read-only
+ * afterwards).
  */
-export type Column = readonly number[];
+export type Column = Float64Array;
 
 /**
  * Per-component numbers precomputed once for a set of components, targets and mixing rule;
@@ -184,16 +184,17 @@ export function prepareEngine(
 ): PreparedProblem {
   const coords = blendCoordinates(method);
   const n = components.length;
-  // Plain arrays filled by push (packed doubles): cheaper to create than typed arrays.
-  const x40: number[] = [];
-  const x100: number[] = [];
-  const c: number[] = [];
-  const invRho: number[] = [];
-  const ap: number[] = [];
-  const price: number[] = [];
-  const ox: number[] = [];
-  const pourRel: number[] = [];
-  const flashRel: number[] = [];
+  // One typed array per column, sized once (small ones live on the heap with their object: one
+  // allocation each, no growth, less garbage than plain arrays grown by push).
+  const x40 = new Float64Array(n);
+  const x100 = new Float64Array(n);
+  const c = new Float64Array(n);
+  const invRho = new Float64Array(n);
+  const ap = new Float64Array(n);
+  const price = new Float64Array(n);
+  const ox = new Float64Array(n);
+  const pourRel = new Float64Array(n);
+  const flashRel = new Float64Array(n);
   const pourMax = targets.maxPourPoint === null ? null : pourBlendingIndex(targets.maxPourPoint);
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
   const forced: number[] = [];
@@ -202,15 +203,15 @@ export function prepareEngine(
     const k = components[i]!;
     // The checked toX only where it would throw (same value either way): the stock's two
     // blending coordinates are its only logarithms of the preparation.
-    x40.push(coords.acceptsKv(k.kv40) ? coords.toXRaw(k.kv40) : coords.toX(k.kv40));
-    x100.push(coords.acceptsKv(k.kv100) ? coords.toXRaw(k.kv100) : coords.toX(k.kv100));
-    invRho.push(1 / k.density15);
-    c.push(coords.basisWeight(k.kv40, k.kv100, k.density15));
-    ap.push(k.anilinePoint === null ? Number.NaN : k.anilinePoint);
-    price.push(k.pricePerKg);
-    ox.push(k.baseFluid ? k.oxidation : 0);
-    pourRel.push(pourMax !== null && k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN);
-    flashRel.push(flashMax !== null && k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN);
+    x40[i] = coords.acceptsKv(k.kv40) ? coords.toXRaw(k.kv40) : coords.toX(k.kv40);
+    x100[i] = coords.acceptsKv(k.kv100) ? coords.toXRaw(k.kv100) : coords.toX(k.kv100);
+    invRho[i] = 1 / k.density15;
+    c[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
+    ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
+    price[i] = k.pricePerKg;
+    ox[i] = k.baseFluid ? k.oxidation : 0;
+    pourRel[i] = pourMax !== null && k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
+    flashRel[i] = flashMax !== null && k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
   }

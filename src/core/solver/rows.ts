@@ -32,28 +32,44 @@ export interface NodeSolution {
 /**
  * Memory reused by every {@link solveNodeInto}: the dense rows, their bounds, the objective and the
  * LP workspace (the simplex tableau), each grown to the largest node seen and never shrunk. With
- * it a node LP allocates no arrays.
+ * it a node LP allocates no arrays. Between node LPs the memory is kept clean (rows zero, bounds
+ * ±∞ = absent, objective zero): each node clears only what it wrote ({@link clean}), not the
+ * worst-case block; a node that did not finish (an exception) leaves it dirty, and the next one
+ * clears it all.
  */
 class NodeScratch {
   buf = new Float64Array(256);
-  rowLo = new Float64Array(32);
-  rowHi = new Float64Array(32);
+  rowLo = new Float64Array(32).fill(Number.NEGATIVE_INFINITY);
+  rowHi = new Float64Array(32).fill(Number.POSITIVE_INFINITY);
   obj = new Float64Array(16);
   readonly lp = new LpWorkspace();
+  private dirty = false;
 
-  /** Zeroed rows (maxRows × width), bounds ±∞ (absent), zeroed objective. */
+  /** Room for maxRows × width rows, all zero with bounds absent, and a zero objective. */
   reset(maxRows: number, width: number): void {
+    if (this.dirty) {
+      this.buf.fill(0);
+      this.rowLo.fill(Number.NEGATIVE_INFINITY);
+      this.rowHi.fill(Number.POSITIVE_INFINITY);
+      this.obj.fill(0);
+    }
     const size = maxRows * width;
     if (this.buf.length < size) this.buf = new Float64Array(Math.max(size, 2 * this.buf.length));
-    else this.buf.fill(0, 0, size);
     if (this.rowLo.length < maxRows) {
-      this.rowLo = new Float64Array(Math.max(maxRows, 2 * this.rowLo.length));
-      this.rowHi = new Float64Array(this.rowLo.length);
+      this.rowLo = new Float64Array(Math.max(maxRows, 2 * this.rowLo.length)).fill(Number.NEGATIVE_INFINITY);
+      this.rowHi = new Float64Array(this.rowLo.length).fill(Number.POSITIVE_INFINITY);
     }
-    this.rowLo.fill(Number.NEGATIVE_INFINITY, 0, maxRows);
-    this.rowHi.fill(Number.POSITIVE_INFINITY, 0, maxRows);
     if (this.obj.length < width) this.obj = new Float64Array(Math.max(width, 2 * this.obj.length));
-    else this.obj.fill(0, 0, width);
+    this.dirty = true;
+  }
+
+  /** Clear what one node wrote: `used` leading entries of the rows, m rows' bounds, width objective entries. */
+  clean(used: number, m: number, width: number): void {
+    this.buf.fill(0, 0, used);
+    this.rowLo.fill(Number.NEGATIVE_INFINITY, 0, m);
+    this.rowHi.fill(Number.POSITIVE_INFINITY, 0, m);
+    this.obj.fill(0, 0, width);
+    this.dirty = false;
   }
 }
 
@@ -260,6 +276,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
       obj[fold] = 0;
     }
     const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
+    scratch.clean(o, m, width);
     if (sol.status !== 'optimal') {
       return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
     }
@@ -269,6 +286,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     return { status: 'optimal', x: sol.x, objective: sol.objective };
   }
   const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
+  scratch.clean(o, m, width);
   if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
 }

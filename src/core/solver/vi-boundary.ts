@@ -729,33 +729,46 @@ export class ViBoundary {
     // The end lines are first turned about their end until every piece but the one at that end
     // is covered (the line drops by at least (slope change)·(distance from the end) on a piece),
     // so they stay exact at their end; then every line is lowered by its remaining deficit.
+    // Deficits of the end lines on the pieces they are turned for: the largest over those pieces
+    // (≤ 0 when no turn is needed), and 0 after a turn (those pieces are then covered exactly,
+    // to rounding); only the end piece is checked again below.
+    let coveredA = -Infinity;
+    let coveredB = -Infinity;
     if (lines.length === 3) {
       let turnA = 0;
       let turnB = 0;
       for (let k = 0; k < np - 1; k++) {
         if (k > 0) {
-          const d = pieceDeficit(lines[1] as ViChord, k) / ((POINT_X40[k] as number) - a);
-          if (d > turnA) turnA = d;
+          const d = pieceDeficit(lines[1] as ViChord, k);
+          if (d > coveredA) coveredA = d;
+          const t = d / ((POINT_X40[k] as number) - a);
+          if (t > turnA) turnA = t;
         }
         if (k < np - 2) {
-          const d = pieceDeficit(lines[2] as ViChord, k) / (b - (POINT_X40[k + 1] as number));
-          if (d > turnB) turnB = d;
+          const d = pieceDeficit(lines[2] as ViChord, k);
+          if (d > coveredB) coveredB = d;
+          const t = d / (b - (POINT_X40[k + 1] as number));
+          if (t > turnB) turnB = t;
         }
       }
       if (turnA > 0) {
         const s = slopeA - turnA;
         lines[1] = { alpha: ha - s * a, beta: s };
+        coveredA = 0;
       }
       if (turnB > 0) {
         const s = slopeB + turnB;
         lines[2] = { alpha: hb - s * b, beta: s };
+        coveredB = 0;
       }
     }
     const round = 1.1e-12 * Math.max(1, Math.abs(ha), Math.abs(hb));
     for (let l = 0; l < lines.length; l++) {
       const line = lines[l] as ViChord;
-      let deficit = -Infinity;
-      for (let k = 0; k < np - 1; k++) {
+      let deficit = l === 1 ? coveredA : l === 2 ? coveredB : -Infinity;
+      const from = l === 2 ? np - 2 : 0;
+      const to = l === 1 ? 1 : np - 1;
+      for (let k = from; k < to; k++) {
         const d = pieceDeficit(line, k);
         if (d > deficit) deficit = d;
       }
