@@ -37,6 +37,33 @@ function screenFromHash(): ScreenEntry {
   return SCREENS.find((s) => s.id === id) ?? SCREENS[0]!;
 }
 
+/** Work held back until the opening screen has been drawn (run after that frame). */
+const heldBack: Array<() => void> = [];
+let openingDrawn = false;
+function afterOpeningDrawn(work: () => void): void {
+  if (openingDrawn) work();
+  else heldBack.push(work);
+}
+function openingWasDrawn(): void {
+  if (openingDrawn) return;
+  openingDrawn = true;
+  requestAnimationFrame(() =>
+    setTimeout(() => {
+      for (const work of heldBack.splice(0)) work();
+    }),
+  );
+}
+
+let openingScreen: Promise<void> | null = null;
+/**
+ * Start fetching the opening screen's code (the screen named by the address): main.tsx calls it
+ * before the first render, so the fetch runs beside the shell's first render and the reading of saved work.
+ */
+export function fetchOpeningScreen(): Promise<void> {
+  openingScreen ??= loadScreen(screenFromHash());
+  return openingScreen;
+}
+
 function useHashScreen(): ScreenEntry {
   const [screen, setScreen] = useState(screenFromHash);
   useEffect(() => {
@@ -74,14 +101,17 @@ export function App() {
   const shownId = useRef<string | null>(null);
 
   useEffect(() => {
-    void startSavedWork();
-    // Fetch the opening screen's code while saved work is being read, not after.
-    void loadScreen(screenFromHash()).then(() => setOpeningCode(true));
+    // The demo of a first start is stored once the opening screen is drawn, not before.
+    void startSavedWork({ later: afterOpeningDrawn });
+    // The opening screen's code is fetched while saved work is being read, not after.
+    void fetchOpeningScreen().then(() => setOpeningCode(true));
   }, []);
 
   // Once a screen has been drawn, later screens draw every row at once.
   useEffect(() => {
-    if (ready) setOpeningDraw(false);
+    if (!ready) return;
+    setOpeningDraw(false);
+    openingWasDrawn();
   }, [ready]);
 
   useEffect(() => {
