@@ -28,8 +28,8 @@ import type { BenchLine } from './types';
 
 const LOADS = 7;
 
-// Runs in the page before any of the app's scripts.
-const MARKER = `(() => {
+// Runs in the page before any of the app's scripts (bench/profile/first-render-trace.ts uses it too).
+export const MARKER = `(() => {
   const check = () => {
     const h = document.querySelector('main h2');
     const table = document.querySelector('main table');
@@ -69,7 +69,8 @@ interface Load {
   scripts: string[];
 }
 
-interface TraceEvent {
+/** A Chromium trace event (the fields the benches read). */
+export interface TraceEvent {
   name: string;
   ph: string;
   pid: number;
@@ -77,8 +78,9 @@ interface TraceEvent {
   ts: number;
   dur?: number;
   tdur?: number;
+  tts?: number;
   cat?: string;
-  args?: { name?: string };
+  args?: { name?: string; data?: { url?: string; functionName?: string; type?: string } };
 }
 
 /** Thread time [ms] of the top-level tasks of the main thread that marked `name`, up to the mark. */
@@ -117,7 +119,7 @@ async function oneLoad(app: ServedApp): Promise<Load> {
   }
 }
 
-const median = (xs: number[]) => {
+export const median = (xs: number[]): number => {
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;

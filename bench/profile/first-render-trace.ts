@@ -20,43 +20,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { SourceMapConsumer } from 'source-map-js';
 import { withServedApp, type ServedApp } from '../chromium';
+import { MARKER, median as benchMedian, type TraceEvent } from '../first-render.bench';
 
 const LOADS = Number(process.argv[2] ?? 5);
 const PROFILE = process.argv[3] !== 'noprofile';
 
-const MARKER = `(() => {
-  const check = () => {
-    const h = document.querySelector('main h2');
-    const table = document.querySelector('main table');
-    if (!h || h.getBoundingClientRect().height === 0 || !table) return;
-    obs.disconnect();
-    requestAnimationFrame(() => {
-      window.__bbFirstRender = performance.now();
-      performance.mark('bb-drawn');
-    });
-  };
-  const obs = new MutationObserver(check);
-  obs.observe(document, { subtree: true, childList: true });
-})();`;
+type Ev = TraceEvent;
 
-interface Ev {
-  name: string;
-  ph: string;
-  pid: number;
-  tid: number;
-  ts: number;
-  dur?: number;
-  tdur?: number;
-  tts?: number;
-  cat?: string;
-  args?: { data?: { url?: string; functionName?: string; type?: string }; name?: string };
-}
-
-const median = (xs: number[]) => {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length === 0 ? 0 : s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
-};
+const median = (xs: number[]) => (xs.length === 0 ? 0 : benchMedian(xs));
 
 function short(url: string | undefined): string {
   if (!url) return '';
@@ -192,24 +163,7 @@ async function profiled(app: ServedApp, dir: string, maps: Map<string, SourceMap
       }
     }
     for (const [id, us] of selfUs) {
-      const cf = nodes.get(id)!.callFrame;
-      let file = cf.url ? short(cf.url) : `(${cf.functionName || 'program'})`;
-      let fn = cf.functionName || '(anonymous)';
-      if (cf.url.includes('/assets/')) {
-        const asset = cf.url.replace(/^.*\/assets\//, '');
-        if (!maps.has(asset)) {
-          const p = join(dir, 'assets', `${asset}.map`);
-          maps.set(asset, existsSync(p) ? new SourceMapConsumer(JSON.parse(readFileSync(p, 'utf8'))) : null);
-        }
-        const m = maps.get(asset);
-        if (m) {
-          const pos = m.originalPositionFor({ line: cf.lineNumber + 1, column: cf.columnNumber });
-          if (pos.source) {
-            file = pos.source.replace(/^.*node_modules\//, 'nm:').replace(/^(\.\.\/)+/, '');
-            fn = `${pos.name ?? fn} ${file}:${pos.line}`;
-          }
-        }
-      }
+      const { file, fn } = resolve(nodes.get(id)!.callFrame);
       byFile.set(file, (byFile.get(file) ?? 0) + us / 1000);
       byFn.set(fn, (byFn.get(fn) ?? 0) + us / 1000);
     }
