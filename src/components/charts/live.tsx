@@ -7,7 +7,7 @@
  * charts: a small store the live layers subscribe to, so a new blend re-renders only them (a changed
  * React context value would make React search every chart's whole tree for its readers).
  */
-import { createContext, useContext, useId, useLayoutEffect, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { createContext, memo, useContext, useId, useLayoutEffect, useState, useSyncExternalStore, type ReactNode } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
@@ -106,7 +106,8 @@ function linear(scale: (v: unknown) => number | undefined, domain: readonly [num
   return (v) => p0 + ((v - domain[0]) / (domain[1] - domain[0])) * (p1 - p0);
 }
 
-function ClipToPlot({ id }: { id: string }) {
+/** The plot area as a clip path (kept when only the blend changes: it reads the chart's store). */
+const ClipToPlot = memo(function ClipToPlot({ id }: { id: string }) {
   const plot = usePlotArea();
   if (!plot) return null;
   return (
@@ -114,28 +115,53 @@ function ClipToPlot({ id }: { id: string }) {
       <rect x={plot.x} y={plot.y} width={plot.width} height={plot.height} />
     </clipPath>
   );
+});
+
+/** The chart's x and y scales (value → pixel), as recharts gives them. */
+type XScale = NonNullable<ReturnType<typeof useXAxisScale>>;
+type YScale = NonNullable<ReturnType<typeof useYAxisScale>>;
+interface Scales {
+  xs: XScale;
+  ys: YScale;
+}
+
+/**
+ * Reads the chart's scales once per chart render and hands them to `Marks`, which alone subscribes
+ * to the blend: an edit re-renders only `Marks`, without asking recharts' store for the scales again.
+ */
+function withScales<P extends object>(Marks: (props: P & Scales) => ReactNode, name: string) {
+  const Kept = memo(Marks);
+  Kept.displayName = name;
+  function WithScales(props: P) {
+    const xs = useXAxisScale();
+    const ys = useYAxisScale();
+    if (!xs || !ys) return null;
+    return <Kept {...props} xs={xs} ys={ys} />;
+  }
+  WithScales.displayName = `${name}Scales`;
+  return WithScales;
 }
 
 /**
  * The blend's straight line on the D341 chart (x = log10 T, y = log10 log10 Z in the chart's form), drawn like the
  * static lines: solid between 40 and 100 °C, faded where extrapolated, dotted below the pour point.
  */
-export function LiveD341Line({
+export const LiveD341Line = withScales(function LiveD341LineMarks({
   xDomain,
   yDomain,
   form = 'd341-20',
+  xs,
+  ys,
 }: {
   xDomain: readonly [number, number];
   yDomain: readonly [number, number];
   /** The host chart's D341 form (its axes use the same Z). */
   form?: D341Form;
-}) {
+} & Scales) {
   const live = useLiveMarks((m) => m.vt);
   const f = useFormat();
-  const xs = useXAxisScale();
-  const ys = useYAxisScale();
   const clip = useId().replace(/:/g, '');
-  if (!live || !xs || !ys || !(live.kv40 > live.kv100 && live.kv100 > 0)) return null;
+  if (!live || !(live.kv40 > live.kv100 && live.kv100 > 0)) return null;
   const px = linear(xs, xDomain);
   const py = linear(ys, yDomain);
   if (!px || !py) return null;
@@ -175,26 +201,26 @@ export function LiveD341Line({
       })}
     </g>
   );
-}
+}, 'LiveD341Line');
 
 /** The blend's point on the solvency–stability map; `toX` maps the context's x to the axis (e.g. °C → °F). */
-export function LiveMapPoint({
+export const LiveMapPoint = withScales(function LiveMapPointMarks({
   xDomain,
   yDomain,
   toX = (v) => v,
   describe,
+  xs,
+  ys,
 }: {
   xDomain: readonly [number, number];
   yDomain: readonly [number, number];
   toX?: (v: number) => number;
   /** The point's title text from its (axis) values. */
   describe?: (x: number, y: number) => string;
-}) {
+} & Scales) {
   const live = useLiveMarks((m) => m.point);
   const f = useFormat();
-  const xs = useXAxisScale();
-  const ys = useYAxisScale();
-  if (!live || !xs || !ys) return null;
+  if (!live) return null;
   const px = linear(xs, xDomain);
   const py = linear(ys, yDomain);
   if (!px || !py) return null;
@@ -203,19 +229,23 @@ export function LiveMapPoint({
       <title>{`${live.label}: ${describe ? describe(toX(live.x), live.y) : `${f.num(toX(live.x), 1)}, ${f.num(live.y, 1)}`}`}</title>
     </circle>
   );
-}
+}, 'LiveMapPoint');
 
 /**
  * Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. Each series is
  * one path (a closed rectangle per stock; a zero-width bar draws nothing) with one title listing its
  * values, so an edit changes three attributes instead of a rect and a title per bar.
  */
-export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string }) {
+export const LiveBars = withScales(function LiveBarsMarks({
+  which,
+  domain,
+  unit,
+  xs,
+  ys,
+}: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string } & Scales) {
   const bars = useLiveMarks((m) => m.bars);
   const f = useFormat();
-  const xs = useXAxisScale();
-  const ys = useYAxisScale();
-  if (!bars || !xs || !ys) return null;
+  if (!bars) return null;
   const px = linear(xs, domain);
   if (!px) return null;
   const x0 = px(0);
@@ -249,26 +279,26 @@ export function LiveBars({ which, domain, unit }: { which: 'composition' | 'cost
       })}
     </g>
   );
-}
+}, 'LiveBars');
 
 /**
  * The blend's batch distribution: the simulated histogram (shaded steps with their outline) and the
  * model's density (line), drawn like the chart's static series were, clipped to the plot area.
  */
-export function LiveDistributionMarks({
+export const LiveDistributionMarks = withScales(function LiveDistributionLayer({
   xDomain,
   yDomain,
   colours,
+  xs,
+  ys,
 }: {
   xDomain: readonly [number, number];
   yDomain: readonly [number, number];
   colours: { histogram: string; curve: string };
-}) {
+} & Scales) {
   const live = useLiveMarks((m) => m.distribution);
-  const xs = useXAxisScale();
-  const ys = useYAxisScale();
   const clip = useId().replace(/:/g, '');
-  if (!live || !xs || !ys) return null;
+  if (!live) return null;
   const px = linear(xs, xDomain);
   const py = linear(ys, yDomain);
   if (!px || !py) return null;
@@ -299,4 +329,4 @@ export function LiveDistributionMarks({
       </g>
     </g>
   );
-}
+}, 'LiveDistributionMarks');

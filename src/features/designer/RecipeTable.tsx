@@ -40,40 +40,26 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
     }
     return e;
   };
+  // Likewise one balance-choice callback per line: React rewrites a radio button's attributes
+  // whenever its props change, so a new callback at every edit would touch every row's radio.
+  const onBalanceRef = useRef(p.onBalance);
+  onBalanceRef.current = p.onBalance;
+  const balancers = useRef(new Map<string, () => void>()).current;
+  const balancerFor = (id: string) => {
+    let b = balancers.get(id);
+    if (!b) {
+      b = () => onBalanceRef.current(id);
+      balancers.set(id, b);
+    }
+    return b;
+  };
   const editable = (id: string) => !(p.rebalanceMode === 'balance' && p.balanceId === id);
   // A line without a cost (no price, or no exchange rate) leaves the total unknown rather than short.
   const totalCost = p.view.lines.some((l) => l.costPerLitre === null) ? null : p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
   return (
     <section className="recipe-table" aria-labelledby="recipe-h">
       <h3 id="recipe-h">Recipe</h3>
-      <div className="recipe-controls">
-        <fieldset className="inline">
-          <legend>Edit shares as</legend>
-          <label className="radio">
-            <input type="radio" name="basis" checked={p.basis === 'mass'} onChange={() => p.onBasis('mass')} /> mass %
-          </label>
-          <label className="radio">
-            <input type="radio" name="basis" checked={p.basis === 'volume'} onChange={() => p.onBasis('volume')} /> volume %
-          </label>
-        </fieldset>
-        <fieldset className="inline">
-          <legend>Keep 100 % by</legend>
-          <label className="radio">
-            <input type="radio" name="rebalance" checked={p.rebalanceMode === 'proportional'} onChange={() => p.onRebalanceMode('proportional')} />{' '}
-            scaling the other lines
-          </label>
-          <label className="radio">
-            <input type="radio" name="rebalance" checked={p.rebalanceMode === 'balance'} onChange={() => p.onRebalanceMode('balance')} /> a balance
-            stock
-          </label>
-        </fieldset>
-      </div>
-      <p className="rule-note" data-testid="rebalance-rule">
-        {p.rebalanceMode === 'balance'
-          ? 'When you change a line, only the balance stock (marked ●) changes to keep the total at 100 %; every other line keeps its mass fraction.'
-          : 'When you change a line, the other lines are scaled in proportion to keep the total at 100 %; the additive package keeps its treat rate.'}{' '}
-        Volume % assumes ideal mixing at 15 °C.
-      </p>
+      <RecipeControls basis={p.basis} rebalanceMode={p.rebalanceMode} onBasis={p.onBasis} onRebalanceMode={p.onRebalanceMode} />
       <table className="data-table" data-testid="recipe-lines">
         <thead>
           <tr>
@@ -126,7 +112,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
                       aria-label={`Use ${code} as balance stock`}
                       checked={p.balanceId === l.componentId}
                       disabled={isAdd}
-                      onChange={() => p.onBalance(l.componentId)}
+                      onChange={balancerFor(l.componentId)}
                     />
                   </td>
                 )}
@@ -190,5 +176,54 @@ const AddLine = memo(function AddLine({ addable, onAdd }: { addable: readonly Co
         Add
       </button>
     </form>
+  );
+});
+
+/**
+ * How shares are edited and kept at 100 %, with the rule in words (its own component: an edit of a
+ * share leaves its radio buttons untouched).
+ */
+const RecipeControls = memo(function RecipeControls({
+  basis,
+  rebalanceMode,
+  onBasis,
+  onRebalanceMode,
+}: {
+  basis: Basis;
+  rebalanceMode: RebalanceMode;
+  onBasis: (basis: Basis) => void;
+  onRebalanceMode: (mode: RebalanceMode) => void;
+}) {
+  return (
+    <>
+      <div className="recipe-controls">
+        <fieldset className="inline">
+          <legend>Edit shares as</legend>
+          <label className="radio">
+            <input type="radio" name="basis" checked={basis === 'mass'} onChange={() => onBasis('mass')} /> mass %
+          </label>
+          <label className="radio">
+            <input type="radio" name="basis" checked={basis === 'volume'} onChange={() => onBasis('volume')} /> volume %
+          </label>
+        </fieldset>
+        <fieldset className="inline">
+          <legend>Keep 100 % by</legend>
+          <label className="radio">
+            <input type="radio" name="rebalance" checked={rebalanceMode === 'proportional'} onChange={() => onRebalanceMode('proportional')} />{' '}
+            scaling the other lines
+          </label>
+          <label className="radio">
+            <input type="radio" name="rebalance" checked={rebalanceMode === 'balance'} onChange={() => onRebalanceMode('balance')} /> a balance
+            stock
+          </label>
+        </fieldset>
+      </div>
+      <p className="rule-note" data-testid="rebalance-rule">
+        {rebalanceMode === 'balance'
+          ? 'When you change a line, only the balance stock (marked ●) changes to keep the total at 100 %; every other line keeps its mass fraction.'
+          : 'When you change a line, the other lines are scaled in proportion to keep the total at 100 %; the additive package keeps its treat rate.'}{' '}
+        Volume % assumes ideal mixing at 15 °C.
+      </p>
+    </>
   );
 });
