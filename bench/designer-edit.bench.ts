@@ -35,6 +35,10 @@ const WARMUP = 10;
  * Returns the per-edit durations [ms].
  */
 const EDIT_BATCH = `async (args) => {
+  // A share cell is text until focused; focusing it puts the field in its place (as a click or Tab does).
+  // React renders the field in a microtask after the focus event.
+  document.querySelector('[aria-label="' + args.label + '"]')?.focus();
+  await new Promise((resolve) => setTimeout(resolve, 0));
   const input = document.querySelector('input[aria-label="' + args.label + '"]');
   if (!input) throw new Error('no input labelled ' + args.label);
   const setValue = Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, 'value').set;
@@ -122,6 +126,7 @@ export async function openTwelveLineRecipe(page: import('playwright-core').Page,
     await page.getByRole('button', { name: 'Add', exact: true }).click();
     const code = text.split(' — ')[0]!.trim();
     const field = page.getByLabel(`Mass % of ${code}`, { exact: true });
+    await field.click(); // the share cell becomes a field when focused
     await field.fill('3');
     await field.press('Tab');
     added.push(code);

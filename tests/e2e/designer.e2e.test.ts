@@ -41,15 +41,24 @@ describe('recipe designer', () => {
   it('recomputes while a fraction is typed, and shows the working of a number', async () => {
     const { page } = s;
     const before = await kvOf(page);
-    const first = page.getByTestId('recipe-lines').locator('input.pct-input').first();
-    const label = (await first.getAttribute('aria-label')) ?? '';
-    await first.fill('');
-    await first.pressSequentially('10');
+    // A share cell is text until focused; a click puts the field in its place, its share selected.
+    const cell = page.getByTestId('recipe-lines').locator('.pct-input').first();
+    const label = (await cell.getAttribute('aria-label')) ?? '';
+    await cell.click();
+    const first = page.getByLabel(label, { exact: true });
+    await expect(first.evaluate((el) => el.tagName)).resolves.toBe('INPUT');
+    await first.pressSequentially('10'); // replaces the selected share
     const after = await kvOf(page);
     expect(after).not.toBe(before);
     await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
     await first.press('Tab');
-    await expect(page.getByLabel(label).inputValue()).resolves.toBe('10.00');
+    // Left: text again, showing the stored share; Shift-Tab comes back to the field.
+    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('10.00');
+    await page.keyboard.press('Shift+Tab');
+    await expect(page.evaluate(() => [document.activeElement?.tagName, document.activeElement?.getAttribute('aria-label')])).resolves.toEqual(['INPUT', label]);
+    await expect(page.getByLabel(label, { exact: true }).inputValue()).resolves.toBe('10.00');
+    await page.keyboard.press('Escape');
+    await page.keyboard.press('Tab');
     await page.getByLabel('show working for Viscosity at 40 °C').click();
     await expect(page.locator('#working-kv40').innerText()).resolves.toMatch(/Refutas/);
     await page.getByLabel('show working for Viscosity index').click();

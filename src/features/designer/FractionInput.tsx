@@ -1,4 +1,4 @@
-import { memo, useRef, useState } from 'react';
+import { memo, useLayoutEffect, useRef, useState } from 'react';
 import { useFormat } from '../../components/format';
 
 export interface FractionInputProps {
@@ -16,6 +16,12 @@ export interface FractionInputProps {
  * alike: a valid entry stays applied and is shown as stored; a refused one stays in the cell with
  * its message (the last valid value is what the recipe holds). Escape puts back the share the line
  * had when the edit began.
+ *
+ * Until it is focused the cell is plain text in a box drawn like the field (a focusable textbox
+ * with the same label); focusing it — Tab, Shift-Tab or a click — puts the field in its place with
+ * the share selected, and leaving it (with an accepted entry) makes it text again. So an edit of
+ * one line does not rewrite the value, name and type of every other line's field, and a change of
+ * its number is laid out inside its own fixed box.
  */
 export const FractionInput = memo(function FractionInput({ label, value, onEdit, disabled }: FractionInputProps) {
   const fmt = useFormat();
@@ -27,15 +33,40 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
   const [error, setError] = useState('');
   /** The share when the current edit began (what Escape restores). */
   const start = useRef<number | null>(null);
+  /** True while the field is shown (from the cell's focus until the field is left with an accepted entry). */
+  const [editing, setEditing] = useState(false);
+  const field = useRef<HTMLInputElement>(null);
+  // The field takes the focus the text cell had, with its text selected (typing replaces it).
+  useLayoutEffect(() => {
+    if (editing && field.current && document.activeElement !== field.current) {
+      field.current.focus();
+      field.current.select();
+    }
+  }, [editing]);
   const finish = () => {
     if (error) return false;
     setDirty(false);
     start.current = null;
     return true;
   };
+  if (!editing) {
+    return (
+      <span
+        className="pct-input pct-cell"
+        role="textbox"
+        aria-label={label}
+        aria-disabled={disabled ? true : undefined}
+        tabIndex={disabled ? undefined : 0}
+        onFocus={disabled ? undefined : () => setEditing(true)}
+      >
+        {show(value)}
+      </span>
+    );
+  }
   return (
     <>
       <input
+        ref={field}
         type="text"
         inputMode="decimal"
         autoComplete="off"
@@ -46,7 +77,9 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
         size={7}
         disabled={disabled}
         value={dirty ? text : show(value)}
-        onBlur={() => void finish()}
+        onBlur={() => {
+          if (finish()) setEditing(false);
+        }}
         onKeyDown={(e) => {
           if (e.key === 'Enter') {
             if (!finish()) e.preventDefault();

@@ -9,6 +9,18 @@ import { resetDemo, settingsActions, useRecipes, useWorkspaceStore } from '../..
 function lineRow(code: string): HTMLElement {
   return screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
 }
+/** A share cell is text until focused; focusing it (as Tab or a click does) puts the field in its place. */
+function shareField(label: string): HTMLInputElement {
+  const cell = screen.getByLabelText(label);
+  if (cell instanceof HTMLInputElement) return cell;
+  act(() => cell.focus());
+  return screen.getByLabelText(label) as HTMLInputElement;
+}
+/** What a share cell shows: the field's text while it is shown, else the cell's. */
+function shareText(label: string): string {
+  const cell = screen.getByLabelText(label);
+  return cell instanceof HTMLInputElement ? cell.value : (cell.textContent ?? '');
+}
 const num = (t: string | null) => Number((t ?? '').replace(/[^\d.−-]/g, '').replace('−', '-'));
 
 beforeEach(() => {
@@ -39,24 +51,27 @@ describe('Recipe designer', () => {
   it('recomputes while a fraction is typed and keeps the recipe at 100 %', () => {
     render(<DesignerScreen />);
     const before = num(screen.getByTestId('prop-kv40').textContent);
-    const input = screen.getByLabelText('Mass % of BW-160') as HTMLInputElement;
-    fireEvent.focus(input);
+    expect(screen.getByLabelText('Mass % of BW-160').tagName).toBe('SPAN'); // text until focused
+    const input = shareField('Mass % of BW-160');
+    expect(input.tagName).toBe('INPUT');
+    expect(document.activeElement).toBe(input);
     fireEvent.change(input, { target: { value: '40' } });
     const after = num(screen.getByTestId('prop-kv40').textContent);
     expect(after).toBeLessThan(before); // more light neutral → thinner blend (Refutas is monotonic), common practice
     expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
     // the additive keeps its 2 % treat rate
-    expect((screen.getByLabelText('Mass % of BW-901') as HTMLInputElement).value).toBe('2.00');
+    expect(shareText('Mass % of BW-901')).toBe('2.00');
     fireEvent.blur(input);
-    expect(input.value).toBe('40.00');
+    // left with an accepted entry: text again, showing the stored share
+    expect(screen.getByLabelText('Mass % of BW-160').tagName).toBe('SPAN');
+    expect(shareText('Mass % of BW-160')).toBe('40.00');
   });
 
   it('a share cell: Escape restores the share the edit began with; a refused entry stays with its message on Enter and Tab', () => {
     render(<DesignerScreen />);
-    const input = screen.getByLabelText('Mass % of BW-160') as HTMLInputElement;
-    const was = input.value;
+    const was = shareText('Mass % of BW-160');
     const kv40 = screen.getByTestId('prop-kv40').textContent;
-    fireEvent.focus(input);
+    const input = shareField('Mass % of BW-160');
     fireEvent.change(input, { target: { value: '40' } });
     expect(screen.getByTestId('prop-kv40').textContent).not.toBe(kv40);
     fireEvent.keyDown(input, { key: 'Escape' });
@@ -81,14 +96,14 @@ describe('Recipe designer', () => {
     expect(screen.getByTestId('rebalance-rule').textContent).toMatch(/only the balance stock/);
     // the heaviest line (BW-190) is the default balance: its own field is not editable
     expect(screen.queryByLabelText('Mass % of BW-190')).toBeNull();
-    fireEvent.change(screen.getByLabelText('Mass % of BW-160'), { target: { value: '30' } });
+    fireEvent.change(shareField('Mass % of BW-160'), { target: { value: '30' } });
     expect(within(lineRow('BW-190')).getByText('68.00')).toBeTruthy();
   });
 
   it('edits in volume % too', () => {
     render(<DesignerScreen />);
     fireEvent.click(screen.getByLabelText('volume %'));
-    const input = screen.getByLabelText('Volume % of BW-160') as HTMLInputElement;
+    const input = shareField('Volume % of BW-160');
     fireEvent.change(input, { target: { value: '25' } });
     const s = useDesignerStore.getState();
     // invariant: mass fractions still sum to 1 (no external source)
