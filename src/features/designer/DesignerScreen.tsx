@@ -209,19 +209,7 @@ export default function DesignerScreen() {
             onSolve={onSolve}
             solving={solving}
           />
-          <label className="field">
-            <span>Blend viscosity method (also in Settings)</span>
-            <select
-              value={settings.blendMethod}
-              onChange={(e) => settingsActions.updateSettings({ blendMethod: e.target.value as BlendMethod })}
-            >
-              {BLEND_METHODS.map((m) => (
-                <option key={m} value={m}>
-                  {BLEND_METHOD_LABEL[m]}
-                </option>
-              ))}
-            </select>
-          </label>
+          <BlendMethodField method={settings.blendMethod} />
         </aside>
         <div className="designer-main">
           {priced.unpriced.length > 0 && (
@@ -272,6 +260,22 @@ export default function DesignerScreen() {
     </section>
   );
 }
+
+/** The blend viscosity rule, also in Settings (its own component: an edit does not rewrite the select). */
+const BlendMethodField = memo(function BlendMethodField({ method }: { method: BlendMethod }) {
+  return (
+    <label className="field">
+      <span>Blend viscosity method (also in Settings)</span>
+      <select value={method} onChange={(e) => settingsActions.updateSettings({ blendMethod: e.target.value as BlendMethod })}>
+        {BLEND_METHODS.map((m) => (
+          <option key={m} value={m}>
+            {BLEND_METHOD_LABEL[m]}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+});
 
 const StartFrom = memo(function StartFrom({
   recipes,
