@@ -20,8 +20,9 @@
  * prepared problem, as the substitute search calls it (goal ≤ 2 µs), and per LP. Then the solver's
  * worst cost against the grid's best feasible point (goal ≤ 0 %).
  *
- * Times are CPU time of this process (the machine is shared), each side's fastest of five rounds
- * (the same rule for every side), all sides measured in the same run: compare the ratios, not the
+ * Times are CPU time of this process (the machine is shared), each side's fastest of 25 rounds
+ * (the same rule for every side; the sides take turns round by round, so a burst of load from other
+ * work falls on all of them alike), all sides measured in the same run: compare the ratios, not the
  * absolute times, across runs. Problems are random but seeded (the same every run); stocks are
  * invented around generic typicals (from memory, tests/reference/base-stock-typicals.md).
  */
@@ -161,13 +162,6 @@ function cpuMs(f: () => void): number {
   return (c.user + c.system) / 1000;
 }
 
-/** Fastest of `rounds` CPU timings of f [ms]. */
-function fastest(rounds: number, f: () => void): number {
-  let best = Number.POSITIVE_INFINITY;
-  for (let r = 0; r < rounds; r++) best = Math.min(best, cpuMs(f));
-  return best;
-}
-
 interface HighsModel {
   options: { set(values: Record<string, boolean | number | string>): unknown };
   passModel(m: unknown): unknown;
@@ -216,7 +210,7 @@ export async function run(): Promise<BenchLine[]> {
   const highs = await mod.default();
   const hm = highs.createModel();
   hm.options.set({ output_flag: false });
-  const ROUNDS = 5;
+  const ROUNDS = 25;
   const sets = [
     { k: 3, problems: randomProblems(60, 3, 11), gridGoal: 10 },
     { k: 4, problems: randomProblems(30, 4, 12), gridGoal: 300 },
@@ -262,19 +256,34 @@ export async function run(): Promise<BenchLine[]> {
           if (Math.abs(mine.objective - solverValues[q]!) <= 1e-6 * Math.max(1, Math.abs(mine.objective))) agree++;
         });
       }
-      const REPEAT = k === 3 ? 400 : 400;
-      const gridMs = fastest(ROUNDS, () => {
-        for (const p of problems) gridSearch(p);
-      });
-      const fullMs =
-        fastest(ROUNDS, () => {
-          for (let q = 0; q < REPEAT; q++) for (const p of problems) solvePrepared(preparePlain(p));
-        }) / REPEAT;
-      const solveMs =
-        fastest(ROUNDS, () => {
-          for (let q = 0; q < REPEAT; q++) for (const P of prepared) solvePrepared(P);
-        }) / REPEAT;
-      const highsMs = fastest(ROUNDS, runHighs);
+      // The sides take turns, one round each, ROUNDS times (each keeps its fastest round): a
+      // passing burst of load on the shared machine then falls on every side alike.
+      const REPEAT = 80;
+      let gridMs = Number.POSITIVE_INFINITY;
+      let fullMs = Number.POSITIVE_INFINITY;
+      let solveMs = Number.POSITIVE_INFINITY;
+      let highsMs = Number.POSITIVE_INFINITY;
+      for (let round = 0; round < ROUNDS; round++) {
+        gridMs = Math.min(
+          gridMs,
+          cpuMs(() => {
+            for (const p of problems) gridSearch(p);
+          }),
+        );
+        fullMs = Math.min(
+          fullMs,
+          cpuMs(() => {
+            for (let q = 0; q < REPEAT; q++) for (const p of problems) solvePrepared(preparePlain(p));
+          }) / REPEAT,
+        );
+        solveMs = Math.min(
+          solveMs,
+          cpuMs(() => {
+            for (let q = 0; q < REPEAT; q++) for (const P of prepared) solvePrepared(P);
+          }) / REPEAT,
+        );
+        highsMs = Math.min(highsMs, cpuMs(runHighs));
+      }
       const n = problems.length;
       const perProblemUs = (ms: number) => (1000 * ms) / n;
       lines.push(

@@ -165,11 +165,20 @@ export function solvePrepared(
       // safe side of the VI tolerance. h(ν_lo) is needed only when the thickest stock's own ν100 Y
       // does not already allow ν_lo (U_max(Y) ≥ ν_lo ⇒ h(ν_lo) ≤ X(Y), U_max rising with Y): that
       // test needs no logarithm, so a problem solved once (the plain API) mostly skips h(ν_lo).
+      // (A ν100 found to allow ν_lo is kept, so later subsets of the same problem compare only.)
       if (groupOn(groups, 'vi') && vi && vi === P.vi) {
-        const kv100 = P.components[thickest]!.kv100;
+        const margin = 1e-3 / P.coords.rowScale;
         const floor = P.cache.viFloor;
-        const sure = floor === undefined && kv100 >= VI_MIN_KV100 && vi.uMax(kv100) >= t.kv40Min;
-        if (!sure && max100 + 1e-3 / P.coords.rowScale < viBandFloor(P)!) return { status: 'infeasible', lpCount: 0 };
+        if (floor !== undefined) {
+          if (max100 + margin < floor) return { status: 'infeasible', lpCount: 0 };
+        } else {
+          const kv100 = P.components[thickest]!.kv100;
+          const sure = P.cache.viSureKv100;
+          if (!(sure !== undefined && kv100 >= sure)) {
+            if (kv100 >= VI_MIN_KV100 && vi.uMax(kv100) >= t.kv40Min) P.cache.viSureKv100 = kv100;
+            else if (max100 + margin < viBandFloor(P)!) return { status: 'infeasible', lpCount: 0 };
+          }
+        }
       }
     }
     if (groupOn(groups, 'aniline') && t.maxAnilinePoint !== null && minAp > t.maxAnilinePoint + 1e-9) {

@@ -134,7 +134,11 @@ export class LpWorkspace {
     const t = this.tab;
     const size = width * height;
     if (t.matrix.length < size) t.matrix = new Float64Array(Math.max(size, 2 * t.matrix.length));
-    else t.matrix.fill(0, 0, size);
+    else {
+      // A plain loop: a small LP's tableau is a few dozen entries, where a fill call costs more.
+      const mat = t.matrix;
+      for (let q = 0; q < size; q++) mat[q] = 0;
+    }
     const numVars = width + height;
     if (t.positionOfVariable.length < numVars) {
       t.positionOfVariable = new Int32Array(Math.max(numVars, 2 * t.positionOfVariable.length));
@@ -153,7 +157,7 @@ export class LpWorkspace {
   x(n: number): Float64Array {
     let x = this.xs[n];
     if (!x) this.xs[n] = x = new Float64Array(n);
-    else x.fill(0);
+    else for (let j = 0; j < n; j++) x[j] = 0;
     return x;
   }
 }

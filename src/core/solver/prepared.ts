@@ -160,7 +160,15 @@ export interface PreparedProblem {
    * Lazily computed numbers shared by every solve of this problem: h at the band ends and the
    * root relaxation of the VI condition (see {@link viRoot}).
    */
-  readonly cache: { viRoot?: ViRoot; viFloor?: number; closest?: Float64Array[]; objectives?: Partial<Record<string, EngineObjective>>; inBand?: unknown };
+  readonly cache: {
+    viRoot?: ViRoot;
+    viFloor?: number;
+    /** A ν100 [mm²/s] whose U_max reaches ν_lo (any stock at least this thick passes the VI floor test). */
+    viSureKv100?: number;
+    closest?: Float64Array[];
+    objectives?: Partial<Record<string, EngineObjective>>;
+    inBand?: unknown;
+  };
   readonly reference: ClosestReference | null;
   /** Indices with min > 0 (always in every subset). */
   readonly forced: readonly number[];

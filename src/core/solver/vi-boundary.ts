@@ -127,14 +127,15 @@ for (let r = 0; r < ROWS; r++) {
 }
 /**
  * Scratch of one `relaxationInTable` call (module memory: the core is synchronous): per Table 1
- * row from the one below the interval to the one above it, U_max, its X, X'(U_max), |X''(U_max)|
+ * row from the one below the interval to the one above it, U_max, its X, 1/X'(U_max), |X''(U_max)|
  * and Y^−N; the curve points (the interval's ends and the rows inside); per piece between
  * consecutive points, bounds on h'' and h'.
  */
 const ROW_U = new Float64Array(ROWS);
 const ROW_X40 = new Float64Array(ROWS);
-const ROW_DXU = new Float64Array(ROWS);
 const ROW_DDXU = new Float64Array(ROWS);
+/** 1/X'(U_max) at each row of the call [mm²/s]. */
+const ROW_PU = new Float64Array(ROWS);
 const ROW_YN = new Float64Array(ROWS);
 const POINT_X40 = new Float64Array(ROWS + 2);
 const POINT_X100 = new Float64Array(ROWS + 2);
@@ -178,8 +179,8 @@ export class ViBoundary {
   readonly coords: BlendCoordinates;
   /** X100 of ν100 = 2.0 mm²/s, below which D2270 defines no VI. */
   readonly x100Min: number;
-  /** g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds. */
-  private readonly x40AtFloor: number;
+  /** g(x100Min), computed on first use (NaN until then): see {@link x40AtFloor}. */
+  private floorX40 = Number.NaN;
   private readonly procedureBExponent: number;
   /** Refutas coordinates: {@link relaxation} bounds h'' in closed form inside Table 1. */
   private readonly refutas: boolean;
@@ -191,9 +192,16 @@ export class ViBoundary {
     if (x100Min === undefined) FLOOR_X100.set(coords, (x100Min = coords.toX(VI_MIN_KV100)));
     this.x100Min = x100Min;
     this.procedureBExponent = minVi > 100 ? Math.log10(1 + 0.00715 * (minVi - 100)) : 0;
-    // g at the floor: U_max at Y = 2.0 mm²/s, the first row of Table 1.
-    this.x40AtFloor = coords.toXRaw(this.uMaxRow(0));
     this.refutas = coords.method === 'refutas';
+  }
+
+  /**
+   * g(x100Min): below this X40 only the ν100 ≥ 2.0 floor binds — g at the floor, U_max at
+   * Y = 2.0 mm²/s (the first row of Table 1); computed on first use (h itself does not need it).
+   */
+  private get x40AtFloor(): number {
+    if (Number.isNaN(this.floorX40)) this.floorX40 = this.coords.toXRaw(this.uMaxRow(0));
+    return this.floorX40;
   }
 
   /**
@@ -234,7 +242,7 @@ export class ViBoundary {
    * @returns X100 = X(Y) with VI(ν(X40), Y) = minVi, or X(2.0 mm²/s) where the ν100 floor binds
    */
   h(x40: number, below?: number): number {
-    if (x40 <= this.x40AtFloor) return this.x100Min;
+    // (Where the floor binds, U ≤ U_max(2.0) and yForUMax returns 2.0 itself, so h = x100Min.)
     const U = this.coords.toKvRaw(x40);
     const y = this.yForUMax(U);
     if (y > 0) return this.coords.toXRaw(y);
@@ -251,8 +259,8 @@ export class ViBoundary {
   }
 
   /**
-   * Y [mm²/s] with U_max(Y) = U [mm²/s], for U_max(2.0) ≤ U; −1 when the answer needs the search
-   * (m > 100 above Table 1).
+   * Y [mm²/s] with U_max(Y) = U [mm²/s], for U_max(2.0) ≤ U (2.0 itself below that, where the
+   * ν100 floor binds); −1 when the answer needs the search (m > 100 above Table 1).
    */
   private yForUMax(U: number): number {
     const last = D2270_KV100.length - 1;
@@ -629,10 +637,11 @@ export class ViBoundary {
       } else U = this.uMaxRow(r);
       const su = U + VBN_C;
       const lu = Math.log(su);
+      const inv = 1 / (su * lu);
       ROW_U[q] = U;
       ROW_X40[q] = VBN_A * Math.log(lu) + VBN_B;
-      ROW_DXU[q] = VBN_A / (su * lu);
-      ROW_DDXU[q] = (VBN_A * (lu + 1)) / (su * su * lu * lu);
+      ROW_PU[q] = (su * lu) / VBN_A;
+      ROW_DDXU[q] = VBN_A * (lu + 1) * inv * inv;
       ROW_YN[q] = yN;
     }
     // Curve points: a, the rows inside, b.
@@ -687,22 +696,24 @@ export class ViBoundary {
       const dxY1 = REFUTAS_ROW_DX[r + 1] as number;
       const ddY0 = REFUTAS_ROW_DDX[r] as number; // |X''(Y)| ∈ [ddY1, ddY0]
       const ddY1 = REFUTAS_ROW_DDX[r + 1] as number;
-      const dxU0 = ROW_DXU[k] as number; // X'(U) ∈ [dxU1, dxU0]
-      const dxU1 = ROW_DXU[k + 1] as number;
+      const pU0 = ROW_PU[k] as number; // 1/X'(U) ∈ [pU0, pU1]
+      const pU1 = ROW_PU[k + 1] as number;
       const ddU0 = ROW_DDXU[k] as number; // |X''(U)| ∈ [ddU1, ddU0]
       const ddU1 = ROW_DDXU[k + 1] as number;
-      const t1Lo = -ddY0 / (upLo * upLo * dxU1 * dxU1);
-      const t1Hi = -ddY1 / (upHi * upHi * dxU0 * dxU0);
-      const t3Lo = (dxY1 * ddU1) / (upHi * dxU0 * dxU0 * dxU0);
-      const t3Hi = (dxY0 * ddU0) / (upLo * dxU1 * dxU1 * dxU1);
-      const gLo = dxY1 / (upHi * upHi * upHi * dxU0 * dxU0);
-      const gHi = dxY0 / (upLo * upLo * upLo * dxU1 * dxU1);
+      const iLo = 1 / upLo; // 1/u' ∈ [iHi, iLo]
+      const iHi = 1 / upHi;
+      const t1Lo = -ddY0 * iLo * iLo * pU1 * pU1;
+      const t1Hi = -ddY1 * iHi * iHi * pU0 * pU0;
+      const t3Lo = dxY1 * ddU1 * iHi * pU0 * pU0 * pU0;
+      const t3Hi = dxY0 * ddU0 * iLo * pU1 * pU1 * pU1;
+      const gLo = dxY1 * iHi * iHi * iHi * pU0 * pU0;
+      const gHi = dxY0 * iLo * iLo * iLo * pU1 * pU1;
       const t2Lo = uppHi > 0 ? -uppHi * gHi : -uppHi * gLo;
       const t2Hi = uppLo < 0 ? -uppLo * gHi : -uppLo * gLo;
       PIECE_H2_LO[k] = t1Lo + t2Lo + t3Lo;
       PIECE_H2_HI[k] = t1Hi + t2Hi + t3Hi;
-      PIECE_H1_LO[k] = dxY1 / (dxU0 * upHi);
-      PIECE_H1_HI[k] = dxY0 / (dxU1 * upLo);
+      PIECE_H1_LO[k] = dxY1 * pU0 * iHi;
+      PIECE_H1_HI[k] = dxY0 * pU1 * iLo;
     }
     // Slopes: the chord; the least secant from a (and h' on the first piece); the largest secant
     // to b (and h' on the last piece).
