@@ -37,23 +37,6 @@ function screenFromHash(): ScreenEntry {
   return SCREENS.find((s) => s.id === id) ?? SCREENS[0]!;
 }
 
-/** Work held back until the opening screen has been drawn (run after that frame). */
-const heldBack: Array<() => void> = [];
-let openingDrawn = false;
-function afterOpeningDrawn(work: () => void): void {
-  if (openingDrawn) work();
-  else heldBack.push(work);
-}
-function openingWasDrawn(): void {
-  if (openingDrawn) return;
-  openingDrawn = true;
-  requestAnimationFrame(() =>
-    setTimeout(() => {
-      for (const work of heldBack.splice(0)) work();
-    }),
-  );
-}
-
 let openingScreen: Promise<void> | null = null;
 /**
  * Start fetching the opening screen's code (the screen named by the address): main.tsx calls it
@@ -89,9 +72,9 @@ export function App() {
   const savedWorkReady = useSavedWorkReady();
   // In °F the screens wait for the unit conversions (mathjs), fetched only for °F.
   const unitsReady = useUnitConversionsReady();
-  // The opening screen is drawn once its code is here too (fetched while saved work is read).
-  const [openingCode, setOpeningCode] = useState(false);
-  const ready = savedWorkReady && unitsReady && openingCode;
+  // A screen is drawn once saved work is in the stores and the opening screen's code is here.
+  const [started, setStarted] = useState(false);
+  const ready = savedWorkReady && unitsReady && started;
   const screen = useHashScreen();
   const mainRef = useRef<HTMLElement>(null);
   // The one formatter of the page, given to every screen (FormatContext); the stores' refusals
@@ -101,17 +84,14 @@ export function App() {
   const shownId = useRef<string | null>(null);
 
   useEffect(() => {
-    // The demo of a first start is stored once the opening screen is drawn, not before.
-    void startSavedWork({ later: afterOpeningDrawn });
-    // The opening screen's code is fetched while saved work is being read, not after.
-    void fetchOpeningScreen().then(() => setOpeningCode(true));
+    // The screen is drawn once every store holds its saved copy (the stores say "ready" a moment
+    // before their state is set) and the opening screen's code, fetched meanwhile, is here.
+    void Promise.allSettled([startSavedWork(), fetchOpeningScreen()]).then(() => setStarted(true));
   }, []);
 
   // Once a screen has been drawn, later screens draw every row at once.
   useEffect(() => {
-    if (!ready) return;
-    setOpeningDraw(false);
-    openingWasDrawn();
+    if (ready) setOpeningDraw(false);
   }, [ready]);
 
   useEffect(() => {

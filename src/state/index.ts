@@ -266,26 +266,19 @@ let stopWatching: Array<() => void> = [];
 /**
  * Load saved work (all stores), save the demo on a first start, count edits for the backup
  * reminder, follow saves made in other tabs, and ask the browser for persistent storage.
- * `later` runs the first start's save and the storage request when it likes (the shell: once the
- * opening screen is drawn); without it they run at once. Idempotent; the shell calls it once.
+ * Idempotent; the shell calls it once.
  */
-export function startSavedWork(opts: { requestPersistence?: boolean; later?: (work: () => void) => void } = {}): Promise<void> {
+export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
   started ??= (async () => {
     await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings(), rehydrate.workspace()]);
     // Recipes saved before stock data were recorded: record the library as it is now, once.
     useRecipesStore.getState().recordMissingStockBasis(useLibraryStore.getState().components);
     useLibraryStore.temporal.getState().clear();
     useRecipesStore.temporal.getState().clear();
-    // A first start stores the demo, and the browser is asked to keep the storage: now, or when the
-    // caller says (the shell: after the first paint). An edit made before then saves its store by
-    // itself, every record of it.
-    const saveFresh = () => {
-      const status = useStorageStatus.getState().stores;
-      for (const key of ['library', 'recipes', 'settings', 'workspace'] as const) {
-        if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
-      }
-      if (opts.requestPersistence !== false) void requestPersistentStorage();
-    };
+    const status = useStorageStatus.getState().stores;
+    for (const key of ['library', 'recipes', 'settings', 'workspace'] as const) {
+      if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
+    }
     let external = false;
     stopWatching.push(
       useLibraryStore.subscribe((s, p) => {
@@ -316,8 +309,7 @@ export function startSavedWork(opts: { requestPersistence?: boolean; later?: (wo
       registerApplier('settings', (d) => useSettingsStore.setState(d as { settings: Settings })),
       onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
-    if (opts.later) opts.later(saveFresh);
-    else saveFresh();
+    if (opts.requestPersistence !== false) void requestPersistentStorage();
   })();
   return started;
 }
