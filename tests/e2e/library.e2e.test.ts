@@ -8,7 +8,11 @@ import { launch, screenshot, type Session, stored } from './support';
 import { largeLibraryCsv } from '../helpers/large-library';
 
 async function libraryRowCount(page: Page): Promise<number> {
-  return page.getByRole('table', { name: 'Component library' }).locator(':scope > tbody > tr:not(.details-row)').count();
+  const table = page.getByRole('table', { name: 'Component library' });
+  // A small library is drawn whole, but the page's opening draw holds only the rows down to the
+  // window's bottom (the table carries aria-rowcount meanwhile); the rest follow after the first paint.
+  await table.and(page.locator(':not([aria-rowcount])')).waitFor();
+  return table.locator(':scope > tbody > tr:not(.details-row)').count();
 }
 
 describe('component library and saved work', () => {
