@@ -82,13 +82,24 @@ export function blendX(P: PreparedProblem, vars: readonly number[], w: Float64Ar
   return { x40: s40 / sc, x100: s100 / sc };
 }
 
+/** ν40, ν100 [mm²/s] and VI of the last {@link viOf} call (module scratch: the core is synchronous). */
+const SEEN = { kv40: Number.NaN, kv100: Number.NaN, vi: Number.NaN };
+
 /** Unrounded VI of a blend from its coordinates; −Infinity where D2270 defines none. */
 export function viOf(P: PreparedProblem, x40: number, x100: number): number {
   const kv40 = P.coords.toKvRaw(x40);
   const kv100 = P.coords.toKvRaw(x100);
+  SEEN.kv40 = kv40;
+  SEEN.kv100 = kv100;
+  SEEN.vi = Number.NEGATIVE_INFINITY;
   if (!Number.isFinite(kv40) || !Number.isFinite(kv100)) return Number.NEGATIVE_INFINITY;
   if (!(kv100 >= VI_MIN_KV100) || !(kv100 < kv40)) return Number.NEGATIVE_INFINITY;
-  return viscosityIndexUnchecked(kv40, kv100);
+  return (SEEN.vi = viscosityIndexUnchecked(kv40, kv100));
+}
+
+/** An optimal outcome whose fractions passed the VI check, with the check's ν40, ν100 and VI. */
+function checkedOptimal(w: Float64Array, value: number, lpCount: number): OptimiseOutcome {
+  return { status: 'optimal', w, value, lpCount, kv40: SEEN.kv40, kv100: SEEN.kv100, vi: SEEN.vi };
 }
 
 export interface OptimiseOutcome {
@@ -98,6 +109,13 @@ export interface OptimiseOutcome {
   /** Objective value: the ratio (or the closest distance) at the optimum. */
   value: number;
   lpCount: number;
+  /**
+   * Where the VI condition was checked on `w`: the blend's ν40, ν100 [mm²/s] and unrounded VI as
+   * the check computed them (so the caller need not compute them again).
+   */
+  kv40?: number;
+  kv100?: number;
+  vi?: number;
 }
 
 /**
@@ -195,9 +213,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
   if (!w0) return { ...empty, status: 'failed', lpCount: count.lps };
   if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
   const bx0 = blendX(P, vars, w0);
-  if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) {
-    return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
-  }
+  if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) return checkedOptimal(w0, plain.objective, count.lps);
   const minAccept = vi.minVi - VI_ACCEPT_TOLERANCE;
   const open: BbNode[] = [];
   const root = bandOn && vi === P.vi ? viRoot(P) : null;
@@ -223,9 +239,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
       continue;
     }
     const bx = blendX(P, vars, w);
-    if (viOf(P, bx.x40, bx.x100) >= minAccept) {
-      return { status: 'optimal', w, value: node.sol.objective, lpCount: count.lps };
-    }
+    if (viOf(P, bx.x40, bx.x100) >= minAccept) return checkedOptimal(w, node.sol.objective, count.lps);
     // Split at the solution's X40, kept away from the ends so both children shrink.
     const span = node.b - node.a;
     if (!(span > 1e-10)) continue; // a point interval whose chord is exact cannot improve

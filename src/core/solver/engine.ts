@@ -37,7 +37,7 @@
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';
 import { costObjective, primaryObjective, tieBreakRow, type EngineObjective, type ExtraRow } from './objectives';
-import { optimise, type OptimiseContext } from './branch-and-bound';
+import { optimise, type OptimiseContext, type OptimiseOutcome } from './branch-and-bound';
 import type { ViBoundary } from './vi-boundary';
 import { hasLotSpread, inBandSeparator, probabilityOfFractions, type InBandSeparator } from '../qc/robust';
 
@@ -200,15 +200,19 @@ export function solvePrepared(
       : { status: 'infeasible', lpCount };
   }
   let w = first.w;
+  let used: OptimiseOutcome = first;
   const isCost = objective.kind === 'ratio' && objective.num === P.price && objective.den === P.invRho;
   if (!isCost && !options.noTieBreak && options.objective === undefined) {
     // Lexicographic tie-break: least cost per litre among recipes within a hair of the optimum.
     const extra = tieBreakRow(P, objective, first.value);
     const second = optimise({ ...ctx, objective: costObjective(P), extra: [extra] });
     lpCount += second.lpCount;
-    if (second.status === 'optimal') w = second.w;
+    if (second.status === 'optimal') {
+      w = second.w;
+      used = second;
+    }
   }
-  const out = finish(P, vars, w, first.value, lpCount, lazy);
+  const out = finish(P, vars, w, first.value, lpCount, lazy, used);
   if (lazy && options.certify) {
     // Certificate: the same problem with cuts for level p itself (valid for every blend that meets
     // it), solved without new cuts — an outer approximation, so its optimum is a lower bound.
@@ -218,7 +222,11 @@ export function solvePrepared(
   }
   return out;
 }
-/** Properties of a solution in plain numbers (the same equations as the core). */
+/**
+ * Properties of a solution in plain numbers (the same equations as the core). ν40, ν100 and the VI
+ * are taken from the VI check of the branch and bound where it computed them on these very
+ * fractions (no simplex dust dropped), else computed here.
+ */
 function finish(
   P: PreparedProblem,
   vars: readonly number[],
@@ -226,6 +234,7 @@ function finish(
   value: number,
   lpCount: number,
   lazy: InBandSeparator | null,
+  checked: OptimiseOutcome,
 ): EngineOptimal {
   const massFractions = new Float64Array(P.n);
   let sv = 0;
@@ -235,15 +244,20 @@ function finish(
   // Drop simplex dust (< 1e-6, far below any weighing precision; moves ν40 by < 1e-5 relative
   // and VI by < 0.002) and renormalise to Σ = 1.
   let total = 0;
+  let dropped = false;
   const raw = lazy ? w.slice() : null;
   for (let j = 0; j < vars.length; j++) {
-    if (w[j]! < 1e-6) w[j] = 0;
+    if (w[j]! < 1e-6 && w[j] !== 0) {
+      w[j] = 0;
+      dropped = true;
+    }
     total += w[j]!;
   }
   for (let j = 0; j < vars.length; j++) w[j] = w[j]! / total;
   // A recipe accepted for its probability in band keeps it: if dropping the dust would cost the
   // probability, the fractions stay as solved.
   if (raw && probabilityOfFractions(P, vars, w) < lazy!.p) w.set(raw);
+  const reuse = !dropped && !raw && checked.vi !== undefined;
   // Blend X40 and X100 in the same pass (as blendX: Σ cᵢwᵢXᵢ / Σ cᵢwᵢ).
   let sc = 0;
   let s40 = 0;
@@ -252,10 +266,12 @@ function finish(
     const i = vars[j]!;
     const wi = w[j]!;
     massFractions[i] = wi;
-    const cw = P.c[i]! * wi;
-    sc += cw;
-    s40 += cw * P.x40[i]!;
-    s100 += cw * P.x100[i]!;
+    if (!reuse) {
+      const cw = P.c[i]! * wi;
+      sc += cw;
+      s40 += cw * P.x40[i]!;
+      s100 += cw * P.x100[i]!;
+    }
     sv += wi * P.invRho[i]!;
     sp += wi * P.price[i]!;
     if (!Number.isNaN(P.ap[i]!) && wi > 0) {
@@ -263,9 +279,18 @@ function finish(
       saAp += wi * P.invRho[i]! * P.ap[i]!;
     }
   }
-  const kv40 = P.coords.toKv(s40 / sc);
-  const kv100 = P.coords.toKv(s100 / sc);
-  const vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
+  let kv40: number;
+  let kv100: number;
+  let vi: number | null;
+  if (reuse) {
+    kv40 = checked.kv40!;
+    kv100 = checked.kv100!;
+    vi = checked.vi!;
+  } else {
+    kv40 = P.coords.toKv(s40 / sc);
+    kv100 = P.coords.toKv(s100 / sc);
+    vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
+  }
   const density15 = 1 / sv;
   return {
     status: 'optimal',
