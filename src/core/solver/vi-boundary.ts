@@ -164,6 +164,45 @@ function pieceDeficit(line: ViChord, k: number): number {
   return -lb;
 }
 
+/** The result of {@link extremeSecants} (module scratch). */
+const SLOPES = { a: 0, b: 0 };
+
+/**
+ * The least secant slope from (a, ha) and the largest to (b, hb) over the points from…to − 1 of
+ * a point buffer (each X100 lowered by its margin when `mu` is given), starting from `startA` and
+ * `startB`; written to {@link SLOPES}.
+ */
+function extremeSecants(
+  x40s: Float64Array,
+  x100s: Float64Array,
+  mu: Float64Array | null,
+  from: number,
+  to: number,
+  a: number,
+  ha: number,
+  b: number,
+  hb: number,
+  startA: number,
+  startB: number,
+): void {
+  let slopeA = startA;
+  let slopeB = startB;
+  for (let k = from; k < to; k++) {
+    const x40 = x40s[k] as number;
+    const x100 = (x100s[k] as number) - (mu ? (mu[k] as number) : 0);
+    if (x40 > a) {
+      const sa = (x100 - ha) / (x40 - a);
+      if (sa < slopeA) slopeA = sa;
+    }
+    if (x40 < b) {
+      const sb = (hb - x100) / (b - x40);
+      if (sb > slopeB) slopeB = sb;
+    }
+  }
+  SLOPES.a = slopeA;
+  SLOPES.b = slopeB;
+}
+
 /** min over t ∈ [0, w] of f + d·t + m·t²/2. */
 function quadraticMin(f: number, d: number, m: number, w: number): number {
   let v = Math.min(f, f + d * w + 0.5 * m * w * w);
@@ -507,20 +546,9 @@ export class ViBoundary {
       SAMPLE_MU[ns++] = 0;
     }
     // The extreme secant slopes from each end to the samples lowered by their margins.
-    let slopeA = beta;
-    let slopeB = beta;
-    for (let k = 0; k < ns; k++) {
-      const x40 = SAMPLE_X40[k] as number;
-      const x100 = (SAMPLE_X100[k] as number) - (SAMPLE_MU[k] as number);
-      if (x40 > a) {
-        const sa = (x100 - ha) / (x40 - a);
-        if (sa < slopeA) slopeA = sa;
-      }
-      if (x40 < b) {
-        const sb = (hb - x100) / (b - x40);
-        if (sb > slopeB) slopeB = sb;
-      }
-    }
+    extremeSecants(SAMPLE_X40, SAMPLE_X100, SAMPLE_MU, 0, ns, a, ha, b, hb, beta, beta);
+    let slopeA = SLOPES.a;
+    let slopeB = SLOPES.b;
     // h's one-sided slopes at the ends (the smallest secant slope from a is at most its
     // right-hand derivative there).
     const eps = 1e-7 * Math.max(1, Math.abs(hi - lo));
@@ -718,20 +746,9 @@ export class ViBoundary {
     // Slopes: the chord; the least secant from a (and h' on the first piece); the largest secant
     // to b (and h' on the last piece).
     const beta = (hb - ha) / (b - a);
-    let slopeA = Math.min(beta, PIECE_H1_LO[0] as number);
-    let slopeB = Math.max(beta, PIECE_H1_HI[np - 2] as number);
-    for (let k = 1; k < np - 1; k++) {
-      const x40 = POINT_X40[k] as number;
-      const x100 = POINT_X100[k] as number;
-      if (x40 > a) {
-        const sa = (x100 - ha) / (x40 - a);
-        if (sa < slopeA) slopeA = sa;
-      }
-      if (x40 < b) {
-        const sb = (hb - x100) / (b - x40);
-        if (sb > slopeB) slopeB = sb;
-      }
-    }
+    extremeSecants(POINT_X40, POINT_X100, null, 1, np - 1, a, ha, b, hb, Math.min(beta, PIECE_H1_LO[0] as number), Math.max(beta, PIECE_H1_HI[np - 2] as number));
+    const slopeA = SLOPES.a;
+    const slopeB = SLOPES.b;
     const lines: ViChord[] = [{ alpha: ha - beta * a, beta }];
     if (slopeA < beta || slopeB > beta) {
       lines.push({ alpha: ha - slopeA * a, beta: slopeA });
