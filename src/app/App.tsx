@@ -5,7 +5,7 @@ import { SavedWorkNotices } from './SavedWorkNotices';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
 import { FormatContext, useFormat, useUnitConversionsReady } from '../components/format';
 import { setOpeningDraw } from '../components/row-window';
-import { isDemoComponent, setRefusalWords, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
+import { flushDeferredWrites, isDemoComponent, setRefusalWords, startSavedWork, useLibrary, useSavedWorkReady, useSettings, DEMO_PLANT } from '../state';
 
 /**
  * One component per screen for the page's life: the screen's own component when its code has
@@ -50,7 +50,10 @@ export function fetchOpeningScreen(): Promise<void> {
 function useHashScreen(): ScreenEntry {
   const [screen, setScreen] = useState(screenFromHash);
   useEffect(() => {
-    const on = () => setScreen(screenFromHash());
+    const on = () => {
+      flushDeferredWrites(); // a draft written after the frame is written before another screen shows
+      setScreen(screenFromHash());
+    };
     window.addEventListener('hashchange', on);
     return () => window.removeEventListener('hashchange', on);
   }, []);

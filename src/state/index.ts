@@ -53,7 +53,7 @@
  * entry checks shared by screens and imports in ./checks.ts; every stored field's limits in ./field-rules.ts.
  */
 import { useMemo } from 'react';
-import { useStore } from 'zustand';
+import { create, useStore } from 'zustand';
 import type { Component, Recipe } from '../core/formulation/model';
 import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../core/currency/exchange-rates';
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
@@ -85,7 +85,7 @@ export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
 export { useWorkspaceStore, fingerprint, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
-export { useStorageStatus, requestPersistentStorage, type StoreKey } from './persistence';
+export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';
 
 /** The library store hook (zustand): `useLibrary(s => s.components)`; `useLibrary.getState()` for actions. */
@@ -227,10 +227,18 @@ export function resetDemo(): void {
   useSettingsStore.getState().updateSettings(demoSettingsPatch());
 }
 
-/** True once every store has read its saved copy (or found none / an unusable one). */
+/**
+ * True once every store has read its saved copy (or found none / an unusable one) and holds it: a
+ * store's phase turns 'ready' as its copy is read, a few microtasks before the copy is in the store,
+ * and React may render in between (a screen drawn then would not see the designer's kept draft).
+ */
 export function useSavedWorkReady(): boolean {
-  return useStorageStatus((s) => Object.values(s.stores).every((st) => st.phase === 'ready'));
+  const read = useStorageStatus((s) => Object.values(s.stores).every((st) => st.phase === 'ready'));
+  return useStore(useHydration, (s) => s.done) && read;
 }
+
+/** Whether startSavedWork has put every store's saved copy into the store. */
+const useHydration = create<{ done: boolean }>(() => ({ done: false }));
 
 /** Current persisted data of a store (what `saveNow` writes). */
 export function persistedData(key: StoreKey): unknown {
@@ -271,6 +279,7 @@ let stopWatching: Array<() => void> = [];
 export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
   started ??= (async () => {
     await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings(), rehydrate.workspace()]);
+    useHydration.setState({ done: true });
     // Recipes saved before stock data were recorded: record the library as it is now, once.
     useRecipesStore.getState().recordMissingStockBasis(useLibraryStore.getState().components);
     useLibraryStore.temporal.getState().clear();
@@ -317,6 +326,7 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
 /** Tests only: allow `startSavedWork` to run again. */
 export function resetStartForTests(): void {
   started = null;
+  useHydration.setState({ done: false });
   for (const stop of stopWatching) stop();
   stopWatching = [];
 }

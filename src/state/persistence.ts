@@ -496,6 +496,7 @@ function requestSave(key: StoreKey): void {
     queues.set(key, q);
   }
   q.again = true;
+  if (holdTabOnlySaves && syncs.get(key)?.crossTab === false) return;
   if (!q.running) {
     q.running = true;
     const queue = q;
@@ -510,8 +511,77 @@ export function mergeFromOtherTab(key: StoreKey): void {
   if (st?.crossTab) requestSave(key);
 }
 
-/** Resolves when every queued save has finished (successfully or not). */
+// Deferred writes: a store updated after the frame rather than on the input's path (the designer's
+// draft) registers how to write what it holds back. It is written at once when the page is hidden or
+// left (pagehide, visibilitychange → hidden), before the app shows another screen, and before
+// `whenSaved` waits, so no edit is lost to a reload, a closed tab or a switch of screen.
+const deferredWrites = new Set<() => void>();
+let pageListeners = false;
+
+/** Register a deferred writer's flush (it writes its pending state now, if any); returns an unregister function. */
+export function registerDeferredWrite(flush: () => void): () => void {
+  deferredWrites.add(flush);
+  if (!pageListeners && typeof window !== 'undefined' && typeof document !== 'undefined') {
+    pageListeners = true;
+    window.addEventListener('pagehide', () => flushDeferredWrites(true));
+    document.addEventListener('visibilitychange', () => {
+      if (document.visibilityState === 'hidden') flushDeferredWrites(true);
+    });
+  }
+  return () => deferredWrites.delete(flush);
+}
+
+/**
+ * Write every deferred writer's pending state now (synchronously into its store, whose save starts at
+ * once). `leaving` (the page is hidden or left): a store kept for this tab only (`crossTab: false`)
+ * that has saved before is also written with one blind put issued in this task, as a save's
+ * read-then-write would not finish once the page is gone.
+ */
+export function flushDeferredWrites(leaving = false): void {
+  if (!leaving) {
+    for (const flush of [...deferredWrites]) flush();
+    return;
+  }
+  // The blind puts' transactions must come first: a save's read-then-write transaction queued before
+  // them on the same object store would hold them back until the page is gone (and both would abort).
+  holdTabOnlySaves = true;
+  try {
+    for (const flush of [...deferredWrites]) flush();
+  } finally {
+    holdTabOnlySaves = false;
+  }
+  for (const [key, st] of syncs) {
+    if (st.crossTab) continue;
+    writeLeaving(key, st);
+    // Only hidden, not gone (another tab in front): the usual save follows.
+    setTimeout(() => requestSave(key), 0);
+  }
+}
+/** While true, a tab-only store's save is not started (flushDeferredWrites writes it with a blind put). */
+let holdTabOnlySaves = false;
+
+/** One blind put of this tab's copy of a tab-only store (no merge: no other tab's records are kept in it). */
+function writeLeaving(key: StoreKey, st: SyncState): void {
+  const status = useStorageStatus.getState().stores[key];
+  if (status.phase !== 'ready' || status.savingPaused || status.lastSavedAt === null || st.latest === null) return;
+  const value = {
+    state: joinRecords(st.mine.records, st.layout, st.latest),
+    version: st.spec.version,
+    stamps: { ...st.mine.stamps },
+    gone: pruneGone(st.mine.gone, Date.now()),
+  };
+  void savedWorkDb()('readwrite', (store) => {
+    store.put(value, key);
+    store.transaction.commit?.(); // committed now, not when the (leaving) page's task ends
+    return Promise.resolve();
+  }).catch(() => {
+    /* the page is leaving: the save queued by the flush is the fallback */
+  });
+}
+
+/** Resolves when every queued save has finished (successfully or not); pending deferred writes are written first. */
 export async function whenSaved(): Promise<void> {
+  flushDeferredWrites();
   await Promise.all([...queues.values()].map((q) => q.idle));
 }
 

@@ -103,4 +103,21 @@ describe('recipe designer', () => {
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+
+  it('an edit followed at once by a reload is kept (the draft is written as the page leaves)', async () => {
+    const { page } = s;
+    const cell = page.getByTestId('recipe-lines').locator('.pct-input').first();
+    const label = (await cell.getAttribute('aria-label')) ?? '';
+    await cell.click();
+    const field = page.getByLabel(label, { exact: true });
+    await field.pressSequentially('7'); // replaces the selected share
+    await field.press('Tab');
+    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    await page.reload(); // at once: no wait for the draft's save
+    await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await page.getByText(/Restored the draft from your last session/).waitFor();
+    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
 });

@@ -5,7 +5,7 @@
  * restores it (`restoreDraft`). Holds inputs; predicted properties are derived on render.
  */
 import { create } from 'zustand';
-import { useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft } from '../../state';
+import { registerDeferredWrite, useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft } from '../../state';
 import { targetsProblems, checkText, checkNumber } from '../../state/field-rules';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
@@ -229,7 +229,24 @@ function keepable(d: DesignerDraft): boolean {
   );
 }
 
-// Keep the draft in the workspace store whenever a part of it changes.
+/** How long after the last change the draft is written to the workspace store [ms]. */
+const DRAFT_WRITE_DELAY_MS = 300;
+let draftTimer: ReturnType<typeof setTimeout> | null = null;
+
+/** Write the changed draft to the workspace store now (its save starts at once), if one is pending. */
+function writeDraft(): void {
+  if (draftTimer === null) return;
+  clearTimeout(draftTimer);
+  draftTimer = null;
+  const draft = draftOf(useDesignerStore.getState());
+  if (keepable(draft)) useWorkspaceStore.getState().setDesigner(draft);
+}
+registerDeferredWrite(writeDraft);
+
+// Keep the draft in the workspace store whenever a part of it changes: written shortly after the
+// last change, off the input's path (an edit's frame does not wait for the save); written at once
+// when the page is hidden or left, before another screen shows and before a save is awaited
+// (registerDeferredWrite), so an edit followed at once by a reload is kept.
 useDesignerStore.subscribe((s, p) => {
   if (!s.initialised) return;
   const same =
@@ -243,8 +260,8 @@ useDesignerStore.subscribe((s, p) => {
     s.dirty === p.dirty &&
     s.initialised === p.initialised;
   if (same) return;
-  const draft = draftOf(s);
-  if (keepable(draft)) useWorkspaceStore.getState().setDesigner(draft);
+  if (draftTimer !== null) clearTimeout(draftTimer);
+  draftTimer = setTimeout(writeDraft, DRAFT_WRITE_DELAY_MS);
 });
 
 /** Density lookup over a library [kg/L]; unknown ids fall back to 0.88 so a stale line cannot crash. */

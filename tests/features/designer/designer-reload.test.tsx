@@ -10,9 +10,12 @@ import { act, cleanup, render, screen } from '@testing-library/react';
 
 type StateModule = typeof import('../../../src/state');
 let previous: StateModule | null = null;
+let previousPersistence: typeof import('../../../src/state/persistence') | null = null;
 
 /** Start the app's modules afresh (as a reload does) and open the designer. */
 async function reload() {
+  // As a page leaves (pagehide), the draft written after the frame is written now and its save ends.
+  await previousPersistence?.whenSaved();
   cleanup();
   previous?.resetStartForTests();
   vi.resetModules();
@@ -21,6 +24,7 @@ async function reload() {
   const { useDesignerStore } = await import('../../../src/features/designer/store');
   const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
   previous = state;
+  previousPersistence = persistence;
   await state.startSavedWork({ requestPersistence: false });
   render(
     <StrictMode>
