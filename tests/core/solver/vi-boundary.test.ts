@@ -194,7 +194,8 @@ describe('VI relaxation inside Table 1 (Refutas, closed-form bounds between rows
   it('its lines lie below h, and its end lines meet h at their ends', () => {
     // property: inside Table 1 with Refutas coordinates the lines are bounded in closed form
     // between rows (validity: the dense test above); the end lines are turned about their end, so
-    // h(a) and h(b) are met to the rounding allowance (1.1e-12 relative) — checked on random bands
+    // h(a) and h(b) are met to the rounding allowance (1.1e-12 relative) — checked on random bands.
+    // Source of the tolerances: common practice (no source) — a few ulps of double rounding.
     const r = rng(4711);
     const c = blendCoordinates('refutas');
     const rows = Array.from(D2270_KV100);
