@@ -24,8 +24,19 @@ import { formatFixed, type NumberDisplay } from '../words/display';
 import { predictBlend } from '../formulation/blend-properties';
 import { qcReleaseTargets, sheetPrediction, type QcRow, type SheetTemperatureUnit } from '../sheet/blend-sheet';
 
-/** What kind of reason holds a sheet. */
-export type HoldKind = 'status' | 'archived' | 'withdrawn-stock' | 'missing-stock' | 'no-prediction' | 'constraint' | 'release-limit';
+/**
+ * What kind of reason holds a sheet. `batch-adjustment`: lots, a heel or an aim were entered for the
+ * batch but the recipe could not be adjusted to them, so the printed table would not match the vessel.
+ */
+export type HoldKind =
+  | 'status'
+  | 'archived'
+  | 'withdrawn-stock'
+  | 'missing-stock'
+  | 'no-prediction'
+  | 'constraint'
+  | 'release-limit'
+  | 'batch-adjustment';
 
 /** One reason, in the user's words. */
 export interface HoldReason {

@@ -28,7 +28,7 @@ import { QcPanel } from './QcPanel';
 import { probabilityText } from '../../components/format';
 import { methodText } from '../../components/notices';
 import { CorrectionSheet } from './CorrectionSheet';
-import { adjustedRecipe, correctionFor, recipeAdditive } from './qc';
+import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, recipeAdditive } from './qc';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
@@ -255,6 +255,32 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       return null;
     }
   }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC, props.deliveryTempC]);
+  // Lots, a heel or an aim entered that the recipe cannot be adjusted to: the table below would charge
+  // the saved recipe for the whole batch (a heel not counted), so the sheet is held and says why.
+  const adjustHold = useMemo((): HoldReason[] => {
+    if (!recipe || !adjusted || !hasAdjustment(qcIn)) return [];
+    const why =
+      'error' in adjusted
+        ? adjusted.error
+        : adjusted.result.status === 'infeasible'
+          ? adjusted.result.reason
+          : adjustedSheet === null
+            ? 'the adjusted component table cannot be built'
+            : null;
+    if (why === null) return [];
+    const heel = qcIn.heel.massKg ?? 0;
+    const qd0 = builtSheet?.quantityDecimals ?? 1;
+    return [
+      {
+        kind: 'batch-adjustment',
+        message:
+          `The lots, heel or aim entered for this batch cannot be used: ${why.trim().replace(/\.?$/, '.')} The component table charges the saved recipe for the whole batch` +
+          (heel > 0 ? `, without the heel of ${fmt(heel, qd0)} kg already in the vessel.` : ', not adjusted to them.'),
+      },
+    ];
+  }, [recipe, adjusted, adjustedSheet, qcIn, builtSheet, fmt]);
+  /** Every reason the blend sheet is held: the recipe's and the batch adjustment's. */
+  const sheetHold = useMemo(() => (adjustHold.length ? [...hold, ...adjustHold] : hold), [hold, adjustHold]);
   const correction = useMemo(
     () =>
       recipe
@@ -318,7 +344,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const qd = sheet?.quantityDecimals ?? 1;
   const pd = sheet?.percentDecimals ?? 2;
   const currency = sheet?.costing.available ? sheet.costing.currency : '';
-  const held = hold.length > 0;
+  const held = sheetHold.length > 0;
   const byId = new Map(components.map((c) => [c.id, c]));
   const codeOf = (id: string) => byId.get(id)?.code ?? id;
   // Exchange rates behind this recipe's costs, and its stocks that have no rate.
@@ -329,10 +355,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const changes = superseded ? shareChanges(superseded.lines, recipe.lines) : [];
   const holdId = `${id}-hold`;
 
+  // The whole batch, the heel in it: with a heel the table charges only the additions.
+  const heelLitres = heelKg > 0 ? heelKg / (qcIn.heel.density15 ?? HEEL_DEFAULT_DENSITY) : 0;
+  const batchKgText = sheet ? fmt(sheet.totalKg + heelKg, qd) : '';
+  const batchLitresText = sheet ? fmt(sheet.totalLitres + heelLitres, qd) : '';
   const batchText = sheet
-    ? sheet.batchBasis === 'kg'
-      ? `${fmt(sheet.totalKg, qd)} kg (${fmt(sheet.totalLitres, qd)} L at 15 °C)`
-      : `${fmt(sheet.totalLitres, qd)} L at 15 °C (${fmt(sheet.totalKg, qd)} kg)`
+    ? (sheet.batchBasis === 'kg' || heelKg > 0
+        ? `${batchKgText} kg (${batchLitresText} L at 15 °C)`
+        : `${batchLitresText} L at 15 °C (${batchKgText} kg)`) +
+      (heelKg > 0 ? `: heel ${fmt(heelKg, qd)} kg + additions ${fmt(sheet.totalKg, qd)} kg` : '')
     : '—';
 
   const exportCsv = () => {
@@ -401,7 +432,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           <div className="bs-hold-screen" role="alert" id={holdId}>
             <strong>{RELEASE_HOLD_LABEL}.</strong> This sheet will print with the hold and its reasons:
             <ul>
-              {hold.map((h) => (
+              {sheetHold.map((h) => (
                 <li key={h.message}>{h.message}</li>
               ))}
             </ul>
@@ -424,6 +455,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         correction={correction}
         inBand={inBand}
         releaseBand={releaseBand}
+        batchKg={builtSheet?.totalKgExact ?? null}
         onPrintCorrection={() => printDocument('correction')}
         correctionHold={corrHold}
         fmt={fmt}
@@ -444,7 +476,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           <section className="bs-hold" aria-label={RELEASE_HOLD_LABEL} data-testid="release-hold">
             <div className="bs-hold-title">{RELEASE_HOLD_LABEL}</div>
             <ul>
-              {hold.map((h) => (
+              {sheetHold.map((h) => (
                 <li key={h.message}>{h.message}</li>
               ))}
             </ul>
@@ -611,7 +643,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   <td className="bs-num">—</td>
                   <td className="bs-num">—</td>
                   <td className="bs-num bs-qty">{fmt(heelKg, qd)}</td>
-                  <td className="bs-num">{fmt(heelKg / (qcIn.heel.density15 ?? 0.88), qd)}</td>
+                  <td className="bs-num">{fmt(heelLitres, qd)}</td>
                   {sheet.metering && <td className="bs-num">—</td>}
                   <td className="bs-num">{fmt(heelKg, qd)}</td>
                   {costing && (

@@ -10,7 +10,7 @@ import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
 import type { NumberRuleKey } from '../../state/field-rules';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
-import { DEFAULT_CORRECTION_BAND_PCT, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
+import { DEFAULT_CORRECTION_BAND_PCT, HEEL_DEFAULT_DENSITY, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
 
 export interface QcPanelProps {
   recipe: Recipe;
@@ -25,6 +25,8 @@ export interface QcPanelProps {
   /** Probabilities of the recipe itself in the release band and the ISO band. */
   inBand: RecipeInBand | null;
   releaseBand: { min: number; max: number } | null;
+  /** The batch size [kg], heel included (a heel must be less), or null when none is entered. */
+  batchKg: number | null;
   onPrintCorrection: () => void;
   /** Why the correction sheet is not for release (printed on it as well); empty → no hold. */
   correctionHold: readonly HoldReason[];
@@ -208,7 +210,15 @@ export function QcPanel(props: QcPanelProps) {
         </table>
         <fieldset className="bs-qc-heel">
           <legend>Heel already in the vessel</legend>
-          <RuleField label="Heel mass" unit="kg" rule="massKg" value={qc.heel.massKg} hint="blank or 0 = empty vessel" onCommit={(v) => setHeel({ massKg: v })} />
+          <RuleField
+            label="Heel mass"
+            unit="kg"
+            rule="massKg"
+            value={qc.heel.massKg}
+            hint="blank or 0 = empty vessel"
+            also={(v) => heelOverBatch(v, props.batchKg, words)}
+            onCommit={(v) => setHeel({ massKg: v })}
+          />
           <label className="field">
             <span className="field-label">Heel is a previous batch of</span>{' '}
             <select
@@ -235,7 +245,7 @@ export function QcPanel(props: QcPanelProps) {
             </select>
           </label>
           <PairFields who="Heel" labels={['Heel ν40', 'Heel ν100']} kv40={qc.heel.kv40} kv100={qc.heel.kv100} onCommit={(patch) => setHeel(patch)} />
-          <RuleField label="Heel density" unit="kg/L" rule="density15" value={qc.heel.density15} hint="blank = 0.88" onCommit={(v) => setHeel({ density15: v })} />
+          <RuleField label="Heel density" unit="kg/L" rule="density15" value={qc.heel.density15} hint={`blank = ${fmt(HEEL_DEFAULT_DENSITY, 2)}`} onCommit={(v) => setHeel({ density15: v })} />
           <RuleField
             label="Heel additive content"
             unit="mass %"
@@ -408,6 +418,13 @@ export function QcPanel(props: QcPanelProps) {
       </details>
     </section>
   );
+}
+
+/** Why a heel of `kg` cannot be in a batch of `batchKg` (it is part of the batch), or null. */
+function heelOverBatch(kg: number, batchKg: number | null, words: { say: (x: number) => string }): string | null {
+  if (batchKg === null || !(kg > 0) || kg < batchKg) return null;
+  const say = (x: number) => words.say(Number(x.toFixed(1)));
+  return `Heel mass: ${say(kg)} kg is not less than the batch size (${say(batchKg)} kg); the heel is part of the batch. Enter a smaller heel or a larger batch size.`;
 }
 
 function safeKv(c: Component): { kv40: number; kv100: number } | null {

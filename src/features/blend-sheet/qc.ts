@@ -32,6 +32,9 @@ export function pairProblem(
   return `${who}: ν100 (${words.say(kv100)} mm²/s${from(src.kv100)}) must be below ν40 (${words.say(kv40)} mm²/s${from(src.kv40)}) — a viscosity falls as the oil warms.`;
 }
 
+/** Density at 15 °C assumed for a heel whose density is not entered [kg/L] (common practice, no source). */
+export const HEEL_DEFAULT_DENSITY = 0.88;
+
 /** Default half-width of the band a correction aims into, around the aim [%] (common practice, no source). */
 export const DEFAULT_CORRECTION_BAND_PCT = 2;
 
@@ -135,7 +138,7 @@ export function adjustedRecipe(
         massKg: heelKg,
         kv40: h.kv40,
         kv100: h.kv100,
-        density15: h.density15 ?? 0.88,
+        density15: h.density15 ?? HEEL_DEFAULT_DENSITY,
         additiveFraction: h.additiveFraction ?? additive?.massFraction ?? 0,
       };
     }

@@ -145,4 +145,43 @@ describe('Blend sheet — the QC loop', () => {
     expect(printed).toContain('The recipe is a draft: it has not been approved.');
     expect(printed).not.toContain('The correction adds');
   });
+
+  it('a heel the recipe cannot be adjusted to holds the sheet, naming the heel, instead of charging the saved recipe on top of it (plant loop defect hunt)', () => {
+    render(<BlendSheetScreen />);
+    expect(screen.queryByTestId('release-hold')).toBeNull(); // the approved demo VG 320 prints without a hold
+    // 9 000 kg of a light heel: 1 000 kg of additions cannot bring the 10 000 kg batch to the aim
+    enter(/^Heel mass/, '9000');
+    enter(/^Heel ν40/, '100');
+    enter(/^Heel ν100/, '11');
+    expect(screen.getByTestId('adjust-reason').textContent).toMatch(/cannot be reached/);
+    const printed = screen.getByTestId('release-hold').textContent!;
+    expect(printed).toMatch(/HOLD — not for release/i);
+    expect(printed).toMatch(/heel of 9000\.0 kg/);
+    expect(printed).toMatch(/cannot be reached/);
+    expect(screen.getByRole('button', { name: 'Print — HOLD — not for release' })).toBeTruthy();
+    // a heel without its viscosities is held the same way (the table would not count it)
+    enter(/^Heel ν40/, '');
+    expect(screen.getByTestId('release-hold').textContent).toMatch(/Enter the heel’s ν40 and ν100/);
+  });
+
+  it('prints the batch size with the heel in it: heel + additions = the batch (plant loop defect hunt)', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Heel mass/, '1500');
+    enter(/^Heel ν40/, '300');
+    enter(/^Heel ν100/, '23');
+    expect(screen.getByTestId('heel-row')).toBeTruthy();
+    const size = document.querySelector('.bs-batch-text')!.textContent!;
+    // 1 500 kg heel + 8 500 kg additions = the 10 000 kg batch entered (common practice (no source): the heel is part of the batch)
+    expect(size).toMatch(/^10000\.0 kg/);
+    expect(size).toMatch(/heel 1500\.0 kg \+ additions 8500\.0 kg/);
+  });
+
+  it('refuses a heel mass not below the batch size where typed, in words, keeping the stored value (plant loop defect hunt)', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Heel mass/, '12000');
+    const text = screen.getAllByRole('alert').map((a) => a.textContent).join(' ');
+    expect(text).toMatch(/Heel mass: 12000 kg is not less than the batch size \(10000 kg\)/);
+    expect(text).not.toMatch(/massKg/);
+    expect(useRecipes.getState().qc['demo-vg320']?.heel.massKg ?? null).toBeNull();
+  });
 });
