@@ -828,11 +828,20 @@ function meteringLabel(tempC: number): string {
  * displayed precision (the columns still add up to the printed totals). With a metering temperature
  * the sheet's "L at t" column follows the 15 °C litres, its header naming t (ASTM D1250-80 Table 54D).
  *
+ * With a heel (oil already in the vessel, `heel.kg` > 0) the sheet holds the additions only: the heel
+ * is the first record (charge order 0, code HEEL, no shares), every running total counts it, and the
+ * totals row is "TOTAL ADDED" (kg and litres of the additions; running total = heel + additions = the
+ * batch), as on the printed sheet.
+ *
  * @param sheet - the sheet from {@link buildBlendSheet}
- * @param options - `includePrices`: add price per kg and line cost columns (costing copy only)
+ * @param options - `includePrices`: add price per kg and line cost columns (costing copy only);
+ *   `heel`: the heel's mass [kg], its litres at 15 °C [L] and what it is (free text)
  * @returns the records; the first record's keys are the header row
  */
-export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: boolean } = {}): CsvRecord[] {
+export function blendSheetCsvRows(
+  sheet: BlendSheet,
+  options: { includePrices?: boolean; heel?: { kg: number; litres: number; description: string } } = {},
+): CsvRecord[] {
   const qd = sheet.quantityDecimals;
   const pd = sheet.percentDecimals;
   const priced = options.includePrices === true;
@@ -843,6 +852,8 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
   // the 15 °C column even when the plant meters at 15 °C.
   const meterKey = sheet.metering ? `Litres at ${meteringLabel(sheet.metering.tempC)} °C (metering)` : null;
   const costKey = `Line cost${currency ? ` (${currency})` : ''}`;
+  const heel = options.heel && options.heel.kg > 0 ? options.heel : null;
+  const heelKg = heel?.kg ?? 0;
   const records: CsvRecord[] = sheet.rows.map((r) => {
     const rec: CsvRecord = {
       'Charge order': r.chargeOrder,
@@ -855,16 +866,35 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
       'Litres at 15 °C': at(r.litres, qd),
     };
     if (meterKey) rec[meterKey] = r.litresAtMetering === null ? null : at(r.litresAtMetering, qd);
-    rec['Running total kg'] = at(r.runningKg, qd);
+    rec['Running total kg'] = at(r.runningKg + heelKg, qd);
     if (priced) {
       rec[priceKey] = r.pricePerKg === null ? null : at(r.pricePerKg, 4);
       rec[costKey] = r.lineCost === null ? null : at(r.lineCost, 2);
     }
     return rec;
   });
+  if (heel) {
+    const rec: CsvRecord = {
+      'Charge order': 0,
+      Code: 'HEEL',
+      Name: `Heel already in the vessel${heel.description.trim() ? ` (${heel.description.trim()})` : ''}`,
+      Category: 'in vessel',
+      'Mass %': null,
+      'Volume %': null,
+      kg: at(heel.kg, qd),
+      'Litres at 15 °C': at(heel.litres, qd),
+    };
+    if (meterKey) rec[meterKey] = null;
+    rec['Running total kg'] = at(heel.kg, qd);
+    if (priced) {
+      rec[priceKey] = null;
+      rec[costKey] = null;
+    }
+    records.unshift(rec);
+  }
   const total: CsvRecord = {
     'Charge order': null,
-    Code: 'TOTAL',
+    Code: heel ? 'TOTAL ADDED' : 'TOTAL',
     Name: '',
     Category: '',
     'Mass %': at(100, pd),
@@ -873,7 +903,7 @@ export function blendSheetCsvRows(sheet: BlendSheet, options: { includePrices?: 
     'Litres at 15 °C': at(sheet.totalLitres, qd),
   };
   if (meterKey) total[meterKey] = at(sheet.metering!.totalLitres, qd);
-  total['Running total kg'] = at(sheet.totalKg, qd);
+  total['Running total kg'] = at(sheet.totalKg + heelKg, qd);
   if (priced) {
     total[priceKey] = sheet.costing.available ? at(sheet.costing.perKg, 4) : null;
     total[costKey] = sheet.costing.available ? at(sheet.costing.perBatch, 2) : null;

@@ -368,7 +368,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
   const exportCsv = () => {
     if (!sheet) return;
-    const text = toCsv(blendSheetCsvRows(sheet, { includePrices: costing }));
+    const text = toCsv(blendSheetCsvRows(sheet, { includePrices: costing, heel: { kg: heelKg, litres: heelLitres, description: qcIn.heel.source } }));
     const name = csvFileName(recipe.name, recipe.revision, lot);
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);

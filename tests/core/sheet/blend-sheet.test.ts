@@ -407,6 +407,24 @@ describe('blendSheetCsvRows and cautions', () => {
     expect((costing.at(-1)!['Line cost (EUR)'] as { value: number }).value).toBeCloseTo(1120, 9);
   });
 
+  it('exports the heel already in the vessel as its first line, the running totals counting it as the printed sheet does (plant loop defect hunt)', () => {
+    const lib = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1.0)];
+    // the additions of a 1000 kg batch on a 250 kg heel: 750 kg
+    const s = buildBlendSheet(lib, recipe([['a', 0.6], ['b', 0.4]]), { kg: 750 });
+    const rows = blendSheetCsvRows(s, { heel: { kg: 250, litres: 250 / 0.88, description: 'previous batch, lot 2291' } });
+    expect(rows[0]).toMatchObject({ 'Charge order': 0, Code: 'HEEL', Category: 'in vessel', 'Mass %': null, kg: { value: 250, decimals: 1 } });
+    expect(rows[0]!.Name).toBe('Heel already in the vessel (previous batch, lot 2291)');
+    // 250 / 0.88 = 284.09 L at 15 °C, by hand
+    expect((rows[0]!['Litres at 15 °C'] as { value: number }).value).toBeCloseTo(284.0909, 3);
+    expect(rows[0]!['Running total kg']).toEqual({ value: 250, decimals: 1 });
+    // heel 250 + b 300 (charged first, heaviest) = 550, by hand
+    expect(rows[1]).toMatchObject({ Code: 'B', 'Running total kg': { value: 550, decimals: 1 } });
+    const total = rows.at(-1)!;
+    expect(total).toMatchObject({ Code: 'TOTAL ADDED', kg: { value: 750, decimals: 1 }, 'Running total kg': { value: 1000, decimals: 1 } });
+    // without a heel nothing changes
+    expect(blendSheetCsvRows(s, { heel: { kg: 0, litres: 0, description: '' } })).toEqual(blendSheetCsvRows(s));
+  });
+
   it('says laboratory confirmation is required and defers to SDS and site procedures', () => {
     const text = BLEND_SHEET_CAUTIONS.join(' ');
     expect(text).toMatch(/Laboratory confirmation/);
