@@ -144,7 +144,9 @@ export default function DesignerScreen() {
           grade: s.targets.grade,
           lines: s.lines,
           reasonForChange: reason,
-          specification: sourceRecipe?.specification,
+          // A product specification belongs to its grade: a new recipe of another grade starts blank
+          // ("Per specification") rather than printing the other grade's release limits.
+          specification: sourceRecipe && sourceRecipe.grade === s.targets.grade ? sourceRecipe.specification : undefined,
           stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
         });
       } catch (e) {
@@ -488,7 +490,16 @@ const SaveBox = memo(function SaveBox({
         <button
           type="button"
           disabled={blocked}
-          onClick={() => report(onSaveNew(finalName, reason.trim()), () => `Saved as a new draft recipe: ${finalName}.`)}
+          onClick={() =>
+            report(
+              onSaveNew(finalName, reason.trim()),
+              () =>
+                `Saved as a new draft recipe: ${finalName}.` +
+                (sourceRecipe && sourceRecipe.grade !== grade
+                  ? ` The product specification of “${sourceRecipe.name}” (VG ${sourceRecipe.grade}) was not copied to this VG ${grade} recipe: enter its release limits on Recipes.`
+                  : ''),
+            )
+          }
         >
           Save as new recipe
         </button>

@@ -160,6 +160,22 @@ describe('Recipe designer', () => {
     expect(saved.grade).toBe(320);
     expect(saved.lines.reduce((a, l) => a + l.massFraction, 0)).toBeCloseTo(1, 12);
     expect(useRecipes.getState().targets[saved.id]?.grade).toBe(320);
+    // the same grade keeps the product specification of the recipe it was started from (invented demo spec)
+    expect(saved.specification.reference).toMatch(/VG320/);
+  });
+
+  it('a new recipe saved in another grade does not carry the other grade’s product specification (plant loop defect hunt)', () => {
+    render(<DesignerScreen />);
+    fireEvent.change(screen.getByLabelText('ISO viscosity grade'), { target: { value: '460' } });
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 460 from 320' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    const saved = useRecipes.getState().recipes.at(-1)!;
+    expect(saved.name).toBe('Trial 460 from 320');
+    expect(saved.grade).toBe(460);
+    expect(saved.specification.reference).toBe('');
+    expect(saved.specification.viMin).toBeNull();
+    expect(saved.specification.pourMax).toBeNull();
+    expect(screen.getByText(/was not copied to this VG 460 recipe: enter its release limits on Recipes/)).toBeTruthy();
   });
 });
 
