@@ -13,26 +13,19 @@
  *   maps) and the heaviest functions.
  * Prints medians over the loads.
  */
-import { readFileSync, existsSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { SourceMapConsumer } from 'source-map-js';
+import type { SourceMapConsumer } from 'source-map-js';
 import { withServedApp, type ServedApp } from '../chromium';
-import { MARKER, median as benchMedian, type TraceEvent } from '../first-render.bench';
+import { MARKER, type TraceEvent } from '../first-render.bench';
+import { median, printMedians, profileTimes, short, type CpuProfile } from './trace-tools';
 
 const LOADS = Number(process.argv[2] ?? 5);
 const PROFILE = process.argv[3] !== 'noprofile';
 
 type Ev = TraceEvent;
-
-const median = (xs: number[]) => (xs.length === 0 ? 0 : benchMedian(xs));
-
-function short(url: string | undefined): string {
-  if (!url) return '';
-  return url.replace(/^.*\/assets\//, '').replace(/^https?:\/\/[^/]+\//, '/');
-}
 
 /** Self thread time [ms] per event label on the main thread up to the drawn mark. */
 function breakdown(events: Ev[]): { total: number; self: Map<string, number>; tasks: string[] } {
@@ -84,12 +77,6 @@ function breakdown(events: Ev[]): { total: number; self: Map<string, number>; ta
   return { total, self, tasks };
 }
 
-interface ProfileNode {
-  id: number;
-  callFrame: { functionName: string; url: string; lineNumber: number; columnNumber: number };
-  children?: number[];
-}
-
 async function traced(app: ServedApp): Promise<{ total: number; self: Map<string, number>; tasks: string[]; drawn: number }> {
   const context = await app.newContext();
   try {
@@ -109,7 +96,6 @@ async function traced(app: ServedApp): Promise<{ total: number; self: Map<string
 }
 
 async function profiled(app: ServedApp, dir: string, maps: Map<string, SourceMapConsumer | null>): Promise<{ byFile: Map<string, number>; byFn: Map<string, number>; incl: Map<string, number> }> {
-  const incl = new Map<string, number>();
   const context = await app.newContext();
   try {
     await context.addInitScript(MARKER);
@@ -120,65 +106,11 @@ async function profiled(app: ServedApp, dir: string, maps: Map<string, SourceMap
     await cdp.send('Profiler.start');
     await page.goto(app.url, { waitUntil: 'commit' });
     await page.waitForFunction(() => typeof (window as { __bbFirstRender?: number }).__bbFirstRender === 'number', null, { timeout: 30_000 });
-    const { profile } = (await cdp.send('Profiler.stop')) as unknown as {
-      profile: { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] };
-    };
-    const nodes = new Map(profile.nodes.map((n) => [n.id, n]));
-    const selfUs = new Map<number, number>();
-    profile.samples.forEach((id, i) => selfUs.set(id, (selfUs.get(id) ?? 0) + (profile.timeDeltas[i + 1] ?? 0)));
-    const byFile = new Map<string, number>();
-    const byFn = new Map<string, number>();
-    // Inclusive time per app function (src/ or a chunk), counted once per stack.
-    const parent = new Map<number, number>();
-    for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
-    const nameOf = new Map<number, string>();
-    const resolve = (cf: ProfileNode['callFrame']): { file: string; fn: string } => {
-      let file = cf.url ? short(cf.url) : `(${cf.functionName || 'program'})`;
-      let fn = cf.functionName || '(anonymous)';
-      if (cf.url.includes('/assets/')) {
-        const asset = cf.url.replace(/^.*\/assets\//, '');
-        if (!maps.has(asset)) {
-          const p = join(dir, 'assets', `${asset}.map`);
-          maps.set(asset, existsSync(p) ? new SourceMapConsumer(JSON.parse(readFileSync(p, 'utf8'))) : null);
-        }
-        const m = maps.get(asset);
-        if (m) {
-          const pos = m.originalPositionFor({ line: cf.lineNumber + 1, column: cf.columnNumber });
-          if (pos.source) {
-            file = pos.source.replace(/^.*node_modules\//, 'nm:').replace(/^(\.\.\/)+/, '');
-            fn = `${pos.name ?? fn} ${file}:${pos.line}`;
-          }
-        }
-      }
-      return { file, fn };
-    };
-    for (const n of profile.nodes) nameOf.set(n.id, resolve(n.callFrame).fn);
-    for (const [id, us] of selfUs) {
-      const seen = new Set<string>();
-      for (let a: number | undefined = id; a !== undefined; a = parent.get(a)) {
-        const f = nameOf.get(a)!;
-        if (seen.has(f)) continue;
-        seen.add(f);
-        incl.set(f, (incl.get(f) ?? 0) + us / 1000);
-      }
-    }
-    for (const [id, us] of selfUs) {
-      const { file, fn } = resolve(nodes.get(id)!.callFrame);
-      byFile.set(file, (byFile.get(file) ?? 0) + us / 1000);
-      byFn.set(fn, (byFn.get(fn) ?? 0) + us / 1000);
-    }
-    return { byFile, byFn, incl };
+    const { profile } = (await cdp.send('Profiler.stop')) as unknown as { profile: CpuProfile };
+    return profileTimes(profile, dir, maps);
   } finally {
     await context.close();
   }
-}
-
-function printMedians(title: string, runs: Map<string, number>[], min = 0.5): void {
-  const keys = new Set(runs.flatMap((r) => [...r.keys()]));
-  const rows = [...keys].map((k) => [k, median(runs.map((r) => r.get(k) ?? 0))] as const).filter(([, v]) => v >= min);
-  rows.sort((a, b) => b[1] - a[1]);
-  console.log(`\n== ${title} (median of ${runs.length}, ms) ==`);
-  for (const [k, v] of rows) console.log(`${v.toFixed(1).padStart(7)}  ${k}`);
 }
 
 /** `--ab <dirA> <dirB> [loads]`: alternate cold loads of two built apps, main-thread CPU medians. */

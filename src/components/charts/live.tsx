@@ -4,14 +4,15 @@
  * `useYAxisScale`, `usePlotArea`). The chart itself (axes, grid, static series) keeps the same props
  * while a fraction is typed, so it does not re-render; only these layers do, which keeps an edit
  * within one frame. The values come from {@link LiveMarksProvider}, placed by the screen around its
- * charts: a small store the live layers subscribe to, so a new blend re-renders only them (a changed
- * React context value would make React search every chart's whole tree for its readers).
+ * charts: a relay (`components/relay.tsx`) the live layers subscribe to, so a new blend re-renders only
+ * them (a changed React context value would make React search every chart's whole tree for its readers).
  */
-import { createContext, memo, useContext, useId, useLayoutEffect, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { createContext, memo, useContext, useId, type ReactNode } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
 import { useFormat } from '../format';
+import { createRelay, useRelay, useRelayed, type Relay } from '../relay';
 import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 
 export interface LiveBar {
@@ -54,48 +55,21 @@ export interface LiveMarks {
   distribution?: LiveDistribution | null;
 }
 
-/** Where the live layers read the blend. */
-interface LiveMarksSource {
-  get(): LiveMarks;
-  subscribe(onChange: () => void): () => void;
-  set(marks: LiveMarks): void;
-}
-
-function liveMarksSource(initial: LiveMarks): LiveMarksSource {
-  let marks = initial;
-  const listeners = new Set<() => void>();
-  return {
-    get: () => marks,
-    subscribe: (onChange) => {
-      listeners.add(onChange);
-      return () => void listeners.delete(onChange);
-    },
-    set: (next) => {
-      if (next === marks) return;
-      marks = next;
-      for (const l of listeners) l();
-    },
-  };
-}
-
-const LiveMarksSourceContext = createContext<LiveMarksSource>(liveMarksSource({}));
+const LiveMarksSourceContext = createContext<Relay<LiveMarks>>(createRelay({}));
 
 /**
- * Gives the live layers below the blend to draw. The context holds one store for the provider's
- * lifetime; a new `marks` is handed to the store after the render, and only the live layers, its
- * subscribers, render again (before the browser paints).
+ * Gives the live layers below the blend to draw. The context holds one relay for the provider's
+ * lifetime; a new `marks` is handed to it after the render, and only the live layers, its readers,
+ * render again (before the browser paints).
  */
 export function LiveMarksProvider({ marks, children }: { marks: LiveMarks; children?: ReactNode }) {
-  const [source] = useState(() => liveMarksSource(marks));
-  useLayoutEffect(() => source.set(marks), [source, marks]);
+  const source = useRelayed(marks);
   return <LiveMarksSourceContext.Provider value={source}>{children}</LiveMarksSourceContext.Provider>;
 }
 
 /** One part of the blend from the nearest {@link LiveMarksProvider}; the caller re-renders when it changes. */
 export function useLiveMarks<T>(select: (marks: LiveMarks) => T): T {
-  const source = useContext(LiveMarksSourceContext);
-  const read = () => select(source.get());
-  return useSyncExternalStore(source.subscribe, read, read);
+  return useRelay(useContext(LiveMarksSourceContext), select);
 }
 
 /** Pixel position of a value on a linear axis, extrapolated beyond the domain from its two ends. */

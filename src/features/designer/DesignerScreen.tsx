@@ -27,7 +27,8 @@ import { deriveDraft } from './derive';
 import { densityLookup, useDesignerStore } from './store';
 import { runSolve } from './solve';
 import { usePrediction } from './predict';
-import { PropertiesPanel, solveBand } from './PropertiesPanel';
+import { PropertiesView, solveBand } from './PropertiesPanel';
+import { useRelayed } from '../../components/relay';
 import './designer.css';
 
 const DesignerCharts = lazy(() => import('./DesignerCharts'));
@@ -92,6 +93,10 @@ export default function DesignerScreen() {
     return b ? { min: b.lo, max: b.hi } : null;
   }, [targets]);
   const prediction = usePrediction(lines, components, settings, targets.grade, band);
+  // The table and the properties read their numbers from these relays, so an edit re-renders only
+  // the numbers it changes (the results stay derived here, never stored).
+  const viewRelay = useRelayed(view);
+  const predictionRelay = useRelayed(prediction);
 
   const [solving, setSolving] = useState(false);
   const onSolve = useCallback(() => {
@@ -117,6 +122,11 @@ export default function DesignerScreen() {
     const inRecipe = new Set(lineKey.split('|'));
     return components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
   }, [components, lineKey]);
+  // The table's layout: which stocks, in order (kept while only the shares change).
+  const tableLines = useMemo(
+    () => (lineKey === '' ? [] : lineKey.split('|').map((id) => ({ componentId: id, component: byId.get(id) ?? null }))),
+    [lineKey, byId],
+  );
 
   // Callbacks kept across edits, so the parts of the screen an edit does not change are not re-rendered.
   const onLoadRecipe = useCallback(
@@ -221,7 +231,8 @@ export default function DesignerScreen() {
           )}
           <SolveNoticeView notice={notice} />
           <RecipeTable
-            view={view}
+            lines={tableLines}
+            view={viewRelay}
             basis={basis}
             rebalanceMode={rebalanceMode}
             balanceId={balanceId}
@@ -235,7 +246,7 @@ export default function DesignerScreen() {
             onRebalanceMode={actions.setRebalanceMode}
             onBalance={actions.setBalanceId}
           />
-          <PropertiesPanel prediction={prediction} targets={targets} />
+          <PropertiesView prediction={predictionRelay} targets={targets} />
           <SourceStatus recipe={sourceRecipe} components={components} />
           <SaveBox
             name={name}

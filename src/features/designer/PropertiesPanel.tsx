@@ -1,4 +1,4 @@
-import { Fragment, memo, useState } from 'react';
+import { memo, useCallback, useMemo, useState } from 'react';
 import type { BlendTargets } from '../../core/formulation/model';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
 import type { PropertyExplain } from '../../core/formulation/blend-properties';
@@ -10,6 +10,9 @@ import { explainDeposit } from '../../core/scoring/deposit';
 import { formatWorkingInput, gradeLabel, probabilityText, useFormat, type Formatter } from '../../components/format';
 import { MethodNote } from '../../components/notices';
 import type { Prediction } from './predict';
+import { RelayText, useRelay, useRelayed, type Relay } from '../../components/relay';
+import type { BlendMethod } from '../../core/blending/blend-viscosity';
+import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
 
@@ -320,26 +323,56 @@ function withExtrapolation(text: string, extrapolated: boolean): string {
 const STATUS_MARK: Record<Status, string> = { ok: '✓', warn: '!', fail: '✗', info: '' };
 
 /** Predicted properties, each with its working (equation, standard, inputs) on demand. */
-export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targets }: { prediction: Prediction; targets: BlendTargets }) {
+export function PropertiesPanel({ prediction, targets }: { prediction: Prediction; targets: BlendTargets }) {
+  return <PropertiesView prediction={useRelayed(prediction)} targets={targets} />;
+}
+
+/** The rows of the latest prediction, built once per prediction (every cell's selector shares them). */
+type RowsOf = (p: Prediction) => Row[] | null;
+
+/**
+ * The predicted properties from a relay: the table is laid out per set of rows (which properties,
+ * whether each has working); an edit re-renders only the values and statuses it changes.
+ */
+export const PropertiesView = memo(function PropertiesView({ prediction, targets }: { prediction: Relay<Prediction>; targets: BlendTargets }) {
   const fmt = useFormat();
   const [open, setOpen] = useState<ReadonlySet<string>>(new Set());
-  const toggle = (k: string) =>
-    setOpen((s) => {
-      const n = new Set(s);
-      if (n.has(k)) n.delete(k);
-      else n.add(k);
-      return n;
-    });
+  const toggle = useCallback(
+    (k: string) =>
+      setOpen((s) => {
+        const n = new Set(s);
+        if (n.has(k)) n.delete(k);
+        else n.add(k);
+        return n;
+      }),
+    [],
+  );
+  const rowsOf = useMemo<RowsOf>(() => {
+    let last: Prediction | null = null;
+    let rows: Row[] | null = null;
+    return (p) => {
+      if (p !== last) {
+        last = p;
+        rows = p.ok ? buildRows(p, targets, fmt) : null;
+      }
+      return rows;
+    };
+  }, [targets, fmt]);
+  // What the table is made of: the rows (with or without working) and the method note.
+  const layout = useRelay(prediction, (p) =>
+    p.ok ? `ok\u0001${p.props.method}\u0001${p.props.d341Form}\u0001${rowsOf(p)!.map((r) => `${r.key}${r.explain ? '+' : ''}`).join(',')}` : `no\u0001${p.message}`,
+  );
+  const [kind, a, b, keys] = layout.split('\u0001') as [string, string, string, string | undefined];
   return (
     <section className="props" aria-labelledby="props-h" data-testid="predicted">
       <h3 id="props-h">Predicted properties</h3>
-      {!prediction.ok ? (
+      {kind === 'no' ? (
         <p className="muted" role="status">
-          {prediction.message}
+          {a}
         </p>
       ) : (
         <>
-          <MethodNote method={prediction.props.method} d341Form={prediction.props.d341Form} />
+          <MethodNote method={a as BlendMethod} d341Form={b as D341Form} />
           <table className="props-table">
             <thead className="visually-hidden">
               <tr>
@@ -350,60 +383,104 @@ export const PropertiesPanel = memo(function PropertiesPanel({ prediction, targe
               </tr>
             </thead>
             <tbody>
-              {buildRows(prediction, targets, fmt).map((r) => {
-                const isOpen = open.has(r.key);
-                const detailId = `working-${r.key}`;
-                return (
-                  <Fragment key={r.key}>
-                    <tr data-prop={r.key}>
-                      <th scope="row">{r.label}</th>
-                      <td className="value" data-testid={`prop-${r.key}`}>
-                        {r.value}
-                      </td>
-                      <td className={`status-${r.status}`}>
-                        {STATUS_MARK[r.status] && <span aria-hidden="true">{STATUS_MARK[r.status]} </span>}
-                        {r.status === 'fail' && <span className="visually-hidden">not met: </span>}
-                        {r.statusText}
-                      </td>
-                      <td>
-                        {r.explain && (
-                          <button
-                            type="button"
-                            className="link"
-                            aria-expanded={isOpen}
-                            aria-controls={detailId}
-                            aria-label={`${isOpen ? 'hide' : 'show'} working for ${r.label}`}
-                            onClick={() => toggle(r.key)}
-                          >
-                            {isOpen ? 'hide working' : 'show working'}
-                          </button>
-                        )}
-                      </td>
-                    </tr>
-                    {r.explain && isOpen && (
-                      <tr className="working" id={detailId}>
-                        <td colSpan={4}>
-                          <Working explain={r.explain} fmt={fmt} />
-                        </td>
-                      </tr>
-                    )}
-                  </Fragment>
-                );
+              {(keys ?? '').split(',').map((kx) => {
+                const k = kx.replace(/\+$/, '');
+                return <PropRow key={k} k={k} hasWorking={kx.endsWith('+')} isOpen={open.has(k)} onToggle={toggle} prediction={prediction} rowsOf={rowsOf} />;
               })}
             </tbody>
           </table>
-          {prediction.props.warnings.length > 0 && (
-            <ul className="prop-warnings">
-              {prediction.props.warnings.map((w) => (
-                <li key={w}>{w}</li>
-              ))}
-            </ul>
-          )}
+          <PropWarnings prediction={prediction} />
         </>
       )}
     </section>
   );
 });
+
+/** One property: its label and status mark change with the status, its value and status text with each edit. */
+const PropRow = memo(function PropRow({
+  k,
+  hasWorking,
+  isOpen,
+  onToggle,
+  prediction,
+  rowsOf,
+}: {
+  k: string;
+  hasWorking: boolean;
+  isOpen: boolean;
+  onToggle: (k: string) => void;
+  prediction: Relay<Prediction>;
+  rowsOf: RowsOf;
+}) {
+  const rowOf = (p: Prediction) => rowsOf(p)?.find((r) => r.key === k);
+  const head = useRelay(prediction, (p) => {
+    const r = rowOf(p);
+    return r ? `${r.label}\u0001${r.status}` : '';
+  });
+  const [label = '', status = 'info'] = head.split('\u0001') as [string, Status];
+  const text = useMemo(
+    () => ({
+      value: (p: Prediction) => rowsOf(p)?.find((r) => r.key === k)?.value ?? '',
+      status: (p: Prediction) => rowsOf(p)?.find((r) => r.key === k)?.statusText ?? '',
+    }),
+    [rowsOf, k],
+  );
+  const detailId = `working-${k}`;
+  return (
+    <>
+      <tr data-prop={k}>
+        <th scope="row">{label}</th>
+        <td className="value" data-testid={`prop-${k}`}>
+          <RelayText relay={prediction} select={text.value} />
+        </td>
+        <td className={`status-${status}`}>
+          {STATUS_MARK[status] && <span aria-hidden="true">{STATUS_MARK[status]} </span>}
+          {status === 'fail' && <span className="visually-hidden">not met: </span>}
+          <RelayText relay={prediction} select={text.status} />
+        </td>
+        <td>
+          {hasWorking && (
+            <button
+              type="button"
+              className="link"
+              aria-expanded={isOpen}
+              aria-controls={detailId}
+              aria-label={`${isOpen ? 'hide' : 'show'} working for ${label}`}
+              onClick={() => onToggle(k)}
+            >
+              {isOpen ? 'hide working' : 'show working'}
+            </button>
+          )}
+        </td>
+      </tr>
+      {hasWorking && isOpen && <WorkingRow id={detailId} k={k} prediction={prediction} rowsOf={rowsOf} />}
+    </>
+  );
+});
+
+/** A property's working, shown on demand (follows each edit while shown). */
+function WorkingRow({ id, k, prediction, rowsOf }: { id: string; k: string; prediction: Relay<Prediction>; rowsOf: RowsOf }) {
+  const fmt = useFormat();
+  const explain = useRelay(prediction, (p) => rowsOf(p)?.find((r) => r.key === k)?.explain ?? null);
+  return (
+    <tr className="working" id={id}>
+      <td colSpan={4}>{explain && <Working explain={explain} fmt={fmt} />}</td>
+    </tr>
+  );
+}
+
+/** The prediction's warnings (re-rendered only when their text changes). */
+function PropWarnings({ prediction }: { prediction: Relay<Prediction> }) {
+  const text = useRelay(prediction, (p) => (p.ok ? p.props.warnings.join('\n') : ''));
+  if (!text) return null;
+  return (
+    <ul className="prop-warnings">
+      {text.split('\n').map((w) => (
+        <li key={w}>{w}</li>
+      ))}
+    </ul>
+  );
+}
 
 function Working({ explain, fmt }: { explain: PropertyExplain; fmt: Formatter }) {
   const inputs = Object.entries(explain.inputs);

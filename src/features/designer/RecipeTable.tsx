@@ -1,14 +1,24 @@
-import { memo, useId, useRef, useState } from 'react';
+import { memo, useId, useMemo, useRef, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { useFormat } from '../../components/format';
 import type { Basis } from './fractions';
-import type { DraftView } from './derive';
+import type { DraftView, LineView } from './derive';
+import { RelayText, useRelay, type Relay } from '../../components/relay';
 import type { RebalanceMode } from './store';
 import { FractionInput } from './FractionInput';
 
+/** A line of the recipe as the table lays it out (which stock; its shares come from the relay). */
+export interface TableLine {
+  componentId: string;
+  component: Component | null;
+}
+
 export interface RecipeTableProps {
-  view: DraftView;
+  /** The recipe's lines in order (changes only when a stock is added or removed). */
+  lines: readonly TableLine[];
+  /** The derived numbers of the draft (shares, volume %, cost); each cell shows its own piece. */
+  view: Relay<DraftView>;
   basis: Basis;
   rebalanceMode: RebalanceMode;
   balanceId: string | null;
@@ -24,7 +34,27 @@ export interface RecipeTableProps {
   onBalance: (componentId: string) => void;
 }
 
-/** The recipe's lines with editable shares, kept at 100 % by the rule stated above the table. */
+/** The draft's lines by stock, built once per derived view. */
+const lineIndex = new WeakMap<DraftView, Map<string, LineView>>();
+function lineOf(view: DraftView, id: string): LineView | undefined {
+  let m = lineIndex.get(view);
+  if (!m) {
+    m = new Map(view.lines.map((l) => [l.componentId, l]));
+    lineIndex.set(view, m);
+  }
+  return m.get(id);
+}
+
+/** The total cost per litre: unknown (null) when a line has none, rather than short. */
+function totalCostOf(view: DraftView): number | null {
+  return view.lines.some((l) => l.costPerLitre === null) ? null : view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
+}
+
+/**
+ * The recipe's lines with editable shares, kept at 100 % by the rule stated above the table. The
+ * table is laid out per set of lines; an edit re-renders only the numbers it changes (each cell reads
+ * its piece of the derived view from the relay).
+ */
 export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
   const fmt = useFormat();
   // One edit callback per line, kept across renders (calling the latest onEdit), so a line whose
@@ -41,7 +71,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
     return e;
   };
   // Likewise one balance-choice callback per line: React rewrites a radio button's attributes
-  // whenever its props change, so a new callback at every edit would touch every row's radio.
+  // whenever its props change, so a new callback at every render would touch every row's radio.
   const onBalanceRef = useRef(p.onBalance);
   onBalanceRef.current = p.onBalance;
   const balancers = useRef(new Map<string, () => void>()).current;
@@ -54,8 +84,17 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
     return b;
   };
   const editable = (id: string) => !(p.rebalanceMode === 'balance' && p.balanceId === id);
-  // A line without a cost (no price, or no exchange rate) leaves the total unknown rather than short.
-  const totalCost = p.view.lines.some((l) => l.costPerLitre === null) ? null : p.view.lines.reduce((s, l) => s + (l.costPerLitre ?? 0), 0);
+  const totals = useMemo(
+    () => ({
+      mass: (v: DraftView) => fmt.num(v.total * 100, 2),
+      volume: (v: DraftView) => fmt.num(v.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2),
+      cost: (v: DraftView) => {
+        const t = totalCostOf(v);
+        return t === null ? '—' : fmt.num(t, 3);
+      },
+    }),
+    [fmt],
+  );
   return (
     <section className="recipe-table" aria-labelledby="recipe-h">
       <h3 id="recipe-h">Recipe</h3>
@@ -74,65 +113,34 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
           </tr>
         </thead>
         <tbody>
-          {p.view.lines.map((l) => {
-            const c = l.component;
-            const code = c?.code ?? l.componentId;
-            const isAdd = l.componentId === p.additiveId;
-            const canEdit = editable(l.componentId);
-            const massCell =
-              p.basis === 'mass' && canEdit ? (
-                <FractionInput label={`Mass % of ${code}`} value={l.massFraction} onEdit={editorFor(l.componentId)} />
-              ) : (
-                fmt.num(l.massFraction * 100, 2)
-              );
-            const volCell =
-              p.basis === 'volume' && canEdit ? (
-                <FractionInput label={`Volume % of ${code}`} value={l.volumeFraction} onEdit={editorFor(l.componentId)} />
-              ) : (
-                fmt.num(l.volumeFraction * 100, 2)
-              );
-            return (
-              <tr key={l.componentId} data-component={code}>
-                <th scope="row">
-                  <span className="code">{code}</span> <span className="muted">{c?.name ?? 'unknown stock'}</span>
-                  {c?.availability === 'withdrawn' && <span className="tag tag-bad"> withdrawn</span>}
-                  {c?.availability === 'limited' && <span className="tag"> limited</span>}
-                  {isAdd && <span className="tag"> fixed treat</span>}
-                </th>
-                <td>{c ? CATEGORY_LABEL[c.category] : '—'}</td>
-                <td className="num">{massCell}</td>
-                <td className="num">{volCell}</td>
-                <td className="num">{c ? fmt.sig(c.viscosityPoints.find((v) => v.tempC === 40)?.kv ?? NaN, 3) : '—'}</td>
-                <td className="num">{l.costPerLitre === null ? '—' : fmt.num(l.costPerLitre, 3)}</td>
-                {p.rebalanceMode === 'balance' && (
-                  <td className="center">
-                    <input
-                      type="radio"
-                      name="balance-line"
-                      aria-label={`Use ${code} as balance stock`}
-                      checked={p.balanceId === l.componentId}
-                      disabled={isAdd}
-                      onChange={balancerFor(l.componentId)}
-                    />
-                  </td>
-                )}
-                <td>
-                  <button type="button" className="link" aria-label={`Remove ${code}`} onClick={() => p.onRemove(l.componentId)}>
-                    remove
-                  </button>
-                </td>
-              </tr>
-            );
-          })}
+          {p.lines.map((l) => (
+            <RecipeRow
+              key={l.componentId}
+              line={l}
+              view={p.view}
+              editBasis={editable(l.componentId) ? p.basis : null}
+              isAdditive={l.componentId === p.additiveId}
+              balance={p.rebalanceMode === 'balance' ? p.balanceId === l.componentId : null}
+              onEdit={editorFor(l.componentId)}
+              onBalance={balancerFor(l.componentId)}
+              onRemove={p.onRemove}
+            />
+          ))}
         </tbody>
         <tfoot>
           <tr>
             <th scope="row">Total</th>
             <td />
-            <td className="num" data-testid="total-mass">{fmt.num(p.view.total * 100, 2)}</td>
-            <td className="num">{fmt.num(p.view.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2)}</td>
+            <td className="num" data-testid="total-mass">
+              <RelayText relay={p.view} select={totals.mass} />
+            </td>
+            <td className="num">
+              <RelayText relay={p.view} select={totals.volume} />
+            </td>
             <td />
-            <td className="num">{totalCost === null ? '—' : fmt.num(totalCost, 3)}</td>
+            <td className="num">
+              <RelayText relay={p.view} select={totals.cost} />
+            </td>
             {p.rebalanceMode === 'balance' && <td />}
             <td />
           </tr>
@@ -147,6 +155,93 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
     </section>
   );
 });
+
+/** One line of the recipe; its numbers follow the relay, the rest changes only with its props. */
+const RecipeRow = memo(function RecipeRow({
+  line,
+  view,
+  editBasis,
+  isAdditive,
+  balance,
+  onEdit,
+  onBalance,
+  onRemove,
+}: {
+  line: TableLine;
+  view: Relay<DraftView>;
+  /** The basis its share is edited on; null when it is not editable (the balance stock). */
+  editBasis: Basis | null;
+  isAdditive: boolean;
+  /** Whether it is the balance stock; null when the recipe is not kept at 100 % by a balance stock. */
+  balance: boolean | null;
+  onEdit: (fraction: number) => void;
+  onBalance: () => void;
+  onRemove: (componentId: string) => void;
+}) {
+  const fmt = useFormat();
+  const id = line.componentId;
+  const c = line.component;
+  const code = c?.code ?? id;
+  const text = useMemo(
+    () => ({
+      mass: (v: DraftView) => {
+        const l = lineOf(v, id);
+        return l ? fmt.num(l.massFraction * 100, 2) : '';
+      },
+      volume: (v: DraftView) => {
+        const l = lineOf(v, id);
+        return l ? fmt.num(l.volumeFraction * 100, 2) : '';
+      },
+      cost: (v: DraftView) => {
+        const l = lineOf(v, id);
+        return !l || l.costPerLitre === null ? '—' : fmt.num(l.costPerLitre, 3);
+      },
+    }),
+    [fmt, id],
+  );
+  const share = (basis: Basis) =>
+    editBasis === basis ? (
+      <LineShare view={view} id={id} basis={basis} label={`${basis === 'mass' ? 'Mass' : 'Volume'} % of ${code}`} onEdit={onEdit} />
+    ) : (
+      <RelayText relay={view} select={text[basis]} />
+    );
+  return (
+    <tr data-component={code}>
+      <th scope="row">
+        <span className="code">{code}</span> <span className="muted">{c?.name ?? 'unknown stock'}</span>
+        {c?.availability === 'withdrawn' && <span className="tag tag-bad"> withdrawn</span>}
+        {c?.availability === 'limited' && <span className="tag"> limited</span>}
+        {isAdditive && <span className="tag"> fixed treat</span>}
+      </th>
+      <td>{c ? CATEGORY_LABEL[c.category] : '—'}</td>
+      <td className="num">{share('mass')}</td>
+      <td className="num">{share('volume')}</td>
+      <td className="num">{c ? fmt.sig(c.viscosityPoints.find((v) => v.tempC === 40)?.kv ?? NaN, 3) : '—'}</td>
+      <td className="num">
+        <RelayText relay={view} select={text.cost} />
+      </td>
+      {balance !== null && (
+        <td className="center">
+          <input type="radio" name="balance-line" aria-label={`Use ${code} as balance stock`} checked={balance} disabled={isAdditive} onChange={onBalance} />
+        </td>
+      )}
+      <td>
+        <button type="button" className="link" aria-label={`Remove ${code}`} onClick={() => onRemove(id)}>
+          remove
+        </button>
+      </td>
+    </tr>
+  );
+});
+
+/** A line's editable share, following the relay (re-rendered only when this line's share changes). */
+function LineShare({ view, id, basis, label, onEdit }: { view: Relay<DraftView>; id: string; basis: Basis; label: string; onEdit: (f: number) => void }) {
+  const value = useRelay(view, (v) => {
+    const l = lineOf(v, id);
+    return l ? (basis === 'mass' ? l.massFraction : l.volumeFraction) : 0;
+  });
+  return <FractionInput label={label} value={value} onEdit={onEdit} />;
+}
 
 /** Adds a stock to the recipe (its own component: an edit of a share does not re-render the list of stocks). */
 const AddLine = memo(function AddLine({ addable, onAdd }: { addable: readonly Component[]; onAdd: (componentId: string) => void }) {
