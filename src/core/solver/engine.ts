@@ -48,6 +48,9 @@ export { VI_ACCEPT_TOLERANCE } from './branch-and-bound';
 /** No extra rows (shared and frozen: only a lazy constraint's private pool is ever added to). */
 const NO_EXTRA: readonly ExtraRow[] = Object.freeze([]);
 
+/** The options of a normal solve (shared: no object per call). */
+const NO_OPTIONS: SolvePreparedOptions = Object.freeze({});
+
 /** A solved blend in plain numbers (the fast path's answer). */
 export interface EngineOptimal {
   status: 'optimal';
@@ -111,7 +114,7 @@ export interface SolvePreparedOptions {
 export function solvePrepared(
   P: PreparedProblem,
   subset: readonly number[] | null = null,
-  options: SolvePreparedOptions = {},
+  options: SolvePreparedOptions = NO_OPTIONS,
 ): EngineResult {
   const groups = options.groups ?? ALL_GROUP_SET;
   const t = P.targets;

@@ -174,6 +174,11 @@ export interface PreparedProblem {
   readonly forced: readonly number[];
   /** Indices of usable components. */
   readonly usableIndices: readonly number[];
+  /**
+   * Whether any component has a mass-fraction bound (min > 0 or max < 1) or is the fixed additive:
+   * when none has, a node's LP writes no bound rows and folds no column (no look at the components).
+   */
+  readonly anyBounds: boolean;
 }
 
 /**
@@ -207,6 +212,7 @@ export function prepareEngine(
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
   const forced: number[] = [];
   const usableIndices: number[] = [];
+  let anyBounds = false;
   for (let i = 0; i < n; i++) {
     const k = components[i]!;
     // The checked toX only where it would throw (same value either way): the stock's two
@@ -222,6 +228,7 @@ export function prepareEngine(
     flashRel[i] = flashMax !== null && k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
+    if (k.min > 0 || k.max < 1 || k.fixedAdditive) anyBounds = true;
   }
   const bandA = coords.acceptsKv(targets.kv40Min) ? coords.toXRaw(targets.kv40Min) : coords.toX(targets.kv40Min);
   const bandB = coords.acceptsKv(targets.kv40Max) ? coords.toXRaw(targets.kv40Max) : coords.toX(targets.kv40Max);
@@ -286,6 +293,7 @@ export function prepareEngine(
     reference,
     forced,
     usableIndices,
+    anyBounds,
   };
 }
 

@@ -98,7 +98,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   // A fixed treat rate r is substituted rather than written as an equality (two simplex rows):
   // wₐ = r·Σw ⇔ wₐ = κ·Σ_{j≠a} wⱼ with κ = r/(1 − r); column a is folded into the others below.
   let fold = -1;
-  if (nv > 1 && groupOn(groups, 'additive')) {
+  if (P.anyBounds && nv > 1 && groupOn(groups, 'additive')) {
     for (let j = 0; j < nv; j++) {
       const k = comps[vars[j]!]!;
       if (k.fixedAdditive && k.min === k.max && k.min < 1) {
@@ -202,7 +202,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   // Per-component bounds: wⱼ − l·Σw ≥ 0, wⱼ − u·Σw ≤ 0 (the folded additive needs none).
   const boundsOn = groupOn(groups, 'bounds');
   const additiveOn = groupOn(groups, 'additive');
-  for (let j = 0; j < nv; j++) {
+  for (let j = 0; P.anyBounds && j < nv; j++) {
     if (j === fold) continue;
     const k = comps[vars[j]!]!;
     if (!(k.fixedAdditive ? additiveOn : boundsOn)) continue;
@@ -230,7 +230,8 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
       o += width;
     }
   }
-  for (const e of extra) {
+  for (let ei = 0; ei < extra.length; ei++) {
+    const e = extra[ei]!;
     for (let j = 0; j < nv; j++) buf[o + j] = e.coef[vars[j]!]!;
     for (let q = 0; q < nAux; q++) buf[o + nv + q] = e.aux;
     if (e.lift) for (let q = 0; q < nLift; q++) buf[o + nv + nAux + q] = e.lift[q] ?? 0;
