@@ -97,6 +97,11 @@ export function viOf(P: PreparedProblem, x40: number, x100: number): number {
   return (SEEN.vi = viscosityIndexUnchecked(kv40, kv100));
 }
 
+/** The outcome without an optimum (built only when it is the answer). */
+function noOptimum(status: 'infeasible' | 'failed', lpCount: number): OptimiseOutcome {
+  return { status, w: NO_FRACTIONS, value: Number.NaN, lpCount };
+}
+
 /** An optimal outcome whose fractions passed the VI check, with the check's ν40, ν100 and VI. */
 function checkedOptimal(w: Float64Array, value: number, lpCount: number): OptimiseOutcome {
   return { status: 'optimal', w, value, lpCount, kv40: SEEN.kv40, kv100: SEEN.kv100, vi: SEEN.vi };
@@ -190,8 +195,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
   const { P, vars, groups } = ctx;
   const count = { lps: 0 };
   const nv = vars.length;
-  const empty = { status: 'infeasible' as const, w: NO_FRACTIONS, value: Number.NaN, lpCount: 0 };
-  if (nv === 0) return empty;
+  if (nv === 0) return noOptimum('infeasible', 0);
   const bandOn = groupOn(groups, 'band');
   let a = P.bandA;
   let b = P.bandB;
@@ -208,9 +212,9 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
   // First LP without the VI condition: a relaxation; if its optimum already meets the VI it is
   // optimal, and the (costlier) VI relaxation is never built. Most recipes end here.
   const plain = solveWith(ctx, a, b, bandOn, NO_CHORDS, count);
-  if (plain.status !== 'optimal') return { ...empty, status: plain.status, lpCount: count.lps };
+  if (plain.status !== 'optimal') return noOptimum(plain.status, count.lps);
   const w0 = fractions(plain.x, nv);
-  if (!w0) return { ...empty, status: 'failed', lpCount: count.lps };
+  if (!w0) return noOptimum('failed', count.lps);
   if (!vi) return { status: 'optimal', w: w0, value: plain.objective, lpCount: count.lps };
   const bx0 = blendX(P, vars, w0);
   if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) return checkedOptimal(w0, plain.objective, count.lps);
@@ -248,7 +252,7 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
     if (addNode(ctx, open, count, node.a, split, node.ha, hs, vi.relaxation(node.a, node.ha, split, hs))) failed = true;
     if (addNode(ctx, open, count, split, node.b, hs, node.hb, vi.relaxation(split, hs, node.b, node.hb))) failed = true;
   }
-  return { ...empty, status: failed && open.length === 0 ? 'failed' : 'infeasible', lpCount: count.lps };
+  return noOptimum(failed && open.length === 0 ? 'failed' : 'infeasible', count.lps);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -135,7 +135,8 @@ export function solvePrepared(
     vars = chosen;
   }
   // A forced component that cannot be used makes the problem infeasible (bounds active).
-  for (const i of P.forced) {
+  for (let q = 0; q < P.forced.length; q++) {
+    const i = P.forced[q]!;
     const k = P.components[i]!;
     const active = k.fixedAdditive ? groupOn(groups, 'additive') : groupOn(groups, 'bounds');
     if (active && !vars.includes(i)) return { status: 'infeasible', lpCount: 0 };

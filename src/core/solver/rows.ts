@@ -292,7 +292,7 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   }
   const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
   scratch.clean(o, m, width);
-  if (sol.status === 'optimal') return { status: 'optimal', x: sol.x, objective: sol.objective };
+  if (sol.status === 'optimal') return sol as NodeSolution; // (the LP's own answer object: no copy)
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
 }
 
