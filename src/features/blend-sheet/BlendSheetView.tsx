@@ -866,6 +866,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             </table>
           )}
           <p className="bs-note">
+            {adjustedOk && adjustedOk.result.status === 'optimal' ? (
+              <span data-testid="qc-batch-note">
+                Predicted column: the saved recipe with the library’s values. The batch as charged (lots and heel entered above) is predicted at
+                ν40 {fmt(adjustedOk.result.batch.kv40, 1)} mm²/s, ν100 {fmt(adjustedOk.result.batch.kv100, 2)} mm²/s
+                {adjustedOk.result.batch.vi === null ? '' : `, VI ${fmt(adjustedOk.result.batch.vi, 0)}`}.{' '}
+              </span>
+            ) : null}
             {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
 
             Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit

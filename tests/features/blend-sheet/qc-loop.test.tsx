@@ -184,4 +184,17 @@ describe('Blend sheet — the QC loop', () => {
     expect(text).not.toMatch(/massKg/);
     expect(useRecipes.getState().qc['demo-vg320']?.heel.massKg ?? null).toBeNull();
   });
+
+  it('says which recipe the printed predictions are for when the sheet charges a batch adjusted to lots and a heel (plant loop defect hunt)', () => {
+    render(<BlendSheetScreen />);
+    expect(screen.queryByTestId('qc-batch-note')).toBeNull();
+    enter(/^Lot ν40 of BW-190/, '470');
+    enter(/^Heel mass/, '1500');
+    enter(/^Heel ν40/, '300');
+    enter(/^Heel ν100/, '23');
+    const note = screen.getByTestId('qc-batch-note').textContent!;
+    // the batch as charged lands at the aim, the grade mid-point 320 mm²/s (ISO 3448 VG 320)
+    expect(note).toMatch(/Predicted column: the saved recipe with the library’s values\. The batch as charged \(lots and heel entered above\) is predicted at ν40 320\.0 mm²\/s/);
+  });
+
 });
