@@ -112,7 +112,8 @@ export function QcPanel(props: QcPanelProps) {
   const id = useId();
   const byId = new Map(components.map((c) => [c.id, c]));
   const lines = recipe.lines.filter((l) => l.massFraction > 0);
-  const aim = aimOf(recipe, qc);
+  /** The grade mid-point: the aim when none is typed. */
+  const midPoint = aimOf(recipe, { ...qc, aimKv40: null });
   const setLot = (cid: string, field: 'kv40' | 'kv100' | 'density15', v: number | null) =>
     (onChange({ lots: { ...qc.lots, [cid]: { ...{ kv40: null, kv100: null, density15: null }, ...qc.lots[cid], [field]: v } } }));
   const setHeel = (patch: Partial<QcInputs['heel']>) => (onChange({ heel: { ...qc.heel, ...patch } }));
@@ -154,7 +155,7 @@ export function QcPanel(props: QcPanelProps) {
           unit="mm²/s"
           rule="targetKv40"
           value={qc.aimKv40}
-          hint={`blank = grade mid-point ${fmt(aim, 1)}`}
+          hint={`blank = grade mid-point ${fmt(midPoint, 1)}`}
           onCommit={(v) => onChange({ aimKv40: v })}
         />
         <table className="bs-qc-table">

@@ -197,4 +197,11 @@ describe('Blend sheet — the QC loop', () => {
     expect(note).toMatch(/Predicted column: the saved recipe with the library’s values\. The batch as charged \(lots and heel entered above\) is predicted at ν40 320\.0 mm²\/s/);
   });
 
+  it('the aim’s hint names the grade mid-point, not the aim typed (plant loop defect hunt)', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Aim ν40 of the batch/, '315');
+    // ISO 3448 VG 320 mid-point: 320 mm²/s
+    expect(screen.getByText(/blank = grade mid-point 320\.0/)).toBeTruthy();
+    expect(screen.queryByText(/grade mid-point 315/)).toBeNull();
+  });
 });
