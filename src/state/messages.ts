@@ -155,6 +155,8 @@ function polish(message: string, components: readonly Component[], words: SayNum
   // Numbers first, while the message still holds the core's field names (their digits are not numbers).
   let m = sayCoreNumbers(message.replace(/\b[a-z]+[A-Z][A-Za-z]*: /g, ''), words);
   // Field paths: components[i].x, parts[i].x, targets.x, bare known fields.
+  // The QC loop's heel and the blend sheet's batch, named as on screen.
+  m = m.replace(/\bheel\.massKg\b/g, 'heel mass').replace(/\bbatch\.(?:kg|litres)\b/g, 'batch size');
   m = m.replace(/\bpoints\[(\d+)\]\.kv\b/g, (_, i: string) => `measured viscosity ${Number(i) + 1}`);
   m = m.replace(/\bpoints\[(\d+)\]/g, (_, i: string) => `measured point ${Number(i) + 1}`);
   m = m.replace(/\b(?:components|parts|lines|reference\.lines)\[\d+\](?:\.[A-Za-z0-9]+)*|\btargets\.[A-Za-z0-9.]+/g, (p) => fieldWords(p, components));

@@ -53,6 +53,30 @@ describe('core errors in the user’s words', () => {
     expect(m).toMatch(/tolerance/);
   });
 
+  it('the QC loop’s heel and the blend sheet’s batch are named as on screen, never by their field paths (plant loop defect hunt)', async () => {
+    const { adjustRecipe } = await import('../../src/core/qc/adjust');
+    const { buildBlendSheet } = await import('../../src/core/sheet/blend-sheet');
+    const stocks = [{ id: 'demo-bw-280', label: 'BW-280', kv40: 460, kv100: 31, density15: 0.885, savedFraction: 1 }];
+    let heel: unknown;
+    try {
+      adjustRecipe({ stocks, batchKg: 10000, aimKv40: 460, additive: null, heel: { massKg: 12000, kv40: 460, kv100: 31, density15: 0.885, additiveFraction: 0 }, method: 'refutas' });
+    } catch (e) {
+      heel = e;
+    }
+    const h = userMessage(heel, { components, words: FILE_NUMBERS });
+    expect(h).not.toMatch(/massKg|heel\./);
+    expect(h).toMatch(/^Heel mass of 12000; a heel must weigh more than 0 kg and less than the batch \(10000 kg\)/);
+    let batch: unknown;
+    try {
+      buildBlendSheet(components, demoRecipes()[0]!, { kg: 0 });
+    } catch (e) {
+      batch = e;
+    }
+    const b = userMessage(batch, { components, words: FILE_NUMBERS });
+    expect(b).not.toMatch(/Batch\.kg|batch\.kg/);
+    expect(b).toMatch(/^Batch size of 0/);
+  });
+
   it('a line plan’s error keeps the grade’s name and drops the plan’s field path', () => {
     const e = new BlendbenchInputError('grades[1].targets.bounds.demo-bw-280', { min: 0.4, max: 0.3 }, 'VG 320: prepareComponents: the minimum …');
     expect(userMessage(e, { components, words: FILE_NUMBERS })).toBe('VG 320: BW-280: minimum 40 % is above its maximum 30 %. Lower the minimum or raise the maximum (Per-stock limits).');

@@ -172,6 +172,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   );
   const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
     if (!recipe) return null;
+    if (batchSize.trim() === '') return { error: 'enter the batch size (kg, or litres at 15 °C).' };
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
       return {
@@ -180,7 +181,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     } catch (e) {
       return { error: errorText(e, components, display) };
     }
-  }, [components, priced, recipe, batchUnit, batchValue, props.meteringTempC, props.deliveryTempC, display]);
+  }, [components, priced, recipe, batchSize, batchUnit, batchValue, props.meteringTempC, props.deliveryTempC, display]);
 
   const qc = useMemo(
     (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {

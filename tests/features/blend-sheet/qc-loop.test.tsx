@@ -204,4 +204,12 @@ describe('Blend sheet — the QC loop', () => {
     expect(screen.getByText(/blank = grade mid-point 320\.0/)).toBeTruthy();
     expect(screen.queryByText(/grade mid-point 315/)).toBeNull();
   });
+
+  it('a blank batch size asks for it, never naming a field path (plant loop defect hunt)', () => {
+    recipeActions.setSheetInputs('demo-vg320', { batchSize: '' });
+    render(<BlendSheetScreen />);
+    const text = screen.getAllByRole('alert').map((a) => a.textContent).join(' ');
+    expect(text).toMatch(/The component table cannot be built: enter the batch size \(kg, or litres at 15 °C\)\./);
+    expect(text).not.toMatch(/Batch\.kg|batch\.kg/);
+  });
 });
