@@ -617,8 +617,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col">Code</th>
                 <th scope="col">Name</th>
                 <th scope="col">Category</th>
-                {adjustedOk && <th scope="col" className="bs-num">Saved mass %</th>}
-                <th scope="col" className="bs-num">{adjustedOk ? 'Mass % of additions' : 'Mass %'}</th>
+                {adjustedOk && <th scope="col" className="bs-num bs-wrap">Saved mass %</th>}
+                <th scope="col" className={adjustedOk ? 'bs-num bs-wrap' : 'bs-num'}>{adjustedOk ? 'Mass % of additions' : 'Mass %'}</th>
                 <th scope="col" className="bs-num">Vol. %</th>
                 <th scope="col" className="bs-num">kg</th>
                 <th scope="col" className="bs-num">L at 15 °C</th>
