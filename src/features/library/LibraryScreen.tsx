@@ -50,6 +50,29 @@ export default function LibraryScreen() {
     for (const r of recipes) for (const l of r.lines) m.set(l.componentId, [...(m.get(l.componentId) ?? []), r.name]);
     return m;
   }, [recipes]);
+  // Saved work other than recipes that names a stock: the whole-line plan and the QC loop's entries.
+  // Deleting the stock would drop these silently (a plan without its kept stock, a correction without
+  // a stock on hand), so it is refused like a stock in a recipe.
+  const linePlan = useRecipes((s) => s.linePlan);
+  const qcEntries = useRecipes((s) => s.qc);
+  const namedIn = useCallback(
+    (id: string): string[] => {
+      const out: string[] = [];
+      if (id in linePlan.supplies) out.push('the whole-line plan (limited, with its supply)');
+      if (id in linePlan.keep) out.push('the whole-line plan (kept in use)');
+      for (const r of recipes) {
+        const q = qcEntries[r.id];
+        if (!q) continue;
+        const lot = q.lots[id];
+        if (lot && (lot.kv40 !== null || lot.kv100 !== null || lot.density15 !== null)) out.push(`the QC loop of “${r.name}” (lot values)`);
+        if (q.correction.stockIds.includes(id) || (q.correction.onHandKg[id] ?? null) !== null) {
+          out.push(`the QC loop of “${r.name}” (stocks on hand for a correction)`);
+        }
+      }
+      return out;
+    },
+    [linePlan, qcEntries, recipes],
+  );
 
   const shown = useMemo(() => {
     const q = query.trim().toLowerCase();
@@ -145,10 +168,18 @@ export default function LibraryScreen() {
         });
         return;
       }
+      const named = namedIn(id);
+      if (named.length) {
+        setFlash({
+          tone: 'warning',
+          text: `${c.code} is named in ${named.join('; ')}, so it was not deleted. Mark it withdrawn instead, or remove it there first.`,
+        });
+        return;
+      }
       useLibrary.getState().removeComponent(id);
       setFlash({ tone: 'info', text: `Deleted ${c.code}${c.name ? ` (${c.name})` : ''}.`, undo: true });
     },
-    [usedIn],
+    [usedIn, namedIn],
   );
 
   // A long library draws only the rows near the viewport (plus the focused row and open details);

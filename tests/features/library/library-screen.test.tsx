@@ -3,7 +3,7 @@ import { beforeAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
-import { resetDemo, settingsActions, useLibrary } from '../../../src/state';
+import { linePlanActions, recipeActions, resetDemo, settingsActions, useLibrary } from '../../../src/state';
 import { setImportWorkerFactory, type ImportWorkerLike } from '../../../src/features/library/import-client';
 
 const bs = () => useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!;
@@ -159,6 +159,30 @@ describe('Library screen', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Delete BW-190' }));
     expect(screen.getByText(/BW-190 is used in 4 recipes/)).toBeTruthy();
     expect(bs()).toBeTruthy();
+  });
+
+  it('does not delete a stock the whole-line plan or a QC record still names, and says where (plant loop defect hunt)', () => {
+    // BW-499 is in no recipe: kept in use by the line plan, and on hand for a batch correction of VG 320
+    linePlanActions.setKeep('demo-bw-499', 20_000);
+    recipeActions.setQcInputs('demo-vg320', {
+      correction: { kv40: null, kv100: null, massKg: null, vesselLimitKg: null, bandPct: null, objective: 'cost', onHandKg: {}, stockIds: ['demo-bw-499'] },
+    });
+    renderFor('BW-499');
+    fireEvent.click(screen.getByRole('button', { name: 'Delete BW-499' }));
+    const text = screen.getByText(/BW-499 is named in/).textContent!;
+    expect(text).toMatch(/the whole-line plan \(kept in use\)/);
+    expect(text).toMatch(/the QC loop of “Gear oil VG 320 — current recipe \(invented demo\)” \(stocks on hand for a correction\)/);
+    expect(text).toMatch(/so it was not deleted/);
+    expect(useLibrary.getState().components.some((c) => c.id === 'demo-bw-499')).toBe(true);
+    // once no longer named, it can be deleted
+    act(() => {
+      linePlanActions.setKeep('demo-bw-499', null);
+      recipeActions.setQcInputs('demo-vg320', {
+        correction: { kv40: null, kv100: null, massKg: null, vesselLimitKg: null, bandPct: null, objective: 'cost', onHandKg: {}, stockIds: [] },
+      });
+    });
+    fireEvent.click(screen.getByRole('button', { name: 'Delete BW-499' }));
+    expect(useLibrary.getState().components.some((c) => c.id === 'demo-bw-499')).toBe(false);
   });
 
   it('refuses a duplicate stock code', () => {
