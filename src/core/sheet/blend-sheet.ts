@@ -639,7 +639,15 @@ export const INDEX_EXTRAPOLATED = 'extrapolated estimate';
 export const PER_SPECIFICATION = 'Per specification';
 
 /** "a–b", "≥ a", "≤ b" or "Per specification", with `d` decimals written by `fmt`. */
-function limitText(min: number | null, max: number | null, d: number, fmt: (x: number, d: number) => string = fixedDot): string {
+/**
+ * A release limit as printed: "a–b", "≥ a", "≤ b", or "Per specification" when neither is given.
+ *
+ * @param min - lower limit, or null
+ * @param max - upper limit, or null
+ * @param d - decimals printed
+ * @param fmt - number formatter (default: "." without grouping)
+ */
+export function limitText(min: number | null, max: number | null, d: number, fmt: (x: number, d: number) => string = fixedDot): string {
   if (min !== null && max !== null) return `${fmt(min, d)}–${fmt(max, d)}`;
   if (min !== null) return `≥ ${fmt(min, d)}`;
   if (max !== null) return `≤ ${fmt(max, d)}`;

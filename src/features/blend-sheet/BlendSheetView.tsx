@@ -16,6 +16,7 @@ import {
   blendSheetCsvRows,
   buildBlendSheet,
   defaultBlendingInstructions,
+  limitText,
   qcReleaseTargets,
   type BlendSheet,
   type QcRow,
@@ -27,7 +28,7 @@ import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { QcPanel } from './QcPanel';
 import { probabilityText } from '../../components/format';
 import { methodText } from '../../components/notices';
-import { CorrectionSheet } from './CorrectionSheet';
+import { CorrectionSheet, correctedKv100Outside } from './CorrectionSheet';
 import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, recipeAdditive } from './qc';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
@@ -302,8 +303,16 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     const added = Object.entries(correction.result.addKg)
       .filter(([, kg]) => kg > 0)
       .map(([code]) => code);
-    return correctionHoldReasons(hold, added, components);
-  }, [correction, hold, components]);
+    const reasons = correctionHoldReasons(hold, added, components);
+    const spec = recipe?.specification;
+    if (spec && correctedKv100Outside(correction.result.kv100, spec)) {
+      reasons.push({
+        kind: 'release-limit',
+        message: `The corrected batch misses a release limit — Kinematic viscosity at 100 °C: predicted ${fmt(correction.result.kv100, 2)} mm²/s, limit ${limitText(spec.kv100Min, spec.kv100Max, 2, fmt)}.`,
+      });
+    }
+    return reasons;
+  }, [correction, hold, components, recipe, fmt]);
   const heelSources = useMemo(() => {
     const byIdAll = new Map(components.map((c) => [c.id, c]));
     return recipes

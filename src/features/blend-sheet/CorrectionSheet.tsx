@@ -2,7 +2,7 @@
 // order to charge it, with the same cautions as the blend sheet. Printed through the blend sheet's own
 // print path (the screen chooses which of the two documents the printer gets).
 import type { Recipe } from '../../core/formulation/model';
-import { PER_SPECIFICATION } from '../../core/sheet/blend-sheet';
+import { PER_SPECIFICATION, limitText } from '../../core/sheet/blend-sheet';
 import { SheetFooter } from './SheetFooter';
 import type { CorrectionProblem, CorrectionResult } from '../../core/qc/correction';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
@@ -40,6 +40,9 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
     .map(([code, kg]) => ({ code, kg, kv40: problem.components.find((c) => c.id === code)?.kv40 ?? 0 }))
     .sort((a, b) => (a.code === p.additiveCode ? 1 : b.code === p.additiveCode ? -1 : b.kv40 - a.kv40));
   let running = problem.vessel.massKg;
+  // The specification's ν100 limits, as on the blend sheet (the correction itself aims at ν40 only).
+  const spec = p.recipe.specification;
+  const kv100Outside = correctedKv100Outside(result.kv100, spec);
   return (
     <article className={`blend-sheet bs-correction print-page bs-paper-${p.paper}`} aria-label="Printable correction sheet" data-testid="correction-sheet">
       <header className="bs-head">
@@ -159,11 +162,14 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
             <td className="bs-measured" />
             <td className="bs-initials" />
           </tr>
-          <tr>
+          <tr className={kv100Outside ? 'bs-outside' : undefined}>
             <th scope="row">Kinematic viscosity at 100 °C</th>
             <td>mm²/s</td>
-            <td className="bs-num">{fmt(result.kv100, 2)}</td>
-            <td>information</td>
+            <td className="bs-num">
+              {kv100Outside ? <span className="bs-flag">outside </span> : null}
+              {fmt(result.kv100, 2)}
+            </td>
+            <td>{limitText(spec.kv100Min, spec.kv100Max, 2, fmt)}</td>
             <td>ASTM D445</td>
             <td className="bs-measured" />
             <td className="bs-initials" />
@@ -186,4 +192,9 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
       <SheetFooter roles={['Corrected by', 'QC tested by', 'Released by']} />
     </article>
   );
+}
+
+/** Whether a corrected batch's predicted ν100 [mm²/s] lies outside the specification's ν100 limits. */
+export function correctedKv100Outside(kv100: number, spec: { kv100Min: number | null; kv100Max: number | null }): boolean {
+  return (spec.kv100Min !== null && kv100 < spec.kv100Min) || (spec.kv100Max !== null && kv100 > spec.kv100Max);
 }

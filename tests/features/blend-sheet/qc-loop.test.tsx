@@ -212,4 +212,30 @@ describe('Blend sheet — the QC loop', () => {
     expect(text).toMatch(/The component table cannot be built: enter the batch size \(kg, or litres at 15 °C\)\./);
     expect(text).not.toMatch(/Batch\.kg|batch\.kg/);
   });
+
+  it('the correction sheet holds the corrected ν100 against the specification’s ν100 limits, as the blend sheet does (plant loop defect hunt)', () => {
+    // an invented specification limit for this test: ν100 ≥ 30 mm²/s
+    useRecipes.setState((st) => ({
+      recipes: st.recipes.map((r) => (r.id === 'demo-vg320' ? { ...r, specification: { ...r.specification, kv100Min: 30, kv100Max: null } } : r)),
+    }));
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const sheet = screen.getByTestId('correction-sheet');
+    const row = within(sheet).getByRole('rowheader', { name: 'Kinematic viscosity at 100 °C' }).closest('tr')!;
+    expect(row.textContent).toContain('≥ 30.00');
+    expect(row.textContent).not.toContain('information');
+    // the corrected batch's predicted ν100 (a VG 320 near 23–25 mm²/s) is below it: flagged, as on the blend sheet
+    expect(row.textContent).toMatch(/outside/);
+    expect(within(sheet).getByTestId('correction-hold').textContent).toMatch(/The corrected batch misses a release limit — Kinematic viscosity at 100 °C: predicted [\d.]+ mm²\/s, limit ≥ 30\.00/);
+    expect(screen.getByRole('button', { name: 'Print correction sheet — HOLD — not for release' })).toBeTruthy();
+  });
+
+  it('without a ν100 limit in the specification the correction sheet prints “Per specification”, as the blend sheet does', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const row = within(screen.getByTestId('correction-sheet')).getByRole('rowheader', { name: 'Kinematic viscosity at 100 °C' }).closest('tr')!;
+    expect(row.textContent).toContain('Per specification');
+  });
 });
