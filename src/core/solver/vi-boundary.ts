@@ -146,9 +146,12 @@ const PIECE_H1_HI = new Float64Array(ROWS + 1);
 
 /**
  * The largest amount by which a line can exceed h on piece k of the module's point buffer
- * (−(lower bound of h − line), the bounds of `relaxationInTable`); ≤ 0 where it cannot.
+ * (−(lower bound of h − line), the bounds of `relaxationInTable`); ≤ 0 where it cannot. When the
+ * bound below the chord of φ already shows a deficit of −`enough` or less, that is returned without
+ * the two Taylor bounds (they could only lower it further, and the caller does nothing with a
+ * deficit below −enough).
  */
-function pieceDeficit(line: ViChord, k: number): number {
+function pieceDeficit(line: ViChord, k: number, enough: number): number {
   const x0 = POINT_X40[k] as number;
   const x1 = POINT_X40[k + 1] as number;
   const f0 = (POINT_X100[k] as number) - (line.alpha + line.beta * x0);
@@ -157,6 +160,7 @@ function pieceDeficit(line: ViChord, k: number): number {
   const mHi = PIECE_H2_HI[k] as number;
   const mLo = PIECE_H2_LO[k] as number;
   let lb = Math.min(f0, f1) - (mHi > 0 ? (mHi * w * w) / 8 : 0);
+  if (lb >= enough) return -lb;
   const left = quadraticMin(f0, (PIECE_H1_LO[k] as number) - line.beta, mLo, w);
   if (left > lb) lb = left;
   const right = quadraticMin(f1, line.beta - (PIECE_H1_HI[k] as number), mLo, w);
@@ -667,7 +671,8 @@ export class ViBoundary {
       const lu = Math.log(su);
       const inv = 1 / (su * lu);
       ROW_U[q] = U;
-      ROW_X40[q] = VBN_A * Math.log(lu) + VBN_B;
+      // X40 of the rows inside only (the two bracketing rows bound the end pieces, no point there).
+      if (r !== r0 && r !== r1) ROW_X40[q] = VBN_A * Math.log(lu) + VBN_B;
       ROW_PU[q] = (su * lu) / VBN_A;
       ROW_DDXU[q] = VBN_A * (lu + 1) * inv * inv;
       ROW_YN[q] = yN;
@@ -760,6 +765,9 @@ export class ViBoundary {
     // Deficits of the end lines on the pieces they are turned for: the largest over those pieces
     // (≤ 0 when no turn is needed), and 0 after a turn (those pieces are then covered exactly,
     // to rounding); only the end piece is checked again below.
+    // Deficits at or below −round change nothing (a line is lowered by deficit + round only when
+    // that is positive), so each piece's bound stops there.
+    const round = 1.1e-12 * Math.max(1, Math.abs(ha), Math.abs(hb));
     let coveredA = -Infinity;
     let coveredB = -Infinity;
     if (lines.length === 3) {
@@ -767,13 +775,13 @@ export class ViBoundary {
       let turnB = 0;
       for (let k = 0; k < np - 1; k++) {
         if (k > 0) {
-          const d = pieceDeficit(lines[1] as ViChord, k);
+          const d = pieceDeficit(lines[1] as ViChord, k, round);
           if (d > coveredA) coveredA = d;
           const t = d / ((POINT_X40[k] as number) - a);
           if (t > turnA) turnA = t;
         }
         if (k < np - 2) {
-          const d = pieceDeficit(lines[2] as ViChord, k);
+          const d = pieceDeficit(lines[2] as ViChord, k, round);
           if (d > coveredB) coveredB = d;
           const t = d / (b - (POINT_X40[k + 1] as number));
           if (t > turnB) turnB = t;
@@ -790,14 +798,13 @@ export class ViBoundary {
         coveredB = 0;
       }
     }
-    const round = 1.1e-12 * Math.max(1, Math.abs(ha), Math.abs(hb));
     for (let l = 0; l < lines.length; l++) {
       const line = lines[l] as ViChord;
       let deficit = l === 1 ? coveredA : l === 2 ? coveredB : -Infinity;
       const from = l === 2 ? np - 2 : 0;
       const to = l === 1 ? 1 : np - 1;
       for (let k = from; k < to; k++) {
-        const d = pieceDeficit(line, k);
+        const d = pieceDeficit(line, k, round);
         if (d > deficit) deficit = d;
       }
       if (deficit + round > 0) line.alpha -= deficit + round;
