@@ -289,7 +289,9 @@ export function prepareEngine(
     bandA,
     bandB,
     vi,
-    cache: {},
+    // Every slot present from the start (undefined until computed): every problem's cache then has
+    // the same shape whatever it computes first, so its look-ups stay monomorphic.
+    cache: { viRoot: undefined, viFloor: undefined, viSureKv100: undefined, closest: undefined, objectives: undefined, inBand: undefined },
     reference,
     forced,
     usableIndices,
