@@ -126,7 +126,8 @@ export type EngineObjective = RatioObjective | ClosestObjective;
 
 /**
  * One number per component, aligned with `components` (written once by `prepareEngine`, read-only
- * afterwards).
+ * afterwards; a column that is one constant for every component is a shared one, possibly longer
+ * than the number of components).
  */
 export type Column = Float64Array;
 
@@ -181,6 +182,22 @@ export interface PreparedProblem {
   readonly anyBounds: boolean;
 }
 
+/** Shared read-only columns of 1, 0 and NaN (grown to the largest problem seen, never shrunk). */
+const CONSTANT_COLUMNS = { one: new Float64Array(16).fill(1), zero: new Float64Array(16), nan: new Float64Array(16).fill(Number.NaN) };
+
+/**
+ * A column of `n` or more entries all equal to 1, 0 or NaN, shared by every prepared problem: a
+ * constant of the formulation, not data of any problem. Read-only (nothing writes a column).
+ */
+function constantColumn(which: 'one' | 'zero' | 'nan', n: number): Column {
+  let col = CONSTANT_COLUMNS[which];
+  if (col.length < n) {
+    col = new Float64Array(Math.max(n, 2 * col.length)).fill(which === 'one' ? 1 : which === 'zero' ? 0 : Number.NaN);
+    CONSTANT_COLUMNS[which] = col;
+  }
+  return col;
+}
+
 /**
  * Precompute the engine's numbers.
  *
@@ -201,15 +218,20 @@ export function prepareEngine(
   // allocation each, no growth, less garbage than plain arrays grown by push).
   const x40 = new Float64Array(n);
   const x100 = new Float64Array(n);
-  const c = new Float64Array(n);
   const invRho = new Float64Array(n);
   const ap = new Float64Array(n);
   const price = new Float64Array(n);
-  const ox = new Float64Array(n);
-  const pourRel = new Float64Array(n);
-  const flashRel = new Float64Array(n);
   const pourMax = targets.maxPourPoint === null ? null : pourBlendingIndex(targets.maxPourPoint);
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
+  // Columns that are the same constant for every component share one read-only column of that
+  // constant (no array of their own): the basis weight of a mass-basis rule (1), the pour and flash
+  // indices without a limit (NaN), the oxidation ratings when every one is 0.
+  const c = coords.massBasis ? constantColumn('one', n) : new Float64Array(n);
+  const pourRel = pourMax === null ? constantColumn('nan', n) : new Float64Array(n);
+  const flashRel = flashMax === null ? constantColumn('nan', n) : new Float64Array(n);
+  let anyOx = false;
+  for (let i = 0; i < n; i++) if (components[i]!.baseFluid && components[i]!.oxidation !== 0) anyOx = true;
+  const ox = anyOx ? new Float64Array(n) : constantColumn('zero', n);
   const forced: number[] = [];
   const usableIndices: number[] = [];
   let anyBounds = false;
@@ -220,12 +242,12 @@ export function prepareEngine(
     x40[i] = coords.acceptsKv(k.kv40) ? coords.toXRaw(k.kv40) : coords.toX(k.kv40);
     x100[i] = coords.acceptsKv(k.kv100) ? coords.toXRaw(k.kv100) : coords.toX(k.kv100);
     invRho[i] = 1 / k.density15;
-    c[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
+    if (!coords.massBasis) (c as Float64Array)[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
     ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
     price[i] = k.pricePerKg;
-    ox[i] = k.baseFluid ? k.oxidation : 0;
-    pourRel[i] = pourMax !== null && k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
-    flashRel[i] = flashMax !== null && k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
+    if (anyOx) (ox as Float64Array)[i] = k.baseFluid ? k.oxidation : 0;
+    if (pourMax !== null) (pourRel as Float64Array)[i] = k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
+    if (flashMax !== null) (flashRel as Float64Array)[i] = k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
     if (k.usable) usableIndices.push(i);
     if (k.min > 0) forced.push(i);
     if (k.min > 0 || k.max < 1 || k.fixedAdditive) anyBounds = true;
