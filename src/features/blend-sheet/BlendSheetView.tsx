@@ -26,7 +26,7 @@ import { DEFAULT_QC_INPUTS, DEFAULT_SHEET_INPUTS, sayRefusal, type QcInputs, typ
 import { BLEND_METHOD_LABEL } from '../../core/blending/blend-viscosity';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { QcPanel } from './QcPanel';
-import { probabilityText } from '../../components/format';
+import { parseEntry, parseNumber, probabilityText } from '../../components/format';
 import { methodText } from '../../components/notices';
 import { CorrectionSheet, correctedKv100Outside } from './CorrectionSheet';
 import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, recipeAdditive } from './qc';
@@ -99,9 +99,12 @@ const defaultFormat = (x: number, d: number) => formatFixed(x, d, { thousandsGro
 /** Sheet fields typed as text (a refused value stays shown in its field with the message). */
 type TypedField = 'lot' | 'vessel' | 'batchSize' | 'instructions';
 
-/** The batch size as the number input gives it (plain JavaScript number text), or null when blank. */
-function parseBatchSize(text: string): number | null {
-  return text.trim() === '' ? null : Number(text);
+/**
+ * A reader of the batch size as typed, with the decimal separator of the settings (never guessed:
+ * `parseEntry`): the number, null when blank, NaN when it cannot be read.
+ */
+function batchSizeReader(sep: '.' | ','): (text: string) => number | null {
+  return (text) => parseNumber(text, sep);
 }
 
 /** Why a typed sheet field was not saved; the stored value is kept. */
@@ -144,11 +147,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.text : stored;
   const refusal = (field: TypedField): string | null =>
     refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.message : null;
+  const sep = display.decimalSeparator ?? '.';
+  const readBatch = batchSizeReader(sep);
   const setInputs = (patch: Partial<SheetInputs>, field?: TypedField) => {
     if (!recipe) return;
     const next = { ...DEFAULT_SHEET_INPUTS, ...saved, ...patch };
-    const parse = patch.batchSize === undefined ? undefined : parseBatchSize;
+    const parse = patch.batchSize === undefined ? undefined : readBatch;
+    const typed = patch.batchSize === undefined ? null : parseEntry(patch.batchSize, sep).error;
     const message =
+      (typed ? `Batch size: ${typed.replace(/\.$/, '')}` : null) ??
       firstProblem(sheetProblems(next, undefined, parse)) ??
       (props.onSheetInputsChange ? props.onSheetInputsChange(recipe.id, patch, parse) ?? null : null);
     if (message) {
@@ -163,7 +170,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const setLot = (lot: string) => setInputs({ lot }, 'lot');
   const setVessel = (vessel: string) => setInputs({ vessel }, 'vessel');
 
-  const batchValue = Number(batchSize);
+  const batchValue = readBatch(batchSize);
   const exchange = props.exchange;
   // Prices restated in the base currency at the boundary; a stock without a rate keeps its own
   // currency, so the costing refuses to add it in (and says which stock and currency).
@@ -173,7 +180,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   );
   const built = useMemo((): { sheet: BlendSheet } | { error: string } | null => {
     if (!recipe) return null;
-    if (batchSize.trim() === '') return { error: 'enter the batch size (kg, or litres at 15 °C).' };
+    if (batchValue === null) return { error: 'enter the batch size (kg, or litres at 15 °C).' };
+    if (Number.isNaN(batchValue)) {
+      return { error: `the batch size “${batchSize.trim()}” cannot be read with the decimal separator “${sep}” (Settings); type it again.` };
+    }
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
       return {
@@ -551,9 +561,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-no-print bs-batch-inputs">
                 <input
                   id={`${id}-size`}
-                  type="number"
-                  min="0"
-                  step="any"
+                  type="text"
+                  autoComplete="off"
                   inputMode="decimal"
                   value={draft('batchSize', batchSize)}
                   aria-invalid={refusal('batchSize') ? true : undefined}

@@ -87,6 +87,28 @@ describe('Blend sheet fields keep to the stored limits (issue 10 item 1)', () =>
     expect(screen.queryByText(/The lot number is/)).toBeNull();
   });
 
+  it('reads the batch size with the decimal separator of the settings, and refuses the other mark where typed (plant loop defect hunt)', () => {
+    settingsActions.updateSettings({ decimalSeparator: ',', thousandsGrouping: false });
+    try {
+      render(<BlendSheetScreen />);
+      const size = screen.getByLabelText('Batch size') as HTMLInputElement;
+      fireEvent.change(size, { target: { value: '2500,5' } });
+      expect(useRecipes.getState().sheets['demo-vg320']!.batchSize).toBe('2500,5');
+      // 2 500,5 kg as typed, written back with the comma
+      expect(document.querySelector('.bs-batch-text')!.textContent).toMatch(/^2500,5 kg/);
+      fireEvent.change(size, { target: { value: '2500.5' } });
+      expect(screen.getByText(/Batch size: Decimal separator is “,” \(Settings\): “2500\.5” could mean 2500,5 or 25005/)).toBeTruthy();
+      expect(size.value).toBe('2500.5'); // still shown for the user to correct
+      expect(useRecipes.getState().sheets['demo-vg320']!.batchSize).toBe('2500,5');
+    } finally {
+      settingsActions.updateSettings({ decimalSeparator: '.' });
+    }
+    // a size saved with the other separator is not guessed: the sheet says so instead of building a table
+    cleanup();
+    render(<BlendSheetScreen />);
+    expect(screen.getByText(/The component table cannot be built: the batch size “2500,5” cannot be read with the decimal separator “\.” \(Settings\)/)).toBeTruthy();
+  });
+
   it('the store itself refuses what the rules refuse (the last guard)', () => {
     expect(recipeActions.setSheetInputs('demo-vg320', { lot: 'L'.repeat(500) })).toMatch(/lot number is 500 characters/);
     expect(recipeActions.setSheetInputs('demo-vg320', { batchSize: '5e40' }, Number)).toMatch(/batch size 5e\+40 is outside/);
