@@ -6,7 +6,7 @@ import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { leastUseAboveSupply, linePlanActions, type LinePlanInputs } from '../../state';
 import { NUMBER_RULES, checkText } from '../../state/field-rules';
-import { limitedStocks, plannedDemands } from './derive';
+import { limitedStocks, plannedDemands, unplannedDemands } from './derive';
 
 /** kg per unit the user types in. */
 const PER_UNIT = { kg: 1, t: 1000 } as const;
@@ -52,6 +52,7 @@ export function PlanInputs({
   // Recipes that can take part: not replaced by an approved revision, not archived. By default the
   // approved ones and those with a demand; drafts on request.
   const demands = plannedDemands(recipes, plan);
+  const unplanned = unplannedDemands(recipes, plan);
   const sorted = recipes
     .filter((r) => r.status !== 'superseded' && !r.archived)
     .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name));
@@ -143,6 +144,23 @@ export function PlanInputs({
             </tfoot>
           </table>
         </div>
+        {unplanned.length > 0 && (
+          <p className="small" role="status" data-testid="unplanned-demands">
+            Not planned:{' '}
+            {unplanned
+              .map((u) => `${fmt.num(u.kg / PER_UNIT[unit], unit === 't' ? 1 : 0)} ${unit} for ${u.recipe ? `“${u.recipe.name}” (archived)` : 'a recipe since deleted'}`)
+              .join('; ')}
+            . Restore the recipe on Recipes to plan it again, or{' '}
+            <button
+              type="button"
+              className="link-button"
+              disabled={disabled}
+              onClick={() => linePlanActions.setDemand(unplanned[0]!.key, null, unplanned.slice(1).map((u) => u.key))}
+            >
+              Clear these demands
+            </button>
+          </p>
+        )}
         {(hidden > 0 || showAll) && (
           <button type="button" className="link-button" onClick={() => setShowAll(!showAll)}>
             {showAll ? 'Show only approved and planned recipes' : `Show drafts too (${hidden} more)`}

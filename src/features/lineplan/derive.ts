@@ -68,6 +68,20 @@ export function plannedDemands(recipes: readonly Recipe[], plan: LinePlanInputs)
   return out;
 }
 
+/**
+ * Saved demands that are not planned: their recipe (or the newest approved revision it leads to) is
+ * archived or no longer saved. The screen names them, so a grade does not leave the line unnoticed.
+ *
+ * @returns each demand's saved key, its quantity [kg] and the archived recipe (null when deleted)
+ */
+export function unplannedDemands(recipes: readonly Recipe[], plan: LinePlanInputs): { key: string; kg: number; recipe: Recipe | null }[] {
+  return Object.entries(plan.demands).flatMap(([key, kg]) => {
+    if (!(kg > 0)) return [];
+    const r = currentRecipe(recipes, key);
+    return !r || r.archived ? [{ key, kg, recipe: r }] : [];
+  });
+}
+
 /** The planned recipes (a demand above 0, recipe still saved), by grade then name. */
 export function plannedGrades(recipes: readonly Recipe[], plan: LinePlanInputs): PlanGrade[] {
   const demands = plannedDemands(recipes, plan);

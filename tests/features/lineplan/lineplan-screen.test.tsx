@@ -5,7 +5,7 @@ import LinePlanScreen from '../../../src/features/lineplan/LinePlanScreen';
 import { setPlanWorkerFactory, type PlanReply, type PlanRequest, type PlanWorker } from '../../../src/features/lineplan/plan-client';
 import { screenActions } from '../../../src/features/lineplan/store';
 import { planLineScenarios } from '../../../src/core/lineplan/plan';
-import { linePlanActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
+import { linePlanActions, recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 
 /** The worker's job, run in this thread on the next task (jsdom has no Worker). */
 function inThreadPlanWorker(): PlanWorker {
@@ -54,6 +54,19 @@ async function planDemo() {
 }
 
 describe('Whole-line plan screen', () => {
+  it('says which saved demands are not planned because their recipe was archived or deleted, and clears them on request (plant loop defect hunt)', () => {
+    linePlanActions.setDemand('demo-vg460', 250_000);
+    linePlanActions.setDemand('demo-vg680', 150_000);
+    recipeActions.setArchived('demo-vg460', true);
+    recipeActions.removeRecipe('demo-vg680');
+    render(<LinePlanScreen />);
+    const note = screen.getByTestId('unplanned-demands').textContent!;
+    expect(note).toMatch(/Not planned: 250\.0 t for “Gear oil VG 460 — current recipe \(invented demo\)” \(archived\); 150\.0 t for a recipe since deleted\./);
+    fireEvent.click(screen.getByRole('button', { name: 'Clear these demands' }));
+    expect(useRecipes.getState().linePlan.demands).toEqual({});
+    expect(screen.queryByTestId('unplanned-demands')).toBeNull();
+  });
+
   it('saves demands and supplies as typed, and refuses a bad entry at the field in the user’s words', () => {
     render(<LinePlanScreen />);
     enter(/Demand of “Gear oil VG 320/, '400');
