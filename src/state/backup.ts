@@ -126,6 +126,32 @@ export function parseBackupText(text: string): BackupParse {
     warnings.push('The active recipe named in the backup is missing; none will be active.');
     rec.data.activeRecipeId = null;
   }
+  // Entries that name a stock or recipe the backup does not hold are kept, but they do nothing (the
+  // plan and the QC loop skip them): say so before the import rather than drop them unannounced.
+  const recipeIds = new Set(rec.data.recipes.map((r) => r.id));
+  const few = (xs: readonly string[]) => (xs.length > 5 ? `${xs.slice(0, 5).join(', ')} …` : xs.join(', '));
+  const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+  const plan = rec.data.linePlan;
+  const planStocks = [...new Set([...Object.keys(plan.supplies), ...Object.keys(plan.keep)])].filter((id) => !ids.has(id)).sort();
+  if (planStocks.length) {
+    warnings.push(
+      `The line plan names ${plural(planStocks.length, 'stock', 'stocks')} that ${planStocks.length === 1 ? 'is' : 'are'} not in the backup’s library (${few(planStocks)}); ${planStocks.length === 1 ? 'it is' : 'they are'} ignored.`,
+    );
+  }
+  const planRecipes = Object.keys(plan.demands).filter((id) => !recipeIds.has(id));
+  if (planRecipes.length) {
+    warnings.push(`The line plan holds a demand for ${plural(planRecipes.length, 'recipe', 'recipes')} that ${planRecipes.length === 1 ? 'is' : 'are'} not in the backup; ${planRecipes.length === 1 ? 'it is' : 'they are'} not planned.`);
+  }
+  for (const r of rec.data.recipes) {
+    const q = rec.data.qc[r.id];
+    if (!q) continue;
+    const named = [...new Set([...Object.keys(q.lots), ...Object.keys(q.correction.onHandKg), ...q.correction.stockIds])].filter((id) => !ids.has(id)).sort();
+    if (named.length) {
+      warnings.push(
+        `The QC entries of “${r.name}” name ${named.length === 1 ? 'a stock' : `${named.length} stocks`} that ${named.length === 1 ? 'is' : 'are'} not in the backup’s library (${few(named)}); ${named.length === 1 ? 'it is' : 'they are'} ignored.`,
+      );
+    }
+  }
   return {
     ok: true,
     backup: { library: lib.data, recipes: rec.data, settings: set.data, exportedAt: env.data.exportedAt },

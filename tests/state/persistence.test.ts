@@ -269,6 +269,28 @@ describe('export-all and import-all backups', () => {
     expect(JSON.stringify(m.state.persistedData('library'))).toBe(before);
   });
 
+  it('names what a backup’s line plan and QC records say about stocks and recipes it does not hold, rather than dropping them unannounced (plant loop defect hunt)', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const good = JSON.parse(m.backup.makeBackupText());
+    const clean = m.backup.parseBackupText(JSON.stringify(good));
+    expect(clean.ok && clean.warnings).toEqual([]);
+    const odd = structuredClone(good);
+    const d = odd.sections.recipes.data;
+    d.linePlan.keep['ghost-stock'] = 5000;
+    d.linePlan.supplies['ghost-stock-2'] = 1000;
+    d.linePlan.demands['ghost-recipe'] = 250000;
+    d.qc['demo-vg320'] = { ...(d.qc['demo-vg320'] ?? {}), ...structuredClone(m.state.DEFAULT_QC_INPUTS) };
+    d.qc['demo-vg320'].correction.stockIds = ['ghost-stock'];
+    const r = m.backup.parseBackupText(JSON.stringify(odd));
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    const w = r.warnings.join(' ');
+    expect(w).toMatch(/The line plan names 2 stocks that are not in the backup’s library \(ghost-stock, ghost-stock-2\); they are ignored\./);
+    expect(w).toMatch(/The line plan holds a demand for 1 recipe that is not in the backup; it is not planned\./);
+    expect(w).toMatch(/The QC entries of “Gear oil VG 320 — current recipe \(invented demo\)” name a stock that is not in the backup’s library \(ghost-stock\); it is ignored\./);
+  });
+
   it('refuses absurd values with the same field rules as entry, naming every record and field, and touches nothing stored (issue 10 item 6)', async () => {
     const m = await load();
     await m.state.startSavedWork({ requestPersistence: false });
