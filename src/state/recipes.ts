@@ -71,6 +71,11 @@ export interface NewRecipe {
   /** The stock data the lines were solved with (record it with `recordStockBasis`). */
   stockBasis?: StockBasis | null;
   reasonForChange?: string;
+  /**
+   * The recipe's saved targets (constraints), stored with it in the same step, so that one undo
+   * removes both (a recipe is never left without the targets it was saved with).
+   */
+  targets?: BlendTargets;
 }
 
 /** What a saved change of a recipe may carry (any subset). */
@@ -297,7 +302,12 @@ export const useRecipesStore = create<RecipesState>()(
               reasonForChange: init.reasonForChange ?? '',
             };
             addChecked(recipe);
-            set((s) => ({ recipes: [...s.recipes, recipe] }));
+            const t = init.targets;
+            if (t) {
+              const bad = targetsProblems(t, recipeWho(recipe.name));
+              if (bad.length) throw new FieldRuleError(bad);
+            }
+            set((s) => ({ recipes: [...s.recipes, recipe], targets: t ? { ...s.targets, [id]: structuredClone(t) } : s.targets }));
             return id;
           },
           updateRecipe: (id, patch) => {

@@ -158,11 +158,12 @@ export default function DesignerScreen() {
           // ("Per specification") rather than printing the other grade's release limits.
           specification: sourceRecipe && sourceRecipe.grade === s.targets.grade ? sourceRecipe.specification : undefined,
           stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
+          // Saved with the recipe in one step: one undo removes both.
+          targets: s.targets,
         });
       } catch (e) {
         return { refused: (e as Error).message };
       }
-      recipeActions.setTargets(id, s.targets);
       recipeActions.setActiveRecipe(id);
       s.markSaved(id);
       s.setName(n);

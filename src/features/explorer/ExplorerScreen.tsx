@@ -202,8 +202,9 @@ export default function ExplorerScreen() {
       specification: reference.specification,
       stockBasis: recordStockBasis(components, c.lines, new Date().toISOString()),
       reasonForChange: withdrawnCodes.length ? `Substitute for withdrawn ${withdrawnCodes.join(', ')}` : '',
+      // Saved with the recipe in one step: one undo removes both.
+      targets: { ...targets, referenceRecipeId: reference.id },
     });
-    recipeActions.setTargets(id, { ...targets, referenceRecipeId: reference.id });
     recipeActions.setActiveRecipe(id);
     useExplorerStore.getState().markAdopted(c.key, id);
   };

@@ -164,6 +164,17 @@ describe('Recipe designer', () => {
     expect(saved.specification.reference).toMatch(/VG320/);
   });
 
+  it('Save as new recipe is one undo step: one undo removes the recipe and its saved targets together (second defect hunt)', () => {
+    render(<DesignerScreen />);
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 undo' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    const id = useRecipes.getState().recipes.at(-1)!.id;
+    expect(useRecipes.getState().targets[id]).toBeDefined();
+    act(() => useRecipes.temporal.getState().undo());
+    expect(useRecipes.getState().recipes.some((r) => r.id === id)).toBe(false);
+    expect(useRecipes.getState().targets[id]).toBeUndefined();
+  });
+
   it('a new recipe saved in another grade does not carry the other grade’s product specification (plant loop defect hunt)', () => {
     render(<DesignerScreen />);
     fireEvent.change(screen.getByLabelText('ISO viscosity grade'), { target: { value: '460' } });

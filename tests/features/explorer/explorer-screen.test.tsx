@@ -92,6 +92,21 @@ describe('Substitute explorer', () => {
     expect(screen.getByTestId('adopted').textContent).toContain(r.name);
   });
 
+  it('adopting is one undo step: one undo removes the recipe and its saved targets together (no recipe left without its targets)', async () => {
+    await runWithBrightStockWithdrawn();
+    const before = useRecipes.getState().recipes.length;
+    fireEvent.click(screen.getByText('Adopt as a new recipe'));
+    await waitFor(() => expect(useRecipes.getState().recipes.length).toBe(before + 1));
+    const id = useRecipes.getState().recipes.at(-1)!.id;
+    expect(useRecipes.getState().targets[id]?.referenceRecipeId).toBe(useExplorerStore.getState().referenceId);
+    act(() => useRecipes.temporal.getState().undo());
+    expect(useRecipes.getState().recipes.some((r) => r.id === id)).toBe(false);
+    expect(useRecipes.getState().targets[id]).toBeUndefined();
+    act(() => useRecipes.temporal.getState().redo());
+    expect(useRecipes.getState().recipes.some((r) => r.id === id)).toBe(true);
+    expect(useRecipes.getState().targets[id]).toBeDefined();
+  });
+
   it('shows every candidate’s probability in the plant and ISO bands, and beside the reference', async () => {
     await runWithBrightStockWithdrawn();
     const table = screen.getByTestId('candidates');
