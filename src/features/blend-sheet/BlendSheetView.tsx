@@ -747,7 +747,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 Cost: {fmt(sheet.costing.perKg, 3)} {currency}/kg · {fmt(sheet.costing.perLitre, 3)} {currency}/L at 15 °C ·{' '}
                 {sheet.costing.perDeliveredLitre ? (
                   <span data-testid="cost-delivered">
-                    {fmt(sheet.costing.perDeliveredLitre.cost, 3)} {currency} per delivered litre at {fmt(sheet.costing.perDeliveredLitre.tempC, 0)} °C
+                    {fmt(sheet.costing.perDeliveredLitre.cost, 3)} {currency} per delivered litre at {displayWords(display).sayTemp(sheet.costing.perDeliveredLitre.tempC)}
                     (ASTM D1250 Table 54D) ·{' '}
                   </span>
                 ) : null}

@@ -57,6 +57,21 @@ describe('Blend sheet screen (stores wired)', () => {
   });
 });
 
+describe('Blend sheet follows the temperature unit of the settings (second defect hunt)', () => {
+  it('names the delivery temperature of the cost per delivered litre in °F when °F is chosen', () => {
+    settingsActions.updateSettings({ temperatureUnit: 'F', deliveryTempC: 40 });
+    try {
+      render(<BlendSheetScreen />);
+      fireEvent.click(screen.getByLabelText('Costing copy'));
+      // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale): 40 °C = 104 °F
+      expect(screen.getByTestId('cost-delivered').textContent).toMatch(/per delivered litre at 104 °F/);
+      expect(screen.getByTestId('cost-delivered').textContent).not.toMatch(/40 °C/);
+    } finally {
+      settingsActions.updateSettings({ temperatureUnit: 'C', deliveryTempC: 15 });
+    }
+  });
+});
+
 describe('Blend sheet fields keep to the stored limits (issue 10 item 1)', () => {
   it('refuses a 500-character lot and vessel, 25,000 characters of instructions and a 40-digit batch size, keeping the saved values', () => {
     render(<BlendSheetScreen />);
