@@ -249,6 +249,8 @@ export default function SettingsScreen() {
   const status = useStorageStatus();
   const [resetDone, setResetDone] = useState(false);
   const sample = makeFormatter(s);
+  // A range given in °C, said in the unit of the settings ("between −76 °F and 392 °F").
+  const between = (loC: number, hiC: number) => `between ${fmt.sayTemp(loC)} and ${fmt.sayTemp(hiC)}`;
 
   return (
     <section className="settings-screen" aria-labelledby="settings-h">
@@ -310,7 +312,7 @@ export default function SettingsScreen() {
             unit={fmt.tempUnit}
             digits={s.temperatureUnit === 'F' ? 1 : undefined}
             value={fmt.tempValue(s.operatingTempC)}
-            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -60 || fmt.tempToC(v) > 200) ? 'between −60 and 200 °C' : undefined })}
+            validate={(v) => ({ error: v !== null && !(fmt.tempToC(v) >= -60 && fmt.tempToC(v) <= 200) ? between(-60, 200) : undefined })}
             onCommit={(v) => v !== null && update({ operatingTempC: fmt.tempToC(v) })}
           />
           <NumberField
@@ -318,7 +320,7 @@ export default function SettingsScreen() {
             unit={fmt.tempUnit}
             digits={s.temperatureUnit === 'F' ? 1 : undefined}
             value={fmt.tempValue(s.coldStartTempC)}
-            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -60 || fmt.tempToC(v) > 60) ? 'between −60 and 60 °C' : undefined })}
+            validate={(v) => ({ error: v !== null && !(fmt.tempToC(v) >= -60 && fmt.tempToC(v) <= 60) ? between(-60, 60) : undefined })}
             onCommit={(v) => v !== null && update({ coldStartTempC: fmt.tempToC(v) })}
           />
           <NumberField
@@ -326,7 +328,7 @@ export default function SettingsScreen() {
             unit={fmt.tempUnit}
             digits={s.temperatureUnit === 'F' ? 1 : undefined}
             value={fmt.tempValue(s.meteringTempC)}
-            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -20 || fmt.tempToC(v) > 150) ? 'between −20 and 150 °C' : undefined })}
+            validate={(v) => ({ error: v !== null && !(fmt.tempToC(v) >= -20 && fmt.tempToC(v) <= 150) ? between(-20, 150) : undefined })}
             onCommit={(v) => v !== null && update({ meteringTempC: fmt.tempToC(v) })}
           />
           <NumberField
@@ -334,7 +336,7 @@ export default function SettingsScreen() {
             unit={fmt.tempUnit}
             digits={s.temperatureUnit === 'F' ? 1 : undefined}
             value={fmt.tempValue(s.deliveryTempC)}
-            validate={(v) => ({ error: v !== null && (fmt.tempToC(v) < -20 || fmt.tempToC(v) > 150) ? 'between −20 and 150 °C' : undefined })}
+            validate={(v) => ({ error: v !== null && !(fmt.tempToC(v) >= -20 && fmt.tempToC(v) <= 150) ? between(-20, 150) : undefined })}
             onCommit={(v) => v !== null && update({ deliveryTempC: fmt.tempToC(v) })}
           />
           <p className="small muted">

@@ -42,3 +42,27 @@ describe('Settings: text limits at entry', () => {
     expect(useSettingsState.getState().settings.exchangeRates).toEqual([]);
   });
 });
+
+describe('Settings: temperature limits in the unit of the settings (second defect hunt)', () => {
+  it('says the range of a refused operating or cold-start temperature in °F when °F is chosen; nothing is stored', async () => {
+    const { loadUnitConversions } = await import('../../../src/components/format');
+    await loadUnitConversions(); // °F conversions (mathjs) load on demand
+    settingsActions.updateSettings({ temperatureUnit: 'F' });
+    try {
+      render(<SettingsScreen />);
+      const before = structuredClone(useSettingsState.getState().settings);
+      // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale): −60…200 °C = −76…392 °F; −60…60 °C = −76…140 °F
+      paste(screen.getByLabelText(/Gearbox operating temperature/), '500');
+      expect(screen.getByText(/between −76 °F and 392 °F/)).toBeTruthy();
+      paste(screen.getByLabelText(/Cold-start temperature/), '150');
+      expect(screen.getByText(/between −76 °F and 140 °F/)).toBeTruthy();
+      // below absolute zero (−459.67 °F) the conversion has no answer: refused with the range, not dropped silently
+      paste(screen.getByLabelText(/Metering temperature/), '-500');
+      expect(screen.getByText(/between −4 °F and 302 °F/)).toBeTruthy();
+      expect(document.body.textContent).not.toMatch(/between −60 and/);
+      expect(useSettingsState.getState().settings).toEqual(before);
+    } finally {
+      settingsActions.updateSettings({ temperatureUnit: 'C' });
+    }
+  });
+});
