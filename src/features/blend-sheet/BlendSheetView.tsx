@@ -10,7 +10,7 @@ import type { BlendTargets, Component, Recipe } from '../../core/formulation/mod
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { describeRate, priceLibraryInBase, pricingFor, rateDecimals, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { correctionHoldReasons, releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
-import { stockBasisChanges } from '../../core/recipes/stock-basis';
+import { stockBasisChanges, type StockFieldChange } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
 import {
   blendSheetCsvRows,
@@ -91,6 +91,13 @@ export interface BlendSheetViewProps {
   onPrint?: (doc?: 'sheet' | 'correction') => void;
   /** Called instead of the browser download with the CSV text and file name (tests). */
   onExportCsv?: (csv: string, fileName: string) => void;
+}
+
+/** A stock's value as recorded or now, in the user's decimal separator and temperature unit (as entered: up to six significant figures). */
+function changedValue(v: number | null, unit: StockFieldChange['unit'], display: NumberDisplay): string {
+  if (v === null) return '—';
+  const w = displayWords(display);
+  return unit === '°C' ? w.sayTemp(v) : `${w.say(v)} ${unit}`;
 }
 
 /** Without the user's formatter: the app's default style ("." and grouped thousands, "12 345.6"). */
@@ -604,7 +611,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               .map((c) =>
                 c.kind === 'deleted'
                   ? `${c.code} deleted from the library`
-                  : `${c.code} ${c.fields.map((f) => `${f.property} ${f.from ?? '—'} → ${f.to ?? '—'}${f.unit === '°C' ? ' °C' : ` ${f.unit}`}`).join(', ')}`,
+                  : `${c.code} ${c.fields.map((f) => `${f.property} ${changedValue(f.from, f.unit, display)} → ${changedValue(f.to, f.unit, display)}`).join(', ')}`,
               )
               .join('; ')}
             . The predictions below use the current data; review the recipe.

@@ -1,8 +1,9 @@
 // @vitest-environment jsdom
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import BlendSheetScreen from '../../../src/features/blend-sheet/BlendSheetScreen';
-import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
+import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
+import { loadUnitConversions } from '../../../src/components/format';
 
 beforeEach(() => {
   resetDemo();
@@ -58,6 +59,28 @@ describe('Blend sheet screen (stores wired)', () => {
 });
 
 describe('Blend sheet follows the temperature unit of the settings (second defect hunt)', () => {
+  it('writes the stock data changed since the recipe was saved with the decimal separator and temperature unit of the settings', async () => {
+    await loadUnitConversions(); // °F conversions (mathjs) load on demand
+    settingsActions.updateSettings({ temperatureUnit: 'F', decimalSeparator: ',' });
+    try {
+      const id = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!.lines[0]!.componentId;
+      const old = useLibrary.getState().components.find((c) => c.id === id)!;
+      // Invented edits: density +0.002 kg/L, pour point −6 °C → −12 °C (= 21.2 °F → 10.4 °F, t_F = 9/5·t_C + 32)
+      act(() =>
+        useLibrary.setState((st) => ({
+          components: st.components.map((c) => (c.id === id ? { ...c, density15: old.density15 + 0.002, pourPoint: -12 } : c)),
+        })),
+      );
+      render(<BlendSheetScreen />);
+      const said = screen.getByTestId('stock-changed').textContent ?? '';
+      expect(said).toContain(`density at 15 °C ${String(old.density15).replace('.', ',')} kg/L → ${String(Number((old.density15 + 0.002).toPrecision(6))).replace('.', ',')} kg/L`);
+      expect(said).toMatch(/pour point [^;]*→ 10,4 °F/);
+      expect(said).not.toMatch(/\d\.\d/);
+    } finally {
+      settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.' });
+    }
+  });
+
   it('names the delivery temperature of the cost per delivered litre in °F when °F is chosen', () => {
     settingsActions.updateSettings({ temperatureUnit: 'F', deliveryTempC: 40 });
     try {
