@@ -12,7 +12,7 @@ import { MethodNote } from '../../components/notices';
 import type { Prediction } from './predict';
 import { RelayText, useRelay, useRelayed, type Relay } from '../../components/relay';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
-import type { D341Form } from '../../core/viscosity/viscosity-temperature';
+import { D341_TRUSTED_BAND_C, type D341Form } from '../../core/viscosity/viscosity-temperature';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
 
@@ -132,13 +132,15 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
       },
     });
   }
+  // Outside the band the D341 line is not to be trusted (core assessTemperature); the band in the user's unit.
+  const notTrusted = `outside ${fmt.temp(D341_TRUSTED_BAND_C.min)}…${fmt.temp(D341_TRUSTED_BAND_C.max)}: not to be trusted`;
   if (p.kvAtOperating) {
     rows.push({
       key: 'kvOperating',
       label: `Viscosity at ${fmt.temp(p.kvAtOperating.tempC)} (operating)`,
       value: `${fmt.sig(p.kvAtOperating.kv, 3)} mm²/s`,
       status: p.kvAtOperating.outsideBand ? 'warn' : 'info',
-      statusText: p.kvAtOperating.outsideBand ? 'outside −20…150 °C: not to be trusted' : p.kvAtOperating.extrapolated ? 'extrapolated' : '',
+      statusText: p.kvAtOperating.outsideBand ? notTrusted : p.kvAtOperating.extrapolated ? 'extrapolated' : '',
       explain: ex.kvAtTemperature ?? null,
     });
   }
@@ -148,7 +150,7 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
       label: `Viscosity at ${fmt.temp(p.kvAtCold.tempC)} (cold start)`,
       value: `${fmt.sig(p.kvAtCold.kv, 3)} mm²/s`,
       status: p.kvAtCold.outsideBand ? 'warn' : 'info',
-      statusText: p.kvAtCold.outsideBand ? 'outside −20…150 °C: not to be trusted' : p.kvAtCold.extrapolated ? 'extrapolated' : '',
+      statusText: p.kvAtCold.outsideBand ? notTrusted : p.kvAtCold.extrapolated ? 'extrapolated' : '',
       explain: ex.kvAtTemperature ?? null,
     });
   }

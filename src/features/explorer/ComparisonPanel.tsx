@@ -13,6 +13,7 @@ import { explainDeposit } from '../../core/scoring/deposit';
 import { describeRate, rateDecimals, unpricedMessage, type ExchangeRate, type UnpricedStock } from '../../core/currency/exchange-rates';
 import { assess, type Assessed } from './compare';
 import { combinationTradeOff, type TradeOff } from './tradeoff';
+import { D341_TRUSTED_BAND_C } from '../../core/viscosity/viscosity-temperature';
 
 interface Row {
   label: string;
@@ -119,7 +120,11 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   // A temperature outside the measured 40–100 °C is an extrapolation along the D341 line; outside −20…150 °C
   // it is not to be trusted (core assessTemperature) — the label says so.
   const flag = (a: { extrapolated: boolean; outsideBand: boolean }) =>
-    a.outsideBand ? '; outside −20…150 °C, not to be trusted' : a.extrapolated ? '; extrapolated' : '';
+    a.outsideBand
+      ? `; outside ${fmt.temp(D341_TRUSTED_BAND_C.min)}…${fmt.temp(D341_TRUSTED_BAND_C.max)}, not to be trusted`
+      : a.extrapolated
+        ? '; extrapolated'
+        : '';
   if (r?.kvAtOperating || c?.kvAtOperating) {
     const at = (r?.kvAtOperating ?? c?.kvAtOperating)!;
     rows.push({

@@ -164,6 +164,18 @@ describe('Recipe designer', () => {
     expect(saved.specification.reference).toMatch(/VG320/);
   });
 
+  it('names the trusted band of the D341 line in the temperature unit of the settings (second defect hunt)', () => {
+    settingsActions.updateSettings({ temperatureUnit: 'F', coldStartTempC: -30 });
+    try {
+      render(<DesignerScreen />);
+      // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale): −20…150 °C = −4…302 °F; a cold start at −30 °C lies outside (core assessTemperature)
+      expect(screen.getAllByText('outside −4 °F…302 °F: not to be trusted').length).toBeGreaterThan(0);
+      expect(screen.queryByText(/outside −20…150 °C/)).toBeNull();
+    } finally {
+      settingsActions.updateSettings({ temperatureUnit: 'C', coldStartTempC: -10 });
+    }
+  });
+
   it('Save as new recipe is one undo step: one undo removes the recipe and its saved targets together (second defect hunt)', () => {
     render(<DesignerScreen />);
     fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 undo' } });

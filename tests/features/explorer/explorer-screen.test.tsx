@@ -269,4 +269,15 @@ describe('comparisonRows', () => {
     expect(cost.ref).toBe('not costed in EUR');
     expect(cost.change).toBe('—');
   });
+
+  it('names the trusted band of the D341 line in the temperature unit of the settings (second defect hunt)', async () => {
+    await loadUnitConversions(); // °F conversions (mathjs) load on demand
+    // A cold start at −30 °C lies outside the −20…150 °C band of the core (assessTemperature)
+    const opts = { method: 'refutas' as const, grade: 320, operatingTempC: 65, coldTempC: -30 };
+    const a = assess(demoComponents(), demoRecipes()[1]!.lines, opts)!;
+    const rows = comparisonRows(a, a, makeFormatter({ ...DEFAULT_SETTINGS, temperatureUnit: 'F' }), 0.25, 'EUR');
+    const cold = rows.find((r) => r.label.includes('cold start'))!;
+    // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale): −30 °C = −22 °F; −20…150 °C = −4…302 °F
+    expect(cold.label).toBe('ν at −22 °F (cold start; outside −4 °F…302 °F, not to be trusted), mm²/s');
+  });
 });
