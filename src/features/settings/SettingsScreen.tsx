@@ -112,13 +112,14 @@ function ExchangeRates() {
   const setRates = (rates: ExchangeRate[]): string | null => update({ exchangeRates: rates });
   const add = () => {
     const currency = normaliseCurrency(adding.currency);
-    const rate = fmt.parse(adding.rate);
+    const read = fmt.parseEntry(adding.rate);
+    const rate = read.error === undefined ? read.value : Number.NaN;
     const who = `the rate for ${currency || '(no currency)'}`;
     const problem =
       checkText('rateCurrency', currency, who) ??
       (currency === base ? `${currency} is the base currency; it needs no rate` : null) ??
       (s.exchangeRates.some((r) => normaliseCurrency(r.currency) === currency) ? `${currency} has a rate already; change that one` : null) ??
-      (rate === null || Number.isNaN(rate) ? `${who}: “${adding.rate}” is not a number` : checkNumber('exchangeRate', rate, who)) ??
+      (read.error !== undefined ? `${who}: ${read.error}` : rate === null ? `${who}: enter the rate` : checkNumber('exchangeRate', rate, who)) ??
       checkDate('rateAsOf', adding.asOf, who);
     if (problem) {
       setMessage(problem);

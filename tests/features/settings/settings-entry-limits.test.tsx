@@ -66,3 +66,16 @@ describe('Settings: temperature limits in the unit of the settings (second defec
     }
   });
 });
+
+describe('Settings: an exchange rate typed with the other decimal mark (second defect hunt)', () => {
+  it('says that the decimal separator is “.” and what “0,92” could mean, instead of “not a number”; nothing is added', () => {
+    render(<SettingsScreen />);
+    const form = screen.getByRole('form', { name: 'Add an exchange rate' });
+    fireEvent.change(within(form).getByLabelText('Currency'), { target: { value: 'USD' } });
+    fireEvent.change(within(form).getByLabelText(/per unit/), { target: { value: '0,92' } });
+    fireEvent.change(within(form).getByLabelText('As of'), { target: { value: '2026-11-30' } });
+    fireEvent.submit(form);
+    expect(screen.getByRole('alert').textContent).toMatch(/the rate for USD: Decimal separator is “\.” \(Settings\): “0,92” could mean 0\.92 or 92/);
+    expect(useSettingsState.getState().settings.exchangeRates).toEqual([]);
+  });
+});
