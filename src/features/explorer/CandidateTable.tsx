@@ -11,6 +11,7 @@ import {
   type CandidateGroup,
 } from '../../core/search/equivalent-sources';
 import { useExplorerStore, type SortKey } from './store';
+import { useRecipes } from '../../state';
 import { probabilityText } from '../../components/format';
 import type { InBandOf } from './in-band';
 
@@ -83,7 +84,13 @@ export const CandidateTable = memo(function CandidateTable({
   const fmt = useFormat();
   const sort = useExplorerStore((s) => s.sort);
   const selectedKey = useExplorerStore((s) => s.selectedKey);
-  const adopted = useExplorerStore((s) => s.adopted);
+  const adoptedIds = useExplorerStore((s) => s.adopted);
+  // A candidate counts as adopted while its recipe is saved (an undo of the adoption takes the mark away).
+  const recipes = useRecipes((s) => s.recipes);
+  const adopted = useMemo(() => {
+    const saved = new Set(recipes.map((r) => r.id));
+    return Object.fromEntries(Object.entries(adoptedIds).filter(([, id]) => saved.has(id)));
+  }, [adoptedIds, recipes]);
   const [shown, setShown] = useState(PAGE);
   const [open, setOpen] = useState<ReadonlySet<string>>(() => new Set());
   const sorted = useMemo(() => sortCandidates(candidates, sort.key, sort.dir, inBand), [candidates, sort, inBand]);

@@ -99,9 +99,13 @@ describe('Substitute explorer', () => {
     await waitFor(() => expect(useRecipes.getState().recipes.length).toBe(before + 1));
     const id = useRecipes.getState().recipes.at(-1)!.id;
     expect(useRecipes.getState().targets[id]?.referenceRecipeId).toBe(useExplorerStore.getState().referenceId);
+    expect(within(screen.getByTestId('candidates')).getByText('adopted')).toBeTruthy();
     act(() => useRecipes.temporal.getState().undo());
     expect(useRecipes.getState().recipes.some((r) => r.id === id)).toBe(false);
     expect(useRecipes.getState().targets[id]).toBeUndefined();
+    // the candidate is no longer marked adopted, and can be adopted again
+    expect(within(screen.getByTestId('candidates')).queryByText('adopted')).toBeNull();
+    expect((screen.getByText('Adopt as a new recipe') as HTMLButtonElement).disabled).toBe(false);
     act(() => useRecipes.temporal.getState().redo());
     expect(useRecipes.getState().recipes.some((r) => r.id === id)).toBe(true);
     expect(useRecipes.getState().targets[id]).toBeDefined();
