@@ -174,7 +174,9 @@ export function makeFormatter(settings: Settings): Formatter {
     tempValue: (c) => (isF ? cToF(c) : c),
     tempToC: (v) => {
       try {
-        return isF ? fToC(v) : v;
+        // 12 significant figures: what is stored carries no floating-point tail of the conversion
+        // (392 °F is stored as 200 °C, not 200.00000000000003, so a limit typed in °F compares exactly).
+        return isF ? Number(fToC(v).toPrecision(12)) : v;
       } catch {
         return Number.NaN; // below absolute zero
       }

@@ -44,6 +44,15 @@ describe('number formatting for the user’s habits', () => {
     expect(Number.isNaN(comma.tempToC(-500))).toBe(true); // below absolute zero
   });
 
+  it('stores a temperature typed in °F without a floating-point tail, so a limit typed as 392 °F is 200 °C exactly (second defect hunt)', () => {
+    // t_C = 5/9·(t_F − 32) (definition of the Fahrenheit scale): 392 °F = 200 °C, 21.2 °F = −6 °C, −4 °F = −20 °C
+    expect(comma.tempToC(392)).toBe(200);
+    expect(comma.tempToC(21.2)).toBe(-6);
+    expect(comma.tempToC(-4)).toBe(-20);
+    // shown again in °F, the stored value reads as typed
+    expect(comma.tempValue(comma.tempToC(10))).toBeCloseTo(10, 9);
+  });
+
   it('parses what a user types, and refuses garbage', () => {
     // identity: the typed text is the number itself, in either decimal convention (no external source)
     expect(parseNumber(' 1 234.5 ', '.')).toBe(1234.5);
