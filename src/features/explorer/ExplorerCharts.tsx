@@ -16,7 +16,7 @@ import {
 } from '../../components/charts';
 import { makeFormatter } from '../../components/format';
 import type { Settings } from '../../state';
-import type { Assessed } from './compare';
+import { assess, type Assessed } from './compare';
 
 /** Oxidation rating axis, padded so that points at 1 and 5 are drawn whole. */
 const OX_DOMAIN: readonly [number, number] = [0.75, 5.25];
@@ -94,9 +94,18 @@ export default function ExplorerCharts({ candidates, frontier, selected, referen
         pourPointC: refAssessed.props.pourPoint,
       });
     }
-    if (selected) out.push({ id: 'candidate', label: `candidate ${selected.rank}`, kv40: selected.kv40, kv100: selected.kv100, role: 'candidate' });
+    if (selected) {
+      // The candidate's line is dotted below its estimated pour point, as the reference's is.
+      const cand = assess(components, selected.lines, {
+        method: settings.blendMethod,
+        grade: reference?.grade ?? 0,
+        operatingTempC: settings.operatingTempC,
+        coldTempC: settings.coldStartTempC,
+      });
+      out.push({ id: 'candidate', label: `candidate ${selected.rank}`, kv40: selected.kv40, kv100: selected.kv100, role: 'candidate', pourPointC: cand?.props.pourPoint ?? null });
+    }
     return out;
-  }, [selected, byId, refAssessed, reference]);
+  }, [selected, byId, refAssessed, reference, components, settings.blendMethod, settings.operatingTempC, settings.coldStartTempC]);
 
   const full = Math.max(320, width);
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
