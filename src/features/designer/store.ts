@@ -37,11 +37,6 @@ export interface DesignerState {
   initialised: boolean;
   /** The recipes store's active recipe when last looked at (a change made elsewhere opens it). */
   seenActiveId: string | null;
-  /**
-   * `updatedAt` of the source recipe as the draft was loaded or saved: a draft without unsaved edits
-   * whose recipe has since changed (an undo on another screen, another tab) opens it as it is now.
-   */
-  sourceStamp: string | null;
   setSeenActiveId: (id: string | null) => void;
 
   load: (recipe: Recipe, targets: BlendTargets) => void;
@@ -108,7 +103,6 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   dirty: false,
   initialised: false,
   seenActiveId: null,
-  sourceStamp: null,
 
   load: (recipe, targets) => {
     const lines = normalise(recipe.lines);
@@ -117,7 +111,6 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines,
       name: recipe.name,
       sourceRecipeId: recipe.id,
-      sourceStamp: recipe.updatedAt,
       balanceId: pickBalance(lines, targets.additive?.componentId ?? null),
       editNote: '',
       notice: null,
@@ -131,7 +124,6 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines: targets.additive ? [{ componentId: targets.additive.componentId, massFraction: 1 }] : [],
       name: '',
       sourceRecipeId: null,
-      sourceStamp: null,
       balanceId: null,
       editNote: '',
       notice: null,
@@ -177,13 +169,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       dirty: true,
     })),
   setNotice: (notice) => set({ notice }),
-  markSaved: (recipeId) =>
-    set({
-      sourceRecipeId: recipeId,
-      sourceStamp: useRecipes.getState().recipes.find((r) => r.id === recipeId)?.updatedAt ?? null,
-      dirty: false,
-      seenActiveId: recipeId,
-    }),
+  markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false, seenActiveId: recipeId }),
   setSeenActiveId: (seenActiveId) => set({ seenActiveId }),
   restoreDraft: () => {
     const kept = useWorkspaceStore.getState().designer;
@@ -205,7 +191,6 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines: dropped ? normalise(lines) : lines,
       name: kept.name,
       sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
-      sourceStamp: sourceSaved ? (useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)?.updatedAt ?? null) : null,
       basis: kept.basis,
       rebalanceMode: kept.rebalanceMode,
       balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),
