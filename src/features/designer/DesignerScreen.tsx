@@ -116,6 +116,14 @@ export default function DesignerScreen() {
 
   const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
   const sourceRecipe = recipes.find((r) => r.id === sourceRecipeId) ?? null;
+  // A draft without unsaved edits is its saved recipe: when that recipe changes elsewhere (an undo or
+  // redo on another screen, another tab), the draft opens it as it is now.
+  const sourceStamp = useDesignerStore((s) => s.sourceStamp);
+  useEffect(() => {
+    const now = useDesignerStore.getState();
+    if (!now.initialised || now.dirty || !sourceRecipe || sourceRecipe.updatedAt === now.sourceStamp) return;
+    actions.load(sourceRecipe, targetsFor(sourceRecipe, storedTargets[sourceRecipe.id], additiveId));
+  }, [sourceRecipe, sourceStamp, dirty, storedTargets, additiveId, actions]);
   // The stocks that can be added change with the set of lines, not with their shares.
   const lineKey = lines.map((l) => l.componentId).join('|');
   const addable = useMemo(() => {

@@ -37,6 +37,11 @@ export interface DesignerState {
   initialised: boolean;
   /** The recipes store's active recipe when last looked at (a change made elsewhere opens it). */
   seenActiveId: string | null;
+  /**
+   * `updatedAt` of the source recipe as the draft was loaded or saved: a draft without unsaved edits
+   * whose recipe has since changed (an undo on another screen, another tab) opens it as it is now.
+   */
+  sourceStamp: string | null;
   setSeenActiveId: (id: string | null) => void;
 
   load: (recipe: Recipe, targets: BlendTargets) => void;
@@ -103,6 +108,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   dirty: false,
   initialised: false,
   seenActiveId: null,
+  sourceStamp: null,
 
   load: (recipe, targets) => {
     const lines = normalise(recipe.lines);
@@ -111,6 +117,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines,
       name: recipe.name,
       sourceRecipeId: recipe.id,
+      sourceStamp: recipe.updatedAt,
       balanceId: pickBalance(lines, targets.additive?.componentId ?? null),
       editNote: '',
       notice: null,
@@ -124,6 +131,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines: targets.additive ? [{ componentId: targets.additive.componentId, massFraction: 1 }] : [],
       name: '',
       sourceRecipeId: null,
+      sourceStamp: null,
       balanceId: null,
       editNote: '',
       notice: null,
@@ -169,7 +177,13 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       dirty: true,
     })),
   setNotice: (notice) => set({ notice }),
-  markSaved: (recipeId) => set({ sourceRecipeId: recipeId, dirty: false, seenActiveId: recipeId }),
+  markSaved: (recipeId) =>
+    set({
+      sourceRecipeId: recipeId,
+      sourceStamp: useRecipes.getState().recipes.find((r) => r.id === recipeId)?.updatedAt ?? null,
+      dirty: false,
+      seenActiveId: recipeId,
+    }),
   setSeenActiveId: (seenActiveId) => set({ seenActiveId }),
   restoreDraft: () => {
     const kept = useWorkspaceStore.getState().designer;
@@ -191,6 +205,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       lines: dropped ? normalise(lines) : lines,
       name: kept.name,
       sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
+      sourceStamp: sourceSaved ? (useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)?.updatedAt ?? null) : null,
       basis: kept.basis,
       rebalanceMode: kept.rebalanceMode,
       balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),

@@ -4,7 +4,7 @@ import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
-import { resetDemo, settingsActions, useRecipes, useWorkspaceStore } from '../../../src/state';
+import { recipeActions, resetDemo, settingsActions, useRecipes, useWorkspaceStore } from '../../../src/state';
 
 function lineRow(code: string): HTMLElement {
   return screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement;
@@ -174,6 +174,29 @@ describe('Recipe designer', () => {
     } finally {
       settingsActions.updateSettings({ temperatureUnit: 'C', coldStartTempC: -10 });
     }
+  });
+
+  it('a draft without unsaved edits follows its recipe when an undo elsewhere takes the saved change back (second defect hunt)', () => {
+    const copy = recipeActions.duplicateRecipe('demo-vg320')!;
+    recipeActions.setActiveRecipe(copy);
+    render(<DesignerScreen />);
+    // open the copy (a draft kept by an earlier test's deferred write must not stand in for it)
+    const copied = useRecipes.getState().recipes.find((r) => r.id === copy)!;
+    act(() => useDesignerStore.getState().load(copied, useRecipes.getState().targets[copy]!));
+    const saved = structuredClone(useRecipes.getState().recipes.find((r) => r.id === copy)!.lines);
+    const first = saved.find((l) => l.massFraction > 0.1)!;
+    // an invented hand edit of one share, then saved in place
+    act(() => useDesignerStore.getState().editLine(first.componentId, first.massFraction - 0.05, () => 0.9));
+    fireEvent.click(screen.getByRole('button', { name: /^Save changes to draft/ }));
+    expect(useDesignerStore.getState().dirty).toBe(false);
+    expect(useRecipes.getState().recipes.find((r) => r.id === copy)!.lines).not.toEqual(saved);
+    // Undo on another screen (Recipes): the recipe is back to what it was
+    act(() => useRecipes.temporal.getState().undo());
+    expect(useRecipes.getState().recipes.find((r) => r.id === copy)!.lines).toEqual(saved);
+    // the designer shows the recipe as it is saved now, not the change that was taken back
+    const shown = useDesignerStore.getState();
+    expect(shown.dirty).toBe(false);
+    expect(shown.lines.find((l) => l.componentId === first.componentId)!.massFraction).toBeCloseTo(first.massFraction, 12);
   });
 
   it('Save as new recipe is one undo step: one undo removes the recipe and its saved targets together (second defect hunt)', () => {
