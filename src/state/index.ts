@@ -27,7 +27,7 @@
  *     | setAvailability(id, 'available'|'limited'|'withdrawn') | removeComponent(id)
  *     (also useLibrary.getState().…)
  *   libraryRoomProblem(count, adding, 'entry'|'import', say?) → why the library has no room (one stock limit) | null
- *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis?, targets? }) → id (a draft; with its targets in one undo step)
+ *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis?, targets?, activate? }) → id (a draft; with its targets, and made active, in one step)
  *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
  *     | saveChanges(id, changes, reason) → id  (a draft in place; an approved recipe → a new draft revision)
  *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)

@@ -76,6 +76,8 @@ export interface NewRecipe {
    * removes both (a recipe is never left without the targets it was saved with).
    */
   targets?: BlendTargets;
+  /** Make it the active recipe in the same step (saved with it: a reload at once still opens it). */
+  activate?: boolean;
 }
 
 /** What a saved change of a recipe may carry (any subset). */
@@ -307,7 +309,11 @@ export const useRecipesStore = create<RecipesState>()(
               const bad = targetsProblems(t, recipeWho(recipe.name));
               if (bad.length) throw new FieldRuleError(bad);
             }
-            set((s) => ({ recipes: [...s.recipes, recipe], targets: t ? { ...s.targets, [id]: structuredClone(t) } : s.targets }));
+            set((s) => ({
+              recipes: [...s.recipes, recipe],
+              targets: t ? { ...s.targets, [id]: structuredClone(t) } : s.targets,
+              activeRecipeId: init.activate ? id : s.activeRecipeId,
+            }));
             return id;
           },
           updateRecipe: (id, patch) => {

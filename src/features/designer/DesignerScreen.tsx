@@ -168,11 +168,11 @@ export default function DesignerScreen() {
           stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
           // Saved with the recipe in one step: one undo removes both.
           targets: s.targets,
+          activate: true,
         });
       } catch (e) {
         return { refused: (e as Error).message };
       }
-      recipeActions.setActiveRecipe(id);
       s.markSaved(id);
       s.setName(n);
       return { id };

@@ -204,8 +204,8 @@ export default function ExplorerScreen() {
       reasonForChange: withdrawnCodes.length ? `Substitute for withdrawn ${withdrawnCodes.join(', ')}` : '',
       // Saved with the recipe in one step: one undo removes both.
       targets: { ...targets, referenceRecipeId: reference.id },
+      activate: true,
     });
-    recipeActions.setActiveRecipe(id);
     useExplorerStore.getState().markAdopted(c.key, id);
   };
 
