@@ -534,7 +534,7 @@ export function registerDeferredWrite(flush: () => void): () => void {
 /**
  * Write every deferred writer's pending state now (synchronously into its store, whose save starts at
  * once). `leaving` (the page is hidden or left): a store kept for this tab only (`crossTab: false`)
- * that has saved before is also written with one blind put issued in this task, as a save's
+ * that is ready (not upgraded and still unsaved) is also written with one blind put issued in this task, as a save's
  * read-then-write would not finish once the page is gone.
  */
 export function flushDeferredWrites(leaving = false): void {
@@ -563,7 +563,11 @@ let holdTabOnlySaves = false;
 /** One blind put of this tab's copy of a tab-only store (no merge: no other tab's records are kept in it). */
 function writeLeaving(key: StoreKey, st: SyncState): void {
   const status = useStorageStatus.getState().stores[key];
-  if (status.phase !== 'ready' || status.savingPaused || status.lastSavedAt === null || st.latest === null) return;
+  if (status.phase !== 'ready' || status.savingPaused || st.latest === null) return;
+  // A copy upgraded from an older schema is first written back by its own save, after the original is
+  // kept; until then no blind put. Otherwise a store read as it is may be written although it has not
+  // saved in this page yet (an edit right after a reload is kept).
+  if (status.lastSavedAt === null && status.upgraded !== null) return;
   const value = {
     state: joinRecords(st.mine.records, st.layout, st.latest),
     version: st.spec.version,
