@@ -11,9 +11,11 @@
  * Memory lines (Chrome DevTools protocol, after a forced garbage collection): growth of the used
  * JS heap over 30 more searches (goal ≤ 1 MB), and the detached DOM nodes still referenced after
  * them, counted in a heap snapshot (old charts kept alive would show as hundreds of "Detached SVG…"
- * nodes; goal ≤ 0). The heap is measured after 20 further warm-up searches: over the first searches
- * V8 keeps compiling and optimising code (about 0.7 MB per 10 searches at first, shrinking), which is
- * not data kept by the app; that warm-up growth is given in the note. Chromium's own performance
+ * nodes; goal ≤ 0). The heap is measured after 40 further warm-up searches: over the first searches
+ * V8 keeps compiling and optimising code (about 0.7 MB per 10 searches at first, still ~0.65 MB over
+ * searches 21–50 and ~0.4 MB over 51–80, measured with bench/profile/explorer-heap-diff.ts), which is
+ * not data kept by the app; that warm-up growth is given in the note, and the growth over the 30
+ * measured searches is split (two heap snapshots) into compiled code and the rest. Chromium's own performance
  * timeline entries (layout shifts, long animation frames) count in the heap too.
  */
 import { withServedApp } from './chromium';
@@ -21,6 +23,8 @@ import type { BenchLine } from './types';
 
 const RUNS = 7;
 const MEMORY_SEARCHES = 30;
+/** Searches run before the heap is measured, so that V8 has compiled most of what a search runs. */
+const WARM_UP_SEARCHES = 40;
 
 /** Runs in the page: click Run search and time the first rows and the end of the search [ms]. */
 const TIMED_SEARCH = `async () => {
@@ -56,24 +60,40 @@ const TIMED_SEARCH = `async () => {
   return result;
 }`;
 
-/** Detached DOM nodes in a heap snapshot of the page (Chromium names them "Detached <class>"). */
-async function detachedNodes(cdp: import('playwright-core').CDPSession): Promise<{ count: number; kinds: string }> {
+/**
+ * One heap snapshot of the page: the detached DOM nodes (Chromium names them "Detached <class>") and
+ * the bytes held by V8's compiled code and its metadata (snapshot node type "code"), so the growth
+ * between two snapshots can be split into code the JIT keeps compiling and everything else.
+ */
+async function heapSnapshot(cdp: import('playwright-core').CDPSession): Promise<{ detached: number; kinds: string; codeBytes: number }> {
   const chunks: string[] = [];
   const onChunk = (e: { chunk: string }) => chunks.push(e.chunk);
   cdp.on('HeapProfiler.addHeapSnapshotChunk', onChunk);
   await cdp.send('HeapProfiler.takeHeapSnapshot', { reportProgress: false });
   cdp.off('HeapProfiler.addHeapSnapshotChunk', onChunk);
-  const snap = JSON.parse(chunks.join('')) as { snapshot: { meta: { node_fields: string[] } }; nodes: number[]; strings: string[] };
-  const nf = snap.snapshot.meta.node_fields.length;
+  const snap = JSON.parse(chunks.join('')) as {
+    snapshot: { meta: { node_fields: string[]; node_types: [string[]] } };
+    nodes: number[];
+    strings: string[];
+  };
+  const fields = snap.snapshot.meta.node_fields;
+  const nf = fields.length;
+  const iType = fields.indexOf('type');
+  const iName = fields.indexOf('name');
+  const iSize = fields.indexOf('self_size');
+  const codeType = snap.snapshot.meta.node_types[0].indexOf('code');
   const kinds = new Map<string, number>();
-  let count = 0;
+  let detached = 0;
+  let codeBytes = 0;
   for (let i = 0; i < snap.nodes.length; i += nf) {
-    const name = snap.strings[snap.nodes[i + 1]!]!;
+    if (snap.nodes[i + iType] === codeType) codeBytes += snap.nodes[i + iSize]!;
+    const name = snap.strings[snap.nodes[i + iName]!]!;
     if (!name.startsWith('Detached ')) continue;
-    count++;
+    detached++;
     kinds.set(name, (kinds.get(name) ?? 0) + 1);
   }
-  return { count, kinds: [...kinds].sort((a, b) => b[1] - a[1]).slice(0, 5).map(([k, n]) => `${k} ×${n}`).join(', ') };
+  const top = [...kinds].sort((a, b) => b[1] - a[1]).slice(0, 5);
+  return { detached, kinds: top.map(([k, n]) => `${k} ×${n}`).join(', '), codeBytes };
 }
 
 const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[xs.length >> 1]!;
@@ -105,11 +125,13 @@ export async function run(): Promise<BenchLine[]> {
     };
     await cdp.send('HeapProfiler.enable');
     const start = await settle();
-    for (let i = 0; i < 20; i++) await search();
+    for (let i = 0; i < WARM_UP_SEARCHES; i++) await search();
     const before = await settle();
+    const snapBefore = await heapSnapshot(cdp);
     for (let i = 0; i < MEMORY_SEARCHES; i++) await search();
     const after = await settle();
-    const detached = await detachedNodes(cdp);
+    const snapAfter = await heapSnapshot(cdp);
+    const codeGrowth = (snapAfter.codeBytes - snapBefore.codeBytes) / 1e6;
     await context.close();
 
     const firsts = runs.map((r) => r.first);
@@ -137,17 +159,19 @@ export async function run(): Promise<BenchLine[]> {
         unit: 'MB',
         op: '<=',
         goal: 1,
-        note: `used heap ${(before.heap / 1e6).toFixed(2)} → ${(after.heap / 1e6).toFixed(2)} MB`,
+        note:
+          `used heap ${(before.heap / 1e6).toFixed(2)} → ${(after.heap / 1e6).toFixed(2)} MB; of the growth ` +
+          `${codeGrowth.toFixed(2)} MB is code V8 compiled meanwhile, ${((after.heap - before.heap) / 1e6 - codeGrowth).toFixed(2)} MB the rest`,
       },
       {
         name: `explorer detached DOM nodes after ${MEMORY_SEARCHES} searches (Chromium heap snapshot)`,
-        measured: detached.count,
+        measured: snapAfter.detached,
         unit: 'nodes',
         op: '<=',
         goal: 0,
         note:
-          `${detached.count ? `kinds: ${detached.kinds}; ` : ''}DOM nodes ${before.nodes} → ${after.nodes}; event listeners ${before.listeners} → ${after.listeners}; ` +
-          `heap over the ${RUNS + 21} searches before (JIT warm-up): ${(start.heap / 1e6).toFixed(2)} → ${(before.heap / 1e6).toFixed(2)} MB`,
+          `${snapAfter.detached ? `kinds: ${snapAfter.kinds}; ` : ''}DOM nodes ${before.nodes} → ${after.nodes}; event listeners ${before.listeners} → ${after.listeners}; ` +
+          `heap over the ${RUNS + 1 + WARM_UP_SEARCHES} searches before (JIT warm-up): ${(start.heap / 1e6).toFixed(2)} → ${(before.heap / 1e6).toFixed(2)} MB`,
       },
     ];
   });
