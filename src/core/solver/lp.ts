@@ -14,7 +14,8 @@
  * exactly as `yalps.solve` lays out the same model, so the answers are identical bit for bit
  * (tests/core/solver/yalps-simplex.test.ts).
  */
-import { phase1, roundToPrecision, type SimplexOptions, type Tableau } from './yalps-simplex';
+import { phase1, roundToPrecision, type SimplexOptions, type SimplexStatus, type Tableau } from './yalps-simplex';
+import { denseSimplex, simplexResult, SIMPLEX_CYCLED, SIMPLEX_INFEASIBLE, SIMPLEX_OPTIMAL } from './dense-simplex';
 
 /** One linear row lᵣ ≤ aᵣ·x ≤ uᵣ; give `min`, `max` or both (equal → an equality). */
 export interface LpRow {
@@ -155,7 +156,8 @@ export class LpWorkspace {
 
   /** The workspace's zeroed result vector of length n. */
   x(n: number): Float64Array {
-    let x = this.xs[n];
+    // (No read past the end of the list: that would cost the compiled code a deoptimisation.)
+    let x = n < this.xs.length ? this.xs[n] : undefined;
     if (!x) this.xs[n] = x = new Float64Array(n);
     else for (let j = 0; j < n; j++) x[j] = 0;
     return x;
@@ -192,25 +194,23 @@ export function solveDenseLp(
   hi: ArrayLike<number>,
   ws?: LpWorkspace,
 ): LpSolution {
-  if (observer !== null) {
-    observer({
-      sense,
-      n,
-      objective: Float64Array.from({ length: n }, (_, j) => objective[j]!),
-      m,
-      a: Float64Array.from({ length: m * n }, (_, q) => a[q]!),
-      lo: Float64Array.from({ length: m }, (_, r) => lo[r]!),
-      hi: Float64Array.from({ length: m }, (_, r) => hi[r]!),
-    });
-  }
+  if (observer !== null) notifyObserver(sense, n, objective, m, a, lo, hi);
   const work = ws ?? new LpWorkspace();
   const sign = sense === 'minimize' ? -1 : 1;
   let tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);
-  let [status, value] = phase1(tableau, FIRST_TRY);
-  if (status === 'cycled') {
+  // yalps' simplex: first without cycle detection (its default, restated allocation-free in
+  // dense-simplex.ts, pivot for pivot the same); after the pivot limit, once more on yalps' own
+  // copy with cycle detection.
+  const code = denseSimplex(tableau, PRECISION, FIRST_TRY.maxPivots);
+  let status: SimplexStatus;
+  let value = Number.NaN;
+  if (code === SIMPLEX_OPTIMAL) {
+    status = 'optimal';
+    value = simplexResult.value;
+  } else if (code === SIMPLEX_CYCLED) {
     tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);
     [status, value] = phase1(tableau, RETRY);
-  }
+  } else status = code === SIMPLEX_INFEASIBLE ? 'infeasible' : 'unbounded';
   const x = ws ? ws.x(n) : new Float64Array(n);
   if (status !== 'optimal') {
     return { status: status === 'infeasible' ? 'infeasible' : status === 'unbounded' ? 'unbounded' : 'failed', x, objective: Number.NaN };
@@ -222,6 +222,30 @@ export function solveDenseLp(
     if (v > PRECISION) x[j] = roundToPrecision(v, PRECISION);
   }
   return { status: 'optimal', x, objective: -sign * value };
+}
+
+/**
+ * Hand a copy of one LP to the observer (a function of its own, so that the solve's compiled code
+ * does not depend on which observer is set).
+ */
+function notifyObserver(
+  sense: 'minimize' | 'maximize',
+  n: number,
+  objective: ArrayLike<number>,
+  m: number,
+  a: ArrayLike<number>,
+  lo: ArrayLike<number>,
+  hi: ArrayLike<number>,
+): void {
+  observer?.({
+    sense,
+    n,
+    objective: Float64Array.from({ length: n }, (_, j) => objective[j]!),
+    m,
+    a: Float64Array.from({ length: m * n }, (_, q) => a[q]!),
+    lo: Float64Array.from({ length: m }, (_, r) => lo[r]!),
+    hi: Float64Array.from({ length: m }, (_, r) => hi[r]!),
+  });
 }
 
 /** yalps' tableau of the dense LP (see `tableauModel` in yalps' src/tableau.ts), in the workspace. */
