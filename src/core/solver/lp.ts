@@ -130,24 +130,24 @@ export class LpWorkspace {
   };
   private readonly xs: Float64Array[] = [];
 
-  /** A zeroed width × height tableau with identity index arrays (yalps' initial state). */
+  /**
+   * A width × height tableau with identity index arrays (yalps' initial state); its matrix entries
+   * are left as they are (the caller writes every one of the width·height entries).
+   */
   tableau(width: number, height: number): Tableau {
     const t = this.tab;
     const size = width * height;
     if (t.matrix.length < size) t.matrix = new Float64Array(Math.max(size, 2 * t.matrix.length));
-    else {
-      // A plain loop: a small LP's tableau is a few dozen entries, where a fill call costs more.
-      const mat = t.matrix;
-      for (let q = 0; q < size; q++) mat[q] = 0;
-    }
     const numVars = width + height;
     if (t.positionOfVariable.length < numVars) {
       t.positionOfVariable = new Int32Array(Math.max(numVars, 2 * t.positionOfVariable.length));
       t.variableAtPosition = new Int32Array(t.positionOfVariable.length);
     }
+    const pov = t.positionOfVariable;
+    const vap = t.variableAtPosition;
     for (let i = 0; i < numVars; i++) {
-      t.positionOfVariable[i] = i;
-      t.variableAtPosition[i] = i;
+      pov[i] = i;
+      vap[i] = i;
     }
     t.width = width;
     t.height = height;
@@ -268,9 +268,12 @@ function writeTableau(
   const width = n + 1;
   const t = ws.tableau(width, height);
   const mat = t.matrix;
+  // Every entry is written (no separate clearing pass); an absent coefficient is +0, as in yalps'
+  // tableau (never −0: zeros are not negated).
+  mat[0] = 0;
   for (let j = 0; j < n; j++) {
     const c = objective[j]!;
-    if (c !== 0) mat[j + 1] = sign * c;
+    mat[j + 1] = c !== 0 ? sign * c : 0;
   }
   let row = 1;
   for (let r = 0; r < m; r++) {
@@ -285,7 +288,7 @@ function writeTableau(
       mat[o] = u;
       for (let j = 0; j < n; j++) {
         const v = a[src + j]!;
-        if (v !== 0) mat[o + 1 + j] = v;
+        mat[o + 1 + j] = v !== 0 ? v : 0;
       }
       row++;
     }
@@ -294,7 +297,7 @@ function writeTableau(
       mat[o] = -l;
       for (let j = 0; j < n; j++) {
         const v = a[src + j]!;
-        if (v !== 0) mat[o + 1 + j] = -v;
+        mat[o + 1 + j] = v !== 0 ? -v : 0;
       }
       row++;
     }
