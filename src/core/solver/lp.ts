@@ -10,9 +10,10 @@
  * Blending problems have a handful of variables and rows, so dense coefficient arrays are both the
  * simplest and the fastest representation. The solver is the dense simplex of yalps (MIT licence),
  * run on a tableau written straight from the dense rows (`yalps-simplex.ts` explains why it is a
- * verbatim copy of yalps' own code); no simplex is written by hand here. The tableau is laid out
- * exactly as `yalps.solve` lays out the same model, so the answers are identical bit for bit
- * (tests/core/solver/yalps-simplex.test.ts).
+ * verbatim copy of yalps' own code; `dense-simplex.ts` restates it without allocation, pivot for
+ * pivot the same, for the first try of each LP). The tableau is laid out exactly as `yalps.solve`
+ * lays out the same model, so the answers are identical bit for bit
+ * (tests/core/solver/yalps-simplex.test.ts, tests/core/solver/dense-simplex.test.ts).
  */
 import { phase1, roundToPrecision, type SimplexOptions, type SimplexStatus, type Tableau } from './yalps-simplex';
 import { denseSimplex, simplexResult, SIMPLEX_CYCLED, SIMPLEX_INFEASIBLE, SIMPLEX_OPTIMAL } from './dense-simplex';

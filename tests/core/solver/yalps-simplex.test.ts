@@ -9,8 +9,9 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { solve, type Coefficients, type Constraint } from 'yalps';
-import { LpWorkspace, solveDenseLp, type LpSolution } from '../../../src/core/solver/lp';
-import { rng } from './helpers';
+import { LpWorkspace, observeDenseLps, solveDenseLp, type DenseLp, type LpSolution } from '../../../src/core/solver/lp';
+import { solveBlendPlain } from '../../../src/core/solver/plain';
+import { randomPlainProblem, rng } from './helpers';
 
 const YALPS = join(__dirname, '..', '..', '..', 'node_modules', 'yalps');
 
@@ -142,6 +143,28 @@ describe('yalps simplex copy', () => {
     expect(seen.optimal).toBeGreaterThan(1000);
     expect(seen.infeasible).toBeGreaterThan(100);
     expect(seen.unbounded).toBeGreaterThan(50);
+  });
+
+  it('every LP of 2,000 random blending problems gets exactly yalps.solve\'s answer (seed 1919)', () => {
+    // reference library: yalps.solve itself, on the very LPs the solver builds (bit-for-bit equality)
+    const r = rng(1919);
+    const lps: DenseLp[] = [];
+    const before = observeDenseLps((lp) => lps.push(lp));
+    try {
+      for (let k = 0; k < 2000; k++) {
+        const objective = r() < 0.2 ? 'solvency' : 'cost';
+        solveBlendPlain(randomPlainProblem(r, { k: 2 + Math.floor(r() * 5), vi: 0.6, aniline: 0.4, bounds: 0.3, objective }));
+      }
+    } finally {
+      observeDenseLps(before);
+    }
+    const ws = new LpWorkspace();
+    for (let q = 0; q < lps.length; q++) {
+      const lp = lps[q]!;
+      const ref = viaYalps(lp.sense, lp.n, lp.objective, lp.m, lp.a, lp.lo, lp.hi);
+      expectIdentical(solveDenseLp(lp.sense, lp.n, lp.objective, lp.m, lp.a, lp.lo, lp.hi, ws), ref, `LP ${q}`);
+    }
+    expect(lps.length).toBeGreaterThan(2000);
   });
 
   it('a workspace result lives in the workspace until its next solve with as many variables', () => {
