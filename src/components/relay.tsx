@@ -1,13 +1,14 @@
 /**
- * A relay: a small store that hands a value derived in one place (a screen's render) to the small
- * parts of the page that show pieces of it. The value is handed over after the deriving component's
- * render (`useRelayed` in a layout effect); each reader selects its piece and re-renders only when
- * that piece changes (compared with `Object.is`: a formatted string re-renders only when its text
- * does), before the browser paints. So a keystroke that changes a few numbers re-renders those
- * numbers, not the tables and panels around them. The relay holds nothing of its own: the value is
- * always the deriving component's latest result.
+ * A relay: a small store that hands a value derived in one place to the small parts of the page
+ * that show pieces of it. The value is handed over either by the deriving code as it derives it
+ * (`createRelay` + `set`, e.g. from a store subscription, in the same task as the change) or after
+ * a component's render (`useRelayed`, in a layout effect). Readers select their piece: `useRelay`
+ * re-renders its caller only when the piece changes (compared with `Object.is`), and `RelayText`
+ * writes its text node itself when the text changes, without a React render. So a keystroke that
+ * changes a few numbers touches those numbers, not the tables and panels around them, before the
+ * browser paints. The relay holds nothing of its own: the value is always the deriver's latest.
  */
-import { memo, useLayoutEffect, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { memo, useLayoutEffect, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 
 export interface Relay<T> {
   /** The value as last handed over. */
@@ -50,7 +51,31 @@ export function useRelay<T, R>(relay: Relay<T>, select: (value: T) => R): R {
   return useSyncExternalStore(relay.subscribe, read, read);
 }
 
-/** Text selected from a relay (re-rendered only when the text changes). */
-export const RelayText = memo(function RelayText<T>({ relay, select }: { relay: Relay<T>; select: (value: T) => string }) {
-  return <>{useRelay(relay, select)}</>;
-}) as <T>(props: { relay: Relay<T>; select: (value: T) => string }) => ReactNode;
+/**
+ * Text selected from a relay, in a span of its own. React renders the text once; after that the
+ * span follows the relay by itself: at each new value it writes the text node only when the text
+ * changed, in the same task as the value is handed over, without a React render or commit.
+ */
+export const RelayText = memo(function RelayText<T>({ relay, select, className }: { relay: Pick<Relay<T>, 'get' | 'subscribe'>; select: (value: T) => string; className?: string }) {
+  const ref = useRef<HTMLSpanElement>(null);
+  const text = select(relay.get());
+  useLayoutEffect(() => {
+    const span = ref.current;
+    if (!span) return;
+    const follow = () => {
+      const next = select(relay.get());
+      if (span.textContent === next) return;
+      // Change the text node in place (no node removed or added); React set it as the span's text.
+      const node = span.firstChild;
+      if (node && node.nodeType === Node.TEXT_NODE && node === span.lastChild && next !== '') (node as Text).data = next;
+      else span.textContent = next;
+    };
+    follow();
+    return relay.subscribe(follow);
+  }, [relay, select]);
+  return (
+    <span ref={ref} className={className}>
+      {text}
+    </span>
+  );
+}) as <T>(props: { relay: Pick<Relay<T>, 'get' | 'subscribe'>; select: (value: T) => string; className?: string }) => ReactNode;

@@ -53,4 +53,29 @@ describe('relay', () => {
     rerender(<Screen n={4} />);
     expect(container.textContent).toBe('share 4 %');
   });
+
+  it('RelayText writes a changed text itself, without a React render, and leaves an unchanged one alone', () => {
+    const relay = createRelay({ kv: 320.04 });
+    let selects = 0;
+    const select = (v: { kv: number }) => {
+      selects++;
+      return v.kv.toFixed(1);
+    };
+    const { container } = render(<RelayText relay={relay} select={select} />);
+    const span = container.querySelector('span')!;
+    const node = span.firstChild;
+    expect(span.textContent).toBe('320.0');
+    // Outside act(): nothing is rendered by React, yet the text follows at once, in the same text node.
+    relay.set({ kv: 318.96 });
+    expect(span.textContent).toBe('319.0');
+    expect(span.firstChild).toBe(node);
+    const seen = [] as string[];
+    const mo = new MutationObserver((ms) => ms.forEach((m) => seen.push(m.type)));
+    mo.observe(span, { subtree: true, characterData: true, childList: true });
+    relay.set({ kv: 319.01 }); // same text "319.0"
+    mo.disconnect();
+    expect(mo.takeRecords().length + seen.length).toBe(0);
+    expect(selects).toBeGreaterThanOrEqual(3);
+  });
 });
+

@@ -58,14 +58,17 @@ export interface LiveMarks {
 const LiveMarksSourceContext = createContext<Relay<LiveMarks>>(createRelay({}));
 
 /**
- * Gives the live layers below the blend to draw. The context holds one relay for the provider's
- * lifetime; a new `marks` is handed to it after the render, and only the live layers, its readers,
- * render again (before the browser paints).
+ * Gives the live layers below the blend to draw: either `marks`, handed to the context's relay after
+ * each render (only the live layers, its readers, render again, before the browser paints), or a
+ * relay of the caller's (`source`), which the caller sets as the blend changes (then the live layers
+ * update in the same React commit as whatever else the change renders, without a render of the
+ * caller or the charts).
  */
-export function LiveMarksProvider({ marks, children }: { marks: LiveMarks; children?: ReactNode }) {
-  const source = useRelayed(marks);
-  return <LiveMarksSourceContext.Provider value={source}>{children}</LiveMarksSourceContext.Provider>;
+export function LiveMarksProvider({ marks, source, children }: { marks?: LiveMarks; source?: Relay<LiveMarks>; children?: ReactNode }) {
+  const own = useRelayed(marks ?? NO_MARKS);
+  return <LiveMarksSourceContext.Provider value={source ?? own}>{children}</LiveMarksSourceContext.Provider>;
 }
+const NO_MARKS: LiveMarks = {};
 
 /** One part of the blend from the nearest {@link LiveMarksProvider}; the caller re-renders when it changes. */
 export function useLiveMarks<T>(select: (marks: LiveMarks) => T): T {

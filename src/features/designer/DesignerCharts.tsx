@@ -7,9 +7,10 @@
  * bars and its batch distribution — is passed through `LiveMarksProvider` and drawn by live layers
  * inside each chart, so an edit re-renders only those layers.
  */
-import { useCallback, useMemo, useRef } from 'react';
+import { useCallback, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
-import type { Settings } from '../../state';
+import { componentsById, type Settings } from '../../state';
+import { createRelay, useRelay, type Relay } from '../../components/relay';
 import {
   BatchDistributionChart,
   batchDistributionData,
@@ -32,7 +33,7 @@ import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
 import { oxidationClass } from '../../core/scoring/oxidation';
 import { recipeSpreadParts } from '../../core/qc/recipe-spread';
-import { blendLots, monteCarloLots, shareInBand } from '../../core/qc/monte-carlo';
+import { blendLots, monteCarloLots, shareInBand, type MonteCarloLots } from '../../core/qc/monte-carlo';
 import { fmtProbability } from './PropertiesPanel';
 
 /** Batches simulated for the distribution chart, and the seed (the same picture every time). */
@@ -40,8 +41,9 @@ export const SIMULATED_BATCHES = 4000;
 export const SIMULATION_SEED = 1;
 
 export interface DesignerChartsProps {
-  view: DraftView;
-  prediction: Prediction;
+  /** The draft's derived numbers (see draft-relays.ts); the prediction is always handed over with its view. */
+  view: Relay<DraftView>;
+  prediction: Relay<Prediction>;
   components: readonly Component[];
   referenceRecipe: Recipe | null;
   settings: Settings;
@@ -53,22 +55,41 @@ const MAP_LEGEND = { selected: 'this blend', candidate: null } as const;
 const formatOx = (v: number) => (Number.isInteger(v) ? `${v} ${oxidationClass(v)}` : '');
 
 /** An axis maximum that changes only when the value outgrows it or falls well below it. */
-function useStickyMax(value: number): number {
-  const ref = useRef(0);
-  if (value > ref.current || value < ref.current * 0.45) ref.current = roundUp(Math.max(value * 1.05, 1e-3));
-  return ref.current;
+function stickyMax(current: number, value: number): number {
+  return value > current || value < current * 0.45 ? roundUp(Math.max(value * 1.05, 1e-3)) : current;
 }
 
 /**
  * An axis range that changes only when the range wanted leaves it or is well inside it (less than
  * 60 % of its span): while a fraction is typed, the axes keep still and only the marks move.
  */
-function useStickyDomain(wanted: readonly [number, number] | null): readonly [number, number] | null {
-  const ref = useRef<readonly [number, number] | null>(null);
-  const cur = ref.current;
-  if (wanted && (!cur || wanted[0] < cur[0] || wanted[1] > cur[1] || wanted[1] - wanted[0] < 0.6 * (cur[1] - cur[0]))) ref.current = wanted;
-  return wanted ? ref.current : null;
+function stickyDomain(cur: readonly [number, number] | null, wanted: readonly [number, number] | null): readonly [number, number] | null {
+  if (wanted && (!cur || wanted[0] < cur[0] || wanted[1] > cur[1] || wanted[1] - wanted[0] < 0.6 * (cur[1] - cur[0]))) return wanted;
+  return cur;
 }
+
+/** The charts' axes and bands: they change now and then while a fraction is typed, not at every edit. */
+interface Axes {
+  pctMax: number;
+  costMax: number;
+  /** The distribution chart's ν40 axis; null when there is no distribution to show. */
+  distX: readonly [number, number] | null;
+  distYMax: number;
+  plantMin: number;
+  plantMax: number;
+  isoMin: number;
+  isoMax: number;
+}
+
+const sameAxes = (a: Axes, b: Axes) =>
+  a.pctMax === b.pctMax &&
+  a.costMax === b.costMax &&
+  a.distX === b.distX &&
+  a.distYMax === b.distYMax &&
+  Object.is(a.plantMin, b.plantMin) &&
+  Object.is(a.plantMax, b.plantMax) &&
+  Object.is(a.isoMin, b.isoMin) &&
+  Object.is(a.isoMax, b.isoMax);
 
 export default function DesignerCharts({ view, prediction, components, referenceRecipe, settings }: DesignerChartsProps) {
   const [ref, width] = useWidth<HTMLElement>(900);
@@ -85,12 +106,11 @@ export default function DesignerCharts({ view, prediction, components, reference
   );
 
   // Everything static depends on the set of stocks, not on their fractions.
-  const stockKey = view.lines.map((l) => l.componentId).join('|');
-  const stocks = useMemo(
-    () => view.lines.map((l) => l.component).filter((c): c is Component => c !== null),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [stockKey, components],
-  );
+  const stockKey = useRelay(view, (v) => v.lines.map((l) => l.componentId).join('|'));
+  const stocks = useMemo(() => {
+    const byId = componentsById(components);
+    return stockKey === '' ? [] : stockKey.split('|').flatMap((id) => byId.get(id) ?? []);
+  }, [stockKey, components]);
 
   const vtLines = useMemo(() => {
     const out: ViscosityLineInput[] = [];
@@ -136,76 +156,103 @@ export default function DesignerCharts({ view, prediction, components, reference
     () => stocks.map((c) => ({ id: c.id, label: c.code, massPct: 0, volumePct: 0, costPerLitre: 0 })),
     [stocks],
   );
-  const pctMax = Math.min(100, useStickyMax(Math.max(1, ...view.lines.map((l) => 100 * Math.max(l.massFraction, l.volumeFraction)))));
-  const costMax = useStickyMax(Math.max(1e-3, ...view.lines.map((l) => l.costPerLitre ?? 0)));
-
-  // Batch ν40 under lot spread: the model (from the prediction) and a seeded Monte Carlo of the exact
-  // rule. The simulated lots depend only on the stocks in use, so they are drawn once per set of stocks
-  // and blended again at each edit's fractions (the same batches as drawing afresh, to the last bit).
-  const inBand = prediction.ok ? prediction.inBand : null;
-  const usedLines = useMemo(
-    () => view.lines.filter((l) => l.massFraction > 0).map((l) => ({ componentId: l.componentId, massFraction: l.massFraction })),
-    [view],
-  );
-  const usedKey = usedLines.map((l) => l.componentId).join('|');
-  const lots = useMemo(() => {
-    try {
-      return monteCarloLots(recipeSpreadParts(components, usedLines), { samples: SIMULATED_BATCHES, seed: SIMULATION_SEED, method: settings.blendMethod });
-    } catch {
-      return null;
-    }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [usedKey, components, settings.blendMethod]);
-  const distribution = useMemo(() => {
-    if (!inBand || !lots || !(inBand.distribution.sdX > 0)) return null;
-    try {
-      const mc = blendLots(lots, recipeSpreadParts(components, usedLines));
-      return { ...batchDistributionData(inBand.distribution, inBand.iso, mc.samples), share: shareInBand(mc.samples, inBand.plant) };
-    } catch {
-      return null;
-    }
-  }, [inBand, lots, components, usedLines]);
-  const distX = useStickyDomain(distribution ? distributionDomain(distribution.curve, distribution.histogram, inBand!.iso) : null);
-  const distYMax = useStickyMax(distribution ? distributionPeak(distribution.curve, distribution.histogram) : 0);
-  const plantMin = inBand?.plant.min;
-  const plantMax = inBand?.plant.max;
-  const isoMin = inBand?.iso.min;
-  const isoMax = inBand?.iso.max;
-  const plantBand = useMemo(() => ({ min: plantMin ?? NaN, max: plantMax ?? NaN, label: 'solve band' }), [plantMin, plantMax]);
-  const isoBand = useMemo(() => ({ min: isoMin ?? NaN, max: isoMax ?? NaN, label: 'ISO band' }), [isoMin, isoMax]);
   const formatPct = useCallback((p: number) => fmtProbability(p, fmt), [fmt]);
 
-  const live = useMemo<LiveMarks>(
-    () => ({
-      vt: prediction.ok ? { label: 'this blend', kv40: prediction.kv40, kv100: prediction.kv100, pourPointC: prediction.props.pourPoint } : null,
-      point:
-        prediction.ok && prediction.anilinePoint !== null ? { label: 'this blend', x: prediction.anilinePoint, y: prediction.oxidationRating } : null,
-      bars: view.lines.map((l) => ({
-        id: l.componentId,
-        label: l.component?.code ?? l.componentId,
-        massPct: l.massFraction * 100,
-        volumePct: l.volumeFraction * 100,
-        costPerLitre: l.costPerLitre ?? 0,
-      })),
-      distribution:
-        distribution && inBand
-          ? {
-              curve: distribution.curve,
-              histogram: distribution.histogram,
-              plantProbability: inBand.plant.probability,
-              isoProbability: inBand.iso.probability,
-              simulation: `${fmt.num(SIMULATED_BATCHES, 0)} simulated batches (seed ${SIMULATION_SEED}), each stock's lot drawn and blended by the exact rule: ${formatPct(distribution.share)} in the solve band`,
-            }
-          : null,
-    }),
-    [prediction, view, distribution, inBand, fmt, formatPct],
+  // The blend itself follows each edit outside React's render: when a new prediction is handed over
+  // (always with its view), the live marks are worked out here and handed to the live layers, which
+  // update in the edit's own commit; the axes are state, set only when they move.
+  const [live] = useState(() => createRelay<LiveMarks>({}));
+  const kept = useRef<{ axes: Axes; lots: { key: string; components: readonly Component[]; method: string; lots: MonteCarloLots | null } | null }>({
+    axes: { pctMax: 0, costMax: 0, distX: null, distYMax: 0, plantMin: NaN, plantMax: NaN, isoMin: NaN, isoMax: NaN },
+    lots: null,
+  });
+  const marksOf = useCallback(
+    (v: DraftView, p: Prediction): { marks: LiveMarks; axes: Axes } => {
+      const k = kept.current;
+      // Batch ν40 under lot spread: the model (from the prediction) and a seeded Monte Carlo of the exact
+      // rule. The simulated lots depend only on the stocks in use, so they are drawn once per set of stocks
+      // and blended again at each edit's fractions (the same batches as drawing afresh, to the last bit).
+      const inBand = p.ok ? p.inBand : null;
+      const usedLines = v.lines.filter((l) => l.massFraction > 0).map((l) => ({ componentId: l.componentId, massFraction: l.massFraction }));
+      const usedKey = usedLines.map((l) => l.componentId).join('|');
+      if (!k.lots || k.lots.key !== usedKey || k.lots.components !== components || k.lots.method !== settings.blendMethod) {
+        let lots: MonteCarloLots | null;
+        try {
+          lots = monteCarloLots(recipeSpreadParts(components, usedLines), { samples: SIMULATED_BATCHES, seed: SIMULATION_SEED, method: settings.blendMethod });
+        } catch {
+          lots = null;
+        }
+        k.lots = { key: usedKey, components, method: settings.blendMethod, lots };
+      }
+      const lots = k.lots.lots;
+      let distribution: (ReturnType<typeof batchDistributionData> & { share: number }) | null = null;
+      if (inBand && lots && inBand.distribution.sdX > 0) {
+        try {
+          const mc = blendLots(lots, recipeSpreadParts(components, usedLines));
+          distribution = { ...batchDistributionData(inBand.distribution, inBand.iso, mc.samples), share: shareInBand(mc.samples, inBand.plant) };
+        } catch {
+          distribution = null;
+        }
+      }
+      const a = k.axes;
+      const wantedX = distribution ? distributionDomain(distribution.curve, distribution.histogram, inBand!.iso) : null;
+      const axes: Axes = {
+        pctMax: Math.min(100, stickyMax(a.pctMax, Math.max(1, ...v.lines.map((l) => 100 * Math.max(l.massFraction, l.volumeFraction))))),
+        costMax: stickyMax(a.costMax, Math.max(1e-3, ...v.lines.map((l) => l.costPerLitre ?? 0))),
+        distX: wantedX ? stickyDomain(a.distX, wantedX) : null,
+        distYMax: stickyMax(a.distYMax, distribution ? distributionPeak(distribution.curve, distribution.histogram) : 0),
+        plantMin: inBand?.plant.min ?? NaN,
+        plantMax: inBand?.plant.max ?? NaN,
+        isoMin: inBand?.iso.min ?? NaN,
+        isoMax: inBand?.iso.max ?? NaN,
+      };
+      // The sticky ranges remember their last value even while there is no distribution to show.
+      k.axes = sameAxes(a, axes) ? a : { ...axes, distX: axes.distX ?? a.distX };
+      const marks: LiveMarks = {
+        vt: p.ok ? { label: 'this blend', kv40: p.kv40, kv100: p.kv100, pourPointC: p.props.pourPoint } : null,
+        point: p.ok && p.anilinePoint !== null ? { label: 'this blend', x: p.anilinePoint, y: p.oxidationRating } : null,
+        bars: v.lines.map((l) => ({
+          id: l.componentId,
+          label: l.component?.code ?? l.componentId,
+          massPct: l.massFraction * 100,
+          volumePct: l.volumeFraction * 100,
+          costPerLitre: l.costPerLitre ?? 0,
+        })),
+        distribution:
+          distribution && inBand
+            ? {
+                curve: distribution.curve,
+                histogram: distribution.histogram,
+                plantProbability: inBand.plant.probability,
+                isoProbability: inBand.iso.probability,
+                simulation: `${fmt.num(SIMULATED_BATCHES, 0)} simulated batches (seed ${SIMULATION_SEED}), each stock's lot drawn and blended by the exact rule: ${formatPct(distribution.share)} in the solve band`,
+              }
+            : null,
+      };
+      return { marks, axes };
+    },
+    [components, settings.blendMethod, fmt, formatPct],
   );
+  const [axes, setAxes] = useState<Axes>(() => marksOf(view.get(), prediction.get()).axes);
+  useLayoutEffect(() => {
+    const follow = () => {
+      const { marks, axes: next } = marksOf(view.get(), prediction.get());
+      live.set(marks);
+      setAxes((cur) => (sameAxes(cur, next) ? cur : next));
+    };
+    follow();
+    return prediction.subscribe(follow);
+  }, [view, prediction, marksOf, live]);
+
+  const { pctMax, costMax, distX, distYMax, plantMin, plantMax, isoMin, isoMax } = axes;
+  const plantBand = useMemo(() => ({ min: plantMin, max: plantMax, label: 'solve band' }), [plantMin, plantMax]);
+  const isoBand = useMemo(() => ({ min: isoMin, max: isoMax, label: 'ISO band' }), [isoMin, isoMax]);
 
   const full = Math.max(320, width);
   const half = full >= 900 ? Math.floor((full - 48) / 2) : full;
 
   return (
-    <LiveMarksProvider marks={live}>
+    <LiveMarksProvider source={live}>
       <section className="designer-charts" aria-label="Charts" ref={ref}>
         <h3>Charts</h3>
         <div className="chart-row">
@@ -244,7 +291,7 @@ export default function DesignerCharts({ view, prediction, components, reference
           width={full}
           height={Math.max(140, 40 + rowLabels.length * 26)}
         />
-        {distribution && distX && (
+        {distX && (
           <BatchDistributionChart
             live
             xDomain={distX}

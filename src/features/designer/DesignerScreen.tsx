@@ -23,12 +23,10 @@ import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-r
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
-import { deriveDraft } from './derive';
 import { densityLookup, useDesignerStore } from './store';
 import { runSolve } from './solve';
-import { usePrediction } from './predict';
 import { PropertiesView, solveBand } from './PropertiesPanel';
-import { useRelayed } from '../../components/relay';
+import { useDraftRelays, type DraftInputs } from './draft-relays';
 import './designer.css';
 
 const DesignerCharts = lazy(() => import('./DesignerCharts'));
@@ -51,7 +49,10 @@ export default function DesignerScreen() {
   const fmt = useFormat();
 
   const targets = useDesignerStore((s) => s.targets);
-  const lines = useDesignerStore((s) => s.lines);
+  // Not the lines themselves: an edit of a share changes neither the set of stocks nor whether the
+  // recipe adds up, so it does not render the screen again (its numbers follow the relays below).
+  const lineKey = useDesignerStore((s) => s.lines.map((l) => l.componentId).join('|'));
+  const complete = useDesignerStore((s) => s.lines.length > 0 && Math.abs(s.lines.reduce((t, l) => t + l.massFraction, 0) - 1) < 1e-6);
   const basis = useDesignerStore((s) => s.basis);
   const rebalanceMode = useDesignerStore((s) => s.rebalanceMode);
   const balanceId = useDesignerStore((s) => s.balanceId);
@@ -87,16 +88,27 @@ export default function DesignerScreen() {
   }, [initialised, seenActiveId, recipes, activeRecipeId, storedTargets, additiveId, actions]);
 
   const density = useMemo(() => densityLookup(components), [components]);
-  const view = useMemo(() => deriveDraft(lines, byId, priced.base), [lines, byId, priced.base]);
   const band = useMemo(() => {
     const b = solveBand(targets);
     return b ? { min: b.lo, max: b.hi } : null;
   }, [targets]);
-  const prediction = usePrediction(lines, components, settings, targets.grade, band);
-  // The table and the properties read their numbers from these relays, so an edit re-renders only
-  // the numbers it changes (the results stay derived here, never stored).
-  const viewRelay = useRelayed(view);
-  const predictionRelay = useRelayed(prediction);
+  const { blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit } = settings;
+  const lo = band?.min;
+  const hi = band?.max;
+  const draftInputs = useMemo<DraftInputs>(
+    () => ({
+      components,
+      byId,
+      baseCurrency: priced.base,
+      settings: { blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit },
+      grade: targets.grade,
+      band: lo === undefined || hi === undefined ? null : { min: lo, max: hi },
+    }),
+    [components, byId, priced.base, blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit, targets.grade, lo, hi],
+  );
+  // The table, the properties and the charts read the derived numbers from these relays, derived
+  // once per edit as the store takes it (never stored); an edit re-renders only what shows them.
+  const { view: viewRelay, prediction: predictionRelay } = useDraftRelays(draftInputs);
 
   const [solving, setSolving] = useState(false);
   const onSolve = useCallback(() => {
@@ -125,7 +137,6 @@ export default function DesignerScreen() {
     actions.load(sourceRecipe, targetsFor(sourceRecipe, storedTargets[sourceRecipe.id], additiveId));
   }, [sourceRecipe, sourceStamp, dirty, storedTargets, additiveId, actions]);
   // The stocks that can be added change with the set of lines, not with their shares.
-  const lineKey = lines.map((l) => l.componentId).join('|');
   const addable = useMemo(() => {
     const inRecipe = new Set(lineKey.split('|'));
     return components.filter((c) => c.availability !== 'withdrawn' && !inRecipe.has(c.id));
@@ -263,7 +274,7 @@ export default function DesignerScreen() {
             sourceRecipe={sourceRecipe}
             nextRevision={sourceRecipe ? nextRevisionNumber(recipes, sourceRecipe) : 1}
             dirty={dirty}
-            canSave={lines.length > 0 && Math.abs(view.total - 1) < 1e-6}
+            canSave={complete}
             onName={actions.setName}
             onSaveNew={onSaveNew}
             onSaveChanges={onSaveChanges}
@@ -272,8 +283,8 @@ export default function DesignerScreen() {
       </div>
       <Suspense fallback={<p className="muted">Loading charts…</p>}>
         <DesignerCharts
-          view={view}
-          prediction={prediction}
+          view={viewRelay}
+          prediction={predictionRelay}
           components={components}
           referenceRecipe={recipes.find((r) => r.id === targets.referenceRecipeId) ?? null}
           settings={settings}

@@ -1,11 +1,17 @@
-import { memo, useLayoutEffect, useRef, useState } from 'react';
+import { memo, useCallback, useLayoutEffect, useRef, useState, useSyncExternalStore } from 'react';
 import { useFormat } from '../../components/format';
+import { RelayText, type Relay } from '../../components/relay';
+
+/** Where a cell reads its share (0–1): the current value, and a way to hear of a new one. */
+export type ShareSource = Pick<Relay<number>, 'get' | 'subscribe'>;
+
+const NOT_READ = () => 0;
 
 export interface FractionInputProps {
   /** Accessible label, e.g. "Mass % of BW-240". */
   label: string;
-  /** Share 0–1. */
-  value: number;
+  /** The share 0–1, as it follows the recipe. */
+  share: ShareSource;
   /** Called on every keystroke that gives a valid percentage (live recomputation). */
   onEdit: (fraction: number) => void;
   disabled?: boolean;
@@ -21,11 +27,12 @@ export interface FractionInputProps {
  * with the same label); focusing it — Tab, Shift-Tab or a click — puts the field in its place with
  * the share selected, and leaving it (with an accepted entry) makes it text again. So an edit of
  * one line does not rewrite the value, name and type of every other line's field, and a change of
- * its number is laid out inside its own fixed box.
+ * its number is laid out inside its own fixed box. The text cell writes its number itself as the
+ * share changes (no React render); the field, while shown, follows the share through React.
  */
-export const FractionInput = memo(function FractionInput({ label, value, onEdit, disabled }: FractionInputProps) {
+export const FractionInput = memo(function FractionInput({ label, share, onEdit, disabled }: FractionInputProps) {
   const fmt = useFormat();
-  const show = (v: number) => fmt.plain(Number((v * 100).toFixed(2)), 2);
+  const show = useCallback((v: number) => fmt.plain(Number((v * 100).toFixed(2)), 2), [fmt]);
   // The text as typed, kept only while the user is typing (dirty); otherwise the cell shows the
   // stored share, so an edit of another line repaints it in the same render.
   const [text, setText] = useState('');
@@ -35,6 +42,7 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
   const start = useRef<number | null>(null);
   /** True while the field is shown (from the cell's focus until the field is left with an accepted entry). */
   const [editing, setEditing] = useState(false);
+  const value = useSyncExternalStore(share.subscribe, editing ? share.get : NOT_READ, editing ? share.get : NOT_READ);
   const field = useRef<HTMLInputElement>(null);
   // The field takes the focus the text cell had, with its text selected (typing replaces it).
   useLayoutEffect(() => {
@@ -59,7 +67,7 @@ export const FractionInput = memo(function FractionInput({ label, value, onEdit,
         tabIndex={disabled ? undefined : 0}
         onFocus={disabled ? undefined : () => setEditing(true)}
       >
-        {show(value)}
+        <RelayText relay={share} select={show} />
       </span>
     );
   }

@@ -4,9 +4,9 @@ import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { useFormat } from '../../components/format';
 import type { Basis } from './fractions';
 import type { DraftView, LineView } from './derive';
-import { RelayText, useRelay, type Relay } from '../../components/relay';
+import { RelayText, type Relay } from '../../components/relay';
 import type { RebalanceMode } from './store';
-import { FractionInput } from './FractionInput';
+import { FractionInput, type ShareSource } from './FractionInput';
 
 /** A line of the recipe as the table lays it out (which stock; its shares come from the relay). */
 export interface TableLine {
@@ -234,13 +234,19 @@ const RecipeRow = memo(function RecipeRow({
   );
 });
 
-/** A line's editable share, following the relay (re-rendered only when this line's share changes). */
+/** A line's editable share, read from the relay (its text cell follows each edit without a React render). */
 function LineShare({ view, id, basis, label, onEdit }: { view: Relay<DraftView>; id: string; basis: Basis; label: string; onEdit: (f: number) => void }) {
-  const value = useRelay(view, (v) => {
-    const l = lineOf(v, id);
-    return l ? (basis === 'mass' ? l.massFraction : l.volumeFraction) : 0;
-  });
-  return <FractionInput label={label} value={value} onEdit={onEdit} />;
+  const share = useMemo<ShareSource>(
+    () => ({
+      get: () => {
+        const l = lineOf(view.get(), id);
+        return l ? (basis === 'mass' ? l.massFraction : l.volumeFraction) : 0;
+      },
+      subscribe: view.subscribe,
+    }),
+    [view, id, basis],
+  );
+  return <FractionInput label={label} share={share} onEdit={onEdit} />;
 }
 
 /** Adds a stock to the recipe (its own component: an edit of a share does not re-render the list of stocks). */

@@ -1,6 +1,5 @@
 /** Predicted properties of the draft, recomputed by the core on every change (never stored). */
 import { displayWords, type NumberDisplay } from '../../core/words/display';
-import { useMemo } from 'react';
 import type { Component, RecipeLine } from '../../core/formulation/model';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { D341Form } from '../../core/viscosity/viscosity-temperature';
@@ -8,7 +7,6 @@ import { predictBlend, type BlendProperties } from '../../core/formulation/blend
 import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposit';
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
-import type { Settings } from '../../state';
 import { userMessage } from '../../state/messages';
 
 export type Prediction =
@@ -105,29 +103,4 @@ function inBandOf(
   } catch {
     return null;
   }
-}
-
-export function usePrediction(
-  lines: readonly RecipeLine[],
-  components: readonly Component[],
-  settings: Pick<Settings, 'blendMethod' | 'd341Form' | 'operatingTempC' | 'coldStartTempC' | 'deliveryTempC' | 'decimalSeparator' | 'thousandsGrouping' | 'temperatureUnit'>,
-  grade?: number,
-  band?: { min: number; max: number } | null,
-): Prediction {
-  const { blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit } = settings;
-  const lo = band?.min;
-  const hi = band?.max;
-  return useMemo(
-    () =>
-      predictRecipe(lines, components, blendMethod, {
-        operatingTempC,
-        coldTempC: coldStartTempC,
-        deliveryTempC,
-        d341Form,
-        display: { decimalSeparator, thousandsGrouping, temperatureUnit },
-        ...(grade === undefined ? {} : { grade }),
-        ...(lo === undefined || hi === undefined ? {} : { band: { min: lo, max: hi } }),
-      }),
-    [lines, components, blendMethod, d341Form, operatingTempC, coldStartTempC, deliveryTempC, decimalSeparator, thousandsGrouping, temperatureUnit, grade, lo, hi],
-  );
 }

@@ -1,6 +1,7 @@
 // @vitest-environment jsdom
 import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { loadUnitConversions } from '../../../src/components/format';
+import { Profiler } from 'react';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import DesignerScreen from '../../../src/features/designer/DesignerScreen';
 import { useDesignerStore } from '../../../src/features/designer/store';
@@ -65,6 +66,33 @@ describe('Recipe designer', () => {
     // left with an accepted entry: text again, showing the stored share
     expect(screen.getByLabelText('Mass % of BW-160').tagName).toBe('SPAN');
     expect(shareText('Mass % of BW-160')).toBe('40.00');
+  });
+
+  it('an edit of a share is one React commit (the numbers follow it in that commit or are written directly)', () => {
+    let commits = 0;
+    const onRender = () => {
+      commits++;
+    };
+    render(
+      <Profiler id="screen" onRender={onRender}>
+        <DesignerScreen />
+      </Profiler>,
+    );
+    const input = shareField('Mass % of BW-160');
+    fireEvent.change(input, { target: { value: '38' } }); // the first edit also marks the draft changed
+    const kv40 = screen.getByTestId('prop-kv40').textContent;
+    const other = shareText('Mass % of BW-190');
+    commits = 0;
+    let changes = 0;
+    const unsubscribe = useDesignerStore.subscribe(() => changes++);
+    fireEvent.change(input, { target: { value: '40' } });
+    unsubscribe();
+    expect(changes).toBe(1); // the store took one change
+    expect(commits).toBe(1);
+    // Every number that shows the blend followed it in that one commit (or was written directly).
+    expect(screen.getByTestId('prop-kv40').textContent).not.toBe(kv40);
+    expect(shareText('Mass % of BW-190')).not.toBe(other);
+    expect(screen.getByTestId('total-mass').textContent).toBe('100.00');
   });
 
   it('a share cell: Escape restores the share the edit began with; a refused entry stays with its message on Enter and Tab', () => {
