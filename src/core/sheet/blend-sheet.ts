@@ -19,6 +19,7 @@ import { batchQuantities, pricePerKg, type BatchSize } from '../formulation/cost
 import { gradeBand } from '../viscosity/iso-grades';
 import { blendDensityAtTemperature } from '../blending/density-temperature';
 import { cToF } from '../units';
+import { decimalsOf } from '../words/display';
 import type { BlendProperties } from '../formulation/blend-properties';
 import { D341_FORM_SHORT, type D341Form } from '../viscosity/viscosity-temperature';
 
@@ -638,19 +639,48 @@ export const INDEX_EXTRAPOLATED = 'extrapolated estimate';
 
 export const PER_SPECIFICATION = 'Per specification';
 
-/** "a–b", "≥ a", "≤ b" or "Per specification", with `d` decimals written by `fmt`. */
+/** Decimals a printed limit may add beyond the row's own, to show the limit as entered (or converted). */
+const LIMIT_EXTRA_DECIMALS = 2;
+
+/**
+ * A release limit as it may be printed: the limit itself, with the row's `d` decimals or as many more
+ * as it needs (up to `d + 2`) to be shown exactly; a limit that needs still more is rounded inward
+ * (a minimum up, a maximum down) at `d + 2` decimals, so the printed limit is never looser than the
+ * specification. A limit typed as 219 °C prints 426.2 °F, not 426 °F (which a batch at 218.9 °C
+ * would pass); 14.1234 mm²/s prints 14.13 as a minimum and 14.12 as a maximum.
+ *
+ * @param v - the limit, in the printed unit
+ * @param side - 'min' (a lower limit) or 'max' (an upper limit)
+ * @param d - the row's decimals
+ * @returns the limit as printed and its decimals
+ */
+export function printedLimit(v: number, side: 'min' | 'max', d: number): { value: number; decimals: number } {
+  const most = d + LIMIT_EXTRA_DECIMALS;
+  // The tolerance of decimalsOf (1e-9 relative) absorbs the tail of a °F → °C → °F round trip.
+  const need = decimalsOf(v);
+  if (need <= most) return { value: Number(v.toFixed(need)), decimals: Math.max(d, need) };
+  const scale = 10 ** most;
+  const value = (side === 'min' ? Math.ceil(v * scale) : Math.floor(v * scale)) / scale;
+  return { value, decimals: most };
+}
+
 /**
  * A release limit as printed: "a–b", "≥ a", "≤ b", or "Per specification" when neither is given.
+ * Each limit is printed as {@link printedLimit} gives it: never rounded to a looser limit.
  *
  * @param min - lower limit, or null
  * @param max - upper limit, or null
- * @param d - decimals printed
+ * @param d - decimals printed (at least; more where the limit needs them)
  * @param fmt - number formatter (default: "." without grouping)
  */
 export function limitText(min: number | null, max: number | null, d: number, fmt: (x: number, d: number) => string = fixedDot): string {
-  if (min !== null && max !== null) return `${fmt(min, d)}–${fmt(max, d)}`;
-  if (min !== null) return `≥ ${fmt(min, d)}`;
-  if (max !== null) return `≤ ${fmt(max, d)}`;
+  const show = (v: number, side: 'min' | 'max') => {
+    const p = printedLimit(v, side, d);
+    return fmt(p.value, p.decimals);
+  };
+  if (min !== null && max !== null) return `${show(min, 'min')}–${show(max, 'max')}`;
+  if (min !== null) return `≥ ${show(min, 'min')}`;
+  if (max !== null) return `≤ ${show(max, 'max')}`;
   return PER_SPECIFICATION;
 }
 
@@ -777,9 +807,11 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
   }
   if (!(r.key in value)) return r;
   const v = value[r.key];
-  const min = r.min === null ? null : f(r.min);
-  const max = r.max === null ? null : f(r.max);
-  const target = min !== null ? `≥ ${fmt(min, 0)}` : max !== null ? `≤ ${fmt(max, 0)}` : r.target;
+  // Limits are converted, not rounded to whole degrees: rounding could loosen them (219 °C is
+  // 426.2 °F; "≥ 426" would pass a batch at 218.9 °C). Printed as limitText prints them.
+  const min = r.min === null ? null : printedLimit(cToF(r.min), 'min', 0).value;
+  const max = r.max === null ? null : printedLimit(cToF(r.max), 'max', 0).value;
+  const target = min !== null || max !== null ? limitText(min, max, 0, fmt) : r.target;
   return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : fmt(f(v), 0), target, min, max };
 }
 

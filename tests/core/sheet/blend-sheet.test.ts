@@ -7,6 +7,7 @@ import {
   defaultBlendingInstructions,
   largestRemainderUnits,
   qcReleaseTargets,
+  limitText,
   INDEX_EXTRAPOLATED,
   quantityDecimals,
   BLEND_SHEET_CAUTIONS,
@@ -363,8 +364,8 @@ describe('qcReleaseTargets', () => {
     const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F', specification: spec });
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));
     // t_F = 9/5·t_C + 32 (common practice, no source), rounded to whole degrees:
-    // flash 241.6 °C → 466.9 → 467 °F, limit 232 °C → 449.6 → 450 °F
-    expect([by.flash!.unit, by.flash!.predicted, by.flash!.target, by.flash!.min]).toEqual(['°F', '467', '≥ 450', 450]);
+    // flash 241.6 °C → 466.9 → 467 °F; the limit 232 °C → 449.6 °F is converted, not rounded
+    expect([by.flash!.unit, by.flash!.predicted, by.flash!.target, by.flash!.min]).toEqual(['°F', '467', '≥ 449.6', 449.6]);
     // pour −11.2 °C → 11.8 → 12 °F, limit −5 °C → 23 °F
     expect([by.pour!.unit, by.pour!.predicted, by.pour!.target, by.pour!.max]).toEqual(['°F', '12', '≤ 23', 23]);
     // aniline 118.2 °C → 244.8 → 245 °F; operating 60 °C → 140 °F
@@ -388,6 +389,29 @@ describe('qcReleaseTargets', () => {
     expect(by.flash!.target).toBe('Per specification');
     expect(by.vi!.predicted).toBe('—');
     expect(by.kvOperating).toBeUndefined();
+  });
+
+  it('never prints a release limit looser than the specification (a °F limit is converted, not rounded to whole degrees)', () => {
+    // t_F = 9/5·t_C + 32 (common practice, no source): 219 °C → 426.2 °F, −8 °C → 17.6 °F.
+    // Rounded to whole degrees these printed "≥ 426" and "≤ 18", limits a batch at 218.9 °C or −7.8 °C would pass.
+    const spec = { ...BLANK_SPECIFICATION, flashMin: 219, pourMax: -8 };
+    const rows = qcReleaseTargets(320, p, { temperatureUnit: 'F', specification: spec });
+    const by = Object.fromEntries(rows.map((r) => [r.key, r]));
+    expect([by.flash!.target, by.pour!.target]).toEqual(['≥ 426.2', '≤ 17.6']);
+    expect([by.flash!.min, by.pour!.max]).toEqual([426.2, 17.6]);
+    // A whole-degree limit still prints whole; a limit typed in °F (stored in °C to 12 significant
+    // figures) prints as typed: 425 °F → 218.333333333 °C → 425 °F.
+    const typedF = qcReleaseTargets(320, p, { temperatureUnit: 'F', specification: { ...spec, flashMin: 218.333333333, pourMax: -5 } });
+    expect(typedF.find((r) => r.key === 'flash')!.target).toBe('≥ 425');
+    expect(typedF.find((r) => r.key === 'pour')!.target).toBe('≤ 23');
+    // In °C a limit with more decimals than the row prints is shown as entered (common practice, no source).
+    const c = Object.fromEntries(
+      qcReleaseTargets(320, p, { specification: { ...spec, flashMin: 219.4, viMin: 89.5, kv100Min: 22.125, kv100Max: 26.004 } }).map((r) => [r.key, r.target]),
+    );
+    expect([c.flash, c.vi, c.kv100]).toEqual(['≥ 219.4', '≥ 89.5', '22.125–26.004']);
+    // Beyond two extra decimals a limit is rounded inward: a minimum up, a maximum down.
+    expect(limitText(14.12341, 14.98769, 2)).toBe('14.1235–14.9876');
+    expect(limitText(null, -7.77777, 0, (x, d) => x.toFixed(d).replace('.', ','))).toBe('≤ -7,78');
   });
 });
 
