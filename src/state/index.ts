@@ -29,7 +29,7 @@
  *   libraryRoomProblem(count, adding, 'entry'|'import', say?) → why the library has no room (one stock limit) | null
  *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis?, targets?, activate? }) → id (a draft; with its targets, and made active, in one step)
  *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
- *     | saveChanges(id, changes, reason) → id  (a draft in place; an approved recipe → a new draft revision)
+ *     | saveChanges(id, changes, reason, basedOn?) → id  (a draft in place, unless saved since `basedOn`; an approved recipe → a new draft revision)
  *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)
  *     | approveRecipe(id) (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
  *     | setArchived(id, bool) | duplicateRecipe(id, name?) → id | removeRecipe(id) (undoable)
@@ -75,7 +75,7 @@ import { demoComponents, demoSettingsPatch } from './demo';
 export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
 export type { RecipesState, RecipesData, NewRecipe, SheetInputs, QcInputs, RecipeChanges } from './recipes';
-export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, approvedMessage, nextRevisionNumber } from './recipes';
+export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, RecipeChangedError, approvedMessage, nextRevisionNumber } from './recipes';
 export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan, leastUseAboveSupply } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
@@ -112,7 +112,8 @@ export const recipeActions = {
     useRecipesStore.getState().updateRecipe(...a),
   setLines: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setLines']>) =>
     useRecipesStore.getState().setLines(...a),
-  saveChanges: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveChanges(id, changes, reason),
+  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: string | null) =>
+    useRecipesStore.getState().saveChanges(id, changes, reason, basedOn),
   saveRevision: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveRevision(id, changes, reason),
   approveRecipe: (id: string) => useRecipesStore.getState().approveRecipe(id),
   renameRecipe: (id: string, name: string) => useRecipesStore.getState().renameRecipe(id, name),

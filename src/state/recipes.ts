@@ -124,8 +124,10 @@ export interface RecipesState extends RecipesData {
    * blank reason keeps the draft's reason); an approved or superseded recipe is never overwritten — a
    * new draft revision that supersedes it is created instead (see `saveRevision`). Returns the id of
    * the recipe now holding the changes. Throws FieldRuleError when the changes break a field rule.
+   * `basedOn` is the draft's `updatedAt` when the changes were begun from it: a draft saved since
+   * (in another tab, or on another screen) is not overwritten — RecipeChangedError says so.
    */
-  saveChanges: (id: string, changes: RecipeChanges, reason: string) => string;
+  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: string | null) => string;
   /**
    * Create a new draft revision of a recipe: a copy with `changes` applied, the next revision number,
    * status draft, `supersedes` = id, the reason for change, the same targets (unless changed) and
@@ -242,6 +244,20 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
 
 const now = () => new Date().toISOString();
 
+/**
+ * Saving a draft over a version of it that was saved after the edits began (two tabs editing the same
+ * recipe): refused, so neither tab's saved work is overwritten unseen.
+ */
+export class RecipeChangedError extends Error {
+  constructor(readonly recipe: Recipe) {
+    super(
+      `“${recipe.name}” was changed and saved after this draft was opened (${recipe.updatedAt.slice(0, 16).replace('T', ' ')} UTC, in another tab or on another screen); ` +
+        `saving here would overwrite that change. Save as a new recipe to keep both, or open “${recipe.name}” again to start from what is saved`,
+    );
+    this.name = 'RecipeChangedError';
+  }
+}
+
 export const demoRecipesData = (): RecipesData => ({
   recipes: demoRecipes(),
   targets: demoTargets(),
@@ -322,10 +338,11 @@ export const useRecipesStore = create<RecipesState>()(
             return changeRecipe(id, (x) => ({ ...x, ...patch, id }));
           },
           setLines: (id, lines) => get().updateRecipe(id, { lines }),
-          saveChanges: (id, changes, reason) => {
+          saveChanges: (id, changes, reason, basedOn) => {
             const r = get().recipes.find((x) => x.id === id);
             if (!r) throw new Error(`no recipe ${id}`);
             if (r.status !== 'draft') return get().saveRevision(id, changes, reason)!;
+            if (basedOn !== undefined && basedOn !== null && r.updatedAt !== basedOn) throw new RecipeChangedError(r);
             const { targets, ...fields } = changes;
             const next: Recipe = {
               ...r,

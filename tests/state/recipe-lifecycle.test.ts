@@ -6,7 +6,7 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
-import { defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
+import { RecipeChangedError, defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
 import { BLANK_SPECIFICATION } from '../../src/core/formulation/model';
 import { stockBasisChanges } from '../../src/core/recipes/stock-basis';
 
@@ -23,6 +23,21 @@ beforeAll(async () => {
 });
 
 describe('recipe lifecycle', () => {
+  it('does not save a draft over a version saved after the edits began (two tabs, s19 defect hunt)', async () => {
+    const id = recipeActions.duplicateRecipe('demo-vg320')!;
+    const began = get(id).updatedAt;
+    await new Promise((r) => setTimeout(r, 2)); // the next save carries a later stamp (ms)
+    expect(recipeActions.saveChanges(id, { name: 'Renamed in the other tab' }, '', began)).toBe(id);
+    const theirs = structuredClone(get(id));
+    const lines = theirs.lines.map((l) => ({ ...l }));
+    lines.reverse();
+    expect(() => recipeActions.saveChanges(id, { lines }, '', began)).toThrow(RecipeChangedError);
+    expect(get(id)).toEqual(theirs);
+    // Based on the version as saved now, or with no stamp (a caller that read it just now), it saves.
+    expect(recipeActions.saveChanges(id, { lines }, '', theirs.updatedAt)).toBe(id);
+    expect(get(id).lines).toEqual(lines);
+  });
+
   it('never overwrites an approved recipe: saving changes makes a draft revision that supersedes it', () => {
     const old = get('demo-vg320');
     expect(old.status).toBe('approved');

@@ -212,6 +212,8 @@ export default function DesignerScreen() {
             stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
           },
           reason,
+          // The draft's recipe as it was when the edits began: one saved since is not overwritten.
+          s.sourceStamp,
         );
       } catch (e) {
         return { refused: (e as Error).message };

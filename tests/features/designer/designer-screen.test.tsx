@@ -227,6 +227,37 @@ describe('Recipe designer', () => {
     expect(shown.lines.find((l) => l.componentId === first.componentId)!.massFraction).toBeCloseTo(first.massFraction, 12);
   });
 
+  it('a draft with unsaved edits does not overwrite its recipe saved since in another tab; Save as new keeps both (s19 defect hunt)', () => {
+    const copy = recipeActions.duplicateRecipe('demo-vg320')!;
+    recipeActions.setActiveRecipe(copy);
+    render(<DesignerScreen />);
+    const copied = useRecipes.getState().recipes.find((r) => r.id === copy)!;
+    act(() => useDesignerStore.getState().load(copied, useRecipes.getState().targets[copy]!));
+    const first = copied.lines.find((l) => l.massFraction > 0.1)!;
+    // This tab: an invented hand edit, not yet saved.
+    act(() => useDesignerStore.getState().editLine(first.componentId, first.massFraction - 0.05, () => 0.9));
+    // The other tab saves its own change of the same draft (merged into this tab's store, as persistence does).
+    const theirs = copied.lines.map((l) => ({ ...l }));
+    theirs[0]!.massFraction += 0.01;
+    theirs[1]!.massFraction -= 0.01;
+    act(() => {
+      useRecipes.getState().saveChanges(copy, { lines: theirs }, 'changed in the other tab');
+    });
+    const stored = () => useRecipes.getState().recipes.find((r) => r.id === copy)!;
+    const theirsSaved = structuredClone(stored().lines);
+    // Saving here is refused, in words, and the other tab's saved change stays.
+    fireEvent.click(screen.getByRole('button', { name: /^Save changes to draft/ }));
+    expect(screen.getByRole('alert').textContent).toMatch(/Not saved: .*was changed and saved after this draft was opened.*Save as a new recipe to keep both/);
+    expect(stored().lines).toEqual(theirsSaved);
+    expect(useDesignerStore.getState().dirty).toBe(true);
+    // Save as new keeps this tab's edit as a recipe of its own.
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 this tab' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    const mine = useRecipes.getState().recipes.find((r) => r.name === 'Trial 320 this tab')!;
+    expect(mine.lines.find((l) => l.componentId === first.componentId)!.massFraction).toBeCloseTo(first.massFraction - 0.05, 9);
+    expect(stored().lines).toEqual(theirsSaved);
+  });
+
   it('Save as new recipe is one undo step: one undo removes the recipe and its saved targets together (second defect hunt)', () => {
     render(<DesignerScreen />);
     fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 undo' } });
