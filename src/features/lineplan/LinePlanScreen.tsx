@@ -91,7 +91,9 @@ export default function LinePlanScreen() {
 
   // What the views of the result share (the run's limited stocks and supplies, codes, period, format).
   const runMethod = st.basis?.settings.blendMethod ?? settings.blendMethod;
-  const view = useMemo(() => planView(components, st.limited, st.supplyKg, linePlan.period, fmt, runMethod), [components, st.limited, st.supplyKg, linePlan.period, fmt, runMethod]);
+  // The period the plan was made for (its demands are over that period), not one typed since.
+  const runPeriod = st.basis?.linePlan.period ?? linePlan.period;
+  const view = useMemo(() => planView(components, st.limited, st.supplyKg, runPeriod, fmt, runMethod), [components, st.limited, st.supplyKg, runPeriod, fmt, runMethod]);
 
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;
@@ -221,7 +223,7 @@ export default function LinePlanScreen() {
               <p className="small muted">Your browser’s print dialog also saves a PDF.</p>
             </div>
             {summaryResult && (
-              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} pricing={summaryPricing} />
+              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} pricing={summaryPricing} stale={stale} />
             )}
           </section>
         </>

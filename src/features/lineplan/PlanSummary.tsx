@@ -24,13 +24,19 @@ export interface PlanSummaryProps {
   paper: 'a4' | 'letter';
   /** The base currency of every cost, the exchange rates behind them and the stocks left out for want of a rate. */
   pricing?: { base: string; ratesUsed: readonly ExchangeRate[]; unpriced: readonly UnpricedStock[] };
+  /** The inputs, recipes, library or settings changed after the plan was made: printed as out of date. */
+  stale?: boolean;
 }
+
+/** Printed under the title of a plan made before its inputs last changed. */
+export const PLAN_OUT_OF_DATE =
+  'Out of date: the plan’s inputs, the recipes, the library or the settings changed after this plan was made, so these figures are not today’s. Plan the line again before relying on them.';
 
 /** Printed under the title: the summary plans, it does not release (item 11 of issue 10). */
 export const PLAN_NOT_FOR_RELEASE =
   'Plan only — not for batching or release: each planned recipe is a prediction, made only after it is adopted as a new revision, approved, and batched from its own blend sheet.';
 
-export function PlanSummary({ result, which, view, companyName, today, paper, pricing }: PlanSummaryProps) {
+export function PlanSummary({ result, which, view, companyName, today, paper, pricing, stale = false }: PlanSummaryProps) {
   const id = useId();
   const { fmt, period, supplyKg, code } = view;
   const plan = which === 'lasting' ? result.lasting : result.after;
@@ -52,6 +58,11 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
       <p className="lps-hold" data-testid="summary-not-for-release">
         <strong>{PLAN_NOT_FOR_RELEASE}</strong>
       </p>
+      {stale && (
+        <p className="lps-hold lps-stale" data-testid="summary-out-of-date">
+          <strong>{PLAN_OUT_OF_DATE}</strong>
+        </p>
+      )}
       <MethodNote method={view.method} className="lps-method" />
 
       {plan.status !== 'optimal' ? (

@@ -241,6 +241,19 @@ describe('Whole-line plan screen', () => {
     print.mockRestore();
   });
 
+  it('a summary printed after the inputs changed says it is out of date, and keeps the period it was planned for (s19 defect hunt)', async () => {
+    await planDemo();
+    const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+    expect(within(summary).queryByTestId('summary-out-of-date')).toBeNull();
+    const planned = within(summary).getByText(/Demand over/).textContent!;
+    // The supply and the period change after the plan was made; the plan on screen is the old one.
+    enter('Supply of BW-190', '100');
+    enter('Planning period', 'the invented next quarter');
+    await waitFor(() => expect(within(screen.getByTestId('plan-summary')).getByTestId('summary-out-of-date').textContent).toMatch(/^Out of date: .*Plan the line again/));
+    expect(within(screen.getByTestId('plan-summary')).getByText(/Demand over/).textContent).toBe(planned);
+    expect(screen.getByTestId('plan-summary').textContent).not.toContain('the invented next quarter');
+  });
+
   it('says in the user’s words why a grade’s saved limits cannot be planned: no field paths, function names or stock ids', async () => {
     // Saved data the entry screens would refuse (e.g. from an older version): BW-280 at least 40 % and at most 30 % in VG 320.
     const { defaultTargets } = await import('../../../src/state/demo');
