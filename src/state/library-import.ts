@@ -45,6 +45,11 @@ export const CSV_COLUMNS = [
   'notes',
 ] as const;
 export type CsvColumn = (typeof CSV_COLUMNS)[number];
+/** Columns holding numbers (read with the file's decimal mark). */
+const NUMBER_COLUMNS: readonly CsvColumn[] = [
+  'kv40_mm2s', 'kv100_mm2s', 'density15_kg_per_l', 'aniline_point_c', 'pour_point_c', 'flash_point_c', 'sulfur_pct',
+  'saturates_pct', 'price', 'oxidation_rating', 'shear_loss_pct', 'kv40_shear_loss_pct', 'kv40_lot_spread_pct',
+];
 const REQUIRED: readonly CsvColumn[] = ['code', 'category', 'kv40_mm2s', 'kv100_mm2s', 'density15_kg_per_l', 'price'];
 
 /** Largest file accepted (characters); one limit with backups and storage (field-rules.ts). */
@@ -77,6 +82,8 @@ export interface ImportPreview {
   format: 'csv' | 'json';
   /** Problems with the file as a whole (no header, not JSON, too large …). */
   fileErrors: string[];
+  /** Notes on the file as a whole that do not stop the import (columns that are not read …). */
+  fileWarnings: string[];
   rows: ImportRow[];
   /** True when there is at least one row and no error anywhere. */
   valid: boolean;
@@ -119,10 +126,47 @@ const BASIS_ALIASES: Record<string, PriceBasis> = {
 
 const AVAILABILITY: readonly Availability[] = ['available', 'limited', 'withdrawn'];
 
-/** Parse one CSV cell as a number; '' → null. `comma` allows a decimal comma. */
-function cellNumber(raw: string | undefined, comma: boolean): number | null | 'bad' {
+/**
+ * A number whose one mark could be a decimal mark or a thousands mark ("1.250", "12,500"): 1–3 digits
+ * not all zero, the mark, exactly three digits.
+ */
+const GROUP_OR_DECIMAL = /^[-+]?(?!0+[.,])\d{1,3}([.,])\d{3}$/;
+/** A number written with a decimal mark that cannot be a thousands mark ("0,87", "11.25", "1,5"). */
+const PLAIN_DECIMAL = /^[-+]?\d*([.,])\d+(?:[eE][-+]?\d+)?$/;
+
+/**
+ * The decimal mark a file's number cells show where they cannot mean anything else: "," or ".",
+ * 'both' when the file uses each, null when no cell tells.
+ */
+function decimalMarkOf(cells: Iterable<string>): ',' | '.' | 'both' | null {
+  let comma = false;
+  let dot = false;
+  for (const raw of cells) {
+    const t = raw.trim().replace(/^−/, '-');
+    if (GROUP_OR_DECIMAL.test(t)) continue;
+    const m = PLAIN_DECIMAL.exec(t);
+    if (m?.[1] === ',') comma = true;
+    else if (m?.[1] === '.') dot = true;
+    if (comma && dot) return 'both';
+  }
+  return comma ? ',' : dot ? '.' : null;
+}
+
+/**
+ * Parse one CSV cell as a number; '' → null. `comma` allows a decimal comma (a file not separated by
+ * commas). There, a cell such as "1.250" or "1,250" could be 1.25 or 1250: it is read only when its
+ * mark is the decimal mark the file's other numbers use (`fileMark`), else refused, never guessed.
+ */
+function cellNumber(raw: string | undefined, comma: boolean, fileMark: ',' | '.' | 'both' | null = null): number | null | 'bad' | { could: [number, number] } {
   const t = (raw ?? '').trim().replace(/^−/, '-');
   if (t === '') return null;
+  if (comma) {
+    const g = GROUP_OR_DECIMAL.exec(t);
+    if (g && g[1] !== fileMark) {
+      const [a, b] = t.split(g[1]!);
+      return { could: [Number(`${a}.${b}`), Number(`${a}${b}`)] };
+    }
+  }
   const s = comma ? t.replace(',', '.') : t;
   if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) return 'bad';
   const v = Number(s);
@@ -226,10 +270,10 @@ function finishRow(
   };
 }
 
-function summarise(format: 'csv' | 'json', fileErrors: string[], rows: ImportRow[]): ImportPreview {
+function summarise(format: 'csv' | 'json', fileErrors: string[], rows: ImportRow[], fileWarnings: string[] = []): ImportPreview {
   const valid = fileErrors.length === 0 && rows.length > 0 && rows.every((r) => r.errors.length === 0);
   const count = (a: ImportRow['action']) => rows.reduce((n, r) => n + (r.action === a ? 1 : 0), 0);
-  return { format, fileErrors, rows, valid, adds: count('add'), updates: count('update'), unchanged: count('unchanged') };
+  return { format, fileErrors, fileWarnings, rows, valid, adds: count('add'), updates: count('update'), unchanged: count('unchanged') };
 }
 
 /**
@@ -255,7 +299,13 @@ function settled(preview: ImportPreview): ImportPreviewer {
 }
 
 /** A previewer over `items`, one row each; `finish` turns the rows into the preview (once complete). */
-function rowByRow<T>(format: 'csv' | 'json', items: readonly T[], makeRow: (item: T, i: number) => ImportRow, finish: (rows: ImportRow[]) => ImportPreview): ImportPreviewer {
+function rowByRow<T>(
+  format: 'csv' | 'json',
+  items: readonly T[],
+  makeRow: (item: T, i: number) => ImportRow,
+  finish: (rows: ImportRow[]) => ImportPreview,
+  fileWarnings: string[] = [],
+): ImportPreviewer {
   const rows: ImportRow[] = [];
   let final: ImportPreview | null = null;
   return {
@@ -277,7 +327,7 @@ function rowByRow<T>(format: 'csv' | 'json', items: readonly T[], makeRow: (item
     },
     result() {
       if (final) return final;
-      if (rows.length < items.length) return summarise(format, [], rows.slice());
+      if (rows.length < items.length) return summarise(format, [], rows.slice(), fileWarnings);
       final = finish(rows);
       return final;
     },
@@ -305,9 +355,25 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
     if (data.length === 0) return settled(summarise('csv', ['The file is empty.'], []));
     const header = data[0]!.map((h) => normaliseHeader(String(h ?? '')));
     const index = new Map<string, number>();
+    const known = new Set<string>(CSV_COLUMNS);
+    const twice: string[] = [];
+    const unread: string[] = [];
     header.forEach((h, i) => {
       if (!index.has(h)) index.set(h, i);
+      // A known column named twice: which one holds the values is not for us to guess.
+      else if (known.has(h)) twice.push(`${h} (columns ${index.get(h)! + 1} and ${i + 1})`);
+      if (h !== '' && !known.has(h)) unread.push(clip(String(data[0]![i] ?? '').trim(), 30));
     });
+    if (twice.length) {
+      return settled(summarise('csv', [`The column${twice.length > 1 ? 's' : ''} ${twice.join(', ')} ${twice.length > 1 ? 'are' : 'is'} named twice: keep one of each and choose the file again.`], []));
+    }
+    // A column that is not read (e.g. a flash point in °F, a viscosity in another unit) is said, not
+    // dropped unseen: its values are not imported.
+    const fileWarnings = unread.length
+      ? [
+          `${unread.length === 1 ? 'The column' : `${unread.length} columns`} ${unread.map((u) => `“${u}”`).join(', ')} ${unread.length === 1 ? 'is' : 'are'} not among the columns Blendbench reads and ${unread.length === 1 ? 'is' : 'are'} not imported (the columns read: ${CSV_COLUMNS.join(', ')}).`,
+        ]
+      : [];
     const missing = REQUIRED.filter((c) => !index.has(c));
     if (missing.length) {
       fileErrors.push(
@@ -319,6 +385,15 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
     if (body.length > MAX_IMPORT_ROWS) return settled(summarise('csv', [`The file has ${body.length} rows; at most ${MAX_IMPORT_ROWS} can be imported at once.`], []));
     if (body.length === 0) return settled(summarise('csv', ['The file has a header but no rows.'], []));
     const comma = parsed.meta.delimiter !== ',';
+    // The decimal mark the file's number cells show where they cannot mean anything else.
+    const numberAt = NUMBER_COLUMNS.map((c) => index.get(c)).filter((i): i is number => i !== undefined);
+    const fileMark = comma
+      ? decimalMarkOf(
+          (function* () {
+            for (const r of body) for (const i of numberAt) yield String(r[i] ?? '');
+          })(),
+        )
+      : '.';
     const seen = new Map<string, number>();
     const stored = byCode(existing);
     const has = (c: CsvColumn) => index.has(c);
@@ -331,9 +406,16 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
       };
       const errors: string[] = [];
       const num = (c: CsvColumn, label: string): number | null => {
-        const v = cellNumber(get(c), comma);
+        const v = cellNumber(get(c), comma, fileMark);
         if (v === 'bad') {
           errors.push(`${label}: “${clip(get(c), 30)}” is not a number`);
+          return null;
+        }
+        if (typeof v === 'object' && v !== null) {
+          const uses = fileMark === ',' || fileMark === '.' ? `this file’s other numbers use “${fileMark}” as the decimal mark` : 'the file’s other numbers do not tell which mark is the decimal mark';
+          errors.push(
+            `${label}: “${clip(get(c).trim(), 30)}” could mean ${v.could[0]} or ${v.could[1]} (${uses}). Write it without a thousands mark, with the file’s decimal mark`,
+          );
           return null;
         }
         return v;
@@ -413,8 +495,8 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
           row.changes = [];
         } else fileErrors.push(`CSV: ${e.message}`);
       }
-      return summarise('csv', fileErrors, rows);
-    });
+      return summarise('csv', fileErrors, rows, fileWarnings);
+    }, fileWarnings);
   } catch (e) {
     return settled(summarise('csv', [`The file could not be read: ${(e as Error)?.message ?? String(e)}`], []));
   }

@@ -74,6 +74,36 @@ describe('CSV import preview', () => {
     expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5); // no calculation: '45,5' read with a decimal comma
   });
 
+  it('refuses a number whose mark could group thousands or mark decimals, naming the line and field, rather than read 1,250 t as 1.25 (s19 defect hunt)', () => {
+    // A tab-separated file whose other numbers use "." (0.87): "1,250" is a thousands group or a decimal comma.
+    const tab = previewCsv('code\tcategory\tkv40_mm2s\tkv100_mm2s\tdensity15_kg_per_l\tprice\tprice_basis\nNEW-1\tgroup-ii\t100\t11\t0.87\t1,250\tper-tonne\n', lib);
+    expect(tab.valid).toBe(false);
+    expect(tab.rows[0]!.line).toBe(2);
+    expect(tab.rows[0]!.errors).toEqual([expect.stringMatching(/^price: “1,250” could mean 1\.25 or 1250 \(this file’s other numbers use “\.” as the decimal mark\)/)]);
+    // A semicolon file whose other numbers use ",": "1.250" is refused the same way …
+    const semi = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price;price_basis\nNEW-1;group-ii;100;11;0,87;1.250;per-tonne\n', lib);
+    expect(semi.rows[0]!.errors).toEqual([expect.stringMatching(/^price: “1\.250” could mean 1\.25 or 1250 \(this file’s other numbers use “,”/)]);
+    // … while its "1,250" is a decimal comma, as every other number of the file (no calculation).
+    const semiOk = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price\nNEW-1;group-ii;100;11;0,87;1,250\n', lib);
+    expect(semiOk.valid).toBe(true);
+    expect(semiOk.rows[0]!.component!.price.amount).toBe(1.25);
+    // In a comma-separated file "." is the only decimal mark: "1.250" is 1.25; "0,870"-style cells cannot arise.
+    const plain = previewCsv(`${HEADER}\nNEW-1,New,group-ii,100,11,0.870,1.250,per-kg\n`, lib);
+    expect(plain.valid).toBe(true);
+    expect(plain.rows[0]!.component!.price.amount).toBe(1.25);
+  });
+
+  it('refuses a file that names a column twice, and says which columns it does not read (s19 defect hunt)', () => {
+    const twice = previewCsv('code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price,Price\nNEW-1,group-ii,100,11,0.87,1.2,9.9\n', lib);
+    expect(twice.valid).toBe(false);
+    expect(twice.fileErrors).toEqual(['The column price (columns 6 and 7) is named twice: keep one of each and choose the file again.']);
+    const unread = previewCsv('code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price,flash_point_f,Pour point (°F)\nNEW-1,group-ii,100,11,0.87,1.2,450,10\n', lib);
+    expect(unread.valid).toBe(true);
+    expect(unread.rows[0]!.component!.flashPoint).toBeNull();
+    expect(unread.fileWarnings).toEqual([expect.stringMatching(/^2 columns “flash_point_f”, “Pour point \(°F\)” are not among the columns Blendbench reads and are not imported/)]);
+    expect(previewCsv(`${HEADER}\nNEW-1,New,group-ii,100,11,0.87,1.2,per-kg\n`, lib).fileWarnings).toEqual([]);
+  });
+
   it('round-trips the demo library through CSV (every row matches its stock and changes nothing)', () => {
     const p = previewCsv(libraryToCsv(lib), lib);
     expect(p.fileErrors).toEqual([]);

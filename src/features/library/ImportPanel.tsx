@@ -16,6 +16,7 @@ const SHOWN_ROWS = 500;
 const emptyPreview = (message: string): ImportPreview => ({
   format: 'csv',
   fileErrors: [message],
+  fileWarnings: [],
   rows: [],
   valid: false,
   adds: 0,
@@ -151,6 +152,15 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
               lists the fields it changes, stored → imported.
             </Notice>
           )}
+          {preview.fileWarnings.length ? (
+            <Notice tone="warning" title="Not everything in the file is read">
+              <ul>
+                {preview.fileWarnings.map((w, i) => (
+                  <li key={i}>{w}</li>
+                ))}
+              </ul>
+            </Notice>
+          ) : null}
           {preview.rows.length ? (
             <>
               <label className="field-label" htmlFor={`${fileId}-filter`}>
