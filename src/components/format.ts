@@ -12,6 +12,7 @@ import { createContext, useContext, useEffect, useMemo, useSyncExternalStore } f
 import type * as Units from '../core/units';
 import { decimalsOf, formatFixed, sayNumber } from '../core/words/display';
 import { gradePosition } from '../core/viscosity/iso-grades';
+import { normaliseCurrency } from '../core/currency/exchange-rates';
 import { useSettings, type Settings } from '../state';
 
 let units: typeof Units | null = null;
@@ -154,6 +155,16 @@ export function parseNumber(text: string, decimalSeparator: '.' | ','): number |
 /** Decimals needed to show a number without losing digits (at most 6). */
 export { decimalsOf };
 
+/**
+ * The mark written before money: the settings' symbol, unless it names another currency than the
+ * base one every cost is in (a symbol "$" kept from before the base became EUR): then the base code.
+ */
+export function moneySymbol(settings: Pick<Settings, 'currencySymbol' | 'baseCurrency'>): string {
+  const named = normaliseCurrency(settings.currencySymbol);
+  const base = normaliseCurrency(settings.baseCurrency);
+  return /^[A-Z]{3}$/.test(named) && named !== base ? base : settings.currencySymbol;
+}
+
 export function makeFormatter(settings: Settings): Formatter {
   const u = units;
   const isF = settings.temperatureUnit === 'F' && u !== null;
@@ -170,7 +181,7 @@ export function makeFormatter(settings: Settings): Formatter {
     },
     pct: (fr, digits = 1) => (fr === null || fr === undefined || !Number.isFinite(fr) ? '—' : `${fixed(fr * 100, digits, settings)} %`),
     money: (v, digits = 2) =>
-      v === null || v === undefined || !Number.isFinite(v) ? '—' : `${settings.currencySymbol}${NARROW_NBSP}${fixed(v, digits, settings)}`,
+      v === null || v === undefined || !Number.isFinite(v) ? '—' : `${moneySymbol(settings)}${NARROW_NBSP}${fixed(v, digits, settings)}`,
     tempValue: (c) => (isF ? cToF(c) : c),
     tempToC: (v) => {
       try {

@@ -130,12 +130,29 @@ export function baseChangeProblem(current: Settings, patch: Partial<Settings>): 
   return `The exchange rates (${listed}) are in ${from} per unit: remove them before changing the base currency to ${to}, then enter the rates to ${to}.`;
 }
 
+/** The usual symbol of a currency code where there is one (€, $, £), else the code itself. */
+const SYMBOL_OF: Record<string, string> = { EUR: '€', USD: '$', GBP: '£' };
+
+/**
+ * A change of the base currency carries a currency symbol that named the old base along (€ → $ when
+ * EUR becomes USD): left behind, every cost would be shown with the symbol of a currency it is not in.
+ * A symbol that names no currency Blendbench knows (e.g. "Fr.") is left as it is.
+ */
+export function withSymbolFollowingBase(current: Settings, patch: Partial<Settings>): Partial<Settings> {
+  if (patch.baseCurrency === undefined || patch.currencySymbol !== undefined) return patch;
+  const from = normaliseCurrency(current.baseCurrency);
+  const to = normaliseCurrency(patch.baseCurrency);
+  if (from === to || normaliseCurrency(current.currencySymbol) !== from) return patch;
+  return { ...patch, currencySymbol: SYMBOL_OF[to] ?? to };
+}
+
 export const useSettingsStore = create<SettingsState>()(
   persist(
     (set, get) => ({
       settings: demoSettings(),
-      updateSettings: (patch) => {
+      updateSettings: (asked) => {
         const current = get().settings;
+        const patch = withSymbolFollowingBase(current, asked);
         const next = { ...current, ...patch };
         const refused = baseChangeProblem(current, patch) ?? firstProblem(settingsProblems(next));
         if (refused) return sayRefusal(refused);

@@ -147,7 +147,8 @@ function ExchangeRates() {
         }}
       />
       <p className="small muted">
-        The currency symbol above ({s.currencySymbol}) is printed with costs: keep it matching the base currency.
+        The currency symbol above ({s.currencySymbol}) is printed with costs. It follows a change of the base currency it named; a symbol that
+        names another currency than the base one is shown as the base code instead.
       </p>
       <table className="data rates-table">
         <caption className="visually-hidden">Exchange rates to {base}</caption>

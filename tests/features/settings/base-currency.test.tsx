@@ -9,6 +9,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import SettingsScreen from '../../../src/features/settings/SettingsScreen';
 import { resetDemo, settingsActions, useSettingsState } from '../../../src/state';
+import { makeFormatter } from '../../../src/components/format';
 
 const rate = { currency: 'USD', rate: 0.92, asOf: '2026-11-30' };
 
@@ -33,6 +34,24 @@ describe('base currency and stored exchange rates', () => {
     expect(useSettingsState.getState().settings.baseCurrency).toBe('GBP');
     expect(settingsActions.updateSettings({ exchangeRates: [] })).toBeNull();
     expect(settingsActions.updateSettings({ baseCurrency: 'USD' })).toBeNull();
+  });
+
+  it('a symbol that named the old base follows the new base; money is never shown with another currency’s symbol (s19 defect hunt)', () => {
+    expect(settingsActions.updateSettings({ exchangeRates: [] })).toBeNull();
+    expect(useSettingsState.getState().settings.currencySymbol).toBe('€');
+    expect(settingsActions.updateSettings({ baseCurrency: 'USD' })).toBeNull();
+    expect(useSettingsState.getState().settings.currencySymbol).toBe('$');
+    expect(settingsActions.updateSettings({ baseCurrency: 'CHF' })).toBeNull();
+    expect(useSettingsState.getState().settings.currencySymbol).toBe('CHF');
+    // A symbol of the user's own that names no known currency stays.
+    expect(settingsActions.updateSettings({ currencySymbol: 'Fr.' })).toBeNull();
+    expect(settingsActions.updateSettings({ baseCurrency: 'EUR' })).toBeNull();
+    expect(useSettingsState.getState().settings.currencySymbol).toBe('Fr.');
+    // Shown: a symbol naming another currency than the base gives way to the base code (costs are in the base).
+    const s = useSettingsState.getState().settings;
+    expect(makeFormatter({ ...s, currencySymbol: '$', baseCurrency: 'EUR' }).money(1.5)).toBe('EUR\u202f1.50');
+    expect(makeFormatter({ ...s, currencySymbol: '€', baseCurrency: 'EUR' }).money(1.5)).toBe('€\u202f1.50');
+    expect(makeFormatter({ ...s, currencySymbol: 'Fr.', baseCurrency: 'CHF' }).money(1.5)).toBe('Fr.\u202f1.50');
   });
 
   it('Settings says why beside the base currency field and keeps the stored base', () => {
