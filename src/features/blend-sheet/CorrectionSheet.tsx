@@ -2,7 +2,7 @@
 // order to charge it, with the same cautions as the blend sheet. Printed through the blend sheet's own
 // print path (the screen chooses which of the two documents the printer gets).
 import type { Recipe } from '../../core/formulation/model';
-import { PER_SPECIFICATION, limitText } from '../../core/sheet/blend-sheet';
+import { limitText } from '../../core/sheet/blend-sheet';
 import { SheetFooter } from './SheetFooter';
 import type { CorrectionProblem, CorrectionResult } from '../../core/qc/correction';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
@@ -178,7 +178,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
             <th scope="row">Viscosity index</th>
             <td>—</td>
             <td className="bs-num">{fmt(result.vi, 0)}</td>
-            <td>{p.recipe.specification.viMin === null ? PER_SPECIFICATION : `≥ ${fmt(p.recipe.specification.viMin, 0)}`}</td>
+            <td>{limitText(p.recipe.specification.viMin, null, 0, fmt)}</td>
             <td>ASTM D2270</td>
             <td className="bs-measured" />
             <td className="bs-initials" />

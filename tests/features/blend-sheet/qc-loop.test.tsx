@@ -231,6 +231,19 @@ describe('Blend sheet — the QC loop', () => {
     expect(screen.getByRole('button', { name: 'Print correction sheet — HOLD — not for release' })).toBeTruthy();
   });
 
+  it('the correction sheet prints the specification’s VI minimum as entered, never rounded to a looser limit (s19 defect hunt)', () => {
+    // an invented specification limit for this test: VI ≥ 89.4 (printed "≥ 89" before, which a VI of 89 passes)
+    useRecipes.setState((st) => ({
+      recipes: st.recipes.map((r) => (r.id === 'demo-vg320' ? { ...r, specification: { ...r.specification, viMin: 89.4 } } : r)),
+    }));
+    render(<BlendSheetScreen />);
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const sheet = screen.getByTestId('correction-sheet');
+    const viRow = within(sheet).getByRole('rowheader', { name: 'Viscosity index' }).closest('tr')!;
+    expect(viRow.textContent).toContain('≥ 89.4');
+  });
+
   it('without a ν100 limit in the specification the correction sheet prints “Per specification”, as the blend sheet does', () => {
     render(<BlendSheetScreen />);
     enter(/^Measured ν40 of the batch/, '290');
