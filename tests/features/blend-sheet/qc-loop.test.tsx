@@ -3,6 +3,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import BlendSheetScreen from '../../../src/features/blend-sheet/BlendSheetScreen';
 import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
+import type { ReleaseSpecification } from '../../../src/core/formulation/model';
 
 beforeEach(() => {
   resetDemo();
@@ -21,6 +22,17 @@ function enter(label: RegExp, value: string) {
   fireEvent.blur(el);
 }
 const num = (t: string) => Number(t.replace(/[^\d.−-]/g, '').replace('−', '-'));
+
+/** The demo VG 320 with invented specification limits, an off-grade batch (ν40 290) and its correction sheet. */
+function correctionSheetWith(limits: Partial<ReleaseSpecification>): HTMLElement {
+  useRecipes.setState((st) => ({
+    recipes: st.recipes.map((r) => (r.id === 'demo-vg320' ? { ...r, specification: { ...r.specification, ...limits } } : r)),
+  }));
+  render(<BlendSheetScreen />);
+  enter(/^Measured ν40 of the batch/, '290');
+  enter(/^Vessel holds at most/, '12000');
+  return screen.getByTestId('correction-sheet');
+}
 
 describe('Blend sheet — the QC loop', () => {
   it('states the probability in the release band and the ISO band for the recipe, on screen and in print', () => {
@@ -215,13 +227,7 @@ describe('Blend sheet — the QC loop', () => {
 
   it('the correction sheet holds the corrected ν100 against the specification’s ν100 limits, as the blend sheet does (plant loop defect hunt)', () => {
     // an invented specification limit for this test: ν100 ≥ 30 mm²/s
-    useRecipes.setState((st) => ({
-      recipes: st.recipes.map((r) => (r.id === 'demo-vg320' ? { ...r, specification: { ...r.specification, kv100Min: 30, kv100Max: null } } : r)),
-    }));
-    render(<BlendSheetScreen />);
-    enter(/^Measured ν40 of the batch/, '290');
-    enter(/^Vessel holds at most/, '12000');
-    const sheet = screen.getByTestId('correction-sheet');
+    const sheet = correctionSheetWith({ kv100Min: 30, kv100Max: null });
     const row = within(sheet).getByRole('rowheader', { name: 'Kinematic viscosity at 100 °C' }).closest('tr')!;
     expect(row.textContent).toContain('≥ 30.00');
     expect(row.textContent).not.toContain('information');
@@ -233,13 +239,7 @@ describe('Blend sheet — the QC loop', () => {
 
   it('the correction sheet prints the specification’s VI minimum as entered, never rounded to a looser limit (s19 defect hunt)', () => {
     // an invented specification limit for this test: VI ≥ 89.4 (printed "≥ 89" before, which a VI of 89 passes)
-    useRecipes.setState((st) => ({
-      recipes: st.recipes.map((r) => (r.id === 'demo-vg320' ? { ...r, specification: { ...r.specification, viMin: 89.4 } } : r)),
-    }));
-    render(<BlendSheetScreen />);
-    enter(/^Measured ν40 of the batch/, '290');
-    enter(/^Vessel holds at most/, '12000');
-    const sheet = screen.getByTestId('correction-sheet');
+    const sheet = correctionSheetWith({ viMin: 89.4 });
     const viRow = within(sheet).getByRole('rowheader', { name: 'Viscosity index' }).closest('tr')!;
     expect(viRow.textContent).toContain('≥ 89.4');
   });

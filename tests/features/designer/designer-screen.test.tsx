@@ -22,6 +22,17 @@ function shareText(label: string): string {
   const cell = screen.getByLabelText(label);
   return cell instanceof HTMLInputElement ? cell.value : (cell.textContent ?? '');
 }
+/**
+ * Make a recipe active, show the designer and open the recipe in it (a draft kept by an earlier
+ * test's deferred write must not stand in for it); returns the recipe as stored.
+ */
+function openInDesigner(id: string) {
+  recipeActions.setActiveRecipe(id);
+  render(<DesignerScreen />);
+  const stored = useRecipes.getState().recipes.find((r) => r.id === id)!;
+  act(() => useDesignerStore.getState().load(stored, useRecipes.getState().targets[id]!));
+  return stored;
+}
 const num = (t: string | null) => Number((t ?? '').replace(/[^\d.−-]/g, '').replace('−', '-'));
 
 beforeEach(() => {
@@ -206,11 +217,7 @@ describe('Recipe designer', () => {
 
   it('a draft without unsaved edits follows its recipe when an undo elsewhere takes the saved change back (second defect hunt)', () => {
     const copy = recipeActions.duplicateRecipe('demo-vg320')!;
-    recipeActions.setActiveRecipe(copy);
-    render(<DesignerScreen />);
-    // open the copy (a draft kept by an earlier test's deferred write must not stand in for it)
-    const copied = useRecipes.getState().recipes.find((r) => r.id === copy)!;
-    act(() => useDesignerStore.getState().load(copied, useRecipes.getState().targets[copy]!));
+    openInDesigner(copy);
     const saved = structuredClone(useRecipes.getState().recipes.find((r) => r.id === copy)!.lines);
     const first = saved.find((l) => l.massFraction > 0.1)!;
     // an invented hand edit of one share, then saved in place
@@ -229,10 +236,7 @@ describe('Recipe designer', () => {
 
   it('a draft with unsaved edits does not overwrite its recipe saved since in another tab; Save as new keeps both (s19 defect hunt)', () => {
     const copy = recipeActions.duplicateRecipe('demo-vg320')!;
-    recipeActions.setActiveRecipe(copy);
-    render(<DesignerScreen />);
-    const copied = useRecipes.getState().recipes.find((r) => r.id === copy)!;
-    act(() => useDesignerStore.getState().load(copied, useRecipes.getState().targets[copy]!));
+    const copied = openInDesigner(copy);
     const first = copied.lines.find((l) => l.massFraction > 0.1)!;
     // This tab: an invented hand edit, not yet saved.
     act(() => useDesignerStore.getState().editLine(first.componentId, first.massFraction - 0.05, () => 0.9));
