@@ -53,6 +53,14 @@ export default function LinePlanScreen() {
   const stale =
     b !== null &&
     (b.components !== components || b.recipes !== recipes || b.targets !== targets || b.linePlan !== linePlan || b.settings !== settings);
+  // The printed summary is out of date as the plan is, except for the new revisions its own adoption saved.
+  const after = st.adopted?.after;
+  const summaryStale =
+    stale &&
+    (b.components !== components ||
+      b.linePlan !== linePlan ||
+      b.settings !== settings ||
+      !(after !== undefined && after.recipes === recipes && after.targets === targets));
 
   // The worker and the result's charts load while the user is still entering the plan (held in
   // state, not React.lazy: a lazy component would suspend on its first render and React holds a
@@ -107,7 +115,10 @@ export default function LinePlanScreen() {
       plan.grades.map((g) => ({ recipeId: g.id, lines: g.lines, stockBasis: recordStockBasis(components, g.lines, stamp) })),
       reason,
     );
-    if (r.ok) screenActions.adopted(which, r.ids);
+    if (r.ok) {
+      const now = useRecipes.getState();
+      screenActions.adopted(which, r.ids, { recipes: now.recipes, targets: now.targets });
+    }
     else screenActions.failed(`The recipes were not saved: ${r.message}`);
   };
 
@@ -223,7 +234,7 @@ export default function LinePlanScreen() {
               <p className="small muted">Your browser’s print dialog also saves a PDF.</p>
             </div>
             {summaryResult && (
-              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} pricing={summaryPricing} stale={stale} />
+              <PlanSummary result={summaryResult} which={st.summaryOf} view={view} companyName={settings.companyName} today={today} paper={st.paper} pricing={summaryPricing} stale={summaryStale} />
             )}
           </section>
         </>

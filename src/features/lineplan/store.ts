@@ -32,8 +32,11 @@ interface LinePlanScreenState {
   runs: number;
   /** The plan whose adoption is being confirmed. */
   confirming: PlanWhich | null;
-  /** The last adoption: which plan and the id of each planned recipe's new draft revision. */
-  adopted: { which: PlanWhich; ids: Record<string, string> } | null;
+  /**
+   * The last adoption: which plan, the id of each planned recipe's new draft revision, and the
+   * recipes and targets as the adoption left them (a change the plan itself made does not put it out of date).
+   */
+  adopted: { which: PlanWhich; ids: Record<string, string>; after?: Pick<PlanBasis, 'recipes' | 'targets'> } | null;
   summaryOf: PlanWhich;
   paper: 'a4' | 'letter';
 }
@@ -62,7 +65,8 @@ export const screenActions = {
   failed: (error: string) => useLinePlanScreen.setState({ status: 'error', error }),
   cancelled: () => useLinePlanScreen.setState((s) => ({ status: s.result ? 'done' : 'idle' })),
   confirm: (which: PlanWhich | null) => useLinePlanScreen.setState({ confirming: which }),
-  adopted: (which: PlanWhich, ids: Record<string, string>) => useLinePlanScreen.setState({ adopted: { which, ids }, confirming: null }),
+  adopted: (which: PlanWhich, ids: Record<string, string>, after?: Pick<PlanBasis, 'recipes' | 'targets'>) =>
+    useLinePlanScreen.setState({ adopted: { which, ids, ...(after ? { after } : {}) }, confirming: null }),
   /** The adoption was undone. */
   unadopted: () => useLinePlanScreen.setState({ adopted: null }),
   summaryOf: (summaryOf: PlanWhich) => useLinePlanScreen.setState({ summaryOf }),

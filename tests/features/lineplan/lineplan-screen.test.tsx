@@ -246,6 +246,12 @@ describe('Whole-line plan screen', () => {
     const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
     expect(within(summary).queryByTestId('summary-out-of-date')).toBeNull();
     const planned = within(summary).getByText(/Demand over/).textContent!;
+    // Adopting the plan saves new revisions: a change the plan made itself, so its summary is still current.
+    const lasting = screen.getByTestId('plan-lasting');
+    fireEvent.click(within(lasting).getByText('Adopt these recipes…'));
+    fireEvent.click(within(lasting).getByText('Save the new revisions'));
+    expect(screen.getByTestId('adopted-lasting').textContent).toContain('VG 320 revision 2');
+    expect(within(screen.getByTestId('plan-summary')).queryByTestId('summary-out-of-date')).toBeNull();
     // The supply and the period change after the plan was made; the plan on screen is the old one.
     enter('Supply of BW-190', '100');
     enter('Planning period', 'the invented next quarter');
