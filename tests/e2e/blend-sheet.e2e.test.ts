@@ -246,6 +246,50 @@ describe('blend sheet', () => {
     expect(s.offHost).toEqual([]);
   });
 
+  it('prints a 40-character stock code, a 200-character name and long header fields on one page, inside the page (s19 defect hunt)', async () => {
+    const { page } = s;
+    // The app's own backup, with the longest values the field rules allow (invented text), imported back.
+    await page.goto(`${inject('baseURL')}#/settings`);
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    const download = page.waitForEvent('download');
+    await page.getByRole('button', { name: 'Export everything (backup file)' }).click();
+    type Backup = {
+      sections: {
+        library: { data: { components: { code: string; name: string }[] } };
+        recipes: { data: { recipes: { id: string; name: string }[] } };
+        settings: { data: { settings: { companyName: string } } };
+      };
+    };
+    const backup = JSON.parse(readFileSync((await (await download).path())!, 'utf8')) as Backup;
+    const code = 'BW-190-HEAVYBRIGHTSTOCKLOT2026NOV00000AB'; // 40 characters, no space: the stock code limit
+    const bs = backup.sections.library.data.components.find((c) => c.code === 'BW-190')!;
+    bs.code = code;
+    bs.name = `Group I bright stock of an invented refinery, ${'vacuum residue, solvent extracted and dewaxed, '.repeat(4)}`.slice(0, 200);
+    backup.sections.recipes.data.recipes.find((r) => r.id === 'demo-vg320')!.name = `Gear oil VG 320 for enclosed industrial gear drives, ${'heavy-duty EP, invented demo, '.repeat(6)}`.slice(0, 200);
+    backup.sections.settings.data.settings.companyName = `Invented Blending Works, ${'Plant Three, Industrial Estate Road, '.repeat(5)}`.slice(0, 200);
+    await page.getByLabel(/^Import a backup/).setInputFiles({ name: 'long.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(backup)) });
+    await page.getByRole('button', { name: 'Replace everything with this backup' }).click();
+    await page.getByText(/^Restored long\.json/).waitFor();
+
+    const codes = await openSheet(page, 'demo-vg320');
+    expect(codes.map((c) => c.replace(/\s/g, ''))).toContain(code);
+    await page.getByLabel('Batch / lot no.').fill('L-2025-0142-A-LOT-NUMBER-WITHOUT-ANY-SPACE-0000000000');
+    await page.getByLabel('Vessel', { exact: true }).fill('Kettle-3-by-the-north-wall-next-to-the-pump-house');
+    const pdf = await printPdf(page, 'blend-sheet-long-fields');
+    toPng(pdf, 'blend-sheet-long-fields');
+    // One page: the sign-off does not stand alone on a second page with nothing to say which batch it is.
+    expect(pdfPages(pdf)).toBe(1);
+    // Every word inside the page (A4 = 595.92 × 842.88 pt; pdftotext -bbox gives each word's box).
+    const boxes = execFileSync('pdftotext', ['-bbox', pdf, '-'], { encoding: 'utf8' });
+    const words = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">/g)].map((m) => m.slice(1).map(Number));
+    expect(words.length).toBeGreaterThan(100);
+    expect(words.filter(([x0, y0, x1, y1]) => x0! < 0 || y0! < 0 || x1! > 595.92 || y1! > 842.88)).toEqual([]);
+    const text = pdfText(pdf).replace(/\s+/g, '');
+    expect(text).toContain(code);
+    expect(text).toContain('Laboratoryconfirmationofeveryreleasepropertyisrequired');
+    expect(s.errors).toEqual([]);
+  });
+
   it('prints temperatures in °F when the settings say so, with the unit', async () => {
     const { page } = s;
     await page.goto(`${inject('baseURL')}#/settings`);
