@@ -229,15 +229,7 @@ export function solveDenseLp(
  * Hand a copy of one LP to the observer (a function of its own, so that the solve's compiled code
  * does not depend on which observer is set).
  */
-function notifyObserver(
-  sense: 'minimize' | 'maximize',
-  n: number,
-  objective: ArrayLike<number>,
-  m: number,
-  a: ArrayLike<number>,
-  lo: ArrayLike<number>,
-  hi: ArrayLike<number>,
-): void {
+function notifyObserver(...[sense, n, objective, m, a, lo, hi]: Parameters<typeof solveDenseLp>): void {
   observer?.({
     sense,
     n,
