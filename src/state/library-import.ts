@@ -17,7 +17,7 @@ import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../core/formulation/model'
 import { componentSchema, describeIssues, z } from './schemas';
 import { checkComponent } from './checks';
 import { COLLECTION_LIMITS } from './field-rules';
-import { blankComponent } from './stock-defaults';
+import { OLDER_SCHEMA_STOCK_DEFAULTS, blankComponent } from './stock-defaults';
 import { restoreCsvText } from './csv';
 
 export const CSV_COLUMNS = [
@@ -537,8 +537,9 @@ export function jsonPreviewer(text: string, existing: readonly Component[]): Imp
       const code = typeof rec.code === 'string' ? rec.code.trim() : '';
       const name = typeof rec.name === 'string' ? rec.name : '';
       // Imported ids are not trusted: a fresh id, unless the code matches a stock already here.
-      // Files written before schema 3 have no lot spread: the category default applies.
-      const parsed = componentSchema.safeParse({ kv40LotSpreadPct: null, ...rec, id: 'import' });
+      // A file written by an older schema lacks fields added since: they take the values the library's
+      // own migrations give them (blank scoring fields and texts; the category's lot spread).
+      const parsed = componentSchema.safeParse({ ...OLDER_SCHEMA_STOCK_DEFAULTS, ...rec, id: 'import' });
       if (!parsed.success) {
         return {
           line,

@@ -6,7 +6,7 @@ import type { Availability, Component } from '../core/formulation/model';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { demoComponents } from './demo';
 import { newId } from './ids';
-import { blankComponent, freeCode } from './stock-defaults';
+import { OLDER_SCHEMA_STOCK_DEFAULTS, blankComponent, freeCode } from './stock-defaults';
 
 export { blankComponent, freeCode } from './stock-defaults';
 import { COLLECTION_LIMITS, FieldRuleError, TEXT_RULES, checkCount, firstProblem, stockProblems, stockWho } from './field-rules';
@@ -83,17 +83,11 @@ export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
       const comps = (d as { components?: unknown }).components;
       if (!Array.isArray(comps)) throw new Error('components is not a list');
       return {
-        components: comps.map((c: Record<string, unknown>) => ({
-          sulfurPct: null,
-          saturatesPct: null,
-          oxidationRating: null,
-          shearLossPct: null,
-          calibration: null,
-          source: '',
-          sourceDate: '',
-          notes: '',
-          ...c,
-        })),
+        components: comps.map((c: Record<string, unknown>) => {
+          // Schema 3's lot spread is added by the next migration.
+          const { kv40LotSpreadPct: _later, ...schema1 } = OLDER_SCHEMA_STOCK_DEFAULTS;
+          return { ...schema1, ...c };
+        }),
       };
     },
   },

@@ -32,6 +32,23 @@ export function blankComponent(init: Partial<Omit<Component, 'id'>> = {}): Compo
   };
 }
 
+/**
+ * The fields a stock saved or exported by an older schema may lack, with the value each takes: the
+ * optional scoring fields and texts (schema 1) and the lot spread of ν40 (before schema 4; null = the
+ * category's default). The library's migrations and the JSON import both fill them in.
+ */
+export const OLDER_SCHEMA_STOCK_DEFAULTS = {
+  sulfurPct: null,
+  saturatesPct: null,
+  oxidationRating: null,
+  shearLossPct: null,
+  calibration: null,
+  source: '',
+  sourceDate: '',
+  notes: '',
+  kv40LotSpreadPct: null,
+} as const satisfies Partial<Component>;
+
 /** The first code of the form `<base>`, `<base>-2`, `<base>-3` … not used in `components`. */
 export function freeCode(components: readonly Component[], base: string): string {
   const used = new Set(components.map((c) => c.code.trim().toLowerCase()));

@@ -229,6 +229,22 @@ describe('JSON import preview', () => {
     expect(p.rows[2]!.errors.join()).toMatch(/not a component/);
     expect(previewJson('{not json', lib).fileErrors.join()).toMatch(/not valid JSON/);
   });
+  it('reads a library file from the first schema, whose stocks lack the fields added since, as the library’s own migration does (s19 defect hunt)', () => {
+    const added = ['sulfurPct', 'saturatesPct', 'oxidationRating', 'shearLossPct', 'calibration', 'source', 'sourceDate', 'notes', 'kv40LotSpreadPct'];
+    const old = lib.slice(0, 2).map((c) => ({
+      ...Object.fromEntries(Object.entries(c).filter(([k]) => !added.includes(k))),
+      code: `${c.code}-OLD`,
+    }));
+    const p = previewJson(JSON.stringify({ format: 'blendbench-library', components: old }), lib);
+    expect(p.rows.map((r) => r.errors)).toEqual([[], []]);
+    expect(p.valid).toBe(true);
+    expect(p.adds).toBe(2);
+    const c = p.rows[0]!.component!;
+    expect([c.sulfurPct, c.shearLossPct, c.calibration, c.kv40LotSpreadPct, c.notes, c.sourceDate]).toEqual([null, null, null, null, '', '']);
+    // What the file has is kept as it is.
+    expect(c.viscosityPoints).toEqual(lib[0]!.viscosityPoints);
+    expect(c.density15).toBe(lib[0]!.density15);
+  });
   it('chooses the parser by file name', () => {
     expect(previewLibraryImport('x.JSON', '[]', lib).format).toBe('json');
     expect(previewLibraryImport('x.csv', '', lib).format).toBe('csv');
