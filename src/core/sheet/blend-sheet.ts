@@ -26,9 +26,17 @@ import { D341_FORM_SHORT, type D341Form } from '../viscosity/viscosity-temperatu
 /** Temperature unit a sheet prints in; values are always computed in °C. */
 export type SheetTemperatureUnit = 'C' | 'F';
 
-/** A temperature [°C] in the sheet's unit, rounded to whole degrees (as the plant reads a gauge). */
-function sheetTemp(tC: number, unit: SheetTemperatureUnit): number {
-  return Math.round(unit === 'F' ? cToF(tC) : tC);
+/**
+ * A temperature [°C] in the sheet's unit, in whole degrees (as the plant reads a gauge): rounded to
+ * the nearest degree, or inward when `bound` says the value is a limit — a lower limit up, an upper
+ * limit down — so the printed limit is never looser than the one set (66 °C is 150.8 °F: "do not
+ * exceed 150 °F", not 151 °F). A value within 10⁻⁶ degree of a whole degree is that degree.
+ */
+function sheetTemp(tC: number, unit: SheetTemperatureUnit, bound?: 'lower' | 'upper'): number {
+  const t = unit === 'F' ? cToF(tC) : tC;
+  const whole = Math.round(t);
+  if (bound === undefined || Math.abs(t - whole) < 1e-6) return whole;
+  return bound === 'lower' ? Math.ceil(t) : Math.floor(t);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -481,8 +489,8 @@ export interface InstructionOptions {
 export function defaultBlendingInstructions(sheet: BlendSheet, options: InstructionOptions = {}): string[] {
   const [cLo, cHi] = options.heatToC ?? [50, 65];
   const unit = options.temperatureUnit ?? 'C';
-  const tLo = sheetTemp(cLo, unit);
-  const tHi = sheetTemp(cHi, unit);
+  const tLo = sheetTemp(cLo, unit, 'lower');
+  const tHi = sheetTemp(cHi, unit, 'upper');
   const deg = unit === 'F' ? '°F' : '°C';
   const [mLo, mHi] = options.mixMinutes ?? [30, 60];
   const codes = (role: ChargeRole) =>

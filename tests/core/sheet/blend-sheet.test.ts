@@ -266,6 +266,15 @@ describe('defaultBlendingInstructions', () => {
     expect(text).toMatch(/at no more than 149 °F/);
     expect(text).not.toMatch(/°C/);
   });
+
+  it('rounds the heating range inward in °F, so the printed maximum is never above the one set', () => {
+    const lib = [comp('hv', 'group-ii', 600, 0.88), comp('add', 'additive-package', 300, 1.05)];
+    const s = buildBlendSheet(lib, recipe([['hv', 0.98], ['add', 0.02]]), { kg: 1000 });
+    const text = defaultBlendingInstructions(s, { temperatureUnit: 'F', heatToC: [50.5, 66] }).join('\n');
+    // t_F = 9/5·t_C + 32 (common practice, no source): 50.5 °C = 122.9 °F → at least 123; 66 °C = 150.8 °F → at most 150
+    expect(text).toMatch(/Heat to 123–150 °F with agitation; do not exceed 150 °F\./);
+    expect(text).toMatch(/at no more than 150 °F/);
+  });
 });
 
 describe('qcReleaseTargets', () => {
