@@ -27,7 +27,7 @@ import {
   type MapPoint,
   type ViscosityLineInput,
 } from '../../components/charts';
-import { makeFormatter } from '../../components/format';
+import { makeFormatter, moneySymbol } from '../../components/format';
 import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
 import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
@@ -287,7 +287,7 @@ export default function DesignerCharts({ view, prediction, components, reference
           live
           pctMax={pctMax}
           costMax={costMax}
-          currency={settings.currencySymbol}
+          currency={moneySymbol(settings)}
           width={full}
           height={Math.max(140, 40 + rowLabels.length * 26)}
         />

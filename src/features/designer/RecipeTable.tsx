@@ -1,7 +1,7 @@
 import { memo, useId, useMemo, useRef, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
-import { useFormat } from '../../components/format';
+import { moneySymbol, useFormat } from '../../components/format';
 import type { Basis } from './fractions';
 import type { DraftView, LineView } from './derive';
 import { RelayText, type Relay } from '../../components/relay';
@@ -107,7 +107,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
             <th scope="col" className="num">Mass %</th>
             <th scope="col" className="num">Volume %</th>
             <th scope="col" className="num">ν40, mm²/s</th>
-            <th scope="col" className="num">Cost share, {fmt.settings.currencySymbol}/L at 15 °C</th>
+            <th scope="col" className="num">Cost share, {moneySymbol(fmt.settings)}/L at 15 °C</th>
             {p.rebalanceMode === 'balance' && <th scope="col">Balance</th>}
             <th scope="col"><span className="visually-hidden">Remove</span></th>
           </tr>

@@ -48,4 +48,12 @@ describe('designer with a stock priced in another currency', () => {
     // demo VG 320 recipe by ideal mixing, as the designer shows it)
     expect(costCell('BW-160')).toBe('0.105');
   });
+
+  it('heads the cost-share column with the base currency when the symbol names another one', () => {
+    // A "€" symbol kept from before the base became USD: the costs are in USD, so is the header.
+    settingsActions.updateSettings({ baseCurrency: 'USD', currencySymbol: '€' });
+    render(<DesignerScreen />);
+    const header = screen.getAllByRole('columnheader').map((h) => h.textContent).find((t) => /Cost share/.test(t ?? ''));
+    expect(header).toBe('Cost share, USD/L at 15 °C');
+  });
 });
