@@ -8,7 +8,8 @@
  * updates existing ones in place, keeping their ids so recipes stay linked; undoable).
  *
  * CSV columns (header row required, any order, unknown columns ignored; temperatures in °C,
- * viscosities in mm²/s, density in kg/L, decimal point "." — or "," when the delimiter is ";"):
+ * viscosities in mm²/s, density in kg/L, decimal point "." — or "," when the delimiter is ";"; a
+ * first line "sep=<delimiter>", as spreadsheets write it, names the delimiter):
  * see `CSV_COLUMNS`.
  */
 import Papa from 'papaparse';
@@ -346,10 +347,15 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
     if (text.length > MAX_IMPORT_CHARS) return settled(summarise('csv', [`The file is larger than ${MAX_IMPORT_CHARS / 1e6} MB.`], []));
     // Delimiter from the header line: papaparse's own guess re-parses the text once per candidate
     // and takes tens of seconds on a hostile file of millions of quote characters.
-    const head = /^[^\r\n]*/.exec(text.slice(0, 10_000))![0];
+    // A spreadsheet's "sep=;" first line names the delimiter: it is used, and the header is line 2.
+    const unmarked = text.replace(/^\uFEFF/, '');
+    const sep = /^sep=([,;\t|])[ \t]*(?:\r\n|\n|\r|$)/i.exec(unmarked);
+    const body0 = sep ? unmarked.slice(sep[0].length) : unmarked;
+    const lineOffset = sep ? 1 : 0;
+    const head = /^[^\r\n]*/.exec(body0.slice(0, 10_000))![0];
     const count = (d: string) => head.split(d).length;
-    const delimiter = [';', '\t', '|'].reduce((best, d) => (count(d) > count(best) ? d : best), ',');
-    const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy', delimiter });
+    const delimiter = sep ? sep[1]! : [';', '\t', '|'].reduce((best, d) => (count(d) > count(best) ? d : best), ',');
+    const parsed = Papa.parse<string[]>(body0, { skipEmptyLines: 'greedy', delimiter });
     const data = parsed.data.filter((r): r is string[] => Array.isArray(r));
     const fileErrors: string[] = [];
     if (data.length === 0) return settled(summarise('csv', ['The file is empty.'], []));
@@ -398,7 +404,7 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
     const stored = byCode(existing);
     const has = (c: CsvColumn) => index.has(c);
     const makeRow = (cells: string[], i: number): ImportRow => {
-      const line = i + 2;
+      const line = i + 2 + lineOffset;
       const get = (c: CsvColumn): string => {
         const at = index.get(c);
         // Undo the formula-injection guard of our own export ('=x → =x).

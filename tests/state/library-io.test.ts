@@ -74,6 +74,14 @@ describe('CSV import preview', () => {
     expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5); // no calculation: '45,5' read with a decimal comma
   });
 
+  it('reads a file whose first line names its delimiter ("sep=;", as spreadsheets write it), counting lines from that line', () => {
+    const p = previewCsv('sep=;\r\ncode;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price\r\nSC-1;group-ii;45,5;6,6;0,862;1,1\r\nSC-2;group-ii;-3;6,6;0,862;1,1\r\n', lib);
+    expect(p.fileErrors).toEqual([]);
+    expect(p.rows[0]!.component!.viscosityPoints[0]!.kv).toBe(45.5); // no calculation: '45,5' read with a decimal comma
+    expect(p.rows.map((r) => r.line)).toEqual([3, 4]); // "sep=;" is line 1, the header line 2
+    expect(p.rows[1]!.errors.length).toBeGreaterThan(0); // a negative viscosity is refused on its own line
+  });
+
   it('refuses a number whose mark could group thousands or mark decimals, naming the line and field, rather than read 1,250 t as 1.25 (s19 defect hunt)', () => {
     // A tab-separated file whose other numbers use "." (0.87): "1,250" is a thousands group or a decimal comma.
     const tab = previewCsv('code\tcategory\tkv40_mm2s\tkv100_mm2s\tdensity15_kg_per_l\tprice\tprice_basis\nNEW-1\tgroup-ii\t100\t11\t0.87\t1,250\tper-tonne\n', lib);
