@@ -31,6 +31,18 @@ const envelopeSchema = z.object({
   }),
 });
 
+/** The saved part of the recipes store (what a backup holds and a restore replaces). */
+function recipesData(rec: RecipesData): RecipesData {
+  return {
+    recipes: rec.recipes,
+    targets: rec.targets,
+    activeRecipeId: rec.activeRecipeId,
+    sheets: rec.sheets,
+    linePlan: rec.linePlan,
+    qc: rec.qc,
+  };
+}
+
 /** The current saved work as a backup file's text (JSON). Records the backup time in settings. */
 export function makeBackupText(now = new Date()): string {
   const lib = useLibraryStore.getState();
@@ -44,17 +56,7 @@ export function makeBackupText(now = new Date()): string {
     note: 'Blendbench backup: library, recipes and settings. Import it from Settings → Import a backup.',
     sections: {
       library: { version: LIBRARY_SPEC.version, data: { components: lib.components } },
-      recipes: {
-        version: RECIPES_SPEC.version,
-        data: {
-          recipes: rec.recipes,
-          targets: rec.targets,
-          activeRecipeId: rec.activeRecipeId,
-          sheets: rec.sheets,
-          linePlan: rec.linePlan,
-          qc: rec.qc,
-        },
-      },
+      recipes: { version: RECIPES_SPEC.version, data: recipesData(rec) },
       settings: { version: SETTINGS_SPEC.version, data: { settings: set.settings } },
     },
   };
@@ -160,9 +162,31 @@ export function parseBackupText(text: string): BackupParse {
   };
 }
 
-/** Replace the library, recipes and settings with a validated backup (library and recipes undoable). */
-export function applyBackup(b: Backup): void {
-  useLibraryStore.getState().replaceComponents(b.library.components);
-  useRecipesStore.getState().replaceAll(b.recipes);
-  useSettingsStore.getState().replaceSettings(b.settings.settings);
+/** The library, recipes and settings a restore replaced, to put back with `putBackReplaced`. */
+export interface ReplacedWork {
+  library: LibraryData;
+  recipes: RecipesData;
+  settings: SettingsData;
+}
+
+/**
+ * Replace the library, recipes and settings with a validated backup. Returns the work it replaced,
+ * so the whole restore can be taken back in one step (the settings have no undo history of their
+ * own; library and recipes are also undoable step by step).
+ */
+export function applyBackup(b: Backup): ReplacedWork {
+  const replaced: ReplacedWork = {
+    library: { components: useLibraryStore.getState().components },
+    recipes: recipesData(useRecipesStore.getState()),
+    settings: { settings: useSettingsStore.getState().settings },
+  };
+  putBackReplaced({ library: b.library, recipes: b.recipes, settings: b.settings });
+  return replaced;
+}
+
+/** Put back work a restore replaced (or write any validated work): library, recipes and settings. */
+export function putBackReplaced(w: ReplacedWork): void {
+  useLibraryStore.getState().replaceComponents(w.library.components);
+  useRecipesStore.getState().replaceAll(w.recipes);
+  useSettingsStore.getState().replaceSettings(w.settings.settings);
 }

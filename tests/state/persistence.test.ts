@@ -248,6 +248,28 @@ describe('export-all and import-all backups', () => {
     expect(m.state.useSettingsState.getState().settings.currencySymbol).toBe('CHF');
   });
 
+  it('a restore can be taken back whole: the library, recipes and settings it replaced are put back (s19)', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const text = m.backup.makeBackupText(new Date('2025-04-01T10:00:00Z'));
+    // The work after the backup was taken: one stock fewer, another currency symbol, another active recipe.
+    m.state.libraryActions.removeComponent('demo-bw-110');
+    m.state.settingsActions.updateSettings({ currencySymbol: 'CHF' });
+    const before = {
+      library: JSON.stringify(m.state.persistedData('library')),
+      recipes: JSON.stringify(m.state.persistedData('recipes')),
+      settings: JSON.stringify(m.state.persistedData('settings')),
+    };
+    const parsed = m.backup.parseBackupText(text);
+    if (!parsed.ok) throw new Error(parsed.errors.join());
+    const replaced = m.backup.applyBackup(parsed.backup);
+    expect(m.state.useSettingsState.getState().settings.currencySymbol).not.toBe('CHF');
+    m.backup.putBackReplaced(replaced);
+    expect(JSON.stringify(m.state.persistedData('library'))).toBe(before.library);
+    expect(JSON.stringify(m.state.persistedData('recipes'))).toBe(before.recipes);
+    expect(JSON.stringify(m.state.persistedData('settings'))).toBe(before.settings);
+  });
+
   it('refuses a broken backup and changes nothing', async () => {
     const m = await load();
     await m.state.startSavedWork({ requestPersistence: false });

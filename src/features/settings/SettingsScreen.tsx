@@ -17,7 +17,7 @@ import {
 import { checkDate, checkNumber, checkText } from '../../state/field-rules';
 import { normaliseCurrency, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
-import { applyBackup, backupFileName, makeBackupText, parseBackupText, type BackupParse } from '../../state/backup';
+import { applyBackup, backupFileName, makeBackupText, parseBackupText, putBackReplaced, type BackupParse, type ReplacedWork } from '../../state/backup';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 import { D341_FORMS, D341_FORM_LABEL, type D341Form } from '../../core/viscosity/viscosity-temperature';
 
@@ -28,6 +28,8 @@ function BackupImport() {
   const [name, setName] = useState('');
   const [parsed, setParsed] = useState<BackupParse | null>(null);
   const [done, setDone] = useState('');
+  // The work the last restore replaced, while it can still be put back from here.
+  const [replaced, setReplaced] = useState<{ work: ReplacedWork; name: string } | null>(null);
   return (
     <div className="backup-import">
       <label htmlFor={id} className="field-label">
@@ -40,6 +42,7 @@ function BackupImport() {
         onChange={async (e) => {
           const f = e.target.files?.[0];
           setDone('');
+          setReplaced(null);
           if (!f) return;
           setName(f.name);
           try {
@@ -68,9 +71,9 @@ function BackupImport() {
                 type="button"
                 className="primary"
                 onClick={() => {
-                  applyBackup(parsed.backup);
+                  setReplaced({ work: applyBackup(parsed.backup), name });
                   setParsed(null);
-                  setDone(`Restored ${name}. Undo on the Stocks screen brings back the previous library if needed.`);
+                  setDone(`Restored ${name}. The library, recipes and settings it replaced can be put back below until you leave this screen.`);
                 }}
               >
                 Replace everything with this backup
@@ -86,7 +89,27 @@ function BackupImport() {
           {parsed.warnings.length ? <> {parsed.warnings.join(' ')}</> : null}
         </Notice>
       ) : null}
-      {done ? <Notice tone="success">{done}</Notice> : null}
+      {done ? (
+        <Notice
+          tone="success"
+          actions={
+            replaced ? (
+              <button
+                type="button"
+                onClick={() => {
+                  putBackReplaced(replaced.work);
+                  setReplaced(null);
+                  setDone(`Put back the library, recipes and settings that were there before ${replaced.name} was restored.`);
+                }}
+              >
+                Put back the work before the restore
+              </button>
+            ) : undefined
+          }
+        >
+          {done}
+        </Notice>
+      ) : null}
     </div>
   );
 }
