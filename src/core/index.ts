@@ -327,6 +327,6 @@ export type { RobustAnswer } from './qc/robust-solve';
 export { solveRobustAndNominal, highestInBandProbability } from './qc/robust-solve';
 export { inBandProbabilityPlain } from './qc/probability-plain';
 export type { CorrectionProblem, CorrectionResult, CorrectionVessel, CorrectionComponent } from './qc/correction';
-export { correctBatchPlain } from './qc/correction';
+export { correctBatchPlain, correctionBand, CORRECTION_EDGE_MARGIN_PCT } from './qc/correction';
 export type { AdjustInput, AdjustResult, AdjustStock, AdjustHeel } from './qc/adjust';
 export { adjustRecipe } from './qc/adjust';

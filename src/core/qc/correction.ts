@@ -448,3 +448,41 @@ export function correctBatchPlain(c: CorrectionProblem, method: BlendMethod = 'r
   const b = batchOf(Q, r.masses);
   return { status: 'optimal', addKg, addedKg, addedCost, massKg: b.massKg, kv40: b.kv40, kv100: b.kv100, vi: b.vi };
 }
+
+/**
+ * How far inside each edge of the release band a correction aims [% of that edge's ν40] — common
+ * practice (no source): Blendbench has no other viscosity margin (the robust recipe's margin is one of
+ * probability, not of ν40), so one is chosen here. A least-cost correction lands on the edge of the
+ * band it is given; with this margin a corrected batch is predicted at least 1 % of ν40 inside the
+ * release limit instead of exactly on it, room for the re-test's scatter and the additions' own lots.
+ */
+export const CORRECTION_EDGE_MARGIN_PCT = 1;
+
+/**
+ * The ν40 band a correction aims into: the aim ± its half-width, kept at least
+ * {@link CORRECTION_EDGE_MARGIN_PCT} inside each edge of the release band.
+ *
+ *   lo = max(aim·(1 − b), ν_min·(1 + m)),   hi = min(aim·(1 + b), ν_max·(1 − m)),   m = margin / 100
+ *
+ * @param aimKv40 - the aim ν40 [mm²/s] (the grade mid-point or the plant's own)
+ * @param halfWidthPct - b, the half-width around the aim [%]
+ * @param releaseBand - the release band's ν40 limits [mm²/s]
+ * @param marginPct - m [% of the edge's ν40] (default {@link CORRECTION_EDGE_MARGIN_PCT})
+ * @returns the band, or null when the aim's band does not reach inside the margin (no correction can aim there)
+ * @example correctionBand(335, 2, { min: 304, max: 336 }) // → { min: 328.3, max: 332.64 } (not 336: 1 % inside the edge)
+ */
+export function correctionBand(
+  aimKv40: number,
+  halfWidthPct: number,
+  releaseBand: { min: number; max: number },
+  marginPct: number = CORRECTION_EDGE_MARGIN_PCT,
+): { min: number; max: number } | null {
+  assertFinite('correctionBand', 'aimKv40', aimKv40);
+  assertFinite('correctionBand', 'halfWidthPct', halfWidthPct);
+  assertFinite('correctionBand', 'marginPct', marginPct);
+  const b = halfWidthPct / 100;
+  const m = marginPct / 100;
+  const min = Math.max(aimKv40 * (1 - b), releaseBand.min * (1 + m));
+  const max = Math.min(aimKv40 * (1 + b), releaseBand.max * (1 - m));
+  return max >= min ? { min, max } : null;
+}

@@ -922,6 +922,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           problem={correction.problem}
           result={correction.result}
           band={correction.band}
+          releaseBand={correction.releaseBand}
           kv100Estimated={correction.kv100Estimated}
           names={new Map(components.map((c) => [c.code, c.name]))}
           additiveCode={correction.problem.additive?.id ?? null}

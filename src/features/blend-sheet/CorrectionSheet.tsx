@@ -4,7 +4,7 @@
 import type { Recipe } from '../../core/formulation/model';
 import { limitText } from '../../core/sheet/blend-sheet';
 import { SheetFooter } from './SheetFooter';
-import type { CorrectionProblem, CorrectionResult } from '../../core/qc/correction';
+import { CORRECTION_EDGE_MARGIN_PCT, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 
 export interface CorrectionSheetProps {
@@ -16,6 +16,8 @@ export interface CorrectionSheetProps {
   problem: CorrectionProblem;
   result: Extract<CorrectionResult, { status: 'optimal' }>;
   band: { min: number; max: number };
+  /** The release band the correction's band lies in (at least CORRECTION_EDGE_MARGIN_PCT inside each limit). */
+  releaseBand: { min: number; max: number };
   kv100Estimated: boolean;
   /** Stock name by code. */
   names: ReadonlyMap<string, string>;
@@ -91,6 +93,10 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
         In the vessel: {fmt(problem.vessel.massKg, 1)} kg. Measured ν40 {fmt(problem.vessel.kv40, 1)} mm²/s (ASTM D445), ν100{' '}
         {fmt(problem.vessel.kv100, 2)} mm²/s{p.kv100Estimated ? ' (not measured: estimated at the recipe’s predicted VI)' : ''}. Correct into{' '}
         {fmt(p.band.min, 1)}–{fmt(p.band.max, 1)} mm²/s{problem.maxFinalMassKg === undefined ? '' : `; the vessel holds at most ${fmt(problem.maxFinalMassKg, 0)} kg`}.
+      </p>
+      <p className="bs-corr-result" data-testid="correction-margin">
+        Aimed inside the release band {fmt(p.releaseBand.min, 1)}–{fmt(p.releaseBand.max, 1)} mm²/s with a margin of at least{' '}
+        {fmt(CORRECTION_EDGE_MARGIN_PCT, 0)} % of ν40 inside each limit (common practice), so that the corrected batch is not predicted on the limit itself.
       </p>
       <table className="bs-table bs-components">
         <caption>2. Additions, in charging order</caption>

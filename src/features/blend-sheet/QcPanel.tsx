@@ -10,6 +10,7 @@ import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
 import type { NumberRuleKey } from '../../state/field-rules';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
+import { CORRECTION_EDGE_MARGIN_PCT } from '../../core/qc/correction';
 import { DEFAULT_CORRECTION_BAND_PCT, HEEL_DEFAULT_DENSITY, aimOf, hasAdjustment, pairProblem, type Adjusted, type Correction } from './qc';
 
 export interface QcPanelProps {
@@ -288,7 +289,8 @@ export function QcPanel(props: QcPanelProps) {
         <summary>QC result and batch correction</summary>
         <p className="bs-hint">
           Enter the laboratory’s result for the batch in the vessel (ASTM D445). The correction is worked out with the stocks on hand (blank kg = no
-          limit), lands within ±{fmt(qc.correction.bandPct ?? DEFAULT_CORRECTION_BAND_PCT, 1)} % of the aim inside the release band, and tops the
+          limit), lands within ±{fmt(qc.correction.bandPct ?? DEFAULT_CORRECTION_BAND_PCT, 1)} % of the aim and at least{' '}
+          {fmt(CORRECTION_EDGE_MARGIN_PCT, 0)} % of ν40 inside each release limit (common practice: never on the limit itself), and tops the
           additive package up in proportion.
         </p>
         <div className="bs-qc-row">

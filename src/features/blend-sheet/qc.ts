@@ -10,7 +10,7 @@ import { pricePerKg } from '../../core/formulation/cost';
 import { gradeBand } from '../../core/viscosity/iso-grades';
 import { viscosityIndex } from '../../core/viscosity/viscosity-index';
 import { adjustRecipe, type AdjustResult, type AdjustStock } from '../../core/qc/adjust';
-import { correctBatchPlain, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
+import { CORRECTION_EDGE_MARGIN_PCT, correctBatchPlain, correctionBand, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
 import type { QcInputs } from '../../state';
 import { userMessage } from '../../state/messages';
 import { displayWords, type NumberDisplay } from '../../core/words/display';
@@ -179,7 +179,16 @@ export function kv100AtVi(kv40: number, vi: number): number | null {
 
 /** The correction worked out, with the problem it solved (for the printed sheet). */
 export type Correction =
-  | { problem: CorrectionProblem; result: CorrectionResult; band: { min: number; max: number }; kv100Estimated: boolean; codes: ReadonlyMap<string, string> }
+  | {
+      problem: CorrectionProblem;
+      result: CorrectionResult;
+      /** The band aimed into: the aim ± its half-width, CORRECTION_EDGE_MARGIN_PCT inside each release limit. */
+      band: { min: number; max: number };
+      /** The release band it lies in. */
+      releaseBand: { min: number; max: number };
+      kv100Estimated: boolean;
+      codes: ReadonlyMap<string, string>;
+    }
   | { error: string };
 
 /**
@@ -225,10 +234,19 @@ export function correctionFor(
       if (batchPair) return { error: batchPair };
     }
     const aim = aimOf(recipe, qc);
-    const b = (c.bandPct ?? DEFAULT_CORRECTION_BAND_PCT) / 100;
-    const lo = Math.max(opts.releaseBand.min, aim * (1 - b));
-    const hi = Math.min(opts.releaseBand.max, aim * (1 + b));
-    if (!(hi >= lo)) return { error: `The aim ${words.say(aim)} mm²/s ± ${words.say(b * 100)} % lies outside the release band.` };
+    const bPct = c.bandPct ?? DEFAULT_CORRECTION_BAND_PCT;
+    // Aimed at least CORRECTION_EDGE_MARGIN_PCT inside each release limit: a least-cost correction
+    // lands on the edge of the band it is given, never on the release limit itself.
+    const band = correctionBand(aim, bPct, opts.releaseBand);
+    if (!band) {
+      return {
+        error:
+          `The aim ${words.say(aim)} mm²/s ± ${words.say(bPct)} % does not reach inside the release band ${words.say(opts.releaseBand.min)}–${words.say(opts.releaseBand.max)} mm²/s ` +
+          `with the correction’s margin of ${words.say(CORRECTION_EDGE_MARGIN_PCT)} % inside each limit: set an aim further inside the band.`,
+      };
+    }
+    const lo = band.min;
+    const hi = band.max;
     const lotList = lotValues(recipe, byId, qc);
     const lotPair = lotPairProblem(lotList, words);
     if (lotPair) return { error: lotPair };
@@ -266,7 +284,7 @@ export function correctionFor(
       ...(minViOf(recipe, opts.targets) === null ? {} : { minVi: minViOf(recipe, opts.targets)! }),
       ...(opts.display ? { display: opts.display } : {}),
     };
-    return { problem, result: correctBatchPlain(problem, opts.method), band: { min: lo, max: hi }, kv100Estimated, codes };
+    return { problem, result: correctBatchPlain(problem, opts.method), band: { min: lo, max: hi }, releaseBand: { ...opts.releaseBand }, kv100Estimated, codes };
   } catch (e) {
     return { error: userMessage(e, { components, words }) };
   }

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { correctBatchPlain, type CorrectionProblem } from '../../../src/core/qc/correction';
+import { CORRECTION_EDGE_MARGIN_PCT, correctBatchPlain, correctionBand, type CorrectionProblem } from '../../../src/core/qc/correction';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
 import { viscosityIndex } from '../../../src/core/viscosity/viscosity-index';
 import { BlendbenchInputError, ViscosityOrderError } from '../../../src/core/errors';
@@ -253,5 +253,25 @@ describe('batch correction against HiGHS (LPs in kg: no VI condition)', () => {
     }
     expect(optimal).toBeGreaterThan(30);
     expect(infeasible).toBeGreaterThan(5);
+  });
+});
+
+describe('correctionBand: a correction aims inside the release band with a margin (session 19, defect 3)', () => {
+  // Margin: CORRECTION_EDGE_MARGIN_PCT = 1 % of the edge's ν40, common practice (no source).
+  // Band 304–336 mm²/s: VG 320 (ISO 3448:1992 Table 1 mid-point 320) ± 5 %, the plant aim band.
+  it('keeps each edge 1 % of ν40 inside the release limit', () => {
+    const band = correctionBand(305, 2, { min: 304, max: 336 })!;
+    expectClose(band.min, 304 * 1.01, 1e-9);
+    expectClose(band.max, 305 * 1.02, 1e-9);
+    const high = correctionBand(335, 2, { min: 304, max: 336 })!;
+    expectClose(high.max, 336 * 0.99, 1e-9);
+    expectClose(high.min, 335 * 0.98, 1e-9);
+  });
+  it('leaves the band around an aim well inside as it is', () => {
+    expect(correctionBand(320, 2, { min: 304, max: 336 })).toEqual({ min: 320 * 0.98, max: 320 * 1.02 });
+  });
+  it('gives null when the aim’s band does not reach inside the margin', () => {
+    expect(correctionBand(300, 1, { min: 304, max: 336 })).toBeNull();
+    expect(CORRECTION_EDGE_MARGIN_PCT).toBe(1);
   });
 });

@@ -81,6 +81,24 @@ describe('Blend sheet — the QC loop', () => {
     expect(within(sheet).getByText(/Predicted properties are estimates/)).toBeTruthy(); // the same cautions
   });
 
+  it('a least-cost correction with an aim near the release limit aims inside the band with a margin, and the sheet says so (session 19, defect 3)', () => {
+    render(<BlendSheetScreen />);
+    // Release band 304.0–336.0 mm²/s (VG 320, ISO 3448, plant aim ±5 % of the mid-point); aim typed 1 mm²/s above its lower limit.
+    enter(/^Aim ν40 of the batch/, '305');
+    enter(/^Measured ν40 of the batch/, '290');
+    enter(/^Vessel holds at most/, '12000');
+    const sheet = screen.getByTestId('correction-sheet');
+    const predicted = num(within(sheet).getByTestId('correction-predicted').textContent!.match(/ν40 ([\d.]+) mm²\/s/)![1]!);
+    // Least cost lands on the lower edge of the band it aims into: that edge is 1 % of ν40 inside the
+    // release limit (CORRECTION_EDGE_MARGIN_PCT, common practice (no source)), 304 × 1.01 = 307.04, not 304.0.
+    // Printed to 0.1 mm²/s: 307.0 (without the margin it printed 304.0, on the limit).
+    expect(predicted).toBeGreaterThanOrEqual(307.0);
+    expect(predicted).toBeLessThanOrEqual(305 * 1.02);
+    expect(within(sheet).getByTestId('correction-margin').textContent).toMatch(
+      /Aimed inside the release band 304\.0–336\.0 mm²\/s with a margin of at least 1 % of ν40 inside each limit \(common practice\)/,
+    );
+  });
+
   it('says why in numbers when the vessel cannot take the correction', () => {
     render(<BlendSheetScreen />);
     enter(/^Measured ν40 of the batch/, '290');
