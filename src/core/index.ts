@@ -287,6 +287,17 @@ export type { ShareChange } from './recipes/share-changes';
 export { shareChanges } from './recipes/share-changes';
 export type { RecipeImpact, ImpactPrediction } from './recipes/impact';
 export { predictionImpact } from './recipes/impact';
+export type { SpecificationGradeIssue } from './recipes/specification-grade';
+export {
+  specificationGradeIssue,
+  specificationGradeMessage,
+  printableSpecification,
+  isBlankSpecification,
+  gradeNamedIn,
+  inferSpecificationGrades,
+  UNKNOWN_SPECIFICATION_GRADE,
+} from './recipes/specification-grade';
+export { approvalRefusal, currentApprovedRevision } from './recipes/approval';
 
 // Release hold: why a blend sheet is not for release
 export type { HoldKind, HoldReason, ReleaseHoldInput, ReleaseAssessment } from './release/release-hold';

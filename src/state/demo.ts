@@ -138,6 +138,7 @@ export const demoRecipeId = (grade: number): string => `demo-vg${grade}`;
  */
 function demoSpecification(grade: 220 | 320 | 460 | 680): ReleaseSpecification {
   return {
+    grade,
     reference: `BBW-SPEC-VG${grade} (invented demo specification)`,
     kv100Min: null,
     kv100Max: null,

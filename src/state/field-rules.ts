@@ -570,6 +570,7 @@ export interface SnapshotFields {
  */
 export function specificationProblems(sp: SpecificationFields, who?: string): FieldProblem[] {
   const { out, add } = collector();
+  add(['grade'], sp.grade === null ? null : checkNumber('grade', sp.grade, who));
   add(['reference'], checkText('specReference', sp.reference, who));
   add(['kv100Min'], checkNumber('specKv100', sp.kv100Min, who));
   add(['kv100Max'], checkNumber('specKv100', sp.kv100Max, who));

@@ -31,7 +31,7 @@
  *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
  *     | saveChanges(id, changes, reason, basedOn?) → id  (a draft in place, unless saved since `basedOn`; an approved recipe → a new draft revision)
  *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)
- *     | approveRecipe(id) (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
+ *     | approveRecipe(id) → null | why refused (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
  *     | setArchived(id, bool) | duplicateRecipe(id, name?) → id | removeRecipe(id) (undoable)
  *     | setActiveRecipe(id) | setTargets(recipeId, BlendTargets) (drafts only; returns a refusal message otherwise)
  *     | setSheetInputs(recipeId, Partial<SheetInputs>) (blend-sheet lot, batch size/unit, vessel, edited
@@ -115,7 +115,7 @@ export const recipeActions = {
   saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: string | null) =>
     useRecipesStore.getState().saveChanges(id, changes, reason, basedOn),
   saveRevision: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveRevision(id, changes, reason),
-  approveRecipe: (id: string) => useRecipesStore.getState().approveRecipe(id),
+  approveRecipe: (id: string): string | null => useRecipesStore.getState().approveRecipe(id),
   renameRecipe: (id: string, name: string) => useRecipesStore.getState().renameRecipe(id, name),
   setArchived: (id: string, archived: boolean) => useRecipesStore.getState().setArchived(id, archived),
   duplicateRecipe: (id: string, name?: string) => useRecipesStore.getState().duplicateRecipe(id, name),

@@ -5,6 +5,8 @@ import { temporal } from 'zundo';
 import type { BlendTargets, Component, Recipe, RecipeLine, ReleaseSpecification, StockBasis } from '../core/formulation/model';
 import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../core/formulation/model';
 import { recordStockBasis } from '../core/recipes/stock-basis';
+import { approvalRefusal } from '../core/recipes/approval';
+import { inferSpecificationGrades, isBlankSpecification } from '../core/recipes/specification-grade';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
 import { newId } from './ids';
@@ -139,8 +141,10 @@ export interface RecipesState extends RecipesData {
   /**
    * Approve a draft: status approved, approval time stamped. The recipe it supersedes, if approved,
    * becomes superseded (and hands over the reference mark). No-op for a recipe that is not a draft.
+   * Returns null, or why the approval was refused (nothing changes then): a draft made from a revision
+   * that another approved revision already superseded (one approved revision per recipe, `approvalRefusal`).
    */
-  approveRecipe: (id: string) => void;
+  approveRecipe: (id: string) => string | null;
   /** Rename a recipe (any status). Null, or why the name was refused. */
   renameRecipe: (id: string, name: string) => string | null;
   /** Archive (hide from the pickers) or restore a recipe. */
@@ -173,7 +177,7 @@ const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status
 
 export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
-  version: 8,
+  version: 9,
   schema: (m) => m.recipesDataSchema,
   // Each recipe, each recipe's targets, blend sheet and QC entries, and each entry of the line plan
   // (period, unit, tank limit, a grade's demand, a stock's supply or least use) are records of their
@@ -202,6 +206,16 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
     },
   },
   migrations: {
+    // Schema 8 had no link from a specification to its grade: inferred where unambiguous (a blank one,
+    // a reference naming one grade, the same limits only on recipes of one grade), else null and the
+    // recipe is flagged "grade of specification unknown — check". Every record is kept.
+    8: (d) => {
+      const data = d as { recipes?: unknown };
+      if (!Array.isArray(data.recipes)) throw new Error('recipes is not a list');
+      const recipes = data.recipes as Array<Record<string, unknown> & Pick<Recipe, 'grade' | 'specification'>>;
+      const grades = inferSpecificationGrades(recipes.map((r) => ({ grade: r.grade, specification: { ...BLANK_SPECIFICATION, ...r.specification } })));
+      return { ...(d as object), recipes: recipes.map((r, i) => ({ ...r, specification: { ...r.specification, grade: grades[i] } })) };
+    },
     // Schema 7 had no QC-loop entries: every recipe starts with none.
     7: (d) => ({ ...(d as object), qc: {} }),
     // Schema 6 → 7: targets may ask for the least cost per kg ('cost-kg'). Existing data are valid as they are.
@@ -267,6 +281,20 @@ export const demoRecipesData = (): RecipesData => ({
   qc: {},
 });
 
+/**
+ * A recipe whose grade changes keeps its specification only when that is blank or was written for
+ * the new grade; otherwise it starts with a blank specification of the new grade ("Per specification",
+ * to be entered on Recipes), so that another grade's limits are never carried along. A specification
+ * given with the change is kept as given.
+ */
+export function specificationForGrade(before: Pick<Recipe, 'grade'>, after: Recipe, specificationGiven: boolean): Recipe {
+  if (specificationGiven || after.grade === before.grade) return after;
+  const spec = after.specification;
+  if (isBlankSpecification(spec)) return { ...after, specification: { ...spec, grade: after.grade } };
+  if (spec.grade === after.grade) return after;
+  return { ...after, specification: { ...BLANK_SPECIFICATION, grade: after.grade } };
+}
+
 type Tracked = Pick<RecipesData, 'recipes' | 'targets' | 'linePlan'>;
 
 /** The revision number a new revision of `old` gets: one above every revision made from it so far. */
@@ -315,7 +343,7 @@ export const useRecipesStore = create<RecipesState>()(
               isReference: init.isReference ?? false,
               notes: init.notes ?? '',
               updatedAt: now(),
-              specification: init.specification ? structuredClone(init.specification) : { ...BLANK_SPECIFICATION },
+              specification: init.specification ? structuredClone(init.specification) : { ...BLANK_SPECIFICATION, grade: init.grade },
               stockBasis: init.stockBasis ?? null,
               reasonForChange: init.reasonForChange ?? '',
             };
@@ -335,7 +363,7 @@ export const useRecipesStore = create<RecipesState>()(
           updateRecipe: (id, patch) => {
             const r = get().recipes.find((x) => x.id === id);
             if (r && r.status !== 'draft' && CONTENT_FIELDS.some((k) => k in patch)) return approvedMessage(r);
-            return changeRecipe(id, (x) => ({ ...x, ...patch, id }));
+            return changeRecipe(id, (x) => specificationForGrade(x, { ...x, ...patch, id }, 'specification' in patch));
           },
           setLines: (id, lines) => get().updateRecipe(id, { lines }),
           saveChanges: (id, changes, reason, basedOn) => {
@@ -344,13 +372,11 @@ export const useRecipesStore = create<RecipesState>()(
             if (r.status !== 'draft') return get().saveRevision(id, changes, reason)!;
             if (basedOn !== undefined && basedOn !== null && r.updatedAt !== basedOn) throw new RecipeChangedError(r);
             const { targets, ...fields } = changes;
-            const next: Recipe = {
-              ...r,
-              ...structuredClone(fields),
-              reasonForChange: reason.trim() ? reason : r.reasonForChange,
-              id,
-              updatedAt: now(),
-            };
+            const next: Recipe = specificationForGrade(
+              r,
+              { ...r, ...structuredClone(fields), reasonForChange: reason.trim() ? reason : r.reasonForChange, id, updatedAt: now() },
+              fields.specification !== undefined,
+            );
             const problems = [...recipeProblems(next), ...(targets ? targetsProblems(targets, recipeWho(next.name)) : [])];
             if (problems.length) throw new FieldRuleError(problems);
             set((s) => ({
@@ -365,19 +391,24 @@ export const useRecipesStore = create<RecipesState>()(
             if (!old) return null;
             const revId = newId('r');
             const { targets, ...fields } = changes;
-            const rev: Recipe = {
-              ...structuredClone(old),
-              ...structuredClone(fields),
-              id: revId,
-              revision: nextRevisionNumber(s0.recipes, old),
-              status: 'draft',
-              approvedAt: null,
-              archived: false,
-              isReference: false,
-              supersedes: old.id,
-              reasonForChange: reason,
-              updatedAt: now(),
-            };
+            // A revision of another grade carries a specification of its own grade (or a blank one).
+            const rev: Recipe = specificationForGrade(
+              old,
+              {
+                ...structuredClone(old),
+                ...structuredClone(fields),
+                id: revId,
+                revision: nextRevisionNumber(s0.recipes, old),
+                status: 'draft',
+                approvedAt: null,
+                archived: false,
+                isReference: false,
+                supersedes: old.id,
+                reasonForChange: reason,
+                updatedAt: now(),
+              },
+              fields.specification !== undefined,
+            );
             const t = targets ?? s0.targets[id];
             if (targets) {
               const bad = targetsProblems(targets, recipeWho(rev.name));
@@ -394,7 +425,11 @@ export const useRecipesStore = create<RecipesState>()(
           },
           approveRecipe: (id) => {
             const r = get().recipes.find((x) => x.id === id);
-            if (!r || r.status !== 'draft') return;
+            if (!r || r.status !== 'draft') return null;
+            // One approved revision per recipe: a draft made from a revision that another approved
+            // revision has already superseded is refused (it would drop that revision's changes).
+            const refused = approvalRefusal(get().recipes, id);
+            if (refused) return refused;
             const stamp = now();
             const old = r.supersedes ? get().recipes.find((x) => x.id === r.supersedes) : undefined;
             const replaces = old && old.status === 'approved' ? old : undefined;
@@ -407,6 +442,7 @@ export const useRecipesStore = create<RecipesState>()(
                 return x;
               }),
             }));
+            return null;
           },
           renameRecipe: (id, name) => changeRecipe(id, (x) => ({ ...x, name })),
           setArchived: (id, archived) => void changeRecipe(id, (x) => ({ ...x, archived })),

@@ -96,6 +96,7 @@ export const recipeLineSchema = z.object({ componentId: str, massFraction: finit
 
 /** The product specification of a recipe: shape here, values checked with the recipe (field-rules.ts). */
 export const specificationSchema = z.object({
+  grade: nullableNum,
   reference: str,
   kv100Min: nullableNum,
   kv100Max: nullableNum,

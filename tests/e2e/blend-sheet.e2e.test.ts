@@ -197,7 +197,7 @@ describe('blend sheet', () => {
           supersedes: null,
           reasonForChange: '',
           specification: {
-            reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
+            grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
             flashMin: null, pourMax: null, copper: '', foam: '',
           },
           stockBasis: null,

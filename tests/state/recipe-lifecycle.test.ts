@@ -122,7 +122,8 @@ describe('recipe lifecycle', () => {
     if (up.kind !== 'ok') return;
     expect(up.migratedFrom).toBe(3);
     expect(up.data.recipes.map((r) => r.status)).toEqual(['approved', 'draft']);
-    expect(up.data.recipes[0]!.specification).toEqual(BLANK_SPECIFICATION);
+    // Blank, and (schema 9) linked to the recipe's own grade: a blank specification fits every grade.
+    expect(up.data.recipes[0]!.specification).toEqual({ ...BLANK_SPECIFICATION, grade: v4.recipes[0]!.grade });
     expect(up.data.recipes[0]!.stockBasis).toBeNull();
     expect(up.data.recipes[0]!.lines).toEqual(v4.recipes[0]!.lines);
   });

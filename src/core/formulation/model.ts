@@ -169,6 +169,12 @@ export const RECIPE_STATUS_LABEL: Record<RecipeStatus, string> = {
  * limits are not here: they come from the grade (ISO 3448) and the plant's aim band.
  */
 export interface ReleaseSpecification {
+  /**
+   * The ISO viscosity grade the specification was written for (recipes schema 9). A specification
+   * belongs to its grade: one linked to another grade than its recipe's, or with no link (null: saved
+   * before the link and not inferable), is flagged and never printed (`core/recipes/specification-grade.ts`).
+   */
+  grade: number | null;
   /** Name or number of the specification document, printed on the sheet; '' → none given. */
   reference: string;
   /** ν100 limits, ASTM D445 [mm²/s]. */
@@ -191,6 +197,7 @@ export interface ReleaseSpecification {
 
 /** A specification with every limit blank ("per specification"). */
 export const BLANK_SPECIFICATION: Readonly<ReleaseSpecification> = Object.freeze({
+  grade: null,
   reference: '',
   kv100Min: null,
   kv100Max: null,

@@ -4,6 +4,8 @@
  *
  * A recipe is held ("HOLD — not for release") when any of these holds:
  * - it is not an approved, current recipe (a draft, a superseded revision, or archived);
+ * - its product specification was written for another grade, or for a grade not known (the sheet
+ *   then prints no limit of it: `specification-grade.ts`);
  * - it names a stock that is withdrawn or no longer in the library;
  * - its properties cannot be predicted;
  * - the prediction misses one of the recipe's own constraints (its solve targets: ν40 band, minimum
@@ -22,6 +24,7 @@ import { RECIPE_STATUS_LABEL } from '../formulation/model';
 import { checkConstraints, checkInWords, prepareComponents } from '../solver/solve-blend';
 import { formatFixed, type NumberDisplay } from '../words/display';
 import { predictBlend } from '../formulation/blend-properties';
+import { printableSpecification, specificationGradeIssue, specificationGradeMessage } from '../recipes/specification-grade';
 import { qcReleaseTargets, sheetPrediction, type QcRow, type SheetTemperatureUnit } from '../sheet/blend-sheet';
 
 /**
@@ -31,6 +34,7 @@ import { qcReleaseTargets, sheetPrediction, type QcRow, type SheetTemperatureUni
 export type HoldKind =
   | 'status'
   | 'archived'
+  | 'specification'
   | 'withdrawn-stock'
   | 'missing-stock'
   | 'no-prediction'
@@ -88,6 +92,8 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
     out.push({ kind: 'status', message: `The recipe's status is ${RECIPE_STATUS_LABEL[recipe.status] ?? String(recipe.status)}.` });
   }
   if (recipe.archived) out.push({ kind: 'archived', message: 'The recipe is archived.' });
+  const specIssue = specificationGradeIssue(recipe);
+  if (specIssue) out.push({ kind: 'specification', message: specificationGradeMessage(specIssue) });
 
   const byId = new Map(components.map((c) => [c.id, c]));
   const used = recipe.lines.filter((l) => l.massFraction > 0);
@@ -193,7 +199,8 @@ export function assessRelease(
   if (!('error' in prediction)) {
     try {
       qcRows = qcReleaseTargets(input.recipe.grade, sheetPrediction(prediction), {
-        specification: input.recipe.specification,
+        // Another grade's limits are never printed (the hold says why).
+        specification: printableSpecification(input.recipe),
         ...(input.display?.temperatureUnit ? { temperatureUnit: input.display.temperatureUnit } : {}),
         formatNumber: (x, d) => formatFixed(x, d, input.display),
       });

@@ -11,6 +11,7 @@ import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { describeRate, priceLibraryInBase, pricingFor, rateDecimals, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { correctionHoldReasons, releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 import { stockBasisChanges, type StockFieldChange } from '../../core/recipes/stock-basis';
+import { printableSpecification, specificationGradeIssue } from '../../core/recipes/specification-grade';
 import { shareChanges } from '../../core/recipes/share-changes';
 import {
   blendSheetCsvRows,
@@ -132,7 +133,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const { components, recipes, companyName, predict, today } = props;
   const fmt = props.formatNumber ?? defaultFormat;
   const id = useId();
-  const recipe = recipes.find((r) => r.id === props.recipeId) ?? recipes.find((r) => !r.archived) ?? recipes[0] ?? null;
+  const savedRecipe = recipes.find((r) => r.id === props.recipeId) ?? recipes.find((r) => !r.archived) ?? recipes[0] ?? null;
+  // A specification written for another grade (or an unknown one) is never printed: the sheet shows
+  // the recipe with a blank one ("Per specification") and the hold says why.
+  const recipe = useMemo(
+    () => (savedRecipe && specificationGradeIssue(savedRecipe) ? { ...savedRecipe, specification: printableSpecification(savedRecipe) } : savedRecipe),
+    [savedRecipe],
+  );
   const pickable = recipes.filter((r) => !r.archived || r.id === recipe?.id);
 
   const [date, setDate] = useState(today);
@@ -221,7 +228,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const hold = useMemo((): HoldReason[] => {
     if (!recipe) return [];
     return releaseHoldReasons({
-      recipe,
+      recipe: savedRecipe ?? recipe,
       components,
       targets: props.targets?.[recipe.id] ?? null,
       prediction: qc === null ? null : 'error' in qc ? { error: qc.error } : qc.properties,
@@ -230,7 +237,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       supersededBy: recipes.find((r) => r.supersedes === recipe.id && r.status === 'approved') ?? null,
       display,
     });
-  }, [recipe, components, props.targets, qc, props.method, recipes, display]);
+  }, [recipe, savedRecipe, components, props.targets, qc, props.method, recipes, display]);
   const stockChanges = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
 
   // The QC loop: entries saved per recipe; the probability in band, the adjusted recipe and the

@@ -2,6 +2,7 @@ import { Suspense, lazy, memo, useCallback, useEffect, useId, useMemo, useState 
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
+import { isBlankSpecification, specificationGradeIssue, specificationGradeMessage } from '../../core/recipes/specification-grade';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
@@ -392,6 +393,7 @@ const SolveNoticeView = memo(function SolveNoticeView({ notice }: { notice: Retu
 const SourceStatus = memo(function SourceStatus({ recipe, components }: { recipe: Recipe | null; components: readonly Component[] }) {
   const changes = useMemo(() => (recipe ? stockBasisChanges(recipe.stockBasis, components) : []), [recipe, components]);
   if (!recipe) return null;
+  const specIssue = specificationGradeIssue(recipe);
   return (
     <>
       <p className="muted source-status" data-testid="source-status">
@@ -404,6 +406,11 @@ const SourceStatus = memo(function SourceStatus({ recipe, components }: { recipe
         <Notice tone="warning" title="Stock data changed since this recipe was saved">
           <StockChangeList changes={changes} />
           <p>The predictions use the current data. Saving records the current data with the recipe.</p>
+        </Notice>
+      )}
+      {specIssue && (
+        <Notice tone="warning" title={specIssue.kind === 'unknown' ? 'Grade of specification unknown — check' : 'Specification of another grade'}>
+          <p data-testid="spec-grade-flag">{specificationGradeMessage(specIssue)}</p>
         </Notice>
       )}
     </>
@@ -511,9 +518,12 @@ const SaveBox = memo(function SaveBox({
             title={needsReason && dirty ? 'Give the reason for change first' : undefined}
             onClick={() =>
               report(onSaveChanges(sourceRecipe.id, finalName, reason.trim()), (savedId) =>
-                savedId === sourceRecipe.id
+                (savedId === sourceRecipe.id
                   ? `Saved changes to draft “${finalName}”.`
-                  : `Saved as draft revision ${nextRevision} of “${sourceRecipe.name}”; it supersedes revision ${sourceRecipe.revision} once approved (Recipes screen).`,
+                  : `Saved as draft revision ${nextRevision} of “${sourceRecipe.name}”; it supersedes revision ${sourceRecipe.revision} once approved (Recipes screen).`) +
+                (sourceRecipe.grade !== grade && !isBlankSpecification(sourceRecipe.specification) && sourceRecipe.specification.grade !== grade
+                  ? ` The product specification of VG ${sourceRecipe.specification.grade ?? sourceRecipe.grade} was not carried to VG ${grade}: it starts blank (“Per specification”); enter the VG ${grade} release limits on Recipes.`
+                  : ''),
               )
             }
           >

@@ -222,6 +222,7 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   inBand = null,
   adoptedName,
   adoptBlocked = null,
+  adoptRefused = null,
   onAdopt,
   polymerCap,
   pricing,
@@ -241,6 +242,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   adoptedName: string | null;
   /** Why the candidate cannot be adopted now (a stale result), or null. */
   adoptBlocked?: string | null;
+  /** Why the last Adopt was refused (nothing was saved), or null. */
+  adoptRefused?: string | null;
   onAdopt: () => void;
   /** Polymer cap to warn against (mass fraction; the search's cap, or the common-practice default when it has none). */
   polymerCap: number;
@@ -340,6 +343,11 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         {adoptBlocked && !adoptedName && (
           <p id="adopt-blocked" className="muted">
             {adoptBlocked}
+          </p>
+        )}
+        {adoptRefused && !adoptedName && (
+          <p className="field-msg field-error" role="alert" data-testid="adopt-refused">
+            {adoptRefused}
           </p>
         )}
         {adoptedName && (

@@ -1,4 +1,4 @@
-import { Suspense, lazy, useEffect, useId, useMemo } from 'react';
+import { Suspense, lazy, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice, methodText } from '../../components/notices';
@@ -17,7 +17,7 @@ import { ComparisonPanel } from './ComparisonPanel';
 import { assess } from './compare';
 import { candidatesInBand, recipeProbabilities, type InBandOf } from './in-band';
 import { BlendbenchInputError } from '../../core/errors';
-import { userMessage } from '../../state/messages';
+import { sayRefusal, userMessage } from '../../state/messages';
 import './explorer.css';
 
 const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
@@ -183,13 +183,16 @@ export default function ExplorerScreen() {
     });
   };
 
+  const [adoptRefused, setAdoptRefused] = useState<{ key: string; message: string } | null>(null);
   const adopt = (c: SubstituteCandidate) => {
     if (!reference || !targets) return;
     const codes = c.componentIds.map((id) => byId.get(id)?.code ?? id);
     const withdrawnCodes = [...new Set([...(st.resultFor?.withdrawn ?? []), ...components.filter((x) => x.availability === 'withdrawn').map((x) => x.id)])]
       .filter((id) => reference.lines.some((l) => l.componentId === id))
       .map((id) => byId.get(id)?.code ?? id);
-    const id = recipeActions.addRecipe({
+    let id: string;
+    try {
+      id = recipeActions.addRecipe({
       name: `VG ${reference.grade} substitute: ${codes.join(' + ')}`,
       grade: reference.grade,
       lines: c.lines,
@@ -205,7 +208,16 @@ export default function ExplorerScreen() {
       // Saved with the recipe in one step: one undo removes both.
       targets: { ...targets, referenceRecipeId: reference.id },
       activate: true,
-    });
+      });
+    } catch (e) {
+      // At the collection limit (or a field the rules refuse): said beside the button, nothing is stored.
+      setAdoptRefused({
+        key: c.key,
+        message: `Not adopted: ${sayRefusal(e instanceof Error ? e.message : String(e), fmt)}. Nothing was saved; delete recipes that are no longer needed on the Recipes screen to make room.`,
+      });
+      return;
+    }
+    setAdoptRefused(null);
     useExplorerStore.getState().markAdopted(c.key, id);
   };
 
@@ -307,6 +319,7 @@ export default function ExplorerScreen() {
                   inBand={{ reference: refInBand, candidate: inBand.get(selected.key) ?? null, minimum: st.resultFor?.minInBandProbability ?? null }}
                   adoptedName={adoptedRecipe?.name ?? null}
                   adoptBlocked={libraryStale || stale ? 'This result is stale: run the search again before adopting a candidate.' : null}
+                  adoptRefused={adoptRefused && adoptRefused.key === selected.key ? adoptRefused.message : null}
                   onAdopt={() => adopt(selected)}
                   polymerCap={st.resultFor?.polymerCap ?? DEFAULT_MAX_POLYMER_FRACTION}
                   pricing={{

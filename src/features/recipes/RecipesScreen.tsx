@@ -6,11 +6,13 @@ import { BLANK_SPECIFICATION, RECIPE_STATUS_LABEL } from '../../core/formulation
 import { assessRelease } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
+import { isBlankSpecification, specificationGradeIssue, specificationGradeMessage } from '../../core/recipes/specification-grade';
+import { approvalRefusal } from '../../core/recipes/approval';
 import { ActionNotice, Notice } from '../../components/notices';
 import { NumberField, TextField, ruleVerdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
-import { userMessage } from '../../state/messages';
+import { sayRefusal, userMessage } from '../../state/messages';
 import { checkText } from '../../state/field-rules';
 import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
@@ -100,6 +102,7 @@ export default function RecipesScreen() {
               {shown.map((r) => {
                 const changed = stockBasisChanges(r.stockBasis, components).length > 0;
                 const withdrawn = r.lines.some((l) => l.massFraction > 0 && componentIds.get(l.componentId)?.availability === 'withdrawn');
+                const specIssue = specificationGradeIssue(r);
                 const isSel = r.id === selected?.id;
                 return (
                   <tr key={r.id} className={isSel ? 'selected' : undefined} aria-selected={isSel}>
@@ -118,6 +121,11 @@ export default function RecipesScreen() {
                     <td>
                       {withdrawn ? <span className="tag tag-bad">withdrawn stock</span> : null}
                       {changed ? <span className="tag tag-warn">stock data changed</span> : null}
+                      {specIssue ? (
+                        <span className="tag tag-bad" data-testid="spec-grade-tag">
+                          {specIssue.kind === 'unknown' ? 'grade of specification unknown — check' : `specification of VG ${specIssue.specificationGrade}`}
+                        </span>
+                      ) : null}
                     </td>
                     <td>{r.updatedAt.slice(0, 10)}</td>
                   </tr>
@@ -191,8 +199,12 @@ function RecipeDetail({
     [recipe, components, targets, settings, supersededBy, fmt],
   );
   const stockChanges = useMemo(() => stockBasisChanges(recipe.stockBasis, components), [recipe, components]);
-  // Reasons other than the status itself stop an approval.
+  const [renameRefused, setRenameRefused] = useState<string | null>(null);
+  const [actionRefused, setActionRefused] = useState<string | null>(null);
+  // Reasons other than the status itself stop an approval; so does another approved revision of the same recipe.
   const blocking = release.reasons.filter((r) => r.kind !== 'status');
+  const notApprovable = recipe.status === 'draft' ? approvalRefusal(recipes, recipe.id) : null;
+  const specIssue = specificationGradeIssue(recipe);
   const changes = supersedes ? shareChanges(supersedes.lines, recipe.lines) : [];
   const open = (screen: 'designer' | 'blend-sheet') => {
     recipeActions.setActiveRecipe(recipe.id);
@@ -211,8 +223,16 @@ function RecipeDetail({
         trimForRule
         value={recipe.name}
         validate={(v) => ({ error: v.trim() ? undefined : 'a recipe needs a name' })}
-        onCommit={(v) => recipeActions.renameRecipe(recipe.id, v.trim())}
+        onCommit={(v) => {
+          const refused = recipeActions.renameRecipe(recipe.id, v.trim());
+          setRenameRefused(refused ? `Not renamed: ${sayRefusal(refused, fmt)}` : null);
+        }}
       />
+      {renameRefused && (
+        <p className="field-msg field-error" role="alert" data-testid="rename-refused">
+          {renameRefused}
+        </p>
+      )}
       <dl className="recipe-facts">
         <dt>Status</dt>
         <dd>
@@ -272,6 +292,11 @@ function RecipeDetail({
         </div>
       )}
 
+      {specIssue && (
+        <Notice tone="warning" title={specIssue.kind === 'unknown' ? 'Grade of specification unknown — check' : 'Specification of another grade'}>
+          <p data-testid="spec-grade-flag">{specificationGradeMessage(specIssue)}</p>
+        </Notice>
+      )}
       {stockChanges.length > 0 && (
         <Notice tone="warning" title="Stock data changed since this recipe was saved">
           <StockChangeList changes={stockChanges} />
@@ -297,13 +322,24 @@ function RecipeDetail({
           <button
             type="button"
             className="primary"
-            disabled={blocking.length > 0}
+            disabled={blocking.length > 0 || notApprovable !== null}
+            aria-describedby={notApprovable ? 'approval-refused' : undefined}
             title={blocking.length > 0 ? 'Resolve the release-check reasons first' : undefined}
             onClick={() => {
-              recipeActions.approveRecipe(recipe.id);
+              const refused = recipeActions.approveRecipe(recipe.id);
+              if (refused) {
+                setActionRefused(`Not approved: ${refused}`);
+                return;
+              }
+              // Other drafts made from the same revision can no longer be approved (one approved revision per recipe).
+              const siblings = recipes.filter((x) => x.id !== recipe.id && x.status === 'draft' && recipe.supersedes !== null && x.supersedes === recipe.supersedes);
               onFlash({
                 tone: 'success',
-                text: `Approved “${recipe.name}” (revision ${recipe.revision})${supersedes && supersedes.status === 'approved' ? `; revision ${supersedes.revision} is now superseded` : ''}.`,
+                text:
+                  `Approved “${recipe.name}” (revision ${recipe.revision})${supersedes && supersedes.status === 'approved' ? `; revision ${supersedes.revision} is now superseded` : ''}.` +
+                  (siblings.length
+                    ? ` Draft revision${siblings.length > 1 ? 's' : ''} ${siblings.map((x) => x.revision).join(', ')}, made from the same revision, can no longer be approved: save ${siblings.length > 1 ? 'their' : 'its'} changes as a new revision of revision ${recipe.revision}.`
+                    : ''),
                 undo: true,
               });
             }}
@@ -320,7 +356,15 @@ function RecipeDetail({
         <button
           type="button"
           onClick={() => {
-            const id = recipeActions.duplicateRecipe(recipe.id);
+            let id: string | null;
+            try {
+              id = recipeActions.duplicateRecipe(recipe.id);
+            } catch (e) {
+              // At the collection limit (or a field the rules refuse): said here, nothing is stored.
+              setActionRefused(`Not duplicated: ${sayRefusal(e instanceof Error ? e.message : String(e), fmt)}. Nothing was changed; delete recipes that are no longer needed to make room.`);
+              return;
+            }
+            setActionRefused(null);
             if (id) {
               onSelect(id);
               onFlash({ tone: 'success', text: `Copied as a new draft: “${recipe.name} (copy)”.`, undo: true });
@@ -342,6 +386,16 @@ function RecipeDetail({
           Delete
         </button>
       </div>
+      {actionRefused && (
+        <p className="field-msg field-error" role="alert" data-testid="recipe-action-refused">
+          {actionRefused}
+        </p>
+      )}
+      {notApprovable && (
+        <p className="field-msg field-error" id="approval-refused" data-testid="approval-refused">
+          Cannot be approved: {notApprovable}
+        </p>
+      )}
       {recipe.status === 'draft' && blocking.length > 0 && (
         <p className="muted">Approval waits until the release check shows no reason other than the draft status.</p>
       )}
@@ -367,6 +421,7 @@ function SpecificationForm({
   const fmt = useFormat();
   const id = useId();
   const [spec, setSpec] = useState<ReleaseSpecification>(() => structuredClone(recipe.specification));
+  const specIssue = specificationGradeIssue({ grade: recipe.grade, specification: spec });
   const [reason, setReason] = useState('');
   useEffect(() => setSpec(structuredClone(recipe.specification)), [recipe.specification]);
   const changed = JSON.stringify(spec) !== JSON.stringify(recipe.specification);
@@ -392,6 +447,18 @@ function SpecificationForm({
       <p className="muted">
         Limits printed in the blend sheet&rsquo;s QC table; a blank one prints “Per specification”. ν40 is set by the grade (ISO 3448) and the plant aim.
         Predictions are shown beside the limits for information only.
+      </p>
+      <p data-testid="spec-grade-link">
+        {isBlankSpecification(spec)
+          ? `Written for: VG ${recipe.grade} (blank).`
+          : spec.grade === null
+            ? 'Written for: grade unknown — check (saved before specifications were linked to a grade).'
+            : `Written for: VG ${spec.grade}${spec.grade === recipe.grade ? '' : ` — not this recipe’s grade (VG ${recipe.grade}); its limits are not printed`}.`}{' '}
+        {specIssue && (
+          <button type="button" onClick={() => set({ grade: recipe.grade })}>
+            It is the VG {recipe.grade} specification
+          </button>
+        )}
       </p>
       <TextField label="Specification reference" size={36} rule="specReference" value={spec.reference} onCommit={(v) => set({ reference: v })} />
       <div>
@@ -444,7 +511,8 @@ function SpecificationForm({
           type="button"
           disabled={!changed || errors.length > 0 || reasonProblem !== null || (revising && !reason.trim())}
           onClick={() => {
-            const savedId = recipeActions.saveChanges(recipe.id, { specification: spec }, reason.trim() || recipe.reasonForChange);
+            // Limits saved on this form are the recipe's own: written for its grade.
+            const savedId = recipeActions.saveChanges(recipe.id, { specification: { ...spec, grade: recipe.grade } }, reason.trim() || recipe.reasonForChange);
             setReason('');
             onSaved(
               savedId,
@@ -459,7 +527,7 @@ function SpecificationForm({
         <button type="button" disabled={!changed} onClick={() => setSpec(structuredClone(recipe.specification))}>
           Discard changes
         </button>
-        <button type="button" disabled={JSON.stringify(spec) === JSON.stringify(BLANK_SPECIFICATION)} onClick={() => setSpec({ ...BLANK_SPECIFICATION })}>
+        <button type="button" disabled={isBlankSpecification(spec)} onClick={() => setSpec({ ...BLANK_SPECIFICATION, grade: recipe.grade })}>
           Clear all limits
         </button>
       </div>

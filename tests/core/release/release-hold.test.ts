@@ -49,7 +49,7 @@ describe('release hold', () => {
     expect(strict.reasons.map((x) => x.kind)).toEqual(['constraint']);
     expect(strict.reasons[0]!.message).toMatch(/minimum VI/);
     const spec = assessRelease({
-      recipe: { ...base, specification: { ...base.specification, viMin: 150 } },
+      recipe: { ...base, specification: { ...base.specification, grade: base.grade, viMin: 150 } },
       components: lib,
       targets,
       method: 'refutas',

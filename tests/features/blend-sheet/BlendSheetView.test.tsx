@@ -190,11 +190,21 @@ describe('BlendSheetView', () => {
 
   it('holds a sheet whose prediction misses a limit of the recipe specification', () => {
     // flash estimate 238 °C against an invented specification minimum of 240 °C
-    renderSheet({ recipes: [{ ...recipe, specification: { ...recipe.specification, flashMin: 240, reference: 'SPEC-1' } }] });
+    renderSheet({ recipes: [{ ...recipe, specification: { ...recipe.specification, grade: recipe.grade, flashMin: 240, reference: 'SPEC-1' } }] });
     expect(screen.getByTestId('release-hold').textContent).toMatch(/Flash point, open cup \(estimate\): predicted 238 °C, limit ≥ 240/);
     const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
     expect(within(qc).getAllByText('Per specification').length).toBeGreaterThan(3);
     expect(screen.getByText(/product specification SPEC-1/)).toBeTruthy();
+  });
+
+  it('holds a sheet whose specification was written for another grade and never prints its limits (session 19, defect 1)', () => {
+    // An invented VG 460 specification on this recipe of another grade: flash minimum 240 °C, reference SPEC-460.
+    renderSheet({ recipes: [{ ...recipe, specification: { ...recipe.specification, grade: 460, flashMin: 240, reference: 'SPEC-460' } }] });
+    expect(screen.getByTestId('release-hold').textContent).toMatch(new RegExp(`written for VG 460, not for this VG ${recipe.grade} recipe: its limits are not printed`));
+    expect(screen.queryByText(/SPEC-460/)).toBeNull();
+    expect(screen.queryByText(/limit ≥ 240/)).toBeNull();
+    const qc = screen.getByRole('table', { name: /Predicted properties and QC release/ });
+    expect(within(qc).queryByText(/≥ 240/)).toBeNull();
   });
 
   it('holds a sheet whose prediction misses one of the recipe’s own constraints', () => {

@@ -203,6 +203,14 @@ describe('Recipe designer', () => {
     expect(saved.specification.reference).toMatch(/VG320/);
   });
 
+  it('flags a recipe whose specification was written for another grade (session 19, defect 1)', () => {
+    const id = recipeActions.addRecipe({ name: 'VG 460 trial', grade: 460, lines: useRecipes.getState().recipes.find((r) => r.id === 'demo-vg460')!.lines, specification: { ...useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!.specification } });
+    recipeActions.setActiveRecipe(id);
+    render(<DesignerScreen />);
+    act(() => useDesignerStore.getState().load(useRecipes.getState().recipes.find((r) => r.id === id)!, useRecipes.getState().targets['demo-vg460']!));
+    expect(screen.getByTestId('spec-grade-flag').textContent).toMatch(/written for VG 320, not for this VG 460 recipe/);
+  });
+
   it('names the trusted band of the D341 line in the temperature unit of the settings (second defect hunt)', () => {
     settingsActions.updateSettings({ temperatureUnit: 'F', coldStartTempC: -30 });
     try {

@@ -92,6 +92,19 @@ describe('Substitute explorer', () => {
     expect(screen.getByTestId('adopted').textContent).toContain(r.name);
   });
 
+  it('Adopt at the 10,000-recipe limit says why beside the button and keeps everything saved (session 19, defect 5)', async () => {
+    await runWithBrightStockWithdrawn();
+    const base = useRecipes.getState().recipes[0]!;
+    // Limit: COLLECTION_LIMITS.recipes = 10,000 (state/field-rules.ts); archived fillers stay out of the pickers.
+    const fill = Array.from({ length: 10_000 - useRecipes.getState().recipes.length }, (_, i) => ({ ...base, id: `fill-${i}`, name: `filler ${i}`, isReference: false, archived: true }));
+    act(() => useRecipes.setState((s) => ({ recipes: [...s.recipes, ...fill] })));
+    const before = useRecipes.getState().recipes;
+    fireEvent.click(screen.getByText('Adopt as a new recipe'));
+    expect(screen.getByTestId('adopt-refused').textContent).toMatch(/^Not adopted: .*more than Blendbench keeps \(at most 10.?000\)\. Nothing was saved/);
+    expect(useRecipes.getState().recipes).toBe(before);
+    expect(screen.queryByTestId('adopted')).toBeNull();
+  });
+
   it('adopting is one undo step: one undo removes the recipe and its saved targets together (no recipe left without its targets)', async () => {
     await runWithBrightStockWithdrawn();
     const before = useRecipes.getState().recipes.length;
