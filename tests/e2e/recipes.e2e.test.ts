@@ -103,4 +103,71 @@ describe('recipe lifecycle', () => {
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+
+  it('a draft made from the superseded revision 1 cannot be approved beside revision 2, and says why (session 19, defect 4)', async () => {
+    const { page } = s;
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/recipes`);
+    await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    const list = page.getByTestId('recipe-list');
+    await list.getByRole('row').filter({ hasText: 'Superseded' }).filter({ hasText: 'VG 320' }).getByRole('button').first().click();
+    // A changed foaming limit saved on the superseded revision 1: a new draft revision made from it.
+    await page.getByLabel('Foaming (ASTM D892)').fill('Sequence I: 25/0 mL max (invented)');
+    await page.getByLabel('Foaming (ASTM D892)').press('Tab');
+    await page.getByLabel(/^Reason for change/).fill('e2e: a change made from the old revision');
+    await page.getByRole('button', { name: /^Save as draft revision 3/ }).click();
+    await page.getByTestId('approval-refused').waitFor();
+    await expect(page.getByTestId('approval-refused').innerText()).resolves.toMatch(/revision 3, was made from revision 1, which revision 2 \(approved\) has already superseded/);
+    await expect(page.getByRole('button', { name: 'Approve', exact: true }).isDisabled()).resolves.toBe(true);
+    const approved = (await recipesOf(s)).filter((r) => r.status === 'approved' && (r.id === 'demo-vg320' || r.supersedes === 'demo-vg320'));
+    expect(approved).toHaveLength(1);
+    expect(s.errors).toEqual([]);
+  });
+
+  it('an older save (schema 8) holding a VG 460 recipe with the VG 320 specification is flagged after the upgrade, and its sheet is held without those limits (session 19, defect 1)', async () => {
+    const { page } = s;
+    await page.goto(inject('baseURL'));
+    await page.getByRole('navigation').waitFor();
+    await page.evaluate(async () => {
+      const db = await new Promise<IDBDatabase>((res, rej) => {
+        const r = indexedDB.open('blendbench');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
+      type Rec = { id: string; name: string; grade: number; status: string; isReference: boolean; specification: Record<string, unknown> };
+      const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
+        const r = store().get('recipes');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      // As schema 8 wrote it: specifications without the grade they were written for.
+      saved.version = 8;
+      for (const r of saved.state.recipes) delete r.specification.grade;
+      const ref460 = saved.state.recipes.find((r) => r.id === 'demo-vg460')!;
+      const spec320 = saved.state.recipes.find((r) => r.id === 'demo-vg320')!.specification;
+      saved.state.recipes.push({ ...structuredClone(ref460), id: 'e2e-old460', name: 'Old VG 460 with the VG 320 specification (invented)', status: 'draft', isReference: false, specification: structuredClone(spec320) });
+      await new Promise<void>((res, rej) => {
+        const r = store().put(saved, 'recipes');
+        r.onsuccess = () => res();
+        r.onerror = () => rej(r.error);
+      });
+      db.close();
+    });
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/recipes`);
+    await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    const row = page.getByTestId('recipe-list').getByRole('row').filter({ hasText: 'Old VG 460 with the VG 320 specification' });
+    await expect(row.getByTestId('spec-grade-tag').innerText()).resolves.toBe('specification of VG 320');
+    // Every record was kept by the upgrade.
+    expect((await recipesOf(s)).some((r) => r.id === 'demo-vg320')).toBe(true);
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/blend-sheet/e2e-old460`);
+    await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/written for VG 320, not for this VG 460 recipe: its limits are not printed/);
+    await expect(page.getByText(/BBW-SPEC-VG320/).count()).resolves.toBe(0);
+    await screenshot(page, 'blend-sheet-other-grade-spec');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
 });
