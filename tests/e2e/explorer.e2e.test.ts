@@ -42,6 +42,8 @@ describe('substitute explorer', () => {
     // side-by-side comparison of the best candidate with the reference, caution included
     const cmp = page.getByTestId('comparison');
     await expect(cmp.getByText('Cost per litre at 15 °C', { exact: true }).isVisible()).resolves.toBe(true);
+    // cost per delivered litre at the settings' delivery temperature (default 15 °C) beside it (session 19, defect 6)
+    await expect(cmp.getByRole('rowheader', { name: 'Cost per delivered litre at 15 °C' }).isVisible()).resolves.toBe(true);
     await expect(cmp.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
     await page.waitForSelector('[data-chart="frontier"] .recharts-scatter-symbol');
     // sorting by a column

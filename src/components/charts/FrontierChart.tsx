@@ -45,7 +45,9 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   const yDomain = ys.length ? niceDomain(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
   const xTicks = niceTicks(xDomain);
   const yTicks = niceTicks(yDomain);
-  const title = `Cost–solvency frontier (cost per litre at 15 °C against blend aniline point; lower aniline point = more solvent)`;
+  // The reference temperature of the litre in the user's unit (15 °C = 59 °F), as everywhere on the explorer.
+  const at = f.temp(15);
+  const title = `Cost–solvency frontier (cost per litre at ${at} against blend aniline point; lower aniline point = more solvent)`;
   return (
     <figure className="chart" data-chart="frontier" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
@@ -58,7 +60,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
             domain={xDomain}
             ticks={xTicks}
             tickFormatter={(v: number) => f.num(v, tickDecimals(xDomain))}
-            label={{ value: `cost, ${currency} per litre at 15 °C`, position: 'insideBottom', offset: -18 }}
+            label={{ value: `cost, ${currency} per litre at ${at}`, position: 'insideBottom', offset: -18 }}
           />
           <YAxis
             type="number"

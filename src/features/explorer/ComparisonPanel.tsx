@@ -74,12 +74,31 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   const cCost = inBase(c);
   const costD = rCost !== null && cCost !== null ? cCost - rCost : null;
   rows.push({
-    label: 'Cost per litre at 15 °C',
+    label: `Cost per litre at ${fmt.temp(15)}`,
     ref: costText(r),
     cand: costText(c),
     change: costD === null || !rCost ? '—' : `${delta(rCost, cCost, fmt, 3)} (${costD > 0 ? '+' : ''}${fmt.num((100 * costD) / rCost, 1)} %)`,
     tone: tone(costD, true),
   });
+  // Per delivered litre, at the delivery temperature of the settings (the core's figure, as on the
+  // designer and the blend sheet's costing copy).
+  const delivered = (p: Assessed['props'] | undefined): number | null =>
+    p?.costPerDeliveredLitre && (base === null || p.currency === base) ? p.costPerDeliveredLitre.cost : null;
+  const deliveredText = (p: Assessed['props'] | undefined): string =>
+    delivered(p) !== null ? fmt.money(delivered(p), 3) : p?.costPerDeliveredLitre && base !== null ? `not costed in ${base}` : fmt.money(null, 3);
+  const rDel = delivered(r);
+  const cDel = delivered(c);
+  const delD = rDel !== null && cDel !== null ? cDel - rDel : null;
+  const deliveryTempC = r?.costPerDeliveredLitre?.tempC ?? c?.costPerDeliveredLitre?.tempC ?? null;
+  if (deliveryTempC !== null) {
+    rows.push({
+      label: `Cost per delivered litre at ${fmt.temp(deliveryTempC)}`,
+      ref: deliveredText(r),
+      cand: deliveredText(c),
+      change: delD === null || !rDel ? '—' : `${delta(rDel, cDel, fmt, 3)} (${delD > 0 ? '+' : ''}${fmt.num((100 * delD) / rDel, 1)} %)`,
+      tone: tone(delD, true),
+    });
+  }
   rows.push({ label: 'ν40, mm²/s', ref: fmt.num(r?.kv40, 1), cand: fmt.num(c?.kv40, 1), change: delta(r?.kv40, c?.kv40, fmt, 1) });
   rows.push({ label: 'ν100, mm²/s', ref: fmt.num(r?.kv100, 2), cand: fmt.num(c?.kv100, 2), change: delta(r?.kv100, c?.kv100, fmt, 2) });
   const viD = r?.vi != null && c?.vi != null ? c.vi - r.vi : null;
@@ -164,7 +183,7 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
     change: r && c ? delta(r.polymerFraction * 100, c.polymerFraction * 100, fmt, 1) : '—',
     tone: r && c ? tone(c.polymerFraction - r.polymerFraction, true) : undefined,
   });
-  rows.push({ label: 'Density at 15 °C, kg/L', ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
+  rows.push({ label: `Density at ${fmt.temp(15)}, kg/L`, ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
   return rows;
 }
 
@@ -188,15 +207,16 @@ export function inBandRows(
   ];
 }
 
-/** "+0.006 EUR/L at 15 °C buys 99.0 % instead of 50.2 % in the plant band (the same stocks without it: 1.146 EUR/L at 15 °C)." */
+/** "+0.006 EUR/L at 15 °C buys 99.0 % instead of 50.2 % in the plant band (the same stocks without it: 1.146 EUR/L at 15 °C)" — in the user's temperature unit. */
 export function premiumSentence(b: InBandOf, costPerLitre: number, fmt: Formatter): string {
   const n = b.nominal!;
   const d = costPerLitre - n.costPerLitre;
   const p = (x: number) => probabilityText(x, (v, k) => fmt.num(v, k));
   const cur = fmt.settings.currencySymbol;
+  const at = fmt.temp(15);
   return (
-    `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L at 15 °C buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
-    `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L at 15 °C).`
+    `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L at ${at} buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
+    `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L at ${at}).`
   );
 }
 
@@ -263,8 +283,9 @@ export const ComparisonPanel = memo(function ComparisonPanel({
         operatingTempC: settings.operatingTempC,
         coldTempC: settings.coldStartTempC,
         d341Form: settings.d341Form,
+        deliveryTempC: settings.deliveryTempC,
       }),
-    [components, candidate, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC, reference.grade],
+    [components, candidate, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC, settings.deliveryTempC, reference.grade],
   );
   const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap, pricing.base), ...inBandRows(inBand ?? null, fmt)];
   const premium = inBand?.candidate?.nominal && inBand.minimum !== null ? inBand.candidate : null;
@@ -401,7 +422,7 @@ function TradeOffSection({
             </caption>
             <thead>
               <tr>
-                <th scope="col">Cost per litre at 15 °C</th>
+                <th scope="col">Cost per litre at {fmt.temp(15)}</th>
                 <th scope="col">Aniline point</th>
                 <th scope="col">ν40, mm²/s</th>
                 <th scope="col">Recipe</th>

@@ -16,7 +16,15 @@ export interface Assessed {
 export function assess(
   components: readonly Component[],
   lines: readonly RecipeLine[],
-  opts: { method: BlendMethod; grade: number; operatingTempC: number; coldTempC: number; d341Form?: D341Form },
+  opts: {
+    method: BlendMethod;
+    grade: number;
+    operatingTempC: number;
+    coldTempC: number;
+    d341Form?: D341Form;
+    /** Temperature at which delivered litres are costed [°C] (Settings); default 15. */
+    deliveryTempC?: number;
+  },
 ): Assessed | null {
   const used = lines.filter((l) => l.massFraction > 0);
   if (used.length === 0) return null;
@@ -26,6 +34,8 @@ export function assess(
       operatingTempC: opts.operatingTempC,
       coldTempC: opts.coldTempC,
       ...(opts.d341Form ? { d341Form: opts.d341Form } : {}),
+      // The core's own cost per delivered litre (as the designer and the blend sheet's costing use it).
+      ...(opts.deliveryTempC === undefined ? {} : { deliveryTempC: opts.deliveryTempC }),
     });
     let deposit: DepositAssessment | null = null;
     let shear: BlendAfterShear | null = null;
