@@ -211,6 +211,18 @@ describe('Recipe designer', () => {
     expect(screen.getByTestId('spec-grade-flag').textContent).toMatch(/written for VG 320, not for this VG 460 recipe/);
   });
 
+  it('"Save as draft revision" after a grade change does not carry the old grade’s specification, and says so (session 19, defect 2)', () => {
+    recipeActions.setActiveRecipe('demo-vg320');
+    render(<DesignerScreen />);
+    act(() => useDesignerStore.getState().load(useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!, useRecipes.getState().targets['demo-vg320']!));
+    act(() => useDesignerStore.getState().setTargets({ grade: 460 }));
+    fireEvent.change(screen.getByLabelText(/^Reason for change/), { target: { value: 'regraded (invented)' } });
+    fireEvent.click(screen.getByRole('button', { name: /^Save as draft revision 2 of/ }));
+    expect(document.body.textContent).toMatch(/The product specification of VG 320 was not carried to VG 460: it starts blank/);
+    const rev = useRecipes.getState().recipes.find((r) => r.supersedes === 'demo-vg320')!;
+    expect([rev.grade, rev.specification.grade, rev.specification.reference]).toEqual([460, 460, '']);
+  });
+
   it('names the trusted band of the D341 line in the temperature unit of the settings (second defect hunt)', () => {
     settingsActions.updateSettings({ temperatureUnit: 'F', coldStartTempC: -30 });
     try {
