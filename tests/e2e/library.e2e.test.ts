@@ -118,7 +118,7 @@ describe('component library and saved work', () => {
     expect(await libraryRowCount(page)).toBe(30);
     await expect(page.getByRole('columnheader', { name: /Aniline pt °F/ }).isVisible()).resolves.toBe(true);
     const recipes = (await stored(page, 'recipes')) as { version: number; state: { recipes: unknown[] } };
-    expect(recipes.version).toBe(8); // schema 8: minimum probability in band (5), the line plan (6), least cost per kg (7), QC-loop entries (8)
+    expect(recipes.version).toBe(9); // schema 9: minimum probability in band (5), the line plan (6), least cost per kg (7), QC-loop entries (8), a specification's grade (9)
     expect(recipes.state.recipes.length).toBe(4);
   });
 
