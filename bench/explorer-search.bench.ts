@@ -18,7 +18,7 @@
  * measured searches is split (two heap snapshots) into compiled code and the rest. Chromium's own performance
  * timeline entries (layout shifts, long animation frames) count in the heap too.
  */
-import { withServedApp } from './chromium';
+import { withServedApp, type ServedApp } from './chromium';
 import type { BenchLine } from './types';
 
 const RUNS = 7;
@@ -98,15 +98,21 @@ async function heapSnapshot(cdp: import('playwright-core').CDPSession): Promise<
 
 const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[xs.length >> 1]!;
 
+/** A fresh page on the explorer, set up as this bench searches: BW-190 withdrawn, up to 5 stocks. */
+export async function openExplorerScenario(app: ServedApp) {
+  const context = await app.newContext();
+  const page = await context.newPage();
+  const cdp = await context.newCDPSession(page);
+  await page.goto(`${app.url}#/explorer`);
+  await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
+  await page.getByLabel('Treat BW-190 as withdrawn').check();
+  await page.getByLabel('Stocks per recipe, at most').selectOption('5');
+  return { context, page, cdp };
+}
+
 export async function run(): Promise<BenchLine[]> {
   return withServedApp('explorer-search', async (app) => {
-    const context = await app.newContext();
-    const page = await context.newPage();
-    const cdp = await context.newCDPSession(page);
-    await page.goto(`${app.url}#/explorer`);
-    await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
-    await page.getByLabel('Treat BW-190 as withdrawn').check();
-    await page.getByLabel('Stocks per recipe, at most').selectOption('5');
+    const { context, page, cdp } = await openExplorerScenario(app);
     const search = () => page.evaluate(`(${TIMED_SEARCH})()`) as Promise<{ first: number; final: number; rowsFirst: number; rowsFinal: number }>;
     const workers = await page.evaluate(() => Math.max(1, (navigator.hardwareConcurrency || 2) - 1));
     await search(); // warm-up: worker module fetched and compiled once

@@ -8,6 +8,7 @@
  *   npx tsx bench/profile/explorer-heap-diff.ts [warm-up searches=20] [searches=30]
  */
 import { withServedApp } from '../chromium';
+import { openExplorerScenario } from '../explorer-search.bench';
 
 interface Snap {
   snapshot: { meta: { node_fields: string[]; node_types: [string[]] } };
@@ -63,13 +64,7 @@ const warm = Number(process.argv[2] ?? 20);
 const count = Number(process.argv[3] ?? 30);
 
 await withServedApp('explorer-heap-diff', async (app) => {
-  const context = await app.newContext();
-  const page = await context.newPage();
-  const cdp = await context.newCDPSession(page);
-  await page.goto(`${app.url}#/explorer`);
-  await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
-  await page.getByLabel('Treat BW-190 as withdrawn').check();
-  await page.getByLabel('Stocks per recipe, at most').selectOption('5');
+  const { context, page, cdp } = await openExplorerScenario(app);
   await cdp.send('HeapProfiler.enable');
   for (let i = 0; i < warm; i++) await page.evaluate(`(${SEARCH})()`);
   const a = await snapshot(cdp);
