@@ -29,7 +29,7 @@
  *   libraryRoomProblem(count, adding, 'entry'|'import', say?) → why the library has no room (one stock limit) | null
  *   recipeActions: addRecipe({ name, grade, lines?, isReference?, notes?, specification?, stockBasis?, targets?, activate? }) → id (a draft; with its targets, and made active, in one step)
  *     | updateRecipe(id, patch) | setLines(id, lines)   (drafts only for content; otherwise returns approvedMessage)
- *     | saveChanges(id, changes, reason, basedOn?) → id  (a draft in place, unless saved since `basedOn`; an approved recipe → a new draft revision)
+ *     | saveChanges(id, changes, reason, basedOn?) → id  (a draft in place, unless saved since `basedOn` or `basedOn` is { unknown: true }; an approved recipe → a new draft revision)
  *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)
  *     | approveRecipe(id) → null | why refused (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
  *     | setArchived(id, bool) | duplicateRecipe(id, name?) → id | removeRecipe(id) (undoable)
@@ -57,7 +57,7 @@ import { create, useStore } from 'zustand';
 import type { Component, Recipe } from '../core/formulation/model';
 import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../core/currency/exchange-rates';
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
-import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, type RecipesData } from './recipes';
+import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, type RecipesData, type SavedVersionMark } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
 import { useWorkspaceStore, WORKSPACE_SPEC } from './workspace';
 import {
@@ -74,8 +74,8 @@ import { demoComponents, demoSettingsPatch } from './demo';
 
 export type { Settings } from './settings';
 export type { LibraryState, LibraryData } from './library';
-export type { RecipesState, RecipesData, NewRecipe, SheetInputs, QcInputs, RecipeChanges } from './recipes';
-export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, RecipeChangedError, approvedMessage, nextRevisionNumber } from './recipes';
+export type { RecipesState, RecipesData, NewRecipe, SheetInputs, QcInputs, RecipeChanges, SavedVersionMark } from './recipes';
+export { DEFAULT_SHEET_INPUTS, DEFAULT_QC_INPUTS, RecipeChangedError, RecipeVersionUnknownError, approvedMessage, nextRevisionNumber } from './recipes';
 export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan, leastUseAboveSupply } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
@@ -84,7 +84,7 @@ export { blankComponent, freeCode, libraryRoomProblem } from './library';
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
-export { useWorkspaceStore, fingerprint, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
+export { useWorkspaceStore, fingerprint, UNKNOWN_VERSION, type DraftBasedOn, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';
 
@@ -112,7 +112,7 @@ export const recipeActions = {
     useRecipesStore.getState().updateRecipe(...a),
   setLines: (...a: Parameters<ReturnType<typeof useRecipesStore.getState>['setLines']>) =>
     useRecipesStore.getState().setLines(...a),
-  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: string | null) =>
+  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: SavedVersionMark | null) =>
     useRecipesStore.getState().saveChanges(id, changes, reason, basedOn),
   saveRevision: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveRevision(id, changes, reason),
   approveRecipe: (id: string): string | null => useRecipesStore.getState().approveRecipe(id),

@@ -128,8 +128,10 @@ export interface RecipesState extends RecipesData {
    * the recipe now holding the changes. Throws FieldRuleError when the changes break a field rule.
    * `basedOn` is the draft's `updatedAt` when the changes were begun from it: a draft saved since
    * (in another tab, or on another screen) is not overwritten — RecipeChangedError says so.
+   * `{ unknown: true }` (a kept draft that did not record it) is refused too, with
+   * RecipeVersionUnknownError: it cannot be told whether the draft was saved since.
    */
-  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: string | null) => string;
+  saveChanges: (id: string, changes: RecipeChanges, reason: string, basedOn?: SavedVersionMark | null) => string;
   /**
    * Create a new draft revision of a recipe: a copy with `changes` applied, the next revision number,
    * status draft, `supersedes` = id, the reason for change, the same targets (unless changed) and
@@ -272,6 +274,25 @@ export class RecipeChangedError extends Error {
   }
 }
 
+/**
+ * Saving over a draft from changes whose starting version is not known (a designer draft kept by an
+ * earlier version, which did not record it): refused, since a save made meanwhile in another tab
+ * cannot be ruled out.
+ */
+export class RecipeVersionUnknownError extends Error {
+  constructor(readonly recipe: Recipe) {
+    super(
+      `this draft was kept by an earlier version of Blendbench, which does not record which saved version of “${recipe.name}” it began from, ` +
+        `so it cannot tell whether “${recipe.name}” was changed since (last saved ${recipe.updatedAt.slice(0, 16).replace('T', ' ')} UTC); ` +
+        `saving here could overwrite such a change. Save as a new recipe to keep both, or open “${recipe.name}” again to start from what is saved`,
+    );
+    this.name = 'RecipeVersionUnknownError';
+  }
+}
+
+/** The saved version changes began from: its `updatedAt`, or not known. */
+export type SavedVersionMark = string | { unknown: true };
+
 export const demoRecipesData = (): RecipesData => ({
   recipes: demoRecipes(),
   targets: demoTargets(),
@@ -370,7 +391,8 @@ export const useRecipesStore = create<RecipesState>()(
             const r = get().recipes.find((x) => x.id === id);
             if (!r) throw new Error(`no recipe ${id}`);
             if (r.status !== 'draft') return get().saveRevision(id, changes, reason)!;
-            if (basedOn !== undefined && basedOn !== null && r.updatedAt !== basedOn) throw new RecipeChangedError(r);
+            if (typeof basedOn === 'object' && basedOn !== null) throw new RecipeVersionUnknownError(r);
+            if (typeof basedOn === 'string' && r.updatedAt !== basedOn) throw new RecipeChangedError(r);
             const { targets, ...fields } = changes;
             const next: Recipe = specificationForGrade(
               r,

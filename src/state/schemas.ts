@@ -313,6 +313,7 @@ export const workspaceDataSchema = z.object({
         if (m) ctx.addIssue({ code: 'custom', message: m });
       }),
       sourceRecipeId: str.nullable(),
+      basedOn: z.union([z.object({ updatedAt: str }), z.object({ unknown: z.literal(true) })]).nullable(),
       basis: z.enum(['mass', 'volume']),
       rebalanceMode: z.enum(['balance', 'proportional']),
       balanceId: str.nullable(),

@@ -17,6 +17,16 @@ import type { BlendTargets, Objective, RecipeLine } from '../core/formulation/mo
 import type { SubstituteSearchResult } from '../core/search/substitutes';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 
+/**
+ * The saved version of its recipe a draft began from: that recipe's `updatedAt` as the draft was
+ * opened or last saved, or unknown (a draft kept by workspace schema 1, which did not record it).
+ * Saving a draft in place is refused when its recipe was saved since, or when this is not known.
+ */
+export type DraftBasedOn = { updatedAt: string } | { unknown: true };
+
+/** The mark of a draft whose starting version was not recorded (workspace schema 1). */
+export const UNKNOWN_VERSION: { unknown: true } = Object.freeze({ unknown: true as const });
+
 /** The designer's draft as kept between visits. */
 export interface DesignerDraft {
   targets: BlendTargets;
@@ -24,6 +34,8 @@ export interface DesignerDraft {
   name: string;
   /** The saved recipe the draft came from (null for a new draft). */
   sourceRecipeId: string | null;
+  /** The version of the source recipe the draft began from (null for a new draft). */
+  basedOn: DraftBasedOn | null;
   basis: 'mass' | 'volume';
   rebalanceMode: 'balance' | 'proportional';
   balanceId: string | null;
@@ -77,10 +89,22 @@ export interface WorkspaceState extends WorkspaceData {
 
 export const WORKSPACE_SPEC: StoreSpec<WorkspaceData> = {
   key: 'workspace',
-  version: 1,
+  version: 2,
   // The zod schema is picked from the schemas module once it is loaded (persistence.loadSchemas).
   schema: (m) => m.workspaceDataSchema as unknown as ReturnType<StoreSpec<WorkspaceData>['schema']>,
-  migrations: {},
+  migrations: {
+    // Schema 1 → 2: a draft records the saved version of its recipe it began from (`basedOn`). A
+    // draft kept before has no such record: it is marked "based on an unknown version", so saving it
+    // over its recipe is refused in words rather than overwriting a save made since. Every other
+    // field and the explorer session are kept as they are.
+    1: (d) => {
+      const data = d as { designer?: Record<string, unknown> | null };
+      if (typeof data !== 'object' || data === null) throw new Error('the workspace is not an object');
+      const draft = data.designer;
+      if (!draft) return data;
+      return { ...data, designer: { ...draft, basedOn: draft.sourceRecipeId ? UNKNOWN_VERSION : null } };
+    },
+  },
   crossTab: false,
 };
 

@@ -96,7 +96,7 @@ describe('recipe designer', () => {
     await page.reload();
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     // the saved recipe is the active one: the designer opens it
-    await expect(page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).resolves.toMatch(/Trial VG 320 least cost/);
+    await expect.poll(() => page.getByLabel('Open', { exact: true }).locator('option:checked').innerText(), { timeout: 5000 }).toMatch(/Trial VG 320 least cost/);
     const kv40 = await kvOf(page);
     expect(kv40).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (tests/reference/check-values.md G2)
     expect(kv40).toBeLessThanOrEqual(352);
@@ -117,6 +117,53 @@ describe('recipe designer', () => {
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await page.getByText(/Restored the draft from your last session/).waitFor();
     await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
+
+describe('designer draft, two tabs and a reload (s20 defect 1)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('a draft with unsaved edits, reloaded, does not overwrite the save another tab made since it began', async () => {
+    const a = s.page;
+    await a.goto(inject('baseURL') + '#/designer');
+    await a.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    await a.getByLabel('Recipe name', { exact: true }).fill('Two-tab trial');
+    await a.getByRole('button', { name: 'Save as new recipe' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('Two-tab trial');
+    // This tab edits the first share (not saved); the edit is kept as the draft is written.
+    const cellA = a.getByTestId('recipe-lines').locator('.pct-input').first();
+    const label = (await cellA.getAttribute('aria-label')) ?? '';
+    await cellA.click();
+    await a.getByLabel(label, { exact: true }).pressSequentially('7');
+    await a.getByLabel(label, { exact: true }).press('Tab');
+    await expect.poll(async () => JSON.stringify(await stored(a, 'workspace')), { timeout: 5000 }).toContain('"dirty":true');
+    // Another tab then saves the same draft (its specification, on the Recipes screen).
+    const b = await s.newPage();
+    await b.goto(inject('baseURL') + '#/recipes');
+    await b.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    await b.getByTestId('recipe-list').getByRole('row').filter({ hasText: 'Two-tab trial' }).getByRole('button').first().click();
+    await b.getByLabel('Foaming (ASTM D892)').fill('Sequence I: 50/0 mL max (invented)');
+    await b.getByLabel('Foaming (ASTM D892)').press('Tab');
+    await b.getByRole('button', { name: 'Save specification' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes')), { timeout: 5000 }).toContain('50/0 mL max');
+    const theirs = JSON.stringify(await stored(b, 'recipes'));
+    // This tab reloads mid-edit: the draft comes back, and knows it began before the other tab's save.
+    await a.reload();
+    await a.getByText(/Restored the draft from your last session/).waitFor();
+    await a.getByText(/was changed and saved after this draft began/).waitFor();
+    await expect(a.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    await a.getByRole('button', { name: 'Save changes to draft “Two-tab trial”' }).click();
+    await a.getByText(/Not saved: .*was changed and saved after this draft was opened/).waitFor();
+    await screenshot(a, 'designer-two-tab-reload-refused');
+    expect(JSON.stringify(await stored(a, 'recipes'))).toBe(theirs);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });

@@ -6,7 +6,7 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
-import { RecipeChangedError, defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
+import { RecipeChangedError, RecipeVersionUnknownError, UNKNOWN_VERSION, defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
 import { BLANK_SPECIFICATION } from '../../src/core/formulation/model';
 import { stockBasisChanges } from '../../src/core/recipes/stock-basis';
 
@@ -36,6 +36,16 @@ describe('recipe lifecycle', () => {
     // Based on the version as saved now, or with no stamp (a caller that read it just now), it saves.
     expect(recipeActions.saveChanges(id, { lines }, '', theirs.updatedAt)).toBe(id);
     expect(get(id).lines).toEqual(lines);
+  });
+
+  it('does not save a draft over its recipe when the version the changes began from is unknown (a draft kept by workspace schema 1, s20 defect 1)', () => {
+    const id = recipeActions.duplicateRecipe('demo-vg320')!;
+    const before = structuredClone(get(id));
+    expect(() => recipeActions.saveChanges(id, { name: 'From an old kept draft' }, '', UNKNOWN_VERSION)).toThrow(RecipeVersionUnknownError);
+    expect(get(id)).toEqual(before);
+    // An approved recipe is never overwritten anyway: the changes make a new draft revision.
+    const rev = recipeActions.saveChanges('demo-vg320', { name: 'From an old kept draft' }, 'reason', UNKNOWN_VERSION);
+    expect(rev).not.toBe('demo-vg320');
   });
 
   it('never overwrites an approved recipe: saving changes makes a draft revision that supersedes it', () => {

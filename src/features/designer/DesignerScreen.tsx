@@ -18,6 +18,7 @@ import {
   useSettings,
   settingsActions,
   sayRefusal,
+  UNKNOWN_VERSION,
 } from '../../state';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
@@ -213,8 +214,9 @@ export default function DesignerScreen() {
             stockBasis: recordStockBasis(lib, s.lines, new Date().toISOString()),
           },
           reason,
-          // The draft's recipe as it was when the edits began: one saved since is not overwritten.
-          s.sourceStamp,
+          // The draft's recipe as it was when the edits began: one saved since is not overwritten
+          // (nor one whose starting version a draft kept by an earlier version did not record).
+          s.stampUnknown ? UNKNOWN_VERSION : s.sourceStamp,
         );
       } catch (e) {
         return { refused: (e as Error).message };

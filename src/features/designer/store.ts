@@ -5,7 +5,7 @@
  * restores it (`restoreDraft`). Holds inputs; predicted properties are derived on render.
  */
 import { create } from 'zustand';
-import { registerDeferredWrite, useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft } from '../../state';
+import { registerDeferredWrite, UNKNOWN_VERSION, useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft, type DraftBasedOn } from '../../state';
 import { targetsProblems, checkText, checkNumber } from '../../state/field-rules';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
@@ -42,6 +42,11 @@ export interface DesignerState {
    * whose recipe has since changed (an undo on another screen, another tab) opens it as it is now.
    */
   sourceStamp: string | null;
+  /**
+   * True for a draft restored from a kept copy that did not record the version it began from
+   * (workspace schema 1): saving it in place is refused, since a save made since cannot be ruled out.
+   */
+  stampUnknown: boolean;
   setSeenActiveId: (id: string | null) => void;
 
   load: (recipe: Recipe, targets: BlendTargets) => void;
@@ -109,6 +114,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   initialised: false,
   seenActiveId: null,
   sourceStamp: null,
+  stampUnknown: false,
 
   load: (recipe, targets) => {
     const lines = normalise(recipe.lines);
@@ -118,6 +124,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       name: recipe.name,
       sourceRecipeId: recipe.id,
       sourceStamp: recipe.updatedAt,
+      stampUnknown: false,
       balanceId: pickBalance(lines, targets.additive?.componentId ?? null),
       editNote: '',
       notice: null,
@@ -132,6 +139,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       name: '',
       sourceRecipeId: null,
       sourceStamp: null,
+      stampUnknown: false,
       balanceId: null,
       editNote: '',
       notice: null,
@@ -181,6 +189,7 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
     set({
       sourceRecipeId: recipeId,
       sourceStamp: useRecipes.getState().recipes.find((r) => r.id === recipeId)?.updatedAt ?? null,
+      stampUnknown: false,
       dirty: false,
       seenActiveId: recipeId,
     }),
@@ -200,12 +209,26 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
     const bounds = Object.fromEntries(Object.entries(kept.targets.bounds).filter(([id]) => known.has(id)));
     const additive = kept.targets.additive && known.has(kept.targets.additive.componentId) ? kept.targets.additive : null;
     const dropped = kept.lines.length - lines.length;
+    // The version of its recipe the draft began from, as kept with it (never the version saved now:
+    // a save made since in another tab must not be overwritten by this draft).
+    const source = sourceSaved ? useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)! : null;
+    const stamp = source && kept.basedOn && 'updatedAt' in kept.basedOn ? kept.basedOn.updatedAt : null;
+    const stampUnknown = source !== null && stamp === null;
+    const since =
+      source && source.status === 'draft'
+        ? stampUnknown
+          ? ` It was kept by an earlier version, which does not record which saved version of “${source.name}” it began from: Save as new recipe keeps both.`
+          : stamp !== source.updatedAt
+            ? ` “${source.name}” was changed and saved after this draft began (in another tab or on another screen): Save changes will not overwrite it; Save as new recipe keeps both.`
+            : ''
+        : '';
     set({
       targets: { ...EMPTY_TARGETS, ...structuredClone(kept.targets), bounds, additive },
       lines: dropped ? normalise(lines) : lines,
       name: kept.name,
       sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
-      sourceStamp: sourceSaved ? (useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)?.updatedAt ?? null) : null,
+      sourceStamp: stamp,
+      stampUnknown,
       basis: kept.basis,
       rebalanceMode: kept.rebalanceMode,
       balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),
@@ -213,7 +236,8 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       notice: null,
       editNote:
         'Restored the draft from your last session.' +
-        (dropped ? ` ${dropped} line${dropped > 1 ? 's' : ''} of stocks no longer in the library ${dropped > 1 ? 'were' : 'was'} left out.` : ''),
+        (dropped ? ` ${dropped} line${dropped > 1 ? 's' : ''} of stocks no longer in the library ${dropped > 1 ? 'were' : 'was'} left out.` : '') +
+        since,
       initialised: true,
       seenActiveId: useRecipes.getState().activeRecipeId,
     });
@@ -228,11 +252,18 @@ export function draftOf(s: DesignerState): DesignerDraft {
     lines: s.lines,
     name: s.name,
     sourceRecipeId: s.sourceRecipeId,
+    basedOn: basedOnOf(s),
     basis: s.basis,
     rebalanceMode: s.rebalanceMode,
     balanceId: s.balanceId,
     dirty: s.dirty,
   };
+}
+
+/** The version of its recipe the draft began from, as kept with it (unknown when not recorded). */
+export function basedOnOf(s: Pick<DesignerState, 'sourceRecipeId' | 'sourceStamp' | 'stampUnknown'>): DraftBasedOn | null {
+  if (s.sourceRecipeId === null) return null;
+  return s.stampUnknown || s.sourceStamp === null ? UNKNOWN_VERSION : { updatedAt: s.sourceStamp };
 }
 
 /** True when the draft can be kept (the field rules accept it), so what is kept can be read back. */
@@ -269,6 +300,8 @@ useDesignerStore.subscribe((s, p) => {
     s.lines === p.lines &&
     s.name === p.name &&
     s.sourceRecipeId === p.sourceRecipeId &&
+    s.sourceStamp === p.sourceStamp &&
+    s.stampUnknown === p.stampUnknown &&
     s.basis === p.basis &&
     s.rebalanceMode === p.rebalanceMode &&
     s.balanceId === p.balanceId &&

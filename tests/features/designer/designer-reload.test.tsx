@@ -6,7 +6,8 @@ import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { StrictMode } from 'react';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { act, cleanup, render, screen } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
+import { createStore, get as idbGet, set as idbSet } from 'idb-keyval';
 
 type StateModule = typeof import('../../../src/state');
 let previous: StateModule | null = null;
@@ -93,5 +94,69 @@ describe('Designer draft across a reload', () => {
     const sum = c.designer.getState().lines.reduce((s, l) => s + l.massFraction, 0);
     expect(sum).toBeCloseTo(1, 9); // shares sum to 100 % (common practice, no source)
     expect(screen.getByText(/1 line of stocks no longer in the library was left out/)).toBeTruthy();
+  });
+  it('a draft with unsaved edits remembers across a reload which saved version it began from: a save made since in another tab is not overwritten (s20 defect 1)', async () => {
+    const a = await reload();
+    const copy = a.state.recipeActions.duplicateRecipe('demo-vg320')!;
+    const began = a.state.useRecipes.getState().recipes.find((r) => r.id === copy)!;
+    act(() => {
+      a.designer.getState().load(began, a.state.useRecipes.getState().targets[copy]!);
+      a.state.recipeActions.setActiveRecipe(copy);
+    });
+    const first = began.lines.find((l) => l.massFraction > 0.1)!;
+    // This tab: an invented hand edit, not yet saved.
+    act(() => a.designer.getState().editLine(first.componentId, first.massFraction - 0.05, () => 0.9));
+    await a.persistence.whenSaved();
+    expect(a.state.useWorkspaceStore.getState().designer?.basedOn).toEqual({ updatedAt: began.updatedAt });
+    // Another tab saves the same draft after this tab's edits began (merged into the stored recipes).
+    await new Promise((r) => setTimeout(r, 2)); // a later stamp (ms)
+    act(() => void a.state.recipeActions.saveChanges(copy, { name: 'Saved in the other tab' }, ''));
+    await a.persistence.whenSaved();
+    const theirs = structuredClone(a.state.useRecipes.getState().recipes.find((r) => r.id === copy)!);
+
+    const b = await reload();
+    expect(b.designer.getState().dirty).toBe(true);
+    expect(b.designer.getState().sourceRecipeId).toBe(copy);
+    // The restored draft says at once that its recipe was saved since it began.
+    expect(screen.getByText(/was changed and saved after this draft began/)).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: /^Save changes to draft/ }));
+    expect(screen.getByRole('alert').textContent).toMatch(/Not saved: .*was changed and saved after this draft was opened.*Save as a new recipe to keep both/);
+    expect(b.state.useRecipes.getState().recipes.find((r) => r.id === copy)).toEqual(theirs);
+  });
+
+  it('a draft kept by workspace schema 1 (no version mark) is upgraded, every record kept, and is never saved silently over its recipe (s20 defect 1)', async () => {
+    const a = await reload();
+    const copy = a.state.recipeActions.duplicateRecipe('demo-vg320')!;
+    const recipe = a.state.useRecipes.getState().recipes.find((r) => r.id === copy)!;
+    await a.persistence.whenSaved();
+    const db = createStore('blendbench', 'saved-work');
+    const lines = recipe.lines.map((l, i) => ({ ...l, massFraction: l.massFraction + (i === 0 ? -0.01 : i === 1 ? 0.01 : 0) }));
+    const oldDraft = {
+      targets: a.state.useRecipes.getState().targets[copy]!,
+      lines,
+      name: recipe.name,
+      sourceRecipeId: copy,
+      basis: 'mass',
+      rebalanceMode: 'proportional',
+      balanceId: null,
+      dirty: true,
+    };
+    await idbSet('workspace', { state: { designer: oldDraft, explorer: null }, version: 1 }, db);
+
+    const b = await reload();
+    await b.persistence.whenSaved();
+    expect(b.persistence.useStorageStatus.getState().stores.workspace.origin).toBe('migrated');
+    expect(b.designer.getState().lines).toEqual(lines);
+    expect(b.designer.getState().dirty).toBe(true);
+    expect(b.state.useWorkspaceStore.getState().designer?.basedOn).toEqual({ unknown: true });
+    expect(((await idbGet('workspace', db)) as { version: number }).version).toBe(b.state.STORE_VERSION.workspace);
+    const before = structuredClone(b.state.useRecipes.getState().recipes.find((r) => r.id === copy)!);
+    fireEvent.click(screen.getByRole('button', { name: /^Save changes to draft/ }));
+    expect(screen.getByRole('alert').textContent).toMatch(/Not saved: .*does not record which saved version of .* it began from.*Save as a new recipe to keep both/);
+    expect(b.state.useRecipes.getState().recipes.find((r) => r.id === copy)).toEqual(before);
+    // Save as new keeps the draft as a recipe of its own.
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Kept from the old draft' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    expect(b.state.useRecipes.getState().recipes.find((r) => r.name === 'Kept from the old draft')!.lines).toEqual(lines);
   });
 });
