@@ -1,9 +1,11 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
+import { compileHints } from './scripts/compile-hints';
 
 // Blendbench runs fully offline: no CDN, no web fonts, no runtime requests.
 export default defineConfig({
-  plugins: [react()],
+  // The opening screen's chunks are compiled off the main thread (scripts/compile-hints.ts).
+  plugins: [react(), compileHints(/[\\/]features[\\/]library[\\/]LibraryScreen\.tsx$/)],
   base: './',
   worker: { format: 'es' },
   build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 900 },
