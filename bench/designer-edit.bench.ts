@@ -34,7 +34,7 @@ const WARMUP = 10;
  * Runs in the page (plain JavaScript in a string, so the bundler adds no helpers): the timed batch.
  * Returns the per-edit durations [ms].
  */
-const EDIT_BATCH = `async (args) => {
+export const EDIT_BATCH = `async (args) => {
   // A share cell is text until focused; focusing it puts the field in its place (as a click or Tab does).
   // React renders the field in a microtask after the focus event.
   document.querySelector('[aria-label="' + args.label + '"]')?.focus();

@@ -332,7 +332,7 @@ export {
   probabilityInInterval,
 } from './qc/lot-spread';
 export type { MonteCarloKv40, MonteCarloLots } from './qc/monte-carlo';
-export { monteCarloKv40, monteCarloLots, blendLots, shareInBand, seededUniform, seededNormal } from './qc/monte-carlo';
+export { monteCarloKv40, monteCarloLots, blendLots, countBlendedLots, shareInBand, seededUniform, seededNormal } from './qc/monte-carlo';
 export { allowedDeviation, maxSdForProbability, ROBUST_CUT_MARGIN } from './qc/robust';
 export type { RobustAnswer } from './qc/robust-solve';
 export { solveRobustAndNominal, highestInBandProbability } from './qc/robust-solve';

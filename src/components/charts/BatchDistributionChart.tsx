@@ -1,9 +1,10 @@
-import { memo, useId } from 'react';
+import { memo, useId, useMemo } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { useFormat, type Formatter } from '../format';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
-import { LiveDistributionMarks, useLiveMarks, type DensityPoint } from './live';
+import { LiveDistributionMarks, useLiveMarksRelay, type DensityPoint, type LiveMarks } from './live';
+import { RelayText } from '../relay';
 
 export type { DensityPoint } from './live';
 
@@ -139,14 +140,22 @@ function distributionNote(plantBand: DistributionBand, isoBand: DistributionBand
   );
 }
 
+/** The caption in live mode: its text follows the blend by itself (no React render per edit). */
 function LiveNote({ id, plantBand, isoBand, formatPct }: { id: string; plantBand: DistributionBand; isoBand: DistributionBand; formatPct: (p: number) => string }) {
-  const live = useLiveMarks((m) => m.distribution);
+  const relay = useLiveMarksRelay();
   const f = useFormat();
+  const select = useMemo(
+    () => (m: LiveMarks) => {
+      const live = m.distribution;
+      return live
+        ? distributionNote({ ...plantBand, probability: live.plantProbability }, { ...isoBand, probability: live.isoProbability }, live.simulation, formatPct, f)
+        : '';
+    },
+    [plantBand, isoBand, formatPct, f],
+  );
   return (
     <p id={id} className="chart-note" data-testid="distribution-note">
-      {live
-        ? distributionNote({ ...plantBand, probability: live.plantProbability }, { ...isoBand, probability: live.isoProbability }, live.simulation, formatPct, f)
-        : ''}
+      <RelayText relay={relay} select={select} />
     </p>
   );
 }

@@ -1,8 +1,9 @@
-import { memo, useId } from 'react';
+import { memo, useId, useMemo } from 'react';
 import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
 import { niceStep, niceTicks, tickDecimals } from './nice';
-import { LiveBars, useLiveMarks } from './live';
+import { LiveBars, useLiveMarksRelay, type LiveMarks } from './live';
+import { RelayText } from '../relay';
 import { useFormat, type Formatter } from '../format';
 
 export interface CompositionRow {
@@ -111,12 +112,14 @@ function Description({ id, rows, currency }: { id: string; rows: readonly Compos
   );
 }
 
+/** The description in live mode: its text follows the blend by itself (no React render per edit). */
 function LiveDescription({ id, currency }: { id: string; currency: string }) {
-  const bars = useLiveMarks((m) => m.bars) ?? [];
+  const relay = useLiveMarksRelay();
   const f = useFormat();
+  const select = useMemo(() => (m: LiveMarks) => describe(m.bars ?? [], currency, f), [currency, f]);
   return (
     <p id={id} className="visually-hidden">
-      {describe(bars, currency, f)}
+      <RelayText relay={relay} select={select} />
     </p>
   );
 }

@@ -10,7 +10,7 @@ export type { CompositionRow, CompositionChartProps } from './CompositionChart';
 export { FrontierChart } from './FrontierChart';
 export { BatchDistributionChart, distributionDomain, distributionPeak } from './BatchDistributionChart';
 export type { BatchDistributionChartProps, DensityPoint, DistributionBand } from './BatchDistributionChart';
-export { batchDistributionData } from './batch-distribution-data';
+export { batchDistributionData, batchDistributionFromCounts, distributionEdges } from './batch-distribution-data';
 export type { FrontierPoint, FrontierChartProps } from './FrontierChart';
 export { d341X, d341Y, d341Kv, d341TempC, d341LineFromPoints, d341Segments, fittedRangeOf, temperatureFlag } from './d341-scale';
 export { CHART_COLOURS } from './palette';

@@ -2,17 +2,19 @@
  * Live marks: the parts of a chart that follow every keystroke (the blend being edited), drawn by
  * small components INSIDE the recharts chart with recharts' own scales (`useXAxisScale`,
  * `useYAxisScale`, `usePlotArea`). The chart itself (axes, grid, static series) keeps the same props
- * while a fraction is typed, so it does not re-render; only these layers do, which keeps an edit
- * within one frame. The values come from {@link LiveMarksProvider}, placed by the screen around its
- * charts: a relay (`components/relay.tsx`) the live layers subscribe to, so a new blend re-renders only
- * them (a changed React context value would make React search every chart's whole tree for its readers).
+ * while a fraction is typed, so it does not re-render. The values come from {@link LiveMarksProvider},
+ * placed by the screen around its charts: a relay (`components/relay.tsx`). Each live layer renders
+ * an empty group once per chart render and then draws its marks into it itself, in the same task as
+ * a new blend is handed over (`drawMarks`: the SVG elements are kept and only the attributes and
+ * titles that changed are written), so an edit renders and commits nothing in React for the charts.
  */
-import { createContext, memo, useContext, useId, type ReactNode } from 'react';
+import { createContext, memo, useContext, useId, useLayoutEffect, useMemo, useRef, type ReactNode } from 'react';
 import { usePlotArea, useXAxisScale, useYAxisScale } from 'recharts';
 import { D341_SEGMENT_STYLE, d341LineFromPoints, d341Segments, d341TempC, d341X } from './d341-scale';
 import { CHART_COLOURS } from './palette';
 import { useFormat } from '../format';
 import { createRelay, useRelay, useRelayed, type Relay } from '../relay';
+import type { Formatter } from '../format';
 import type { D341Form } from '../../core/viscosity/viscosity-temperature';
 
 export interface LiveBar {
@@ -75,6 +77,77 @@ export function useLiveMarks<T>(select: (marks: LiveMarks) => T): T {
   return useRelay(useContext(LiveMarksSourceContext), select);
 }
 
+/** The relay of the nearest {@link LiveMarksProvider} (for readers that write the page themselves, e.g. `RelayText`). */
+export function useLiveMarksRelay(): Pick<Relay<LiveMarks>, 'get' | 'subscribe'> {
+  return useContext(LiveMarksSourceContext);
+}
+
+const SVG_NS = 'http://www.w3.org/2000/svg';
+
+/** One SVG element a live layer draws: its tag, attributes (null: absent) and `<title>` text (null: none). */
+export interface MarkSpec {
+  tag: 'path' | 'circle';
+  attrs: Readonly<Record<string, string | null>>;
+  title: string | null;
+}
+
+/**
+ * Makes the children of `group` the elements `specs` describe, in order: an element of the right tag
+ * already there is kept and only its changed attributes and title are written; missing ones are
+ * created, extra ones removed. An element's title is its only child.
+ */
+export function drawMarks(group: Element, specs: readonly MarkSpec[]): void {
+  const doc = group.ownerDocument;
+  let el = group.firstElementChild;
+  for (const spec of specs) {
+    if (!el || el.localName !== spec.tag) {
+      const made = doc.createElementNS(SVG_NS, spec.tag);
+      group.insertBefore(made, el);
+      el = made;
+    }
+    for (const name in spec.attrs) {
+      const v = spec.attrs[name]!;
+      if (v === null) {
+        if (el.hasAttribute(name)) el.removeAttribute(name);
+      } else if (el.getAttribute(name) !== v) el.setAttribute(name, v);
+    }
+    const title = el.firstChild;
+    if (spec.title === null) title?.remove();
+    else if (!title) el.appendChild(doc.createElementNS(SVG_NS, 'title')).textContent = spec.title;
+    else if (title.textContent !== spec.title) title.textContent = spec.title;
+    el = el.nextElementSibling;
+  }
+  while (el) {
+    const next = el.nextElementSibling;
+    el.remove();
+    el = next;
+  }
+}
+
+/**
+ * A group whose children follow the live marks without a React render: `specsOf` turns the current
+ * marks into the elements to draw, at mount, whenever `specsOf` changes (a new function: new scales
+ * or props) and at each new value of the relay, in the same task as it is handed over.
+ */
+function LiveGroup({ specsOf, className, clipPath }: { specsOf: (marks: LiveMarks) => readonly MarkSpec[]; className: string; clipPath?: string }) {
+  const relay = useContext(LiveMarksSourceContext);
+  const ref = useRef<SVGGElement>(null);
+  useLayoutEffect(() => {
+    const g = ref.current;
+    if (!g) return;
+    let last: LiveMarks | null = null;
+    const draw = () => {
+      const marks = relay.get();
+      if (marks === last) return;
+      last = marks;
+      drawMarks(g, specsOf(marks));
+    };
+    draw();
+    return relay.subscribe(draw);
+  }, [relay, specsOf]);
+  return <g ref={ref} className={className} clipPath={clipPath} />;
+}
+
 /** Pixel position of a value on a linear axis, extrapolated beyond the domain from its two ends. */
 function linear(scale: (v: unknown) => number | undefined, domain: readonly [number, number]): ((v: number) => number) | null {
   const p0 = scale(domain[0]);
@@ -135,47 +208,50 @@ export const LiveD341Line = withScales(function LiveD341LineMarks({
   /** The host chart's D341 form (its axes use the same Z). */
   form?: D341Form;
 } & Scales) {
-  const live = useLiveMarks((m) => m.vt);
   const f = useFormat();
   const clip = useId().replace(/:/g, '');
-  if (!live || !(live.kv40 > live.kv100 && live.kv100 > 0)) return null;
-  const px = linear(xs, xDomain);
-  const py = linear(ys, yDomain);
-  if (!px || !py) return null;
-  let line: { a: number; b: number };
-  try {
-    line = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 }, form);
-  } catch {
-    return null; // values the core refuses are not drawn
-  }
-  const { a, b } = line;
-  const segments = d341Segments(d341TempC(xDomain[0]), d341TempC(xDomain[1]), undefined, live.pourPointC ?? null);
-  const title = `${live.label}: ${f.num(live.kv40, 1)} mm²/s at 40 °C, ${f.num(live.kv100, 2)} at 100 °C`;
+  const specsOf = useMemo(() => {
+    const px = linear(xs, xDomain);
+    const py = linear(ys, yDomain);
+    return (m: LiveMarks): MarkSpec[] => {
+      const live = m.vt;
+      if (!live || !(live.kv40 > live.kv100 && live.kv100 > 0) || !px || !py) return [];
+      let line: { a: number; b: number };
+      try {
+        line = d341LineFromPoints({ tempC: 40, kv: live.kv40 }, { tempC: 100, kv: live.kv100 }, form);
+      } catch {
+        return []; // values the core refuses are not drawn
+      }
+      const { a, b } = line;
+      const segments = d341Segments(d341TempC(xDomain[0]), d341TempC(xDomain[1]), undefined, live.pourPointC ?? null);
+      const title = `${live.label}: ${f.num(live.kv40, 1)} mm²/s at 40 °C, ${f.num(live.kv100, 2)} at 100 °C`;
+      return segments.map((sg) => {
+        const x0 = d341X(sg.fromC);
+        const x1 = d341X(sg.toC);
+        const style = D341_SEGMENT_STYLE[sg.kind];
+        return {
+          tag: 'path',
+          attrs: {
+            d: `M${px(x0).toFixed(2)},${py(a - b * x0).toFixed(2)}L${px(x1).toFixed(2)},${py(a - b * x1).toFixed(2)}`,
+            class: `vt-${sg.kind}`,
+            stroke: CHART_COLOURS.candidate,
+            'stroke-width': '2.5',
+            'stroke-opacity': style.opacity === undefined ? null : String(style.opacity),
+            'stroke-dasharray': style.dash === undefined ? null : String(style.dash),
+            fill: 'none',
+            'clip-path': `url(#${clip})`,
+          },
+          title: sg.kind === 'measured' ? title : `${title} (${sg.kind === 'extrapolated' ? 'extrapolated' : 'below its pour point'})`,
+        };
+      });
+    };
+  }, [xs, ys, xDomain, yDomain, form, f, clip]);
   return (
     <g className="vt-line vt-candidate live-line">
       <defs>
         <ClipToPlot id={clip} />
       </defs>
-      {segments.map((sg, i) => {
-        const x0 = d341X(sg.fromC);
-        const x1 = d341X(sg.toC);
-        const d = `M${px(x0).toFixed(2)},${py(a - b * x0).toFixed(2)}L${px(x1).toFixed(2)},${py(a - b * x1).toFixed(2)}`;
-        return (
-          <path
-            key={i}
-            d={d}
-            className={`vt-${sg.kind}`}
-            stroke={CHART_COLOURS.candidate}
-            strokeWidth={2.5}
-            strokeOpacity={D341_SEGMENT_STYLE[sg.kind].opacity}
-            strokeDasharray={D341_SEGMENT_STYLE[sg.kind].dash}
-            fill="none"
-            clipPath={`url(#${clip})`}
-          >
-            <title>{sg.kind === 'measured' ? title : `${title} (${sg.kind === 'extrapolated' ? 'extrapolated' : 'below its pour point'})`}</title>
-          </path>
-        );
-      })}
+      <LiveGroup specsOf={specsOf} className="live-marks" />
     </g>
   );
 }, 'LiveD341Line');
@@ -184,7 +260,7 @@ export const LiveD341Line = withScales(function LiveD341LineMarks({
 export const LiveMapPoint = withScales(function LiveMapPointMarks({
   xDomain,
   yDomain,
-  toX = (v) => v,
+  toX = identity,
   describe,
   xs,
   ys,
@@ -195,18 +271,26 @@ export const LiveMapPoint = withScales(function LiveMapPointMarks({
   /** The point's title text from its (axis) values. */
   describe?: (x: number, y: number) => string;
 } & Scales) {
-  const live = useLiveMarks((m) => m.point);
   const f = useFormat();
-  if (!live) return null;
-  const px = linear(xs, xDomain);
-  const py = linear(ys, yDomain);
-  if (!px || !py) return null;
-  return (
-    <circle className="live-point" cx={px(toX(live.x))} cy={py(live.y)} r={5} fill={CHART_COLOURS.candidate} stroke="#1d2a2f">
-      <title>{`${live.label}: ${describe ? describe(toX(live.x), live.y) : `${f.num(toX(live.x), 1)}, ${f.num(live.y, 1)}`}`}</title>
-    </circle>
-  );
+  const specsOf = useMemo(() => {
+    const px = linear(xs, xDomain);
+    const py = linear(ys, yDomain);
+    return (m: LiveMarks): MarkSpec[] => {
+      const live = m.point;
+      if (!live || !px || !py) return [];
+      const x = toX(live.x);
+      return [
+        {
+          tag: 'circle',
+          attrs: { class: 'live-point', cx: String(px(x)), cy: String(py(live.y)), r: '5', fill: CHART_COLOURS.candidate, stroke: '#1d2a2f' },
+          title: `${live.label}: ${describe ? describe(x, live.y) : `${f.num(x, 1)}, ${f.num(live.y, 1)}`}`,
+        },
+      ];
+    };
+  }, [xs, ys, xDomain, yDomain, toX, describe, f]);
+  return <LiveGroup specsOf={specsOf} className="live-map-point" />;
 }, 'LiveMapPoint');
+const identity = (v: number) => v;
 
 /**
  * Horizontal bars for each stock on a category y axis: mass % and volume %, or cost. Each series is
@@ -220,43 +304,53 @@ export const LiveBars = withScales(function LiveBarsMarks({
   xs,
   ys,
 }: { which: 'composition' | 'cost'; domain: readonly [number, number]; unit: string } & Scales) {
-  const bars = useLiveMarks((m) => m.bars);
   const f = useFormat();
-  if (!bars) return null;
-  const px = linear(xs, domain);
-  if (!px) return null;
-  const x0 = px(0);
-  const r2 = (v: number) => Math.round(v * 100) / 100;
-  const series =
-    which === 'cost'
-      ? [{ key: 'cost', colour: CHART_COLOURS.cost, value: (r: LiveBar) => r.costPerLitre, slot: 0, slots: 1, say: (r: LiveBar) => `${r.label} ${f.num(r.costPerLitre, 3)}`, title: `Cost, ${unit}` }]
-      : [
-          { key: 'mass', colour: CHART_COLOURS.mass, value: (r: LiveBar) => r.massPct, slot: 0, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.massPct, 2)} %`, title: 'By mass' },
-          { key: 'volume', colour: CHART_COLOURS.volume, value: (r: LiveBar) => r.volumePct, slot: 1, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.volumePct, 2)} %`, title: 'By volume' },
-        ];
-  return (
-    <g className={`live-bars live-bars-${which}`}>
-      {series.map((s) => {
+  const specsOf = useMemo(() => {
+    const px = linear(xs, domain);
+    const series = barSeries(which, unit, f);
+    // Each stock's band on the category axis, looked up once per chart render.
+    const bands = new Map<string, { top: number; band: number } | null>();
+    const bandOf = (label: string) => {
+      let b = bands.get(label);
+      if (b === undefined) {
+        const top = ys(label, { position: 'start' });
+        const bottom = ys(label, { position: 'end' });
+        b = top === undefined || bottom === undefined ? null : { top, band: bottom - top };
+        bands.set(label, b);
+      }
+      return b;
+    };
+    return (m: LiveMarks): MarkSpec[] => {
+      const bars = m.bars;
+      if (!bars || !px) return [];
+      const x0 = px(0);
+      return series.map((s) => {
         let d = '';
         for (const r of bars) {
-          const top = ys(r.label, { position: 'start' });
-          const bottom = ys(r.label, { position: 'end' });
-          if (top === undefined || bottom === undefined) continue;
-          const band = bottom - top;
-          const pad = band * 0.15;
-          const h = (band - 2 * pad) / s.slots;
+          const b = bandOf(r.label);
+          if (!b) continue;
+          const pad = b.band * 0.15;
+          const h = (b.band - 2 * pad) / s.slots;
           const w = Math.max(0, px(s.value(r)) - x0);
-          d += `M${r2(x0)},${r2(top + pad + s.slot * h)}h${r2(w)}v${r2(h)}h${r2(-w)}Z`;
+          d += `M${r2(x0)},${r2(b.top + pad + s.slot * h)}h${r2(w)}v${r2(h)}h${r2(-w)}Z`;
         }
-        return (
-          <path key={s.key} className={`live-bar live-bar-${s.key}`} d={d} fill={s.colour}>
-            <title>{`${s.title}: ${bars.map(s.say).join(', ')}`}</title>
-          </path>
-        );
-      })}
-    </g>
-  );
+        return { tag: 'path', attrs: { class: `live-bar live-bar-${s.key}`, d, fill: s.colour }, title: `${s.title}: ${bars.map(s.say).join(', ')}` };
+      });
+    };
+  }, [xs, ys, domain, which, unit, f]);
+  return <LiveGroup specsOf={specsOf} className={`live-bars live-bars-${which}`} />;
 }, 'LiveBars');
+const r2 = (v: number) => Math.round(v * 100) / 100;
+
+/** The bar series of a composition or cost chart: which value, where in the band, its colour and words. */
+function barSeries(which: 'composition' | 'cost', unit: string, f: Formatter) {
+  return which === 'cost'
+    ? [{ key: 'cost', colour: CHART_COLOURS.cost, value: (r: LiveBar) => r.costPerLitre, slot: 0, slots: 1, say: (r: LiveBar) => `${r.label} ${f.num(r.costPerLitre, 3)}`, title: `Cost, ${unit}` }]
+    : [
+        { key: 'mass', colour: CHART_COLOURS.mass, value: (r: LiveBar) => r.massPct, slot: 0, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.massPct, 2)} %`, title: 'By mass' },
+        { key: 'volume', colour: CHART_COLOURS.volume, value: (r: LiveBar) => r.volumePct, slot: 1, slots: 2, say: (r: LiveBar) => `${r.label} ${f.num(r.volumePct, 2)} %`, title: 'By volume' },
+      ];
+}
 
 /**
  * The blend's batch distribution: the simulated histogram (shaded steps with their outline) and the
@@ -273,37 +367,38 @@ export const LiveDistributionMarks = withScales(function LiveDistributionLayer({
   yDomain: readonly [number, number];
   colours: { histogram: string; curve: string };
 } & Scales) {
-  const live = useLiveMarks((m) => m.distribution);
   const clip = useId().replace(/:/g, '');
-  if (!live) return null;
-  const px = linear(xs, xDomain);
-  const py = linear(ys, yDomain);
-  if (!px || !py) return null;
-  const h = live.histogram;
-  let steps = '';
-  for (let k = 0; k < h.length; k++) {
-    const x = px(h[k]!.kv).toFixed(2);
-    const y = py(h[k]!.y).toFixed(2);
-    // Step after: across to this point's x at the previous height, then up or down to its own.
-    steps += k === 0 ? `M${x},${y}` : `H${x}V${y}`;
-  }
-  const base = py(0).toFixed(2);
-  const area = h.length > 0 ? `M${px(h[0]!.kv).toFixed(2)},${base}${steps.replace(/^M/, 'L')}V${base}Z` : '';
-  const curve = live.curve.map((p, k) => `${k === 0 ? 'M' : 'L'}${px(p.kv).toFixed(2)},${py(p.y).toFixed(2)}`).join('');
+  const specsOf = useMemo(() => {
+    const px = linear(xs, xDomain);
+    const py = linear(ys, yDomain);
+    return (m: LiveMarks): MarkSpec[] => {
+      const live = m.distribution;
+      if (!live || !px || !py) return [];
+      const h = live.histogram;
+      let steps = '';
+      for (let k = 0; k < h.length; k++) {
+        const x = px(h[k]!.kv).toFixed(2);
+        const y = py(h[k]!.y).toFixed(2);
+        // Step after: across to this point's x at the previous height, then up or down to its own.
+        steps += k === 0 ? `M${x},${y}` : `H${x}V${y}`;
+      }
+      const base = py(0).toFixed(2);
+      const area = h.length > 0 ? `M${px(h[0]!.kv).toFixed(2)},${base}${steps.replace(/^M/, 'L')}V${base}Z` : '';
+      let curve = '';
+      for (let k = 0; k < live.curve.length; k++) curve += `${k === 0 ? 'M' : 'L'}${px(live.curve[k]!.kv).toFixed(2)},${py(live.curve[k]!.y).toFixed(2)}`;
+      return [
+        { tag: 'path', attrs: { class: 'live-histogram', d: area, fill: colours.histogram, 'fill-opacity': '0.35', stroke: 'none' }, title: null },
+        { tag: 'path', attrs: { class: 'live-histogram-outline', d: steps, fill: 'none', stroke: colours.histogram }, title: 'simulated batches' },
+        { tag: 'path', attrs: { class: 'live-curve', d: curve, fill: 'none', stroke: colours.curve, 'stroke-width': '2' }, title: 'model' },
+      ];
+    };
+  }, [xs, ys, xDomain, yDomain, colours]);
   return (
     <g className="live-distribution">
       <defs>
         <ClipToPlot id={clip} />
       </defs>
-      <g clipPath={`url(#${clip})`}>
-        <path className="live-histogram" d={area} fill={colours.histogram} fillOpacity={0.35} stroke="none" />
-        <path className="live-histogram-outline" d={steps} fill="none" stroke={colours.histogram}>
-          <title>simulated batches</title>
-        </path>
-        <path className="live-curve" d={curve} fill="none" stroke={colours.curve} strokeWidth={2}>
-          <title>model</title>
-        </path>
-      </g>
+      <LiveGroup specsOf={specsOf} className="live-marks" clipPath={`url(#${clip})`} />
     </g>
   );
 }, 'LiveDistributionMarks');

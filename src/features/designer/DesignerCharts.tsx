@@ -13,7 +13,8 @@ import { componentsById, type Settings } from '../../state';
 import { createRelay, useRelay, type Relay } from '../../components/relay';
 import {
   BatchDistributionChart,
-  batchDistributionData,
+  batchDistributionFromCounts,
+  distributionEdges,
   distributionDomain,
   distributionPeak,
   CompositionChart,
@@ -33,7 +34,7 @@ import type { DraftView } from './derive';
 import { predictRecipe, type Prediction } from './predict';
 import { oxidationClass } from '../../core/scoring/oxidation';
 import { recipeSpreadParts } from '../../core/qc/recipe-spread';
-import { blendLots, monteCarloLots, shareInBand, type MonteCarloLots } from '../../core/qc/monte-carlo';
+import { countBlendedLots, monteCarloLots, type MonteCarloLots } from '../../core/qc/monte-carlo';
 import { fmtProbability } from './PropertiesPanel';
 
 /** Batches simulated for the distribution chart, and the seed (the same picture every time). */
@@ -185,11 +186,13 @@ export default function DesignerCharts({ view, prediction, components, reference
         k.lots = { key: usedKey, components, method: settings.blendMethod, lots };
       }
       const lots = k.lots.lots;
-      let distribution: (ReturnType<typeof batchDistributionData> & { share: number }) | null = null;
+      let distribution: (ReturnType<typeof batchDistributionFromCounts> & { share: number }) | null = null;
       if (inBand && lots && inBand.distribution.sdX > 0) {
         try {
-          const mc = blendLots(lots, recipeSpreadParts(components, usedLines));
-          distribution = { ...batchDistributionData(inBand.distribution, inBand.iso, mc.samples), share: shareInBand(mc.samples, inBand.plant) };
+          // Counted per bin and in the solve band in the blending coordinate (no ν40 per batch).
+          const edges = distributionEdges(inBand.distribution, inBand.iso);
+          const mc = countBlendedLots(lots, recipeSpreadParts(components, usedLines), edges, inBand.plant);
+          distribution = { ...batchDistributionFromCounts(inBand.distribution, edges, mc.counts, mc.samples), share: mc.inBand / mc.samples };
         } catch {
           distribution = null;
         }

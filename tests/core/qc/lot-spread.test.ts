@@ -8,7 +8,7 @@ import {
   DEFAULT_KV40_LOT_SPREAD_PCT,
   type SpreadPart,
 } from '../../../src/core/qc/lot-spread';
-import { blendLots, monteCarloKv40, monteCarloLots, seededNormal, seededUniform, shareInBand } from '../../../src/core/qc/monte-carlo';
+import { blendLots, countBlendedLots, monteCarloKv40, monteCarloLots, seededNormal, seededUniform, shareInBand } from '../../../src/core/qc/monte-carlo';
 import { standardNormalCdf } from '../../../src/core/qc/normal';
 import { refutasVbn } from '../../../src/core/blending/refutas';
 import { BlendbenchInputError, FractionSumError, NonPositiveViscosityError } from '../../../src/core/errors';
@@ -128,6 +128,31 @@ describe('lot spread — against a seeded Monte Carlo of the exact rule', () => 
     // Another set of stocks above 0 % needs lots of its own.
     const lots = monteCarloLots([part(0.5, 100, 0.02), part(0.5, 460, 0.02)], { samples: 10 });
     expect(() => blendLots(lots, [part(0.4, 100, 0.02), part(0.3, 460, 0.02), part(0.3, 30, 0.02)])).toThrow(/draw the lots again/);
+  });
+
+  it('counts blended batches per ν40 interval and in a band in the blending coordinate, as binning the blended ν40 values does', () => {
+    // Identity with blendLots (the same lots and sums, compared in X instead of ν); no external value.
+    for (const method of ['refutas', 'astm-d7152'] as const) {
+      const drawnAt = [part(0.3, 30, 0.03), part(0.5, 460, 0.05, 0.9), part(0.2, 100, 0.08, 0.86)];
+      const lots = monteCarloLots(drawnAt, { samples: 2000, seed: 5, method });
+      const editedTo = [part(0.25, 30, 0.03), part(0.6, 460, 0.05, 0.9), part(0.15, 100, 0.08, 0.86)];
+      for (const parts of [drawnAt, editedTo]) {
+        const samples = Array.from(blendLots(lots, parts).samples);
+        const lo = Math.min(...samples) * 1.02; // some batches below the first edge and above the last
+        const hi = Math.max(...samples) * 0.98;
+        const edges = Array.from({ length: 31 }, (_, k) => lo + ((hi - lo) * k) / 30);
+        const band = { min: samples[7]!, max: samples[11]! > samples[7]! ? samples[11]! : samples[7]! * 1.05 }; // ends ON batches: inclusive
+        const got = countBlendedLots(lots, parts, edges, band);
+        const want = edges.slice(1).map((e, k) => samples.filter((v) => v >= edges[k]! && v < e).length);
+        expect(Array.from(got.counts)).toEqual(want);
+        expect(got.inBand).toBe(samples.filter((v) => v >= band.min && v <= band.max).length);
+        expect(got.inBand / got.samples).toBe(shareInBand(samples, band));
+        expect(got.samples).toBe(2000);
+      }
+    }
+    const lots = monteCarloLots([part(0.5, 100, 0.02), part(0.5, 460, 0.02)], { samples: 10 });
+    expect(() => countBlendedLots(lots, [part(0.5, 100, 0.02), part(0.5, 460, 0.02)], [200, 190, 250], { min: 200, max: 240 })).toThrow(/ascending/);
+    expect(() => countBlendedLots(lots, [part(0.4, 100, 0.02), part(0.3, 460, 0.02), part(0.3, 30, 0.02)], [200, 250], { min: 200, max: 240 })).toThrow(/draw the lots again/);
   });
 
   it('is a pure function of the seed', () => {
