@@ -1,6 +1,7 @@
 import { memo, useId, useMemo } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { plotBox } from './plot-box';
 import { useFormat, type Formatter } from '../format';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
 import { LiveDistributionMarks, useLiveMarksRelay, type DensityPoint, type LiveMarks } from './live';
@@ -81,7 +82,7 @@ export const BatchDistributionChart = memo(function BatchDistributionChart({
   return (
     <figure className="chart" data-chart="batch-distribution" style={{ width }}>
       <figcaption className="chart-title">{CHART_TITLE}</figcaption>
-      <div role="img" aria-label={CHART_TITLE} aria-describedby={descId}>
+      <div role="img" aria-label={CHART_TITLE} aria-describedby={descId} className="chart-plot" style={plotBox(height)}>
         <ComposedChart width={width} height={height} margin={{ top: 8, right: 20, bottom: 28, left: 12 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <ReferenceArea x1={isoBand.min} x2={isoBand.max} fill={CHART_COLOURS.cold} fillOpacity={0.08} ifOverflow="extendDomain" />

@@ -1,6 +1,7 @@
 import { memo, useId, useMemo } from 'react';
 import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { plotBox } from './plot-box';
 import { niceStep, niceTicks, tickDecimals } from './nice';
 import { LiveBars, useLiveMarksRelay, type LiveMarks } from './live';
 import { RelayText } from '../relay';
@@ -36,6 +37,9 @@ export interface CompositionChartProps {
   costMax?: number;
 }
 
+/** Height of a legend line above each bar chart [px] (for the plot's placeholder size while it is off screen). */
+const LEGEND_HEIGHT = 22;
+
 /** Rounds up to a 1–2–5 step. */
 export function roundUp(v: number): number {
   const step = niceStep(v, 10);
@@ -56,7 +60,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
   return (
     <figure className="chart" data-chart="composition" style={{ width }}>
       <figcaption className="chart-title">Composition and cost contribution</figcaption>
-      <div role="img" aria-label="Composition and cost contribution" aria-describedby={descId} className="chart-pair">
+      <div role="img" aria-label="Composition and cost contribution" aria-describedby={descId} className="chart-pair chart-plot" style={plotBox(height + LEGEND_HEIGHT)}>
         <div>
           <ul className="chart-legend" aria-hidden="true">
             <li><span className="block block-mass" /> mass %</li>

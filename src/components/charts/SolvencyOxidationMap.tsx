@@ -1,6 +1,7 @@
 import { memo } from 'react';
 import { CartesianGrid, Cell, ReferenceArea, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
 import { CHART_COLOURS } from './palette';
+import { plotBox } from './plot-box';
 import { niceDomain, niceTicks, tickDecimals } from './nice';
 import { useFormat } from '../format';
 import { LiveMapPoint } from './live';
@@ -79,7 +80,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
   return (
     <figure className="chart" data-chart="solvency-oxidation" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
-      <div role="img" aria-label={`${title}. ${describe}`}>
+      <div role="img" aria-label={`${title}. ${describe}`} className="chart-plot" style={plotBox(height)}>
         <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: formatY ? 84 : 36 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           {riskRegion && (

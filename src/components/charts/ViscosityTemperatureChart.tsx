@@ -17,6 +17,7 @@ import {
 } from './d341-scale';
 import { useFormat } from '../format';
 import { CHART_COLOURS } from './palette';
+import { plotBox } from './plot-box';
 import { LiveD341Line } from './live';
 import { D341_FORM_SHORT, type D341Form } from '../../core/viscosity/viscosity-temperature';
 
@@ -147,7 +148,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
   return (
     <figure className="chart" data-chart="viscosity-temperature" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
-      <div role="img" aria-label={`${title}. ${describe}`}>
+      <div role="img" aria-label={`${title}. ${describe}`} className="chart-plot" style={plotBox(height)}>
         <LineChart width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 28 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <XAxis
