@@ -7,6 +7,8 @@
  * core), and the largest single events.
  *
  * `npx tsx bench/profile/designer-slow-edits.ts <dir> [batches=3] [edits=120]`
+ * `INJECT_CSS='<css>'` adds a style sheet to the page first (e.g. to take a part of the screen out of
+ * layout and see what it cost); `QUIET=1` prints only each batch's p95 and the summary.
  */
 import { setBuiltDir } from '../app-build';
 import { withServedApp } from '../chromium';
