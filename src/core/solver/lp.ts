@@ -112,9 +112,9 @@ export function observeDenseLps(f: ((lp: DenseLp) => void) | null): ((lp: DenseL
  * tableau: the simplex tableau and its two index arrays (grown to the largest LP seen, never
  * shrunk) and one result vector per number of variables.
  *
- * Ownership: a solution returned with a workspace has its `x` in that workspace; it stays valid
- * until the next solve with the same workspace and the same number of variables. Copy it to keep
- * it longer. One workspace serves one solve at a time (the core is synchronous, so a module-level
+ * Ownership: a solution returned with a workspace is the workspace's own answer object, valid
+ * until the next solve with the same workspace; its `x` stays valid until the next solve with the
+ * same workspace and the same number of variables. Copy what you keep longer. One workspace serves one solve at a time (the core is synchronous, so a module-level
  * workspace is safe as long as no caller holds an `x` across another solve).
  *
  * @example
@@ -130,6 +130,8 @@ export class LpWorkspace {
     variableAtPosition: new Int32Array(16),
   };
   private readonly xs: Float64Array[] = [];
+  /** The answer object of every solve with this workspace (overwritten by the next one). */
+  readonly answer: LpSolution = { status: 'failed', x: new Float64Array(0), objective: Number.NaN };
 
   /**
    * A width × height tableau with identity index arrays (yalps' initial state); its matrix entries
@@ -181,8 +183,9 @@ export class LpWorkspace {
  * @param a - row-major coefficients: row r is a[r·n … r·n + n)
  * @param lo - lᵣ per row; −Infinity = no lower bound
  * @param hi - uᵣ per row; +Infinity = no upper bound (lᵣ = uᵣ → an equality)
- * @param ws - optional workspace: no tableau is allocated, and the returned `x` belongs to `ws`
- *   (valid until its next solve with n variables); without it, `x` is a fresh array
+ * @param ws - optional workspace: no tableau is allocated, and the returned answer and its `x`
+ *   belong to `ws` (the answer is valid until its next solve; `x` until its next solve with n
+ *   variables); without it, both are fresh
  * @returns as {@link solveLp}; a simplex that cycles is retried once with cycle detection, then 'failed'
  */
 export function solveDenseLp(
@@ -214,7 +217,7 @@ export function solveDenseLp(
   } else status = code === SIMPLEX_INFEASIBLE ? 'infeasible' : 'unbounded';
   const x = ws ? ws.x(n) : new Float64Array(n);
   if (status !== 'optimal') {
-    return { status: status === 'infeasible' ? 'infeasible' : status === 'unbounded' ? 'unbounded' : 'failed', x, objective: Number.NaN };
+    return answer(ws, status === 'infeasible' ? 'infeasible' : status === 'unbounded' ? 'unbounded' : 'failed', x, Number.NaN);
   }
   const { matrix, width, positionOfVariable } = tableau;
   for (let j = 0; j < n; j++) {
@@ -222,7 +225,17 @@ export function solveDenseLp(
     const v = row >= 0 ? matrix[row * width]! : 0;
     if (v > PRECISION) x[j] = roundToPrecision(v, PRECISION);
   }
-  return { status: 'optimal', x, objective: -sign * value };
+  return answer(ws, 'optimal', x, -sign * value);
+}
+
+/** The answer of a solve: the workspace's own answer object when there is one, else a new one. */
+function answer(ws: LpWorkspace | undefined, status: LpStatus, x: Float64Array, objective: number): LpSolution {
+  if (!ws) return { status, x, objective };
+  const a = ws.answer;
+  a.status = status;
+  a.x = x;
+  a.objective = objective;
+  return a;
 }
 
 /**

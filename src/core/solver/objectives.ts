@@ -79,10 +79,16 @@ function relObjective(P: PreparedProblem, rel: ArrayLike<number>): RatioObjectiv
   return { kind: 'ratio', sense: 'minimize', num, den };
 }
 
-/** The objective the targets ask for (cached on the prepared problem). */
+/**
+ * The objective the targets ask for (cached on the prepared problem in one slot, with the name it
+ * was made for: a copy of the problem with other targets shares the cache).
+ */
 export function primaryObjective(P: PreparedProblem): EngineObjective {
-  const cache = (P.cache.objectives ??= {});
-  return (cache[P.targets.objective] ??= makePrimaryObjective(P));
+  const cache = P.cache;
+  const made = cache.primary;
+  if (made !== undefined && cache.primaryOf === P.targets.objective) return made;
+  cache.primaryOf = P.targets.objective;
+  return (cache.primary = makePrimaryObjective(P));
 }
 
 function makePrimaryObjective(P: PreparedProblem): EngineObjective {

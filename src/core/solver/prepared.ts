@@ -167,7 +167,9 @@ export interface PreparedProblem {
     /** A ν100 [mm²/s] whose U_max reaches ν_lo (any stock at least this thick passes the VI floor test). */
     viSureKv100?: number;
     closest?: Float64Array[];
-    objectives?: Partial<Record<string, EngineObjective>>;
+    /** The objective the targets ask for, and the name it was made for (see `primaryObjective`). */
+    primary?: EngineObjective;
+    primaryOf?: Objective;
     inBand?: unknown;
   };
   readonly reference: ClosestReference | null;
@@ -196,6 +198,24 @@ function constantColumn(which: 'one' | 'zero' | 'nan', n: number): Column {
     CONSTANT_COLUMNS[which] = col;
   }
   return col;
+}
+
+/** Shared read-only lists 0, 1, …, n − 1 (index n), one per size seen: the usable indices when every component is usable. */
+const ALL_INDICES: number[][] = [];
+/** The shared empty list of forced indices (read-only). */
+const NONE: readonly number[] = [];
+
+/** The shared list 0, 1, …, n − 1 (read-only: nothing writes a prepared problem's lists). */
+function allIndices(n: number): readonly number[] {
+  // (No read past the end of the list: that would cost the compiled code a deoptimisation.)
+  let list = n < ALL_INDICES.length ? ALL_INDICES[n] : undefined;
+  if (!list) {
+    list = [];
+    for (let i = 0; i < n; i++) list.push(i);
+    while (ALL_INDICES.length < n) ALL_INDICES.push(undefined as unknown as number[]);
+    ALL_INDICES[n] = list;
+  }
+  return list;
 }
 
 /**
@@ -232,8 +252,10 @@ export function prepareEngine(
   let anyOx = false;
   for (let i = 0; i < n; i++) if (components[i]!.baseFluid && components[i]!.oxidation !== 0) anyOx = true;
   const ox = anyOx ? new Float64Array(n) : constantColumn('zero', n);
-  const forced: number[] = [];
-  const usableIndices: number[] = [];
+  // The lists of forced and usable indices are the shared ones (none forced; every one usable)
+  // until a component differs: most problems allocate neither.
+  let forced: readonly number[] = NONE;
+  let usableIndices: readonly number[] = allIndices(n);
   let anyBounds = false;
   for (let i = 0; i < n; i++) {
     const k = components[i]!;
@@ -248,8 +270,8 @@ export function prepareEngine(
     if (anyOx) (ox as Float64Array)[i] = k.baseFluid ? k.oxidation : 0;
     if (pourMax !== null) (pourRel as Float64Array)[i] = k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
     if (flashMax !== null) (flashRel as Float64Array)[i] = k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
-    if (k.usable) usableIndices.push(i);
-    if (k.min > 0) forced.push(i);
+    if (!k.usable && usableIndices.length === n) usableIndices = allIndices(n).filter((j) => components[j]!.usable);
+    if (k.min > 0) forced = forced === NONE ? [i] : [...forced, i];
     if (k.min > 0 || k.max < 1 || k.fixedAdditive) anyBounds = true;
   }
   const bandA = coords.acceptsKv(targets.kv40Min) ? coords.toXRaw(targets.kv40Min) : coords.toX(targets.kv40Min);
@@ -313,7 +335,7 @@ export function prepareEngine(
     vi,
     // Every slot present from the start (undefined until computed): every problem's cache then has
     // the same shape whatever it computes first, so its look-ups stay monomorphic.
-    cache: { viRoot: undefined, viFloor: undefined, viSureKv100: undefined, closest: undefined, objectives: undefined, inBand: undefined },
+    cache: { viRoot: undefined, viFloor: undefined, viSureKv100: undefined, closest: undefined, primary: undefined, primaryOf: undefined, inBand: undefined },
     reference,
     forced,
     usableIndices,

@@ -82,7 +82,7 @@ const scratch = new NodeScratch();
 
 /**
  * Build and solve the LP for X40 ∈ [a, b] with the given VI relaxation lines — allocation-free:
- * the returned `x` lives in this module's scratch memory and is overwritten by the next node LP
+ * the returned answer and its `x` live in this module's scratch memory and are overwritten by the next node LP
  * (copy it to keep it; {@link solveNode} does).
  */
 export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {

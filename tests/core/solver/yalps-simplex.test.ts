@@ -167,7 +167,7 @@ describe('yalps simplex copy', () => {
     expect(lps.length).toBeGreaterThan(2000);
   });
 
-  it('a workspace result lives in the workspace until its next solve with as many variables', () => {
+  it('a workspace answer lives in the workspace until its next solve (its x: with as many variables)', () => {
     // min x0 + x1, x0 + x1 ≥ 1 → value 1 (by hand; common practice (no source))
     const ws = new LpWorkspace();
     const one = solveDenseLp('minimize', 2, [1, 1], 1, [1, 1], [1], [Infinity], ws);
@@ -175,6 +175,7 @@ describe('yalps simplex copy', () => {
     const kept = one.x.slice();
     // max x0 s.t. x0 ≤ 3, x1 ≤ 2 → x = (3, 0) (by hand)
     const two = solveDenseLp('maximize', 2, [1, 0], 2, [1, 0, 0, 1], [-Infinity, -Infinity], [3, 2], ws);
+    expect(two).toBe(one); // the workspace's one answer object, overwritten
     expect(two.x).toBe(one.x); // the same buffer, overwritten
     expect([...two.x]).toEqual([3, 0]);
     expect(kept[0]! + kept[1]!).toBe(1);
