@@ -129,7 +129,20 @@ export type EngineObjective = RatioObjective | ClosestObjective;
  * afterwards; a column that is one constant for every component is a shared one, possibly longer
  * than the number of components).
  */
-export type Column = Float64Array;
+export type Column = number[];
+
+/**
+ * A new column of n entries, every one written by the caller. A plain array in V8's double
+ * elements kind: for the few components of a plain problem it is a third of the memory of a
+ * Float64Array (an on-heap typed array of four numbers takes some 230 bytes, the array about 80),
+ * and every column has the same kind (the first write of a fraction moves the array there, and an
+ * integer written later stays a double), so that a load from any column compiles to one form.
+ */
+function column(n: number): Column {
+  const col = new Array<number>(n);
+  if (n > 0) col[0] = 0.5; // (any fraction: the double kind; overwritten by the caller)
+  return col;
+}
 
 /**
  * Per-component numbers precomputed once for a set of components, targets and mixing rule;
@@ -185,7 +198,14 @@ export interface PreparedProblem {
 }
 
 /** Shared read-only columns of 1, 0 and NaN (grown to the largest problem seen, never shrunk). */
-const CONSTANT_COLUMNS = { one: new Float64Array(16).fill(1), zero: new Float64Array(16), nan: new Float64Array(16).fill(Number.NaN) };
+const CONSTANT_COLUMNS = { one: filledColumn(16, 1), zero: filledColumn(16, 0), nan: filledColumn(16, Number.NaN) };
+
+/** A column of n entries all equal to v. */
+function filledColumn(n: number, v: number): Column {
+  const col = column(n);
+  for (let i = 0; i < n; i++) col[i] = v;
+  return col;
+}
 
 /**
  * A column of `n` or more entries all equal to 1, 0 or NaN, shared by every prepared problem: a
@@ -194,7 +214,7 @@ const CONSTANT_COLUMNS = { one: new Float64Array(16).fill(1), zero: new Float64A
 function constantColumn(which: 'one' | 'zero' | 'nan', n: number): Column {
   let col = CONSTANT_COLUMNS[which];
   if (col.length < n) {
-    col = new Float64Array(Math.max(n, 2 * col.length)).fill(which === 'one' ? 1 : which === 'zero' ? 0 : Number.NaN);
+    col = filledColumn(Math.max(n, 2 * col.length), which === 'one' ? 1 : which === 'zero' ? 0 : Number.NaN);
     CONSTANT_COLUMNS[which] = col;
   }
   return col;
@@ -234,24 +254,23 @@ export function prepareEngine(
 ): PreparedProblem {
   const coords = blendCoordinates(method);
   const n = components.length;
-  // One typed array per column, sized once (small ones live on the heap with their object: one
-  // allocation each, no growth, less garbage than plain arrays grown by push).
-  const x40 = new Float64Array(n);
-  const x100 = new Float64Array(n);
-  const invRho = new Float64Array(n);
-  const ap = new Float64Array(n);
-  const price = new Float64Array(n);
+  // One array per column, sized once (see `column`).
+  const x40 = column(n);
+  const x100 = column(n);
+  const invRho = column(n);
+  const ap = column(n);
+  const price = column(n);
   const pourMax = targets.maxPourPoint === null ? null : pourBlendingIndex(targets.maxPourPoint);
   const flashMax = targets.minFlashPoint === null ? null : flashBlendingIndex(targets.minFlashPoint);
   // Columns that are the same constant for every component share one read-only column of that
   // constant (no array of their own): the basis weight of a mass-basis rule (1), the pour and flash
   // indices without a limit (NaN), the oxidation ratings when every one is 0.
-  const c = coords.massBasis ? constantColumn('one', n) : new Float64Array(n);
-  const pourRel = pourMax === null ? constantColumn('nan', n) : new Float64Array(n);
-  const flashRel = flashMax === null ? constantColumn('nan', n) : new Float64Array(n);
+  const c = coords.massBasis ? constantColumn('one', n) : column(n);
+  const pourRel = pourMax === null ? constantColumn('nan', n) : column(n);
+  const flashRel = flashMax === null ? constantColumn('nan', n) : column(n);
   let anyOx = false;
   for (let i = 0; i < n; i++) if (components[i]!.baseFluid && components[i]!.oxidation !== 0) anyOx = true;
-  const ox = anyOx ? new Float64Array(n) : constantColumn('zero', n);
+  const ox = anyOx ? column(n) : constantColumn('zero', n);
   // The lists of forced and usable indices are the shared ones (none forced; every one usable)
   // until a component differs: most problems allocate neither.
   let forced: readonly number[] = NONE;
@@ -264,12 +283,12 @@ export function prepareEngine(
     x40[i] = coords.acceptsKv(k.kv40) ? coords.toXRaw(k.kv40) : coords.toX(k.kv40);
     x100[i] = coords.acceptsKv(k.kv100) ? coords.toXRaw(k.kv100) : coords.toX(k.kv100);
     invRho[i] = 1 / k.density15;
-    if (!coords.massBasis) (c as Float64Array)[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
+    if (!coords.massBasis) c[i] = coords.basisWeight(k.kv40, k.kv100, k.density15);
     ap[i] = k.anilinePoint === null ? Number.NaN : k.anilinePoint;
     price[i] = k.pricePerKg;
-    if (anyOx) (ox as Float64Array)[i] = k.baseFluid ? k.oxidation : 0;
-    if (pourMax !== null) (pourRel as Float64Array)[i] = k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
-    if (flashMax !== null) (flashRel as Float64Array)[i] = k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
+    if (anyOx) ox[i] = k.baseFluid ? k.oxidation : 0;
+    if (pourMax !== null) pourRel[i] = k.pourPoint !== null ? pourBlendingIndex(k.pourPoint) / pourMax : Number.NaN;
+    if (flashMax !== null) flashRel[i] = k.flashPoint !== null ? flashBlendingIndex(k.flashPoint) / flashMax : Number.NaN;
     if (!k.usable && usableIndices.length === n) usableIndices = allIndices(n).filter((j) => components[j]!.usable);
     if (k.min > 0) forced = forced === NONE ? [i] : [...forced, i];
     if (k.min > 0 || k.max < 1 || k.fixedAdditive) anyBounds = true;
