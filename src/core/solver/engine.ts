@@ -229,7 +229,8 @@ export function solvePrepared(
 /**
  * Properties of a solution in plain numbers (the same equations as the core). ν40, ν100 and the VI
  * are taken from the VI check of the branch and bound where it computed them on these very
- * fractions (no simplex dust dropped), else computed here.
+ * fractions (no simplex dust dropped), else computed here. Takes `w` over (the optimisation's own
+ * array): when the variables are every component in order, it becomes the answer's fractions.
  */
 function finish(
   P: PreparedProblem,
@@ -240,7 +241,8 @@ function finish(
   lazy: InBandSeparator | null,
   checked: OptimiseOutcome,
 ): EngineOptimal {
-  const massFractions = new Float64Array(P.n);
+  // (The prepared list of usable indices with every component in it is 0, 1, …, n − 1.)
+  const massFractions = vars === P.usableIndices && vars.length === P.n && w.length === P.n ? w : new Float64Array(P.n);
   let sv = 0;
   let sp = 0;
   let sa = 0;
