@@ -3,6 +3,9 @@ import { createRoot } from 'react-dom/client';
 import { App, fetchOpeningScreen } from './app/App';
 import { setOpeningDraw } from './components/row-window';
 import './app/app.css';
+// The default opening screen's styles come with the page's own: its code then loads without a
+// stylesheet of its own to fetch and wait for, and the page's style is worked out once.
+import './features/library/library.css';
 
 const root = document.getElementById('root');
 if (!root) throw new Error('Blendbench: #root element missing from index.html');
