@@ -342,7 +342,26 @@ function runToEnd(p: ImportPreviewer): ImportPreview {
 }
 
 /** A CSV import checked row by row (see ImportPreviewer). Never throws; changes nothing. */
-export function csvPreviewer(text: string, existing: readonly Component[]): ImportPreviewer {
+/** How the preview writes numbers of its own (the user's settings). */
+export interface ImportPreviewOptions {
+  /**
+   * The decimal separator of the settings: the notation of a "could mean 1.25 or 1250" refusal when the
+   * file's other numbers do not tell which mark it uses (default ".").
+   */
+  decimalSeparator?: '.' | ',';
+}
+
+/**
+ * The two readings of a cell whose one mark could group thousands or mark decimals, written as the
+ * blender will recognise them: the decimal reading with the file's own decimal mark (or, when the
+ * file does not tell, the settings'), the whole-number reading without a thousands mark; "−" for minus.
+ */
+function couldMeanText(could: readonly [number, number], mark: ',' | '.'): [string, string] {
+  const say = (v: number) => `${v < 0 ? '−' : ''}${String(Math.abs(v)).replace('.', mark)}`;
+  return [say(could[0]), say(could[1])];
+}
+
+export function csvPreviewer(text: string, existing: readonly Component[], opts: ImportPreviewOptions = {}): ImportPreviewer {
   try {
     if (text.length > MAX_IMPORT_CHARS) return settled(summarise('csv', [`The file is larger than ${MAX_IMPORT_CHARS / 1e6} MB.`], []));
     // Delimiter from the header line: papaparse's own guess re-parses the text once per candidate
@@ -418,10 +437,11 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
           return null;
         }
         if (typeof v === 'object' && v !== null) {
-          const uses = fileMark === ',' || fileMark === '.' ? `this file’s other numbers use “${fileMark}” as the decimal mark` : 'the file’s other numbers do not tell which mark is the decimal mark';
-          errors.push(
-            `${label}: “${clip(get(c).trim(), 30)}” could mean ${v.could[0]} or ${v.could[1]} (${uses}). Write it without a thousands mark, with the file’s decimal mark`,
-          );
+          const told = fileMark === ',' || fileMark === '.';
+          const uses = told ? `this file’s other numbers use “${fileMark}” as the decimal mark` : 'the file’s other numbers do not tell which mark is the decimal mark';
+          // Both readings in the file's notation (or the settings' when the file does not tell).
+          const [asDecimal, asWhole] = couldMeanText(v.could, told ? fileMark : (opts.decimalSeparator ?? '.'));
+          errors.push(`${label}: “${clip(get(c).trim(), 30)}” could mean ${asDecimal} or ${asWhole} (${uses}). Write it without a thousands mark, with the file’s decimal mark`);
           return null;
         }
         return v;
@@ -509,8 +529,8 @@ export function csvPreviewer(text: string, existing: readonly Component[]): Impo
 }
 
 /** Preview a CSV import in one go. Never throws; changes nothing. */
-export function previewCsv(text: string, existing: readonly Component[]): ImportPreview {
-  return runToEnd(csvPreviewer(text, existing));
+export function previewCsv(text: string, existing: readonly Component[], opts: ImportPreviewOptions = {}): ImportPreview {
+  return runToEnd(csvPreviewer(text, existing, opts));
 }
 
 const jsonFileSchema = z.union([
@@ -573,12 +593,12 @@ export function previewJson(text: string, existing: readonly Component[]): Impor
 }
 
 /** A previewer chosen by file name (".json" → JSON, anything else → CSV). */
-export function libraryImportPreviewer(fileName: string, text: string, existing: readonly Component[]): ImportPreviewer {
-  return /\.json$/i.test(fileName.trim()) ? jsonPreviewer(text, existing) : csvPreviewer(text, existing);
+export function libraryImportPreviewer(fileName: string, text: string, existing: readonly Component[], opts: ImportPreviewOptions = {}): ImportPreviewer {
+  return /\.json$/i.test(fileName.trim()) ? jsonPreviewer(text, existing) : csvPreviewer(text, existing, opts);
 }
 
 /** Preview by file name (".json" → JSON, anything else → CSV), in one go. */
-export function previewLibraryImport(fileName: string, text: string, existing: readonly Component[]): ImportPreview {
-  return runToEnd(libraryImportPreviewer(fileName, text, existing));
+export function previewLibraryImport(fileName: string, text: string, existing: readonly Component[], opts: ImportPreviewOptions = {}): ImportPreview {
+  return runToEnd(libraryImportPreviewer(fileName, text, existing, opts));
 }
 

@@ -88,9 +88,9 @@ describe('CSV import preview', () => {
     expect(tab.valid).toBe(false);
     expect(tab.rows[0]!.line).toBe(2);
     expect(tab.rows[0]!.errors).toEqual([expect.stringMatching(/^price: “1,250” could mean 1\.25 or 1250 \(this file’s other numbers use “\.” as the decimal mark\)/)]);
-    // A semicolon file whose other numbers use ",": "1.250" is refused the same way …
+    // A semicolon file whose other numbers use ",": "1.250" is refused the same way, its readings written with "," (s20) …
     const semi = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price;price_basis\nNEW-1;group-ii;100;11;0,87;1.250;per-tonne\n', lib);
-    expect(semi.rows[0]!.errors).toEqual([expect.stringMatching(/^price: “1\.250” could mean 1\.25 or 1250 \(this file’s other numbers use “,”/)]);
+    expect(semi.rows[0]!.errors).toEqual([expect.stringMatching(/^price: “1\.250” could mean 1,25 or 1250 \(this file’s other numbers use “,”/)]);
     // … while its "1,250" is a decimal comma, as every other number of the file (no calculation).
     const semiOk = previewCsv('code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price\nNEW-1;group-ii;100;11;0,87;1,250\n', lib);
     expect(semiOk.valid).toBe(true);

@@ -45,6 +45,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
   const run = useRef<ImportHandle | null>(null);
   const inputRef = useRef<HTMLInputElement>(null);
   const components = useLibrary((s) => s.components);
+  const decimalSeparator = useSettings().decimalSeparator;
 
   useEffect(() => () => run.current?.cancel(), []);
 
@@ -63,7 +64,8 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
       setPreview(emptyPreview(`The file could not be read: ${(e as Error).message}`));
       return;
     }
-    const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }));
+    // A "could mean 1.25 or 1250" the file does not settle is written with the settings' decimal separator.
+    const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }), { decimalSeparator });
     run.current = handle;
     const outcome = await handle.outcome;
     if (run.current !== handle) return; // a newer file was chosen

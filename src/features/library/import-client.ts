@@ -4,7 +4,7 @@
  * callbacks, a promise for the outcome, and cancel.
  */
 import type { Component } from '../../core/formulation/model';
-import type { ImportPreview } from '../../state/library-import';
+import type { ImportPreview, ImportPreviewOptions } from '../../state/library-import';
 import type { FromImportWorker, ToImportWorker } from './import-protocol';
 import { runImportPreview } from './import-runner';
 
@@ -42,6 +42,7 @@ export function startImportPreview(
   text: string,
   existing: readonly Component[],
   onProgress: (done: number, total: number) => void,
+  options: ImportPreviewOptions = {},
 ): ImportHandle {
   const runId = nextRunId++;
   let worker: ImportWorkerLike | null = null;
@@ -72,9 +73,9 @@ export function startImportPreview(
   if (worker) {
     worker.onmessage = (e) => onMessage(e.data);
     worker.onerror = (e) => settle({ kind: 'error', message: e.message || 'The import check stopped unexpectedly.' });
-    worker.postMessage({ type: 'start', runId, fileName, text, existing: [...existing] });
+    worker.postMessage({ type: 'start', runId, fileName, text, existing: [...existing], options });
   } else {
-    void runImportPreview(runId, fileName, text, existing, onMessage, () => cancelled);
+    void runImportPreview(runId, fileName, text, existing, onMessage, () => cancelled, { preview: options });
   }
   return {
     outcome,

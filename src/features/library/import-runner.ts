@@ -4,7 +4,7 @@
  * between slices so a cancel can arrive.
  */
 import type { Component } from '../../core/formulation/model';
-import { libraryImportPreviewer } from '../../state/library-import';
+import { libraryImportPreviewer, type ImportPreviewOptions } from '../../state/library-import';
 import type { FromImportWorker } from './import-protocol';
 
 export interface ImportRunnerOptions {
@@ -12,6 +12,8 @@ export interface ImportRunnerOptions {
   sliceMs?: number;
   now?: () => number;
   yieldNow?: () => Promise<void>;
+  /** How the preview writes numbers of its own (the settings' decimal separator). */
+  preview?: ImportPreviewOptions | undefined;
 }
 
 export async function runImportPreview(
@@ -27,7 +29,7 @@ export async function runImportPreview(
   const now = opts.now ?? (() => performance.now());
   const yieldNow = opts.yieldNow ?? (() => new Promise<void>((r) => setTimeout(r, 0)));
   try {
-    const previewer = libraryImportPreviewer(fileName, text, existing);
+    const previewer = libraryImportPreviewer(fileName, text, existing, opts.preview);
     post({ type: 'progress', runId, done: 0, total: previewer.total });
     let budget = 200;
     while (previewer.done < previewer.total) {

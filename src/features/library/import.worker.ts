@@ -13,6 +13,6 @@ scope.onmessage = (e: MessageEvent<ToImportWorker>) => {
     return;
   }
   void runImportPreview(msg.runId, msg.fileName, msg.text, msg.existing, (m: FromImportWorker) => scope.postMessage(m), () =>
-    cancelled.has(msg.runId),
+    cancelled.has(msg.runId), { preview: msg.options },
   );
 };
