@@ -171,3 +171,48 @@ describe('recipe lifecycle', () => {
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('specification typed in one tab, saved in another (s20 defect 2)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('keeps this tab’s unsaved limits when another tab saves the specification, shows both, and lets the blender choose', async () => {
+    const a = s.page;
+    await a.goto(`${inject('baseURL')}#/recipes`);
+    await a.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    const list = a.getByTestId('recipe-list');
+    await list.getByRole('button', { name: /VG 220 — current recipe/ }).click();
+    await a.getByRole('button', { name: 'Duplicate' }).click();
+    await a.getByRole('button', { name: 'Save specification' }).waitFor(); // the copy is a draft
+    const draftName = (await a.locator('.recipes-table tr.selected th button').innerText()).trim();
+    // The other tab opens the same draft.
+    const b = await s.newPage();
+    await b.goto(`${inject('baseURL')}#/recipes`);
+    await b.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    await b.getByTestId('recipe-list').getByRole('button', { name: draftName, exact: true }).click();
+    // This tab types a VI minimum (invented), not saved.
+    await a.getByLabel('VI minimum').fill('97');
+    await a.getByLabel('VI minimum').press('Tab');
+    // The other tab saves a different one.
+    await b.getByLabel('VI minimum').fill('92');
+    await b.getByLabel('VI minimum').press('Tab');
+    await b.getByRole('button', { name: 'Save specification' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes')), { timeout: 5000 }).toContain('"viMin":92');
+    // This tab keeps its typed value and says the stored one changed, with both values.
+    await a.getByTestId('spec-changed-elsewhere').waitFor();
+    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('97');
+    await expect(a.getByTestId('spec-changed-elsewhere').innerText()).resolves.toMatch(/VI minimum: saved 92, yours 97/);
+    await expect(a.getByRole('button', { name: 'Save specification' }).isDisabled()).resolves.toBe(true);
+    await screenshot(a, 'recipes-spec-saved-elsewhere');
+    await a.getByRole('button', { name: 'Keep my limits' }).click();
+    await a.getByRole('button', { name: 'Save specification' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('"viMin":97');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});

@@ -408,6 +408,27 @@ function RecipeDetail({
   );
 }
 
+/** The limits a label names, as the form shows them. */
+const SPEC_FIELDS: readonly [keyof ReleaseSpecification, string, 'text' | 'num' | 'temp', number][] = [
+  ['reference', 'Specification reference', 'text', 0],
+  ['kv100Min', 'ν100 minimum', 'num', 2],
+  ['kv100Max', 'ν100 maximum', 'num', 2],
+  ['viMin', 'VI minimum', 'num', 0],
+  ['density15Min', 'Density at 15 °C, minimum', 'num', 4],
+  ['density15Max', 'Density at 15 °C, maximum', 'num', 4],
+  ['flashMin', 'Flash point minimum', 'temp', 0],
+  ['pourMax', 'Pour point maximum', 'temp', 0],
+  ['copper', 'Copper strip corrosion', 'text', 0],
+  ['foam', 'Foaming', 'text', 0],
+];
+
+/** Each limit that differs between the stored specification and the one typed, "label: saved x, yours y". */
+function specDifferences(stored: ReleaseSpecification, typed: ReleaseSpecification, fmt: ReturnType<typeof useFormat>): string[] {
+  const say = (v: unknown, kind: 'text' | 'num' | 'temp', dp: number) =>
+    v === null || v === '' ? 'blank' : kind === 'text' ? `“${String(v)}”` : kind === 'temp' ? fmt.temp(v as number, dp) : fmt.num(v as number, dp);
+  return SPEC_FIELDS.filter(([k]) => stored[k] !== typed[k]).map(([k, label, kind, dp]) => `${label}: saved ${say(stored[k], kind, dp)}, yours ${say(typed[k], kind, dp)}`);
+}
+
 /** The product specification's release limits; blank → "per specification" on the sheet. */
 function SpecificationForm({
   recipe,
@@ -423,8 +444,19 @@ function SpecificationForm({
   const [spec, setSpec] = useState<ReleaseSpecification>(() => structuredClone(recipe.specification));
   const specIssue = specificationGradeIssue({ grade: recipe.grade, specification: spec });
   const [reason, setReason] = useState('');
-  useEffect(() => setSpec(structuredClone(recipe.specification)), [recipe.specification]);
-  const changed = JSON.stringify(spec) !== JSON.stringify(recipe.specification);
+  // The stored specification the limits typed here began from. When the stored one changes elsewhere
+  // (another tab's save, an undo), the form follows it only if nothing typed here is unsaved; else it
+  // keeps the typed limits and shows both, and the blender chooses — neither side is dropped silently.
+  const [base, setBase] = useState<ReleaseSpecification>(recipe.specification);
+  const same = (a: ReleaseSpecification, b: ReleaseSpecification) => JSON.stringify(a) === JSON.stringify(b);
+  const unsaved = !same(spec, base);
+  const elsewhere = recipe.specification !== base && !same(recipe.specification, base) && unsaved && !same(spec, recipe.specification);
+  useEffect(() => {
+    if (recipe.specification === base || elsewhere) return;
+    if (!unsaved) setSpec(structuredClone(recipe.specification));
+    setBase(recipe.specification);
+  }, [recipe.specification, base, unsaved, elsewhere]);
+  const changed = !same(spec, recipe.specification);
   const revising = recipe.status !== 'draft';
   const set = (patch: Partial<ReleaseSpecification>) => setSpec((s) => ({ ...s, ...patch }));
   const pairError = (lo: number | null, hi: number | null, what: string) =>
@@ -487,6 +519,34 @@ function SpecificationForm({
           {errors.join('; ')}.
         </p>
       )}
+      {elsewhere && (
+        <Notice
+          tone="warning"
+          title="This specification was saved elsewhere while you were typing"
+          actions={
+            <>
+              <button type="button" onClick={() => setBase(recipe.specification)}>
+                Keep my limits
+              </button>
+              <button
+                type="button"
+                onClick={() => {
+                  setSpec(structuredClone(recipe.specification));
+                  setBase(recipe.specification);
+                }}
+              >
+                Use the saved limits
+              </button>
+            </>
+          }
+        >
+          <p data-testid="spec-changed-elsewhere">
+            The stored specification of “{recipe.name}” was saved elsewhere (in another tab, or by an undo) since you began
+            typing; your unsaved limits are kept in the form. Where they differ: {specDifferences(recipe.specification, spec, fmt).join('; ')}.
+            Choose which to keep: <em>Keep my limits</em> (then save them over it) or <em>Use the saved limits</em>.
+          </p>
+        </Notice>
+      )}
       {changed && revising && (
         <p>
           <label htmlFor={`${id}-reason`}>Reason for change (required: an approved recipe is never overwritten)</label>{' '}
@@ -509,10 +569,18 @@ function SpecificationForm({
       <div className="button-row">
         <button
           type="button"
-          disabled={!changed || errors.length > 0 || reasonProblem !== null || (revising && !reason.trim())}
+          disabled={!changed || elsewhere || errors.length > 0 || reasonProblem !== null || (revising && !reason.trim())}
+          title={elsewhere ? 'Choose first: keep your limits or use the saved ones' : undefined}
           onClick={() => {
             // Limits saved on this form are the recipe's own: written for its grade.
-            const savedId = recipeActions.saveChanges(recipe.id, { specification: { ...spec, grade: recipe.grade } }, reason.trim() || recipe.reasonForChange);
+            const saving = { ...spec, grade: recipe.grade };
+            const savedId = recipeActions.saveChanges(recipe.id, { specification: saving }, reason.trim() || recipe.reasonForChange);
+            // What this form saved is what it now began from (not a change made elsewhere).
+            const stored = useRecipes.getState().recipes.find((r) => r.id === recipe.id)?.specification;
+            if (stored && savedId === recipe.id) {
+              setSpec(structuredClone(stored));
+              setBase(stored);
+            }
             setReason('');
             onSaved(
               savedId,
