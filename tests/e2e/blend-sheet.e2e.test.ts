@@ -315,3 +315,41 @@ describe('blend sheet', () => {
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('blend sheet past one page (s20 defect 3)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('every printed page carries the product, grade, lot / batch and "Page n of m"', async () => {
+    const { page } = s;
+    await openSheet(page, 'demo-vg460');
+    await page.getByLabel('Batch / lot no.').fill('L-2026-0777');
+    await page.getByLabel('Batch size', { exact: true }).fill('8000');
+    // Very long instructions (invented steps) run the sheet past one page.
+    await page.getByRole('button', { name: 'Edit instructions' }).click();
+    const steps = Array.from({ length: 90 }, (_, i) => `Invented step ${i + 1}: check the vessel temperature and record it on the log.`).join('\n');
+    await page.getByLabel('Instructions, one step per line').fill(steps);
+    await page.getByRole('button', { name: 'Done editing' }).click();
+    const pdf = await printPdf(page, 'blend-sheet-long-instructions');
+    toPng(pdf, 'blend-sheet-long-instructions');
+    const pages = pdfPages(pdf);
+    expect(pages).toBeGreaterThanOrEqual(2);
+    const name = (await page.getByRole('article', { name: 'Printable blend sheet' }).locator('.bs-fields dd').first().innerText()).trim();
+    // pdftotext may drop the spaces of a justified line: compare without white space.
+    const squash = (t: string) => t.replace(/\s+/g, '');
+    for (let n = 1; n <= pages; n++) {
+      const text = squash(execFileSync('pdftotext', ['-layout', '-f', String(n), '-l', String(n), pdf, '-'], { encoding: 'utf8' }));
+      expect(text).toContain(squash(name));
+      expect(text).toContain('ISOVG460');
+      expect(text).toContain('L-2026-0777');
+      expect(text).toMatch(/8\D?000\.0kg/);
+      expect(text).toContain(`Page${n}of${pages}`);
+    }
+    expect(s.errors).toEqual([]);
+  });
+});

@@ -34,6 +34,7 @@ import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, rec
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
+import { pageRule } from './page-header';
 import '../../components/print.css';
 import './blend-sheet.css';
 
@@ -416,7 +417,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
   return (
     <section className="bs-screen" aria-labelledby={`${id}-h`} data-print={printDoc}>
-      <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 8mm 10mm; }`}</style>
+      {/* Every printed page names its product, grade, lot and batch, and says "Page n of m". */}
+      <style>{pageRule(paper, { product: recipe.name, grade: recipe.grade, lot, batch: sheet ? batchText : '' })}</style>
       <div className="bs-controls bs-no-print">
         <h2 id={`${id}-h`}>Blend sheet</h2>
         <div className="bs-control-row">
