@@ -26,6 +26,7 @@ export {
 // Viscosity index — ASTM D2270
 export {
   viscosityIndex,
+  kv40FromViscosityIndex,
   reportedViscosityIndex,
   referenceViscosities,
   roundHalfEven,
@@ -295,8 +296,13 @@ export {
   isBlankSpecification,
   gradeNamedIn,
   inferSpecificationGrades,
+  gradeFromKv100Limits,
+  gradeAmongFromKv100Limits,
+  specificationGradeChoices,
+  TYPICAL_GEAR_OIL_VI,
   UNKNOWN_SPECIFICATION_GRADE,
 } from './recipes/specification-grade';
+export type { SpecificationHolder } from './recipes/specification-grade';
 export { approvalRefusal, currentApprovedRevision } from './recipes/approval';
 
 // Release hold: why a blend sheet is not for release

@@ -33,6 +33,7 @@
  *     | saveRevision(id, changes, reason) → new id  (always a new draft revision that supersedes id)
  *     | approveRecipe(id) → null | why refused (the recipe it supersedes becomes superseded) | renameRecipe(id, name)
  *     | setArchived(id, bool) | duplicateRecipe(id, name?) → id | removeRecipe(id) (undoable)
+ *     | confirmSpecificationGrade(id, grade) → null | why refused (names the grade of a specification left unknown by the upgrade; any status)
  *     | setActiveRecipe(id) | setTargets(recipeId, BlendTargets) (drafts only; returns a refusal message otherwise)
  *     | setSheetInputs(recipeId, Partial<SheetInputs>) (blend-sheet lot, batch size/unit, vessel, edited
  *       instructions; saved, not an undo step; read with useRecipes(s => s.sheets[id]))
@@ -117,6 +118,7 @@ export const recipeActions = {
   saveRevision: (id: string, changes: RecipeChanges, reason: string) => useRecipesStore.getState().saveRevision(id, changes, reason),
   approveRecipe: (id: string): string | null => useRecipesStore.getState().approveRecipe(id),
   renameRecipe: (id: string, name: string) => useRecipesStore.getState().renameRecipe(id, name),
+  confirmSpecificationGrade: (id: string, grade: number) => useRecipesStore.getState().confirmSpecificationGrade(id, grade),
   setArchived: (id: string, archived: boolean) => useRecipesStore.getState().setArchived(id, archived),
   duplicateRecipe: (id: string, name?: string) => useRecipesStore.getState().duplicateRecipe(id, name),
   removeRecipe: (id: string) => useRecipesStore.getState().removeRecipe(id),

@@ -7,6 +7,7 @@ import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../core/formulation/mod
 import { recordStockBasis } from '../core/recipes/stock-basis';
 import { approvalRefusal } from '../core/recipes/approval';
 import { inferSpecificationGrades, isBlankSpecification } from '../core/recipes/specification-grade';
+import { ISO_GRADE_NUMBERS } from '../core/viscosity/iso-grades';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
 import { newId } from './ids';
@@ -149,6 +150,13 @@ export interface RecipesState extends RecipesData {
   approveRecipe: (id: string) => string | null;
   /** Rename a recipe (any status). Null, or why the name was refused. */
   renameRecipe: (id: string, name: string) => string | null;
+  /**
+   * Record the grade a specification of unknown grade (left so by the schema 8 → 9 upgrade) was written
+   * for, as the blender confirms it: one step, one undo step, on a recipe of any status — no limit
+   * changes, it only names the grade the specification already had. Null, or why it was refused (the
+   * link is already known, the specification is blank, the grade is not an ISO grade).
+   */
+  confirmSpecificationGrade: (id: string, grade: number) => string | null;
   /** Archive (hide from the pickers) or restore a recipe. */
   setArchived: (id: string, archived: boolean) => void;
   /** Copy a recipe as a new, unlinked draft (revision 1, not a reference); returns the new id. Throws FieldRuleError. */
@@ -215,7 +223,16 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
       const data = d as { recipes?: unknown };
       if (!Array.isArray(data.recipes)) throw new Error('recipes is not a list');
       const recipes = data.recipes as Array<Record<string, unknown> & Pick<Recipe, 'grade' | 'specification'>>;
-      const grades = inferSpecificationGrades(recipes.map((r) => ({ grade: r.grade, specification: { ...BLANK_SPECIFICATION, ...r.specification } })));
+      // Every clue the stored records hold: the recipe's grade, the ν100 limits against the ISO 3448
+      // bands, and the recipe the specification was first saved on (its revisions' `supersedes`).
+      const grades = inferSpecificationGrades(
+        recipes.map((r) => ({
+          id: typeof r.id === 'string' ? r.id : undefined,
+          supersedes: typeof r.supersedes === 'string' ? r.supersedes : null,
+          grade: r.grade,
+          specification: { ...BLANK_SPECIFICATION, ...r.specification },
+        })),
+      );
       return { ...(d as object), recipes: recipes.map((r, i) => ({ ...r, specification: { ...r.specification, grade: grades[i] } })) };
     },
     // Schema 7 had no QC-loop entries: every recipe starts with none.
@@ -467,6 +484,14 @@ export const useRecipesStore = create<RecipesState>()(
             return null;
           },
           renameRecipe: (id, name) => changeRecipe(id, (x) => ({ ...x, name })),
+          confirmSpecificationGrade: (id, grade) => {
+            const r = get().recipes.find((x) => x.id === id);
+            if (!r) return `no recipe ${id}`;
+            if (!ISO_GRADE_NUMBERS.includes(grade)) return `VG ${grade} is not an ISO viscosity grade`;
+            if (isBlankSpecification(r.specification)) return 'the specification is blank: it fits every grade';
+            if (r.specification.grade !== null) return `the specification is already linked to VG ${r.specification.grade}`;
+            return changeRecipe(id, (x) => ({ ...x, specification: { ...x.specification, grade } }));
+          },
           setArchived: (id, archived) => void changeRecipe(id, (x) => ({ ...x, archived })),
           duplicateRecipe: (id, name) => {
             const src = get().recipes.find((r) => r.id === id);

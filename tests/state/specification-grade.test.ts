@@ -69,6 +69,29 @@ describe('the specification names the grade it was written for (schema 9)', () =
     });
   });
 
+  it('uses every clue of the stored record: the revision a specification was carried to, and its ν100 limits; unknown only when still ambiguous (s20 defect 5)', () => {
+    const ref320 = get('demo-vg320');
+    const carried = { ...BLANK_SPECIFICATION, reference: 'Plant spec 7', viMin: 92 };
+    // ν100 limits of a VG 320 oil (ISO 3448 mid-point 320 mm²/s; ν100 23.96 mm²/s at VI 95 by ASTM D2270,
+    // as in tests/core/recipes/specification-grade.test.ts), ±5 % (common practice (no source)).
+    const withKv100 = { ...BLANK_SPECIFICATION, reference: 'Plant spec 9', kv100Min: 22.8, kv100Max: 25.2, viMin: 90 };
+    const old: Recipe[] = [
+      ...useRecipes.getState().recipes,
+      { ...ref320, id: 'origin', name: 'origin 320', status: 'approved', isReference: false, supersedes: null, specification: { ...carried } },
+      { ...ref320, id: 'rev460', name: 'revision in 460', grade: 460, revision: 2, status: 'draft', isReference: false, supersedes: 'origin', specification: { ...carried } },
+      { ...ref320, id: 'k320', name: 'k 320', status: 'draft', isReference: false, supersedes: null, specification: { ...withKv100 } },
+      { ...ref320, id: 'k460', name: 'k 460', grade: 460, status: 'draft', isReference: false, supersedes: null, specification: { ...withKv100 } },
+    ];
+    const up = interpretStored(RECIPES_SPEC, { state: asSchema8(old), version: 8 });
+    expect(up.kind).toBe('ok');
+    if (up.kind !== 'ok') return;
+    expect(up.data.recipes).toHaveLength(old.length);
+    const link = (id: string) => up.data.recipes.find((r) => r.id === id)!.specification.grade;
+    expect([link('origin'), link('rev460'), link('k320'), link('k460')]).toEqual([320, 320, 320, 320]);
+    // The VG 460 revision carries the VG 320 specification: flagged as such, not "unknown".
+    expect(specificationGradeIssue(up.data.recipes.find((r) => r.id === 'rev460')!)).toEqual({ kind: 'other-grade', specificationGrade: 320, recipeGrade: 460 });
+  });
+
   it('a backup carries the link, and an older backup (schema 8) imports with the link inferred', () => {
     const id = recipeActions.addRecipe({ name: 'VG 460 trial', grade: 460, lines: get('demo-vg460').lines, specification: { ...get('demo-vg320').specification } });
     expect(specificationGradeIssue(get(id))).toEqual({ kind: 'other-grade', specificationGrade: 320, recipeGrade: 460 });

@@ -139,6 +139,40 @@ export function viscosityIndex(kv40: number, kv100: number): number {
   return viscosityIndexUnchecked(kv40, kv100);
 }
 
+/**
+ * The ν40 an oil of a given ν100 and viscosity index has: ASTM D2270 procedures A and B solved for U.
+ *
+ * Procedure A (VI ≤ 100):  U = L − VI·(L − H)/100
+ *
+ * Procedure B (VI > 100):  N = log₁₀(1 + 0.00715·(VI − 100)),  U = H / Y^N
+ *
+ * The exact algebraic inverse of {@link viscosityIndex} (round trip to rounding error).
+ *
+ * @param vi - viscosity index [dimensionless], unrounded
+ * @param kv100 - Y, kinematic viscosity at 100 °C [mm²/s]; valid range Y ≥ 2.0
+ * @returns U, kinematic viscosity at 40 °C [mm²/s]
+ * @throws InvalidNumberError if an input is not finite
+ * @throws NonPositiveViscosityError if kv100 ≤ 0
+ * @throws ViscosityOutOfRangeError if kv100 < 2.0 mm²/s, or the result is not above kv100 (a VI so
+ *   high, or so low, that no oil has it at this ν100)
+ * @example
+ * kv40FromViscosityIndex(viscosityIndex(73.30, 8.86), 8.86) // → 73.30 (D2270 worked example, procedure A)
+ * kv40FromViscosityIndex(viscosityIndex(22.83, 5.05), 5.05) // → 22.83 (D2270 worked example, procedure B)
+ * @see ASTM D2270, procedures A and B (the equations of {@link viscosityIndex}, solved for U).
+ */
+export function kv40FromViscosityIndex(vi: number, kv100: number): number {
+  const fn = 'kv40FromViscosityIndex';
+  assertFinite(fn, 'vi', vi);
+  assertViscosity(fn, 'kv100', kv100);
+  assertViRange(fn, kv100);
+  const { L, H } = referenceViscosities(kv100);
+  const U = vi <= 100 ? L - (vi * (L - H)) / 100 : H / Math.pow(kv100, Math.log10(1 + 0.00715 * (vi - 100)));
+  if (!(U > kv100)) {
+    throw new ViscosityOutOfRangeError('vi', vi, `${fn}: no oil of ν100 ${kv100} mm²/s has a viscosity index of ${vi} (ν40 would be ${U.toPrecision(4)} mm²/s)`);
+  }
+  return U;
+}
+
 /** L and H of {@link viscosityIndexUnchecked} (module scratch: the core is synchronous). */
 const LH_SCRATCH = { L: 0, H: 0 };
 

@@ -6,7 +6,7 @@ import { BLANK_SPECIFICATION, RECIPE_STATUS_LABEL } from '../../core/formulation
 import { assessRelease } from '../../core/release/release-hold';
 import { stockBasisChanges } from '../../core/recipes/stock-basis';
 import { shareChanges } from '../../core/recipes/share-changes';
-import { isBlankSpecification, specificationGradeIssue, specificationGradeMessage } from '../../core/recipes/specification-grade';
+import { isBlankSpecification, specificationGradeChoices, specificationGradeIssue, specificationGradeMessage } from '../../core/recipes/specification-grade';
 import { approvalRefusal } from '../../core/recipes/approval';
 import { ActionNotice, Notice } from '../../components/notices';
 import { NumberField, TextField, ruleVerdict } from '../../components/fields';
@@ -443,6 +443,9 @@ function SpecificationForm({
   const id = useId();
   const [spec, setSpec] = useState<ReleaseSpecification>(() => structuredClone(recipe.specification));
   const specIssue = specificationGradeIssue({ grade: recipe.grade, specification: spec });
+  // A stored specification whose grade the upgrade could not tell, with nothing typed over it yet.
+  const unknownStored = recipe.specification.grade === null && !isBlankSpecification(recipe.specification) && spec.grade === null;
+  const [pickRefused, setPickRefused] = useState<string | null>(null);
   const [reason, setReason] = useState('');
   // The stored specification the limits typed here began from. When the stored one changes elsewhere
   // (another tab's save, an undo), the form follows it only if nothing typed here is unsaved; else it
@@ -486,12 +489,43 @@ function SpecificationForm({
           : spec.grade === null
             ? 'Written for: grade unknown — check (saved before specifications were linked to a grade).'
             : `Written for: VG ${spec.grade}${spec.grade === recipe.grade ? '' : ` — not this recipe’s grade (VG ${recipe.grade}); its limits are not printed`}.`}{' '}
-        {specIssue && (
+        {specIssue && !unknownStored && (
           <button type="button" onClick={() => set({ grade: recipe.grade })}>
             It is the VG {recipe.grade} specification
           </button>
         )}
       </p>
+      {unknownStored && (
+        <p className="button-row" data-testid="spec-grade-pick">
+          {/* The upgrade could not tell the grade: one click records it (any status; no limit changes). */}
+          {specificationGradeChoices(recipe, recipes).map((g) => (
+            <button
+              key={g}
+              type="button"
+              onClick={() => {
+                const refused = recipeActions.confirmSpecificationGrade(recipe.id, g);
+                if (refused) setPickRefused(refused);
+                else {
+                  setPickRefused(null);
+                  onSaved(
+                    recipe.id,
+                    g === recipe.grade
+                      ? `Recorded: the specification of “${recipe.name}” is its VG ${g} specification.`
+                      : `Recorded: the specification of “${recipe.name}” was written for VG ${g}, not for this VG ${recipe.grade} recipe; its limits are not printed until the VG ${recipe.grade} specification is entered.`,
+                  );
+                }
+              }}
+            >
+              It is the VG {g} specification
+            </button>
+          ))}
+        </p>
+      )}
+      {pickRefused && (
+        <p className="field-msg field-error" role="alert">
+          Not recorded: {pickRefused}.
+        </p>
+      )}
       <TextField label="Specification reference" size={36} rule="specReference" value={spec.reference} onCommit={(v) => set({ reference: v })} />
       <div>
         <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={(v) => ruleVerdict('specKv100', v, fmt)} onCommit={(v) => set({ kv100Min: v })} />

@@ -6,6 +6,7 @@ import {
   ViscosityOutOfRangeError,
 } from '../../../src/core/errors';
 import {
+  kv40FromViscosityIndex,
   referenceViscosities,
   reportedViscosityIndex,
   roundHalfEven,
@@ -139,5 +140,37 @@ describe('independent implementations and published examples', () => {
   it('olezol.com ASTM D2270 example: 68 mm²/s at 40 °C and 8.8 at 100 °C → VI 102', () => {
     // published worked example (olezol.com, "Viscosity-temperature extrapolation ASTM D341", Example 2)
     expect(reportedViscosityIndex(68, 8.8)).toBe(102);
+  });
+});
+
+describe('ASTM D2270 solved for ν40 (kv40FromViscosityIndex)', () => {
+  it('returns the worked examples’ ν40 from their VI (V1 procedure A, V2 procedure B; D2270 worked examples)', () => {
+    // ASTM D2270 worked examples: V1 U = 73.30, Y = 8.86 (VI 92.43); V2 U = 22.83, Y = 5.05 (VI 156.42).
+    expectClose(kv40FromViscosityIndex(viscosityIndex(73.3, 8.86), 8.86), 73.3, 1e-9);
+    expectClose(kv40FromViscosityIndex(viscosityIndex(22.83, 5.05), 5.05), 22.83, 1e-9);
+    // From the published (rounded) VI values the ν40 comes back within the rounding of the VI.
+    expectClose(kv40FromViscosityIndex(92.43, 8.86), 73.3, 0.01);
+    expectClose(kv40FromViscosityIndex(156.42, 5.05), 22.83, 0.01);
+  });
+
+  it('is the inverse of viscosityIndex across VI −50…200 and ν100 2–100 mm²/s (property)', () => {
+    for (const y of [2, 4.5, 8.86, 17, 30, 69, 100]) {
+      for (const vi of [-50, 0, 60, 95, 100, 101, 140, 200]) {
+        let u: number;
+        try {
+          u = kv40FromViscosityIndex(vi, y);
+        } catch (e) {
+          expect(e).toBeInstanceOf(ViscosityOutOfRangeError); // a VI no oil of this ν100 has
+          continue;
+        }
+        expectClose(viscosityIndex(u, y), vi, 1e-6);
+      }
+    }
+  });
+
+  it('refuses ν100 below the standard’s scope and a VI no oil has', () => {
+    expect(() => kv40FromViscosityIndex(95, 1.5)).toThrow(ViscosityOutOfRangeError);
+    expect(() => kv40FromViscosityIndex(Number.NaN, 10)).toThrow(InvalidNumberError);
+    expect(() => kv40FromViscosityIndex(1e6, 10)).toThrow(ViscosityOutOfRangeError);
   });
 });

@@ -3,7 +3,7 @@
 // resets this tab's unsaved typed limits (2); the blender sees that the stored specification changed
 // and chooses which to keep. Limits are invented demo values (common practice (no source)).
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import RecipesScreen from '../../../src/features/recipes/RecipesScreen';
 import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
 
@@ -78,5 +78,38 @@ describe('Recipes screen — session 20 defects', () => {
     expect(get(draft).specification.viMin).toBe(96);
     expect(screen.queryByTestId('spec-changed-elsewhere')).toBeNull();
     expect(fieldText('VI minimum')).toBe('96');
+  });
+
+  it('a specification of unknown grade: the blender records its grade in one step, on an approved recipe too, and one undo takes it back (defect 5)', () => {
+    const name680 = get('demo-vg680').name;
+    act(() => useRecipes.setState((st) => ({ recipes: st.recipes.map((r) => (r.id === 'demo-vg680' ? { ...r, specification: { ...r.specification, grade: null } } : r)) })));
+    useRecipes.temporal.getState().clear();
+    recipeActions.setActiveRecipe('demo-vg680');
+    render(<RecipesScreen />);
+    const before = get('demo-vg680');
+    expect(before.status).toBe('approved');
+    const count = useRecipes.getState().recipes.length;
+    fireEvent.click(within(screen.getByTestId('spec-grade-pick')).getByRole('button', { name: 'It is the VG 680 specification' }));
+    expect(get('demo-vg680').specification).toEqual({ ...before.specification, grade: 680 });
+    expect(get('demo-vg680').status).toBe('approved');
+    expect(useRecipes.getState().recipes).toHaveLength(count); // no new revision: no limit changed
+    expect(screen.queryByTestId('spec-grade-pick')).toBeNull();
+    const row = within(screen.getByTestId('recipe-list')).getByRole('button', { name: name680 }).closest('tr')!;
+    expect(within(row).queryByTestId('spec-grade-tag')).toBeNull();
+    act(() => useRecipes.temporal.getState().undo());
+    expect(get('demo-vg680').specification.grade).toBeNull();
+  });
+
+  it('offers the grades of the recipes sharing the specification; picking another grade’s flags it as that grade’s', () => {
+    const shared = { ...get('demo-vg320').specification, reference: 'Plant spec 7', grade: null };
+    const a = recipeActions.addRecipe({ name: 'Shared 460', grade: 460, lines: get('demo-vg460').lines });
+    act(() => useRecipes.setState((st) => ({ recipes: st.recipes.map((r) => (r.id === a || r.id === draft ? { ...r, specification: { ...shared } } : r)) })));
+    recipeActions.setActiveRecipe(a);
+    render(<RecipesScreen />);
+    const pick = screen.getByTestId('spec-grade-pick');
+    expect(within(pick).getAllByRole('button').map((b) => b.textContent)).toEqual(['It is the VG 460 specification', 'It is the VG 320 specification']);
+    fireEvent.click(within(pick).getByRole('button', { name: 'It is the VG 320 specification' }));
+    expect(get(a).specification.grade).toBe(320);
+    expect(screen.getByTestId('spec-grade-flag').textContent).toMatch(/written for VG 320, not for this VG 460 recipe/);
   });
 });
