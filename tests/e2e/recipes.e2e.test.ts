@@ -216,3 +216,59 @@ describe('specification typed in one tab, saved in another (s20 defect 2)', () =
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('a specification of unknown grade after the upgrade (s20 defect 5)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('the same limits on two unrelated recipes of two grades stay unknown, and the blender records the grade in one click', async () => {
+    const { page } = s;
+    await page.goto(inject('baseURL'));
+    await page.getByRole('navigation').waitFor();
+    await page.evaluate(async () => {
+      const db = await new Promise<IDBDatabase>((res, rej) => {
+        const r = indexedDB.open('blendbench');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
+      type Rec = { id: string; name: string; grade: number; status: string; isReference: boolean; supersedes: string | null; specification: Record<string, unknown> };
+      const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
+        const r = store().get('recipes');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      saved.version = 8;
+      for (const r of saved.state.recipes) delete r.specification.grade;
+      // Invented limits naming no grade, without ν100 limits: nothing tells which grade they are for.
+      const plain = { reference: 'Plant spec 7 (invented)', kv100Min: null, kv100Max: null, viMin: 92, density15Min: null, density15Max: null, flashMin: 220, pourMax: -9, copper: '', foam: '' };
+      const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
+      saved.state.recipes.push({ ...of('demo-vg320'), id: 'e2e-a320', name: 'Shared-spec trial VG 320 (invented)', status: 'draft', isReference: false, supersedes: null, specification: { ...plain } });
+      saved.state.recipes.push({ ...of('demo-vg460'), id: 'e2e-b460', name: 'Shared-spec trial VG 460 (invented)', status: 'draft', isReference: false, supersedes: null, specification: { ...plain } });
+      await new Promise<void>((res, rej) => {
+        const r = store().put(saved, 'recipes');
+        r.onsuccess = () => res();
+        r.onerror = () => rej(r.error);
+      });
+      db.close();
+    });
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/recipes`);
+    await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    const rowOf = (name: string) => page.getByTestId('recipe-list').getByRole('row').filter({ hasText: name });
+    await expect(rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').innerText()).resolves.toBe('grade of specification unknown — check');
+    await rowOf('Shared-spec trial VG 320').getByRole('button').first().click();
+    const pick = page.getByTestId('spec-grade-pick');
+    await expect(pick.getByRole('button').allInnerTexts()).resolves.toEqual(['It is the VG 320 specification', 'It is the VG 460 specification']);
+    await pick.getByRole('button', { name: 'It is the VG 320 specification' }).click();
+    await expect(rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').count()).resolves.toBe(0);
+    await expect.poll(async () => JSON.stringify((await recipesOf(s)).find((r) => r.id === 'e2e-a320')), { timeout: 5000 }).toContain('"grade":320,"reference":"Plant spec 7 (invented)"');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
