@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
+import type { Page } from 'playwright-core';
 import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
 import { axeSerious } from './axe';
 
@@ -12,6 +13,40 @@ type StoredRecipes = {
   state: { recipes: { id: string; name: string; status: string; supersedes: string | null; reasonForChange: string; lines: unknown[] }[] };
 };
 const recipesOf = async (s: Session) => ((await stored(s.page, 'recipes')) as StoredRecipes).state.recipes;
+
+/** A recipe added to the seeded save: a copy of `from` with `patch`, holding `specificationOf`'s specification if named. */
+type Seeded = { from: string; specificationOf?: string; patch: Record<string, unknown> };
+
+/**
+ * Rewrite the stored recipes as schema 8 wrote them (specifications without the grade they were written
+ * for), adding `added`; the next load upgrades them.
+ */
+async function seedSchema8(page: Page, added: Seeded[]): Promise<void> {
+  await page.evaluate(async (adds) => {
+    const db = await new Promise<IDBDatabase>((res, rej) => {
+      const r = indexedDB.open('blendbench');
+      r.onsuccess = () => res(r.result);
+      r.onerror = () => rej(r.error);
+    });
+    const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
+    type Rec = { id: string; specification: Record<string, unknown> } & Record<string, unknown>;
+    const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
+      const r = store().get('recipes');
+      r.onsuccess = () => res(r.result);
+      r.onerror = () => rej(r.error);
+    });
+    saved.version = 8;
+    for (const r of saved.state.recipes) delete r.specification.grade;
+    const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
+    for (const a of adds) saved.state.recipes.push({ ...of(a.from), ...(a.specificationOf ? { specification: of(a.specificationOf).specification } : {}), ...a.patch } as Rec);
+    await new Promise<void>((res, rej) => {
+      const r = store().put(saved, 'recipes');
+      r.onsuccess = () => res();
+      r.onerror = () => rej(r.error);
+    });
+    db.close();
+  }, added);
+}
 
 describe('recipe lifecycle', () => {
   let s: Session;
@@ -128,32 +163,8 @@ describe('recipe lifecycle', () => {
     const { page } = s;
     await page.goto(inject('baseURL'));
     await page.getByRole('navigation').waitFor();
-    await page.evaluate(async () => {
-      const db = await new Promise<IDBDatabase>((res, rej) => {
-        const r = indexedDB.open('blendbench');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
-      type Rec = { id: string; name: string; grade: number; status: string; isReference: boolean; specification: Record<string, unknown> };
-      const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
-        const r = store().get('recipes');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      // As schema 8 wrote it: specifications without the grade they were written for.
-      saved.version = 8;
-      for (const r of saved.state.recipes) delete r.specification.grade;
-      const ref460 = saved.state.recipes.find((r) => r.id === 'demo-vg460')!;
-      const spec320 = saved.state.recipes.find((r) => r.id === 'demo-vg320')!.specification;
-      saved.state.recipes.push({ ...structuredClone(ref460), id: 'e2e-old460', name: 'Old VG 460 with the VG 320 specification (invented)', status: 'draft', isReference: false, specification: structuredClone(spec320) });
-      await new Promise<void>((res, rej) => {
-        const r = store().put(saved, 'recipes');
-        r.onsuccess = () => res();
-        r.onerror = () => rej(r.error);
-      });
-      db.close();
-    });
+    // As schema 8 wrote it, with an invented VG 460 recipe holding the VG 320 recipe's specification.
+    await seedSchema8(page, [{ from: 'demo-vg460', specificationOf: 'demo-vg320', patch: { id: 'e2e-old460', name: 'Old VG 460 with the VG 320 specification (invented)', status: 'draft', isReference: false } }]);
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/recipes`);
     await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
@@ -230,33 +241,12 @@ describe('a specification of unknown grade after the upgrade (s20 defect 5)', ()
     const { page } = s;
     await page.goto(inject('baseURL'));
     await page.getByRole('navigation').waitFor();
-    await page.evaluate(async () => {
-      const db = await new Promise<IDBDatabase>((res, rej) => {
-        const r = indexedDB.open('blendbench');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
-      type Rec = { id: string; name: string; grade: number; status: string; isReference: boolean; supersedes: string | null; specification: Record<string, unknown> };
-      const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
-        const r = store().get('recipes');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      saved.version = 8;
-      for (const r of saved.state.recipes) delete r.specification.grade;
-      // Invented limits naming no grade, without ν100 limits: nothing tells which grade they are for.
-      const plain = { reference: 'Plant spec 7 (invented)', kv100Min: null, kv100Max: null, viMin: 92, density15Min: null, density15Max: null, flashMin: 220, pourMax: -9, copper: '', foam: '' };
-      const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
-      saved.state.recipes.push({ ...of('demo-vg320'), id: 'e2e-a320', name: 'Shared-spec trial VG 320 (invented)', status: 'draft', isReference: false, supersedes: null, specification: { ...plain } });
-      saved.state.recipes.push({ ...of('demo-vg460'), id: 'e2e-b460', name: 'Shared-spec trial VG 460 (invented)', status: 'draft', isReference: false, supersedes: null, specification: { ...plain } });
-      await new Promise<void>((res, rej) => {
-        const r = store().put(saved, 'recipes');
-        r.onsuccess = () => res();
-        r.onerror = () => rej(r.error);
-      });
-      db.close();
-    });
+    // Invented limits naming no grade, without ν100 limits: nothing tells which grade they are for.
+    const plain = { reference: 'Plant spec 7 (invented)', kv100Min: null, kv100Max: null, viMin: 92, density15Min: null, density15Max: null, flashMin: 220, pourMax: -9, copper: '', foam: '' };
+    await seedSchema8(page, [
+      { from: 'demo-vg320', patch: { id: 'e2e-a320', name: 'Shared-spec trial VG 320 (invented)', status: 'draft', isReference: false, supersedes: null, specification: plain } },
+      { from: 'demo-vg460', patch: { id: 'e2e-b460', name: 'Shared-spec trial VG 460 (invented)', status: 'draft', isReference: false, supersedes: null, specification: plain } },
+    ]);
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/recipes`);
     await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();

@@ -6,16 +6,10 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import RecipesScreen from '../../../src/features/recipes/RecipesScreen';
 import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
+import { enter } from '../../helpers/enter-field';
 
 const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === id)!;
 
-function enter(label: string, text: string): HTMLInputElement {
-  const el = screen.getByLabelText(label, { exact: false }) as HTMLInputElement;
-  fireEvent.focus(el);
-  fireEvent.change(el, { target: { value: text } });
-  fireEvent.keyDown(el, { key: 'Enter' });
-  return el;
-}
 const fieldText = (label: string) => (screen.getByLabelText(label, { exact: false }) as HTMLInputElement).value;
 
 let draft = '';

@@ -6,17 +6,11 @@ import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import RecipesScreen from '../../../src/features/recipes/RecipesScreen';
 import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
 import { specificationProblems } from '../../../src/state/field-rules';
+import { enter } from '../../helpers/enter-field';
 
 const REF = 'demo-vg320';
 const recipe = () => useRecipes.getState().recipes.find((r) => r.id === REF)!;
 
-function enter(label: string, text: string): HTMLInputElement {
-  const el = screen.getByLabelText(label, { exact: false }) as HTMLInputElement;
-  fireEvent.focus(el);
-  fireEvent.change(el, { target: { value: text } });
-  fireEvent.keyDown(el, { key: 'Enter' });
-  return el;
-}
 const alerts = () => screen.queryAllByRole('alert').map((a) => a.textContent).join('\n');
 
 beforeEach(() => {
