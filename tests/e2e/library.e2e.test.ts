@@ -208,3 +208,40 @@ describe('a long library (issue 9, item 3)', () => {
     expect(s.offHost).toEqual([]);
   }, 240_000);
 });
+
+describe('stock import: a number that could be 1.25 or 1250 (s20 defect 4)', () => {
+  let s: Session;
+  const files = mkdtempSync(join(tmpdir(), 'blendbench-import-comma-'));
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+    rmSync(files, { recursive: true, force: true });
+  });
+
+  it('names both readings in the file’s decimal mark, or the settings’ when the file does not tell', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/settings`);
+    await page.getByLabel('Decimal separator').selectOption(',');
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    // A semicolon file whose other numbers use "," (invented values): "1.250" is refused, written "1,25 or 1250".
+    const told = join(files, 'told.csv');
+    writeFileSync(told, 'code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price;price_basis\nNEW-1;group-ii;100;11;0,87;1.250;per-tonne\n');
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(told);
+    const preview = page.getByRole('table', { name: 'Import preview' });
+    await preview.getByText(/could mean 1,25 or 1250 \(this file’s other numbers use “,”/).waitFor();
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    // A file whose other numbers are whole: the settings' decimal comma.
+    const silent = join(files, 'silent.csv');
+    writeFileSync(silent, 'code;category;kv40_mm2s;kv100_mm2s;density15_kg_per_l;price;price_basis\nNEW-1;group-ii;100;11;1;1.250;per-tonne\n');
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(silent);
+    await preview.getByText(/could mean 1,25 or 1250 \(the file’s other numbers do not tell/).waitFor();
+    await screenshot(page, 'library-import-could-mean-comma');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
