@@ -105,7 +105,8 @@ export default function LinePlanScreen() {
 
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;
-    if (!plan || plan.status !== 'optimal') return;
+    // A plan made from inputs changed since (here, another tab, an undo) is never saved as recipes.
+    if (!plan || plan.status !== 'optimal' || stale) return;
     const what = which === 'lasting' ? `while the limited stocks last (${planAssumes(view, which)})` : `after ${limitedCodes(view)} are gone`;
     const reason =
       `Whole-line plan ${overPeriod(linePlan.period)} (${today}): the plan ${what}, least total cost for the line. ` +

@@ -210,12 +210,17 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
           </Notice>
         ) : confirming ? (
           <div className="lp-confirm" role="group" aria-label="Confirm adoption">
+            {stale && (
+              <p className="field-msg field-error" role="alert" id={`lp-stale-${which}`}>
+                Not saved: the inputs changed since this plan was made (here, in another tab or by an undo): plan again, then adopt.
+              </p>
+            )}
             <p>
               Save these {plan.grades.length} recipes as new draft revisions of {plan.grades.map((g) => g.label).join(', ')}? The recipes made now
               stay approved until the new revisions are approved on Recipes. Predicted properties need laboratory confirmation before release.
             </p>
             <div className="button-row">
-              <button type="button" className="primary" onClick={() => onAdopt(which)}>
+              <button type="button" className="primary" onClick={() => onAdopt(which)} disabled={stale} aria-describedby={stale ? `lp-stale-${which}` : undefined}>
                 Save the new revisions
               </button>
               <button type="button" onClick={() => onConfirm(null)}>

@@ -187,6 +187,21 @@ describe('Whole-line plan screen', () => {
     expect(useRecipes.getState().recipes).toEqual(before);
   });
 
+  it('does not save the plan’s recipes once its inputs changed while the adoption was being confirmed (another tab, s20 defect hunt)', async () => {
+    await planDemo();
+    const lasting = screen.getByTestId('plan-lasting');
+    fireEvent.click(within(lasting).getByText('Adopt these recipes…'));
+    // Meanwhile another tab saves a new price of BW-190 (invented: 20 % up; merged into this tab's library).
+    const bw = useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!;
+    act(() => void useLibrary.getState().updateComponent('demo-bw-190', { price: { ...bw.price, amount: bw.price.amount * 1.2 } }));
+    const before = useRecipes.getState().recipes;
+    const save = within(lasting).getByRole('button', { name: 'Save the new revisions' }) as HTMLButtonElement;
+    expect(save.disabled).toBe(true);
+    expect(within(lasting).getByRole('alert').textContent).toMatch(/Not saved: the inputs changed since this plan was made .*plan again/);
+    fireEvent.click(save);
+    expect(useRecipes.getState().recipes).toBe(before);
+  });
+
   it('meets a grade’s minimum probability in band and states what it costs the line', async () => {
     const t = useRecipes.getState().targets['demo-vg320']!;
     useRecipes.setState({ targets: { ...useRecipes.getState().targets, 'demo-vg320': { ...t, minInBandProbability: 0.99 } } });
