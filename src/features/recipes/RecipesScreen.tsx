@@ -13,7 +13,7 @@ import { NumberField, TextField, ruleVerdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { sayRefusal, userMessage } from '../../state/messages';
-import { checkText } from '../../state/field-rules';
+import { checkText, type NumberRuleKey, type TextRuleKey } from '../../state/field-rules';
 import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
 
@@ -408,25 +408,42 @@ function RecipeDetail({
   );
 }
 
-/** The limits a label names, as the form shows them. */
-const SPEC_FIELDS: readonly [keyof ReleaseSpecification, string, 'text' | 'num' | 'temp', number][] = [
-  ['reference', 'Specification reference', 'text', 0],
-  ['kv100Min', 'ν100 minimum', 'num', 2],
-  ['kv100Max', 'ν100 maximum', 'num', 2],
-  ['viMin', 'VI minimum', 'num', 0],
-  ['density15Min', 'Density at 15 °C, minimum', 'num', 4],
-  ['density15Max', 'Density at 15 °C, maximum', 'num', 4],
-  ['flashMin', 'Flash point minimum', 'temp', 0],
-  ['pourMax', 'Pour point maximum', 'temp', 0],
-  ['copper', 'Copper strip corrosion', 'text', 0],
-  ['foam', 'Foaming', 'text', 0],
+/**
+ * The specification's limits, in the form's order: the one list the form's fields and the list of
+ * limits that differ (a save made elsewhere) are both drawn from, so their labels cannot drift apart.
+ * `row`: the form's line (0 = the reference, alone); `method`: the test method named after the label
+ * in the form; `dp`: decimals when a limit is written in a message.
+ */
+type SpecField = {
+  key: Exclude<keyof ReleaseSpecification, 'grade'>;
+  label: string;
+  row: 0 | 1 | 2 | 3;
+  dp: number;
+} & (
+  | { kind: 'text'; rule: TextRuleKey; size: number; method?: string; placeholder?: string }
+  | { kind: 'num'; rule: NumberRuleKey; unit?: string }
+  | { kind: 'temp'; rule: NumberRuleKey }
+);
+const SPEC_FIELDS: readonly SpecField[] = [
+  { key: 'reference', label: 'Specification reference', row: 0, dp: 0, kind: 'text', rule: 'specReference', size: 36 },
+  { key: 'kv100Min', label: 'ν100 minimum', row: 1, dp: 2, kind: 'num', rule: 'specKv100', unit: 'mm²/s' },
+  { key: 'kv100Max', label: 'ν100 maximum', row: 1, dp: 2, kind: 'num', rule: 'specKv100', unit: 'mm²/s' },
+  { key: 'viMin', label: 'VI minimum', row: 1, dp: 0, kind: 'num', rule: 'specViMin' },
+  { key: 'density15Min', label: 'Density at 15 °C, minimum', row: 2, dp: 4, kind: 'num', rule: 'specDensity15', unit: 'kg/L' },
+  { key: 'density15Max', label: 'Density at 15 °C, maximum', row: 2, dp: 4, kind: 'num', rule: 'specDensity15', unit: 'kg/L' },
+  { key: 'flashMin', label: 'Flash point minimum', row: 2, dp: 0, kind: 'temp', rule: 'specFlashMin' },
+  { key: 'pourMax', label: 'Pour point maximum', row: 2, dp: 0, kind: 'temp', rule: 'specPourMax' },
+  { key: 'copper', label: 'Copper strip corrosion', row: 3, dp: 0, kind: 'text', rule: 'specText', size: 16, method: 'ASTM D130', placeholder: 'e.g. 1b max' },
+  { key: 'foam', label: 'Foaming', row: 3, dp: 0, kind: 'text', rule: 'specText', size: 24, method: 'ASTM D892' },
 ];
 
 /** Each limit that differs between the stored specification and the one typed, "label: saved x, yours y". */
 function specDifferences(stored: ReleaseSpecification, typed: ReleaseSpecification, fmt: ReturnType<typeof useFormat>): string[] {
-  const say = (v: unknown, kind: 'text' | 'num' | 'temp', dp: number) =>
+  const say = (v: unknown, kind: SpecField['kind'], dp: number) =>
     v === null || v === '' ? 'blank' : kind === 'text' ? `“${String(v)}”` : kind === 'temp' ? fmt.temp(v as number, dp) : fmt.num(v as number, dp);
-  return SPEC_FIELDS.filter(([k]) => stored[k] !== typed[k]).map(([k, label, kind, dp]) => `${label}: saved ${say(stored[k], kind, dp)}, yours ${say(typed[k], kind, dp)}`);
+  return SPEC_FIELDS.filter((f) => stored[f.key] !== typed[f.key]).map(
+    (f) => `${f.label}: saved ${say(stored[f.key], f.kind, f.dp)}, yours ${say(typed[f.key], f.kind, f.dp)}`,
+  );
 }
 
 /** The product specification's release limits; blank → "per specification" on the sheet. */
@@ -466,16 +483,49 @@ function SpecificationForm({
     lo !== null && hi !== null && lo > hi ? `the minimum ${what} is above the maximum` : undefined;
   const reasonProblem = checkText('reasonForChange', reason.trim());
   const errors = [pairError(spec.kv100Min, spec.kv100Max, 'ν100'), pairError(spec.density15Min, spec.density15Max, 'density')].filter(Boolean);
-  const tempField = (label: string, key: 'flashMin' | 'pourMax') => (
-    <NumberField
-      label={label}
-      unit={fmt.tempUnit}
-      allowEmpty
-      value={spec[key] === null ? null : fmt.tempValue(spec[key]!)}
-      validate={(v) => ruleVerdict(key === 'flashMin' ? 'specFlashMin' : 'specPourMax', v, fmt, fmt.tempToC)}
-      onCommit={(v) => set({ [key]: v === null ? null : fmt.tempToC(v) })}
-    />
-  );
+  // One field of the list above, as the form shows it (°F or °C as set; stored in °C).
+  const field = (f: SpecField) => {
+    if (f.kind === 'text') {
+      const label = f.method ? `${f.label} (${f.method})` : f.label;
+      return (
+        <TextField
+          key={f.key}
+          label={label}
+          size={f.size}
+          rule={f.rule}
+          value={spec[f.key] as string}
+          {...(f.placeholder ? { placeholder: f.placeholder } : {})}
+          onCommit={(v) => set({ [f.key]: v })}
+        />
+      );
+    }
+    const v = spec[f.key] as number | null;
+    if (f.kind === 'temp') {
+      return (
+        <NumberField
+          key={f.key}
+          label={f.label}
+          unit={fmt.tempUnit}
+          allowEmpty
+          value={v === null ? null : fmt.tempValue(v)}
+          validate={(t) => ruleVerdict(f.rule, t, fmt, fmt.tempToC)}
+          onCommit={(t) => set({ [f.key]: t === null ? null : fmt.tempToC(t) })}
+        />
+      );
+    }
+    return (
+      <NumberField
+        key={f.key}
+        label={f.label}
+        {...(f.unit ? { unit: f.unit } : {})}
+        allowEmpty
+        value={v}
+        validate={(t) => ruleVerdict(f.rule, t, fmt)}
+        onCommit={(t) => set({ [f.key]: t })}
+      />
+    );
+  };
+  const row = (r: SpecField['row']) => SPEC_FIELDS.filter((f) => f.row === r).map(field);
   return (
     <fieldset className="spec-form">
       <legend>Product specification (release limits)</legend>
@@ -526,28 +576,10 @@ function SpecificationForm({
           Not recorded: {pickRefused}.
         </p>
       )}
-      <TextField label="Specification reference" size={36} rule="specReference" value={spec.reference} onCommit={(v) => set({ reference: v })} />
-      <div>
-        <NumberField label="ν100 minimum" unit="mm²/s" allowEmpty value={spec.kv100Min} validate={(v) => ruleVerdict('specKv100', v, fmt)} onCommit={(v) => set({ kv100Min: v })} />
-        <NumberField label="ν100 maximum" unit="mm²/s" allowEmpty value={spec.kv100Max} validate={(v) => ruleVerdict('specKv100', v, fmt)} onCommit={(v) => set({ kv100Max: v })} />
-        <NumberField
-          label="VI minimum"
-          allowEmpty
-          value={spec.viMin}
-          validate={(v) => ruleVerdict('specViMin', v, fmt)}
-          onCommit={(v) => set({ viMin: v })}
-        />
-      </div>
-      <div>
-        <NumberField label="Density at 15 °C, minimum" unit="kg/L" allowEmpty value={spec.density15Min} validate={(v) => ruleVerdict('specDensity15', v, fmt)} onCommit={(v) => set({ density15Min: v })} />
-        <NumberField label="Density at 15 °C, maximum" unit="kg/L" allowEmpty value={spec.density15Max} validate={(v) => ruleVerdict('specDensity15', v, fmt)} onCommit={(v) => set({ density15Max: v })} />
-        {tempField('Flash point minimum', 'flashMin')}
-        {tempField('Pour point maximum', 'pourMax')}
-      </div>
-      <div>
-        <TextField label="Copper strip corrosion (ASTM D130)" size={16} rule="specText" value={spec.copper} placeholder="e.g. 1b max" onCommit={(v) => set({ copper: v })} />
-        <TextField label="Foaming (ASTM D892)" size={24} rule="specText" value={spec.foam} onCommit={(v) => set({ foam: v })} />
-      </div>
+      {row(0)}
+      <div>{row(1)}</div>
+      <div>{row(2)}</div>
+      <div>{row(3)}</div>
       {errors.length > 0 && (
         <p className="field-error" role="alert">
           {errors.join('; ')}.
