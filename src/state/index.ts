@@ -46,8 +46,10 @@
  *   defaultTargets(grade, additiveId, referenceRecipeId) → BlendTargets
  * Undo/redo (zundo), one history per store:
  *   useLibraryHistory() / useRecipesHistory() → { canUndo, canRedo, undo, redo }
- * Workspace (designer draft, explorer session; kept across reloads, not merged across tabs, not in backups):
- *   useWorkspaceStore(s => s.designer | s.explorer), .getState().setDesigner(draft) / setExplorer(session);
+ * Workspace (designer drafts, one per tab; editing habits; explorer session; kept across reloads, not in backups):
+ *   useWorkspaceStore(s => s.drafts | s.habits | s.explorer), .getState().keepDraft(key, draft | null) /
+ *   setHabits(habits) / setExplorer(session); ownDraftKey() this tab's draft key, adoptDraftKey(key),
+ *   draftKeysOfOpenTabs() → the keys other open tabs hold (their drafts are not offered here);
  *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
  * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
@@ -60,7 +62,8 @@ import { priceLibraryInBase, type ExchangeRate, type PricedLibrary } from '../co
 import { useLibraryStore, LIBRARY_SPEC, type LibraryData } from './library';
 import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, type RecipesData, type SavedVersionMark } from './recipes';
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
-import { useWorkspaceStore, WORKSPACE_SPEC } from './workspace';
+import { useWorkspaceStore, WORKSPACE_SPEC, type WorkspaceData } from './workspace';
+import { answerDraftQuestions, leaveSharedKey } from './tab-draft';
 import {
   useStorageStatus,
   saveNow,
@@ -85,7 +88,20 @@ export { blankComponent, freeCode, libraryRoomProblem } from './library';
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';
 export { DEFAULT_SETTINGS, baseChangeProblem } from './settings';
-export { useWorkspaceStore, fingerprint, UNKNOWN_VERSION, type DraftBasedOn, type DesignerDraft, type ExplorerSession, type ExplorerScenario, type WorkspaceData } from './workspace';
+export {
+  useWorkspaceStore,
+  fingerprint,
+  UNKNOWN_VERSION,
+  OLD_DRAFT_DAYS,
+  type DraftBasedOn,
+  type DesignerDraft,
+  type KeptDraft,
+  type EditingHabits,
+  type ExplorerSession,
+  type ExplorerScenario,
+  type WorkspaceData,
+} from './workspace';
+export { ownDraftKey, adoptDraftKey, draftKeysOfOpenTabs } from './tab-draft';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';
 
@@ -251,8 +267,8 @@ export function persistedData(key: StoreKey): unknown {
     return { recipes, targets, activeRecipeId, sheets, linePlan, qc };
   }
   if (key === 'workspace') {
-    const { designer, explorer } = useWorkspaceStore.getState();
-    return { designer, explorer };
+    const { drafts, habits, explorer } = useWorkspaceStore.getState();
+    return { drafts, habits, explorer };
   }
   return { settings: useSettingsStore.getState().settings };
 }
@@ -319,8 +335,15 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
         }
       }),
       registerApplier('settings', (d) => useSettingsStore.setState(d as { settings: Settings })),
+      // The other tabs' drafts (this tab's explorer session is its own: not taken).
+      registerApplier('workspace', (d) => {
+        const { drafts, habits } = d as WorkspaceData;
+        useWorkspaceStore.setState({ drafts, habits });
+      }),
+      answerDraftQuestions(),
       onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
+    void leaveSharedKey();
     if (opts.requestPersistence !== false) void requestPersistentStorage();
   })();
   return started;

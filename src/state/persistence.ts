@@ -153,6 +153,13 @@ export interface StoreSpec<D> {
   layout?: RecordLayout;
   /** Merge saves made by other tabs into this tab (default true; false for a tab's own scratch pad). */
   crossTab?: boolean;
+  /** Records merged in from another tab are not announced (they are not on this tab's screen). */
+  quiet?: boolean;
+  /**
+   * Written with one blind put of this tab's copy as the page is hidden or left (default: the stores
+   * not merged across tabs). A merged store's blind put holds every other tab's record as last heard of.
+   */
+  leaveWrite?: boolean;
 }
 
 export type LoadResult<D> =
@@ -286,6 +293,8 @@ interface SyncState {
   force: boolean;
   /** Whether saves of other tabs are merged into this tab (false: this tab's copy only, e.g. a scratch pad). */
   crossTab: boolean;
+  /** Written with a blind put as the page leaves (see StoreSpec.leaveWrite). */
+  leaveWrite: boolean;
 }
 const syncs = new Map<StoreKey, SyncState>();
 const emptySet = (): RecordSet => ({ records: new Map(), stamps: {}, gone: {} });
@@ -302,6 +311,7 @@ function syncOf<D>(spec: StoreSpec<D>): SyncState {
       applying: false,
       force: false,
       crossTab: spec.crossTab ?? true,
+      leaveWrite: spec.leaveWrite ?? spec.crossTab === false,
     };
     syncs.set(spec.key, st);
   }
@@ -421,6 +431,7 @@ function takeFromOtherTab(key: StoreKey, st: SyncState, snapshot: RecordSet, mer
   } finally {
     st.applying = false;
   }
+  if (st.spec.quiet) return;
   const replaced = merged.replacedMine.filter((k) => now.fromTheirs.includes(k));
   const changed = now.fromTheirs.filter((k) => !replaced.includes(k));
   const values = new Map([...now.records, ...snapshot.records]);
@@ -496,7 +507,7 @@ function requestSave(key: StoreKey): void {
     queues.set(key, q);
   }
   q.again = true;
-  if (holdTabOnlySaves && syncs.get(key)?.crossTab === false) return;
+  if (holdTabOnlySaves && syncs.get(key)?.leaveWrite) return;
   if (!q.running) {
     q.running = true;
     const queue = q;
@@ -533,9 +544,10 @@ export function registerDeferredWrite(flush: () => void): () => void {
 
 /**
  * Write every deferred writer's pending state now (synchronously into its store, whose save starts at
- * once). `leaving` (the page is hidden or left): a store kept for this tab only (`crossTab: false`)
- * that is ready (not upgraded and still unsaved) is also written with one blind put issued in this task, as a save's
- * read-then-write would not finish once the page is gone.
+ * once). `leaving` (the page is hidden or left): a store written as the page leaves (`leaveWrite`: the
+ * stores kept for this tab only, and the tabs' drafts) that is ready (not upgraded and still unsaved) is
+ * also written with one blind put issued in this task, as a save's read-then-write would not finish
+ * once the page is gone.
  */
 export function flushDeferredWrites(leaving = false): void {
   if (!leaving) {
@@ -551,16 +563,20 @@ export function flushDeferredWrites(leaving = false): void {
     holdTabOnlySaves = false;
   }
   for (const [key, st] of syncs) {
-    if (st.crossTab) continue;
+    if (!st.leaveWrite) continue;
     writeLeaving(key, st);
     // Only hidden, not gone (another tab in front): the usual save follows.
     setTimeout(() => requestSave(key), 0);
   }
 }
-/** While true, a tab-only store's save is not started (flushDeferredWrites writes it with a blind put). */
+/** While true, a leave-written store's save is not started (flushDeferredWrites writes it with a blind put). */
 let holdTabOnlySaves = false;
 
-/** One blind put of this tab's copy of a tab-only store (no merge: no other tab's records are kept in it). */
+/**
+ * One blind put of this tab's copy of a store (no merge: a tab-only store holds no other tab's records;
+ * a merged one holds every other tab's records as this tab last heard of them, and a record changed
+ * since in another tab is written again by that tab's next save, as it is newer than what they agreed on).
+ */
 function writeLeaving(key: StoreKey, st: SyncState): void {
   const status = useStorageStatus.getState().stores[key];
   if (status.phase !== 'ready' || status.savingPaused || st.latest === null) return;

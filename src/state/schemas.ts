@@ -304,8 +304,10 @@ const scenarioSchema = z.object({
 
 /** The designer's unsaved draft and the explorer's session (workspace store, see workspace.ts). */
 export const workspaceDataSchema = z.object({
-  designer: z
-    .object({
+  // Every tab's draft with unsaved edits, by the tab's draft key (workspace schema 3).
+  drafts: z.record(
+    str,
+    z.object({
       targets: targetsSchema,
       lines: draftLines,
       name: str.superRefine((v, ctx) => {
@@ -318,8 +320,10 @@ export const workspaceDataSchema = z.object({
       rebalanceMode: z.enum(['balance', 'proportional']),
       balanceId: str.nullable(),
       dirty: z.boolean(),
-    })
-    .nullable(),
+      keptAt: str.nullable(),
+    }),
+  ),
+  habits: z.object({ basis: z.enum(['mass', 'volume']), rebalanceMode: z.enum(['balance', 'proportional']) }).nullable(),
   explorer: z
     .object({
       referenceId: str.nullable(),

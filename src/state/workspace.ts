@@ -1,10 +1,16 @@
 /**
- * Workspace store (issue 10 item 5): the designer's unsaved draft (targets, per-stock limits,
- * objective, lines, name, editing habits) and the explorer's session (reference recipe, withdrawn set,
- * combination size, ranking, polymer cap, the ranked candidates with the scenario they belong to, the
- * selection and adopted candidates), kept in IndexedDB so a reload restores them. Schema-versioned and
- * validated like the other stores; not merged across tabs (each tab's scratch pad; the last one saved
- * is what a reload restores) and not part of backups.
+ * Workspace store (issue 10 item 5): the designer's unsaved drafts (targets, per-stock limits,
+ * objective, lines, name), the editing habits, and the explorer's session (reference recipe, withdrawn
+ * set, combination size, ranking, polymer cap, the ranked candidates with the scenario they belong to,
+ * the selection and adopted candidates), kept in IndexedDB so a reload restores them. Schema-versioned
+ * and validated like the other stores; not part of backups.
+ *
+ * Drafts belong to the tab (s21 item 1): each tab keeps its draft under its own key (tab-draft.ts,
+ * held in the tab's sessionStorage, so a reload of that tab finds it), and the tabs merge their saves
+ * per draft, so one tab's draft never replaces another's. A draft is kept only while it has unsaved
+ * edits: saving or discarding it removes it. The explorer's session is still the tab's own (the last
+ * one saved is what a reload restores), and a merge from another tab tells no one (nothing on screen
+ * changes: a tab shows only its own draft).
  *
  * The feature stores own these values while a screen is open; they copy them here when they change
  * and read them back once at the first visit after a start. An explorer result carries the
@@ -77,19 +83,40 @@ export interface ExplorerSession {
   adopted: Record<string, string>;
 }
 
+/** A draft as kept for its tab, with when it was last written (null: kept by schema 2, time not recorded). */
+export interface KeptDraft extends DesignerDraft {
+  keptAt: string | null;
+}
+
+/** How the designer edits shares (the last tab's choice; not a draft). */
+export interface EditingHabits {
+  basis: 'mass' | 'volume';
+  rebalanceMode: 'balance' | 'proportional';
+}
+
+/** Key of the draft kept by workspace schema 2 (one draft for the whole browser), after the upgrade. */
+export const SCHEMA2_DRAFT_KEY = 'kept-before-tabs';
+
+/** Drafts kept longer than this are pointed out to the blender for discarding (never deleted silently) [days]. */
+export const OLD_DRAFT_DAYS = 14;
+
 export interface WorkspaceData {
-  designer: DesignerDraft | null;
+  /** Every tab's draft with unsaved edits, by the tab's draft key. */
+  drafts: Record<string, KeptDraft>;
+  habits: EditingHabits | null;
   explorer: ExplorerSession | null;
 }
 
 export interface WorkspaceState extends WorkspaceData {
-  setDesigner: (draft: DesignerDraft | null) => void;
+  /** Keep (or, with null, remove) the draft of a tab's key. */
+  keepDraft: (key: string, draft: KeptDraft | null) => void;
+  setHabits: (habits: EditingHabits) => void;
   setExplorer: (session: ExplorerSession | null) => void;
 }
 
 export const WORKSPACE_SPEC: StoreSpec<WorkspaceData> = {
   key: 'workspace',
-  version: 2,
+  version: 3,
   // The zod schema is picked from the schemas module once it is loaded (persistence.loadSchemas).
   schema: (m) => m.workspaceDataSchema as unknown as ReturnType<StoreSpec<WorkspaceData>['schema']>,
   migrations: {
@@ -104,23 +131,51 @@ export const WORKSPACE_SPEC: StoreSpec<WorkspaceData> = {
       if (!draft) return data;
       return { ...data, designer: { ...draft, basedOn: draft.sourceRecipeId ? UNKNOWN_VERSION : null } };
     },
+    // Schema 2 → 3: one draft for the whole browser becomes one kept draft among the tabs' drafts
+    // (under SCHEMA2_DRAFT_KEY, time not recorded), offered by name to the next tab that opens the
+    // designer; its editing habits become the habits. Every field of it and the explorer session are kept.
+    2: (d) => {
+      const data = d as { designer?: Record<string, unknown> | null; explorer?: unknown };
+      if (typeof data !== 'object' || data === null) throw new Error('the workspace is not an object');
+      const draft = data.designer ?? null;
+      return {
+        drafts: draft ? { [SCHEMA2_DRAFT_KEY]: { ...draft, keptAt: null } } : {},
+        habits: draft ? { basis: draft.basis, rebalanceMode: draft.rebalanceMode } : null,
+        explorer: data.explorer ?? null,
+      };
+    },
   },
-  crossTab: false,
+  // Each tab's draft is a record of its own. The explorer's session is one record that another tab's
+  // save never puts into this tab (see the applier in index.ts): the last one saved is what a reload restores.
+  layout: { maps: ['drafts'] },
+  crossTab: true,
+  quiet: true,
+  // Written with one blind put as the page leaves (a read-then-write would not finish).
+  leaveWrite: true,
 };
 
 export const useWorkspaceStore = create<WorkspaceState>()(
   persist(
     (set) => ({
-      designer: null,
+      drafts: {},
+      habits: null,
       explorer: null,
-      setDesigner: (designer) => set({ designer }),
+      keepDraft: (key, draft) =>
+        set((s) => {
+          if (draft) return { drafts: { ...s.drafts, [key]: draft } };
+          if (!(key in s.drafts)) return {};
+          const drafts = { ...s.drafts };
+          delete drafts[key];
+          return { drafts };
+        }),
+      setHabits: (habits) => set((s) => (s.habits?.basis === habits.basis && s.habits.rebalanceMode === habits.rebalanceMode ? {} : { habits })),
       setExplorer: (explorer) => set({ explorer }),
     }),
     {
       name: 'workspace',
       version: WORKSPACE_SPEC.version,
       storage: idbPersistStorage(WORKSPACE_SPEC),
-      partialize: (s): WorkspaceData => ({ designer: s.designer, explorer: s.explorer }),
+      partialize: (s): WorkspaceData => ({ drafts: s.drafts, habits: s.habits, explorer: s.explorer }),
       skipHydration: true,
     },
   ),

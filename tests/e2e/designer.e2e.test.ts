@@ -168,3 +168,61 @@ describe('designer draft, two tabs and a reload (s20 defect 1)', () => {
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('designer drafts belong to the tab (s21 item 1)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  /** Type a share (%) into the first line of a tab's draft, as a blender does (not saved). */
+  async function share(page: Page, text: string): Promise<string> {
+    const cell = page.getByTestId('recipe-lines').locator('.pct-input').first();
+    const label = (await cell.getAttribute('aria-label')) ?? '';
+    await cell.click();
+    await page.getByLabel(label, { exact: true }).pressSequentially(text);
+    await page.getByLabel(label, { exact: true }).press('Tab');
+    return label;
+  }
+  const draftsKept = async (page: Page) => Object.keys(((await stored(page, 'workspace')) as { state?: { drafts?: object } } | undefined)?.state?.drafts ?? {}).length;
+
+  it('two tabs on the same recipe each get their own unsaved edit back on their own reload; a new tab offers the closed tab’s draft by name', async () => {
+    const a = s.page;
+    await a.goto(inject('baseURL') + '#/designer');
+    await a.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    const b = await s.newPage();
+    await b.goto(inject('baseURL') + '#/designer');
+    await b.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    const label = await share(a, '7');
+    await expect.poll(() => draftsKept(a), { timeout: 5000 }).toBe(1);
+    await share(b, '9');
+    await expect.poll(() => draftsKept(b), { timeout: 5000 }).toBe(2);
+    await share(a, '6'); // tab A writes last
+    await a.waitForTimeout(800); // both drafts written (300 ms after the last change) and merged
+    // Tab B reloads: its own edit comes back, not tab A's later one.
+    await b.reload();
+    await b.getByText(/Restored the draft from your last session/).waitFor();
+    await expect(b.getByLabel(label, { exact: true }).innerText()).resolves.toBe('9.00');
+    await a.reload();
+    await a.getByText(/Restored the draft from your last session/).waitFor();
+    await expect(a.getByLabel(label, { exact: true }).innerText()).resolves.toBe('6.00');
+    // Tab A is closed with its edit unsaved; a new tab offers it by name and time (tab B's is B's).
+    await a.close();
+    const c = await s.newPage();
+    await c.goto(inject('baseURL') + '#/designer');
+    const list = c.getByTestId('kept-drafts');
+    await list.waitFor();
+    await expect(list.getByRole('listitem').count()).resolves.toBe(1);
+    await expect(list.innerText()).resolves.toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG \d+/);
+    await expect(c.getByLabel(label, { exact: true }).innerText()).resolves.not.toBe('6.00'); // none picked silently
+    await screenshot(c, 'designer-kept-drafts-offered');
+    await list.getByRole('button', { name: /^Open the draft kept/ }).click();
+    await c.getByText(/Opened the draft kept at/).waitFor();
+    await expect(c.getByLabel(label, { exact: true }).innerText()).resolves.toBe('6.00');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});

@@ -29,6 +29,7 @@ import { densityLookup, useDesignerStore } from './store';
 import { runSolve } from './solve';
 import { PropertiesView, solveBand } from './PropertiesPanel';
 import { useDraftRelays, type DraftInputs } from './draft-relays';
+import { KeptDrafts } from './KeptDrafts';
 import './designer.css';
 
 const DesignerCharts = lazy(() => import('./DesignerCharts'));
@@ -254,6 +255,8 @@ export default function DesignerScreen() {
               <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
             </Notice>
           )}
+          {/* With nothing unsaved here, the drafts other tabs kept are offered (never one picked silently). */}
+          {initialised && !dirty && <KeptDrafts onOpen={actions.openKeptDraft} />}
           <SolveNoticeView notice={notice} />
           <RecipeTable
             lines={tableLines}

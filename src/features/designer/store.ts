@@ -5,7 +5,18 @@
  * restores it (`restoreDraft`). Holds inputs; predicted properties are derived on render.
  */
 import { create } from 'zustand';
-import { registerDeferredWrite, UNKNOWN_VERSION, useLibrary, useRecipes, useWorkspaceStore, type DesignerDraft, type DraftBasedOn } from '../../state';
+import {
+  adoptDraftKey,
+  ownDraftKey,
+  registerDeferredWrite,
+  UNKNOWN_VERSION,
+  useLibrary,
+  useRecipes,
+  useWorkspaceStore,
+  type DesignerDraft,
+  type DraftBasedOn,
+  type KeptDraft,
+} from '../../state';
 import { targetsProblems, checkText, checkNumber } from '../../state/field-rules';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import { addLine, editFraction, normalise, removeLine, type Basis, type Rebalance } from './fractions';
@@ -64,12 +75,18 @@ export interface DesignerState {
   setNotice: (notice: SolveNotice | null) => void;
   markSaved: (recipeId: string) => void;
   /**
-   * Take the draft kept from the last session, if there is one with unsaved edits and this tab has
-   * none yet; lines and limits of stocks no longer in the library are left out (and the note says so).
-   * True if restored. A draft without unsaved edits only hands back the editing habits (false): the
-   * screen then opens the saved recipe as it is now.
+   * Take this tab's draft kept from before its reload, if there is one with unsaved edits and this tab
+   * has none yet; lines and limits of stocks no longer in the library are left out (and the note says
+   * so). True if restored. Otherwise only the editing habits come back (false): the screen then opens
+   * the saved recipe as it is now, and offers the drafts kept by other tabs (see KeptDrafts).
    */
   restoreDraft: () => boolean;
+  /**
+   * Open a draft kept by another tab (closed since) or an earlier session: it becomes this tab's draft
+   * (this tab takes its key). This tab's own draft, if any, must have no unsaved edits (the screen
+   * offers kept drafts only then). False when no draft is kept under `key`.
+   */
+  openKeptDraft: (key: string) => boolean;
 }
 
 /** The heaviest base stock in the recipe is the natural balance (it sets the viscosity). */
@@ -195,55 +212,76 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
     }),
   setSeenActiveId: (seenActiveId) => set({ seenActiveId }),
   restoreDraft: () => {
-    const kept = useWorkspaceStore.getState().designer;
-    if (get().initialised || !kept) return false;
+    const ws = useWorkspaceStore.getState();
+    const kept = ws.drafts[ownDraftKey()];
+    if (get().initialised) return false;
+    const habits = kept ?? ws.habits;
+    if (habits) set({ basis: habits.basis, rebalanceMode: habits.rebalanceMode });
+    if (!kept) return false;
     // A draft without unsaved edits is its saved recipe: open that recipe as it is now (it may have
     // changed in another tab since), keeping only the editing habits.
     const sourceSaved = kept.sourceRecipeId !== null && useRecipes.getState().recipes.some((r) => r.id === kept.sourceRecipeId);
-    if (!kept.dirty && sourceSaved) {
-      set({ basis: kept.basis, rebalanceMode: kept.rebalanceMode });
-      return false;
-    }
-    const known = new Set(useLibrary.getState().components.map((c) => c.id));
-    const lines = kept.lines.filter((l) => known.has(l.componentId));
-    const bounds = Object.fromEntries(Object.entries(kept.targets.bounds).filter(([id]) => known.has(id)));
-    const additive = kept.targets.additive && known.has(kept.targets.additive.componentId) ? kept.targets.additive : null;
-    const dropped = kept.lines.length - lines.length;
-    // The version of its recipe the draft began from, as kept with it (never the version saved now:
-    // a save made since in another tab must not be overwritten by this draft).
-    const source = sourceSaved ? useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)! : null;
-    const stamp = source && kept.basedOn && 'updatedAt' in kept.basedOn ? kept.basedOn.updatedAt : null;
-    const stampUnknown = source !== null && stamp === null;
-    const since =
-      source && source.status === 'draft'
-        ? stampUnknown
-          ? ` It was kept by an earlier version, which does not record which saved version of “${source.name}” it began from: Save as new recipe keeps both.`
-          : stamp !== source.updatedAt
-            ? ` “${source.name}” was changed and saved after this draft began (in another tab or on another screen): Save changes will not overwrite it; Save as new recipe keeps both.`
-            : ''
-        : '';
-    set({
-      targets: { ...EMPTY_TARGETS, ...structuredClone(kept.targets), bounds, additive },
-      lines: dropped ? normalise(lines) : lines,
-      name: kept.name,
-      sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
-      sourceStamp: stamp,
-      stampUnknown,
-      basis: kept.basis,
-      rebalanceMode: kept.rebalanceMode,
-      balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),
-      dirty: kept.dirty || dropped > 0,
-      notice: null,
-      editNote:
-        'Restored the draft from your last session.' +
-        (dropped ? ` ${dropped} line${dropped > 1 ? 's' : ''} of stocks no longer in the library ${dropped > 1 ? 'were' : 'was'} left out.` : '') +
-        since,
-      initialised: true,
-      seenActiveId: useRecipes.getState().activeRecipeId,
-    });
+    if (!kept.dirty && sourceSaved) return false;
+    set(restored(kept, 'Restored the draft from your last session.'));
+    return true;
+  },
+  openKeptDraft: (key) => {
+    const kept = useWorkspaceStore.getState().drafts[key];
+    if (!kept) return false;
+    adoptDraftKey(key);
+    set(restored(kept, `Opened the draft kept ${keptWhen(kept.keptAt)}.`));
     return true;
   },
 }));
+
+/** When a draft was kept, in words ("at 23:12", "on 2026-12-02 at 23:12", or "by an earlier version"). */
+export function keptWhen(keptAt: string | null, now: Date = new Date()): string {
+  if (keptAt === null) return 'by an earlier version (time not recorded)';
+  const t = new Date(keptAt);
+  const pad = (n: number) => String(n).padStart(2, '0');
+  const day = (d: Date) => `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+  const time = `${pad(t.getHours())}:${pad(t.getMinutes())}`;
+  return day(t) === day(now) ? `at ${time}` : `on ${day(t)} at ${time}`;
+}
+
+/** The designer's state for a kept draft, with the note the screen shows (stocks gone, saved since). */
+function restored(kept: KeptDraft, note: string): Partial<DesignerState> {
+  const sourceSaved = kept.sourceRecipeId !== null && useRecipes.getState().recipes.some((r) => r.id === kept.sourceRecipeId);
+  const known = new Set(useLibrary.getState().components.map((c) => c.id));
+  const lines = kept.lines.filter((l) => known.has(l.componentId));
+  const bounds = Object.fromEntries(Object.entries(kept.targets.bounds).filter(([id]) => known.has(id)));
+  const additive = kept.targets.additive && known.has(kept.targets.additive.componentId) ? kept.targets.additive : null;
+  const dropped = kept.lines.length - lines.length;
+  // The version of its recipe the draft began from, as kept with it (never the version saved now:
+  // a save made since in another tab must not be overwritten by this draft).
+  const source = sourceSaved ? useRecipes.getState().recipes.find((r) => r.id === kept.sourceRecipeId)! : null;
+  const stamp = source && kept.basedOn && 'updatedAt' in kept.basedOn ? kept.basedOn.updatedAt : null;
+  const stampUnknown = source !== null && stamp === null;
+  const since =
+    source && source.status === 'draft'
+      ? stampUnknown
+        ? ` It was kept by an earlier version, which does not record which saved version of “${source.name}” it began from: Save as new recipe keeps both.`
+        : stamp !== source.updatedAt
+          ? ` “${source.name}” was changed and saved after this draft began (in another tab or on another screen): Save changes will not overwrite it; Save as new recipe keeps both.`
+          : ''
+      : '';
+  return {
+    targets: { ...EMPTY_TARGETS, ...structuredClone(kept.targets), bounds, additive },
+    lines: dropped ? normalise(lines) : lines,
+    name: kept.name,
+    sourceRecipeId: sourceSaved ? kept.sourceRecipeId : null,
+    sourceStamp: stamp,
+    stampUnknown,
+    basis: kept.basis,
+    rebalanceMode: kept.rebalanceMode,
+    balanceId: kept.balanceId && known.has(kept.balanceId) ? kept.balanceId : pickBalance(lines, additive?.componentId ?? null),
+    dirty: kept.dirty || dropped > 0,
+    notice: null,
+    editNote: note + (dropped ? ` ${dropped} line${dropped > 1 ? 's' : ''} of stocks no longer in the library ${dropped > 1 ? 'were' : 'was'} left out.` : '') + since,
+    initialised: true,
+    seenActiveId: useRecipes.getState().activeRecipeId,
+  };
+}
 
 /** The draft as kept in the workspace store. */
 export function draftOf(s: DesignerState): DesignerDraft {
@@ -279,13 +317,20 @@ function keepable(d: DesignerDraft): boolean {
 const DRAFT_WRITE_DELAY_MS = 300;
 let draftTimer: ReturnType<typeof setTimeout> | null = null;
 
-/** Write the changed draft to the workspace store now (its save starts at once), if one is pending. */
+/**
+ * Write the changed draft to the workspace store now (its save starts at once), if one is pending:
+ * under this tab's key while it has unsaved edits; once saved or discarded (no unsaved edits) it is
+ * removed, and only the editing habits are kept.
+ */
 function writeDraft(): void {
   if (draftTimer === null) return;
   clearTimeout(draftTimer);
   draftTimer = null;
   const draft = draftOf(useDesignerStore.getState());
-  if (keepable(draft)) useWorkspaceStore.getState().setDesigner(draft);
+  if (!keepable(draft)) return;
+  const ws = useWorkspaceStore.getState();
+  ws.setHabits({ basis: draft.basis, rebalanceMode: draft.rebalanceMode });
+  ws.keepDraft(ownDraftKey(), draft.dirty ? { ...draft, keptAt: new Date().toISOString() } : null);
 }
 registerDeferredWrite(writeDraft);
 

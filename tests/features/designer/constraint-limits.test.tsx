@@ -12,7 +12,7 @@ beforeEach(() => {
   resetDemo();
   settingsActions.updateSettings({ temperatureUnit: 'C', decimalSeparator: '.', thousandsGrouping: false });
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
-  useWorkspaceStore.setState({ designer: null });
+  useWorkspaceStore.setState({ drafts: {}, habits: null });
 });
 afterEach(cleanup);
 beforeAll(async () => {

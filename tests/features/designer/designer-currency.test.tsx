@@ -23,7 +23,7 @@ beforeEach(() => {
   const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
   useLibrary.getState().updateComponent(c.id, { price: { ...c.price, currency: 'USD' } });
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional', notice: null });
-  useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
+  useWorkspaceStore.setState({ drafts: {}, habits: null }); // no draft kept from an earlier test
 });
 afterEach(cleanup);
 

@@ -76,7 +76,8 @@ describe('Designer draft across a reload', () => {
     const srcId = a.designer.getState().sourceRecipeId!;
     act(() => a.designer.getState().markSaved(srcId));
     await a.persistence.whenSaved();
-    expect(a.state.useWorkspaceStore.getState().designer?.dirty).toBe(false);
+    // A saved draft is no longer kept (s21 item 1).
+    expect(a.state.useWorkspaceStore.getState().drafts[a.state.ownDraftKey()]).toBeUndefined();
     act(() => void a.state.recipeActions.renameRecipe(srcId, 'Renamed elsewhere'));
     await a.persistence.whenSaved();
     const b = await reload();
@@ -107,7 +108,7 @@ describe('Designer draft across a reload', () => {
     // This tab: an invented hand edit, not yet saved.
     act(() => a.designer.getState().editLine(first.componentId, first.massFraction - 0.05, () => 0.9));
     await a.persistence.whenSaved();
-    expect(a.state.useWorkspaceStore.getState().designer?.basedOn).toEqual({ updatedAt: began.updatedAt });
+    expect(a.state.useWorkspaceStore.getState().drafts[a.state.ownDraftKey()]?.basedOn).toEqual({ updatedAt: began.updatedAt });
     // Another tab saves the same draft after this tab's edits began (merged into the stored recipes).
     await new Promise((r) => setTimeout(r, 2)); // a later stamp (ms)
     act(() => void a.state.recipeActions.saveChanges(copy, { name: 'Saved in the other tab' }, ''));
@@ -146,9 +147,12 @@ describe('Designer draft across a reload', () => {
     const b = await reload();
     await b.persistence.whenSaved();
     expect(b.persistence.useStorageStatus.getState().stores.workspace.origin).toBe('migrated');
+    // The one draft of the browser is offered by name, not picked silently (s21 item 1).
+    fireEvent.click(await screen.findByRole('button', { name: /^Open the draft kept by an earlier version/ }));
     expect(b.designer.getState().lines).toEqual(lines);
     expect(b.designer.getState().dirty).toBe(true);
-    expect(b.state.useWorkspaceStore.getState().designer?.basedOn).toEqual({ unknown: true });
+    await b.persistence.whenSaved();
+    expect(b.state.useWorkspaceStore.getState().drafts[b.state.ownDraftKey()]?.basedOn).toEqual({ unknown: true });
     expect(((await idbGet('workspace', db)) as { version: number }).version).toBe(b.state.STORE_VERSION.workspace);
     const before = structuredClone(b.state.useRecipes.getState().recipes.find((r) => r.id === copy)!);
     fireEvent.click(screen.getByRole('button', { name: /^Save changes to draft/ }));

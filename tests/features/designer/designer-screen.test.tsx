@@ -38,7 +38,7 @@ const num = (t: string | null) => Number((t ?? '').replace(/[^\d.−-]/g, '').re
 beforeEach(() => {
   resetDemo();
   useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
-  useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
+  useWorkspaceStore.setState({ drafts: {}, habits: null }); // no draft kept from an earlier test
 });
 afterEach(cleanup);
 beforeAll(async () => {

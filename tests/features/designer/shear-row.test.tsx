@@ -60,7 +60,7 @@ describe('designer: In grade after shear row', () => {
   beforeEach(() => {
     resetDemo();
     useDesignerStore.setState({ initialised: false, basis: 'mass', rebalanceMode: 'proportional' });
-    useWorkspaceStore.setState({ designer: null }); // no draft kept from an earlier test
+    useWorkspaceStore.setState({ drafts: {}, habits: null }); // no draft kept from an earlier test
   });
   afterEach(cleanup);
 

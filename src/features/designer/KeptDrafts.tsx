@@ -1,0 +1,96 @@
+/**
+ * The drafts other tabs kept (s21 item 1): a tab that opens the designer with nothing unsaved of its
+ * own is offered, by name and time, the unsaved drafts no open tab holds (a tab closed, or a browser
+ * closed, with edits unsaved) — never one picked silently. Opening one makes it this tab's draft;
+ * discarding one removes it after a second click. A draft kept longer than OLD_DRAFT_DAYS is pointed
+ * out for discarding; none is ever deleted without the blender's word.
+ */
+import { memo, useEffect, useState } from 'react';
+import { Notice } from '../../components/notices';
+import { draftKeysOfOpenTabs, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
+import { keptWhen } from './store';
+
+/** What a kept draft is, in a line: "from 23:12 — 4 stocks, VG 320, “Trial”". */
+export function keptDraftSummary(d: KeptDraft, now: Date = new Date()): string {
+  const stocks = `${d.lines.length} stock${d.lines.length === 1 ? '' : 's'}`;
+  const named = d.name.trim() ? `, “${d.name.trim()}”` : '';
+  return `the draft kept ${keptWhen(d.keptAt, now)} — ${stocks}, VG ${d.targets.grade}${named}`;
+}
+
+/** Whole days since a draft was kept (null: time not recorded). */
+function ageDays(d: KeptDraft, now: Date): number | null {
+  return d.keptAt === null ? null : Math.floor((now.getTime() - new Date(d.keptAt).getTime()) / 86_400_000);
+}
+
+export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: string) => void }) {
+  const drafts = useWorkspaceStore((s) => s.drafts);
+  const own = ownDraftKey();
+  const others = Object.keys(drafts).filter((k) => k !== own);
+  const othersKey = others.join('|');
+  // The drafts open tabs hold are theirs: asked again whenever the kept drafts change.
+  const [held, setHeld] = useState<{ asked: string; keys: Set<string> } | null>(null);
+  useEffect(() => {
+    if (othersKey === '') return;
+    let live = true;
+    void draftKeysOfOpenTabs().then((keys) => live && setHeld({ asked: othersKey, keys }));
+    return () => {
+      live = false;
+    };
+  }, [othersKey]);
+  const [confirming, setConfirming] = useState<string | null>(null);
+  if (others.length === 0 || held?.asked !== othersKey) return null;
+  const offered = others.filter((k) => !held.keys.has(k));
+  if (offered.length === 0) return null;
+  const now = new Date();
+  offered.sort((a, b) => (drafts[b]!.keptAt ?? '').localeCompare(drafts[a]!.keptAt ?? ''));
+  return (
+    <Notice tone="info" title={offered.length === 1 ? 'An unsaved draft is kept from another tab' : `${offered.length} unsaved drafts are kept from other tabs`}>
+      <p className="small">
+        Kept from a tab or window closed with edits unsaved. Open one to go on with it here (it becomes this tab’s draft), or discard it.
+      </p>
+      <ul className="kept-drafts" data-testid="kept-drafts">
+        {offered.map((k) => {
+          const d = drafts[k]!;
+          const age = ageDays(d, now);
+          const summary = keptDraftSummary(d, now);
+          return (
+            <li key={k}>
+              {confirming === k ? (
+                <>
+                  Discard {summary} for good?{' '}
+                  <button
+                    type="button"
+                    onClick={() => {
+                      useWorkspaceStore.getState().keepDraft(k, null);
+                      setConfirming(null);
+                    }}
+                  >
+                    Discard it
+                  </button>{' '}
+                  <button type="button" onClick={() => setConfirming(null)}>
+                    Keep it
+                  </button>
+                </>
+              ) : (
+                <>
+                  <button type="button" onClick={() => onOpen(k)}>
+                    Open {summary}
+                  </button>{' '}
+                  <button type="button" className="link" aria-label={`Discard ${summary}`} onClick={() => setConfirming(k)}>
+                    Discard
+                  </button>
+                  {age !== null && age >= OLD_DRAFT_DAYS && (
+                    <span className="small muted" data-testid="kept-draft-old">
+                      {' '}
+                      — kept {age} days ago: discard it if it is no longer needed.
+                    </span>
+                  )}
+                </>
+              )}
+            </li>
+          );
+        })}
+      </ul>
+    </Notice>
+  );
+});

@@ -1,0 +1,118 @@
+/**
+ * Which designer draft belongs to this tab (s21 item 1). Each tab keeps its unsaved draft in the
+ * workspace store under a key of its own, held in the tab's sessionStorage: a reload of the tab keeps
+ * the key (and so finds its draft), a new tab gets a new one. The tabs open now answer a question on a
+ * BroadcastChannel ("which drafts are yours?"), so a tab offers only the drafts no open tab holds, and
+ * a duplicated tab (whose sessionStorage is a copy, key and all) takes a key of its own.
+ */
+
+const SESSION_KEY = 'blendbench.draft-key';
+const CHANNEL = 'blendbench-drafts';
+
+const newKey = (): string => `tab-${Date.now().toString(36)}-${Array.from({ length: 6 }, () => Math.floor(Math.random() * 36).toString(36)).join('')}`;
+
+let own: string | null = null;
+
+function session(): Storage | null {
+  try {
+    return typeof sessionStorage === 'undefined' ? null : sessionStorage;
+  } catch {
+    return null; // storage refused (privacy settings): the key lives as long as the page
+  }
+}
+
+/** This tab's draft key (the same across reloads of the tab). */
+export function ownDraftKey(): string {
+  if (own) return own;
+  const store = session();
+  let key: string | null = null;
+  try {
+    key = store?.getItem(SESSION_KEY) ?? null;
+  } catch {
+    key = null;
+  }
+  own = key ?? newKey();
+  if (!key) rememberKey(own);
+  return own;
+}
+
+function rememberKey(key: string): void {
+  try {
+    session()?.setItem(SESSION_KEY, key);
+  } catch {
+    /* the key lives as long as the page */
+  }
+}
+
+/** Make `key` this tab's draft key (the blender opened the draft kept under it). */
+export function adoptDraftKey(key: string): void {
+  own = key;
+  rememberKey(key);
+}
+
+type Message = { kind: 'who'; ask: string } | { kind: 'mine'; ask: string; key: string };
+
+let channel: BroadcastChannel | null = null;
+const waiting = new Map<string, Set<string>>();
+
+function openChannel(): BroadcastChannel | null {
+  if (channel) return channel;
+  if (typeof BroadcastChannel === 'undefined') return null;
+  try {
+    channel = new BroadcastChannel(CHANNEL);
+  } catch {
+    return null;
+  }
+  channel.onmessage = (ev: MessageEvent) => {
+    const m = ev.data as Message | null;
+    if (!m || typeof m !== 'object') return;
+    if (m.kind === 'who') channel?.postMessage({ kind: 'mine', ask: m.ask, key: ownDraftKey() } satisfies Message);
+    else if (m.kind === 'mine') waiting.get(m.ask)?.add(m.key);
+  };
+  return channel;
+}
+
+/** Answer the other tabs' question from now on; returns a function that stops answering. */
+export function answerDraftQuestions(): () => void {
+  openChannel();
+  return () => {
+    channel?.close();
+    channel = null;
+    waiting.clear();
+  };
+}
+
+/** How long a tab waits for the other tabs' answers [ms] (a tab answers within a task or two). */
+const ANSWER_WAIT_MS = 150;
+
+/** The draft keys of the other tabs open now (those that answer within ANSWER_WAIT_MS). */
+export function draftKeysOfOpenTabs(waitMs = ANSWER_WAIT_MS): Promise<Set<string>> {
+  const ch = openChannel();
+  if (!ch) return Promise.resolve(new Set());
+  const ask = newKey();
+  const keys = new Set<string>();
+  waiting.set(ask, keys);
+  ch.postMessage({ kind: 'who', ask } satisfies Message);
+  return new Promise((resolve) =>
+    setTimeout(() => {
+      waiting.delete(ask);
+      resolve(keys);
+    }, waitMs),
+  );
+}
+
+/**
+ * A duplicated tab starts with a copy of the other tab's sessionStorage, key and all: when another
+ * open tab answers with this tab's key, this tab takes a new one (the draft it restored is written
+ * under the new key from its next change; the other tab's draft stays the other tab's).
+ */
+export async function leaveSharedKey(): Promise<void> {
+  const mine = ownDraftKey();
+  const open = await draftKeysOfOpenTabs();
+  if (open.has(mine) && own === mine) adoptDraftKey(newKey());
+}
+
+/** Tests only: forget this module's key (as a new tab would not know it). */
+export function forgetDraftKeyForTests(): void {
+  own = null;
+}

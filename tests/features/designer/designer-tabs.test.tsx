@@ -1,0 +1,170 @@
+// @vitest-environment jsdom
+// Session 21 item 1: the kept designer draft belongs to the tab, not the browser. Two tabs editing
+// drafts each get their own back on their own reload (before, the tab that wrote last was the one a
+// reload of either restored); a tab opened fresh while other drafts are kept offers them by name and
+// time instead of picking one; a saved or discarded draft is removed. Each "tab" is a fresh instance
+// of the app's modules over one IndexedDB (fake-indexeddb), with its own sessionStorage draft key.
+// Shares and names are invented (common practice (no source)).
+import 'fake-indexeddb/auto';
+import { IDBFactory } from 'fake-indexeddb';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { act, cleanup, fireEvent, render, within } from '@testing-library/react';
+
+const KEY = 'blendbench.draft-key';
+type StateModule = typeof import('../../../src/state');
+interface Tab {
+  state: StateModule;
+  persistence: typeof import('../../../src/state/persistence');
+  designer: typeof import('../../../src/features/designer/store').useDesignerStore;
+  key: string;
+  view: ReturnType<typeof within>;
+  close(): Promise<void>;
+}
+const open: Tab[] = [];
+
+/** Open a tab (a new one, or a reload of the tab whose draft key is `key`) on the designer. */
+async function openTab(key?: string): Promise<Tab> {
+  if (key) sessionStorage.setItem(KEY, key);
+  else sessionStorage.removeItem(KEY);
+  vi.resetModules();
+  const state = await import('../../../src/state');
+  const persistence = await import('../../../src/state/persistence');
+  const { useDesignerStore } = await import('../../../src/features/designer/store');
+  const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
+  await state.startSavedWork({ requestPersistence: false });
+  const host = document.createElement('div');
+  document.body.appendChild(host);
+  const r = render(<DesignerScreen />, { container: host });
+  const tab: Tab = {
+    state,
+    persistence,
+    designer: useDesignerStore,
+    key: state.ownDraftKey(),
+    view: within(host),
+    async close() {
+      await persistence.whenSaved(); // as the page leaves, its pending draft is written
+      r.unmount();
+      host.remove();
+      state.resetStartForTests();
+      open.splice(open.indexOf(tab), 1);
+    },
+  };
+  open.push(tab);
+  return tab;
+}
+
+/** Every tab has saved and heard of the others' saves. */
+async function settle(): Promise<void> {
+  for (let i = 0; i < 6; i++) {
+    await Promise.all(open.map((t) => t.persistence.whenSaved()));
+    await new Promise((r) => setTimeout(r, 30));
+  }
+}
+
+/** An invented hand edit of the first share of a tab's draft, and a name for it. */
+function edit(t: Tab, name: string, delta: number) {
+  const first = t.designer.getState().lines.find((l) => l.massFraction > 0.1)!;
+  act(() => {
+    t.designer.getState().editLine(first.componentId, first.massFraction + delta, () => 0.9);
+    t.designer.getState().setName(name);
+  });
+}
+
+beforeEach(() => {
+  globalThis.indexedDB = new IDBFactory();
+  sessionStorage.clear();
+});
+afterEach(async () => {
+  for (const t of [...open]) await t.close();
+  cleanup();
+});
+
+describe('designer drafts in two tabs (s21 item 1)', () => {
+  it('each tab gets its own unsaved draft back on its own reload, whichever wrote last', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    expect(a.key).not.toBe(b.key);
+    edit(a, 'Draft of tab A', -0.05);
+    await settle();
+    edit(b, 'Draft of tab B', 0.04);
+    await settle();
+    edit(a, 'Draft of tab A, later', -0.06); // tab A writes last
+    await settle();
+    const aLines = a.designer.getState().lines;
+    const bLines = b.designer.getState().lines;
+
+    const bKey = b.key;
+    await b.close();
+    const b2 = await openTab(bKey); // tab B reloads
+    expect(b2.key).toBe(bKey);
+    expect(b2.designer.getState().name).toBe('Draft of tab B');
+    expect(b2.designer.getState().lines).toEqual(bLines);
+    expect(b2.designer.getState().dirty).toBe(true);
+
+    const aKey = a.key;
+    await a.close();
+    const a2 = await openTab(aKey); // tab A reloads
+    expect(a2.designer.getState().name).toBe('Draft of tab A, later');
+    expect(a2.designer.getState().lines).toEqual(aLines);
+    // Both drafts are kept, each under its tab's key.
+    expect(Object.keys(a2.state.useWorkspaceStore.getState().drafts).sort()).toEqual([aKey, bKey].sort());
+  });
+
+  it('a tab opened fresh offers the drafts no open tab holds, by name and time, and picks none silently', async () => {
+    const a = await openTab();
+    edit(a, 'Closed tab’s trial', -0.05);
+    const b = await openTab();
+    edit(b, 'Open tab’s trial', 0.03);
+    await settle();
+    await a.close(); // tab A is closed with its edits unsaved; tab B stays open
+    const c = await openTab();
+    expect(c.designer.getState().dirty).toBe(false); // the active recipe, not another tab's draft
+    expect(c.designer.getState().name).not.toMatch(/trial/);
+    const list = await c.view.findByTestId('kept-drafts');
+    const items = within(list).getAllByRole('listitem');
+    expect(items).toHaveLength(1); // the open tab's draft is that tab's: not offered
+    expect(items[0]!.textContent).toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG 320, “Closed tab’s trial”/);
+    fireEvent.click(within(items[0]!).getByRole('button', { name: /^Open the draft kept/ }));
+    expect(c.designer.getState().name).toBe('Closed tab’s trial');
+    expect(c.designer.getState().dirty).toBe(true);
+    expect(c.view.getByText(/Opened the draft kept at/)).toBeTruthy();
+    expect(c.state.ownDraftKey()).toBe(a.key); // it is this tab's draft now
+  });
+
+  it('a saved draft is removed; a discarded one only after a second click', async () => {
+    const a = await openTab();
+    edit(a, 'Saved trial', -0.05);
+    await settle();
+    expect(Object.keys(a.state.useWorkspaceStore.getState().drafts)).toEqual([a.key]);
+    act(() => a.designer.getState().markSaved(a.designer.getState().sourceRecipeId!));
+    await settle();
+    expect(a.state.useWorkspaceStore.getState().drafts).toEqual({});
+
+    edit(a, 'Unwanted trial', -0.04);
+    await settle();
+    await a.close();
+    const b = await openTab();
+    const list = await b.view.findByTestId('kept-drafts');
+    fireEvent.click(within(list).getByRole('button', { name: /^Discard the draft kept/ }));
+    expect(Object.keys(b.state.useWorkspaceStore.getState().drafts)).toHaveLength(1); // not yet
+    fireEvent.click(within(list).getByRole('button', { name: 'Discard it' }));
+    await settle();
+    expect(b.state.useWorkspaceStore.getState().drafts).toEqual({});
+    expect(b.view.queryByTestId('kept-drafts')).toBeNull();
+  });
+
+  it('a draft kept longer than OLD_DRAFT_DAYS is pointed out for discarding, never deleted', async () => {
+    const a = await openTab();
+    edit(a, 'Old trial', -0.05);
+    await settle();
+    const kept = a.state.useWorkspaceStore.getState().drafts[a.key]!;
+    const old = new Date(Date.now() - (a.state.OLD_DRAFT_DAYS + 3) * 86_400_000).toISOString();
+    act(() => a.state.useWorkspaceStore.getState().keepDraft(a.key, { ...kept, keptAt: old }));
+    const aKey = a.key;
+    await a.close();
+    const b = await openTab();
+    const note = await b.view.findByTestId('kept-draft-old');
+    expect(note.textContent).toMatch(new RegExp(`kept ${b.state.OLD_DRAFT_DAYS + 3} days ago: discard it if it is no longer needed`));
+    expect(Object.keys(b.state.useWorkspaceStore.getState().drafts)).toEqual([aKey]);
+  });
+});
