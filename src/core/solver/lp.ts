@@ -108,6 +108,22 @@ export function observeDenseLps(f: ((lp: DenseLp) => void) | null): ((lp: DenseL
 }
 
 /**
+ * Show an LP solved by another exact method (the three-variable vertex solver, `plane-lp3.ts`) to
+ * the observer of {@link observeDenseLps}, as if {@link solveDenseLp} had solved it.
+ */
+export function noteDenseLp(
+  sense: 'minimize' | 'maximize',
+  n: number,
+  objective: ArrayLike<number>,
+  m: number,
+  a: ArrayLike<number>,
+  lo: ArrayLike<number>,
+  hi: ArrayLike<number>,
+): void {
+  if (observer !== null) notifyObserver(sense, n, objective, m, a, lo, hi);
+}
+
+/**
  * Memory for {@link solveDenseLp}, reused from one LP to the next so that a solve allocates no
  * tableau: the simplex tableau and its two index arrays (grown to the largest LP seen, never
  * shrunk) and one result vector per number of variables.

@@ -6,7 +6,8 @@
 import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared';
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
-import { LpWorkspace, solveDenseLp } from './lp';
+import { LpWorkspace, noteDenseLp, solveDenseLp, type LpSolution } from './lp';
+import { solvePlaneLp3 } from './plane-lp3';
 
 /** What one solve switches on. */
 export interface SolveContext {
@@ -290,10 +291,45 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
     sol.x[fold] = kappa * others;
     return { status: 'optimal', x: sol.x, objective: sol.objective };
   }
-  const sol = solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
+  // Three component variables and nothing else: the exact vertex solver of `plane-lp3.ts` (the
+  // same answer as the simplex; it hands back the cases where the two could differ).
+  const sol = (width === 3 && vertexLp3 && solveNodeLp3(sense, obj, m, buf, rowLo, rowHi)) || solveDenseLp(sense, width, obj, m, buf, rowLo, rowHi, scratch.lp);
   scratch.clean(o, m, width);
   if (sol.status === 'optimal') return sol as NodeSolution; // (the LP's own answer object: no copy)
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+}
+
+/** Whether three-variable node LPs go to the vertex solver (see {@link useVertexLp3}). */
+let vertexLp3 = true;
+
+/**
+ * Switch the three-variable vertex solver of node LPs on or off (on by default; off, every node LP
+ * goes to the dense simplex). For tests and benchmarks that compare the two paths.
+ *
+ * @param on - true to use it
+ * @returns the setting before
+ */
+export function useVertexLp3(on: boolean): boolean {
+  const before = vertexLp3;
+  vertexLp3 = on;
+  return before;
+}
+
+/**
+ * A three-variable node LP by {@link solvePlaneLp3}, shown to the LP observer as the simplex's LPs
+ * are (benchmarks hand the same LPs to another solver); null where the simplex must solve it.
+ */
+function solveNodeLp3(
+  sense: 'minimize' | 'maximize',
+  obj: Float64Array,
+  m: number,
+  buf: Float64Array,
+  rowLo: Float64Array,
+  rowHi: Float64Array,
+): LpSolution | null {
+  const sol = solvePlaneLp3(sense, obj, m, buf, rowLo, rowHi);
+  if (sol) noteDenseLp(sense, 3, obj, m, buf, rowLo, rowHi);
+  return sol;
 }
 
 /**
