@@ -5,13 +5,15 @@
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import type { PreparedProblem } from './prepared';
-import { groupOn, viRoot } from './prepared';
-import { solveNodeInto, type NodeSolution, type SolveContext } from './rows';
+import { groupOn, viBandFloor, viRoot } from './prepared';
+import { solveNodeInto, threeStockPath, type NodeSolution, type SolveContext } from './rows';
 import type { ViChord } from './vi-boundary';
 import type { ExtraRow } from './objectives';
 
 const NO_FRACTIONS = new Float64Array(0);
 const NO_CHORDS: readonly ViChord[] = [];
+/** The one row X100 ≥ alpha (beta 0) of the floor test in {@link optimise} (module scratch). */
+const FLOOR_ROW: ViChord[] = [{ alpha: 0, beta: 0 }];
 
 /** VI accepted as feasible: VI ≥ minVi − this (the issue's tolerance is 0.01; half of it is kept in reserve). */
 export const VI_ACCEPT_TOLERANCE = 0.005;
@@ -219,8 +221,23 @@ export function optimise(context: OptimiseContext): OptimiseOutcome {
   const bx0 = blendX(P, vars, w0);
   if (viOf(P, bx0.x40, bx0.x100) >= vi.minVi - VI_ACCEPT_TOLERANCE) return checkedOptimal(w0, plain.objective, count.lps);
   const minAccept = vi.minVi - VI_ACCEPT_TOLERANCE;
+  const own = bandOn && vi === P.vi;
+  if (own && P.cache.viRoot === undefined && threeStockPath(ctx)) {
+    // Before the root relaxation is first built (h at both band ends and its chords, about 1 µs):
+    // h rises with X40, so every blend in band with VI ≥ minVi has X100 ≥ h(X(ν_lo)), the floor
+    // of `viBandFloor`. One LP with that row, lowered by the margin of the cheap test in
+    // `solvePrepared` (≈ 0.05 VI, more than VI_ACCEPT_TOLERANCE), is a relaxation of every node the
+    // branch and bound could accept: infeasible, it proves the problem infeasible without the
+    // relaxation. Only where the LP is a three-variable one (`plane-lp3.ts`, about 0.15 µs): on
+    // the engine bench's problems it settled 4 of the 7 three-stock problems whose root relaxation
+    // is infeasible, and none of the 3 four-stock ones, where each LP costs a simplex. (Once the
+    // root relaxation is cached this LP would only add to its own.)
+    FLOOR_ROW[0]!.alpha = viBandFloor(P)! - 1e-3 / P.coords.rowScale;
+    const floor = solveWith(ctx, a, b, true, FLOOR_ROW, count);
+    if (floor.status !== 'optimal') return noOptimum(floor.status, count.lps);
+  }
   const open: BbNode[] = [];
-  const root = bandOn && vi === P.vi ? viRoot(P) : null;
+  const root = own ? viRoot(P) : null;
   let failed: boolean;
   if (root) failed = addNode(ctx, open, count, a, b, root.hA, root.hB, root.chords);
   else {

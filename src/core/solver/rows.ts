@@ -303,8 +303,18 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
 let vertexLp3 = true;
 
 /**
- * Switch the three-variable vertex solver of node LPs on or off (on by default; off, every node LP
- * goes to the dense simplex). For tests and benchmarks that compare the two paths.
+ * Whether a solve takes the three-stock path: its node LPs have three variables and nothing else
+ * (no 'closest' auxiliaries, no lifted variables), so `plane-lp3.ts` solves them, and the branch
+ * and bound tries its floor LP before the root relaxation (`branch-and-bound.ts`).
+ */
+export function threeStockPath(ctx: SolveContext): boolean {
+  return vertexLp3 && ctx.vars.length === 3 && !ctx.withAux && !ctx.lift;
+}
+
+/**
+ * Switch the three-stock path on or off (on by default; off, every node LP goes to the dense
+ * simplex and the branch and bound goes straight to the root relaxation, as for other sizes). For
+ * tests and benchmarks that compare the two paths.
  *
  * @param on - true to use it
  * @returns the setting before

@@ -138,9 +138,10 @@ describe('solvePlaneLp3 — exact LP for three variables on a normalisation plan
   });
 });
 
-describe('three-stock solves with and without the vertex solver', () => {
+describe('three-stock solves with and without the three-stock path', () => {
   it('give the same answers on 20,000 seeded problems (fractions to 1e-9, the same reasons)', () => {
-    // common practice (no source): the special path must not change any answer
+    // common practice (no source): the special path (vertex LPs, the floor LP before the root
+    // relaxation) must not change any answer of the general one (simplex, root relaxation)
     const problems = threeStockProblems(20_000, 2112);
     const solveAll = (on: boolean): PlainSolveResult[] => {
       const before = useVertexLp3(on);
@@ -175,5 +176,26 @@ describe('three-stock solves with and without the vertex solver', () => {
     expect(optimal).toBeGreaterThan(5000);
     expect(infeasible).toBeGreaterThan(1000);
     expect(withVi).toBeGreaterThan(2000);
+  });
+
+  it('settle some infeasible problems by the floor LP, without the root relaxation', () => {
+    // common practice (no source): the floor LP is a relaxation, so it only ever proves infeasibility
+    const problems = threeStockProblems(4000, 77).filter((p) => p.minVi !== undefined && p.objective === 'cost');
+    let settled = 0;
+    for (const p of problems) {
+      const before = useVertexLp3(false);
+      const G = preparePlain(p);
+      const general = solvePrepared(G);
+      useVertexLp3(true);
+      const S = preparePlain(p);
+      const special = solvePrepared(S);
+      useVertexLp3(before);
+      expect(special.status).toBe(general.status);
+      if (G.cache.viRoot !== undefined && S.cache.viRoot === undefined) {
+        settled++;
+        expect(special.status).toBe('infeasible');
+      }
+    }
+    expect(settled).toBeGreaterThan(20);
   });
 });
