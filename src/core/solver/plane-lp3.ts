@@ -53,9 +53,8 @@ const TIE = 1e-9;
 
 /** Normals of the constraint planes (3 per plane) and each row's kind, grown to the largest LP seen. */
 let normals = new Float64Array(3 * 16);
-/** Per row 1 … m − 1: 1 (≥ 0), 2 (≤ 0) or 3 (= 0), and 1 / its largest coefficient. */
+/** Per plane from index 3 on (a row): 1 (n·y ≥ 0) or 3 (n·y = 0). */
 let kinds = new Int8Array(16);
-let rowScale = new Float64Array(16);
 /** Feasible vertices of one solve: their values and points. */
 let candF = new Float64Array(64);
 let candY = new Float64Array(3 * 64);
@@ -97,9 +96,10 @@ export function solvePlaneLp3(
   if (normals.length < 3 * planesMax) {
     normals = new Float64Array(6 * planesMax);
     kinds = new Int8Array(2 * planesMax);
-    rowScale = new Float64Array(2 * planesMax);
   }
+  // (Module arrays read into locals: the loops below then load no module binding.)
   const N = normals;
+  const kind = kinds;
   for (let q = 0; q < 9; q++) N[q] = 0;
   N[0] = 1;
   N[4] = 1;
@@ -116,11 +116,13 @@ export function solvePlaneLp3(
     const x = a[o]!, y = a[o + 1]!, z = a[o + 2]!;
     const big = Math.max(Math.abs(x), Math.abs(y), Math.abs(z));
     if (!(big > 0)) continue; // 0 ≥ 0, 0 ≤ 0: no condition
-    N[3 * k] = x;
-    N[3 * k + 1] = y;
-    N[3 * k + 2] = z;
-    kinds[k] = hasLo && hasHi ? 3 : hasLo ? 1 : 2;
-    rowScale[k] = 1 / big;
+    // Stored scaled to a largest coefficient of 1 and signed so that the row reads n·y ≥ 0 (an
+    // equality keeps kind 3): the miss of a point is then −n·y (or |n·y|).
+    const sg = hasLo ? 1 / big : -1 / big;
+    N[3 * k] = x * sg;
+    N[3 * k + 1] = y * sg;
+    N[3 * k + 2] = z * sg;
+    kind[k] = hasLo && hasHi ? 3 : 1;
     k++;
   }
   const pairs = (k * (k - 1)) / 2;
@@ -128,6 +130,8 @@ export function solvePlaneLp3(
     candF = new Float64Array(2 * pairs);
     candY = new Float64Array(6 * pairs);
   }
+  const cf = candF;
+  const cy = candY;
   const sign = sense === 'minimize' ? 1 : -1;
   let count = 0;
   let best = -1;
@@ -143,14 +147,17 @@ export function solvePlaneLp3(
       const s = d0 * ex + d1 * ey + d2 * ez;
       const norm = Math.abs(ex) + Math.abs(ey) + Math.abs(ez);
       if (!(Math.abs(s) > 1e-12 * norm)) continue; // parallel planes, or a line inside d·y = 0
-      const y0 = ex / s, y1 = ey / s, y2 = ez / s;
-      // Worst miss of any condition (y ≥ 0, then the rows), relative to each row's scale.
-      let miss = Math.max(-y0, -y1, -y2);
+      const inv = 1 / s;
+      const y0 = ex * inv, y1 = ey * inv, y2 = ez * inv;
+      // Worst miss of any condition (y ≥ 0, then the rows), each row scaled to a largest
+      // coefficient of 1.
+      let miss = -y0;
+      if (-y1 > miss) miss = -y1;
+      if (-y2 > miss) miss = -y2;
       if (miss > CLEARLY_INFEASIBLE) continue;
       for (let r = 3; r < k; r++) {
-        const v = (N[3 * r]! * y0 + N[3 * r + 1]! * y1 + N[3 * r + 2]! * y2) * rowScale[r]!;
-        const kind = kinds[r]!;
-        const e = kind === 1 ? -v : kind === 2 ? v : Math.abs(v);
+        const v = N[3 * r]! * y0 + N[3 * r + 1]! * y1 + N[3 * r + 2]! * y2;
+        const e = kind[r] === 3 ? Math.abs(v) : -v;
         if (e > miss) {
           miss = e;
           if (miss > CLEARLY_INFEASIBLE) break;
@@ -159,10 +166,10 @@ export function solvePlaneLp3(
       if (miss > CLEARLY_INFEASIBLE) continue;
       if (miss > FEASIBLE) return null; // a sliver: the simplex decides
       const f = sign * (c0 * y0 + c1 * y1 + c2 * y2);
-      candF[count] = f;
-      candY[3 * count] = y0;
-      candY[3 * count + 1] = y1;
-      candY[3 * count + 2] = y2;
+      cf[count] = f;
+      cy[3 * count] = y0;
+      cy[3 * count + 1] = y1;
+      cy[3 * count + 2] = y2;
       if (f < bestF) {
         bestF = f;
         best = count;
@@ -180,12 +187,12 @@ export function solvePlaneLp3(
     ans.objective = Number.NaN;
     return ans;
   }
-  const b0 = candY[3 * best]!, b1 = candY[3 * best + 1]!, b2 = candY[3 * best + 2]!;
+  const b0 = cy[3 * best]!, b1 = cy[3 * best + 1]!, b2 = cy[3 * best + 2]!;
   // A different vertex as good as the best: the simplex's pivot rules choose, not this function.
   const tie = TIE * Math.max(1, Math.abs(bestF));
   for (let q = 0; q < count; q++) {
-    if (q === best || candF[q]! - bestF > tie) continue;
-    const gap = Math.max(Math.abs(candY[3 * q]! - b0), Math.abs(candY[3 * q + 1]! - b1), Math.abs(candY[3 * q + 2]! - b2));
+    if (q === best || cf[q]! - bestF > tie) continue;
+    const gap = Math.max(Math.abs(cy[3 * q]! - b0), Math.abs(cy[3 * q + 1]! - b1), Math.abs(cy[3 * q + 2]! - b2));
     if (gap > TIE) return null;
   }
   x[0] = b0 > PRECISION ? roundToPrecision(b0, PRECISION) : 0;
