@@ -432,8 +432,13 @@ function takeFromOtherTab(key: StoreKey, st: SyncState, snapshot: RecordSet, mer
     st.applying = false;
   }
   if (st.spec.quiet) return;
-  const replaced = merged.replacedMine.filter((k) => now.fromTheirs.includes(k));
-  const changed = now.fromTheirs.filter((k) => !replaced.includes(k));
+  // Only records whose value this tab sees change are named (two tabs may commit the same value, e.g.
+  // the blank QC fields both write as a recipe's first QC entry is made).
+  const differs = (k: string) =>
+    now.records.has(k) !== snapshot.records.has(k) || JSON.stringify(now.records.get(k)) !== JSON.stringify(snapshot.records.get(k));
+  const replaced = merged.replacedMine.filter((k) => now.fromTheirs.includes(k) && differs(k));
+  const changed = now.fromTheirs.filter((k) => !merged.replacedMine.includes(k) && differs(k));
+  if (replaced.length === 0 && changed.length === 0) return;
   const values = new Map([...now.records, ...snapshot.records]);
   const parts: string[] = [];
   if (changed.length) {

@@ -11,6 +11,7 @@ import { ISO_GRADE_NUMBERS } from '../core/viscosity/iso-grades';
 import { idbPersistStorage, type StoreSpec } from './persistence';
 import { demoRecipes, demoTargets, demoRecipeId } from './demo';
 import { newId } from './ids';
+import { useLibraryStore } from './library';
 import {
   FieldRuleError,
   TEXT_RULES,
@@ -182,6 +183,35 @@ export interface RecipesState extends RecipesData {
   setQcInputs: (recipeId: string, patch: Partial<QcInputs>) => string | null;
 }
 
+const QC_VALUE_WORDS: Record<string, string> = { kv40: 'ν40', kv100: 'ν100', density15: 'density' };
+const QC_FIELD_WORDS: Record<string, string> = {
+  aimKv40: 'the aim ν40',
+  'heel/massKg': 'the heel mass',
+  'heel/kv40': 'the heel ν40',
+  'heel/kv100': 'the heel ν100',
+  'heel/density15': 'the heel density',
+  'heel/additiveFraction': 'the heel’s additive share',
+  'heel/source': 'the heel’s source',
+  'correction/kv40': 'the batch’s measured ν40',
+  'correction/kv100': 'the batch’s measured ν100',
+  'correction/massKg': 'the mass in the vessel',
+  'correction/vesselLimitKg': 'the vessel limit',
+  'correction/bandPct': 'the correction band',
+  'correction/objective': 'the correction’s objective',
+  'correction/stockIds': 'the stocks the correction may add',
+};
+
+/** One QC field in words ("the heel mass", "the measured ν40 of the lot of stock BW-190"), from its path. */
+function qcFieldWords(path: readonly string[]): string {
+  const stock = (sid: string | undefined) => {
+    const c = useLibraryStore.getState().components.find((x) => x.id === sid);
+    return c ? `stock ${c.code}` : 'a stock';
+  };
+  if (path[0] === 'lots') return `the measured ${QC_VALUE_WORDS[path[2] ?? ''] ?? 'values'} of the lot of ${stock(path[1])}`;
+  if (path[0] === 'correction' && path[1] === 'onHandKg') return `the kg on hand of ${stock(path[2])}`;
+  return QC_FIELD_WORDS[path.join('/')] ?? `the QC field ${path.join(' ')}`;
+}
+
 /** Fields of a recipe that an approved or superseded recipe keeps for good. */
 const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status', 'supersedes', 'reasonForChange', 'revision', 'approvedAt'] as const;
 
@@ -189,12 +219,15 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
   key: 'recipes',
   version: 9,
   schema: (m) => m.recipesDataSchema,
-  // Each recipe, each recipe's targets, blend sheet and QC entries, and each entry of the line plan
-  // (period, unit, tank limit, a grade's demand, a stock's supply or least use) are records of their
-  // own when tabs merge their saves; the active recipe belongs to the tab.
+  // Each recipe, each recipe's targets and blend sheet, each field of its QC entries (a lot's measured
+  // value, a field of the heel or of the correction: s21 item 2, two tabs typing different results of
+  // one batch keep both), and each entry of the line plan (period, unit, tank limit, a grade's demand,
+  // a stock's supply or least use) are records of their own when tabs merge their saves; the active
+  // recipe belongs to the tab.
   layout: {
     lists: { recipes: 'id' },
-    maps: ['targets', 'sheets', 'qc'],
+    maps: ['targets', 'sheets'],
+    deep: ['qc'],
     parts: { linePlan: ['demands', 'supplies', 'keep'] },
     local: ['activeRecipeId'],
     label: (key, v) => {
@@ -206,7 +239,11 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
       if (field === 'recipes') return v ? recipeWho(String((v as { name?: unknown }).name ?? '')) : 'a deleted recipe';
       if (field === 'targets' && id) return `the targets of ${nameOf(id)}`;
       if (field === 'sheets' && id) return `the blend sheet of ${nameOf(id)}`;
-      if (field === 'qc' && id) return `the QC entries of ${nameOf(id)}`;
+      if (field === 'qc' && id) {
+        const path = key.split('/').slice(2).map(decodeURIComponent);
+        const of = `the QC entries of ${nameOf(decodeURIComponent(id))}`;
+        return path.length ? `${qcFieldWords(path)} in ${of}` : of;
+      }
       if (field === 'linePlan' && id === 'demands' && entry !== undefined) return `the line plan’s demand of ${nameOf(entry)}`;
       if (field === 'linePlan' && id === 'supplies') return 'the line plan’s supply of a limited stock';
       if (field === 'linePlan' && id === 'keep') return 'the line plan’s least use of a stock';

@@ -17,6 +17,10 @@
  * - `parts`: object fields cut into one record per property, the properties named here being maps
  *   cut into one record per entry (the line plan: its period, unit and tank limit, each grade's
  *   demand, each stock's supply and least use), so two tabs editing different entries keep both;
+ * - `deep`: object fields whose entries are cut into one record per value, down through nested
+ *   objects (a recipe's QC entries: each lot's each measured value, each field of the heel and of the
+ *   correction), so two tabs typing different fields of one entry keep both; arrays, plain values and
+ *   empty objects are values; keys are `field/id/part/…`, each part URI-encoded;
  * - every other top-level field is one record of its own.
  */
 export interface RecordLayout {
@@ -24,6 +28,7 @@ export interface RecordLayout {
   maps?: readonly string[];
   local?: readonly string[];
   parts?: Record<string, readonly string[]>;
+  deep?: readonly string[];
   /** The record in the user's words for a message ("stock BW-190"); default: the key. */
   label?: (key: string, value: unknown) => string;
 }
@@ -54,9 +59,12 @@ export function splitRecords(data: unknown, layout: RecordLayout): Map<string, u
   const maps = new Set(layout.maps ?? []);
   const local = new Set(layout.local ?? []);
   const parts = layout.parts ?? {};
+  const deep = new Set(layout.deep ?? []);
   for (const [field, value] of Object.entries(data)) {
     if (local.has(field)) continue;
-    if (field in parts && isObject(value)) {
+    if (deep.has(field) && isObject(value)) {
+      for (const [k, v] of Object.entries(value)) leaves(`${field}${SEP}${encodeURIComponent(k)}`, v, out);
+    } else if (field in parts && isObject(value)) {
       const subMaps = parts[field]!;
       for (const [prop, v] of Object.entries(value)) {
         if (subMaps.includes(prop) && isObject(v)) for (const [k, x] of Object.entries(v)) out.set(`${field}${SEP}${prop}${SEP}${k}`, x);
@@ -75,18 +83,42 @@ export function splitRecords(data: unknown, layout: RecordLayout): Map<string, u
   return out;
 }
 
+/** Every value under `prefix`, one record each (a non-empty object is followed down; anything else is a value). */
+function leaves(prefix: string, v: unknown, out: Map<string, unknown>): void {
+  if (isObject(v) && Object.keys(v).length > 0) {
+    for (const [k, x] of Object.entries(v)) leaves(`${prefix}${SEP}${encodeURIComponent(k)}`, x, out);
+  } else out.set(prefix, v);
+}
+
+/** Put a deep record's value at its path in `root` (new objects on the way; an empty object never hides entries). */
+function placeDeep(root: Record<string, unknown>, path: readonly string[], value: unknown): void {
+  let obj = root;
+  for (const p of path.slice(0, -1)) {
+    if (!isObject(obj[p])) obj[p] = {};
+    obj = obj[p] as Record<string, unknown>;
+  }
+  const last = path[path.length - 1]!;
+  if (isObject(value) && Object.keys(value).length === 0) {
+    if (!isObject(obj[last])) obj[last] = {}; // a fresh object: entries placed later must not change the record
+  } else obj[last] = value;
+}
+
 /** Persisted data from records (inverse of splitRecords); tab-local fields are taken from `local`. */
 export function joinRecords(records: Map<string, unknown>, layout: RecordLayout, local: unknown): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   const lists = layout.lists ?? {};
   const maps = new Set(layout.maps ?? []);
   const parts = layout.parts ?? {};
+  const deep = new Set(layout.deep ?? []);
   for (const field of Object.keys(lists)) out[field] = [];
   for (const field of maps) out[field] = {};
+  for (const field of deep) out[field] = {};
   for (const [key, value] of records) {
     const cut = key.indexOf(SEP);
     const field = cut < 0 ? key : key.slice(0, cut);
-    if (cut >= 0 && field in parts) {
+    if (cut >= 0 && deep.has(field)) {
+      placeDeep(out[field] as Record<string, unknown>, key.slice(cut + 1).split(SEP).map(decodeURIComponent), value);
+    } else if (cut >= 0 && field in parts) {
       // A part's maps exist (empty) as soon as any of its records does.
       const subMaps = parts[field]!;
       if (!isObject(out[field])) out[field] = Object.fromEntries(subMaps.map((m) => [m, {}]));

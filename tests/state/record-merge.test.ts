@@ -99,3 +99,41 @@ describe('mergeRecords', () => {
     );
   });
 });
+
+describe('deep records (s21 item 2: each QC field its own record)', () => {
+  const layout = { deep: ['qc'] } as const;
+  const data = {
+    qc: {
+      'r/1': {
+        aimKv40: null,
+        lots: { s1: { kv40: 452, kv100: null } },
+        heel: { massKg: 1200 },
+        correction: { onHandKg: {}, stockIds: ['s2'] },
+      },
+    },
+    other: 1,
+  };
+
+  it('cuts each value into a record (empty objects and arrays are values) and joins them back as they were', () => {
+    const recs = splitRecords(data, layout);
+    expect([...recs.keys()].sort()).toEqual(
+      ['other', 'qc/r%2F1/aimKv40', 'qc/r%2F1/correction/onHandKg', 'qc/r%2F1/correction/stockIds', 'qc/r%2F1/heel/massKg', 'qc/r%2F1/lots/s1/kv100', 'qc/r%2F1/lots/s1/kv40'].sort(),
+    );
+    expect(joinRecords(recs, layout, null)).toEqual(data);
+  });
+
+  it('an empty object beside entries of the same path never hides them, whichever comes first, and is never changed', () => {
+    const empty = {};
+    const a = new Map<string, unknown>([
+      ['qc/r/lots', empty],
+      ['qc/r/lots/s1/kv40', 450],
+    ]);
+    const b = new Map<string, unknown>([
+      ['qc/r/lots/s1/kv40', 450],
+      ['qc/r/lots', empty],
+    ]);
+    expect(joinRecords(a, layout, null)).toEqual({ qc: { r: { lots: { s1: { kv40: 450 } } } } });
+    expect(joinRecords(b, layout, null)).toEqual({ qc: { r: { lots: { s1: { kv40: 450 } } } } });
+    expect(empty).toEqual({});
+  });
+});

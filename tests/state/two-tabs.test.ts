@@ -127,3 +127,48 @@ describe('two tabs editing the line plan at once', () => {
     }
   });
 });
+
+describe('two tabs editing the QC loop of one recipe at once (s21 item 2)', () => {
+  it('keeps a lot result typed in one tab and the heel and batch result typed in the other (each QC field its own record)', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const id = a.state.useRecipes.getState().recipes[0]!.id;
+    const none = { kv40: null, kv100: null, density15: null };
+    // The recipe's QC entries exist (blank) in both tabs, as once either tab has opened them.
+    expect(a.state.recipeActions.setQcInputs(id, { aimKv40: null })).toBeNull();
+    await settle([a, b]);
+    // Interleaved, without waiting for any save (invented lab values): tab A records two lots'
+    // measured ν40, tab B the heel and the batch's measured ν40. Before, the recipe's QC entries were
+    // one record and the later tab's copy replaced the other tab's results.
+    expect(a.state.recipeActions.setQcInputs(id, { lots: { 'demo-bw-190': { ...none, kv40: 452 } } })).toBeNull();
+    expect(b.state.recipeActions.setQcInputs(id, { heel: { ...a.state.DEFAULT_QC_INPUTS.heel, massKg: 1200, kv40: 300 } })).toBeNull();
+    const lotsA = a.state.useRecipes.getState().qc[id]!.lots;
+    expect(a.state.recipeActions.setQcInputs(id, { lots: { ...lotsA, 'demo-bw-160': { ...none, kv40: 98.5 } } })).toBeNull();
+    const corrB = b.state.useRecipes.getState().qc[id]!.correction;
+    expect(b.state.recipeActions.setQcInputs(id, { correction: { ...corrB, kv40: 331 } })).toBeNull();
+    await settle([a, b]);
+    const c = await openTab(); // a reload
+    for (const t of [a, b, c]) {
+      const q = t.state.useRecipes.getState().qc[id]!;
+      expect(q.lots['demo-bw-190']?.kv40).toBe(452);
+      expect(q.lots['demo-bw-160']?.kv40).toBe(98.5);
+      expect(q.heel.massKg).toBe(1200);
+      expect(q.heel.kv40).toBe(300);
+      expect(q.correction.kv40).toBe(331);
+    }
+  });
+
+  it('the same QC field typed in both tabs keeps the later entry, and the other tab is told which field', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const r = a.state.useRecipes.getState().recipes[0]!;
+    const heel = a.state.DEFAULT_QC_INPUTS.heel;
+    a.state.recipeActions.setQcInputs(r.id, { heel: { ...heel, massKg: 900 } });
+    await new Promise((res) => setTimeout(res, 5));
+    b.state.recipeActions.setQcInputs(r.id, { heel: { ...heel, massKg: 950 } });
+    await settle([a, b]);
+    expect(a.state.useRecipes.getState().qc[r.id]!.heel.massKg).toBe(950);
+    expect(b.state.useRecipes.getState().qc[r.id]!.heel.massKg).toBe(950);
+    expect(a.persistence.useStorageStatus.getState().externalChange).toMatch(/heel mass .*QC entries of/i);
+  });
+});
