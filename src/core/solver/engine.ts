@@ -33,6 +33,15 @@
  *
  * For objectives other than cost, a second LP minimises cost among recipes within a hair of the
  * first optimum (lexicographic), so ties are broken by price.
+ *
+ * ## Three stocks
+ * With three component variables (and no 'closest' auxiliaries) a node LP is a linear objective
+ * over a polygon, solved exactly by `plane-lp3.ts` from the polygon's vertices (the simplex's
+ * answer, rounded as it rounds; ties and near-infeasible slivers still go to the simplex), and the
+ * VI branch and bound first tries one LP with the floor row X100 ≥ h(X(ν_lo)) before it builds the
+ * root relaxation (`branch-and-bound.ts`). Every other size takes the general path; `useVertexLp3`
+ * in `rows.ts` switches the three-stock path off, and tests/core/solver/plane-lp3.test.ts checks
+ * that both paths give the same answers.
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';

@@ -108,19 +108,12 @@ export function observeDenseLps(f: ((lp: DenseLp) => void) | null): ((lp: DenseL
 }
 
 /**
- * Show an LP solved by another exact method (the three-variable vertex solver, `plane-lp3.ts`) to
- * the observer of {@link observeDenseLps}, as if {@link solveDenseLp} had solved it.
+ * Whether an observer is set ({@link observeDenseLps}): an LP solved by another exact method (the
+ * three-variable vertex solver, `plane-lp3.ts`) is then shown to it with {@link noteDenseLp}, as if
+ * {@link solveDenseLp} had solved it.
  */
-export function noteDenseLp(
-  sense: 'minimize' | 'maximize',
-  n: number,
-  objective: ArrayLike<number>,
-  m: number,
-  a: ArrayLike<number>,
-  lo: ArrayLike<number>,
-  hi: ArrayLike<number>,
-): void {
-  if (observer !== null) notifyObserver(sense, n, objective, m, a, lo, hi);
+export function observingDenseLps(): boolean {
+  return observer !== null;
 }
 
 /**
@@ -214,7 +207,7 @@ export function solveDenseLp(
   hi: ArrayLike<number>,
   ws?: LpWorkspace,
 ): LpSolution {
-  if (observer !== null) notifyObserver(sense, n, objective, m, a, lo, hi);
+  if (observer !== null) noteDenseLp(sense, n, objective, m, a, lo, hi);
   const work = ws ?? new LpWorkspace();
   const sign = sense === 'minimize' ? -1 : 1;
   let tableau = writeTableau(work, sign, n, objective, m, a, lo, hi);
@@ -256,9 +249,9 @@ function answer(ws: LpWorkspace | undefined, status: LpStatus, x: Float64Array, 
 
 /**
  * Hand a copy of one LP to the observer (a function of its own, so that the solve's compiled code
- * does not depend on which observer is set).
+ * does not depend on which observer is set); `noteDenseLp` for an LP another exact method solved.
  */
-function notifyObserver(...[sense, n, objective, m, a, lo, hi]: Parameters<typeof solveDenseLp>): void {
+export function noteDenseLp(...[sense, n, objective, m, a, lo, hi]: Parameters<typeof solveDenseLp>): void {
   observer?.({
     sense,
     n,

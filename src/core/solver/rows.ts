@@ -6,7 +6,7 @@
 import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared';
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
-import { LpWorkspace, noteDenseLp, solveDenseLp, type LpSolution } from './lp';
+import { LpWorkspace, noteDenseLp, observingDenseLps, solveDenseLp, type LpSolution } from './lp';
 import { solvePlaneLp3 } from './plane-lp3';
 
 /** What one solve switches on. */
@@ -338,7 +338,7 @@ function solveNodeLp3(
   rowHi: Float64Array,
 ): LpSolution | null {
   const sol = solvePlaneLp3(sense, obj, m, buf, rowLo, rowHi);
-  if (sol) noteDenseLp(sense, 3, obj, m, buf, rowLo, rowHi);
+  if (sol && observingDenseLps()) noteDenseLp(sense, 3, obj, m, buf, rowLo, rowHi);
   return sol;
 }
 
