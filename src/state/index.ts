@@ -51,6 +51,8 @@
  *   setHabits(habits) / setExplorer(session); ownDraftKey() this tab's draft key, adoptDraftKey(key),
  *   draftKeysOfOpenTabs() → the keys other open tabs hold (their drafts are not offered here);
  *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
+ * Leaving: holdLeave(() => boolean) asks for the browser's leave-page warning while a screen holds unsaved
+ *   typed work of its own (the focused field's typed text and refused entries are followed by themselves).
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
  * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
  * entry checks shared by screens and imports in ./checks.ts; every stored field's limits in ./field-rules.ts.
@@ -64,6 +66,7 @@ import { useRecipesStore, RECIPES_SPEC, demoRecipesData, type RecipeChanges, typ
 import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
 import { useWorkspaceStore, WORKSPACE_SPEC, type WorkspaceData } from './workspace';
 import { answerDraftQuestions, leaveSharedKey } from './tab-draft';
+import { installLeaveWarning } from './leave-guard';
 import {
   useStorageStatus,
   saveNow,
@@ -102,6 +105,7 @@ export {
   type WorkspaceData,
 } from './workspace';
 export { ownDraftKey, adoptDraftKey, draftKeysOfOpenTabs } from './tab-draft';
+export { holdLeave } from './leave-guard';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';
 
@@ -344,6 +348,8 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
       onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
     void leaveSharedKey();
+    // The browser's leave-page warning while typed text is not saved (leave-guard.ts).
+    if (typeof window !== 'undefined' && typeof document !== 'undefined') stopWatching.push(installLeaveWarning(window));
     if (opts.requestPersistence !== false) void requestPersistentStorage();
   })();
   return started;

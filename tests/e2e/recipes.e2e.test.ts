@@ -262,3 +262,47 @@ describe('a specification of unknown grade after the upgrade (s20 defect 5)', ()
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('a reload with typed text not saved (s21 item 3)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('the browser asks before leaving while a limit is typed but not committed or not saved, and not once it is saved', async () => {
+    const a = s.page;
+    await a.goto(`${inject('baseURL')}#/recipes`);
+    await a.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    await a.getByTestId('recipe-list').getByRole('button', { name: /VG 220 — current recipe/ }).click();
+    await a.getByRole('button', { name: 'Duplicate' }).click();
+    await a.getByRole('button', { name: 'Save specification' }).waitFor(); // the copy is a draft
+    const asked: string[] = [];
+    a.on('dialog', (d) => {
+      asked.push(d.type());
+      void d.dismiss(); // stay on the page
+    });
+    const tryReload = () => a.reload({ timeout: 3000 }).catch(() => null);
+    // Typed, not committed (invented value, on the way to 97): the reload asks, the text stays.
+    await a.getByLabel('VI minimum').fill('9');
+    await tryReload();
+    expect(asked).toEqual(['beforeunload']);
+    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('9');
+    // Committed to the form but not saved: still asks.
+    await a.getByLabel('VI minimum').fill('97');
+    await a.getByLabel('VI minimum').press('Tab');
+    await tryReload();
+    expect(asked).toEqual(['beforeunload', 'beforeunload']);
+    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('97');
+    // Saved: the reload goes ahead without a question, and the limit is there after it.
+    await a.getByRole('button', { name: 'Save specification' }).click();
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('"viMin":97');
+    await a.reload();
+    await a.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    expect(asked).toHaveLength(2);
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});

@@ -14,7 +14,7 @@ import { useFormat } from '../../components/format';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { sayRefusal, userMessage } from '../../state/messages';
 import { checkText, type NumberRuleKey, type TextRuleKey } from '../../state/field-rules';
-import { nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { holdLeave, nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
 
 type Flash = { tone: 'success' | 'info' | 'warning'; text: string; undo?: boolean } | null;
@@ -477,6 +477,12 @@ function SpecificationForm({
     setBase(recipe.specification);
   }, [recipe.specification, base, unsaved, elsewhere]);
   const changed = !same(spec, recipe.specification);
+  // Limits typed here but not saved: leaving the page asks first (they live only in this form).
+  useEffect(() => {
+    if (!changed) return;
+    const release = holdLeave(() => true);
+    return () => void release();
+  }, [changed]);
   const revising = recipe.status !== 'draft';
   const set = (patch: Partial<ReleaseSpecification>) => setSpec((s) => ({ ...s, ...patch }));
   const pairError = (lo: number | null, hi: number | null, what: string) =>

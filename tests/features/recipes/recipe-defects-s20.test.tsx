@@ -8,6 +8,7 @@ import { act, cleanup, fireEvent, render, screen, within } from '@testing-librar
 import RecipesScreen from '../../../src/features/recipes/RecipesScreen';
 import { recipeActions, resetDemo, settingsActions, useRecipes } from '../../../src/state';
 import { enter } from '../../helpers/enter-field';
+import { unsavedTyping } from '../../../src/state/leave-guard';
 
 const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === id)!;
 
@@ -140,5 +141,18 @@ describe('Recipes screen — the specification form and its difference list shar
       const short = label.replace(/ \(ASTM D\d+\)$/, '');
       expect(note, short).toContain(`${short}: saved `);
     }
+  });
+
+  it('limits typed but not saved make leaving the page ask first; saving or discarding them ends that (s21 item 3)', () => {
+    render(<RecipesScreen />);
+    expect(unsavedTyping()).toBe(false);
+    enter('VI minimum', '97');
+    expect(unsavedTyping()).toBe(true); // committed to the form, not saved
+    fireEvent.click(screen.getByRole('button', { name: 'Discard changes' }));
+    expect(unsavedTyping()).toBe(false);
+    enter('VI minimum', '96');
+    fireEvent.click(screen.getByRole('button', { name: 'Save specification' }));
+    expect(get(draft).specification.viMin).toBe(96);
+    expect(unsavedTyping()).toBe(false);
   });
 });
