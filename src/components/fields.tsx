@@ -4,7 +4,8 @@
  * it stays in the field with its message, and Escape puts back the stored value (the next value
  * typed is checked and saved like any other). A warning (implausible but possible) is written and stays visible.
  */
-import { useCallback, useEffect, useId, useLayoutEffect, useRef, useState, type ReactNode, type RefObject } from 'react';
+import { useCallback, useEffect, useId, useLayoutEffect, useRef, useState, type CSSProperties, type KeyboardEvent, type MouseEvent, type ReactNode, type RefObject } from 'react';
+import { flushSync } from 'react-dom';
 import { useFormat } from './format';
 import { checkNumber, checkText, type NumberRuleKey, type SayNumbers, type TextRuleKey } from '../state/field-rules';
 
@@ -35,6 +36,86 @@ interface CommonProps {
   size?: number;
   disabled?: boolean;
   hint?: ReactNode;
+  /**
+   * Drawn as light text until the user edits it (a table of many fields: an input or a select with its
+   * options costs several times a line of text to draw). The text is focusable in the same Tab order,
+   * carries the same accessible name and shows the value; Enter, F2, a click or a typed character (which
+   * becomes the first character of the entry) draw the field focused. The field is drawn again as text
+   * once nothing is pending — after Escape, after Enter or leaving the field committed — but stays a
+   * field while it holds a refused entry or its stored value has a message. Needs `hideLabel`.
+   */
+  textUntilEdited?: boolean;
+}
+
+/**
+ * What a key pressed on a field drawn as text does: open the field with the text selected (as Tab into
+ * a field selects it), open it with a typed first character, or nothing (Tab and other keys pass).
+ */
+function openingKey(e: KeyboardEvent): { draft?: string } | null {
+  const paste = (e.ctrlKey || e.metaKey) && !e.altKey && (e.key === 'v' || e.key === 'V');
+  if (paste || e.key === 'Enter' || e.key === 'F2') return {};
+  if (e.ctrlKey || e.metaKey || e.altKey) return null;
+  if (e.key === 'Backspace' || e.key === 'Delete') return { draft: '' };
+  return [...e.key].length === 1 ? { draft: e.key } : null;
+}
+
+/**
+ * Draw the field in place of its text at once (so that the next key already reaches it) and focus it:
+ * `caret` 'all' selects the text, 'end' puts the caret after it.
+ */
+function openInPlace(box: HTMLElement | null, caret: 'all' | 'end', draw: () => void): void {
+  flushSync(draw);
+  const el = box?.querySelector<HTMLInputElement | HTMLTextAreaElement | HTMLSelectElement>('input, textarea, select');
+  if (!el) return;
+  el.focus();
+  if (el instanceof HTMLSelectElement) return;
+  if (caret === 'all') el.select();
+  else el.setSelectionRange(el.value.length, el.value.length);
+}
+
+/**
+ * Back to text once nothing is pending (Escape, or Enter that committed): the text takes the focus,
+ * unless the commit moved it elsewhere (a confirmation opened).
+ */
+function closeInPlace(box: HTMLElement | null, draw: () => void): void {
+  flushSync(draw);
+  const active = document.activeElement;
+  if (active && active !== document.body && active.isConnected && !box?.contains(active)) return;
+  box?.querySelector<HTMLElement>('.cell-text')?.focus();
+}
+
+/**
+ * The text of a text or number field drawn as text (see `textUntilEdited`), inside the field's box:
+ * `open` draws the field in its place, with `typed` as its entry when a typed key opened it.
+ */
+function TextCell(props: {
+  label: string;
+  text: string;
+  size: number;
+  wrap?: boolean;
+  title?: string | undefined;
+  open: (box: HTMLElement | null, typed: string | undefined, caret: 'all' | 'end') => void;
+}) {
+  return (
+    <span
+        role="textbox"
+        tabIndex={0}
+        aria-label={props.label}
+        aria-multiline={props.wrap || undefined}
+        className={props.wrap ? 'cell-text wrap-line' : 'cell-text'}
+        style={props.wrap ? undefined : ({ '--size': props.size } as CSSProperties)}
+        title={props.title}
+        onClick={(e: MouseEvent<HTMLElement>) => props.open(e.currentTarget.parentElement, undefined, 'end')}
+        onKeyDown={(e) => {
+          const k = openingKey(e);
+          if (!k) return;
+          if (k.draft !== undefined || e.key === 'Enter') e.preventDefault();
+          props.open(e.currentTarget.parentElement, k.draft, k.draft === undefined ? 'all' : 'end');
+        }}
+      >
+        {props.text}
+    </span>
+  );
 }
 
 /**
@@ -127,6 +208,30 @@ export function NumberField(props: NumberFieldProps) {
     onDraft?.(undefined);
   };
   const hasMsg = Boolean(current.verdict.error || current.verdict.warning);
+  // Drawn as text until edited (see `textUntilEdited`): open while the user works in it.
+  const [open, setOpen] = useState(false);
+  if (props.textUntilEdited && !open && !dirty && !hasMsg && !props.disabled) {
+    return (
+      <span className={`field ${props.className ?? ''}`}>
+        <TextCell
+          label={props.label}
+          text={text}
+          size={props.size ?? 7}
+          open={(box, typed, caret) =>
+            openInPlace(box, caret, () => {
+              setOpen(true);
+              if (typed === undefined) return;
+              setDraft(typed);
+              setDirty(true);
+              onDraft?.(fmt.parseEntry(typed).value ?? null);
+            })
+          }
+        />
+        {props.hint}
+      </span>
+    );
+  }
+  const close = (box: HTMLElement | null) => closeInPlace(box, () => setOpen(false));
   return (
     <span className={`field ${props.className ?? ''}`}>
       {props.hideLabel ? null : (
@@ -152,13 +257,18 @@ export function NumberField(props: NumberFieldProps) {
           setDirty(true);
           onDraft?.(fmt.parseEntry(e.target.value).value ?? null);
         }}
-        onBlur={() => void commit()}
+        onBlur={() => {
+          commit();
+          setOpen(false);
+        }}
         onKeyDown={(e) => {
           // A refused value must not submit the form around the field with the old value.
           if (e.key === 'Enter') {
             if (!commit()) e.preventDefault();
+            else if (props.textUntilEdited) close(e.currentTarget.parentElement);
           } else if (e.key === 'Escape') {
             revert();
+            if (props.textUntilEdited) close(e.currentTarget.parentElement);
           }
         }}
       />
@@ -248,6 +358,30 @@ export function TextField(props: TextFieldProps) {
     return true;
   };
   const revert = () => setDirty(false);
+  // Drawn as text until edited (see `textUntilEdited`): open while the user works in it.
+  const [open, setOpen] = useState(false);
+  if (props.textUntilEdited && !open && !dirty && !verdict.error && !verdict.warning && !props.disabled) {
+    return (
+      <span className={`field ${props.className ?? ''}`}>
+        <TextCell
+          label={props.label}
+          text={text}
+          size={props.size ?? 14}
+          wrap={Boolean(props.wrap && !props.multiline)}
+          title={props.fullTitle && text ? text : undefined}
+          open={(box, typed, caret) =>
+            openInPlace(box, caret, () => {
+              setOpen(true);
+              if (typed === undefined) return;
+              setDraft(typed);
+              setDirty(true);
+            })
+          }
+        />
+      </span>
+    );
+  }
+  const close = (box: HTMLElement | null) => closeInPlace(box, () => setOpen(false));
   const common = {
     id,
     'aria-label': props.hideLabel ? props.label : undefined,
@@ -259,7 +393,10 @@ export function TextField(props: TextFieldProps) {
     'aria-invalid': verdict.error ? true : undefined,
     'aria-describedby': verdict.error || verdict.warning ? msgId : undefined,
     className: verdict.error ? 'invalid' : undefined,
-    onBlur: () => void commit(),
+    onBlur: () => {
+      commit();
+      setOpen(false);
+    },
   } as const;
   const change = (v: string) => {
     setDraft(v);
@@ -278,9 +415,10 @@ export function TextField(props: TextFieldProps) {
           onKeyDown={(e) => {
             if (e.key === 'Enter') {
               e.preventDefault();
-              commit();
+              if (commit() && props.textUntilEdited) close(e.currentTarget.parentElement);
             } else if (e.key === 'Escape') {
               revert();
+              if (props.textUntilEdited) close(e.currentTarget.parentElement);
             } else if ((e.key === 'Home' || e.key === 'End') && !e.ctrlKey && !e.metaKey && !e.altKey) {
               // As in a one-line field: Home and End go to the start and end of the whole text, not of the wrapped line.
               e.preventDefault();
@@ -314,8 +452,10 @@ export function TextField(props: TextFieldProps) {
           onKeyDown={(e) => {
             if (e.key === 'Enter') {
               if (!commit()) e.preventDefault();
+              else if (props.textUntilEdited) close(e.currentTarget.parentElement);
             } else if (e.key === 'Escape') {
               revert();
+              if (props.textUntilEdited) close(e.currentTarget.parentElement);
             }
           }}
         />
@@ -331,12 +471,97 @@ export interface SelectFieldProps<T extends string> extends CommonProps {
   onChange: (v: T) => void;
 }
 
+/** Every label of a list of choices, one a line (a choice drawn as text keeps the room its select takes: its widest). */
+const labelLines = new WeakMap<ReadonlyArray<{ label: string }>, string>();
+function allLabels(options: ReadonlyArray<{ label: string }>): string {
+  let l = labelLines.get(options);
+  if (l === undefined) {
+    l = options.map((o) => o.label).join('\n');
+    labelLines.set(options, l);
+  }
+  return l;
+}
+
 export function SelectField<T extends string>(props: SelectFieldProps<T>) {
   const id = useId();
+  // Drawn as text until edited (see `textUntilEdited`): a select while the user works in it.
+  const [open, setOpen] = useState(false);
+  if (props.textUntilEdited && !open && !props.disabled) {
+    const { options } = props;
+    const at = options.findIndex((o) => o.value === props.value);
+    /** Draw the select focused; `pick` chooses as the key would have on a focused select; `list` opens its list. */
+    const start = (box: HTMLElement | null, pick?: number, list?: boolean) => {
+      openInPlace(box, 'end', () => setOpen(true));
+      const chosen = pick === undefined ? undefined : options[pick];
+      if (chosen && chosen.value !== props.value) props.onChange(chosen.value);
+      if (list) {
+        try {
+          box?.querySelector('select')?.showPicker();
+        } catch {
+          /* no list without a user gesture: the select is focused, its keys open it */
+        }
+      }
+    };
+    return (
+      <span className={`field ${props.className ?? ''}`}>
+        <span
+          role="combobox"
+          tabIndex={0}
+          aria-label={props.label}
+          aria-expanded={false}
+          className="cell-text cell-choice"
+          onClick={(e: MouseEvent<HTMLElement>) => start(e.currentTarget.parentElement, undefined, true)}
+          onKeyDown={(e) => {
+            const box = e.currentTarget.parentElement;
+            if (e.ctrlKey || e.metaKey) return;
+            if (e.altKey) {
+              if (e.key === 'ArrowDown' || e.key === 'ArrowUp') {
+                e.preventDefault();
+                start(box, undefined, true);
+              }
+              return;
+            }
+            if (e.key === 'Enter' || e.key === 'F2') {
+              e.preventDefault();
+              start(box);
+            } else if (e.key === ' ') {
+              e.preventDefault();
+              start(box, undefined, true);
+            } else if (e.key === 'ArrowDown' || e.key === 'ArrowUp') {
+              e.preventDefault();
+              const next = at + (e.key === 'ArrowDown' ? 1 : -1);
+              start(box, next >= 0 && next < options.length ? next : undefined);
+            } else if ([...e.key].length === 1) {
+              // A letter picks the next choice that starts with it, as on a focused select.
+              e.preventDefault();
+              const k = e.key.toLowerCase();
+              const order = options.map((_, i) => (at + 1 + i) % options.length);
+              start(box, order.find((i) => options[i]!.label.toLowerCase().startsWith(k)));
+            }
+          }}
+        >
+          <span>{options[at]?.label ?? props.value}</span>
+          <span className="cell-choice-room" aria-hidden="true">
+            {allLabels(options)}
+          </span>
+        </span>
+      </span>
+    );
+  }
   return (
     <span className={`field ${props.className ?? ''}`}>
       <FieldLabel id={id} label={props.label} hide={props.hideLabel} />
-      <select id={id} aria-label={props.hideLabel ? props.label : undefined} value={props.value} disabled={props.disabled} onChange={(e) => props.onChange(e.target.value as T)}>
+      <select
+        id={id}
+        aria-label={props.hideLabel ? props.label : undefined}
+        value={props.value}
+        disabled={props.disabled}
+        onChange={(e) => props.onChange(e.target.value as T)}
+        onBlur={() => setOpen(false)}
+        onKeyDown={(e) => {
+          if (e.key === 'Escape' && open) closeInPlace(e.currentTarget.parentElement, () => setOpen(false));
+        }}
+      >
         {props.options.map((o) => (
           <option key={o.value} value={o.value}>
             {o.label}

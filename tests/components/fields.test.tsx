@@ -2,15 +2,17 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { useState } from 'react';
-import { NumberField, TextField } from '../../src/components/fields';
+import { NumberField, SelectField, TextField } from '../../src/components/fields';
 import { settingsActions } from '../../src/state';
 
 /** A field bound to a value, as the screens use it; `saved` records every commit. */
-function Bound({ initial, saved, validate }: { initial: number; saved: (v: number | null) => void; validate?: (v: number | null) => { error?: string } }) {
+function Bound({ initial, saved, validate, asText }: { initial: number; saved: (v: number | null) => void; validate?: (v: number | null) => { error?: string }; asText?: boolean }) {
   const [v, setV] = useState<number | null>(initial);
   return (
     <NumberField
       label="ν40 of BW-280"
+      hideLabel={asText}
+      textUntilEdited={asText}
       value={v}
       validate={validate}
       onCommit={(x) => {
@@ -21,11 +23,13 @@ function Bound({ initial, saved, validate }: { initial: number; saved: (v: numbe
   );
 }
 
-function BoundText({ initial, saved, wrap }: { initial: string; saved: (v: string) => void; wrap?: boolean }) {
+function BoundText({ initial, saved, wrap, asText }: { initial: string; saved: (v: string) => void; wrap?: boolean; asText?: boolean }) {
   const [v, setV] = useState(initial);
   return (
     <TextField
       label="Name of BW-280"
+      hideLabel={asText}
+      textUntilEdited={asText}
       wrap={wrap}
       value={v}
       validate={(x) => ({ error: x.trim() ? undefined : 'a name is required' })}
@@ -177,5 +181,144 @@ describe('TextField wrap: one line of text that wraps to its lines (issue 10, it
     const enter = fireEvent.keyDown(field, { key: 'Enter' });
     expect(enter).toBe(false); // no line break typed
     expect(saved).toHaveBeenCalledWith('Heavy neutral, second source');
+  });
+});
+
+describe('fields drawn as text until edited (a table of many fields, issue 9 item 3)', () => {
+  const cell = (name = 'ν40 of BW-280') => screen.getByRole('textbox', { name });
+  const choices = [
+    { value: 'available', label: 'Available' },
+    { value: 'limited', label: 'Limited' },
+    { value: 'withdrawn', label: 'Withdrawn' },
+  ] as const;
+  function BoundChoice({ saved }: { saved: (v: string) => void }) {
+    const [v, setV] = useState<string>('limited');
+    return (
+      <SelectField
+        label="Availability of BW-280"
+        hideLabel
+        textUntilEdited
+        value={v}
+        options={choices}
+        onChange={(x) => {
+          saved(x);
+          setV(x);
+        }}
+      />
+    );
+  }
+
+  it('shows the value as focusable text carrying the field\'s name, without an input', () => {
+    render(<Bound initial={280} saved={vi.fn()} asText />);
+    const text = cell();
+    expect(text.tagName).toBe('SPAN');
+    expect(text.textContent).toBe('280');
+    expect(text.tabIndex).toBe(0); // in the Tab order where the input stood
+    expect(document.querySelector('input')).toBeNull();
+  });
+
+  it('Enter draws the field focused with its text selected; Escape draws the text again, focused, nothing saved', () => {
+    const saved = vi.fn();
+    render(<Bound initial={280} saved={saved} asText />);
+    cell().focus();
+    fireEvent.keyDown(cell(), { key: 'Enter' });
+    const input = screen.getByLabelText('ν40 of BW-280') as HTMLInputElement;
+    expect(input.tagName).toBe('INPUT');
+    expect(document.activeElement).toBe(input);
+    expect([input.selectionStart, input.selectionEnd]).toEqual([0, 3]);
+    fireEvent.change(input, { target: { value: '300' } });
+    fireEvent.keyDown(input, { key: 'Escape' });
+    expect(cell().textContent).toBe('280');
+    expect(document.activeElement).toBe(cell());
+    expect(saved).not.toHaveBeenCalled();
+  });
+
+  it('a typed character starts the entry, checked as typed; Enter saves and draws the text again, focused', () => {
+    const saved = vi.fn();
+    render(<Bound initial={280} saved={saved} validate={positive} asText />);
+    cell().focus();
+    fireEvent.keyDown(cell(), { key: '3' });
+    const input = screen.getByLabelText('ν40 of BW-280') as HTMLInputElement;
+    expect(input.value).toBe('3');
+    expect([input.selectionStart, input.selectionEnd]).toEqual([1, 1]); // the caret after the typed character
+    fireEvent.change(input, { target: { value: '310' } });
+    fireEvent.keyDown(input, { key: 'Enter' });
+    expect(saved).toHaveBeenCalledWith(310);
+    expect(cell().textContent).toBe('310');
+    expect(document.activeElement).toBe(cell());
+  });
+
+  it('a click draws the field with the caret at the end; leaving it saves and draws the text again', () => {
+    const saved = vi.fn();
+    render(<Bound initial={280} saved={saved} asText />);
+    fireEvent.click(cell());
+    const input = screen.getByLabelText('ν40 of BW-280') as HTMLInputElement;
+    expect(document.activeElement).toBe(input);
+    expect([input.selectionStart, input.selectionEnd]).toEqual([3, 3]);
+    fireEvent.change(input, { target: { value: '295' } });
+    fireEvent.blur(input);
+    expect(saved).toHaveBeenCalledWith(295);
+    expect(cell().textContent).toBe('295');
+  });
+
+  it('leaving a refused entry keeps the field with the typed text and its message (nothing typed is lost)', () => {
+    const saved = vi.fn();
+    render(<Bound initial={280} saved={saved} validate={positive} asText />);
+    fireEvent.click(cell());
+    const input = screen.getByLabelText('ν40 of BW-280') as HTMLInputElement;
+    fireEvent.change(input, { target: { value: '-5' } });
+    fireEvent.blur(input);
+    expect(screen.getByLabelText('ν40 of BW-280')).toBe(input);
+    expect(input.value).toBe('-5');
+    expect(input.getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByRole('alert').textContent).toMatch(/must be above zero/);
+    expect(saved).not.toHaveBeenCalled();
+    // Back in the field, Escape puts back the stored value and draws the text again, focused.
+    input.focus();
+    fireEvent.keyDown(input, { key: 'Escape' });
+    expect(cell().textContent).toBe('280');
+    expect(document.activeElement).toBe(cell());
+  });
+
+  it('a stored value with a message is drawn as the field, with its message', () => {
+    render(<Bound initial={-1} saved={vi.fn()} validate={positive} asText />);
+    expect(screen.getByLabelText('ν40 of BW-280').tagName).toBe('INPUT');
+    expect(screen.getByRole('alert').textContent).toMatch(/must be above zero/);
+  });
+
+  it('a wrapping name is drawn as text and becomes its textarea; Backspace starts an empty entry', () => {
+    const saved = vi.fn();
+    render(<BoundText initial="Group II heavy neutral" saved={saved} wrap asText />);
+    const text = cell('Name of BW-280');
+    expect(text.textContent).toBe('Group II heavy neutral');
+    fireEvent.keyDown(text, { key: 'Backspace' });
+    const area = screen.getByLabelText('Name of BW-280') as HTMLTextAreaElement;
+    expect(area.tagName).toBe('TEXTAREA');
+    expect(area.value).toBe('');
+    expect(screen.getByRole('alert').textContent).toBe('a name is required'); // checked as typed
+    fireEvent.change(area, { target: { value: 'Renamed' } });
+    fireEvent.keyDown(area, { key: 'Enter' });
+    expect(saved).toHaveBeenCalledWith('Renamed');
+    expect(cell('Name of BW-280').textContent).toBe('Renamed');
+  });
+
+  it('a choice is drawn as text named like its select; Enter draws the select, an arrow key picks the next choice, Escape draws the text', () => {
+    const saved = vi.fn();
+    render(<BoundChoice saved={saved} />);
+    const text = screen.getByRole('combobox', { name: 'Availability of BW-280' });
+    expect(text.tagName).toBe('SPAN');
+    expect(text.firstElementChild!.textContent).toBe('Limited');
+    fireEvent.keyDown(text, { key: 'Enter' });
+    const select = screen.getByLabelText('Availability of BW-280') as HTMLSelectElement;
+    expect(select.tagName).toBe('SELECT');
+    expect(document.activeElement).toBe(select);
+    expect(saved).not.toHaveBeenCalled();
+    fireEvent.keyDown(select, { key: 'Escape' });
+    const again = screen.getByRole('combobox', { name: 'Availability of BW-280' });
+    expect(again.tagName).toBe('SPAN');
+    expect(document.activeElement).toBe(again);
+    fireEvent.keyDown(again, { key: 'ArrowDown' });
+    expect(saved).toHaveBeenCalledWith('withdrawn');
+    expect((screen.getByLabelText('Availability of BW-280') as HTMLSelectElement).value).toBe('withdrawn');
   });
 });

@@ -2,7 +2,7 @@
 // Web Worker; ranked candidates, comparison, adoption, and the adopted recipe after a reload.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session, stored } from './support';
+import { launch, screenshot, type Session, stored, editCell } from './support';
 import { axeSerious } from './axe';
 
 describe('substitute explorer', () => {
@@ -123,7 +123,7 @@ describe('substitute explorer', () => {
     // A price changes in the library: the kept result is marked stale and cannot be adopted.
     await page.getByRole('link', { name: /^Stocks/ }).click();
     await page.getByPlaceholder('code or name').fill('BW-280');
-    const price = page.getByLabel(/^Price of BW-280/);
+    const price = await editCell(page, /^Price of BW-280/);
     await price.fill('2400');
     await price.press('Tab');
     await page.getByRole('link', { name: /Substitute explorer/ }).click();

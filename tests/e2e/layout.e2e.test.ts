@@ -6,7 +6,7 @@
 // wide windows the tables use the width.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, type Session, cellValue, editCell } from './support';
 
 const WIDTHS = [1024, 1440, 1920, 2560] as const;
 
@@ -48,8 +48,9 @@ async function reachable(el: Locator, what: string): Promise<void> {
  * sideways nor down (it wraps and grows to its lines). Returns the names checked.
  */
 async function namesWhole(page: Page): Promise<string[]> {
-  const fields = await page.$$eval('.library-table tbody td.name-cell textarea', (els) =>
-    (els as HTMLTextAreaElement[]).map((e) => ({ name: e.value, cut: e.scrollWidth > e.clientWidth + 1 || e.scrollHeight > e.clientHeight + 1 })),
+  // A name is drawn as text until edited (fields.tsx `textUntilEdited`), as a textarea while edited.
+  const fields = await page.$$eval('.library-table tbody td.name-cell textarea, .library-table tbody td.name-cell .cell-text', (els) =>
+    els.map((e) => ({ name: e instanceof HTMLTextAreaElement ? e.value : e.textContent, cut: e.scrollWidth > e.clientWidth + 1 || e.scrollHeight > e.clientHeight + 1 })),
   );
   expect(fields.filter((f) => f.cut).map((f) => f.name), 'stock names cut off in their field').toEqual([]);
   return fields.map((f) => f.name);
@@ -90,14 +91,14 @@ async function selectsWhole(page: Page, selector: string, what: string): Promise
     (els as HTMLSelectElement[])
       .filter((sel) => {
         if (sel.getBoundingClientRect().width === 0) return false; // not shown
-        const free = sel.cloneNode(true) as HTMLSelectElement;
+        const free = sel.cloneNode(true) as HTMLElement;
         Object.assign(free.style, { position: 'absolute', visibility: 'hidden', width: 'auto', minWidth: '0', maxWidth: 'none' });
         sel.parentElement!.appendChild(free);
         const need = free.getBoundingClientRect().width;
         free.remove();
         return sel.getBoundingClientRect().width + 0.5 < need;
       })
-      .map((sel) => `${sel.labels?.[0]?.textContent ?? sel.id}: ${sel.selectedOptions[0]?.textContent ?? ''}`),
+      .map((sel) => `${sel.labels?.[0]?.textContent ?? sel.getAttribute('aria-label') ?? sel.id}: ${sel.selectedOptions?.[0]?.textContent ?? sel.textContent ?? ''}`),
   );
   expect(cut, `${what}: choices cut off`).toEqual([]);
   return (await page.$$(selector)).length;
@@ -147,7 +148,8 @@ describe('layout at 1024–2560 px', () => {
       const names = await namesWhole(page);
       expect(names.length).toBeGreaterThan(10);
       // The category and availability of every stock are read whole ("Group IV (PAO)", "Additive package", "Withdrawn").
-      expect(await selectsWhole(page, '.library-table tbody select', 'Stocks table')).toBeGreaterThan(20);
+      // (a choice is drawn as text until edited, as wide as its longest choice: fields.tsx `textUntilEdited`)
+      expect(await selectsWhole(page, '.library-table tbody select, .library-table tbody .cell-choice', 'Stocks table')).toBeGreaterThan(20);
       // The demo's longest name (invented) is among those read whole.
       expect(names).toContain('Industrial gear EP additive package (sulfur–phosphorus)');
       if (width >= 1920) {
@@ -224,13 +226,13 @@ describe('layout at 1024–2560 px', () => {
     await page.setViewportSize({ width: 1024, height: 900 });
     await page.getByRole('link', { name: /^Stocks/ }).click();
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
-    const field = page.getByLabel('Name of BW-191', { exact: true });
+    const field = await editCell(page, 'Name of BW-191', { exact: true });
     await field.fill(long);
     await field.press('Enter');
-    await expect(field.inputValue()).resolves.toBe(long);
+    await expect(cellValue(page, 'Name of BW-191', { exact: true })).resolves.toBe(long);
     for (const width of [1024, 1920, 2560]) {
       await page.setViewportSize({ width, height: 900 });
-      await field.scrollIntoViewIfNeeded();
+      await page.getByLabel('Name of BW-191', { exact: true }).scrollIntoViewIfNeeded();
       await screenshot(page, `layout-stocks-long-name-${width}`);
       expect(await namesWhole(page)).toContain(long);
       await noSidewaysScroll(page);

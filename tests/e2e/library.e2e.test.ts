@@ -4,7 +4,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session, stored } from './support';
+import { launch, screenshot, type Session, stored, cellValue, editCell } from './support';
 import { largeLibraryCsv } from '../helpers/large-library';
 
 async function libraryRowCount(page: Page): Promise<number> {
@@ -36,7 +36,7 @@ describe('component library and saved work', () => {
     await expect(page.getByText(/invented demo/i).first().isVisible()).resolves.toBe(true);
     await expect(page.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
     expect(await libraryRowCount(page)).toBe(29);
-    await expect(page.getByLabel('Stock code of Group I bright stock', { exact: true }).inputValue()).resolves.toBe('BW-190');
+    await expect(cellValue(page, 'Stock code of Group I bright stock', { exact: true })).resolves.toBe('BW-190');
     // VI and grade columns are computed beside the entered values.
     const row = page.getByRole('row').filter({ has: page.getByLabel('Stock code of Group I bright stock', { exact: true }) });
     await expect(row.getByText('VG 460').isVisible()).resolves.toBe(true);
@@ -45,12 +45,72 @@ describe('component library and saved work', () => {
 
   it('refuses ν100 above ν40 with a specific message and keeps the stored value', async () => {
     const { page } = s;
-    const kv100 = page.getByLabel('ν100 of BW-190 [mm²/s]');
+    const kv100 = await editCell(page, 'ν100 of BW-190 [mm²/s]');
     await kv100.fill('600');
     await kv100.press('Enter');
     await expect(page.getByText('ν100 (600 mm²/s) must be below ν40 (485 mm²/s)').isVisible()).resolves.toBe(true);
     await kv100.press('Escape');
-    await expect(kv100.inputValue()).resolves.toBe('31.8');
+    await expect(cellValue(page, 'ν100 of BW-190 [mm²/s]')).resolves.toBe('31.8');
+  });
+
+  it('a cell is drawn as text until edited: Tab reaches it in the same order, screen readers hear its label and value, Enter, a click or typing open it, Escape and leaving draw the text again (issue 9, item 3)', async () => {
+    const { page } = s;
+    const active = () => page.evaluate(() => ({ tag: document.activeElement?.tagName, label: document.activeElement?.getAttribute('aria-label') ?? '' }));
+    // Screen readers (Chromium's accessibility tree): a text box named by the field's label, whose value
+    // is the text shown, as the field's was; a choice is a combo box with the chosen label as its value.
+    const cdp = await page.context().newCDPSession(page);
+    const { nodes } = (await cdp.send('Accessibility.getFullAXTree')) as { nodes: { role?: { value: string }; name?: { value: string }; value?: { value: string } }[] };
+    const heard = (name: string) => nodes.filter((n) => n.name?.value === name && n.role?.value !== 'StaticText').map((n) => `${n.role?.value} "${name}": ${n.value?.value}`);
+    expect(heard('Stock code of Group I bright stock')).toEqual(['textbox "Stock code of Group I bright stock": BW-190']);
+    expect(heard('ν100 of BW-190 [mm²/s]')).toEqual(['textbox "ν100 of BW-190 [mm²/s]": 31.8']);
+    expect(heard('Category of BW-190')).toEqual(['combobox "Category of BW-190": Group I']);
+    await cdp.detach();
+    const code = page.getByRole('textbox', { name: 'Stock code of Group I bright stock', exact: true });
+    // Tab goes through the row's values in the order of the columns, then its buttons, as with fields.
+    await code.focus();
+    const order: string[] = [];
+    for (let i = 0; i < 12; i++) {
+      order.push((await active()).label.replace(/ \[.*\]$/, ''));
+      await page.keyboard.press('Tab');
+    }
+    expect(order).toEqual([
+      'Stock code of Group I bright stock', 'Name of BW-190', 'Category of BW-190', 'ν40 of BW-190', 'ν100 of BW-190',
+      'Density at 15 °C of BW-190', 'Aniline point of BW-190', 'Price of BW-190', 'Availability of BW-190',
+      'More fields of BW-190', 'Clone BW-190', 'Delete BW-190',
+    ]);
+    // Typing opens the field with the typed characters; leaving with a refused value keeps them and the message.
+    const kv100 = page.getByRole('textbox', { name: 'ν100 of BW-190 [mm²/s]' });
+    await kv100.focus();
+    await page.keyboard.type('500');
+    await expect(active()).resolves.toEqual({ tag: 'INPUT', label: 'ν100 of BW-190 [mm²/s]' });
+    await page.keyboard.press('Tab');
+    await expect(active()).resolves.toEqual({ tag: 'SPAN', label: 'Density at 15 °C of BW-190 [kg/L]' });
+    await expect(page.getByLabel('ν100 of BW-190 [mm²/s]').inputValue()).resolves.toBe('500');
+    await expect(page.getByText(/ν100 \(500 mm²\/s\) must be below ν40/).isVisible()).resolves.toBe(true);
+    // Escape puts back the stored value and draws the text, focused.
+    await page.getByLabel('ν100 of BW-190 [mm²/s]').press('Escape');
+    await expect(active()).resolves.toEqual({ tag: 'SPAN', label: 'ν100 of BW-190 [mm²/s]' });
+    await expect(cellValue(page, 'ν100 of BW-190 [mm²/s]')).resolves.toBe('31.8');
+    // Enter opens it with the value selected (as Tab into a field did); Escape closes it again.
+    await page.keyboard.press('Enter');
+    await expect(active()).resolves.toEqual({ tag: 'INPUT', label: 'ν100 of BW-190 [mm²/s]' });
+    await expect(page.evaluate(() => { const el = document.activeElement as HTMLInputElement; return [el.selectionStart, el.selectionEnd, el.value.length]; })).resolves.toEqual([0, 4, 4]);
+    await page.keyboard.press('Escape');
+    // A click opens it with the caret at the end of the value; Enter saves and draws the text again.
+    await page.getByRole('textbox', { name: 'Aniline point of BW-190 [°C]' }).click();
+    await expect(active()).resolves.toEqual({ tag: 'INPUT', label: 'Aniline point of BW-190 [°C]' });
+    await expect(page.evaluate(() => (document.activeElement as HTMLInputElement).selectionStart)).resolves.toBe(3);
+    await page.keyboard.type('.5');
+    await page.keyboard.press('Enter');
+    await expect(active()).resolves.toEqual({ tag: 'SPAN', label: 'Aniline point of BW-190 [°C]' });
+    await expect(cellValue(page, 'Aniline point of BW-190 [°C]')).resolves.toBe('122.5'); // 122 with .5 typed after it
+    // A choice: Enter draws its select, focused; Escape draws the text again.
+    await page.getByRole('combobox', { name: 'Availability of BW-190', exact: true }).focus();
+    await page.keyboard.press('Enter');
+    await expect(active()).resolves.toEqual({ tag: 'SELECT', label: 'Availability of BW-190' });
+    await page.keyboard.press('Escape');
+    await expect(active()).resolves.toEqual({ tag: 'SPAN', label: 'Availability of BW-190' });
+    await screenshot(page, 'library-cells');
   });
 
   it('a malformed CSV shows its row errors and leaves the library unchanged', async () => {
@@ -95,7 +155,7 @@ describe('component library and saved work', () => {
 
   it('edits to the library and settings survive a reload, as do the recipes', async () => {
     const { page } = s;
-    const kv40 = page.getByLabel('ν40 of BW-190 [mm²/s]');
+    const kv40 = await editCell(page, 'ν40 of BW-190 [mm²/s]');
     await kv40.fill('490');
     await kv40.press('Enter');
     // BW-190 is in every demo recipe: the change is shown with the recipes it moves, then stored (issue 10, item 14).
@@ -114,7 +174,7 @@ describe('component library and saved work', () => {
     await page.goto(`${inject('baseURL')}#/library`);
     await page.reload();
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
-    await expect(page.getByLabel('ν40 of BW-190 [mm²/s]').inputValue()).resolves.toBe('490');
+    await expect(cellValue(page, 'ν40 of BW-190 [mm²/s]')).resolves.toBe('490');
     expect(await libraryRowCount(page)).toBe(30);
     await expect(page.getByRole('columnheader', { name: /Aniline pt °F/ }).isVisible()).resolves.toBe(true);
     const recipes = (await stored(page, 'recipes')) as { version: number; state: { recipes: unknown[] } };
@@ -190,16 +250,16 @@ describe('a long library (issue 9, item 3)', () => {
     await page.evaluate(() => window.scrollTo(0, document.documentElement.scrollHeight));
     const lastCode = page.getByLabel('Stock code of Invented stock 20000', { exact: true });
     await lastCode.waitFor();
-    await expect(lastCode.inputValue()).resolves.toBe('LG-20000');
+    await expect(cellValue(page, 'Stock code of Invented stock 20000', { exact: true })).resolves.toBe('LG-20000');
     expect(await drawn()).toBeLessThan(150);
     // Keyboard entry: type a name, Tab to the next field, Shift+Tab back; the name is saved.
-    const name = page.getByLabel('Name of LG-20000', { exact: true });
-    await name.focus();
+    const name = await editCell(page, 'Name of LG-20000', { exact: true });
     await name.fill('Invented stock, renamed by keyboard');
     await page.keyboard.press('Tab');
     await expect(page.evaluate(() => document.activeElement?.closest('td')?.className)).resolves.toBe('category-cell');
     await page.keyboard.press('Shift+Tab');
-    await expect(page.evaluate(() => (document.activeElement as HTMLInputElement).value)).resolves.toBe('Invented stock, renamed by keyboard');
+    // the name, saved and drawn as text again
+    await expect(page.evaluate(() => document.activeElement?.getAttribute('aria-label') + ': ' + document.activeElement?.textContent)).resolves.toBe('Name of LG-20000: Invented stock, renamed by keyboard');
     // Back to the top: the first demo stock is drawn again.
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.getByLabel('Stock code of Group I bright stock', { exact: true }).waitFor();

@@ -5,7 +5,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, type Session, cellValue, editCell } from './support';
 import { largeLibraryCsv } from '../helpers/large-library';
 
 /** Number of stocks in the saved library, counted inside the page (the record is megabytes). */
@@ -100,7 +100,7 @@ describe('two tabs (item 4)', () => {
   });
 
   async function rename(page: Page, code: string, name: string): Promise<void> {
-    const field = page.getByLabel(`Name of ${code}`, { exact: true });
+    const field = await editCell(page, `Name of ${code}`, { exact: true });
     await field.fill(name);
     await field.press('Enter');
   }
@@ -131,7 +131,7 @@ describe('two tabs (item 4)', () => {
       await page.reload();
       await page.getByRole('heading', { name: 'Stocks' }).waitFor();
       const shown = await Promise.all(
-        (await storedNames(page)).map((c) => page.getByLabel(`Name of ${c.code}`, { exact: true }).inputValue()),
+        (await storedNames(page)).map((c) => cellValue(page, `Name of ${c.code}`, { exact: true })),
       );
       for (let i = 0; i < 20; i++) expect(shown).toContain(`Tab A name ${i}`);
       for (let i = 0; i < bCodes.length; i++) expect(shown).toContain(`Tab B name ${i}`);

@@ -11,7 +11,7 @@
 import { afterEach, describe, expect, inject, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session, stored } from './support';
+import { launch, screenshot, type Session, stored, cellValue, editCell } from './support';
 import { axeSerious } from './axe';
 
 const QUOTA_STUB = `(() => {
@@ -68,7 +68,7 @@ async function savedLibrary(page: Page): Promise<StoredLibrary> {
 }
 
 async function rename(page: Page, code: string, name: string): Promise<void> {
-  const field = page.getByLabel(`Name of ${code}`, { exact: true });
+  const field = await editCell(page, `Name of ${code}`, { exact: true });
   await field.fill(name);
   await field.press('Enter');
 }
@@ -206,7 +206,7 @@ describe('storage faults', () => {
     await expect(note.innerText()).resolves.toMatch(new RegExp(`schema 1\\) and now uses schema ${LIBRARY_VERSION}\\. The original copy is kept`));
     await screenshot(page, 'storage-older-schema');
     const firstCode = good.state.components[0]!.code;
-    await expect(page.getByLabel(`Name of ${firstCode}`, { exact: true }).inputValue()).resolves.toBe('Kept from schema 1');
+    await expect(cellValue(page, `Name of ${firstCode}`, { exact: true })).resolves.toBe('Kept from schema 1');
     await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary).version, { timeout: 5000 }).toBe(LIBRARY_VERSION);
     const upgraded = (await stored(page, 'library')) as StoredLibrary;
     expect(upgraded.state.components.length).toBe(good.state.components.length);
@@ -226,13 +226,13 @@ describe('storage faults', () => {
     await rename(a, 'BW-190', 'Renamed in tab A');
     const told = b.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ });
     await told.waitFor();
-    await expect(b.getByLabel('Name of BW-190', { exact: true }).inputValue()).resolves.toBe('Renamed in tab A');
+    await expect(cellValue(b, 'Name of BW-190', { exact: true })).resolves.toBe('Renamed in tab A');
     await screenshot(b, 'storage-two-tabs');
 
     const other = ((await stored(a, 'library')) as StoredLibrary).state.components.find((c) => c.code !== 'BW-190')!.code;
     await rename(b, other, 'Renamed in tab B');
     await a.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ }).waitFor();
-    await expect(a.getByLabel(`Name of ${other}`, { exact: true }).inputValue()).resolves.toBe('Renamed in tab B');
+    await expect(cellValue(a, `Name of ${other}`, { exact: true })).resolves.toBe('Renamed in tab B');
     const lib = (await stored(a, 'library')) as StoredLibrary;
     expect(nameIn(lib, 'BW-190')).toBe('Renamed in tab A');
     expect(nameIn(lib, other)).toBe('Renamed in tab B');
@@ -243,8 +243,8 @@ describe('storage faults', () => {
     await expect
       .poll(async () => {
         const l = (await stored(a, 'library')) as StoredLibrary;
-        const shownA = await a.getByLabel('Name of BW-190', { exact: true }).inputValue();
-        const shownB = await b.getByLabel(`Name of ${other}`, { exact: true }).inputValue();
+        const shownA = await cellValue(a, 'Name of BW-190', { exact: true });
+        const shownB = await cellValue(b, `Name of ${other}`, { exact: true });
         return [nameIn(l, 'BW-190') === shownA || shownA === 'Simultaneous A', nameIn(l, other) === shownB || shownB === 'Simultaneous B'];
       }, { timeout: 5000 })
       .toEqual([true, true]);
@@ -288,7 +288,7 @@ describe('storage faults', () => {
     await openLibrary(page);
     await savedLibrary(page);
     const reminder = page.getByRole('status').filter({ hasText: 'Time for a backup?' });
-    const availability = page.getByLabel('Availability of BW-190', { exact: true });
+    const availability = await editCell(page, 'Availability of BW-190', { exact: true });
     for (let i = 0; i < 30 && (await reminder.count()) === 0; i++) {
       await availability.selectOption(i % 2 === 0 ? 'limited' : 'available');
     }

@@ -1,6 +1,6 @@
 // Shared helpers for end-to-end tests: Debian chromium via playwright-core, a fresh profile per
 // launch, a guard that records every request leaving 127.0.0.1 and every console error.
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { mkdtempSync, mkdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -98,4 +98,30 @@ export async function stored(page: Page, key: string): Promise<unknown> {
       }),
     key,
   );
+}
+
+/**
+ * The field of a Stocks cell, found by its label (the table draws its cells as text until edited,
+ * components/fields.tsx `textUntilEdited`): a cell still drawn as text is activated — clicked, or
+ * Enter for a choice (a click also opens its list) — and its input, textarea or select is returned.
+ */
+export async function editCell(page: Page, label: string | RegExp, opts: { exact?: boolean } = {}): Promise<Locator> {
+  const cell = page.getByLabel(label, opts);
+  const kind = await cell.evaluate((el) => (el.matches('input, textarea, select') ? 'field' : el.getAttribute('role')));
+  if (kind === 'combobox') await cell.press('Enter');
+  else if (kind !== 'field') await cell.click();
+  const field = page.getByLabel(label, opts).and(page.locator('input, textarea, select'));
+  await field.waitFor();
+  return field;
+}
+
+/** The value a Stocks cell shows, found by its label: its field's value, or its text while drawn as text. */
+export async function cellValue(page: Page, label: string | RegExp, opts: { exact?: boolean } = {}): Promise<string> {
+  return page
+    .getByLabel(label, opts)
+    .evaluate((el) =>
+      el instanceof HTMLInputElement || el instanceof HTMLTextAreaElement || el instanceof HTMLSelectElement
+        ? el.value
+        : (el.firstElementChild?.textContent ?? el.textContent ?? ''),
+    );
 }

@@ -42,7 +42,11 @@ export interface RowProps {
   rowIndex?: number;
 }
 
-/** One stock in the library table: key fields editable in place, VI and grade computed beside. */
+/**
+ * One stock in the library table: key fields editable in place, VI and grade computed beside. The
+ * fields are drawn as text until edited (fields.tsx `textUntilEdited`): the opening screen draws about
+ * twenty rows, and their inputs and selects cost a multiple of text to draw.
+ */
 export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded, onUpdate, onToggleDetails, onClone, onDelete, detailsId, rowIndex }: RowProps) {
   const fmt = useFormat();
   const kv = kv40kv100(c);
@@ -61,6 +65,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
       <NumberField
         label={`${label} of ${who} [${fmt.tempUnit}]`}
         hideLabel
+        textUntilEdited
         size={4}
         allowEmpty
         digits={fmt.settings.temperatureUnit === 'F' ? 1 : undefined}
@@ -76,6 +81,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <TextField
           label={`Stock code of ${c.name || who}`}
           hideLabel
+          textUntilEdited
           size={7}
           fullTitle
           value={c.code}
@@ -87,6 +93,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <TextField
           label={`Name of ${who}`}
           hideLabel
+          textUntilEdited
           size={16}
           wrap
           value={c.name}
@@ -98,6 +105,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <SelectField<ComponentCategory>
           label={`Category of ${who}`}
           hideLabel
+          textUntilEdited
           value={c.category}
           options={CATEGORY_OPTIONS}
           onChange={(v) => onUpdate(c.id, { category: v })}
@@ -107,6 +115,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <NumberField
           label={`ν40 of ${who} [mm²/s]`}
           hideLabel
+          textUntilEdited
           size={6}
           value={kv40}
           validate={(v) => merge(toVerdict(checkValue('kv40', v, fmt)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100, fmt)) : {})}
@@ -118,6 +127,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <NumberField
           label={`ν100 of ${who} [mm²/s]`}
           hideLabel
+          textUntilEdited
           size={5}
           value={kv100}
           validate={(v) => merge(toVerdict(checkValue('kv100', v, fmt)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v, fmt)) : {})}
@@ -135,6 +145,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <NumberField
           label={`Density at 15 °C of ${who} [kg/L]`}
           hideLabel
+          textUntilEdited
           size={5}
           value={c.density15}
           validate={(v) => toVerdict(checkValue('density15', v, fmt))}
@@ -146,6 +157,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <NumberField
           label={`Price of ${who} [${c.price.currency} ${BASIS_SHORT[c.price.basis]}]`}
           hideLabel
+          textUntilEdited
           size={6}
           value={c.price.amount}
           validate={(v) => toVerdict(checkValue('price', v, fmt))}
@@ -157,6 +169,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         <SelectField<Availability>
           label={`Availability of ${who}`}
           hideLabel
+          textUntilEdited
           value={c.availability}
           options={AVAILABILITY_OPTIONS}
           onChange={(v) => onUpdate(c.id, { availability: v })}

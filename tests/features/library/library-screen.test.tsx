@@ -3,6 +3,7 @@ import { beforeAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { loadUnitConversions } from '../../../src/components/format';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
+import { cellValue, editCell } from './cells';
 import { linePlanActions, recipeActions, resetDemo, settingsActions, useLibrary } from '../../../src/state';
 import { setImportWorkerFactory, type ImportWorkerLike } from '../../../src/features/library/import-client';
 
@@ -48,18 +49,18 @@ describe('Library screen', () => {
 
   it('refuses ν100 at or above ν40 with a specific message and leaves the stock unchanged', () => {
     renderFor('BW-190');
-    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]');
+    const kv100 = editCell('ν100 of BW-190 [mm²/s]');
     type(kv100, '500');
     expect(screen.getByText('ν100 (500 mm²/s) must be below ν40 (485 mm²/s)')).toBeTruthy();
     expect(kv100.getAttribute('aria-invalid')).toBe('true');
     expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8); // unchanged invented demo value
     fireEvent.keyDown(kv100, { key: 'Escape' });
-    expect((kv100 as HTMLInputElement).value).toBe('31.8');
+    expect(cellValue('ν100 of BW-190 [mm²/s]')).toBe('31.8');
   });
 
   it('flags an implausible value but keeps it, with the flag visible', () => {
     renderFor('BW-190');
-    const aniline = screen.getByLabelText('Aniline point of BW-190 [°C]');
+    const aniline = editCell('Aniline point of BW-190 [°C]');
     // 250 °C: beyond the usual range but inside the stored limit (−100 to 300 °C, field-rules.ts)
     type(aniline, '250');
     expect(bs().anilinePoint).toBe(250); // no calculation: stored as typed
@@ -97,7 +98,7 @@ describe('Library screen', () => {
 
   it('rejects garbage and a density typed in kg/m³', () => {
     renderFor('BW-190');
-    const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    const rho = editCell('Density at 15 °C of BW-190 [kg/L]');
     type(rho, 'abc');
     expect(screen.getByText(/“abc” is not a number/)).toBeTruthy();
     type(rho, '900');
@@ -108,7 +109,7 @@ describe('Library screen', () => {
   it('a density typed with the other separator is refused naming the setting, never read as kg/m³ with a hint echoing it (issue 10, item 7)', () => {
     renderFor('BW-190');
     const before = bs().density15;
-    const rho = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    const rho = editCell('Density at 15 °C of BW-190 [kg/L]');
     // "." chosen: "0,885" could be 0.885 or 885; it must not become 885 with "looks like kg/m³ … (e.g. 0.885)"
     type(rho, '0,885');
     const alert = screen.getByRole('alert').textContent!;
@@ -118,7 +119,7 @@ describe('Library screen', () => {
     cleanup();
     settingsActions.updateSettings({ decimalSeparator: ',' });
     renderFor('BW-190');
-    const rho2 = screen.getByLabelText('Density at 15 °C of BW-190 [kg/L]');
+    const rho2 = editCell('Density at 15 °C of BW-190 [kg/L]');
     type(rho2, '0.885'); // the mirror case
     const alert2 = screen.getByRole('alert').textContent!;
     expect(alert2).toMatch(/Decimal separator is “,” \(Settings\): “0\.885” could mean 0,885 or 885/);
@@ -131,11 +132,11 @@ describe('Library screen', () => {
   it('edits are one undo step each; clone, withdraw and delete can be undone', () => {
     renderFor('BW-190');
     // no calculation: 485 is the invented demo value, 490 the typed one
-    type(screen.getByLabelText('ν40 of BW-190 [mm²/s]'), '490');
+    type(editCell('ν40 of BW-190 [mm²/s]'), '490');
     // BW-190 is in every demo recipe: the change is confirmed first (issue 10, item 14)
     fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     expect(bs().viscosityPoints[0]!.kv).toBe(490);
-    fireEvent.change(screen.getByLabelText('Availability of BW-190'), { target: { value: 'withdrawn' } });
+    fireEvent.change(editCell('Availability of BW-190'), { target: { value: 'withdrawn' } });
     expect(bs().availability).toBe('withdrawn');
     fireEvent.click(screen.getByRole('button', { name: 'Clone BW-190' }));
     expect(useLibrary.getState().components.some((c) => c.code === 'BW-190-copy')).toBe(true);
@@ -187,7 +188,7 @@ describe('Library screen', () => {
 
   it('refuses a duplicate stock code', () => {
     renderFor('BW-190');
-    const code = screen.getByLabelText('Stock code of Group I bright stock');
+    const code = editCell('Stock code of Group I bright stock');
     type(code, 'BW-160');
     expect(screen.getByText(/BW-160 is already used by/)).toBeTruthy();
     expect(bs().code).toBe('BW-190');
@@ -196,7 +197,7 @@ describe('Library screen', () => {
   it('shows temperatures in °F when chosen, and stores °C', () => {
     act(() => settingsActions.updateSettings({ temperatureUnit: 'F' }));
     renderFor('BW-190');
-    const aniline = screen.getByLabelText('Aniline point of BW-190 [°F]') as HTMLInputElement;
+    const aniline = editCell('Aniline point of BW-190 [°F]') as HTMLInputElement;
     // 122 °C = 251.6 °F (t_F = 9/5·t_C + 32, definition of the Fahrenheit scale)
     expect(aniline.value).toBe('251.6');
     type(aniline, '212');
@@ -221,7 +222,7 @@ describe('Library screen', () => {
 
   it('refuses ν100 below 2.0 mm²/s (ASTM D2270 scope) and keeps the stored value', () => {
     renderFor('BW-190');
-    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
+    const kv100 = editCell('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
     type(kv100, '0.001');
     expect(screen.getByRole('alert').textContent).toMatch(/0\.001 mm²\/s is below 2 mm²\/s, where ASTM D2270 defines no viscosity index/);
     expect(bs().viscosityPoints.find((p) => p.tempC === 100)!.kv).toBe(31.8); // unchanged invented demo value
@@ -230,7 +231,7 @@ describe('Library screen', () => {
   it('shows why there is no VI while the ν100 on screen is not below ν40, and the VI again after Escape', () => {
     renderFor('BW-190');
     const row = rowOf('BW-190');
-    const kv100 = screen.getByLabelText('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
+    const kv100 = editCell('ν100 of BW-190 [mm²/s]') as HTMLInputElement;
     fireEvent.focus(kv100);
     fireEvent.change(kv100, { target: { value: '500' } });
     const vi = within(row).getByTestId('vi-cell');
@@ -243,7 +244,7 @@ describe('Library screen', () => {
 
   it('reads a stock above VG 3200 as "above VG 3200", not "near"', () => {
     renderFor('BW-190');
-    const kv40 = screen.getByLabelText('ν40 of BW-190 [mm²/s]');
+    const kv40 = editCell('ν40 of BW-190 [mm²/s]');
     type(kv40, '5000');
     fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     // ISO 3448 / ASTM D2422: VG 3200 ends at 3520 mm²/s
@@ -252,14 +253,14 @@ describe('Library screen', () => {
 
   it('refuses a blank or control-character name and stock code', () => {
     renderFor('BW-190');
-    const name = screen.getByLabelText('Name of BW-190');
+    const name = editCell('Name of BW-190');
     type(name, '   ');
     expect(screen.getByRole('alert').textContent).toBe('a name is required');
     type(name, 'Bright\u0007stock');
     expect(screen.getByRole('alert').textContent).toMatch(/control character \(U\+0007\)/);
     expect(bs().name).toBe('Group I bright stock');
     fireEvent.keyDown(name, { key: 'Escape' });
-    const code = screen.getByLabelText('Stock code of Group I bright stock');
+    const code = editCell('Stock code of Group I bright stock');
     type(code, ' ');
     expect(screen.getByRole('alert').textContent).toBe('a stock code is required');
     expect(bs().code).toBe('BW-190');

@@ -56,6 +56,8 @@ describe('Stocks table, long library', () => {
   it('follows the scroll, keeps the focused row drawn with its typed value, and saves it on Enter', async () => {
     useLibrary.setState({ components: inventedLibrary(2000) });
     const { container } = render(<LibraryScreen />);
+    // The cell is drawn as text until edited: a click draws its field, focused.
+    fireEvent.click(container.querySelector<HTMLElement>('tr[data-row-key="inv-3"] .name-cell .cell-text')!);
     const name = nameInput(container, 'inv-3')!;
     expect(name.value).toBe('Invented stock 3');
     act(() => name.focus());

@@ -7,6 +7,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
+import { editCell } from './cells';
 import { resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 import { stockBasisChanges } from '../../../src/core/recipes/stock-basis';
 
@@ -30,7 +31,7 @@ describe('stock changes that move saved recipes', () => {
   it('shows the recipes affected before storing, and cancel keeps the stored value', () => {
     render(<LibraryScreen />);
     fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-510' } });
-    type(screen.getByLabelText(/^ν40 of BW-510/), '9000');
+    type(editCell(/^ν40 of BW-510/), '9000');
     const dialog = screen.getByRole('alertdialog');
     expect(dialog.textContent).toMatch(/Changing the viscosities of BW-510 moves 1 saved recipe/);
     const row = within(screen.getByTestId('impact-table')).getAllByRole('row')[1]!;
@@ -47,7 +48,7 @@ describe('stock changes that move saved recipes', () => {
   it('stores the change when confirmed; the recipe is then flagged as changed since saved', () => {
     render(<LibraryScreen />);
     fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-510' } });
-    type(screen.getByLabelText(/^ν40 of BW-510/), '9000');
+    type(editCell(/^ν40 of BW-510/), '9000');
     fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
     expect(kv40Of('demo-bw-510')).toBe(9000);
     const vg680 = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg680')!;
@@ -58,7 +59,7 @@ describe('stock changes that move saved recipes', () => {
   it('stores at once a change that moves no saved recipe', () => {
     render(<LibraryScreen />);
     fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-612' } });
-    type(screen.getByLabelText(/^ν40 of BW-612/), '111');
+    type(editCell(/^ν40 of BW-612/), '111');
     expect(screen.queryByRole('alertdialog')).toBeNull();
     expect(kv40Of('demo-bw-612')).toBe(111);
     expect(pib().calibration).toBeNull();
