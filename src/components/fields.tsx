@@ -85,8 +85,9 @@ function closeInPlace(box: HTMLElement | null, draw: () => void): void {
 }
 
 /**
- * The text of a text or number field drawn as text (see `textUntilEdited`), inside the field's box:
- * `open` draws the field in its place, with `typed` as its entry when a typed key opened it.
+ * The text of a text or number field drawn as text (see `textUntilEdited`), inside the field's box: a
+ * click or an opening key draws the field in its place (the field's `open` state), a typed character
+ * as its pending entry (`onTyped` tells the field's owner as typing would).
  */
 function TextCell(props: {
   label: string;
@@ -94,26 +95,37 @@ function TextCell(props: {
   size: number;
   wrap?: boolean;
   title?: string | undefined;
-  open: (box: HTMLElement | null, typed: string | undefined, caret: 'all' | 'end') => void;
+  setOpen: (open: boolean) => void;
+  setDraft: (draft: string) => void;
+  setDirty: (dirty: boolean) => void;
+  onTyped?: (typed: string) => void;
 }) {
+  const open = (box: HTMLElement | null, typed: string | undefined, caret: 'all' | 'end') =>
+    openInPlace(box, caret, () => {
+      props.setOpen(true);
+      if (typed === undefined) return;
+      props.setDraft(typed);
+      props.setDirty(true);
+      props.onTyped?.(typed);
+    });
   return (
     <span
-        role="textbox"
-        tabIndex={0}
-        aria-label={props.label}
-        aria-multiline={props.wrap || undefined}
-        className={props.wrap ? 'cell-text wrap-line' : 'cell-text'}
-        style={props.wrap ? undefined : ({ '--size': props.size } as CSSProperties)}
-        title={props.title}
-        onClick={(e: MouseEvent<HTMLElement>) => props.open(e.currentTarget.parentElement, undefined, 'end')}
-        onKeyDown={(e) => {
-          const k = openingKey(e);
-          if (!k) return;
-          if (k.draft !== undefined || e.key === 'Enter') e.preventDefault();
-          props.open(e.currentTarget.parentElement, k.draft, k.draft === undefined ? 'all' : 'end');
-        }}
-      >
-        {props.text}
+      role="textbox"
+      tabIndex={0}
+      aria-label={props.label}
+      aria-multiline={props.wrap || undefined}
+      className={props.wrap ? 'cell-text wrap-line' : 'cell-text'}
+      style={props.wrap ? undefined : ({ '--size': props.size } as CSSProperties)}
+      title={props.title}
+      onClick={(e: MouseEvent<HTMLElement>) => open(e.currentTarget.parentElement, undefined, 'end')}
+      onKeyDown={(e) => {
+        const k = openingKey(e);
+        if (!k) return;
+        if (k.draft !== undefined || e.key === 'Enter') e.preventDefault();
+        open(e.currentTarget.parentElement, k.draft, k.draft === undefined ? 'all' : 'end');
+      }}
+    >
+      {props.text}
     </span>
   );
 }
@@ -211,22 +223,10 @@ export function NumberField(props: NumberFieldProps) {
   // Drawn as text until edited (see `textUntilEdited`): open while the user works in it.
   const [open, setOpen] = useState(false);
   if (props.textUntilEdited && !open && !dirty && !hasMsg && !props.disabled) {
+    const cell = { setOpen, setDraft, setDirty, onTyped: (typed: string) => onDraft?.(fmt.parseEntry(typed).value ?? null) };
     return (
       <span className={`field ${props.className ?? ''}`}>
-        <TextCell
-          label={props.label}
-          text={text}
-          size={props.size ?? 7}
-          open={(box, typed, caret) =>
-            openInPlace(box, caret, () => {
-              setOpen(true);
-              if (typed === undefined) return;
-              setDraft(typed);
-              setDirty(true);
-              onDraft?.(fmt.parseEntry(typed).value ?? null);
-            })
-          }
-        />
+        <TextCell label={props.label} text={text} size={props.size ?? 7} {...cell} />
         {props.hint}
       </span>
     );
@@ -361,23 +361,10 @@ export function TextField(props: TextFieldProps) {
   // Drawn as text until edited (see `textUntilEdited`): open while the user works in it.
   const [open, setOpen] = useState(false);
   if (props.textUntilEdited && !open && !dirty && !verdict.error && !verdict.warning && !props.disabled) {
+    const shown = { text, size: props.size ?? 14, wrap: Boolean(props.wrap && !props.multiline), title: props.fullTitle && text ? text : undefined };
     return (
       <span className={`field ${props.className ?? ''}`}>
-        <TextCell
-          label={props.label}
-          text={text}
-          size={props.size ?? 14}
-          wrap={Boolean(props.wrap && !props.multiline)}
-          title={props.fullTitle && text ? text : undefined}
-          open={(box, typed, caret) =>
-            openInPlace(box, caret, () => {
-              setOpen(true);
-              if (typed === undefined) return;
-              setDraft(typed);
-              setDirty(true);
-            })
-          }
-        />
+        <TextCell label={props.label} {...shown} setOpen={setOpen} setDraft={setDraft} setDirty={setDirty} />
       </span>
     );
   }
