@@ -39,8 +39,8 @@ interface CommonProps {
   /**
    * Drawn as light text until the user edits it (a table of many fields: an input or a select with its
    * options costs several times a line of text to draw). The text is focusable in the same Tab order,
-   * carries the same accessible name and shows the value; Enter, F2, a click or a typed character (which
-   * becomes the first character of the entry) draw the field focused. The field is drawn again as text
+   * carries the same accessible name and shows the value; Enter, F2, a click or a typing key draw the
+   * field focused (a typing key with the text selected, so that what it types replaces it, as after Tab). The field is drawn again as text
    * once nothing is pending — after Escape, after Enter or leaving the field committed — but stays a
    * field while it holds a refused entry or its stored value has a message. Needs `hideLabel`.
    */
@@ -48,15 +48,15 @@ interface CommonProps {
 }
 
 /**
- * What a key pressed on a field drawn as text does: open the field with the text selected (as Tab into
- * a field selects it), open it with a typed first character, or nothing (Tab and other keys pass).
+ * Whether a key pressed on a field drawn as text opens the field: Enter and F2, and a key that types
+ * (a character, Backspace, Delete, a paste). The field opens focused with its text selected, as Tab into
+ * a field selects it, so the typed key's own input then lands in the field and replaces the text.
  */
-function openingKey(e: KeyboardEvent): { draft?: string } | null {
-  const paste = (e.ctrlKey || e.metaKey) && !e.altKey && (e.key === 'v' || e.key === 'V');
-  if (paste || e.key === 'Enter' || e.key === 'F2') return {};
-  if (e.ctrlKey || e.metaKey || e.altKey) return null;
-  if (e.key === 'Backspace' || e.key === 'Delete') return { draft: '' };
-  return [...e.key].length === 1 ? { draft: e.key } : null;
+function opensField(e: KeyboardEvent): boolean {
+  if (e.key === 'Enter' || e.key === 'F2') return true;
+  if (e.ctrlKey || e.metaKey) return !e.altKey && (e.key === 'v' || e.key === 'V');
+  if (e.altKey) return false;
+  return e.key === 'Backspace' || e.key === 'Delete' || [...e.key].length === 1;
 }
 
 /**
@@ -86,28 +86,10 @@ function closeInPlace(box: HTMLElement | null, draw: () => void): void {
 
 /**
  * The text of a text or number field drawn as text (see `textUntilEdited`), inside the field's box: a
- * click or an opening key draws the field in its place (the field's `open` state), a typed character
- * as its pending entry (`onTyped` tells the field's owner as typing would).
+ * click or an opening key draws the field in its place (`setOpen(true)`), focused at once.
  */
-function TextCell(props: {
-  label: string;
-  text: string;
-  size: number;
-  wrap?: boolean;
-  title?: string | undefined;
-  setOpen: (open: boolean) => void;
-  setDraft: (draft: string) => void;
-  setDirty: (dirty: boolean) => void;
-  onTyped?: (typed: string) => void;
-}) {
-  const open = (box: HTMLElement | null, typed: string | undefined, caret: 'all' | 'end') =>
-    openInPlace(box, caret, () => {
-      props.setOpen(true);
-      if (typed === undefined) return;
-      props.setDraft(typed);
-      props.setDirty(true);
-      props.onTyped?.(typed);
-    });
+function TextCell(props: { label: string; text: string; size: number; wrap?: boolean; title?: string | undefined; setOpen: (open: boolean) => void }) {
+  const open = (box: HTMLElement | null, caret: 'all' | 'end') => openInPlace(box, caret, () => props.setOpen(true));
   return (
     <span
       role="textbox"
@@ -117,12 +99,12 @@ function TextCell(props: {
       className={props.wrap ? 'cell-text wrap-line' : 'cell-text'}
       style={props.wrap ? undefined : ({ '--size': props.size } as CSSProperties)}
       title={props.title}
-      onClick={(e: MouseEvent<HTMLElement>) => open(e.currentTarget.parentElement, undefined, 'end')}
+      onClick={(e: MouseEvent<HTMLElement>) => open(e.currentTarget.parentElement, 'end')}
       onKeyDown={(e) => {
-        const k = openingKey(e);
-        if (!k) return;
-        if (k.draft !== undefined || e.key === 'Enter') e.preventDefault();
-        open(e.currentTarget.parentElement, k.draft, k.draft === undefined ? 'all' : 'end');
+        if (!opensField(e)) return;
+        // Enter only opens; a typing key's input goes on to the field, focused by now.
+        if (e.key === 'Enter') e.preventDefault();
+        open(e.currentTarget.parentElement, 'all');
       }}
     >
       {props.text}
@@ -223,10 +205,9 @@ export function NumberField(props: NumberFieldProps) {
   // Drawn as text until edited (see `textUntilEdited`): open while the user works in it.
   const [open, setOpen] = useState(false);
   if (props.textUntilEdited && !open && !dirty && !hasMsg && !props.disabled) {
-    const cell = { setOpen, setDraft, setDirty, onTyped: (typed: string) => onDraft?.(fmt.parseEntry(typed).value ?? null) };
     return (
       <span className={`field ${props.className ?? ''}`}>
-        <TextCell label={props.label} text={text} size={props.size ?? 7} {...cell} />
+        <TextCell label={props.label} text={text} size={props.size ?? 7} setOpen={setOpen} />
         {props.hint}
       </span>
     );
@@ -364,7 +345,7 @@ export function TextField(props: TextFieldProps) {
     const shown = { text, size: props.size ?? 14, wrap: Boolean(props.wrap && !props.multiline), title: props.fullTitle && text ? text : undefined };
     return (
       <span className={`field ${props.className ?? ''}`}>
-        <TextCell label={props.label} {...shown} setOpen={setOpen} setDraft={setDraft} setDirty={setDirty} />
+        <TextCell label={props.label} {...shown} setOpen={setOpen} />
       </span>
     );
   }
