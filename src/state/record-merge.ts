@@ -152,7 +152,8 @@ export interface MergeResult extends RecordSet {
 
 /**
  * Three-way merge per record. `base` holds the stamps both sides last agreed on; a side "changed" a
- * record when its stamp differs from the base's. Changed on one side → that side; on both → the later
+ * record when its stamp differs from the base's (for the stored side: is later than the base's, as an
+ * older stamp is a stale copy, not a commit). Changed on one side → that side; on both → the later
  * stamp (the later commit); on neither → `mine` (the same content; keeps object identity).
  * Order: `theirs`'s order, with records only `mine` has inserted after their predecessor in `mine`.
  */
@@ -172,7 +173,10 @@ export function mergeRecords(base: Pick<RecordSet, 'stamps' | 'gone'>, mine: Rec
     const m = stampOf(mine, k);
     const t = stampOf(theirs, k);
     const mineChanged = m !== b;
-    const theirsChanged = t !== b;
+    // A stored stamp older than the one both sides agreed on (or a record gone without a tombstone) is
+    // a stale copy written over a newer one (a tab's blind put as it leaves, made before it heard of a
+    // save): not a change. A commit elsewhere always carries a later stamp.
+    const theirsChanged = t !== b && (b === '' || t > b);
     let side: 'mine' | 'theirs';
     if (mineChanged && theirsChanged) {
       side = m >= t ? 'mine' : 'theirs';

@@ -51,6 +51,21 @@ describe('mergeRecords', () => {
     expect([...mergeRecords(base, mine, later).records.values()]).toEqual(['A-later', 'b']);
   });
 
+  it('a stale copy written over storage (older stamps, a record missing without a tombstone) does not roll back what both sides agreed on (s21 item 1)', () => {
+    // This tab saved b at stamp 5 and added c at 6 (both agreed with storage); another tab, leaving,
+    // then wrote its older copy blindly: b at 3, no c.
+    const base = { stamps: { 'items/a': '1', 'items/b': '5', 'items/c': '6' }, gone: {} };
+    const mine = set([['items/a', 'a', '1'], ['items/b', 'B-new', '5'], ['items/c', 'C-new', '6']]);
+    const stale = set([['items/a', 'a', '1'], ['items/b', 'B-old', '3']]);
+    const m = mergeRecords(base, mine, stale);
+    expect([...m.records.values()]).toEqual(['a', 'B-new', 'C-new']);
+    expect(m.fromTheirs).toEqual([]);
+    expect(m.differsFromTheirs).toBe(true); // written back
+    // A later commit elsewhere still wins.
+    const later = set([['items/a', 'a', '1'], ['items/b', 'B-later', '8'], ['items/c', 'C-new', '6']]);
+    expect([...mergeRecords(base, mine, later).records.values()]).toEqual(['a', 'B-later', 'C-new']);
+  });
+
   it('new records of both sides are kept, mine after their predecessor', () => {
     const base = { stamps: { 'items/a': '1' }, gone: {} };
     const mine = set([['items/a', 'a', '1'], ['items/m', 'm', '3']]);

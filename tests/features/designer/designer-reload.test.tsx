@@ -148,7 +148,7 @@ describe('Designer draft across a reload', () => {
     await b.persistence.whenSaved();
     expect(b.persistence.useStorageStatus.getState().stores.workspace.origin).toBe('migrated');
     // The one draft of the browser is offered by name, not picked silently (s21 item 1).
-    fireEvent.click(await screen.findByRole('button', { name: /^Open the draft kept by an earlier version/ }));
+    fireEvent.click(await screen.findByRole('button', { name: /^Open the draft kept by an earlier version/ }, { timeout: 5000 }));
     expect(b.designer.getState().lines).toEqual(lines);
     expect(b.designer.getState().dirty).toBe(true);
     await b.persistence.whenSaved();

@@ -120,7 +120,7 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     const c = await openTab();
     expect(c.designer.getState().dirty).toBe(false); // the active recipe, not another tab's draft
     expect(c.designer.getState().name).not.toMatch(/trial/);
-    const list = await c.view.findByTestId('kept-drafts');
+    const list = await c.view.findByTestId('kept-drafts', {}, { timeout: 5000 });
     const items = within(list).getAllByRole('listitem');
     expect(items).toHaveLength(1); // the open tab's draft is that tab's: not offered
     expect(items[0]!.textContent).toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG 320, “Closed tab’s trial”/);
@@ -144,7 +144,7 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     await settle();
     await a.close();
     const b = await openTab();
-    const list = await b.view.findByTestId('kept-drafts');
+    const list = await b.view.findByTestId('kept-drafts', {}, { timeout: 5000 });
     fireEvent.click(within(list).getByRole('button', { name: /^Discard the draft kept/ }));
     expect(Object.keys(b.state.useWorkspaceStore.getState().drafts)).toHaveLength(1); // not yet
     fireEvent.click(within(list).getByRole('button', { name: 'Discard it' }));
@@ -163,8 +163,23 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     const aKey = a.key;
     await a.close();
     const b = await openTab();
-    const note = await b.view.findByTestId('kept-draft-old');
+    const note = await b.view.findByTestId('kept-draft-old', {}, { timeout: 5000 });
     expect(note.textContent).toMatch(new RegExp(`kept ${b.state.OLD_DRAFT_DAYS + 3} days ago: discard it if it is no longer needed`));
     expect(Object.keys(b.state.useWorkspaceStore.getState().drafts)).toEqual([aKey]);
+  });
+
+  it('a duplicated tab (its sessionStorage a copy, key and all) takes a key of its own: its edits never replace the first tab’s draft', async () => {
+    const a = await openTab();
+    edit(a, 'First tab’s trial', -0.05);
+    await settle();
+    const b = await openTab(a.key); // the duplicate starts with the first tab's key and its draft
+    expect(b.designer.getState().name).toBe('First tab’s trial');
+    await new Promise((r) => setTimeout(r, 300)); // the open tabs have answered
+    expect(b.state.ownDraftKey()).not.toBe(a.key);
+    edit(b, 'Duplicate’s trial', 0.02);
+    await settle();
+    const drafts = a.state.useWorkspaceStore.getState().drafts;
+    expect(drafts[a.key]!.name).toBe('First tab’s trial');
+    expect(drafts[b.state.ownDraftKey()]!.name).toBe('Duplicate’s trial');
   });
 });
