@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, SCREEN_DIR, type Session } from './support';
+import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
 
 const OUT = SCREEN_DIR; // git-ignored (test-output/screens)
 const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
@@ -169,6 +169,8 @@ describe('blend sheet', () => {
       'BW-281', 'BW-190', 'BW-441', 'BW-240', 'BW-241', 'BW-221', 'BW-307', 'BW-407', 'BW-606', 'BW-621', 'BW-510', 'BW-901',
     ];
     const fractions = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
+    // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
+    await expect.poll(async () => (await stored(page, 'recipes')) != null, { timeout: 5000 }).toBe(true);
     await page.evaluate(
       async ({ codes, fractions }) => {
         const db = await new Promise<IDBDatabase>((res, rej) => {

@@ -22,6 +22,8 @@ type Seeded = { from: string; specificationOf?: string; patch: Record<string, un
  * for), adding `added`; the next load upgrades them.
  */
 async function seedSchema8(page: Page, added: Seeded[]): Promise<void> {
+  // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
+  await expect.poll(async () => (await stored(page, 'recipes')) != null, { timeout: 5000 }).toBe(true);
   await page.evaluate(async (adds) => {
     const db = await new Promise<IDBDatabase>((res, rej) => {
       const r = indexedDB.open('blendbench');
