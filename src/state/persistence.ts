@@ -327,8 +327,11 @@ function commit(st: SyncState, state: unknown): void {
     return;
   }
   const { records, stamps, gone } = st.mine;
+  const blank = st.layout.blank;
   for (const [k, v] of next) {
     if (!records.has(k) || records.get(k) !== v) {
+      // Created blank (never here before, not even deleted): no entry, so no stamp (RecordLayout.blank).
+      if (blank && !records.has(k) && !(k in gone) && !(k in stamps) && blank(k, v)) continue;
       stamps[k] = nextStamp();
       delete gone[k];
     }

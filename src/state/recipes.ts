@@ -212,6 +212,21 @@ function qcFieldWords(path: readonly string[]): string {
   return QC_FIELD_WORDS[path.join('/')] ?? `the QC field ${path.join(' ')}`;
 }
 
+/**
+ * Whether a QC field's value (at `path` inside a recipe's QC entries) is no entry: blank (null, empty
+ * text, an empty list or map) or the field's default (DEFAULT_QC_INPUTS, e.g. the correction's
+ * objective). The first entry of a recipe's QC loop, or of a lot, writes every other field blank
+ * beside it; those blanks never replace an entry made in another tab (RecordLayout.blank).
+ */
+export function isBlankQcValue(path: readonly string[], value: unknown): boolean {
+  if (value === null || value === '') return true;
+  if (Array.isArray(value)) return value.length === 0;
+  if (typeof value === 'object') return Object.keys(value).length === 0;
+  let def: unknown = DEFAULT_QC_INPUTS;
+  for (const p of path) def = typeof def === 'object' && def !== null && !Array.isArray(def) ? (def as Record<string, unknown>)[p] : undefined;
+  return def !== undefined && value === def;
+}
+
 /** Fields of a recipe that an approved or superseded recipe keeps for good. */
 const CONTENT_FIELDS = ['lines', 'grade', 'specification', 'stockBasis', 'status', 'supersedes', 'reasonForChange', 'revision', 'approvedAt'] as const;
 
@@ -230,6 +245,9 @@ export const RECIPES_SPEC: StoreSpec<RecipesData> = {
     deep: ['qc'],
     parts: { linePlan: ['demands', 'supplies', 'keep'] },
     local: ['activeRecipeId'],
+    // The blank QC fields a first entry writes are no entries (s22 item 3: two tabs making the first
+    // QC entries of one batch at once keep both).
+    blank: (key, v) => key.startsWith('qc/') && isBlankQcValue(key.split('/').slice(2).map(decodeURIComponent), v),
     label: (key, v) => {
       const [field, id, entry] = key.split('/') as [string, string | undefined, string | undefined];
       const nameOf = (rid: string) => {

@@ -29,6 +29,14 @@ export interface RecordLayout {
   local?: readonly string[];
   parts?: Record<string, readonly string[]>;
   deep?: readonly string[];
+  /**
+   * Whether a record's value is no entry at all (a blank QC field: null, empty, or the field's
+   * default). A record a tab creates holding such a value (the blank fields a first entry brings with
+   * it) is not stamped (persistence.ts `commit`): an entry of the same record made in another tab wins
+   * over it whichever was committed later, so two tabs making first entries at once keep both.
+   * A value changed to blank (a field cleared) is an entry like any other.
+   */
+  blank?: (key: string, value: unknown) => boolean;
   /** The record in the user's words for a message ("stock BW-190"); default: the key. */
   label?: (key: string, value: unknown) => string;
 }

@@ -4,8 +4,8 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
-import type { Page } from 'playwright-core';
-import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
+import type { Locator, Page } from 'playwright-core';
+import { cellValue, launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
 
 const pdfText = (path: string) => execFileSync('pdftotext', ['-layout', path, '-'], { encoding: 'utf8' });
 const pdfPages = (path: string) => Number(/^Pages:\s+(\d+)/m.exec(execFileSync('pdfinfo', [path], { encoding: 'utf8' }))?.[1]);
@@ -145,6 +145,74 @@ describe('the plant’s QC loop', () => {
     const held = pdfText(await printPdf(page, 'qc-heel-held')).replace(/\s+/g, ' ');
     expect(held).toMatch(/HOLD — NOT FOR RELEASE/i);
     expect(held).toMatch(/without the heel of 2000\.0 kg already in the vessel/);
+    expect(s.offHost).toEqual([]);
+    expect(s.errors).toEqual([]);
+  });
+});
+
+/**
+ * Commit typed fields (Enter) of several tabs at one wall-clock instant, each in its own page, so that
+ * no tab hears of another's save before making its own entry (Playwright's key presses, one tab after
+ * the other, leave time for the first save to reach the second tab).
+ */
+async function commitTogether(fields: Locator[]): Promise<void> {
+  const at = Date.now() + 1000;
+  await Promise.all(
+    fields.map((f) =>
+      f.evaluate(
+        (el, t) =>
+          new Promise<void>((resolve) =>
+            setTimeout(() => {
+              el.dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter', bubbles: true, cancelable: true }));
+              resolve();
+            }, Math.max(0, t - Date.now())),
+          ),
+        at,
+      ),
+    ),
+  );
+}
+
+describe('two tabs typing results of one batch at once (s21 item 2, s22 item 3)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  type StoredQc = { state: { qc: Record<string, { lots: Record<string, { kv40: number | null; kv100: number | null; density15: number | null }> }> } };
+  const lotOf = async (page: Page) => ((await stored(page, 'recipes')) as StoredQc | undefined)?.state.qc['demo-vg460']?.lots['demo-bw-190'] ?? null;
+
+  async function openQc(page: Page): Promise<void> {
+    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg460`);
+    await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
+    await page.getByLabel(/^Lot ν40 of BW-190/).waitFor();
+  }
+
+  it('the first two results of one lot, typed in two tabs at the same moment, are both kept in both tabs and after a reload', async () => {
+    const a = s.page;
+    await openQc(a);
+    // The first start's demo is saved before the second tab opens (else both would start fresh).
+    await expect.poll(async () => (await stored(a, 'recipes')) != null).toBe(true);
+    const b = await s.newPage();
+    await openQc(b);
+    // Invented lab results of the lot of BW-190 in the tank: ν40 in tab A, ν100 in tab B, each the
+    // first entry of the recipe's QC loop in its tab (each makes the lot, its other values blank).
+    const typed = [a.getByLabel(/^Lot ν40 of BW-190/), b.getByLabel(/^Lot ν100 of BW-190/)];
+    await typed[0]!.fill('480');
+    await typed[1]!.fill('31.5');
+    await commitTogether(typed);
+    await expect.poll(() => lotOf(a)).toEqual({ kv40: 480, kv100: 31.5, density15: null });
+    // Each tab shows the other's result too.
+    await expect.poll(() => cellValue(a, /^Lot ν100 of BW-190/)).toBe('31.5');
+    await expect.poll(() => cellValue(b, /^Lot ν40 of BW-190/)).toBe('480');
+    await a.reload();
+    await a.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    // (the lots' block opens by itself once it holds an entry)
+    expect([await cellValue(a, /^Lot ν40 of BW-190/), await cellValue(a, /^Lot ν100 of BW-190/)]).toEqual(['480', '31.5']);
     expect(s.offHost).toEqual([]);
     expect(s.errors).toEqual([]);
   });

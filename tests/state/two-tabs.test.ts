@@ -172,3 +172,72 @@ describe('two tabs editing the QC loop of one recipe at once (s21 item 2)', () =
     expect(a.persistence.useStorageStatus.getState().externalChange).toMatch(/heel mass .*QC entries of/i);
   });
 });
+
+describe('two tabs making the first QC entries of one batch in the same millisecond (s22 item 3)', () => {
+  /**
+   * Run `entries` with the clock standing still, as two tabs committing within one millisecond: no save
+   * runs and no tab hears of the other in between (the stamps are made as each entry is committed).
+   */
+  function sameMillisecond(entries: () => void): void {
+    const now = Date.now();
+    const clock = vi.spyOn(Date, 'now').mockReturnValue(now);
+    try {
+      entries();
+    } finally {
+      clock.mockRestore();
+    }
+  }
+  const blankLot = { kv40: null, kv100: null, density15: null };
+
+  it('two results of one lot, each the first entry in its tab (each creates the lot blank), are both kept', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const id = a.state.useRecipes.getState().recipes[0]!.id;
+    expect(a.state.useRecipes.getState().qc[id]).toBeUndefined(); // no QC entry yet: the first one creates them
+    // Invented lab values of the lot of BW-190, entered as the QC panel does (the lot made blank, one value set).
+    sameMillisecond(() => {
+      expect(a.state.recipeActions.setQcInputs(id, { lots: { 'demo-bw-190': { ...blankLot, kv40: 452 } } })).toBeNull();
+      expect(b.state.recipeActions.setQcInputs(id, { lots: { 'demo-bw-190': { ...blankLot, kv100: 31.5 } } })).toBeNull();
+    });
+    await settle([a, b]);
+    const c = await openTab(); // a reload
+    for (const t of [a, b, c]) expect(t.state.useRecipes.getState().qc[id]!.lots['demo-bw-190']).toEqual({ kv40: 452, kv100: 31.5, density15: null });
+  });
+
+  it('a lot result in one tab and the heel in the other, each the first entry of its recipe, are both kept, whichever tab is later', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const [r1, r2] = a.state.useRecipes.getState().recipes.map((r) => r.id);
+    const heel = a.state.DEFAULT_QC_INPUTS.heel;
+    // Both orders on two recipes: whichever tab's stamps sort later, one of the two recipes has the
+    // heel entered in that tab, the other the lot.
+    sameMillisecond(() => {
+      a.state.recipeActions.setQcInputs(r1!, { lots: { 'demo-bw-190': { ...blankLot, kv40: 452 } } });
+      b.state.recipeActions.setQcInputs(r1!, { heel: { ...heel, massKg: 1200 } });
+      a.state.recipeActions.setQcInputs(r2!, { heel: { ...heel, massKg: 900 } });
+      b.state.recipeActions.setQcInputs(r2!, { lots: { 'demo-bw-190': { ...blankLot, kv40: 455 } } });
+    });
+    await settle([a, b]);
+    const c = await openTab(); // a reload
+    for (const t of [a, b, c]) {
+      const qc = t.state.useRecipes.getState().qc;
+      expect([qc[r1!]!.lots['demo-bw-190']?.kv40, qc[r1!]!.heel.massKg]).toEqual([452, 1200]);
+      expect([qc[r2!]!.lots['demo-bw-190']?.kv40, qc[r2!]!.heel.massKg]).toEqual([455, 900]);
+    }
+  });
+
+  it('a field cleared on purpose is an entry: it replaces an earlier value typed in the other tab', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const id = a.state.useRecipes.getState().recipes[0]!.id;
+    const heel = a.state.DEFAULT_QC_INPUTS.heel;
+    a.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: 900 } });
+    await settle([a, b]);
+    b.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: 950 } });
+    await new Promise((r) => setTimeout(r, 5));
+    a.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: null } }); // cleared later, before hearing of B
+    await settle([a, b]);
+    const c = await openTab();
+    for (const t of [a, b, c]) expect(t.state.useRecipes.getState().qc[id]!.heel.massKg).toBeNull();
+  });
+});
