@@ -53,7 +53,8 @@ export function adoptDraftKey(key: string): void {
 type Message = { kind: 'who'; ask: string } | { kind: 'mine'; ask: string; key: string };
 
 let channel: BroadcastChannel | null = null;
-const waiting = new Map<string, Set<string>>();
+/** Open questions of this tab: the question's id → what to do with each answer (a key another tab holds). */
+const waiting = new Map<string, (key: string) => void>();
 
 function openChannel(): BroadcastChannel | null {
   if (channel) return channel;
@@ -67,7 +68,7 @@ function openChannel(): BroadcastChannel | null {
     const m = ev.data as Message | null;
     if (!m || typeof m !== 'object') return;
     if (m.kind === 'who') channel?.postMessage({ kind: 'mine', ask: m.ask, key: ownDraftKey() } satisfies Message);
-    else if (m.kind === 'mine') waiting.get(m.ask)?.add(m.key);
+    else if (m.kind === 'mine') waiting.get(m.ask)?.(m.key);
   };
   return channel;
 }
@@ -85,17 +86,31 @@ export function answerDraftQuestions(): () => void {
 /** How long a tab waits for the other tabs' answers [ms] (a tab answers within a task or two). */
 const ANSWER_WAIT_MS = 150;
 
+/**
+ * How long a duplicated tab keeps listening for a late answer carrying its own key [ms]. On a loaded
+ * machine another tab may answer after ANSWER_WAIT_MS; the answer still counts (the key is changed
+ * when it arrives), so a slow answer never leaves two tabs writing one draft.
+ */
+const LATE_ANSWER_MS = 30_000;
+
+/** Post a question to the open tabs; `onKey` is told each key an open tab holds, until `stop()`. */
+function ask(onKey: (key: string) => void): { stop: () => void } | null {
+  const ch = openChannel();
+  if (!ch) return null;
+  const id = newKey();
+  waiting.set(id, onKey);
+  ch.postMessage({ kind: 'who', ask: id } satisfies Message);
+  return { stop: () => waiting.delete(id) };
+}
+
 /** The draft keys of the other tabs open now (those that answer within ANSWER_WAIT_MS). */
 export function draftKeysOfOpenTabs(waitMs = ANSWER_WAIT_MS): Promise<Set<string>> {
-  const ch = openChannel();
-  if (!ch) return Promise.resolve(new Set());
-  const ask = newKey();
   const keys = new Set<string>();
-  waiting.set(ask, keys);
-  ch.postMessage({ kind: 'who', ask } satisfies Message);
+  const q = ask((key) => keys.add(key));
+  if (!q) return Promise.resolve(keys);
   return new Promise((resolve) =>
     setTimeout(() => {
-      waiting.delete(ask);
+      q.stop();
       resolve(keys);
     }, waitMs),
   );
@@ -104,12 +119,17 @@ export function draftKeysOfOpenTabs(waitMs = ANSWER_WAIT_MS): Promise<Set<string
 /**
  * A duplicated tab starts with a copy of the other tab's sessionStorage, key and all: when another
  * open tab answers with this tab's key, this tab takes a new one (the draft it restored is written
- * under the new key from its next change; the other tab's draft stays the other tab's).
+ * under the new key from its next change; the other tab's draft stays the other tab's). The promise
+ * settles after ANSWER_WAIT_MS; an answer arriving later (up to LATE_ANSWER_MS) still changes the key.
  */
-export async function leaveSharedKey(): Promise<void> {
+export function leaveSharedKey(waitMs = ANSWER_WAIT_MS, lateMs = LATE_ANSWER_MS): Promise<void> {
   const mine = ownDraftKey();
-  const open = await draftKeysOfOpenTabs();
-  if (open.has(mine) && own === mine) adoptDraftKey(newKey());
+  const q = ask((key) => {
+    if (key === mine && own === mine) adoptDraftKey(newKey());
+  });
+  if (!q) return Promise.resolve();
+  setTimeout(() => q.stop(), Math.max(waitMs, lateMs));
+  return new Promise((resolve) => setTimeout(resolve, waitMs));
 }
 
 /** Tests only: forget this module's key (as a new tab would not know it). */

@@ -8,7 +8,7 @@
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { act, cleanup, fireEvent, render, within } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, waitFor, within } from '@testing-library/react';
 
 const KEY = 'blendbench.draft-key';
 type StateModule = typeof import('../../../src/state');
@@ -174,8 +174,8 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     await settle();
     const b = await openTab(a.key); // the duplicate starts with the first tab's key and its draft
     expect(b.designer.getState().name).toBe('First tab’s trial');
-    await new Promise((r) => setTimeout(r, 300)); // the open tabs have answered
-    expect(b.state.ownDraftKey()).not.toBe(a.key);
+    // The first tab answers the duplicate's question (however late, on a loaded machine): a key of its own.
+    await waitFor(() => expect(b.state.ownDraftKey()).not.toBe(a.key), { timeout: 10_000 });
     edit(b, 'Duplicate’s trial', 0.02);
     await settle();
     const drafts = a.state.useWorkspaceStore.getState().drafts;

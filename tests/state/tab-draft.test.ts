@@ -1,0 +1,66 @@
+// A duplicated tab's draft key (src/state/tab-draft.ts): the other tab's answer counts even when it
+// comes after the first wait, as it does on a loaded machine (found when a full test run at load 12
+// left a duplicated tab on the first tab's key).
+import { afterEach, describe, expect, it, vi } from 'vitest';
+
+type TabDraft = typeof import('../../src/state/tab-draft');
+
+async function freshTab(): Promise<TabDraft> {
+  vi.resetModules();
+  return import('../../src/state/tab-draft');
+}
+
+const open: Array<() => void> = [];
+afterEach(() => {
+  for (const close of open.splice(0)) close();
+});
+
+describe('a duplicated tab takes a draft key of its own', () => {
+  it('when the first tab answers at once', async () => {
+    const first = await freshTab();
+    open.push(first.answerDraftQuestions());
+    const shared = first.ownDraftKey();
+    const dup = await freshTab();
+    dup.adoptDraftKey(shared); // its sessionStorage is a copy, key and all
+    open.push(dup.answerDraftQuestions());
+    await dup.leaveSharedKey();
+    await vi.waitFor(() => expect(dup.ownDraftKey()).not.toBe(shared), { timeout: 10_000 });
+    expect(first.ownDraftKey()).toBe(shared);
+  });
+
+  it('when the answer comes after the wait is over (a late answer still changes the key)', async () => {
+    const dup = await freshTab();
+    dup.adoptDraftKey('tab-shared-key');
+    open.push(dup.answerDraftQuestions());
+    // The "first tab": answers the question only after the duplicate has stopped waiting.
+    const other = new BroadcastChannel('blendbench-drafts');
+    open.push(() => other.close());
+    other.onmessage = (ev: MessageEvent) => {
+      const m = ev.data as { kind: string; ask: string };
+      if (m.kind === 'who') setTimeout(() => other.postMessage({ kind: 'mine', ask: m.ask, key: 'tab-shared-key' }), 100);
+    };
+    await dup.leaveSharedKey(10, 10_000);
+    expect(dup.ownDraftKey()).toBe('tab-shared-key'); // no answer yet
+    await vi.waitFor(() => expect(dup.ownDraftKey()).not.toBe('tab-shared-key'), { timeout: 10_000 });
+  });
+
+  it('an answer with another key leaves this tab’s key alone', async () => {
+    const dup = await freshTab();
+    dup.adoptDraftKey('tab-mine');
+    open.push(dup.answerDraftQuestions());
+    const other = new BroadcastChannel('blendbench-drafts');
+    open.push(() => other.close());
+    let answered = false;
+    other.onmessage = (ev: MessageEvent) => {
+      const m = ev.data as { kind: string; ask: string };
+      if (m.kind === 'who') {
+        other.postMessage({ kind: 'mine', ask: m.ask, key: 'tab-someone-else' });
+        answered = true;
+      }
+    };
+    await dup.leaveSharedKey(10, 10_000);
+    await vi.waitFor(() => expect(answered).toBe(true), { timeout: 10_000 });
+    await new Promise((r) => setTimeout(r, 50)); // the answer has been read
+    expect(dup.ownDraftKey()).toBe('tab-mine');
+  });
+});
