@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 import { beforeAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { loadUnitConversions } from '../../../src/components/format';
-import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { act, cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import LibraryScreen from '../../../src/features/library/LibraryScreen';
 import { cellValue, editCell } from './cells';
 import { linePlanActions, recipeActions, resetDemo, settingsActions, useLibrary } from '../../../src/state';
@@ -314,10 +314,7 @@ describe('Library screen', () => {
     await screen.findByText(/^Checking big\.csv: 5000 of 20\s000 rows$/);
     expect((screen.getByRole('progressbar') as HTMLProgressElement).value).toBe(5000);
     fireEvent.click(screen.getByRole('button', { name: 'Cancel checking' }));
-    await act(async () => {
-      await new Promise((r) => setTimeout(r, 20));
-    });
-    expect(screen.queryByRole('progressbar')).toBeNull();
+    await waitFor(() => expect(screen.queryByRole('progressbar')).toBeNull(), { timeout: 10_000 });
     expect(screen.queryByRole('table', { name: 'Import preview' })).toBeNull();
     expect(terminated).toBe(true);
     expect(useLibrary.getState().components).toBe(before);
