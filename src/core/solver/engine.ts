@@ -236,10 +236,100 @@ export function solvePrepared(
   return out;
 }
 /**
+ * The answer of an optimal solve. ν40, ν100 and the VI are computed when first read (and kept):
+ * the substitute search reads them only for a candidate better than the one it holds, a benchmark
+ * that times the solve reads none, `solveBlendPlain` reads all three. Their values are those the
+ * solve would have computed at once — the blend's X40 and X100 through the mixing rule's checked
+ * inverse and the VI by ASTM D2270 (the core's arithmetic), or the numbers the branch and bound's
+ * VI check computed on these very fractions.
+ */
+class OptimalAnswer implements EngineOptimal {
+  readonly status = 'optimal' as const;
+  massFractions: Float64Array;
+  objectiveValue: number;
+  density15: number;
+  anilinePoint: number | null;
+  costPerLitre: number;
+  lpCount: number;
+  inBandProbability: number | null;
+  lowerBound?: number;
+  /** The mixing rule's coordinates and the blend's X40, X100 (for ν40, ν100 on first read). */
+  private readonly coords: PreparedProblem['coords'];
+  private readonly x40: number;
+  private readonly x100: number;
+  /** ν40, ν100 [mm²/s] once known (NaN before), the VI once known (undefined before). */
+  private nu40: number;
+  private nu100: number;
+  private index: number | null | undefined;
+
+  constructor(
+    massFractions: Float64Array,
+    objectiveValue: number,
+    density15: number,
+    anilinePoint: number | null,
+    costPerLitre: number,
+    lpCount: number,
+    inBandProbability: number | null,
+    coords: PreparedProblem['coords'],
+    x40: number,
+    x100: number,
+    nu40: number,
+    nu100: number,
+    index: number | null | undefined,
+  ) {
+    this.massFractions = massFractions;
+    this.objectiveValue = objectiveValue;
+    this.density15 = density15;
+    this.anilinePoint = anilinePoint;
+    this.costPerLitre = costPerLitre;
+    this.lpCount = lpCount;
+    this.inBandProbability = inBandProbability;
+    this.lowerBound = undefined;
+    this.coords = coords;
+    this.x40 = x40;
+    this.x100 = x100;
+    this.nu40 = nu40;
+    this.nu100 = nu100;
+    this.index = index;
+  }
+
+  /** ν40 of the blend [mm²/s]: ν(X40) by the mixing rule. */
+  get kv40(): number {
+    if (Number.isNaN(this.nu40)) this.nu40 = this.coords.toKv(this.x40);
+    return this.nu40;
+  }
+
+  /** ν100 of the blend [mm²/s]: ν(X100) by the mixing rule. */
+  get kv100(): number {
+    if (Number.isNaN(this.nu100)) this.nu100 = this.coords.toKv(this.x100);
+    return this.nu100;
+  }
+
+  /** Unrounded VI by ASTM D2270; null where ν100 < 2.0 mm²/s (or not below ν40). */
+  get vi(): number | null {
+    if (this.index === undefined) {
+      const kv40 = this.kv40;
+      const kv100 = this.kv100;
+      this.index = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
+    }
+    return this.index;
+  }
+
+  /** The answer as a plain object (what JSON and structured clones see: every property, ν and VI included). */
+  toJSON(): Omit<EngineOptimal, never> {
+    const { status, massFractions, objectiveValue, kv40, kv100, vi, density15, anilinePoint, costPerLitre, lpCount, inBandProbability, lowerBound } = this;
+    const plain: EngineOptimal = { status, massFractions, objectiveValue, kv40, kv100, vi, density15, anilinePoint, costPerLitre, lpCount, inBandProbability };
+    if (lowerBound !== undefined) plain.lowerBound = lowerBound;
+    return plain;
+  }
+}
+
+/**
  * Properties of a solution in plain numbers (the same equations as the core). ν40, ν100 and the VI
  * are taken from the VI check of the branch and bound where it computed them on these very
- * fractions (no simplex dust dropped), else computed here. Takes `w` over (the optimisation's own
- * array): when the variables are every component in order, it becomes the answer's fractions.
+ * fractions (no simplex dust dropped), else computed from the blend's X40 and X100 when first read
+ * ({@link OptimalAnswer}). Takes `w` over (the optimisation's own array): when the variables are
+ * every component in order, it becomes the answer's fractions.
  */
 function finish(
   P: PreparedProblem,
@@ -294,30 +384,20 @@ function finish(
       saAp += wi * P.invRho[i]! * P.ap[i]!;
     }
   }
-  let kv40: number;
-  let kv100: number;
-  let vi: number | null;
-  if (reuse) {
-    kv40 = checked.kv40!;
-    kv100 = checked.kv100!;
-    vi = checked.vi!;
-  } else {
-    kv40 = P.coords.toKv(s40 / sc);
-    kv100 = P.coords.toKv(s100 / sc);
-    vi = kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndexUnchecked(kv40, kv100) : null;
-  }
   const density15 = 1 / sv;
-  return {
-    status: 'optimal',
+  return new OptimalAnswer(
     massFractions,
-    objectiveValue: value,
-    kv40,
-    kv100,
-    vi,
+    value,
     density15,
-    anilinePoint: sa > 0 ? saAp / sa : null,
-    costPerLitre: density15 * sp,
+    sa > 0 ? saAp / sa : null,
+    density15 * sp,
     lpCount,
-    inBandProbability: hasLotSpread(P) ? probabilityOfFractions(P, vars, w) : null,
-  };
+    hasLotSpread(P) ? probabilityOfFractions(P, vars, w) : null,
+    P.coords,
+    reuse ? Number.NaN : s40 / sc,
+    reuse ? Number.NaN : s100 / sc,
+    reuse ? checked.kv40! : Number.NaN,
+    reuse ? checked.kv100! : Number.NaN,
+    reuse ? checked.vi! : undefined,
+  );
 }
