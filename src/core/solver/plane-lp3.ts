@@ -100,9 +100,14 @@ export function solvePlaneLp3(
   // (Module arrays read into locals: the loops below then load no module binding.)
   const N = normals;
   const kind = kinds;
-  for (let q = 0; q < 9; q++) N[q] = 0;
   N[0] = 1;
+  N[1] = 0;
+  N[2] = 0;
+  N[3] = 0;
   N[4] = 1;
+  N[5] = 0;
+  N[6] = 0;
+  N[7] = 0;
   N[8] = 1;
   let k = 3;
   for (let r = 1; r < m; r++) {
