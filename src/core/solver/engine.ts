@@ -39,9 +39,12 @@
  * over a polygon, solved exactly by `plane-lp3.ts` from the polygon's vertices (the simplex's
  * answer, rounded as it rounds; ties and near-infeasible slivers still go to the simplex), and the
  * VI branch and bound first tries one LP with the floor row X100 ≥ h(X(ν_lo)) before it builds the
- * root relaxation (`branch-and-bound.ts`). Every other size takes the general path; `useVertexLp3`
- * in `rows.ts` switches the three-stock path off, and tests/core/solver/plane-lp3.test.ts checks
- * that both paths give the same answers.
+ * root relaxation (`branch-and-bound.ts`). Where a node has only the usual rows (band, VI lines,
+ * aniline; no bounds, polymer, pour or flash row, no extra rows), `rows.ts` writes them straight
+ * into the vertex solver's planes, by the same arithmetic as the dense rows, instead of writing
+ * dense rows for it to read back. Every other size takes the general path; `useVertexLp3` and
+ * `useDirectLp3` in `rows.ts` switch these off, and tests/core/solver/plane-lp3.test.ts checks that
+ * the paths give the same answers (the direct rows bit for bit).
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';

@@ -92,14 +92,37 @@ export function solvePlaneLp3(
     if (hi[0] !== Number.POSITIVE_INFINITY || sense !== 'minimize' || !(c0 >= 0 && c1 >= 0 && c2 >= 0)) return null;
   }
   // The constraint planes: yⱼ = 0 (unit normals), then each row with a bound.
-  const planesMax = 3 + m;
+  planeLp3Begin(m);
+  for (let r = 1; r < m; r++) {
+    const l = lo[r]!;
+    const u = hi[r]!;
+    const hasLo = l !== Number.NEGATIVE_INFINITY;
+    const hasHi = u !== Number.POSITIVE_INFINITY;
+    if (!hasLo && !hasHi) continue;
+    if ((hasLo && l !== 0) || (hasHi && u !== 0)) return null;
+    const o = 3 * r;
+    planeLp3Row(a[o]!, a[o + 1]!, a[o + 2]!, hasLo, hasHi);
+  }
+  return planeLp3Solve(sense, d0, d1, d2, c0, c1, c2);
+}
+
+/** Number of planes written so far in {@link normals} (3 + the rows with a condition). */
+let planes = 3;
+
+/**
+ * Start the planes of one LP with room for `rows` rows: the unit normals of y ≥ 0. The rows follow
+ * by {@link planeLp3Row}, then {@link planeLp3Solve} solves. (The split form lets `rows.ts` write a
+ * node's rows straight into the planes; {@link solvePlaneLp3} reads them from dense rows.)
+ *
+ * @param rows - an upper bound on the number of {@link planeLp3Row} calls to follow
+ */
+export function planeLp3Begin(rows: number): void {
+  const planesMax = 3 + rows;
   if (normals.length < 3 * planesMax) {
     normals = new Float64Array(6 * planesMax);
     kinds = new Int8Array(2 * planesMax);
   }
-  // (Module arrays read into locals: the loops below then load no module binding.)
   const N = normals;
-  const kind = kinds;
   N[0] = 1;
   N[1] = 0;
   N[2] = 0;
@@ -109,27 +132,46 @@ export function solvePlaneLp3(
   N[6] = 0;
   N[7] = 0;
   N[8] = 1;
-  let k = 3;
-  for (let r = 1; r < m; r++) {
-    const l = lo[r]!;
-    const u = hi[r]!;
-    const hasLo = l !== Number.NEGATIVE_INFINITY;
-    const hasHi = u !== Number.POSITIVE_INFINITY;
-    if (!hasLo && !hasHi) continue;
-    if ((hasLo && l !== 0) || (hasHi && u !== 0)) return null;
-    const o = 3 * r;
-    const x = a[o]!, y = a[o + 1]!, z = a[o + 2]!;
-    const big = Math.max(Math.abs(x), Math.abs(y), Math.abs(z));
-    if (!(big > 0)) continue; // 0 ≥ 0, 0 ≤ 0: no condition
-    // Stored scaled to a largest coefficient of 1 and signed so that the row reads n·y ≥ 0 (an
-    // equality keeps kind 3): the miss of a point is then −n·y (or |n·y|).
-    const sg = hasLo ? 1 / big : -1 / big;
-    N[3 * k] = x * sg;
-    N[3 * k + 1] = y * sg;
-    N[3 * k + 2] = z * sg;
-    kind[k] = hasLo && hasHi ? 3 : 1;
-    k++;
-  }
+  planes = 3;
+}
+
+/**
+ * One homogeneous row x·y₀ + y·y₁ + z·y₂ ≥ 0 (hasLo), ≤ 0 (hasHi) or = 0 (both) as a plane. A row
+ * of zeros is no condition and is left out.
+ */
+export function planeLp3Row(x: number, y: number, z: number, hasLo: boolean, hasHi: boolean): void {
+  const big = Math.max(Math.abs(x), Math.abs(y), Math.abs(z));
+  if (!(big > 0)) return; // 0 ≥ 0, 0 ≤ 0: no condition
+  // Stored scaled to a largest coefficient of 1 and signed so that the row reads n·y ≥ 0 (an
+  // equality keeps kind 3): the miss of a point is then −n·y (or |n·y|).
+  const N = normals;
+  const k = planes;
+  const sg = hasLo ? 1 / big : -1 / big;
+  N[3 * k] = x * sg;
+  N[3 * k + 1] = y * sg;
+  N[3 * k + 2] = z * sg;
+  kinds[k] = hasLo && hasHi ? 3 : 1;
+  planes = k + 1;
+}
+
+/**
+ * Solve over the planes written since {@link planeLp3Begin}: minimise (or maximise) c·y on
+ * d·y = 1 (every dⱼ > 0; a one-sided d·y ≥ 1 only when minimising with c ≥ 0, which the caller
+ * checks). Same answer, and the same null, as {@link solvePlaneLp3} on the same rows.
+ */
+export function planeLp3Solve(
+  sense: 'minimize' | 'maximize',
+  d0: number,
+  d1: number,
+  d2: number,
+  c0: number,
+  c1: number,
+  c2: number,
+): LpSolution | null {
+  // (Module arrays read into locals: the loops below then load no module binding.)
+  const N = normals;
+  const kind = kinds;
+  const k = planes;
   const pairs = (k * (k - 1)) / 2;
   if (candF.length < pairs) {
     candF = new Float64Array(2 * pairs);

@@ -7,7 +7,7 @@ import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared'
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
 import { LpWorkspace, noteDenseLp, observingDenseLps, solveDenseLp, type LpSolution } from './lp';
-import { solvePlaneLp3 } from './plane-lp3';
+import { planeLp3Begin, planeLp3Row, planeLp3Solve, solvePlaneLp3 } from './plane-lp3';
 
 /** What one solve switches on. */
 export interface SolveContext {
@@ -89,6 +89,13 @@ const scratch = new NodeScratch();
 export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
   const { P, vars, groups, objective, extra } = ctx;
   const nv = vars.length;
+  if (nv === 3 && directLp3 && vertexLp3 && !ctx.withAux && !ctx.lift && extra.length === 0 && !observingDenseLps()) {
+    const sol = solveNodeLp3Direct(ctx, a, b, bandRows, chords);
+    if (sol) {
+      if (sol.status === 'optimal') return sol as NodeSolution;
+      return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
+    }
+  }
   const nAux = ctx.withAux ? 3 : 0;
   const nLift = ctx.lift ?? 0;
   const width = nv + nAux + nLift;
@@ -301,6 +308,101 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
 
 /** Whether three-variable node LPs go to the vertex solver (see {@link useVertexLp3}). */
 let vertexLp3 = true;
+/** Whether the vertex solver gets a three-stock node's rows directly (see {@link useDirectLp3}). */
+let directLp3 = true;
+
+/**
+ * A three-stock node LP written straight into the planes of the vertex solver (`plane-lp3.ts`),
+ * without the dense rows: the same rows in the same order (normalisation, band, VI lines, aniline),
+ * each coefficient by the same arithmetic as {@link solveNodeInto} writes it, so the vertex solver
+ * sees the very numbers it would read from the dense rows and gives the same answer.
+ *
+ * Only for the rows most solves have: a ratio objective over exactly three component variables, no
+ * extra rows, no component bounds or fixed additive (so nothing is folded), and no polymer, pour or
+ * flash row. Anything else, a normalisation with a coefficient ≤ 0, or an LP the vertex solver
+ * hands back (a tie or a sliver) returns null, and the caller writes the dense rows as before
+ * (where the vertex solver decides alike, or the simplex solves). `useDirectLp3(false)` switches
+ * it off; tests/core/solver/plane-lp3.test.ts compares whole solves with and without it.
+ */
+function solveNodeLp3Direct(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): LpSolution | null {
+  const { P, vars, groups, objective } = ctx;
+  if (objective.kind !== 'ratio' || P.anyBounds) return null;
+  const t = P.targets;
+  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) return null;
+  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) return null;
+  if (t.minFlashPoint !== null && groupOn(groups, 'flash')) return null;
+  const i0 = vars[0]!;
+  const i1 = vars[1]!;
+  const i2 = vars[2]!;
+  // Row 0, the normalisation den·w = 1 (one-sided ≥ 1 when minimising with every num ≥ 0).
+  const den = objective.den;
+  const num = objective.num;
+  const d0 = den[i0]!;
+  const d1 = den[i1]!;
+  const d2 = den[i2]!;
+  if (!(d0 > 0 && d1 > 0 && d2 > 0)) return null;
+  const c0 = num[i0]!;
+  const c1 = num[i1]!;
+  const c2 = num[i2]!;
+  // One-sided (den·w ≥ 1) exactly where solveNodeInto writes it so; `solvePlaneLp3` then wants
+  // every cost ≥ 0 (false for NaN), else the simplex solves.
+  const oneSided = objective.sense !== 'maximize' && !(c0 < 0 || c1 < 0 || c2 < 0);
+  if (oneSided && !(c0 >= 0 && c1 >= 0 && c2 >= 0)) return null;
+  const s = P.coords.rowScale;
+  const c = P.c;
+  const x40 = P.x40;
+  const x100 = P.x100;
+  const aniline = t.maxAnilinePoint !== null && groupOn(groups, 'aniline');
+  planeLp3Begin(2 + chords.length + 1);
+  if (bandRows) {
+    // a ≤ X40 ≤ b:  Σ cᵢwᵢ(X40ᵢ − a) ≥ 0,  Σ cᵢwᵢ(X40ᵢ − b) ≤ 0 (one equality row when a = b).
+    const l0 = s * c[i0]! * (x40[i0]! - a);
+    const l1 = s * c[i1]! * (x40[i1]! - a);
+    const l2 = s * c[i2]! * (x40[i2]! - a);
+    if (!(b - a > 1e-12)) planeLp3Row(l0, l1, l2, true, true);
+    else {
+      planeLp3Row(l0, l1, l2, true, false);
+      planeLp3Row(s * c[i0]! * (x40[i0]! - b), s * c[i1]! * (x40[i1]! - b), s * c[i2]! * (x40[i2]! - b), false, true);
+    }
+  }
+  for (let q = 0; q < chords.length; q++) {
+    // X100 ≥ alpha + beta·X40  ⇔  Σ cᵢwᵢ(X100ᵢ − alpha − beta·X40ᵢ) ≥ 0.
+    const chord = chords[q]!;
+    const al = chord.alpha;
+    const be = chord.beta;
+    planeLp3Row(
+      s * c[i0]! * (x100[i0]! - al - be * x40[i0]!),
+      s * c[i1]! * (x100[i1]! - al - be * x40[i1]!),
+      s * c[i2]! * (x100[i2]! - al - be * x40[i2]!),
+      true,
+      false,
+    );
+  }
+  if (aniline) {
+    // Σ_A (wᵢ/ρᵢ)(APᵢ − AP_max) ≤ 0 (scaled by 0.1); a component without an aniline point adds 0.
+    const apMax = t.maxAnilinePoint!;
+    const ap = P.ap;
+    const inv = P.invRho;
+    const v0 = Number.isNaN(ap[i0]!) ? 0 : 0.1 * inv[i0]! * (ap[i0]! - apMax);
+    const v1 = Number.isNaN(ap[i1]!) ? 0 : 0.1 * inv[i1]! * (ap[i1]! - apMax);
+    const v2 = Number.isNaN(ap[i2]!) ? 0 : 0.1 * inv[i2]! * (ap[i2]! - apMax);
+    planeLp3Row(v0, v1, v2, false, true);
+  }
+  return planeLp3Solve(objective.sense, d0, d1, d2, c0, c1, c2);
+}
+
+/**
+ * Switch the direct rows of three-stock node LPs on or off (on by default; off, they are written
+ * as dense rows and read back by the vertex solver). For tests and benchmarks that compare the two.
+ *
+ * @param on - true to use them
+ * @returns the setting before
+ */
+export function useDirectLp3(on: boolean): boolean {
+  const before = directLp3;
+  directLp3 = on;
+  return before;
+}
 
 /**
  * Whether a solve takes the three-stock path: its node LPs have three variables and nothing else
