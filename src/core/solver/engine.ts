@@ -45,6 +45,12 @@
  * dense rows for it to read back. Every other size takes the general path; `useVertexLp3` and
  * `useDirectLp3` in `rows.ts` switch these off, and tests/core/solver/plane-lp3.test.ts checks that
  * the paths give the same answers (the direct rows bit for bit).
+ *
+ * ## Other sizes
+ * A node LP with the same usual rows is written straight into the simplex tableau (the entries
+ * `lp.ts` would copy from the dense rows, by the same arithmetic), so the simplex pivots alike;
+ * `useDirectTableau` switches it off and tests/core/solver/rows.test.ts checks the answers bit for
+ * bit. Every other node LP (bounds, polymer, pour, flash, lazy cuts, 'closest') writes dense rows.
  */
 import { viscosityIndexUnchecked, VI_MIN_KV100 } from '../viscosity/viscosity-index';
 import { ALL_GROUP_SET, groupOn, viBandFloor, type ConstraintGroup, type PreparedProblem } from './prepared';

@@ -166,6 +166,11 @@ export class LpWorkspace {
     return t;
   }
 
+  /** The tableau last returned by {@link tableau} (as the caller left it). */
+  current(): Tableau {
+    return this.tab;
+  }
+
   /** The workspace's zeroed result vector of length n. */
   x(n: number): Float64Array {
     // (No read past the end of the list: that would cost the compiled code a deoptimisation.)
@@ -238,6 +243,58 @@ export function solveDenseLp(
 }
 
 /** The answer of a solve: the workspace's own answer object when there is one, else a new one. */
+/**
+ * Start a tableau written by the caller instead of from dense rows (`rows.ts` writes a node's rows
+ * straight into it): a (n + 1) × height tableau of `ws`, identity index arrays, the objective row
+ * written (c ≠ 0 as sign·c with sign = −1 when minimising, +1 when maximising, and +0 for a zero
+ * coefficient, as {@link solveDenseLp} writes it). The caller then writes rows 1 … height − 1 in
+ * the same form as `writeTableau`: a row with an upper bound u as [u, a₁ … aₙ], one with a lower
+ * bound l as [−l, −a₁ … −aₙ] (each zero coefficient as +0), upper before lower for a row with both,
+ * rows in their order; then {@link solveWrittenTableau} solves.
+ *
+ * @returns the tableau's matrix (row r at offset r·(n + 1))
+ */
+export function beginWrittenTableau(
+  ws: LpWorkspace,
+  sense: 'minimize' | 'maximize',
+  n: number,
+  height: number,
+  objective: ArrayLike<number>,
+): Float64Array {
+  const t = ws.tableau(n + 1, height);
+  const mat = t.matrix;
+  const sign = sense === 'minimize' ? -1 : 1;
+  mat[0] = 0;
+  for (let j = 0; j < n; j++) {
+    const c = objective[j]!;
+    mat[j + 1] = c !== 0 ? sign * c : 0;
+  }
+  return mat;
+}
+
+/**
+ * Solve the tableau written since {@link beginWrittenTableau} as {@link solveDenseLp} solves its own
+ * (the same simplex, the same rounding of the answer), or null when the first try reaches the
+ * pivot limit: the caller then solves the LP from its dense rows, whose retry rewrites the tableau.
+ *
+ * @returns the workspace's answer object (overwritten by the next solve), or null
+ */
+export function solveWrittenTableau(ws: LpWorkspace, sense: 'minimize' | 'maximize', n: number): LpSolution | null {
+  const tableau = ws.current();
+  const code = denseSimplex(tableau, PRECISION, FIRST_TRY.maxPivots);
+  if (code === SIMPLEX_CYCLED) return null;
+  const x = ws.x(n);
+  if (code !== SIMPLEX_OPTIMAL) return answer(ws, code === SIMPLEX_INFEASIBLE ? 'infeasible' : 'unbounded', x, Number.NaN);
+  const sign = sense === 'minimize' ? -1 : 1;
+  const { matrix, width, positionOfVariable } = tableau;
+  for (let j = 0; j < n; j++) {
+    const row = positionOfVariable[j + 1]! - width;
+    const v = row >= 0 ? matrix[row * width]! : 0;
+    if (v > PRECISION) x[j] = roundToPrecision(v, PRECISION);
+  }
+  return answer(ws, 'optimal', x, -sign * simplexResult.value);
+}
+
 function answer(ws: LpWorkspace | undefined, status: LpStatus, x: Float64Array, objective: number): LpSolution {
   if (!ws) return { status, x, objective };
   const a = ws.answer;

@@ -6,7 +6,7 @@
 import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared';
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
-import { LpWorkspace, noteDenseLp, observingDenseLps, solveDenseLp, type LpSolution } from './lp';
+import { LpWorkspace, beginWrittenTableau, noteDenseLp, observingDenseLps, solveDenseLp, solveWrittenTableau, type LpSolution } from './lp';
 import { planeLp3Begin, planeLp3Row, planeLp3Solve, solvePlaneLp3 } from './plane-lp3';
 
 /** What one solve switches on. */
@@ -89,8 +89,16 @@ const scratch = new NodeScratch();
 export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): NodeSolution {
   const { P, vars, groups, objective, extra } = ctx;
   const nv = vars.length;
-  if (nv === 3 && directLp3 && vertexLp3 && !ctx.withAux && !ctx.lift && extra.length === 0 && !observingDenseLps()) {
-    const sol = solveNodeLp3Direct(ctx, a, b, bandRows, chords);
+  if (!ctx.withAux && !ctx.lift && extra.length === 0 && !observingDenseLps()) {
+    // The usual rows written straight into the LP's own form (see the two functions below).
+    const sol =
+      nv === 3 && vertexLp3
+        ? directLp3
+          ? solveNodeLp3Direct(ctx, a, b, bandRows, chords)
+          : null
+        : directTableau
+          ? solveNodeTableauDirect(ctx, a, b, bandRows, chords)
+          : null;
     if (sol) {
       if (sol.status === 'optimal') return sol as NodeSolution;
       return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
@@ -389,6 +397,129 @@ function solveNodeLp3Direct(ctx: SolveContext, a: number, b: number, bandRows: b
     planeLp3Row(v0, v1, v2, false, true);
   }
   return planeLp3Solve(objective.sense, d0, d1, d2, c0, c1, c2);
+}
+
+/** Whether the simplex tableau of other node LPs is written directly (see {@link useDirectTableau}). */
+let directTableau = true;
+
+/**
+ * A node LP of any size but three (or of three with the vertex solver off) written straight into
+ * the simplex tableau (`beginWrittenTableau` in `lp.ts`), without the dense rows that `lp.ts` would
+ * copy into it: the same rows in the same order (normalisation, band, VI lines, aniline), each
+ * coefficient by the same arithmetic as {@link solveNodeInto} writes it and each tableau entry as
+ * `lp.ts` would copy it (an upper-bound row as [u, a], a lower-bound row as [−l, −a], +0 for a zero,
+ * upper before lower), so the simplex sees the very tableau it would have built and pivots alike.
+ *
+ * For the same rows as {@link solveNodeLp3Direct} (a ratio objective, no extra rows, no component
+ * bounds or fixed additive, no polymer, pour or flash row); anything else, and an LP whose first
+ * simplex run reaches the pivot limit (the retry rewrites the tableau from dense rows), returns
+ * null and the caller writes the dense rows as before. `useDirectTableau(false)` switches it off;
+ * tests/core/solver/rows.test.ts compares whole solves with and without it bit for bit.
+ */
+function solveNodeTableauDirect(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): LpSolution | null {
+  const { P, vars, groups, objective } = ctx;
+  if (objective.kind !== 'ratio' || P.anyBounds) return null;
+  const t = P.targets;
+  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) return null;
+  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) return null;
+  if (t.minFlashPoint !== null && groupOn(groups, 'flash')) return null;
+  const nv = vars.length;
+  const num = objective.num;
+  const den = objective.den;
+  // The objective (as solveNodeInto's obj) and the one-sided normalisation, as solveNodeInto decides it.
+  const obj = scratch.obj.length >= nv ? scratch.obj : (scratch.obj = new Float64Array(2 * nv));
+  let oneSided = objective.sense !== 'maximize';
+  for (let j = 0; j < nv; j++) {
+    const c = num[vars[j]!]!;
+    obj[j] = c;
+    if (c < 0) oneSided = false;
+  }
+  const aniline = t.maxAnilinePoint !== null && groupOn(groups, 'aniline');
+  const point = !(b - a > 1e-12);
+  const height = 1 + (oneSided ? 1 : 2) + (bandRows ? 2 : 0) + chords.length + (aniline ? 1 : 0);
+  const mat = beginWrittenTableau(scratch.lp, objective.sense, nv, height, obj);
+  for (let j = 0; j < nv; j++) obj[j] = 0; // (the scratch objective is kept zero between node LPs)
+  const width = nv + 1;
+  let o = width;
+  // Row 0, den·w = 1 (or ≥ 1): [1, den] when bounded above, then [−1, −den].
+  if (!oneSided) {
+    mat[o] = 1;
+    for (let j = 0; j < nv; j++) {
+      const v = den[vars[j]!]!;
+      mat[o + 1 + j] = v !== 0 ? v : 0;
+    }
+    o += width;
+  }
+  mat[o] = -1;
+  for (let j = 0; j < nv; j++) {
+    const v = den[vars[j]!]!;
+    mat[o + 1 + j] = v !== 0 ? -v : 0;
+  }
+  o += width;
+  const s = P.coords.rowScale;
+  const c = P.c;
+  const x40 = P.x40;
+  const x100 = P.x100;
+  if (bandRows) {
+    if (point) {
+      // One row Σ cᵢwᵢ(X40ᵢ − a) = 0: its upper-bound form, then its lower-bound form.
+      mat[o] = 0;
+      mat[o + width] = -0;
+      for (let j = 0; j < nv; j++) {
+        const i = vars[j]!;
+        const v = s * c[i]! * (x40[i]! - a);
+        mat[o + 1 + j] = v !== 0 ? v : 0;
+        mat[o + width + 1 + j] = v !== 0 ? -v : 0;
+      }
+    } else {
+      // Σ cᵢwᵢ(X40ᵢ − a) ≥ 0 (lower-bound form), Σ cᵢwᵢ(X40ᵢ − b) ≤ 0 (upper-bound form).
+      mat[o] = -0;
+      mat[o + width] = 0;
+      for (let j = 0; j < nv; j++) {
+        const i = vars[j]!;
+        const lo = s * c[i]! * (x40[i]! - a);
+        const hi = s * c[i]! * (x40[i]! - b);
+        mat[o + 1 + j] = lo !== 0 ? -lo : 0;
+        mat[o + width + 1 + j] = hi !== 0 ? hi : 0;
+      }
+    }
+    o += 2 * width;
+  }
+  for (let q = 0; q < chords.length; q++) {
+    // X100 ≥ alpha + beta·X40  ⇔  Σ cᵢwᵢ(X100ᵢ − alpha − beta·X40ᵢ) ≥ 0 (lower-bound form).
+    const chord = chords[q]!;
+    mat[o] = -0;
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      const v = s * c[i]! * (x100[i]! - chord.alpha - chord.beta * x40[i]!);
+      mat[o + 1 + j] = v !== 0 ? -v : 0;
+    }
+    o += width;
+  }
+  if (aniline) {
+    // Σ_A (wᵢ/ρᵢ)(APᵢ − AP_max) ≤ 0 (scaled by 0.1; upper-bound form); no aniline point adds 0.
+    const apMax = t.maxAnilinePoint!;
+    mat[o] = 0;
+    for (let j = 0; j < nv; j++) {
+      const i = vars[j]!;
+      const v = Number.isNaN(P.ap[i]!) ? 0 : 0.1 * P.invRho[i]! * (P.ap[i]! - apMax);
+      mat[o + 1 + j] = v !== 0 ? v : 0;
+    }
+  }
+  return solveWrittenTableau(scratch.lp, objective.sense, nv);
+}
+
+/**
+ * Switch the directly written tableau of node LPs on or off (on by default; off, their rows are
+ * written as dense rows and copied into the tableau). For tests and benchmarks that compare the two.
+ *
+ * @param on - true to use it
+ * @returns the setting before
+ */
+export function useDirectTableau(on: boolean): boolean {
+  const before = directTableau;
+  directTableau = on;
+  return before;
 }
 
 /**
