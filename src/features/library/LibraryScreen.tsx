@@ -297,6 +297,21 @@ export default function LibraryScreen() {
 
       <div className="table-scroll">
         <table className="data library-table" aria-label="Component library" aria-rowcount={rows.windowed ? shown.length + 1 : undefined}>
+          {/* Set column widths (table-layout: fixed, library.css): the browser sizes the columns without measuring every cell first. */}
+          <colgroup>
+            <col className="col-code" />
+            <col className="col-name" />
+            <col className="col-category" />
+            <col className="col-kv40" />
+            <col className="col-kv100" />
+            <col className="col-vi" />
+            <col className="col-grade" />
+            <col className="col-density" />
+            <col className="col-aniline" />
+            <col className="col-price" />
+            <col className="col-avail" />
+            <col className="col-actions" />
+          </colgroup>
           <thead>
             <tr>
               <th scope="col">Code</th>
