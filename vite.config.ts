@@ -1,11 +1,14 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
-import { compileHints } from './scripts/compile-hints';
+import { compileHints, openingPreloads } from './scripts/compile-hints';
+
+const OPENING_SCREEN = /[\\/]features[\\/]library[\\/]LibraryScreen\.tsx$/;
 
 // Blendbench runs fully offline: no CDN, no web fonts, no runtime requests.
 export default defineConfig({
   // The opening screen's chunks are compiled off the main thread (scripts/compile-hints.ts).
-  plugins: [react(), compileHints(/[\\/]features[\\/]library[\\/]LibraryScreen\.tsx$/)],
+  // They are linked in the page as modulepreload, fetched as the page is parsed.
+  plugins: [react(), compileHints(OPENING_SCREEN), openingPreloads(OPENING_SCREEN)],
   base: './',
   worker: { format: 'es' },
   build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 900 },

@@ -8,6 +8,10 @@
  * run before the first paint), and the Stocks screen — the page's default opening screen — with its
  * static imports. Not marked: other screens, charts, workers, import/export and the unit library,
  * whose functions are mostly not called when they load (eager compilation would be wasted there).
+ *
+ * The same chunks are named in the page as `<link rel="modulepreload">` ({@link openingPreloads}):
+ * the browser's preload scanner fetches them as the page is parsed, and the opening screen's dynamic
+ * import finds its chunks linked already (no link elements made and inserted by script then).
  */
 import type { Plugin } from 'vite';
 
@@ -60,6 +64,39 @@ export function compileHints(opening: RegExp): Plugin {
             map.source = JSON.stringify(m);
           }
         }
+      },
+    },
+  };
+}
+
+/**
+ * The `<link rel="modulepreload">` tags to add to the page: each chunk the opening screen runs
+ * ({@link chunksCalledOnLoad}) that the page does not load already (the entry's script and the
+ * modulepreload links the build writes for the entry's own imports). `base` is the build's base ('./').
+ */
+export function openingPreloadTags(html: string, chunks: readonly ChunkInfo[], opening: RegExp, base: string): { tag: 'link'; attrs: Record<string, string | boolean>; injectTo: 'head' }[] {
+  const linked = (name: string) => html.includes(`"${base}${name}"`);
+  return [...chunksCalledOnLoad(chunks, opening)]
+    .filter((name) => name.endsWith('.js') && !linked(name))
+    .sort()
+    .map((name) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `${base}${name}` }, injectTo: 'head' }));
+}
+
+/** The Vite plugin: the opening screen's chunks linked as modulepreload in the built page. */
+export function openingPreloads(opening: RegExp): Plugin {
+  let base = './';
+  return {
+    name: 'blendbench-opening-preloads',
+    apply: 'build',
+    configResolved(config) {
+      base = config.base;
+    },
+    transformIndexHtml: {
+      order: 'post',
+      handler(html, ctx) {
+        if (!ctx.bundle) return html;
+        const chunks = Object.values(ctx.bundle).flatMap((c) => (c.type === 'chunk' ? [c] : []));
+        return { html, tags: openingPreloadTags(html, chunks, opening, base) };
       },
     },
   };
