@@ -49,13 +49,14 @@ interface CommonProps {
 
 /**
  * Whether a key pressed on a field drawn as text opens the field: Enter and F2, and a key that types
- * (a character, Backspace, Delete, a paste). The field opens focused with its text selected, as Tab into
+ * (a character, Backspace, Delete, a paste: Ctrl+V, Shift+Insert). The field opens focused with its text selected, as Tab into
  * a field selects it, so the typed key's own input then lands in the field and replaces the text.
  */
 function opensField(e: KeyboardEvent): boolean {
   if (e.key === 'Enter' || e.key === 'F2') return true;
   if (e.ctrlKey || e.metaKey) return !e.altKey && (e.key === 'v' || e.key === 'V');
   if (e.altKey) return false;
+  if (e.key === 'Insert') return e.shiftKey; // Shift+Insert pastes too
   return e.key === 'Backspace' || e.key === 'Delete' || [...e.key].length === 1;
 }
 

@@ -250,6 +250,46 @@ describe('fields drawn as text until edited (a table of many fields, issue 9 ite
     expect(document.activeElement).toBe(cell());
   });
 
+  it('a paste key (Ctrl+V, Ctrl+Shift+V, Shift+Insert) draws the field focused with its text selected, so the pasted text replaces it', () => {
+    for (const key of [{ key: 'v', ctrlKey: true }, { key: 'V', ctrlKey: true, shiftKey: true }, { key: 'Insert', shiftKey: true }]) {
+      const saved = vi.fn();
+      render(<Bound initial={280} saved={saved} asText />);
+      cell().focus();
+      fireEvent.keyDown(cell(), key);
+      const input = screen.getByLabelText('ν40 of BW-280') as HTMLInputElement;
+      expect(input.tagName, JSON.stringify(key)).toBe('INPUT');
+      expect(document.activeElement).toBe(input);
+      expect([input.selectionStart, input.selectionEnd]).toEqual([0, 3]);
+      // jsdom pastes nothing: the browser's paste into the focused field, as a change event
+      fireEvent.change(input, { target: { value: '320' } });
+      fireEvent.keyDown(input, { key: 'Enter' });
+      expect(saved).toHaveBeenCalledWith(320);
+      cleanup();
+    }
+  });
+
+  it('other keys with Ctrl, Alt or Shift (Insert alone, Ctrl+C, Alt+V, Shift) leave the text as it is', () => {
+    render(<Bound initial={280} saved={vi.fn()} asText />);
+    for (const key of [{ key: 'Insert' }, { key: 'c', ctrlKey: true }, { key: 'v', altKey: true }, { key: 'Shift', shiftKey: true }]) {
+      fireEvent.keyDown(cell(), key);
+      expect(cell().tagName, JSON.stringify(key)).toBe('SPAN');
+    }
+    expect(document.querySelector('input')).toBeNull();
+  });
+
+  it('a click on a choice drawn as text draws its select, focused (its list opened where the browser can)', () => {
+    const saved = vi.fn();
+    render(<BoundChoice saved={saved} />);
+    fireEvent.click(screen.getByRole('combobox', { name: 'Availability of BW-280' }));
+    const select = screen.getByLabelText('Availability of BW-280') as HTMLSelectElement;
+    expect(select.tagName).toBe('SELECT');
+    expect(document.activeElement).toBe(select);
+    expect(select.value).toBe('limited');
+    expect(saved).not.toHaveBeenCalled();
+    fireEvent.change(select, { target: { value: 'available' } });
+    expect(saved).toHaveBeenCalledWith('available');
+  });
+
   it('a click draws the field with the caret at the end; leaving it saves and draws the text again', () => {
     const saved = vi.fn();
     render(<Bound initial={280} saved={saved} asText />);

@@ -305,3 +305,78 @@ describe('stock import: a number that could be 1.25 or 1250 (s20 defect 4)', () 
     expect(s.offHost).toEqual([]);
   });
 });
+
+describe('Stocks cells drawn as text: paste, a click on a choice, and a reload with typed text (s22)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+    await s.context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: new URL(inject('baseURL')).origin });
+    await s.page.goto(`${inject('baseURL')}#/library`);
+    await s.page.getByRole('heading', { name: 'Stocks' }).waitFor();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+  const active = () => s.page.evaluate(() => ({ tag: document.activeElement?.tagName, label: document.activeElement?.getAttribute('aria-label') ?? '', value: (document.activeElement as HTMLInputElement).value }));
+  const copy = (text: string) => s.page.evaluate((t) => navigator.clipboard.writeText(t), text);
+
+  it('Ctrl+V and Shift+Insert on a cell drawn as text open its field with the pasted text in place of the value; nothing pasted is lost', async () => {
+    const { page } = s;
+    // Invented values, within the fields' plausible ranges.
+    await copy('1275');
+    await page.getByRole('textbox', { name: /^Price of BW-190/ }).focus();
+    await page.keyboard.press('Control+V');
+    await expect(active()).resolves.toMatchObject({ tag: 'INPUT', value: '1275' });
+    await expect(active().then((a) => a.label)).resolves.toMatch(/^Price of BW-190/);
+    await page.keyboard.press('Enter');
+    await expect.poll(() => cellValue(page, /^Price of BW-190/)).toBe('1275');
+    await expect.poll(async () => JSON.stringify(await stored(page, 'library')), { timeout: 5000 }).toContain('"amount":1275');
+    await copy('Group I bright stock, pasted');
+    await page.getByRole('textbox', { name: 'Name of BW-190' }).focus();
+    await page.keyboard.press('Shift+Insert');
+    await expect(active()).resolves.toEqual({ tag: 'TEXTAREA', label: 'Name of BW-190', value: 'Group I bright stock, pasted' });
+    await page.keyboard.press('Escape');
+    await expect(cellValue(page, 'Name of BW-190')).resolves.toBe('Group I bright stock');
+  });
+
+  it('a click on a choice drawn as text draws its select, focused; Escape draws the text again', async () => {
+    const { page } = s;
+    await page.getByRole('combobox', { name: 'Category of BW-190', exact: true }).click();
+    await expect(active()).resolves.toMatchObject({ tag: 'SELECT', label: 'Category of BW-190' });
+    await page.keyboard.press('Escape'); // closes the open list, if the browser drew one
+    if ((await active()).tag === 'SELECT') await page.keyboard.press('Escape');
+    await expect(active()).resolves.toMatchObject({ tag: 'SPAN', label: 'Category of BW-190' });
+    await expect(cellValue(page, 'Category of BW-190')).resolves.toBe('Group I');
+  });
+
+  it('one character typed into a cell drawn as text makes a reload ask first; the library filter does not', async () => {
+    const { page } = s;
+    const asked: string[] = [];
+    const onDialog = (d: { type(): string; dismiss(): Promise<void> }) => {
+      asked.push(d.type());
+      void d.dismiss(); // stay on the page
+    };
+    page.on('dialog', onDialog);
+    try {
+      const tryReload = () => page.reload({ timeout: 3000 }).catch(() => null);
+      await page.getByRole('textbox', { name: 'ν40 of BW-160 [mm²/s]' }).focus();
+      await page.keyboard.type('9'); // on the way to an invented 99
+      await expect(active()).resolves.toEqual({ tag: 'INPUT', label: 'ν40 of BW-160 [mm²/s]', value: '9' });
+      await tryReload();
+      expect(asked).toEqual(['beforeunload']);
+      await expect(page.getByLabel('ν40 of BW-160 [mm²/s]').inputValue()).resolves.toBe('9'); // still there, not saved
+      await page.keyboard.press('Escape');
+      await expect(cellValue(page, 'ν40 of BW-160 [mm²/s]')).resolves.toBe('98');
+      // Text typed into the filter is not work to lose: the reload goes ahead without a question.
+      await page.getByRole('searchbox').fill('BW-1');
+      await page.getByRole('searchbox').focus();
+      await page.reload();
+      await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+      expect(asked).toEqual(['beforeunload']);
+    } finally {
+      page.off('dialog', onDialog);
+    }
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
+});
