@@ -252,16 +252,11 @@ export function solvePrepared(
  * inverse and the VI by ASTM D2270 (the core's arithmetic), or the numbers the branch and bound's
  * VI check computed on these very fractions.
  */
+// The answer's plain fields, as EngineOptimal declares them (merged into the class below, which
+// writes them in its constructor).
+interface OptimalAnswer extends Omit<EngineOptimal, 'status' | 'kv40' | 'kv100' | 'vi'> {}
 class OptimalAnswer implements EngineOptimal {
   readonly status = 'optimal' as const;
-  massFractions: Float64Array;
-  objectiveValue: number;
-  density15: number;
-  anilinePoint: number | null;
-  costPerLitre: number;
-  lpCount: number;
-  inBandProbability: number | null;
-  lowerBound?: number;
   /** The mixing rule's coordinates and the blend's X40, X100 (for ν40, ν100 on first read). */
   private readonly coords: PreparedProblem['coords'];
   private readonly x40: number;

@@ -314,6 +314,21 @@ export function solveNodeInto(ctx: SolveContext, a: number, b: number, bandRows:
   return { status: sol.status === 'infeasible' ? 'infeasible' : 'failed', x: sol.x, objective: Number.NaN };
 }
 
+/**
+ * Whether a node LP has only the usual rows besides the normalisation, band, VI lines and aniline:
+ * no component bounds or fixed additive (nothing folded, no bound rows) and no polymer, pour or
+ * flash row — the rows the direct writers below handle (extra rows and auxiliaries are checked by
+ * the caller).
+ */
+function usualRowsOnly(ctx: SolveContext): boolean {
+  const { P, groups } = ctx;
+  const t = P.targets;
+  if (P.anyBounds) return false;
+  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) return false;
+  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) return false;
+  return !(t.minFlashPoint !== null && groupOn(groups, 'flash'));
+}
+
 /** Whether three-variable node LPs go to the vertex solver (see {@link useVertexLp3}). */
 let vertexLp3 = true;
 /** Whether the vertex solver gets a three-stock node's rows directly (see {@link useDirectLp3}). */
@@ -334,11 +349,8 @@ let directLp3 = true;
  */
 function solveNodeLp3Direct(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): LpSolution | null {
   const { P, vars, groups, objective } = ctx;
-  if (objective.kind !== 'ratio' || P.anyBounds) return null;
+  if (objective.kind !== 'ratio' || !usualRowsOnly(ctx)) return null;
   const t = P.targets;
-  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) return null;
-  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) return null;
-  if (t.minFlashPoint !== null && groupOn(groups, 'flash')) return null;
   const i0 = vars[0]!;
   const i1 = vars[1]!;
   const i2 = vars[2]!;
@@ -418,11 +430,8 @@ let directTableau = true;
  */
 function solveNodeTableauDirect(ctx: SolveContext, a: number, b: number, bandRows: boolean, chords: readonly ViChord[]): LpSolution | null {
   const { P, vars, groups, objective } = ctx;
-  if (objective.kind !== 'ratio' || P.anyBounds) return null;
+  if (objective.kind !== 'ratio' || !usualRowsOnly(ctx)) return null;
   const t = P.targets;
-  if (t.maxPolymerFraction !== null && groupOn(groups, 'polymer')) return null;
-  if (t.maxPourPoint !== null && groupOn(groups, 'pour')) return null;
-  if (t.minFlashPoint !== null && groupOn(groups, 'flash')) return null;
   const nv = vars.length;
   const num = objective.num;
   const den = objective.den;

@@ -10,6 +10,7 @@ import { useDirectLp3, useVertexLp3 } from '../../../src/core/solver/rows';
 import { preparePlain, solveBlendPlain, type PlainProblem, type PlainSolveResult } from '../../../src/core/solver/plain';
 import { solvePrepared } from '../../../src/core/solver/engine';
 import { randomPlainProblem, rng } from './helpers';
+import { expectSameAnswers } from './same-answers';
 
 /** The dense simplex's answer, copied out of its workspace. */
 function simplex(lp: DenseLp, ws: LpWorkspace): { status: string; x: number[]; objective: number } {
@@ -142,33 +143,7 @@ describe('three-stock node LPs written straight into the vertex solver', () => {
   it('give the same answers bit for bit on 20,000 seeded problems as the dense rows read back', () => {
     // common practice (no source): the direct rows are the dense rows' numbers by the same
     // arithmetic, so every answer, LP count and reason must be identical, not merely close
-    const problems = threeStockProblems(20_000, 2211);
-    const solveAll = (on: boolean) => {
-      const before = useDirectLp3(on);
-      try {
-        return problems.map((p) => {
-          const r = solvePrepared(preparePlain(p));
-          const plain = solveBlendPlain(p);
-          return { status: r.status, lpCount: r.lpCount, w: r.status === 'optimal' ? [...r.massFractions] : [], plain };
-        });
-      } finally {
-        useDirectLp3(before);
-      }
-    };
-    const direct = solveAll(true);
-    const dense = solveAll(false);
-    let optimal = 0;
-    let infeasible = 0;
-    for (let q = 0; q < problems.length; q++) {
-      const a = direct[q]!;
-      const b = dense[q]!;
-      expect(a.status).toBe(b.status);
-      expect(a.lpCount).toBe(b.lpCount);
-      expect(a.w).toEqual(b.w);
-      expect(a.plain).toEqual(b.plain);
-      if (a.status === 'optimal') optimal++;
-      else infeasible++;
-    }
+    const { optimal, infeasible } = expectSameAnswers(threeStockProblems(20_000, 2211), useDirectLp3);
     expect(optimal).toBeGreaterThan(5000);
     expect(infeasible).toBeGreaterThan(1000);
   });
