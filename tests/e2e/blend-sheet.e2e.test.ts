@@ -113,6 +113,14 @@ describe('blend sheet', () => {
     expect(numbers(total!)).toContain(5000);
     // The additive package is charged last (common practice, domain notes).
     expect(codes.at(-1)).toBe('BW-901');
+    // The header fields are saved (the next test opens the sheet anew and finds them).
+    type StoredSheets = { state: { sheets: Record<string, { lot: string; vessel: string; batchSize: string }> } } | undefined;
+    await expect
+      .poll(async () => {
+        const sheet = ((await stored(page, 'recipes')) as StoredSheets)?.state.sheets['demo-vg320'];
+        return sheet && [sheet.lot, sheet.vessel, sheet.batchSize];
+      })
+      .toEqual(['L-2025-0142', 'Kettle 3', '5000']);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
@@ -121,9 +129,9 @@ describe('blend sheet', () => {
     const { page } = s;
     const codes = await openSheet(page, 'demo-vg320');
     // The header fields typed in the previous test are remembered for this recipe across the reload.
-    await expect(page.getByLabel('Batch / lot no.').inputValue()).resolves.toBe('L-2025-0142');
-    await expect(page.getByLabel('Vessel', { exact: true }).inputValue()).resolves.toBe('Kettle 3');
-    await expect(page.getByLabel('Batch size', { exact: true }).inputValue()).resolves.toBe('5000');
+    await expect.poll(() => page.getByLabel('Batch / lot no.').inputValue()).toBe('L-2025-0142');
+    await expect.poll(() => page.getByLabel('Vessel', { exact: true }).inputValue()).toBe('Kettle 3');
+    await expect.poll(() => page.getByLabel('Batch size', { exact: true }).inputValue()).toBe('5000');
     await page.getByLabel('Batch size', { exact: true }).fill('1000');
     await page.getByLabel('Costing copy').check();
     await page.getByText(/per batch/).waitFor();
@@ -170,7 +178,7 @@ describe('blend sheet', () => {
     ];
     const fractions = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
     // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
-    await expect.poll(async () => (await stored(page, 'recipes')) != null, { timeout: 5000 }).toBe(true);
+    await expect.poll(async () => (await stored(page, 'recipes')) != null).toBe(true);
     await page.evaluate(
       async ({ codes, fractions }) => {
         const db = await new Promise<IDBDatabase>((res, rej) => {
@@ -178,37 +186,39 @@ describe('blend sheet', () => {
           r.onsuccess = () => res(r.result);
           r.onerror = () => rej(r.error);
         });
-        const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
-        const saved = await new Promise<{ state: { recipes: unknown[] }; version: number }>((res, rej) => {
-          const r = store().get('recipes');
-          r.onsuccess = () => res(r.result);
-          r.onerror = () => rej(r.error);
+        // Read and written in one transaction: no save of the app's can come between.
+        const tx = db.transaction('saved-work', 'readwrite');
+        const store = tx.objectStore('saved-work');
+        const done = new Promise<void>((res, rej) => {
+          tx.oncomplete = () => res();
+          tx.onabort = () => rej(tx.error);
         });
-        saved.state.recipes.push({
-          id: 'e2e-twelve',
-          name: 'Twelve-component test blend VG 320 (invented)',
-          grade: 320,
-          lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
-          revision: 1,
-          isReference: false,
-          notes: 'Seeded by the end-to-end test.',
-          updatedAt: '2025-06-01T08:00:00.000Z',
-          status: 'approved',
-          approvedAt: '2025-06-01T08:00:00.000Z',
-          archived: false,
-          supersedes: null,
-          reasonForChange: '',
-          specification: {
-            grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
-            flashMin: null, pourMax: null, copper: '', foam: '',
-          },
-          stockBasis: null,
-        });
-        await new Promise<void>((res, rej) => {
-          const r = store().put(saved, 'recipes');
-          r.onsuccess = () => res();
-          r.onerror = () => rej(r.error);
-        });
+        const read = store.get('recipes');
+        read.onsuccess = () => {
+          const saved = read.result as { state: { recipes: unknown[] }; version: number };
+          saved.state.recipes.push({
+            id: 'e2e-twelve',
+            name: 'Twelve-component test blend VG 320 (invented)',
+            grade: 320,
+            lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
+            revision: 1,
+            isReference: false,
+            notes: 'Seeded by the end-to-end test.',
+            updatedAt: '2025-06-01T08:00:00.000Z',
+            status: 'approved',
+            approvedAt: '2025-06-01T08:00:00.000Z',
+            archived: false,
+            supersedes: null,
+            reasonForChange: '',
+            specification: {
+              grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
+              flashMin: null, pourMax: null, copper: '', foam: '',
+            },
+            stockBasis: null,
+          });
+          store.put(saved, 'recipes');
+        };
+        await done;
         db.close();
       },
       { codes: codes12, fractions },
@@ -272,6 +282,13 @@ describe('blend sheet', () => {
     await page.getByLabel(/^Import a backup/).setInputFiles({ name: 'long.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(backup)) });
     await page.getByRole('button', { name: 'Replace everything with this backup' }).click();
     await page.getByText(/^Restored long\.json/).waitFor();
+    // The restored work is saved a moment later: leave the page only then.
+    const restored = async () => [
+      ((await stored(page, 'library')) as { state: Backup['sections']['library']['data'] } | undefined)?.state.components.some((c) => c.code === code),
+      ((await stored(page, 'recipes')) as { state: Backup['sections']['recipes']['data'] } | undefined)?.state.recipes.find((r) => r.id === 'demo-vg320')?.name.startsWith('Gear oil VG 320 for enclosed'),
+      ((await stored(page, 'settings')) as { state: Backup['sections']['settings']['data'] } | undefined)?.state.settings.companyName.startsWith('Invented Blending Works, Plant Three'),
+    ];
+    await expect.poll(restored).toEqual([true, true, true]);
 
     const codes = await openSheet(page, 'demo-vg320');
     expect(codes.map((c) => c.replace(/\s/g, ''))).toContain(code);
@@ -303,9 +320,9 @@ describe('blend sheet', () => {
     // t_F = 9/5·t_C + 32 (common practice, no source): heat to 50–65 °C → 122–149 °F.
     await page.getByText(/^Heat to 122–149 °F with agitation/).waitFor();
     const qc = page.getByRole('table', { name: /Predicted properties and QC release/ });
-    await expect(qc.getByRole('row', { name: /Flash point/ }).textContent()).resolves.toMatch(/°F/);
-    await expect(qc.getByRole('row', { name: /Pour point/ }).textContent()).resolves.toMatch(/°F/);
-    await expect(qc.getByRole('row', { name: /Viscosity at \d+ °F \(calculated\)/ }).count()).resolves.toBe(1);
+    await expect.poll(() => qc.getByRole('row', { name: /Flash point/ }).textContent()).toMatch(/°F/);
+    await expect.poll(() => qc.getByRole('row', { name: /Pour point/ }).textContent()).toMatch(/°F/);
+    await expect.poll(() => qc.getByRole('row', { name: /Viscosity at \d+ °F \(calculated\)/ }).count()).toBe(1);
     await screenshot(page, 'blend-sheet-vg680-fahrenheit');
     const pdf = await printPdf(page, 'blend-sheet-vg680-fahrenheit');
     toPng(pdf, 'blend-sheet-vg680-fahrenheit');

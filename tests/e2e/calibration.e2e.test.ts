@@ -5,7 +5,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support';
+import { launch, screenshot, stored, type Session } from './support';
 import { axeSerious } from './axe';
 
 async function openPolymerDetails(page: Page): Promise<void> {
@@ -51,8 +51,8 @@ describe('calibrating a demo polymer from a trial blend', () => {
     await form.getByLabel(/Measured ν100 of the trial/).fill('70');
     await form.getByRole('button', { name: 'Solve effective viscosities' }).click();
     const alert = form.getByRole('alert');
-    await expect(alert.textContent()).resolves.toContain('add up to 90 %, not 100 %');
-    await expect(alert.textContent()).resolves.toContain('must be below the measured ν40');
+    await expect.poll(() => alert.textContent()).toContain('add up to 90 %, not 100 %');
+    await expect.poll(() => alert.textContent()).toContain('must be below the measured ν40');
     await screenshot(page, 'calibration-errors');
 
     // The lab blend had the composition of the VG 680 recipe; measured ν40 640, ν100 38.5 (invented lab result).
@@ -63,7 +63,7 @@ describe('calibrating a demo polymer from a trial blend', () => {
     await form.getByRole('button', { name: 'Solve effective viscosities' }).click();
     const result = form.getByRole('table', { name: 'Calibration result for BW-510' });
     // Calibration reproduces its own trial blend — identity (no external source).
-    await expect(result.getByRole('row', { name: /predicted with calibration/ }).textContent()).resolves.toMatch(/640\.0\s*38\.50/);
+    await expect.poll(() => result.getByRole('row', { name: /predicted with calibration/ }).textContent()).toMatch(/640\.0\s*38\.50/);
     await screenshot(page, 'calibration-result');
     expect(await axeSerious(page)).toEqual([]);
     await form.getByRole('button', { name: 'Store calibration for BW-510' }).click();
@@ -71,17 +71,19 @@ describe('calibrating a demo polymer from a trial blend', () => {
     // 682.9 mm²/s with the stored data (Refutas, as the designer predicts it).
     const dialog = page.getByRole('alertdialog');
     await dialog.waitFor();
-    await expect(dialog.getByTestId('impact-table').innerText()).resolves.toMatch(/Gear oil VG 680[\s\S]*682\.9/);
+    await expect.poll(() => dialog.getByTestId('impact-table').innerText()).toMatch(/Gear oil VG 680[\s\S]*682\.9/);
     await screenshot(page, 'calibration-impact');
     expect(await axeSerious(page)).toEqual([]);
     await dialog.getByRole('button', { name: /Store the change/ }).click();
     await page.getByText(/Stored the calibration of BW-510/).waitFor();
+    // Saved a moment later: leave the page only then.
+    await expect.poll(async () => JSON.stringify(await stored(page, 'library'))).toContain('LAB-0417');
 
     // After a reload the stored calibration and its provenance are still there.
     await openPolymerDetails(page);
     await page.getByText('LAB-0417').waitFor();
-    await expect(page.getByText(/BW-190 82\.00 % \+ BW-510 16\.00 % \+ BW-901 2\.00 %/).isVisible()).resolves.toBe(true);
-    await expect(page.getByRole('button', { name: 'Remove calibration of BW-510' }).isVisible()).resolves.toBe(true);
+    await expect.poll(() => page.getByText(/BW-190 82\.00 % \+ BW-510 16\.00 % \+ BW-901 2\.00 %/).isVisible()).toBe(true);
+    await expect.poll(() => page.getByRole('button', { name: 'Remove calibration of BW-510' }).isVisible()).toBe(true);
     await screenshot(page, 'calibration-stored');
 
     // The blend sheet's prediction of the same composition now gives the measured ν40 — identity (no external source).

@@ -18,24 +18,24 @@ describe('D341 form: Settings → results', () => {
     await page.goto(`${inject('baseURL')}#/settings`);
     await page.getByRole('heading', { name: 'Settings' }).waitFor();
     const select = page.getByLabel('Viscosity–temperature line (ASTM D341)');
-    await expect(select.inputValue()).resolves.toBe('d341-20');
+    await expect.poll(() => select.inputValue()).toBe('d341-20');
     await select.selectOption('walther-simple');
     await screenshot(page, 'settings-d341-form-1024');
     await expect
-      .poll(async () => JSON.stringify(await stored(page, 'settings')), { timeout: 5000 })
+      .poll(async () => JSON.stringify(await stored(page, 'settings')))
       .toContain('"d341Form":"walther-simple"');
 
     await page.getByRole('link', { name: /Recipe designer/ }).click();
     const note = page.getByTestId('predicted').getByTestId('method-note');
     await note.waitFor();
-    await expect(note.textContent()).resolves.toContain('Viscosity at other temperatures: ASTM D341 (Z = ν + 0.7) line through ν40 and ν100.');
+    await expect.poll(() => note.textContent()).toContain('Viscosity at other temperatures: ASTM D341 (Z = ν + 0.7) line through ν40 and ν100.');
     // the charts load after the numbers: wait for the caption rather than test it at once
     await page.getByText('Each oil is a straight line on these axes (ASTM D341 (Z = ν + 0.7)).').first().waitFor({ state: 'visible' });
     await screenshot(page, 'designer-d341-simple-1024');
 
     await page.getByRole('link', { name: /Blend sheet/ }).click();
     await page.getByRole('heading', { name: 'Blend sheet' }).waitFor();
-    await expect(page.locator('td.bs-method', { hasText: 'ASTM D341 (Z = ν + 0.7)' }).count()).resolves.toBeGreaterThan(0);
+    await expect.poll(() => page.locator('td.bs-method', { hasText: 'ASTM D341 (Z = ν + 0.7)' }).count()).toBeGreaterThan(0);
 
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);

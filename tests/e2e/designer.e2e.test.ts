@@ -18,22 +18,21 @@ describe('recipe designer', () => {
   it('first start shows the invented demo, and solving VG 320 for least cost gives an in-grade recipe', async () => {
     const { page } = s;
     await page.goto(inject('baseURL'));
-    await expect(page.getByText(/invented demo data/i).first().isVisible()).resolves.toBe(true);
+    await expect.poll(() => page.getByText(/invented demo data/i).first().isVisible()).toBe(true);
     await page.getByRole('link', { name: /Recipe designer/ }).click();
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await page.getByLabel('ISO viscosity grade', { exact: true }).selectOption('320');
-    await expect(page.getByLabel('Least cost per litre (at 15 °C)').isChecked()).resolves.toBe(true);
+    await expect.poll(() => page.getByLabel('Least cost per litre (at 15 °C)').isChecked()).toBe(true);
     await page.getByRole('button', { name: 'Solve', exact: true }).click();
     await page.getByText('Solved', { exact: true }).waitFor();
-    const kv40 = await kvOf(page);
     // ISO 3448 band of VG 320: 288–352 mm²/s, inclusive (tests/reference/check-values.md G2)
-    expect(kv40).toBeGreaterThanOrEqual(288);
-    expect(kv40).toBeLessThanOrEqual(352);
-    await expect(page.getByTestId('prop-grade').innerText()).resolves.toBe('VG 320');
-    await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
+    await expect.poll(() => kvOf(page)).toBeGreaterThanOrEqual(288);
+    await expect.poll(() => kvOf(page)).toBeLessThanOrEqual(352);
+    await expect.poll(() => page.getByTestId('prop-grade').innerText()).toBe('VG 320');
+    await expect.poll(() => page.getByTestId('total-mass').innerText()).toBe('100.00');
     // one standing caution in the app frame, not repeated beside the numbers
-    await expect(page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).resolves.toBe(1);
-    await expect(page.getByTestId('predicted').getByText(/laboratory confirmation/i).count()).resolves.toBe(0);
+    await expect.poll(() => page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).toBe(1);
+    await expect.poll(() => page.getByTestId('predicted').getByText(/laboratory confirmation/i).count()).toBe(0);
     await page.waitForSelector('[data-chart="viscosity-temperature"] .recharts-line-curve');
     await screenshot(page, 'designer');
   });
@@ -46,27 +45,27 @@ describe('recipe designer', () => {
     const label = (await cell.getAttribute('aria-label')) ?? '';
     await cell.click();
     const first = page.getByLabel(label, { exact: true });
-    await expect(first.evaluate((el) => el.tagName)).resolves.toBe('INPUT');
+    await expect.poll(() => first.evaluate((el) => el.tagName)).toBe('INPUT');
     await first.pressSequentially('10'); // replaces the selected share
-    const after = await kvOf(page);
-    expect(after).not.toBe(before);
-    await expect(page.getByTestId('total-mass').innerText()).resolves.toBe('100.00');
+    // the properties follow the typed share (drawn a moment after the keystroke)
+    await expect.poll(() => kvOf(page)).not.toBe(before);
+    await expect.poll(() => page.getByTestId('total-mass').innerText()).toBe('100.00');
     await first.press('Tab');
     // Left: text again, showing the stored share; Shift-Tab comes back to the field.
-    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('10.00');
+    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('10.00');
     await page.keyboard.press('Shift+Tab');
-    await expect(page.evaluate(() => [document.activeElement?.tagName, document.activeElement?.getAttribute('aria-label')])).resolves.toEqual(['INPUT', label]);
-    await expect(page.getByLabel(label, { exact: true }).inputValue()).resolves.toBe('10.00');
+    await expect.poll(() => page.evaluate(() => [document.activeElement?.tagName, document.activeElement?.getAttribute('aria-label')])).toEqual(['INPUT', label]);
+    await expect.poll(() => page.getByLabel(label, { exact: true }).inputValue()).toBe('10.00');
     await page.keyboard.press('Escape');
     await page.keyboard.press('Tab');
     await page.getByLabel('show working for Viscosity at 40 °C').click();
-    await expect(page.locator('#working-kv40').innerText()).resolves.toMatch(/Refutas/);
+    await expect.poll(() => page.locator('#working-kv40').innerText()).toMatch(/Refutas/);
     await page.getByLabel('show working for Viscosity index').click();
-    await expect(page.locator('#working-vi').innerText()).resolves.toMatch(/ASTM D2270/);
+    await expect.poll(() => page.locator('#working-vi').innerText()).toMatch(/ASTM D2270/);
     // in grade after shear, with the stated assumption as its working
-    await expect(page.getByTestId('prop-shear').innerText()).resolves.toMatch(/^(yes|no), ν40 /);
+    await expect.poll(() => page.getByTestId('prop-shear').innerText()).toMatch(/^(yes|no), ν40 /);
     await page.getByLabel('show working for In grade after shear').click();
-    await expect(page.locator('#working-shear').innerText()).resolves.toMatch(/ISO 26422/);
+    await expect.poll(() => page.locator('#working-shear').innerText()).toMatch(/ISO 26422/);
     await screenshot(page, 'designer-working');
     expect(await axeSerious(page)).toEqual([]);
   });
@@ -80,8 +79,8 @@ describe('recipe designer', () => {
     for (const code of ['BW-499']) await page.getByLabel(`Use ${code}`, { exact: true }).uncheck();
     await page.getByRole('button', { name: 'Solve', exact: true }).click();
     await page.getByText('No recipe meets these targets').waitFor();
-    await expect(page.getByTestId('infeasible-reason').innerText()).resolves.toMatch(/mm²\/s/);
-    await expect(page.getByText('Suggested fix:').isVisible()).resolves.toBe(true);
+    await expect.poll(() => page.getByTestId('infeasible-reason').innerText()).toMatch(/mm²\/s/);
+    await expect.poll(() => page.getByText('Suggested fix:').isVisible()).toBe(true);
     await screenshot(page, 'designer-infeasible');
   });
 
@@ -92,14 +91,13 @@ describe('recipe designer', () => {
     await page.getByText('Solved', { exact: true }).waitFor();
     await page.getByLabel('Recipe name', { exact: true }).fill('Trial VG 320 least cost');
     await page.getByRole('button', { name: 'Save as new recipe' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(page, 'recipes')), { timeout: 5000 }).toContain('Trial VG 320 least cost');
+    await expect.poll(async () => JSON.stringify(await stored(page, 'recipes'))).toContain('Trial VG 320 least cost');
     await page.reload();
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     // the saved recipe is the active one: the designer opens it
-    await expect.poll(() => page.getByLabel('Open', { exact: true }).locator('option:checked').innerText(), { timeout: 5000 }).toMatch(/Trial VG 320 least cost/);
-    const kv40 = await kvOf(page);
-    expect(kv40).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (tests/reference/check-values.md G2)
-    expect(kv40).toBeLessThanOrEqual(352);
+    await expect.poll(() => page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).toMatch(/Trial VG 320 least cost/);
+    await expect.poll(() => kvOf(page)).toBeGreaterThanOrEqual(288); // ISO 3448 VG 320 band (tests/reference/check-values.md G2)
+    await expect.poll(() => kvOf(page)).toBeLessThanOrEqual(352);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
@@ -112,14 +110,15 @@ describe('recipe designer', () => {
     const field = page.getByLabel(label, { exact: true });
     await field.pressSequentially('7'); // replaces the selected share
     await field.press('Tab');
-    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
     await page.reload(); // at once: no wait for the draft's save
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await page.getByText(/Restored the draft from your last session/).waitFor();
-    await expect(page.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+
 });
 
 describe('designer draft, two tabs and a reload (s20 defect 1)', () => {
@@ -137,14 +136,14 @@ describe('designer draft, two tabs and a reload (s20 defect 1)', () => {
     await a.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     await a.getByLabel('Recipe name', { exact: true }).fill('Two-tab trial');
     await a.getByRole('button', { name: 'Save as new recipe' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('Two-tab trial');
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes'))).toContain('Two-tab trial');
     // This tab edits the first share (not saved); the edit is kept as the draft is written.
     const cellA = a.getByTestId('recipe-lines').locator('.pct-input').first();
     const label = (await cellA.getAttribute('aria-label')) ?? '';
     await cellA.click();
     await a.getByLabel(label, { exact: true }).pressSequentially('7');
     await a.getByLabel(label, { exact: true }).press('Tab');
-    await expect.poll(async () => JSON.stringify(await stored(a, 'workspace')), { timeout: 5000 }).toContain('"dirty":true');
+    await expect.poll(async () => JSON.stringify(await stored(a, 'workspace'))).toContain('"dirty":true');
     // Another tab then saves the same draft (its specification, on the Recipes screen).
     const b = await s.newPage();
     await b.goto(inject('baseURL') + '#/recipes');
@@ -153,13 +152,13 @@ describe('designer draft, two tabs and a reload (s20 defect 1)', () => {
     await b.getByLabel('Foaming (ASTM D892)').fill('Sequence I: 50/0 mL max (invented)');
     await b.getByLabel('Foaming (ASTM D892)').press('Tab');
     await b.getByRole('button', { name: 'Save specification' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes')), { timeout: 5000 }).toContain('50/0 mL max');
+    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes'))).toContain('50/0 mL max');
     const theirs = JSON.stringify(await stored(b, 'recipes'));
     // This tab reloads mid-edit: the draft comes back, and knows it began before the other tab's save.
     await a.reload();
     await a.getByText(/Restored the draft from your last session/).waitFor();
     await a.getByText(/was changed and saved after this draft began/).waitFor();
-    await expect(a.getByLabel(label, { exact: true }).innerText()).resolves.toBe('7.00');
+    await expect.poll(() => a.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
     await a.getByRole('button', { name: 'Save changes to draft “Two-tab trial”' }).click();
     await a.getByText(/Not saved: .*was changed and saved after this draft was opened/).waitFor();
     await screenshot(a, 'designer-two-tab-reload-refused');
@@ -187,7 +186,15 @@ describe('designer drafts belong to the tab (s21 item 1)', () => {
     await page.getByLabel(label, { exact: true }).press('Tab');
     return label;
   }
-  const draftsKept = async (page: Page) => Object.keys(((await stored(page, 'workspace')) as { state?: { drafts?: object } } | undefined)?.state?.drafts ?? {}).length;
+  type StoredDrafts = { state?: { drafts?: Record<string, { lines: { massFraction: number }[] }> } } | undefined;
+  const draftsKept = async (page: Page) => Object.keys(((await stored(page, 'workspace')) as StoredDrafts)?.state?.drafts ?? {}).length;
+  /** A tab's draft key (tab-draft.ts: held in the tab's sessionStorage). */
+  const keyOf = (page: Page) => page.evaluate(() => sessionStorage.getItem('blendbench.draft-key'));
+  /** The first share [%] of the draft stored under `key`, as the tabs' merged saves left it. */
+  const firstShareKept = async (page: Page, key: string | null) => {
+    const f = ((await stored(page, 'workspace')) as StoredDrafts)?.state?.drafts?.[key ?? '']?.lines[0]?.massFraction;
+    return f === undefined ? null : Math.round(f * 1e4) / 100;
+  };
 
   it('two tabs on the same recipe each get their own unsaved edit back on their own reload; a new tab offers the closed tab’s draft by name', async () => {
     const a = s.page;
@@ -197,31 +204,33 @@ describe('designer drafts belong to the tab (s21 item 1)', () => {
     await b.goto(inject('baseURL') + '#/designer');
     await b.getByRole('heading', { name: 'Recipe designer' }).waitFor();
     const label = await share(a, '7');
-    await expect.poll(() => draftsKept(a), { timeout: 5000 }).toBe(1);
+    await expect.poll(() => draftsKept(a)).toBe(1);
     await share(b, '9');
-    await expect.poll(() => draftsKept(b), { timeout: 5000 }).toBe(2);
+    await expect.poll(() => draftsKept(b)).toBe(2);
     await share(a, '6'); // tab A writes last
-    await a.waitForTimeout(800); // both drafts written (300 ms after the last change) and merged
+    // Both drafts written (300 ms after the last change) and merged in the stored copy.
+    const [keyA, keyB] = [await keyOf(a), await keyOf(b)];
+    await expect.poll(async () => [await firstShareKept(a, keyA), await firstShareKept(a, keyB)]).toEqual([6, 9]);
     // Tab B reloads: its own edit comes back, not tab A's later one.
     await b.reload();
     await b.getByText(/Restored the draft from your last session/).waitFor();
-    await expect(b.getByLabel(label, { exact: true }).innerText()).resolves.toBe('9.00');
+    await expect.poll(() => b.getByLabel(label, { exact: true }).innerText()).toBe('9.00');
     await a.reload();
     await a.getByText(/Restored the draft from your last session/).waitFor();
-    await expect(a.getByLabel(label, { exact: true }).innerText()).resolves.toBe('6.00');
+    await expect.poll(() => a.getByLabel(label, { exact: true }).innerText()).toBe('6.00');
     // Tab A is closed with its edit unsaved; a new tab offers it by name and time (tab B's is B's).
     await a.close();
     const c = await s.newPage();
     await c.goto(inject('baseURL') + '#/designer');
     const list = c.getByTestId('kept-drafts');
     await list.waitFor();
-    await expect(list.getByRole('listitem').count()).resolves.toBe(1);
-    await expect(list.innerText()).resolves.toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG \d+/);
-    await expect(c.getByLabel(label, { exact: true }).innerText()).resolves.not.toBe('6.00'); // none picked silently
+    await expect.poll(() => list.getByRole('listitem').count()).toBe(1);
+    await expect.poll(() => list.innerText()).toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG \d+/);
+    await expect.poll(() => c.getByLabel(label, { exact: true }).innerText()).not.toBe('6.00'); // none picked silently
     await screenshot(c, 'designer-kept-drafts-offered');
     await list.getByRole('button', { name: /^Open the draft kept/ }).click();
     await c.getByText(/Opened the draft kept at/).waitFor();
-    await expect(c.getByLabel(label, { exact: true }).innerText()).resolves.toBe('6.00');
+    await expect.poll(() => c.getByLabel(label, { exact: true }).innerText()).toBe('6.00');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });

@@ -213,7 +213,7 @@ describe('layout at 1024–2560 px', () => {
       await noSidewaysScroll(page);
 
       // One standing caution on every screen.
-      await expect(page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).resolves.toBe(1);
+      await expect.poll(() => page.getByRole('note', { name: 'Caution' }).filter({ visible: true }).count()).toBe(1);
       expect(s.errors).toEqual([]);
       expect(s.offHost).toEqual([]);
     });
@@ -229,7 +229,7 @@ describe('layout at 1024–2560 px', () => {
     const field = await editCell(page, 'Name of BW-191', { exact: true });
     await field.fill(long);
     await field.press('Enter');
-    await expect(cellValue(page, 'Name of BW-191', { exact: true })).resolves.toBe(long);
+    await expect.poll(() => cellValue(page, 'Name of BW-191', { exact: true })).toBe(long);
     for (const width of [1024, 1920, 2560]) {
       await page.setViewportSize({ width, height: 900 });
       await page.getByLabel('Name of BW-191', { exact: true }).scrollIntoViewIfNeeded();

@@ -35,11 +35,11 @@ describe('whole-line plan', () => {
     for (const [grade, t] of DEMANDS_T) await enter(new RegExp(`^Demand of “Gear oil VG ${grade}`), t);
     // The bright stock, limited in the demo library, at 250 t over the period.
     const bsRow = page.locator('tr', { has: page.getByLabel('Supply of BW-190') });
-    await expect(bsRow.innerText()).resolves.toContain('in the library');
+    await expect.poll(() => bsRow.innerText()).toContain('in the library');
     await enter('Supply of BW-190', '250');
     // A bad entry is refused at the field, in words, and not saved.
     await enter('Supply of BW-160', '-3');
-    await expect(page.getByRole('alert').filter({ hasText: 'Supply of BW-160' }).innerText()).resolves.toMatch(/at least 0 t/);
+    await expect.poll(() => page.getByRole('alert').filter({ hasText: 'Supply of BW-160' }).innerText()).toMatch(/at least 0 t/);
     await page.getByLabel('Supply of BW-160').press('Escape');
 
     await page.getByRole('button', { name: 'Plan the line' }).click();
@@ -52,7 +52,7 @@ describe('whole-line plan', () => {
     expect(marginal).toMatch(/One more tonne of BW-190 would save about €[\s\u202f][\d\u202f\u00a0,]+ over the period\./);
     const afterRecipes = await page.getByTestId('plan-after').locator('.lp-grade-table').innerText();
     expect(afterRecipes).not.toContain('BW-190');
-    await expect(page.getByTestId('plan-after').innerText()).resolves.toMatch(/No longer needed:.*BW-190/);
+    await expect.poll(() => page.getByTestId('plan-after').innerText()).toMatch(/No longer needed:.*BW-190/);
     const lasting = await page.getByTestId('plan-lasting').innerText();
     for (const [grade] of DEMANDS_T) expect(lasting).toContain(`VG ${grade}`);
     const allocation = await page.getByTestId('allocation-table').innerText();
@@ -63,7 +63,7 @@ describe('whole-line plan', () => {
     // Adopt the plan while the limited stocks last: new revisions of the four recipes, one step.
     await page.getByTestId('plan-lasting').getByRole('button', { name: 'Adopt these recipes…' }).click();
     await page.getByRole('button', { name: 'Save the new revisions' }).click();
-    await expect(page.getByTestId('adopted-lasting').innerText()).resolves.toMatch(/VG 220 revision 2, VG 320 revision 2, VG 460 revision 2, VG 680 revision 2/);
+    await expect.poll(() => page.getByTestId('adopted-lasting').innerText()).toMatch(/VG 220 revision 2, VG 320 revision 2, VG 460 revision 2, VG 680 revision 2/);
     // Saved as draft revisions that supersede the recipes made now, one undo step.
     type StoredRecipe = { id: string; revision: number; status: string; supersedes: string | null };
     const drafts = async () =>
@@ -100,8 +100,8 @@ describe('whole-line plan', () => {
     // Saved: the plan's inputs come back after a reload, and the blend sheet prints revision 2.
     await page.reload();
     await page.getByRole('heading', { name: 'Whole-line plan', level: 2 }).waitFor();
-    await expect(page.getByLabel(/^Demand of “Gear oil VG 320/).inputValue()).resolves.toBe('400');
-    await expect(page.getByLabel('Supply of BW-190').inputValue()).resolves.toBe('250');
+    await expect.poll(() => page.getByLabel(/^Demand of “Gear oil VG 320/).inputValue()).toBe('400');
+    await expect.poll(() => page.getByLabel('Supply of BW-190').inputValue()).toBe('250');
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/blend-sheet/${vg320rev2}`);
     await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();

@@ -23,29 +23,31 @@ type Seeded = { from: string; specificationOf?: string; patch: Record<string, un
  */
 async function seedSchema8(page: Page, added: Seeded[]): Promise<void> {
   // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
-  await expect.poll(async () => (await stored(page, 'recipes')) != null, { timeout: 5000 }).toBe(true);
+  await expect.poll(async () => (await stored(page, 'recipes')) != null).toBe(true);
   await page.evaluate(async (adds) => {
     const db = await new Promise<IDBDatabase>((res, rej) => {
       const r = indexedDB.open('blendbench');
       r.onsuccess = () => res(r.result);
       r.onerror = () => rej(r.error);
     });
-    const store = () => db.transaction('saved-work', 'readwrite').objectStore('saved-work');
+    // Read and written in one transaction: no save of the app's can come between.
+    const tx = db.transaction('saved-work', 'readwrite');
+    const store = tx.objectStore('saved-work');
+    const done = new Promise<void>((res, rej) => {
+      tx.oncomplete = () => res();
+      tx.onabort = () => rej(tx.error);
+    });
     type Rec = { id: string; specification: Record<string, unknown> } & Record<string, unknown>;
-    const saved = await new Promise<{ state: { recipes: Rec[] }; version: number }>((res, rej) => {
-      const r = store().get('recipes');
-      r.onsuccess = () => res(r.result);
-      r.onerror = () => rej(r.error);
-    });
-    saved.version = 8;
-    for (const r of saved.state.recipes) delete r.specification.grade;
-    const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
-    for (const a of adds) saved.state.recipes.push({ ...of(a.from), ...(a.specificationOf ? { specification: of(a.specificationOf).specification } : {}), ...a.patch } as Rec);
-    await new Promise<void>((res, rej) => {
-      const r = store().put(saved, 'recipes');
-      r.onsuccess = () => res();
-      r.onerror = () => rej(r.error);
-    });
+    const read = store.get('recipes');
+    read.onsuccess = () => {
+      const saved = read.result as { state: { recipes: Rec[] }; version: number };
+      saved.version = 8;
+      for (const r of saved.state.recipes) delete r.specification.grade;
+      const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
+      for (const a of adds) saved.state.recipes.push({ ...of(a.from), ...(a.specificationOf ? { specification: of(a.specificationOf).specification } : {}), ...a.patch } as Rec);
+      store.put(saved, 'recipes');
+    };
+    await done;
     db.close();
   }, added);
 }
@@ -63,18 +65,18 @@ describe('recipe lifecycle', () => {
     const { page } = s;
     await page.goto(`${inject('baseURL')}#/designer`);
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
-    await expect(page.getByTestId('source-status').innerText()).resolves.toMatch(/revision 1 — Approved/);
+    await expect.poll(() => page.getByTestId('source-status').innerText()).toMatch(/revision 1 — Approved/);
     const before = (await recipesOf(s)).find((r) => r.id === 'demo-vg320')!;
     await page.getByRole('button', { name: 'Solve', exact: true }).click();
     await page.getByText('Solved', { exact: true }).waitFor();
     const save = page.getByRole('button', { name: /^Save as draft revision 2 of/ });
     // No reason, no revision; and no button that would overwrite the approved recipe.
-    await expect(save.isDisabled()).resolves.toBe(true);
-    await expect(page.getByRole('button', { name: /^Save changes to/ }).count()).resolves.toBe(0);
+    await expect.poll(() => save.isDisabled()).toBe(true);
+    await expect.poll(() => page.getByRole('button', { name: /^Save changes to/ }).count()).toBe(0);
     await page.getByLabel(/^Reason for change/).fill('Bright stock BW-190 on allocation: re-solved for least cost');
     await save.click();
     await page.getByText(/Saved as draft revision 2/).waitFor();
-    await expect.poll(async () => (await recipesOf(s)).length, { timeout: 5000 }).toBe(5);
+    await expect.poll(async () => (await recipesOf(s)).length).toBe(5);
     const all = await recipesOf(s);
     expect(all.find((r) => r.id === 'demo-vg320')).toEqual(before);
     const rev = all.find((r) => r.supersedes === 'demo-vg320')!;
@@ -84,7 +86,7 @@ describe('recipe lifecycle', () => {
     await page.getByLabel(/^Minimum VI/).fill('90');
     await page.getByLabel(/^Minimum VI/).press('Tab');
     const saveDraft = page.getByRole('button', { name: /^Save changes to draft/ });
-    await expect(saveDraft.isEnabled()).resolves.toBe(true);
+    await expect.poll(() => saveDraft.isEnabled()).toBe(true);
     await saveDraft.click();
     await expect
       .poll(async () => JSON.stringify(((await stored(page, 'recipes')) as { state: { targets: Record<string, { minVi: number | null }> } }).state.targets[rev.id]?.minVi))
@@ -98,9 +100,9 @@ describe('recipe lifecycle', () => {
     await page.goto(`${inject('baseURL')}#/blend-sheet/${rev.id}`);
     await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
     await page.getByRole('button', { name: 'Print — HOLD — not for release' }).waitFor();
-    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/draft: it has not been approved/);
-    await expect(page.locator('.bs-change-reason').innerText()).resolves.toMatch(/Reason for change: Bright stock BW-190 on allocation/);
-    await expect(page.getByRole('heading', { name: 'Change from revision 1' }).isVisible()).resolves.toBe(true);
+    await expect.poll(() => page.getByTestId('release-hold').innerText()).toMatch(/draft: it has not been approved/);
+    await expect.poll(() => page.locator('.bs-change-reason').innerText()).toMatch(/Reason for change: Bright stock BW-190 on allocation/);
+    await expect.poll(() => page.getByRole('heading', { name: 'Change from revision 1' }).isVisible()).toBe(true);
     expect(await axeSerious(page)).toEqual([]);
     await screenshot(page, 'blend-sheet-held');
     await page.emulateMedia({ media: 'print' });
@@ -122,21 +124,21 @@ describe('recipe lifecycle', () => {
     await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
     const list = page.getByTestId('recipe-list');
     await list.getByRole('row').filter({ hasText: 'Draft' }).getByRole('button').click();
-    await expect(page.getByTestId('release-check').innerText()).resolves.toMatch(/draft/);
+    await expect.poll(() => page.getByTestId('release-check').innerText()).toMatch(/draft/);
     await screenshot(page, 'recipes-draft');
     expect(await axeSerious(page)).toEqual([]);
     await page.getByRole('button', { name: 'Approve', exact: true }).click();
     await page.getByText(/revision 1 is now superseded/).waitFor();
-    await expect.poll(async () => (await recipesOf(s)).find((r) => r.id === 'demo-vg320')!.status, { timeout: 5000 }).toBe('superseded');
+    await expect.poll(async () => (await recipesOf(s)).find((r) => r.id === 'demo-vg320')!.status).toBe('superseded');
     expect((await recipesOf(s)).find((r) => r.id === rev.id)!.status).toBe('approved');
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/blend-sheet/${rev.id}`);
     await page.getByRole('button', { name: 'Print', exact: true }).waitFor();
-    await expect(page.getByTestId('release-hold').count()).resolves.toBe(0);
+    await expect.poll(() => page.getByTestId('release-hold').count()).toBe(0);
     // The superseded revision's own sheet is held.
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
-    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/superseded by/);
+    await expect.poll(() => page.getByTestId('release-hold').innerText()).toMatch(/superseded by/);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
@@ -154,8 +156,8 @@ describe('recipe lifecycle', () => {
     await page.getByLabel(/^Reason for change/).fill('e2e: a change made from the old revision');
     await page.getByRole('button', { name: /^Save as draft revision 3/ }).click();
     await page.getByTestId('approval-refused').waitFor();
-    await expect(page.getByTestId('approval-refused').innerText()).resolves.toMatch(/revision 3, was made from revision 1, which revision 2 \(approved\) has already superseded/);
-    await expect(page.getByRole('button', { name: 'Approve', exact: true }).isDisabled()).resolves.toBe(true);
+    await expect.poll(() => page.getByTestId('approval-refused').innerText()).toMatch(/revision 3, was made from revision 1, which revision 2 \(approved\) has already superseded/);
+    await expect.poll(() => page.getByRole('button', { name: 'Approve', exact: true }).isDisabled()).toBe(true);
     const approved = (await recipesOf(s)).filter((r) => r.status === 'approved' && (r.id === 'demo-vg320' || r.supersedes === 'demo-vg320'));
     expect(approved).toHaveLength(1);
     expect(s.errors).toEqual([]);
@@ -171,14 +173,14 @@ describe('recipe lifecycle', () => {
     await page.goto(`${inject('baseURL')}#/recipes`);
     await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
     const row = page.getByTestId('recipe-list').getByRole('row').filter({ hasText: 'Old VG 460 with the VG 320 specification' });
-    await expect(row.getByTestId('spec-grade-tag').innerText()).resolves.toBe('specification of VG 320');
+    await expect.poll(() => row.getByTestId('spec-grade-tag').innerText()).toBe('specification of VG 320');
     // Every record was kept by the upgrade.
     expect((await recipesOf(s)).some((r) => r.id === 'demo-vg320')).toBe(true);
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/blend-sheet/e2e-old460`);
     await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
-    await expect(page.getByTestId('release-hold').innerText()).resolves.toMatch(/written for VG 320, not for this VG 460 recipe: its limits are not printed/);
-    await expect(page.getByText(/BBW-SPEC-VG320/).count()).resolves.toBe(0);
+    await expect.poll(() => page.getByTestId('release-hold').innerText()).toMatch(/written for VG 320, not for this VG 460 recipe: its limits are not printed/);
+    await expect.poll(() => page.getByText(/BBW-SPEC-VG320/).count()).toBe(0);
     await screenshot(page, 'blend-sheet-other-grade-spec');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
@@ -215,16 +217,16 @@ describe('specification typed in one tab, saved in another (s20 defect 2)', () =
     await b.getByLabel('VI minimum').fill('92');
     await b.getByLabel('VI minimum').press('Tab');
     await b.getByRole('button', { name: 'Save specification' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes')), { timeout: 5000 }).toContain('"viMin":92');
+    await expect.poll(async () => JSON.stringify(await stored(b, 'recipes'))).toContain('"viMin":92');
     // This tab keeps its typed value and says the stored one changed, with both values.
     await a.getByTestId('spec-changed-elsewhere').waitFor();
-    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('97');
-    await expect(a.getByTestId('spec-changed-elsewhere').innerText()).resolves.toMatch(/VI minimum: saved 92, yours 97/);
-    await expect(a.getByRole('button', { name: 'Save specification' }).isDisabled()).resolves.toBe(true);
+    await expect.poll(() => a.getByLabel('VI minimum').inputValue()).toBe('97');
+    await expect.poll(() => a.getByTestId('spec-changed-elsewhere').innerText()).toMatch(/VI minimum: saved 92, yours 97/);
+    await expect.poll(() => a.getByRole('button', { name: 'Save specification' }).isDisabled()).toBe(true);
     await screenshot(a, 'recipes-spec-saved-elsewhere');
     await a.getByRole('button', { name: 'Keep my limits' }).click();
     await a.getByRole('button', { name: 'Save specification' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('"viMin":97');
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes'))).toContain('"viMin":97');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
@@ -253,13 +255,13 @@ describe('a specification of unknown grade after the upgrade (s20 defect 5)', ()
     await page.goto(`${inject('baseURL')}#/recipes`);
     await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
     const rowOf = (name: string) => page.getByTestId('recipe-list').getByRole('row').filter({ hasText: name });
-    await expect(rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').innerText()).resolves.toBe('grade of specification unknown — check');
+    await expect.poll(() => rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').innerText()).toBe('grade of specification unknown — check');
     await rowOf('Shared-spec trial VG 320').getByRole('button').first().click();
     const pick = page.getByTestId('spec-grade-pick');
-    await expect(pick.getByRole('button').allInnerTexts()).resolves.toEqual(['It is the VG 320 specification', 'It is the VG 460 specification']);
+    await expect.poll(() => pick.getByRole('button').allInnerTexts()).toEqual(['It is the VG 320 specification', 'It is the VG 460 specification']);
     await pick.getByRole('button', { name: 'It is the VG 320 specification' }).click();
-    await expect(rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').count()).resolves.toBe(0);
-    await expect.poll(async () => JSON.stringify((await recipesOf(s)).find((r) => r.id === 'e2e-a320')), { timeout: 5000 }).toContain('"grade":320,"reference":"Plant spec 7 (invented)"');
+    await expect.poll(() => rowOf('Shared-spec trial VG 320').getByTestId('spec-grade-tag').count()).toBe(0);
+    await expect.poll(async () => JSON.stringify((await recipesOf(s)).find((r) => r.id === 'e2e-a320'))).toContain('"grade":320,"reference":"Plant spec 7 (invented)"');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
@@ -286,21 +288,23 @@ describe('a reload with typed text not saved (s21 item 3)', () => {
       asked.push(d.type());
       void d.dismiss(); // stay on the page
     });
+    // The reload is refused at the dialog, so it never ends: given up after 3 s (the dialog itself is
+    // waited for below, however long it takes to come).
     const tryReload = () => a.reload({ timeout: 3000 }).catch(() => null);
     // Typed, not committed (invented value, on the way to 97): the reload asks, the text stays.
     await a.getByLabel('VI minimum').fill('9');
     await tryReload();
-    expect(asked).toEqual(['beforeunload']);
-    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('9');
+    await expect.poll(() => asked).toEqual(['beforeunload']);
+    await expect.poll(() => a.getByLabel('VI minimum').inputValue()).toBe('9');
     // Committed to the form but not saved: still asks.
     await a.getByLabel('VI minimum').fill('97');
     await a.getByLabel('VI minimum').press('Tab');
     await tryReload();
-    expect(asked).toEqual(['beforeunload', 'beforeunload']);
-    await expect(a.getByLabel('VI minimum').inputValue()).resolves.toBe('97');
+    await expect.poll(() => asked).toEqual(['beforeunload', 'beforeunload']);
+    await expect.poll(() => a.getByLabel('VI minimum').inputValue()).toBe('97');
     // Saved: the reload goes ahead without a question, and the limit is there after it.
     await a.getByRole('button', { name: 'Save specification' }).click();
-    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes')), { timeout: 5000 }).toContain('"viMin":97');
+    await expect.poll(async () => JSON.stringify(await stored(a, 'recipes'))).toContain('"viMin":97');
     await a.reload();
     await a.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
     expect(asked).toHaveLength(2);

@@ -72,10 +72,13 @@ describe('saved work', () => {
     writeFileSync(file, largeLibraryCsv(20_000)); // invented stocks LG-00001 … LG-20000
     await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
     await page.getByLabel('File', { exact: true }).setInputFiles(file);
-    // The check runs in a Web Worker: the page answers while it runs, and shows how far it is.
+    // The check runs in a Web Worker: the page answers while it runs (a timer set now fires while the
+    // bar still shows the check running), and shows how far it is. (How fast it answers is a benchmark's
+    // question, not a test's: no time is asserted.)
     await page.getByRole('progressbar').waitFor();
-    const answered = await page.evaluate(() => new Promise<number>((r) => { const t = performance.now(); setTimeout(() => r(performance.now() - t), 0); }));
-    expect(answered).toBeLessThan(500);
+    expect(page.workers().length).toBeGreaterThan(0);
+    const answeredWhileChecking = await page.evaluate(() => new Promise<boolean>((r) => setTimeout(() => r(document.querySelector('progress') !== null), 0)));
+    expect(answeredWhileChecking).toBe(true);
     await page.getByText('plant-20000.csv is valid.').waitFor({ timeout: 90_000 });
     await screenshot(page, 'saved-work-import-20000');
     await page.getByRole('button', { name: 'Import: add 20000, update 0' }).click();
@@ -109,7 +112,7 @@ describe('two tabs (item 4)', () => {
     s = await launch();
     const a = s.page;
     await openLibrary(a);
-    await expect.poll(() => storedStockCount(a), { timeout: 10_000 }).toBe(29); // the invented demo is saved
+    await expect.poll(() => storedStockCount(a)).toBe(29); // the invented demo is saved
     const b = await s.newPage();
     await openLibrary(b);
     const codes = (await storedNames(a)).map((c) => c.code);
@@ -125,8 +128,12 @@ describe('two tabs (item 4)', () => {
     }
     await screenshot(b, 'saved-work-two-tabs');
     // After both tabs have saved and heard of each other's saves, a reload of each shows all 40.
-    await expect.poll(() => storedStockCount(a), { timeout: 20_000 }).toBe(29 + 11);
-    await a.waitForTimeout(500);
+    await expect.poll(() => storedStockCount(a)).toBe(29 + 11);
+    const allSaved = async () => {
+      const names = new Set((await storedNames(a)).map((c) => c.name));
+      return aCodes.every((_, i) => names.has(`Tab A name ${i}`)) && bCodes.every((_, i) => names.has(`Tab B name ${i}`));
+    };
+    await expect.poll(allSaved).toBe(true);
     for (const page of [a, b]) {
       await page.reload();
       await page.getByRole('heading', { name: 'Stocks' }).waitFor();

@@ -44,7 +44,7 @@ async function openScreen(page: Page, id: string, heading: string): Promise<void
  * Press Tab (or Shift+Tab) until the focused element has the given role and accessible name; fails
  * if it is not reached (each step polls briefly, so content that is still loading can appear).
  */
-async function tabTo(page: Page, role: 'link' | 'button' | 'checkbox', name: RegExp, direction: 'forward' | 'back' = 'forward', timeoutMs = 10_000): Promise<void> {
+async function tabTo(page: Page, role: 'link' | 'button' | 'checkbox', name: RegExp, direction: 'forward' | 'back' = 'forward', timeoutMs = 30_000): Promise<void> {
   const start = Date.now();
   const seen: string[] = [];
   for (let i = 0; Date.now() - start < timeoutMs; i++) {
@@ -64,6 +64,11 @@ async function tabTo(page: Page, role: 'link' | 'button' | 'checkbox', name: Reg
     await page.keyboard.press(direction === 'forward' ? 'Tab' : 'Shift+Tab');
   }
   throw new Error(`keyboard: no ${role} named ${name} reached by ${direction === 'forward' ? 'Tab' : 'Shift+Tab'}; last focused: ${seen.slice(-6).join(', ')}`);
+}
+
+/** Every lazily loaded part of the screen has arrived (no "Loading charts…" or "Opening …" placeholder left). */
+async function settled(page: Page): Promise<void> {
+  await expect.poll(() => page.locator('p.muted, p.loading').filter({ hasText: /^(Loading charts|Opening )/ }).count()).toBe(0);
 }
 
 const cspViolations = (page: Page) => page.evaluate(() => (window as unknown as { __cspViolations: string[] }).__cspViolations);
@@ -115,7 +120,7 @@ describe('security and accessibility', () => {
     const found: string[] = [];
     for (const sc of SCREENS) {
       await openScreen(page, sc.id, sc.heading);
-      await page.waitForTimeout(200); // lazy charts settle
+      await settled(page); // lazy charts drawn
       for (const v of await axeSerious(page)) found.push(`${sc.id}: ${v}`);
       await screenshot(page, `a11y-${sc.id}`);
     }
@@ -136,15 +141,15 @@ describe('security and accessibility', () => {
     await page.getByLabel('File', { exact: true }).setInputFiles(file);
     await page.getByText('hostile.csv is valid.').waitFor();
     // In the preview (which must be accessible too) …
-    await expect(page.getByText(HOSTILE, { exact: true }).count()).resolves.toBeGreaterThan(0);
+    await expect.poll(() => page.getByText(HOSTILE, { exact: true }).count()).toBeGreaterThan(0);
     expect(await axeSerious(page), 'import preview').toEqual([]);
     await page.getByRole('button', { name: 'Import: add 1, update 0' }).click();
     // … and in the library table, the name is literal text in a field.
-    await expect(cellValue(page, 'Name of XSS-1', { exact: true })).resolves.toBe(HOSTILE);
+    await expect.poll(() => cellValue(page, 'Name of XSS-1', { exact: true })).toBe(HOSTILE);
     // Visit every screen with the hostile stock in the library.
     for (const sc of SCREENS) {
       await openScreen(page, sc.id, sc.heading);
-      await page.waitForTimeout(100);
+      await settled(page);
       expect(await page.locator('img[src="x"], main script, main b').count(), sc.id).toBe(0);
     }
     expect(await page.evaluate(() => (window as { __pwned?: unknown }).__pwned)).toBeUndefined();
@@ -159,7 +164,7 @@ describe('security and accessibility', () => {
       const page = k.page;
       await page.goto(inject('baseURL'));
       await page.getByRole('heading', { name: 'Stocks', level: 2 }).waitFor();
-      await expect(page.getByText(/invented demo/i).first().isVisible()).resolves.toBe(true);
+      await expect.poll(() => page.getByText(/invented demo/i).first().isVisible()).toBe(true);
 
       await tabTo(page, 'link', /^Recipe designer/);
       await page.keyboard.press('Enter');
@@ -175,7 +180,7 @@ describe('security and accessibility', () => {
       await page.getByRole('heading', { name: 'Substitute explorer', level: 2 }).waitFor();
       await tabTo(page, 'checkbox', /^Treat BW-190 as withdrawn$/);
       await page.keyboard.press('Space');
-      await expect(page.getByLabel('Treat BW-190 as withdrawn').isChecked()).resolves.toBe(true);
+      await expect.poll(() => page.getByLabel('Treat BW-190 as withdrawn').isChecked()).toBe(true);
       await tabTo(page, 'button', /^Run search$/);
       await page.keyboard.press('Enter');
       // ranked candidates stream in while the search runs; go on once it has ended

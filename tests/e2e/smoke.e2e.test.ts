@@ -13,7 +13,7 @@ describe('app shell', () => {
   it('opens with the caution visible, no console errors and no off-host request', async () => {
     await s.page.goto(inject('baseURL'));
     await s.page.getByRole('heading', { name: 'Blendbench' }).waitFor();
-    await expect(s.page.getByText(/laboratory confirmation/i).first().isVisible()).resolves.toBe(true);
+    await expect.poll(() => s.page.getByText(/laboratory confirmation/i).first().isVisible()).toBe(true);
     await screenshot(s.page, 'shell');
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);

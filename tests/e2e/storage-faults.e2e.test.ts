@@ -63,7 +63,7 @@ async function openLibrary(page: Page): Promise<void> {
 
 /** Wait until the demo library has been saved on first start. */
 async function savedLibrary(page: Page): Promise<StoredLibrary> {
-  await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary | undefined)?.version, { timeout: 10_000 }).toBe(LIBRARY_VERSION);
+  await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary | undefined)?.version).toBe(LIBRARY_VERSION);
   return (await stored(page, 'library')) as StoredLibrary;
 }
 
@@ -96,8 +96,8 @@ describe('storage faults', () => {
     await rename(page, 'BW-190', 'Edit made while the disk was full');
     const alert = page.getByRole('alert').filter({ hasText: 'Not saved' });
     await alert.waitFor();
-    await expect(alert.innerText()).resolves.toMatch(/quota exceeded/i);
-    await expect(alert.innerText()).resolves.toMatch(/last saved copy is kept/i);
+    await expect.poll(() => alert.innerText()).toMatch(/quota exceeded/i);
+    await expect.poll(() => alert.innerText()).toMatch(/last saved copy is kept/i);
     await screenshot(page, 'storage-quota-exceeded');
     expect(await axeSerious(page), 'with the failed-save message').toEqual([]);
     // The stored copy is the last good one.
@@ -113,7 +113,7 @@ describe('storage faults', () => {
     // Once there is space again, the next save stores everything and the message goes.
     await page.evaluate(() => ((globalThis as { __bbQuotaFull?: boolean }).__bbQuotaFull = false));
     await rename(page, 'BW-190', 'Saved again');
-    await expect.poll(async () => nameIn((await stored(page, 'library')) as StoredLibrary, 'BW-190'), { timeout: 5000 }).toBe('Saved again');
+    await expect.poll(async () => nameIn((await stored(page, 'library')) as StoredLibrary, 'BW-190')).toBe('Saved again');
     await expect.poll(() => page.getByRole('alert').filter({ hasText: 'Not saved' }).count()).toBe(0);
     expect(s.errors).toEqual([]);
   });
@@ -129,8 +129,8 @@ describe('storage faults', () => {
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
     const alert = page.getByRole('alert').filter({ hasText: 'The saved component library was not loaded.' });
     await alert.waitFor();
-    await expect(alert.innerText()).resolves.toMatch(/failed its integrity check/);
-    await expect(alert.innerText()).resolves.toMatch(/Nothing has been overwritten/);
+    await expect.poll(() => alert.innerText()).toMatch(/failed its integrity check/);
+    await expect.poll(() => alert.innerText()).toMatch(/Nothing has been overwritten/);
     await screenshot(page, 'storage-corrupted');
     expect(await axeSerious(page), 'with the unusable-copy message').toEqual([]);
     // The unusable copy is kept aside, and an edit in this tab does not overwrite it.
@@ -146,7 +146,7 @@ describe('storage faults', () => {
     // … and, after confirming, save this tab's library over it; the kept copy stays.
     page.once('dialog', (d) => void d.accept());
     await alert.getByRole('button', { name: /Save this tab’s component library over it/ }).click();
-    await expect.poll(async () => nameIn((await stored(page, 'library')) as StoredLibrary, 'BW-190'), { timeout: 5000 }).toBe('Edit while saving is paused');
+    await expect.poll(async () => nameIn((await stored(page, 'library')) as StoredLibrary, 'BW-190')).toBe('Edit while saving is paused');
     expect(((await stored(page, 'library.unusable-copy')) as { raw: unknown }).raw).toEqual(corrupt);
     expect(s.errors).toEqual([]);
   });
@@ -161,7 +161,7 @@ describe('storage faults', () => {
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
     const alert = page.getByRole('alert').filter({ hasText: 'The saved recipes was not loaded.' });
     await alert.waitFor();
-    await expect(alert.innerText()).resolves.toMatch(/not in a form Blendbench recognises/);
+    await expect.poll(() => alert.innerText()).toMatch(/not in a form Blendbench recognises/);
     expect(await stored(page, 'recipes')).toBe('garbage written by something else');
     expect(s.errors).toEqual([]);
   });
@@ -177,7 +177,7 @@ describe('storage faults', () => {
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
     const alert = page.getByRole('alert').filter({ hasText: 'The saved component library was not loaded.' });
     await alert.waitFor();
-    await expect(alert.innerText()).resolves.toMatch(/newer version of Blendbench \(schema 99/);
+    await expect.poll(() => alert.innerText()).toMatch(/newer version of Blendbench \(schema 99/);
     await screenshot(page, 'storage-newer-schema');
     await rename(page, 'BW-190', 'Edit in the older app');
     await page.waitForTimeout(300);
@@ -203,11 +203,11 @@ describe('storage faults', () => {
     await page.getByRole('heading', { name: 'Stocks' }).waitFor();
     const note = page.getByRole('status').filter({ hasText: 'The saved component library was upgraded.' });
     await note.waitFor();
-    await expect(note.innerText()).resolves.toMatch(new RegExp(`schema 1\\) and now uses schema ${LIBRARY_VERSION}\\. The original copy is kept`));
+    await expect.poll(() => note.innerText()).toMatch(new RegExp(`schema 1\\) and now uses schema ${LIBRARY_VERSION}\\. The original copy is kept`));
     await screenshot(page, 'storage-older-schema');
     const firstCode = good.state.components[0]!.code;
-    await expect(cellValue(page, `Name of ${firstCode}`, { exact: true })).resolves.toBe('Kept from schema 1');
-    await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary).version, { timeout: 5000 }).toBe(LIBRARY_VERSION);
+    await expect.poll(() => cellValue(page, `Name of ${firstCode}`, { exact: true })).toBe('Kept from schema 1');
+    await expect.poll(async () => ((await stored(page, 'library')) as StoredLibrary).version).toBe(LIBRARY_VERSION);
     const upgraded = (await stored(page, 'library')) as StoredLibrary;
     expect(upgraded.state.components.length).toBe(good.state.components.length);
     expect(nameIn(upgraded, firstCode)).toBe('Kept from schema 1');
@@ -226,13 +226,13 @@ describe('storage faults', () => {
     await rename(a, 'BW-190', 'Renamed in tab A');
     const told = b.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ });
     await told.waitFor();
-    await expect(cellValue(b, 'Name of BW-190', { exact: true })).resolves.toBe('Renamed in tab A');
+    await expect.poll(() => cellValue(b, 'Name of BW-190', { exact: true })).toBe('Renamed in tab A');
     await screenshot(b, 'storage-two-tabs');
 
     const other = ((await stored(a, 'library')) as StoredLibrary).state.components.find((c) => c.code !== 'BW-190')!.code;
     await rename(b, other, 'Renamed in tab B');
     await a.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ }).waitFor();
-    await expect(cellValue(a, `Name of ${other}`, { exact: true })).resolves.toBe('Renamed in tab B');
+    await expect.poll(() => cellValue(a, `Name of ${other}`, { exact: true })).toBe('Renamed in tab B');
     const lib = (await stored(a, 'library')) as StoredLibrary;
     expect(nameIn(lib, 'BW-190')).toBe('Renamed in tab A');
     expect(nameIn(lib, other)).toBe('Renamed in tab B');
@@ -246,12 +246,12 @@ describe('storage faults', () => {
         const shownA = await cellValue(a, 'Name of BW-190', { exact: true });
         const shownB = await cellValue(b, `Name of ${other}`, { exact: true });
         return [nameIn(l, 'BW-190') === shownA || shownA === 'Simultaneous A', nameIn(l, other) === shownB || shownB === 'Simultaneous B'];
-      }, { timeout: 5000 })
+      })
       .toEqual([true, true]);
     const final = (await stored(a, 'library')) as StoredLibrary;
     for (const [tab, code, mine] of [[a, 'BW-190', 'Simultaneous A'], [b, other, 'Simultaneous B']] as const) {
       if (nameIn(final, code) !== mine) {
-        await expect(tab.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ }).count()).resolves.toBeGreaterThan(0);
+        await expect.poll(() => tab.getByRole('status').filter({ hasText: /changed in another Blendbench tab/ }).count()).toBeGreaterThan(0);
       }
     }
     expect(s.errors).toEqual([]);
@@ -264,13 +264,13 @@ describe('storage faults', () => {
     await openLibrary(page);
     const note = page.getByRole('status').filter({ hasText: 'The browser may clear saved work.' });
     await note.waitFor();
-    await expect(note.innerText()).resolves.toMatch(/Persistent storage refused.*Export a backup regularly/s);
+    await expect.poll(() => note.innerText()).toMatch(/Persistent storage refused.*Export a backup regularly/s);
     // Settings says the same thing, word for word.
     const said = await note.getByTestId('persistence-banner').innerText();
     await note.getByRole('button', { name: 'Understood' }).click();
     await expect.poll(() => note.count()).toBe(0);
     await page.getByRole('link', { name: /^Settings/ }).click();
-    await expect(page.getByTestId('persistence-setting').innerText()).resolves.toBe(said);
+    await expect.poll(() => page.getByTestId('persistence-setting').innerText()).toBe(said);
   });
 
   it('persistent storage granted: no warning', async () => {
@@ -279,7 +279,7 @@ describe('storage faults', () => {
     await s.context.addInitScript(persistStub(true));
     await openLibrary(page);
     await savedLibrary(page);
-    await expect(page.getByText('The browser may clear saved work.').count()).resolves.toBe(0);
+    await expect.poll(() => page.getByText('The browser may clear saved work.').count()).toBe(0);
   });
 
   it('after many edits an export-all backup is offered, and taking it clears the reminder', async () => {
