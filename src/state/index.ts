@@ -49,6 +49,7 @@
  * Workspace (designer drafts, one per tab; editing habits; explorer session; kept across reloads, not in backups):
  *   useWorkspaceStore(s => s.drafts | s.habits | s.explorer), .getState().keepDraft(key, draft | null) /
  *   setHabits(habits) / setExplorer(session); ownDraftKey() this tab's draft key, adoptDraftKey(key),
+ *   newDraftKey() a key no tab holds (a draft set aside before another recipe is opened over it),
  *   draftKeysOfOpenTabs() → the keys other open tabs hold (their drafts are not offered here);
  *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
  * Leaving: holdLeave(() => boolean) asks for the browser's leave-page warning while a screen holds unsaved
@@ -104,7 +105,7 @@ export {
   type ExplorerScenario,
   type WorkspaceData,
 } from './workspace';
-export { ownDraftKey, adoptDraftKey, draftKeysOfOpenTabs } from './tab-draft';
+export { ownDraftKey, adoptDraftKey, draftKeysOfOpenTabs, newDraftKey } from './tab-draft';
 export { holdLeave } from './leave-guard';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';

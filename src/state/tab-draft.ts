@@ -9,6 +9,7 @@
 const SESSION_KEY = 'blendbench.draft-key';
 const CHANNEL = 'blendbench-drafts';
 
+/** A new draft key, not any tab's (also the key of a draft set aside: see `newDraftKey`). */
 const newKey = (): string => `tab-${Date.now().toString(36)}-${Array.from({ length: 6 }, () => Math.floor(Math.random() * 36).toString(36)).join('')}`;
 
 let own: string | null = null;
@@ -42,6 +43,14 @@ function rememberKey(key: string): void {
   } catch {
     /* the key lives as long as the page */
   }
+}
+
+/**
+ * A key for a draft kept apart from this tab's (s22 item 2: a draft set aside when another recipe is
+ * opened over its unsaved edits). No tab answers to it, so every tab offers it as a kept draft.
+ */
+export function newDraftKey(): string {
+  return newKey();
 }
 
 /** Make `key` this tab's draft key (the blender opened the draft kept under it). */

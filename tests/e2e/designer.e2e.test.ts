@@ -119,6 +119,28 @@ describe('recipe designer', () => {
     expect(s.offHost).toEqual([]);
   });
 
+  it('opening another recipe over unsaved edits asks first; the edits kept as a draft come back from the kept drafts (s22 item 2)', async () => {
+    const { page } = s;
+    const cell = page.getByTestId('recipe-lines').locator('.pct-input').first();
+    const label = (await cell.getAttribute('aria-label')) ?? '';
+    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00'); // the restored, unsaved edit
+    await page.getByLabel('Open', { exact: true }).selectOption('demo-vg460');
+    await page.getByRole('button', { name: 'Open', exact: true }).click();
+    const question = page.getByRole('alertdialog', { name: /^Discard the unsaved edits to/ });
+    await question.waitFor();
+    await expect.poll(() => question.innerText()).toMatch(/Opening “Gear oil VG 460/);
+    expect(await axeSerious(page)).toEqual([]);
+    await screenshot(page, 'designer-open-over-unsaved-edits');
+    await question.getByRole('button', { name: /^Keep my edits as a draft/ }).click();
+    await expect.poll(() => page.getByLabel('Open', { exact: true }).locator('option:checked').innerText()).toMatch(/VG 460/);
+    await page.getByText(/are kept as a draft: open them again from the kept drafts above/).waitFor();
+    const kept = page.getByTestId('kept-drafts');
+    await kept.getByRole('button', { name: /^Open the draft kept at/ }).click();
+    await page.getByText(/Opened the draft kept at/).waitFor();
+    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
+    expect(s.errors).toEqual([]);
+    expect(s.offHost).toEqual([]);
+  });
 });
 
 describe('designer draft, two tabs and a reload (s20 defect 1)', () => {

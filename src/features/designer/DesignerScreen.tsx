@@ -1,4 +1,4 @@
-import { Suspense, lazy, memo, useCallback, useEffect, useId, useMemo, useState } from 'react';
+import { Suspense, lazy, memo, useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
@@ -25,7 +25,7 @@ import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-r
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
-import { densityLookup, useDesignerStore } from './store';
+import { densityLookup, draftKeepable, useDesignerStore } from './store';
 import { runSolve } from './solve';
 import { PropertiesView, solveBand } from './PropertiesPanel';
 import { useDraftRelays, type DraftInputs } from './draft-relays';
@@ -233,7 +233,7 @@ export default function DesignerScreen() {
     <section className="designer" aria-labelledby="designer-h" data-testid="designer">
       <header className="screen-head">
         <h2 id="designer-h">Recipe designer</h2>
-        <StartFrom recipes={recipes} currentId={sourceRecipeId} onLoad={onLoadRecipe} onBlank={onBlank} />
+        <StartFrom recipes={recipes} currentId={sourceRecipeId} dirty={dirty} draftName={name} onLoad={onLoadRecipe} onBlank={onBlank} />
       </header>
       <div className="designer-grid">
         <aside className="designer-targets">
@@ -318,45 +318,141 @@ const BlendMethodField = memo(function BlendMethodField({ method }: { method: Bl
   );
 });
 
+/**
+ * "Open": another saved recipe, or a new blank one, in place of the draft. A draft with unsaved edits
+ * is never dropped without asking (s22 item 2): the blender keeps the edits as a kept draft (offered
+ * again by name and time, see KeptDrafts), discards them, or cancels.
+ */
 const StartFrom = memo(function StartFrom({
   recipes,
   currentId,
+  dirty,
+  draftName,
   onLoad,
   onBlank,
 }: {
   recipes: readonly Recipe[];
   currentId: string | null;
+  dirty: boolean;
+  draftName: string;
   onLoad: (r: Recipe) => void;
   onBlank: () => void;
 }) {
   const id = useId();
   const [choice, setChoice] = useState(currentId ?? '');
   useEffect(() => setChoice(currentId ?? ''), [currentId]);
+  /** The choice waiting for the blender's answer about the unsaved edits. */
+  const [asking, setAsking] = useState<string | null>(null);
+  const openChoice = (c: string) => {
+    const r = recipes.find((x) => x.id === c);
+    if (r) onLoad(r);
+    else onBlank();
+  };
   return (
-    <form
-      className="start-from"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const r = recipes.find((x) => x.id === choice);
-        if (r) onLoad(r);
-        else onBlank();
-      }}
-    >
-      <label htmlFor={id}>Open</label>
-      <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)}>
-        <option value="">a new blank recipe</option>
-        {recipes
-          .filter((r) => !r.archived || r.id === currentId)
-          .map((r) => (
-            <option key={r.id} value={r.id}>
-              {r.name} (rev. {r.revision}, {RECIPE_STATUS_LABEL[r.status].toLowerCase()})
-            </option>
-          ))}
-      </select>
-      <button type="submit">Open</button>
-    </form>
+    <>
+      <form
+        className="start-from"
+        onSubmit={(e) => {
+          e.preventDefault();
+          if (dirty) setAsking(choice);
+          else openChoice(choice);
+        }}
+      >
+        <label htmlFor={id}>Open</label>
+        <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)}>
+          <option value="">a new blank recipe</option>
+          {recipes
+            .filter((r) => !r.archived || r.id === currentId)
+            .map((r) => (
+              <option key={r.id} value={r.id}>
+                {r.name} (rev. {r.revision}, {RECIPE_STATUS_LABEL[r.status].toLowerCase()})
+              </option>
+            ))}
+        </select>
+        <button type="submit">Open</button>
+      </form>
+      {asking !== null && dirty && (
+        <DiscardQuestion
+          draftName={draftName}
+          target={recipes.find((r) => r.id === asking) ?? null}
+          onAnswer={(answer) => {
+            const c = asking;
+            setAsking(null);
+            if (answer === 'cancel') {
+              setChoice(currentId ?? ''); // the picker shows the draft's recipe again
+              return;
+            }
+            const name = draftName.trim();
+            if (answer === 'keep' && !useDesignerStore.getState().setAside()) return;
+            openChoice(c);
+            if (answer === 'keep') {
+              // (the recipe now active is the one just opened: it is not opened a second time over the note)
+              useDesignerStore.setState({
+                editNote: `Your unsaved edits to ${name ? `“${name}”` : 'the draft'} are kept as a draft: open them again from the kept drafts above.`,
+                seenActiveId: useRecipes.getState().activeRecipeId,
+              });
+            }
+          }}
+        />
+      )}
+    </>
   );
 });
+
+/** The question asked before the Open picker replaces a draft holding unsaved edits. */
+function DiscardQuestion({
+  draftName,
+  target,
+  onAnswer,
+}: {
+  draftName: string;
+  target: Recipe | null;
+  onAnswer: (answer: 'keep' | 'discard' | 'cancel') => void;
+}) {
+  const id = useId();
+  const box = useRef<HTMLDivElement>(null);
+  // The question takes the focus (the Enter or click that opened it does not answer it).
+  useEffect(() => box.current?.focus(), []);
+  const name = draftName.trim();
+  const keepable = draftKeepable(useDesignerStore.getState());
+  return (
+    <div
+      ref={box}
+      tabIndex={-1}
+      className="notice notice-warning open-question"
+      role="alertdialog"
+      aria-labelledby={`${id}-q`}
+      aria-describedby={`${id}-d`}
+      data-testid="open-question"
+      onKeyDown={(e) => {
+        if (e.key === 'Escape') onAnswer('cancel');
+      }}
+    >
+      <strong className="notice-title" id={`${id}-q`}>
+        Discard the unsaved edits to {name ? `“${name}”` : 'this draft'}?
+      </strong>
+      <p id={`${id}-d`}>
+        Opening {target ? `“${target.name}”` : 'a new blank recipe'} replaces them here.{' '}
+        {keepable
+          ? 'Keep them as a kept draft (offered here again, by name and time, to open later), or discard them.'
+          : 'They cannot be kept as a draft as they are (a value breaks a field rule): cancel to correct it, or discard them.'}
+      </p>
+      <div className="notice-actions">
+        {keepable && (
+          <button type="button" className="primary" onClick={() => onAnswer('keep')}>
+            Keep my edits as a draft, then open
+          </button>
+        )}
+        <button type="button" onClick={() => onAnswer('discard')}>
+          Discard my edits, then open
+        </button>
+        <button type="button" onClick={() => onAnswer('cancel')}>
+          Cancel
+        </button>
+      </div>
+    </div>
+  );
+}
 
 const SolveNoticeView = memo(function SolveNoticeView({ notice }: { notice: ReturnType<typeof useDesignerStore.getState>['notice'] }) {
   if (!notice) return null;

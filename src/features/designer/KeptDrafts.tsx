@@ -1,7 +1,8 @@
 /**
  * The drafts other tabs kept (s21 item 1): a tab that opens the designer with nothing unsaved of its
  * own is offered, by name and time, the unsaved drafts no open tab holds (a tab closed, or a browser
- * closed, with edits unsaved) — never one picked silently. Opening one makes it this tab's draft;
+ * closed, with edits unsaved; or a draft set aside when another recipe was opened over its unsaved
+ * edits, s22 item 2) — never one picked silently. Opening one makes it this tab's draft;
  * discarding one removes it after a second click. A draft kept longer than OLD_DRAFT_DAYS is pointed
  * out for discarding; none is ever deleted without the blender's word.
  */
@@ -44,9 +45,10 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
   const now = new Date();
   offered.sort((a, b) => (drafts[b]!.keptAt ?? '').localeCompare(drafts[a]!.keptAt ?? ''));
   return (
-    <Notice tone="info" title={offered.length === 1 ? 'An unsaved draft is kept from another tab' : `${offered.length} unsaved drafts are kept from other tabs`}>
+    <Notice tone="info" title={offered.length === 1 ? 'An unsaved draft is kept' : `${offered.length} unsaved drafts are kept`}>
       <p className="small">
-        Kept from a tab or window closed with edits unsaved. Open one to go on with it here (it becomes this tab’s draft), or discard it.
+        Kept from a tab or window closed with edits unsaved, or set aside when another recipe was opened over them. Open one to go on with it
+        here (it becomes this tab’s draft), or discard it.
       </p>
       <ul className="kept-drafts" data-testid="kept-drafts">
         {offered.map((k) => {

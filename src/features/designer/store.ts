@@ -7,6 +7,7 @@
 import { create } from 'zustand';
 import {
   adoptDraftKey,
+  newDraftKey,
   ownDraftKey,
   registerDeferredWrite,
   UNKNOWN_VERSION,
@@ -87,6 +88,13 @@ export interface DesignerState {
    * offers kept drafts only then). False when no draft is kept under `key`.
    */
   openKeptDraft: (key: string) => boolean;
+  /**
+   * Keep this tab's draft, unsaved edits and all, as a kept draft of its own (s22 item 2), before
+   * another recipe is opened in its place: offered again by name and time like a closed tab's draft
+   * (see KeptDrafts). False when it cannot be kept (a value breaks a field rule, so it could not be
+   * read back); nothing is kept then.
+   */
+  setAside: () => boolean;
 }
 
 /** The heaviest base stock in the recipe is the natural balance (it sets the viscosity). */
@@ -232,7 +240,18 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
     set(restored(kept, `Opened the draft kept ${keptWhen(kept.keptAt)}.`));
     return true;
   },
+  setAside: () => {
+    const draft = draftOf(get());
+    if (!keepable(draft)) return false;
+    useWorkspaceStore.getState().keepDraft(newDraftKey(), { ...draft, dirty: true, keptAt: new Date().toISOString() });
+    return true;
+  },
 }));
+
+/** Whether this tab's draft could be kept as it is (see `setAside`). */
+export function draftKeepable(s: DesignerState): boolean {
+  return keepable(draftOf(s));
+}
 
 /** When a draft was kept, in words ("at 23:12", "on 2026-12-02 at 23:12", or "by an earlier version"). */
 export function keptWhen(keptAt: string | null, now: Date = new Date()): string {
