@@ -93,7 +93,7 @@ export function answerDraftQuestions(): () => void {
 }
 
 /** How long a tab waits for the other tabs' answers [ms] (a tab answers within a task or two). */
-const ANSWER_WAIT_MS = 150;
+export const ANSWER_WAIT_MS = 150;
 
 /**
  * How long a duplicated tab keeps listening for a late answer carrying its own key [ms]. On a loaded
@@ -110,6 +110,17 @@ function ask(onKey: (key: string) => void): { stop: () => void } | null {
   waiting.set(id, onKey);
   ch.postMessage({ kind: 'who', ask: id } satisfies Message);
   return { stop: () => waiting.delete(id) };
+}
+
+/**
+ * Ask the other open tabs for their draft keys: `onKey` hears each key answered, however late it comes
+ * (s22: on a loaded machine an open tab may answer after ANSWER_WAIT_MS, and its answer must still
+ * count, e.g. to take its draft off another tab's list of kept drafts). Returns a function that stops
+ * listening.
+ */
+export function askOpenTabs(onKey: (key: string) => void): () => void {
+  const q = ask(onKey);
+  return q ? q.stop : () => {};
 }
 
 /** The draft keys of the other tabs open now (those that answer within ANSWER_WAIT_MS). */

@@ -64,3 +64,23 @@ describe('a duplicated tab takes a draft key of its own', () => {
     expect(dup.ownDraftKey()).toBe('tab-mine');
   });
 });
+
+describe('the draft keys of the open tabs, heard however late (s22)', () => {
+  it('askOpenTabs hears every open tab, the one answering at once and the one answering after the wait', async () => {
+    const a = await freshTab();
+    open.push(a.answerDraftQuestions());
+    const asker = await freshTab();
+    open.push(asker.answerDraftQuestions());
+    // A second open tab, answering only well after the first wait (ANSWER_WAIT_MS) is over.
+    const late = new BroadcastChannel('blendbench-drafts');
+    open.push(() => late.close());
+    late.onmessage = (ev: MessageEvent) => {
+      const m = ev.data as { kind: string; ask: string };
+      if (m.kind === 'who') setTimeout(() => late.postMessage({ kind: 'mine', ask: m.ask, key: 'tab-busy' }), 4 * asker.ANSWER_WAIT_MS);
+    };
+    const heard = new Set<string>();
+    const stop = asker.askOpenTabs((k) => heard.add(k));
+    open.push(stop);
+    await vi.waitFor(() => expect([...heard].sort()).toEqual([a.ownDraftKey(), 'tab-busy'].sort()), { timeout: 10_000 });
+  });
+});

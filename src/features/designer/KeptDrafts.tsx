@@ -8,7 +8,7 @@
  */
 import { memo, useEffect, useState } from 'react';
 import { Notice } from '../../components/notices';
-import { draftKeysOfOpenTabs, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
+import { askOpenTabs, DRAFT_ANSWER_WAIT_MS, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
 import { keptWhen } from './store';
 
 /** What a kept draft is, in a line: "from 23:12 — 4 stocks, VG 320, “Trial”". */
@@ -28,14 +28,28 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
   const own = ownDraftKey();
   const others = Object.keys(drafts).filter((k) => k !== own);
   const othersKey = others.join('|');
-  // The drafts open tabs hold are theirs: asked again whenever the kept drafts change.
+  // The drafts open tabs hold are theirs: asked again whenever the kept drafts change. The list is
+  // shown once the tabs have had DRAFT_ANSWER_WAIT_MS to answer; a draft whose open tab answers later
+  // (a busy tab) leaves it then.
   const [held, setHeld] = useState<{ asked: string; keys: Set<string> } | null>(null);
   useEffect(() => {
     if (othersKey === '') return;
     let live = true;
-    void draftKeysOfOpenTabs().then((keys) => live && setHeld({ asked: othersKey, keys }));
+    let shown = false;
+    const keys = new Set<string>();
+    const show = () => live && setHeld({ asked: othersKey, keys: new Set(keys) });
+    const stop = askOpenTabs((key) => {
+      keys.add(key);
+      if (shown) show();
+    });
+    const timer = setTimeout(() => {
+      shown = true;
+      show();
+    }, DRAFT_ANSWER_WAIT_MS);
     return () => {
       live = false;
+      stop();
+      clearTimeout(timer);
     };
   }, [othersKey]);
   const [confirming, setConfirming] = useState<string | null>(null);

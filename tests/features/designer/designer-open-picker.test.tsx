@@ -3,67 +3,11 @@
 // asks first ("Discard the unsaved edits to …?") instead of dropping them: the blender keeps them as a
 // kept draft (offered again by name and time, as a closed tab's draft is), discards them, or cancels.
 // Each "tab" is a fresh instance of the app's modules over one IndexedDB (fake-indexeddb), as in
-// designer-tabs.test.tsx. Shares and names are invented (common practice (no source)).
+// designer-tabs.test.tsx (tests/helpers/designer-tabs.tsx). Shares and names are invented (common practice (no source)).
 import 'fake-indexeddb/auto';
-import { IDBFactory } from 'fake-indexeddb';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { act, cleanup, fireEvent, render, within } from '@testing-library/react';
-
-const KEY = 'blendbench.draft-key';
-interface Tab {
-  state: typeof import('../../../src/state');
-  persistence: typeof import('../../../src/state/persistence');
-  designer: typeof import('../../../src/features/designer/store').useDesignerStore;
-  view: ReturnType<typeof within>;
-  close(): Promise<void>;
-}
-const open: Tab[] = [];
-
-/** Open a tab (a new one, or a reload of the tab whose draft key is `key`) on the designer. */
-async function openTab(key?: string): Promise<Tab> {
-  if (key) sessionStorage.setItem(KEY, key);
-  else sessionStorage.removeItem(KEY);
-  vi.resetModules();
-  const state = await import('../../../src/state');
-  const persistence = await import('../../../src/state/persistence');
-  const { useDesignerStore } = await import('../../../src/features/designer/store');
-  const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
-  await state.startSavedWork({ requestPersistence: false });
-  const host = document.createElement('div');
-  document.body.appendChild(host);
-  const r = render(<DesignerScreen />, { container: host });
-  const tab: Tab = {
-    state,
-    persistence,
-    designer: useDesignerStore,
-    view: within(host),
-    async close() {
-      await persistence.whenSaved();
-      r.unmount();
-      host.remove();
-      state.resetStartForTests();
-      open.splice(open.indexOf(tab), 1);
-    },
-  };
-  open.push(tab);
-  return tab;
-}
-
-async function settle(): Promise<void> {
-  for (let i = 0; i < 6; i++) {
-    await Promise.all(open.map((t) => t.persistence.whenSaved()));
-    await new Promise((r) => setTimeout(r, 30));
-  }
-}
-
-/** An invented hand edit of the first share of the draft, and a name for it. */
-function edit(t: Tab, name: string, delta: number) {
-  const first = t.designer.getState().lines.find((l) => l.massFraction > 0.1)!;
-  act(() => {
-    t.designer.getState().editLine(first.componentId, first.massFraction + delta, () => 0.9);
-    t.designer.getState().setName(name);
-  });
-}
+import { describe, expect, it } from 'vitest';
+import { fireEvent, within } from '@testing-library/react';
+import { designerTabHooks, editDraft as edit, openDesignerTab as openTab, settleDesignerTabs as settle, type DesignerTab as Tab } from '../../helpers/designer-tabs';
 
 /** Choose `value` in the Open picker ('' = a new blank recipe) and press its Open button. */
 function pick(t: Tab, value: string) {
@@ -73,14 +17,7 @@ function pick(t: Tab, value: string) {
 
 const question = (t: Tab) => t.view.queryByRole('alertdialog', { name: /^Discard the unsaved edits/ });
 
-beforeEach(() => {
-  globalThis.indexedDB = new IDBFactory();
-  sessionStorage.clear();
-});
-afterEach(async () => {
-  for (const t of [...open]) await t.close();
-  cleanup();
-});
+designerTabHooks();
 
 describe('the Open picker with unsaved edits (s22 item 2)', () => {
   it('asks before another recipe replaces the unsaved edits; Cancel keeps them as they are', async () => {

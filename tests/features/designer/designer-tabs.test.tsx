@@ -6,78 +6,11 @@
 // of the app's modules over one IndexedDB (fake-indexeddb), with its own sessionStorage draft key.
 // Shares and names are invented (common practice (no source)).
 import 'fake-indexeddb/auto';
-import { IDBFactory } from 'fake-indexeddb';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { act, cleanup, fireEvent, render, waitFor, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { act, fireEvent, within } from '@testing-library/react';
+import { designerTabHooks, editDraft as edit, openDesignerTab as openTab, settleDesignerTabs as settle } from '../../helpers/designer-tabs';
 
-const KEY = 'blendbench.draft-key';
-type StateModule = typeof import('../../../src/state');
-interface Tab {
-  state: StateModule;
-  persistence: typeof import('../../../src/state/persistence');
-  designer: typeof import('../../../src/features/designer/store').useDesignerStore;
-  key: string;
-  view: ReturnType<typeof within>;
-  close(): Promise<void>;
-}
-const open: Tab[] = [];
-
-/** Open a tab (a new one, or a reload of the tab whose draft key is `key`) on the designer. */
-async function openTab(key?: string): Promise<Tab> {
-  if (key) sessionStorage.setItem(KEY, key);
-  else sessionStorage.removeItem(KEY);
-  vi.resetModules();
-  const state = await import('../../../src/state');
-  const persistence = await import('../../../src/state/persistence');
-  const { useDesignerStore } = await import('../../../src/features/designer/store');
-  const { default: DesignerScreen } = await import('../../../src/features/designer/DesignerScreen');
-  await state.startSavedWork({ requestPersistence: false });
-  const host = document.createElement('div');
-  document.body.appendChild(host);
-  const r = render(<DesignerScreen />, { container: host });
-  const tab: Tab = {
-    state,
-    persistence,
-    designer: useDesignerStore,
-    key: state.ownDraftKey(),
-    view: within(host),
-    async close() {
-      await persistence.whenSaved(); // as the page leaves, its pending draft is written
-      r.unmount();
-      host.remove();
-      state.resetStartForTests();
-      open.splice(open.indexOf(tab), 1);
-    },
-  };
-  open.push(tab);
-  return tab;
-}
-
-/** Every tab has saved and heard of the others' saves. */
-async function settle(): Promise<void> {
-  for (let i = 0; i < 6; i++) {
-    await Promise.all(open.map((t) => t.persistence.whenSaved()));
-    await new Promise((r) => setTimeout(r, 30));
-  }
-}
-
-/** An invented hand edit of the first share of a tab's draft, and a name for it. */
-function edit(t: Tab, name: string, delta: number) {
-  const first = t.designer.getState().lines.find((l) => l.massFraction > 0.1)!;
-  act(() => {
-    t.designer.getState().editLine(first.componentId, first.massFraction + delta, () => 0.9);
-    t.designer.getState().setName(name);
-  });
-}
-
-beforeEach(() => {
-  globalThis.indexedDB = new IDBFactory();
-  sessionStorage.clear();
-});
-afterEach(async () => {
-  for (const t of [...open]) await t.close();
-  cleanup();
-});
+designerTabHooks();
 
 describe('designer drafts in two tabs (s21 item 1)', () => {
   it('each tab gets its own unsaved draft back on its own reload, whichever wrote last', async () => {
@@ -110,26 +43,45 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     expect(Object.keys(a2.state.useWorkspaceStore.getState().drafts).sort()).toEqual([aKey, bKey].sort());
   });
 
-  it('a tab opened fresh offers the drafts no open tab holds, by name and time, and picks none silently', async () => {
-    const a = await openTab();
-    edit(a, 'Closed tab’s trial', -0.05);
-    const b = await openTab();
-    edit(b, 'Open tab’s trial', 0.03);
-    await settle();
-    await a.close(); // tab A is closed with its edits unsaved; tab B stays open
-    const c = await openTab();
-    expect(c.designer.getState().dirty).toBe(false); // the active recipe, not another tab's draft
-    expect(c.designer.getState().name).not.toMatch(/trial/);
-    const list = await c.view.findByTestId('kept-drafts', {}, { timeout: 5000 });
-    const items = within(list).getAllByRole('listitem');
-    expect(items).toHaveLength(1); // the open tab's draft is that tab's: not offered
-    expect(items[0]!.textContent).toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG 320, “Closed tab’s trial”/);
-    fireEvent.click(within(items[0]!).getByRole('button', { name: /^Open the draft kept/ }));
-    expect(c.designer.getState().name).toBe('Closed tab’s trial');
-    expect(c.designer.getState().dirty).toBe(true);
-    expect(c.view.getByText(/Opened the draft kept at/)).toBeTruthy();
-    expect(c.state.ownDraftKey()).toBe(a.key); // it is this tab's draft now
-  });
+  /** Hold back the open tabs' answers to "which drafts are yours?" by `ms`, as by a busy tab. */
+  function answersLate(ms: number): void {
+    const post = BroadcastChannel.prototype.postMessage;
+    vi.spyOn(BroadcastChannel.prototype, 'postMessage').mockImplementation(function (this: BroadcastChannel, message: unknown) {
+      if ((message as { kind?: string } | null)?.kind !== 'mine') return post.call(this, message);
+      setTimeout(() => {
+        try {
+          post.call(this, message);
+        } catch {
+          /* the channel was closed meanwhile */
+        }
+      }, ms);
+    });
+  }
+
+  for (const late of [false, true]) {
+    it(`a tab opened fresh offers the drafts no open tab holds, by name and time, and picks none silently${late ? ' (the open tab answering late, s22)' : ''}`, async () => {
+      const a = await openTab();
+      edit(a, 'Closed tab’s trial', -0.05);
+      const b = await openTab();
+      edit(b, 'Open tab’s trial', 0.03);
+      await settle();
+      await a.close(); // tab A is closed with its edits unsaved; tab B stays open
+      if (late) answersLate(600); // tab B answers well past the first wait (DRAFT_ANSWER_WAIT_MS, 150 ms)
+      const c = await openTab();
+      expect(c.designer.getState().dirty).toBe(false); // the active recipe, not another tab's draft
+      expect(c.designer.getState().name).not.toMatch(/trial/);
+      const list = await c.view.findByTestId('kept-drafts', {}, { timeout: 5000 });
+      // The open tab's draft is that tab's: not offered (once it has answered, however late).
+      await vi.waitFor(() => expect(within(list).getAllByRole('listitem')).toHaveLength(1), { timeout: 5000 });
+      const items = within(list).getAllByRole('listitem');
+      expect(items[0]!.textContent).toMatch(/Open the draft kept at \d\d:\d\d — \d+ stocks, VG 320, “Closed tab’s trial”/);
+      fireEvent.click(within(items[0]!).getByRole('button', { name: /^Open the draft kept/ }));
+      expect(c.designer.getState().name).toBe('Closed tab’s trial');
+      expect(c.designer.getState().dirty).toBe(true);
+      expect(c.view.getByText(/Opened the draft kept at/)).toBeTruthy();
+      expect(c.state.ownDraftKey()).toBe(a.key); // it is this tab's draft now
+    });
+  }
 
   it('a saved draft is removed; a discarded one only after a second click', async () => {
     const a = await openTab();
@@ -175,7 +127,7 @@ describe('designer drafts in two tabs (s21 item 1)', () => {
     const b = await openTab(a.key); // the duplicate starts with the first tab's key and its draft
     expect(b.designer.getState().name).toBe('First tab’s trial');
     // The first tab answers the duplicate's question (however late, on a loaded machine): a key of its own.
-    await waitFor(() => expect(b.state.ownDraftKey()).not.toBe(a.key), { timeout: 10_000 });
+    await vi.waitFor(() => expect(b.state.ownDraftKey()).not.toBe(a.key), { timeout: 10_000 });
     edit(b, 'Duplicate’s trial', 0.02);
     await settle();
     const drafts = a.state.useWorkspaceStore.getState().drafts;
