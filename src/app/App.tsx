@@ -47,6 +47,20 @@ export function fetchOpeningScreen(): Promise<void> {
   return openingScreen;
 }
 
+/**
+ * Work of `startSavedWork` that the first screen does not wait for: held until that screen is drawn,
+ * then run after its frame is painted (a task queued from the next animation frame).
+ */
+let afterFirstScreen: (() => void) | null = null;
+function holdUntilFirstScreen(run: () => void): void {
+  afterFirstScreen = run;
+}
+function releaseAfterPaint(): void {
+  const run = afterFirstScreen;
+  afterFirstScreen = null;
+  if (run) requestAnimationFrame(() => window.setTimeout(run));
+}
+
 function useHashScreen(): ScreenEntry {
   const [screen, setScreen] = useState(screenFromHash);
   useEffect(() => {
@@ -89,12 +103,16 @@ export function App() {
   useEffect(() => {
     // The screen is drawn once every store holds its saved copy (the stores say "ready" a moment
     // before their state is set) and the opening screen's code, fetched meanwhile, is here.
-    void Promise.allSettled([startSavedWork(), fetchOpeningScreen()]).then(() => setStarted(true));
+    // What the first screen does not wait for (the first start's save of the demo and the like) runs
+    // after that screen is painted.
+    void Promise.allSettled([startSavedWork({ later: holdUntilFirstScreen }), fetchOpeningScreen()]).then(() => setStarted(true));
   }, []);
 
   // Once a screen has been drawn, later screens draw every row at once.
   useEffect(() => {
-    if (ready) setOpeningDraw(false);
+    if (!ready) return;
+    setOpeningDraw(false);
+    releaseAfterPaint();
   }, [ready]);
 
   useEffect(() => {

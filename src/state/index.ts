@@ -300,8 +300,12 @@ let stopWatching: Array<() => void> = [];
  * Load saved work (all stores), save the demo on a first start, count edits for the backup
  * reminder, follow saves made in other tabs, and ask the browser for persistent storage.
  * Idempotent; the shell calls it once.
+ *
+ * `later` runs the work that the first screen does not wait for — the first start's save of the
+ * demo, the duplicated-tab check of the draft key, the request for persistent storage — when the
+ * caller says (the shell: after the first screen is painted); by default at once.
  */
-export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Promise<void> {
+export function startSavedWork(opts: { requestPersistence?: boolean; later?: (run: () => void) => void } = {}): Promise<void> {
   started ??= (async () => {
     await Promise.all([rehydrate.library(), rehydrate.recipes(), rehydrate.settings(), rehydrate.workspace()]);
     useHydration.setState({ done: true });
@@ -309,10 +313,6 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
     useRecipesStore.getState().recordMissingStockBasis(useLibraryStore.getState().components);
     useLibraryStore.temporal.getState().clear();
     useRecipesStore.temporal.getState().clear();
-    const status = useStorageStatus.getState().stores;
-    for (const key of ['library', 'recipes', 'settings', 'workspace'] as const) {
-      if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
-    }
     let external = false;
     stopWatching.push(
       useLibraryStore.subscribe((s, p) => {
@@ -349,10 +349,17 @@ export function startSavedWork(opts: { requestPersistence?: boolean } = {}): Pro
       answerDraftQuestions(),
       onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
-    void leaveSharedKey();
     // The browser's leave-page warning while typed text is not saved (leave-guard.ts).
     if (typeof window !== 'undefined' && typeof document !== 'undefined') stopWatching.push(installLeaveWarning(window));
-    if (opts.requestPersistence !== false) void requestPersistentStorage();
+    (opts.later ?? ((run) => run()))(() => {
+      // A first start saves what it shows (the demo); an edit made meanwhile is saved with it.
+      const status = useStorageStatus.getState().stores;
+      for (const key of ['library', 'recipes', 'settings', 'workspace'] as const) {
+        if (status[key].origin === 'fresh') saveNow(key, persistedData(key), STORE_VERSION[key]);
+      }
+      void leaveSharedKey();
+      if (opts.requestPersistence !== false) void requestPersistentStorage();
+    });
   })();
   return started;
 }

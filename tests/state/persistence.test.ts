@@ -86,6 +86,25 @@ describe('stores saved in IndexedDB', () => {
     expect(m.state.useLibrary.temporal.getState().pastStates.length).toBe(0);
   });
 
+  it('a first start whose shell holds the work the screen does not wait for saves the demo when released, with an edit made meanwhile', async () => {
+    let m = await load();
+    let release: (() => void) | null = null;
+    await m.state.startSavedWork({ requestPersistence: false, later: (run) => (release = run) });
+    expect(m.state.useLibrary.getState().components.length).toBe(29); // shown at once (29: the demo's size, a count)
+    await m.persistence.whenSaved();
+    expect(await get('library', db())).toBeUndefined(); // not written yet
+    m.state.libraryActions.updateComponent('demo-bw-190', { name: 'Renamed before the first save' });
+    expect(release).not.toBeNull();
+    release!();
+    await m.persistence.whenSaved();
+    m = await load(); // a reload
+    await m.state.startSavedWork({ requestPersistence: false });
+    expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('stored');
+    expect(m.state.useLibrary.getState().components.length).toBe(29);
+    expect(m.state.useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!.name).toBe('Renamed before the first save');
+    expect(((await get('recipes', db())) as { version: number }).version).toBe(m.state.STORE_VERSION.recipes);
+  });
+
   it('migrates an older stored schema, validates it and writes it back at the current version', async () => {
     const { demoComponents } = await import('../../src/state/demo');
     await set('library', { state: { components: demoComponents().slice(0, 3) }, version: 1 }, db());
