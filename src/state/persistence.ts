@@ -287,6 +287,8 @@ interface SyncState {
   base: Pick<RecordSet, 'stamps' | 'gone'>;
   /** The newest persisted state handed to setItem (holds the tab-local fields). */
   latest: unknown;
+  /** The tab-local fields (RecordLayout.local) as stored at the last load or write, JSON; null before either. */
+  savedLocal: string | null;
   /** True while records from another tab are being put into memory (not new commits). */
   applying: boolean;
   /** The next save replaces the stored copy outright (after an unusable copy was set aside). */
@@ -308,6 +310,7 @@ function syncOf<D>(spec: StoreSpec<D>): SyncState {
       mine: emptySet(),
       base: { stamps: {}, gone: {} },
       latest: null,
+      savedLocal: null,
       applying: false,
       force: false,
       crossTab: spec.crossTab ?? true,
@@ -363,7 +366,13 @@ const failedSaves = new Set<StoreKey>();
 
 type SyncOutcome =
   | { kind: 'newer'; version: number }
-  | { kind: 'saved'; merged: RecordSet & { fromTheirs: string[]; replacedMine: string[] }; wrote: boolean; snapshot: RecordSet };
+  | { kind: 'saved'; merged: RecordSet & { fromTheirs: string[]; replacedMine: string[] }; wrote: boolean; snapshot: RecordSet; local: string };
+
+/** The tab-local fields of a persisted state (e.g. the active recipe), as JSON, to tell when they changed. */
+function localOf(layout: RecordLayout, state: unknown): string {
+  const fields = layout.local ?? [];
+  return JSON.stringify(fields.map((f) => (isRecord(state) ? state[f] : undefined) ?? null));
+}
 
 /** One save: read, merge and (if needed) write in a single IndexedDB transaction. */
 function saveOnce(key: StoreKey, st: SyncState): Promise<SyncOutcome> {
@@ -393,7 +402,11 @@ function saveOnce(key: StoreKey, st: SyncState): Promise<SyncOutcome> {
           const merged = theirsUsable
             ? mergeRecords(st.base, snapshot, theirs)
             : { ...snapshot, fromTheirs: [], replacedMine: [], differsFromTheirs: true };
-          const wrote = merged.differsFromTheirs;
+          // A change of this tab's local fields alone (another recipe made active) is written too, so a
+          // reload opens what the tab last worked on; a tab that only heard of another tab's save writes
+          // nothing for them (its local fields have not changed since it last wrote or read them).
+          const localNow = localOf(st.layout, local);
+          const wrote = merged.differsFromTheirs || (st.savedLocal !== null && localNow !== st.savedLocal);
           if (wrote) {
             const value = {
               state: joinRecords(merged.records, st.layout, local),
@@ -403,7 +416,7 @@ function saveOnce(key: StoreKey, st: SyncState): Promise<SyncOutcome> {
             };
             store.put(value, key);
           }
-          outcome = { kind: 'saved', merged, wrote, snapshot };
+          outcome = { kind: 'saved', merged, wrote, snapshot, local: localNow };
         } catch (e) {
           tx.abort();
           reject(e);
@@ -484,6 +497,7 @@ async function drain(key: StoreKey, q: Queue): Promise<void> {
       }
       st.force = false;
       st.base = { stamps: outcome.merged.stamps, gone: outcome.merged.gone };
+      if (outcome.wrote) st.savedLocal = outcome.local;
       patchStatus(key, { saveError: null, lastSavedAt: new Date().toISOString() });
       if (outcome.wrote) broadcast(key);
       takeFromOtherTab(key, st, outcome.snapshot, outcome.merged);
@@ -666,6 +680,7 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
       // This tab starts from the stored records and their stamps (none in copies written before stamps).
       const stored = result.migratedFrom === null && isRecord(raw) ? raw : null;
       st.latest = result.data;
+      st.savedLocal = localOf(st.layout, result.data);
       st.mine = {
         records: splitRecords(result.data, st.layout),
         stamps: stored ? asStamps(stored.stamps) : {},

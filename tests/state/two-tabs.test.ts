@@ -241,3 +241,17 @@ describe('two tabs making the first QC entries of one batch in the same millisec
     for (const t of [a, b, c]) expect(t.state.useRecipes.getState().qc[id]!.heel.massKg).toBeNull();
   });
 });
+
+describe('the recipe a tab last opened (tab-local)', () => {
+  it('is written when only it changes, so a reload opens it; a second tab hearing of that save writes nothing back', async () => {
+    const a = await openTab();
+    const b = await openTab();
+    const recipes = a.state.useRecipes.getState().recipes;
+    const other = recipes.find((r) => r.id !== a.state.useRecipes.getState().activeRecipeId)!;
+    a.state.recipeActions.setActiveRecipe(other.id); // no other change to any recipe
+    await settle([a, b]);
+    const c = await openTab(); // a reload of tab A
+    expect(c.state.useRecipes.getState().activeRecipeId).toBe(other.id);
+    expect(b.state.useRecipes.getState().activeRecipeId).not.toBe(other.id); // B keeps its own
+  });
+});
