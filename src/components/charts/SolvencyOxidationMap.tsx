@@ -114,7 +114,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
             width={formatY ? 100 : 60}
             tickFormatter={formatY ?? ((v: number) => f.num(v, tickDecimals(yDomain)))}
             ticks={formatY ? integerTicks(yDomain) : niceTicks(yDomain)}
-            label={{ value: yLabel, angle: -90, position: 'left', offset: 0, style: { textAnchor: 'middle' } }}
+            label={{ value: yLabel, angle: -90, position: 'left', offset: formatY ? 12 : 0, style: { textAnchor: 'middle' } }}
           />
           <ZAxis range={[60, 60]} />
           <Tooltip isAnimationActive={false} cursor={false} formatter={(v, n) => [f.num(Number(v), 1), String(n)]} />
