@@ -26,6 +26,7 @@ import {
   type RecordSet,
   type Stamp,
 } from './record-merge';
+import { applyCopy, pendingCopy, readLeaveCopy, writeLeaveCopy } from './leave-copy';
 
 export type StoreKey = 'library' | 'recipes' | 'settings' | 'workspace';
 export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings', 'workspace'];
@@ -297,6 +298,10 @@ interface SyncState {
   crossTab: boolean;
   /** Written with a blind put as the page leaves (see StoreSpec.leaveWrite). */
   leaveWrite: boolean;
+  /** A leave copy of this store's unsaved commits is in the tab's sessionStorage (leave-copy.ts). */
+  copyKept: boolean;
+  /** Records created blank in this tab (not stamped, see RecordLayout.blank) and not saved yet. */
+  blankNew: Set<string>;
 }
 const syncs = new Map<StoreKey, SyncState>();
 const emptySet = (): RecordSet => ({ records: new Map(), stamps: {}, gone: {} });
@@ -315,6 +320,8 @@ function syncOf<D>(spec: StoreSpec<D>): SyncState {
       force: false,
       crossTab: spec.crossTab ?? true,
       leaveWrite: spec.leaveWrite ?? spec.crossTab === false,
+      copyKept: false,
+      blankNew: new Set(),
     };
     syncs.set(spec.key, st);
   }
@@ -334,7 +341,10 @@ function commit(st: SyncState, state: unknown): void {
   for (const [k, v] of next) {
     if (!records.has(k) || records.get(k) !== v) {
       // Created blank (never here before, not even deleted): no entry, so no stamp (RecordLayout.blank).
-      if (blank && !records.has(k) && !(k in gone) && !(k in stamps) && blank(k, v)) continue;
+      if (blank && !records.has(k) && !(k in gone) && !(k in stamps) && blank(k, v)) {
+        st.blankNew.add(k);
+        continue;
+      }
       stamps[k] = nextStamp();
       delete gone[k];
     }
@@ -498,6 +508,9 @@ async function drain(key: StoreKey, q: Queue): Promise<void> {
       st.force = false;
       st.base = { stamps: outcome.merged.stamps, gone: outcome.merged.gone };
       if (outcome.wrote) st.savedLocal = outcome.local;
+      for (const k of st.blankNew) if (outcome.snapshot.records.has(k)) st.blankNew.delete(k);
+      // Only hidden, not gone: once everything committed here is saved, the leave copy has done its part.
+      if (st.copyKept && unsavedOf(st) === null) st.copyKept = !writeLeaveCopy(key, null);
       patchStatus(key, { saveError: null, lastSavedAt: new Date().toISOString() });
       if (outcome.wrote) broadcast(key);
       takeFromOtherTab(key, st, outcome.snapshot, outcome.merged);
@@ -551,16 +564,20 @@ export function mergeFromOtherTab(key: StoreKey): void {
 const deferredWrites = new Set<() => void>();
 let pageListeners = false;
 
+/** Write what is pending as the page is hidden or left (once per page; the stores and deferred writers call it). */
+function listenForLeaving(): void {
+  if (pageListeners || typeof window === 'undefined' || typeof document === 'undefined') return;
+  pageListeners = true;
+  window.addEventListener('pagehide', () => flushDeferredWrites(true));
+  document.addEventListener('visibilitychange', () => {
+    if (document.visibilityState === 'hidden') flushDeferredWrites(true);
+  });
+}
+
 /** Register a deferred writer's flush (it writes its pending state now, if any); returns an unregister function. */
 export function registerDeferredWrite(flush: () => void): () => void {
   deferredWrites.add(flush);
-  if (!pageListeners && typeof window !== 'undefined' && typeof document !== 'undefined') {
-    pageListeners = true;
-    window.addEventListener('pagehide', () => flushDeferredWrites(true));
-    document.addEventListener('visibilitychange', () => {
-      if (document.visibilityState === 'hidden') flushDeferredWrites(true);
-    });
-  }
+  listenForLeaving();
   return () => deferredWrites.delete(flush);
 }
 
@@ -590,6 +607,30 @@ export function flushDeferredWrites(leaving = false): void {
     // Only hidden, not gone (another tab in front): the usual save follows.
     setTimeout(() => requestSave(key), 0);
   }
+  // Neither the blind puts nor the saves under way are sure to finish before a reload: every store's
+  // unsaved commits are also copied, synchronously, into the tab's sessionStorage (leave-copy.ts).
+  for (const [key, st] of syncs) keepLeaveCopy(key, st);
+}
+
+/** The records committed in this tab since its last finished save (and changed tab-local fields), or null. */
+function unsavedOf(st: SyncState): ReturnType<typeof pendingCopy> {
+  const fields = st.layout.local ?? [];
+  const localNow = fields.length > 0 ? localOf(st.layout, st.latest) : null;
+  const local =
+    localNow !== null && localNow !== st.savedLocal && isRecord(st.latest)
+      ? Object.fromEntries(fields.map((f) => [f, (st.latest as Record<string, unknown>)[f] ?? null]))
+      : null;
+  return pendingCopy(st.mine, st.base, st.spec.version, local, st.blankNew);
+}
+
+/** Copy a store's unsaved commits into the tab's sessionStorage (or remove a copy nothing needs now). */
+function keepLeaveCopy(key: StoreKey, st: SyncState): void {
+  const status = useStorageStatus.getState().stores[key];
+  if (status.phase !== 'ready' || status.savingPaused || st.latest === null) return;
+  const copy = unsavedOf(st);
+  if (copy === null && !st.copyKept) return;
+  const kept = writeLeaveCopy(key, copy);
+  st.copyKept = copy !== null && kept;
 }
 /** While true, a leave-written store's save is not started (flushDeferredWrites writes it with a blind put). */
 let holdTabOnlySaves = false;
@@ -640,6 +681,7 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
   return {
     async getItem(): Promise<StorageValue<D> | null> {
       const st = syncOf(spec);
+      listenForLeaving();
       let raw: unknown;
       try {
         raw = await idbGet(spec.key, savedWorkDb());
@@ -659,6 +701,7 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
       // zod and the schemas are fetched only when there is something stored to check.
       const result = raw === undefined || raw === null ? ({ kind: 'empty' } as const) : interpretStored(spec, raw, await loadSchemas());
       if (result.kind === 'empty') {
+        writeLeaveCopy(spec.key, null); // nothing stored to lay it over (a first start saves what it shows)
         patchStatus(spec.key, { phase: 'ready', origin: 'fresh', problem: null, savingPaused: false });
         return null;
       }
@@ -687,6 +730,9 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         gone: stored ? asStamps(stored.gone) : {},
       };
       st.base = { stamps: { ...st.mine.stamps }, gone: { ...st.mine.gone } };
+      let data = result.data;
+      const restored = takeLeaveCopy(spec, st, data);
+      if (restored !== null) data = restored;
       let upgraded: StoreStatus['upgraded'] = null;
       let writeBack = false;
       if (result.migratedFrom !== null) {
@@ -708,8 +754,8 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
         savingPaused: false,
         upgraded,
       });
-      if (writeBack) requestSave(spec.key);
-      return { state: result.data, version: spec.version };
+      if (writeBack || restored !== null) requestSave(spec.key);
+      return { state: data, version: spec.version };
     },
     setItem(_name: string, value: StorageValue<D>): void {
       const st = syncOf(spec);
@@ -723,6 +769,31 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
       /* never called by Blendbench: stored work is only replaced, never deleted */
     },
   };
+}
+
+/**
+ * At a start: the records of this tab's leave copy (leave-copy.ts) committed later than what IndexedDB
+ * holds, put into `stored` (the stored data just read into `st`); null when none is taken. The copy is
+ * removed once read; the records taken count as this tab's unsaved commits, so the store's next save
+ * writes them through (and a page left again at once copies them again). A result the store's schema
+ * refuses is not used.
+ */
+function takeLeaveCopy<D>(spec: StoreSpec<D>, st: SyncState, stored: D): D | null {
+  const copy = readLeaveCopy(spec.key);
+  if (copy === null) return null;
+  writeLeaveCopy(spec.key, null);
+  if (copy.version !== spec.version || !schemasModule) return null;
+  const { set, taken } = applyCopy(st.mine, copy);
+  const local = copy.local && isRecord(stored) ? { ...stored, ...copy.local } : stored;
+  if (taken.length === 0 && local === stored) return null;
+  const parsed = spec.schema(schemasModule).safeParse(joinRecords(set.records, st.layout, local));
+  if (!parsed.success) return null;
+  const data = parsed.data;
+  st.latest = data;
+  st.mine = { records: splitRecords(data, st.layout), stamps: set.stamps, gone: set.gone };
+  // Blank records taken (a first QC entry's blank fields) are copied again if the page leaves again at once.
+  for (const k of taken) if (!(k in set.stamps) && !(k in set.gone)) st.blankNew.add(k);
+  return data;
 }
 
 /**

@@ -113,8 +113,18 @@ describe('recipe designer', () => {
     await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
     await page.reload(); // at once: no wait for the draft's save
     await page.getByRole('heading', { name: 'Recipe designer' }).waitFor();
+    // The draft is back with the notice that says so (the tab's leave copy in sessionStorage is read at
+    // the start, s23): the share is read once, not polled.
     await page.getByText(/Restored the draft from your last session/).waitFor();
-    await expect.poll(() => page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
+    expect(await page.getByLabel(label, { exact: true }).innerText()).toBe('7.00');
+    // Written through to IndexedDB, and the tab's copy removed.
+    await expect
+      .poll(async () => {
+        const ws = (await stored(page, 'workspace')) as { state: { drafts: Record<string, { lines: Array<{ massFraction: number }> }> } };
+        return Object.values(ws.state.drafts).some((d) => d.lines.some((l) => Math.abs(l.massFraction - 0.07) < 1e-9));
+      })
+      .toBe(true);
+    expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith('blendbench.unsaved.')))).toEqual([]);
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });

@@ -108,6 +108,40 @@ describe('saved work', () => {
   }, 240_000);
 });
 
+describe('a reload at once after an entry (s23 item 1)', () => {
+  let s: Session | null = null;
+  afterEach(async () => {
+    await s?.close();
+    s = null;
+  });
+
+  it('a Stocks cell and a line-plan input committed just before a reload are there after it, and saved', async () => {
+    s = await launch();
+    const page = s.page;
+    await openLibrary(page);
+    await expect.poll(() => storedStockCount(page)).toBe(29); // the invented demo is saved
+    const field = await editCell(page, 'Name of BW-190', { exact: true });
+    await field.fill('Renamed just before the reload');
+    await field.press('Enter');
+    await page.reload(); // at once: no wait for the save
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    await expect.poll(() => cellValue(page, 'Name of BW-190', { exact: true })).toBe('Renamed just before the reload');
+    await expect.poll(async () => (await storedNames(page)).find((c) => c.code === 'BW-190')?.name).toBe('Renamed just before the reload');
+
+    await page.goto(`${inject('baseURL')}#/line-plan`);
+    await page.getByRole('heading', { name: 'Whole-line plan', level: 2 }).waitFor();
+    const supply = page.getByLabel('Supply of BW-190');
+    await supply.fill('250');
+    await supply.press('Enter');
+    await page.reload(); // at once
+    await page.getByRole('heading', { name: 'Whole-line plan', level: 2 }).waitFor();
+    await expect.poll(() => page.getByLabel('Supply of BW-190').inputValue()).toBe('250');
+    await expect.poll(() => page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith('blendbench.unsaved.')))).toEqual([]);
+    expect(s.offHost).toEqual([]);
+    expect(s.errors).toEqual([]);
+  });
+});
+
 describe('two tabs (item 4)', () => {
   let s: Session | null = null;
   afterEach(async () => {
