@@ -69,8 +69,14 @@ export function fractions(x: Float64Array, nv: number, out?: Float64Array): Floa
   return w;
 }
 
-/** Blend X40 and X100 of fractions over ctx.vars. */
-export function blendX(P: PreparedProblem, vars: readonly number[], w: Float64Array): { x40: number; x100: number } {
+/** The blend's X40 and X100 of the last {@link blendX} call (module scratch: the core is synchronous). */
+const BX = { x40: Number.NaN, x100: Number.NaN };
+
+/**
+ * Blend X40 and X100 of fractions over ctx.vars (Σ cᵢwᵢXᵢ / Σ cᵢwᵢ), as a module object that the
+ * next call overwrites (read both numbers before the next call; no object per call).
+ */
+export function blendX(P: PreparedProblem, vars: readonly number[], w: Float64Array): { readonly x40: number; readonly x100: number } {
   let sc = 0;
   let s40 = 0;
   let s100 = 0;
@@ -81,7 +87,9 @@ export function blendX(P: PreparedProblem, vars: readonly number[], w: Float64Ar
     s40 += cw * P.x40[i]!;
     s100 += cw * P.x100[i]!;
   }
-  return { x40: s40 / sc, x100: s100 / sc };
+  BX.x40 = s40 / sc;
+  BX.x100 = s100 / sc;
+  return BX;
 }
 
 /** ν40, ν100 [mm²/s] and VI of the last {@link viOf} call (module scratch: the core is synchronous). */

@@ -119,6 +119,21 @@ function seenBefore(src: readonly PlainComponent[], i: number, ids: Set<string> 
   return false;
 }
 
+/**
+ * An array for n components, every slot written by the caller (`preparePlain` writes each one or
+ * throws). Sized once: a literal for the common sizes of a plain problem (an array grown by push
+ * from empty reserves 16 slots at the first push, 104 bytes of garbage per three-stock problem),
+ * pushes otherwise; packed object elements either way.
+ */
+function componentList(n: number): EngineComponent[] {
+  const none = null as unknown as EngineComponent;
+  if (n === 3) return [none, none, none];
+  if (n === 4) return [none, none, none, none];
+  const list: EngineComponent[] = [];
+  for (let i = 0; i < n; i++) list.push(none);
+  return list;
+}
+
 /** Re-raise a core error with the component's index in its field name. */
 function inComponent<T>(i: number, f: () => T): T {
   return inField(`components[${i}].`, f, { keep: (field) => field.startsWith('components[') });
@@ -153,7 +168,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
   // the fast path — this function runs once per solve in the substitute search).
   const src = p.components;
   const ids = src.length > SMALL_PROBLEM ? new Set<string>() : null;
-  const comps: EngineComponent[] = [];
+  const comps = componentList(src.length);
   for (let i = 0; i < src.length; i++) {
     const c = src[i]!;
     if (typeof c.id !== 'string' || c.id === '') {
@@ -194,7 +209,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       throw new FractionSumError(f, min, `${fn}: ${f} = ${min} is above maxMassFraction = ${max}`);
     }
     if (c.kv40RelSd !== undefined) assertRelSd(fn, fieldOf(i, 'kv40RelSd'), c.kv40RelSd);
-    comps.push({
+    comps[i] = {
       id: c.id,
       label: c.id,
       kv40,
@@ -212,7 +227,7 @@ export function preparePlain(p: PlainProblem, fn = 'solveBlendPlain'): PreparedP
       fixedAdditive: false,
       usable: true,
       kv40RelSd: c.kv40RelSd ?? 0,
-    });
+    };
   }
   assertViscosity(fn, 'targetKv40', p.targetKv40);
   assertFinite(fn, 'tolerancePct', p.tolerancePct);

@@ -155,6 +155,14 @@ export function planeLp3Row(x: number, y: number, z: number, hasLo: boolean, has
 }
 
 /**
+ * The normalisation row d and the objective c of the LP to solve, as d₀, d₁, d₂, c₀, c₁, c₂
+ * (module memory, written by {@link planeLp3Solve} or straight by a caller of
+ * {@link planeLp3SolveWritten}). Passed this way rather than as six arguments: a call that is
+ * not inlined passes each number argument boxed as a heap number (six allocations per LP).
+ */
+export const PLANE_LP3_DC = new Float64Array(6);
+
+/**
  * Solve over the planes written since {@link planeLp3Begin}: minimise (or maximise) c·y on
  * d·y = 1 (every dⱼ > 0; a one-sided d·y ≥ 1 only when minimising with c ≥ 0, which the caller
  * checks). Same answer, and the same null, as {@link solvePlaneLp3} on the same rows.
@@ -168,6 +176,21 @@ export function planeLp3Solve(
   c1: number,
   c2: number,
 ): LpSolution | null {
+  const dc = PLANE_LP3_DC;
+  dc[0] = d0;
+  dc[1] = d1;
+  dc[2] = d2;
+  dc[3] = c0;
+  dc[4] = c1;
+  dc[5] = c2;
+  return planeLp3SolveWritten(sense);
+}
+
+/** {@link planeLp3Solve} with d and c already written to {@link PLANE_LP3_DC}. */
+export function planeLp3SolveWritten(sense: 'minimize' | 'maximize'): LpSolution | null {
+  const dc = PLANE_LP3_DC;
+  const d0 = dc[0]!, d1 = dc[1]!, d2 = dc[2]!;
+  const c0 = dc[3]!, c1 = dc[4]!, c2 = dc[5]!;
   // (Module arrays read into locals: the loops below then load no module binding.)
   const N = normals;
   const kind = kinds;
