@@ -24,9 +24,13 @@
  * Times are CPU time of this process (the machine is shared), each side's fastest of 25 rounds
  * (the same rule for every side; the sides take turns round by round, so a burst of load from other
  * work falls on all of them alike), all sides measured in the same run: compare the ratios, not the
- * absolute times, across runs. Problems are random but seeded (the same every run); stocks are
+ * absolute times, across runs. Each round starts with the young generation collected (untimed), and
+ * the solver's rounds end with a timed collection of their own garbage (see {@link cpuMs}): no side
+ * pays for another's garbage, and the solver pays for all of its own. Problems are random but seeded (the same every run); stocks are
  * invented around generic typicals (from memory, tests/reference/base-stock-typicals.md).
  */
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { refutasVbn } from '../src/core/blending/refutas';
 import { viscosityIndexUnchecked } from '../src/core/viscosity/viscosity-index';
 import { blendCoordinates } from '../src/core/solver/coordinates';
@@ -208,10 +212,27 @@ export function gridSearch(p: PlainProblem): number | null {
   return Number.isFinite(best) ? best : null;
 }
 
-/** CPU time of this process spent in f [ms] (user + system). */
-function cpuMs(f: () => void): number {
+/**
+ * A minor garbage collection (V8's scavenge of the young generation). Node exposes `gc` only with
+ * --expose-gc; the flag set at run time makes it available to a new context.
+ */
+setFlagsFromString('--expose-gc');
+const minorGc = runInNewContext('gc') as (options: { type: 'minor' }) => void;
+
+/**
+ * CPU time of this process spent in f [ms] (user + system). Every round starts with the young
+ * generation collected, untimed, so that no side pays for collecting what the side before it left
+ * (HiGHS's JavaScript glue leaves model and result objects there, whose copying fell on the next
+ * side that allocates — the solver's round, by 0.05–0.1 µs per 3-stock problem; the grid
+ * allocates almost nothing in its loops). With `ownGarbage` the round also ends with a timed
+ * collection, so that it pays for all the garbage it made (the solver's sides; a collection costs
+ * 0.05–0.08 ms, so this errs against the solver).
+ */
+function cpuMs(f: () => void, ownGarbage = false): number {
+  minorGc({ type: 'minor' });
   const c0 = process.cpuUsage();
   f();
+  if (ownGarbage) minorGc({ type: 'minor' });
   const c = process.cpuUsage(c0);
   return (c.user + c.system) / 1000;
 }
@@ -328,13 +349,13 @@ export async function run(): Promise<BenchLine[]> {
           fullMs,
           cpuMs(() => {
             for (let q = 0; q < REPEAT; q++) for (const p of problems) solvePrepared(preparePlain(p));
-          }) / REPEAT,
+          }, true) / REPEAT,
         );
         solveMs = Math.min(
           solveMs,
           cpuMs(() => {
             for (let q = 0; q < REPEAT; q++) for (const P of prepared) solvePrepared(P);
-          }) / REPEAT,
+          }, true) / REPEAT,
         );
         highsMs = Math.min(highsMs, cpuMs(runHighs));
       }
