@@ -156,11 +156,12 @@ export function planeLp3Row(x: number, y: number, z: number, hasLo: boolean, has
 
 /**
  * The normalisation row d and the objective c of the LP to solve, as d₀, d₁, d₂, c₀, c₁, c₂
- * (module memory, written by {@link planeLp3Solve} or straight by a caller of
- * {@link planeLp3SolveWritten}). Passed this way rather than as six arguments: a call that is
- * not inlined passes each number argument boxed as a heap number (six allocations per LP).
+ * (module memory, written by {@link planeLp3Solve}). Handed to the solving function this way
+ * rather than as six arguments: a call that is not inlined passes each number argument boxed as a
+ * heap number (six allocations per LP), and `planeLp3Solve`, which only writes them, is small
+ * enough to be inlined where it is called.
  */
-export const PLANE_LP3_DC = new Float64Array(6);
+const PLANE_LP3_DC = new Float64Array(6);
 
 /**
  * Solve over the planes written since {@link planeLp3Begin}: minimise (or maximise) c·y on
@@ -187,7 +188,7 @@ export function planeLp3Solve(
 }
 
 /** {@link planeLp3Solve} with d and c already written to {@link PLANE_LP3_DC}. */
-export function planeLp3SolveWritten(sense: 'minimize' | 'maximize'): LpSolution | null {
+function planeLp3SolveWritten(sense: 'minimize' | 'maximize'): LpSolution | null {
   const dc = PLANE_LP3_DC;
   const d0 = dc[0]!, d1 = dc[1]!, d2 = dc[2]!;
   const c0 = dc[3]!, c1 = dc[4]!, c2 = dc[5]!;

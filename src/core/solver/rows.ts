@@ -7,7 +7,7 @@ import { groupOn, type PreparedProblem, type ConstraintGroup } from './prepared'
 import { closestForms, type EngineObjective, type ExtraRow } from './objectives';
 import type { ViBoundary, ViChord } from './vi-boundary';
 import { LpWorkspace, beginWrittenTableau, noteDenseLp, observingDenseLps, solveDenseLp, solveWrittenTableau, type LpSolution } from './lp';
-import { PLANE_LP3_DC, planeLp3Begin, planeLp3Row, planeLp3SolveWritten, solvePlaneLp3 } from './plane-lp3';
+import { planeLp3Begin, planeLp3Row, planeLp3Solve, solvePlaneLp3 } from './plane-lp3';
 
 /** What one solve switches on. */
 export interface SolveContext {
@@ -408,14 +408,7 @@ function solveNodeLp3Direct(ctx: SolveContext, a: number, b: number, bandRows: b
     const v2 = Number.isNaN(ap[i2]!) ? 0 : 0.1 * inv[i2]! * (ap[i2]! - apMax);
     planeLp3Row(v0, v1, v2, false, true);
   }
-  const dc = PLANE_LP3_DC;
-  dc[0] = d0;
-  dc[1] = d1;
-  dc[2] = d2;
-  dc[3] = c0;
-  dc[4] = c1;
-  dc[5] = c2;
-  return planeLp3SolveWritten(objective.sense);
+  return planeLp3Solve(objective.sense, d0, d1, d2, c0, c1, c2);
 }
 
 /** Whether the simplex tableau of other node LPs is written directly (see {@link useDirectTableau}). */
