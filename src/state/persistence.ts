@@ -371,6 +371,18 @@ interface Queue {
   resolveIdle: (() => void) | null;
 }
 const queues = new Map<StoreKey, Queue>();
+
+// The save queue's state, on the page's root element for tests and tools (s23 item 2): a test waits for
+// `data-save-commits` to count its edit (the edit reached the stores' storage, where a save would be
+// asked for) and `data-save-state` to read "idle" (no save under way) instead of sleeping. Attributes,
+// not store state: nothing re-renders.
+let commitsHandled = 0;
+function markSaves(): void {
+  if (typeof document === 'undefined' || !document.documentElement) return;
+  const root = document.documentElement;
+  root.dataset.saveState = [...queues.values()].some((q) => q.running) ? 'saving' : 'idle';
+  root.dataset.saveCommits = String(commitsHandled);
+}
 /** Stores whose last save failed; retried once another save succeeds. */
 const failedSaves = new Set<StoreKey>();
 
@@ -532,6 +544,7 @@ async function drain(key: StoreKey, q: Queue): Promise<void> {
   q.running = false;
   q.resolveIdle?.();
   q.resolveIdle = null;
+  markSaves();
 }
 
 /** Save this store (merging with what other tabs saved); coalesced while a save is running. */
@@ -547,6 +560,7 @@ function requestSave(key: StoreKey): void {
     q.running = true;
     const queue = q;
     q.idle = new Promise((r) => (queue.resolveIdle = r));
+    markSaves();
     void drain(key, q);
   }
 }
@@ -762,8 +776,10 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
       const status = useStorageStatus.getState().stores[spec.key];
       if (status.phase !== 'ready') return;
       commit(st, value.state);
-      if (status.savingPaused || st.applying) return;
+      commitsHandled++;
+      if (status.savingPaused || st.applying) return markSaves();
       requestSave(spec.key);
+      markSaves();
     },
     removeItem(): void {
       /* never called by Blendbench: stored work is only replaced, never deleted */

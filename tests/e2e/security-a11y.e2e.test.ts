@@ -59,8 +59,8 @@ async function tabTo(page: Page, role: 'link' | 'button' | 'checkbox', name: Reg
     });
     if (focused && focused.role === role && name.test(focused.name) && !focused.disabled) return;
     if (focused) seen.push(`${focused.role} “${focused.name.slice(0, 40)}”`);
-    // After a full lap with nothing found, wait a little for content still loading.
-    if (i > 0 && i % 150 === 0) await page.waitForTimeout(250);
+    // After a full lap with nothing found, wait for content still loading (no placeholder left).
+    if (i > 0 && i % 150 === 0) await settled(page);
     await page.keyboard.press(direction === 'forward' ? 'Tab' : 'Shift+Tab');
   }
   throw new Error(`keyboard: no ${role} named ${name} reached by ${direction === 'forward' ? 'Tab' : 'Shift+Tab'}; last focused: ${seen.slice(-6).join(', ')}`);

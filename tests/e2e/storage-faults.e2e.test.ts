@@ -11,7 +11,7 @@
 import { afterEach, describe, expect, inject, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { launch, screenshot, type Session, stored, cellValue, editCell } from './support';
+import { launch, screenshot, type Session, stored, cellValue, editCell, saveSignal, savesSettled } from './support';
 import { axeSerious } from './axe';
 
 const QUOTA_STUB = `(() => {
@@ -135,8 +135,9 @@ describe('storage faults', () => {
     expect(await axeSerious(page), 'with the unusable-copy message').toEqual([]);
     // The unusable copy is kept aside, and an edit in this tab does not overwrite it.
     expect(((await stored(page, 'library.unusable-copy')) as { raw: unknown }).raw).toEqual(corrupt);
+    const before = (await saveSignal(page)).commits;
     await rename(page, 'BW-190', 'Edit while saving is paused');
-    await page.waitForTimeout(300); // give a (wrong) save the chance to happen
+    await savesSettled(page, before); // the edit reached the storage layer, and no save is under way
     expect(await stored(page, 'library')).toEqual(corrupt);
 
     // The user can download the unusable copy …
@@ -179,8 +180,9 @@ describe('storage faults', () => {
     await alert.waitFor();
     await expect.poll(() => alert.innerText()).toMatch(/newer version of Blendbench \(schema 99/);
     await screenshot(page, 'storage-newer-schema');
+    const before = (await saveSignal(page)).commits;
     await rename(page, 'BW-190', 'Edit in the older app');
-    await page.waitForTimeout(300);
+    await savesSettled(page, before);
     expect(await stored(page, 'library')).toEqual(newer);
     expect(s.errors).toEqual([]);
   });

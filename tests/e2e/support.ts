@@ -1,5 +1,6 @@
 // Shared helpers for end-to-end tests: Debian chromium via playwright-core, a fresh profile per
 // launch, a guard that records every request leaving 127.0.0.1 and every console error.
+import { expect } from 'vitest';
 import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { mkdtempSync, mkdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -124,4 +125,25 @@ export async function cellValue(page: Page, label: string | RegExp, opts: { exac
         ? el.value
         : (el.firstElementChild?.textContent ?? el.textContent ?? ''),
     );
+}
+
+/** The save queue's signal on the page's root element (src/state/persistence.ts `markSaves`). */
+export async function saveSignal(page: Page): Promise<{ state: string | null; commits: number }> {
+  return page.evaluate(() => ({
+    state: document.documentElement.dataset.saveState ?? null,
+    commits: Number(document.documentElement.dataset.saveCommits ?? 0),
+  }));
+}
+
+/**
+ * Wait until an edit made after `before` (a `saveSignal(page).commits`) has reached the stores' storage
+ * — where a save is asked for — and no save is under way: what is stored now is what that edit left.
+ */
+export async function savesSettled(page: Page, before: number): Promise<void> {
+  await expect
+    .poll(async () => {
+      const now = await saveSignal(page);
+      return now.commits > before && now.state === 'idle';
+    })
+    .toBe(true);
 }

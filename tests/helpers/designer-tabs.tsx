@@ -6,6 +6,7 @@
 import { IDBFactory } from 'fake-indexeddb';
 import { afterEach, beforeEach, vi } from 'vitest';
 import { act, cleanup, render, within } from '@testing-library/react';
+import { settleTabs } from './settle';
 
 /** The sessionStorage key holding a tab's draft key (src/state/tab-draft.ts). */
 export const DRAFT_KEY = 'blendbench.draft-key';
@@ -73,10 +74,7 @@ export function designerTabHooks(): void {
 
 /** Every open tab has saved and heard of the others' saves. */
 export async function settleDesignerTabs(): Promise<void> {
-  for (let i = 0; i < 6; i++) {
-    await Promise.all(open.map((t) => t.persistence.whenSaved()));
-    await new Promise((r) => setTimeout(r, 30));
-  }
+  await settleTabs(open);
 }
 
 /** An invented hand edit of the first share of a tab's draft (by `delta`, a mass fraction), and a name for it. */

@@ -8,6 +8,7 @@ import { interpretStored, loadSchemas } from '../../src/state/persistence';
 import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { RecipeChangedError, RecipeVersionUnknownError, UNKNOWN_VERSION, defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
 import { BLANK_SPECIFICATION } from '../../src/core/formulation/model';
+import { clockPast } from '../helpers/settle';
 import { stockBasisChanges } from '../../src/core/recipes/stock-basis';
 
 const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === id)!;
@@ -26,7 +27,7 @@ describe('recipe lifecycle', () => {
   it('does not save a draft over a version saved after the edits began (two tabs, s19 defect hunt)', async () => {
     const id = recipeActions.duplicateRecipe('demo-vg320')!;
     const began = get(id).updatedAt;
-    await new Promise((r) => setTimeout(r, 2)); // the next save carries a later stamp (ms)
+    await clockPast(); // the next save carries a later stamp (ms)
     expect(recipeActions.saveChanges(id, { name: 'Renamed in the other tab' }, '', began)).toBe(id);
     const theirs = structuredClone(get(id));
     const lines = theirs.lines.map((l) => ({ ...l }));

@@ -4,6 +4,7 @@
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { clockPast, settleTabs } from '../helpers/settle';
 
 type StateModule = typeof import('../../src/state');
 type PersistenceModule = typeof import('../../src/state/persistence');
@@ -24,13 +25,8 @@ async function openTab(): Promise<Tab> {
   return tab;
 }
 
-/** Wait until both tabs have nothing left to save and every broadcast has been handled. */
-async function settle(tabs: Tab[]): Promise<void> {
-  for (let i = 0; i < 6; i++) {
-    await Promise.all(tabs.map((t) => t.persistence.whenSaved()));
-    await new Promise((r) => setTimeout(r, 30));
-  }
-}
+/** Wait until both tabs have nothing left to save and hold what is stored (every broadcast handled). */
+const settle = (tabs: Tab[]) => settleTabs(tabs);
 
 beforeEach(() => {
   for (const t of open.splice(0)) t.state.resetStartForTests();
@@ -70,7 +66,7 @@ describe('two tabs committing at once', () => {
     const b = await openTab();
     const id = 'demo-bw-190';
     a.state.libraryActions.updateComponent(id, { name: 'from A (earlier)' });
-    await new Promise((r) => setTimeout(r, 5));
+    await clockPast(); // the next commit carries a later stamp
     b.state.libraryActions.updateComponent(id, { name: 'from B (later)' });
     await settle([a, b]);
     expect(names(a).get(id)).toBe('from B (later)');
@@ -164,7 +160,7 @@ describe('two tabs editing the QC loop of one recipe at once (s21 item 2)', () =
     const r = a.state.useRecipes.getState().recipes[0]!;
     const heel = a.state.DEFAULT_QC_INPUTS.heel;
     a.state.recipeActions.setQcInputs(r.id, { heel: { ...heel, massKg: 900 } });
-    await new Promise((res) => setTimeout(res, 5));
+    await clockPast(); // the next commit carries a later stamp
     b.state.recipeActions.setQcInputs(r.id, { heel: { ...heel, massKg: 950 } });
     await settle([a, b]);
     expect(a.state.useRecipes.getState().qc[r.id]!.heel.massKg).toBe(950);
@@ -234,7 +230,7 @@ describe('two tabs making the first QC entries of one batch in the same millisec
     a.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: 900 } });
     await settle([a, b]);
     b.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: 950 } });
-    await new Promise((r) => setTimeout(r, 5));
+    await clockPast(); // the next commit carries a later stamp
     a.state.recipeActions.setQcInputs(id, { heel: { ...heel, massKg: null } }); // cleared later, before hearing of B
     await settle([a, b]);
     const c = await openTab();

@@ -8,6 +8,7 @@ import { StrictMode } from 'react';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { createStore, get as idbGet, set as idbSet } from 'idb-keyval';
+import { clockPast } from '../../helpers/settle';
 
 type StateModule = typeof import('../../../src/state');
 let previous: StateModule | null = null;
@@ -110,7 +111,7 @@ describe('Designer draft across a reload', () => {
     await a.persistence.whenSaved();
     expect(a.state.useWorkspaceStore.getState().drafts[a.state.ownDraftKey()]?.basedOn).toEqual({ updatedAt: began.updatedAt });
     // Another tab saves the same draft after this tab's edits began (merged into the stored recipes).
-    await new Promise((r) => setTimeout(r, 2)); // a later stamp (ms)
+    await clockPast(); // a later stamp (ms)
     act(() => void a.state.recipeActions.saveChanges(copy, { name: 'Saved in the other tab' }, ''));
     await a.persistence.whenSaved();
     const theirs = structuredClone(a.state.useRecipes.getState().recipes.find((r) => r.id === copy)!);

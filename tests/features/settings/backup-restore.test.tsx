@@ -25,9 +25,8 @@ describe('restoring a backup on the Settings screen', () => {
     const stocksNow = useLibrary.getState().components.length;
     render(<SettingsScreen />);
     const input = screen.getByLabelText(/Import a backup/) as HTMLInputElement;
-    await act(async () => {
+    act(() => {
       fireEvent.change(input, { target: { files: [new File([text], 'old.json', { type: 'application/json' })] } });
-      await new Promise((r) => setTimeout(r, 20));
     });
     fireEvent.click(await screen.findByRole('button', { name: 'Replace everything with this backup' }));
     expect(useSettingsState.getState().settings.currencySymbol).toBe('€');
