@@ -122,7 +122,11 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
   const threshold = options.threshold ?? 200;
   const estimatePx = options.estimatePx ?? 34;
   const overscanPx = options.overscanPx ?? 600;
-  const [body, setBody] = useState<HTMLTableSectionElement | null>(null);
+  // The table body, read by the effects below (a ref, not state: attaching it does not render the screen again).
+  const body = useRef<HTMLTableSectionElement | null>(null);
+  const bodyRef = useCallback((el: HTMLTableSectionElement | null) => {
+    body.current = el;
+  }, []);
   const heights = useRef(new Map<string, number>());
   const typical = useRef(estimatePx);
   const [view, setView] = useState({ top: 0, bottom: typeof window === 'undefined' ? 900 : window.innerHeight });
@@ -153,12 +157,12 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
   const frame = useRef(0);
   const readView = useCallback(() => {
     frame.current = 0;
-    if (!body) return;
-    const r = body.getBoundingClientRect();
+    if (!body.current) return;
+    const r = body.current.getBoundingClientRect();
     const top = -r.top;
     const bottom = top + window.innerHeight;
     setView((v) => (Math.abs(v.top - top) < 1 && Math.abs(v.bottom - bottom) < 1 ? v : { top, bottom }));
-  }, [body]);
+  }, []);
   useEffect(() => {
     if (!windowed) return;
     const schedule = () => {
@@ -190,9 +194,9 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
   // Measure the drawn rows once laid out; a changed height moves the window (next frame).
   const [measured, setMeasured] = useState(0);
   useLayoutEffect(() => {
-    if (!body || !windowed) return;
+    if (!body.current || !windowed) return;
     let changed = false;
-    for (const tr of body.querySelectorAll<HTMLTableRowElement>(`tr[${ROW_KEY_ATTR}]`)) {
+    for (const tr of body.current.querySelectorAll<HTMLTableRowElement>(`tr[${ROW_KEY_ATTR}]`)) {
       const key = tr.getAttribute(ROW_KEY_ATTR)!;
       let h = tr.getBoundingClientRect().height;
       const next = tr.nextElementSibling;
@@ -212,8 +216,8 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
   // Opening draw: enough rows to reach the window's bottom, counted after layout (before the paint);
   // where nothing is laid out (no layout engine) every row at once.
   useLayoutEffect(() => {
-    if (!staged || !body) return;
-    const drawn = body.querySelectorAll<HTMLTableRowElement>(`tr[${ROW_KEY_ATTR}]`);
+    if (!staged || !body.current) return;
+    const drawn = body.current.querySelectorAll<HTMLTableRowElement>(`tr[${ROW_KEY_ATTR}]`);
     const last = drawn[drawn.length - 1];
     const bottom = last?.getBoundingClientRect().bottom ?? 0;
     const height = last?.getBoundingClientRect().height ?? 0;
@@ -249,5 +253,5 @@ export function useRowWindow(keys: readonly string[], pinnedKeys: readonly (stri
     // `measured` stands for the heights read after layout.
   }, [staged, inView, estimatePx, windowed, keys, view, overscanPx, pinned, measured]);
 
-  return { windowed: windowed || staged, segments, bodyRef: setBody };
+  return { windowed: windowed || staged, segments, bodyRef };
 }
