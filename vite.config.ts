@@ -3,12 +3,14 @@ import react from '@vitejs/plugin-react';
 import { compileHints, openingPreloads } from './scripts/compile-hints';
 
 const OPENING_SCREEN = /[\\/]features[\\/]library[\\/]LibraryScreen\.tsx$/;
+// The addresses that open it: the bare page and #/library (src/app/screens.ts).
+const OPENING_IDS = ['', 'library'];
 
 // Blendbench runs fully offline: no CDN, no web fonts, no runtime requests.
 export default defineConfig({
   // The opening screen's chunks are compiled off the main thread (scripts/compile-hints.ts).
-  // They are linked in the page as modulepreload, fetched as the page is parsed.
-  plugins: [react(), compileHints(OPENING_SCREEN), openingPreloads(OPENING_SCREEN)],
+  // When the page opens on that screen, a small script of the page links them as modulepreload.
+  plugins: [react(), compileHints(OPENING_SCREEN), openingPreloads(OPENING_SCREEN, OPENING_IDS)],
   base: './',
   worker: { format: 'es' },
   build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 900 },

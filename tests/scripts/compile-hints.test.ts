@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chunksCalledOnLoad, openingPreloadTags, type ChunkInfo } from '../../scripts/compile-hints';
+import { chunksCalledOnLoad, openingPreloadHrefs, openingPreloadScript, withOpeningPreloadScript, type ChunkInfo } from '../../scripts/compile-hints';
 
 const chunk = (fileName: string, imports: string[] = [], facadeModuleId: string | null = null, isEntry = false): ChunkInfo => ({ fileName, isEntry, facadeModuleId, imports });
 const OPENING = /[\\/]features[\\/]library[\\/]LibraryScreen\.tsx$/;
@@ -25,8 +25,8 @@ describe('chunksCalledOnLoad', () => {
   });
 });
 
-describe('openingPreloadTags', () => {
-  it('links the opening screen and its chunks that the page does not load already, and nothing else', () => {
+describe('openingPreloadHrefs', () => {
+  it('names the opening screen and its chunks that the page does not load already, and nothing else', () => {
     const chunks = [
       chunk('assets/index.js', ['assets/runtime.js'], '/app/index.html', true),
       chunk('assets/runtime.js'),
@@ -36,9 +36,40 @@ describe('openingPreloadTags', () => {
       chunk('assets/charts.js'),
     ];
     const html = '<script type="module" crossorigin src="./assets/index.js"></script>\n<link rel="modulepreload" crossorigin href="./assets/runtime.js">';
-    expect(openingPreloadTags(html, chunks, OPENING, './').map((t) => t.attrs)).toEqual([
-      { rel: 'modulepreload', crossorigin: true, href: './assets/LibraryScreen.js' },
-      { rel: 'modulepreload', crossorigin: true, href: './assets/fields.js' },
-    ]);
+    expect(openingPreloadHrefs(html, chunks, OPENING, './')).toEqual(['./assets/LibraryScreen.js', './assets/fields.js']);
+  });
+});
+
+describe('openingPreloadScript', () => {
+  /** Runs the generated script on a page opened at `hash`; returns the hrefs it linked as modulepreload. */
+  function linked(hash: string): string[] {
+    const links: { rel: string; href: string; crossOrigin: string | null }[] = [];
+    const document = {
+      createElement: () => ({ rel: '', href: '', crossOrigin: null }),
+      head: { append: (l: (typeof links)[number]) => links.push(l) },
+    };
+    new Function('location', 'document', openingPreloadScript(['./assets/LibraryScreen.js', './assets/fields.js'], ['', 'library']))({ hash }, document);
+    for (const l of links) {
+      expect(l.rel).toBe('modulepreload');
+      expect(l.crossOrigin).toBe('');
+    }
+    return links.map((l) => l.href);
+  }
+
+  it('links the opening screen\'s chunks when the page opens on it: the bare page, #/library, #library', () => {
+    for (const hash of ['', '#', '#/', '#/library', '#library', '#/library?x=1']) expect(linked(hash), hash).toEqual(['./assets/LibraryScreen.js', './assets/fields.js']);
+  });
+
+  it('links nothing when the page opens on another screen', () => {
+    for (const hash of ['#/designer', '#/settings', '#/blend-sheet/print', '#/libraryx']) expect(linked(hash), hash).toEqual([]);
+  });
+});
+
+describe('withOpeningPreloadScript', () => {
+  it('puts the script (async, a file of its own) before the entry\'s module script', () => {
+    const html = '<head>\n    <title>t</title>\n    <script type="module" crossorigin src="./assets/index.js"></script>\n    <link rel="modulepreload" crossorigin href="./assets/runtime.js">\n  </head>';
+    const out = withOpeningPreloadScript(html, './assets/opening-preloads-0.js');
+    expect(out).toContain('<script async src="./assets/opening-preloads-0.js"></script>\n    <script type="module" crossorigin src="./assets/index.js"></script>');
+    expect(out.match(/<script\b/g)).toHaveLength(2);
   });
 });
