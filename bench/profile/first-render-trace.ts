@@ -8,7 +8,8 @@
  * bench/first-render.bench.ts does. For each load:
  * - a Chromium trace (devtools timeline categories) of the page's main thread up to the drawn
  *   frame, broken down by event kind into self thread time (script compile, script evaluation per
- *   chunk, style, layout, paint, GC, parsing …);
+ *   chunk, style, layout, paint, GC, parsing …; V8.CollectSourcePositions is the DevTools protocol's
+ *   own cost, see `traced`);
  * - a second cold load under the V8 CPU profiler: self time per source file (through the source
  *   maps) and the heaviest functions.
  * Prints medians over the loads.
@@ -77,13 +78,25 @@ function breakdown(events: Ev[]): { total: number; self: Map<string, number>; ta
   return { total, self, tasks };
 }
 
-async function traced(app: ServedApp): Promise<{ total: number; self: Map<string, number>; tasks: string[]; drawn: number }> {
+/**
+ * One traced cold load. `compile` adds V8's compile events: among them V8.CollectSourcePositions, V8
+ * re-parsing a function on the stack when a detailed stack trace is taken. The bench's browser is
+ * driven over the DevTools protocol, whose Runtime domain makes V8 take one for every Error created
+ * (React DOM creates five at module evaluation, inside its one 600 kB module function and under the
+ * entry chunk's): about 50 ms of the module evaluation that a browser without DevTools attached does
+ * not do (s23: a startup trace without the protocol, 9.7 ms of module evaluation, no re-parse).
+ * Left out of `--ab` (more events, more tracing overhead).
+ */
+async function traced(app: ServedApp, compile = false): Promise<{ total: number; self: Map<string, number>; tasks: string[]; drawn: number }> {
   const context = await app.newContext();
   try {
     await context.addInitScript(MARKER);
     const page = await context.newPage();
     await app.browser.startTracing(page, {
-      categories: ['toplevel', 'devtools.timeline', 'disabled-by-default-devtools.timeline', 'blink.user_timing', 'v8', 'v8.execute', 'blink', 'loading', 'disabled-by-default-v8.gc'],
+      categories: [
+        'toplevel', 'devtools.timeline', 'disabled-by-default-devtools.timeline', 'blink.user_timing', 'v8', 'v8.execute', 'blink', 'loading', 'disabled-by-default-v8.gc',
+        ...(compile ? ['disabled-by-default-v8.compile'] : []),
+      ],
     });
     await page.goto(app.url, { waitUntil: 'commit' });
     await page.waitForFunction(() => typeof (window as { __bbFirstRender?: number }).__bbFirstRender === 'number', null, { timeout: 30_000 });
@@ -154,7 +167,7 @@ async function report(app: ServedApp, dir: string, LOADS: number): Promise<void>
     const drawn: number[] = [];
     const selfs: Map<string, number>[] = [];
     for (let i = 0; i < LOADS; i++) {
-      const r = await traced(app);
+      const r = await traced(app, true);
       totals.push(r.total);
       drawn.push(r.drawn);
       selfs.push(r.self);
