@@ -84,7 +84,8 @@ function breakdown(events: Ev[]): { total: number; self: Map<string, number>; ta
  * driven over the DevTools protocol, whose Runtime domain makes V8 take one for every Error created
  * (React DOM creates five at module evaluation, inside its one 600 kB module function and under the
  * entry chunk's): about 50 ms of the module evaluation that a browser without DevTools attached does
- * not do (s23: a startup trace without the protocol, 9.7 ms of module evaluation, no re-parse).
+ * not do (s23: a startup trace without the protocol, 9.7 ms of module evaluation, no re-parse). The
+ * report shows it as V8.CollectSourcePositions and its children V8.ParseFunction and V8.PreParse.
  * Left out of `--ab` (more events, more tracing overhead).
  */
 async function traced(app: ServedApp, compile = false): Promise<{ total: number; self: Map<string, number>; tasks: string[]; drawn: number }> {
