@@ -2,7 +2,7 @@
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
 import { SheetFooter } from './SheetFooter';
 import { displayWords, formatFixed, type NumberDisplay } from '../../core/words/display';
-import { useId, useMemo, useState } from 'react';
+import { useId, useMemo, useRef, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendProperties } from '../../core/formulation/blend-properties';
@@ -157,6 +157,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const saved = recipe ? (props.sheetInputs ?? localInputs)[recipe.id] : undefined;
   const { batchSize, batchUnit, lot, vessel, instructions } = saved ?? DEFAULT_SHEET_INPUTS;
   // A typed value the field rules refuse stays in its field with the message; the stored value is kept.
+  /** Why the last print or export was not made (an entry on this screen was refused), or null. */
+  const [notSent, setNotSent] = useState<string | null>(null);
+  const screenRef = useRef<HTMLElement>(null);
   const [refused, setRefused] = useState<{ recipeId: string; field: TypedField; text: string; message: string } | null>(null);
   const draft = (field: TypedField, stored: string): string =>
     refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.text : stored;
@@ -401,14 +404,35 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       (heelKg > 0 ? `: heel ${fmt(heelKg, qd)} kg + additions ${fmt(sheet.totalKg, qd)} kg` : '')
     : '—';
 
+  /**
+   * A field of this screen (the sheet's own or the QC loop's) that holds a typed entry it refused: the
+   * sheet would print or export the last saved value under it, so nothing leaves until it is corrected
+   * or cleared. Says which field, and puts the cursor in it; null when every entry is saved.
+   */
+  const refuseUnsaved = (what: string): boolean => {
+    const bad = screenRef.current?.querySelector<HTMLElement>('[aria-invalid="true"]') ?? null;
+    if (!bad) {
+      setNotSent(null);
+      return false;
+    }
+    const label =
+      ((bad as HTMLInputElement).labels?.[0]?.textContent ?? bad.getAttribute('aria-label') ?? '').replace(/\s+/g, ' ').trim() || 'A field';
+    setNotSent(
+      `Not ${what}: “${label}” holds an entry that was not saved (the message beside it says why). Correct it or clear it first; ` +
+        'the sheet would otherwise show the last saved value, not what the field shows.',
+    );
+    bad.focus();
+    return true;
+  };
   const exportCsv = () => {
-    if (!sheet) return;
+    if (!sheet || refuseUnsaved('exported')) return;
     const text = toCsv(blendSheetCsvRows(sheet, { includePrices: costing, heel: { kg: heelKg, litres: heelLitres, description: qcIn.heel.source } }));
     const name = csvFileName(recipe.name, recipe.revision, lot);
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);
   };
   const printDocument = (doc: 'sheet' | 'correction') => {
+    if (refuseUnsaved('printed')) return;
     flushSync(() => setPrintDoc(doc));
     if (props.onPrint) props.onPrint(doc);
     else window.print();
@@ -416,7 +440,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const print = () => printDocument('sheet');
 
   return (
-    <section className="bs-screen" aria-labelledby={`${id}-h`} data-print={printDoc}>
+    <section ref={screenRef} className="bs-screen" aria-labelledby={`${id}-h`} data-print={printDoc}>
+      {/* Printed from the browser's menu while an entry is refused: this notice prints instead of the sheet. */}
+      <p className="print-page bs-unsaved-print">
+        Not printed: a field of the blend sheet screen holds an entry that was not saved. Correct it or clear it, then print again.
+      </p>
       {/* Every printed page names its product, grade, lot and batch, and says "Page n of m". */}
       <style>{pageRule(paper, { product: recipe.name, grade: recipe.grade, lot, batch: sheet ? batchText : '' })}</style>
       <div className="bs-controls bs-no-print">
@@ -464,6 +492,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             Export component table (CSV)
           </button>
         </div>
+        {notSent && (
+          <p className="bs-field-error" role="alert" data-testid="not-sent">
+            {notSent}
+          </p>
+        )}
         {held && (
           <div className="bs-hold-screen" role="alert" id={holdId}>
             <strong>{RELEASE_HOLD_LABEL}.</strong> This sheet will print with the hold and its reasons:

@@ -215,6 +215,33 @@ describe('Blend sheet — the QC loop', () => {
     expect(useRecipes.getState().qc['demo-vg320']?.heel.massKg ?? null).toBeNull();
   });
 
+  it('prints and exports nothing while a field shows an entry it refused (the sheet would carry the last saved value) (s23 defect hunt)', () => {
+    const print = vi.fn();
+    window.print = print;
+    render(<BlendSheetScreen />);
+    // a heel not below the 10 000 kg batch is refused where typed; the field keeps showing 12000
+    enter(/^Heel mass/, '2000');
+    enter(/^Heel mass/, '12000');
+    fireEvent.click(screen.getByRole('button', { name: /^Print/ }));
+    expect(print).not.toHaveBeenCalled();
+    expect(screen.getByTestId('not-sent').textContent).toMatch(/^Not printed: “Heel mass.*” holds an entry that was not saved/);
+    expect(document.activeElement).toBe(screen.getByLabelText(/^Heel mass/));
+    enter(/^Heel mass/, '2000');
+    // a batch size of 0 is refused on the sheet itself: no print, no CSV either
+    const size = screen.getByLabelText('Batch size', { selector: 'input' });
+    fireEvent.change(size, { target: { value: '0' } });
+    fireEvent.click(screen.getByRole('button', { name: /^Print/ }));
+    expect(print).not.toHaveBeenCalled();
+    expect(screen.getByTestId('not-sent').textContent).toMatch(/^Not printed: “Batch size” holds an entry/);
+    fireEvent.click(screen.getByRole('button', { name: /Export component table/ }));
+    expect(screen.getByTestId('not-sent').textContent).toMatch(/^Not exported: “Batch size”/);
+    // corrected: it prints, and the notice goes
+    fireEvent.change(size, { target: { value: '10000' } });
+    fireEvent.click(screen.getByRole('button', { name: /^Print/ }));
+    expect(print).toHaveBeenCalledOnce();
+    expect(screen.queryByTestId('not-sent')).toBeNull();
+  });
+
   it('says which recipe the printed predictions are for when the sheet charges a batch adjusted to lots and a heel (plant loop defect hunt)', () => {
     render(<BlendSheetScreen />);
     expect(screen.queryByTestId('qc-batch-note')).toBeNull();
