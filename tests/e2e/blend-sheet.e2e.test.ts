@@ -309,6 +309,52 @@ describe('blend sheet', () => {
     expect(s.errors).toEqual([]);
   });
 
+  it('prints a 200-character stock name without a space and 120-character lot and vessel inside the page, every quantity column kept, A4 and US Letter (s23 defect hunt)', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/settings`);
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    const download = page.waitForEvent('download');
+    await page.getByRole('button', { name: 'Export everything (backup file)' }).click();
+    type Backup = { sections: { library: { data: { components: { id: string; code: string; name: string }[] } } } };
+    const backup = JSON.parse(readFileSync((await (await download).path())!, 'utf8')) as Backup;
+    const stock = (id: string) => backup.sections.library.data.components.find((c) => c.id === id)!;
+    // The demo's short codes (a case above gives BW-190 a 40-character code, which wraps in its column).
+    stock('demo-bw-190').code = 'BW-190';
+    // The longest name the field rules allow, with no space to break at (invented text).
+    const name = 'Heavyneutralbasestockofaninventedrefinery'.repeat(5).slice(0, 200);
+    stock('demo-bw-160').name = name;
+    await page.getByLabel(/^Import a backup/).setInputFiles({ name: 'unbroken.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(backup)) });
+    await page.getByRole('button', { name: 'Replace everything with this backup' }).click();
+    await page.getByText(/^Restored unbroken\.json/).waitFor();
+    type Lib = { state: { components: { code: string; name: string }[] } } | undefined;
+    await expect.poll(async () => ((await stored(page, 'library')) as Lib)?.state.components.find((c) => c.code === 'BW-160')?.name).toBe(name);
+
+    const codes = await openSheet(page, 'demo-vg460');
+    await page.getByLabel('Batch / lot no.').fill(`L${'7'.repeat(119)}`);
+    await page.getByLabel('Vessel', { exact: true }).fill(`K${'3'.repeat(119)}`);
+    await page.getByLabel('Batch size', { exact: true }).fill('5000');
+    await page.getByText(/^5,?\u202f?000\.0 kg/).first().waitFor();
+    for (const [paper, format, width, height] of [
+      ['a4', 'A4', 595.92, 842.88], // A4 = 210 × 297 mm (ISO 216)
+      ['letter', 'Letter', 612, 792], // US Letter = 8.5 × 11 in = 612 × 792 pt (definition)
+    ] as const) {
+      await page.getByLabel('Paper').selectOption(paper);
+      const pdf = await printPdf(page, `blend-sheet-unbroken-name-${paper}`, format);
+      toPng(pdf, `blend-sheet-unbroken-name-${paper}`);
+      const boxes = execFileSync('pdftotext', ['-bbox', pdf, '-'], { encoding: 'utf8' });
+      const words = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">/g)].map((m) => m.slice(1).map(Number));
+      expect(words.length).toBeGreaterThan(100);
+      expect(words.filter(([x0, y0, x1, y1]) => x0! < 0 || y0! < 0 || x1! > width || y1! > height)).toEqual([]);
+      // Every quantity column is printed: the kg sum to the 5000.0 kg batch (largest remainder; common practice (no source)).
+      const rows = componentRows(pdfText(pdf), codes);
+      expect(Math.round(rows.reduce((a, r) => a + r.kg, 0) * 10)).toBe(50000);
+      expect(rows.at(-1)!.running).toBe(5000);
+      // The name wraps inside its column (pdftotext's layout interleaves it with the columns beside it).
+      expect(pdfText(pdf)).toContain(name.slice(0, 20));
+    }
+    expect(s.errors).toEqual([]);
+  });
+
   it('prints temperatures in °F when the settings say so, with the unit', async () => {
     const { page } = s;
     await page.goto(`${inject('baseURL')}#/settings`);

@@ -705,7 +705,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <tr className="bs-heel" data-testid="heel-row">
                   <td className="bs-num">0</td>
                   <th scope="row" className="bs-code">HEEL</th>
-                  <td>Heel already in the vessel{qcIn.heel.source.trim() ? ` (${qcIn.heel.source.trim()})` : ''}</td>
+                  <td className="bs-name">Heel already in the vessel{qcIn.heel.source.trim() ? ` (${qcIn.heel.source.trim()})` : ''}</td>
                   <td>in vessel</td>
                   <td className="bs-num">—</td>
                   <td className="bs-num">—</td>
@@ -727,7 +727,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <tr key={r.componentId}>
                   <td className="bs-num">{r.chargeOrder}</td>
                   <th scope="row" className="bs-code">{r.code}</th>
-                  <td>{r.name}</td>
+                  <td className="bs-name">{r.name}</td>
                   <td>{r.categoryLabel}</td>
                   {adjustedOk && <td className="bs-num">{fmt(savedPct.get(r.componentId) ?? 0, pd)}</td>}
                   <td className="bs-num">{fmt(r.massPct, pd)}</td>

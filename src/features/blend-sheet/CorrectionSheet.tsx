@@ -117,7 +117,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
               <tr key={a.code}>
                 <td className="bs-num">{i + 1}</td>
                 <th scope="row" className="bs-code">{a.code}</th>
-                <td>{p.names.get(a.code) ?? ''}</td>
+                <td className="bs-name">{p.names.get(a.code) ?? ''}</td>
                 <td className="bs-num bs-qty">{fmt(a.kg, 1)}</td>
                 <td className="bs-num">{fmt(running, 1)}</td>
                 <td className="bs-initials" />
