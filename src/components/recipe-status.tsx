@@ -21,7 +21,7 @@ export function StockChangeList({ changes }: { changes: readonly StockChange[] }
           <span className="code">{c.code}</span>:{' '}
           {c.kind === 'deleted'
             ? 'deleted from the library'
-            : c.fields.map((f) => `${f.property} ${value(f.from, f.unit)} → ${value(f.to, f.unit)}`).join('; ')}
+            : [...(c.codeWas !== undefined ? [`stock code ${c.codeWas} → ${c.code}`] : []), ...c.fields.map((f) => `${f.property} ${value(f.from, f.unit)} → ${value(f.to, f.unit)}`)].join('; ')}
         </li>
       ))}
     </ul>

@@ -164,6 +164,14 @@ describe('stock data recorded with a recipe (issue 10, item 14)', () => {
     expect(stockBasisChanges(get('demo-vg320').stockBasis, useLibrary.getState().components)).toEqual([]);
   });
 
+  it('flags a recipe whose stock was given another code after it was saved, with no data change (s23 defect hunt)', () => {
+    useLibrary.getState().updateComponent('demo-bw-160', { code: 'BW-169' });
+    const changes = stockBasisChanges(get('demo-vg460').stockBasis, useLibrary.getState().components);
+    expect(changes).toEqual([{ componentId: 'demo-bw-160', code: 'BW-169', kind: 'changed', fields: [], codeWas: 'BW-160' }]);
+    // The VG 680 recipe does not use BW-160: not flagged.
+    expect(stockBasisChanges(get('demo-vg680').stockBasis, useLibrary.getState().components)).toEqual([]);
+  });
+
   it('records the library as the stock basis of recipes saved before it was kept', () => {
     const id = recipeActions.addRecipe({ name: 'old', grade: 320, lines: [{ componentId: 'demo-bw-280', massFraction: 1 }] });
     expect(get(id).stockBasis).toBeNull();

@@ -71,8 +71,13 @@ export interface StockChange {
   componentId: string;
   /** Stock code now (or as recorded, when the stock was deleted). */
   code: string;
-  /** 'changed': data differ; 'deleted': the stock is no longer in the library. */
+  /** 'changed': data differ (or the code); 'deleted': the stock is no longer in the library. */
   kind: 'changed' | 'deleted';
+  /**
+   * The stock code as recorded, when the library's code differs ('changed' only): the sheet prints
+   * the code now, and the plant charges by code, so a renamed stock is said rather than printed silently.
+   */
+  codeWas?: string;
   /** The differing properties ('changed' only), in a fixed order. */
   fields: StockFieldChange[];
 }
@@ -82,7 +87,7 @@ export interface StockChange {
  *
  * @param basis - the recipe's stock basis (null → nothing recorded → no changes can be told)
  * @param components - the library now
- * @returns one entry per stock whose data differ or that was deleted, in snapshot order; empty
+ * @returns one entry per stock whose data or code differ or that was deleted, in snapshot order; empty
  *   when nothing changed
  * @example stockBasisChanges(recipe.stockBasis, lib) // → [{ code: 'BW-510', kind: 'changed', fields: [{ property: 'calibrated ν40', from: null, to: 7200, … }] }]
  */
@@ -113,7 +118,8 @@ export function stockBasisChanges(basis: StockBasis | null, components: readonly
     compare('aniline point', '°C', snap.anilinePoint, now.anilinePoint);
     compare('pour point', '°C', snap.pourPoint, now.pourPoint);
     compare('flash point', '°C', snap.flashPoint, now.flashPoint);
-    if (fields.length > 0) out.push({ componentId: c.id, code: c.code, kind: 'changed', fields });
+    const codeWas = snap.code !== c.code ? { codeWas: snap.code } : {};
+    if (fields.length > 0 || 'codeWas' in codeWas) out.push({ componentId: c.id, code: c.code, kind: 'changed', fields, ...codeWas });
   }
   return out;
 }

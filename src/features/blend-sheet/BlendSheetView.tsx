@@ -653,7 +653,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               .map((c) =>
                 c.kind === 'deleted'
                   ? `${c.code} deleted from the library`
-                  : `${c.code} ${c.fields.map((f) => `${f.property} ${changedValue(f.from, f.unit, display)} → ${changedValue(f.to, f.unit, display)}`).join(', ')}`,
+                  : `${c.code} ${[
+                      ...(c.codeWas !== undefined ? [`stock code ${c.codeWas} → ${c.code}`] : []),
+                      ...c.fields.map((f) => `${f.property} ${changedValue(f.from, f.unit, display)} → ${changedValue(f.to, f.unit, display)}`),
+                    ].join(', ')}`,
               )
               .join('; ')}
             . The predictions below use the current data; review the recipe.

@@ -81,6 +81,14 @@ describe('Blend sheet follows the temperature unit of the settings (second defec
     }
   });
 
+  it('says when a stock of the recipe was given another code since it was saved, old → new, as the sheet prints the code now (s23 defect hunt)', () => {
+    const id = useRecipes.getState().recipes.find((r) => r.id === 'demo-vg320')!.lines[0]!.componentId;
+    const old = useLibrary.getState().components.find((c) => c.id === id)!;
+    act(() => useLibrary.setState((st) => ({ components: st.components.map((c) => (c.id === id ? { ...c, code: 'BW-999' } : c)) })));
+    render(<BlendSheetScreen />);
+    expect(screen.getByTestId('stock-changed').textContent).toContain(`BW-999 stock code ${old.code} → BW-999`);
+  });
+
   it('names the delivery temperature of the cost per delivered litre in °F when °F is chosen', () => {
     settingsActions.updateSettings({ temperatureUnit: 'F', deliveryTempC: 40 });
     try {
