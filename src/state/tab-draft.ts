@@ -4,6 +4,12 @@
  * the key (and so finds its draft), a new tab gets a new one. The tabs open now answer a question on a
  * BroadcastChannel ("which drafts are yours?"), so a tab offers only the drafts no open tab holds, and
  * a duplicated tab (whose sessionStorage is a copy, key and all) takes a key of its own.
+ *
+ * Where the browser has Web Locks (s23 item 3), each tab also holds a lock named after its draft key
+ * for as long as the key is its own. The browser answers for a busy tab: the drafts open tabs hold are
+ * the locks held (no wait for answers), a kept draft is opened only if its lock is taken here first (a
+ * claim no other tab can make at the same time), and a duplicated tab finds its copied key's lock held
+ * and takes a new key. Without Web Locks the tabs' answers on the BroadcastChannel decide, as before.
  */
 
 const SESSION_KEY = 'blendbench.draft-key';
@@ -55,8 +61,73 @@ export function newDraftKey(): string {
 
 /** Make `key` this tab's draft key (the blender opened the draft kept under it). */
 export function adoptDraftKey(key: string): void {
+  const before = own;
   own = key;
   rememberKey(key);
+  if (before !== null && before !== key) releaseLock(before);
+  if (lockManager() && !heldLocks.has(key)) void holdLock(key);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Web Locks: one lock per draft key, held by the tab whose key it is.
+
+const LOCK_PREFIX = 'blendbench-draft:';
+type Locks = Pick<LockManager, 'request' | 'query'>;
+/** The locks this tab holds: draft key → release. */
+const heldLocks = new Map<string, () => void>();
+
+function lockManager(): Locks | null {
+  try {
+    return typeof navigator !== 'undefined' && navigator.locks ? navigator.locks : null;
+  } catch {
+    return null;
+  }
+}
+
+/** Take the lock of `key` for this tab if no other tab holds it; true when this tab holds it now. */
+function holdLock(key: string): Promise<boolean> {
+  const locks = lockManager();
+  if (!locks) return Promise.resolve(true);
+  if (heldLocks.has(key)) return Promise.resolve(true);
+  return new Promise<boolean>((resolve) => {
+    locks
+      .request(LOCK_PREFIX + key, { ifAvailable: true }, (lock) => {
+        if (!lock) {
+          resolve(false);
+          return undefined;
+        }
+        resolve(true);
+        // Held until released here (the key is no longer this tab's) or the page is gone.
+        return new Promise<void>((release) => heldLocks.set(key, release));
+      })
+      .catch(() => resolve(false));
+  });
+}
+
+function releaseLock(key: string): void {
+  heldLocks.get(key)?.();
+  heldLocks.delete(key);
+}
+
+/**
+ * Take the kept draft of `key` for this tab before it is opened here: true when no open tab holds it
+ * (this tab now holds its lock; `adoptDraftKey` then makes it the tab's key), false when another tab
+ * does. Without Web Locks `true` at once (the list offered only drafts no tab answered for).
+ */
+export function claimDraftKey(key: string): Promise<boolean> | true {
+  return lockManager() ? holdLock(key) : true;
+}
+
+/** The draft keys whose locks open tabs hold (this tab's too), or null without Web Locks. */
+export async function draftKeysLocked(): Promise<Set<string> | null> {
+  const locks = lockManager();
+  if (!locks) return null;
+  try {
+    const { held } = await locks.query();
+    return new Set((held ?? []).flatMap((l) => (l.name?.startsWith(LOCK_PREFIX) ? [l.name.slice(LOCK_PREFIX.length)] : [])));
+  } catch {
+    return null;
+  }
 }
 
 type Message = { kind: 'who'; ask: string } | { kind: 'mine'; ask: string; key: string };
@@ -82,13 +153,14 @@ function openChannel(): BroadcastChannel | null {
   return channel;
 }
 
-/** Answer the other tabs' question from now on; returns a function that stops answering. */
+/** Answer the other tabs' question from now on; returns a function that stops answering (and lets go of this tab's locks). */
 export function answerDraftQuestions(): () => void {
   openChannel();
   return () => {
     channel?.close();
     channel = null;
     waiting.clear();
+    for (const key of [...heldLocks.keys()]) releaseLock(key);
   };
 }
 
@@ -142,8 +214,13 @@ export function draftKeysOfOpenTabs(waitMs = ANSWER_WAIT_MS): Promise<Set<string
  * under the new key from its next change; the other tab's draft stays the other tab's). The promise
  * settles after ANSWER_WAIT_MS; an answer arriving later (up to LATE_ANSWER_MS) still changes the key.
  */
-export function leaveSharedKey(waitMs = ANSWER_WAIT_MS, lateMs = LATE_ANSWER_MS): Promise<void> {
+export async function leaveSharedKey(waitMs = ANSWER_WAIT_MS, lateMs = LATE_ANSWER_MS): Promise<void> {
   const mine = ownDraftKey();
+  if (lockManager()) {
+    // The browser says whether another tab holds this key (a duplicated tab's copy): no answer to wait for.
+    if (!(await holdLock(mine)) && own === mine) adoptDraftKey(newKey());
+    return;
+  }
   const q = ask((key) => {
     if (key === mine && own === mine) adoptDraftKey(newKey());
   });

@@ -8,7 +8,7 @@
  */
 import { memo, useEffect, useState } from 'react';
 import { Notice } from '../../components/notices';
-import { askOpenTabs, DRAFT_ANSWER_WAIT_MS, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
+import { askOpenTabs, claimDraftKey, draftKeysLocked, DRAFT_ANSWER_WAIT_MS, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
 import { keptWhen } from './store';
 
 /** What a kept draft is, in a line: "from 23:12 — 4 stocks, VG 320, “Trial”". */
@@ -28,9 +28,10 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
   const own = ownDraftKey();
   const others = Object.keys(drafts).filter((k) => k !== own);
   const othersKey = others.join('|');
-  // The drafts open tabs hold are theirs: asked again whenever the kept drafts change. The list is
-  // shown once the tabs have had DRAFT_ANSWER_WAIT_MS to answer; a draft whose open tab answers later
-  // (a busy tab) leaves it then.
+  // The drafts open tabs hold are theirs: asked again whenever the kept drafts change. With Web Locks
+  // the browser says at once which keys open tabs hold (s23); otherwise the list is shown once the
+  // tabs have had DRAFT_ANSWER_WAIT_MS to answer. A draft whose open tab answers later (a busy tab)
+  // leaves the list then.
   const [held, setHeld] = useState<{ asked: string; keys: Set<string> } | null>(null);
   useEffect(() => {
     if (othersKey === '') return;
@@ -42,10 +43,20 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
       keys.add(key);
       if (shown) show();
     });
-    const timer = setTimeout(() => {
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    void draftKeysLocked().then((locked) => {
+      if (!live) return;
+      if (locked === null) {
+        timer = setTimeout(() => {
+          shown = true;
+          show();
+        }, DRAFT_ANSWER_WAIT_MS);
+        return;
+      }
+      for (const k of locked) keys.add(k);
       shown = true;
       show();
-    }, DRAFT_ANSWER_WAIT_MS);
+    });
     return () => {
       live = false;
       stop();
@@ -53,9 +64,28 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
     };
   }, [othersKey]);
   const [confirming, setConfirming] = useState<string | null>(null);
+  /** A kept draft another tab took (it opened it first): named once, then no longer offered. */
+  const [taken, setTaken] = useState<{ key: string; summary: string } | null>(null);
+  // A draft is opened only once this tab holds its key (a tab that holds it already refuses the claim).
+  const open = (key: string, summary: string) => {
+    const claim = claimDraftKey(key);
+    if (claim === true) return onOpen(key);
+    void claim.then((mine) => {
+      if (mine) onOpen(key);
+      else {
+        setTaken({ key, summary });
+        setHeld((h) => (h ? { asked: h.asked, keys: new Set([...h.keys, key]) } : h));
+      }
+    });
+  };
   if (others.length === 0 || held?.asked !== othersKey) return null;
   const offered = others.filter((k) => !held.keys.has(k));
-  if (offered.length === 0) return null;
+  const takenNote = taken && (
+    <p className="small" role="status">
+      {`${taken.summary.charAt(0).toUpperCase()}${taken.summary.slice(1)} is open in another tab now: go on with it there.`}
+    </p>
+  );
+  if (offered.length === 0) return takenNote ? <Notice tone="info" title="The kept draft is open in another tab">{takenNote}</Notice> : null;
   const now = new Date();
   offered.sort((a, b) => (drafts[b]!.keptAt ?? '').localeCompare(drafts[a]!.keptAt ?? ''));
   return (
@@ -64,6 +94,7 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
         Kept from a tab or window closed with edits unsaved, or set aside when another recipe was opened over them. Open one to go on with it
         here (it becomes this tab’s draft), or discard it.
       </p>
+      {takenNote}
       <ul className="kept-drafts" data-testid="kept-drafts">
         {offered.map((k) => {
           const d = drafts[k]!;
@@ -89,7 +120,7 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
                 </>
               ) : (
                 <>
-                  <button type="button" onClick={() => onOpen(k)}>
+                  <button type="button" onClick={() => open(k, summary)}>
                     Open {summary}
                   </button>{' '}
                   <button type="button" className="link" aria-label={`Discard ${summary}`} onClick={() => setConfirming(k)}>
