@@ -1,4 +1,5 @@
 // Conditions for unit tests of saved work, instead of fixed sleeps (s23 item 2).
+import { vi } from 'vitest';
 import { get as idbGet, createStore } from 'idb-keyval';
 import { splitRecords } from '../../src/state/record-merge';
 import { LIBRARY_SPEC } from '../../src/state/library';
@@ -68,4 +69,26 @@ export async function settleTabs(tabs: readonly SettlingTab[], maxTasks = 5_000)
     ),
   );
   throw new Error(`settleTabs (${differ.join(', ')}): the tabs did not agree with what is stored within ${maxTasks} tasks`);
+}
+
+let started: StateModule | null = null;
+
+/**
+ * A fresh instance of the state modules over the same IndexedDB and sessionStorage — a start, or a
+ * reload of the tab — started (the previous instance stops listening first).
+ */
+export async function restartTab(): Promise<SettlingTab> {
+  started?.resetStartForTests();
+  vi.resetModules();
+  const state = await import('../../src/state');
+  const persistence = await import('../../src/state/persistence');
+  started = state;
+  await state.startSavedWork({ requestPersistence: false });
+  return { state, persistence };
+}
+
+/** Stop the last instance started by `restartTab` (afterEach). */
+export function stopTab(): void {
+  started?.resetStartForTests();
+  started = null;
 }

@@ -7,10 +7,11 @@
 // waits for the saves it needs (whenSaved).
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createStore, get as idbGet, set as idbSet } from 'idb-keyval';
 import { applyCopy, leaveCopyKey, pendingCopy, readLeaveCopy, writeLeaveCopy, type LeaveCopy } from '../../src/state/leave-copy';
 import type { RecordSet } from '../../src/state/record-merge';
+import { restartTab, stopTab } from '../helpers/settle';
 
 const db = () => createStore('blendbench', 'saved-work');
 const set = (records: Array<[string, unknown]>, stamps: Record<string, string>, gone: Record<string, string> = {}): RecordSet => ({
@@ -113,20 +114,9 @@ describe('pendingCopy and applyCopy (pure)', () => {
   });
 });
 
-type StateModule = typeof import('../../src/state');
 type PersistenceModule = typeof import('../../src/state/persistence');
-let previous: StateModule | null = null;
-
 /** A fresh instance of the state modules (a reload of the tab), started. */
-async function reload(): Promise<{ state: StateModule; persistence: PersistenceModule }> {
-  previous?.resetStartForTests();
-  vi.resetModules();
-  const state = await import('../../src/state');
-  const persistence = await import('../../src/state/persistence');
-  previous = state;
-  await state.startSavedWork({ requestPersistence: false });
-  return { state, persistence };
-}
+const reload = restartTab;
 
 /** The tab's sessionStorage entries written as the page was hidden. */
 const leaveCopies = () =>
@@ -161,10 +151,7 @@ describe('a reload at once after an edit keeps the edit (s23 item 1)', () => {
     globalThis.indexedDB = new IDBFactory();
     sessionStorage.clear();
   });
-  afterEach(() => {
-    previous?.resetStartForTests();
-    previous = null;
-  });
+  afterEach(stopTab);
 
   it('a Stocks cell, a line-plan input, a QC entry and a setting committed just before the page left come back, are written through, and the copy is removed', async () => {
     let m = await reload();

@@ -4,29 +4,16 @@
 // test waits for "the edit was handled and nothing is being saved" instead of sleeping.
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { createStore, get as idbGet, set as idbSet } from 'idb-keyval';
+import { restartTab, stopTab } from '../helpers/settle';
 
 const db = () => createStore('blendbench', 'saved-work');
-type StateModule = typeof import('../../src/state');
-let previous: StateModule | null = null;
-
-async function start() {
-  previous?.resetStartForTests();
-  vi.resetModules();
-  const state = await import('../../src/state');
-  const persistence = await import('../../src/state/persistence');
-  previous = state;
-  await state.startSavedWork({ requestPersistence: false });
-  return { state, persistence };
-}
+const start = restartTab;
 const signal = () => ({ state: document.documentElement.dataset.saveState, commits: Number(document.documentElement.dataset.saveCommits) });
 
 describe('save-queue signal', () => {
-  afterEach(() => {
-    previous?.resetStartForTests();
-    previous = null;
-  });
+  afterEach(stopTab);
 
   it('reads "saving" from a commit until its save has ended, then "idle"; every commit is counted', async () => {
     globalThis.indexedDB = new IDBFactory();
