@@ -2,6 +2,7 @@
 import type { RecipeStatus } from '../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../core/formulation/model';
 import type { StockChange, StockFieldChange } from '../core/recipes/stock-basis';
+import { identityChangeWords } from '../core/recipes/stock-basis';
 import { useFormat } from './format';
 
 /** "Draft" / "Approved" / "Superseded", styled by status. */
@@ -21,7 +22,7 @@ export function StockChangeList({ changes }: { changes: readonly StockChange[] }
           <span className="code">{c.code}</span>:{' '}
           {c.kind === 'deleted'
             ? 'deleted from the library'
-            : [...(c.codeWas !== undefined ? [`stock code ${c.codeWas} → ${c.code}`] : []), ...c.fields.map((f) => `${f.property} ${value(f.from, f.unit)} → ${value(f.to, f.unit)}`)].join('; ')}
+            : [...identityChangeWords(c), ...c.fields.map((f) => `${f.property} ${value(f.from, f.unit)} → ${value(f.to, f.unit)}`)].join('; ')}
         </li>
       ))}
     </ul>

@@ -113,6 +113,7 @@ export const specificationSchema = z.object({
 export const stockSnapshotSchema = z.object({
   componentId: str,
   code: str,
+  category: categorySchema.optional(),
   viscosityPoints: z.array(viscosityPointSchema),
   calibratedKv40: nullableNum,
   calibratedKv100: nullableNum,

@@ -9,7 +9,7 @@ import { RECIPES_SPEC, demoRecipesData } from '../../src/state/recipes';
 import { RecipeChangedError, RecipeVersionUnknownError, UNKNOWN_VERSION, defaultTargets, recipeActions, resetDemo, useLibrary, useRecipes } from '../../src/state';
 import { BLANK_SPECIFICATION } from '../../src/core/formulation/model';
 import { clockPast } from '../helpers/settle';
-import { stockBasisChanges } from '../../src/core/recipes/stock-basis';
+import { identityChangeWords, stockBasisChanges } from '../../src/core/recipes/stock-basis';
 
 const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === id)!;
 
@@ -170,6 +170,19 @@ describe('stock data recorded with a recipe (issue 10, item 14)', () => {
     expect(changes).toEqual([{ componentId: 'demo-bw-160', code: 'BW-169', kind: 'changed', fields: [], codeWas: 'BW-160' }]);
     // The VG 680 recipe does not use BW-160: not flagged.
     expect(stockBasisChanges(get('demo-vg680').stockBasis, useLibrary.getState().components)).toEqual([]);
+  });
+
+  it('flags a recipe whose stock moved to another category (it sets the charging order), in words (s23)', () => {
+    useLibrary.getState().updateComponent('demo-bw-160', { category: 'additive-package' });
+    const changes = stockBasisChanges(get('demo-vg460').stockBasis, useLibrary.getState().components);
+    expect(changes).toEqual([
+      { componentId: 'demo-bw-160', code: 'BW-160', kind: 'changed', fields: [], categoryWas: 'group-i', category: 'additive-package' },
+    ]);
+    expect(identityChangeWords(changes[0]!)).toEqual(['category Group I → Additive package']);
+    // A snapshot recorded before the category was kept has none: nothing to compare, nothing flagged.
+    const basis = get('demo-vg460').stockBasis!;
+    const old = { ...basis, stocks: basis.stocks.map(({ category: _c, ...rest }) => rest) };
+    expect(stockBasisChanges(old, useLibrary.getState().components)).toEqual([]);
   });
 
   it('records the library as the stock basis of recipes saved before it was kept', () => {

@@ -219,6 +219,11 @@ export interface StockSnapshot {
   componentId: string;
   /** Stock code when recorded (for messages if the stock is later deleted). */
   code: string;
+  /**
+   * Category when recorded: it sets the blend sheet's charging order (base stocks first, the
+   * additive package last). Absent in snapshots recorded before it was kept (then not compared).
+   */
+  category?: ComponentCategory;
   viscosityPoints: ViscosityPoint[];
   /** Effective blending viscosities of a calibration [mm²/s]; null → not calibrated. */
   calibratedKv40: number | null;

@@ -10,7 +10,7 @@
  * Exact comparison: the snapshot holds the values as entered, so "unchanged" means identical inputs
  * (no tolerance: a re-typed value that differs in the last digit is a change the user made).
  */
-import type { Component, RecipeLine, StockBasis, StockSnapshot } from '../formulation/model';
+import { CATEGORY_LABEL, type Component, type ComponentCategory, type RecipeLine, type StockBasis, type StockSnapshot } from '../formulation/model';
 
 /**
  * The snapshot of one stock: the inputs predictions depend on.
@@ -22,6 +22,7 @@ export function stockSnapshot(c: Component): StockSnapshot {
   return {
     componentId: c.id,
     code: c.code,
+    category: c.category,
     viscosityPoints: c.viscosityPoints.map((p) => ({ tempC: p.tempC, kv: p.kv })),
     calibratedKv40: c.calibration?.effectiveKv40 ?? null,
     calibratedKv100: c.calibration?.effectiveKv100 ?? null,
@@ -78,6 +79,13 @@ export interface StockChange {
    * the code now, and the plant charges by code, so a renamed stock is said rather than printed silently.
    */
   codeWas?: string;
+  /**
+   * The category as recorded, when the library's differs ('changed' only): the category sets the
+   * sheet's charging order (the additive package last), so a recategorised stock is said.
+   */
+  categoryWas?: ComponentCategory;
+  /** The category now, beside `categoryWas`. */
+  category?: ComponentCategory;
   /** The differing properties ('changed' only), in a fixed order. */
   fields: StockFieldChange[];
 }
@@ -119,7 +127,27 @@ export function stockBasisChanges(basis: StockBasis | null, components: readonly
     compare('pour point', '°C', snap.pourPoint, now.pourPoint);
     compare('flash point', '°C', snap.flashPoint, now.flashPoint);
     const codeWas = snap.code !== c.code ? { codeWas: snap.code } : {};
-    if (fields.length > 0 || 'codeWas' in codeWas) out.push({ componentId: c.id, code: c.code, kind: 'changed', fields, ...codeWas });
+    const categoryWas = snap.category !== undefined && snap.category !== c.category ? { categoryWas: snap.category, category: c.category } : {};
+    if (fields.length > 0 || 'codeWas' in codeWas || 'categoryWas' in categoryWas) {
+      out.push({ componentId: c.id, code: c.code, kind: 'changed', fields, ...codeWas, ...categoryWas });
+    }
+  }
+  return out;
+}
+
+/**
+ * A changed stock's new code and category in words, before its data changes: what the plant
+ * charges by and what sets the charging order.
+ *
+ * @param c - one 'changed' entry of {@link stockBasisChanges}
+ * @returns e.g. ['stock code BW-160 → BW-169', 'category Group I → Additive package']; empty when
+ *   neither changed
+ */
+export function identityChangeWords(c: StockChange): string[] {
+  const out: string[] = [];
+  if (c.codeWas !== undefined) out.push(`stock code ${c.codeWas} → ${c.code}`);
+  if (c.categoryWas !== undefined && c.category !== undefined) {
+    out.push(`category ${CATEGORY_LABEL[c.categoryWas]} → ${CATEGORY_LABEL[c.category]}`);
   }
   return out;
 }

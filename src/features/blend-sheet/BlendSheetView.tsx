@@ -10,7 +10,7 @@ import type { BlendTargets, Component, Recipe } from '../../core/formulation/mod
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { describeRate, priceLibraryInBase, pricingFor, rateDecimals, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { correctionHoldReasons, releaseHoldReasons, RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
-import { stockBasisChanges, type StockFieldChange } from '../../core/recipes/stock-basis';
+import { identityChangeWords, stockBasisChanges, type StockFieldChange } from '../../core/recipes/stock-basis';
 import { printableSpecification, specificationGradeIssue } from '../../core/recipes/specification-grade';
 import { shareChanges } from '../../core/recipes/share-changes';
 import {
@@ -654,7 +654,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 c.kind === 'deleted'
                   ? `${c.code} deleted from the library`
                   : `${c.code} ${[
-                      ...(c.codeWas !== undefined ? [`stock code ${c.codeWas} → ${c.code}`] : []),
+                      ...identityChangeWords(c),
                       ...c.fields.map((f) => `${f.property} ${changedValue(f.from, f.unit, display)} → ${changedValue(f.to, f.unit, display)}`),
                     ].join(', ')}`,
               )
