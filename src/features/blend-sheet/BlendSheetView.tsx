@@ -2,7 +2,7 @@
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
 import { SheetFooter } from './SheetFooter';
 import { displayWords, formatFixed, type NumberDisplay } from '../../core/words/display';
-import { useId, useMemo, useRef, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendProperties } from '../../core/formulation/blend-properties';
@@ -160,6 +160,17 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   /** Why the last print or export was not made (an entry on this screen was refused), or null. */
   const [notSent, setNotSent] = useState<string | null>(null);
   const screenRef = useRef<HTMLElement>(null);
+  // The notice goes once no field of the screen holds a refused entry any more (corrected or cleared),
+  // so it never stands beside fields that are all saved.
+  useEffect(() => {
+    const root = screenRef.current;
+    if (notSent === null || !root) return;
+    const watch = new MutationObserver(() => {
+      if (!root.querySelector('[aria-invalid="true"]')) setNotSent(null);
+    });
+    watch.observe(root, { subtree: true, childList: true, attributes: true, attributeFilter: ['aria-invalid'] });
+    return () => watch.disconnect();
+  }, [notSent]);
   const [refused, setRefused] = useState<{ recipeId: string; field: TypedField; text: string; message: string } | null>(null);
   const draft = (field: TypedField, stored: string): string =>
     refused && recipe && refused.recipeId === recipe.id && refused.field === field ? refused.text : stored;

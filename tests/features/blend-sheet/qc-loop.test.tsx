@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import { cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import BlendSheetScreen from '../../../src/features/blend-sheet/BlendSheetScreen';
 import { recipeActions, resetDemo, settingsActions, useLibrary, useRecipes } from '../../../src/state';
 import type { ReleaseSpecification } from '../../../src/core/formulation/model';
@@ -215,7 +215,7 @@ describe('Blend sheet — the QC loop', () => {
     expect(useRecipes.getState().qc['demo-vg320']?.heel.massKg ?? null).toBeNull();
   });
 
-  it('prints and exports nothing while a field shows an entry it refused (the sheet would carry the last saved value) (s23 defect hunt)', () => {
+  it('prints and exports nothing while a field shows an entry it refused (the sheet would carry the last saved value) (s23 defect hunt)', async () => {
     const print = vi.fn();
     window.print = print;
     render(<BlendSheetScreen />);
@@ -227,6 +227,8 @@ describe('Blend sheet — the QC loop', () => {
     expect(screen.getByTestId('not-sent').textContent).toMatch(/^Not printed: “Heel mass.*” holds an entry that was not saved/);
     expect(document.activeElement).toBe(screen.getByLabelText(/^Heel mass/));
     enter(/^Heel mass/, '2000');
+    // corrected: the notice goes at once, before any other print
+    await waitFor(() => expect(screen.queryByTestId('not-sent')).toBeNull());
     // a batch size of 0 is refused on the sheet itself: no print, no CSV either
     const size = screen.getByLabelText('Batch size', { selector: 'input' });
     fireEvent.change(size, { target: { value: '0' } });
