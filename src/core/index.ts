@@ -345,5 +345,5 @@ export { solveRobustAndNominal, highestInBandProbability } from './qc/robust-sol
 export { inBandProbabilityPlain } from './qc/probability-plain';
 export type { CorrectionProblem, CorrectionResult, CorrectionVessel, CorrectionComponent } from './qc/correction';
 export { correctBatchPlain, correctionBand, CORRECTION_EDGE_MARGIN_PCT } from './qc/correction';
-export type { AdjustInput, AdjustResult, AdjustStock, AdjustHeel } from './qc/adjust';
-export { adjustRecipe } from './qc/adjust';
+export type { AdjustInput, AdjustResult, AdjustStock, AdjustHeel, AdjustVolumeInput } from './qc/adjust';
+export { adjustRecipe, adjustRecipeToVolume } from './qc/adjust';

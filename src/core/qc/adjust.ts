@@ -18,6 +18,13 @@
  * The LP (yalps, `solver/lp.ts`) is exact. When the aim cannot be reached with these lots, the reason
  * states the range of ν40 the stocks can reach (all the free mass on the lightest or on the heaviest
  * stock: the blend coordinate is a ratio of linear forms, so its extremes lie at those vertices).
+ *
+ * ## A batch ordered in litres
+ * The vessel's volume at 15 °C is V = H/ρ_h + Σ mᵢ/ρᵢ (ideal mixing, volumes add: common practice, the
+ * rule `blending/density.ts` uses). The lots' densities and the heel's differ from the saved recipe's, so
+ * the mass that fills V is not the saved recipe's: {@link adjustRecipeToVolume} finds the batch mass M at
+ * which the adjusted additions and the heel fill exactly V, by the fixed point
+ * M ← H + (V − H/ρ_h)·ρ_add(M), ρ_add the additions' density at M.
  */
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, FractionSumError, assertDensity15, assertFinite, assertKv40Kv100, assertViscosity } from '../errors';
@@ -74,8 +81,11 @@ export type AdjustResult =
       addKg: Record<string, number>;
       /** Mass fractions of the additions alone (what the sheet's shares become), by id. */
       addedFractions: Record<string, number>;
-      /** The batch (heel + additions): mass [kg], ν40, ν100 [mm²/s], unrounded VI (null below ν100 2.0). */
-      batch: { massKg: number; kv40: number; kv100: number; vi: number | null };
+      /**
+       * The batch (heel + additions): mass [kg], volume at 15 °C [L] (H/ρ_h + Σ mᵢ/ρᵢ), ν40, ν100 [mm²/s],
+       * unrounded VI (null below ν100 2.0).
+       */
+      batch: { massKg: number; litres15: number; kv40: number; kv100: number; vi: number | null };
       /** Half the sum of |share change| of the additions against the saved shares [%]: how much moved. */
       changePct: number;
     }
@@ -212,11 +222,12 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
   });
   const kv40 = blendKv(f);
   const kv100 = blendKv(f, true);
+  const litres15 = stocks.reduce((v, k) => v + addKg[k.id]! / k.density15, heel ? heel.massKg / heel.density15 : 0);
   return {
     status: 'optimal',
     addKg,
     addedFractions,
-    batch: { massKg: M, kv40, kv100, vi: kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndex(kv40, kv100) : null },
+    batch: { massKg: M, litres15, kv40, kv100, vi: kv100 >= VI_MIN_KV100 && kv100 < kv40 ? viscosityIndex(kv40, kv100) : null },
     changePct: 50 * moved,
   };
 
@@ -230,4 +241,68 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
     });
     return co.toKv(sx / sc);
   }
+}
+
+/** Relative miss of the volume at which the fixed point stops (the LP's rounding is about 1e-8). */
+const VOLUME_SETTLED = 1e-9;
+/** Relative miss accepted after {@link VOLUME_ROUNDS} rounds: 1e-6 of 5 000 L is 5 mL, far below the sheet's 0.1 L. */
+const VOLUME_ACCEPTED = 1e-6;
+const VOLUME_ROUNDS = 12;
+
+/** {@link AdjustInput} with the batch given as a volume at 15 °C instead of a mass. */
+export type AdjustVolumeInput = Omit<AdjustInput, 'batchKg'> & {
+  /** Volume of the whole batch (heel included) at 15 °C [L], > 0. */
+  batchLitres: number;
+};
+
+/**
+ * The lot-adjusted recipe for a batch ordered as a volume: the batch mass M is chosen so that the heel
+ * and the adjusted additions fill exactly `batchLitres` at 15 °C (module notes: volumes add, ideal
+ * mixing, common practice), by the fixed point M ← H + (V − H/ρ_h)·ρ_add(M), started from the saved
+ * shares' density. ρ_add moves only as the heel's share H/M moves the additions' proportions, so two or
+ * three rounds settle it to the LP's own rounding (about 1e-8 of V; the closest of 12 rounds is kept and
+ * must be within 1e-6 of V).
+ *
+ * @param input - as {@link adjustRecipe}, with `batchLitres` [L at 15 °C] in place of `batchKg`
+ * @returns as {@link adjustRecipe}; `batch.massKg` is the mass that fills the volume and `batch.litres15`
+ *   equals `batchLitres` to 1e-6 relative (in practice about 1e-8)
+ * @throws BlendbenchInputError when the heel's own volume (H/ρ_h) is not less than the batch's, or the
+ *   fixed point does not settle (not seen in practice)
+ */
+export function adjustRecipeToVolume(input: AdjustVolumeInput): AdjustResult {
+  const fn = 'adjustRecipeToVolume';
+  const { batchLitres: V, ...rest } = input;
+  assertFinite(fn, 'batchLitres', V);
+  if (V <= 0) throw new BlendbenchInputError('batchLitres', V, `${fn}: batchLitres = ${V}; a batch must hold more than 0 L`);
+  const heel = input.heel ?? null;
+  const heelKg = heel ? heel.massKg : 0;
+  let heelLitres = 0;
+  if (heel) {
+    assertFinite(fn, 'heel.massKg', heel.massKg);
+    assertDensity15(fn, 'heel.density15', heel.density15);
+    heelLitres = heel.massKg / heel.density15;
+    if (!(heelLitres < V)) {
+      throw new BlendbenchInputError('heel.massKg', heel.massKg, `${fn}: the heel (${heel.massKg} kg, ${heelLitres} L at 15 °C) must fill less than the batch (${V} L)`);
+    }
+  }
+  // Start from the saved shares' density (1/ρ = Σ wᵢ/ρᵢ) for the additions.
+  const savedSpecific = input.stocks.reduce((t, k) => t + (Number.isFinite(k.savedFraction) && Number.isFinite(k.density15) && k.density15 > 0 ? k.savedFraction / k.density15 : 0), 0);
+  let rhoAdd = savedSpecific > 0 ? 1 / savedSpecific : 0.88;
+  // The LP's own rounding (about 1e-8 of the batch) is the floor; the closest round is kept.
+  let best: AdjustResult | null = null;
+  let bestMiss = Number.POSITIVE_INFINITY;
+  for (let round = 0; round < VOLUME_ROUNDS; round++) {
+    const M = heelKg + (V - heelLitres) * rhoAdd;
+    const result = adjustRecipe({ ...rest, batchKg: M });
+    if (result.status !== 'optimal') return result;
+    const miss = Math.abs(result.batch.litres15 - V);
+    if (miss < bestMiss) {
+      best = result;
+      bestMiss = miss;
+    }
+    if (miss <= VOLUME_SETTLED * V) return result;
+    rhoAdd = (M - heelKg) / (result.batch.litres15 - heelLitres);
+  }
+  if (best && bestMiss <= VOLUME_ACCEPTED * V) return best;
+  throw new BlendbenchInputError('batchLitres', V, `${fn}: the batch mass for ${V} L did not settle`);
 }

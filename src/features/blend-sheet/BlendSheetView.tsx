@@ -277,8 +277,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   }, [recipe, components, releaseBand?.min, releaseBand?.max, method]); // eslint-disable-line react-hooks/exhaustive-deps
   const builtSheet = built && 'sheet' in built ? built.sheet : null;
   const adjusted = useMemo(
-    () => (recipe && builtSheet ? adjustedRecipe(recipe, components, qcIn, builtSheet.totalKgExact, method, display) : null),
-    [recipe, builtSheet, components, qcIn, method, display],
+    () =>
+      recipe && builtSheet
+        ? adjustedRecipe(recipe, components, qcIn, builtSheet.batchBasis === 'litres' && batchValue !== null ? { litres: batchValue } : { kg: builtSheet.totalKgExact }, method, display)
+        : null,
+    [recipe, builtSheet, batchValue, components, qcIn, method, display],
   );
   /** The sheet of the additions when the recipe is adjusted (lot densities; batch less the heel). */
   const adjustedSheet = useMemo((): BlendSheet | null => {
@@ -328,13 +331,14 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         ? correctionFor(recipe, priced?.components ?? components, qcIn, {
             releaseBand: releaseBand ?? { min: 0, max: Number.POSITIVE_INFINITY },
             predictedVi: qc && 'properties' in qc ? (qc.properties?.vi ?? null) : null,
-            batchKg: builtSheet?.totalKgExact ?? null,
+            // The mass in the vessel: what the adjusted recipe charged (heel included), else the sheet's.
+            batchKg: adjusted && 'result' in adjusted && adjusted.result.status === 'optimal' ? adjusted.result.batch.massKg : (builtSheet?.totalKgExact ?? null),
             targets: props.targets?.[recipe.id] ?? null,
             method,
             display,
           })
         : null,
-    [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, props.targets, method, display], // eslint-disable-line react-hooks/exhaustive-deps
+    [recipe, priced, components, qcIn, releaseBand?.min, releaseBand?.max, qc, builtSheet, adjusted, props.targets, method, display], // eslint-disable-line react-hooks/exhaustive-deps
   );
   // The correction sheet is held for the sheet's reasons and for any withdrawn stock it adds.
   const corrHold = useMemo((): HoldReason[] => {
@@ -409,7 +413,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const batchKgText = sheet ? fmt(sheet.totalKg + heelKg, qd) : '';
   const batchLitresText = sheet ? fmt(sheet.totalLitres + heelLitres, qd) : '';
   const batchText = sheet
-    ? (sheet.batchBasis === 'kg' || heelKg > 0
+    ? ((savedSheet ?? sheet).batchBasis === 'kg'
         ? `${batchKgText} kg (${batchLitresText} L at 15 °C)`
         : `${batchLitresText} L at 15 °C (${batchKgText} kg)`) +
       (heelKg > 0 ? `: heel ${fmt(heelKg, qd)} kg + additions ${fmt(sheet.totalKg, qd)} kg` : '')

@@ -9,7 +9,7 @@ import { blendingViscosities } from '../../core/formulation/blend-properties';
 import { pricePerKg } from '../../core/formulation/cost';
 import { gradeBand } from '../../core/viscosity/iso-grades';
 import { viscosityIndex } from '../../core/viscosity/viscosity-index';
-import { adjustRecipe, type AdjustResult, type AdjustStock } from '../../core/qc/adjust';
+import { adjustRecipe, adjustRecipeToVolume, type AdjustResult, type AdjustStock } from '../../core/qc/adjust';
 import { CORRECTION_EDGE_MARGIN_PCT, correctBatchPlain, correctionBand, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
 import type { QcInputs } from '../../state';
 import { userMessage } from '../../state/messages';
@@ -107,14 +107,15 @@ export type Adjusted = { result: AdjustResult; lots: LotValues[]; aim: number; h
 /**
  * The recipe re-solved for the lots, the heel and the aim (least change from the saved shares).
  *
- * @param batchKg - the batch's mass [kg], heel included
+ * @param batch - the batch, heel included: its mass `{ kg }` [kg], or `{ litres }` at 15 °C [L] — then the
+ *   mass is the one that the heel and the adjusted additions fill exactly (lot densities, `adjustRecipeToVolume`)
  * @returns null when nothing is entered; else the core's answer or the message why it cannot be worked out
  */
 export function adjustedRecipe(
   recipe: Recipe,
   components: readonly Component[],
   qc: QcInputs,
-  batchKg: number,
+  batch: { kg: number } | { litres: number },
   method: BlendMethod,
   display?: NumberDisplay,
 ): Adjusted | null {
@@ -152,7 +153,8 @@ export function adjustedRecipe(
     }));
     const sum = stocks.reduce((s, x) => s + x.savedFraction, 0);
     stocks.forEach((x) => (x.savedFraction /= sum));
-    const result = adjustRecipe({ stocks, batchKg, aimKv40: aim, additive, heel, method, ...(display ? { display } : {}) });
+    const common = { stocks, aimKv40: aim, additive, heel, method, ...(display ? { display } : {}) };
+    const result = 'kg' in batch ? adjustRecipe({ ...common, batchKg: batch.kg }) : adjustRecipeToVolume({ ...common, batchLitres: batch.litres });
     return { result, lots, aim, heelKg };
   } catch (e) {
     return { error: userMessage(e, { components, words }) };

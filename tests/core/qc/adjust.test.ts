@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { adjustRecipe, type AdjustInput, type AdjustStock } from '../../../src/core/qc/adjust';
+import { adjustRecipe, adjustRecipeToVolume, type AdjustInput, type AdjustStock } from '../../../src/core/qc/adjust';
+import { BlendbenchInputError } from '../../../src/core/errors';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
 import { FractionSumError, ViscosityOrderError } from '../../../src/core/errors';
 import { rng } from '../solver/helpers';
@@ -77,6 +78,55 @@ describe('lot-adjusted recipe', () => {
 describe('lot-adjusted recipe against HiGHS (least change, an LP)', () => {
   // HiGHS (test-only oracle) solves the least-change LP written independently in kg: variables mᵢ and
   // deviations eᵢ ≥ ±(mᵢ − tᵢ), Σ mᵢ = M − H, Σ mᵢ(VBNᵢ − VBN_aim) = −H(VBN_h − VBN_aim), minimise Σ eᵢ.
+  it('a batch ordered in litres: heel and additions fill exactly the volume, at the aim', () => {
+    // Volumes add under ideal mixing (common practice (no source); tests/reference check-values D1):
+    // V = H/ρ_h + Σ mᵢ/ρᵢ; the heel and lots here differ in density from each other.
+    const ep: AdjustStock = { id: 'ep', label: 'EP', kv40: 250, kv100: 15, density15: 1.05, savedFraction: 0.02 };
+    const input = {
+      stocks: [{ ...light, savedFraction: 0.43 }, { ...heavy, density15: 0.91, savedFraction: 0.55 }, ep],
+      aimKv40: 220,
+      additive: { id: 'ep', massFraction: 0.02 },
+      heel: { massKg: 900, kv40: 200, kv100: 18, density15: 0.86, additiveFraction: 0.02 },
+    };
+    const r = adjustRecipeToVolume({ ...input, batchLitres: 5_000 });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    const litres = 900 / 0.86 + r.addKg.l! / 0.872 + r.addKg.h! / 0.91 + r.addKg.ep! / 1.05;
+    expectClose(litres, 5_000, 5e-3); // 1e-6 of V (the fixed point's accepted miss)
+    expectClose(r.batch.litres15, litres, 1e-9);
+    expectClose(r.batch.massKg, 900 + r.addKg.l! + r.addKg.h! + r.addKg.ep!, 1e-6 * r.batch.massKg); // the LP holds Σ fᵢ = 1 − f_h to its rounding
+    expectClose(r.batch.kv40, 220, 1e-4);
+    // the treat rate holds in the batch as charged: 2 % of the mass that fills 5 000 L
+    expectClose(r.addKg.ep! + 0.02 * 900, 0.02 * r.batch.massKg, 1e-6);
+    // the same mass in kg gives the same recipe (the volume form only chooses M)
+    const byKg = adjustRecipe({ ...input, batchKg: r.batch.massKg });
+    if (byKg.status !== 'optimal') throw new Error(byKg.reason);
+    expectClose(byKg.addKg.h!, r.addKg.h!, 1e-6 * r.batch.massKg);
+  });
+
+  it('a batch ordered in litres: random recipes and heels fill the volume', () => {
+    const r = rng(1204);
+    for (let n = 0; n < 30; n++) {
+      const stocks = [
+        { ...light, density15: 0.84 + 0.06 * r(), savedFraction: 0.3 + 0.4 * r() },
+        { ...heavy, density15: 0.86 + 0.08 * r(), savedFraction: 0 },
+      ];
+      stocks[1]!.savedFraction = 1 - stocks[0]!.savedFraction;
+      const V = 1_000 + 20_000 * r();
+      const heel = r() < 0.7 ? { massKg: V * 0.3 * r() + 1, kv40: 150 + 150 * r(), kv100: 16, density15: 0.83 + 0.1 * r(), additiveFraction: 0 } : null;
+      const res = adjustRecipeToVolume({ stocks, aimKv40: 200 + 50 * r(), additive: null, heel, batchLitres: V });
+      if (res.status !== 'optimal') continue;
+      const litres = (heel ? heel.massKg / heel.density15 : 0) + stocks.reduce((t, k) => t + res.addKg[k.id]! / k.density15, 0);
+      expectClose(litres, V, 1e-6 * V); // arithmetic: the fixed point's accepted miss, 1e-6 of V
+    }
+  });
+
+  it('a batch ordered in litres refuses a heel that fills the whole volume, naming the heel', () => {
+    expect(() =>
+      adjustRecipeToVolume({ stocks: [light, heavy], aimKv40: 220, additive: null, heel: { massKg: 900, kv40: 200, kv100: 18, density15: 0.9, additiveFraction: 0 }, batchLitres: 1_000 }),
+    ).toThrow(BlendbenchInputError);
+    expect(() => adjustRecipeToVolume({ stocks: [light, heavy], aimKv40: 220, additive: null, batchLitres: 0 })).toThrow(/batchLitres = 0/);
+  });
+
   let highs: { solve(lp: string): { Status: string; ObjectiveValue: number } };
   beforeAll(async () => {
     const mod = (await import('highs')) as unknown as { default: () => Promise<typeof highs> };
