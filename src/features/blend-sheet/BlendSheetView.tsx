@@ -34,7 +34,7 @@ import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, rec
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
-import { pageRule } from './page-header';
+import { longClass, pageRule } from './page-header';
 import '../../components/print.css';
 import './blend-sheet.css';
 
@@ -550,7 +550,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         aria-label="Printable blend sheet"
       >
         <header className="bs-head">
-          <div className="bs-company">{companyName || 'Company name (set it in the settings)'}</div>
+          <div className={`bs-company ${longClass(companyName, 60) ?? ''}`}>{companyName || 'Company name (set it in the settings)'}</div>
           <div className="bs-title">
             Blend sheet · <span className="bs-copy-kind">{costing ? 'Costing copy' : 'Plant copy'}</span>
           </div>
@@ -571,7 +571,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         <dl className="bs-fields">
           <div className="bs-span3">
             <dt>Product</dt>
-            <dd>{recipe.name}</dd>
+            <dd className={longClass(recipe.name, 90)}>{recipe.name}</dd>
           </div>
           <div className="bs-span1">
             <dt>Grade</dt>
@@ -600,11 +600,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <span className="bs-print-only">{date || '____________'}</span>
             </dd>
           </div>
-          <div className="bs-span2">
+          <div className="bs-w3">
             <dt>
               <label htmlFor={`${id}-lot`}>Batch / lot no.</label>
             </dt>
-            <dd>
+            <dd className={longClass(lot, 36)}>
               <input
                 id={`${id}-lot`}
                 className="bs-no-print"
@@ -642,11 +642,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <Refusal id={`${id}-size-err`} message={refusal('batchSize')} />
             </dd>
           </div>
-          <div className="bs-span2">
+          <div className="bs-w3">
             <dt>
               <label htmlFor={`${id}-vessel`}>Vessel</label>
             </dt>
-            <dd>
+            <dd className={longClass(vessel, 36)}>
               <input
                 id={`${id}-vessel`}
                 className="bs-no-print"
@@ -685,7 +685,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         )}
 
         {sheet && (
-          <table className="bs-table bs-components">
+          <table className={`bs-table bs-components${costing || adjustedOk ? ' bs-wide' : ''}`}>
             <caption>
               1. Components, in charging order
               {adjustedOk ? (
@@ -902,7 +902,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </div>
         </section>
 
-        <section aria-labelledby={`${id}-qc`}>
+        <section className="bs-qc-section" aria-labelledby={`${id}-qc`}>
           {qc && 'error' in qc ? (
             <>
               <h3 id={`${id}-qc`}>3. Predicted properties and QC release</h3>

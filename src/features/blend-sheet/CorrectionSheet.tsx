@@ -4,6 +4,7 @@
 import type { Recipe } from '../../core/formulation/model';
 import { limitText } from '../../core/sheet/blend-sheet';
 import { SheetFooter } from './SheetFooter';
+import { longClass } from './page-header';
 import { CORRECTION_EDGE_MARGIN_PCT, type CorrectionProblem, type CorrectionResult } from '../../core/qc/correction';
 import { RELEASE_HOLD_LABEL, type HoldReason } from '../../core/release/release-hold';
 
@@ -48,7 +49,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
   return (
     <article className={`blend-sheet bs-correction print-page bs-paper-${p.paper}`} aria-label="Printable correction sheet" data-testid="correction-sheet">
       <header className="bs-head">
-        <div className="bs-company">{p.companyName || 'Company name (set it in the settings)'}</div>
+        <div className={`bs-company ${longClass(p.companyName, 60) ?? ''}`}>{p.companyName || 'Company name (set it in the settings)'}</div>
         <div className="bs-title">Batch correction sheet</div>
       </header>
       {p.hold.length > 0 && (
@@ -65,7 +66,7 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
       <dl className="bs-fields">
         <div className="bs-span3">
           <dt>Product</dt>
-          <dd>{p.recipe.name}</dd>
+          <dd className={longClass(p.recipe.name, 90)}>{p.recipe.name}</dd>
         </div>
         <div className="bs-span1">
           <dt>Grade</dt>
@@ -81,11 +82,11 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
         </div>
         <div className="bs-span3">
           <dt>Batch / lot no.</dt>
-          <dd>{p.lot || '____________'}</dd>
+          <dd className={longClass(p.lot, 72)}>{p.lot || '____________'}</dd>
         </div>
         <div className="bs-span3">
           <dt>Vessel</dt>
-          <dd>{p.vessel || '____________'}</dd>
+          <dd className={longClass(p.vessel, 72)}>{p.vessel || '____________'}</dd>
         </div>
       </dl>
       <h3>1. QC result of the batch</h3>

@@ -2,7 +2,7 @@
 // and "Page n of m". Wording and escaping are common practice (no source); CSS string escapes per
 // CSS Syntax Level 3 §4.3.5 (a backslash escapes a quote or a backslash).
 import { describe, expect, it } from 'vitest';
-import { cssString, pageHeadText, pageRule } from '../../../src/features/blend-sheet/page-header';
+import { cssString, longClass, NOT_PRINTED_HEAD, NOT_PRINTED_PAGE, pageHeadText, pageRule } from '../../../src/features/blend-sheet/page-header';
 
 const head = { product: 'Gear oil VG 320 — trial (invented)', grade: 320, lot: 'L-2026-118', batch: '10 000 kg (11 312 L at 15 °C)' };
 
@@ -32,6 +32,27 @@ describe('blend sheet running head', () => {
 
   it('shortens a very long product name with "…" (the full name is on page 1)', () => {
     const text = pageHeadText({ ...head, product: 'N'.repeat(200) });
-    expect(text.startsWith(`${'N'.repeat(69)}… · ISO VG 320`)).toBe(true);
+    expect(text.startsWith(`${'N'.repeat(59)}… · ISO VG 320`)).toBe(true);
+  });
+
+  it('lets the head wrap to a second line rather than run into "Page n of m" (s24)', () => {
+    expect(pageRule('a4', head)).toMatch(/@top-left \{[^}]*white-space: normal;/);
+  });
+
+  it('gives the page printed instead of a sheet under a refused entry a head without batch, lot or batch size (s24)', () => {
+    const rule = pageRule('a4', head);
+    const named = rule.slice(rule.indexOf(`@page ${NOT_PRINTED_PAGE} {`));
+    // After the sheet's own rule: Chromium lets the later of two @page rules set a margin box.
+    expect(rule.indexOf(`@page ${NOT_PRINTED_PAGE} {`)).toBeGreaterThan(rule.indexOf('@top-right'));
+    expect(named).toContain(`@top-left { content: ${cssString(NOT_PRINTED_HEAD)};`);
+    expect(named).toContain('@top-right { content: none; }');
+    expect(named).not.toContain('L-2026-118');
+    expect(named).not.toContain('10 000 kg');
+  });
+
+  it('marks a header value longer than its place as long (printed whole in a smaller size)', () => {
+    expect(longClass('L-2026-118', 36)).toBeUndefined();
+    expect(longClass('7'.repeat(37), 36)).toBe('bs-long');
+    expect(longClass(`  ${'7'.repeat(36)}  `, 36)).toBeUndefined();
   });
 });

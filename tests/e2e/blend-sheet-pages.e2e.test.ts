@@ -1,0 +1,314 @@
+// How many pages a printed blend sheet takes, and what each page carries (s24): 12 components with the
+// longest stock code, stock name, lot and vessel the field rules allow fit one page (A4 and US Letter);
+// the worst case the rules allow runs onto more pages as a clean continuation; the page printed instead
+// of a sheet while a field holds a refused entry names no stale batch or lot. Printed to PDF in
+// Chromium with the paper size the sheet asks for (what the browser's print dialog uses), read back
+// with poppler's pdfinfo / pdftotext.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { launch, SCREEN_DIR, stored, type Session } from './support';
+import { TEXT_RULES } from '../../src/state/field-rules';
+import { NOT_PRINTED_HEAD } from '../../src/features/blend-sheet/page-header';
+
+const pdfInfo = (path: string) => execFileSync('pdfinfo', [path], { encoding: 'utf8' });
+const pdfPages = (path: string) => Number(/^Pages:\s+(\d+)/m.exec(pdfInfo(path))?.[1]);
+/** The text of page `n` (all pages without it), in reading order (a wrapped cell's lines stay together). */
+const pageText = (path: string, n?: number, layout = false) =>
+  execFileSync('pdftotext', [...(layout ? ['-layout'] : []), ...(n ? ['-f', String(n), '-l', String(n)] : []), path, '-'], { encoding: 'utf8' });
+/**
+ * The text of the component table's Name column on page `n`: the words between the "Name" and
+ * "Category" headings, top to bottom (in reading order the lines of a wrapped code and name interleave).
+ */
+function nameColumn(path: string, n: number): string {
+  const boxes = execFileSync('pdftotext', ['-bbox', '-f', String(n), '-l', String(n), path, '-'], { encoding: 'utf8' });
+  const words = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="[\d.]+" yMax="[\d.]+">([^<]*)<\/word>/g)].map((m) => ({
+    x: Number(m[1]),
+    y: Number(m[2]),
+    text: m[3]!.replace(/&amp;/g, '&'),
+  }));
+  const name = words.find((w) => w.text === 'Name' && words.some((c) => c.text === 'Category' && Math.abs(c.y - w.y) < 2));
+  if (!name) return '';
+  const category = words.find((c) => c.text === 'Category' && Math.abs(c.y - name.y) < 2)!;
+  return words
+    .filter((w) => w.y > name.y + 1 && w.x >= name.x - 1 && w.x < category.x - 1)
+    .sort((a, b) => a.y - b.y || a.x - b.x)
+    .map((w) => w.text)
+    .join(' ');
+}
+/** Text compared without white space or hyphens (pdftotext joins a word wrapped at a hyphen without it). */
+const squash = (t: string) => t.replace(/[\s\u00ad-]+/g, '');
+
+// The twelve-component recipe of blend-sheet.e2e.test.ts (invented demo stocks; predicted ν40 ≈ 311 mm²/s).
+const CODES = ['BW-281', 'BW-190', 'BW-441', 'BW-240', 'BW-241', 'BW-221', 'BW-307', 'BW-407', 'BW-606', 'BW-621', 'BW-510', 'BW-901'];
+const FRACTIONS = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
+const MAX = {
+  code: TEXT_RULES.stockCode.max,
+  name: TEXT_RULES.stockName.max,
+  lot: TEXT_RULES.lot.max,
+  vessel: TEXT_RULES.vessel.max,
+  recipe: TEXT_RULES.recipeName.max,
+  company: TEXT_RULES.companyName.max,
+};
+/** A stock code of the longest length allowed, without a space (invented). */
+const longCode = (i: number) => `C${String(i).padStart(2, '0')}-${'HEAVYBRIGHTSTOCKLOT2026NOVEMBER'.repeat(2)}`.slice(0, MAX.code);
+/** A stock name of the longest length allowed, with spaces (invented). */
+const longName = (i: number) => `Stock ${i} of an invented refinery, ${'vacuum residue, solvent extracted and dewaxed, '.repeat(6)}`.slice(0, MAX.name).trim();
+const LOT = `L${'7'.repeat(MAX.lot - 1)}`; // no space to break at
+const VESSEL = `Kettle 3 by the north wall ${'next to the pump house '.repeat(6)}`.slice(0, MAX.vessel).trim();
+
+interface Seed {
+  /** Indexes (in CODES) of the stocks given the longest code / name. */
+  longCodes: number[];
+  longNames: number[];
+  longHeader: boolean;
+}
+
+/** Seeds the library, a 12-component recipe `e2e-pages` and its sheet fields straight into IndexedDB. */
+async function seed(page: Page, s: Seed): Promise<void> {
+  await page.goto('about:blank');
+  await page.goto(inject('baseURL'));
+  await page.getByRole('navigation').waitFor();
+  // On a first start the demo is written a moment after the screen is drawn: wait for it.
+  await expect.poll(async () => (await stored(page, 'recipes')) != null && (await stored(page, 'settings')) != null).toBe(true);
+  await page.evaluate(
+    async ({ s, codes, fractions, longCodes, longNames, lot, vessel, recipeName, company }) => {
+      const db = await new Promise<IDBDatabase>((res, rej) => {
+        const r = indexedDB.open('blendbench');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      // Read and written in one transaction: no save of the app's can come between.
+      const tx = db.transaction('saved-work', 'readwrite');
+      const store = tx.objectStore('saved-work');
+      const done = new Promise<void>((res, rej) => {
+        tx.oncomplete = () => res();
+        tx.onabort = () => rej(tx.error);
+      });
+      type Lib = { state: { components: { id: string; code: string; name: string }[] } };
+      const lib = store.get('library');
+      lib.onsuccess = () => {
+        const saved = lib.result as Lib;
+        codes.forEach((code, i) => {
+          const c = saved.state.components.find((x) => x.id === `demo-${code.toLowerCase()}`)!;
+          if (s.longCodes.includes(i)) c.code = longCodes[i]!;
+          if (s.longNames.includes(i)) c.name = longNames[i]!;
+        });
+        store.put(saved, 'library');
+      };
+      const rec = store.get('recipes');
+      rec.onsuccess = () => {
+        const saved = rec.result as { state: { recipes: unknown[]; sheets: Record<string, unknown> } };
+        saved.state.recipes = saved.state.recipes.filter((r) => (r as { id: string }).id !== 'e2e-pages');
+        saved.state.recipes.push({
+          id: 'e2e-pages',
+          name: s.longHeader ? recipeName : 'Twelve-component page test VG 320 (invented)',
+          grade: 320,
+          lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
+          revision: 1,
+          isReference: false,
+          notes: 'Seeded by the end-to-end test.',
+          updatedAt: '2025-06-01T08:00:00.000Z',
+          status: 'approved',
+          approvedAt: '2025-06-01T08:00:00.000Z',
+          archived: false,
+          supersedes: null,
+          reasonForChange: '',
+          specification: {
+            grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
+            flashMin: null, pourMax: null, copper: '', foam: '',
+          },
+          stockBasis: null,
+        });
+        saved.state.sheets['e2e-pages'] = { lot, batchSize: '10000', batchUnit: 'kg', vessel, instructions: null };
+        store.put(saved, 'recipes');
+      };
+      if (s.longHeader) {
+        const set = store.get('settings');
+        set.onsuccess = () => {
+          const saved = set.result as { state: { settings: { companyName: string } } };
+          saved.state.settings.companyName = company;
+          store.put(saved, 'settings');
+        };
+      }
+      await done;
+      db.close();
+    },
+    {
+      s,
+      codes: CODES,
+      fractions: FRACTIONS,
+      longCodes: CODES.map((_, i) => longCode(i)),
+      longNames: CODES.map((_, i) => longName(i)),
+      lot: LOT,
+      vessel: VESSEL,
+      recipeName: `Gear oil VG 320 for enclosed industrial gear drives, ${'heavy-duty EP, invented demo, '.repeat(7)}`.slice(0, MAX.recipe).trim(),
+      company: `Invented Blending Works, ${'Plant Three, Industrial Estate Road, '.repeat(6)}`.slice(0, MAX.company).trim(),
+    },
+  );
+  await page.goto('about:blank');
+  await page.goto(`${inject('baseURL')}#/blend-sheet/e2e-pages`);
+  await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+  await page.getByRole('table', { name: /Components, in charging order/ }).waitFor();
+}
+
+/** Prints the sheet on the paper chosen on it (the browser's dialog takes the size the page asks for). */
+async function print(page: Page, name: string, paper: 'a4' | 'letter'): Promise<string> {
+  await page.getByLabel('Paper').selectOption(paper);
+  const path = join(SCREEN_DIR, `${name}-${paper}.pdf`);
+  await page.emulateMedia({ media: 'print' });
+  await page.pdf({ path, preferCSSPageSize: true, printBackground: true });
+  await page.emulateMedia({ media: 'screen' });
+  execFileSync('pdftoppm', ['-png', '-r', '60', path, join(SCREEN_DIR, `${name}-${paper}`)]);
+  // A4 = 210 × 297 mm (ISO 216) ≈ 595 × 842 pt (Chromium rounds it to whole CSS pixels); US Letter =
+  // 8.5 × 11 in = 612 × 792 pt (definitions)
+  expect(pdfInfo(path)).toMatch(paper === 'a4' ? /Page size:\s+59[4-6](\.\d+)? x 84[1-3](\.\d+)? pts \(A4\)/ : /Page size:\s+612 x 792 pts \(letter\)/);
+  return path;
+}
+
+/** The names and codes printed, read from the sheet on screen (its charging order). */
+async function printedRows(page: Page): Promise<{ code: string; name: string }[]> {
+  return page
+    .getByRole('table', { name: /Components, in charging order/ })
+    .locator('tbody tr:not([data-testid="heel-row"])')
+    .evaluateAll((rows) => rows.map((r) => ({ code: r.querySelector('.bs-code')!.textContent!, name: r.querySelector('.bs-name')!.textContent! })));
+}
+
+describe('blend sheet pages (s24)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('prints 12 components with the longest code, name, lot and vessel the field rules allow on one page, A4 and US Letter', async () => {
+    const { page } = s;
+    await seed(page, { longCodes: [1], longNames: [0], longHeader: false });
+    const rows = await printedRows(page);
+    expect(rows).toHaveLength(12);
+    expect(rows.map((r) => r.code)).toContain(longCode(1));
+    expect(rows.map((r) => r.name)).toContain(longName(0));
+    for (const paper of ['a4', 'letter'] as const) {
+      const pdf = await print(page, 'sheet-pages-long-fields', paper);
+      expect(pdfPages(pdf)).toBe(1);
+      const text = squash(pageText(pdf));
+      for (const r of rows) expect(text).toContain(squash(r.code));
+      expect(text).toContain(squash(longName(0))); // whole, not cut short
+      expect(text).toContain(LOT);
+      expect(text).toContain(squash(VESSEL));
+      // The totals row: 100 % and the 10 000.0 kg batch (the batch size typed; common practice (no source)).
+      expect(pageText(pdf, 1, true)).toMatch(/^\s*Total\s+100\.00\s+100\.00\s+10\D?000\.0\s/m);
+      expect(text).toContain('Releasedby');
+    }
+    expect(s.errors).toEqual([]);
+  });
+
+  it('runs the worst case the field rules allow onto further pages as a clean continuation', async () => {
+    const { page } = s;
+    const all = CODES.map((_, i) => i);
+    // Every code and name at its longest, a 200-character product and company name, 120-character lot
+    // and vessel, a heel (its line and two share columns), the metering column and the costing copy.
+    await seed(page, { longCodes: all, longNames: all, longHeader: true });
+    await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
+    const heel = page.getByLabel(/^Heel mass/);
+    await heel.fill('2000');
+    await heel.press('Enter');
+    await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
+    await page.getByTestId('heel-row').waitFor();
+    await page.getByLabel('Costing copy').check();
+    await page.getByText(/per batch/).waitFor();
+    const rows = await printedRows(page);
+    for (const paper of ['a4', 'letter'] as const) {
+      const pdf = await print(page, 'sheet-pages-worst', paper);
+      const pages = pdfPages(pdf);
+      expect(pages).toBeGreaterThanOrEqual(2);
+      const texts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1));
+      const layouts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1, true));
+      const flat = texts.map(squash);
+      // No row split over two pages: each name is whole in the Name column of exactly one page.
+      const columns = texts.map((_, i) => squash(nameColumn(pdf, i + 1)));
+      const pageOf = rows.map((r) => {
+        const on = columns.flatMap((t, i) => (t.includes(squash(r.name)) ? [i] : []));
+        expect(on, r.name).toHaveLength(1);
+        return on[0]!;
+      });
+      // Rows in charging order; every page the table reaches repeats its column headings.
+      expect([...pageOf].sort((a, b) => a - b)).toEqual(pageOf);
+      for (const i of new Set(pageOf)) expect(layouts[i], `page ${i + 1}`).toMatch(/Step\s+Code\s+Name\s+Category/);
+      // The totals print once, on the page of the last line (not at the foot of every page).
+      expect(flat.map((t) => t.split('Totaladded').length - 1)).toEqual(flat.map((_, i) => (i === pageOf.at(-1) ? 1 : 0)));
+      // The QC table, the cautions and the sign-off go on together, on the last page.
+      const last = flat.at(-1)!;
+      for (const w of ['3.PredictedpropertiesandQCrelease', 'Cautions', 'Blendedby', 'QCtestedby', 'Releasedby']) {
+        expect(flat.filter((t) => t.includes(w))).toEqual([last]);
+      }
+      // Every page names its product, grade, lot and batch in its top margin, and says "Page n of m".
+      flat.forEach((t, i) => {
+        expect(t).toContain('GearoilVG320forenclosedindustrialgeardrives');
+        expect(t).toContain('ISOVG320');
+        expect(t).toContain(`Batch/lot${LOT.slice(0, 30)}`);
+        expect(t).toContain(`Page${i + 1}of${pages}`);
+      });
+      // Every code printed whole, and the full product name, lot and vessel on page 1.
+      for (const r of rows) expect(flat.join('')).toContain(squash(r.code));
+      expect(flat[0]).toContain(LOT);
+      expect(flat[0]).toContain(squash(VESSEL));
+    }
+    expect(s.errors).toEqual([]);
+  });
+});
+
+describe('printed from the browser menu under a refused entry (s24)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('the "Not printed" page names no batch size or lot in its top margin', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
+    await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    await page.getByLabel('Batch / lot no.').fill('L-STALE-0042');
+    const size = page.getByLabel('Batch size', { exact: true });
+    await size.fill('5000');
+    await page.getByText(/^5\D?000\.0 kg/).first().waitFor();
+    const printed = async (name: string) => {
+      const path = join(SCREEN_DIR, `${name}.pdf`);
+      await page.emulateMedia({ media: 'print' });
+      await page.pdf({ path, preferCSSPageSize: true });
+      await page.emulateMedia({ media: 'screen' });
+      return pageText(path);
+    };
+    // A batch size of 0 is refused where typed; the last saved 5000 kg stays stored.
+    await size.fill('0');
+    await expect.poll(() => size.getAttribute('aria-invalid')).toBe('true');
+    let text = await printed('sheet-not-printed-size');
+    expect(text).toMatch(/Not printed: a field of the blend sheet screen holds an entry that was not saved/);
+    expect(text).toContain(NOT_PRINTED_HEAD);
+    expect(text).not.toMatch(/5\D?000\.0 kg/);
+    expect(text).not.toContain('L-STALE-0042');
+    expect(text).not.toMatch(/Page 1 of/);
+    // A lot longer than the field rules allow is refused too: the margin does not show the saved one.
+    await size.fill('6000');
+    await page.getByText(/^6\D?000\.0 kg/).first().waitFor();
+    await page.getByLabel('Batch / lot no.').fill(`L-${'9'.repeat(MAX.lot)}`);
+    await expect.poll(() => page.getByLabel('Batch / lot no.').getAttribute('aria-invalid')).toBe('true');
+    text = await printed('sheet-not-printed-lot');
+    expect(text).toContain(NOT_PRINTED_HEAD);
+    expect(text).not.toContain('L-STALE-0042');
+    expect(text).not.toMatch(/6\D?000\.0 kg/);
+    // Corrected: the sheet prints, its margin with what the fields show.
+    await page.getByLabel('Batch / lot no.').fill('L-FRESH-0043');
+    await expect.poll(() => page.getByLabel('Batch / lot no.').getAttribute('aria-invalid')).toBe(null);
+    text = await printed('sheet-printed-after');
+    expect(text).not.toContain(NOT_PRINTED_HEAD);
+    expect(text).toMatch(/Batch \/ lot L-FRESH-0043 · 6\D?000\.0 kg/);
+    expect(s.errors).toEqual([]);
+  });
+});
