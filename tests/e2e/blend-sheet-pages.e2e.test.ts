@@ -11,6 +11,7 @@ import type { Page } from 'playwright-core';
 import { launch, SCREEN_DIR, stored, type Session } from './support';
 import { TEXT_RULES } from '../../src/state/field-rules';
 import { NOT_PRINTED_HEAD } from '../../src/features/blend-sheet/page-header';
+import { demoComponentId, demoComponents } from '../../src/state/demo';
 
 const pdfInfo = (path: string) => execFileSync('pdfinfo', [path], { encoding: 'utf8' });
 const pdfPages = (path: string) => Number(/^Pages:\s+(\d+)/m.exec(pdfInfo(path))?.[1]);
@@ -63,6 +64,8 @@ interface Seed {
   longCodes: number[];
   longNames: number[];
   longHeader: boolean;
+  /** A short lot and vessel instead of the longest allowed. */
+  shortFields?: boolean;
 }
 
 /** Seeds the library, a 12-component recipe `e2e-pages` and its sheet fields straight into IndexedDB. */
@@ -73,7 +76,7 @@ async function seed(page: Page, s: Seed): Promise<void> {
   // On a first start the demo is written a moment after the screen is drawn: wait for it.
   await expect.poll(async () => (await stored(page, 'recipes')) != null && (await stored(page, 'settings')) != null).toBe(true);
   await page.evaluate(
-    async ({ s, codes, fractions, longCodes, longNames, lot, vessel, recipeName, company }) => {
+    async ({ s, codes, fractions, longCodes, longNames, demoNames, lot, vessel, recipeName, company }) => {
       const db = await new Promise<IDBDatabase>((res, rej) => {
         const r = indexedDB.open('blendbench');
         r.onsuccess = () => res(r.result);
@@ -92,14 +95,16 @@ async function seed(page: Page, s: Seed): Promise<void> {
         const saved = lib.result as Lib;
         codes.forEach((code, i) => {
           const c = saved.state.components.find((x) => x.id === `demo-${code.toLowerCase()}`)!;
-          if (s.longCodes.includes(i)) c.code = longCodes[i]!;
-          if (s.longNames.includes(i)) c.name = longNames[i]!;
+          // The demo's own code and name unless this case asks for the longest (an earlier case may have changed them).
+          c.code = s.longCodes.includes(i) ? longCodes[i]! : code;
+          c.name = s.longNames.includes(i) ? longNames[i]! : demoNames[i]!;
         });
         store.put(saved, 'library');
       };
       const rec = store.get('recipes');
       rec.onsuccess = () => {
-        const saved = rec.result as { state: { recipes: unknown[]; sheets: Record<string, unknown> } };
+        const saved = rec.result as { state: { recipes: unknown[]; sheets: Record<string, unknown>; qc: Record<string, unknown> } };
+        delete saved.state.qc['e2e-pages']; // no heel or lots left from an earlier case
         saved.state.recipes = saved.state.recipes.filter((r) => (r as { id: string }).id !== 'e2e-pages');
         saved.state.recipes.push({
           id: 'e2e-pages',
@@ -121,7 +126,9 @@ async function seed(page: Page, s: Seed): Promise<void> {
           },
           stockBasis: null,
         });
-        saved.state.sheets['e2e-pages'] = { lot, batchSize: '10000', batchUnit: 'kg', vessel, instructions: null };
+        saved.state.sheets['e2e-pages'] = s.shortFields
+          ? { lot: 'L-2026-0142', batchSize: '10000', batchUnit: 'kg', vessel: 'Kettle 3', instructions: null }
+          : { lot, batchSize: '10000', batchUnit: 'kg', vessel, instructions: null };
         store.put(saved, 'recipes');
       };
       if (s.longHeader) {
@@ -141,6 +148,7 @@ async function seed(page: Page, s: Seed): Promise<void> {
       fractions: FRACTIONS,
       longCodes: CODES.map((_, i) => longCode(i)),
       longNames: CODES.map((_, i) => longName(i)),
+      demoNames: CODES.map((c) => demoComponents().find((d) => d.id === demoComponentId(c))!.name),
       lot: LOT,
       vessel: VESSEL,
       recipeName: `Gear oil VG 320 for enclosed industrial gear drives, ${'heavy-duty EP, invented demo, '.repeat(7)}`.slice(0, MAX.recipe).trim(),
@@ -202,6 +210,29 @@ describe('blend sheet pages (s24)', () => {
       // The totals row: 100 % and the 10 000.0 kg batch (the batch size typed; common practice (no source)).
       expect(pageText(pdf, 1, true)).toMatch(/^\s*Total\s+100\.00\s+100\.00\s+10\D?000\.0\s/m);
       expect(text).toContain('Releasedby');
+    }
+    expect(s.errors).toEqual([]);
+  });
+
+  it('a batch on a heel with 12 short-named components: one A4 page; on US Letter the QC table, cautions and sign-off go to page 2 together', async () => {
+    const { page } = s;
+    await seed(page, { longCodes: [], longNames: [], longHeader: false, shortFields: true });
+    await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
+    const heel = page.getByLabel(/^Heel mass/);
+    await heel.fill('2000');
+    await heel.press('Enter');
+    await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
+    await page.getByTestId('heel-row').waitFor();
+    for (const [paper, expected] of [['a4', 1], ['letter', 2]] as const) {
+      const pdf = await print(page, 'sheet-pages-heel', paper);
+      const pages = pdfPages(pdf);
+      expect(pages).toBe(expected);
+      const flat = Array.from({ length: pages }, (_, i) => squash(pageText(pdf, i + 1)));
+      // The sign-off never stands alone on a page (it did on Letter: cautions on page 1, sign-off on page 2).
+      for (const w of ['3.PredictedpropertiesandQCrelease', 'Cautions', 'Blendedby', 'Releasedby']) {
+        expect(flat.filter((t) => t.includes(w))).toEqual([flat.at(-1)]);
+      }
+      expect(flat.join('').split('Totaladded').length - 1).toBe(1);
     }
     expect(s.errors).toEqual([]);
   });

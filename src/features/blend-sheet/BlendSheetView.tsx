@@ -902,74 +902,77 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           </div>
         </section>
 
-        <section className="bs-qc-section" aria-labelledby={`${id}-qc`}>
-          {qc && 'error' in qc ? (
-            <>
-              <h3 id={`${id}-qc`}>3. Predicted properties and QC release</h3>
-              <p className="bs-error" role="alert">
-                Properties cannot be predicted for this recipe: {qc.error}
-              </p>
-            </>
-          ) : (
-            <table className="bs-table bs-qc">
-              <caption id={`${id}-qc`}>
-                3. Predicted properties and QC release
-                {inBand ? (
-                  <span className="bs-caption-note" data-testid="printed-in-band">
-                    {' '}
-                    — lot spread (model): {probabilityText(inBand.plant.probability, fmt)} of batches in the ν40 release band,{' '}
-                    {probabilityText(inBand.iso.probability, fmt)} in the ISO band
-                  </span>
-                ) : null}
-              </caption>
-              <thead>
-                <tr>
-                  <th scope="col">Property</th>
-                  <th scope="col">Unit</th>
-                  <th scope="col" className="bs-num">Predicted</th>
-                  <th scope="col">Release target</th>
-                  <th scope="col">Test method</th>
-                  <th scope="col" className="bs-measured">Measured</th>
-                  <th scope="col" className="bs-initials">Initials</th>
-                </tr>
-              </thead>
-              <tbody>
-                {qc?.rows.map((r) => (
-                  <tr key={r.key} className={r.predictedOutsideTarget ? 'bs-outside' : undefined}>
-                    <th scope="row">{r.property}</th>
-                    <td>{r.unit}</td>
-                    <td className="bs-num">
-                      {r.predictedOutsideTarget ? <span className="bs-flag">outside </span> : null}
-                      {r.predicted}
-                    </td>
-                    <td>{r.target}</td>
-                    <td className="bs-method">{r.method}</td>
-                    <td className="bs-measured" />
-                    <td className="bs-initials" />
+        {/* The QC table, the cautions and the sign-off: one block that a page break never splits. */}
+        <div className="bs-closing">
+          <section className="bs-qc-section" aria-labelledby={`${id}-qc`}>
+            {qc && 'error' in qc ? (
+              <>
+                <h3 id={`${id}-qc`}>3. Predicted properties and QC release</h3>
+                <p className="bs-error" role="alert">
+                  Properties cannot be predicted for this recipe: {qc.error}
+                </p>
+              </>
+            ) : (
+              <table className="bs-table bs-qc">
+                <caption id={`${id}-qc`}>
+                  3. Predicted properties and QC release
+                  {inBand ? (
+                    <span className="bs-caption-note" data-testid="printed-in-band">
+                      {' '}
+                      — lot spread (model): {probabilityText(inBand.plant.probability, fmt)} of batches in the ν40 release band,{' '}
+                      {probabilityText(inBand.iso.probability, fmt)} in the ISO band
+                    </span>
+                  ) : null}
+                </caption>
+                <thead>
+                  <tr>
+                    <th scope="col">Property</th>
+                    <th scope="col">Unit</th>
+                    <th scope="col" className="bs-num">Predicted</th>
+                    <th scope="col">Release target</th>
+                    <th scope="col">Test method</th>
+                    <th scope="col" className="bs-measured">Measured</th>
+                    <th scope="col" className="bs-initials">Initials</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-          <p className="bs-note">
-            {adjustedOk && adjustedOk.result.status === 'optimal' ? (
-              <span data-testid="qc-batch-note">
-                Predicted column: the saved recipe with the library’s values. The batch as charged (lots and heel entered above) is predicted at
-                ν40 {fmt(adjustedOk.result.batch.kv40, 1)} mm²/s, ν100 {fmt(adjustedOk.result.batch.kv100, 2)} mm²/s
-                {adjustedOk.result.batch.vi === null ? '' : `, VI ${fmt(adjustedOk.result.batch.vi, 0)}`}.{' '}
-              </span>
-            ) : null}
-            {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
+                </thead>
+                <tbody>
+                  {qc?.rows.map((r) => (
+                    <tr key={r.key} className={r.predictedOutsideTarget ? 'bs-outside' : undefined}>
+                      <th scope="row">{r.property}</th>
+                      <td>{r.unit}</td>
+                      <td className="bs-num">
+                        {r.predictedOutsideTarget ? <span className="bs-flag">outside </span> : null}
+                        {r.predicted}
+                      </td>
+                      <td>{r.target}</td>
+                      <td className="bs-method">{r.method}</td>
+                      <td className="bs-measured" />
+                      <td className="bs-initials" />
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+            <p className="bs-note">
+              {adjustedOk && adjustedOk.result.status === 'optimal' ? (
+                <span data-testid="qc-batch-note">
+                  Predicted column: the saved recipe with the library’s values. The batch as charged (lots and heel entered above) is predicted at
+                  ν40 {fmt(adjustedOk.result.batch.kv40, 1)} mm²/s, ν100 {fmt(adjustedOk.result.batch.kv100, 2)} mm²/s
+                  {adjustedOk.result.batch.vi === null ? '' : `, VI ${fmt(adjustedOk.result.batch.vi, 0)}`}.{' '}
+                </span>
+              ) : null}
+              {qc && 'warnings' in qc && qc.warnings.length > 0 ? <>Prediction notes: {qc.warnings.join(' ')} </> : null}
 
-            Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
-            from the product specification
-            {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
-            recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.{' '}
-            <span data-testid="method-note">{methodText(method)}</span>
-          </p>
-        </section>
+              Release limits: ν40 from the grade (plant aim ±5 % of the mid-point, inside the ISO 3448 band); every other limit
+              from the product specification
+              {recipe.specification.reference.trim() ? ` ${recipe.specification.reference.trim()}` : ''} as entered for this
+              recipe (“Per specification” where none was entered). Predicted values are estimates, shown for information only.{' '}
+              <span data-testid="method-note">{methodText(method)}</span>
+            </p>
+          </section>
 
-        <SheetFooter roles={['Blended by', 'QC tested by', 'Released by']} />
+          <SheetFooter roles={['Blended by', 'QC tested by', 'Released by']} />
+        </div>
       </article>
 
       {correction && 'result' in correction && correction.result.status === 'optimal' && correction.result.addedKg > 0 && (

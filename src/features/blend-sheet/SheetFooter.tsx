@@ -6,7 +6,8 @@ import { BLEND_SHEET_CAUTIONS } from '../../core/sheet/blend-sheet';
  */
 export function SheetFooter({ roles }: { roles: readonly string[] }) {
   return (
-    <>
+    // One block that a page break never splits: the sign-off never stands alone on a page.
+    <div className="bs-foot">
       <section className="bs-cautions" aria-label="Cautions">
         <h3>Cautions</h3>
         <ul>
@@ -25,6 +26,6 @@ export function SheetFooter({ roles }: { roles: readonly string[] }) {
           </div>
         ))}
       </section>
-    </>
+    </div>
   );
 }
