@@ -199,12 +199,19 @@ describe('blend sheet pages (s24)', () => {
     expect(rows).toHaveLength(12);
     expect(rows.map((r) => r.code)).toContain(longCode(1));
     expect(rows.map((r) => r.name)).toContain(longName(0));
+    // Legible: no text of the sheet's tables prints below 7.5 pt (= 10 CSS px, 1 pt = 4/3 px by definition).
+    await page.emulateMedia({ media: 'print' });
+    const smallest = await page.evaluate(() =>
+      Math.min(...[...document.querySelectorAll('.blend-sheet .bs-table :is(th, td, span)')].map((el) => parseFloat(getComputedStyle(el).fontSize))),
+    );
+    await page.emulateMedia({ media: 'screen' });
+    expect(smallest).toBeGreaterThanOrEqual(10);
     for (const paper of ['a4', 'letter'] as const) {
       const pdf = await print(page, 'sheet-pages-long-fields', paper);
       expect(pdfPages(pdf)).toBe(1);
       const text = squash(pageText(pdf));
       for (const r of rows) expect(text).toContain(squash(r.code));
-      expect(text).toContain(squash(longName(0))); // whole, not cut short
+      expect(squash(nameColumn(pdf, 1))).toContain(squash(longName(0))); // whole, not cut short
       expect(text).toContain(LOT);
       expect(text).toContain(squash(VESSEL));
       // The totals row: 100 % and the 10 000.0 kg batch (the batch size typed; common practice (no source)).

@@ -685,7 +685,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         )}
 
         {sheet && (
-          <table className={`bs-table bs-components${costing || adjustedOk ? ' bs-wide' : ''}`}>
+          <table
+            className={`bs-table bs-components${costing || adjustedOk ? ' bs-wide' : ''}${sheet.rows.some((r) => r.code.length > 12) ? ' bs-long-codes' : ''}`}
+          >
             <caption>
               1. Components, in charging order
               {adjustedOk ? (

@@ -44,7 +44,7 @@ export function pageHeadText(f: PageHeadFields): string {
 export function pageRule(paper: 'a4' | 'letter', head: PageHeadFields): string {
   const font = "font: 7pt 'Liberation Sans', Arial, Helvetica, sans-serif; color: #1b1b1b; vertical-align: bottom; padding-bottom: 1.5mm;";
   return (
-    `@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 8mm 10mm; ` +
+    `@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 8mm 10mm 6mm; ` +
     // The head may take two lines (a long product, lot and a batch on a heel); it never runs into "Page n of m".
     `@top-left { content: ${cssString(pageHeadText(head))}; ${font} white-space: normal; overflow-wrap: anywhere; } ` +
     `@top-right { content: "Page " counter(page) " of " counter(pages); ${font} white-space: nowrap; } } ` +

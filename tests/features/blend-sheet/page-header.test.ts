@@ -17,7 +17,7 @@ describe('blend sheet running head', () => {
 
   it('puts the head at the top left and "Page n of m" at the top right of every page, with the paper size', () => {
     const rule = pageRule('letter', head);
-    expect(rule).toMatch(/^@page \{ size: letter portrait; margin: 8mm 10mm; /);
+    expect(rule).toMatch(/^@page \{ size: letter portrait; margin: 8mm 10mm 6mm; /);
     expect(rule).toContain('@top-left { content: "Gear oil VG 320 — trial (invented) · ISO VG 320 · Batch / lot L-2026-118');
     expect(rule).toContain('@top-right { content: "Page " counter(page) " of " counter(pages);');
   });
