@@ -175,6 +175,16 @@ async function print(page: Page, name: string, paper: 'a4' | 'letter'): Promise<
   return path;
 }
 
+/** Charges the batch on a heel of 2000 kg, a previous batch of the same recipe (its line on the sheet). */
+async function onHeel(page: Page): Promise<void> {
+  await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
+  const heel = page.getByLabel(/^Heel mass/);
+  await heel.fill('2000');
+  await heel.press('Enter');
+  await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
+  await page.getByTestId('heel-row').waitFor();
+}
+
 /** The names and codes printed, read from the sheet on screen (its charging order). */
 async function printedRows(page: Page): Promise<{ code: string; name: string }[]> {
   return page
@@ -224,12 +234,7 @@ describe('blend sheet pages (s24)', () => {
   it('a batch on a heel with 12 short-named components: one A4 page; on US Letter the QC table, cautions and sign-off go to page 2 together', async () => {
     const { page } = s;
     await seed(page, { longCodes: [], longNames: [], longHeader: false, shortFields: true });
-    await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
-    const heel = page.getByLabel(/^Heel mass/);
-    await heel.fill('2000');
-    await heel.press('Enter');
-    await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
-    await page.getByTestId('heel-row').waitFor();
+    await onHeel(page);
     for (const [paper, expected] of [['a4', 1], ['letter', 2]] as const) {
       const pdf = await print(page, 'sheet-pages-heel', paper);
       const pages = pdfPages(pdf);
@@ -250,12 +255,7 @@ describe('blend sheet pages (s24)', () => {
     // Every code and name at its longest, a 200-character product and company name, 120-character lot
     // and vessel, a heel (its line and two share columns), the metering column and the costing copy.
     await seed(page, { longCodes: all, longNames: all, longHeader: true });
-    await page.getByText('Lots in the tanks, heel in the vessel and aim', { exact: false }).click();
-    const heel = page.getByLabel(/^Heel mass/);
-    await heel.fill('2000');
-    await heel.press('Enter');
-    await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
-    await page.getByTestId('heel-row').waitFor();
+    await onHeel(page);
     await page.getByLabel('Costing copy').check();
     await page.getByText(/per batch/).waitFor();
     const rows = await printedRows(page);
