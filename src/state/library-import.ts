@@ -349,6 +349,11 @@ export interface ImportPreviewOptions {
    * file's other numbers do not tell which mark it uses (default ".").
    */
   decimalSeparator?: '.' | ',';
+  /**
+   * The base currency of the settings: the currency of a new stock whose row gives none (default "EUR").
+   * A stored stock updated without a currency keeps its own.
+   */
+  baseCurrency?: string;
 }
 
 /**
@@ -470,7 +475,7 @@ export function csvPreviewer(text: string, existing: readonly Component[], opts:
       // text, but leaves the price basis, currency and availability as stored (they cannot be blank).
       const code = get('code').trim();
       const match = stored.get(code.toLowerCase());
-      const base = match ?? blankComponent({ sourceDate: '' });
+      const base = match ?? blankComponent({ sourceDate: '', price: { amount: 0, basis: 'per-kg', currency: opts.baseCurrency?.trim() || 'EUR' } });
       const basisRaw = get('price_basis').trim().toLowerCase();
       const basis = basisRaw === '' ? base.price.basis : BASIS_ALIASES[basisRaw];
       if (!basis) errors.push(`price_basis: “${clip(get('price_basis'), 20)}” is not per-kg, per-litre or per-tonne`);

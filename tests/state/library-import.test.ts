@@ -29,3 +29,20 @@ describe('ambiguous thousands / decimal mark, written in the file’s notation',
     expect(neg.rows[0]!.errors.join(' ')).toMatch(/could mean −1,25 or −1250/);
   });
 });
+
+// s24 hunt: a new stock imported without a currency was priced in EUR whatever the base currency, so a
+// supplier's list in the base currency was restated at the EUR rate unseen. Values invented; no calculation.
+describe('a new stock without a currency column or cell', () => {
+  const H = 'code,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price';
+  it('is priced in the base currency of the settings', () => {
+    const p = previewCsv(`${H}\nNEW-1,group-ii,100,11,0.87,1250\n`, lib, { baseCurrency: 'USD' });
+    expect(p.valid).toBe(true);
+    expect(p.rows[0]!.component!.price.currency).toBe('USD');
+    const blank = previewCsv(`${H},currency\nNEW-1,group-ii,100,11,0.87,1250,\n`, lib, { baseCurrency: 'USD' });
+    expect(blank.rows[0]!.component!.price.currency).toBe('USD');
+  });
+  it('keeps a currency the row gives, and a stored stock keeps its own when the row gives none', () => {
+    const p = previewCsv(`${H},currency\nNEW-1,group-ii,100,11,0.87,1250,GBP\nBW-190,group-i,485,31.8,0.9,1250,\n`, lib, { baseCurrency: 'USD' });
+    expect(p.rows.map((r) => r.component!.price.currency)).toEqual(['GBP', 'EUR']);
+  });
+});

@@ -9,6 +9,7 @@ import type { Component } from '../../core/formulation/model';
 import { predictionImpact, type RecipeImpact } from '../../core/recipes/impact';
 import { ImpactTable } from './ImpactConfirm';
 import { startImportPreview, type ImportHandle } from './import-client';
+import { normaliseCurrency } from '../../core/currency/exchange-rates';
 
 type RowFilter = 'all' | 'errors' | 'update' | 'add' | 'unchanged';
 const SHOWN_ROWS = 500;
@@ -45,7 +46,8 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
   const run = useRef<ImportHandle | null>(null);
   const inputRef = useRef<HTMLInputElement>(null);
   const components = useLibrary((s) => s.components);
-  const decimalSeparator = useSettings().decimalSeparator;
+  const { decimalSeparator, baseCurrency: baseSetting } = useSettings();
+  const baseCurrency = normaliseCurrency(baseSetting) || 'EUR';
 
   useEffect(() => () => run.current?.cancel(), []);
 
@@ -65,7 +67,7 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
       return;
     }
     // A "could mean 1.25 or 1250" the file does not settle is written with the settings' decimal separator.
-    const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }), { decimalSeparator });
+    const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }), { decimalSeparator, baseCurrency });
     run.current = handle;
     const outcome = await handle.outcome;
     if (run.current !== handle) return; // a newer file was chosen
@@ -111,7 +113,8 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
         update, a column the file does not have keeps the stored value; an empty cell clears an optional value. Nothing changes
         until you confirm a file without errors. Up to {fmt.num(COLLECTION_LIMITS.importRows, 0)} rows. CSV columns:{' '}
         <code>{CSV_COLUMNS.join(', ')}</code> (temperatures in °C, viscosities in mm²/s, density in kg/L, shear losses in %;
-        kv40_lot_spread_pct is the lot-to-lot relative standard deviation of ν40 in %, blank = the category default).
+        kv40_lot_spread_pct is the lot-to-lot relative standard deviation of ν40 in %, blank = the category default). A new
+        stock whose row names no currency is priced in the base currency ({baseCurrency}); one with no price_basis, per kg.
       </p>
       <label htmlFor={fileId} className="field-label">
         File

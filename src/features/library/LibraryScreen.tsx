@@ -12,6 +12,7 @@ import { ComponentRow, CATEGORY_OPTIONS } from './ComponentRow';
 import { ComponentDetails } from './ComponentDetails';
 import { ImpactConfirm, type PendingStockChange, type StockUpdateOutcome } from './ImpactConfirm';
 import { predictionImpact } from '../../core/recipes/impact';
+import { normaliseCurrency } from '../../core/currency/exchange-rates';
 
 
 /** Stock fields whose change moves the viscosity and density predictions of recipes. */
@@ -38,7 +39,7 @@ export default function LibraryScreen() {
   const recipes = useRecipes((s) => s.recipes);
   const history = useLibraryHistory();
   const fmt = useFormat();
-  const blendMethod = useSettings().blendMethod;
+  const { blendMethod, baseCurrency } = useSettings();
   const [query, setQuery] = useState('');
   const [category, setCategory] = useState<ComponentCategory | 'all'>('all');
   const [expanded, setExpanded] = useState<string | null>(null);
@@ -220,7 +221,8 @@ export default function LibraryScreen() {
           className="primary"
           onClick={() => {
             if (full()) return;
-            const id = useLibrary.getState().addComponent();
+            // Priced in the base currency: a price typed for it is never restated at another currency's rate unseen.
+            const id = useLibrary.getState().addComponent({ price: { amount: 0, basis: 'per-kg', currency: normaliseCurrency(baseCurrency) || 'EUR' } });
             setQuery('');
             setCategory('all');
             setExpanded(id);

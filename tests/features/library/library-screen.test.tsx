@@ -155,6 +155,38 @@ describe('Library screen', () => {
     expect(bs().viscosityPoints[0]!.kv).toBe(490);
   });
 
+  it('Add stock prices the new stock in the base currency of the settings, not in EUR whatever the base (s24 hunt)', () => {
+    settingsActions.updateSettings({ baseCurrency: 'USD' });
+    try {
+      renderFor('NEW');
+      fireEvent.click(screen.getByRole('button', { name: 'Add stock' }));
+      const added = useLibrary.getState().components.at(-1)!;
+      // A price typed for it is in the base currency: never restated at the EUR rate unseen.
+      expect(added.price.currency).toBe('USD');
+    } finally {
+      settingsActions.updateSettings({ baseCurrency: 'EUR' });
+    }
+  });
+
+  it('an imported new stock whose row names no currency is priced in the base currency, as the panel says (s24 hunt)', async () => {
+    settingsActions.updateSettings({ baseCurrency: 'USD' });
+    try {
+      renderFor('X-1');
+      fireEvent.click(screen.getByRole('button', { name: 'Import CSV / JSON…' }));
+      const input = await screen.findByLabelText('File', {}, { timeout: 15_000 });
+      expect(screen.getByText(/names no currency is priced in the base currency \(USD\)/)).toBeTruthy();
+      const csv = 'code,name,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price\nX-1,Invented stock,group-ii,100,11,0.87,1.2\n'; // invented values
+      await act(async () => {
+        fireEvent.change(input, { target: { files: [new File([csv], 'new.csv', { type: 'text/csv' })] } });
+      });
+      await screen.findByText('new.csv is valid.');
+      fireEvent.click(screen.getByRole('button', { name: 'Import: add 1, update 0' }));
+      expect(useLibrary.getState().components.find((c) => c.code === 'X-1')!.price).toEqual({ amount: 1.2, basis: 'per-kg', currency: 'USD' });
+    } finally {
+      settingsActions.updateSettings({ baseCurrency: 'EUR' });
+    }
+  });
+
   it('does not delete a stock used in a recipe and says why', () => {
     renderFor('BW-190');
     fireEvent.click(screen.getByRole('button', { name: 'Delete BW-190' }));
