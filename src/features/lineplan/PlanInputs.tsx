@@ -6,7 +6,7 @@ import { NumberField, TextField, type Verdict } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { leastUseAboveSupply, linePlanActions, type LinePlanInputs } from '../../state';
 import { NUMBER_RULES, checkText } from '../../state/field-rules';
-import { limitedStocks, plannedDemands, unplannedDemands } from './derive';
+import { limitedStocks, plannedDemands, unplannedDemands, withdrawnSupplies } from './derive';
 
 /** kg per unit the user types in. */
 const PER_UNIT = { kg: 1, t: 1000 } as const;
@@ -59,6 +59,7 @@ export function PlanInputs({
   const shown = showAll ? sorted : sorted.filter((r) => r.status === 'approved' || demands.has(r.id));
   const hidden = sorted.length - shown.length;
   const limited = limitedStocks(components, plan);
+  const goneSupplies = withdrawnSupplies(components, recipes, plan);
   const limitable = components.filter((c) => c.availability !== 'withdrawn' && !limited.includes(c));
   const keepIds = Object.keys(plan.keep).filter((id) => components.some((c) => c.id === id));
   const keepable = components.filter((c) => c.availability !== 'withdrawn' && !(c.id in plan.keep));
@@ -188,6 +189,19 @@ export function PlanInputs({
             remove={(c) => (c.availability === 'limited' ? null : { label: `Stop limiting ${c.code} in this plan`, run: () => linePlanActions.unlimitStock(c.id) })}
             disabled={disabled}
           />
+        )}
+        {goneSupplies.length > 0 && (
+          <p className="small" role="status" data-testid="withdrawn-supplies">
+            {goneSupplies
+              .map((g) => {
+                const saved = g.kg === null ? 'its limit in this plan is left out' : `its saved supply of ${fmt.num(g.kg / PER_UNIT[unit], unit === 't' ? 1 : 0)} ${unit} is left out`;
+                const held = g.grades.length
+                  ? ` The current recipe${g.grades.length > 1 ? 's' : ''} of ${g.grades.length > 1 ? `${g.grades.slice(0, -1).join(', ')} and ${g.grades.at(-1)}` : g.grades[0]} still hold${g.grades.length > 1 ? '' : 's'} it: ${g.grades.length > 1 ? 'their costs are those of recipes' : 'its cost is that of a recipe'} that cannot be made now.`
+                  : '';
+                return `${g.code} is withdrawn on Stocks, so neither plan uses it: ${saved}.${held}`;
+              })
+              .join(' ')}
+          </p>
         )}
         <AddStock
           label="Limit another stock in this plan"

@@ -82,6 +82,28 @@ export function unplannedDemands(recipes: readonly Recipe[], plan: LinePlanInput
   });
 }
 
+/**
+ * Stocks limited in the saved plan (a supply, or limited for this plan only) that are now withdrawn
+ * in the library: a withdrawn stock is in neither plan, so its entry is left out. The screen names
+ * each with the planned grades whose recipe still holds it, so a limited stock (and the tonnes saved
+ * for it) does not leave the plan unnoticed; the saved entry is kept.
+ *
+ * @returns each such stock's code, its saved supply [kg] (null: limited without a supply) and the
+ *   labels of the planned grades whose current recipe holds it, in library order
+ */
+export function withdrawnSupplies(
+  components: readonly Component[],
+  recipes: readonly Recipe[],
+  plan: LinePlanInputs,
+): { code: string; kg: number | null; grades: string[] }[] {
+  const grades = plannedGrades(recipes, plan);
+  return components.flatMap((c) => {
+    if (c.availability !== 'withdrawn' || !(c.id in plan.supplies)) return [];
+    const holding = grades.filter((g) => g.recipe.lines.some((l) => l.componentId === c.id)).map((g) => g.label);
+    return [{ code: c.code, kg: plan.supplies[c.id] ?? null, grades: holding }];
+  });
+}
+
 /** The planned recipes (a demand above 0, recipe still saved), by grade then name. */
 export function plannedGrades(recipes: readonly Recipe[], plan: LinePlanInputs): PlanGrade[] {
   const demands = plannedDemands(recipes, plan);

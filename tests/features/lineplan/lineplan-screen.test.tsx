@@ -67,6 +67,22 @@ describe('Whole-line plan screen', () => {
     expect(screen.queryByTestId('unplanned-demands')).toBeNull();
   });
 
+  it('says that a saved supply is not planned once its stock is withdrawn on Stocks, and which planned recipes still hold it (s24 hunt)', () => {
+    linePlanActions.setDemand('demo-vg320', 400_000);
+    linePlanActions.setDemand('demo-vg220', 300_000);
+    linePlanActions.setSupply('demo-bw-190', 180_000);
+    useLibrary.getState().updateComponent('demo-bw-190', { availability: 'withdrawn' });
+    render(<LinePlanScreen />);
+    // The supply row leaves the limited stocks (a withdrawn stock is in neither plan), but not unsaid.
+    expect(screen.queryByLabelText('Supply of BW-190')).toBeNull();
+    const note = screen.getByTestId('withdrawn-supplies').textContent!;
+    expect(note).toBe(
+      'BW-190 is withdrawn on Stocks, so neither plan uses it: its saved supply of 180.0 t is left out. ' +
+        'The current recipes of VG 220 and VG 320 still hold it: their costs are those of recipes that cannot be made now.',
+    );
+    expect(useRecipes.getState().linePlan.supplies['demo-bw-190']).toBe(180_000); // kept, not dropped
+  });
+
   it('saves demands and supplies as typed, and refuses a bad entry at the field in the user’s words', () => {
     render(<LinePlanScreen />);
     enter(/Demand of “Gear oil VG 320/, '400');
