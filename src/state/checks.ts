@@ -164,7 +164,7 @@ function checkValueSpecific(field: CheckField, v: number | null, words: SayNumbe
     case 'price':
       if (v < 0) return { error: 'a price cannot be negative' };
       if (v > POSSIBLE.maxPrice) return { error: `${fmt(v)} is not a possible price` };
-      if (v === 0) return { warning: 'no price: costs will treat this stock as free' };
+      if (v === 0) return { warning: 'no price: left out of costing and solving until one is entered' };
       return {};
     case 'oxidationRating':
       if (v < OXIDATION_RATING_MIN || v > OXIDATION_RATING_MAX) {

@@ -25,7 +25,7 @@ describe('entry checks for a component', () => {
   it('flags implausible but possible values as warnings', () => {
     expect(checkValue('kv40', 80_000).warning).toMatch(/outside the usual/);
     expect(checkValue('pourPoint', -95).warning).toMatch(/−95 °C is outside the usual −80 °C to 40 °C/);
-    expect(checkValue('price', 0).warning).toMatch(/free/);
+    expect(checkValue('price', 0).warning).toBe('no price: left out of costing and solving until one is entered'); // s24: never costed as free
     expect(checkValue('density15', 1.15).warning).toMatch(/unusual/);
     expect(checkValue('anilinePoint', 100)).toEqual({});
   });

@@ -83,6 +83,8 @@ export interface UnpricedStock {
   code: string;
   /** The currency as entered on the stock. */
   currency: string;
+  /** True when the stock has no price at all (0, as a stock just added): nothing to restate. */
+  noPrice?: true;
 }
 
 /** The library with every price in the base currency, and what could not be converted. */
@@ -110,6 +112,12 @@ export function priceLibraryInBase(components: readonly Component[], base: strin
   const unpriced: UnpricedStock[] = [];
   const used = new Map<string, ExchangeRate>();
   const out = components.map((c) => {
+    if (!(c.price.amount > 0)) {
+      // No price (0): never costed as free. Its currency is blanked in the priced copy, so a recipe
+      // holding it is not costed, like one holding a stock without a rate (the stored stock keeps it).
+      unpriced.push({ componentId: c.id, code: c.code, currency: c.price.currency.trim(), noPrice: true });
+      return { ...c, price: { ...c.price, currency: '' } };
+    }
     const r = rateToBase(c.price.currency, base, rates);
     if (!r) {
       unpriced.push({ componentId: c.id, code: c.code, currency: c.price.currency.trim() });
@@ -185,7 +193,8 @@ export function describeRate(rate: ExchangeRate, base: string, formatRate: (x: n
 }
 
 /**
- * The user's message for unpriced stocks, naming each stock and its currency.
+ * The user's message for unpriced stocks: those without a price (0), then each other stock with its
+ * currency that has no rate.
  *
  * @param unpriced - from {@link priceLibraryInBase}
  * @param base - base currency code
@@ -197,17 +206,32 @@ export function describeRate(rate: ExchangeRate, base: string, formatRate: (x: n
 export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string, maxCodes = 8): string {
   if (unpriced.length === 0) return '';
   const b = normaliseCurrency(base);
-  const byCurrency = new Map<string, string[]>();
-  for (const u of unpriced) {
-    const c = u.currency || '(no currency)';
-    byCurrency.set(c, [...(byCurrency.get(c) ?? []), u.code]);
-  }
   const list = (codes: string[]) =>
-    codes.length > maxCodes ? `${codes.slice(0, maxCodes).join(', ')} and ${codes.length - maxCodes} more` : codes.join(', ');
-  const parts = [...byCurrency].map(([cur, codes]) =>
-    codes.length === 1 ? `${codes[0]} is priced in ${cur}` : `${list(codes)} are priced in ${cur}`,
-  );
-  const which = byCurrency.size === 1 ? 'which has' : 'which have';
-  const it = unpriced.length === 1 ? 'it is' : 'they are';
-  return `${parts.join('; ')}, ${which} no exchange rate to ${b}: ${it} left out of costing and solving until a rate is entered under Settings → Exchange rates.`;
+    codes.length > maxCodes
+      ? `${codes.slice(0, maxCodes).join(', ')} and ${codes.length - maxCodes} more`
+      : codes.length > 1
+        ? `${codes.slice(0, -1).join(', ')} and ${codes.at(-1)}`
+        : codes.join('');
+  const sentences: string[] = [];
+  const noPrice = unpriced.filter((u) => u.noPrice).map((u) => u.code);
+  if (noPrice.length) {
+    sentences.push(
+      `${list(noPrice)} ${noPrice.length === 1 ? 'has' : 'have'} no price: ${noPrice.length === 1 ? 'it is' : 'they are'} left out of costing and solving until a price is entered on Stocks.`,
+    );
+  }
+  const noRate = unpriced.filter((u) => !u.noPrice);
+  if (noRate.length) {
+    const byCurrency = new Map<string, string[]>();
+    for (const u of noRate) {
+      const c = u.currency || '(no currency)';
+      byCurrency.set(c, [...(byCurrency.get(c) ?? []), u.code]);
+    }
+    const parts = [...byCurrency].map(([cur, codes]) =>
+      codes.length === 1 ? `${codes[0]} is priced in ${cur}` : `${codes.length > maxCodes ? list(codes) : codes.join(', ')} are priced in ${cur}`,
+    );
+    const which = byCurrency.size === 1 ? 'which has' : 'which have';
+    const it = noRate.length === 1 ? 'it is' : 'they are';
+    sentences.push(`${parts.join('; ')}, ${which} no exchange rate to ${b}: ${it} left out of costing and solving until a rate is entered under Settings → Exchange rates.`);
+  }
+  return sentences.join(' ');
 }

@@ -251,7 +251,7 @@ export default function DesignerScreen() {
         </aside>
         <div className="designer-main">
           {priced.unpriced.length > 0 && (
-            <Notice tone="warning" title="Stocks without an exchange rate">
+            <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
               <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
             </Notice>
           )}

@@ -262,7 +262,7 @@ export default function ExplorerScreen() {
         onCancel={() => running?.cancel()}
       />
       {priced.unpriced.length > 0 && (
-        <Notice tone="warning" title="Stocks without an exchange rate">
+        <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
           <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
         </Notice>
       )}

@@ -258,7 +258,7 @@ function ExchangeRates() {
         </p>
       )}
       {priced.unpriced.length > 0 ? (
-        <Notice tone="warning" title="Stocks without an exchange rate">
+        <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
           <p data-testid="unpriced">{unpricedMessage(priced.unpriced, base)}</p>
         </Notice>
       ) : (

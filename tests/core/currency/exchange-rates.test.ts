@@ -48,6 +48,26 @@ describe('exchange rates at the boundary', () => {
     );
   });
 
+  it('a stock without a price (0) is named and left out of costing and solving, never costed as free (s24 hunt)', () => {
+    // A stock just added (price 0) was the least-cost choice of every solve and search, unsaid where costs are shown.
+    const eur = makeComponent(STOCKS.g2heavy!);
+    const free = { ...makeComponent(STOCKS.g2hv!), price: { amount: 0, basis: 'per-kg' as const, currency: 'EUR' } };
+    const priced = priceLibraryInBase([eur, free], 'EUR', rates);
+    expect(priced.unpriced).toEqual([{ componentId: 'g2hv', code: 'G2HV', currency: 'EUR', noPrice: true }]);
+    // Not in the base currency any more: a recipe holding it is "not costed", as one holding a stock without a rate.
+    expect(priced.components[1]!.price.currency).not.toBe('EUR');
+    expect(solvableLibrary(priced).map((c) => c.availability)).toEqual(['available', 'withdrawn']);
+    expect(unpricedMessage(priced.unpriced, 'EUR')).toBe(
+      'G2HV has no price: it is left out of costing and solving until a price is entered on Stocks.',
+    );
+    const gbp = { ...makeComponent(STOCKS.pao6!), price: { amount: 3, basis: 'per-kg' as const, currency: 'GBP' } };
+    const both = priceLibraryInBase([free, gbp, { ...eur, price: { ...eur.price, amount: 0 } }], 'EUR', rates);
+    expect(unpricedMessage(both.unpriced, 'EUR')).toBe(
+      'G2HV and G2HEAVY have no price: they are left out of costing and solving until a price is entered on Stocks. ' +
+        'PAO6 is priced in GBP, which has no exchange rate to EUR: it is left out of costing and solving until a rate is entered under Settings → Exchange rates.',
+    );
+  });
+
   it('describes a rate as printed on costing copies', () => {
     expect(describeRate(rates[0]!, 'eur')).toBe('USD → EUR 0.92 as of 2026-11-30');
     expect(describeRate({ currency: 'USD', rate: 0.92, asOf: '' }, 'EUR')).toBe('USD → EUR 0.92 (date not given)');

@@ -56,3 +56,19 @@ describe('designer with a stock priced in another currency', () => {
     expect(header).toBe('Cost share, USD/L at 15 °C');
   });
 });
+
+describe('designer with a stock that has no price (s24 hunt)', () => {
+  it('names it, costs no recipe holding it as free, and solves without it', async () => {
+    // BW-160 without a price (0), as a stock just added: it was counted free and picked first by least-cost solves.
+    settingsActions.updateSettings({ baseCurrency: 'EUR', exchangeRates: [{ currency: 'USD', rate: 0.5, asOf: '2026-11-30' }] });
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    useLibrary.getState().updateComponent(c.id, { price: { amount: 0, basis: 'per-tonne', currency: 'EUR' } });
+    render(<DesignerScreen />);
+    expect(screen.getByText('Stocks without a usable price')).toBeTruthy();
+    expect(screen.getByTestId('unpriced').textContent).toBe('BW-160 has no price: it is left out of costing and solving until a price is entered on Stocks.');
+    expect(costCell('BW-160')).toBe('—');
+    fireEvent.click(screen.getByRole('button', { name: 'Solve' }));
+    await screen.findByText('Solved', {}, { timeout: 10_000 });
+    expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();
+  });
+});
