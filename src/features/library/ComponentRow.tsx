@@ -4,6 +4,7 @@ import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../../core/formulation/mod
 import { roundHalfEven } from '../../core/viscosity/viscosity-index';
 import { NumberField, SelectField, TextField, type Verdict } from '../../components/fields';
 import { gradeLabel, useFormat } from '../../components/format';
+import { normaliseCurrency } from '../../core/currency/exchange-rates';
 import { ROW_KEY_ATTR } from '../../components/row-window';
 import { checkLabelText, checkValue, checkViscosityPair, kv40kv100, viOrReason } from '../../state/checks';
 
@@ -49,6 +50,8 @@ export interface RowProps {
  */
 export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded, onUpdate, onToggleDetails, onClone, onDelete, detailsId, rowIndex }: RowProps) {
   const fmt = useFormat();
+  const quoted = normaliseCurrency(c.price.currency);
+  const foreign = quoted !== normaliseCurrency(fmt.settings.baseCurrency) ? quoted : '';
   const kv = kv40kv100(c);
   const kv40 = kv?.kv40 ?? null;
   const kv100 = kv?.kv100 ?? null;
@@ -162,7 +165,13 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           value={c.price.amount}
           validate={(v) => toVerdict(checkValue('price', v, fmt))}
           onCommit={(v) => v !== null && onUpdate(c.id, { price: { ...c.price, amount: v } })}
-          hint={<span className="unit" title={BASIS_SHORT[c.price.basis]}>{BASIS_HINT[c.price.basis]}</span>}
+          hint={
+            // A price quoted in another currency than the base names it: one column never mixes currencies unseen.
+            <span className="unit" title={`${foreign ? `${foreign} ` : ''}${BASIS_SHORT[c.price.basis]}`}>
+              {foreign}
+              {BASIS_HINT[c.price.basis]}
+            </span>
+          }
         />
       </td>
       <td className="avail-cell">

@@ -168,6 +168,21 @@ describe('Library screen', () => {
     }
   });
 
+  it('writes the currency beside a price quoted in another currency than the base, so one column never mixes them unseen (s24 hunt)', () => {
+    settingsActions.updateSettings({ baseCurrency: 'USD' });
+    try {
+      renderFor('BW-19');
+      // BW-190 is quoted in EUR (invented demo): beside its price "EUR/t"; a price in the base currency keeps "/t".
+      expect(within(rowOf('BW-190')).getByTitle('EUR /t').textContent).toBe('EUR/t');
+      act(() => {
+        expect(useLibrary.getState().updateComponent('demo-bw-190', { price: { ...bs().price, currency: 'usd' } })).toBeNull();
+      });
+      expect(within(rowOf('BW-190')).getByTitle('/t').textContent).toBe('/t');
+    } finally {
+      settingsActions.updateSettings({ baseCurrency: 'EUR' });
+    }
+  });
+
   it('an imported new stock whose row names no currency is priced in the base currency, as the panel says (s24 hunt)', async () => {
     settingsActions.updateSettings({ baseCurrency: 'USD' });
     try {
