@@ -406,8 +406,12 @@ export function csvPreviewer(text: string, existing: readonly Component[], opts:
       : [];
     const missing = REQUIRED.filter((c) => !index.has(c));
     if (missing.length) {
+      // Columns seen but not read (units in a name, "kv40 [mm²/s]") are named: they may be the missing ones.
+      const seen = unread.length
+        ? ` The file’s column${unread.length > 1 ? 's' : ''} ${unread.map((u) => `“${u}”`).join(', ')} ${unread.length > 1 ? 'are' : 'is'} not read; if one holds a missing column, give it that column’s name (values in its units).`
+        : '';
       fileErrors.push(
-        `Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')}. The first row must name the columns (${CSV_COLUMNS.join(', ')}).`,
+        `Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')}.${seen} The first row must name the columns (${CSV_COLUMNS.join(', ')}).`,
       );
       return settled(summarise('csv', fileErrors, []));
     }

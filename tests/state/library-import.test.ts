@@ -46,3 +46,14 @@ describe('a new stock without a currency column or cell', () => {
     expect(p.rows.map((r) => r.component!.price.currency)).toEqual(['GBP', 'EUR']);
   });
 });
+
+// s24 hunt: a header with units in the names ("kv40 [mm²/s]") was refused as "Missing columns" without
+// saying that those columns were seen but not read, so the blender could not tell what to rename.
+describe('a header naming columns Blendbench does not read, with a required one missing', () => {
+  it('names the columns it found but does not read beside the missing ones', () => {
+    const p = previewCsv('code,name,category,kv40 [mm²/s],kv100 [mm²/s],density15_kg_per_l,price\nX-1,a,group-ii,40,6.3,0.86,1000\n', lib);
+    expect(p.fileErrors).toEqual([
+      expect.stringMatching(/^Missing columns: kv40_mm2s, kv100_mm2s\. The file’s columns “kv40 \[mm²\/s\]”, “kv100 \[mm²\/s\]” are not read; if one holds a missing column, give it that column’s name \(values in its units\)\. The first row must name the columns/),
+    ]);
+  });
+});
