@@ -45,8 +45,8 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
   const yDomain = ys.length ? niceDomain(Math.min(...ys), Math.max(...ys)) : ([0, 1] as [number, number]);
   const xTicks = niceTicks(xDomain);
   const yTicks = niceTicks(yDomain);
-  // The reference temperature of the litre in the user's unit (15 °C = 59 °F), as everywhere on the explorer.
-  const at = f.temp(15);
+  // The litre is the volume tables' litre at 15 °C, named so in every unit (as on the designer and the blend sheet).
+  const at = '15 °C';
   const title = `Cost–solvency frontier (cost per litre at ${at} against blend aniline point; lower aniline point = more solvent)`;
   return (
     <figure className="chart" data-chart="frontier" style={{ width }}>

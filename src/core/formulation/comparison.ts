@@ -220,9 +220,9 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
   const out: string[] = [];
   if (c.costPerLitre.delta !== null) {
     const pct = c.costPerLitre.deltaPct === null ? '' : ` (${signed(c.costPerLitre.deltaPct, 1)} %)`;
-    out.push(`Cost per litre at ${temp(15)} ${deg} ${signed(c.costPerLitre.delta, 3)}${currency ? ` ${currency}` : ''}${pct}`);
+    out.push(`Cost per litre at 15 °C ${signed(c.costPerLitre.delta, 3)}${currency ? ` ${currency}` : ''}${pct}`);
   } else {
-    out.push(`Cost per litre at ${temp(15)} ${deg} not compared (prices in different currencies or missing).`);
+    out.push(`Cost per litre at 15 °C not compared (prices in different currencies or missing).`);
   }
   if (c.vi.delta !== null) out.push(`VI ${signed(c.vi.delta, 1)}`);
   if (c.anilinePoint.delta !== null) {

@@ -116,7 +116,7 @@ export const CandidateTable = memo(function CandidateTable({
     if (!b?.nominal) return '—';
     const d = cost - b.nominal.costPerLitre;
     return (
-      <span title={`${prob(b.plant)} instead of ${prob(b.nominal.probability)} in the plant band (the same stocks without the condition: ${fmt.num(b.nominal.costPerLitre, 3)} ${fmt.settings.currencySymbol}/L at ${fmt.temp(15)})`}>
+      <span title={`${prob(b.plant)} instead of ${prob(b.nominal.probability)} in the plant band (the same stocks without the condition: ${fmt.num(b.nominal.costPerLitre, 3)} ${fmt.settings.currencySymbol}/L at 15 °C)`}>
         {d >= 0 ? '+' : '−'}
         {fmt.num(Math.abs(d), 3)}
         <span className="visually-hidden">
@@ -223,7 +223,7 @@ export const CandidateTable = memo(function CandidateTable({
           <tr>
             {head('rank', 'Rank')}
             <th scope="col">Recipe (mass %)</th>
-            {head('cost', `Cost, ${fmt.settings.currencySymbol}/L at ${fmt.temp(15)}`)}
+            {head('cost', `Cost, ${fmt.settings.currencySymbol}/L at 15 °C`)}
             <th scope="col" className="num">vs reference</th>
             {head('kv40', 'ν40')}
             {head('vi', 'VI')}
@@ -235,7 +235,7 @@ export const CandidateTable = memo(function CandidateTable({
             </th>
             {minInBandProbability !== null && (
               <th scope="col" className="num">
-                Premium, {fmt.settings.currencySymbol}/L at {fmt.temp(15)}
+                Premium, {fmt.settings.currencySymbol}/L at 15 °C
               </th>
             )}
             <th scope="col">Frontier</th>

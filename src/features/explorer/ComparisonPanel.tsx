@@ -74,7 +74,7 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
   const cCost = inBase(c);
   const costD = rCost !== null && cCost !== null ? cCost - rCost : null;
   rows.push({
-    label: `Cost per litre at ${fmt.temp(15)}`,
+    label: `Cost per litre at 15 °C`,
     ref: costText(r),
     cand: costText(c),
     change: costD === null || !rCost ? '—' : `${delta(rCost, cCost, fmt, 3)} (${costD > 0 ? '+' : ''}${fmt.num((100 * costD) / rCost, 1)} %)`,
@@ -183,7 +183,7 @@ export function comparisonRows(ref: Assessed | null, cand: Assessed | null, fmt:
     change: r && c ? delta(r.polymerFraction * 100, c.polymerFraction * 100, fmt, 1) : '—',
     tone: r && c ? tone(c.polymerFraction - r.polymerFraction, true) : undefined,
   });
-  rows.push({ label: `Density at ${fmt.temp(15)}, kg/L`, ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
+  rows.push({ label: `Density at 15 °C, kg/L`, ref: fmt.num(r?.density15, 4), cand: fmt.num(c?.density15, 4), change: delta(r?.density15, c?.density15, fmt, 4) });
   return rows;
 }
 
@@ -213,7 +213,7 @@ export function premiumSentence(b: InBandOf, costPerLitre: number, fmt: Formatte
   const d = costPerLitre - n.costPerLitre;
   const p = (x: number) => probabilityText(x, (v, k) => fmt.num(v, k));
   const cur = fmt.settings.currencySymbol;
-  const at = fmt.temp(15);
+  const at = '15 °C'; // the volume tables' reference, named so in every unit
   return (
     `${d >= 0 ? '+' : '−'}${fmt.num(Math.abs(d), 3)} ${cur}/L at ${at} buys ${p(b.plant)} instead of ${p(n.probability)} of batches in the plant band ` +
     `(the same stocks without that condition: ${fmt.num(n.costPerLitre, 3)} ${cur}/L at ${at}).`
@@ -422,7 +422,7 @@ function TradeOffSection({
             </caption>
             <thead>
               <tr>
-                <th scope="col">Cost per litre at {fmt.temp(15)}</th>
+                <th scope="col">Cost per litre at 15 °C</th>
                 <th scope="col">Aniline point</th>
                 <th scope="col">ν40, mm²/s</th>
                 <th scope="col">Recipe</th>

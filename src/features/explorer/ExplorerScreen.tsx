@@ -22,19 +22,15 @@ import './explorer.css';
 
 const ExplorerCharts = lazy(() => import('./ExplorerCharts'));
 
-/** The rankings in words; `{15}` stands for 15 °C in the user's temperature unit (`rankingLabel`). */
+/** The rankings in words (the litre at 15 °C, the volume tables' reference, named so in every unit). */
 const RANKING_LABEL: Record<Objective, string> = {
-  cost: 'least cost per litre (at {15})',
+  cost: 'least cost per litre (at 15 °C)',
   'cost-kg': 'least cost per kg',
   solvency: 'best solvency (lowest aniline point)',
   oxidation: 'highest oxidation-stability rating',
   closest: 'closest to the reference',
 };
 
-/** A ranking in words, its reference temperature in the user's unit (15 °C or 59 °F). */
-function rankingLabel(o: Objective, temp: (c: number) => string): string {
-  return RANKING_LABEL[o].replace('{15}', temp(15));
-}
 
 let running: SearchHandle | null = null;
 
@@ -206,7 +202,7 @@ export default function ExplorerScreen() {
       notes:
         `Adopted from the substitute explorer as a replacement for “${reference.name}”` +
         (withdrawnCodes.length ? ` (withdrawn: ${withdrawnCodes.join(', ')})` : '') +
-        `. Ranked ${c.rank} by ${rankingLabel(st.resultFor?.objective ?? 'cost', fmt.temp)}. ${methodText(st.resultFor?.method ?? settings.blendMethod)} ` +
+        `. Ranked ${c.rank} by ${RANKING_LABEL[st.resultFor?.objective ?? 'cost']}. ${methodText(st.resultFor?.method ?? settings.blendMethod)} ` +
         'Predicted, not yet confirmed in the laboratory.',
       // Same product: the reference's release specification; the stock data the candidate was solved with.
       specification: reference.specification,
@@ -493,7 +489,7 @@ function ScenarioForm({
               <select id={objId} value={st.objective} disabled={running} onChange={(e) => st.setObjective(e.target.value as Objective)}>
                 {(Object.keys(RANKING_LABEL) as Objective[]).map((o) => (
                   <option key={o} value={o}>
-                    {rankingLabel(o, fmt.temp)}
+                    {RANKING_LABEL[o]}
                   </option>
                 ))}
               </select>

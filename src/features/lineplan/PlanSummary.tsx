@@ -10,7 +10,7 @@ import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonn
 
 export const SUMMARY_CAUTIONS: readonly string[] = [
   'Predicted properties are estimates by published methods (the blend-viscosity method named above, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
-  'Costs use the library’s prices on the day of printing; demands and supplies are the planner’s own figures.',
+  'Costs use the library’s prices as they stood when the plan was made; demands and supplies are the planner’s own figures.',
   'Safety data sheets, site procedures and local regulations govern the handling of hot oil and additive packages; this plan does not replace them.',
 ];
 

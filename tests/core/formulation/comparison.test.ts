@@ -32,14 +32,17 @@ describe('compareRecipes', () => {
     const comma = (x: number, d: number) => x.toFixed(d).replace('.', ',');
     const c = compareRecipes({ ...base, display: { formatNumber: comma, temperatureUnit: 'F' } });
     const text = c.summary.join('\n');
-    expect(text).not.toMatch(/°C/);
+    // every temperature in °F but the litre's: 15 °C is the volume tables' reference (ASTM D1250 / ISO 91),
+    // named so in every unit, as the designer and the blend sheet name it
+    expect(text.replace(/litre at 15 °C/g, '')).not.toMatch(/°C/);
     expect(text).not.toMatch(/\d\.\d/);
     // 65 °C = 149 °F and −10 °C = 14 °F (t_F = 9/5·t_C + 32, definition of the Fahrenheit scale)
     expect(text).toMatch(/Viscosity at 149 °F \(operating\)/);
     // −10 °C lies outside the measured 40–100 °C: flagged as extrapolated (core assessTemperature)
     expect(text).toMatch(/Viscosity at 14 °F \(cold-start; extrapolated\)/);
-    // cost per litre names the temperature of its litres, in the display unit: 15 °C = 59 °F
-    expect(text).toMatch(/Cost per litre at 59 °F /);
+    // cost per litre names the temperature of its litres: the tables' 15 °C (not 59 °F, which is no reference)
+    expect(text).toMatch(/Cost per litre at 15 °C /);
+    expect(text).not.toMatch(/59 °F/);
     const far = compareRecipes({ ...base, coldTempC: -30 }).summary.join('\n');
     expect(far).toMatch(/Viscosity at -30 °C \(cold-start; outside -20…150 °C, not to be trusted\)/);
     // A difference converts by 9/5 only (no offset), by definition.
