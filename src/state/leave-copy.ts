@@ -38,6 +38,12 @@ export interface LeaveCopy {
   records: CopiedRecord[];
   /** The tab-local fields (RecordLayout.local), when changed since they were last written. */
   local?: Record<string, unknown>;
+  /**
+   * Every record the tab held is in the copy (none saved yet: a first start before its first save
+   * finished). Only such a copy is taken where IndexedDB holds nothing for the store: laid over the
+   * store's starting state it would be the tab's whole data; a partial one would not.
+   */
+  whole?: true;
 }
 
 /** sessionStorage key of a store's leave copy. */
@@ -49,7 +55,8 @@ const stampOf = (s: Pick<RecordSet, 'stamps' | 'gone'>, key: string): Stamp => s
  * The records of `mine` committed since `base` (the stamps this tab and storage last agreed on), in
  * the tab's order, deletions last; null when there are none and no changed local fields. `blankNew`:
  * records created blank here and not saved yet (no stamp: RecordLayout.blank), copied with stamp ''
- * (the blank fields a first QC entry brings with it, without which the entry is not whole).
+ * (the blank fields a first QC entry brings with it, without which the entry is not whole). The copy
+ * is marked `whole` when it holds every record of `mine` (see LeaveCopy.whole).
  */
 export function pendingCopy(
   mine: RecordSet,
@@ -61,12 +68,14 @@ export function pendingCopy(
   const records: CopiedRecord[] = [];
   let prev: string | null = null;
   let committed = false;
+  let whole = true;
   for (const [key, value] of mine.records) {
     const stamp = mine.stamps[key] ?? '';
     if (stamp !== '' && stamp !== stampOf(base, key)) {
       records.push({ key, stamp, value, after: prev });
       committed = true;
     } else if (stamp === '' && blankNew.has(key)) records.push({ key, stamp, value, after: prev });
+    else whole = false;
     prev = key;
   }
   for (const [key, stamp] of Object.entries(mine.gone)) {
@@ -76,7 +85,9 @@ export function pendingCopy(
     }
   }
   if (!committed && local === null) return null;
-  return local === null ? { version, records } : { version, records, local };
+  const copy: LeaveCopy = local === null ? { version, records } : { version, records, local };
+  if (whole && committed) copy.whole = true;
+  return copy;
 }
 
 /**
@@ -125,12 +136,12 @@ function session(): Storage | null {
 }
 
 /** Keep (or, with null, remove) a store's leave copy; false when it could not be written (e.g. full). */
-export function writeLeaveCopy(store: string, copy: LeaveCopy | null): boolean {
+export function writeLeaveCopy(store: string, copy: LeaveCopy | string | null): boolean {
   const s = session();
   if (!s) return false;
   try {
     if (copy === null) s.removeItem(leaveCopyKey(store));
-    else s.setItem(leaveCopyKey(store), JSON.stringify(copy));
+    else s.setItem(leaveCopyKey(store), typeof copy === 'string' ? copy : JSON.stringify(copy));
     return true;
   } catch {
     // Too large for sessionStorage: the IndexedDB writes issued as the page leaves are all there is.
@@ -141,6 +152,34 @@ export function writeLeaveCopy(store: string, copy: LeaveCopy | null): boolean {
     }
     return false;
   }
+}
+
+/**
+ * Keep several stores' leave copies at once (null: remove that store's), the smallest first: sessionStorage
+ * holds a few megabytes for the whole site, so a copy too large for what is left (a large library's
+ * edits) takes no room from the others (a designer draft, a setting). Never throws; returns the stores
+ * whose copy is kept now. A copy that cannot be written is not kept at all (no older copy of that store
+ * stays behind to be taken at the next start).
+ */
+export function writeLeaveCopies(copies: ReadonlyArray<readonly [store: string, copy: LeaveCopy | null]>): Set<string> {
+  const kept = new Set<string>();
+  const texts: Array<[string, string | null]> = [];
+  for (const [store, copy] of copies) {
+    let text: string | null = null;
+    try {
+      text = copy === null ? null : JSON.stringify(copy);
+    } catch {
+      text = ''; // too large even to write out as text: not kept
+    }
+    texts.push([store, text]);
+  }
+  // Removals first (they free room), then the copies from the smallest up.
+  texts.sort(([, a], [, b]) => (a === null ? -1 : b === null ? 1 : a.length - b.length));
+  for (const [store, text] of texts) {
+    if (text === null || text === '') writeLeaveCopy(store, null);
+    else if (writeLeaveCopy(store, text)) kept.add(store);
+  }
+  return kept;
 }
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -165,6 +204,6 @@ export function readLeaveCopy(store: string): LeaveCopy | null {
     (r: unknown) =>
       isRecord(r) && typeof r.key === 'string' && typeof r.stamp === 'string' && (r.after === null || typeof r.after === 'string'),
   );
-  if (!ok || (v.local !== undefined && !isRecord(v.local))) return null;
+  if (!ok || (v.local !== undefined && !isRecord(v.local)) || (v.whole !== undefined && v.whole !== true)) return null;
   return v as unknown as LeaveCopy;
 }

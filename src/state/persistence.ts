@@ -26,7 +26,7 @@ import {
   type RecordSet,
   type Stamp,
 } from './record-merge';
-import { applyCopy, pendingCopy, readLeaveCopy, writeLeaveCopy } from './leave-copy';
+import { applyCopy, pendingCopy, readLeaveCopy, writeLeaveCopies, writeLeaveCopy, type LeaveCopy } from './leave-copy';
 
 export type StoreKey = 'library' | 'recipes' | 'settings' | 'workspace';
 export const STORE_KEYS: readonly StoreKey[] = ['library', 'recipes', 'settings', 'workspace'];
@@ -622,8 +622,9 @@ export function flushDeferredWrites(leaving = false): void {
     setTimeout(() => requestSave(key), 0);
   }
   // Neither the blind puts nor the saves under way are sure to finish before a reload: every store's
-  // unsaved commits are also copied, synchronously, into the tab's sessionStorage (leave-copy.ts).
-  for (const [key, st] of syncs) keepLeaveCopy(key, st);
+  // unsaved commits are also copied, synchronously, into the tab's sessionStorage (leave-copy.ts). The
+  // IndexedDB writes are issued first: a copy too large for sessionStorage is simply not kept.
+  keepLeaveCopies();
 }
 
 /** The records committed in this tab since its last finished save (and changed tab-local fields), or null. */
@@ -637,14 +638,26 @@ function unsavedOf(st: SyncState): ReturnType<typeof pendingCopy> {
   return pendingCopy(st.mine, st.base, st.spec.version, local, st.blankNew);
 }
 
-/** Copy a store's unsaved commits into the tab's sessionStorage (or remove a copy nothing needs now). */
-function keepLeaveCopy(key: StoreKey, st: SyncState): void {
-  const status = useStorageStatus.getState().stores[key];
-  if (status.phase !== 'ready' || status.savingPaused || st.latest === null) return;
-  const copy = unsavedOf(st);
-  if (copy === null && !st.copyKept) return;
-  const kept = writeLeaveCopy(key, copy);
-  st.copyKept = copy !== null && kept;
+/**
+ * Copy every store's unsaved commits into the tab's sessionStorage (or remove a copy nothing needs now),
+ * the smallest copies first (writeLeaveCopies). Never throws: the page's leaving must not be held up.
+ */
+function keepLeaveCopies(): void {
+  const copies: Array<[StoreKey, LeaveCopy | null]> = [];
+  for (const [key, st] of syncs) {
+    try {
+      const status = useStorageStatus.getState().stores[key];
+      if (status.phase !== 'ready' || status.savingPaused || st.latest === null) continue;
+      const copy = unsavedOf(st);
+      if (copy === null && !st.copyKept) continue;
+      copies.push([key, copy]);
+    } catch {
+      /* this store's copy is not kept; the others' still are */
+    }
+  }
+  if (copies.length === 0) return;
+  const kept = writeLeaveCopies(copies);
+  for (const [key, copy] of copies) syncs.get(key)!.copyKept = copy !== null && kept.has(key);
 }
 /** While true, a leave-written store's save is not started (flushDeferredWrites writes it with a blind put). */
 let holdTabOnlySaves = false;
@@ -715,9 +728,16 @@ export function idbPersistStorage<D>(spec: StoreSpec<D>): PersistStorage<D> {
       // zod and the schemas are fetched only when there is something stored to check.
       const result = raw === undefined || raw === null ? ({ kind: 'empty' } as const) : interpretStored(spec, raw, await loadSchemas());
       if (result.kind === 'empty') {
-        writeLeaveCopy(spec.key, null); // nothing stored to lay it over (a first start saves what it shows)
+        // Nothing stored: a first start (or one whose first save was cut off by a reload). A leave copy
+        // of the tab's whole data (written before its first save finished) is that data: it is taken and
+        // saved; any other copy has nothing to be laid over and is dropped.
+        const copy = readLeaveCopy(spec.key);
+        const restored = copy?.whole && copy.version === spec.version ? (await loadSchemas(), takeLeaveCopy(spec, st, {} as D)) : null;
+        if (restored === null) writeLeaveCopy(spec.key, null);
         patchStatus(spec.key, { phase: 'ready', origin: 'fresh', problem: null, savingPaused: false });
-        return null;
+        if (restored === null) return null;
+        requestSave(spec.key);
+        return { state: restored, version: spec.version };
       }
       if (result.kind === 'problem') {
         let keptAs: string | null = keptCopyKey(spec.key);

@@ -7,9 +7,9 @@
 // waits for the saves it needs (whenSaved).
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createStore, get as idbGet, set as idbSet } from 'idb-keyval';
-import { applyCopy, leaveCopyKey, pendingCopy, readLeaveCopy, writeLeaveCopy, type LeaveCopy } from '../../src/state/leave-copy';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { createStore, del as idbDel, get as idbGet, set as idbSet } from 'idb-keyval';
+import { applyCopy, leaveCopyKey, pendingCopy, readLeaveCopy, writeLeaveCopies, writeLeaveCopy, type LeaveCopy } from '../../src/state/leave-copy';
 import type { RecordSet } from '../../src/state/record-merge';
 import { restartTab, stopTab } from '../helpers/settle';
 
@@ -240,5 +240,158 @@ describe('a reload at once after an edit keeps the edit (s23 item 1)', () => {
     expect(m.state.useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!.code).toBe('BW-190');
     expect(m.persistence.useStorageStatus.getState().stores.library.origin).toBe('stored');
     expect(leaveCopies()).toEqual({});
+  });
+});
+
+describe('a first start whose first save a reload cut off (s24 item 1a)', () => {
+  beforeEach(() => {
+    globalThis.indexedDB = new IDBFactory();
+    sessionStorage.clear();
+  });
+  afterEach(stopTab);
+
+  it('marks a copy holding every record of the tab as whole, and only that one', () => {
+    const mine = set(
+      [
+        ['components/a', { n: 'a' }],
+        ['components/b', { n: 'b' }],
+      ],
+      { 'components/a': '1', 'components/b': '2' },
+    );
+    expect(pendingCopy(mine, { stamps: {}, gone: {} }, 3, null)?.whole).toBe(true);
+    expect(pendingCopy(mine, { stamps: { 'components/a': '1' }, gone: {} }, 3, null)?.whole).toBeUndefined();
+    // Written and read back with the mark; a mark of another form refuses the copy.
+    writeLeaveCopy('library', pendingCopy(mine, { stamps: {}, gone: {} }, 3, null));
+    expect(readLeaveCopy('library')?.whole).toBe(true);
+    sessionStorage.setItem(leaveCopyKey('library'), '{"version":3,"records":[],"whole":"yes"}');
+    expect(readLeaveCopy('library')).toBeNull();
+  });
+
+  it('an edit made before the demo was first saved, then a reload at once: the edit and the demo come back and are saved', async () => {
+    let m = await reload(); // a first start: the demo is shown, its save under way
+    m.state.libraryActions.updateComponent('demo-bw-190', { name: 'Renamed before the first save' });
+    m.state.settingsActions.updateSettings({ temperatureUnit: 'F' });
+    const demoCount = m.state.useLibrary.getState().components.length;
+    // The reload comes at once: none of the first saves reached IndexedDB.
+    window.dispatchEvent(new Event('pagehide'));
+    const copies = leaveCopies();
+    await new Promise<void>((r) => setTimeout(r, 0));
+    await m.persistence.whenSaved();
+    for (const key of ['library', 'recipes', 'settings', 'workspace']) await idbDel(key, db());
+    for (const [k, v] of Object.entries(copies)) sessionStorage.setItem(k, v);
+    expect(JSON.parse(copies[leaveCopyKey('library')]!).whole).toBe(true);
+
+    m = await reload();
+    const components = m.state.useLibrary.getState().components;
+    expect(components.length).toBe(demoCount);
+    expect(components.find((c) => c.id === 'demo-bw-190')!.name).toBe('Renamed before the first save');
+    expect(m.state.useSettingsState.getState().settings.temperatureUnit).toBe('F');
+    expect(leaveCopies()).toEqual({});
+    await m.persistence.whenSaved();
+    const lib = (await idbGet('library', db())) as { state: { components: Array<{ id: string; name: string }> } };
+    expect(lib.state.components.length).toBe(demoCount);
+    expect(lib.state.components.find((c) => c.id === 'demo-bw-190')!.name).toBe('Renamed before the first save');
+  });
+
+  it('a partial copy (records saved before) is not laid over an empty store: the start is a first start', async () => {
+    let m = await reload();
+    await m.persistence.whenSaved();
+    m.state.libraryActions.updateComponent('demo-bw-190', { name: 'Edited after the first save' });
+    window.dispatchEvent(new Event('pagehide'));
+    const copies = leaveCopies();
+    expect(JSON.parse(copies[leaveCopyKey('library')]!).whole).toBeUndefined();
+    await m.persistence.whenSaved();
+    await idbDel('library', db()); // the stored library gone (e.g. cleared) while the copy stayed
+    for (const [k, v] of Object.entries(copies)) sessionStorage.setItem(k, v);
+    m = await reload();
+    // The demo as on a first start, not one stock laid over nothing.
+    expect(m.state.useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!.name).not.toBe('Edited after the first save');
+    expect(m.state.useLibrary.getState().components.length).toBeGreaterThan(1);
+    expect(leaveCopies()).toEqual({});
+  });
+});
+
+describe('a change too large for sessionStorage (s24 item 1c)', () => {
+  beforeEach(() => {
+    globalThis.indexedDB = new IDBFactory();
+    sessionStorage.clear();
+  });
+  afterEach(() => {
+    vi.restoreAllMocks();
+    stopTab();
+  });
+
+  /** A store's leave copy as the page's leaving would write it now (written with room to spare, then removed). */
+  function pendingCopyOf(store: string): unknown {
+    window.dispatchEvent(new Event('pagehide'));
+    const text = sessionStorage.getItem(leaveCopyKey(store));
+    for (const k of Object.keys(leaveCopies())) sessionStorage.removeItem(k);
+    return JSON.parse(text!);
+  }
+
+  /** sessionStorage holding at most `room` characters of leave copies, refusing more as a full browser store does. */
+  function roomFor(room: number) {
+    const real = Storage.prototype.setItem;
+    return vi.spyOn(Storage.prototype, 'setItem').mockImplementation(function (this: Storage, key: string, value: string) {
+      if (key.startsWith('blendbench.unsaved.')) {
+        let used = 0;
+        for (let i = 0; i < this.length; i++) {
+          const k = this.key(i)!;
+          if (k.startsWith('blendbench.unsaved.') && k !== key) used += this.getItem(k)!.length;
+        }
+        if (used + value.length > room) throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+      }
+      return real.call(this, key, value);
+    });
+  }
+
+  it('writes the smaller copies first and never throws; a copy that does not fit leaves no older copy behind', () => {
+    const big: LeaveCopy = { version: 1, records: [{ key: 'components/x', stamp: '2', value: 'x'.repeat(5_000), after: null }] };
+    const small: LeaveCopy = { version: 1, records: [{ key: 'settings', stamp: '3', value: { u: 'F' }, after: null }] };
+    writeLeaveCopy('library', { version: 1, records: [{ key: 'components/x', stamp: '1', value: 'old', after: null }] });
+    roomFor(2_000);
+    const kept = writeLeaveCopies([
+      ['library', big],
+      ['settings', small],
+    ]);
+    expect([...kept]).toEqual(['settings']);
+    expect(readLeaveCopy('settings')).toEqual(small);
+    expect(readLeaveCopy('library')).toBeNull(); // the older copy is not taken at the next start
+    // A value that cannot even be written out as text (a cycle) is not kept, and nothing throws.
+    const cyclic: Record<string, unknown> = {};
+    cyclic.self = cyclic;
+    expect([...writeLeaveCopies([['recipes', { version: 1, records: [{ key: 'r', stamp: '4', value: cyclic, after: null }] }]])]).toEqual([]);
+  });
+
+  it('the page leaves without an error, the other stores are copied, and the IndexedDB writes are still made', async () => {
+    let m = await reload();
+    await m.persistence.whenSaved();
+    const before = await storedNow(['library', 'recipes', 'settings', 'workspace']);
+    const long = 'A long note. '.repeat(140);
+    m.state.libraryActions.updateComponent('demo-bw-190', { notes: long });
+    m.state.settingsActions.updateSettings({ temperatureUnit: 'F' });
+    const settingsCopy = JSON.stringify(pendingCopyOf('settings')).length;
+    expect(settingsCopy).toBeLessThan(long.length);
+    roomFor(settingsCopy + 10); // room for the setting's copy, not for the library's
+    const errors: unknown[] = [];
+    const onError = (e: ErrorEvent) => errors.push(e.error);
+    window.addEventListener('error', onError);
+    const put = vi.spyOn(IDBObjectStore.prototype, 'put');
+    try {
+      window.dispatchEvent(new Event('pagehide'));
+    } finally {
+      window.removeEventListener('error', onError);
+    }
+    expect(errors).toEqual([]);
+    expect(Object.keys(leaveCopies())).toEqual([leaveCopyKey('settings')]);
+    // The library's save (started at its commit) still writes it.
+    await new Promise<void>((r) => setTimeout(r, 0));
+    await m.persistence.whenSaved();
+    expect(put.mock.calls.some(([, key]) => key === 'library')).toBe(true);
+    expect(before.library).not.toEqual(await idbGet('library', db()));
+    vi.restoreAllMocks();
+    m = await reload();
+    expect(m.state.useLibrary.getState().components.find((c) => c.id === 'demo-bw-190')!.notes).toBe(long);
+    expect(m.state.useSettingsState.getState().settings.temperatureUnit).toBe('F');
   });
 });
