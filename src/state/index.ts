@@ -52,7 +52,8 @@
  *   newDraftKey() a key no tab holds (a draft set aside before another recipe is opened over it),
  *   draftKeysOfOpenTabs() → the keys other open tabs hold (their drafts are not offered here), askOpenTabs(onKey)
  *   the same, hearing late answers too (a busy tab); with Web Locks draftKeysLocked() → the keys open tabs hold,
- *   as the browser knows them, and claimDraftKey(key) → whether this tab took a kept draft's key before opening it;
+ *   as the browser knows them, and claimDraftKey(key) → whether this tab took a kept draft's key before opening it,
+ *   releaseDraftClaim(key) lets go of a claimed key whose draft vanished before it was opened;
  *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
  * Leaving: holdLeave(() => boolean) asks for the browser's leave-page warning while a screen holds unsaved
  *   typed work of its own (the focused field's typed text and refused entries are followed by themselves).
@@ -107,7 +108,7 @@ export {
   type ExplorerScenario,
   type WorkspaceData,
 } from './workspace';
-export { ownDraftKey, adoptDraftKey, askOpenTabs, claimDraftKey, draftKeysLocked, draftKeysOfOpenTabs, newDraftKey, ANSWER_WAIT_MS as DRAFT_ANSWER_WAIT_MS } from './tab-draft';
+export { ownDraftKey, adoptDraftKey, askOpenTabs, claimDraftKey, releaseDraftClaim, draftKeysLocked, draftKeysOfOpenTabs, newDraftKey, ANSWER_WAIT_MS as DRAFT_ANSWER_WAIT_MS } from './tab-draft';
 export { holdLeave } from './leave-guard';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';

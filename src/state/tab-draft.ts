@@ -118,6 +118,15 @@ export function claimDraftKey(key: string): Promise<boolean> | true {
   return lockManager() ? holdLock(key) : true;
 }
 
+/**
+ * Let go of a kept draft's key claimed here (`claimDraftKey`) but not opened: the draft vanished in the
+ * meantime (saved or discarded in another tab). This tab's own key is never let go here; without Web
+ * Locks nothing is held.
+ */
+export function releaseDraftClaim(key: string): void {
+  if (key !== own) releaseLock(key);
+}
+
 /** The draft keys whose locks open tabs hold (this tab's too), or null without Web Locks. */
 export async function draftKeysLocked(): Promise<Set<string> | null> {
   const locks = lockManager();

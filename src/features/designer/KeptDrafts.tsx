@@ -8,7 +8,17 @@
  */
 import { memo, useEffect, useState } from 'react';
 import { Notice } from '../../components/notices';
-import { askOpenTabs, claimDraftKey, draftKeysLocked, DRAFT_ANSWER_WAIT_MS, OLD_DRAFT_DAYS, ownDraftKey, useWorkspaceStore, type KeptDraft } from '../../state';
+import {
+  askOpenTabs,
+  claimDraftKey,
+  draftKeysLocked,
+  DRAFT_ANSWER_WAIT_MS,
+  OLD_DRAFT_DAYS,
+  ownDraftKey,
+  releaseDraftClaim,
+  useWorkspaceStore,
+  type KeptDraft,
+} from '../../state';
 import { keptWhen } from './store';
 
 /** What a kept draft is, in a line: "from 23:12 — 4 stocks, VG 320, “Trial”". */
@@ -23,7 +33,8 @@ function ageDays(d: KeptDraft, now: Date): number | null {
   return d.keptAt === null ? null : Math.floor((now.getTime() - new Date(d.keptAt).getTime()) / 86_400_000);
 }
 
-export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: string) => void }) {
+/** `onOpen` opens the kept draft of a key as this tab's; false when no draft is kept under it any more. */
+export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: string) => boolean }) {
   const drafts = useWorkspaceStore((s) => s.drafts);
   const own = ownDraftKey();
   const others = Object.keys(drafts).filter((k) => k !== own);
@@ -64,28 +75,39 @@ export const KeptDrafts = memo(function KeptDrafts({ onOpen }: { onOpen: (key: s
     };
   }, [othersKey]);
   const [confirming, setConfirming] = useState<string | null>(null);
-  /** A kept draft another tab took (it opened it first): named once, then no longer offered. */
-  const [taken, setTaken] = useState<{ key: string; summary: string } | null>(null);
+  /**
+   * A kept draft another tab took (it opened it first), or one that vanished before it could be opened
+   * here (saved or discarded in another tab): named once, then no longer offered.
+   */
+  const [taken, setTaken] = useState<{ key: string; summary: string; gone: boolean } | null>(null);
   // A draft is opened only once this tab holds its key (a tab that holds it already refuses the claim).
+  // A key claimed for a draft that vanished meanwhile is let go at once (its lock would be held for good).
   const open = (key: string, summary: string) => {
     const claim = claimDraftKey(key);
-    if (claim === true) return onOpen(key);
+    if (claim === true) {
+      if (!onOpen(key)) setTaken({ key, summary, gone: true });
+      return;
+    }
     void claim.then((mine) => {
-      if (mine) onOpen(key);
-      else {
-        setTaken({ key, summary });
-        setHeld((h) => (h ? { asked: h.asked, keys: new Set([...h.keys, key]) } : h));
-      }
+      if (mine && onOpen(key)) return;
+      if (mine) releaseDraftClaim(key);
+      setTaken({ key, summary, gone: mine });
+      setHeld((h) => (h ? { asked: h.asked, keys: new Set([...h.keys, key]) } : h));
     });
   };
   if (others.length === 0 || held?.asked !== othersKey) return null;
   const offered = others.filter((k) => !held.keys.has(k));
   const takenNote = taken && (
     <p className="small" role="status">
-      {`${taken.summary.charAt(0).toUpperCase()}${taken.summary.slice(1)} is open in another tab now: go on with it there.`}
+      {`${taken.summary.charAt(0).toUpperCase()}${taken.summary.slice(1)} ${
+        taken.gone ? 'is no longer kept: it was saved or discarded in another tab.' : 'is open in another tab now: go on with it there.'
+      }`}
     </p>
   );
-  if (offered.length === 0) return takenNote ? <Notice tone="info" title="The kept draft is open in another tab">{takenNote}</Notice> : null;
+  if (offered.length === 0) {
+    const title = taken?.gone ? 'The kept draft is no longer kept' : 'The kept draft is open in another tab';
+    return takenNote ? <Notice tone="info" title={title}>{takenNote}</Notice> : null;
+  }
   const now = new Date();
   offered.sort((a, b) => (drafts[b]!.keptAt ?? '').localeCompare(drafts[a]!.keptAt ?? ''));
   return (
