@@ -20,5 +20,8 @@ export default defineConfig({
     environment: 'node',
     setupFiles: ['tests/setup/fast-check-seed.ts'],
     testTimeout: 60_000,
+    // A hook's work is a test's work (loading mathjs for °F conversions took over vitest's default 10 s
+    // at load 15 on two cores); it waits for the load to finish either way, this only bounds it alike.
+    hookTimeout: 60_000,
   },
 });

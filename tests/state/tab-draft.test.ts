@@ -60,7 +60,9 @@ describe('a duplicated tab takes a draft key of its own', () => {
     };
     await dup.leaveSharedKey(10, 10_000);
     await vi.waitFor(() => expect(answered).toBe(true), { timeout: 10_000 });
-    await new Promise((r) => setTimeout(r, 50)); // the answer has been read
+    // The answer has been read once a later answer of the same tab is: one sender's messages arrive in
+    // the order sent, and the other tab answers this second question after the first.
+    await new Promise<void>((heard) => open.push(dup.askOpenTabs(() => heard())));
     expect(dup.ownDraftKey()).toBe('tab-mine');
   });
 });
