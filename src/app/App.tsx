@@ -2,6 +2,7 @@ import { lazy, Suspense, useEffect, useRef, useState, type ComponentType } from 
 import { SCREENS, type ScreenEntry } from './screens';
 import { ErrorBoundary } from './ErrorBoundary';
 import { SavedWorkNotices } from './SavedWorkNotices';
+import { TypedCopyNotice } from './TypedCopyNotice';
 import { CautionBanner, DemoTag, StandingCaution } from '../components/notices';
 import { FormatContext, useFormat, useUnitConversionsReady } from '../components/format';
 import { setOpeningDraw } from '../components/row-window';
@@ -154,6 +155,7 @@ export function App() {
         </nav>
         <main id="main" ref={mainRef} tabIndex={-1} className="app-main">
           <SavedWorkNotices />
+          <TypedCopyNotice />
           {/* On paper the frame's one-line caution is gone: the full text prints instead (the blend sheet prints its own list). */}
           {screen.id === 'blend-sheet' ? null : <CautionBanner className="print-only" />}
           {Screen ? (

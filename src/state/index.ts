@@ -57,6 +57,8 @@
  *   fingerprint(value) → short hash telling whether an explorer result still matches the library and targets
  * Leaving: holdLeave(() => boolean) asks for the browser's leave-page warning while a screen holds unsaved
  *   typed work of its own (the focused field's typed text and refused entries are followed by themselves).
+ *   The focused field's typed text is put back into its field after a reload, uncommitted: useTypedNote()
+ *   says so (or gives the text when its field was not drawn), dismissTypedNote() closes that notice.
  * Demo: resetDemo() restores the invented demo library and recipes (undoable); isDemoComponent(c).
  * Saved-work status (banners): useStorageStatus(); backups in ./backup.ts; library CSV/JSON in ./library-io.ts;
  * entry checks shared by screens and imports in ./checks.ts; every stored field's limits in ./field-rules.ts.
@@ -71,6 +73,7 @@ import { useSettingsStore, SETTINGS_SPEC, type Settings } from './settings';
 import { useWorkspaceStore, WORKSPACE_SPEC, type WorkspaceData } from './workspace';
 import { answerDraftQuestions, leaveSharedKey } from './tab-draft';
 import { installLeaveWarning } from './leave-guard';
+import { installTypedCopy } from './typed-copy';
 import {
   useStorageStatus,
   saveNow,
@@ -110,6 +113,7 @@ export {
 } from './workspace';
 export { ownDraftKey, adoptDraftKey, askOpenTabs, claimDraftKey, releaseDraftClaim, draftKeysLocked, draftKeysOfOpenTabs, newDraftKey, ANSWER_WAIT_MS as DRAFT_ANSWER_WAIT_MS } from './tab-draft';
 export { holdLeave } from './leave-guard';
+export { useTypedNote, dismissTypedNote, RESTORED_ATTR as TYPED_RESTORED_ATTR, type TypedNote } from './typed-copy';
 export { useStorageStatus, requestPersistentStorage, registerDeferredWrite, flushDeferredWrites, type StoreKey } from './persistence';
 export { setRefusalWords, sayRefusal } from './messages';
 
@@ -352,7 +356,8 @@ export function startSavedWork(opts: { requestPersistence?: boolean; later?: (ru
       onSavedInOtherTab((key) => mergeFromOtherTab(key)),
     );
     // The browser's leave-page warning while typed text is not saved (leave-guard.ts).
-    if (typeof window !== 'undefined' && typeof document !== 'undefined') stopWatching.push(installLeaveWarning(window));
+    // The focused field's typed text is kept across a reload as typed text, never saved (typed-copy.ts).
+    if (typeof window !== 'undefined' && typeof document !== 'undefined') stopWatching.push(installLeaveWarning(window), installTypedCopy(window));
     (opts.later ?? ((run) => run()))(() => {
       // A first start saves what it shows (the demo); an edit made meanwhile is saved with it.
       const status = useStorageStatus.getState().stores;

@@ -10,8 +10,9 @@
  * - a field shows a refused entry (`aria-invalid`): its typed text is on screen, not saved;
  * - a screen says it holds unsaved work of its own (`holdLeave`, e.g. specification limits typed on
  *   the Recipes screen but not yet saved).
- * Nothing is written as the page leaves here: what was committed is saved already (or written by the
- * deferred writers in persistence.ts). Fields marked `data-no-leave-warning` (filters, searches) and
+ * Nothing is saved as the page leaves here: what was committed is saved already (or written by the
+ * deferred writers in persistence.ts); the focused field's typed text is copied, never saved, and put
+ * back into its field after a reload (typed-copy.ts). Fields marked `data-no-leave-warning` (filters, searches) and
  * non-text controls (which commit at once) are not counted.
  */
 
@@ -38,9 +39,14 @@ function isTextEntry(el: Element | null): el is HTMLElement {
 /** The field typed into since it was focused or last committed (null: none). */
 let typedInto: HTMLElement | null = null;
 
+/** The focused field typed into since it was focused or last committed, or null (typed-copy.ts keeps its text). */
+export function typedField(doc: Document = document): HTMLElement | null {
+  return typedInto && typedInto.isConnected && doc.activeElement === typedInto ? typedInto : null;
+}
+
 /** True when leaving the page now would drop typed text that is not saved. */
 export function unsavedTyping(doc: Document = document): boolean {
-  if (typedInto && typedInto.isConnected && doc.activeElement === typedInto) return true;
+  if (typedField(doc)) return true;
   for (const el of doc.querySelectorAll('[aria-invalid="true"]')) if (isTextEntry(el)) return true;
   for (const unsaved of holds) if (unsaved()) return true;
   return false;

@@ -379,4 +379,30 @@ describe('Stocks cells drawn as text: paste, a click on a choice, and a reload w
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
   });
+  it('text typed into a cell and not committed, then a reload anyway: back in that cell as typed text, marked, never saved by the reload (s24 item 1b)', async () => {
+    const { page } = s;
+    const label = 'ν40 of BW-160 [mm²/s]';
+    /** The stock's stored ν40 (IndexedDB), as the reload left it. */
+    const storedKv40 = async () => {
+      const lib = (await stored(page, 'library')) as { state: { components: Array<{ code: string; viscosityPoints: Array<{ tempC: number; kv: number }> }> } };
+      return lib.state.components.find((c) => c.code === 'BW-160')!.viscosityPoints.find((p) => p.tempC === 40)!.kv;
+    };
+    const before = await storedKv40();
+    page.once('dialog', (d) => void d.accept()); // the leave-page warning: leave anyway
+    await page.getByRole('textbox', { name: label }).focus();
+    await page.keyboard.type('97'); // on the way to an invented 975: valid, and it must not be saved
+    await expect(active()).resolves.toEqual({ tag: 'INPUT', label, value: '97' });
+    await page.reload();
+    await page.getByTestId('typed-note').waitFor();
+    // In its field again, focused and marked, not committed: the stored value is the one before.
+    await expect(active()).resolves.toEqual({ tag: 'INPUT', label, value: '97' });
+    await expect(page.locator('[data-typed-restored]').getAttribute('aria-label')).resolves.toBe(label);
+    expect(await storedKv40()).toBe(before);
+    // Escape drops it, as for text just typed: the stored value is shown, the mark and the notice go.
+    await page.keyboard.press('Escape');
+    await expect(cellValue(page, label)).resolves.toBe(String(before));
+    await expect.poll(() => page.getByTestId('typed-note').count()).toBe(0);
+    expect(await storedKv40()).toBe(before);
+    expect(s.errors).toEqual([]);
+  });
 });
