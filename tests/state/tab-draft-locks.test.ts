@@ -3,29 +3,9 @@
 // draft is opened only if its lock is taken first. A deterministic in-memory lock manager stands in for
 // the browser's (navigator.locks: exclusive locks, `ifAvailable` requests, `query`); no timing.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { memoryLocks } from '../helpers/memory-locks';
 
 type TabDraft = typeof import('../../src/state/tab-draft');
-
-/** Exclusive locks by name, as navigator.locks grants them to `ifAvailable` requests. */
-function memoryLocks() {
-  const held = new Set<string>();
-  return {
-    held,
-    async request(name: string, opts: { ifAvailable?: boolean }, cb: (lock: { name: string } | null) => unknown): Promise<unknown> {
-      if (!opts.ifAvailable) throw new Error('memoryLocks: only ifAvailable requests are made');
-      if (held.has(name)) return cb(null);
-      held.add(name);
-      try {
-        return await cb({ name });
-      } finally {
-        held.delete(name);
-      }
-    },
-    async query() {
-      return { held: [...held].map((name) => ({ name, mode: 'exclusive' })), pending: [] };
-    },
-  };
-}
 
 /** A fresh instance of the module: another tab (or the same tab after a reload). */
 async function tab(): Promise<TabDraft> {

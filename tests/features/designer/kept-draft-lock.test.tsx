@@ -9,42 +9,12 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { act, fireEvent, within } from '@testing-library/react';
 import { designerTabHooks, editDraft as edit, openDesignerTab as openTab, settleDesignerTabs as settle } from '../../helpers/designer-tabs';
-
-/** Exclusive locks by name (navigator.locks' `ifAvailable` requests and `query`); a claim of a gated name waits for `open()`. */
-function gatedLocks() {
-  const held = new Set<string>();
-  const gates = new Map<string, Promise<void>>();
-  return {
-    held,
-    /** Hold the next request for `name` until the returned function is called. */
-    gate(name: string): () => void {
-      let open!: () => void;
-      gates.set(name, new Promise<void>((r) => (open = r)));
-      return () => open();
-    },
-    async request(name: string, opts: { ifAvailable?: boolean }, cb: (lock: { name: string } | null) => unknown): Promise<unknown> {
-      if (!opts.ifAvailable) throw new Error('gatedLocks: only ifAvailable requests are made');
-      const gate = gates.get(name);
-      gates.delete(name);
-      if (gate) await gate;
-      if (held.has(name)) return cb(null);
-      held.add(name);
-      try {
-        return await cb({ name });
-      } finally {
-        held.delete(name);
-      }
-    },
-    async query() {
-      return { held: [...held].map((name) => ({ name, mode: 'exclusive' })), pending: [] };
-    },
-  };
-}
+import { memoryLocks } from '../../helpers/memory-locks';
 
 designerTabHooks();
-let locks: ReturnType<typeof gatedLocks>;
+let locks: ReturnType<typeof memoryLocks>;
 beforeEach(() => {
-  locks = gatedLocks();
+  locks = memoryLocks();
   Object.defineProperty(navigator, 'locks', { value: locks, configurable: true });
 });
 afterEach(() => {
