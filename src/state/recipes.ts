@@ -29,6 +29,9 @@ export type { QcInputs };
 import { emptyLinePlan, type LinePlanInputs } from './lineplan';
 import { sayRefusal } from './messages';
 
+/** Added to the name of a duplicated recipe. */
+const COPY_MARK = ' (copy)';
+
 export interface RecipesData {
   recipes: Recipe[];
   /** Solve targets per recipe id (optional: a recipe without targets uses defaults). */
@@ -558,7 +561,8 @@ export const useRecipesStore = create<RecipesState>()(
               specification: structuredClone(src.specification),
               stockBasis: structuredClone(src.stockBasis),
               id: copyId,
-              name: name ?? `${src.name} (copy)`.slice(0, TEXT_RULES.recipeName.max),
+              // A name at its limit keeps the " (copy)" mark: the copy never reads exactly as its source.
+              name: name ?? `${src.name.slice(0, TEXT_RULES.recipeName.max - COPY_MARK.length)}${COPY_MARK}`,
               revision: 1,
               isReference: false,
               updatedAt: now(),

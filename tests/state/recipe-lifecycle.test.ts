@@ -39,6 +39,16 @@ describe('recipe lifecycle', () => {
     expect(get(id).lines).toEqual(lines);
   });
 
+  it('a copy of a recipe whose name is at its limit keeps the " (copy)" mark within the limit (s24 defect hunt)', () => {
+    const long = 'N'.repeat(200); // the recipe-name limit of field-rules.ts (200 characters)
+    expect(recipeActions.saveChanges('demo-vg220', { name: long }, 'test', get('demo-vg220').updatedAt)).toBeTruthy();
+    const source = useRecipes.getState().recipes.find((r) => r.name === long)!;
+    const id = recipeActions.duplicateRecipe(source.id)!;
+    expect(get(id).name).toHaveLength(200);
+    expect(get(id).name.endsWith(' (copy)')).toBe(true);
+    expect(get(id).name).not.toBe(long);
+  });
+
   it('does not save a draft over its recipe when the version the changes began from is unknown (a draft kept by workspace schema 1, s20 defect 1)', () => {
     const id = recipeActions.duplicateRecipe('demo-vg320')!;
     const before = structuredClone(get(id));
