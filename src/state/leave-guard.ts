@@ -13,8 +13,15 @@
  * Nothing is saved as the page leaves here: what was committed is saved already (or written by the
  * deferred writers in persistence.ts); the focused field's typed text is copied, never saved, and put
  * back into its field after a reload (typed-copy.ts). Fields marked `data-no-leave-warning` (filters, searches) and
- * non-text controls (which commit at once) are not counted.
+ * non-text controls (which commit at once) are not counted; nor is a field marked `data-applies-as-typed`
+ * (the designer's shares, which apply each valid keystroke to the draft) while its text is accepted.
  */
+
+/**
+ * Marks a field that applies every valid keystroke to what is saved (the designer's share cells): its
+ * typed text counts as unsaved only while it is refused (`aria-invalid`).
+ */
+export const APPLIES_AS_TYPED = 'data-applies-as-typed';
 
 /** Screens' own unsaved work: each check says whether its screen holds some now. */
 const holds = new Set<() => boolean>();
@@ -41,7 +48,11 @@ let typedInto: HTMLElement | null = null;
 
 /** The focused field typed into since it was focused or last committed, or null (typed-copy.ts keeps its text). */
 export function typedField(doc: Document = document): HTMLElement | null {
-  return typedInto && typedInto.isConnected && doc.activeElement === typedInto ? typedInto : null;
+  if (!typedInto || !typedInto.isConnected || doc.activeElement !== typedInto) return null;
+  // A field that applies each valid keystroke (the designer's shares) holds nothing unsaved unless its
+  // text is refused; the refused text is what the recipe does not hold.
+  if (typedInto.closest(`[${APPLIES_AS_TYPED}]`) && typedInto.getAttribute('aria-invalid') !== 'true') return null;
+  return typedInto;
 }
 
 /** True when leaving the page now would drop typed text that is not saved. */

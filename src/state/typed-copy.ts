@@ -16,7 +16,8 @@
  * - If the blender acts (a key, a click) or opens another screen before the field is drawn (a row
  *   scrolled out of the table, a stock deleted meanwhile), the text is not put anywhere: the notice gives
  *   it, so it can be typed again.
- * Fields marked `data-no-leave-warning` (filters, searches) are not kept.
+ * Fields marked `data-no-leave-warning` (filters, searches) are not kept, nor a field that applies each valid
+ * keystroke (`data-applies-as-typed`, the designer's shares) while its text is accepted: that text is saved.
  */
 import { create } from 'zustand';
 import { typedField } from './leave-guard';

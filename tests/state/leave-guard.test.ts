@@ -11,6 +11,7 @@ beforeEach(() => {
   document.body.innerHTML = `
     <input id="share" type="text" value="75.5">
     <input id="filter" type="text" data-no-leave-warning>
+    <input id="pct" type="text" value="40" data-applies-as-typed>
     <input id="ok" type="checkbox">
     <textarea id="notes"></textarea>`;
   stop = installLeaveWarning(window);
@@ -71,5 +72,15 @@ describe('leave-page warning while typed text is not saved', () => {
     el('ok').focus();
     el('ok').dispatchEvent(new Event('input', { bubbles: true }));
     expect(leaveAsks()).toBe(false);
+  });
+
+  it('a field that applies each valid keystroke (the designer’s shares) asks only while its text is refused', () => {
+    type('pct', '32'); // applied to the draft as typed: nothing unsaved
+    expect(unsavedTyping()).toBe(false);
+    expect(leaveAsks()).toBe(false);
+    type('pct', '3x');
+    el('pct').setAttribute('aria-invalid', 'true'); // as the cell shows a refused entry
+    expect(unsavedTyping()).toBe(true);
+    expect(leaveAsks()).toBe(true);
   });
 });

@@ -8,6 +8,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { act, cleanup, fireEvent, render } from '@testing-library/react';
 import { NumberField, TextField } from '../../src/components/fields';
+import { FractionInput } from '../../src/features/designer/FractionInput';
 import { installLeaveWarning } from '../../src/state/leave-guard';
 import { installTypedCopy, readTypedCopy, RESTORED_ATTR, TYPED_COPY_KEY, useTypedNote, writeTypedCopy } from '../../src/state/typed-copy';
 
@@ -161,5 +162,31 @@ describe('typed text kept across a reload, never saved by it (s24 item 1b)', () 
     await act(async () => {});
     expect((view.getByLabelText('Recipe name') as HTMLInputElement).value).toBe('Trial C');
     expect(commits).toEqual([]);
+  });
+
+  it('a designer share cell, which applies each valid keystroke to the draft: valid text is not copied (it is saved), refused text is', () => {
+    let share = 0.4;
+    const edits: number[] = [];
+    const source = { get: () => share, subscribe: () => () => {} };
+    const page = () => {
+      stops = [installLeaveWarning(window), installTypedCopy(window)];
+      return render(<FractionInput label="Mass % of BW-240" share={source} onEdit={(f) => { share = f; edits.push(f); }} />);
+    };
+    let view = page();
+    act(() => view.getByLabelText('Mass % of BW-240').focus()); // the text cell becomes the field
+    let field = view.getByLabelText('Mass % of BW-240') as HTMLInputElement;
+    fireEvent.input(field, { target: { value: '32' } });
+    expect(edits).toEqual([0.32]); // applied as typed
+    leavePage(view);
+    expect(readTypedCopy()).toBeNull();
+
+    view = page();
+    act(() => view.getByLabelText('Mass % of BW-240').focus());
+    field = view.getByLabelText('Mass % of BW-240') as HTMLInputElement;
+    fireEvent.input(field, { target: { value: '3x' } });
+    expect(field.getAttribute('aria-invalid')).toBe('true');
+    expect(edits).toEqual([0.32]); // refused: the draft keeps 32 %
+    leavePage(view);
+    expect(readTypedCopy()).toMatchObject({ name: 'Mass % of BW-240', text: '3x' });
   });
 });

@@ -1,6 +1,7 @@
 import { memo, useCallback, useLayoutEffect, useRef, useState, useSyncExternalStore } from 'react';
 import { useFormat } from '../../components/format';
 import { RelayText, type Relay } from '../../components/relay';
+import { APPLIES_AS_TYPED } from '../../state/leave-guard';
 
 /** Where a cell reads its share (0–1): the current value, and a way to hear of a new one. */
 export type ShareSource = Pick<Relay<number>, 'get' | 'subscribe'>;
@@ -81,6 +82,7 @@ export const FractionInput = memo(function FractionInput({ label, share, onEdit,
         className={`pct-input${error ? ' invalid' : ''}`}
         aria-label={label}
         aria-invalid={error ? true : undefined}
+        {...{ [APPLIES_AS_TYPED]: '' }}
         title={error || undefined}
         size={7}
         disabled={disabled}
