@@ -29,8 +29,13 @@ export interface PlanLabels {
 }
 
 export interface PlanDiagnosis {
-  /** The reason in words, with the numbers. */
+  /** The reason in words, with the numbers (quantities in tonnes). */
   reason: string;
+  /**
+   * The same reason with its quantities in kg (kinds 'supply' and 'min-use', the reasons that name
+   * quantities), for a planner who enters the plan in kg; absent for reasons without quantities.
+   */
+  reasonKg?: string;
   /** 'grade' (a grade alone), 'supply' (short supply), 'min-use' (a stock cannot be used as much as asked), 'tanks', or 'unknown'. */
   kind: 'grade' | 'supply' | 'min-use' | 'tanks' | 'unknown';
   /** The grade that cannot be made (index), for kind 'grade'. */
@@ -49,6 +54,16 @@ export function fmtTonnes(t: number, display: NumberDisplay = { thousandsGroupin
 }
 
 /**
+ * A quantity given in tonnes, written in kg for a message: whole kg from 10 kg (grouped, as the
+ * app's tables), else one or two decimals. 1 t = 1000 kg (SI).
+ */
+export function fmtKgOfTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }): string {
+  const kg = t * 1000;
+  const a = Math.abs(kg);
+  return `${formatFixed(kg, a >= 10 ? 0 : a >= 1 ? 1 : 2, display)} kg`;
+}
+
+/**
  * Diagnose an infeasible line plan.
  *
  * @param J - the line plan (already known to be infeasible)
@@ -57,7 +72,9 @@ export function fmtTonnes(t: number, display: NumberDisplay = { thousandsGroupin
  * @returns the reason and what it names
  */
 export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4000): PlanDiagnosis {
-  const tonnes = (t: number) => fmtTonnes(t, { thousandsGrouping: true, ...labels.display });
+  const display: NumberDisplay = { thousandsGrouping: true, ...labels.display };
+  const inTonnes = (t: number) => fmtTonnes(t, display);
+  const inKg = (t: number) => fmtKgOfTonnes(t, display);
   let lpCount = 0;
   const out = (d: Omit<PlanDiagnosis, 'lpCount' | 'grade' | 'short' | 'minStocks'> & Partial<PlanDiagnosis>): PlanDiagnosis => ({
     grade: null,
@@ -94,43 +111,55 @@ export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4
   lpCount += sf.lpCount;
   if (sf.status === 'optimal' && sf.objective > 1e-6) {
     const short: { stock: number; tonnes: number }[] = [];
-    const parts: string[] = [];
-    const useParts: string[] = [];
+    const users: number[][] = [];
     for (let i = 0; i < n; i++) {
-      const s = sf.supplyShortT![i]!;
-      if (s > 1e-6) {
-        short.push({ stock: i, tonnes: s });
-        const users = J.grades.map((_, g) => g).filter((g) => sf.fractions[g]![i]! > 1e-6);
-        const need = (J.supplyKg[i]! / 1000 + s);
-        parts.push(
-          `${labels.stocks[i]} is short by ${tonnes(s)} (${tonnes(J.supplyKg[i]! / 1000)} on offer; ` +
-            `the plan needs at least ${tonnes(need)}${users.length ? ` for ${users.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
-        );
-      }
-      const u = sf.useShortT![i]!;
-      if (u > 1e-6) {
-        short.push({ stock: i, tonnes: u });
-        useParts.push(
-          `${labels.stocks[i]} can be used at most ${tonnes(J.minUseKg[i]! / 1000 - u)} over the period, ` +
-            `${tonnes(u)} less than the ${tonnes(J.minUseKg[i]! / 1000)} it must stay in use for`,
-        );
-      }
+      users.push(J.grades.map((_, g) => g).filter((g) => sf.fractions[g]![i]! > 1e-6));
+      if (sf.supplyShortT![i]! > 1e-6) short.push({ stock: i, tonnes: sf.supplyShortT![i]! });
+      if (sf.useShortT![i]! > 1e-6) short.push({ stock: i, tonnes: sf.useShortT![i]! });
     }
-    if (parts.length > 0) {
-      const several = parts.length > 1;
-      return out({
-        kind: 'supply',
-        short,
-        reason:
+    // The sentences, with the quantities written by `q` (in tonnes, or the same numbers in kg).
+    const supplyText = (q: (t: number) => string): string[] => {
+      const parts: string[] = [];
+      for (let i = 0; i < n; i++) {
+        const s = sf.supplyShortT![i]!;
+        if (!(s > 1e-6)) continue;
+        const need = J.supplyKg[i]! / 1000 + s;
+        const by = users[i]!;
+        parts.push(
+          `${labels.stocks[i]} is short by ${q(s)} (${q(J.supplyKg[i]! / 1000)} on offer; ` +
+            `the plan needs at least ${q(need)}${by.length ? ` for ${by.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
+        );
+      }
+      return parts;
+    };
+    const useText = (q: (t: number) => string): string[] => {
+      const parts: string[] = [];
+      for (let i = 0; i < n; i++) {
+        const u = sf.useShortT![i]!;
+        if (!(u > 1e-6)) continue;
+        parts.push(
+          `${labels.stocks[i]} can be used at most ${q(J.minUseKg[i]! / 1000 - u)} over the period, ` +
+            `${q(u)} less than the ${q(J.minUseKg[i]! / 1000)} it must stay in use for`,
+        );
+      }
+      return parts;
+    };
+    if (supplyText(inTonnes).length > 0) {
+      const supplyReason = (q: (t: number) => string) => {
+        const parts = supplyText(q);
+        return (
           `The limited supply does not cover the demand: ${parts.join('; ')}. ` +
-          (several ? 'These shortfalls together are the least that closes the gap. ' : '') +
-          'Secure more of it, lower the demand of the grades that need it, or allow a stock that can replace it.',
-      });
+          (parts.length > 1 ? 'These shortfalls together are the least that closes the gap. ' : '') +
+          'Secure more of it, lower the demand of the grades that need it, or allow a stock that can replace it.'
+        );
+      };
+      return out({ kind: 'supply', short, reason: supplyReason(inTonnes), reasonKg: supplyReason(inKg) });
     }
     return out({
       kind: 'min-use',
       short,
-      reason: `${useParts.join('; ')}. Lower the tonnage that must stay in use, or raise the demand of grades that can take it.`,
+      reason: `${useText(inTonnes).join('; ')}. Lower the tonnage that must stay in use, or raise the demand of grades that can take it.`,
+      reasonKg: `${useText(inKg).join('; ')}. Lower the quantity that must stay in use, or raise the demand of grades that can take it.`,
     });
   }
 

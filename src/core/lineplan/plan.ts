@@ -133,7 +133,10 @@ export interface LinePlanOptimal {
 
 export interface LinePlanInfeasible {
   status: 'infeasible';
+  /** Why, in words (quantities in tonnes). */
   reason: string;
+  /** The same reason with its quantities in kg, when it names quantities (kinds 'supply', 'min-use'). */
+  reasonKg?: string;
   kind: PlanDiagnosis['kind'] | 'check' | 'search-limit';
   /** The grade that cannot be made (kind 'grade'). */
   gradeId: string | null;
@@ -307,6 +310,7 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
     });
     return infeasible({
       reason: d.reason,
+      ...(d.reasonKg === undefined ? {} : { reasonKg: d.reasonKg }),
       kind: d.kind,
       gradeId: d.grade === null ? null : input.grades[d.grade]!.id,
       short: d.short.map((s) => ({ id: components[s.stock]!.id, code: components[s.stock]!.code, tonnes: s.tonnes })),

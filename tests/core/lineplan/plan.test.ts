@@ -191,6 +191,8 @@ describe('planLine — infeasible plans in words, and bad input', () => {
     expect(r.kind).toBe('supply');
     expect(r.short).toEqual([{ id: BS, code: 'BW-190', tonnes: expect.closeTo(65, 3) as number }]);
     expect(r.reason).toMatch(/BW-190 is short by 65(\.0)? t \(10(\.0)? t on offer; the plan needs at least 75(\.0)? t for VG 680\)/);
+    // The same sentence for a planner working in kg (1 t = 1000 kg; grouped as the default display).
+    expect(r.reasonKg).toMatch(/BW-190 is short by 65\u202f000 kg \(10\u202f000 kg on offer; the plan needs at least 75\u202f000 kg for VG 680\)/);
   });
 
   it('names the stock that cannot be used as much as it must stay in use', () => {
@@ -200,6 +202,9 @@ describe('planLine — infeasible plans in words, and bad input', () => {
     if (r.status !== 'infeasible') return;
     expect(r.kind).toBe('min-use');
     expect(r.reason).toContain('BW-220');
+    // kg wording beside the tonnes: 5 000 000 kg kept in use (the input above, 1 t = 1000 kg).
+    expect(r.reason).toMatch(/less than the 5000 t it must stay in use for/); // four digits: not grouped
+    expect(r.reasonKg).toMatch(/less than the 5\u202f000\u202f000 kg it must stay in use for/);
   });
 
   it('reports bad input at the field', () => {
