@@ -97,11 +97,25 @@ describe('whole-line plan', () => {
     expect(text).not.toContain('Plan the line'); // nothing of the app around it
     execFileSync('pdftoppm', ['-png', '-r', '80', pdf, join(SCREEN_DIR, 'lineplan-summary')]);
 
-    // Saved: the plan's inputs come back after a reload, and the blend sheet prints revision 2.
+    // Quantities in kg: the same plan (not out of date), every quantity on screen and on paper in kg
+    // (the demands above, 1 t = 1000 kg; total 1100 t).
+    await page.getByLabel('kg', { exact: true }).check();
+    await expect.poll(() => page.getByTestId('allocation-table').innerText()).toMatch(/Supply \[kg\][\s\S]*BW-190[\s\S]*250[\u202f\s]000/);
+    expect(await page.getByTestId('marginal-values').innerText()).toMatch(/Another 1000 kg of BW-190 would save about €[\s\u202f][\d\u202f\u00a0,]+ over the period\./);
+    const pdfKg = join(SCREEN_DIR, 'lineplan-summary-kg.pdf');
+    await page.emulateMedia({ media: 'print' });
+    await page.pdf({ path: pdfKg, format: 'A4', printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const textKg = execFileSync('pdftotext', ['-layout', pdfKg, '-'], { encoding: 'utf8' }).replace(/[\u202f\u00a0]/g, ' ');
+    expect(textKg).toMatch(/Demand \[kg\]\s+300 000\s+400 000\s+250 000\s+150 000\s+1 100 000/);
+    expect(textKg).toMatch(/Use \[kg\]/);
+    expect(textKg).not.toMatch(/\[t\]|Out of date/);
+
+    // Saved: the plan's inputs (and their unit) come back after a reload, and the blend sheet prints revision 2.
     await page.reload();
     await page.getByRole('heading', { name: 'Whole-line plan', level: 2 }).waitFor();
-    await expect.poll(() => page.getByLabel(/^Demand of “Gear oil VG 320/).inputValue()).toBe('400');
-    await expect.poll(() => page.getByLabel('Supply of BW-190').inputValue()).toBe('250');
+    await expect.poll(() => page.getByLabel(/^Demand of “Gear oil VG 320/).inputValue()).toBe('400000');
+    await expect.poll(() => page.getByLabel('Supply of BW-190').inputValue()).toBe('250000');
     await page.goto('about:blank');
     await page.goto(`${inject('baseURL')}#/blend-sheet/${vg320rev2}`);
     await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();

@@ -20,6 +20,8 @@ export interface AllocationChartProps {
   series: readonly string[];
   /** Unit of the amounts, e.g. "t". */
   unit: string;
+  /** Decimals of an amount in the tooltip and the text description (default 1; 0 for kg). */
+  digits?: number;
   width: number;
   /** Title above the chart. */
   title: string;
@@ -28,7 +30,7 @@ export interface AllocationChartProps {
 const UNUSED_FILL = '#e4e0d6';
 
 /** Where each limited stock goes: one horizontal bar per stock, stacked by grade, with the supply left over. */
-export const AllocationChart = memo(function AllocationChart({ rows, series, unit, width, title }: AllocationChartProps) {
+export const AllocationChart = memo(function AllocationChart({ rows, series, unit, digits = 1, width, title }: AllocationChartProps) {
   const descId = useId();
   const f = useFormat();
   const data = rows.map((r) => {
@@ -70,7 +72,7 @@ export const AllocationChart = memo(function AllocationChart({ rows, series, uni
             tickFormatter={(v: number) => f.num(v, tickDecimals(domain, 5))}
           />
           <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />
-          <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), 1)} ${unit}`} />
+          <Tooltip isAnimationActive={false} formatter={(v) => `${f.num(Number(v), digits)} ${unit}`} />
           {series.map((s, k) => (
             <Bar key={s} dataKey={`s${k}`} name={s} stackId="use" fill={fill(k)} isAnimationActive={false} />
           ))}
@@ -81,8 +83,8 @@ export const AllocationChart = memo(function AllocationChart({ rows, series, uni
         {rows
           .map(
             (r) =>
-              `${r.label}: ${r.amounts.map((a, k) => `${f.num(a, 1)} ${unit} to ${series[k]}`).join(', ')}` +
-              (r.unused > 0 ? `, ${f.num(r.unused, 1)} ${unit} not needed` : ''),
+              `${r.label}: ${r.amounts.map((a, k) => `${f.num(a, digits)} ${unit} to ${series[k]}`).join(', ')}` +
+              (r.unused > 0 ? `, ${f.num(r.unused, digits)} ${unit} not needed` : ''),
           )
           .join('; ')}
       </p>

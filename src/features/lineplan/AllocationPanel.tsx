@@ -3,7 +3,7 @@
 import { useEffect } from 'react';
 import type { LinePlanOptimal } from '../../core/lineplan/plan';
 import { AllocationChart, useWidth } from '../../components/charts';
-import { overPeriod, tonnesNumber, type PlanView } from './words';
+import { overPeriod, quantityNumber, type PlanView } from './words';
 
 export interface AllocationPanelProps {
   plan: LinePlanOptimal;
@@ -11,7 +11,7 @@ export interface AllocationPanelProps {
 }
 
 export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
-  const { fmt, limited, supplyKg, code, period } = view;
+  const { fmt, limited, supplyKg, code, period, unit } = view;
   const [ref, width] = useWidth<HTMLDivElement>(640);
   const rows = limited.map((id) => {
     const use = plan.stockUse.find((u) => u.id === id);
@@ -19,7 +19,9 @@ export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
     const total = byGrade.reduce((s, x) => s + x, 0);
     return { id, byGrade, total, supplyKg: supplyKg[id] ?? null };
   });
-  const t = (kg: number) => tonnesNumber(fmt, kg);
+  const t = (kg: number) => quantityNumber(fmt, unit, kg);
+  /** kg per unit shown. */
+  const per = unit === 't' ? 1000 : 1;
   return (
     <section className="panel lp-allocation" aria-labelledby="lp-alloc-h">
       <h3 id="lp-alloc-h">Where the limited stocks go (while they last, {overPeriod(period)})</h3>
@@ -30,17 +32,17 @@ export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
               <th scope="col">Stock</th>
               {plan.grades.map((g) => (
                 <th key={g.id} scope="col" className="num">
-                  {g.label} [t]
+                  {g.label} [{unit}]
                 </th>
               ))}
               <th scope="col" className="num">
-                Used [t]
+                Used [{unit}]
               </th>
               <th scope="col" className="num">
-                Supply [t]
+                Supply [{unit}]
               </th>
               <th scope="col" className="num">
-                Not needed [t]
+                Not needed [{unit}]
               </th>
             </tr>
           </thead>
@@ -65,14 +67,15 @@ export default function AllocationPanel({ plan, view }: AllocationPanelProps) {
       </div>
       <div ref={ref}>
         <AllocationChart
-          title="Tonnes of each limited stock by grade"
+          title={`${unit === 't' ? 'Tonnes' : 'Kilograms'} of each limited stock by grade`}
           rows={rows.map((r) => ({
             label: code(r.id),
-            amounts: r.byGrade.map((kg) => kg / 1000),
-            unused: r.supplyKg === null ? 0 : Math.max(0, r.supplyKg - r.total) / 1000,
+            amounts: r.byGrade.map((kg) => kg / per),
+            unused: r.supplyKg === null ? 0 : Math.max(0, r.supplyKg - r.total) / per,
           }))}
           series={plan.grades.map((g) => g.label)}
-          unit="t"
+          unit={unit}
+          digits={unit === 't' ? 1 : 0}
           width={Math.max(320, Math.min(width, 900))}
         />
       </div>

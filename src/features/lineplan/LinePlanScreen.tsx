@@ -4,7 +4,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useState, type Compo
 import type { AllocationPanelProps, ChartWarmUp as ChartWarmUpType } from './AllocationPanel';
 import { Notice } from '../../components/notices';
 import { useFormat } from '../../components/format';
-import { adoptPlanRevisions, todayIso, useLibrary, usePricedLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
+import { adoptPlanRevisions, todayIso, useLibrary, usePricedLibrary, useRecipes, useRecipesHistory, useSettings, type LinePlanInputs } from '../../state';
 import { pricingFor, solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
 import { recordStockBasis } from '../../core/recipes/stock-basis';
 import { BlendbenchInputError } from '../../core/errors';
@@ -18,6 +18,13 @@ import { cancelPlan, runPlan, warmPlanWorker } from './plan-client';
 import { screenActions, useLinePlanScreen, type PlanWhich } from './store';
 import { limitedCodes, overPeriod, PLAN_TITLE, planAssumes, planView } from './words';
 import './lineplan.css';
+
+/** The same plan inputs, but perhaps for the unit they are shown in (which changes no plan). */
+function samePlanBesidesUnit(a: LinePlanInputs, b: LinePlanInputs): boolean {
+  if (a === b) return true;
+  const keys = new Set([...Object.keys(a), ...Object.keys(b)] as (keyof LinePlanInputs)[]);
+  return [...keys].every((k) => k === 'demandUnit' || a[k] === b[k]);
+}
 
 export default function LinePlanScreen() {
   // Prices restated in the base currency at the boundary (Settings → exchange rates); stocks whose
@@ -50,15 +57,17 @@ export default function LinePlanScreen() {
     return { base: priced.base, ...pricingFor(priced, quoted, ids) };
   }, [derived, summaryResult, priced, quoted]);
   const b = st.basis;
+  // A change of the unit alone ("Quantities in") changes how the plan is shown, not the plan.
+  const planChanged = b !== null && !samePlanBesidesUnit(b.linePlan, linePlan);
   const stale =
     b !== null &&
-    (b.components !== components || b.recipes !== recipes || b.targets !== targets || b.linePlan !== linePlan || b.settings !== settings);
+    (b.components !== components || b.recipes !== recipes || b.targets !== targets || planChanged || b.settings !== settings);
   // The printed summary is out of date as the plan is, except for the new revisions its own adoption saved.
   const after = st.adopted?.after;
   const summaryStale =
     stale &&
     (b.components !== components ||
-      b.linePlan !== linePlan ||
+      planChanged ||
       b.settings !== settings ||
       !(after !== undefined && after.recipes === recipes && after.targets === targets));
 
@@ -101,7 +110,12 @@ export default function LinePlanScreen() {
   const runMethod = st.basis?.settings.blendMethod ?? settings.blendMethod;
   // The period the plan was made for (its demands are over that period), not one typed since.
   const runPeriod = st.basis?.linePlan.period ?? linePlan.period;
-  const view = useMemo(() => planView(components, st.limited, st.supplyKg, runPeriod, fmt, runMethod), [components, st.limited, st.supplyKg, runPeriod, fmt, runMethod]);
+  // Quantities in the unit chosen now (a display choice: every quantity of the result follows it at once).
+  const unit = linePlan.demandUnit;
+  const view = useMemo(
+    () => planView(components, st.limited, st.supplyKg, runPeriod, fmt, runMethod, unit),
+    [components, st.limited, st.supplyKg, runPeriod, fmt, runMethod, unit],
+  );
 
   const adopt = (which: PlanWhich) => {
     const plan = which === 'lasting' ? st.result?.lasting : st.result?.after;

@@ -5,7 +5,7 @@ import type { Recipe } from '../../core/formulation/model';
 import type { LinePlanOptimal, LinePlanResult, LinePlanScenarios } from '../../core/lineplan/plan';
 import { probabilityText } from '../../components/format';
 import { MethodNote, Notice } from '../../components/notices';
-import { changeText, limitedCodes, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnes, type PlanView } from './words';
+import { changeText, limitedCodes, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, quantity, quantityNumber, marginalStep, type PlanView } from './words';
 import type { PlanWhich } from './store';
 
 import type { AllocationPanelProps } from './AllocationPanel';
@@ -48,14 +48,15 @@ export function PlanResults({ result, run, view, currentUseKg, adopt, Allocation
       </div>
       {result.marginal.length > 0 && (
         <section className="panel lp-marginal" aria-labelledby="lp-marginal-h">
-          <h3 id="lp-marginal-h">What one more tonne is worth</h3>
+          <h3 id="lp-marginal-h">{marginalStep(view.fmt, view.unit).heading}</h3>
           <ul data-testid="marginal-values">
             {result.marginal.map((m) => (
-              <li key={m.id}>{marginalSentence(m, view.fmt, view.period)}</li>
+              <li key={m.id}>{marginalSentence(m, view)}</li>
             ))}
           </ul>
           <p className="small muted">
-            Each limited stock’s supply raised by one tonne and the whole line planned again; the saving is the drop in the line’s total cost.
+            Each limited stock’s supply raised by {marginalStep(view.fmt, view.unit).raised} and the whole line planned again; the saving is the drop in
+            the line’s total cost.
           </p>
         </section>
       )}
@@ -68,14 +69,14 @@ export function PlanResults({ result, run, view, currentUseKg, adopt, Allocation
 
 function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; view: PlanView; currentUseKg: Readonly<Record<string, number>> }) {
   const { lasting, after, withdrawalCost } = result;
-  const { fmt, supplyKg, code } = view;
+  const { fmt, supplyKg, code, unit } = view;
   const over = overPeriod(view.period);
   const current = lasting.status === 'optimal' ? lasting.currentTotalCost : after.status === 'optimal' ? after.currentTotalCost : null;
   // Limited stocks the current recipes would need more of than is on offer.
   const shortNow: string[] = [];
   for (const [id, kg] of Object.entries(currentUseKg)) {
     const s = supplyKg[id];
-    if (s !== undefined && kg > s + 1) shortNow.push(`${tonnes(fmt, kg)} of ${code(id)} (${tonnes(fmt, s)} on offer)`);
+    if (s !== undefined && kg > s + 1) shortNow.push(`${quantity(fmt, unit, kg)} of ${code(id)} (${quantity(fmt, unit, s)} on offer)`);
   }
   return (
     <section className="lp-headline" aria-label="Cost of the withdrawal" data-testid="plan-headline">
@@ -111,7 +112,7 @@ function PlanColumn({ which, plan, view, adopt }: { which: PlanWhich; plan: Line
       )}
       {plan.status === 'infeasible' && (
         <Notice tone="warning" title="No plan meets every limit">
-          <span data-testid={`reason-${which}`}>{plan.reason}</span>
+          <span data-testid={`reason-${which}`}>{view.unit === 'kg' ? (plan.reasonKg ?? plan.reason) : plan.reason}</span>
         </Notice>
       )}
       {plan.status === 'optimal' && <PlanBody which={which} plan={plan} view={view} adopt={adopt} />}
@@ -120,7 +121,7 @@ function PlanColumn({ which, plan, view, adopt }: { which: PlanWhich; plan: Line
 }
 
 function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePlanOptimal; view: PlanView; adopt: AdoptProps }) {
-  const { fmt, period, code } = view;
+  const { fmt, period, code, unit } = view;
   const { stale, recipes, onConfirm, onAdopt, onUndoAdopt } = adopt;
   const confirming = adopt.confirming === which;
   const adopted = adopt.adopted?.which === which ? adopt.adopted.ids : null;
@@ -143,7 +144,7 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
             <tr>
               <th scope="col">Grade</th>
               <th scope="col" className="num">
-                Demand
+                Demand [{unit}]
               </th>
               <th scope="col">Recipe (mass %)</th>
               <th scope="col" className="num">
@@ -158,7 +159,7 @@ function PlanBody({ which, plan, view, adopt }: { which: PlanWhich; plan: LinePl
             {plan.grades.map((g) => (
               <tr key={g.id}>
                 <th scope="row">{g.label}</th>
-                <td className="num">{tonnes(fmt, g.demandKg)}</td>
+                <td className="num">{quantityNumber(fmt, unit, g.demandKg)}</td>
                 <td className="lp-recipe">
                   {g.lines.map((l) => (
                     <span key={l.componentId} className="lp-line">

@@ -6,7 +6,7 @@ import { describeRate, rateDecimals, unpricedMessage, type ExchangeRate, type Un
 import { MethodNote } from '../../components/notices';
 import '../../components/print.css';
 import type { PlanWhich } from './store';
-import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, tonnesNumber, type PlanView } from './words';
+import { changeText, marginalSentence, overPeriod, PLAN_TITLE, planAssumes, quantityNumber, type PlanView } from './words';
 
 export const SUMMARY_CAUTIONS: readonly string[] = [
   'Predicted properties are estimates by published methods (the blend-viscosity method named above, ASTM D2270 VI): every recipe requires laboratory confirmation (ASTM D445, D2270, D4052, D92, D97 and the plant’s release tests) before release.',
@@ -38,10 +38,10 @@ export const PLAN_NOT_FOR_RELEASE =
 
 export function PlanSummary({ result, which, view, companyName, today, paper, pricing, stale = false }: PlanSummaryProps) {
   const id = useId();
-  const { fmt, period, supplyKg, code } = view;
+  const { fmt, period, supplyKg, code, unit } = view;
   const plan = which === 'lasting' ? result.lasting : result.after;
   const other = which === 'lasting' ? result.after : result.lasting;
-  const t = (kg: number) => tonnesNumber(fmt, kg);
+  const t = (kg: number) => quantityNumber(fmt, unit, kg);
   return (
     <article className={`lp-summary print-page lp-paper-${paper}`} aria-labelledby={`${id}-title`} data-testid="plan-summary">
       <style>{`@page { size: ${paper === 'a4' ? 'A4' : 'letter'} portrait; margin: 9mm 10mm; }`}</style>
@@ -67,7 +67,7 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
 
       {plan.status !== 'optimal' ? (
         <p className="lps-none">
-          <strong>No plan.</strong> {plan.status === 'invalid-input' ? plan.message : plan.reason}
+          <strong>No plan.</strong> {plan.status === 'invalid-input' ? plan.message : unit === 'kg' ? (plan.reasonKg ?? plan.reason) : plan.reason}
         </p>
       ) : (
         <>
@@ -82,10 +82,10 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
                   </th>
                 ))}
                 <th scope="col" className="lps-num">
-                  Use [t]
+                  Use [{unit}]
                 </th>
                 <th scope="col" className="lps-num">
-                  Supply [t]
+                  Supply [{unit}]
                 </th>
               </tr>
             </thead>
@@ -110,7 +110,7 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
             </tbody>
             <tfoot>
               <tr>
-                <th scope="row">Demand [t]</th>
+                <th scope="row">Demand [{unit}]</th>
                 {plan.grades.map((g) => (
                   <td key={g.id} className="lps-num">
                     {t(g.demandKg)}
@@ -166,7 +166,7 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
               {which === 'lasting' && result.marginal.length > 0 && (
                 <ul>
                   {result.marginal.map((m) => (
-                    <li key={m.id}>{marginalSentence(m, fmt, period)}</li>
+                    <li key={m.id}>{marginalSentence(m, view)}</li>
                   ))}
                 </ul>
               )}

@@ -26,7 +26,12 @@ export interface PlanView {
   name: (id: string) => string;
   /** Blend-viscosity method the plan was solved with (named beside every result). */
   method: BlendMethod;
+  /** The unit the blender chose for the plan's quantities ("Quantities in"): every quantity shown is in it. */
+  unit: QuantityUnit;
 }
+
+/** The unit of the plan's quantities on the screen and the summary (kept in kg inside). */
+export type QuantityUnit = 'kg' | 't';
 
 export function planView(
   components: readonly Component[],
@@ -35,9 +40,10 @@ export function planView(
   period: string,
   fmt: Formatter,
   method: BlendMethod,
+  unit: QuantityUnit,
 ): PlanView {
   const byId = new Map(components.map((c) => [c.id, c]));
-  return { fmt, period, limited, supplyKg, code: (id) => byId.get(id)?.code ?? id, name: (id) => byId.get(id)?.name ?? '', method };
+  return { fmt, period, limited, supplyKg, code: (id) => byId.get(id)?.code ?? id, name: (id) => byId.get(id)?.name ?? '', method, unit };
 }
 
 /** "BW-160, BW-190", or "the limited stocks" when none is limited. */
@@ -45,7 +51,7 @@ export const limitedCodes = (v: PlanView): string => v.limited.map(v.code).join(
 
 /** What a plan assumes of the limited stocks: "BW-190 250 t" (while they last) or "without BW-190". */
 export const planAssumes = (v: PlanView, which: PlanWhich): string =>
-  which === 'lasting' ? limitedText(v.limited, v.supplyKg, v.code, v.fmt) : `without ${limitedCodes(v)}`;
+  which === 'lasting' ? limitedText(v.limited, v.supplyKg, v.code, v.fmt, v.unit) : `without ${limitedCodes(v)}`;
 
 /** "over 2026", or "over the period" when the period has no name. */
 export const overPeriod = (period: string): string => `over ${period.trim() || 'the period'}`;
@@ -64,28 +70,60 @@ export function changeText(fmt: Formatter, delta: number, base: number | null, d
   return `${sign}${fmt.money(Math.abs(delta), digits)}${pct}`;
 }
 
-/** Tonnes from kg, without the unit (columns headed [t]): one decimal below 100 t, whole tonnes above. */
-export const tonnesNumber = (fmt: Formatter, kg: number): string => fmt.num(kg / 1000, Math.abs(kg) >= 100_000 ? 0 : 1);
+/**
+ * A quantity [kg] in the chosen unit, without the unit (columns headed [t] or [kg]). Tonnes: one
+ * decimal below 100 t, whole tonnes above (1 t = 1000 kg). kg: whole kilograms, as they are typed
+ * and weighed. Thousands grouped as the user's number format says.
+ */
+export const quantityNumber = (fmt: Formatter, unit: QuantityUnit, kg: number): string =>
+  unit === 'kg' ? fmt.num(kg, 0) : fmt.num(kg / 1000, Math.abs(kg) >= 100_000 ? 0 : 1);
 
-/** Tonnes from kg with the unit: "12.5 t", "250 t". */
-export const tonnes = (fmt: Formatter, kg: number): string => `${tonnesNumber(fmt, kg)} t`;
+/** A quantity [kg] in the chosen unit, with the unit: "12.5 t", "250 t", "12 500 kg". */
+export const quantity = (fmt: Formatter, unit: QuantityUnit, kg: number): string => `${quantityNumber(fmt, unit, kg)} ${unit}`;
 
-/** The value of one more tonne of a limited stock, in words. */
-export function marginalSentence(m: MarginalValue, fmt: Formatter, period: string): string {
+/**
+ * The core's step of the marginal value [kg] (`MARGINAL_STEP_KG` in core/lineplan/plan, copied here so
+ * that the screen's code does not load the planner, which runs in the worker; a test holds them equal).
+ */
+export const MARGINAL_STEP_SHOWN_KG = 1000;
+
+/**
+ * The step of the marginal value (one tonne) in the chosen unit:
+ * "one more tonne", or "another 1000 kg". In kg the step stays 1000 kg, not one kg: that is what the
+ * core planned again with, and a saving per single kg would be a few cents, easy to misread.
+ */
+export function marginalStep(fmt: Formatter, unit: QuantityUnit): { more: string; heading: string; raised: string } {
+  if (unit === 't') return { more: 'one more tonne', heading: 'What one more tonne is worth', raised: 'one tonne' };
+  const kg = `${fmt.num(MARGINAL_STEP_SHOWN_KG, 0)} kg`;
+  return { more: `another ${kg}`, heading: `What another ${kg} is worth`, raised: kg };
+}
+
+/** The value of one more tonne (kg: another 1000 kg) of a limited stock, in words, in the plan's unit. */
+export function marginalSentence(m: MarginalValue, v: Pick<PlanView, 'fmt' | 'period' | 'unit'>): string {
+  const { fmt, unit, period } = v;
+  const { more } = marginalStep(fmt, unit);
+  const q = (kg: number) => quantity(fmt, unit, kg);
   if (!m.binding) {
-    return `${m.code}: the plan needs ${tonnes(fmt, m.useKg)} of the ${tonnes(fmt, m.supplyKg)} on offer, so one more tonne would save nothing.`;
+    return `${m.code}: the plan needs ${q(m.useKg)} of the ${q(m.supplyKg)} on offer, so ${more} would save nothing.`;
   }
-  if (m.savingPerTonne === null) return `${m.code} is used up; what one more tonne is worth could not be worked out.`;
-  if (m.savingPerTonne < 0.5) return `${m.code} is used up, but one more tonne would save nothing ${overPeriod(period)}.`;
-  return `One more tonne of ${m.code} would save ${aboutMoney(fmt, m.savingPerTonne)} ${overPeriod(period)}.`;
+  if (m.savingPerTonne === null) return `${m.code} is used up; what ${more} is worth could not be worked out.`;
+  if (m.savingPerTonne < 0.5) return `${m.code} is used up, but ${more} would save nothing ${overPeriod(period)}.`;
+  const opening = more.charAt(0).toUpperCase() + more.slice(1);
+  return `${opening} of ${m.code} would save ${aboutMoney(fmt, m.savingPerTonne)} ${overPeriod(period)}.`;
 }
 
 /**
  * The limited stocks as the plan while they last takes them: "BW-190 250 t; BW-160, BW-161 with no
- * supply given", or "no limited stock".
+ * supply given" (or "BW-190 250 000 kg; …" in kg), or "no limited stock".
  */
-export function limitedText(limited: readonly string[], supplyKg: Readonly<Record<string, number>>, code: (id: string) => string, fmt: Formatter): string {
-  const given = limited.filter((id) => supplyKg[id] !== undefined).map((id) => `${code(id)} ${tonnes(fmt, supplyKg[id]!)}`);
+export function limitedText(
+  limited: readonly string[],
+  supplyKg: Readonly<Record<string, number>>,
+  code: (id: string) => string,
+  fmt: Formatter,
+  unit: QuantityUnit,
+): string {
+  const given = limited.filter((id) => supplyKg[id] !== undefined).map((id) => `${code(id)} ${quantity(fmt, unit, supplyKg[id]!)}`);
   const open = limited.filter((id) => supplyKg[id] === undefined).map(code);
   const parts = [...given];
   if (open.length > 0) parts.push(`${open.join(', ')} with no supply given`);

@@ -184,6 +184,89 @@ describe('Whole-line plan screen', () => {
     expect(within(screen.getByTestId('plan-summary')).getByTestId('method-note')).toBeTruthy();
   });
 
+  it('shows every quantity of the result and the summary in the unit chosen, tonnes or kg, and a change of unit does not put the plan out of date (s25)', async () => {
+    await planDemo();
+    await screen.findByTestId('allocation-table', {}, { timeout: 10_000 });
+    await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+    const NB = '\u202f'; // thousands grouped with a narrow no-break space (default number format)
+    const cells = (el: HTMLElement, selector: string) => [...el.querySelectorAll(selector)].map((c) => c.textContent);
+    // Check values: the demands and the supply typed in planDemo (300, 400, 250, 150 t; 250 t of BW-190),
+    // 1 t = 1000 kg (SI), total 1100 t (arithmetic).
+    const inTonnes = () => {
+      const lasting = screen.getByTestId('plan-lasting');
+      expect(cells(lasting, '.lp-grade-table thead th')).toContain('Demand [t]');
+      expect(cells(lasting, '.lp-grade-table tbody td:nth-child(2)')).toEqual(['300', '400', '250', '150']);
+      expect(lasting.querySelector('h3')!.textContent).toContain('BW-190 250 t');
+      expect(screen.getByRole('heading', { name: 'What one more tonne is worth' })).toBeTruthy();
+      const table = screen.getByTestId('allocation-table');
+      expect(cells(table, 'thead th')).toEqual(expect.arrayContaining(['Used [t]', 'Supply [t]', 'Not needed [t]']));
+      expect(within(table).getByText('BW-190').closest('tr')!.textContent).toContain('250');
+      const summary = screen.getByTestId('plan-summary');
+      expect(cells(summary, 'thead th')).toEqual(expect.arrayContaining(['Use [t]', 'Supply [t]']));
+      expect(within(summary).getByText('Demand [t]').closest('tr')!.textContent).toBe(`Demand [t]300400250150${'1100'}`);
+    };
+    inTonnes();
+    const perTonne = /One more tonne of BW-190 would save (about €.[\d\u202f]+) over the period\./.exec(screen.getByTestId('marginal-values').textContent!);
+    expect(perTonne).not.toBeNull();
+
+    fireEvent.click(screen.getByLabelText('kg'));
+    expect(useRecipes.getState().linePlan.demandUnit).toBe('kg');
+    // The plan is the same plan: not out of date, still adoptable.
+    expect(screen.queryByText(/changed since this plan was made/)).toBeNull();
+    expect((within(screen.getByTestId('plan-lasting')).getByRole('button', { name: 'Adopt these recipes…' }) as HTMLButtonElement).disabled).toBe(false);
+    expect(within(screen.getByTestId('plan-summary')).queryByTestId('summary-out-of-date')).toBeNull();
+    const lasting = screen.getByTestId('plan-lasting');
+    expect(cells(lasting, '.lp-grade-table thead th')).toContain('Demand [kg]');
+    expect(cells(lasting, '.lp-grade-table tbody td:nth-child(2)')).toEqual([`300${NB}000`, `400${NB}000`, `250${NB}000`, `150${NB}000`]);
+    expect(lasting.querySelector('h3')!.textContent).toContain(`BW-190 250${NB}000 kg`);
+    // The marginal value: the same saving (the core's step is one tonne), said as another 1000 kg.
+    expect(screen.getByRole('heading', { name: 'What another 1000 kg is worth' })).toBeTruthy();
+    const marginal = screen.getByTestId('marginal-values').textContent!;
+    expect(marginal).toContain(`Another 1000 kg of BW-190 would save ${perTonne![1]} over the period.`);
+    expect(screen.getByText(/supply raised by 1000 kg and the whole line planned again/)).toBeTruthy();
+    const table = screen.getByTestId('allocation-table');
+    expect(cells(table, 'thead th')).toEqual(expect.arrayContaining(['Used [kg]', 'Supply [kg]', 'Not needed [kg]']));
+    expect(within(table).getByText('BW-190').closest('tr')!.textContent).toContain(`250${NB}000`);
+    expect(screen.getByText('Kilograms of each limited stock by grade')).toBeTruthy();
+    const summary = screen.getByTestId('plan-summary');
+    expect(cells(summary, 'thead th')).toEqual(expect.arrayContaining(['Use [kg]', 'Supply [kg]']));
+    expect(within(summary).getByText('Demand [kg]').closest('tr')!.textContent).toBe(
+      `Demand [kg]300${NB}000400${NB}000250${NB}000150${NB}0001${NB}100${NB}000`,
+    );
+    expect(summary.textContent).toContain(`Another 1000 kg of BW-190 would save ${perTonne![1]}`);
+    // No quantity left in tonnes anywhere in the results or on the summary.
+    for (const id of ['plan-headline', 'plan-results', 'plan-summary']) {
+      expect(screen.getByTestId(id).textContent).not.toMatch(/\d[\s\u202f\u00a0]t\b|tonne/);
+    }
+    // And back.
+    fireEvent.click(screen.getByLabelText('tonnes'));
+    inTonnes();
+  });
+
+  it('plans from quantities typed in kg and says in kg what the current recipes would need beyond the supply (s25)', async () => {
+    render(<LinePlanScreen />);
+    fireEvent.click(screen.getByLabelText('kg'));
+    enter(/Demand of “Gear oil VG 460/, '250000');
+    enter(/Demand of “Gear oil VG 680/, '150000');
+    enter('Supply of BW-190', '10000');
+    expect(useRecipes.getState().linePlan.demands['demo-vg680']).toBe(150_000); // typed in kg, saved in kg
+    fireEvent.click(screen.getByText('Plan the line'));
+    await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
+    const NB = '\u202f';
+    // The current recipes' need of BW-190 at these demands (from the demo recipes' shares; the screen's own sum).
+    const need = useRecipes
+      .getState()
+      .recipes.filter((r) => r.id === 'demo-vg460' || r.id === 'demo-vg680')
+      .reduce((s, r) => s + (r.id === 'demo-vg460' ? 250_000 : 150_000) * (r.lines.find((l) => l.componentId === 'demo-bw-190')?.massFraction ?? 0), 0);
+    expect(need).toBeGreaterThan(10_000); // the demo's current recipes hold more bright stock than 10 t
+    const grouped = (kg: number) => String(Math.round(kg)).replace(/\B(?=(\d{3})+(?!\d))/g, NB);
+    expect(screen.getByTestId('plan-headline').textContent).toContain(
+      `The current recipes would need more than is on offer: ${grouped(need)} kg of BW-190 (10${NB}000 kg on offer).`,
+    );
+    fireEvent.click(screen.getByLabelText('tonnes'));
+    expect(screen.getByTestId('plan-headline').textContent).toContain(`of BW-190 (10.0 t on offer).`);
+  });
+
   it('adopts the plan’s recipes as draft revisions in one undo step, and undoes them', async () => {
     await planDemo();
     const before = useRecipes.getState().recipes;
@@ -258,6 +341,9 @@ describe('Whole-line plan screen', () => {
     fireEvent.click(screen.getByText('Plan the line'));
     await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
     expect(screen.getByTestId('reason-lasting').textContent).toMatch(/BW-190 is short by 65(,0)? t \(10(,0)? t on offer; the plan needs at least 75(,0)? t for VG 680\)/);
+    // In kg, the same reason with its quantities in kg (1 t = 1000 kg), without planning again.
+    fireEvent.click(screen.getByLabelText('kg'));
+    expect(screen.getByTestId('reason-lasting').textContent).toMatch(/BW-190 is short by 65\u202f000 kg \(10\u202f000 kg on offer; the plan needs at least 75\u202f000 kg for VG 680\)/);
   });
 
   it('prints the summary through the browser’s print dialog', async () => {
