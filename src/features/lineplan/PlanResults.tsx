@@ -85,7 +85,13 @@ function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; v
           The withdrawal of {limitedCodes(view)} costs the line <strong data-testid="withdrawal-cost">{fmt.money(withdrawalCost, 0)}</strong> {over}.
         </p>
       ) : (
-        <p className="lp-big">The cost of the withdrawal cannot be given: one of the two plans has no answer (see below).</p>
+        <p className="lp-big">
+          The cost of the withdrawal cannot be given:{' '}
+          {lasting.status !== 'optimal' && after.status !== 'optimal'
+            ? 'neither plan can be made'
+            : `the plan ${lasting.status !== 'optimal' ? 'while they last' : 'after they are gone'} cannot be made`}{' '}
+          (see below).
+        </p>
       )}
       <p>
         {lasting.status === 'optimal' && <>While they last the line costs {fmt.money(lasting.totalCost, 0)}; </>}

@@ -325,7 +325,7 @@ describe('Whole-line plan screen', () => {
     expect(screen.getByTestId('reason-after').textContent).toMatch(/^VG 680 cannot be made/);
   });
 
-  it('says which supply is short and by how many tonnes', async () => {
+  it('says which supply is short and by how much (tonnes or kg), and which of the two plans cannot be made', async () => {
     render(<LinePlanScreen />);
     enter(/Demand of “Gear oil VG 680/, '150');
     enter('Supply of BW-190', '10');
@@ -344,6 +344,15 @@ describe('Whole-line plan screen', () => {
     // In kg, the same reason with its quantities in kg (1 t = 1000 kg), without planning again.
     fireEvent.click(screen.getByLabelText('kg'));
     expect(screen.getByTestId('reason-lasting').textContent).toMatch(/BW-190 is short by 65\u202f000 kg \(10\u202f000 kg on offer; the plan needs at least 75\u202f000 kg for VG 680\)/);
+    // Without BW-190 VG 680 cannot be made either: the headline says that neither plan can be made.
+    expect(screen.getByTestId('plan-headline').textContent).toContain('The cost of the withdrawal cannot be given: neither plan can be made (see below).');
+    // With enough BW-190 the plan while it lasts is made; the headline names the plan that is not.
+    enter('Supply of BW-190', '250000');
+    fireEvent.click(screen.getByText('Plan the line'));
+    await waitFor(() => expect(screen.getByTestId('plan-results').dataset.run).toBe('2'), { timeout: 30_000 });
+    expect(screen.getByTestId('plan-headline').textContent).toContain(
+      'The cost of the withdrawal cannot be given: the plan after they are gone cannot be made (see below).',
+    );
   });
 
   it('prints the summary through the browser’s print dialog', async () => {
