@@ -78,6 +78,14 @@ function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; v
     const s = supplyKg[id];
     if (s !== undefined && kg > s + 1) shortNow.push(`${quantity(fmt, unit, kg)} of ${code(id)} (${quantity(fmt, unit, s)} on offer)`);
   }
+  // The line's costs, each where there is one ("While they last the line costs €…; after they are gone €…; …").
+  const costs: string[] = [];
+  if (lasting.status === 'optimal') costs.push(`While they last the line costs ${fmt.money(lasting.totalCost, 0)}`);
+  if (after.status === 'optimal') {
+    costs.push(lasting.status === 'optimal' ? `after they are gone ${fmt.money(after.totalCost, 0)}` : `After they are gone the line costs ${fmt.money(after.totalCost, 0)}`);
+  }
+  // (the current recipes' cost comes with an optimal plan, so it never opens the sentence)
+  if (current !== null) costs.push(`the current recipes would cost ${fmt.money(current, 0)} ${over} at today’s prices`);
   return (
     <section className="lp-headline" aria-label="Cost of the withdrawal" data-testid="plan-headline">
       {withdrawalCost !== null ? (
@@ -93,11 +101,7 @@ function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; v
           (see below).
         </p>
       )}
-      <p>
-        {lasting.status === 'optimal' && <>While they last the line costs {fmt.money(lasting.totalCost, 0)}; </>}
-        {after.status === 'optimal' && <>after they are gone {fmt.money(after.totalCost, 0)}; </>}
-        {current !== null && <>the current recipes would cost {fmt.money(current, 0)} {over} at today’s prices.</>}
-      </p>
+      {costs.length > 0 && <p>{costs.join('; ')}.</p>}
       {shortNow.length > 0 && <p>The current recipes would need more than is on offer: {shortNow.join('; ')}.</p>}
     </section>
   );

@@ -440,6 +440,9 @@ describe('Whole-line plan with a stock priced in another currency (issue 10, ite
     expect(named.some((e) => !e.closest('[data-testid="plan-summary"]'))).toBe(true); // on screen, not only on paper
     const lasting = screen.getByTestId('plan-lasting');
     expect(lasting.textContent).not.toMatch(/currenc|USD/);
+    // The current recipes cannot be costed: the headline's costs end with the plans' own, not with a dangling "; ".
+    const costs = [...screen.getByTestId('plan-headline').querySelectorAll('p')].map((p) => p.textContent)[1]!;
+    expect(costs).toMatch(/^While they last the line costs €.[\d\u202f]+; after they are gone €.[\d\u202f]+\.$/);
     const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
     // the VG 320 demo recipe holds BW-160: the current recipes cannot be costed, and the summary says why
     expect(within(summary).getByTestId('summary-pricing').textContent).toMatch(/BW-160 is priced in USD, which has no exchange rate to EUR/);
