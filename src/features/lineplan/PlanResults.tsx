@@ -80,15 +80,23 @@ function Headline({ result, view, currentUseKg }: { result: LinePlanScenarios; v
   }
   // The line's costs, each where there is one ("While they last the line costs €…; after they are gone €…; …").
   const costs: string[] = [];
-  if (lasting.status === 'optimal') costs.push(`While they last the line costs ${fmt.money(lasting.totalCost, 0)}`);
-  if (after.status === 'optimal') {
+  // No stock limited: the two plans are one plan, and there is no withdrawal to cost.
+  const none = view.limited.length === 0;
+  if (none && lasting.status === 'optimal') costs.push(`The line costs ${fmt.money(lasting.totalCost, 0)} ${over}`);
+  else if (lasting.status === 'optimal') costs.push(`While they last the line costs ${fmt.money(lasting.totalCost, 0)}`);
+  if (after.status === 'optimal' && !(none && lasting.status === 'optimal')) {
     costs.push(lasting.status === 'optimal' ? `after they are gone ${fmt.money(after.totalCost, 0)}` : `After they are gone the line costs ${fmt.money(after.totalCost, 0)}`);
   }
   // (the current recipes' cost comes with an optimal plan, so it never opens the sentence)
   if (current !== null) costs.push(`the current recipes would cost ${fmt.money(current, 0)} ${over} at today’s prices`);
   return (
     <section className="lp-headline" aria-label="Cost of the withdrawal" data-testid="plan-headline">
-      {withdrawalCost !== null ? (
+      {none ? (
+        <p className="lp-big">
+          No stock is limited in this plan, so nothing is withdrawn and the two plans are the same. Mark a stock limited on Stocks, or limit one
+          for this plan above, to see what its withdrawal costs the line.
+        </p>
+      ) : withdrawalCost !== null ? (
         <p className="lp-big">
           The withdrawal of {limitedCodes(view)} costs the line <strong data-testid="withdrawal-cost">{fmt.money(withdrawalCost, 0)}</strong> {over}.
         </p>

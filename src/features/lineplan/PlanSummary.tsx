@@ -144,7 +144,7 @@ export function PlanSummary({ result, which, view, companyName, today, paper, pr
                   </tr>
                   <tr>
                     <th scope="row">Cost of the withdrawal</th>
-                    <td className="lps-num">{result.withdrawalCost === null ? '—' : fmt.money(result.withdrawalCost, 0)}</td>
+                    <td className="lps-num">{view.limited.length === 0 ? 'none: no stock limited' : result.withdrawalCost === null ? '—' : fmt.money(result.withdrawalCost, 0)}</td>
                   </tr>
                   <tr>
                     <th scope="row">Current recipes, same demand</th>

@@ -355,6 +355,24 @@ describe('Whole-line plan screen', () => {
     );
   });
 
+  it('says when no stock is limited that nothing is withdrawn, instead of a withdrawal costing € 0 (s25 screen review)', async () => {
+    for (const code of ['BW-160', 'BW-161', 'BW-190']) {
+      const c = useLibrary.getState().components.find((x) => x.code === code)!;
+      useLibrary.getState().updateComponent(c.id, { availability: 'available' });
+    }
+    render(<LinePlanScreen />);
+    enter(/Demand of “Gear oil VG 220/, '300');
+    fireEvent.click(screen.getByText('Plan the line'));
+    await screen.findByTestId('plan-results', {}, { timeout: 30_000 });
+    const headline = screen.getByTestId('plan-headline').textContent!;
+    expect(headline).toMatch(/^No stock is limited in this plan, so nothing is withdrawn and the two plans are the same\./);
+    expect(headline).toMatch(/The line costs €.[\d\u202f]+ over the period; the current recipes would cost/);
+    expect(headline).not.toMatch(/withdrawal of|While they last/);
+    expect(screen.queryByTestId('withdrawal-cost')).toBeNull();
+    const summary = await screen.findByTestId('plan-summary', {}, { timeout: 10_000 });
+    expect(within(summary).getByText('Cost of the withdrawal').closest('tr')!.textContent).toBe('Cost of the withdrawalnone: no stock limited');
+  });
+
   it('prints the summary through the browser’s print dialog', async () => {
     const print = vi.spyOn(window, 'print').mockImplementation(() => {});
     await planDemo();
