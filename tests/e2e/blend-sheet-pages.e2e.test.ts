@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { launch, SCREEN_DIR, stored, type Session } from './support';
+import { launch, SCREEN_DIR, type Session } from './support';
+import { editSaved, seededRecipe, TWELVE } from './seed';
 import { TEXT_RULES } from '../../src/state/field-rules';
 import { NOT_PRINTED_HEAD } from '../../src/features/blend-sheet/page-header';
 import { demoComponentId, demoComponents } from '../../src/state/demo';
@@ -42,8 +43,7 @@ function nameColumn(path: string, n: number): string {
 const squash = (t: string) => t.replace(/[\s\u00ad-]+/g, '');
 
 // The twelve-component recipe of blend-sheet.e2e.test.ts (invented demo stocks; predicted ν40 ≈ 311 mm²/s).
-const CODES = ['BW-281', 'BW-190', 'BW-441', 'BW-240', 'BW-241', 'BW-221', 'BW-307', 'BW-407', 'BW-606', 'BW-621', 'BW-510', 'BW-901'];
-const FRACTIONS = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
+const CODES = TWELVE.codes;
 const MAX = {
   code: TEXT_RULES.stockCode.max,
   name: TEXT_RULES.stockName.max,
@@ -58,6 +58,9 @@ const longCode = (i: number) => `C${String(i).padStart(2, '0')}-${'HEAVYBRIGHTST
 const longName = (i: number) => `Stock ${i} of an invented refinery, ${'vacuum residue, solvent extracted and dewaxed, '.repeat(6)}`.slice(0, MAX.name).trim();
 const LOT = `L${'7'.repeat(MAX.lot - 1)}`; // no space to break at
 const VESSEL = `Kettle 3 by the north wall ${'next to the pump house '.repeat(6)}`.slice(0, MAX.vessel).trim();
+/** A product and a company name of the longest length allowed (invented). */
+const LONG_RECIPE = `Gear oil VG 320 for enclosed industrial gear drives, ${'heavy-duty EP, invented demo, '.repeat(7)}`.slice(0, MAX.recipe).trim();
+const LONG_COMPANY = `Invented Blending Works, ${'Plant Three, Industrial Estate Road, '.repeat(6)}`.slice(0, MAX.company).trim();
 
 interface Seed {
   /** Indexes (in CODES) of the stocks given the longest code / name. */
@@ -68,93 +71,34 @@ interface Seed {
   shortFields?: boolean;
 }
 
-/** Seeds the library, a 12-component recipe `e2e-pages` and its sheet fields straight into IndexedDB. */
+type Stored = {
+  library: { state: { components: { id: string; code: string; name: string }[] } };
+  recipes: { state: { recipes: { id: string }[]; sheets: Record<string, unknown>; qc: Record<string, unknown> } };
+  settings: { state: { settings: { companyName: string } } };
+};
+
+/** Seeds the library, a 12-component recipe `e2e-pages` and its sheet fields, and opens its sheet. */
 async function seed(page: Page, s: Seed): Promise<void> {
   await page.goto('about:blank');
   await page.goto(inject('baseURL'));
   await page.getByRole('navigation').waitFor();
-  // On a first start the demo is written a moment after the screen is drawn: wait for it.
-  await expect.poll(async () => (await stored(page, 'recipes')) != null && (await stored(page, 'settings')) != null).toBe(true);
-  await page.evaluate(
-    async ({ s, codes, fractions, longCodes, longNames, demoNames, lot, vessel, recipeName, company }) => {
-      const db = await new Promise<IDBDatabase>((res, rej) => {
-        const r = indexedDB.open('blendbench');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      // Read and written in one transaction: no save of the app's can come between.
-      const tx = db.transaction('saved-work', 'readwrite');
-      const store = tx.objectStore('saved-work');
-      const done = new Promise<void>((res, rej) => {
-        tx.oncomplete = () => res();
-        tx.onabort = () => rej(tx.error);
-      });
-      type Lib = { state: { components: { id: string; code: string; name: string }[] } };
-      const lib = store.get('library');
-      lib.onsuccess = () => {
-        const saved = lib.result as Lib;
-        codes.forEach((code, i) => {
-          const c = saved.state.components.find((x) => x.id === `demo-${code.toLowerCase()}`)!;
-          // The demo's own code and name unless this case asks for the longest (an earlier case may have changed them).
-          c.code = s.longCodes.includes(i) ? longCodes[i]! : code;
-          c.name = s.longNames.includes(i) ? longNames[i]! : demoNames[i]!;
-        });
-        store.put(saved, 'library');
-      };
-      const rec = store.get('recipes');
-      rec.onsuccess = () => {
-        const saved = rec.result as { state: { recipes: unknown[]; sheets: Record<string, unknown>; qc: Record<string, unknown> } };
-        delete saved.state.qc['e2e-pages']; // no heel or lots left from an earlier case
-        saved.state.recipes = saved.state.recipes.filter((r) => (r as { id: string }).id !== 'e2e-pages');
-        saved.state.recipes.push({
-          id: 'e2e-pages',
-          name: s.longHeader ? recipeName : 'Twelve-component page test VG 320 (invented)',
-          grade: 320,
-          lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
-          revision: 1,
-          isReference: false,
-          notes: 'Seeded by the end-to-end test.',
-          updatedAt: '2025-06-01T08:00:00.000Z',
-          status: 'approved',
-          approvedAt: '2025-06-01T08:00:00.000Z',
-          archived: false,
-          supersedes: null,
-          reasonForChange: '',
-          specification: {
-            grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
-            flashMin: null, pourMax: null, copper: '', foam: '',
-          },
-          stockBasis: null,
-        });
-        saved.state.sheets['e2e-pages'] = s.shortFields
-          ? { lot: 'L-2026-0142', batchSize: '10000', batchUnit: 'kg', vessel: 'Kettle 3', instructions: null }
-          : { lot, batchSize: '10000', batchUnit: 'kg', vessel, instructions: null };
-        store.put(saved, 'recipes');
-      };
-      if (s.longHeader) {
-        const set = store.get('settings');
-        set.onsuccess = () => {
-          const saved = set.result as { state: { settings: { companyName: string } } };
-          saved.state.settings.companyName = company;
-          store.put(saved, 'settings');
-        };
-      }
-      await done;
-      db.close();
-    },
-    {
-      s,
-      codes: CODES,
-      fractions: FRACTIONS,
-      longCodes: CODES.map((_, i) => longCode(i)),
-      longNames: CODES.map((_, i) => longName(i)),
-      demoNames: CODES.map((c) => demoComponents().find((d) => d.id === demoComponentId(c))!.name),
-      lot: LOT,
-      vessel: VESSEL,
-      recipeName: `Gear oil VG 320 for enclosed industrial gear drives, ${'heavy-duty EP, invented demo, '.repeat(7)}`.slice(0, MAX.recipe).trim(),
-      company: `Invented Blending Works, ${'Plant Three, Industrial Estate Road, '.repeat(6)}`.slice(0, MAX.company).trim(),
-    },
-  );
+  await editSaved<Stored>(page, ['library', 'recipes', 'settings'], ({ library, recipes, settings }) => {
+    CODES.forEach((code, i) => {
+      const c = library.state.components.find((x) => x.id === demoComponentId(code))!;
+      // The demo's own code and name unless this case asks for the longest (an earlier case may have changed them).
+      c.code = s.longCodes.includes(i) ? longCode(i) : code;
+      c.name = s.longNames.includes(i) ? longName(i) : demoComponents().find((d) => d.id === demoComponentId(code))!.name;
+    });
+    delete recipes.state.qc['e2e-pages']; // no heel or lots left from an earlier case
+    recipes.state.recipes = recipes.state.recipes.filter((r) => r.id !== 'e2e-pages');
+    recipes.state.recipes.push(
+      seededRecipe({ id: 'e2e-pages', name: s.longHeader ? LONG_RECIPE : 'Twelve-component page test VG 320 (invented)', grade: 320, ...TWELVE }),
+    );
+    recipes.state.sheets['e2e-pages'] = s.shortFields
+      ? { lot: 'L-2026-0142', batchSize: '10000', batchUnit: 'kg', vessel: 'Kettle 3', instructions: null }
+      : { lot: LOT, batchSize: '10000', batchUnit: 'kg', vessel: VESSEL, instructions: null };
+    if (s.longHeader) settings.state.settings.companyName = LONG_COMPANY;
+  });
   await page.goto('about:blank');
   await page.goto(`${inject('baseURL')}#/blend-sheet/e2e-pages`);
   await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();

@@ -7,6 +7,7 @@ import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
+import { editSaved, seededRecipe, TWELVE } from './seed';
 
 const OUT = SCREEN_DIR; // git-ignored (test-output/screens)
 const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
@@ -170,59 +171,11 @@ describe('blend sheet', () => {
     const { page } = s;
     await page.goto(inject('baseURL'));
     await page.getByRole('navigation').waitFor();
-    // Seed a 12-component recipe straight into the saved recipes (IndexedDB), then reload.
-    // Long-named stocks ("…, second source") on purpose: the worst case for wrapping. Fractions chosen
-    // to land near the VG 320 mid-point (predicted ν40 ≈ 311 mm²/s by the app's own Refutas prediction).
-    const codes12 = [
-      'BW-281', 'BW-190', 'BW-441', 'BW-240', 'BW-241', 'BW-221', 'BW-307', 'BW-407', 'BW-606', 'BW-621', 'BW-510', 'BW-901',
-    ];
-    const fractions = [0.36, 0.3, 0.15, 0.02, 0.02, 0.02, 0.02, 0.02, 0.03, 0.02, 0.02, 0.02];
-    // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
-    await expect.poll(async () => (await stored(page, 'recipes')) != null).toBe(true);
-    await page.evaluate(
-      async ({ codes, fractions }) => {
-        const db = await new Promise<IDBDatabase>((res, rej) => {
-          const r = indexedDB.open('blendbench');
-          r.onsuccess = () => res(r.result);
-          r.onerror = () => rej(r.error);
-        });
-        // Read and written in one transaction: no save of the app's can come between.
-        const tx = db.transaction('saved-work', 'readwrite');
-        const store = tx.objectStore('saved-work');
-        const done = new Promise<void>((res, rej) => {
-          tx.oncomplete = () => res();
-          tx.onabort = () => rej(tx.error);
-        });
-        const read = store.get('recipes');
-        read.onsuccess = () => {
-          const saved = read.result as { state: { recipes: unknown[] }; version: number };
-          saved.state.recipes.push({
-            id: 'e2e-twelve',
-            name: 'Twelve-component test blend VG 320 (invented)',
-            grade: 320,
-            lines: codes.map((c, i) => ({ componentId: `demo-${c.toLowerCase()}`, massFraction: fractions[i] })),
-            revision: 1,
-            isReference: false,
-            notes: 'Seeded by the end-to-end test.',
-            updatedAt: '2025-06-01T08:00:00.000Z',
-            status: 'approved',
-            approvedAt: '2025-06-01T08:00:00.000Z',
-            archived: false,
-            supersedes: null,
-            reasonForChange: '',
-            specification: {
-              grade: null, reference: '', kv100Min: null, kv100Max: null, viMin: null, density15Min: null, density15Max: null,
-              flashMin: null, pourMax: null, copper: '', foam: '',
-            },
-            stockBasis: null,
-          });
-          store.put(saved, 'recipes');
-        };
-        await done;
-        db.close();
-      },
-      { codes: codes12, fractions },
-    );
+    // Seed a 12-component recipe straight into the saved recipes (IndexedDB), then reload. Long-named
+    // stocks ("…, second source") on purpose: the worst case for wrapping.
+    await editSaved<{ recipes: { state: { recipes: unknown[] } } }>(page, ['recipes'], ({ recipes }) => {
+      recipes.state.recipes.push(seededRecipe({ id: 'e2e-twelve', name: 'Twelve-component test blend VG 320 (invented)', grade: 320, ...TWELVE }));
+    });
     const codes = await openSheet(page, 'e2e-twelve');
     expect(codes).toHaveLength(12);
     await page.getByLabel('Batch / lot no.').fill('L-2025-0999');

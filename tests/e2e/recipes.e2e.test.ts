@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { launch, screenshot, SCREEN_DIR, stored, type Session } from './support';
 import { axeSerious } from './axe';
+import { editSaved } from './seed';
 
 type StoredRecipes = {
   state: { recipes: { id: string; name: string; status: string; supersedes: string | null; reasonForChange: string; lines: unknown[] }[] };
@@ -22,34 +23,13 @@ type Seeded = { from: string; specificationOf?: string; patch: Record<string, un
  * for), adding `added`; the next load upgrades them.
  */
 async function seedSchema8(page: Page, added: Seeded[]): Promise<void> {
-  // On a first start the demo's recipes are written a moment after the screen is drawn: wait for them.
-  await expect.poll(async () => (await stored(page, 'recipes')) != null).toBe(true);
-  await page.evaluate(async (adds) => {
-    const db = await new Promise<IDBDatabase>((res, rej) => {
-      const r = indexedDB.open('blendbench');
-      r.onsuccess = () => res(r.result);
-      r.onerror = () => rej(r.error);
-    });
-    // Read and written in one transaction: no save of the app's can come between.
-    const tx = db.transaction('saved-work', 'readwrite');
-    const store = tx.objectStore('saved-work');
-    const done = new Promise<void>((res, rej) => {
-      tx.oncomplete = () => res();
-      tx.onabort = () => rej(tx.error);
-    });
-    type Rec = { id: string; specification: Record<string, unknown> } & Record<string, unknown>;
-    const read = store.get('recipes');
-    read.onsuccess = () => {
-      const saved = read.result as { state: { recipes: Rec[] }; version: number };
-      saved.version = 8;
-      for (const r of saved.state.recipes) delete r.specification.grade;
-      const of = (id: string) => structuredClone(saved.state.recipes.find((r) => r.id === id)!);
-      for (const a of adds) saved.state.recipes.push({ ...of(a.from), ...(a.specificationOf ? { specification: of(a.specificationOf).specification } : {}), ...a.patch } as Rec);
-      store.put(saved, 'recipes');
-    };
-    await done;
-    db.close();
-  }, added);
+  type Rec = { id: string; specification: Record<string, unknown> } & Record<string, unknown>;
+  await editSaved<{ recipes: { state: { recipes: Rec[] }; version: number } }>(page, ['recipes'], ({ recipes }) => {
+    recipes.version = 8;
+    for (const r of recipes.state.recipes) delete r.specification.grade;
+    const of = (id: string) => structuredClone(recipes.state.recipes.find((r) => r.id === id)!);
+    for (const a of added) recipes.state.recipes.push({ ...of(a.from), ...(a.specificationOf ? { specification: of(a.specificationOf).specification } : {}), ...a.patch } as Rec);
+  });
 }
 
 describe('recipe lifecycle', () => {
