@@ -704,8 +704,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <th scope="col">Code</th>
                 <th scope="col">Name</th>
                 <th scope="col">Category</th>
-                {adjustedOk && <th scope="col" className="bs-num bs-wrap">Saved mass %</th>}
-                <th scope="col" className={adjustedOk ? 'bs-num bs-wrap' : 'bs-num'}>{adjustedOk ? 'Mass % of additions' : 'Mass %'}</th>
+                {adjustedOk && <th scope="col" className="bs-num bs-wrap bs-saved-share">Saved mass %</th>}
+                <th scope="col" className={adjustedOk ? 'bs-num bs-wrap bs-added-share' : 'bs-num'}>{adjustedOk ? 'Mass % of additions' : 'Mass %'}</th>
                 <th scope="col" className="bs-num">Vol. %</th>
                 <th scope="col" className="bs-num">kg</th>
                 <th scope="col" className="bs-num">L at 15 °C</th>
@@ -725,8 +725,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 <tr className="bs-heel" data-testid="heel-row">
                   <td className="bs-num">0</td>
                   <th scope="row" className="bs-code">HEEL</th>
-                  <td className="bs-name">Heel already in the vessel{qcIn.heel.source.trim() ? ` (${qcIn.heel.source.trim()})` : ''}</td>
-                  <td>in vessel</td>
+                  {/* Over the name and category columns (a heel has no category): one line where the source is short. */}
+                  <td className="bs-name" colSpan={2}>
+                    Heel already in the vessel{qcIn.heel.source.trim() ? ` (${qcIn.heel.source.trim()})` : ''}
+                  </td>
                   <td className="bs-num">—</td>
                   <td className="bs-num">—</td>
                   <td className="bs-num">—</td>
@@ -769,9 +771,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             <tfoot>
               <tr>
                 <td />
-                <th scope="row">{heelKg > 0 && adjustedOk ? 'Total added' : 'Total'}</th>
-                <td />
-                <td />
+                {/* Over the code, name and category columns: "Total added" on one line, not two in the code column. */}
+                <th scope="row" colSpan={3} className="bs-total-label">
+                  {heelKg > 0 && adjustedOk ? 'Total added' : 'Total'}
+                </th>
                 {adjustedOk && <td className="bs-num">{fmt(100, pd)}</td>}
                 <td className="bs-num">{fmt(100, pd)}</td>
                 <td className="bs-num">{fmt(100, pd)}</td>
@@ -800,10 +803,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   `${l.code} ν40 ${fmt(l.kv40, 1)}${l.measured.kv40 ? ' (lot)' : ''}, ν100 ${fmt(l.kv100, 2)}${l.measured.kv100 ? ' (lot)' : ''}, ${fmt(l.density15, 4)} kg/L${l.measured.density15 ? ' (lot)' : ''}`,
               )
               .join('; ')}
-            . {heelKg > 0 ? `Heel ${fmt(heelKg, qd)} kg: ν40 ${fmt(qcIn.heel.kv40 ?? 0, 1)}, ν100 ${fmt(qcIn.heel.kv100 ?? 0, 2)} mm²/s. ` : ''}
-            Batch {fmt(adjustedOk.result.batch.massKg, qd)} kg predicted at ν40 {fmt(adjustedOk.result.batch.kv40, 1)} mm²/s; saved shares moved by{' '}
-            {fmt(adjustedOk.result.changePct, 2)} points (least change that lands at the aim). “(lot)” = measured on the lot in the tank; the others are
-            the library’s values.
+            . {heelKg > 0 ? `Heel: ν40 ${fmt(qcIn.heel.kv40 ?? 0, 1)}, ν100 ${fmt(qcIn.heel.kv100 ?? 0, 2)} mm²/s. ` : ''}
+            Saved shares moved by {fmt(adjustedOk.result.changePct, 2)} points, the least change that lands the batch at the aim (its prediction
+            as charged: notes of section 3). “(lot)” = measured on the lot in the tank; the others are the library’s values.
           </p>
         )}
 
