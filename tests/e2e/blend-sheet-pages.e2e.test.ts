@@ -257,6 +257,49 @@ describe('blend sheet pages (s24)', () => {
   });
 });
 
+describe('the correction sheet on paper (s25)', () => {
+  let s: Session;
+  beforeAll(async () => {
+    s = await launch();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('a typical correction after QC prints alone on one page, A4 and US Letter', async () => {
+    const { page } = s;
+    await seed(page, { longCodes: [], longNames: [], longHeader: false, shortFields: true });
+    // QC measures the 10 000 kg batch off grade (290 mm²/s, below the 304–336 mm²/s release band); the
+    // vessel takes 12 000 kg (invented plant values, as in qc-loop.e2e.test.ts).
+    await page.getByText('QC result and batch correction', { exact: true }).click();
+    for (const [label, value] of [[/^Measured ν40 of the batch/, '290'], [/^Vessel holds at most/, '12000']] as const) {
+      await page.getByLabel(label).fill(value);
+      await page.getByLabel(label).press('Enter');
+    }
+    await expect.poll(() => page.getByTestId('correction-summary').innerText()).toMatch(/Add [\d.,\u202f]+ kg of BW-\d+/);
+    // The screen's Print button chooses the correction sheet for the printer (the dialog itself is stubbed).
+    await page.evaluate(() => {
+      window.print = () => undefined;
+    });
+    await page.getByRole('button', { name: 'Print correction sheet' }).click();
+    for (const paper of ['a4', 'letter'] as const) {
+      const pdf = await print(page, 'correction-sheet-pages', paper);
+      expect(pdfPages(pdf)).toBe(1);
+      const text = squash(pageText(pdf));
+      // The correction sheet alone, whole: its result, additions, prediction, cautions and sign-off.
+      expect(text).toContain('BATCHCORRECTIONSHEET');
+      expect(text).not.toContain('1.Components,inchargingorder');
+      expect(text).toContain('Measuredν40290.0mm²/s');
+      for (const w of ['2.Additions,inchargingorder', 'Totaladded', '3.Predictedaftercorrection', 'Cautions', 'Correctedby', 'QCtestedby', 'Releasedby']) {
+        expect(text).toContain(w);
+      }
+      expect(text).toContain('TwelvecomponentpagetestVG320(invented)·ISOVG320·Batch/lotL20260142');
+      expect(text).toContain('Page1of1');
+    }
+    expect(s.errors).toEqual([]);
+  });
+});
+
 describe('printed from the browser menu under a refused entry (s24)', () => {
   let s: Session;
   beforeAll(async () => {
