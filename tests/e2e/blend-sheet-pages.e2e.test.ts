@@ -12,7 +12,7 @@ import { launch, SCREEN_DIR, type Session } from './support';
 import { editSaved, seededRecipe, TWELVE } from './seed';
 import { TEXT_RULES } from '../../src/state/field-rules';
 import { NOT_PRINTED_HEAD } from '../../src/features/blend-sheet/page-header';
-import { demoComponentId, demoComponents } from '../../src/state/demo';
+import { demoComponentId, demoComponents, demoSettingsPatch } from '../../src/state/demo';
 
 const pdfInfo = (path: string) => execFileSync('pdfinfo', [path], { encoding: 'utf8' });
 const pdfPages = (path: string) => Number(/^Pages:\s+(\d+)/m.exec(pdfInfo(path))?.[1]);
@@ -97,7 +97,8 @@ async function seed(page: Page, s: Seed): Promise<void> {
     recipes.state.sheets['e2e-pages'] = s.shortFields
       ? { lot: 'L-2026-0142', batchSize: '10000', batchUnit: 'kg', vessel: 'Kettle 3', instructions: null }
       : { lot: LOT, batchSize: '10000', batchUnit: 'kg', vessel: VESSEL, instructions: null };
-    if (s.longHeader) settings.state.settings.companyName = LONG_COMPANY;
+    // The demo's company name unless this case asks for the longest (an earlier case may have changed it).
+    settings.state.settings.companyName = s.longHeader ? LONG_COMPANY : demoSettingsPatch().companyName;
   });
   await page.goto('about:blank');
   await page.goto(`${inject('baseURL')}#/blend-sheet/e2e-pages`);
@@ -127,6 +128,45 @@ async function onHeel(page: Page): Promise<void> {
   await heel.press('Enter');
   await page.getByLabel('Heel is a previous batch of').selectOption('e2e-pages');
   await page.getByTestId('heel-row').waitFor();
+}
+
+/**
+ * Checks that a blend sheet printed past one page continues cleanly: no component row split over two
+ * pages, the rows in charging order, the column headings on every page the table reaches, the totals
+ * once under the last line, the QC table, cautions and sign-off together on the last page, and every
+ * page naming its product, grade and lot (`head`, as compared by `squash`) with "Page n of m".
+ * Returns each page's text as compared.
+ */
+function expectCleanContinuation(pdf: string, rows: { code: string; name: string }[], head: { product: string; lot: string }): string[] {
+  const pages = pdfPages(pdf);
+  const texts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1));
+  const layouts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1, true));
+  const flat = texts.map(squash);
+  // No row split over two pages: each name is whole in the Name column of exactly one page.
+  const columns = texts.map((_, i) => squash(nameColumn(pdf, i + 1)));
+  const pageOf = rows.map((r) => {
+    const on = columns.flatMap((t, i) => (t.includes(squash(r.name)) ? [i] : []));
+    expect(on, r.name).toHaveLength(1);
+    return on[0]!;
+  });
+  // Rows in charging order; every page the table reaches repeats its column headings.
+  expect([...pageOf].sort((a, b) => a - b)).toEqual(pageOf);
+  for (const i of new Set(pageOf)) expect(layouts[i], `page ${i + 1}`).toMatch(/Step\s+Code\s+Name\s+Category/);
+  // The totals print once, on the page of the last line (not at the foot of every page).
+  expect(flat.map((t) => t.split('Totaladded').length - 1)).toEqual(flat.map((_, i) => (i === pageOf.at(-1) ? 1 : 0)));
+  // The QC table, the cautions and the sign-off go on together, on the last page.
+  const last = flat.at(-1)!;
+  for (const w of ['3.PredictedpropertiesandQCrelease', 'Cautions', 'Blendedby', 'QCtestedby', 'Releasedby']) {
+    expect(flat.filter((t) => t.includes(w))).toEqual([last]);
+  }
+  // Every page names its product, grade, lot and batch in its top margin, and says "Page n of m".
+  flat.forEach((t, i) => {
+    expect(t).toContain(head.product);
+    expect(t).toContain('ISOVG320');
+    expect(t).toContain(`Batch/lot${head.lot}`);
+    expect(t).toContain(`Page${i + 1}of${pages}`);
+  });
+  return flat;
 }
 
 /** The smallest text of the sheets' tables in print [CSS px]. */
@@ -180,6 +220,27 @@ describe('blend sheet pages (s24)', () => {
     expect(s.errors).toEqual([]);
   });
 
+  it('… and with a 200-character product and company name: still one page, A4 and US Letter, both names whole (s25)', async () => {
+    const { page } = s;
+    await seed(page, { longCodes: [1], longNames: [0], longHeader: true });
+    expect(await smallestTableText(page)).toBeGreaterThanOrEqual(10); // 7.5 pt = 10 CSS px (definition)
+    const rows = await printedRows(page);
+    for (const paper of ['a4', 'letter'] as const) {
+      const pdf = await print(page, 'sheet-pages-long-header', paper);
+      // It took two Letter pages before s25 (the company name in three lines beside the title).
+      expect(pdfPages(pdf)).toBe(1);
+      const text = squash(pageText(pdf));
+      expect(text).toContain(squash(LONG_COMPANY));
+      expect(text).toContain(squash(LONG_RECIPE));
+      for (const r of rows) expect(text).toContain(squash(r.code));
+      expect(squash(nameColumn(pdf, 1))).toContain(squash(longName(0)));
+      expect(text).toContain(LOT);
+      expect(text).toContain(squash(VESSEL));
+      expect(text).toContain('Releasedby');
+    }
+    expect(s.errors).toEqual([]);
+  });
+
   it('a batch on a heel with 12 short-named components: one page, A4 and US Letter, its heel line and the totals once (s25)', async () => {
     const { page } = s;
     await seed(page, { longCodes: [], longNames: [], longHeader: false, shortFields: true });
@@ -207,6 +268,22 @@ describe('blend sheet pages (s24)', () => {
     expect(s.errors).toEqual([]);
   });
 
+  it('a batch on a heel on the costing copy (14 columns) runs onto a second page as a clean continuation, A4 and US Letter (s25)', async () => {
+    const { page } = s;
+    await seed(page, { longCodes: [], longNames: [], longHeader: false, shortFields: true });
+    await onHeel(page);
+    await page.getByLabel('Costing copy').check();
+    await page.getByText(/per batch/).waitFor();
+    const rows = await printedRows(page);
+    for (const paper of ['a4', 'letter'] as const) {
+      const pdf = await print(page, 'sheet-pages-heel-costing', paper);
+      // Measured: about 9 mm over one A4 page and 18 mm over one Letter page (README, "Blend sheet for the plant").
+      expect(pdfPages(pdf)).toBe(2);
+      expectCleanContinuation(pdf, rows, { product: 'TwelvecomponentpagetestVG320(invented)', lot: 'L20260142' });
+    }
+    expect(s.errors).toEqual([]);
+  });
+
   it('runs the worst case the field rules allow onto further pages as a clean continuation', async () => {
     const { page } = s;
     const all = CODES.map((_, i) => i);
@@ -219,35 +296,8 @@ describe('blend sheet pages (s24)', () => {
     const rows = await printedRows(page);
     for (const paper of ['a4', 'letter'] as const) {
       const pdf = await print(page, 'sheet-pages-worst', paper);
-      const pages = pdfPages(pdf);
-      expect(pages).toBeGreaterThanOrEqual(2);
-      const texts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1));
-      const layouts = Array.from({ length: pages }, (_, i) => pageText(pdf, i + 1, true));
-      const flat = texts.map(squash);
-      // No row split over two pages: each name is whole in the Name column of exactly one page.
-      const columns = texts.map((_, i) => squash(nameColumn(pdf, i + 1)));
-      const pageOf = rows.map((r) => {
-        const on = columns.flatMap((t, i) => (t.includes(squash(r.name)) ? [i] : []));
-        expect(on, r.name).toHaveLength(1);
-        return on[0]!;
-      });
-      // Rows in charging order; every page the table reaches repeats its column headings.
-      expect([...pageOf].sort((a, b) => a - b)).toEqual(pageOf);
-      for (const i of new Set(pageOf)) expect(layouts[i], `page ${i + 1}`).toMatch(/Step\s+Code\s+Name\s+Category/);
-      // The totals print once, on the page of the last line (not at the foot of every page).
-      expect(flat.map((t) => t.split('Totaladded').length - 1)).toEqual(flat.map((_, i) => (i === pageOf.at(-1) ? 1 : 0)));
-      // The QC table, the cautions and the sign-off go on together, on the last page.
-      const last = flat.at(-1)!;
-      for (const w of ['3.PredictedpropertiesandQCrelease', 'Cautions', 'Blendedby', 'QCtestedby', 'Releasedby']) {
-        expect(flat.filter((t) => t.includes(w))).toEqual([last]);
-      }
-      // Every page names its product, grade, lot and batch in its top margin, and says "Page n of m".
-      flat.forEach((t, i) => {
-        expect(t).toContain('GearoilVG320forenclosedindustrialgeardrives');
-        expect(t).toContain('ISOVG320');
-        expect(t).toContain(`Batch/lot${LOT.slice(0, 30)}`);
-        expect(t).toContain(`Page${i + 1}of${pages}`);
-      });
+      expect(pdfPages(pdf)).toBeGreaterThanOrEqual(2);
+      const flat = expectCleanContinuation(pdf, rows, { product: 'GearoilVG320forenclosedindustrialgeardrives', lot: LOT.slice(0, 30) });
       // Every code printed whole, and the full product name, lot and vessel on page 1.
       for (const r of rows) expect(flat.join('')).toContain(squash(r.code));
       expect(flat[0]).toContain(LOT);

@@ -549,11 +549,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         className={`blend-sheet print-page bs-paper-${paper}${sheet && sheet.rows.length + (heelKg > 0 ? 1 : 0) >= 10 ? ' bs-dense' : ''}`}
         aria-label="Printable blend sheet"
       >
-        <header className="bs-head">
-          <div className={`bs-company ${longClass(companyName, 60) ?? ''}`}>{companyName || 'Company name (set it in the settings)'}</div>
+        {/* The title first: a long company name flows beside it and then under it (blend-sheet.css). */}
+        <header className={`bs-head${longClass(companyName, 60) ? ' bs-long-head' : ''}`}>
           <div className="bs-title">
             Blend sheet · <span className="bs-copy-kind">{costing ? 'Costing copy' : 'Plant copy'}</span>
           </div>
+          <div className={`bs-company ${longClass(companyName, 60) ?? ''}`}>{companyName || 'Company name (set it in the settings)'}</div>
         </header>
 
         {held && (
@@ -701,7 +702,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
             <thead>
               <tr>
                 <th scope="col" className="bs-num" title="Charging order">Step</th>
-                <th scope="col">Code</th>
+                <th scope="col" className="bs-code-head">Code</th>
                 <th scope="col">Name</th>
                 <th scope="col">Category</th>
                 {adjustedOk && <th scope="col" className="bs-num bs-wrap bs-saved-share">Saved mass %</th>}

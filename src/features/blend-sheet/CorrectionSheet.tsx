@@ -48,9 +48,9 @@ export function CorrectionSheet(p: CorrectionSheetProps) {
   const kv100Outside = correctedKv100Outside(result.kv100, spec);
   return (
     <article className={`blend-sheet bs-correction print-page bs-paper-${p.paper}`} aria-label="Printable correction sheet" data-testid="correction-sheet">
-      <header className="bs-head">
-        <div className={`bs-company ${longClass(p.companyName, 60) ?? ''}`}>{p.companyName || 'Company name (set it in the settings)'}</div>
+      <header className={`bs-head${longClass(p.companyName, 60) ? ' bs-long-head' : ''}`}>
         <div className="bs-title">Batch correction sheet</div>
+        <div className={`bs-company ${longClass(p.companyName, 60) ?? ''}`}>{p.companyName || 'Company name (set it in the settings)'}</div>
       </header>
       {p.hold.length > 0 && (
         <section className="bs-hold" aria-label={`Correction sheet: ${RELEASE_HOLD_LABEL}`} data-testid="correction-hold">
