@@ -773,7 +773,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               <tr>
                 <td />
                 {/* Over the code, name and category columns: "Total added" on one line, not two in the code column. */}
-                <th scope="row" colSpan={3} className="bs-total-label">
+                <th scope="row" colSpan={3}>
                   {heelKg > 0 && adjustedOk ? 'Total added' : 'Total'}
                 </th>
                 {adjustedOk && <td className="bs-num">{fmt(100, pd)}</td>}
