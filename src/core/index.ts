@@ -6,6 +6,7 @@
 
 // Domain model
 export * from './formulation/model';
+export { ENTRY_FIELDS, ENTRY_FIELD_LABEL, notEnteredFields, remainingNotEntered, entryFieldsInWords } from './formulation/entered-values';
 
 // Errors (every entry point throws one of these on impossible input)
 export {
@@ -319,6 +320,7 @@ export {
   solvableLibrary,
   describeRate,
   unpricedMessage,
+  unpricedTitle,
   pricingFor,
   rateDecimals,
 } from './currency/exchange-rates';

@@ -94,6 +94,7 @@ export type { LinePlanInputs } from './lineplan';
 export { emptyLinePlan, leastUseAboveSupply } from './lineplan';
 export { linePlanActions, adoptPlanRevisions, type PlanRevision } from './lineplan-actions';
 export { blankComponent, freeCode, libraryRoomProblem } from './library';
+export { enteredKvPatch, enteredPatch } from './stock-defaults';
 /** Today's date as YYYY-MM-DD, local time (the date printed on sheets and summaries). */
 export { today as todayIso } from './ids';
 export { defaultTargets, isDemoComponent, DEMO_LABEL, DEMO_PLANT } from './demo';

@@ -516,6 +516,9 @@ export function csvPreviewer(text: string, existing: readonly Component[], opts:
       // leaves it absent (so a CSV round trip changes nothing); otherwise the cell sets or clears it.
       const loss40 = opt('kv40_shear_loss_pct', 'ν40 shear loss', base.shearLoss40Pct ?? null);
       if (loss40 !== null || base.shearLoss40Pct !== undefined) candidate.shearLoss40Pct = loss40;
+      // A CSV row carries ν40, ν100 and density (all required): the stock is complete, also when it
+      // updates one whose values were not yet entered.
+      delete candidate.notEntered;
       if (!candidate.code) errors.push('code: a stock code is required');
       return finishRow(line, candidate, errors, stored, seen);
     };

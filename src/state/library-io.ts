@@ -4,6 +4,7 @@
  * library as CSV or JSON.
  */
 import type { Component } from '../core/formulation/model';
+import { notEnteredFields } from '../core/formulation/entered-values';
 import { libraryRoomProblem, useLibraryStore } from './library';
 import { writeCsv, type CsvCell } from './csv';
 import { CSV_COLUMNS, type CsvColumn, type ImportPreview } from './library-import';
@@ -25,16 +26,22 @@ export function applyLibraryImport(preview: ImportPreview): boolean {
 // ---------------------------------------------------------------------------------------------
 // Export
 
+/**
+ * The library as CSV. A value not yet entered (a stock just added) is written as an empty cell, never
+ * as its placeholder: importing the file back then asks for it instead of taking it as measured. (JSON
+ * export keeps the stock's list of values not yet entered.)
+ */
 export function libraryToCsv(components: readonly Component[]): string {
   const rows = components.map((c) => {
-    const at = (t: number) => c.viscosityPoints.find((p) => p.tempC === t)?.kv;
+    const pending = notEnteredFields(c);
+    const at = (t: 40 | 100) => (pending.includes(t === 40 ? 'kv40' : 'kv100') ? null : c.viscosityPoints.find((p) => p.tempC === t)?.kv);
     const record: Record<CsvColumn, CsvCell> = {
       code: c.code,
       name: c.name,
       category: c.category,
       kv40_mm2s: at(40),
       kv100_mm2s: at(100),
-      density15_kg_per_l: c.density15,
+      density15_kg_per_l: pending.includes('density15') ? null : c.density15,
       aniline_point_c: c.anilinePoint,
       pour_point_c: c.pourPoint,
       flash_point_c: c.flashPoint,

@@ -44,9 +44,16 @@ export interface LibraryData {
 export interface LibraryState extends LibraryData {
   /** Add a component (defaults fill what is not given); returns its id. Throws FieldRuleError. */
   addComponent: (init?: Partial<Omit<Component, 'id'>>) => string;
-  /** Change fields of one component. Null, or why the change was refused (nothing changed then). */
+  /**
+   * Change fields of one component. Null, or why the change was refused (nothing changed then). A
+   * value entered for a field listed in `notEntered` clears it only when the patch says so (the
+   * entry forms pass the remaining list): a placeholder is never taken for an entered value.
+   */
   updateComponent: (id: string, patch: Partial<Omit<Component, 'id'>>) => string | null;
-  /** Copy a component under a new id and a free code ("BW-190 copy"); returns the new id. Throws FieldRuleError when full. */
+  /**
+   * Copy a component under a new id and a free code ("BW-190 copy"); returns the new id. The copy's
+   * values not yet entered are the source's. Throws FieldRuleError when full.
+   */
   cloneComponent: (id: string) => string | null;
   setAvailability: (id: string, availability: Availability) => void;
   removeComponent: (id: string) => void;
@@ -58,7 +65,7 @@ export interface LibraryState extends LibraryData {
 
 export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
   key: 'library',
-  version: 5,
+  version: 6,
   schema: (m) => m.libraryDataSchema,
   // Each stock is a record of its own when tabs merge their saves.
   layout: {
@@ -66,6 +73,11 @@ export const LIBRARY_SPEC: StoreSpec<LibraryData> = {
     label: (_key, v) => `stock ${String((v as { code?: unknown } | undefined)?.code ?? 'deleted')}`,
   },
   migrations: {
+    // Schema 5 → 6: a stock may list the measured values not yet entered (optional `notEntered`, a stock
+    // just added). Stocks saved before carry no list and count as complete: the data are unchanged. The
+    // version moves so that an older build refuses a library holding such a list instead of dropping
+    // it (its placeholders would then be solved with as if measured).
+    5: (d) => d,
     // Schema 4 → 5: calibrations may name the D7152 Wright method, and a polymer may carry a measured
     // ν40 shear loss (optional field, `shearLoss40Pct`). Existing data are valid as they are.
     4: (d) => d,
@@ -110,7 +122,9 @@ export const useLibraryStore = create<LibraryState>()(
         updateComponent: (id, patch) => {
           const old = get().components.find((c) => c.id === id);
           if (!old) return null;
-          const next = { ...old, ...patch, id };
+          const next: Component = { ...old, ...patch, id };
+          // An emptied list of values to enter is no list: the stock is complete (as older data).
+          if (!next.notEntered?.length) delete next.notEntered;
           const refused = firstProblem(stockProblems(next, stockWho(old.code)));
           if (refused) return sayRefusal(refused);
           set((s) => ({ components: s.components.map((c) => (c.id === id ? next : c)) }));

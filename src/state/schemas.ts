@@ -7,7 +7,8 @@
  */
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES } from '../core/formulation/model';
-import type { BlendTargets, Component, ComponentCategory, Recipe } from '../core/formulation/model';
+import type { BlendTargets, Component, ComponentCategory, EntryField, Recipe } from '../core/formulation/model';
+import { ENTRY_FIELDS } from '../core/formulation/entered-values';
 import type { LinePlanInputs } from './lineplan';
 import {
   COLLECTION_LIMITS,
@@ -86,6 +87,8 @@ export const componentSchema = z
     kv40LotSpreadPct: nullableNum,
     shearLoss40Pct: nullableNum.optional(),
     calibration: calibrationSchema.nullable(),
+    // Measured values not yet entered (a stock just added); absent → all entered (older data, imports).
+    notEntered: z.array(z.enum(ENTRY_FIELDS as unknown as [EntryField, ...EntryField[]])).optional(),
     source: str,
     sourceDate: str,
     notes: str,

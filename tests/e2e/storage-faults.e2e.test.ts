@@ -53,7 +53,7 @@ async function putRaw(page: Page, key: string, value: unknown): Promise<void> {
 }
 
 /** Current schema of the stored library (src/state/library.ts LIBRARY_SPEC.version). */
-const LIBRARY_VERSION = 5;
+const LIBRARY_VERSION = 6;
 type StoredLibrary = { state: { components: { code: string; name: string; availability: string }[] }; version: number };
 
 async function openLibrary(page: Page): Promise<void> {

@@ -11,7 +11,8 @@
  * USD and GBP (common practice (no source): the three symbols a price list most often carries
  * instead of a code). The price basis (per kg, litre, tonne) is kept: only the amount is restated.
  */
-import type { Component, Price } from '../formulation/model';
+import type { Component, EntryField, Price } from '../formulation/model';
+import { entryFieldsInWords, notEnteredFields } from '../formulation/entered-values';
 import { BlendbenchInputError, assertFinite } from '../errors';
 
 /** One exchange rate, as the user entered it. */
@@ -85,6 +86,12 @@ export interface UnpricedStock {
   currency: string;
   /** True when the stock has no price at all (0, as a stock just added): nothing to restate. */
   noPrice?: true;
+  /**
+   * The measured values not yet entered on the stock (a stock just added: its ν40, ν100, density are
+   * placeholders). Such a stock is left out of costing and solving like one without a price, whatever
+   * its price.
+   */
+  notEntered?: EntryField[];
 }
 
 /** The library with every price in the base currency, and what could not be converted. */
@@ -112,10 +119,18 @@ export function priceLibraryInBase(components: readonly Component[], base: strin
   const unpriced: UnpricedStock[] = [];
   const used = new Map<string, ExchangeRate>();
   const out = components.map((c) => {
-    if (!(c.price.amount > 0)) {
-      // No price (0): never costed as free. Its currency is blanked in the priced copy, so a recipe
-      // holding it is not costed, like one holding a stock without a rate (the stored stock keeps it).
-      unpriced.push({ componentId: c.id, code: c.code, currency: c.price.currency.trim(), noPrice: true });
+    const notEntered = notEnteredFields(c);
+    if (!(c.price.amount > 0) || notEntered.length > 0) {
+      // No price (0): never costed as free. Values not yet entered: its placeholders are never solved
+      // with. Its currency is blanked in the priced copy, so a recipe holding it is not costed, like
+      // one holding a stock without a rate (the stored stock keeps it).
+      unpriced.push({
+        componentId: c.id,
+        code: c.code,
+        currency: c.price.currency.trim(),
+        ...(c.price.amount > 0 ? {} : { noPrice: true as const }),
+        ...(notEntered.length ? { notEntered } : {}),
+      });
       return { ...c, price: { ...c.price, currency: '' } };
     }
     const r = rateToBase(c.price.currency, base, rates);
@@ -193,8 +208,21 @@ export function describeRate(rate: ExchangeRate, base: string, formatRate: (x: n
 }
 
 /**
- * The user's message for unpriced stocks: those without a price (0), then each other stock with its
- * currency that has no rate.
+ * The title of the notice that shows {@link unpricedMessage}: what the stocks named lack.
+ *
+ * @param unpriced - from {@link priceLibraryInBase}
+ * @returns e.g. 'Stocks without an exchange rate'; 'Stocks left out of costing and solving' when
+ *   stocks with values not yet entered are named beside others
+ */
+export function unpricedTitle(unpriced: readonly UnpricedStock[]): string {
+  const entry = unpriced.some((u) => u.notEntered);
+  if (entry) return unpriced.every((u) => u.notEntered && !u.noPrice) ? 'Stocks with values not yet entered' : 'Stocks left out of costing and solving';
+  return unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate';
+}
+
+/**
+ * The user's message for unpriced stocks: those without a price (0), those with measured values not
+ * yet entered, then each other stock with its currency that has no rate.
  *
  * @param unpriced - from {@link priceLibraryInBase}
  * @param base - base currency code
@@ -219,7 +247,22 @@ export function unpricedMessage(unpriced: readonly UnpricedStock[], base: string
       `${list(noPrice)} ${noPrice.length === 1 ? 'has' : 'have'} no price: ${noPrice.length === 1 ? 'it is' : 'they are'} left out of costing and solving until a price is entered on Stocks.`,
     );
   }
-  const noRate = unpriced.filter((u) => !u.noPrice);
+  const notEntered = unpriced.filter((u) => u.notEntered?.length);
+  if (notEntered.length) {
+    // Stocks missing the same values are named together.
+    const byFields = new Map<string, string[]>();
+    for (const u of notEntered) {
+      const words = entryFieldsInWords(u.notEntered!);
+      byFields.set(words, [...(byFields.get(words) ?? []), u.code]);
+    }
+    const parts = [...byFields].map(([words, codes]) => `${list(codes)} ${codes.length === 1 ? 'has' : 'have'} ${words} not yet entered`);
+    const one = notEntered.length === 1;
+    const oneValue = one && notEntered[0]!.notEntered!.length === 1;
+    sentences.push(
+      `${parts.join('; ')}: ${one ? 'it is' : 'they are'} left out of costing and solving until ${oneValue ? 'the value is' : 'the values are'} entered on Stocks.`,
+    );
+  }
+  const noRate = unpriced.filter((u) => !u.noPrice && !u.notEntered);
   if (noRate.length) {
     const byCurrency = new Map<string, string[]>();
     for (const u of noRate) {

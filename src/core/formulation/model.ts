@@ -92,6 +92,12 @@ export interface Calibration {
   calibratedOn: string;
 }
 
+/**
+ * A measured value a stock needs before it is used: ν40, ν100 (ASTM D445) and density at 15 °C.
+ * A stock just added has none of them yet (`Component.notEntered`).
+ */
+export type EntryField = 'kv40' | 'kv100' | 'density15';
+
 /** A blending component: a base stock, a polymer, or an additive package. */
 export interface Component {
   /** Stable internal identifier (never shown; survives renames and code changes). */
@@ -134,6 +140,13 @@ export interface Component {
    */
   shearLoss40Pct?: number | null;
   calibration: Calibration | null;
+  /**
+   * Measured values not yet entered (a stock just added): their fields hold placeholders only, and the
+   * stock is left out of solving, searching, the line plan and release until each is entered
+   * (`formulation/entered-values.ts`). Absent or empty → every value was entered (older saved data,
+   * imports). Cleared field by field as the blender enters each value.
+   */
+  notEntered?: EntryField[];
   /** Where the data come from (datasheet, lab report, "invented demo data"). */
   source: string;
   /** ISO date (YYYY-MM-DD) of the data. */

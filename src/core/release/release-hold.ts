@@ -7,6 +7,8 @@
  * - its product specification was written for another grade, or for a grade not known (the sheet
  *   then prints no limit of it: `specification-grade.ts`);
  * - it names a stock that is withdrawn or no longer in the library;
+ * - it uses a stock whose measured values (ν40, ν100, density) are not yet entered: its prediction
+ *   rests on placeholders, not data (`formulation/entered-values.ts`);
  * - its properties cannot be predicted;
  * - the prediction misses one of the recipe's own constraints (its solve targets: ν40 band, minimum
  *   VI, maximum aniline point, polymer cap, pour and flash limits, per-stock limits, treat rate),
@@ -21,6 +23,7 @@ import type { BlendMethod } from '../blending/blend-viscosity';
 import type { BlendProperties } from '../formulation/blend-properties';
 import type { BlendTargets, Component, Recipe } from '../formulation/model';
 import { RECIPE_STATUS_LABEL } from '../formulation/model';
+import { entryFieldsInWords, notEnteredFields } from '../formulation/entered-values';
 import { checkConstraints, checkInWords, prepareComponents } from '../solver/solve-blend';
 import { formatFixed, type NumberDisplay } from '../words/display';
 import { predictBlend } from '../formulation/blend-properties';
@@ -37,6 +40,7 @@ export type HoldKind =
   | 'specification'
   | 'withdrawn-stock'
   | 'missing-stock'
+  | 'unentered-stock'
   | 'no-prediction'
   | 'constraint'
   | 'release-limit'
@@ -113,6 +117,13 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
     });
   }
 
+  const unentered = used
+    .map((l) => byId.get(l.componentId))
+    .filter((c): c is Component => c !== undefined && notEnteredFields(c).length > 0);
+  if (unentered.length > 0) {
+    out.push({ kind: 'unentered-stock', message: unenteredMessage(unentered, 'It uses') });
+  }
+
   const p = input.prediction;
   if (p !== null && 'error' in p) {
     out.push({ kind: 'no-prediction', message: `Its properties cannot be predicted: ${p.error}` });
@@ -140,15 +151,23 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
   return out;
 }
 
+/** "<lead> a stock whose measured values are not yet entered: NEW (ν40, ν100 and density)." */
+function unenteredMessage(stocks: readonly Component[], lead: string): string {
+  const named = stocks.map((c) => `${c.code} (${entryFieldsInWords(notEnteredFields(c))})`).join('; ');
+  return `${lead} ${stocks.length === 1 ? 'a stock whose measured values are' : 'stocks whose measured values are'} not yet entered: ${named}.`;
+}
+
 /**
  * The reasons a batch correction sheet is held: every reason of the recipe's own blend sheet (the
  * batch was made from that recipe, so it is released on the same terms), and each stock the
- * correction adds that is withdrawn in the library. Common practice (no source).
+ * correction adds that is withdrawn in the library or whose measured values are not yet entered.
+ * Common practice (no source).
  *
  * @param sheetHold - the blend sheet's hold reasons for the recipe ({@link releaseHoldReasons})
  * @param addedCodes - codes of the stocks the correction adds (more than 0 kg)
  * @param components - the library (withdrawn stocks included)
- * @returns the sheet's reasons, then one reason naming the withdrawn additions (if any); empty → no hold
+ * @returns the sheet's reasons, then one reason naming the withdrawn additions and one naming those
+ *   with values not entered (if any); empty → no hold
  * @example correctionHoldReasons([], ['BW-191'], lib) // → [{ kind: 'withdrawn-stock', message: 'The correction adds a withdrawn stock: BW-191.' }]
  */
 export function correctionHoldReasons(
@@ -158,9 +177,15 @@ export function correctionHoldReasons(
 ): HoldReason[] {
   const withdrawn = new Set(components.filter((c) => c.availability === 'withdrawn').map((c) => c.code));
   const added = addedCodes.filter((c) => withdrawn.has(c));
-  if (added.length === 0) return [...sheetHold];
-  const what = added.length === 1 ? 'a withdrawn stock' : 'withdrawn stocks';
-  return [...sheetHold, { kind: 'withdrawn-stock', message: `The correction adds ${what}: ${added.join(', ')}.` }];
+  const out = [...sheetHold];
+  if (added.length > 0) {
+    const what = added.length === 1 ? 'a withdrawn stock' : 'withdrawn stocks';
+    out.push({ kind: 'withdrawn-stock', message: `The correction adds ${what}: ${added.join(', ')}.` });
+  }
+  const byCode = new Map(components.map((c) => [c.code, c]));
+  const unentered = addedCodes.map((code) => byCode.get(code)).filter((c): c is Component => c !== undefined && notEnteredFields(c).length > 0);
+  if (unentered.length > 0) out.push({ kind: 'unentered-stock', message: unenteredMessage(unentered, 'The correction adds') });
+  return out;
 }
 
 /** A recipe's prediction, QC table and release hold, computed together (as the blend sheet shows them). */

@@ -21,7 +21,7 @@ import {
   UNKNOWN_VERSION,
 } from '../../state';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
-import { solvableLibrary, unpricedMessage } from '../../core/currency/exchange-rates';
+import { solvableLibrary, unpricedMessage, unpricedTitle } from '../../core/currency/exchange-rates';
 import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
@@ -251,7 +251,7 @@ export default function DesignerScreen() {
         </aside>
         <div className="designer-main">
           {priced.unpriced.length > 0 && (
-            <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
+            <Notice tone="warning" title={unpricedTitle(priced.unpriced)}>
               <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
             </Notice>
           )}

@@ -1,5 +1,6 @@
 import { memo, useId, useMemo, useRef, useState } from 'react';
 import type { Component } from '../../core/formulation/model';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
 import { moneySymbol, useFormat } from '../../components/format';
 import type { Basis } from './fractions';
@@ -212,11 +213,17 @@ const RecipeRow = memo(function RecipeRow({
         {c?.availability === 'withdrawn' && <span className="tag tag-bad"> withdrawn</span>}
         {c?.availability === 'limited' && <span className="tag"> limited</span>}
         {isAdditive && <span className="tag"> fixed treat</span>}
+        {c && notEnteredFields(c).length > 0 && (
+          <span className="tag tag-bad" data-testid="line-values-pending" title="Its prediction rests on placeholders: enter the values on Stocks">
+            {' '}
+            {entryFieldsInWords(notEnteredFields(c))} not entered
+          </span>
+        )}
       </th>
       <td>{c ? CATEGORY_LABEL[c.category] : '—'}</td>
       <td className="num">{share('mass')}</td>
       <td className="num">{share('volume')}</td>
-      <td className="num">{c ? fmt.sig(c.viscosityPoints.find((v) => v.tempC === 40)?.kv ?? NaN, 3) : '—'}</td>
+      <td className="num">{c && !notEnteredFields(c).includes('kv40') ? fmt.sig(c.viscosityPoints.find((v) => v.tempC === 40)?.kv ?? NaN, 3) : '—'}</td>
       <td className="num">
         <RelayText relay={view} select={text.cost} />
       </td>

@@ -6,7 +6,7 @@ import { useFormat } from '../../components/format';
 import { NumberField, ruleVerdict } from '../../components/fields';
 import { componentsById, defaultTargets, recipeActions, useLibrary, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
-import { pricingFor, solvableLibrary, unpricedMessage, type PricedLibrary } from '../../core/currency/exchange-rates';
+import { pricingFor, solvableLibrary, unpricedMessage, unpricedTitle, type PricedLibrary } from '../../core/currency/exchange-rates';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
 import { StockChangeList } from '../../components/recipe-status';
 import { prewarmSearchWorkers, releaseSearchWorkers, startSearch, type SearchHandle } from './search-client';
@@ -258,7 +258,7 @@ export default function ExplorerScreen() {
         onCancel={() => running?.cancel()}
       />
       {priced.unpriced.length > 0 && (
-        <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
+        <Notice tone="warning" title={unpricedTitle(priced.unpriced)}>
           <p data-testid="unpriced">{unpricedMessage(priced.unpriced, priced.base)}</p>
         </Notice>
       )}

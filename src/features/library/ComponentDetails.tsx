@@ -8,6 +8,8 @@ import { pricePerKg } from '../../core/formulation/cost';
 import { NumberField, SelectField, TextField } from '../../components/fields';
 import { useFormat } from '../../components/format';
 import { checkValue } from '../../state/checks';
+import { enteredKvPatch, enteredPatch } from '../../state/stock-defaults';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 import { CalibrationPanel, type BlendRule } from './CalibrationPanel';
 
 const BASIS_OPTIONS = (Object.keys(PRICE_BASIS_LABEL) as PriceBasis[]).map((b) => ({ value: b, label: PRICE_BASIS_LABEL[b] }));
@@ -38,11 +40,20 @@ function safePerKg(c: Component): number | null {
 export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod, today, onUpdate }: DetailsProps) {
   const fmt = useFormat();
   const who = c.code || 'new stock';
-  const perKg = safePerKg(c);
-  const setPoint = (i: number, patch: Partial<{ tempC: number; kv: number }>) =>
-    onUpdate(c.id, { viscosityPoints: c.viscosityPoints.map((p, j) => (j === i ? { ...p, ...patch } : p)) });
+  const pending = notEnteredFields(c);
+  // A per-kg price needs no density; any other basis is converted with ρ15, not known until entered.
+  const perKg = c.price.basis !== 'per-kg' && pending.includes('density15') ? null : safePerKg(c);
+  /** The field a point stands for while its value is not yet entered (the 40 and 100 °C points only). */
+  const pendingAt = (tempC: number) => (tempC === 40 && pending.includes('kv40') ? 'kv40' : tempC === 100 && pending.includes('kv100') ? 'kv100' : null);
+  const setPoint = (i: number, patch: Partial<{ tempC: number; kv: number }>) => {
+    const p = c.viscosityPoints[i]!;
+    const field = patch.kv !== undefined && patch.tempC === undefined ? pendingAt(p.tempC) : null;
+    if (field) return onUpdate(c.id, enteredKvPatch(c, field, patch.kv!));
+    return onUpdate(c.id, { viscosityPoints: c.viscosityPoints.map((q, j) => (j === i ? { ...q, ...patch } : q)) });
+  };
   const pointError = (i: number, tempC: number, kv: number): string | undefined => {
-    const pts = c.viscosityPoints.map((p, j) => (j === i ? { tempC, kv } : p));
+    // Placeholders (values not yet entered) are not checked against.
+    const pts = c.viscosityPoints.map((p, j) => (j === i ? { tempC, kv } : p)).filter((p, j) => j === i || !pendingAt(p.tempC));
     if (pts.filter((p) => p.tempC === tempC).length > 1) return `there is already a point at ${fmt.sayTemp(tempC)}`;
     const sorted = [...pts].sort((a, b) => a.tempC - b.tempC);
     for (let k = 1; k < sorted.length; k++) {
@@ -72,7 +83,11 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
           onCommit={(currency) => onUpdate(c.id, { price: { ...c.price, currency: currency.trim() } })}
         />
         <p className="muted small">
-          {perKg === null ? 'Price per kg: —' : `= ${fmt.num(perKg, 3)} ${c.price.currency} per kg (at ρ15 ${fmt.num(c.density15, 3)} kg/L)`}
+          {perKg === null
+            ? `Price per kg: —${c.price.basis !== 'per-kg' && pending.includes('density15') ? ' (density not yet entered)' : ''}`
+            : c.price.basis === 'per-kg'
+              ? `= ${fmt.num(perKg, 3)} ${c.price.currency} per kg`
+              : `= ${fmt.num(perKg, 3)} ${c.price.currency} per kg (at ρ15 ${fmt.num(c.density15, 3)} kg/L)`}
         </p>
       </fieldset>
       <fieldset>
@@ -156,6 +171,12 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
       </fieldset>
       <fieldset>
         <legend>Measured viscosities (ASTM D445)</legend>
+        {pending.length > 0 ? (
+          <p className="field-msg field-warning" data-testid="details-pending">
+            Not yet entered: {entryFieldsInWords(pending)}. {c.code || 'This stock'} is left out of solving, the explorer, the line plan and
+            release until {pending.length === 1 ? 'it is' : 'they are'} entered.
+          </p>
+        ) : null}
         <table className="mini">
           <thead>
             <tr>
@@ -184,9 +205,12 @@ export function ComponentDetails({ c, usedIn, components, recipes, defaultMethod
                     label={`Viscosity of point ${i + 1} of ${who} [mm²/s]`}
                     hideLabel
                     size={6}
-                    value={p.kv}
-                    validate={(v) => ({ error: v === null ? 'required' : v <= 0 ? 'must be above zero' : pointError(i, p.tempC, v) })}
+                    value={pendingAt(p.tempC) ? null : p.kv}
+                    validate={(v) =>
+                      v === null && pendingAt(p.tempC) ? {} : { error: v === null ? 'required' : v <= 0 ? 'must be above zero' : pointError(i, p.tempC, v) }
+                    }
                     onCommit={(v) => v !== null && setPoint(i, { kv: v })}
+                    hint={pendingAt(p.tempC) ? <span className="not-entered">not entered</span> : undefined}
                   />
                 </td>
                 <td>

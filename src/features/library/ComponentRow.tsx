@@ -7,6 +7,8 @@ import { gradeLabel, useFormat } from '../../components/format';
 import { normaliseCurrency } from '../../core/currency/exchange-rates';
 import { ROW_KEY_ATTR } from '../../components/row-window';
 import { checkLabelText, checkValue, checkViscosityPair, kv40kv100, viOrReason } from '../../state/checks';
+import { enteredKvPatch, enteredPatch } from '../../state/stock-defaults';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 
 export const CATEGORY_OPTIONS = COMPONENT_CATEGORIES.map((c) => ({ value: c, label: CATEGORY_LABEL[c] }));
 export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: string }> = [
@@ -16,9 +18,18 @@ export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: s
 ];
 // A per-litre price is for litres at 15 °C (converted to per kg with the stock's ρ15).
 const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L at 15 °C', 'per-tonne': '/t' } as const;
-// Beside the price cell the basis is short; the column header says litres are at 15 °C, and the
-// field's label (read by screen readers) carries the full basis.
-const BASIS_HINT = { 'per-kg': '/kg', 'per-litre': '/L', 'per-tonne': '/t' } as const;
+// Beside the price cell the basis is short (a litre basis names its 15 °C in the cell, the header
+// reads only "Price"), and the field's label (read by screen readers) carries the full basis.
+const BASIS_HINT = { 'per-kg': '/kg', 'per-litre': '/L 15 °C', 'per-tonne': '/t' } as const;
+
+/** The mark beside a measured field whose value was not yet entered (its input is empty). */
+function NotEnteredMark() {
+  return (
+    <span className="not-entered" title="Not yet entered: the stock is left out of solving and release until it is">
+      not entered
+    </span>
+  );
+}
 
 /** Set the viscosity at one temperature (replacing a point there, or adding one). */
 export function withKvAt(c: Component, tempC: number, kv: number): Component['viscosityPoints'] {
@@ -53,8 +64,10 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
   const quoted = normaliseCurrency(c.price.currency);
   const foreign = quoted !== normaliseCurrency(fmt.settings.baseCurrency) ? quoted : '';
   const kv = kv40kv100(c);
-  const kv40 = kv?.kv40 ?? null;
-  const kv100 = kv?.kv100 ?? null;
+  // A value not yet entered shows empty (its placeholder is never shown as data).
+  const pending = notEnteredFields(c);
+  const kv40 = pending.includes('kv40') ? null : (kv?.kv40 ?? null);
+  const kv100 = pending.includes('kv100') ? null : (kv?.kv100 ?? null);
   // VI and grade follow the values on screen, also while one is being typed (and not yet saved).
   const [typed40, setTyped40] = useState<number | null | undefined>(undefined);
   const [typed100, setTyped100] = useState<number | null | undefined>(undefined);
@@ -79,7 +92,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
     </td>
   );
   return (
-    <tr className={`avail-${c.availability}`} {...{ [ROW_KEY_ATTR]: c.id }} aria-rowindex={rowIndex}>
+    <tr className={`avail-${c.availability}${pending.length ? ' values-pending' : ''}`} {...{ [ROW_KEY_ATTR]: c.id }} aria-rowindex={rowIndex}>
       <th scope="row" className="code-cell">
         <TextField
           label={`Stock code of ${c.name || who}`}
@@ -121,9 +134,12 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           textUntilEdited
           size={6}
           value={kv40}
-          validate={(v) => merge(toVerdict(checkValue('kv40', v, fmt)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100, fmt)) : {})}
+          validate={(v) =>
+            v === null && pending.includes('kv40') ? {} : merge(toVerdict(checkValue('kv40', v, fmt)), v !== null && kv100 !== null ? toVerdict(checkViscosityPair(v, kv100, fmt)) : {})
+          }
           onDraft={setTyped40}
-          onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 40, v) })}
+          onCommit={(v) => v !== null && onUpdate(c.id, enteredKvPatch(c, 'kv40', v))}
+          hint={pending.includes('kv40') ? <NotEnteredMark /> : undefined}
         />
       </td>
       <td className="num">
@@ -133,9 +149,12 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           textUntilEdited
           size={5}
           value={kv100}
-          validate={(v) => merge(toVerdict(checkValue('kv100', v, fmt)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v, fmt)) : {})}
+          validate={(v) =>
+            v === null && pending.includes('kv100') ? {} : merge(toVerdict(checkValue('kv100', v, fmt)), v !== null && kv40 !== null ? toVerdict(checkViscosityPair(kv40, v, fmt)) : {})
+          }
           onDraft={setTyped100}
-          onCommit={(v) => v !== null && onUpdate(c.id, { viscosityPoints: withKvAt(c, 100, v) })}
+          onCommit={(v) => v !== null && onUpdate(c.id, enteredKvPatch(c, 'kv100', v))}
+          hint={pending.includes('kv100') ? <NotEnteredMark /> : undefined}
         />
       </td>
       <td className="num computed" title="Viscosity index, ASTM D2270, computed from ν40 and ν100" data-testid="vi-cell">
@@ -150,9 +169,10 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           hideLabel
           textUntilEdited
           size={5}
-          value={c.density15}
-          validate={(v) => toVerdict(checkValue('density15', v, fmt))}
-          onCommit={(v) => v !== null && onUpdate(c.id, { density15: v })}
+          value={pending.includes('density15') ? null : c.density15}
+          validate={(v) => (v === null && pending.includes('density15') ? {} : toVerdict(checkValue('density15', v, fmt)))}
+          onCommit={(v) => v !== null && onUpdate(c.id, enteredPatch(c, ['density15'], { density15: v }))}
+          hint={pending.includes('density15') ? <NotEnteredMark /> : undefined}
         />
       </td>
       {tempField('anilinePoint', 'Aniline point')}
@@ -183,6 +203,12 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
           options={AVAILABILITY_OPTIONS}
           onChange={(v) => onUpdate(c.id, { availability: v })}
         />
+        {pending.length > 0 ? (
+          // The row's state: not used by any solve, search, plan or release until its values are entered.
+          <span className="pending-state" data-testid="values-pending" title={`Not yet entered: ${entryFieldsInWords(pending)}`}>
+            not in use: {entryFieldsInWords(pending)} to enter
+          </span>
+        ) : null}
       </td>
       <td className="actions">
         <button

@@ -226,7 +226,7 @@ export default function LibraryScreen() {
             setQuery('');
             setCategory('all');
             setExpanded(id);
-            setFlash({ tone: 'success', text: 'Added a new stock at the end of the table; fill in its code and values.', undo: true });
+            setFlash({ tone: 'success', text: 'Added a new stock at the end of the table; fill in its code, ν40, ν100, density and price. Until its ν40, ν100 and density are entered it is left out of solving, the explorer, the line plan and release.', undo: true });
           }}
         >
           Add stock
@@ -337,8 +337,9 @@ export default function LibraryScreen() {
               <th scope="col" className="num">
                 Aniline pt <span className="unit">{fmt.tempUnit}</span>
               </th>
-              <th scope="col" className="num">
-                Price <span className="unit">(L at 15 °C)</span>
+              {/* The basis is in each cell (a litre price names its 15 °C there); a price in another currency names it too. */}
+              <th scope="col" className="num" title="Price on the basis shown in each cell; a litre price is for litres at 15 °C">
+                Price <span className="unit">{normaliseCurrency(baseCurrency) || 'base currency'}</span>
               </th>
               <th scope="col">Availability</th>
               <th scope="col">

@@ -15,7 +15,7 @@ import {
   DEMO_PLANT,
 } from '../../state';
 import { checkDate, checkNumber, checkText } from '../../state/field-rules';
-import { normaliseCurrency, unpricedMessage, type ExchangeRate } from '../../core/currency/exchange-rates';
+import { normaliseCurrency, unpricedMessage, unpricedTitle, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
 import { applyBackup, backupFileName, makeBackupText, parseBackupText, putBackReplaced, type BackupParse, type ReplacedWork } from '../../state/backup';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
@@ -258,7 +258,7 @@ function ExchangeRates() {
         </p>
       )}
       {priced.unpriced.length > 0 ? (
-        <Notice tone="warning" title={priced.unpriced.some((u) => u.noPrice) ? 'Stocks without a usable price' : 'Stocks without an exchange rate'}>
+        <Notice tone="warning" title={unpricedTitle(priced.unpriced)}>
           <p data-testid="unpriced">{unpricedMessage(priced.unpriced, base)}</p>
         </Notice>
       ) : (

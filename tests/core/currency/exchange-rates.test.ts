@@ -9,7 +9,9 @@ import {
   rateToBase,
   solvableLibrary,
   unpricedMessage,
+  unpricedTitle,
 } from '../../../src/core/currency/exchange-rates';
+import { notEnteredFields, remainingNotEntered } from '../../../src/core/formulation/entered-values';
 import { makeComponent, STOCKS } from '../../helpers/formulation-fixtures';
 import { expectClose } from '../../helpers/tolerance';
 
@@ -87,5 +89,54 @@ describe('exchange rates at the boundary', () => {
   it('prints a rate with the decimals it was entered with (2 to 6)', () => {
     // common practice (no source): a rate is quoted to 2–6 decimals
     expect([0.92, 0.9215, 1, 1.23456789, 0.5].map(rateDecimals)).toEqual([2, 4, 2, 6, 2]);
+  });
+});
+
+describe('stocks whose measured values are not yet entered (s25)', () => {
+  it('are left out of costing and solving whatever their price, and named with the values missing', () => {
+    // A stock just added, then priced: its placeholder ν40/ν100/density were solved with as if measured.
+    const eur = makeComponent(STOCKS.g2heavy!);
+    const fresh = { ...makeComponent(STOCKS.g2hv!), notEntered: ['kv40' as const, 'kv100' as const, 'density15' as const] };
+    const priced = priceLibraryInBase([eur, fresh], 'EUR', rates);
+    expect(priced.unpriced).toEqual([{ componentId: 'g2hv', code: 'G2HV', currency: 'EUR', notEntered: ['kv40', 'kv100', 'density15'] }]);
+    expect(priced.components[1]!.price.currency).toBe(''); // a recipe holding it is not costed
+    expect(solvableLibrary(priced).map((c) => c.availability)).toEqual(['available', 'withdrawn']);
+    expect(unpricedMessage(priced.unpriced, 'EUR')).toBe(
+      'G2HV has ν40, ν100 and density not yet entered: it is left out of costing and solving until the values are entered on Stocks.',
+    );
+    expect(unpricedTitle(priced.unpriced)).toBe('Stocks with values not yet entered');
+    expect(pricingFor(priced, [eur, fresh], ['g2hv']).unpriced).toHaveLength(1);
+  });
+
+  it('a stock just added (no price, no values) is named for both; others keep their sentences', () => {
+    const fresh = { ...makeComponent(STOCKS.g2hv!), price: { amount: 0, basis: 'per-kg' as const, currency: 'EUR' }, notEntered: ['kv40' as const, 'kv100' as const, 'density15' as const] };
+    const one = { ...makeComponent(STOCKS.g2heavy!), notEntered: ['density15' as const] };
+    const gbp = { ...makeComponent(STOCKS.pao6!), price: { amount: 3, basis: 'per-kg' as const, currency: 'GBP' } };
+    const priced = priceLibraryInBase([fresh, one, gbp], 'EUR', rates);
+    expect(priced.unpriced.map((u) => [u.code, Boolean(u.noPrice), u.notEntered ?? null])).toEqual([
+      ['G2HV', true, ['kv40', 'kv100', 'density15']],
+      ['G2HEAVY', false, ['density15']],
+      ['PAO6', false, null],
+    ]);
+    expect(unpricedMessage(priced.unpriced, 'EUR')).toBe(
+      'G2HV has no price: it is left out of costing and solving until a price is entered on Stocks. ' +
+        'G2HV has ν40, ν100 and density not yet entered; G2HEAVY has density not yet entered: they are left out of costing and solving until the values are entered on Stocks. ' +
+        'PAO6 is priced in GBP, which has no exchange rate to EUR: it is left out of costing and solving until a rate is entered under Settings → Exchange rates.',
+    );
+    expect(unpricedTitle(priced.unpriced)).toBe('Stocks left out of costing and solving');
+    expect(unpricedMessage(priceLibraryInBase([one], 'EUR', rates).unpriced, 'EUR')).toBe(
+      'G2HEAVY has density not yet entered: it is left out of costing and solving until the value is entered on Stocks.',
+    );
+  });
+
+  it('a stock without the list (saved before it existed) or with an empty list is complete', () => {
+    const older = makeComponent(STOCKS.g2hv!);
+    expect('notEntered' in older).toBe(false);
+    expect(notEnteredFields(older)).toEqual([]);
+    expect(notEnteredFields({ notEntered: [] })).toEqual([]);
+    expect(priceLibraryInBase([older, { ...older, id: 'x', notEntered: [] }], 'EUR', rates).unpriced).toEqual([]);
+    expect(notEnteredFields({ notEntered: ['density15', 'kv40'] })).toEqual(['kv40', 'density15']);
+    expect(remainingNotEntered({ notEntered: ['kv40', 'kv100'] }, ['kv40'])).toEqual(['kv100']);
+    expect(remainingNotEntered({ notEntered: ['kv40'] }, ['kv40'])).toBeUndefined();
   });
 });

@@ -79,3 +79,33 @@ describe('release hold', () => {
     expect(correctionHoldReasons([], [g2hv.code], lib)).toEqual([]);
   });
 });
+
+describe('release hold for a stock whose values are not yet entered (s25)', () => {
+  it('holds a draft holding it with the stock and the missing values named, beside the draft status', () => {
+    // A stock just added (ν40, ν100, density placeholders) in a draft without flash or pour limits:
+    // the check said only "it is a draft", so the draft could be approved.
+    const unentered = lib.map((c) => (c.id === 'g2heavy' ? { ...c, notEntered: ['kv40' as const, 'kv100' as const, 'density15' as const] } : c));
+    const a = assessRelease({ recipe: { ...base, status: 'draft' }, components: unentered, targets, method: 'refutas' });
+    expect(a.reasons.map((x) => x.kind)).toEqual(['status', 'unentered-stock']);
+    expect(a.reasons[1]!.message).toBe('It uses a stock whose measured values are not yet entered: G2HEAVY (ν40, ν100 and density).');
+    // Approval waits for every reason other than the status (RecipesScreen `blocking`).
+    expect(a.reasons.filter((r) => r.kind !== 'status')).toHaveLength(1);
+    // An approved recipe whose stock lost nothing is not held; two stocks are named together.
+    const two = unentered.map((c) => (c.id === 'g2hv' ? { ...c, notEntered: ['density15' as const] } : c));
+    const r = releaseHoldReasons({ recipe: base, components: two, targets: null, prediction: null, qcRows: null, method: 'refutas' });
+    expect(r).toEqual([
+      { kind: 'unentered-stock', message: 'It uses stocks whose measured values are not yet entered: G2HV (density); G2HEAVY (ν40, ν100 and density).' },
+    ]);
+    // An empty list is a complete stock (as saved before the list existed).
+    const empty = lib.map((c) => ({ ...c, notEntered: [] }));
+    expect(assessRelease({ recipe: base, components: empty, targets, method: 'refutas' }).reasons).toEqual([]);
+  });
+
+  it('holds a correction that adds such a stock', () => {
+    const unentered = lib.map((c) => (c.id === 'g2hv' ? { ...c, notEntered: ['kv100' as const] } : c));
+    expect(correctionHoldReasons([], ['G2HV'], unentered)).toEqual([
+      { kind: 'unentered-stock', message: 'The correction adds a stock whose measured values are not yet entered: G2HV (ν100).' },
+    ]);
+    expect(correctionHoldReasons([], ['G2HEAVY'], unentered)).toEqual([]);
+  });
+});
