@@ -72,3 +72,23 @@ describe('designer with a stock that has no price (s24 hunt)', () => {
     expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();
   });
 });
+
+describe('designer with a stock whose values are not yet entered (s25)', () => {
+  it('names it, marks its recipe line, shows no placeholder ν40, and solves without it', async () => {
+    // BW-160 as if just added and then priced: its placeholders were solved with as if measured.
+    settingsActions.updateSettings({ baseCurrency: 'EUR', exchangeRates: [{ currency: 'USD', rate: 0.5, asOf: '2026-11-30' }] });
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    useLibrary.getState().updateComponent(c.id, { notEntered: ['kv40', 'kv100', 'density15'] });
+    render(<DesignerScreen />);
+    expect(screen.getByText('Stocks with values not yet entered')).toBeTruthy();
+    expect(screen.getByTestId('unpriced').textContent).toBe(
+      'BW-160 has ν40, ν100 and density not yet entered: it is left out of costing and solving until the values are entered on Stocks.',
+    );
+    const line = screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]') as HTMLElement;
+    expect(line.querySelector('[data-testid="line-values-pending"]')!.textContent).toBe(' ν40, ν100 and density not entered');
+    expect(costCell('BW-160')).toBe('—');
+    fireEvent.click(screen.getByRole('button', { name: 'Solve' }));
+    await screen.findByText('Solved', {}, { timeout: 10_000 });
+    expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();
+  });
+});
