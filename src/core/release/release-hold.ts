@@ -8,7 +8,7 @@
  *   then prints no limit of it: `specification-grade.ts`);
  * - it names a stock that is withdrawn or no longer in the library;
  * - it uses a stock whose measured values (ν40, ν100, density) are not yet entered: its prediction
- *   rests on placeholders, not data (`formulation/entered-values.ts`);
+ *   rests on placeholders, not data (`formulation/entered-values.ts`), so the checks below are not made;
  * - its properties cannot be predicted;
  * - the prediction misses one of the recipe's own constraints (its solve targets: ν40 band, minimum
  *   VI, maximum aniline point, polymer cap, pour and flash limits, per-stock limits, treat rate),
@@ -121,7 +121,9 @@ export function releaseHoldReasons(input: ReleaseHoldInput): HoldReason[] {
     .map((l) => byId.get(l.componentId))
     .filter((c): c is Component => c !== undefined && notEnteredFields(c).length > 0);
   if (unentered.length > 0) {
-    out.push({ kind: 'unentered-stock', message: unenteredMessage(unentered, 'It uses') });
+    // Its prediction rests on placeholders: not checked against the recipe's constraints or limits.
+    out.push({ kind: 'unentered-stock', message: `${unenteredMessage(unentered, 'It uses')} Its limits are checked once they are entered.` });
+    return out;
   }
 
   const p = input.prediction;

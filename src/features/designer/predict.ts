@@ -8,6 +8,7 @@ import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposi
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { userMessage } from '../../state/messages';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 
 export type Prediction =
   | {
@@ -34,7 +35,9 @@ export type Prediction =
 
 /**
  * Predicts a recipe's properties; never throws (a recipe being edited may be incomplete).
- * Lines at 0 % are dropped first so an added-but-unused stock cannot disturb the result.
+ * Lines at 0 % are dropped first so an added-but-unused stock cannot disturb the result. A recipe
+ * using a stock whose measured values are not yet entered is not predicted (its placeholders are
+ * not data): the message names the stock and the values.
  */
 export function predictRecipe(
   lines: readonly RecipeLine[],
@@ -55,6 +58,14 @@ export function predictRecipe(
   const used = lines.filter((l) => l.massFraction > 0);
   const words = displayWords(temps.display);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
+  // A stock whose measured values are not yet entered holds placeholders: never predicted with.
+  const unentered = used
+    .map((l) => components.find((c) => c.id === l.componentId))
+    .filter((c): c is Component => c !== undefined && notEnteredFields(c).length > 0);
+  if (unentered.length > 0) {
+    const named = unentered.map((c) => `${c.code} has ${entryFieldsInWords(notEnteredFields(c))} not yet entered`).join('; ');
+    return { ok: false, message: `Not predicted: ${named}. Enter the values on Stocks, or set ${unentered.length === 1 ? 'its share' : 'their shares'} to 0.` };
+  }
   try {
     const { grade, band, ...at } = temps;
     const props = predictBlend(components, used, { method, ...at });

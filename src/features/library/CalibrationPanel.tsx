@@ -5,6 +5,7 @@ import { userMessage } from '../../state/messages';
 import { checkText } from '../../state/field-rules';
 import type { StockUpdateOutcome } from './ImpactConfirm';
 import type { Calibration, Component, Recipe } from '../../core/formulation/model';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 import { calibrateComponent, MIN_CALIBRATION_FRACTION } from '../../core/formulation/calibration';
 import { blendingViscosities, predictBlend } from '../../core/formulation/blend-properties';
 import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
@@ -227,6 +228,12 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
             Remove calibration
           </button>{' '}
         </>
+      ) : notEnteredFields(c).some((f) => f !== 'density15') ? (
+        // Placeholders are never shown as measured values.
+        <p className="muted small">
+          None. {c.code}&rsquo;s {entryFieldsInWords(notEnteredFields(c).filter((f) => f !== 'density15'))} {notEnteredFields(c).length > 1 ? 'are' : 'is'} not yet
+          entered: enter {c.code}&rsquo;s measured values above first.
+        </p>
       ) : (
         <p className="muted small">
           None: blends use {c.code}&rsquo;s measured ν40 {fmt.sig(used.kv40, 4)} / ν100 {fmt.sig(used.kv100, 4)} mm²/s. Polymers, additive

@@ -18,9 +18,10 @@ export const AVAILABILITY_OPTIONS: ReadonlyArray<{ value: Availability; label: s
 ];
 // A per-litre price is for litres at 15 °C (converted to per kg with the stock's ρ15).
 const BASIS_SHORT = { 'per-kg': '/kg', 'per-litre': '/L at 15 °C', 'per-tonne': '/t' } as const;
-// Beside the price cell the basis is short (a litre basis names its 15 °C in the cell, the header
-// reads only "Price"), and the field's label (read by screen readers) carries the full basis.
-const BASIS_HINT = { 'per-kg': '/kg', 'per-litre': '/L 15 °C', 'per-tonne': '/t' } as const;
+// Beside the price cell the basis is short (a litre basis names its 15 °C under the price: the
+// header reads only "Price" and the base currency), and the field's label (read by screen readers)
+// carries the full basis.
+const BASIS_HINT = { 'per-kg': '/kg', 'per-litre': '/L', 'per-tonne': '/t' } as const;
 
 /** The mark beside a measured field whose value was not yet entered (its input is empty). */
 function NotEnteredMark() {
@@ -193,6 +194,11 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
             </span>
           }
         />
+        {c.price.basis === 'per-litre' ? (
+          <span className="basis-note" aria-hidden="true">
+            at 15 °C
+          </span>
+        ) : null}
       </td>
       <td className="avail-cell">
         <SelectField<Availability>
@@ -206,7 +212,7 @@ export const ComponentRow = memo(function ComponentRow({ c, codeError, expanded,
         {pending.length > 0 ? (
           // The row's state: not used by any solve, search, plan or release until its values are entered.
           <span className="pending-state" data-testid="values-pending" title={`Not yet entered: ${entryFieldsInWords(pending)}`}>
-            not in use: {entryFieldsInWords(pending)} to enter
+            not in use: values to enter<span className="visually-hidden"> ({entryFieldsInWords(pending)})</span>
           </span>
         ) : null}
       </td>

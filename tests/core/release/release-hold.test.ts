@@ -87,14 +87,22 @@ describe('release hold for a stock whose values are not yet entered (s25)', () =
     const unentered = lib.map((c) => (c.id === 'g2heavy' ? { ...c, notEntered: ['kv40' as const, 'kv100' as const, 'density15' as const] } : c));
     const a = assessRelease({ recipe: { ...base, status: 'draft' }, components: unentered, targets, method: 'refutas' });
     expect(a.reasons.map((x) => x.kind)).toEqual(['status', 'unentered-stock']);
-    expect(a.reasons[1]!.message).toBe('It uses a stock whose measured values are not yet entered: G2HEAVY (ν40, ν100 and density).');
+    expect(a.reasons[1]!.message).toBe(
+      'It uses a stock whose measured values are not yet entered: G2HEAVY (ν40, ν100 and density). Its limits are checked once they are entered.',
+    );
+    // Constraints and release limits are not checked on placeholders (a strict minimum VI adds no reason).
+    const strict = assessRelease({ recipe: base, components: unentered, targets: { ...targets, minVi: 150 }, method: 'refutas' });
+    expect(strict.reasons.map((x) => x.kind)).toEqual(['unentered-stock']);
     // Approval waits for every reason other than the status (RecipesScreen `blocking`).
     expect(a.reasons.filter((r) => r.kind !== 'status')).toHaveLength(1);
     // An approved recipe whose stock lost nothing is not held; two stocks are named together.
     const two = unentered.map((c) => (c.id === 'g2hv' ? { ...c, notEntered: ['density15' as const] } : c));
     const r = releaseHoldReasons({ recipe: base, components: two, targets: null, prediction: null, qcRows: null, method: 'refutas' });
     expect(r).toEqual([
-      { kind: 'unentered-stock', message: 'It uses stocks whose measured values are not yet entered: G2HV (density); G2HEAVY (ν40, ν100 and density).' },
+      {
+        kind: 'unentered-stock',
+        message: 'It uses stocks whose measured values are not yet entered: G2HV (density); G2HEAVY (ν40, ν100 and density). Its limits are checked once they are entered.',
+      },
     ]);
     // An empty list is a complete stock (as saved before the list existed).
     const empty = lib.map((c) => ({ ...c, notEntered: [] }));

@@ -87,6 +87,10 @@ describe('designer with a stock whose values are not yet entered (s25)', () => {
     const line = screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]') as HTMLElement;
     expect(line.querySelector('[data-testid="line-values-pending"]')!.textContent).toBe(' ν40, ν100 and density not entered');
     expect(costCell('BW-160')).toBe('—');
+    // No prediction from its placeholders.
+    expect(
+      screen.getAllByText('Not predicted: BW-160 has ν40, ν100 and density not yet entered. Enter the values on Stocks, or set its share to 0.').length,
+    ).toBeGreaterThan(0);
     fireEvent.click(screen.getByRole('button', { name: 'Solve' }));
     await screen.findByText('Solved', {}, { timeout: 10_000 });
     expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();

@@ -34,16 +34,18 @@ describe('Stocks: values not yet entered (s25)', () => {
     expect(cellValue('ν100 of NEW [mm²/s]', inRow)).toBe('');
     expect(cellValue('Density at 15 °C of NEW [kg/L]', inRow)).toBe('');
     expect(inRow.getAllByText('not entered')).toHaveLength(3);
-    expect(inRow.getByTestId('values-pending').textContent).toBe('not in use: ν40, ν100 and density to enter');
+    expect(inRow.getByTestId('values-pending').textContent).toBe('not in use: values to enter (ν40, ν100 and density)');
     expect(inRow.getByTestId('vi-cell').textContent).toMatch(/^—/);
     // The details (opened on add) say what is missing and show no placeholder per kg.
     expect(screen.getByTestId('details-pending').textContent).toMatch(/^Not yet entered: ν40, ν100 and density\. NEW is left out of solving/);
+    // The calibration panel shows no placeholder as a measured value.
+    expect(screen.getByText(/not yet\s+entered: enter NEW’s measured values above first/)).toBeTruthy();
     expect((screen.getByLabelText('Viscosity of point 1 of NEW [mm²/s]') as HTMLInputElement).value).toBe('');
 
     type(editCell('ν40 of NEW [mm²/s]', inRow), '220');
     expect(added().notEntered).toEqual(['kv100', 'density15']);
     expect(within(screen.getByLabelText('Stock code of NEW').closest('tr')!).getByTestId('values-pending').textContent).toBe(
-      'not in use: ν100 and density to enter',
+      'not in use: values to enter (ν100 and density)',
     );
     type(editCell('ν100 of NEW [mm²/s]', within(screen.getByLabelText('Stock code of NEW').closest('tr')!)), '19.5');
     type(editCell('Density at 15 °C of NEW [kg/L]', within(screen.getByLabelText('Stock code of NEW').closest('tr')!)), '0.889');
@@ -76,6 +78,9 @@ describe('Stocks: values not yet entered (s25)', () => {
     useLibrary.getState().updateComponent(c.id, { price: { ...c.price, basis: 'per-litre' } });
     fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-190' } });
     const row = screen.getByLabelText(`Stock code of ${c.name}`).closest('tr')!;
-    expect(row.querySelector('.price-cell .unit')!.textContent).toBe('/L 15 °C');
+    expect(row.querySelector('.price-cell .unit')!.textContent).toBe('/L');
+    expect(row.querySelector('.price-cell .basis-note')!.textContent).toBe('at 15 °C');
+    // Screen readers hear the whole basis in the field's label.
+    expect(row.querySelector('.price-cell [aria-label]')!.getAttribute('aria-label')).toMatch(/\/L at 15 °C\]$/);
   });
 });
