@@ -277,6 +277,7 @@ const AddLine = memo(function AddLine({ addable, onAdd }: { addable: readonly Co
         {addable.map((c) => (
           <option key={c.id} value={c.id}>
             {c.code} — {c.name}
+            {notEnteredFields(c).length ? ` (${entryFieldsInWords(notEnteredFields(c))} not entered)` : ''}
           </option>
         ))}
       </select>

@@ -91,12 +91,14 @@ export default function LibraryScreen() {
       const k = c.code.trim().toLowerCase();
       codes.set(k, (codes.get(k) ?? 0) + 1);
     }
+    let pending = 0;
     for (const c of components) {
+      if (c.notEntered?.length) pending++;
       const r = checkComponent(c);
       if (r.errors.length || (codes.get(c.code.trim().toLowerCase()) ?? 0) > 1) errors++;
       else if (r.warnings.length) warnings++;
     }
-    return { errors, warnings };
+    return { errors, warnings, pending };
   }, [components]);
 
   const codeError = useCallback(
@@ -121,6 +123,12 @@ export default function LibraryScreen() {
       const before = store.components;
       const c = before.find((x) => x.id === id);
       if (!c) return { kind: 'stored' };
+      // Entering a value not yet entered moves no saved prediction: recipes using the stock had none
+      // (never predicted from its placeholders), so there is nothing to confirm.
+      if ('notEntered' in patch && c.notEntered?.length) {
+        const refused = apply();
+        return refused ? { kind: 'refused', message: refused } : { kind: 'stored' };
+      }
       const after = before.map((x) => (x.id === id ? { ...x, ...patch } : x));
       const impact = predictionImpact(useRecipes.getState().recipes, before, after, [id], blendMethod);
       if (impact.length === 0) {
@@ -211,6 +219,12 @@ export default function LibraryScreen() {
             {' '}
             {issues.errors ? `${issues.errors} stock${issues.errors > 1 ? 's' : ''} with errors. ` : ''}
             {issues.warnings ? `${issues.warnings} with values flagged for checking.` : ''}
+          </strong>
+        ) : null}
+        {issues.pending ? (
+          <strong className="text-warning" data-testid="pending-count">
+            {' '}
+            {issues.pending === 1 ? '1 stock has' : `${fmt.num(issues.pending, 0)} stocks have`} measured values not yet entered and {issues.pending === 1 ? 'is' : 'are'} not in use.
           </strong>
         ) : null}
       </p>

@@ -87,6 +87,12 @@ describe('designer with a stock whose values are not yet entered (s25)', () => {
     const line = screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]') as HTMLElement;
     expect(line.querySelector('[data-testid="line-values-pending"]')!.textContent).toBe(' ν40, ν100 and density not entered');
     expect(costCell('BW-160')).toBe('—');
+    // The stocks offered for adding say which have values not yet entered (BW-161 here, invented demo).
+    const other = useLibrary.getState().components.find((x) => x.code === 'BW-161')!;
+    act(() => {
+      useLibrary.getState().updateComponent(other.id, { notEntered: ['density15'] });
+    });
+    expect(screen.getByRole('option', { name: /^BW-161 — .* \(density not entered\)$/ })).toBeTruthy();
     // No prediction from its placeholders.
     expect(
       screen.getAllByText('Not predicted: BW-160 has ν40, ν100 and density not yet entered. Enter the values on Stocks, or set its share to 0.').length,

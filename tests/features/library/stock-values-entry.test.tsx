@@ -83,4 +83,20 @@ describe('Stocks: values not yet entered (s25)', () => {
     // Screen readers hear the whole basis in the field's label.
     expect(row.querySelector('.price-cell [aria-label]')!.getAttribute('aria-label')).toMatch(/\/L at 15 °C\]$/);
   });
+
+  it('the lead counts the stocks not in use; entering a value not yet entered asks no confirmation (no saved prediction moves)', () => {
+    // BW-510 (in the VG 680 demo recipe) as if its ν40 were not yet entered: a change of its ν40 asked
+    // to confirm moving that recipe's prediction, which was never made from the placeholder.
+    const pib = useLibrary.getState().components.find((c) => c.id === 'demo-bw-510')!;
+    useLibrary.getState().updateComponent(pib.id, { notEntered: ['kv40'] });
+    render(<LibraryScreen />);
+    expect(screen.getByTestId('pending-count').textContent).toBe(' 1 stock has measured values not yet entered and is not in use.');
+    fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-510' } });
+    type(editCell(/^ν40 of BW-510/), '9000');
+    expect(screen.queryByRole('alertdialog')).toBeNull();
+    const after = useLibrary.getState().components.find((c) => c.id === 'demo-bw-510')!;
+    expect(after.viscosityPoints.find((p) => p.tempC === 40)!.kv).toBe(9000);
+    expect('notEntered' in after).toBe(false);
+    expect(screen.queryByTestId('pending-count')).toBeNull();
+  });
 });
