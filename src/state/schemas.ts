@@ -124,6 +124,7 @@ export const stockSnapshotSchema = z.object({
   anilinePoint: nullableNum,
   pourPoint: nullableNum,
   flashPoint: nullableNum,
+  notEntered: z.array(z.enum(ENTRY_FIELDS as unknown as [EntryField, ...EntryField[]])).optional(),
 });
 
 /** A recipe: shape here, every value checked by `recipeProblems` (field-rules.ts). */

@@ -247,6 +247,11 @@ export interface StockSnapshot {
   anilinePoint: number | null;
   pourPoint: number | null;
   flashPoint: number | null;
+  /**
+   * The stock's measured values not yet entered when recorded (their numbers are placeholders, compared
+   * as "not given"); absent → all entered (also in snapshots recorded before the list existed).
+   */
+  notEntered?: EntryField[];
 }
 
 /** The stock data a recipe was solved or saved with. */

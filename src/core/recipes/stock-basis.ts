@@ -11,6 +11,7 @@
  * (no tolerance: a re-typed value that differs in the last digit is a change the user made).
  */
 import { CATEGORY_LABEL, type Component, type ComponentCategory, type RecipeLine, type StockBasis, type StockSnapshot } from '../formulation/model';
+import { notEnteredFields } from '../formulation/entered-values';
 
 /**
  * The snapshot of one stock: the inputs predictions depend on.
@@ -30,7 +31,15 @@ export function stockSnapshot(c: Component): StockSnapshot {
     anilinePoint: c.anilinePoint,
     pourPoint: c.pourPoint,
     flashPoint: c.flashPoint,
+    ...(notEnteredFields(c).length ? { notEntered: notEnteredFields(c) } : {}),
   };
+}
+
+/** A snapshot's ν at `tempC`, or null when not given (no point there, or a value not yet entered). */
+function kvAt(s: StockSnapshot, tempC: number): number | null {
+  const pending = notEnteredFields(s);
+  if ((tempC === 40 && pending.includes('kv40')) || (tempC === 100 && pending.includes('kv100'))) return null;
+  return s.viscosityPoints.find((p) => p.tempC === tempC)?.kv ?? null;
 }
 
 /**
@@ -113,8 +122,9 @@ export function stockBasisChanges(basis: StockBasis | null, components: readonly
     const fields: StockFieldChange[] = [];
     const temps = [...new Set([...snap.viscosityPoints, ...now.viscosityPoints].map((p) => p.tempC))].sort((a, b) => a - b);
     for (const t of temps) {
-      const from = snap.viscosityPoints.find((p) => p.tempC === t)?.kv ?? null;
-      const to = now.viscosityPoints.find((p) => p.tempC === t)?.kv ?? null;
+      // A value not yet entered is compared as not given: its placeholder is never shown as the recorded value.
+      const from = kvAt(snap, t);
+      const to = kvAt(now, t);
       if (from !== to) fields.push({ property: `ν at ${t} °C`, unit: 'mm²/s', from, to });
     }
     const compare = (property: string, unit: StockFieldChange['unit'], from: number | null, to: number | null) => {
@@ -122,7 +132,8 @@ export function stockBasisChanges(basis: StockBasis | null, components: readonly
     };
     compare('calibrated ν40', 'mm²/s', snap.calibratedKv40, now.calibratedKv40);
     compare('calibrated ν100', 'mm²/s', snap.calibratedKv100, now.calibratedKv100);
-    compare('density at 15 °C', 'kg/L', snap.density15, now.density15);
+    const density = (x: StockSnapshot) => (notEnteredFields(x).includes('density15') ? null : x.density15);
+    compare('density at 15 °C', 'kg/L', density(snap), density(now));
     compare('aniline point', '°C', snap.anilinePoint, now.anilinePoint);
     compare('pour point', '°C', snap.pourPoint, now.pourPoint);
     compare('flash point', '°C', snap.flashPoint, now.flashPoint);

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { assessRelease, correctionHoldReasons, releaseHoldReasons } from '../../../src/core/release/release-hold';
 import { newRecipeLifecycle, type BlendTargets, type Recipe } from '../../../src/core/formulation/model';
 import { makeComponent, STOCKS } from '../../helpers/formulation-fixtures';
+import { recordStockBasis, stockBasisChanges } from '../../../src/core/recipes/stock-basis';
 
 const lib = [makeComponent(STOCKS.g2hv!), makeComponent(STOCKS.g2heavy!)];
 const base: Recipe = {
@@ -115,5 +116,26 @@ describe('release hold for a stock whose values are not yet entered (s25)', () =
       { kind: 'unentered-stock', message: 'The correction adds a stock whose measured values are not yet entered: G2HV (ν100).' },
     ]);
     expect(correctionHoldReasons([], ['G2HEAVY'], unentered)).toEqual([]);
+  });
+});
+
+describe('stock data recorded with a recipe while values were not yet entered (s25)', () => {
+  it('compares a value not yet entered as not given: entering it reads "— → value", never from the placeholder', () => {
+    const fresh = { ...makeComponent(STOCKS.g2heavy!), notEntered: ['kv40' as const, 'density15' as const] };
+    const basis = recordStockBasis([lib[0]!, fresh], base.lines, '2026-12-04T16:00:00.000Z');
+    expect(basis.stocks[1]!.notEntered).toEqual(['kv40', 'density15']);
+    expect('notEntered' in basis.stocks[0]!).toBe(false);
+    // Nothing entered yet: no change. (A new placeholder is no change either.)
+    const moved = { ...fresh, density15: 0.9 };
+    expect(stockBasisChanges(basis, [lib[0]!, moved])).toEqual([]);
+    // Entered: from not given to the value (fixture values, invented).
+    const entered = { ...makeComponent(STOCKS.g2heavy!) };
+    const change = stockBasisChanges(basis, [lib[0]!, entered]);
+    expect(change).toHaveLength(1);
+    const kv40 = entered.viscosityPoints.find((p) => p.tempC === 40)!.kv;
+    expect(change[0]!.fields).toEqual([
+      { property: 'ν at 40 °C', unit: 'mm²/s', from: null, to: kv40 },
+      { property: 'density at 15 °C', unit: 'kg/L', from: null, to: entered.density15 },
+    ]);
   });
 });
