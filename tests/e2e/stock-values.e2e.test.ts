@@ -5,6 +5,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { launch, screenshot, type Session, stored, cellValue, editCell } from './support';
+import { axeSerious } from './axe';
 
 describe('a stock whose values are not yet entered', () => {
   let s: Session;
@@ -36,6 +37,10 @@ describe('a stock whose values are not yet entered', () => {
     await expect(page.getByTestId('values-pending').textContent()).resolves.toBe('not in use: values to enter (ν40, ν100 and density)');
     await expect(cellValue(page, 'ν40 of NEW [mm²/s]')).resolves.toBe('');
     await screenshot(page, 'stock-values-pending');
+    // The marks and the row state (and the open details) pass the same accessibility check as every screen.
+    await page.getByRole('button', { name: 'More fields of NEW' }).click();
+    await page.getByTestId('details-pending').waitFor();
+    expect(await axeSerious(page), 'Stocks with a stock whose values are not yet entered').toEqual([]);
     await page.goto(`${inject('baseURL')}#/explorer`);
     await expect(page.getByTestId('unpriced').textContent()).resolves.toBe(
       'NEW has ν40, ν100 and density not yet entered: it is left out of costing and solving until the values are entered on Stocks.',
