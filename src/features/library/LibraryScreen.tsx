@@ -1,4 +1,4 @@
-import { Fragment, Suspense, lazy, useCallback, useMemo, useState, type FocusEvent } from 'react';
+import { Fragment, Suspense, lazy, useCallback, useEffect, useMemo, useState, type FocusEvent } from 'react';
 import './library.css';
 import type { Component, ComponentCategory } from '../../core/formulation/model';
 import { CATEGORY_LABEL } from '../../core/formulation/model';
@@ -153,6 +153,17 @@ export default function LibraryScreen() {
     [blendMethod],
   );
   const onToggleDetails = useCallback((id: string) => setExpanded((e) => (e === id ? null : id)), []);
+  /** A stock just added or cloned: its row is brought into view and its code field focused, ready to type. */
+  const [arrived, setArrived] = useState<string | null>(null);
+  useEffect(() => {
+    if (!arrived) return;
+    const row = [...document.querySelectorAll<HTMLElement>('.library-screen tr[data-row-key]')].find((tr) => tr.getAttribute('data-row-key') === arrived);
+    const field = row?.querySelector<HTMLElement>('input, select, [role="textbox"]');
+    if (!field) return; // drawn in a later render: this effect runs again with the rows
+    setArrived(null);
+    field.scrollIntoView?.({ block: 'center' });
+    field.focus();
+  });
   /** True (and said) when the library is at its one stock limit: Add and Clone then add nothing. */
   const full = useCallback(() => {
     const problem = libraryRoomProblem(useLibrary.getState().components.length, 1, 'entry', (n) => fmt.num(n, 0));
@@ -162,6 +173,7 @@ export default function LibraryScreen() {
   const onClone = useCallback((id: string) => {
     if (full()) return;
     const newId = useLibrary.getState().cloneComponent(id);
+    setArrived(newId);
     const copy = useLibrary.getState().components.find((c) => c.id === newId);
     if (copy) setFlash({ tone: 'success', text: `Cloned as ${copy.code}.`, undo: true });
   }, [full]);
@@ -195,7 +207,7 @@ export default function LibraryScreen() {
   // as the page's opening screen, the rows below the window follow right after the first paint.
   const keys = useMemo(() => shown.map((c) => c.id), [shown]);
   const [focusedKey, setFocusedKey] = useState<string | null>(null);
-  const rows = useRowWindow(keys, [focusedKey, expanded], { inViewFirst: isOpeningDraw() });
+  const rows = useRowWindow(keys, [focusedKey, expanded, arrived], { inViewFirst: isOpeningDraw() });
   const onBodyFocus = useCallback((e: FocusEvent<HTMLTableSectionElement>) => {
     const tr = (e.target as Element).closest?.('tr[data-row-key]');
     setFocusedKey(tr ? tr.getAttribute('data-row-key') : null);
@@ -240,6 +252,7 @@ export default function LibraryScreen() {
             setQuery('');
             setCategory('all');
             setExpanded(id);
+            setArrived(id);
             setFlash({ tone: 'success', text: 'Added a new stock at the end of the table; fill in its code, ν40, ν100, density and price. Until its ν40, ν100 and density are entered it is left out of solving, the explorer, the line plan and release.', undo: true });
           }}
         >

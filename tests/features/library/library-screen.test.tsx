@@ -168,6 +168,21 @@ describe('Library screen', () => {
     }
   });
 
+  it('a stock just added or cloned has its code field focused, ready to type (s25); before, the focus stayed on the button and the new row was out of sight', () => {
+    renderFor('NEW');
+    fireEvent.click(screen.getByRole('button', { name: 'Add stock' }));
+    const added = useLibrary.getState().components.at(-1)!;
+    const focused = document.activeElement as HTMLElement;
+    expect(focused.closest('tr')?.getAttribute('data-row-key')).toBe(added.id);
+    expect(focused.getAttribute('aria-label')).toMatch(/^Stock code of /);
+
+    fireEvent.change(screen.getByPlaceholderText('code or name'), { target: { value: 'BW-190' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Clone BW-190' }));
+    const copy = useLibrary.getState().components.find((c) => c.code === 'BW-190-copy')!;
+    expect((document.activeElement as HTMLElement).closest('tr')?.getAttribute('data-row-key')).toBe(copy.id);
+    expect(document.activeElement?.getAttribute('aria-label')).toMatch(/^Stock code of /);
+  });
+
   it('writes the currency beside a price quoted in another currency than the base, so one column never mixes them unseen (s24 hunt)', () => {
     settingsActions.updateSettings({ baseCurrency: 'USD' });
     try {

@@ -1,0 +1,19 @@
+import { chromium } from 'playwright-core';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+const dir = mkdtempSync(join(tmpdir(), 'walk-'));
+const ctx = await chromium.launchPersistentContext(dir, { executablePath: '/usr/bin/chromium', headless: true, viewport: { width: 1400, height: 900 },
+  args: ['--headless','--no-sandbox','--disable-gpu','--disable-quic','--no-first-run','--disable-background-networking','--disable-component-update','--disable-sync'] });
+const page = ctx.pages()[0] ?? await ctx.newPage();
+page.on('console', m => { if (m.type() === 'error' || m.type() === 'warning') console.log('console', m.type(), m.text()); });
+const base = 'http://127.0.0.1:4499/';
+const shots = process.argv.slice(2);
+for (const route of shots) {
+  await page.goto(base + route);
+  await page.waitForTimeout(1500);
+  const name = route.replace(/[^a-z0-9]+/gi, '_') || 'home';
+  await page.screenshot({ path: `/tmp/walk/${name}.png`, fullPage: true });
+  console.log('shot', name);
+}
+await ctx.close();
