@@ -6,7 +6,7 @@
 
 // Domain model
 export * from './formulation/model';
-export { ENTRY_FIELDS, ENTRY_FIELD_LABEL, notEnteredFields, remainingNotEntered, entryFieldsInWords } from './formulation/entered-values';
+export { ENTRY_FIELDS, ENTRY_FIELD_LABEL, notEnteredFields, remainingNotEntered, entryFieldsInWords, unenteredStocks, notPredictedWords, densityNotEntered } from './formulation/entered-values';
 
 // Errors (every entry point throws one of these on impossible input)
 export {

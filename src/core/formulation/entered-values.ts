@@ -54,3 +54,51 @@ export function entryFieldsInWords(fields: readonly EntryField[]): string {
   const words = fields.map((f) => ENTRY_FIELD_LABEL[f]);
   return words.length > 1 ? `${words.slice(0, -1).join(', ')} and ${words.at(-1)}` : (words[0] ?? '');
 }
+
+/**
+ * The stocks of a recipe whose measured values are not yet entered: those of its lines above 0 %
+ * (a line at 0 % charges nothing and is never predicted with), each once, in line order. Any figure
+ * made from such a recipe's stock data (prediction, volume, cost) would rest on placeholders.
+ *
+ * @param lines - the recipe's lines (mass fractions)
+ * @param components - the library (a line naming a stock not in it is skipped)
+ * @returns the stocks, empty when every used stock is complete
+ * @example unenteredStocks([{ componentId: 'new', massFraction: 0.2 }], lib) // → [NEW]
+ */
+export function unenteredStocks(
+  lines: readonly { componentId: string; massFraction: number }[],
+  components: readonly Component[],
+): Component[] {
+  const byId = new Map(components.map((c) => [c.id, c]));
+  const out: Component[] = [];
+  for (const l of lines) {
+    if (!(l.massFraction > 0)) continue;
+    const c = byId.get(l.componentId);
+    if (c && notEnteredFields(c).length > 0 && !out.includes(c)) out.push(c);
+  }
+  return out;
+}
+
+/**
+ * Why a recipe is not predicted, naming each such stock and its missing values — the words every
+ * screen uses where a prediction would stand: "Not predicted: NEW has ν40, ν100 and density not yet
+ * entered" (several joined by "; "). No final stop, so a screen may add what to do.
+ *
+ * @param stocks - from {@link unenteredStocks} (non-empty)
+ * @returns the sentence without its final stop
+ * @example notPredictedWords([NEW]) // → 'Not predicted: NEW has ν40, ν100 and density not yet entered'
+ */
+export function notPredictedWords(stocks: readonly Pick<Component, 'code' | 'notEntered'>[]): string {
+  return `Not predicted: ${stocks.map((c) => `${c.code} has ${entryFieldsInWords(notEnteredFields(c))} not yet entered`).join('; ')}`;
+}
+
+/**
+ * The stocks among `stocks` whose density at 15 °C is not yet entered: their litres (V = m/ρ) and
+ * every volume share of a blend holding them cannot be given.
+ *
+ * @param stocks - the stocks in question
+ * @returns those without an entered density, in the given order
+ */
+export function densityNotEntered<T extends Pick<Component, 'notEntered'>>(stocks: readonly T[]): T[] {
+  return stocks.filter((c) => notEnteredFields(c).includes('density15'));
+}

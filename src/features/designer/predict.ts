@@ -8,7 +8,7 @@ import { assessDeposit, type DepositAssessment } from '../../core/scoring/deposi
 import { blendAfterShear, type BlendAfterShear } from '../../core/formulation/shear-blend';
 import { recipeInBand, type RecipeInBand } from '../../core/qc/recipe-spread';
 import { userMessage } from '../../state/messages';
-import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
+import { notPredictedWords, unenteredStocks } from '../../core/formulation/entered-values';
 
 export type Prediction =
   | {
@@ -59,12 +59,9 @@ export function predictRecipe(
   const words = displayWords(temps.display);
   if (used.length === 0) return { ok: false, message: 'The recipe is empty: add stocks or solve.' };
   // A stock whose measured values are not yet entered holds placeholders: never predicted with.
-  const unentered = used
-    .map((l) => components.find((c) => c.id === l.componentId))
-    .filter((c): c is Component => c !== undefined && notEnteredFields(c).length > 0);
+  const unentered = unenteredStocks(used, components);
   if (unentered.length > 0) {
-    const named = unentered.map((c) => `${c.code} has ${entryFieldsInWords(notEnteredFields(c))} not yet entered`).join('; ');
-    return { ok: false, message: `Not predicted: ${named}. Enter the values on Stocks, or set ${unentered.length === 1 ? 'its share' : 'their shares'} to 0.` };
+    return { ok: false, message: `${notPredictedWords(unentered)}. Enter the values on Stocks, or set ${unentered.length === 1 ? 'its share' : 'their shares'} to 0.` };
   }
   try {
     const { grade, band, ...at } = temps;
