@@ -35,6 +35,8 @@ import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
 import { csvFileName, downloadCsv, toCsv } from './csv';
 import { longClass, pageRule } from './page-header';
+import { densityNotEntered, unenteredStocks } from '../../core/formulation/entered-values';
+import { csvWithoutLitres, litreBatchRefusal, litresNotGivenSentence, NO_PREDICTION, notPredictedSentence, withoutPrediction } from './unentered';
 import '../../components/print.css';
 import './blend-sheet.css';
 
@@ -201,6 +203,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
 
   const batchValue = readBatch(batchSize);
   const exchange = props.exchange;
+  // Stocks of the recipe whose measured values are not yet entered: nothing is predicted from their
+  // placeholders, and without a density no litres of them (nor volume shares, nor litre totals).
+  const unentered = useMemo(() => (recipe ? unenteredStocks(recipe.lines, components) : []), [recipe, components]);
+  const noDensity = useMemo(() => new Set(densityNotEntered(unentered).map((c) => c.id)), [unentered]);
   // Prices restated in the base currency at the boundary; a stock without a rate keeps its own
   // currency, so the costing refuses to add it in (and says which stock and currency).
   const priced = useMemo(
@@ -213,6 +219,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     if (Number.isNaN(batchValue)) {
       return { error: `the batch size “${batchSize.trim()}” cannot be read with the decimal separator “${sep}” (Settings); type it again.` };
     }
+    const litreRefusal = batchUnit === 'litres' ? litreBatchRefusal(unentered) : null;
+    if (litreRefusal) return { error: litreRefusal };
     try {
       const batch = batchUnit === 'kg' ? { kg: batchValue } : { litres: batchValue };
       return {
@@ -221,11 +229,20 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     } catch (e) {
       return { error: errorText(e, components, display) };
     }
-  }, [components, priced, recipe, batchSize, batchUnit, batchValue, props.meteringTempC, props.deliveryTempC, display]);
+  }, [components, priced, recipe, batchSize, batchUnit, batchValue, props.meteringTempC, props.deliveryTempC, display, unentered]);
 
   const qc = useMemo(
-    (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null } | { error: string } | null => {
+    (): { rows: QcRow[]; warnings: readonly string[]; properties: BlendProperties | null; notPredicted?: string } | { error: string } | null => {
       if (!recipe) return null;
+      if (unentered.length > 0) {
+        // The release targets and methods stand; no prediction is made from placeholders.
+        const opts = { temperatureUnit: tUnit, specification: recipe.specification, formatNumber: fmt };
+        try {
+          return { rows: withoutPrediction(qcReleaseTargets(recipe.grade, NO_PREDICTION, opts)), warnings: [], properties: null, notPredicted: notPredictedSentence(unentered) };
+        } catch (e) {
+          return { error: errorText(e, components, display) };
+        }
+      }
       try {
         const p = predict(recipe);
         return {
@@ -237,7 +254,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         return { error: errorText(e, components, display) };
       }
     },
-    [recipe, predict, tUnit, components, fmt, display],
+    [recipe, predict, tUnit, components, fmt, display, unentered],
   );
 
   const hold = useMemo((): HoldReason[] => {
@@ -268,13 +285,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const kvRow = qc && 'rows' in qc ? qc.rows.find((r) => r.key === 'kv40') : undefined;
   const releaseBand = kvRow && kvRow.min !== undefined && kvRow.min !== null && kvRow.max !== undefined && kvRow.max !== null ? { min: kvRow.min, max: kvRow.max } : null;
   const inBand = useMemo((): RecipeInBand | null => {
-    if (!recipe || !releaseBand) return null;
+    if (!recipe || !releaseBand || unentered.length > 0) return null;
     try {
       return recipeInBand(components, recipe.lines.filter((l) => l.massFraction > 0), recipe.grade, releaseBand, method);
     } catch {
       return null;
     }
-  }, [recipe, components, releaseBand?.min, releaseBand?.max, method]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [recipe, components, releaseBand?.min, releaseBand?.max, method, unentered]); // eslint-disable-line react-hooks/exhaustive-deps
   const builtSheet = built && 'sheet' in built ? built.sheet : null;
   const adjusted = useMemo(
     () =>
@@ -359,7 +376,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const heelSources = useMemo(() => {
     const byIdAll = new Map(components.map((c) => [c.id, c]));
     return recipes
-      .filter((r) => !r.archived && r.lines.length > 0)
+      // A recipe holding a stock whose values are not yet entered is not predicted: no heel values from it.
+      .filter((r) => !r.archived && r.lines.length > 0 && unenteredStocks(r.lines, components).length === 0)
       .flatMap((r) => {
         try {
           const p = predict(r).properties;
@@ -412,9 +430,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const heelLitres = heelKg > 0 ? heelKg / (qcIn.heel.density15 ?? HEEL_DEFAULT_DENSITY) : 0;
   const batchKgText = sheet ? fmt(sheet.totalKg + heelKg, qd) : '';
   const batchLitresText = sheet ? fmt(sheet.totalLitres + heelLitres, qd) : '';
+  // A stock without its density: no litres of it, so no volume share and no litre total either.
+  const litresKnown = !sheet || !sheet.rows.some((r) => noDensity.has(r.componentId));
+  const litresNote = litresKnown ? null : litresNotGivenSentence(unentered);
+  const litreCell = (componentId: string, v: number | null) => (v === null || noDensity.has(componentId) ? '—' : fmt(v, qd));
   const batchText = sheet
     ? ((savedSheet ?? sheet).batchBasis === 'kg'
-        ? `${batchKgText} kg (${batchLitresText} L at 15 °C)`
+        ? `${batchKgText} kg (${litresKnown ? `${batchLitresText} L at 15 °C` : 'litres not given'})`
         : `${batchLitresText} L at 15 °C (${batchKgText} kg)`) +
       (heelKg > 0 ? `: heel ${fmt(heelKg, qd)} kg + additions ${fmt(sheet.totalKg, qd)} kg` : '')
     : '—';
@@ -441,7 +463,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   };
   const exportCsv = () => {
     if (!sheet || refuseUnsaved('exported')) return;
-    const text = toCsv(blendSheetCsvRows(sheet, { includePrices: costing, heel: { kg: heelKg, litres: heelLitres, description: qcIn.heel.source } }));
+    const rows = blendSheetCsvRows(sheet, { includePrices: costing, heel: { kg: heelKg, litres: heelLitres, description: qcIn.heel.source } });
+    const noLitres = new Set(sheet.rows.filter((r) => noDensity.has(r.componentId)).map((r) => r.code));
+    const text = toCsv(csvWithoutLitres(rows, noLitres));
     const name = csvFileName(recipe.name, recipe.revision, lot);
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);
@@ -754,10 +778,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   <td>{r.categoryLabel}</td>
                   {adjustedOk && <td className="bs-num">{fmt(savedPct.get(r.componentId) ?? 0, pd)}</td>}
                   <td className="bs-num">{fmt(r.massPct, pd)}</td>
-                  <td className="bs-num">{fmt(r.volumePct, pd)}</td>
+                  <td className="bs-num">{litresKnown ? fmt(r.volumePct, pd) : '—'}</td>
                   <td className="bs-num bs-qty">{fmt(r.kg, qd)}</td>
-                  <td className="bs-num">{fmt(r.litres, qd)}</td>
-                  {sheet.metering && <td className="bs-num">{r.litresAtMetering === null ? '—' : fmt(r.litresAtMetering, qd)}</td>}
+                  <td className="bs-num">{litreCell(r.componentId, r.litres)}</td>
+                  {sheet.metering && <td className="bs-num">{litreCell(r.componentId, r.litresAtMetering)}</td>}
                   <td className="bs-num">{fmt(r.runningKg + heelKg, qd)}</td>
                   {costing && (
                     <>
@@ -778,10 +802,10 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                 </th>
                 {adjustedOk && <td className="bs-num">{fmt(100, pd)}</td>}
                 <td className="bs-num">{fmt(100, pd)}</td>
-                <td className="bs-num">{fmt(100, pd)}</td>
+                <td className="bs-num">{litresKnown ? fmt(100, pd) : '—'}</td>
                 <td className="bs-num bs-qty">{fmt(sheet.totalKg, qd)}</td>
-                <td className="bs-num">{fmt(sheet.totalLitres, qd)}</td>
-                {sheet.metering && <td className="bs-num">{fmt(sheet.metering.totalLitres, qd)}</td>}
+                <td className="bs-num">{litresKnown ? fmt(sheet.totalLitres, qd) : '—'}</td>
+                {sheet.metering && <td className="bs-num">{litresKnown ? fmt(sheet.metering.totalLitres, qd) : '—'}</td>}
                 <td className="bs-num">{fmt(sheet.totalKg + heelKg, qd)}</td>
                 {costing && (
                   <>
@@ -793,6 +817,12 @@ export function BlendSheetView(props: BlendSheetViewProps) {
               </tr>
             </tfoot>
           </table>
+        )}
+
+        {sheet && litresNote && (
+          <p className="bs-error" data-testid="litres-not-given">
+            {litresNote}
+          </p>
         )}
 
         {adjustedOk && adjustedOk.result.status === 'optimal' && (
@@ -927,6 +957,15 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                       — lot spread (model): {probabilityText(inBand.plant.probability, fmt)} of batches in the ν40 release band,{' '}
                       {probabilityText(inBand.iso.probability, fmt)} in the ISO band
                     </span>
+                  ) : null}
+                  {qc?.notPredicted ? (
+                    // Where the predictions would stand: why there are none (the designer's words).
+                    <>
+                      {' — '}
+                      <span className="bs-not-predicted" data-testid="not-predicted">
+                        {qc.notPredicted}
+                      </span>
+                    </>
                   ) : null}
                 </caption>
                 <thead>

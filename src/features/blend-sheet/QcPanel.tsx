@@ -5,6 +5,7 @@ import { useId } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import type { RecipeInBand } from '../../core/qc/recipe-spread';
 import { blendingViscosities } from '../../core/formulation/blend-properties';
+import { entryFieldsInWords, notEnteredFields } from '../../core/formulation/entered-values';
 import { NumberField, TextField, ruleVerdict, type Verdict } from '../../components/fields';
 import { probabilityText, useFormat } from '../../components/format';
 import type { QcInputs } from '../../state';
@@ -173,7 +174,11 @@ export function QcPanel(props: QcPanelProps) {
             {lines.map((l) => {
               const c = byId.get(l.componentId);
               if (!c) return null;
-              const own = safeKv(c);
+              // A value not yet entered is not a library value: no hint from its placeholder.
+              const pending = notEnteredFields(c);
+              const kvs = safeKv(c);
+              const ownKv40 = pending.includes('kv40') ? null : kvs;
+              const ownKv100 = pending.includes('kv100') ? null : kvs;
               const lot = qc.lots[c.id];
               return (
                 <tr key={c.id}>
@@ -185,8 +190,8 @@ export function QcPanel(props: QcPanelProps) {
                       unit="mm²/s"
                       rule="kv40"
                       value={lot?.kv40 ?? null}
-                      hint={own ? `library ${fmt(own.kv40, 1)}` : undefined}
-                      also={(v) => lotPair(c.code, v, lot?.kv100 ?? null, own?.kv100, 'kv40')}
+                      hint={ownKv40 ? `library ${fmt(ownKv40.kv40, 1)}` : pending.includes('kv40') ? 'library: not entered' : undefined}
+                      also={(v) => lotPair(c.code, v, lot?.kv100 ?? null, ownKv100?.kv100, 'kv40')}
                       onCommit={(v) => setLot(c.id, 'kv40', v)}
                     />
                   </td>
@@ -197,13 +202,13 @@ export function QcPanel(props: QcPanelProps) {
                       unit="mm²/s"
                       rule="kv100"
                       value={lot?.kv100 ?? null}
-                      hint={own ? `library ${fmt(own.kv100, 2)}` : undefined}
-                      also={(v) => lotPair(c.code, lot?.kv40 ?? null, v, own?.kv40, 'kv100')}
+                      hint={ownKv100 ? `library ${fmt(ownKv100.kv100, 2)}` : pending.includes('kv100') ? 'library: not entered' : undefined}
+                      also={(v) => lotPair(c.code, lot?.kv40 ?? null, v, ownKv40?.kv40, 'kv100')}
                       onCommit={(v) => setLot(c.id, 'kv100', v)}
                     />
                   </td>
                   <td>
-                    <RuleField label={`Lot density of ${c.code}`} hideLabel unit="kg/L" rule="density15" value={lot?.density15 ?? null} hint={`library ${fmt(c.density15, 4)}`} onCommit={(v) => setLot(c.id, 'density15', v)} />
+                    <RuleField label={`Lot density of ${c.code}`} hideLabel unit="kg/L" rule="density15" value={lot?.density15 ?? null} hint={pending.includes('density15') ? 'library: not entered' : `library ${fmt(c.density15, 4)}`} onCommit={(v) => setLot(c.id, 'density15', v)} />
                   </td>
                 </tr>
               );
@@ -372,6 +377,7 @@ export function QcPanel(props: QcPanelProps) {
               {addable.map((c) => (
                 <option key={c.id} value={c.id}>
                   {c.code} — {c.name}
+                  {notEnteredFields(c).length ? ` (values not entered: ${entryFieldsInWords(notEnteredFields(c))})` : ''}
                 </option>
               ))}
             </select>

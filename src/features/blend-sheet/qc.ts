@@ -6,6 +6,7 @@
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { blendingViscosities } from '../../core/formulation/blend-properties';
+import { notPredictedWords, unenteredStocks } from '../../core/formulation/entered-values';
 import { pricePerKg } from '../../core/formulation/cost';
 import { gradeBand } from '../../core/viscosity/iso-grades';
 import { viscosityIndex } from '../../core/viscosity/viscosity-index';
@@ -122,6 +123,11 @@ export function adjustedRecipe(
   if (!hasAdjustment(qc)) return null;
   const words = displayWords(display);
   const byId = new Map(components.map((c) => [c.id, c]));
+  // A stock whose measured values are not yet entered: its placeholders are never solved with.
+  const unentered = unenteredStocks(recipe.lines, components);
+  if (unentered.length > 0) {
+    return { error: `${notPredictedWords(unentered)}: the recipe is not adjusted to the lots until the values are entered on Stocks.` };
+  }
   try {
     const lots = lotValues(recipe, byId, qc);
     const lotPair = lotPairProblem(lots, words);
@@ -220,6 +226,13 @@ export function correctionFor(
   const words = displayWords(opts.display);
   if (c.kv40 === null) return null;
   const byId = new Map(components.map((x) => [x.id, x]));
+  // The batch's stocks and those allowed for the correction: none may be one whose measured values
+  // are not yet entered (its placeholders are never solved with).
+  const candidates = [...recipe.lines, ...c.stockIds.map((componentId) => ({ componentId, massFraction: 1 }))];
+  const unentered = unenteredStocks(candidates, components);
+  if (unentered.length > 0) {
+    return { error: `${notPredictedWords(unentered)}: no correction is worked out until the values are entered on Stocks${c.stockIds.some((x) => unentered.some((u) => u.id === x)) ? ' (or the stock is removed from those allowed)' : ''}.` };
+  }
   try {
     const massKg = c.massKg ?? opts.batchKg;
     if (massKg === null || !(massKg > 0)) return { error: 'Enter the mass of the batch in the vessel.' };
