@@ -1,5 +1,6 @@
 // The plan's inputs: which recipes take part and their demand, the limited stocks and their supply,
 // the stocks that must stay in use and the tank limit. Every edit is saved and is one undo step.
+import { notEnteredFields } from '../../core/formulation/entered-values';
 import { useId, useState, type ReactNode } from 'react';
 import type { Component, Recipe } from '../../core/formulation/model';
 import { NumberField, TextField, type Verdict } from '../../components/fields';
@@ -315,6 +316,13 @@ function StockQuantities({
               <th scope="row">
                 <span className="code">{c.code}</span> <span className="small">{c.name}</span>
                 {c.availability === 'withdrawn' ? <span className="text-error small"> withdrawn</span> : null}
+                {notEnteredFields(c).length ? (
+                  // Left out of both plans (never planned with its placeholders) until its values are entered.
+                  <span className="text-error small" data-testid="plan-values-pending">
+                    {' '}
+                    values not entered: not used until entered on Stocks
+                  </span>
+                ) : null}
               </th>
               {column && <td className="small">{column.cell(c)}</td>}
               <td className="num">
@@ -373,6 +381,7 @@ function AddStock({
         {stocks.map((c) => (
           <option key={c.id} value={c.id}>
             {c.code} — {c.name}
+            {notEnteredFields(c).length ? ' (values not entered)' : ''}
           </option>
         ))}
       </select>

@@ -1,4 +1,5 @@
 // From the saved inputs (library, recipes, targets, the plan) to the core's line-plan input.
+import { entryFieldsInWords, notEnteredFields, notPredictedWords, unenteredStocks } from '../../core/formulation/entered-values';
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import type { LinePlanInput } from '../../core/lineplan/plan';
 import { defaultTargets, type LinePlanInputs, type Settings } from '../../state';
@@ -136,8 +137,34 @@ export function derivePlan(
     else warnings.push(`No supply is entered for ${c.code}: while it lasts, the plan treats it as unlimited.`);
   }
   const byId = new Map(components.map((c) => [c.id, c]));
+  // A stock whose measured values are not yet entered is never planned with (its placeholders are not
+  // data): limited or kept in use in this plan, it is left out, and the screen says so.
+  for (const c of components) {
+    const pending = notEnteredFields(c);
+    if (!pending.length) continue;
+    const limitedHere = c.id in plan.supplies;
+    const kept = c.id in plan.keep;
+    if (!limitedHere && !kept) continue;
+    const what = limitedHere && kept ? 'its supply and least use in this plan are' : limitedHere ? 'its supply in this plan is' : 'it is not kept in use and its least use is';
+    warnings.push(`${c.code} has ${entryFieldsInWords(pending)} not yet entered: ${what} left out until the values are entered on Stocks.`);
+  }
   const keepKg: Record<string, number> = {};
-  for (const [id, kg] of Object.entries(plan.keep)) if (byId.has(id)) keepKg[id] = kg;
+  for (const [id, kg] of Object.entries(plan.keep)) {
+    const c = byId.get(id);
+    if (c && notEnteredFields(c).length === 0) keepKg[id] = kg;
+  }
+  // A current recipe holding such a stock is not costed (its stock is left out of costing:
+  // `priceLibraryInBase`), so the plans are not compared with it (its grade's change reads '—'): the
+  // screen says why.
+  const notCompared = grades.filter((g) => unenteredStocks(g.recipe.lines, components).length > 0);
+  if (notCompared.length) {
+    const stocks = [...new Set(notCompared.flatMap((g) => unenteredStocks(g.recipe.lines, components)))];
+    const labels = notCompared.map((g) => g.label);
+    const named = labels.length > 1 ? `${labels.slice(0, -1).join(', ')} and ${labels.at(-1)}` : labels[0]!;
+    warnings.push(
+      `${notPredictedWords(stocks)}: the current recipe${labels.length > 1 ? 's' : ''} of ${named} ${labels.length > 1 ? 'are' : 'is'} not costed, so the plans are not compared with ${labels.length > 1 ? 'them' : 'it'} until the values are entered on Stocks.`,
+    );
+  }
   const additiveId = defaultAdditiveId(components);
   const input: LinePlanInput | null =
     grades.length === 0

@@ -475,3 +475,41 @@ describe('Whole-line plan with a stock priced in another currency (issue 10, ite
     expect(within(summary).getByTestId('summary-pricing').textContent).toMatch(/Prices converted at USD → EUR 0\.50 as of 2026-11-30/);
   });
 });
+
+describe('Whole-line plan with a stock whose values are not yet entered (s25)', () => {
+  it('marks it in the pickers, leaves it out when limited or kept, and compares no plan with a current recipe holding it', async () => {
+    // BW-160 (invented demo stock, in the current VG 220, 320 and 460 recipes) as if just added.
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    act(() => useLibrary.getState().updateComponent(c.id, { notEntered: ['kv40', 'kv100', 'density15'] }));
+    // BW-110 (invented demo stock, in no recipe) with its density still to enter: offered, and marked.
+    const other = useLibrary.getState().components.find((x) => x.code === 'BW-110')!;
+    act(() => useLibrary.getState().updateComponent(other.id, { notEntered: ['density15'] }));
+    linePlanActions.setKeep(c.id, 0);
+    await planDemo();
+    const keep = screen.getByLabelText('Keep a stock in use') as HTMLSelectElement;
+    const limit = screen.getByLabelText('Limit another stock in this plan') as HTMLSelectElement;
+    for (const picker of [limit, keep]) {
+      expect([...picker.options].find((o) => o.value === other.id)!.textContent).toMatch(/^BW-110 — .* \(values not entered\)$/);
+    }
+    // BW-160 is limited in the library and kept in use here: both rows say it is not used.
+    const marks = screen.getAllByTestId('plan-values-pending');
+    expect(marks.length).toBe(2);
+    for (const m of marks) expect(m.textContent).toBe(' values not entered: not used until entered on Stocks');
+    const said = document.body.textContent!;
+    expect(said).toContain(
+      'BW-160 has ν40, ν100 and density not yet entered: it is not kept in use and its least use is left out until the values are entered on Stocks.',
+    );
+    expect(said).toContain(
+      'Not predicted: BW-160 has ν40, ν100 and density not yet entered: the current recipes of VG 220, VG 320 and VG 460 are not costed, so the plans are not compared with them until the values are entered on Stocks.',
+    );
+    // Both plans are made without it; their rows for the grades whose current recipe holds it compare with nothing ('—').
+    for (const which of ['lasting', 'after']) {
+      const plan = screen.getByTestId(`plan-${which}`);
+      for (const cell of plan.querySelectorAll('.lp-recipe')) expect(cell.textContent).not.toContain('BW-160');
+      for (const grade of ['VG 220', 'VG 320', 'VG 460']) {
+        const row = within(plan).getByRole('row', { name: new RegExp(`^${grade} `) });
+        expect(row.lastElementChild!.textContent).toBe('—');
+      }
+    }
+  }, 60_000);
+});
