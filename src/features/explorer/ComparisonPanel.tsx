@@ -1,3 +1,4 @@
+import { unenteredStocks } from '../../core/formulation/entered-values';
 import { memo, useMemo, useState, type ReactNode } from 'react';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
@@ -290,6 +291,8 @@ export const ComparisonPanel = memo(function ComparisonPanel({
   const rows = [...comparisonRows(refAssessed, candAssessed, fmt, polymerCap, pricing.base), ...inBandRows(inBand ?? null, fmt)];
   const premium = inBand?.candidate?.nominal && inBand.minimum !== null ? inBand.candidate : null;
   const summary = useMemo(() => {
+    // A reference holding a stock whose values are not yet entered is not predicted: nothing to compare.
+    if (unenteredStocks(reference.lines, components).length > 0) return [];
     try {
       return compareRecipes({
         components,

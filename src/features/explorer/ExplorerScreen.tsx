@@ -1,3 +1,4 @@
+import { notEnteredFields, notPredictedWords, unenteredStocks } from '../../core/formulation/entered-values';
 import { Suspense, lazy, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
@@ -101,9 +102,12 @@ export default function ExplorerScreen() {
     () => (reference ? scenarioTargets(reference, storedForRef, components, st.objective, st.polymerCap, st.minInBandProbability) : null),
     [reference, storedForRef, components, st.objective, st.polymerCap, st.minInBandProbability],
   );
+  // A reference holding a stock whose values are not yet entered is neither predicted nor costed (its
+  // placeholders are not data): the comparison and the charts show no reference figure.
+  const refUnentered = useMemo(() => (reference ? unenteredStocks(reference.lines, components) : []), [reference, components]);
   const refAssessed = useMemo(
     () =>
-      reference
+      reference && refUnentered.length === 0
         ? assess(components, reference.lines, {
             method: settings.blendMethod,
             grade: reference.grade,
@@ -113,7 +117,7 @@ export default function ExplorerScreen() {
             deliveryTempC: settings.deliveryTempC,
           })
         : null,
-    [reference, components, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC, settings.deliveryTempC],
+    [reference, refUnentered, components, settings.blendMethod, settings.d341Form, settings.operatingTempC, settings.coldStartTempC, settings.deliveryTempC],
   );
 
   const quoted = useLibrary((x) => x.components);
@@ -141,8 +145,8 @@ export default function ExplorerScreen() {
     return candidatesInBand(solvableLibrary(priced), st.result.candidates, t, st.result.band, st.result.forcedIds, settings.blendMethod);
   }, [st.result, st.resultFor, targets, priced, settings.blendMethod]);
   const refInBand = useMemo(
-    () => (st.result && reference ? recipeProbabilities(components, reference.lines, reference.grade, st.result.band, settings.blendMethod) : null),
-    [st.result, reference, components, settings.blendMethod],
+    () => (st.result && reference && refUnentered.length === 0 ? recipeProbabilities(components, reference.lines, reference.grade, st.result.band, settings.blendMethod) : null),
+    [st.result, reference, refUnentered, components, settings.blendMethod],
   );
   const selected = candidates.find((c) => c.key === st.selectedKey) ?? null;
   const running_ = st.status === 'running';
@@ -431,6 +435,7 @@ function ScenarioForm({
         />{' '}
         <span className="code">{c.code}</span> {c.name}
         {c.availability === 'limited' ? <span className="tag"> limited</span> : null}
+        {notEnteredFields(c).length ? <span className="tag"> (values not entered)</span> : null}
       </label>
     </li>
   );
@@ -458,6 +463,12 @@ function ScenarioForm({
                 ))}
             </select>
           </div>
+          {reference && unenteredStocks(reference.lines, components).length > 0 && (
+            <p className="stock-changed-note" data-testid="reference-not-predicted">
+              {notPredictedWords(unenteredStocks(reference.lines, components))}: the reference recipe is not predicted or costed, so no candidate is
+              compared with its figures until the values are entered on Stocks.
+            </p>
+          )}
           {reference && refChanges.length > 0 && (
             <div className="stock-changed-note" data-testid="reference-stock-changed">
               <strong>Stock data changed since this recipe was saved:</strong>

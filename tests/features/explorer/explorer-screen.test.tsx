@@ -323,3 +323,28 @@ describe('comparisonRows', () => {
     expect(cold.label).toBe('ν at −22 °F (cold start; outside −4 °F…302 °F, not to be trusted), mm²/s');
   });
 });
+
+describe('Substitute explorer with a stock whose values are not yet entered (s25)', () => {
+  it('predicts and costs no reference holding it, compares no candidate with placeholder figures, and marks such stocks in the lists', async () => {
+    // BW-160 (invented demo stock, in the demo references) as if just added; BW-110 (in none) with its density to enter.
+    const mark = (code: string, fields: ('kv40' | 'kv100' | 'density15')[]) => {
+      const c = useLibrary.getState().components.find((x) => x.code === code)!;
+      act(() => useLibrary.getState().updateComponent(c.id, { notEntered: fields }));
+    };
+    mark('BW-160', ['kv40', 'kv100', 'density15']);
+    mark('BW-110', ['density15']);
+    await runWithBrightStockWithdrawn();
+    expect(screen.getByTestId('reference-not-predicted').textContent).toBe(
+      'Not predicted: BW-160 has ν40, ν100 and density not yet entered: the reference recipe is not predicted or costed, so no candidate is compared with its figures until the values are entered on Stocks.',
+    );
+    const cmp = screen.getByTestId('comparison');
+    expect(screen.queryByTestId('comparison-summary')).toBeNull();
+    for (const label of ['Cost per litre at 15 °C', 'Deposit propensity']) {
+      const row = within(cmp).getByText(label).closest('tr')!;
+      expect(row.children[1]!.textContent).toBe('—');
+    }
+    // The stocks to treat as withdrawn say which have values not entered.
+    expect(screen.getByLabelText('Treat BW-110 as withdrawn').closest('label')!.textContent).toMatch(/BW-110 .*\(values not entered\)$/);
+    expect(screen.getByLabelText('Treat BW-160 as withdrawn').closest('label')!.textContent).toMatch(/\(values not entered\)$/);
+  }, 60_000);
+});
