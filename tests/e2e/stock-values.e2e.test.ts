@@ -4,7 +4,10 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { launch, screenshot, type Session, stored, cellValue, editCell } from './support';
+import { execFileSync } from 'node:child_process';
+import { launch, screenshot, type Session, stored, cellValue, editCell, SCREEN_DIR } from './support';
+import { editSaved } from './seed';
+import { demoComponentId } from '../../src/state/demo';
 import { axeSerious } from './axe';
 
 describe('a stock whose values are not yet entered', () => {
@@ -66,6 +69,39 @@ describe('a stock whose values are not yet entered', () => {
     await page.goto(`${inject('baseURL')}#/explorer`);
     await page.getByRole('heading', { name: 'Substitute explorer' }).waitFor();
     await expect(page.getByTestId('unpriced').count()).resolves.toBe(0);
+  });
+
+  it('Blend sheet of a recipe holding such a stock: no prediction, no litres of it, on screen and on paper', async () => {
+    const { page } = s;
+    type Stored = {
+      library: { state: { components: { id: string; notEntered?: string[] }[] } };
+      recipes: { state: { sheets: Record<string, unknown> } };
+    };
+    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
+    await page.getByRole('heading', { name: 'Blend sheet', level: 2 }).waitFor();
+    // BW-160 (invented demo stock, 22.5 % of the demo VG 320) as if just added: its values not yet entered.
+    await editSaved<Stored>(page, ['library', 'recipes'], ({ library, recipes }) => {
+      library.state.components.find((c) => c.id === demoComponentId('BW-160'))!.notEntered = ['kv40', 'kv100', 'density15'];
+      recipes.state.sheets['demo-vg320'] = { lot: 'L-2026-0150', batchSize: '10000', batchUnit: 'kg', vessel: 'Kettle 2', instructions: null };
+    });
+    await page.goto('about:blank');
+    await page.goto(`${inject('baseURL')}#/blend-sheet/demo-vg320`);
+    await page.getByRole('table', { name: /Components, in charging order/ }).waitFor();
+    await expect(page.getByTestId('not-predicted').textContent()).resolves.toBe(
+      'Not predicted: BW-160 has ν40, ν100 and density not yet entered. Enter the values on Stocks.',
+    );
+    await expect(page.getByTestId('litres-not-given').textContent()).resolves.toMatch(/^Litres and volume % not given: BW-160 has density not yet entered/);
+    await screenshot(page, 'blend-sheet-values-not-entered');
+    const path = join(SCREEN_DIR, 'blend-sheet-values-not-entered.pdf');
+    await page.emulateMedia({ media: 'print' });
+    await page.pdf({ path, preferCSSPageSize: true, printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const text = execFileSync('pdftotext', [path, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+    expect(text).toContain('Not predicted: BW-160 has ν40, ν100 and density not yet entered. Enter the values on Stocks.');
+    expect(text).toContain('Litres and volume % not given: BW-160 has density not yet entered');
+    expect(text).toMatch(/10\D?000\.0 kg \(litres not given\)/);
+    expect(text).toContain('It uses a stock whose measured values are not yet entered: BW-160');
+    expect(text).not.toMatch(/NaN|lot spread|The predictions below use the current data/);
   });
 
   it('made no console errors and no off-host requests', () => {

@@ -699,7 +699,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                     ].join(', ')}`,
               )
               .join('; ')}
-            . The predictions below use the current data; review the recipe.
+            .{unentered.length > 0 ? ' Review the recipe.' : ' The predictions below use the current data; review the recipe.'}
           </p>
         )}
 
