@@ -433,6 +433,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   // A stock without its density: no litres of it, so no volume share and no litre total either.
   const litresKnown = !sheet || !sheet.rows.some((r) => noDensity.has(r.componentId));
   const litresNote = litresKnown ? null : litresNotGivenSentence(unentered);
+  // Its price per kg from a litre price needs its density; its cost is never counted (left out of costing).
+  const unenteredIds = new Set(unentered.map((c) => c.id));
+  const priceNeedsDensity = (componentId: string) => noDensity.has(componentId) && byId.get(componentId)?.price.basis === 'per-litre';
   const litreCell = (componentId: string, v: number | null) => (v === null || noDensity.has(componentId) ? '—' : fmt(v, qd));
   const batchText = sheet
     ? ((savedSheet ?? sheet).batchBasis === 'kg'
@@ -465,7 +468,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     if (!sheet || refuseUnsaved('exported')) return;
     const rows = blendSheetCsvRows(sheet, { includePrices: costing, heel: { kg: heelKg, litres: heelLitres, description: qcIn.heel.source } });
     const noLitres = new Set(sheet.rows.filter((r) => noDensity.has(r.componentId)).map((r) => r.code));
-    const text = toCsv(csvWithoutLitres(rows, noLitres));
+    const noPrice = new Set(sheet.rows.filter((r) => priceNeedsDensity(r.componentId)).map((r) => r.code));
+    const noCost = new Set(sheet.rows.filter((r) => unenteredIds.has(r.componentId)).map((r) => r.code));
+    const text = toCsv(csvWithoutLitres(rows, noLitres, { noPrice, noCost }));
     const name = csvFileName(recipe.name, recipe.revision, lot);
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);
@@ -785,8 +790,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                   <td className="bs-num">{fmt(r.runningKg + heelKg, qd)}</td>
                   {costing && (
                     <>
-                      <td className="bs-num">{r.pricePerKg === null ? '—' : fmt(r.pricePerKg, 3)}</td>
-                      <td className="bs-num">{r.lineCost === null ? '—' : fmt(r.lineCost, 2)}</td>
+                      <td className="bs-num">{r.pricePerKg === null || priceNeedsDensity(r.componentId) ? '—' : fmt(r.pricePerKg, 3)}</td>
+                      <td className="bs-num">{r.lineCost === null || unenteredIds.has(r.componentId) ? '—' : fmt(r.lineCost, 2)}</td>
                     </>
                   )}
                   <td className="bs-initials" />

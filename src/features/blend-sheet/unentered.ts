@@ -60,20 +60,35 @@ export function litreBatchRefusal(stocks: readonly Component[]): string | null {
 
 /**
  * The CSV records without a litre or volume figure that needs a density not entered: the litres
- * (15 °C and metering) of those stocks, every volume %, and the litre totals. Other cells unchanged.
+ * (15 °C and metering) of those stocks, every volume %, and the litre totals; on the costing copy,
+ * without the price per kg of a stock priced per litre without its density, nor the line cost of a
+ * stock left out of costing. Other cells unchanged.
  *
  * @param records - from `blendSheetCsvRows`
- * @param codes - codes of the stocks whose density is not entered (none → the records as given)
+ * @param codes - codes of the stocks whose density is not entered (none → no litre cell changed)
+ * @param costing - codes whose price per kg, and whose line cost, are left empty
  */
-export function csvWithoutLitres(records: readonly CsvRecord[], codes: ReadonlySet<string>): CsvRecord[] {
-  if (codes.size === 0) return [...records];
+export function csvWithoutLitres(
+  records: readonly CsvRecord[],
+  codes: ReadonlySet<string>,
+  costing: { noPrice?: ReadonlySet<string>; noCost?: ReadonlySet<string> } = {},
+): CsvRecord[] {
+  const noPrice = costing.noPrice ?? new Set<string>();
+  const noCost = costing.noCost ?? new Set<string>();
+  if (codes.size === 0 && noPrice.size === 0 && noCost.size === 0) return [...records];
   return records.map((rec) => {
     const out: CsvRecord = { ...rec };
     const code = String(rec.Code ?? '');
     const total = code === 'TOTAL' || code === 'TOTAL ADDED';
-    if ('Volume %' in out && code !== 'HEEL') out['Volume %'] = null;
-    if (total || codes.has(code)) {
-      for (const k of Object.keys(out)) if (k.startsWith('Litres at ')) out[k] = null;
+    if (codes.size > 0) {
+      if ('Volume %' in out && code !== 'HEEL') out['Volume %'] = null;
+      if (total || codes.has(code)) {
+        for (const k of Object.keys(out)) if (k.startsWith('Litres at ')) out[k] = null;
+      }
+    }
+    for (const k of Object.keys(out)) {
+      if (noPrice.has(code) && k.startsWith('Price per kg')) out[k] = null;
+      if (noCost.has(code) && k.startsWith('Line cost')) out[k] = null;
     }
     return out;
   });

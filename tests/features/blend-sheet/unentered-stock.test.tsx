@@ -145,3 +145,19 @@ describe('Blend sheet with a stock whose values are not yet entered', () => {
     expect(screen.getByTestId('not-predicted').textContent).toBe('Not predicted: BW-160 has ν40 not yet entered. Enter the value on Stocks.');
   });
 });
+
+describe('Blend sheet costing copy with a stock whose density is not yet entered', () => {
+  it('gives no price per kg converted from a litre price with the placeholder density, nor a line cost', () => {
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    // Invented price: 0.90 EUR per litre at 15 °C (per kg needs the density, not entered).
+    useLibrary.getState().updateComponent(c.id, { notEntered: ['density15'], price: { amount: 0.9, basis: 'per-litre', currency: 'EUR' } });
+    settingsActions.updateSettings({ baseCurrency: 'EUR', exchangeRates: [] });
+    render(<BlendSheetScreen />);
+    fireEvent.click(screen.getByLabelText('Costing copy'));
+    const row = rowOf('BW-160');
+    expect(row.children[header('Price/kg')]!.textContent).toBe('—');
+    expect(row.children[header('Cost')]!.textContent).toBe('—');
+    // a stock with its density keeps its price per kg
+    expect(rowOf('BW-190').children[header('Price/kg')]!.textContent).not.toBe('—');
+  });
+});
