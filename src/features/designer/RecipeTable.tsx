@@ -9,6 +9,14 @@ import { RelayText, type Relay } from '../../components/relay';
 import type { RebalanceMode } from './store';
 import { FractionInput, type ShareSource } from './FractionInput';
 
+/**
+ * A stock of the draft (above 0 %) whose density is not yet entered: volume shares and costs per litre
+ * (ρ_blend) would rest on its placeholder, so they read '—'.
+ */
+function densityPending(v: DraftView): boolean {
+  return v.lines.some((l) => l.massFraction > 0 && l.component !== null && notEnteredFields(l.component).includes('density15'));
+}
+
 /** A line of the recipe as the table lays it out (which stock; its shares come from the relay). */
 export interface TableLine {
   componentId: string;
@@ -88,7 +96,7 @@ export const RecipeTable = memo(function RecipeTable(p: RecipeTableProps) {
   const totals = useMemo(
     () => ({
       mass: (v: DraftView) => fmt.num(v.total * 100, 2),
-      volume: (v: DraftView) => fmt.num(v.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2),
+      volume: (v: DraftView) => (densityPending(v) ? '—' : fmt.num(v.lines.reduce((s, l) => s + l.volumeFraction, 0) * 100, 2)),
       cost: (v: DraftView) => {
         const t = totalCostOf(v);
         return t === null ? '—' : fmt.num(t, 3);
@@ -191,11 +199,11 @@ const RecipeRow = memo(function RecipeRow({
       },
       volume: (v: DraftView) => {
         const l = lineOf(v, id);
-        return l ? fmt.num(l.volumeFraction * 100, 2) : '';
+        return !l ? '' : densityPending(v) ? '—' : fmt.num(l.volumeFraction * 100, 2);
       },
       cost: (v: DraftView) => {
         const l = lineOf(v, id);
-        return !l || l.costPerLitre === null ? '—' : fmt.num(l.costPerLitre, 3);
+        return !l || l.costPerLitre === null || densityPending(v) ? '—' : fmt.num(l.costPerLitre, 3);
       },
     }),
     [fmt, id],

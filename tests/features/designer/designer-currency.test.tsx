@@ -87,6 +87,12 @@ describe('designer with a stock whose values are not yet entered (s25)', () => {
     const line = screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]') as HTMLElement;
     expect(line.querySelector('[data-testid="line-values-pending"]')!.textContent).toBe(' ν40, ν100 and density not entered');
     expect(costCell('BW-160')).toBe('—');
+    // Its density is not entered: no volume % (every line's needs it) and no cost per litre (ρ_blend) from the placeholder.
+    for (const code of ['BW-160', 'BW-190']) {
+      const cells = [...(screen.getByTestId('recipe-lines').querySelector(`tr[data-component="${code}"]`) as HTMLElement).querySelectorAll('td.num')];
+      expect(cells[1]!.textContent).toBe('—');
+    }
+    expect(costCell('BW-190')).toBe('—');
     // The stocks offered for adding say which have values not yet entered (BW-161 here, invented demo).
     const other = useLibrary.getState().components.find((x) => x.code === 'BW-161')!;
     act(() => {
