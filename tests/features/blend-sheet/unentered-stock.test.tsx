@@ -128,6 +128,8 @@ describe('Blend sheet with a stock whose values are not yet entered', () => {
   it('works out no adjustment to lots and no correction with its placeholders', () => {
     notEntered(['kv40', 'kv100', 'density15']);
     render(<BlendSheetScreen />);
+    // its lot fields name no library value from the placeholders (40, 6.3, 0.86)
+    expect(screen.getAllByText(/library: not entered/).length).toBe(3);
     enter(/^Lot ν40 of BW-190/, '470');
     expect(screen.getByText(/^Not predicted: BW-160 has ν40, ν100 and density not yet entered: the recipe is not adjusted/)).toBeTruthy();
     expect(screen.queryByTestId('adjusted-caption')).toBeNull();
