@@ -342,7 +342,9 @@ function batchOf(Q: Prepared, masses: Float64Array): { massKg: number; kv40: num
     s100 += cm * P.x100[i]!;
   }
   const kv40 = P.coords.toKv(s40 / sc);
-  const kv100 = P.coords.toKv(s100 / sc);
+  // Every part has ν100 ≥ 2.0 (checked in prepare), so the blend has too; the round trip through the
+  // blending coordinate can return 1.9999999999999998 for parts at exactly 2.0, where D2270 has no VI.
+  const kv100 = Math.max(VI_MIN_KV100, P.coords.toKv(s100 / sc));
   return { massKg: total, kv40, kv100, vi: viscosityIndex(kv40, kv100) };
 }
 

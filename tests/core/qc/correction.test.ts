@@ -79,6 +79,23 @@ describe('batch correction — worked cases', () => {
     expectClose(r.addedCost, 1.6 * m + 6 * k * m, 1e-2);
   });
 
+  it('a batch whose ν100 is exactly 2.0 mm²/s (the D2270 limit, accepted input) is answered, not refused by the VI (property hunt, s25)', () => {
+    // Before: the round trip through the Refutas VBN gave ν100 = 1.9999999999999998 and the VI threw.
+    // Invented light batch, in its band already (common practice (no source): nothing to add).
+    const r = correctBatchPlain({
+      vessel: { massKg: 50, kv40: 10, kv100: 2, density15: 0.83, anilinePoint: 100 },
+      components: [stocks.mn],
+      targetKv40: 10,
+      tolerancePct: 5,
+      objective: 'mass',
+    });
+    expect(r.status).toBe('optimal');
+    if (r.status !== 'optimal') return;
+    expect(r.addedKg).toBe(0);
+    expect(r.kv100).toBe(2);
+    expect(Number.isFinite(r.vi)).toBe(true);
+  });
+
   it('a batch already in band needs nothing', () => {
     const c = { ...thin, vessel: { ...thin.vessel, kv40: 318 } };
     const r = correctBatchPlain(c);
