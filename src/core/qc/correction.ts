@@ -369,7 +369,29 @@ function diagnose(Q: Prepared): string {
   const free = solveMasses(Q, { room: false, stock: false, vi: false }, 'mass');
   if (free === 'infeasible' || free === 'failed') {
     const stocks = c.components.map((k) => k).filter((_, q) => q + 1 !== Q.additive);
-    if (v.kv40 < P.targets.kv40Min) {
+    const below = v.kv40 < P.targets.kv40Min;
+    const pkg = Q.additive > 0 && Q.r > 0 && stocks.length > 0 ? Q.additive : -1;
+    if (pkg > 0) {
+      // Every addition carries the additive at r (module notes), so an addition of stock i is the mix
+      // (1 − r)·i + r·additive: X = (cᵢ(1 − r)Xᵢ + cₐrXₐ)/(cᵢ(1 − r) + cₐr). The batch can go no further
+      // than the most extreme such mix; when the stock alone would reach the band, the additive is why.
+      const mixX = (q: number): number => {
+        const i = q + 1;
+        const wi = P.c[i]! * (1 - Q.r);
+        const wa = P.c[pkg]! * Q.r;
+        return (wi * P.x40[i]! + wa * P.x40[pkg]!) / (wi + wa);
+      };
+      const qs = stocks.map((k) => c.components.indexOf(k));
+      const best = qs.reduce((a, b) => (below ? mixX(b) > mixX(a) : mixX(b) < mixX(a)) ? b : a, qs[0]!);
+      const k = c.components[best]!;
+      const edge = below ? P.targets.kv40Min : P.targets.kv40Max;
+      const mixKv = P.coords.toKv(mixX(best));
+      if ((below ? k.kv40 >= edge : k.kv40 <= edge) && (below ? mixKv < edge : mixKv > edge)) {
+        const a = c.components[pkg - 1]!;
+        return `The batch is at ${fmtKv(v.kv40)} mm²/s, ${below ? 'below' : 'above'} the band ${band}, and no addition can ${below ? 'raise' : 'lower'} it that far: every addition carries the additive package ${a.id} (${fmtKv(a.kv40)} mm²/s) at the treat rate of ${words.pct(Q.r, 2)}, so the ${below ? 'heaviest' : 'thinnest'} addition, ${k.id} (${fmtKv(k.kv40)} mm²/s) with ${a.id}, is ${fmtKv(mixKv)} mm²/s. Add a ${below ? 'heavier' : 'thinner'} stock to the stocks on hand.`;
+      }
+    }
+    if (below) {
       const heaviest = stocks.reduce((a, b) => (b.kv40 > a.kv40 ? b : a), stocks[0] ?? c.components[0]!);
       return `The batch is at ${fmtKv(v.kv40)} mm²/s, below the band ${band}, and no stock on hand is heavy enough to raise it: the heaviest, ${heaviest.id}, has ${fmtKv(heaviest.kv40)} mm²/s. Add a stock heavier than ${fmtKv(P.targets.kv40Min)} mm²/s to the stocks on hand.`;
     }

@@ -169,6 +169,20 @@ describe('batch correction — impossible corrections say why in numbers', () =>
     expect(r.reason).toMatch(/the heaviest, BW-240, has 110 mm²\/s/);
   });
 
+  it('a stock heavy enough that the additive top-up keeps out of the band: the additive is named as the reason, not the stock (property hunt, s25)', () => {
+    // Every addition carries EP at 10 % (the vessel's treat rate), so the heaviest addition is the mix
+    // 0.9·BW-310 + 0.1·EP. Refutas on mass fractions (check-values §3), by the core's VBN functions:
+    const heavy = { ...stocks.hv, id: 'BW-310', kv40: 310, kv100: 24 };
+    const mix = kvFromRefutasVbn(0.9 * refutasVbn(310) + 0.1 * refutasVbn(250));
+    expect(mix).toBeLessThan(304); // the mix stays below the band although BW-310 alone is above 304
+    const r = correctBatchPlain({ ...thin, components: [heavy, stocks.hn, stocks.ep], additive: { id: 'EP', massFraction: 0.1 } });
+    if (r.status !== 'infeasible') throw new Error('expected infeasible');
+    // Before: "no stock on hand is heavy enough …: the heaviest, BW-310, has 310 mm²/s. Add a stock heavier than 304 mm²/s"
+    expect(r.reason).not.toMatch(/no stock on hand is heavy enough/);
+    expect(r.reason).toMatch(/every addition carries the additive package EP \(250 mm²\/s\) at the treat rate of 10\.00 %/);
+    expect(r.reason).toContain(`the heaviest addition, BW-310 (310 mm²/s) with EP, is ${Math.round(mix)} mm²/s`);
+  });
+
   it('the vessel is too full', () => {
     const r = correctBatchPlain({ ...thin, maxFinalMassKg: 10_500 });
     if (r.status !== 'infeasible') throw new Error('expected infeasible');
