@@ -363,6 +363,8 @@ function diagnose(Q: Prepared): string {
   const { P, c } = Q;
   const words = displayWords({ thousandsGrouping: true, ...c.display });
   const { kg, kv: fmtKv } = words;
+  /** A limit in kg, rounded down (never more room or stock than there is; `kg` rounds a need up). */
+  const kgLimit = (m: number): string => `${words.num(Math.max(0, Math.floor(m + 1e-9)), 0)} kg`;
   const band = `${fmtKv(P.targets.kv40Min)}–${fmtKv(P.targets.kv40Max)} mm²/s`;
   const v = c.vessel;
   // 1. No amount of the stocks on hand reaches the band.
@@ -407,8 +409,8 @@ function diagnose(Q: Prepared): string {
     if (need > room + 1e-6) {
       reasons.push(
         c.finalMassKg !== undefined && need > room
-          ? `it needs at least ${kg(need)} of additions (${listOf(Q, noRoom.masses, kg)}); a batch of ${kg(c.finalMassKg)} on ${kg(v.massKg)} in the vessel leaves room for only ${kg(room)}`
-          : `it needs ${listOf(Q, noRoom.masses, kg)} (${kg(need)} in all); the vessel takes only ${kg(room)} more`,
+          ? `it needs at least ${kg(need)} of additions (${listOf(Q, noRoom.masses, kg)}); a batch of ${kg(c.finalMassKg)} on ${kg(v.massKg)} in the vessel leaves room for only ${kgLimit(room)}`
+          : `it needs ${listOf(Q, noRoom.masses, kg)} (${kg(need)} in all); the vessel takes only ${kgLimit(room)} more`,
       );
     } else if (c.finalMassKg !== undefined) {
       reasons.push(`with exactly ${kg(room)} of additions (a batch of ${kg(c.finalMassKg)}) the stocks on hand cannot land in the band`);
@@ -421,7 +423,7 @@ function diagnose(Q: Prepared): string {
       .map((k, q) => ({ k, m: noStock.masses[q + 1]! }))
       .filter(({ k, m }) => k.maxAddKg !== undefined && m > k.maxAddKg + 1e-6);
     if (short.length > 0) {
-      reasons.push(short.map(({ k, m }) => `it needs ${kg(m)} of ${k.id}; only ${kg(k.maxAddKg!)} is on hand`).join('; '));
+      reasons.push(short.map(({ k, m }) => `it needs ${kg(m)} of ${k.id}; only ${kgLimit(k.maxAddKg!)} is on hand`).join('; '));
     }
   }
   // 4. The minimum VI.
@@ -433,7 +435,21 @@ function diagnose(Q: Prepared): string {
     }
   }
   if (reasons.length === 0) {
-    reasons.push('the vessel\'s room, the stock on hand and the band cannot all be met together');
+    // Lifting any one limit alone does not help: name every limit in force, in numbers, so the user
+    // sees which ones must change together (a full vessel and a minimum VI, say).
+    const limits: string[] = [];
+    // (Each of room, stock and VI lifted alone was tried above; with one of them only, lifting it is
+    // step 1, so at least two are in force here.)
+    if (c.finalMassKg !== undefined) limits.push(`the batch of exactly ${kg(c.finalMassKg)} (room for ${kgLimit(room)} of additions)`);
+    else if (c.maxFinalMassKg !== undefined) limits.push(`the vessel's room (${kgLimit(room)} more)`);
+    const onHand = c.components.filter((k) => k.maxAddKg !== undefined).map((k) => `${kgLimit(k.maxAddKg!)} of ${k.id}`);
+    if (onHand.length > 0) limits.push(`the stock on hand (${onHand.join(', ')})`);
+    if (c.minVi !== undefined) limits.push(`the minimum VI of ${words.say(c.minVi)}`);
+    reasons.push(
+      limits.length > 1
+        ? `no one of its limits alone stands in the way, so more than one must change: ${limits.slice(0, -1).join(', ')} and ${limits[limits.length - 1]}`
+        : `the vessel's room, the stock on hand and the band cannot all be met together${limits.length === 1 ? ` (${limits[0]})` : ''}`,
+    );
   }
   return `No addition brings the batch (${kg(v.massKg)} at ${fmtKv(v.kv40)} mm²/s) into ${band}: ${reasons.join('; and ')}.`;
 }

@@ -207,6 +207,14 @@ describe('batch correction — impossible corrections say why in numbers', () =>
     expect(r.reason).toMatch(/leave the VI below 110 \(\d+\.\d with the least addition/);
   });
 
+  it('two limits in the way together: the reason names each in numbers (property hunt, s25)', () => {
+    // A full vessel (no room) and a VI no addition holds: lifting either alone does not help.
+    const r = correctBatchPlain({ ...thin, components: [stocks.hv, stocks.ep], maxFinalMassKg: 10_000, minVi: 110 });
+    if (r.status !== 'infeasible') throw new Error('expected infeasible');
+    // Before: "… the vessel's room, the stock on hand and the band cannot all be met together." (no numbers for the why)
+    expect(r.reason).toMatch(/more than one must change: the vessel's room \(0 kg more\) and the minimum VI of 110\.$/);
+  });
+
   it('refuses impossible input with named errors', () => {
     expect(() => correctBatchPlain({ ...thin, vessel: { ...thin.vessel, massKg: 0 } })).toThrow(/vessel.massKg = 0/);
     expect(() => correctBatchPlain({ ...thin, vessel: { ...thin.vessel, kv100: 300 } })).toThrow(ViscosityOrderError);
