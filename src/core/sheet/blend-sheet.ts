@@ -74,13 +74,16 @@ export function quantityDecimals(total: number): number {
  * @param values - the unrounded values, each ≥ 0, summing to `total` (within floating-point error)
  * @param total - their exact total, ≥ 0
  * @param decimals - decimals to keep, integer 0–6
+ * @param targetUnits - the integer units the result must sum to, when not round(total × 10^decimals):
+ *   at most one unit away from it (a column printed under a heel rounded on its own, so that heel +
+ *   column = the batch as printed); default round(total × 10^decimals)
  * @returns integer units (value × 10^decimals) for each input, in input order, summing to
- *   round(total × 10^decimals)
- * @throws BlendbenchInputError if a value is negative or not finite, or the values do not add up to
- *   `total` within 1e-6 relative
+ *   `targetUnits` (default round(total × 10^decimals))
+ * @throws BlendbenchInputError if a value is negative or not finite, the values do not add up to
+ *   `total` within 1e-6 relative, or `targetUnits` is not an integer within one unit of round(total × 10^decimals)
  * @example largestRemainderUnits([33.333, 33.333, 33.334], 100, 1) // → [333, 333, 334]
  */
-export function largestRemainderUnits(values: readonly number[], total: number, decimals: number): number[] {
+export function largestRemainderUnits(values: readonly number[], total: number, decimals: number, targetUnits?: number): number[] {
   const fn = 'largestRemainderUnits';
   assertFinite(fn, 'total', total);
   if (!Number.isInteger(decimals) || decimals < 0 || decimals > 6) {
@@ -96,7 +99,11 @@ export function largestRemainderUnits(values: readonly number[], total: number, 
     throw new BlendbenchInputError('values', sum, `${fn}: values sum to ${sum}, not to total = ${total}`);
   }
   const scale = 10 ** decimals;
-  const target = Math.round(total * scale);
+  const rounded = Math.round(total * scale);
+  if (targetUnits !== undefined && !(Number.isInteger(targetUnits) && Math.abs(targetUnits - rounded) <= 1 && targetUnits >= 0)) {
+    throw new BlendbenchInputError('targetUnits', targetUnits, `${fn}: targetUnits = ${targetUnits}; must be a whole number of units within one of ${rounded}`);
+  }
+  const target = targetUnits ?? rounded;
   // A tiny epsilon keeps 1234.9999999997 (a float image of 1235) from flooring to 1234.
   const scaled = values.map((v) => v * scale);
   const floors = scaled.map((s) => Math.floor(s + 1e-9));
@@ -105,8 +112,9 @@ export function largestRemainderUnits(values: readonly number[], total: number, 
     .map((s, i) => ({ i, rem: s - floors[i]!, s }))
     .sort((a, b) => b.rem - a.rem || b.s - a.s || a.i - b.i);
   const units = [...floors];
-  // missing lies in [0, n] in exact arithmetic; guard both ends against float noise.
-  for (let k = 0; missing > 0 && k < order.length; k++, missing--) units[order[k]!.i]! += 1;
+  // missing lies in [0, n] in exact arithmetic (in [−1, n + 1] with a target one unit off); guard
+  // both ends against float noise. A second pass over the order takes a last unit beyond n.
+  for (let k = 0; missing > 0 && order.length > 0; k = (k + 1) % order.length, missing--) units[order[k]!.i]! += 1;
   for (let k = order.length - 1; missing < 0 && k >= 0; k--) {
     const i = order[k]!.i;
     if (units[i]! > 0) {
@@ -253,7 +261,16 @@ export interface BlendSheet {
   metering: { tempC: number; totalLitres: number; totalLitresExact: number } | null;
   /** Blend density at 15 °C, ideal mixing (1/ρ = Σ wᵢ/ρᵢ) [kg/L]. */
   density15: number;
-  /** Decimals of the kg and litre columns. */
+  /**
+   * The heel as printed (rounded to `quantityDecimals`), or null without one. With a heel the kg and
+   * litre columns are rounded so that heel + column total = the whole batch (heel + additions) rounded:
+   * an operator who adds the heel line to the column finds the batch ordered, never one unit off.
+   */
+  heel: { kg: number; litres: number; kgExact: number; litresExact: number } | null;
+  /** The whole batch as printed, heel included [kg, L at 15 °C]: `totalKg`/`totalLitres` plus the heel's printed values. */
+  batchKg: number;
+  batchLitres: number;
+  /** Decimals of the kg and litre columns (chosen from the whole batch, heel included). */
   quantityDecimals: number;
   /** Decimals of the mass % and volume % columns. */
   percentDecimals: number;
@@ -271,6 +288,12 @@ export interface BlendSheetOptions {
   meteringTempC?: number;
   /** Delivery temperature [°C] for the cost per delivered litre (ASTM D1250-80 Table 54D); 15 °C by default. */
   deliveryTempC?: number;
+  /**
+   * Oil already in the vessel (a heel): its mass [kg] and volume at 15 °C [L], ≥ 0. The table holds the
+   * additions only (the batch size given is theirs); the heel is rounded on its own and the kg and litre
+   * columns so that heel + column = the whole batch as printed (see {@link BlendSheet.heel}).
+   */
+  heel?: { kg: number; litres: number };
 }
 
 /**
@@ -366,20 +389,35 @@ export function buildBlendSheet(
   });
 
   const basis: 'kg' | 'litres' = 'kg' in batch ? 'kg' : 'litres';
-  const qd = options.quantityDecimals ?? quantityDecimals(basis === 'kg' ? q.totalKg : q.totalLitres);
+  const heel = options.heel ?? null;
+  if (heel) {
+    for (const [k, v] of [['kg', heel.kg], ['litres', heel.litres]] as const) {
+      assertFinite(fn, `options.heel.${k}`, v);
+      if (v < 0) throw new BlendbenchInputError(`options.heel.${k}`, v, `${fn}: options.heel.${k} = ${v}; a heel cannot be negative`);
+    }
+  }
+  const heelKgExact = heel?.kg ?? 0;
+  const heelLitresExact = heel?.litres ?? 0;
+  const qd = options.quantityDecimals ?? quantityDecimals(basis === 'kg' ? q.totalKg + heelKgExact : q.totalLitres + heelLitresExact);
   const pd = options.percentDecimals ?? 2;
+  const qs = 10 ** qd;
+  // With a heel, the heel is rounded on its own and the column takes what is left of the whole batch
+  // rounded (one unit at most from its own rounding), so heel + column = the batch as printed.
+  const heelKgUnits = Math.round(heelKgExact * qs);
+  const heelLitreUnits = Math.round(heelLitresExact * qs);
+  const columnUnits = (column: number, inHeel: number, heelUnits: number): number | undefined =>
+    heel ? Math.max(0, Math.round((column + inHeel) * qs) - heelUnits) : undefined;
 
   const kgRaw = idx.map((i) => q.lines[i]!.kg);
   const lRaw = idx.map((i) => q.lines[i]!.litres);
-  const kgUnits = largestRemainderUnits(kgRaw, q.totalKg, qd);
-  const lUnits = largestRemainderUnits(lRaw, q.totalLitres, qd);
+  const kgUnits = largestRemainderUnits(kgRaw, q.totalKg, qd, columnUnits(q.totalKg, heelKgExact, heelKgUnits));
+  const lUnits = largestRemainderUnits(lRaw, q.totalLitres, qd, columnUnits(q.totalLitres, heelLitresExact, heelLitreUnits));
   const mUnits =
     q.totalLitresAtMetering === null
       ? null
       : largestRemainderUnits(idx.map((i) => q.lines[i]!.litresAtMetering!), q.totalLitresAtMetering, qd);
   const massPctUnits = largestRemainderUnits(kgRaw.map((k) => (100 * k) / q.totalKg), 100, pd);
   const volPctUnits = largestRemainderUnits(lRaw.map((l) => (100 * l) / q.totalLitres), 100, pd);
-  const qs = 10 ** qd;
   const ps = 10 ** pd;
 
   let runKg = 0;
@@ -423,6 +461,9 @@ export function buildBlendSheet(
     totalLitresExact: q.totalLitres,
     totalKg: runKg / qs,
     totalLitres: runL / qs,
+    heel: heel ? { kg: heelKgUnits / qs, litres: heelLitreUnits / qs, kgExact: heelKgExact, litresExact: heelLitresExact } : null,
+    batchKg: (runKg + heelKgUnits) / qs,
+    batchLitres: (runL + heelLitreUnits) / qs,
     metering:
       mUnits === null || options.meteringTempC === undefined
         ? null
@@ -879,7 +920,9 @@ function meteringLabel(tempC: number): string {
  * With a heel (oil already in the vessel, `heel.kg` > 0) the sheet holds the additions only: the heel
  * is the first record (charge order 0, code HEEL, no shares), every running total counts it, and the
  * totals row is "TOTAL ADDED" (kg and litres of the additions; running total = heel + additions = the
- * batch), as on the printed sheet.
+ * batch), as on the printed sheet. The heel's kg and litres are those the sheet printed
+ * ({@link BlendSheet.heel}, when it was built with the heel), so heel + additions = the batch as printed;
+ * for a sheet built without it the heel is rounded on its own, and the running totals count it as printed.
  *
  * @param sheet - the sheet from {@link buildBlendSheet}
  * @param options - `includePrices`: add price per kg and line cost columns (costing copy only);
@@ -900,7 +943,16 @@ export function blendSheetCsvRows(
   // the 15 °C column even when the plant meters at 15 °C.
   const meterKey = sheet.metering ? `Litres at ${meteringLabel(sheet.metering.tempC)} °C (metering)` : null;
   const costKey = `Line cost${currency ? ` (${currency})` : ''}`;
-  const heel = options.heel && options.heel.kg > 0 ? options.heel : null;
+  const given = options.heel && options.heel.kg > 0 ? options.heel : null;
+  // The heel as printed: the sheet's own rounding when it was built with the heel, else rounded here.
+  const qs = 10 ** qd;
+  const heel = given
+    ? {
+        description: given.description,
+        kg: sheet.heel ? sheet.heel.kg : Math.round(given.kg * qs) / qs,
+        litres: sheet.heel ? sheet.heel.litres : Math.round(given.litres * qs) / qs,
+      }
+    : null;
   const heelKg = heel?.kg ?? 0;
   const records: CsvRecord[] = sheet.rows.map((r) => {
     const rec: CsvRecord = {

@@ -447,8 +447,8 @@ describe('blendSheetCsvRows and cautions', () => {
     const rows = blendSheetCsvRows(s, { heel: { kg: 250, litres: 250 / 0.88, description: 'previous batch, lot 2291' } });
     expect(rows[0]).toMatchObject({ 'Charge order': 0, Code: 'HEEL', Category: 'in vessel', 'Mass %': null, kg: { value: 250, decimals: 1 } });
     expect(rows[0]!.Name).toBe('Heel already in the vessel (previous batch, lot 2291)');
-    // 250 / 0.88 = 284.09 L at 15 °C, by hand
-    expect((rows[0]!['Litres at 15 °C'] as { value: number }).value).toBeCloseTo(284.0909, 3);
+    // 250 / 0.88 = 284.09 L at 15 °C, by hand; carried as printed, to the sheet's 0.1 L
+    expect(rows[0]!['Litres at 15 °C']).toEqual({ value: 284.1, decimals: 1 });
     expect(rows[0]!['Running total kg']).toEqual({ value: 250, decimals: 1 });
     // heel 250 + b 300 (charged first, heaviest) = 550, by hand
     expect(rows[1]).toMatchObject({ Code: 'B', 'Running total kg': { value: 550, decimals: 1 } });
@@ -456,6 +456,32 @@ describe('blendSheetCsvRows and cautions', () => {
     expect(total).toMatchObject({ Code: 'TOTAL ADDED', kg: { value: 750, decimals: 1 }, 'Running total kg': { value: 1000, decimals: 1 } });
     // without a heel nothing changes
     expect(blendSheetCsvRows(s, { heel: { kg: 0, litres: 0, description: '' } })).toEqual(blendSheetCsvRows(s));
+  });
+
+  it('with a heel, the heel line + the additions = the batch ordered as printed, even when the heel sits on a rounding tie (property hunt, s25)', () => {
+    const lib = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1.0)];
+    const r = recipe([['a', 0.6], ['b', 0.4]]);
+    // 150 000 kg ordered on a 2000.5 kg heel (whole kg printed from 100 000 kg): hand arithmetic —
+    // heel 2000.5 → 2001, so the additions print 147 999 (0.6/0.4 of 147 999.5: 88 799.7 → 88 799, 59 199.8 → 59 200).
+    // Before: additions 148 000 and a batch of 150 001 kg (heel 2001 + 148 000), one more than ordered.
+    const big = buildBlendSheet(lib, r, { kg: 150_000 - 2000.5 }, { heel: { kg: 2000.5, litres: 2000.5 / 0.88 } });
+    expect(big.quantityDecimals).toBe(0);
+    expect(big.heel).toMatchObject({ kg: 2001, kgExact: 2000.5 });
+    expect(big.totalKg).toBe(147_999);
+    expect(big.rows.map((x) => x.kg)).toEqual([59_200, 88_799]);
+    expect(big.batchKg).toBe(150_000);
+    // 10 000.0 kg on a 2000.25 kg heel: heel 2000.3, additions 7999.7 (before 7999.8: 10 000.1 kg in all)
+    const s = buildBlendSheet(lib, r, { kg: 10_000 - 2000.25 }, { heel: { kg: 2000.25, litres: 2000.25 / 0.88 } });
+    expect(s.heel!.kg).toBe(2000.3);
+    expect(s.totalKg).toBe(7999.7);
+    expect(s.batchKg).toBe(10_000);
+    // litres: 2000.25 / 0.88 = 2273.01 L → 2273.0; the column takes the rest of the whole batch's litres
+    expect(s.heel!.litres).toBe(2273);
+    expect(Math.round((s.heel!.litres + s.totalLitres) * 10)).toBe(Math.round(s.batchLitres * 10));
+    const csv = blendSheetCsvRows(s, { heel: { kg: 2000.25, litres: 2000.25 / 0.88, description: '' } });
+    expect(csv[0]!.kg).toEqual({ value: 2000.3, decimals: 1 });
+    expect((csv.at(-1)!['Running total kg'] as { value: number }).value).toBeCloseTo(10_000, 9);
+    expect(() => buildBlendSheet(lib, r, { kg: 100 }, { heel: { kg: -1, litres: 0 } })).toThrow(BlendbenchInputError);
   });
 
   it('says laboratory confirmation is required and defers to SDS and site procedures', () => {
