@@ -26,7 +26,8 @@ const ABSOLUTE_ZERO_F = -459.67;
  */
 export function cToF(tC: number): number {
   assertAtOrAbove('cToF', 'tC', tC, ABSOLUTE_ZERO_C, '°C');
-  return math.unit(tC, 'degC').toNumber('degF');
+  // Kept at absolute zero or above: the factors' rounding must not turn a valid input into an invalid one.
+  return Math.max(ABSOLUTE_ZERO_F, math.unit(tC, 'degC').toNumber('degF'));
 }
 
 /**
@@ -39,7 +40,8 @@ export function cToF(tC: number): number {
  */
 export function fToC(tF: number): number {
   assertAtOrAbove('fToC', 'tF', tF, ABSOLUTE_ZERO_F, '°F');
-  return math.unit(tF, 'degF').toNumber('degC');
+  // −459.67 °F came out as −273.15000000000003 °C, below absolute zero, refused by the next conversion.
+  return Math.max(ABSOLUTE_ZERO_C, math.unit(tF, 'degF').toNumber('degC'));
 }
 
 /**
@@ -52,7 +54,7 @@ export function fToC(tF: number): number {
  */
 export function cToK(tC: number): number {
   assertAtOrAbove('cToK', 'tC', tC, ABSOLUTE_ZERO_C, '°C');
-  return math.unit(tC, 'degC').toNumber('K');
+  return Math.max(0, math.unit(tC, 'degC').toNumber('K'));
 }
 
 /**
