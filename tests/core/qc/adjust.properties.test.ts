@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { adjustRecipe, adjustRecipeToVolume, type AdjustInput, type AdjustResult, type AdjustStock } from '../../../src/core/qc/adjust';
 import { BlendbenchInputError } from '../../../src/core/errors';
+import { blendCoordinates } from '../../../src/core/solver/coordinates';
 import { isClose } from '../../helpers/tolerance';
 
 const NUM_RUNS = Number(process.env.PROP_RUNS ?? 300);
@@ -165,6 +166,46 @@ describe('adjustRecipe — properties over random lots, heels and aims', () => {
         expect((err as BlendbenchInputError).field).toBe('heel.massKg');
       }),
       { seed: 25_003, numRuns: 100 },
+    );
+  });
+});
+
+describe('adjustRecipe — nothing to adjust leaves the saved recipe', () => {
+  it('lots at the library values, the aim the saved recipe’s own ν40 and a heel of the same batch: the additions are the saved shares', () => {
+    fc.assert(
+      fc.property(situationArb, fc.double({ min: 0.001, max: 0.9, noNaN: true }), (s, share) => {
+        const input = inputOf({ ...s, heel: null });
+        const co = blendCoordinates(input.method ?? 'refutas');
+        // the saved recipe's own ν40 (and ν100) by the mixing rule: Σ cᵢwᵢXᵢ / Σ cᵢwᵢ
+        const blend = (at100: boolean) => {
+          let sc = 0;
+          let sx = 0;
+          for (const k of input.stocks) {
+            const c = co.massBasis ? 1 : 1 / k.density15;
+            sc += c * k.savedFraction;
+            sx += c * k.savedFraction * co.toX(at100 ? k.kv100 : k.kv40);
+          }
+          return co.toKv(sx / sc);
+        };
+        const rho = 1 / input.stocks.reduce((t, k) => t + k.savedFraction / k.density15, 0);
+        const aim = blend(false);
+        const heel = {
+          massKg: share * input.batchKg,
+          kv40: aim,
+          kv100: blend(true),
+          density15: rho,
+          additiveFraction: input.additive?.massFraction ?? 0,
+        };
+        const r = adjustRecipe({ ...input, aimKv40: aim, heel });
+        expect(r.status, r.status === 'infeasible' ? r.reason : '').toBe('optimal');
+        if (r.status !== 'optimal') return;
+        for (const k of input.stocks) {
+          const want = k.savedFraction * (input.batchKg - heel.massKg);
+          expect(Math.abs(r.addKg[k.id]! - want), `${k.id}: ${r.addKg[k.id]} kg, saved share gives ${want}`).toBeLessThanOrEqual(1e-6 * input.batchKg);
+        }
+        expect(r.changePct).toBeLessThanOrEqual(1e-4);
+      }),
+      { seed: 25_005, numRuns: NUM_RUNS },
     );
   });
 });
