@@ -6,7 +6,8 @@
  * ## Formulation (a linear program in fractions of the batch mass M)
  * Unknowns fᵢ ≥ 0, the share of the batch added as stock i (the recipe's stocks only); the heel is
  * fixed at f_h = H/M (H its mass, 0 without a heel). With the mixing rule's coordinates
- * (Refutas: X = VBN, cᵢ = 1; ASTM D7152: cᵢ = 1/ρᵢ), all homogeneous and exact:
+ * (Refutas: X = VBN, cᵢ = 1; ASTM D7152: cᵢ = 1/ρᵢ; its Wright form: cᵢ = 1/(ρᵢBᵢ), Bᵢ the slope of the oil's
+ * own D341 line — `solver/coordinates.ts` basisWeight), all homogeneous and exact:
  *
  *   batch mass       Σ fᵢ = 1 − f_h
  *   at the aim       Σ cᵢfᵢ(Xᵢ − X_aim) + c_h·f_h·(X_h − X_aim) = 0
@@ -166,10 +167,11 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
   if (free < -1e-12) {
     return { status: 'infeasible', reason: `The heel and the additive leave no room for base stocks in a ${Math.round(M)} kg batch.`, reachable: null };
   }
-  const c = stocks.map((s) => (co.massBasis ? 1 : 1 / s.density15));
+  // The rule's basis weights: 1 (Refutas), 1/ρ (ASTM D7152), 1/(ρ·B) (D7152 Wright: B of each oil's own line).
+  const c = stocks.map((s) => co.basisWeight(s.kv40, s.kv100, s.density15));
   const x = stocks.map((s) => co.toX(s.kv40));
   const xAim = co.toX(input.aimKv40);
-  const ch = heel ? (co.massBasis ? 1 : 1 / heel.density15) : 0;
+  const ch = heel ? co.basisWeight(heel.kv40, heel.kv100, heel.density15) : 0;
   const xh = heel ? co.toX(heel.kv40) : 0;
   // Saved shares of the non-additive stocks, renormalised over them.
   const baseSum = stocks.reduce((s, k, i) => (i === a ? s : s + k.savedFraction), 0);

@@ -39,7 +39,7 @@ const situationArb = fc.record({
     }),
     { nil: null },
   ),
-  method: fc.constantFrom('refutas' as const, 'astm-d7152' as const),
+  method: fc.constantFrom('refutas' as const, 'astm-d7152' as const, 'd7152-wright' as const),
 });
 
 type Situation = typeof situationArb extends fc.Arbitrary<infer T> ? T : never;
@@ -90,8 +90,20 @@ function checkOptimal(input: AdjustInput, r: Extract<AdjustResult, { status: 'op
   // heel + additions = the batch (the LP's rounding: about 1e-9 of the batch)
   expect(isClose(heelKg + added, M, 1e-7), `heel ${heelKg} + additions ${added} ≠ batch ${M}`).toBe(true);
   expect(isClose(r.batch.massKg, M, 1e-12)).toBe(true);
-  // at the aim ν40 (an equality row of the LP)
+  // at the aim ν40 (an equality row of the LP), and so by the mixing rule recomputed here:
+  // X = Σ cᵢmᵢXᵢ / Σ cᵢmᵢ over heel and additions, cᵢ the rule's basis weight (1, 1/ρ, or Wright's 1/(ρB))
   expect(isClose(r.batch.kv40, input.aimKv40, 1e-6), `batch ν40 ${r.batch.kv40} ≠ aim ${input.aimKv40}`).toBe(true);
+  const co = blendCoordinates(input.method ?? 'refutas');
+  let sc = 0;
+  let sx = 0;
+  const parts = [...input.stocks.map((k) => ({ ...k, m: r.addKg[k.id]! })), ...(input.heel ? [{ ...input.heel, m: input.heel.massKg }] : [])];
+  for (const p of parts) {
+    const c = co.basisWeight(p.kv40, p.kv100, p.density15) * p.m;
+    sc += c;
+    sx += c * co.toX(p.kv40);
+  }
+  const kv40 = co.toKv(sx / sc);
+  expect(isClose(kv40, input.aimKv40, 1e-6), `by the ${co.method} rule the batch is at ${kv40}, not the aim ${input.aimKv40}`).toBe(true);
   // the additive at the recipe's treat rate in the whole batch, the heel's own additive counted
   if (input.additive) {
     const inHeel = input.heel ? input.heel.additiveFraction * input.heel.massKg : 0;
@@ -176,12 +188,13 @@ describe('adjustRecipe — nothing to adjust leaves the saved recipe', () => {
       fc.property(situationArb, fc.double({ min: 0.001, max: 0.9, noNaN: true }), (s, share) => {
         const input = inputOf({ ...s, heel: null });
         const co = blendCoordinates(input.method ?? 'refutas');
-        // the saved recipe's own ν40 (and ν100) by the mixing rule: Σ cᵢwᵢXᵢ / Σ cᵢwᵢ
+        // the saved recipe's own ν40 (and ν100) by the mixing rule: Σ cᵢwᵢXᵢ / Σ cᵢwᵢ (cᵢ the rule's basis
+        // weight; for Wright's the heel's own 1/(ρB) then equals Σ wᵢcᵢ, so a heel of the batch mixes as its parts)
         const blend = (at100: boolean) => {
           let sc = 0;
           let sx = 0;
           for (const k of input.stocks) {
-            const c = co.massBasis ? 1 : 1 / k.density15;
+            const c = co.basisWeight(k.kv40, k.kv100, k.density15);
             sc += c * k.savedFraction;
             sx += c * k.savedFraction * co.toX(at100 ? k.kv100 : k.kv40);
           }

@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
+import { blendViscosityWright } from '../../../src/core/blending/wright';
 import { adjustRecipe, adjustRecipeToVolume, type AdjustInput, type AdjustStock } from '../../../src/core/qc/adjust';
 import { BlendbenchInputError } from '../../../src/core/errors';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
@@ -18,6 +19,22 @@ describe('lot-adjusted recipe', () => {
     expectClose(r.addedFractions.h!, 0.55126, 1e-4);
     expectClose(r.addKg.h!, 5512.6, 1);
     expectClose(r.batch.kv40, 220, 1e-4);
+  });
+
+  it('with the D7152 Wright rule the adjusted batch lands at the aim by Wright’s own blend (property hunt, s25)', () => {
+    // Before s25 the LP weighted the stocks by 1/ρ (the ASTM rule) under Wright too: 1611 kg BW-240 +
+    // 6389 kg BW-280 on this heel, a batch at 326.1 mm²/s by Wright's rule, not 320 (now 1732 + 6268 kg). Check: the core's Wright blend (blending/wright.ts, ASTM D7152) of the volumes charged.
+    const heel = { massKg: 2_000, kv40: 300, kv100: 24, density15: 0.88, additiveFraction: 0 };
+    const r = adjustRecipe({ stocks: [light, heavy], batchKg: 10_000, aimKv40: 320, additive: null, heel, method: 'd7152-wright' });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    const parts = [
+      { v: r.addKg.l! / light.density15, kv40: light.kv40, kv100: light.kv100 },
+      { v: r.addKg.h! / heavy.density15, kv40: heavy.kv40, kv100: heavy.kv100 },
+      { v: heel.massKg / heel.density15, kv40: heel.kv40, kv100: heel.kv100 },
+    ];
+    const V = parts.reduce((t, p) => t + p.v, 0);
+    const wright = blendViscosityWright(parts.map((p) => ({ volumeFraction: p.v / V, kv40: p.kv40, kv100: p.kv100 })), 40);
+    expectClose(wright, 320, 1e-6 * 320);
   });
 
   it('a heel of the same oil at the aim leaves the saved shares unchanged', () => {
