@@ -23,7 +23,7 @@
  */
 import type { ComponentCategory } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
-import { BlendbenchInputError, assertDensity15, assertFinite, assertViscosity } from '../errors';
+import { BlendbenchInputError, ViscosityOrderError, assertDensity15, assertFinite, assertViscosity } from '../errors';
 import { blendCoordinates } from '../solver/coordinates';
 import { normalCdfRaw, normalPdfRaw, standardNormalQuantile } from './normal';
 
@@ -64,8 +64,13 @@ export interface SpreadPart {
   kv40: number;
   /** Lot-to-lot relative standard deviation of ν40, as a FRACTION (0.02 = 2 %), 0–0.25. */
   kv40RelSd: number;
-  /** Density at 15 °C [kg/L] (used by the volume-basis rule only). */
+  /** Density at 15 °C [kg/L] (used by the volume-basis rules only). */
   density15: number;
+  /**
+   * ν100 [mm²/s] (below kv40): the D7152 Wright rule weighs each part by 1/(ρ·B), B the slope of its own
+   * D341 line, so it needs ν100 as well. Absent → the part is weighed by 1/ρ (the plain ASTM rule).
+   */
+  kv100?: number;
 }
 
 /** The batch's ν40 distribution in blending coordinates (normal in X). */
@@ -82,15 +87,25 @@ export interface Kv40Distribution {
 /**
  * Per-part numbers of the model: cᵢ (basis weight), Xᵢ and gᵢ = X′(ν40ᵢ)·ν40ᵢ·sᵢ.
  * X′(ν)·ν is the coordinates' change of X per unit relative change of ν (`perPct` × 100).
+ * cᵢ is the rule's basis weight (`solver/coordinates.ts`): 1 (Refutas), 1/ρ (ASTM D7152), 1/(ρ·B)
+ * (D7152 Wright, when ν100 is given; 1/ρ without it), the weights the solver and the prediction use.
  */
 export function spreadCoefficients(
   method: BlendMethod,
   kv40: number,
   kv40RelSd: number,
   density15: number,
+  kv100?: number,
 ): { c: number; x: number; g: number } {
   const co = blendCoordinates(method);
-  return { c: co.massBasis ? 1 : 1 / density15, x: co.toX(kv40), g: co.perPct(kv40) * 100 * kv40RelSd };
+  return { c: partWeight(method, kv40, density15, kv100), x: co.toX(kv40), g: co.perPct(kv40) * 100 * kv40RelSd };
+}
+
+/** The basis weight cᵢ of a part under a rule: 1, 1/ρ, or Wright's 1/(ρ·B) when ν100 is known. */
+export function partWeight(method: BlendMethod, kv40: number, density15: number, kv100?: number): number {
+  const co = blendCoordinates(method);
+  if (co.massBasis) return 1;
+  return kv100 === undefined ? 1 / density15 : co.basisWeight(kv40, kv100, density15);
 }
 
 /** Throws unless a relative standard deviation is a finite fraction from 0 to 0.25. */
@@ -133,9 +148,13 @@ export function batchKv40Distribution(parts: readonly SpreadPart[], method: Blen
     assertViscosity(fn, `parts[${i}].kv40`, p.kv40);
     assertRelSd(fn, `parts[${i}].kv40RelSd`, p.kv40RelSd);
     assertDensity15(fn, `parts[${i}].density15`, p.density15);
+    if (p.kv100 !== undefined) {
+      assertViscosity(fn, `parts[${i}].kv100`, p.kv100);
+      if (p.kv100 >= p.kv40) throw new ViscosityOrderError(`parts[${i}].kv100`, p.kv100, `${fn}: parts[${i}].kv100 = ${p.kv100} mm²/s is not below parts[${i}].kv40 = ${p.kv40} mm²/s`);
+    }
     sum += p.massFraction;
     if (p.massFraction === 0) return;
-    const k = spreadCoefficients(method, p.kv40, p.kv40RelSd, p.density15);
+    const k = spreadCoefficients(method, p.kv40, p.kv40RelSd, p.density15, p.kv100);
     const cw = k.c * p.massFraction;
     sc += cw;
     sx += cw * k.x;

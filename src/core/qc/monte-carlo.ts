@@ -14,7 +14,7 @@
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, assertFinite } from '../errors';
 import { blendCoordinates } from '../solver/coordinates';
-import { batchKv40Distribution, type SpreadPart } from './lot-spread';
+import { batchKv40Distribution, partWeight, type SpreadPart } from './lot-spread';
 
 /**
  * A deterministic stream of uniform numbers in [0, 1) from a 32-bit seed (mulberry32).
@@ -77,8 +77,8 @@ function simulation(fn: string, parts: readonly SpreadPart[], options: { samples
   }
   const co = blendCoordinates(method);
   const used = parts.filter((p) => p.massFraction > 0);
-  // Blending weights: mass fractions (Refutas) or w/ρ, normalised below by their sum (D7152: volume fractions).
-  const cw = used.map((p) => (co.massBasis ? 1 : 1 / p.density15) * p.massFraction);
+  // Blending weights: mass fractions (Refutas), w/ρ (D7152: volume fractions) or Wright's w/(ρB), normalised below by their sum.
+  const cw = used.map((p) => partWeight(method, p.kv40, p.density15, p.kv100) * p.massFraction);
   return { method, n, seed: options.seed ?? 1, co, used, cw, sc: cw.reduce((s, v) => s + v, 0) };
 }
 

@@ -23,6 +23,7 @@ export function recipeSpreadParts(components: readonly Component[], lines: reado
     kv40: p.kv40,
     kv40RelSd: kv40LotSpreadPct(p.component) / 100,
     density15: p.component.density15,
+    kv100: p.kv100,
   }));
 }
 

@@ -14,6 +14,7 @@ import { refutasVbn } from '../../../src/core/blending/refutas';
 import { BlendbenchInputError, FractionSumError, NonPositiveViscosityError } from '../../../src/core/errors';
 import { COMPONENT_CATEGORIES } from '../../../src/core/formulation/model';
 import { expectClose, expectRelClose } from '../../helpers/tolerance';
+import { blendViscosityAt } from '../../../src/core/blending/blend-viscosity';
 
 const part = (massFraction: number, kv40: number, relSd: number, density15 = 0.88): SpreadPart => ({ massFraction, kv40, kv40RelSd: relSd, density15 });
 
@@ -178,5 +179,24 @@ describe('lot spread — against a seeded Monte Carlo of the exact rule', () => 
     }
     expectClose(s / 1e5, 0, 0.01);
     expectClose(s2 / 1e5, 1, 0.02);
+  });
+});
+
+describe('the D7152 Wright rule (property hunt, s25)', () => {
+  it('centres the batch distribution on Wright’s own prediction when the parts carry ν100', () => {
+    // Invented VG 320 pair; the check is the core's Wright blend (blendViscosityAt, ASTM D7152).
+    const parts = [
+      { massFraction: 0.4, kv40: 100, kv100: 11, density15: 0.872, kv40RelSd: 0.015 },
+      { massFraction: 0.6, kv40: 460, kv100: 31, density15: 0.885, kv40RelSd: 0.025 },
+    ];
+    const nominal = blendViscosityAt('d7152-wright', parts, 40).kv;
+    const d = batchKv40Distribution(parts, 'd7152-wright');
+    expectClose(d.medianKv40, nominal, 1e-9 * nominal);
+    // Before s25 the parts were weighed by 1/ρ (the plain ASTM rule) under Wright: a median of 235.9 mm²/s
+    // against Wright's 244.2. Parts without ν100 are still weighed so (the plain ASTM rule's blend):
+    const without = batchKv40Distribution(parts.map(({ kv100: _k, ...p }) => p), 'd7152-wright');
+    expectClose(without.medianKv40, blendViscosityAt('astm-d7152', parts, 40).kv, 1e-9 * nominal);
+    expect(nominal - without.medianKv40).toBeGreaterThan(8);
+    expect(() => batchKv40Distribution([{ ...parts[0]!, massFraction: 1, kv100: 120 }], 'd7152-wright')).toThrow(/parts\[0\]\.kv100/);
   });
 });

@@ -11,6 +11,8 @@ import { batchKv40Distribution, kv40InBandProbability, kv40Quantile, probability
 import { allowedDeviation, maxSdForProbability } from '../../../src/core/qc/robust';
 import { inBandProbabilityPlain } from '../../../src/core/qc/probability-plain';
 import { solveBlendPlain, type PlainProblem } from '../../../src/core/solver/plain';
+import { blendViscosityAt } from '../../../src/core/blending/blend-viscosity';
+import { monteCarloKv40 } from '../../../src/core/qc/monte-carlo';
 
 const NUM_RUNS = Number(process.env.PROP_RUNS ?? 500);
 
@@ -40,6 +42,24 @@ describe('normal distribution — properties', () => {
         if (p > 1e-300 && p < 1 - 1e-12) expect(Math.abs(standardNormalQuantile(p) - z)).toBeLessThanOrEqual(1e-7 * Math.max(1, Math.abs(z)));
       }),
       { seed: 25_301, numRuns: 3000 },
+    );
+  });
+});
+
+describe('the spread model is centred on the prediction, under every mixing rule', () => {
+  it('the median batch ν40 is the nominal ν40 of blendViscosityAt (Refutas, ASTM D7152 and its Wright form), and the Monte Carlo draws centre on it', () => {
+    fc.assert(
+      fc.property(partsArb, fc.constantFrom('refutas' as const, 'astm-d7152' as const, 'd7152-wright' as const), fc.array(fc.double({ min: 6, max: 20, noNaN: true }), { minLength: 6, maxLength: 6 }), (parts0, method, ratios) => {
+        const parts = parts0.map((p, i) => ({ ...p, kv100: Math.max(2.1, p.kv40 / ratios[i]!) }));
+        fc.pre(parts.every((p) => p.kv100 < p.kv40));
+        const nominal = blendViscosityAt(method, parts, 40).kv;
+        const d = batchKv40Distribution(parts, method);
+        expect(Math.abs(d.medianKv40 / nominal - 1), `${method}: median ${d.medianKv40} vs prediction ${nominal}`).toBeLessThanOrEqual(1e-9);
+        // without spread every simulated batch is the prediction
+        const mc = monteCarloKv40(parts.map((p) => ({ ...p, kv40RelSd: 0 })), { samples: 3, seed: 1, method });
+        mc.samples.forEach((kv) => expect(Math.abs(kv / nominal - 1)).toBeLessThanOrEqual(1e-9));
+      }),
+      { seed: 25_306, numRuns: NUM_RUNS },
     );
   });
 });
