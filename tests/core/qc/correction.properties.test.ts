@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { correctBatchPlain, correctionBand, type CorrectionProblem, type CorrectionResult } from '../../../src/core/qc/correction';
 import { refutasVbn, kvFromRefutasVbn } from '../../../src/core/blending/refutas';
+import { blendViscosityAt, type BlendMethod } from '../../../src/core/blending/blend-viscosity';
 
 const NUM_RUNS = Number(process.env.PROP_RUNS ?? 500);
 
@@ -187,6 +188,29 @@ describe('correctBatchPlain — properties over random vessels, stocks, bands an
         if (r.status === 'optimal') expect(r.addedKg).toBeLessThanOrEqual(1e-3);
       }),
       { seed: 25_102, numRuns: NUM_RUNS },
+    );
+  });
+});
+
+describe('correctBatchPlain under each mixing rule (property)', () => {
+  it('the corrected batch is in band by the rule’s own blend of vessel and additions (blendViscosityAt)', () => {
+    fc.assert(
+      fc.property(problemArb, fc.constantFrom<BlendMethod>('refutas', 'astm-d7152', 'd7152-wright'), (g, method) => {
+        const c = problemOf({ ...g, minVi: null });
+        const r = correctBatchPlain(c, method);
+        if (r.status !== 'optimal') return;
+        const parts = [
+          { m: c.vessel.massKg, kv40: c.vessel.kv40, kv100: c.vessel.kv100, density15: c.vessel.density15 },
+          ...c.components.map((k) => ({ m: r.addKg[k.id]!, kv40: k.kv40, kv100: k.kv100, density15: k.density15 })),
+        ].filter((p) => p.m > 0);
+        const M = parts.reduce((t, p) => t + p.m, 0);
+        const kv = blendViscosityAt(method, parts.map((p) => ({ massFraction: p.m / M, kv40: p.kv40, kv100: p.kv100, density15: p.density15 })), 40).kv;
+        const lo = c.targetKv40 * (1 - c.tolerancePct / 100);
+        const hi = c.targetKv40 * (1 + c.tolerancePct / 100);
+        expect(kv >= lo * (1 - 1e-4) && kv <= hi * (1 + 1e-4), `${method}: ${kv} outside ${lo}–${hi} (correction says ${r.kv40})`).toBe(true);
+        expect(Math.abs(r.kv40 / kv - 1)).toBeLessThanOrEqual(1e-6);
+      }),
+      { seed: 25_104, numRuns: NUM_RUNS },
     );
   });
 });
