@@ -847,7 +847,10 @@ function operatingFlag(o: NonNullable<SheetPrediction['operating']>): string {
   return o.outsideBand ? '; outside −20…150 °C, not to be trusted' : o.extrapolated ? '; extrapolated' : '';
 }
 
-/** A QC row's temperatures re-expressed in °F (judged in °C before, so the verdict does not change). */
+/**
+ * A QC row's temperatures re-expressed in °F. The verdict judged in °C stands; a prediction that prints
+ * outside its printed °F limit is flagged as well (the rounding to whole °F can put it there).
+ */
 function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) => string): QcRow {
   const f = (tC: number) => sheetTemp(tC, 'F');
   const value: Partial<Record<QcKey, number | null>> = { flash: p.flashPoint, pour: p.pourPoint, aniline: p.anilinePoint };
@@ -861,7 +864,19 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
   const min = r.min === null ? null : printedLimit(cToF(r.min), 'min', 0).value;
   const max = r.max === null ? null : printedLimit(cToF(r.max), 'max', 0).value;
   const target = min !== null || max !== null ? limitText(min, max, 0, fmt) : r.target;
-  return { ...r, unit: '°F', predicted: v === null || v === undefined ? r.predicted : fmt(f(v), 0), target, min, max };
+  // The verdict judged in °C stands; a prediction that prints outside the printed °F limit is flagged too
+  // (218.6 °C passes "≥ 219" as 219 °C, but prints as 425 °F against "≥ 426.2 °F").
+  const printedF = v === null || v === undefined ? null : f(v);
+  const outsideF = printedF !== null && ((min !== null && printedF < min) || (max !== null && printedF > max));
+  return {
+    ...r,
+    unit: '°F',
+    predicted: printedF === null ? r.predicted : fmt(printedF, 0),
+    target,
+    min,
+    max,
+    predictedOutsideTarget: r.predictedOutsideTarget || outsideF,
+  };
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */

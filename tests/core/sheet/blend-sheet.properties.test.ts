@@ -7,9 +7,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { blendSheetCsvRows, buildBlendSheet, largestRemainderUnits, type CsvFixed } from '../../../src/core/sheet/blend-sheet';
+import { blendSheetCsvRows, buildBlendSheet, largestRemainderUnits, qcReleaseTargets, type CsvFixed } from '../../../src/core/sheet/blend-sheet';
+import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../../../src/core/formulation/model';
 import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
-import { newRecipeLifecycle } from '../../../src/core/formulation/model';
 
 const NUM_RUNS = Number(process.env.PROP_RUNS ?? 300);
 
@@ -137,6 +137,32 @@ describe('buildBlendSheet — printed quantities add up (properties)', () => {
         expect(units(val(addRows.at(-1)!['Running total kg']), qd)).toBe(units(M, qd));
       }),
       { seed: 25_202, numRuns: NUM_RUNS },
+    );
+  });
+});
+
+describe('QC release targets — a prediction printed outside its printed limit is flagged (property)', () => {
+  it('flash and pour, in °C and °F: the printed prediction against the printed limit never contradicts a missing flag', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 150, max: 320, noNaN: true }),
+        fc.double({ min: -3, max: 3, noNaN: true }),
+        fc.double({ min: -50, max: 10, noNaN: true }),
+        fc.double({ min: -3, max: 3, noNaN: true }),
+        fc.constantFrom('C' as const, 'F' as const),
+        (flash, dFlash, pour, dPour, unit) => {
+          // limits typed to one decimal, near the prediction
+          const spec = { ...BLANK_SPECIFICATION, flashMin: Math.round((flash + dFlash) * 10) / 10, pourMax: Math.round((pour + dPour) * 10) / 10 };
+          const p = { kv40: 320, kv100: 24, reportedVi: 95, density15: 0.88, anilinePoint: 120, flashPoint: flash, pourPoint: pour, operating: null };
+          const rows = qcReleaseTargets(320, p, { specification: spec, temperatureUnit: unit });
+          for (const r of rows.filter((x) => x.key === 'flash' || x.key === 'pour')) {
+            const shown = Number(r.predicted);
+            const out = (r.min !== null && shown < r.min) || (r.max !== null && shown > r.max);
+            if (out) expect(r.predictedOutsideTarget, `${unit} ${r.key}: ${r.predicted} against ${r.target} not flagged`).toBe(true);
+          }
+        },
+      ),
+      { seed: 25_204, numRuns: 3000 },
     );
   });
 });

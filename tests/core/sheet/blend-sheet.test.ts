@@ -392,6 +392,18 @@ describe('qcReleaseTargets', () => {
     );
   });
 
+  it('flags a prediction that prints outside its printed °F limit, though it passes as rounded in °C (property hunt, s25)', () => {
+    // Flash 218.6 °C, limit ≥ 219 °C: in °C it prints 219 against ≥ 219 (rounded as printed: passes).
+    // In °F (t_F = 9/5·t_C + 32, common practice, no source) it prints 425 against ≥ 426.2 — flagged now;
+    // before, the °C verdict was copied and the sheet showed 425 °F under ≥ 426.2 °F without a flag.
+    const spec = { ...BLANK_SPECIFICATION, flashMin: 219 };
+    const near = { ...p, flashPoint: 218.6 };
+    const c = qcReleaseTargets(320, near, { specification: spec }).find((r) => r.key === 'flash')!;
+    expect([c.predicted, c.target, c.predictedOutsideTarget]).toEqual(['219', '≥ 219', false]);
+    const f = qcReleaseTargets(320, near, { specification: spec, temperatureUnit: 'F' }).find((r) => r.key === 'flash')!;
+    expect([f.predicted, f.target, f.predictedOutsideTarget]).toEqual(['425', '≥ 426.2', true]);
+  });
+
   it('reports rather than invents targets for missing estimates', () => {
     const rows = qcReleaseTargets(320, { ...p, reportedVi: null, flashPoint: null, pourPoint: null, operating: null });
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));
