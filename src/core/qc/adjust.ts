@@ -249,7 +249,8 @@ export function adjustRecipe(input: AdjustInput): AdjustResult {
 const VOLUME_SETTLED = 1e-9;
 /** Relative miss accepted after {@link VOLUME_ROUNDS} rounds: 1e-6 of 5 000 L is 5 mL, far below the sheet's 0.1 L. */
 const VOLUME_ACCEPTED = 1e-6;
-const VOLUME_ROUNDS = 12;
+/** Rounds at most: the bracket halves at least every other round, so 60 reach the LP's own rounding. */
+const VOLUME_ROUNDS = 60;
 
 /** {@link AdjustInput} with the batch given as a volume at 15 °C instead of a mass. */
 export type AdjustVolumeInput = Omit<AdjustInput, 'batchKg'> & {
@@ -260,10 +261,13 @@ export type AdjustVolumeInput = Omit<AdjustInput, 'batchKg'> & {
 /**
  * The lot-adjusted recipe for a batch ordered as a volume: the batch mass M is chosen so that the heel
  * and the adjusted additions fill exactly `batchLitres` at 15 °C (module notes: volumes add, ideal
- * mixing, common practice), by the fixed point M ← H + (V − H/ρ_h)·ρ_add(M), started from the saved
- * shares' density. ρ_add moves only as the heel's share H/M moves the additions' proportions, so two or
- * three rounds settle it to the LP's own rounding (about 1e-8 of V; the closest of 12 rounds is kept and
- * must be within 1e-6 of V).
+ * mixing, common practice): the root of F(M) = V₁₅(M) − V, started from the saved shares' density by
+ * the fixed point M ← H + (V − H/ρ_h)·ρ_add(M), then by secant steps kept inside a bracket that every
+ * round narrows (bisection when a step leaves it). The root lies in [H + (V − H/ρ_h)·ρ_min,
+ * H + (V − H/ρ_h)·ρ_max] (the additions' density is a weighted harmonic mean of the stocks'). A large
+ * heel whose share swings the additions between light and dense stocks made the plain fixed point
+ * oscillate without settling (s25 property hunt); usually two or three rounds reach the LP's own rounding
+ * (about 1e-8 of V; the closest round is kept and must be within 1e-6 of V).
  *
  * @param input - as {@link adjustRecipe}, with `batchLitres` [L at 15 °C] in place of `batchKg`
  * @returns as {@link adjustRecipe}; `batch.massKg` is the mass that fills the volume and `batch.litres15`
@@ -289,22 +293,60 @@ export function adjustRecipeToVolume(input: AdjustVolumeInput): AdjustResult {
   }
   // Start from the saved shares' density (1/ρ = Σ wᵢ/ρᵢ) for the additions.
   const savedSpecific = input.stocks.reduce((t, k) => t + (Number.isFinite(k.savedFraction) && Number.isFinite(k.density15) && k.density15 > 0 ? k.savedFraction / k.density15 : 0), 0);
-  let rhoAdd = savedSpecific > 0 ? 1 / savedSpecific : 0.88;
+  const rhoStart = savedSpecific > 0 ? 1 / savedSpecific : 0.88;
+  // The bracket of the root (the additions' density lies between the stocks' extremes).
+  const densities = input.stocks.map((k) => k.density15).filter((d) => Number.isFinite(d) && d > 0);
+  const room = V - heelLitres;
+  let lo = heelKg + room * Math.min(rhoStart, ...densities);
+  let hi = heelKg + room * Math.max(rhoStart, ...densities);
   // The LP's own rounding (about 1e-8 of the batch) is the floor; the closest round is kept.
   let best: AdjustResult | null = null;
   let bestMiss = Number.POSITIVE_INFINITY;
+  let M = heelKg + room * rhoStart;
+  let prev: { M: number; F: number } | null = null;
+  // The heel's share H/M moves with M, and with it the ν40 the lots can reach: an aim near the edge of
+  // reach can be out of reach at the starting mass yet reached at the mass that fills V. An infeasible
+  // round then moves towards a mass known to be feasible (the bracket's ends, then seven masses between
+  // them, tried once).
+  let refused: AdjustResult | null = null;
+  let feasibleAt: number | null = null;
   for (let round = 0; round < VOLUME_ROUNDS; round++) {
-    const M = heelKg + (V - heelLitres) * rhoAdd;
     const result = adjustRecipe({ ...rest, batchKg: M });
-    if (result.status !== 'optimal') return result;
-    const miss = Math.abs(result.batch.litres15 - V);
+    if (result.status !== 'optimal') {
+      refused ??= result;
+      if (feasibleAt === null) {
+        const tries = [lo, hi, ...Array.from({ length: 7 }, (_, k) => lo + ((hi - lo) * (k + 1)) / 8)];
+        const found = tries.find((m) => m !== M && adjustRecipe({ ...rest, batchKg: m }).status === 'optimal');
+        if (found === undefined) return result;
+        feasibleAt = found;
+      }
+      if (feasibleAt > M) lo = M;
+      else hi = M;
+      M = (lo + hi) / 2;
+      prev = null;
+      continue;
+    }
+    feasibleAt = M;
+    const F = result.batch.litres15 - V;
+    const miss = Math.abs(F);
     if (miss < bestMiss) {
       best = result;
       bestMiss = miss;
     }
     if (miss <= VOLUME_SETTLED * V) return result;
-    rhoAdd = (M - heelKg) / (result.batch.litres15 - heelLitres);
+    // More mass fills more litres: a short batch raises the lower end, a full one lowers the upper.
+    if (F < 0) lo = Math.max(lo, M);
+    else hi = Math.min(hi, M);
+    // The fixed-point step M ← H + (V − H/ρ_h)·ρ_add(M); the secant through the last two rounds once
+    // there are two; bisection when the step leaves the bracket.
+    let next = heelKg + (room * (M - heelKg)) / (result.batch.litres15 - heelLitres);
+    if (prev && F !== prev.F) next = M - (F * (M - prev.M)) / (F - prev.F);
+    if (!(next > lo && next < hi)) next = (lo + hi) / 2;
+    prev = { M, F };
+    M = next;
   }
   if (best && bestMiss <= VOLUME_ACCEPTED * V) return best;
+  // The masses the aim can be reached at do not fill V: the aim is out of reach for this volume.
+  if (refused) return refused;
   throw new BlendbenchInputError('batchLitres', V, `${fn}: the batch mass for ${V} L did not settle`);
 }

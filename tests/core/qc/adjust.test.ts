@@ -137,6 +137,44 @@ describe('lot-adjusted recipe against HiGHS (least change, an LP)', () => {
     }
   });
 
+  it('a batch ordered in litres on a large heel of another grade settles (property hunt, s25)', () => {
+    // Invented lots found by the s25 property hunt: the heel is 60 % of the vessel, and its share swings
+    // the additions between the dense and the light stock, so the plain fixed point M ← H + (V − H/ρ_h)·ρ_add
+    // oscillated with growing amplitude (2083.6, 2074.9, 2084.0 … kg) and threw "did not settle".
+    const r = adjustRecipeToVolume({
+      stocks: [
+        { id: 'd', label: 'BW-D', kv40: 647.084, kv100: 68.299, density15: 0.96756, savedFraction: 0.72246 },
+        { id: 'n', label: 'BW-N', kv40: 581.857, kv100: 40.0976, density15: 0.86089, savedFraction: 0.27754 },
+      ],
+      batchLitres: 2287.508,
+      aimKv40: 261.242,
+      additive: null,
+      heel: { massKg: 1242.314, kv40: 155.084, kv100: 15.5084, density15: 0.894934, additiveFraction: 0 },
+    });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    expectClose(r.batch.litres15, 2287.508, 1e-6 * 2287.508); // the documented tolerance
+    expectClose(r.batch.kv40, 261.242, 1e-6 * 261.242);
+  });
+
+  it('a batch ordered in litres reaches an aim that only the mass filling the volume reaches (property hunt, s25)', () => {
+    // Invented lots: the aim needs more of the dense heavy stock than the saved shares, so the mass that
+    // fills 2225 L is larger than the starting guess, the thin heel's share smaller, and the aim in reach.
+    // Before: refused at the starting mass ("the heaviest batch these lots make reaches only 206 mm²/s").
+    const r = adjustRecipeToVolume({
+      stocks: [
+        { id: 'l', label: 'BW-L', kv40: 134.235, kv100: 15.1124, density15: 0.83197, savedFraction: 0.76632 },
+        { id: 'h', label: 'BW-H', kv40: 435.270, kv100: 51.2399, density15: 0.97625, savedFraction: 0.23368 },
+      ],
+      batchLitres: 2224.963,
+      aimKv40: 210.45,
+      additive: null,
+      heel: { massKg: 426.024, kv40: 28.2578, kv100: 2.82578, density15: 0.853254, additiveFraction: 0 },
+    });
+    if (r.status !== 'optimal') throw new Error(r.reason);
+    expectClose(r.batch.litres15, 2224.963, 1e-6 * 2224.963); // the documented tolerance
+    expectClose(r.batch.kv40, 210.45, 1e-6 * 210.45);
+  });
+
   it('a batch ordered in litres refuses a heel that fills the whole volume, naming the heel', () => {
     expect(() =>
       adjustRecipeToVolume({ stocks: [light, heavy], aimKv40: 220, additive: null, heel: { massKg: 900, kv40: 200, kv100: 18, density15: 0.9, additiveFraction: 0 }, batchLitres: 1_000 }),
