@@ -300,6 +300,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
         : null,
     [recipe, builtSheet, batchValue, components, qcIn, method, display],
   );
+  const heelDensity = qcIn.heel.density15 ?? HEEL_DEFAULT_DENSITY;
   /** The sheet of the additions when the recipe is adjusted (lot densities; batch less the heel). */
   const adjustedSheet = useMemo((): BlendSheet | null => {
     if (!recipe || !builtSheet || !adjusted || !('result' in adjusted) || adjusted.result.status !== 'optimal') return null;
@@ -311,11 +312,13 @@ export function BlendSheetView(props: BlendSheetViewProps) {
       .filter(([, f]) => f > 0)
       .map(([componentId, massFraction]) => ({ componentId, massFraction }));
     try {
-      return buildBlendSheet(lotComponents, { ...recipe, lines }, { kg: r.batch.massKg - adjusted.heelKg }, { meteringTempC: props.meteringTempC, deliveryTempC: props.deliveryTempC });
+      // The heel rounded with the additions (core/sheet), so heel + column prints the batch ordered.
+      const heel = adjusted.heelKg > 0 ? { kg: adjusted.heelKg, litres: adjusted.heelKg / heelDensity } : undefined;
+      return buildBlendSheet(lotComponents, { ...recipe, lines }, { kg: r.batch.massKg - adjusted.heelKg }, { meteringTempC: props.meteringTempC, deliveryTempC: props.deliveryTempC, heel });
     } catch {
       return null;
     }
-  }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC, props.deliveryTempC]);
+  }, [recipe, builtSheet, adjusted, priced, components, props.meteringTempC, props.deliveryTempC, heelDensity]);
   // Lots, a heel or an aim entered that the recipe cannot be adjusted to: the table below would charge
   // the saved recipe for the whole batch (a heel not counted), so the sheet is held and says why.
   const adjustHold = useMemo((): HoldReason[] => {
@@ -403,7 +406,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   // heel printed as the vessel's first line; otherwise the saved recipe.
   const sheet = adjustedSheet ?? savedSheet;
   const adjustedOk = adjustedSheet !== null && adjusted !== null && 'result' in adjusted && adjusted.result.status === 'optimal' ? adjusted : null;
-  const heelKg = adjustedOk ? adjustedOk.heelKg : 0;
+  // The heel as printed (rounded with the additions by core/sheet: heel + column = the batch ordered).
+  const heelKg = adjustedOk && sheet?.heel ? sheet.heel.kg : 0;
   const savedPct = new Map(recipe.lines.map((l) => [l.componentId, l.massFraction * 100]));
   const defaultSteps = sheet ? defaultBlendingInstructions(sheet, { temperatureUnit: tUnit }) : [];
   const stepsText = instructions ?? defaultSteps.join('\n');
@@ -427,9 +431,9 @@ export function BlendSheetView(props: BlendSheetViewProps) {
   const holdId = `${id}-hold`;
 
   // The whole batch, the heel in it: with a heel the table charges only the additions.
-  const heelLitres = heelKg > 0 ? heelKg / (qcIn.heel.density15 ?? HEEL_DEFAULT_DENSITY) : 0;
-  const batchKgText = sheet ? fmt(sheet.totalKg + heelKg, qd) : '';
-  const batchLitresText = sheet ? fmt(sheet.totalLitres + heelLitres, qd) : '';
+  const heelLitres = heelKg > 0 && sheet?.heel ? sheet.heel.litres : 0;
+  const batchKgText = sheet ? fmt(sheet.batchKg, qd) : '';
+  const batchLitresText = sheet ? fmt(sheet.batchLitres, qd) : '';
   // A stock without its density: no litres of it, so no volume share and no litre total either.
   const litresKnown = !sheet || !sheet.rows.some((r) => noDensity.has(r.componentId));
   const litresNote = litresKnown ? null : litresNotGivenSentence(unentered);

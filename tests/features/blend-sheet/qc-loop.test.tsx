@@ -61,6 +61,23 @@ describe('Blend sheet — the QC loop', () => {
     expect(useRecipes.getState().qc['demo-vg320']!.heel.massKg).toBe(1500);
   });
 
+  it('a heel on a rounding tie: the heel line and the additions add up to the batch ordered as printed (s25 hunt)', () => {
+    render(<BlendSheetScreen />);
+    enter(/^Heel mass/, '2000.25');
+    enter(/^Heel ν40/, '320');
+    enter(/^Heel ν100/, '23');
+    // 10 000 kg on 2000.25 kg: each rounded on its own printed 2000.3 + 7999.8 = 10 000.1 (arithmetic, no source);
+    // the sheet rounds them together so that they add up to 10 000.0.
+    const heelKg = num(screen.getByTestId('heel-row').querySelector('.bs-qty')!.textContent!);
+    const table = screen.getByRole('table', { name: /Components, in charging order/ });
+    const total = within(table).getAllByRole('row').at(-1)!;
+    const cells = [...total.querySelectorAll('td')].map((td) => td.textContent ?? '');
+    expect(cells).toContain('10000.0'); // running total: the batch ordered
+    const added = num(cells.find((t) => /^\d+\.\d$/.test(t) && t !== '10000.0' && Number(t) > 7000)!);
+    expect(Math.round((heelKg + added) * 10) / 10).toBe(10000);
+    expect(screen.getByText(/heel [\d.]+ kg \+ additions [\d.]+ kg/).textContent).toMatch(/10000\.0 kg/);
+  });
+
   it('works out a correction of an off-grade batch and prints it as its own one-page sheet', () => {
     const print = vi.fn();
     window.print = print;
