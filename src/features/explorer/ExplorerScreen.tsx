@@ -212,8 +212,13 @@ export default function ExplorerScreen() {
       specification: reference.specification,
       stockBasis: recordStockBasis(components, c.lines, new Date().toISOString()),
       reasonForChange: withdrawnCodes.length ? `Substitute for withdrawn ${withdrawnCodes.join(', ')}` : '',
-      // Saved with the recipe in one step: one undo removes both.
-      targets: { ...targets, referenceRecipeId: reference.id },
+      // Saved with the recipe in one step: one undo removes both. The stocks the search treated as withdrawn
+      // stay excluded (maximum 0 %) in the substitute's targets, so a solve in the designer cannot bring them back.
+      targets: {
+        ...targets,
+        referenceRecipeId: reference.id,
+        bounds: { ...targets.bounds, ...Object.fromEntries((st.resultFor?.withdrawn ?? []).map((wid) => [wid, { max: 0 }])) },
+      },
       activate: true,
       });
     } catch (e) {

@@ -92,6 +92,19 @@ describe('Substitute explorer', () => {
     expect(screen.getByTestId('adopted').textContent).toContain(r.name);
   });
 
+  it('the adopted recipe keeps the stocks treated as withdrawn out of its saved targets, so a solve in the designer cannot bring them back (s25 walk)', async () => {
+    // Before: the targets were the reference's own, so re-solving the substitute in the designer put BW-190 back at 84 %.
+    await runWithBrightStockWithdrawn();
+    fireEvent.click(screen.getByText('Adopt as a new recipe'));
+    await waitFor(() => expect(screen.getByTestId('adopted')).toBeTruthy());
+    const r = useRecipes.getState().recipes.at(-1)!;
+    const t = useRecipes.getState().targets[r.id]!;
+    expect(t.bounds['demo-bw-190']).toEqual({ max: 0 });
+    // the reference's own saved targets are untouched
+    const refId = useExplorerStore.getState().referenceId!;
+    expect(useRecipes.getState().targets[refId]?.bounds?.['demo-bw-190']).toBeUndefined();
+  });
+
   it('Adopt at the 10,000-recipe limit says why beside the button and keeps everything saved (session 19, defect 5)', async () => {
     await runWithBrightStockWithdrawn();
     const base = useRecipes.getState().recipes[0]!;
