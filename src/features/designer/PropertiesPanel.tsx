@@ -41,6 +41,25 @@ export function solveBand(targets: BlendTargets): { lo: number; hi: number; isoM
   }
 }
 
+/** Decimals (at most 3) that write a limit exactly: 96 → 0, 95.5 → 1. */
+function limitDigits(limit: number, least: number): number {
+  let d = least;
+  while (d < 3 && Math.abs(Math.round(limit * 10 ** d) / 10 ** d - limit) > 1e-9) d++;
+  return d;
+}
+
+/**
+ * Decimals (from `least`, at most 3) at which a value that fails its limit is written beyond it, so a
+ * miss by less than the usual rounding never reads as meeting the limit ("96.0 ✗ minimum 96").
+ * `fails`: 'below' a minimum or 'above' a maximum; both in the unit they are shown in.
+ */
+export function failingDigits(value: number, limit: number, least: number, fails: 'below' | 'above'): number {
+  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
+  let d = least;
+  while (d < 3 && (fails === 'below' ? r(value, d) >= limit : r(value, d) <= limit)) d++;
+  return d;
+}
+
 export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row[] {
   const p = pred.props;
   const ex = p.explain;
@@ -75,25 +94,31 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   rows.push(shearRow(pred, targets, fmt));
   rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
   const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
+  const viDigits = !viOk && p.vi !== null && targets.minVi !== null ? failingDigits(p.vi, targets.minVi, 1, 'below') : 1;
   rows.push({
     key: 'vi',
     label: 'Viscosity index',
-    value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, 1)})`,
+    value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, viDigits)})`,
     status: targets.minVi === null ? 'info' : viOk ? 'ok' : 'fail',
-    statusText: targets.minVi === null ? '' : `minimum ${fmt.num(targets.minVi, 0)}`,
+    statusText: targets.minVi === null ? '' : `minimum ${fmt.num(targets.minVi, limitDigits(targets.minVi, 0))}`,
     explain: ex.vi ?? null,
   });
   rows.push({ key: 'density15', label: 'Density at 15 °C', value: `${fmt.num(p.density15, 4)} kg/L`, status: 'info', statusText: '', explain: ex.density15 ?? null });
   const ap = p.anilinePoint?.value ?? null;
   const apOk = targets.maxAnilinePoint === null || (ap !== null && ap <= targets.maxAnilinePoint + 0.01);
+  const apLimitDigits = targets.maxAnilinePoint === null ? 1 : limitDigits(fmt.tempValue(targets.maxAnilinePoint), 1);
+  const apDigits =
+    !apOk && ap !== null && targets.maxAnilinePoint !== null
+      ? failingDigits(fmt.tempValue(ap), Number(fmt.tempValue(targets.maxAnilinePoint).toFixed(apLimitDigits)), 1, 'above')
+      : 1;
   rows.push({
     key: 'anilinePoint',
     label: 'Aniline point (solvency)',
-    value: ap === null ? 'unknown' : fmt.temp(ap, 1),
+    value: ap === null ? 'unknown' : fmt.temp(ap, apDigits),
     status: targets.maxAnilinePoint === null ? 'info' : apOk ? 'ok' : 'fail',
     statusText: [
       pred.deposit ? SOLVENCY_BAND_LABEL[pred.deposit.solvency.band].toLowerCase() : '',
-      targets.maxAnilinePoint === null ? '' : `maximum ${fmt.temp(targets.maxAnilinePoint, 1)}`,
+      targets.maxAnilinePoint === null ? '' : `maximum ${fmt.temp(targets.maxAnilinePoint, apLimitDigits)}`,
     ]
       .filter(Boolean)
       .join('; '),
@@ -170,20 +195,33 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
         : `maximum ${fmt.pct(targets.maxPolymerFraction, 1)}`,
     explain: { equation: 'Σ wᵢ over polymer components (mass fractions)', standard: 'definition', inputs: {} },
   });
+  // A limit in the unit shown, with its own digits; a value that misses it, with the digits that show the miss.
+  const tempLimit = (
+    v: number | null,
+    limit: number | null,
+    fails: 'below' | 'above',
+  ): { value: string; limit: string; fail: boolean } => {
+    const ld = limit === null ? 0 : limitDigits(fmt.tempValue(limit), 0);
+    const fail = v !== null && limit !== null && (fails === 'below' ? v < limit - 0.01 : v > limit + 0.01);
+    const vd = fail ? failingDigits(fmt.tempValue(v), Number(fmt.tempValue(limit).toFixed(ld)), 0, fails) : 0;
+    return { value: v === null ? 'unknown' : fmt.temp(v, vd), limit: limit === null ? '' : fmt.temp(limit, ld), fail };
+  };
+  const flash = tempLimit(p.flashPoint, targets.minFlashPoint, 'below');
   rows.push({
     key: 'flash',
     label: 'Flash point (estimate)',
-    value: p.flashPoint === null ? 'unknown' : fmt.temp(p.flashPoint),
-    status: targets.minFlashPoint === null || p.flashPoint === null ? 'info' : p.flashPoint >= targets.minFlashPoint - 0.01 ? 'ok' : 'fail',
-    statusText: withExtrapolation(targets.minFlashPoint === null ? '' : `minimum ${fmt.temp(targets.minFlashPoint)}`, p.flashPointExtrapolated),
+    value: flash.value,
+    status: targets.minFlashPoint === null || p.flashPoint === null ? 'info' : flash.fail ? 'fail' : 'ok',
+    statusText: withExtrapolation(targets.minFlashPoint === null ? '' : `minimum ${flash.limit}`, p.flashPointExtrapolated),
     explain: ex.flashPoint ?? null,
   });
+  const pour = tempLimit(p.pourPoint, targets.maxPourPoint, 'above');
   rows.push({
     key: 'pour',
     label: 'Pour point (estimate)',
-    value: p.pourPoint === null ? 'unknown' : fmt.temp(p.pourPoint),
-    status: targets.maxPourPoint === null || p.pourPoint === null ? 'info' : p.pourPoint <= targets.maxPourPoint + 0.01 ? 'ok' : 'fail',
-    statusText: withExtrapolation(targets.maxPourPoint === null ? '' : `maximum ${fmt.temp(targets.maxPourPoint)}`, p.pourPointExtrapolated),
+    value: pour.value,
+    status: targets.maxPourPoint === null || p.pourPoint === null ? 'info' : pour.fail ? 'fail' : 'ok',
+    statusText: withExtrapolation(targets.maxPourPoint === null ? '' : `maximum ${pour.limit}`, p.pourPointExtrapolated),
     explain: ex.pourPoint ?? null,
   });
   const cur = p.currency ? ` (${p.currency})` : '';
