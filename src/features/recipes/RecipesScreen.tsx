@@ -68,10 +68,25 @@ export default function RecipesScreen() {
           <input type="checkbox" checked={showArchived} onChange={(e) => setShowArchived(e.target.checked)} /> Show archived
         </label>
         <span className="toolbar-gap" />
-        <button type="button" disabled={!history.canUndo} onClick={history.undo}>
+        {/* The notice names the last action and offers its undo: once the toolbar moves through the history it no longer holds. */}
+        <button
+          type="button"
+          disabled={!history.canUndo}
+          onClick={() => {
+            history.undo();
+            setFlash(null);
+          }}
+        >
           Undo
         </button>
-        <button type="button" disabled={!history.canRedo} onClick={history.redo}>
+        <button
+          type="button"
+          disabled={!history.canRedo}
+          onClick={() => {
+            history.redo();
+            setFlash(null);
+          }}
+        >
           Redo
         </button>
       </div>

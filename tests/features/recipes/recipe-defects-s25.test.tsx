@@ -1,0 +1,38 @@
+// @vitest-environment jsdom
+// s25 walk, Recipes screen: after the toolbar's Undo the notice of the undone action stayed up ("Restored …")
+// with an Undo button that would now undo the step before it (the archive).
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
+import RecipesScreen from '../../../src/features/recipes/RecipesScreen';
+import { recipeActions, resetDemo, useRecipes } from '../../../src/state';
+
+const get = (id: string) => useRecipes.getState().recipes.find((r) => r.id === id)!;
+
+let draft = '';
+beforeEach(() => {
+  resetDemo();
+  useRecipes.temporal.getState().clear();
+  draft = recipeActions.duplicateRecipe('demo-vg320', 'VG 320 archive trial')!;
+  recipeActions.setActiveRecipe(draft);
+});
+afterEach(cleanup);
+
+describe('Recipes screen — session 25 walk', () => {
+  it('the toolbar Undo takes the undone action’s notice away, so no notice names an action that is no longer in effect', () => {
+    render(<RecipesScreen />);
+    fireEvent.click(screen.getByRole('button', { name: 'Archive' }));
+    expect(get(draft).archived).toBe(true);
+    fireEvent.click(screen.getByRole('button', { name: 'Restore from archive' }));
+    expect(get(draft).archived).toBe(false);
+    expect(screen.getByText(/^Restored “VG 320 archive trial”/)).toBeTruthy();
+    const toolbar = screen.getByRole('button', { name: 'Redo' }).parentElement!;
+    fireEvent.click(within(toolbar).getByRole('button', { name: 'Undo' }));
+    expect(get(draft).archived).toBe(true);
+    expect(screen.queryByText(/^Restored “VG 320 archive trial”/)).toBeNull();
+    // the only Undo left is the toolbar's
+    expect(screen.getAllByRole('button', { name: 'Undo' })).toHaveLength(1);
+    fireEvent.click(within(toolbar).getByRole('button', { name: 'Redo' }));
+    expect(get(draft).archived).toBe(false);
+    expect(screen.getAllByRole('button', { name: 'Undo' })).toHaveLength(1);
+  });
+});
