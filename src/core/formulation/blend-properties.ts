@@ -12,6 +12,7 @@ import { BLEND_METHOD_LABEL, BLEND_METHOD_STANDARD, blendKv40Kv100, type BlendMe
 import { VI_MIN_KV100, reportedViscosityIndex, viscosityIndex } from '../viscosity/viscosity-index';
 import {
   D341_FORM_SHORT,
+  D341_TRUSTED_BAND_C,
   D341_Z_EQUATION,
   assessTemperature,
   kv40kv100FromPoints,
@@ -414,8 +415,10 @@ export function predictBlend(
     equation: `log₁₀ log₁₀ Z = A − B·log₁₀ T, T [K], ${D341_Z_EQUATION[d341Form]}, through the blend’s ν40 and ν100`,
     standard: D341_FORM_SHORT[d341Form],
     inputs: { 'ν40 [mm²/s]': kv40, 'ν100 [mm²/s]': kv100 },
+    // The measured temperatures and the trusted band in the user's unit (as the charts' note words them).
     note:
-      'Outside 40–100 °C the line is extrapolated, and outside −20…150 °C it is not to be trusted; not meaningful below ' +
+      `Outside ${words.sayTemp(40)}–${words.sayTemp(100)} the line is extrapolated, and outside ` +
+      `${words.sayTemp(D341_TRUSTED_BAND_C.min)}…${words.sayTemp(D341_TRUSTED_BAND_C.max)} it is not to be trusted; not meaningful below ` +
       'the pour point or for polymer-thickened oils at low temperature.',
   };
 

@@ -235,6 +235,22 @@ describe('Recipe designer', () => {
     }
   });
 
+  it('the working of a viscosity at temperature names the measured and trusted ranges in °F when set (s25 walk)', async () => {
+    // Before: "Outside 40–100 °C … outside −20…150 °C" in °F mode. t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale):
+    // 40 °C = 104 °F, 100 °C = 212 °F, −20 °C = −4 °F, 150 °C = 302 °F.
+    await loadUnitConversions();
+    settingsActions.updateSettings({ temperatureUnit: 'F' });
+    try {
+      render(<DesignerScreen />);
+      fireEvent.click(screen.getByLabelText(/^show working for Viscosity at 14 °F/));
+      const note = screen.getAllByText(/the line is extrapolated/)[0]!.textContent!;
+      expect(note).toMatch(/^Outside 104 °F–212 °F the line is extrapolated, and outside −4 °F…302 °F it is not to be trusted/);
+      expect(note).not.toMatch(/°C/);
+    } finally {
+      settingsActions.updateSettings({ temperatureUnit: 'C' });
+    }
+  });
+
   it('a draft without unsaved edits follows its recipe when an undo elsewhere takes the saved change back (second defect hunt)', () => {
     const copy = recipeActions.duplicateRecipe('demo-vg320')!;
     openInDesigner(copy);
