@@ -192,7 +192,16 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
   },
   addComponent: (componentId) =>
     set((s) => {
-      const lines = addLine(s.lines, componentId);
+      const pkg = s.targets.additive;
+      // A blank recipe holds only the additive package (100 % until another stock is added): the first
+      // other stock takes the rest once the package is set to its treat rate, so the shares can be typed.
+      const onlyPackage = pkg !== null && s.lines.length === 1 && s.lines[0]!.componentId === pkg.componentId && componentId !== pkg.componentId;
+      const lines = onlyPackage
+        ? [
+            { componentId: pkg.componentId, massFraction: pkg.massFraction },
+            { componentId, massFraction: 1 - pkg.massFraction },
+          ]
+        : addLine(s.lines, componentId);
       return { lines, dirty: true, balanceId: s.balanceId ?? pickBalance(lines, s.targets.additive?.componentId ?? null) };
     }),
   removeComponent: (componentId) =>
