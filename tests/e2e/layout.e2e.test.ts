@@ -43,6 +43,20 @@ async function reachable(el: Locator, what: string): Promise<void> {
   expect(ok, what).toBe('ok');
 }
 
+/** Recipe register cells (grade "VG 320", saved date "2025-03-01") broken over more than one line. */
+async function brokenRegisterCells(page: Page): Promise<string[]> {
+  return page.$$eval('.recipes-table tbody tr', (rows) =>
+    rows.flatMap((tr) =>
+      [tr.children[1], tr.children[5]].filter((td): td is Element => Boolean(td)).flatMap((td) => {
+        const range = document.createRange();
+        range.selectNodeContents(td);
+        const tops = new Set([...range.getClientRects()].map((r) => Math.round(r.top)));
+        return tops.size > 1 ? [td.textContent ?? ''] : [];
+      }),
+    ),
+  );
+}
+
 /**
  * Every stock name in the Stocks table is read whole without hovering: its field neither scrolls
  * sideways nor down (it wraps and grows to its lines). Returns the names checked.
@@ -240,5 +254,24 @@ describe('layout at 1024–2560 px', () => {
     }
     expect(s.errors).toEqual([]);
     expect(s.offHost).toEqual([]);
+  });
+
+  it('a long recipe name leaves the register’s grade and saved date on one line at 1024 px (s25 walk)', async () => {
+    // Before: at 1024 px a long name squeezed them into "VG / 320" and "2025-03- / 01".
+    const { page } = s;
+    const long = 'Gear oil VG 320 Group II and solvent neutral reformulation for the north tank farm, trial seventeen'; // invented
+    await page.setViewportSize({ width: 1024, height: 900 });
+    await page.getByRole('link', { name: /^Recipes/ }).click();
+    await page.getByRole('heading', { name: 'Recipes', level: 2 }).waitFor();
+    await page.getByRole('button', { name: /^Gear oil VG 320 — current recipe/ }).click();
+    await page.getByRole('button', { name: 'Duplicate', exact: true }).click();
+    const name = page.getByLabel('Name', { exact: true });
+    await expect.poll(() => name.inputValue()).toMatch(/\(copy\)$/);
+    await name.fill(long);
+    await name.press('Enter');
+    await page.getByRole('button', { name: long }).waitFor();
+    await screenshot(page, 'layout-recipes-long-name-1024');
+    expect(await brokenRegisterCells(page)).toEqual([]);
+    await noSidewaysScroll(page);
   });
 });

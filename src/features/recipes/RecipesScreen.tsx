@@ -127,7 +127,7 @@ export default function RecipesScreen() {
                       </button>
                       {r.isReference ? <span className="tag"> in production</span> : null}
                     </th>
-                    <td className="num">VG {r.grade}</td>
+                    <td className="num one-line">VG {r.grade}</td>
                     <td className="num">{r.revision}</td>
                     <td>
                       <StatusBadge status={r.status} />
@@ -142,7 +142,7 @@ export default function RecipesScreen() {
                         </span>
                       ) : null}
                     </td>
-                    <td>{r.updatedAt.slice(0, 10)}</td>
+                    <td className="one-line">{r.updatedAt.slice(0, 10)}</td>
                   </tr>
                 );
               })}
