@@ -3,7 +3,8 @@ import { Suspense, lazy, useEffect, useId, useMemo, useState } from 'react';
 import type { BlendTargets, Component, Objective, Recipe } from '../../core/formulation/model';
 import type { SubstituteCandidate } from '../../core/search/substitutes';
 import { Notice, methodText } from '../../components/notices';
-import { useFormat } from '../../components/format';
+import { useFormat, type Formatter } from '../../components/format';
+import { kv40kv100FromPoints } from '../../core/viscosity/viscosity-temperature';
 import { NumberField, ruleVerdict } from '../../components/fields';
 import { componentsById, defaultTargets, recipeActions, useLibrary, usePricedLibrary, useRecipes, useSettings } from '../../state';
 import { DEFAULT_MAX_POLYMER_FRACTION } from '../../core/formulation/model';
@@ -62,6 +63,35 @@ export function scenarioTargets(
  */
 export function pricingKey(priced: PricedLibrary): string {
   return `${priced.base}|${priced.components.map((c) => `${c.id}:${c.price.amount}:${c.price.basis}:${c.price.currency}`).join('|')}`;
+}
+
+/**
+ * Why no substitute was found, in numbers, where the stocks searched alone say it: every one lighter than
+ * the ν40 band (the heaviest named) or every one heavier (the lightest named). Polymers count unless the
+ * search's polymer cap is 0; the additive package is left out. Empty when the stocks span the band.
+ */
+function poolReach(
+  result: { poolIds: readonly string[]; band: { min: number; max: number } },
+  byId: ReadonlyMap<string, Component>,
+  polymerCap: number | null | undefined,
+  fmt: Formatter,
+): string {
+  const pool: { code: string; kv40: number }[] = [];
+  for (const id of result.poolIds) {
+    const c = byId.get(id);
+    if (!c || c.category === 'additive-package' || (c.category === 'polymer' && polymerCap === 0)) continue;
+    try {
+      pool.push({ code: c.code, kv40: kv40kv100FromPoints(c.viscosityPoints).kv40 });
+    } catch {
+      return '';
+    }
+  }
+  if (pool.length === 0) return '';
+  const heaviest = pool.reduce((a, b) => (b.kv40 > a.kv40 ? b : a));
+  const lightest = pool.reduce((a, b) => (b.kv40 < a.kv40 ? b : a));
+  if (heaviest.kv40 < result.band.min) return ` The heaviest stock searched, ${heaviest.code}, has ν40 ${fmt.sig(heaviest.kv40, 3)} mm²/s, below the band.`;
+  if (lightest.kv40 > result.band.max) return ` The lightest stock searched, ${lightest.code}, has ν40 ${fmt.sig(lightest.kv40, 3)} mm²/s, above the band.`;
+  return '';
 }
 
 export default function ExplorerScreen() {
@@ -301,9 +331,10 @@ export default function ExplorerScreen() {
           {candidates.length === 0 ? (
             running_ ? null : (
             <Notice tone="warning" title="No substitute found">
-              No combination of up to {st.result.maxComponents} remaining stocks meets the targets (ν40 band {fmt.num(st.result.band.min, 1)}–
-              {fmt.num(st.result.band.max, 1)} mm²/s). Allow more components per recipe, relax the reference recipe’s targets in the designer, or add
-              a heavier stock or thickener to the library.
+              No combination of up to {st.result.maxComponents} remaining {st.result.maxComponents === 1 ? 'stock' : 'stocks'} meets the targets (ν40
+              band {fmt.num(st.result.band.min, 1)}–{fmt.num(st.result.band.max, 1)} mm²/s).
+              {poolReach(st.result, byId, st.resultFor?.polymerCap, fmt)} Allow more components per recipe, relax the reference recipe’s targets in the
+              designer, or add a heavier stock or thickener to the library.
             </Notice>
             )
           ) : (

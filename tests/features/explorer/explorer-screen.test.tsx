@@ -105,6 +105,21 @@ describe('Substitute explorer', () => {
     expect(useRecipes.getState().targets[refId]?.bounds?.['demo-bw-190']).toBeUndefined();
   });
 
+  it('with no substitute, says in numbers why when every stock searched is lighter than the band (s25 walk)', async () => {
+    // Before: only "No combination of up to 3 remaining stocks meets the targets (ν40 band …)". The heaviest stock
+    // left here is BW-281 (invented demo ν40 495 mm²/s, state/demo.ts); the VG 680 band is 646.0–714.0 mm²/s
+    // (ISO 3448 mid-point 680 ± 5 %).
+    const heavy = ['BW-190', 'BW-191', 'BW-499', 'BW-440', 'BW-441', 'BW-510'];
+    const ids = useLibrary.getState().components.filter((c) => heavy.includes(c.code)).map((c) => c.id);
+    useExplorerStore.setState({ referenceId: 'demo-vg680', withdrawn: ids, maxComponents: 3 });
+    render(<ExplorerScreen />);
+    fireEvent.click(screen.getByText('Run search'));
+    await waitFor(() => expect(useExplorerStore.getState().status).toBe('done'), { timeout: 30000 });
+    const said = (await screen.findByText('No substitute found')).closest('[role]')?.textContent ?? '';
+    expect(said).toMatch(/No combination of up to 3 remaining stocks meets the targets \(ν40 band 646\.0–714\.0 mm²\/s\)/);
+    expect(said).toMatch(/The heaviest stock searched, BW-28\d, has ν40 4\d\d mm²\/s, below the band\./);
+  });
+
   it('Adopt at the 10,000-recipe limit says why beside the button and keeps everything saved (session 19, defect 5)', async () => {
     await runWithBrightStockWithdrawn();
     const base = useRecipes.getState().recipes[0]!;
