@@ -75,21 +75,35 @@ export interface ConstraintCheck {
  */
 export function checkInWords(c: ConstraintCheck, display?: NumberDisplay): string {
   const w = displayWords(display);
+  // A value that misses its limit by less than its usual rounding gets the digits (at most 3) that show
+  // the miss: "95.96, limit at least 96", not "96.0". Compared in the unit shown (°F, %).
+  const missDigits = (v: number, base: number): number => {
+    const end = c.ok ? null : c.min !== null && v < c.min ? c.min : c.max !== null && v > c.max ? c.max : null;
+    if (end === null) return base;
+    const k = c.quantity === 'fraction' || c.quantity === 'probability' ? 100 : 1;
+    // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale)
+    const shown = (x: number) => (c.quantity === 'temperature' && display?.temperatureUnit === 'F' ? (x * 9) / 5 + 32 : x * k);
+    const [sv, se] = [shown(v), shown(end)];
+    let d = base;
+    const r = (x: number) => Math.round(x * 10 ** d) / 10 ** d;
+    while (d < 3 && (end === c.min ? r(sv) >= se : r(sv) <= se)) d++;
+    return d;
+  };
   const value = (v: number): string => {
     switch (c.quantity) {
       case 'kv':
-        return `${w.kv(v)} mm²/s`;
+        return `${w.num(v, missDigits(v, v >= 100 ? 0 : v >= 10 ? 1 : 2))} mm²/s`;
       case 'temperature':
-        return w.temp(v);
+        return w.temp(v, missDigits(v, 1));
       case 'fraction':
       case 'probability':
-        return w.pct(v);
+        return w.pct(v, missDigits(v, 1));
       case 'mass':
         return `${w.num(v, 0)} kg`;
       case 'count':
         return w.num(v, 0);
       default:
-        return w.num(v, 1);
+        return w.num(v, missDigits(v, 1));
     }
   };
   const limit = (v: number): string => {

@@ -39,4 +39,16 @@ describe('displayWords', () => {
     const share = { constraint: 'maximum polymer share', name: 'maximum polymer share', quantity: 'fraction' as const, value: 0.31, limit: '≤ 0.25', min: null, max: 0.25, ok: false };
     expect(checkInWords(share, { decimalSeparator: ',' })).toBe('maximum polymer share: 31,0 %, limit at most 25 %');
   });
+
+  it('writes a value that misses its limit by less than the usual rounding with the digits that show the miss (s25 walk)', () => {
+    // Before: "minimum VI: 96.0, limit at least 96" for a VI of 95.96. Values invented (common practice (no source)).
+    const vi = { constraint: 'minimum VI', name: 'minimum VI', quantity: 'vi' as const, value: 95.96, limit: '≥ 96', min: 96, max: null, ok: false };
+    expect(checkInWords(vi)).toBe('minimum VI: 95.96, limit at least 96');
+    const ap = { constraint: 'maximum aniline point [°C]', name: 'maximum aniline point', quantity: 'temperature' as const, value: 122.03, limit: '≤ 122', min: null, max: 122, ok: false };
+    expect(checkInWords(ap)).toBe('maximum aniline point: 122.03 °C, limit at most 122 °C');
+    const kv = { constraint: 'ν40 band [mm²/s]', name: 'ν40 band', quantity: 'kv' as const, value: 303.8, limit: '304–336', min: 304, max: 336, ok: false };
+    expect(checkInWords(kv)).toBe('ν40 band: 303.8 mm²/s, limit 304 mm²/s to 336 mm²/s');
+    // a clear miss keeps the usual digits
+    expect(checkInWords({ ...vi, value: 94.2 })).toBe('minimum VI: 94.2, limit at least 96');
+  });
 });
