@@ -343,6 +343,7 @@ const StartFrom = memo(function StartFrom({
   useEffect(() => setChoice(currentId ?? ''), [currentId]);
   /** The choice waiting for the blender's answer about the unsaved edits. */
   const [asking, setAsking] = useState<string | null>(null);
+  const picker = useRef<HTMLSelectElement>(null);
   const openChoice = (c: string) => {
     const r = recipes.find((x) => x.id === c);
     if (r) onLoad(r);
@@ -359,7 +360,7 @@ const StartFrom = memo(function StartFrom({
         }}
       >
         <label htmlFor={id}>Open</label>
-        <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)}>
+        <select id={id} ref={picker} value={choice} onChange={(e) => setChoice(e.target.value)}>
           <option value="">a new blank recipe</option>
           {recipes
             .filter((r) => !r.archived || r.id === currentId)
@@ -378,6 +379,8 @@ const StartFrom = memo(function StartFrom({
           onAnswer={(answer) => {
             const c = asking;
             setAsking(null);
+            // The question goes away: the keyboard goes on from the picker, not from the page's start.
+            picker.current?.focus();
             if (answer === 'cancel') {
               setChoice(currentId ?? ''); // the picker shows the draft's recipe again
               return;

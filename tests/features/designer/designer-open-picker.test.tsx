@@ -37,6 +37,20 @@ describe('the Open picker with unsaved edits (s22 item 2)', () => {
     expect(a.designer.getState()).toMatchObject({ name: 'Trial with edits', dirty: true, lines });
   });
 
+  it('Escape or Cancel gives the focus back to the Open picker, so the keyboard goes on from there (s25 walk)', async () => {
+    // Before: the question closed and the focus fell to the page's start.
+    const a = await openTab();
+    edit(a, 'Trial with edits', -0.05);
+    const picker = a.view.getByLabelText('Open', { selector: 'select' });
+    pick(a, 'demo-vg460');
+    fireEvent.keyDown(question(a)!, { key: 'Escape' });
+    expect(question(a)).toBeNull();
+    expect(document.activeElement).toBe(picker);
+    pick(a, 'demo-vg460');
+    fireEvent.click(within(question(a)!).getByRole('button', { name: 'Cancel' }));
+    expect(document.activeElement).toBe(picker);
+  });
+
   it('“Keep my edits as a draft” opens the other recipe and offers the edits by name, kept across a reload', async () => {
     const a = await openTab();
     edit(a, 'Trial with edits', -0.05);
