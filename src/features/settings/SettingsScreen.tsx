@@ -433,7 +433,10 @@ export default function SettingsScreen() {
           <button
             type="button"
             onClick={() => {
-              if (window.confirm('Replace the library and recipes with the invented demo? (Undo on the Stocks screen brings them back.)')) {
+              if (window.confirm(
+                  'Replace the library and recipes with the invented demo, and the company name with the demo plant’s? ' +
+                    '(Undo on the Stocks screen brings back the library, Undo on the Recipes screen the recipes; the company name is typed again here.)',
+                )) {
                 resetDemo();
                 setResetDone(true);
               }
