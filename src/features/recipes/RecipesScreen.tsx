@@ -39,8 +39,11 @@ export default function RecipesScreen() {
   }, [recipes]);
   const shown = useMemo(() => {
     const q = query.trim().toLowerCase();
+    // Spaces do not count: "VG320" finds "VG 320" (in the name or the grade) as "vg 320" does.
+    const compact = (t: string) => t.replace(/\s+/g, '');
+    const cq = compact(q);
     return recipes
-      .filter((r) => (showArchived || !r.archived) && (!q || r.name.toLowerCase().includes(q) || `vg ${r.grade}`.includes(q)))
+      .filter((r) => (showArchived || !r.archived) && (!q || r.name.toLowerCase().includes(q) || compact(r.name.toLowerCase()).includes(cq) || `vg${r.grade}`.includes(cq)))
       .sort((a, b) => a.grade - b.grade || a.name.localeCompare(b.name) || a.revision - b.revision);
   }, [recipes, showArchived, query]);
   const selected = (selectedId ? byId.get(selectedId) : undefined) ?? null;

@@ -35,4 +35,17 @@ describe('Recipes screen — session 25 walk', () => {
     expect(get(draft).archived).toBe(false);
     expect(screen.getAllByRole('button', { name: 'Undo' })).toHaveLength(1);
   });
+
+  it('Find reads a grade typed without its space ("VG320", "vg 320") the same way (s25 walk)', () => {
+    // Before: "VG320" found nothing, though the field's hint reads "name or VG 320".
+    render(<RecipesScreen />);
+    const find = screen.getByPlaceholderText('name or VG 320');
+    const listed = () => [...screen.getByTestId('recipe-list').querySelectorAll('tbody th button')].map((b) => b.textContent);
+    fireEvent.change(find, { target: { value: 'VG320' } });
+    const a = listed();
+    fireEvent.change(find, { target: { value: 'vg 320' } });
+    expect(a).toEqual(listed());
+    expect(a).toContain('VG 320 archive trial');
+    expect(a.every((n) => /VG 320/.test(n ?? ''))).toBe(true);
+  });
 });
