@@ -22,7 +22,7 @@ import {
 } from '../../state';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
 import { solvableLibrary, unpricedMessage, unpricedTitle } from '../../core/currency/exchange-rates';
-import { checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
+import { TEXT_RULES, checkText, firstProblem, recipeProblems, recipeWho, targetsProblems } from '../../state/field-rules';
 import { TargetsForm } from './TargetsForm';
 import { RecipeTable } from './RecipeTable';
 import { densityLookup, draftKeepable, useDesignerStore } from './store';
@@ -163,8 +163,10 @@ export default function DesignerScreen() {
     [actions, targets.grade, additiveId, targets.referenceRecipeId],
   );
   const onSaveNew = useCallback(
-    (n: string, reason: string): SaveOutcome => {
+    (typed: string, reason: string): SaveOutcome => {
       const s = useDesignerStore.getState();
+      // A new recipe never reads exactly as a saved one (the one it came from, most often): marked as a copy, as Duplicate does.
+      const n = distinctName(typed, new Set(useRecipes.getState().recipes.map((r) => r.name.trim().toLowerCase())));
       const lib = useLibrary.getState().components;
       // The same field rules as storage: refuse before anything is written.
       const refused = firstProblem(targetsProblems(s.targets, recipeWho(n), stockLabel)) ?? checkText('reasonForChange', reason, recipeWho(n));
@@ -521,6 +523,21 @@ const SourceStatus = memo(function SourceStatus({ recipe, components }: { recipe
   );
 });
 
+/**
+ * `name` (trimmed), or — when a saved recipe already has it (any case) — the same marked " (copy)",
+ * " (copy 2)", … (an earlier mark replaced), within the recipe-name length.
+ */
+export function distinctName(name: string, taken: ReadonlySet<string>): string {
+  const n = name.trim();
+  if (!taken.has(n.toLowerCase())) return n;
+  const base = n.replace(/ \(copy(?: \d+)?\)$/, '');
+  for (let i = 1; ; i++) {
+    const mark = i === 1 ? ' (copy)' : ` (copy ${i})`;
+    const candidate = `${base.slice(0, TEXT_RULES.recipeName.max - mark.length)}${mark}`;
+    if (!taken.has(candidate.toLowerCase())) return candidate;
+  }
+}
+
 /** What a save did: the id saved to, or why nothing was saved. */
 type SaveOutcome = { id: string } | { refused: string };
 
@@ -640,8 +657,8 @@ const SaveBox = memo(function SaveBox({
           onClick={() =>
             report(
               onSaveNew(finalName, reason.trim()),
-              () =>
-                `Saved as a new draft recipe: ${finalName}.` +
+              (savedId) =>
+                `Saved as a new draft recipe: ${useRecipes.getState().recipes.find((r) => r.id === savedId)?.name ?? finalName}.` +
                 (sourceRecipe && sourceRecipe.grade !== grade
                   ? ` The product specification of “${sourceRecipe.name}” (VG ${sourceRecipe.grade}) was not copied to this VG ${grade} recipe: enter its release limits on Recipes.`
                   : ''),

@@ -298,6 +298,28 @@ describe('Recipe designer', () => {
     expect(stored().lines).toEqual(theirsSaved);
   });
 
+  it('Save as new recipe under a name another recipe has marks it as a copy, as Duplicate does (s25 walk)', () => {
+    // Before: the new recipe took the opened recipe's own name (or any other saved name typed), and the
+    // register listed two identical names.
+    render(<DesignerScreen />);
+    const source = useRecipes.getState().recipes.find((r) => r.id === useDesignerStore.getState().sourceRecipeId)!;
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    let saved = useRecipes.getState().recipes.at(-1)!;
+    expect(saved.id).not.toBe(source.id);
+    expect(saved.name).toBe(`${source.name} (copy)`);
+    expect(screen.getByText(`Saved as a new draft recipe: ${source.name} (copy).`)).toBeTruthy();
+    // the name left empty, and another recipe's name typed (any case): each gets a name of its own
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: '' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    saved = useRecipes.getState().recipes.at(-1)!;
+    expect(saved.name).toBe(`${source.name} (copy 2)`);
+    fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: ' gear oil vg 460 — current recipe (invented demo) ' } });
+    fireEvent.click(screen.getByText('Save as new recipe'));
+    expect(useRecipes.getState().recipes.at(-1)!.name).toBe('gear oil vg 460 — current recipe (invented demo) (copy)');
+    const names = useRecipes.getState().recipes.map((r) => r.name.toLowerCase());
+    expect(new Set(names).size).toBe(names.length);
+  });
+
   it('Save as new recipe is one undo step: one undo removes the recipe and its saved targets together (second defect hunt)', () => {
     render(<DesignerScreen />);
     fireEvent.change(screen.getByLabelText('Recipe name'), { target: { value: 'Trial 320 undo' } });
