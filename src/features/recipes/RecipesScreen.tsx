@@ -555,7 +555,7 @@ function SpecificationForm({
       <legend>Product specification (release limits)</legend>
       <p className="muted">
         Limits printed in the blend sheet&rsquo;s QC table; a blank one prints “Per specification”. ν40 is set by the grade (ISO 3448) and the plant aim.
-        Predictions are shown beside the limits for information only.
+        The blend sheet’s QC table shows the predictions beside the limits, for information only.
       </p>
       <p data-testid="spec-grade-link">
         {isBlankSpecification(spec)

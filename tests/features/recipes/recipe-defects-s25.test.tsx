@@ -48,4 +48,12 @@ describe('Recipes screen — session 25 walk', () => {
     expect(a).toContain('VG 320 archive trial');
     expect(a.every((n) => /VG 320/.test(n ?? ''))).toBe(true);
   });
+
+  it('the specification form says where predictions stand beside the limits: on the blend sheet, not in this form (s25 walk)', () => {
+    // Before: "Predictions are shown beside the limits for information only." — none is shown in the form.
+    render(<RecipesScreen />);
+    const form = screen.getByRole('group', { name: 'Product specification (release limits)' });
+    expect(form.textContent).toMatch(/The blend sheet’s QC table shows the predictions beside the limits, for information only\./);
+    expect(form.textContent).not.toMatch(/Predictions are shown beside the limits for information only/);
+  });
 });
