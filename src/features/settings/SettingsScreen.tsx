@@ -142,10 +142,17 @@ function ExchangeRates() {
       checkText('rateCurrency', currency, who) ??
       (currency === base ? `${currency} is the base currency; it needs no rate` : null) ??
       (s.exchangeRates.some((r) => normaliseCurrency(r.currency) === currency) ? `${currency} has a rate already; change that one` : null) ??
-      (read.error !== undefined ? `${who}: ${read.error}` : rate === null ? `${who}: enter the rate` : checkNumber('exchangeRate', rate, who)) ??
+      (read.error !== undefined
+        ? `${who}: ${read.error}`
+        : rate === null
+          ? `${who}: enter the rate`
+          : rate <= 0
+            ? `${who}: an exchange rate must be above 0.`
+            : checkNumber('exchangeRate', rate, who, fmt)) ??
       checkDate('rateAsOf', adding.asOf, who);
     if (problem) {
-      setMessage(problem);
+      // Every message here begins with a capital, whichever check wrote it.
+      setMessage(problem.charAt(0).toUpperCase() + problem.slice(1));
       return;
     }
     const refused = setRates([...s.exchangeRates, { currency, rate: rate!, asOf: adding.asOf }]);

@@ -75,7 +75,7 @@ describe('Settings: an exchange rate typed with the other decimal mark (second d
     fireEvent.change(within(form).getByLabelText(/per unit/), { target: { value: '0,92' } });
     fireEvent.change(within(form).getByLabelText('As of'), { target: { value: '2026-11-30' } });
     fireEvent.submit(form);
-    expect(screen.getByRole('alert').textContent).toMatch(/the rate for USD: Decimal separator is “\.” \(Settings\): “0,92” could mean 0\.92 or 92/);
+    expect(screen.getByRole('alert').textContent).toMatch(/The rate for USD: Decimal separator is “\.” \(Settings\): “0,92” could mean 0\.92 or 92/);
     expect(useSettingsState.getState().settings.exchangeRates).toEqual([]);
   });
 });
