@@ -1,6 +1,6 @@
 // The recipe register: every saved recipe with its status (draft / approved / superseded), its
 // revisions, reason for change and product specification; approve, rename, archive, delete with undo.
-import { useEffect, useId, useMemo, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import type { Recipe, ReleaseSpecification } from '../../core/formulation/model';
 import { BLANK_SPECIFICATION, RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { assessRelease } from '../../core/release/release-hold';
@@ -17,7 +17,8 @@ import { checkText, type NumberRuleKey, type TextRuleKey } from '../../state/fie
 import { holdLeave, nextRevisionNumber, recipeActions, useLibrary, useRecipes, useRecipesHistory, useSettings } from '../../state';
 import './recipes.css';
 
-type Flash = { tone: 'success' | 'info' | 'warning'; text: string; undo?: boolean } | null;
+/** `focus`: the action took away the button that was pressed (Delete, Duplicate): the notice's first button takes the focus. */
+type Flash = { tone: 'success' | 'info' | 'warning'; text: string; undo?: boolean; focus?: boolean } | null;
 
 export default function RecipesScreen() {
   const recipes = useRecipes((s) => s.recipes);
@@ -28,6 +29,10 @@ export default function RecipesScreen() {
   const [query, setQuery] = useState('');
   const [selectedId, setSelectedId] = useState<string | null>(activeRecipeId);
   const [flash, setFlash] = useState<Flash>(null);
+  const flashBox = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (flash?.focus) flashBox.current?.querySelector('button')?.focus();
+  }, [flash]);
   const fmt = useFormat();
 
   const byId = useMemo(() => new Map(recipes.map((r) => [r.id, r])), [recipes]);
@@ -51,7 +56,7 @@ export default function RecipesScreen() {
   const remove = (r: Recipe) => {
     recipeActions.removeRecipe(r.id);
     setSelectedId(null);
-    setFlash({ tone: 'info', text: `Deleted “${r.name}” (revision ${r.revision}).`, undo: true });
+    setFlash({ tone: 'info', text: `Deleted “${r.name}” (revision ${r.revision}).`, undo: true, focus: true });
   };
 
   return (
@@ -93,15 +98,17 @@ export default function RecipesScreen() {
           Redo
         </button>
       </div>
-      {flash && (
-        <ActionNotice
-          tone={flash.tone}
-          text={flash.text}
-          canUndo={Boolean(flash.undo && history.canUndo)}
-          onUndo={history.undo}
-          onDismiss={() => setFlash(null)}
-        />
-      )}
+      <div ref={flashBox}>
+        {flash && (
+          <ActionNotice
+            tone={flash.tone}
+            text={flash.text}
+            canUndo={Boolean(flash.undo && history.canUndo)}
+            onUndo={history.undo}
+            onDismiss={() => setFlash(null)}
+          />
+        )}
+      </div>
       <div className="recipes-grid">
         <div className="table-scroll">
           <table className="data recipes-table" data-testid="recipe-list">
@@ -385,7 +392,7 @@ function RecipeDetail({
             setActionRefused(null);
             if (id) {
               onSelect(id);
-              onFlash({ tone: 'success', text: `Copied as a new draft: “${recipe.name} (copy)”.`, undo: true });
+              onFlash({ tone: 'success', text: `Copied as a new draft: “${recipe.name} (copy)”.`, undo: true, focus: true });
             }
           }}
         >

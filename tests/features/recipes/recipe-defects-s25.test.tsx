@@ -56,4 +56,19 @@ describe('Recipes screen — session 25 walk', () => {
     expect(form.textContent).toMatch(/The blend sheet’s QC table shows the predictions beside the limits, for information only\./);
     expect(form.textContent).not.toMatch(/Predictions are shown beside the limits for information only/);
   });
+
+  it('after Delete or Duplicate the focus is on the notice’s Undo, not lost to the page’s start (s25 walk, keyboard)', () => {
+    render(<RecipesScreen />);
+    fireEvent.click(screen.getByRole('button', { name: 'Duplicate' }));
+    expect(screen.getByText(/^Copied as a new draft: “VG 320 archive trial \(copy\)”/)).toBeTruthy();
+    let active = document.activeElement as HTMLElement;
+    expect(active.tagName).toBe('BUTTON');
+    expect(active.textContent).toBe('Undo');
+    expect(active.closest('.notice')).not.toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Delete' }));
+    expect(screen.getByText(/^Deleted “VG 320 archive trial \(copy\)”/)).toBeTruthy();
+    active = document.activeElement as HTMLElement;
+    expect(active.textContent).toBe('Undo');
+    expect(active.closest('.notice')).not.toBeNull();
+  });
 });
