@@ -392,7 +392,9 @@ function RecipeDetail({
             setActionRefused(null);
             if (id) {
               onSelect(id);
-              onFlash({ tone: 'success', text: `Copied as a new draft: “${recipe.name} (copy)”.`, undo: true, focus: true });
+              // The copy's name as saved (a name at its limit is shortened to keep the " (copy)" mark).
+              const copyName = useRecipes.getState().recipes.find((r) => r.id === id)?.name ?? `${recipe.name} (copy)`;
+              onFlash({ tone: 'success', text: `Copied as a new draft: “${copyName}”.`, undo: true, focus: true });
             }
           }}
         >

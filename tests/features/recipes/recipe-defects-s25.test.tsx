@@ -71,4 +71,14 @@ describe('Recipes screen — session 25 walk', () => {
     expect(active.textContent).toBe('Undo');
     expect(active.closest('.notice')).not.toBeNull();
   });
+
+  it('Duplicate names in its notice the copy’s name as saved, also for a name at the 200-character limit (s25 walk)', () => {
+    const long = 'L'.repeat(200); // the recipe-name limit (state/field-rules.ts TEXT_RULES.recipeName)
+    recipeActions.renameRecipe(draft, long);
+    render(<RecipesScreen />);
+    fireEvent.click(screen.getByRole('button', { name: 'Duplicate' }));
+    const copy = useRecipes.getState().recipes.at(-1)!;
+    expect(copy.name).toHaveLength(200);
+    expect(screen.getByText(`Copied as a new draft: “${copy.name}”.`)).toBeTruthy();
+  });
 });
