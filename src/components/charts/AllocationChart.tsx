@@ -61,7 +61,7 @@ export const AllocationChart = memo(function AllocationChart({ rows, series, uni
         )}
       </ul>
       <div role="img" aria-label={title} aria-describedby={descId}>
-        <BarChart width={width} height={height} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 4 }}>
+        <BarChart accessibilityLayer={false} width={width} height={height} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 4 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
           <XAxis
             type="number"

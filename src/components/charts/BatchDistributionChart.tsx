@@ -83,7 +83,7 @@ export const BatchDistributionChart = memo(function BatchDistributionChart({
     <figure className="chart" data-chart="batch-distribution" style={{ width }}>
       <figcaption className="chart-title">{CHART_TITLE}</figcaption>
       <div role="img" aria-label={CHART_TITLE} aria-describedby={descId} className="chart-plot" style={plotBox(height)}>
-        <ComposedChart width={width} height={height} margin={{ top: 8, right: 20, bottom: 28, left: 12 }}>
+        <ComposedChart accessibilityLayer={false} width={width} height={height} margin={{ top: 8, right: 20, bottom: 28, left: 12 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <ReferenceArea x1={isoBand.min} x2={isoBand.max} fill={CHART_COLOURS.cold} fillOpacity={0.08} ifOverflow="extendDomain" />
           <ReferenceArea x1={plantBand.min} x2={plantBand.max} fill={CHART_COLOURS.candidate} fillOpacity={0.14} ifOverflow="extendDomain" />

@@ -66,7 +66,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
             <li><span className="block block-mass" /> mass %</li>
             <li><span className="block block-volume" /> volume %</li>
           </ul>
-          <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
+          <BarChart accessibilityLayer={false} width={half} height={height} data={data} layout="vertical" margin={margin}>
             <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
             <XAxis
               type="number"
@@ -86,7 +86,7 @@ export const CompositionChart = memo(function CompositionChart({ rows, currency,
           <ul className="chart-legend" aria-hidden="true">
             <li><span className="block block-cost" /> cost, {currency} per litre of blend at 15 °C</li>
           </ul>
-          <BarChart width={half} height={height} data={data} layout="vertical" margin={margin}>
+          <BarChart accessibilityLayer={false} width={half} height={height} data={data} layout="vertical" margin={margin}>
             <CartesianGrid stroke={CHART_COLOURS.grid} horizontal={false} />
             <XAxis type="number" domain={costDomain} ticks={costTicks} allowDataOverflow tickFormatter={(v: number) => f.num(v, tickDecimals(costDomain, 4))} />
             <YAxis type="category" dataKey="label" width={labelWidth} interval={0} tick={{ fontSize: 11 }} />

@@ -52,7 +52,7 @@ export const FrontierChart = memo(function FrontierChart({ points, currency, wid
     <figure className="chart" data-chart="frontier" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${points.length} candidates, ${frontier.length} on the frontier.`}>
-        <ComposedChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
+        <ComposedChart accessibilityLayer={false} width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: 12 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <XAxis
             type="number"

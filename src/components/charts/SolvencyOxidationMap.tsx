@@ -81,7 +81,7 @@ export const SolvencyOxidationMap = memo(function SolvencyOxidationMap({
     <figure className="chart" data-chart="solvency-oxidation" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`} className="chart-plot" style={plotBox(height)}>
-        <ScatterChart width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: formatY ? 84 : 36 }}>
+        <ScatterChart accessibilityLayer={false} width={width} height={height} margin={{ top: 12, right: 20, bottom: 28, left: formatY ? 84 : 36 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           {riskRegion && (
             <ReferenceArea

@@ -149,7 +149,7 @@ export const ViscosityTemperatureChart = memo(function ViscosityTemperatureChart
     <figure className="chart" data-chart="viscosity-temperature" style={{ width }}>
       <figcaption className="chart-title">{title}</figcaption>
       <div role="img" aria-label={`${title}. ${describe}`} className="chart-plot" style={plotBox(height)}>
-        <LineChart width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 28 }}>
+        <LineChart accessibilityLayer={false} width={width} height={height} margin={{ top: 16, right: 24, bottom: 28, left: 28 }}>
           <CartesianGrid stroke={CHART_COLOURS.grid} />
           <XAxis
             type="number"

@@ -153,6 +153,22 @@ describe('other charts', () => {
   });
 });
 
+describe('charts are pictures, not tab stops (s25)', () => {
+  it('no focusable element inside a chart: each stands in a role="img" box with its name and description, so a focusable SVG in it was an unnamed tab stop', () => {
+    const { container } = render(
+      <div>
+        <SolvencyOxidationMap width={400} height={300} points={[{ id: 'r', label: 'ref', role: 'reference', solvency: 60, oxidation: 40 }]} />
+        <CompositionChart width={700} height={260} currency="EUR" rows={[{ id: 'a', label: 'N150', massPct: 100, volumePct: 100, costPerLitre: 0.8 }]} />
+        <FrontierChart width={500} height={300} currency="EUR" points={[{ id: 'a', label: 'a', costPerLitre: 1.0, anilinePoint: 120, role: 'frontier' }]} />
+        <ViscosityTemperatureChart width={640} height={360} lines={[{ id: 'a', label: 'stock A', kv40: 30, kv100: 5.2, role: 'component' }]} />
+      </div>,
+    );
+    expect(container.querySelectorAll('svg').length).toBeGreaterThanOrEqual(5);
+    const stops = [...container.querySelectorAll('[role="img"] [tabindex]:not([tabindex="-1"])')].map((e) => `${e.tagName}.${e.getAttribute('class')}`);
+    expect(stops).toEqual([]);
+  });
+});
+
 describe('one formatter for every chart', () => {
   it('ticks use the decimal comma and °F from the settings, and never "1e6"', async () => {
     const { settingsActions } = await import('../../../src/state');
