@@ -60,6 +60,25 @@ export function failingDigits(value: number, limit: number, least: number, fails
   return d;
 }
 
+/**
+ * Decimals (from `least`, at most 3) at which a value that meets its limit — within the checks' 0.01
+ * tolerance — is written on the limit's own side, so a pass never reads as a miss ("94.6 ✓ minimum
+ * 94.65" becomes "94.65 ✓ minimum 94.65"). `fails` as in {@link failingDigits}: the side a miss lies on.
+ * A value met only by the tolerance (94.641 against 94.65) gets 3 and still reads below: {@link metWithin}.
+ */
+export function passingDigits(value: number, limit: number, least: number, fails: 'below' | 'above'): number {
+  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
+  let d = least;
+  while (d < 3 && (fails === 'below' ? r(value, d) < limit : r(value, d) > limit)) d++;
+  return d;
+}
+
+/** The note for a value met only by the 0.01 tolerance, so even written at `digits` it lies beyond the limit. */
+function metWithin(value: number, limit: number, digits: number, fails: 'below' | 'above'): string {
+  const v = Math.round(value * 10 ** digits) / 10 ** digits;
+  return (fails === 'below' ? v < limit : v > limit) ? ' (met within the check tolerance)' : '';
+}
+
 export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row[] {
   const p = pred.props;
   const ex = p.explain;
@@ -94,23 +113,32 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   rows.push(shearRow(pred, targets, fmt));
   rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
   const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
-  const viDigits = !viOk && p.vi !== null && targets.minVi !== null ? failingDigits(p.vi, targets.minVi, 1, 'below') : 1;
+  const viDigits =
+    p.vi === null || targets.minVi === null
+      ? 1
+      : viOk
+        ? passingDigits(p.vi, targets.minVi, 1, 'below')
+        : failingDigits(p.vi, targets.minVi, 1, 'below');
   rows.push({
     key: 'vi',
     label: 'Viscosity index',
     value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, viDigits)})`,
     status: targets.minVi === null ? 'info' : viOk ? 'ok' : 'fail',
-    statusText: targets.minVi === null ? '' : `minimum ${fmt.num(targets.minVi, limitDigits(targets.minVi, 0))}`,
+    statusText:
+      targets.minVi === null
+        ? ''
+        : `minimum ${fmt.num(targets.minVi, limitDigits(targets.minVi, 0))}${viOk && p.vi !== null ? metWithin(p.vi, targets.minVi, viDigits, 'below') : ''}`,
     explain: ex.vi ?? null,
   });
   rows.push({ key: 'density15', label: 'Density at 15 °C', value: `${fmt.num(p.density15, 4)} kg/L`, status: 'info', statusText: '', explain: ex.density15 ?? null });
   const ap = p.anilinePoint?.value ?? null;
   const apOk = targets.maxAnilinePoint === null || (ap !== null && ap <= targets.maxAnilinePoint + 0.01);
   const apLimitDigits = targets.maxAnilinePoint === null ? 1 : limitDigits(fmt.tempValue(targets.maxAnilinePoint), 1);
+  const apLimitShown = targets.maxAnilinePoint === null ? null : Number(fmt.tempValue(targets.maxAnilinePoint).toFixed(apLimitDigits));
   const apDigits =
-    !apOk && ap !== null && targets.maxAnilinePoint !== null
-      ? failingDigits(fmt.tempValue(ap), Number(fmt.tempValue(targets.maxAnilinePoint).toFixed(apLimitDigits)), 1, 'above')
-      : 1;
+    ap === null || apLimitShown === null
+      ? 1
+      : (apOk ? passingDigits : failingDigits)(fmt.tempValue(ap), apLimitShown, 1, 'above');
   rows.push({
     key: 'anilinePoint',
     label: 'Aniline point (solvency)',
@@ -118,7 +146,9 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     status: targets.maxAnilinePoint === null ? 'info' : apOk ? 'ok' : 'fail',
     statusText: [
       pred.deposit ? SOLVENCY_BAND_LABEL[pred.deposit.solvency.band].toLowerCase() : '',
-      targets.maxAnilinePoint === null ? '' : `maximum ${fmt.temp(targets.maxAnilinePoint, apLimitDigits)}`,
+      targets.maxAnilinePoint === null
+        ? ''
+        : `maximum ${fmt.temp(targets.maxAnilinePoint, apLimitDigits)}${apOk && ap !== null && apLimitShown !== null ? metWithin(fmt.tempValue(ap), apLimitShown, apDigits, 'above') : ''}`,
     ]
       .filter(Boolean)
       .join('; '),
@@ -195,7 +225,8 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
         : `maximum ${fmt.pct(targets.maxPolymerFraction, 1)}`,
     explain: { equation: 'Σ wᵢ over polymer components (mass fractions)', standard: 'definition', inputs: {} },
   });
-  // A limit in the unit shown, with its own digits; a value that misses it, with the digits that show the miss.
+  // A limit in the unit shown, with its own digits; a value beside it with the digits that put it on the
+  // side its verdict says (a miss beyond the limit, a pass not beyond it).
   const tempLimit = (
     v: number | null,
     limit: number | null,
@@ -203,8 +234,10 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   ): { value: string; limit: string; fail: boolean } => {
     const ld = limit === null ? 0 : limitDigits(fmt.tempValue(limit), 0);
     const fail = v !== null && limit !== null && (fails === 'below' ? v < limit - 0.01 : v > limit + 0.01);
-    const vd = fail ? failingDigits(fmt.tempValue(v), Number(fmt.tempValue(limit).toFixed(ld)), 0, fails) : 0;
-    return { value: v === null ? 'unknown' : fmt.temp(v, vd), limit: limit === null ? '' : fmt.temp(limit, ld), fail };
+    const shownLimit = limit === null ? null : Number(fmt.tempValue(limit).toFixed(ld));
+    const vd = v === null || shownLimit === null ? 0 : (fail ? failingDigits : passingDigits)(fmt.tempValue(v), shownLimit, 0, fails);
+    const within = v === null || shownLimit === null || fail ? '' : metWithin(fmt.tempValue(v), shownLimit, vd, fails);
+    return { value: v === null ? 'unknown' : fmt.temp(v, vd), limit: limit === null ? '' : `${fmt.temp(limit, ld)}${within}`, fail };
   };
   const flash = tempLimit(p.flashPoint, targets.minFlashPoint, 'below');
   rows.push({
