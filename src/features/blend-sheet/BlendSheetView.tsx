@@ -901,7 +901,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                     <td className="bs-num">{c.kind === 'added' ? '—' : fmt(c.from * 100, pd)}</td>
                     <td className="bs-num">{c.kind === 'removed' ? '—' : fmt(c.to * 100, pd)}</td>
                     <td className="bs-num">
-                      {c.kind === 'same' ? '0' : `${c.delta > 0 ? '+' : '−'}${fmt(Math.abs(c.delta) * 100, pd)}`}
+                      {/* An unchanged line as a signed zero, read like the "+1.53" / "−0.96" beside it. */}
+                      {c.kind === 'same' ? `±${fmt(0, pd)}` : `${c.delta > 0 ? '+' : '−'}${fmt(Math.abs(c.delta) * 100, pd)}`}
                       {c.kind === 'added' ? ' (new)' : c.kind === 'removed' ? ' (removed)' : ''}
                     </td>
                   </tr>

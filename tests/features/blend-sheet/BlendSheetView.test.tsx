@@ -277,4 +277,28 @@ describe('csv helpers', () => {
     expect(toCsv([{ a: 'x,y', b: 'plain' }])).toBe('a,b\r\n"x,y",plain');
     expect(csvFileName('VG 320 / new', 2, '')).toBe('blend-sheet_VG-320-new_rev2.csv');
   });
+
+  it('writes an unchanged line of the "Change from revision" table as a signed zero, like its neighbours (s25 walk)', () => {
+    // Before: "0" beside "+3.00" and "−3.00". Shares invented (formatting only, common practice (no source)).
+    const earlier: Recipe = {
+      ...recipe,
+      id: 'r320-r3',
+      revision: 3,
+      status: 'superseded',
+      lines: [
+        { componentId: 'n150', massFraction: 0.27 },
+        { componentId: 'hv', massFraction: 0.71 },
+        { componentId: 'add', massFraction: 0.02 },
+      ],
+    };
+    renderSheet({ recipes: [earlier, { ...recipe, supersedes: 'r320-r3' }] });
+    const table = within(screen.getByRole('region', { name: /Change from revision 3/ })).getByRole('table');
+    const cells = within(table)
+      .getAllByRole('row')
+      .slice(1)
+      .map((r) => within(r).getAllByRole('cell').map((c) => c.textContent));
+    expect(cells).toContainEqual(['2.00', '2.00', '±0.00']);
+    expect(cells).toContainEqual(['27.00', '30.00', '+3.00']);
+    expect(cells).toContainEqual(['71.00', '68.00', '−3.00']);
+  });
 });
