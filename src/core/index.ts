@@ -314,6 +314,7 @@ export { releaseHoldReasons, assessRelease, correctionHoldReasons, RELEASE_HOLD_
 export type { ExchangeRate, UnpricedStock, PricedLibrary } from './currency/exchange-rates';
 export {
   normaliseCurrency,
+  currencyCodeProblem,
   rateToBase,
   priceInBase,
   priceLibraryInBase,

@@ -40,6 +40,19 @@ export function normaliseCurrency(currency: string): string {
 }
 
 /**
+ * Why a currency code as normalised ({@link normaliseCurrency}) is no code, or null when it is one:
+ * a code has three letters A–Z (ISO 4217, e.g. USD). Blank is left to the field's own rule.
+ *
+ * @param code - the normalised code ("US", "USD")
+ * @returns the reason, or null
+ * @example currencyCodeProblem('US') // → '“US” is no currency code: a currency code has three letters (ISO 4217), e.g. USD.'
+ */
+export function currencyCodeProblem(code: string): string | null {
+  if (code === '' || /^[A-Z]{3}$/.test(code)) return null;
+  return `“${code}” is no currency code: a currency code has three letters (ISO 4217), e.g. USD.`;
+}
+
+/**
  * The rate that restates `currency` in `base`: 1 for the base currency itself, else the user's rate.
  *
  * @param currency - the price's currency

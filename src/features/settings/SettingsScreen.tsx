@@ -15,7 +15,7 @@ import {
   DEMO_PLANT,
 } from '../../state';
 import { checkDate, checkNumber, checkText } from '../../state/field-rules';
-import { normaliseCurrency, unpricedMessage, unpricedTitle, type ExchangeRate } from '../../core/currency/exchange-rates';
+import { currencyCodeProblem, normaliseCurrency, unpricedMessage, unpricedTitle, type ExchangeRate } from '../../core/currency/exchange-rates';
 import { STORE_KEYS, STORE_LABEL } from '../../state/persistence';
 import { applyBackup, backupFileName, makeBackupText, parseBackupText, putBackReplaced, type BackupParse, type ReplacedWork } from '../../state/backup';
 import { BLEND_METHODS, BLEND_METHOD_LABEL, type BlendMethod } from '../../core/blending/blend-viscosity';
@@ -140,6 +140,7 @@ function ExchangeRates() {
     const who = `the rate for ${currency || '(no currency)'}`;
     const problem =
       checkText('rateCurrency', currency, who) ??
+      currencyCodeProblem(currency) ??
       (currency === base ? `${currency} is the base currency; it needs no rate` : null) ??
       (s.exchangeRates.some((r) => normaliseCurrency(r.currency) === currency) ? `${currency} has a rate already; change that one` : null) ??
       (read.error !== undefined
@@ -171,7 +172,9 @@ function ExchangeRates() {
         label="Base currency (code)"
         size={6}
         value={s.baseCurrency}
-        validate={(v) => ({ error: checkText('baseCurrency', normaliseCurrency(v)) ?? baseChangeProblem(s, { baseCurrency: v }) ?? undefined })}
+        validate={(v) => ({
+          error: checkText('baseCurrency', normaliseCurrency(v)) ?? currencyCodeProblem(normaliseCurrency(v)) ?? baseChangeProblem(s, { baseCurrency: v }) ?? undefined,
+        })}
         onCommit={(v) => {
           setMessage(update({ baseCurrency: normaliseCurrency(v) }) ?? '');
         }}
