@@ -88,7 +88,7 @@ describe('whole-line plan', () => {
     expect(text).toContain('While the limited stocks last');
     expect(text).toMatch(/VG 220\s+VG 320\s+VG 460\s+VG 680/);
     expect(text).toMatch(/BW-190 Group I bright stock/);
-    expect(text).toMatch(/Demand \[t\]\s+300\s+400\s+250\s+150\s+1[\s,\u202f]?100/);
+    expect(text).toMatch(/Demand \[t\]\s+300\.0\s+400\.0\s+250\.0\s+150\.0\s+1[\s,\u202f]?100\.0/);
     const flat = text.replace(/[\u202f\u00a0]/g, ' ');
     expect(flat).toContain(totalOnScreen.replace(/[\u202f\u00a0]/g, ' '));
     expect(flat).toContain(costOnScreen.replace(/[\u202f\u00a0]/g, ' '));

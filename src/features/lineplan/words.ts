@@ -49,7 +49,7 @@ export function planView(
 /** "BW-160, BW-190", or "the limited stocks" when none is limited. */
 export const limitedCodes = (v: PlanView): string => v.limited.map(v.code).join(', ') || 'the limited stocks';
 
-/** What a plan assumes of the limited stocks: "BW-190 250 t" (while they last) or "without BW-190". */
+/** What a plan assumes of the limited stocks: "BW-190 250.0 t" (while they last) or "without BW-190". */
 export const planAssumes = (v: PlanView, which: PlanWhich): string =>
   which === 'lasting' ? limitedText(v.limited, v.supplyKg, v.code, v.fmt, v.unit) : `without ${limitedCodes(v)}`;
 
@@ -72,13 +72,14 @@ export function changeText(fmt: Formatter, delta: number, base: number | null, d
 
 /**
  * A quantity [kg] in the chosen unit, without the unit (columns headed [t] or [kg]). Tonnes: one
- * decimal below 100 t, whole tonnes above (1 t = 1000 kg). kg: whole kilograms, as they are typed
- * and weighed. Thousands grouped as the user's number format says.
+ * decimal at any size (1 t = 1000 kg), as the inputs take and total them, so a typed 150.5 t reads
+ * 150.5 in the results too. kg: whole kilograms, as they are typed and weighed. Thousands grouped as
+ * the user's number format says.
  */
 export const quantityNumber = (fmt: Formatter, unit: QuantityUnit, kg: number): string =>
-  unit === 'kg' ? fmt.num(kg, 0) : fmt.num(kg / 1000, Math.abs(kg) >= 100_000 ? 0 : 1);
+  unit === 'kg' ? fmt.num(kg, 0) : fmt.num(kg / 1000, 1);
 
-/** A quantity [kg] in the chosen unit, with the unit: "12.5 t", "250 t", "12 500 kg". */
+/** A quantity [kg] in the chosen unit, with the unit: "12.5 t", "250.0 t", "12 500 kg". */
 export const quantity = (fmt: Formatter, unit: QuantityUnit, kg: number): string => `${quantityNumber(fmt, unit, kg)} ${unit}`;
 
 /**
@@ -113,7 +114,7 @@ export function marginalSentence(m: MarginalValue, v: Pick<PlanView, 'fmt' | 'pe
 }
 
 /**
- * The limited stocks as the plan while they last takes them: "BW-190 250 t; BW-160, BW-161 with no
+ * The limited stocks as the plan while they last takes them: "BW-190 250.0 t; BW-160, BW-161 with no
  * supply given" (or "BW-190 250 000 kg; …" in kg), or "no limited stock".
  */
 export function limitedText(

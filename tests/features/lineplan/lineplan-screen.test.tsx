@@ -191,19 +191,19 @@ describe('Whole-line plan screen', () => {
     const NB = '\u202f'; // thousands grouped with a narrow no-break space (default number format)
     const cells = (el: HTMLElement, selector: string) => [...el.querySelectorAll(selector)].map((c) => c.textContent);
     // Check values: the demands and the supply typed in planDemo (300, 400, 250, 150 t; 250 t of BW-190),
-    // 1 t = 1000 kg (SI), total 1100 t (arithmetic).
+    // 1 t = 1000 kg (SI), total 1100 t (arithmetic); tonnes written with one decimal, as the inputs total them.
     const inTonnes = () => {
       const lasting = screen.getByTestId('plan-lasting');
       expect(cells(lasting, '.lp-grade-table thead th')).toContain('Demand [t]');
-      expect(cells(lasting, '.lp-grade-table tbody td:nth-child(2)')).toEqual(['300', '400', '250', '150']);
-      expect(lasting.querySelector('h3')!.textContent).toContain('BW-190 250 t');
+      expect(cells(lasting, '.lp-grade-table tbody td:nth-child(2)')).toEqual(['300.0', '400.0', '250.0', '150.0']);
+      expect(lasting.querySelector('h3')!.textContent).toContain('BW-190 250.0 t');
       expect(screen.getByRole('heading', { name: 'What one more tonne is worth' })).toBeTruthy();
       const table = screen.getByTestId('allocation-table');
       expect(cells(table, 'thead th')).toEqual(expect.arrayContaining(['Used [t]', 'Supply [t]', 'Not needed [t]']));
       expect(within(table).getByText('BW-190').closest('tr')!.textContent).toContain('250');
       const summary = screen.getByTestId('plan-summary');
       expect(cells(summary, 'thead th')).toEqual(expect.arrayContaining(['Use [t]', 'Supply [t]']));
-      expect(within(summary).getByText('Demand [t]').closest('tr')!.textContent).toBe(`Demand [t]300400250150${'1100'}`);
+      expect(within(summary).getByText('Demand [t]').closest('tr')!.textContent).toBe('Demand [t]300.0400.0250.0150.01100.0');
     };
     inTonnes();
     const perTonne = /One more tonne of BW-190 would save (about €.[\d\u202f]+) over the period\./.exec(screen.getByTestId('marginal-values').textContent!);

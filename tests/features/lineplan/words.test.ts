@@ -12,9 +12,12 @@ const NB = '\u202f';
 const m = (over: Partial<MarginalValue>): MarginalValue => ({ id: 'x', code: 'BW-190', supplyKg: 250_000, useKg: 180_500, binding: false, savingPerTonne: 0, ...over });
 
 describe('line-plan quantities in the chosen unit', () => {
-  it('writes tonnes as before (one decimal below 100 t) and kg as whole kilograms, grouped per the number format', () => {
+  it('writes tonnes with one decimal at any size and kg as whole kilograms, grouped per the number format', () => {
     expect(quantity(fmt, 't', 12_500)).toBe('12.5 t');
-    expect(quantity(fmt, 't', 250_000)).toBe('250 t');
+    expect(quantity(fmt, 't', 250_000)).toBe('250.0 t');
+    // s25 walk: a typed 150.5 t showed as "151" in the results beside the input panel's "1100.0 t" total
+    expect(quantity(fmt, 't', 150_500)).toBe('150.5 t');
+    expect(quantityNumber(fmt, 't', 1_100_000)).toBe('1100.0');
     expect(quantity(fmt, 'kg', 12_500)).toBe(`12${NB}500 kg`);
     expect(quantity(fmt, 'kg', 250_000.4)).toBe(`250${NB}000 kg`);
     expect(quantityNumber(comma, 'kg', 1_100_000)).toBe('1.100.000');
@@ -23,7 +26,7 @@ describe('line-plan quantities in the chosen unit', () => {
 
   it('names the limited stocks’ supplies in the unit', () => {
     const code = (id: string) => (id === 'a' ? 'BW-190' : 'BW-160');
-    expect(limitedText(['a', 'b'], { a: 250_000 }, code, fmt, 't')).toBe('BW-190 250 t; BW-160 with no supply given');
+    expect(limitedText(['a', 'b'], { a: 250_000 }, code, fmt, 't')).toBe('BW-190 250.0 t; BW-160 with no supply given');
     expect(limitedText(['a', 'b'], { a: 250_000 }, code, fmt, 'kg')).toBe(`BW-190 250${NB}000 kg; BW-160 with no supply given`);
   });
 
@@ -35,7 +38,7 @@ describe('line-plan quantities in the chosen unit', () => {
     // savingPerTonne 373 → "about € 370" (two significant figures, aboutMoney)
     expect(marginalSentence(m({ binding: true, savingPerTonne: 373 }), view('t'))).toBe(`One more tonne of BW-190 would save about €${NB}370 over 2026.`);
     expect(marginalSentence(m({ binding: true, savingPerTonne: 373 }), view('kg'))).toBe(`Another 1000 kg of BW-190 would save about €${NB}370 over 2026.`);
-    expect(marginalSentence(m({}), view('t'))).toBe('BW-190: the plan needs 181 t of the 250 t on offer, so one more tonne would save nothing.');
+    expect(marginalSentence(m({}), view('t'))).toBe('BW-190: the plan needs 180.5 t of the 250.0 t on offer, so one more tonne would save nothing.');
     expect(marginalSentence(m({}), view('kg'))).toBe(
       `BW-190: the plan needs 180${NB}500 kg of the 250${NB}000 kg on offer, so another 1000 kg would save nothing.`,
     );
