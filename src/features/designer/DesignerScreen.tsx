@@ -2,6 +2,7 @@ import { Suspense, lazy, memo, useCallback, useEffect, useId, useMemo, useRef, u
 import type { BlendTargets, Component, Recipe } from '../../core/formulation/model';
 import { RECIPE_STATUS_LABEL } from '../../core/formulation/model';
 import { recordStockBasis, stockBasisChanges } from '../../core/recipes/stock-basis';
+import { notEnteredFields } from '../../core/formulation/entered-values';
 import { isBlankSpecification, specificationGradeIssue, specificationGradeMessage } from '../../core/recipes/specification-grade';
 import { StatusBadge, StockChangeList } from '../../components/recipe-status';
 import { Notice } from '../../components/notices';
@@ -127,7 +128,14 @@ export default function DesignerScreen() {
     }, 0);
   }, [settings, fmt]);
 
-  const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density), [density]);
+  const densityNotEntered = useCallback(
+    (id: string) => {
+      const c = byId.get(id);
+      return c && notEnteredFields(c).includes('density15') ? c.code : null;
+    },
+    [byId],
+  );
+  const onEdit = useCallback((id: string, f: number) => useDesignerStore.getState().editLine(id, f, density, densityNotEntered), [density, densityNotEntered]);
 
   const stockLabel = useCallback((id: string) => `stock ${byId.get(id)?.code ?? id}`, [byId]);
   const sourceRecipe = recipes.find((r) => r.id === sourceRecipeId) ?? null;

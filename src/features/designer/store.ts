@@ -69,7 +69,11 @@ export interface DesignerState {
   setBasis: (basis: Basis) => void;
   setRebalanceMode: (mode: RebalanceMode) => void;
   setBalanceId: (id: string) => void;
-  editLine: (componentId: string, fraction: number, density: (id: string) => number) => void;
+  /**
+   * Sets a line's share in the editing basis. `densityNotEntered` gives a stock's code when its density
+   * is still a placeholder (Component.notEntered): a volume % is then refused, not converted with it.
+   */
+  editLine: (componentId: string, fraction: number, density: (id: string) => number, densityNotEntered?: (id: string) => string | null) => void;
   addComponent: (componentId: string) => void;
   removeComponent: (componentId: string) => void;
   applySolution: (lines: RecipeLine[], message: string) => void;
@@ -181,11 +185,24 @@ export const useDesignerStore = create<DesignerState>()((set, get) => ({
       return { targets: { ...s.targets, bounds }, dirty: true };
     }),
   setName: (name) => set({ name }),
-  setBasis: (basis) => set({ basis }),
+  setBasis: (basis) => set({ basis, editNote: '' }),
   setRebalanceMode: (rebalanceMode) => set({ rebalanceMode, editNote: '' }),
   setBalanceId: (balanceId) => set({ balanceId, editNote: '' }),
-  editLine: (componentId, fraction, density) => {
+  editLine: (componentId, fraction, density, densityNotEntered) => {
     const s = get();
+    if (s.basis === 'volume' && densityNotEntered) {
+      // Every line's density (the edited line's and those charged) enters its volume share.
+      const pending = s.lines
+        .filter((l) => l.massFraction > 0 || l.componentId === componentId)
+        .map((l) => densityNotEntered(l.componentId))
+        .find((code) => code !== null);
+      if (pending) {
+        set({
+          editNote: `Volume % cannot be set while the density of ${pending} is not entered (it would be converted with a placeholder): enter its density on Stocks first, or edit as mass %.`,
+        });
+        return;
+      }
+    }
     const r = editFraction(s.lines, density, s.basis, componentId, fraction, rebalanceOf(s));
     // A "Solved" message describes the solver's recipe: drop it once the recipe is edited by hand.
     set({ lines: r.lines, editNote: r.message, dirty: true, notice: s.notice?.kind === 'optimal' ? null : s.notice });

@@ -108,3 +108,29 @@ describe('designer with a stock whose values are not yet entered (s25)', () => {
     expect(screen.getByTestId('recipe-lines').querySelector('tr[data-component="BW-160"]')).toBeNull();
   });
 });
+
+describe('designer: volume % typed while a stock of the recipe has no density entered (s25 polish)', () => {
+  it('refuses the entry with a message naming the stock, and the recipe keeps its shares', () => {
+    // Before: the share was converted with the placeholder density 0.86 kg/L as if measured.
+    const c = useLibrary.getState().components.find((x) => x.code === 'BW-160')!;
+    useLibrary.getState().updateComponent(c.id, { notEntered: ['density15'] });
+    render(<DesignerScreen />);
+    fireEvent.click(screen.getByRole('radio', { name: /volume %/ }));
+    const before = useDesignerStore.getState().lines.map((l) => ({ ...l }));
+    const cell = screen.getByLabelText('Volume % of BW-190');
+    act(() => cell.focus());
+    const input = screen.getByLabelText('Volume % of BW-190') as HTMLInputElement;
+    fireEvent.change(input, { target: { value: '50' } });
+    expect(useDesignerStore.getState().lines).toEqual(before);
+    expect(screen.getByText(/^Volume % cannot be set/, { selector: '.field-warning' }).textContent).toBe(
+      'Volume % cannot be set while the density of BW-160 is not entered (it would be converted with a placeholder): enter its density on Stocks first, or edit as mass %.',
+    );
+    // mass % is still typed as before
+    fireEvent.blur(input);
+    fireEvent.click(screen.getByRole('radio', { name: /mass %/ }));
+    act(() => screen.getByLabelText('Mass % of BW-190').focus());
+    fireEvent.change(screen.getByLabelText('Mass % of BW-190'), { target: { value: '50' } });
+    expect(useDesignerStore.getState().lines.find((l) => l.componentId === c.id)).toBeTruthy();
+    expect(useDesignerStore.getState().lines.find((l) => l.componentId !== c.id && l.massFraction === 0.5)).toBeTruthy();
+  });
+});
