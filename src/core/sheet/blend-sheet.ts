@@ -836,8 +836,13 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
     },
   );
   const unit = options.temperatureUnit ?? 'C';
+  // ν100 and density are judged unrounded: their printed prediction gets the digits that show its verdict.
+  const judgedRaw: Partial<Record<QcKey, { v: number; d: number }>> = { kv100: { v: predicted.kv100, d: 2 }, density15: { v: predicted.density15, d: 4 } };
   return rows.map((r) => {
-    const judged = { ...r, predictedOutsideTarget: outside(r.key, predicted, r.min, r.max) };
+    const out = outside(r.key, predicted, r.min, r.max);
+    const raw = judgedRaw[r.key];
+    const shown = raw && (r.min !== null || r.max !== null) ? onItsSide(raw.v, raw.d, r.min, r.max, out, fmt) : r.predicted;
+    const judged = { ...r, predicted: shown, predictedOutsideTarget: out };
     return unit === 'C' ? judged : inFahrenheit(judged, predicted, fmt);
   });
 }
@@ -877,6 +882,27 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
     max,
     predictedOutsideTarget: r.predictedOutsideTarget || outsideF,
   };
+}
+
+/**
+ * A prediction printed with the row's `d` decimals, or as many more as it takes (up to `d + 2`, as a
+ * limit may have) to print it on the side of its verdict: a pass within the limits ("22.124" under
+ * "≥ 22.1234", not "22.12"), a miss beyond them ("22.1299" under "≥ 22.13", not "22.13").
+ *
+ * @param v - the prediction (unrounded, as judged)
+ * @param d - the row's decimals
+ * @param min - lower limit, or null
+ * @param max - upper limit, or null
+ * @param isOutside - the verdict: true when `v` lies outside [min, max]
+ * @param fmt - the number format
+ * @returns the printed prediction
+ */
+function onItsSide(v: number, d: number, min: number | null, max: number | null, isOutside: boolean, fmt: (x: number, d: number) => string): string {
+  for (let k = d; k < d + LIMIT_EXTRA_DECIMALS; k++) {
+    const printed = Number(v.toFixed(k));
+    if (((min !== null && printed < min) || (max !== null && printed > max)) === isOutside) return fmt(v, k);
+  }
+  return fmt(v, d + LIMIT_EXTRA_DECIMALS);
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */

@@ -404,6 +404,22 @@ describe('qcReleaseTargets', () => {
     expect([f.predicted, f.target, f.predictedOutsideTarget]).toEqual(['425', '≥ 426.2', true]);
   });
 
+  it('prints a prediction beside its limit with the digits that put it on the side of its verdict (s25 polish)', () => {
+    // Before: ν100 22.1236 printed "22.12" under "≥ 22.1234" without a flag (it passes), and 22.1299 printed
+    // "22.13" flagged outside "≥ 22.13"; density 0.87999 printed "0.8800" flagged outside "≥ 0.8800".
+    // Values and limits invented (common practice (no source)); the usual digits are kept otherwise.
+    const spec = { ...BLANK_SPECIFICATION, kv100Min: 22.1234, density15Min: 0.88 };
+    const row = (q: Partial<typeof p>, sp = spec) => Object.fromEntries(qcReleaseTargets(320, { ...p, ...q }, { specification: sp }).map((r) => [r.key, r]));
+    const pass = row({ kv100: 22.1236 });
+    expect([pass.kv100!.predicted, pass.kv100!.target, pass.kv100!.predictedOutsideTarget]).toEqual(['22.124', '≥ 22.1234', false]);
+    const miss = row({ kv100: 22.1299 }, { ...spec, kv100Min: 22.13 });
+    expect([miss.kv100!.predicted, miss.kv100!.target, miss.kv100!.predictedOutsideTarget]).toEqual(['22.1299', '≥ 22.13', true]);
+    const dense = row({ density15: 0.87999 });
+    expect([dense.density15!.predicted, dense.density15!.target, dense.density15!.predictedOutsideTarget]).toEqual(['0.87999', '≥ 0.8800', true]);
+    const clear = row({ kv100: 24.5, density15: 0.8912 });
+    expect([clear.kv100!.predicted, clear.density15!.predicted]).toEqual(['24.50', '0.8912']);
+  });
+
   it('reports rather than invents targets for missing estimates', () => {
     const rows = qcReleaseTargets(320, { ...p, reportedVi: null, flashPoint: null, pourPoint: null, operating: null });
     const by = Object.fromEntries(rows.map((r) => [r.key, r]));
