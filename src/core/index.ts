@@ -138,6 +138,8 @@ export { krlShearLossPct, shearedKv, inGradeAfterShear } from './viscosity/shear
 // Numbers in text the core writes (the user's decimal separator, grouping, temperature unit)
 export type { NumberDisplay, DisplayWords } from './words/display';
 export { formatFixed, sayNumber, decimalsOf, displayWords } from './words/display';
+export type { VerdictLimits, VerdictDigits } from './words/verdict-digits';
+export { verdictDigits } from './words/verdict-digits';
 
 // Units at the boundary
 export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';

@@ -20,6 +20,7 @@ import { gradeBand } from '../viscosity/iso-grades';
 import { blendDensityAtTemperature } from '../blending/density-temperature';
 import { cToF } from '../units';
 import { decimalsOf } from '../words/display';
+import { verdictDigits } from '../words/verdict-digits';
 import type { BlendProperties } from '../formulation/blend-properties';
 import { D341_FORM_SHORT, type D341Form } from '../viscosity/viscosity-temperature';
 
@@ -886,23 +887,11 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
 
 /**
  * A prediction printed with the row's `d` decimals, or as many more as it takes (up to `d + 2`, as a
- * limit may have) to print it on the side of its verdict: a pass within the limits ("22.124" under
- * "≥ 22.1234", not "22.12"), a miss beyond them ("22.1299" under "≥ 22.13", not "22.13").
- *
- * @param v - the prediction (unrounded, as judged)
- * @param d - the row's decimals
- * @param min - lower limit, or null
- * @param max - upper limit, or null
- * @param isOutside - the verdict: true when `v` lies outside [min, max]
- * @param fmt - the number format
- * @returns the printed prediction
+ * limit may have) to print it on the side of its verdict ({@link verdictDigits}): a pass within the
+ * limits ("22.124" under "≥ 22.1234", not "22.12"), a miss beyond them ("22.1299" under "≥ 22.13", not "22.13").
  */
 function onItsSide(v: number, d: number, min: number | null, max: number | null, isOutside: boolean, fmt: (x: number, d: number) => string): string {
-  for (let k = d; k < d + LIMIT_EXTRA_DECIMALS; k++) {
-    const printed = Number(v.toFixed(k));
-    if (((min !== null && printed < min) || (max !== null && printed > max)) === isOutside) return fmt(v, k);
-  }
-  return fmt(v, d + LIMIT_EXTRA_DECIMALS);
+  return fmt(v, verdictDigits(v, { min, max }, isOutside ? 'missed' : 'met', d, d + LIMIT_EXTRA_DECIMALS).digits);
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */

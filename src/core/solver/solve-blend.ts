@@ -9,6 +9,7 @@
  * the achievable range and the binding constraint (`diagnose.ts`).
  */
 import { displayWords, type NumberDisplay } from '../words/display';
+import { verdictDigits } from '../words/verdict-digits';
 import type { BlendTargets, Component, Objective, Recipe, RecipeLine } from '../formulation/model';
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { BlendbenchInputError, assertDensity15, assertFinite, assertTemperatureC, assertViscosity } from '../errors';
@@ -76,18 +77,15 @@ export interface ConstraintCheck {
 export function checkInWords(c: ConstraintCheck, display?: NumberDisplay): string {
   const w = displayWords(display);
   // A value that misses its limit by less than its usual rounding gets the digits (at most 3) that show
-  // the miss: "95.96, limit at least 96", not "96.0". Compared in the unit shown (°F, %).
+  // the miss: "95.96, limit at least 96", not "96.0". Compared in the unit shown (°F, %): verdictDigits.
   const missDigits = (v: number, base: number): number => {
-    const end = c.ok ? null : c.min !== null && v < c.min ? c.min : c.max !== null && v > c.max ? c.max : null;
-    if (end === null) return base;
+    const beyond = !c.ok && ((c.min !== null && v < c.min) || (c.max !== null && v > c.max));
+    if (!beyond) return base;
     const k = c.quantity === 'fraction' || c.quantity === 'probability' ? 100 : 1;
     // t_F = 9/5·t_C + 32 (definition of the Fahrenheit scale)
-    const shown = (x: number) => (c.quantity === 'temperature' && display?.temperatureUnit === 'F' ? (x * 9) / 5 + 32 : x * k);
-    const [sv, se] = [shown(v), shown(end)];
-    let d = base;
-    const r = (x: number) => Math.round(x * 10 ** d) / 10 ** d;
-    while (d < 3 && (end === c.min ? r(sv) >= se : r(sv) <= se)) d++;
-    return d;
+    const shown = (x: number | null) =>
+      x === null ? null : c.quantity === 'temperature' && display?.temperatureUnit === 'F' ? (x * 9) / 5 + 32 : x * k;
+    return verdictDigits(shown(v)!, { min: shown(c.min), max: shown(c.max) }, 'missed', base, Math.max(base, 3)).digits;
   };
   const value = (v: number): string => {
     switch (c.quantity) {

@@ -13,6 +13,7 @@ import type { Prediction } from './predict';
 import { RelayText, useRelay, useRelayed, type Relay } from '../../components/relay';
 import type { BlendMethod } from '../../core/blending/blend-viscosity';
 import { D341_TRUSTED_BAND_C, type D341Form } from '../../core/viscosity/viscosity-temperature';
+import { verdictDigits } from '../../core/words/verdict-digits';
 
 type Status = 'ok' | 'warn' | 'fail' | 'info';
 
@@ -48,35 +49,24 @@ function limitDigits(limit: number, least: number): number {
   return d;
 }
 
-/**
- * Decimals (from `least`, at most 3) at which a value that fails its limit is written beyond it, so a
- * miss by less than the usual rounding never reads as meeting the limit ("96.0 ✗ minimum 96").
- * `fails`: 'below' a minimum or 'above' a maximum; both in the unit they are shown in.
- */
-export function failingDigits(value: number, limit: number, least: number, fails: 'below' | 'above'): number {
-  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
-  let d = least;
-  while (d < 3 && (fails === 'below' ? r(value, d) >= limit : r(value, d) <= limit)) d++;
-  return d;
-}
+/** The side a miss lies on: 'below' a minimum or 'above' a maximum. */
+type FailSide = 'below' | 'above';
 
 /**
- * Decimals (from `least`, at most 3) at which a value that meets its limit — within the checks' 0.01
- * tolerance — is written on the limit's own side, so a pass never reads as a miss ("94.6 ✓ minimum
- * 94.65" becomes "94.65 ✓ minimum 94.65"). `fails` as in {@link failingDigits}: the side a miss lies on.
- * A value met only by the tolerance (94.641 against 94.65) gets 3 and still reads below: {@link metWithin}.
+ * A value beside its limit (both in the unit shown), from `least` decimals, at most 3, with the digits
+ * that put it on the side of its verdict (the core's {@link verdictDigits}): a miss beyond the limit
+ * ("95.96 ✗ minimum 96", not "96.0"), a pass — within the checks' 0.01 tolerance — not beyond it
+ * ("94.65 ✓ minimum 94.65", not "94.6"). A value met only by the tolerance (94.641 against 94.65) still
+ * reads beyond at 3 decimals, and its `note` says so.
  */
-export function passingDigits(value: number, limit: number, least: number, fails: 'below' | 'above'): number {
-  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
-  let d = least;
-  while (d < 3 && (fails === 'below' ? r(value, d) < limit : r(value, d) > limit)) d++;
-  return d;
+function besideLimit(value: number, limit: number, least: number, fails: FailSide, met: boolean): { digits: number; note: string } {
+  const v = verdictDigits(value, fails === 'below' ? { min: limit, max: null } : { min: null, max: limit }, met ? 'met' : 'missed', least, 3);
+  return { digits: v.digits, note: met && !v.onItsSide ? ' (met within the check tolerance)' : '' };
 }
 
-/** The note for a value met only by the 0.01 tolerance, so even written at `digits` it lies beyond the limit. */
-function metWithin(value: number, limit: number, digits: number, fails: 'below' | 'above'): string {
-  const v = Math.round(value * 10 ** digits) / 10 ** digits;
-  return (fails === 'below' ? v < limit : v > limit) ? ' (met within the check tolerance)' : '';
+/** Decimals (from `least`, at most 3) at which a value that meets its limit is written on the limit's side: {@link besideLimit}. */
+export function passingDigits(value: number, limit: number, least: number, fails: FailSide): number {
+  return besideLimit(value, limit, least, fails, true).digits;
 }
 
 export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: BlendTargets, fmt: Formatter): Row[] {
@@ -113,21 +103,16 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   rows.push(shearRow(pred, targets, fmt));
   rows.push({ key: 'kv100', label: 'Viscosity at 100 °C', value: `${fmt.num(p.kv100, 2)} mm²/s`, status: 'info', statusText: '', explain: ex.kv100 ?? null });
   const viOk = targets.minVi === null || (p.vi !== null && p.vi >= targets.minVi - 0.01);
-  const viDigits =
-    p.vi === null || targets.minVi === null
-      ? 1
-      : viOk
-        ? passingDigits(p.vi, targets.minVi, 1, 'below')
-        : failingDigits(p.vi, targets.minVi, 1, 'below');
+  const viShown = p.vi === null || targets.minVi === null ? { digits: 1, note: '' } : besideLimit(p.vi, targets.minVi, 1, 'below', viOk);
   rows.push({
     key: 'vi',
     label: 'Viscosity index',
-    value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, viDigits)})`,
+    value: p.vi === null || p.reportedVi === null ? 'not defined' : `${fmt.num(p.reportedVi, 0)} (${fmt.num(p.vi, viShown.digits)})`,
     status: targets.minVi === null ? 'info' : viOk ? 'ok' : 'fail',
     statusText:
       targets.minVi === null
         ? ''
-        : `minimum ${fmt.num(targets.minVi, limitDigits(targets.minVi, 0))}${viOk && p.vi !== null ? metWithin(p.vi, targets.minVi, viDigits, 'below') : ''}`,
+        : `minimum ${fmt.num(targets.minVi, limitDigits(targets.minVi, 0))}${viShown.note}`,
     explain: ex.vi ?? null,
   });
   rows.push({ key: 'density15', label: 'Density at 15 °C', value: `${fmt.num(p.density15, 4)} kg/L`, status: 'info', statusText: '', explain: ex.density15 ?? null });
@@ -135,20 +120,17 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
   const apOk = targets.maxAnilinePoint === null || (ap !== null && ap <= targets.maxAnilinePoint + 0.01);
   const apLimitDigits = targets.maxAnilinePoint === null ? 1 : limitDigits(fmt.tempValue(targets.maxAnilinePoint), 1);
   const apLimitShown = targets.maxAnilinePoint === null ? null : Number(fmt.tempValue(targets.maxAnilinePoint).toFixed(apLimitDigits));
-  const apDigits =
-    ap === null || apLimitShown === null
-      ? 1
-      : (apOk ? passingDigits : failingDigits)(fmt.tempValue(ap), apLimitShown, 1, 'above');
+  const apShown = ap === null || apLimitShown === null ? { digits: 1, note: '' } : besideLimit(fmt.tempValue(ap), apLimitShown, 1, 'above', apOk);
   rows.push({
     key: 'anilinePoint',
     label: 'Aniline point (solvency)',
-    value: ap === null ? 'unknown' : fmt.temp(ap, apDigits),
+    value: ap === null ? 'unknown' : fmt.temp(ap, apShown.digits),
     status: targets.maxAnilinePoint === null ? 'info' : apOk ? 'ok' : 'fail',
     statusText: [
       pred.deposit ? SOLVENCY_BAND_LABEL[pred.deposit.solvency.band].toLowerCase() : '',
       targets.maxAnilinePoint === null
         ? ''
-        : `maximum ${fmt.temp(targets.maxAnilinePoint, apLimitDigits)}${apOk && ap !== null && apLimitShown !== null ? metWithin(fmt.tempValue(ap), apLimitShown, apDigits, 'above') : ''}`,
+        : `maximum ${fmt.temp(targets.maxAnilinePoint, apLimitDigits)}${apShown.note}`,
     ]
       .filter(Boolean)
       .join('; '),
@@ -235,9 +217,8 @@ export function buildRows(pred: Extract<Prediction, { ok: true }>, targets: Blen
     const ld = limit === null ? 0 : limitDigits(fmt.tempValue(limit), 0);
     const fail = v !== null && limit !== null && (fails === 'below' ? v < limit - 0.01 : v > limit + 0.01);
     const shownLimit = limit === null ? null : Number(fmt.tempValue(limit).toFixed(ld));
-    const vd = v === null || shownLimit === null ? 0 : (fail ? failingDigits : passingDigits)(fmt.tempValue(v), shownLimit, 0, fails);
-    const within = v === null || shownLimit === null || fail ? '' : metWithin(fmt.tempValue(v), shownLimit, vd, fails);
-    return { value: v === null ? 'unknown' : fmt.temp(v, vd), limit: limit === null ? '' : `${fmt.temp(limit, ld)}${within}`, fail };
+    const shown = v === null || shownLimit === null ? { digits: 0, note: '' } : besideLimit(fmt.tempValue(v), shownLimit, 0, fails, !fail);
+    return { value: v === null ? 'unknown' : fmt.temp(v, shown.digits), limit: limit === null ? '' : `${fmt.temp(limit, ld)}${shown.note}`, fail };
   };
   const flash = tempLimit(p.flashPoint, targets.minFlashPoint, 'below');
   rows.push({
