@@ -838,11 +838,18 @@ export function qcReleaseTargets(grade: number, predicted: SheetPrediction, opti
   );
   const unit = options.temperatureUnit ?? 'C';
   // ν100 and density are judged unrounded: their printed prediction gets the digits that show its verdict.
-  const judgedRaw: Partial<Record<QcKey, { v: number; d: number }>> = { kv100: { v: predicted.kv100, d: 2 }, density15: { v: predicted.density15, d: 4 } };
+  // Flash and pour are judged as reported, to whole degrees (`outside`): the reported value is printed
+  // where no digits of the estimate read on the side of its verdict (218.49 under "≥ 218.1" prints "218").
+  const judgedRaw: Partial<Record<QcKey, { v: number; d: number; reported?: number }>> = {
+    kv100: { v: predicted.kv100, d: 2 },
+    density15: { v: predicted.density15, d: 4 },
+  };
+  if (predicted.flashPoint !== null) judgedRaw.flash = { v: predicted.flashPoint, d: 0, reported: Math.round(predicted.flashPoint) };
+  if (predicted.pourPoint !== null) judgedRaw.pour = { v: predicted.pourPoint, d: 0, reported: Math.round(predicted.pourPoint) };
   return rows.map((r) => {
     const out = outside(r.key, predicted, r.min, r.max);
     const raw = judgedRaw[r.key];
-    const shown = raw && (r.min !== null || r.max !== null) ? onItsSide(raw.v, raw.d, r.min, r.max, out, fmt) : r.predicted;
+    const shown = raw && (r.min !== null || r.max !== null) ? onItsSide(raw.v, raw.d, r.min, r.max, out, fmt, raw.reported) : r.predicted;
     const judged = { ...r, predicted: shown, predictedOutsideTarget: out };
     return unit === 'C' ? judged : inFahrenheit(judged, predicted, fmt);
   });
@@ -874,14 +881,25 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
   // (218.6 °C passes "≥ 219" as 219 °C, but prints as 425 °F against "≥ 426.2 °F").
   const printedF = v === null || v === undefined ? null : f(v);
   const outsideF = printedF !== null && ((min !== null && printedF < min) || (max !== null && printedF > max));
+  // The prediction in °F with the digits that put it on the side of its verdict, judged in °F; where the
+  // °C verdict came from the value reported to whole °C (218.49 °C as 218 under "≥ 218.1 °C"), that
+  // value converted (424.4 °F, printed "424" under "≥ 424.58"), never "425".
+  const isOut = r.predictedOutsideTarget || outsideF;
+  const limited = min !== null || max !== null;
+  const shownF =
+    v === null || v === undefined
+      ? r.predicted
+      : limited && (r.key === 'flash' || r.key === 'pour')
+        ? onItsSide(cToF(v), 0, min, max, isOut, fmt, cToF(Math.round(v)))
+        : fmt(printedF!, 0);
   return {
     ...r,
     unit: '°F',
-    predicted: printedF === null ? r.predicted : fmt(printedF, 0),
+    predicted: shownF,
     target,
     min,
     max,
-    predictedOutsideTarget: r.predictedOutsideTarget || outsideF,
+    predictedOutsideTarget: isOut,
   };
 }
 
@@ -889,9 +907,23 @@ function inFahrenheit(r: QcRow, p: SheetPrediction, fmt: (x: number, d: number) 
  * A prediction printed with the row's `d` decimals, or as many more as it takes (up to `d + 2`, as a
  * limit may have) to print it on the side of its verdict ({@link verdictDigits}): a pass within the
  * limits ("22.124" under "≥ 22.1234", not "22.12"), a miss beyond them ("22.1299" under "≥ 22.13", not "22.13").
+ * Where the verdict was judged on the value as reported (`reported`: flash and pour to whole °C) and no
+ * digits of the prediction read on its side, the reported value is printed, with the digits it needs.
  */
-function onItsSide(v: number, d: number, min: number | null, max: number | null, isOutside: boolean, fmt: (x: number, d: number) => string): string {
-  return fmt(v, verdictDigits(v, { min, max }, isOutside ? 'missed' : 'met', d, d + LIMIT_EXTRA_DECIMALS).digits);
+function onItsSide(
+  v: number,
+  d: number,
+  min: number | null,
+  max: number | null,
+  isOutside: boolean,
+  fmt: (x: number, d: number) => string,
+  reported?: number,
+): string {
+  const verdict = isOutside ? 'missed' : 'met';
+  const most = d + LIMIT_EXTRA_DECIMALS;
+  const own = verdictDigits(v, { min, max }, verdict, d, most);
+  if (own.onItsSide || reported === undefined) return fmt(v, own.digits);
+  return fmt(reported, verdictDigits(reported, { min, max }, verdict, d, most).digits);
 }
 
 /** The numeric prediction behind a QC row, compared with its limits (rounded as printed). */
