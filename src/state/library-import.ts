@@ -16,7 +16,7 @@ import Papa from 'papaparse';
 import type { Component, ComponentCategory, PriceBasis, Availability } from '../core/formulation/model';
 import { CATEGORY_LABEL, COMPONENT_CATEGORIES } from '../core/formulation/model';
 import { componentSchema, describeIssues, z } from './schemas';
-import { checkComponent } from './checks';
+import { checkComponent, type CheckField } from './checks';
 import { COLLECTION_LIMITS } from './field-rules';
 import { OLDER_SCHEMA_STOCK_DEFAULTS, blankComponent } from './stock-defaults';
 import { restoreCsvText } from './csv';
@@ -174,6 +174,27 @@ function cellNumber(raw: string | undefined, comma: boolean, fileMark: ',' | '.'
   return Number.isFinite(v) ? v : 'bad';
 }
 
+/** A checked field as a row's messages name it (the labels the CSV reader's own messages use), never its internal key. */
+const FIELD_IN_WORDS: Record<CheckField, string> = {
+  code: 'code',
+  name: 'name',
+  kv40: 'ν40',
+  kv100: 'ν100',
+  viscosityPoints: 'viscosities',
+  density15: 'density',
+  anilinePoint: 'aniline point',
+  pourPoint: 'pour point',
+  flashPoint: 'flash point',
+  sulfurPct: 'sulfur',
+  saturatesPct: 'saturates',
+  price: 'price',
+  oxidationRating: 'oxidation rating',
+  shearLossPct: 'ν100 shear loss',
+  shearLoss40Pct: 'ν40 shear loss',
+  kv40LotSpreadPct: 'lot spread of ν40',
+  category: 'category',
+};
+
 /** Stored stocks by normalised code (trimmed, lower case), for matching import rows. */
 function byCode(existing: readonly Component[]): Map<string, Component> {
   const m = new Map<string, Component>();
@@ -251,8 +272,8 @@ function finishRow(
   if (errors.length === 0) {
     // The entry checks first (the same specific messages as the library screen), then the schema.
     const checks = checkComponent(comp, []);
-    for (const e of checks.errors) errors.push(`${e.field}: ${e.message}`);
-    for (const w of checks.warnings) warnings.push(`${w.field}: ${w.message}`);
+    for (const e of checks.errors) errors.push(`${FIELD_IN_WORDS[e.field]}: ${e.message}`);
+    for (const w of checks.warnings) warnings.push(`${FIELD_IN_WORDS[w.field]}: ${w.message}`);
     if (errors.length === 0) {
       const parsed = componentSchema.safeParse(comp);
       if (!parsed.success) errors.push(describeIssues(parsed.error));

@@ -32,6 +32,24 @@ describe('CSV import preview', () => {
     expect(p.rows[5]!.errors.join()).toMatch(/looks like kg\/m³/);
   });
 
+  it('names each field in a row’s error or warning as the preview’s other messages do (ν100, density, sulfur), never by its internal key (s25 walk: “kv100: …”, “sulfurPct: …”)', () => {
+    const p = previewCsv(
+      [
+        `${HEADER},sulfur_pct`,
+        'NEW-2,Upside-down,group-ii,10,20,0.86,1,per-kg,',
+        'NEW-5,Density in kg/m3,group-ii,45,6.6,862,1.1,per-kg,',
+        'NEW-6,Sulfur in ppm,group-ii,45,6.6,0.862,1.1,per-kg,4500',
+      ].join('\n'),
+      lib,
+    );
+    const said = p.rows.flatMap((r) => [...r.errors, ...r.warnings]);
+    expect(said.length).toBeGreaterThanOrEqual(3);
+    expect(p.rows[0]!.errors[0]).toMatch(/^ν100: ν100 \(20 mm²\/s\) must be below ν40/);
+    expect(p.rows[1]!.errors[0]).toMatch(/^density: /);
+    expect([...p.rows[2]!.errors, ...p.rows[2]!.warnings][0]).toMatch(/^sulfur: /);
+    for (const m of said) expect(m).not.toMatch(/^(kv40|kv100|density15|sulfurPct|saturatesPct|anilinePoint|pourPoint|flashPoint|viscosityPoints|shearLossPct|shearLoss40Pct|kv40LotSpreadPct|oxidationRating):/);
+  });
+
   it('matches existing codes for update (keeping the id) and new codes for add', () => {
     const p = previewCsv(`${HEADER}\nbw-190,Renamed bright stock,Group I,480,31.5,0.9,1200,per-tonne\nNEW-7,x,2,45,6.6,0.862,1.1,kg\n`, lib);
     expect(p.valid).toBe(true);
