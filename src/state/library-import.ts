@@ -463,7 +463,14 @@ export function csvPreviewer(text: string, existing: readonly Component[], opts:
       const num = (c: CsvColumn, label: string): number | null => {
         const v = cellNumber(get(c), comma, fileMark);
         if (v === 'bad') {
-          errors.push(`${label}: “${clip(get(c), 30)}” is not a number`);
+          // A comma in a comma-separated file's number (a quoted "30,5" from a comma-decimal spreadsheet) is
+          // said for what it is, with the number as the file must write it.
+          const t = get(c).trim();
+          const why =
+            !comma && /^[-+−]?\d*,\d+$/.test(t)
+              ? `: in a comma-separated file the decimal mark is a point and numbers carry no thousands mark (“${t.replace(',', '.')}” if the comma is the decimal mark)`
+              : '';
+          errors.push(`${label}: “${clip(get(c), 30)}” is not a number${why}`);
           return null;
         }
         if (typeof v === 'object' && v !== null) {

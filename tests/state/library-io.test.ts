@@ -50,6 +50,18 @@ describe('CSV import preview', () => {
     for (const m of said) expect(m).not.toMatch(/^(kv40|kv100|density15|sulfurPct|saturatesPct|anilinePoint|pourPoint|flashPoint|viscosityPoints|shearLossPct|shearLoss40Pct|kv40LotSpreadPct|oxidationRating):/);
   });
 
+  it('says why a comma-decimal number in a comma-separated file is refused, and how to write it (s25 walk: “30,5” was only “not a number”)', () => {
+    // A spreadsheet with comma decimals saving a comma-separated file quotes "30,5"; the file's separator is the comma.
+    const p = previewCsv(`${HEADER}\nNEW-8,Comma decimals,group-ii,"30,5",5.2,"0,86",1000,per-tonne\n`, lib);
+    expect(p.valid).toBe(false);
+    expect(p.rows[0]!.errors).toEqual([
+      'ν40: “30,5” is not a number: in a comma-separated file the decimal mark is a point and numbers carry no thousands mark (“30.5” if the comma is the decimal mark)',
+      'density: “0,86” is not a number: in a comma-separated file the decimal mark is a point and numbers carry no thousands mark (“0.86” if the comma is the decimal mark)',
+    ]);
+    // a cell that is no number in any notation keeps the short message
+    expect(previewCsv(`${HEADER}\nNEW-9,Words,group-ii,thick,5.2,0.86,1000,per-tonne\n`, lib).rows[0]!.errors).toEqual(['ν40: “thick” is not a number']);
+  });
+
   it('matches existing codes for update (keeping the id) and new codes for add', () => {
     const p = previewCsv(`${HEADER}\nbw-190,Renamed bright stock,Group I,480,31.5,0.9,1200,per-tonne\nNEW-7,x,2,45,6.6,0.862,1.1,kg\n`, lib);
     expect(p.valid).toBe(true);
