@@ -284,6 +284,25 @@ describe('storage faults', () => {
     await expect.poll(() => page.getByText('The browser may clear saved work.').count()).toBe(0);
   });
 
+  it('a backup chosen, cancelled and chosen again is offered again (s25 walk: the second choice of the same file did nothing)', async () => {
+    s = await launch();
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/settings`);
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    const download = page.waitForEvent('download');
+    await page.getByRole('button', { name: 'Export everything (backup file)' }).click();
+    const file = await (await download).path();
+    const input = page.getByLabel(/^Import a backup/);
+    const offer = page.getByRole('button', { name: 'Replace everything with this backup' });
+    await input.setInputFiles(file);
+    await offer.waitFor();
+    await page.getByRole('button', { name: 'Cancel', exact: true }).click();
+    await expect.poll(() => offer.count()).toBe(0);
+    await input.setInputFiles(file);
+    await offer.waitFor({ timeout: 5000 });
+    expect(s.errors).toEqual([]);
+  });
+
   it('after many edits an export-all backup is offered, and taking it clears the reminder', async () => {
     s = await launch();
     const { page } = s;

@@ -40,7 +40,8 @@ function BackupImport() {
         type="file"
         accept=".json,application/json"
         onChange={async (e) => {
-          const f = e.target.files?.[0];
+          const input = e.currentTarget;
+          const f = input.files?.[0];
           setDone('');
           setReplaced(null);
           if (!f) return;
@@ -50,6 +51,9 @@ function BackupImport() {
           } catch (err) {
             setParsed({ ok: false, errors: [`The file could not be read: ${(err as Error).message}`] });
           }
+          // The notice names the file; the field is emptied so that the same file chosen again (after
+          // Cancel, or corrected after a refusal) is read again — the browser reports no change otherwise.
+          input.value = '';
         }}
       />
       {parsed && !parsed.ok ? (
