@@ -84,6 +84,15 @@ export function parseBackupText(text: string): BackupParse {
   }
   const env = envelopeSchema.safeParse(json);
   if (!env.success) {
+    // The Stocks screen's own JSON export chosen here: said for what it is, and where it goes.
+    const rec = typeof json === 'object' && json !== null ? (json as Record<string, unknown>) : {};
+    if (rec.format === 'blendbench-library') {
+      const n = Array.isArray(rec.components) ? rec.components.length : 0;
+      return {
+        ok: false,
+        errors: [`The file is a stock library exported from the Stocks screen (${n} stock${n === 1 ? '' : 's'}), not a backup of everything: import it on Stocks → Import CSV / JSON. Nothing was changed.`],
+      };
+    }
     return { ok: false, errors: ['The file is not a Blendbench backup (expected "format": "blendbench-backup" with library, recipes and settings sections).'] };
   }
   const errors: string[] = [];

@@ -589,6 +589,12 @@ export function jsonPreviewer(text: string, existing: readonly Component[]): Imp
       return settled(summarise('json', [`The file is not valid JSON: ${(e as Error).message}`], []));
     }
     const env = jsonFileSchema.safeParse(json);
+    if (!env.success && typeof json === 'object' && json !== null && (json as Record<string, unknown>).format === 'blendbench-backup') {
+      // A Settings backup chosen here: said for what it is, and where it is restored.
+      return settled(
+        summarise('json', ['The file is a backup of everything (library, recipes and settings), not a stock library: restore it on Settings → Import a backup, or export the stocks on Stocks → Export JSON.'], []),
+      );
+    }
     if (!env.success) {
       return settled(summarise('json', ['Expected a Blendbench library file ({"format": "blendbench-library", "components": […]}) or a list of components.'], []));
     }

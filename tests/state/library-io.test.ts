@@ -257,6 +257,13 @@ describe('JSON import preview', () => {
     expect(p.valid).toBe(true);
     expect(p.unchanged).toBe(lib.length);
   });
+  it('a Settings backup chosen on Stocks is refused saying what it is and where it is restored (s25 walk)', () => {
+    const backup = JSON.stringify({ format: 'blendbench-backup', version: 1, exportedAt: '2025-04-01T10:00:00.000Z', sections: {} });
+    expect(previewJson(backup, lib).fileErrors).toEqual([
+      'The file is a backup of everything (library, recipes and settings), not a stock library: restore it on Settings → Import a backup, or export the stocks on Stocks → Export JSON.',
+    ]);
+  });
+
   it('reports bad items per item and invalid JSON as a file error', () => {
     const good = { ...lib[0]!, code: 'J-1' };
     const bad = { ...lib[1]!, code: 'J-2', density15: 'x' };

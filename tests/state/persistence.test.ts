@@ -289,6 +289,17 @@ describe('export-all and import-all backups', () => {
     expect(JSON.stringify(m.state.persistedData('settings'))).toBe(before.settings);
   });
 
+  it('a Stocks library export chosen as a backup is refused saying what it is and where it is imported (s25 walk)', async () => {
+    const m = await load();
+    await m.state.startSavedWork({ requestPersistence: false });
+    const { libraryToJson } = await import('../../src/state/library-io');
+    const parsed = m.backup.parseBackupText(libraryToJson(m.state.useLibrary.getState().components, '2025-04-01T10:00:00.000Z'));
+    expect(parsed).toEqual({
+      ok: false,
+      errors: ['The file is a stock library exported from the Stocks screen (29 stocks), not a backup of everything: import it on Stocks → Import CSV / JSON. Nothing was changed.'],
+    });
+  });
+
   it('refuses a broken backup and changes nothing', async () => {
     const m = await load();
     await m.state.startSavedWork({ requestPersistence: false });
