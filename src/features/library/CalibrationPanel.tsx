@@ -433,12 +433,19 @@ export function CalibrationPanel({ c, components, recipes, defaultMethod, today,
                     setStored(`Not stored: ${outcome.message}`);
                     return;
                   }
+                  const storedText = `Calibration stored for ${c.code}: blends now use ν40 ${fmt.sig(result.effectiveKv40, 4)} / ν100 ${fmt.sig(result.effectiveKv100, 4)} mm²/s.`;
+                  if (outcome && outcome.kind === 'confirm') {
+                    // The note lasts while the window is open: then it says what the answer did. Cancelled,
+                    // the solved values stay in the form, to be stored again without solving again.
+                    setStored(`The calibration of ${c.code} moves saved recipes: confirm or cancel in the window that opened.`);
+                    void outcome.settled.then((applied) => {
+                      if (applied) setOpen(false);
+                      setStored(applied ? storedText : `Not stored: ${c.code} keeps its stored blending values. The solved values are still below; store them again or cancel.`);
+                    });
+                    return;
+                  }
                   setOpen(false);
-                  setStored(
-                    outcome && outcome.kind === 'confirm'
-                      ? `The calibration of ${c.code} moves saved recipes: confirm or cancel in the window that opened.`
-                      : `Calibration stored for ${c.code}: blends now use ν40 ${fmt.sig(result.effectiveKv40, 4)} / ν100 ${fmt.sig(result.effectiveKv100, 4)} mm²/s.`,
-                  );
+                  setStored(storedText);
                 }}
               >
                 Store calibration for {c.code}

@@ -6,7 +6,11 @@ import { useFormat } from '../../components/format';
 import { StatusBadge } from '../../components/recipe-status';
 
 /** What a stock edit did: stored, waiting for the user's confirmation, or refused (the message). */
-export type StockUpdateOutcome = { kind: 'stored' } | { kind: 'confirm' } | { kind: 'refused'; message: string };
+export type StockUpdateOutcome =
+  | { kind: 'stored' }
+  /** Waiting for the user's answer in the window; `settled` resolves true when stored, false when cancelled. */
+  | { kind: 'confirm'; settled: Promise<boolean> }
+  | { kind: 'refused'; message: string };
 
 export interface PendingStockChange {
   /** The stock's code and what changes, in words ("calibration", "ν40", "density"). */
@@ -14,6 +18,8 @@ export interface PendingStockChange {
   what: string;
   impact: RecipeImpact[];
   apply: () => void;
+  /** Told the answer (true = stored) when the window closes. */
+  settle: (applied: boolean) => void;
 }
 
 export function ImpactConfirm({ pending, onDone }: { pending: PendingStockChange; onDone: (applied: boolean) => void }) {

@@ -135,7 +135,12 @@ export default function LibraryScreen() {
         const refused = apply();
         return refused ? { kind: 'refused', message: refused } : { kind: 'stored' };
       }
+      let settle: (applied: boolean) => void = () => undefined;
+      const settled = new Promise<boolean>((resolve) => {
+        settle = resolve;
+      });
       setPending({
+        settle: (applied) => settle(applied),
         code: c.code,
         what: what.map((k) => PREDICTION_INPUT_LABEL[k]).join(' and '),
         impact,
@@ -148,7 +153,7 @@ export default function LibraryScreen() {
           );
         },
       });
-      return { kind: 'confirm' };
+      return { kind: 'confirm', settled };
     },
     [blendMethod],
   );
@@ -307,6 +312,7 @@ export default function LibraryScreen() {
           pending={pending}
           onDone={(applied) => {
             setPending(null);
+            pending.settle(applied);
             if (!applied) setFlash({ tone: 'info', text: `Nothing changed: ${pending.code} keeps its stored ${pending.what}.` });
           }}
         />

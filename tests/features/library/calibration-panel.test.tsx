@@ -90,6 +90,26 @@ describe('Calibration from a trial blend (library details)', () => {
     expect(pib().calibration).toBeNull();
   });
 
+  it('the note “confirm or cancel in the window that opened” goes once the window is answered: stored, or kept with the solved values to store again (s25 walk)', async () => {
+    const form = openForm();
+    pickRecipe(form, 'VG 680');
+    fillMeasured(form, '640', '38.5');
+    solve(form);
+    fireEvent.click(within(form).getByRole('button', { name: 'Store calibration for BW-510' }));
+    expect(screen.getByText(/confirm or cancel in the window that opened/)).toBeTruthy();
+    // Cancelled: nothing stored, the note says so and the solved values can be stored again.
+    fireEvent.click(screen.getByRole('button', { name: /Cancel — keep the stored data/ }));
+    expect(pib().calibration).toBeNull();
+    await screen.findByText(/Not stored: BW-510 keeps its stored blending values/);
+    expect(screen.queryByText(/confirm or cancel in the window that opened/)).toBeNull();
+    fireEvent.click(screen.getByRole('button', { name: 'Store calibration for BW-510' }));
+    // Confirmed: stored, and the panel says so instead of asking.
+    fireEvent.click(screen.getByRole('button', { name: /Store the change/ }));
+    expect(pib().calibration).not.toBeNull();
+    await screen.findByText(/Calibration stored for BW-510: blends now use ν40/);
+    expect(screen.queryByText(/confirm or cancel in the window that opened/)).toBeNull();
+  });
+
   it('remove button clears a stored calibration', () => {
     const form = openForm();
     pickRecipe(form, 'VG 680');
