@@ -117,8 +117,23 @@ export default function LibraryScreen() {
       const apply = () => store.updateComponent(id, patch);
       const what = PREDICTION_INPUTS.filter((k) => k in patch);
       if (what.length === 0) {
+        const was = store.components.find((x) => x.id === id);
         const refused = apply();
-        return refused ? { kind: 'refused', message: refused } : { kind: 'stored' };
+        if (refused) return { kind: 'refused', message: refused };
+        // A stock withdrawn while saved recipes charge it: said here, where it is done (the recipes' blend
+        // sheets print on hold from now on; core/release/release-hold.ts).
+        if (was && patch.availability === 'withdrawn' && was.availability !== 'withdrawn') {
+          const users = useRecipes.getState().recipes.filter((r) => r.lines.some((l) => l.componentId === id && l.massFraction > 0));
+          if (users.length > 0) {
+            const n = users.length;
+            setFlash({
+              tone: 'warning',
+              text: `${was.code} is withdrawn. It is used in ${n === 1 ? '1 saved recipe' : `${n} saved recipes`} (${users.map((r) => r.name).join('; ')}): ${n === 1 ? 'its blend sheet prints' : 'their blend sheets print'} on hold (not for release) until ${n === 1 ? 'it is' : 'they are'} revised without it.`,
+              undo: true,
+            });
+          }
+        }
+        return { kind: 'stored' };
       }
       const before = store.components;
       const c = before.find((x) => x.id === id);

@@ -129,6 +129,18 @@ describe('Library screen', () => {
     expect(bs().density15).toBe(before);
   });
 
+  it('withdrawing a stock used in recipes says which recipes and that their blend sheets print on hold (s25 walk: Stocks said nothing)', () => {
+    renderFor('BW-160');
+    fireEvent.change(editCell('Availability of BW-160'), { target: { value: 'withdrawn' } });
+    expect(useLibrary.getState().components.find((c) => c.code === 'BW-160')!.availability).toBe('withdrawn');
+    // BW-160 is in the invented demo recipes VG 220, VG 320 and VG 460 (src/state/demo.ts)
+    expect(
+      screen.getByText(
+        'BW-160 is withdrawn. It is used in 3 saved recipes (Gear oil VG 220 — current recipe (invented demo); Gear oil VG 320 — current recipe (invented demo); Gear oil VG 460 — current recipe (invented demo)): their blend sheets print on hold (not for release) until they are revised without it.',
+      ),
+    ).toBeTruthy();
+  });
+
   it('edits are one undo step each; clone, withdraw and delete can be undone', () => {
     renderFor('BW-190');
     // no calculation: 485 is the invented demo value, 490 the typed one
