@@ -141,6 +141,23 @@ describe('component library and saved work', () => {
     expect(JSON.stringify(await stored(page, 'library'))).toBe(before);
   });
 
+  it('a refused file, corrected and chosen again as the preview asks, is read again (s25 walk: the second choice did nothing)', async () => {
+    const { page } = s;
+    await page.goto(`${inject('baseURL')}#/library`);
+    await page.getByRole('heading', { name: 'Stocks' }).waitFor();
+    const file = join(files, 'corrected.csv');
+    const header = 'code,name,category,kv40_mm2s,kv100_mm2s,density15_kg_per_l,price';
+    writeFileSync(file, `${header}\nNEW-11,Comma decimals,group-ii,"45,5",6.6,0.862,1.1\n`);
+    await page.getByRole('button', { name: 'Import CSV / JSON…' }).click();
+    await page.getByLabel('File', { exact: true }).setInputFiles(file);
+    await page.getByText('1 of 1 rows have errors; nothing was imported.').waitFor();
+    writeFileSync(file, `${header}\nNEW-11,Comma decimals,group-ii,45.5,6.6,0.862,1.1\n`);
+    await page.getByLabel('File', { exact: true }).setInputFiles(file);
+    await page.getByText('corrected.csv is valid.').waitFor({ timeout: 5000 });
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    expect(await libraryRowCount(page)).toBe(29);
+  });
+
   it('a valid CSV is previewed, then imported only on confirmation', async () => {
     const { page } = s;
     const file = join(files, 'good.csv');

@@ -65,6 +65,10 @@ export function ImportPanel({ onClose, onImported }: { onClose: () => void; onIm
       setProgress(null);
       setPreview(emptyPreview(`The file could not be read: ${(e as Error).message}`));
       return;
+    } finally {
+      // The preview names the file; the field is emptied so that the file, corrected and chosen again
+      // as a refusal asks, is read again (the browser reports no change for the same file otherwise).
+      if (inputRef.current) inputRef.current.value = '';
     }
     // A "could mean 1.25 or 1250" the file does not settle is written with the settings' decimal separator.
     const handle = startImportPreview(file.name, text, components, (done, total) => setProgress({ done, total }), { decimalSeparator, baseCurrency });
