@@ -33,7 +33,7 @@ import { CorrectionSheet, correctedKv100Outside } from './CorrectionSheet';
 import { HEEL_DEFAULT_DENSITY, adjustedRecipe, correctionFor, hasAdjustment, recipeAdditive } from './qc';
 import { firstProblem, sheetProblems } from '../../state/field-rules';
 import { userMessage } from '../../state/messages';
-import { csvFileName, downloadCsv, toCsv } from './csv';
+import { csvFileName, downloadCsv, holdCsvRecord, toCsv } from './csv';
 import { longClass, pageRule } from './page-header';
 import { densityNotEntered, unenteredStocks } from '../../core/formulation/entered-values';
 import { csvWithoutLitres, litreBatchRefusal, litresNotGivenSentence, NO_PREDICTION, notPredictedSentence, withoutPrediction } from './unentered';
@@ -474,8 +474,11 @@ export function BlendSheetView(props: BlendSheetViewProps) {
     const noLitres = new Set(sheet.rows.filter((r) => noDensity.has(r.componentId)).map((r) => r.code));
     const noPrice = new Set(sheet.rows.filter((r) => priceNeedsDensity(r.componentId)).map((r) => r.code));
     const noCost = new Set(sheet.rows.filter((r) => unenteredIds.has(r.componentId)).map((r) => r.code));
-    const text = toCsv(csvWithoutLitres(rows, noLitres, { noPrice, noCost }));
-    const name = csvFileName(recipe.name, recipe.revision, lot);
+    const table = csvWithoutLitres(rows, noLitres, { noPrice, noCost });
+    // A sheet on hold exports with the hold as its first line (code HOLD, which no plant system can meter)
+    // and in its file name, as it prints with the hold: the file never passes for a releasable table.
+    const text = toCsv(held ? [holdCsvRecord(table[0]!, sheetHold.map((h) => h.message)), ...table] : table);
+    const name = csvFileName(recipe.name, recipe.revision, lot, held);
     if (props.onExportCsv) props.onExportCsv(text, name);
     else downloadCsv(text, name);
   };
@@ -536,8 +539,8 @@ export function BlendSheetView(props: BlendSheetViewProps) {
           >
             {held ? `Print — ${RELEASE_HOLD_LABEL}` : 'Print'}
           </button>
-          <button type="button" onClick={exportCsv} disabled={!sheet}>
-            Export component table (CSV)
+          <button type="button" onClick={exportCsv} disabled={!sheet} aria-describedby={held ? holdId : undefined}>
+            {held ? `Export component table (CSV) — ${RELEASE_HOLD_LABEL}` : 'Export component table (CSV)'}
           </button>
         </div>
         {notSent && (

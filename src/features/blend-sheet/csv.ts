@@ -1,6 +1,7 @@
 // CSV export of the blend sheet's component table: the shared CSV writer (formula-injection guard)
 // writes the text, a Blob + object URL hands it to the browser's download. No network.
 import type { CsvRecord } from '../../core/sheet/blend-sheet';
+import { RELEASE_HOLD_LABEL } from '../../core/release/release-hold';
 import { writeCsvRecords } from '../../state/csv';
 
 /** The CSV text of the records (header row from the first record's keys), CRLF line ends. */
@@ -8,8 +9,21 @@ export function toCsv(records: readonly CsvRecord[]): string {
   return writeCsvRecords(records);
 }
 
-/** A file name safe on every platform: letters, digits, dot, dash and underscore only. */
-export function csvFileName(recipeName: string, revision: number, lot: string): string {
+/**
+ * The first line of the file of a sheet on hold: every column of `like` empty but the code `HOLD` and, in the
+ * name, "HOLD — not for release: " and the reasons. A plant system reading the table meets a stock code it
+ * cannot charge; a person reading it meets the hold before the first component.
+ */
+export function holdCsvRecord(like: CsvRecord, reasons: readonly string[]): CsvRecord {
+  const rec: CsvRecord = {};
+  for (const key of Object.keys(like)) rec[key] = null;
+  rec.Code = 'HOLD';
+  rec.Name = `${RELEASE_HOLD_LABEL}: ${reasons.join(' ')}`;
+  return rec;
+}
+
+/** A file name safe on every platform: letters, digits, dot, dash and underscore only; `_ON-HOLD` ends a held sheet's. */
+export function csvFileName(recipeName: string, revision: number, lot: string, held = false): string {
   const clean = (s: string) =>
     s
       .trim()
@@ -18,6 +32,7 @@ export function csvFileName(recipeName: string, revision: number, lot: string): 
   const parts = ['blend-sheet', clean(recipeName) || 'recipe', `rev${revision}`];
   const l = clean(lot);
   if (l) parts.push(l);
+  if (held) parts.push('ON-HOLD');
   return `${parts.join('_')}.csv`;
 }
 

@@ -266,6 +266,20 @@ describe('BlendSheetView', () => {
     expect(csv).not.toMatch(/Price/);
   });
 
+  it('a sheet on hold exports with the hold as the file’s first line and in its name, as it prints with it (s25); before, its CSV read as a releasable table', () => {
+    const onExportCsv = vi.fn();
+    renderSheet({ recipes: [{ ...recipe, status: 'draft', approvedAt: null }], onExportCsv });
+    const button = screen.getByRole('button', { name: /Export component table/ });
+    expect(button.textContent).toBe('Export component table (CSV) — HOLD — not for release');
+    fireEvent.click(button);
+    const [csv, name] = onExportCsv.mock.calls[0]! as [string, string];
+    expect(name).toBe('blend-sheet_Invented-Gear-320_rev4_ON-HOLD.csv');
+    const lines = csv.split('\r\n');
+    expect(lines[0]).toBe('Charge order,Code,Name,Category,Mass %,Volume %,kg,Litres at 15 °C,Running total kg');
+    expect(lines[1]).toMatch(/^,HOLD,"?HOLD — not for release: .*draft/);
+    expect(lines[2]).toMatch(/^1,HV,/);
+  });
+
   it('explains when there is no recipe', () => {
     renderSheet({ recipes: [], recipeId: null });
     expect(screen.getByText(/There is no recipe yet/)).toBeTruthy();

@@ -113,7 +113,9 @@ describe('Blend sheet with a stock whose values are not yet entered', () => {
     return created[0]!.text().then((csv) => {
       const lines = csv.replace(/^\uFEFF/, '').trim().split(/\r?\n/);
       const head = lines[0]!.split(',');
-      const row = lines.find((l) => l.includes('BW-160'))!.split(',');
+      // the component's own line (the sheet is on hold: its first line, code HOLD, names BW-160 too)
+      const row = lines.map((l) => l.split(',')).find((cells) => cells[1] === 'BW-160')!;
+      expect(lines[1]!.split(',')[1]).toBe('HOLD');
       const total = lines.at(-1)!.split(',');
       for (const k of ['Volume %', 'Litres at 15 °C', 'Litres at 40 °C (metering)']) {
         const i = head.indexOf(k);
