@@ -365,7 +365,10 @@ function diagnose(Q: Prepared): string {
   const { kg, kv: fmtKv } = words;
   /** A limit in kg, rounded down (never more room or stock than there is; `kg` rounds a need up). */
   const kgLimit = (m: number): string => `${words.num(Math.max(0, Math.floor(m + 1e-9)), 0)} kg`;
-  const band = `${fmtKv(P.targets.kv40Min)}–${fmtKv(P.targets.kv40Max)} mm²/s`;
+  // The band and the measured batch as entered and printed on the correction sheet (313.6–326.4, 280.5), not
+  // rounded to the display's whole mm²/s above 100 (which read 314–326 and 281 beside the sheet's figures).
+  const band = `${words.say(P.targets.kv40Min)}–${words.say(P.targets.kv40Max)} mm²/s`;
+  const batchKv = words.say(c.vessel.kv40);
   const v = c.vessel;
   // 1. No amount of the stocks on hand reaches the band.
   const free = solveMasses(Q, { room: false, stock: false, vi: false }, 'mass');
@@ -390,15 +393,15 @@ function diagnose(Q: Prepared): string {
       const mixKv = P.coords.toKv(mixX(best));
       if ((below ? k.kv40 >= edge : k.kv40 <= edge) && (below ? mixKv < edge : mixKv > edge)) {
         const a = c.components[pkg - 1]!;
-        return `The batch is at ${fmtKv(v.kv40)} mm²/s, ${below ? 'below' : 'above'} the band ${band}, and no addition can ${below ? 'raise' : 'lower'} it that far: every addition carries the additive package ${a.id} (${fmtKv(a.kv40)} mm²/s) at the treat rate of ${words.pct(Q.r, 2)}, so the ${below ? 'heaviest' : 'thinnest'} addition, ${k.id} (${fmtKv(k.kv40)} mm²/s) with ${a.id}, is ${fmtKv(mixKv)} mm²/s. Add a ${below ? 'heavier' : 'thinner'} stock to the stocks on hand.`;
+        return `The batch is at ${batchKv} mm²/s, ${below ? 'below' : 'above'} the band ${band}, and no addition can ${below ? 'raise' : 'lower'} it that far: every addition carries the additive package ${a.id} (${fmtKv(a.kv40)} mm²/s) at the treat rate of ${words.pct(Q.r, 2)}, so the ${below ? 'heaviest' : 'thinnest'} addition, ${k.id} (${fmtKv(k.kv40)} mm²/s) with ${a.id}, is ${fmtKv(mixKv)} mm²/s. Add a ${below ? 'heavier' : 'thinner'} stock to the stocks on hand.`;
       }
     }
     if (below) {
       const heaviest = stocks.reduce((a, b) => (b.kv40 > a.kv40 ? b : a), stocks[0] ?? c.components[0]!);
-      return `The batch is at ${fmtKv(v.kv40)} mm²/s, below the band ${band}, and no stock on hand is heavy enough to raise it: the heaviest, ${heaviest.id}, has ${fmtKv(heaviest.kv40)} mm²/s. Add a stock heavier than ${fmtKv(P.targets.kv40Min)} mm²/s to the stocks on hand.`;
+      return `The batch is at ${batchKv} mm²/s, below the band ${band}, and no stock on hand is heavy enough to raise it: the heaviest, ${heaviest.id}, has ${fmtKv(heaviest.kv40)} mm²/s. Add a stock heavier than ${fmtKv(P.targets.kv40Min)} mm²/s to the stocks on hand.`;
     }
     const thinnest = stocks.reduce((a, b) => (b.kv40 < a.kv40 ? b : a), stocks[0] ?? c.components[0]!);
-    return `The batch is at ${fmtKv(v.kv40)} mm²/s, above the band ${band}, and no stock on hand is thin enough to lower it: the thinnest, ${thinnest.id}, has ${fmtKv(thinnest.kv40)} mm²/s. Add a stock thinner than ${fmtKv(P.targets.kv40Max)} mm²/s to the stocks on hand.`;
+    return `The batch is at ${batchKv} mm²/s, above the band ${band}, and no stock on hand is thin enough to lower it: the thinnest, ${thinnest.id}, has ${fmtKv(thinnest.kv40)} mm²/s. Add a stock thinner than ${fmtKv(P.targets.kv40Max)} mm²/s to the stocks on hand.`;
   }
   const reasons: string[] = [];
   // 2. The vessel's room (or a heel's exact batch size).
@@ -451,7 +454,7 @@ function diagnose(Q: Prepared): string {
         : `the vessel's room, the stock on hand and the band cannot all be met together${limits.length === 1 ? ` (${limits[0]})` : ''}`,
     );
   }
-  return `No addition brings the batch (${kg(v.massKg)} at ${fmtKv(v.kv40)} mm²/s) into ${band}: ${reasons.join('; and ')}.`;
+  return `No addition brings the batch (${kg(v.massKg)} at ${batchKv} mm²/s) into ${band}: ${reasons.join('; and ')}.`;
 }
 
 /**

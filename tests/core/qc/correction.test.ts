@@ -169,6 +169,14 @@ describe('batch correction — impossible corrections say why in numbers', () =>
     expect(r.reason).toMatch(/the heaviest, BW-240, has 110 mm²\/s/);
   });
 
+  it('the band and the measured batch are written as entered and as the correction sheet prints them, not rounded to whole mm²/s (s25)', () => {
+    // Band 313.6–326.4 mm²/s: 320 ± 2 % (the correction's default band, common practice (no source)); batch measured at 280.5.
+    const r = correctBatchPlain({ ...thin, vessel: { ...thin.vessel, kv40: 280.5 }, tolerancePct: 2, components: [stocks.hn, stocks.mn, stocks.ep] });
+    expect(r.status).toBe('infeasible');
+    if (r.status !== 'infeasible') return;
+    expect(r.reason).toMatch(/280\.5 mm²\/s, below the band 313\.6–326\.4 mm²\/s/);
+  });
+
   it('a stock heavy enough that the additive top-up keeps out of the band: the additive is named as the reason, not the stock (property hunt, s25)', () => {
     // Every addition carries EP at 10 % (the vessel's treat rate), so the heaviest addition is the mix
     // 0.9·BW-310 + 0.1·EP. Refutas on mass fractions (check-values §3), by the core's VBN functions:
