@@ -276,6 +276,8 @@ export {
   solvePreparedLinePlan,
   MARGINAL_STEP_KG,
   SUPPLY_CHECK_TOLERANCE,
+  supplyCheckLimitKg,
+  leastUseCheckFloorKg,
 } from './lineplan/plan';
 export type { PlainLineComponent, PlainLineGrade, PlainLineProblem, PlainLineResult, PlainLineGradeResult } from './lineplan/plain';
 export { planLinePlain } from './lineplan/plain';

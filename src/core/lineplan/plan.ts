@@ -166,8 +166,41 @@ export interface PreparedLinePlan {
   readonly joint: JointProblem;
 }
 
-/** Supply-use tolerance when recomputed: 1e-6 of the supply plus 1 g (the LP holds rows to ~1e-8). */
-export const SUPPLY_CHECK_TOLERANCE = { relative: 1e-6, kg: 1e-3 } as const;
+/**
+ * Supply-use tolerance when recomputed: 1e-6 of the supply plus 1 g, plus the LP's rounding of the
+ * planned fractions: the simplex returns each mass fraction rounded to 1e-8 (`solver/lp.ts`), so a
+ * grade's use of a stock may be off by up to 1e-8 of its demand (`lpFraction` per kg of demand).
+ */
+export const SUPPLY_CHECK_TOLERANCE = { relative: 1e-6, kg: 1e-3, lpFraction: 1e-8 } as const;
+
+/**
+ * The most a plan may use of a stock when recomputed and still meet its supply:
+ * S·(1 + 1e-6) + 1 g + 1e-8·Σ_g D_g ({@link SUPPLY_CHECK_TOLERANCE}).
+ *
+ * @param supplyKg - the stock's supply S [kg]
+ * @param demandsKg - the grades' demands D_g [kg]
+ * @returns the largest accepted use [kg]
+ * @example supplyCheckLimitKg(1, [516_000]) // → ≈ 1.00616 (1 kg + 1 mg + 1 g + 5.16 g)
+ */
+export function supplyCheckLimitKg(supplyKg: number, demandsKg: readonly number[]): number {
+  return supplyKg * (1 + SUPPLY_CHECK_TOLERANCE.relative) + SUPPLY_CHECK_TOLERANCE.kg + lpRoundingKg(demandsKg);
+}
+
+/**
+ * The least use of a stock a recomputed plan may show and still meet its least use M:
+ * M·(1 − 1e-6) − 1 g − 1e-8·Σ_g D_g ({@link SUPPLY_CHECK_TOLERANCE}).
+ *
+ * @param minUseKg - the least use M [kg]
+ * @param demandsKg - the grades' demands D_g [kg]
+ * @returns the smallest accepted use [kg]
+ */
+export function leastUseCheckFloorKg(minUseKg: number, demandsKg: readonly number[]): number {
+  return minUseKg * (1 - SUPPLY_CHECK_TOLERANCE.relative) - SUPPLY_CHECK_TOLERANCE.kg - lpRoundingKg(demandsKg);
+}
+
+function lpRoundingKg(demandsKg: readonly number[]): number {
+  return SUPPLY_CHECK_TOLERANCE.lpFraction * demandsKg.reduce((s, d) => s + d, 0);
+}
 
 const FN = 'planLine';
 
@@ -384,7 +417,7 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
         limit: `≤ ${s}`,
         min: null,
         max: s,
-        ok: useKg[i]! <= s * (1 + SUPPLY_CHECK_TOLERANCE.relative) + SUPPLY_CHECK_TOLERANCE.kg,
+        ok: useKg[i]! <= supplyCheckLimitKg(s, J.demandKg),
       });
     }
     if (J0.keep[i]) {
@@ -397,7 +430,7 @@ export function solvePreparedLinePlan(plan: PreparedLinePlan, supplyKg?: readonl
         limit: `≥ ${m}`,
         min: m,
         max: null,
-        ok: useKg[i]! >= m * (1 - SUPPLY_CHECK_TOLERANCE.relative) - SUPPLY_CHECK_TOLERANCE.kg,
+        ok: useKg[i]! >= leastUseCheckFloorKg(m, J.demandKg),
       });
     }
   });
