@@ -216,7 +216,10 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
   // A temperature, and a difference of temperatures, in the display unit (definition of °F).
   const temp = (tC: number) => num(isF ? (tC * 9) / 5 + 32 : tC, 0);
   const tempDelta = (dC: number) => (isF ? (dC * 9) / 5 : dC);
-  const signed = (x: number, digits: number): string => `${x > 0 ? '+' : x < 0 ? '−' : '±'}${num(Math.abs(x), digits)}`;
+  // The sign of the value as printed: a change that prints as zero at its decimals reads "±0.0"
+  // (a round-off or sub-digit change is no direction), like the blend sheet's "±0.00".
+  const printedSign = (x: number, digits: number): 1 | 0 | -1 => (Number(Math.abs(x).toFixed(digits)) === 0 ? 0 : x > 0 ? 1 : -1);
+  const signed = (x: number, digits: number): string => `${['−', '±', '+'][printedSign(x, digits) + 1]}${num(Math.abs(x), digits)}`;
   const out: string[] = [];
   if (c.costPerLitre.delta !== null) {
     const pct = c.costPerLitre.deltaPct === null ? '' : ` (${signed(c.costPerLitre.deltaPct, 1)} %)`;
@@ -226,8 +229,10 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
   }
   if (c.vi.delta !== null) out.push(`VI ${signed(c.vi.delta, 1)}`);
   if (c.anilinePoint.delta !== null) {
-    const word = c.anilinePoint.delta < 0 ? 'more solvent' : c.anilinePoint.delta > 0 ? 'less solvent' : 'same solvency';
-    out.push(`Aniline point ${signed(tempDelta(c.anilinePoint.delta), 1)} ${deg} (${word}; approximate)`);
+    const dT = tempDelta(c.anilinePoint.delta);
+    const sign = printedSign(dT, 1);
+    const word = sign < 0 ? 'more solvent' : sign > 0 ? 'less solvent' : 'same solvency';
+    out.push(`Aniline point ${signed(dT, 1)} ${deg} (${word}; approximate)`);
   }
   if (c.oxidation.change !== 'same') {
     out.push(
