@@ -109,11 +109,14 @@ export interface UnpricedStock {
 
 /** The library with every price in the base currency, and what could not be converted. */
 export interface PricedLibrary {
-  /** Same order and ids as the input; prices restated where a rate exists, else unchanged. */
+  /**
+   * Same order and ids as the input; prices restated where a rate exists. An unpriced stock's copy
+   * has a blank currency (its amount and basis as quoted), so it is never costed.
+   */
   components: Component[];
   /** Normalised base currency code. */
   base: string;
-  /** Stocks whose currency has no rate (their price is left as quoted and must not be costed). */
+  /** Stocks without a usable price: no price, values not yet entered, or a currency without a rate (never costed). */
   unpriced: UnpricedStock[];
   /** The rates actually used (one per foreign currency present), in first-use order. */
   ratesUsed: ExchangeRate[];
@@ -148,8 +151,11 @@ export function priceLibraryInBase(components: readonly Component[], base: strin
     }
     const r = rateToBase(c.price.currency, base, rates);
     if (!r) {
+      // No rate: its currency is blanked in the priced copy as well, so that no recipe holding it is
+      // costed — not even one made only of stocks in that currency (predictBlend costs no blend
+      // holding a blank currency). The stored stock and `unpriced` keep the quoted currency.
       unpriced.push({ componentId: c.id, code: c.code, currency: c.price.currency.trim() });
-      return c;
+      return { ...c, price: { ...c.price, currency: '' } };
     }
     if (r.entry) used.set(normaliseCurrency(r.entry.currency), r.entry);
     else if (c.price.currency === normaliseCurrency(base)) return c; // already in the base currency, as written

@@ -81,12 +81,15 @@ export interface BlendProperties {
   /** True when the index is used beyond the range it was fitted on (gear oils: always for flash). */
   flashPointExtrapolated: boolean;
   pourPointExtrapolated: boolean;
-  /** Cost per kg and per litre at 15 °C, in `currency`; null when currencies are mixed. */
+  /**
+   * Cost per kg and per litre at 15 °C, in `currency`; null when currencies are mixed or a used stock
+   * has no usable price (a blank currency, as `priceLibraryInBase` marks it).
+   */
   costPerKg: number | null;
   costPerLitre: number | null;
   /** Cost per delivered litre, counted at the delivery temperature; null when currencies are mixed. */
   costPerDeliveredLitre: { tempC: number; cost: number } | null;
-  /** The common currency of the used components; null when they differ (see `mixedCurrencies`). */
+  /** The common currency of the used components; null when they differ (see `mixedCurrencies`) or one has a blank currency. */
   currency: string | null;
   mixedCurrencies: boolean;
   /** ISO VG holding ν40, or null between grades. */
@@ -353,16 +356,24 @@ export function predictBlend(
   const used = parts.filter((p) => p.line.massFraction > 0);
   const currencies = [...new Set(used.map((p) => p.component.price.currency))];
   const mixedCurrencies = currencies.length > 1;
+  // A blank currency marks a stock without a usable price (`currency/exchange-rates.ts`: no price,
+  // values not yet entered, or no exchange rate to the base): a blend holding one is never costed,
+  // even when every stock of it is such a one.
+  const unpricedCodes = used.filter((p) => p.component.price.currency.trim() === '').map((p) => p.component.code);
   let costPerKg: number | null = null;
   let costPerLitre: number | null = null;
   let costPerDeliveredLitre: { tempC: number; cost: number } | null = null;
-  const currency = mixedCurrencies ? null : (currencies[0] ?? null);
+  const currency = mixedCurrencies || unpricedCodes.length > 0 ? null : (currencies[0] ?? null);
   const priceParts = parts.map((p) => ({
     massFraction: p.line.massFraction,
     density15: p.component.density15,
     pricePerKg: pricePerKg(p.component.price, p.component.density15),
   }));
-  if (mixedCurrencies) {
+  if (unpricedCodes.length > 0) {
+    warnings.push(
+      `${unpricedCodes.join(', ')} ${unpricedCodes.length === 1 ? 'has' : 'have'} no usable price (none entered, values not yet entered, or no exchange rate), so no cost is shown.`,
+    );
+  } else if (mixedCurrencies) {
     warnings.push(
       `Prices are in different currencies (${currencies.join(', ')}); a price is never added into another currency, so no cost is shown (enter an exchange rate under Settings).`,
     );
