@@ -87,7 +87,7 @@ describe('searchSubstitutes properties', () => {
       }),
       { numRuns: 150 },
     );
-    console.log(tally);
+    expect(tally.withCandidates).toBeGreaterThan(0); // the property is not vacuous
   });
 
   it('the best candidate equals a brute-force solve of every subset of the pool (least cost, small libraries)', () => {
