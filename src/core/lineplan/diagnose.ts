@@ -47,20 +47,36 @@ export interface PlanDiagnosis {
   lpCount: number;
 }
 
-/** Tonnes for a message: whole tonnes from 10 t (grouped, as the app's tables), else one or two decimals. */
-export function fmtTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }): string {
+/**
+ * Tonnes for a message: whole tonnes from 10 t (grouped, as the app's tables), else one or two
+ * decimals; at least `minDecimals` where a sentence needs them to tell its numbers apart.
+ */
+export function fmtTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }, minDecimals = 0): string {
   const a = Math.abs(t);
-  return `${formatFixed(t, a >= 10 ? 0 : a >= 1 ? 1 : 2, display)} t`;
+  return `${formatFixed(t, Math.max(a >= 10 ? 0 : a >= 1 ? 1 : 2, minDecimals), display)} t`;
 }
 
 /**
  * A quantity given in tonnes, written in kg for a message: whole kg from 10 kg (grouped, as the
  * app's tables), else one or two decimals. 1 t = 1000 kg (SI).
  */
-export function fmtKgOfTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }): string {
+export function fmtKgOfTonnes(t: number, display: NumberDisplay = { thousandsGrouping: true }, minDecimals = 0): string {
   const kg = t * 1000;
   const a = Math.abs(kg);
-  return `${formatFixed(kg, a >= 10 ? 0 : a >= 1 ? 1 : 2, display)} kg`;
+  return `${formatFixed(kg, Math.max(a >= 10 ? 0 : a >= 1 ? 1 : 2, minDecimals), display)} kg`;
+}
+
+/**
+ * The fewest decimals (at least; 0–6) with which a sentence's numbers read apart: the shortfall not
+ * as zero, and the quantity on offer not equal to the quantity needed (a shortfall of 3 kg of 73 t
+ * read "short by 0.00 t (73 t on offer; the plan needs at least 73 t)"; now "0.003 t (73.478 t on
+ * offer; … 73.481 t)").
+ */
+function decimalsApart(q: (t: number, minDecimals: number) => string, short: number, a: number, b: number): number {
+  for (let d = 0; d < 6; d++) {
+    if (q(short, d) !== q(0, d) && q(a, d) !== q(b, d)) return d;
+  }
+  return 6;
 }
 
 /**
@@ -73,8 +89,8 @@ export function fmtKgOfTonnes(t: number, display: NumberDisplay = { thousandsGro
  */
 export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4000): PlanDiagnosis {
   const display: NumberDisplay = { thousandsGrouping: true, ...labels.display };
-  const inTonnes = (t: number) => fmtTonnes(t, display);
-  const inKg = (t: number) => fmtKgOfTonnes(t, display);
+  const inTonnes = (t: number, minDecimals = 0) => fmtTonnes(t, display, minDecimals);
+  const inKg = (t: number, minDecimals = 0) => fmtKgOfTonnes(t, display, minDecimals);
   let lpCount = 0;
   const out = (d: Omit<PlanDiagnosis, 'lpCount' | 'grade' | 'short' | 'minStocks'> & Partial<PlanDiagnosis>): PlanDiagnosis => ({
     grade: null,
@@ -118,34 +134,41 @@ export function diagnoseLinePlan(J: JointProblem, labels: PlanLabels, maxLps = 4
       if (sf.useShortT![i]! > 1e-6) short.push({ stock: i, tonnes: sf.useShortT![i]! });
     }
     // The sentences, with the quantities written by `q` (in tonnes, or the same numbers in kg).
-    const supplyText = (q: (t: number) => string): string[] => {
+    // Each sentence's numbers get the decimals that tell them apart (decimalsApart).
+    const supplyText = (q0: (t: number, minDecimals: number) => string): string[] => {
       const parts: string[] = [];
       for (let i = 0; i < n; i++) {
         const s = sf.supplyShortT![i]!;
         if (!(s > 1e-6)) continue;
-        const need = J.supplyKg[i]! / 1000 + s;
+        const offer = J.supplyKg[i]! / 1000;
+        const need = offer + s;
+        const x = decimalsApart(q0, s, offer, need);
+        const q = (t: number) => q0(t, x);
         const by = users[i]!;
         parts.push(
-          `${labels.stocks[i]} is short by ${q(s)} (${q(J.supplyKg[i]! / 1000)} on offer; ` +
+          `${labels.stocks[i]} is short by ${q(s)} (${q(offer)} on offer; ` +
             `the plan needs at least ${q(need)}${by.length ? ` for ${by.map((g) => labels.grades[g]!.product).join(', ')}` : ''})`,
         );
       }
       return parts;
     };
-    const useText = (q: (t: number) => string): string[] => {
+    const useText = (q0: (t: number, minDecimals: number) => string): string[] => {
       const parts: string[] = [];
       for (let i = 0; i < n; i++) {
         const u = sf.useShortT![i]!;
         if (!(u > 1e-6)) continue;
+        const least = J.minUseKg[i]! / 1000;
+        const x = decimalsApart(q0, u, least - u, least);
+        const q = (t: number) => q0(t, x);
         parts.push(
-          `${labels.stocks[i]} can be used at most ${q(J.minUseKg[i]! / 1000 - u)} over the period, ` +
-            `${q(u)} less than the ${q(J.minUseKg[i]! / 1000)} it must stay in use for`,
+          `${labels.stocks[i]} can be used at most ${q(least - u)} over the period, ` +
+            `${q(u)} less than the ${q(least)} it must stay in use for`,
         );
       }
       return parts;
     };
     if (supplyText(inTonnes).length > 0) {
-      const supplyReason = (q: (t: number) => string) => {
+      const supplyReason = (q: (t: number, minDecimals: number) => string) => {
         const parts = supplyText(q);
         return (
           `The limited supply does not cover the demand: ${parts.join('; ')}. ` +
