@@ -140,6 +140,7 @@ export type { NumberDisplay, DisplayWords } from './words/display';
 export { formatFixed, sayNumber, decimalsOf, displayWords } from './words/display';
 export type { VerdictLimits, VerdictDigits } from './words/verdict-digits';
 export { verdictDigits } from './words/verdict-digits';
+export { printedSign, signedText } from './words/signed';
 
 // Units at the boundary
 export { cToF, fToC, cToK, cStToMm2s, mm2sToCSt, convertPrice, PRICE_BASIS_LABEL } from './units';

@@ -6,6 +6,7 @@
  * The oxidation class, solvency band and deposit propensity are Blendbench's own ordinal scales
  * (estimates, not measurements); their change is reported as better / same / worse.
  */
+import { printedSign, signedText } from '../words/signed';
 import type { BlendMethod } from '../blending/blend-viscosity';
 import { predictBlend, type BlendProperties } from './blend-properties';
 import { assessDeposit, DEPOSIT_PROPENSITIES, type DepositAssessment, type DepositPropensity } from '../scoring/deposit';
@@ -218,8 +219,7 @@ function summarise(c: Comparison, currency: string | null, display: NonNullable<
   const tempDelta = (dC: number) => (isF ? (dC * 9) / 5 : dC);
   // The sign of the value as printed: a change that prints as zero at its decimals reads "±0.0"
   // (a round-off or sub-digit change is no direction), like the blend sheet's "±0.00".
-  const printedSign = (x: number, digits: number): 1 | 0 | -1 => (Number(Math.abs(x).toFixed(digits)) === 0 ? 0 : x > 0 ? 1 : -1);
-  const signed = (x: number, digits: number): string => `${['−', '±', '+'][printedSign(x, digits) + 1]}${num(Math.abs(x), digits)}`;
+  const signed = (x: number, digits: number): string => signedText(x, digits, num);
   const out: string[] = [];
   if (c.costPerLitre.delta !== null) {
     const pct = c.costPerLitre.deltaPct === null ? '' : ` (${signed(c.costPerLitre.deltaPct, 1)} %)`;

@@ -1,5 +1,6 @@
 // The printable blend sheet. Presentational: everything it shows comes from its props and the pure
 // core (`core/blend-sheet.ts`); the screen wrapper (`BlendSheetScreen.tsx`) wires it to the stores.
+import { signedText } from '../../core/words/signed';
 import { SheetFooter } from './SheetFooter';
 import { displayWords, formatFixed, type NumberDisplay } from '../../core/words/display';
 import { useEffect, useId, useMemo, useRef, useState } from 'react';
@@ -905,7 +906,7 @@ export function BlendSheetView(props: BlendSheetViewProps) {
                     <td className="bs-num">{c.kind === 'removed' ? '—' : fmt(c.to * 100, pd)}</td>
                     <td className="bs-num">
                       {/* An unchanged line as a signed zero, read like the "+1.53" / "−0.96" beside it. */}
-                      {c.kind === 'same' ? `±${fmt(0, pd)}` : `${c.delta > 0 ? '+' : '−'}${fmt(Math.abs(c.delta) * 100, pd)}`}
+                      {c.kind === 'same' ? `±${fmt(0, pd)}` : signedText(c.delta * 100, pd, fmt)}
                       {c.kind === 'added' ? ' (new)' : c.kind === 'removed' ? ' (removed)' : ''}
                     </td>
                   </tr>

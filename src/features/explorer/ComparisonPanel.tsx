@@ -1,3 +1,4 @@
+import { signedText } from '../../core/words/signed';
 import { unenteredStocks } from '../../core/formulation/entered-values';
 import { memo, useMemo, useState, type ReactNode } from 'react';
 import type { BlendTargets, Component, Recipe, RecipeLine } from '../../core/formulation/model';
@@ -27,8 +28,7 @@ interface Row {
 
 function delta(a: number | null | undefined, b: number | null | undefined, fmt: Formatter, digits: number, unit = ''): string {
   if (a === null || a === undefined || b === null || b === undefined) return '—';
-  const d = b - a;
-  return `${d > 0 ? '+' : d < 0 ? '−' : '±'}${fmt.num(Math.abs(d), digits)}${unit}`;
+  return `${signedText(b - a, digits, fmt.num)}${unit}`;
 }
 
 function tone(d: number | null, lowerIsBetter: boolean): 'better' | 'worse' | undefined {
@@ -228,8 +228,7 @@ function scoreChange(a: number, b: number): string {
 
 function pctChange(a: number | undefined, b: number | undefined, fmt: Formatter): string {
   if (a === undefined || b === undefined || a === 0) return '—';
-  const d = (100 * (b - a)) / a;
-  return `${d > 0 ? '+' : d < 0 ? '−' : '±'}${fmt.num(Math.abs(d), 1)} %`;
+  return `${signedText((100 * (b - a)) / a, 1, fmt.num)} %`;
 }
 
 /** The selected candidate beside the reference recipe, and the Adopt action. */

@@ -1,4 +1,5 @@
 // The plan's numbers in words, in the user's currency and units.
+import { signedText } from '../../core/words/signed';
 import type { Component } from '../../core/formulation/model';
 import type { MarginalValue } from '../../core/lineplan/plan';
 import type { Formatter } from '../../components/format';
@@ -65,9 +66,8 @@ export function aboutMoney(fmt: Formatter, v: number): string {
 
 /** A signed money change with its share of the base: "+ € 12 300 (+4.2 %)". */
 export function changeText(fmt: Formatter, delta: number, base: number | null, digits = 0): string {
-  const sign = delta > 0 ? '+' : delta < 0 ? '−' : '±';
-  const pct = base && base !== 0 ? ` (${sign}${fmt.num(Math.abs((100 * delta) / base), 1)} %)` : '';
-  return `${sign}${fmt.money(Math.abs(delta), digits)}${pct}`;
+  const pct = base && base !== 0 ? ` (${signedText((100 * delta) / base, 1, fmt.num)} %)` : '';
+  return `${signedText(delta, digits, fmt.money)}${pct}`;
 }
 
 /**

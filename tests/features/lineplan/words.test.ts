@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { makeFormatter } from '../../../src/components/format';
 import { DEFAULT_SETTINGS } from '../../../src/state/settings';
 import { MARGINAL_STEP_KG, type MarginalValue } from '../../../src/core/lineplan/plan';
-import { limitedText, MARGINAL_STEP_SHOWN_KG, marginalSentence, marginalStep, quantity, quantityNumber } from '../../../src/features/lineplan/words';
+import { changeText, limitedText, MARGINAL_STEP_SHOWN_KG, marginalSentence, marginalStep, quantity, quantityNumber } from '../../../src/features/lineplan/words';
 
 const fmt = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: '.', thousandsGrouping: true });
 const comma = makeFormatter({ ...DEFAULT_SETTINGS, decimalSeparator: ',', thousandsGrouping: true });
@@ -44,5 +44,14 @@ describe('line-plan quantities in the chosen unit', () => {
     );
     expect(marginalSentence(m({ binding: true, savingPerTonne: null }), view('kg'))).toBe('BW-190 is used up; what another 1000 kg is worth could not be worked out.');
     expect(marginalSentence(m({ binding: true, savingPerTonne: 0.1 }), view('kg'))).toBe('BW-190 is used up, but another 1000 kg would save nothing over 2026.');
+  });
+});
+
+describe('a change that prints as zero has no sign (s25)', () => {
+  it('writes ±0 for a round-off change of the line cost, and signs what prints', () => {
+    // invented costs; the sign follows the printed value (src/core/words/signed.ts)
+    expect(changeText(fmt, -0.3, 3_715_611)).toMatch(/^±.*0 \(±0\.0 %\)$/);
+    expect(changeText(fmt, 12_300, 3_715_611)).toMatch(/^\+.*12.300 \(\+0\.3 %\)$/);
+    expect(changeText(fmt, -120, 3_715_611)).toMatch(/^−.*120 \(±0\.0 %\)$/);
   });
 });
