@@ -185,7 +185,8 @@ export function solvableLibrary(priced: PricedLibrary): Component[] {
  * @param priced - from {@link priceLibraryInBase}
  * @param quoted - the library as entered (prices in their quoted currencies)
  * @param ids - ids of the stocks whose cost is shown
- * @returns the rates used by those stocks (in `priced.ratesUsed` order) and those of them without a rate
+ * @returns the rates used by those stocks that are costed (in `priced.ratesUsed` order) and those of them left
+ *   out of costing (no price, no rate, values not entered); a stock left out uses no rate
  * @example pricingFor(priced, library, ['bw-160']) // → { ratesUsed: [{ currency: 'USD', rate: 0.92, … }], unpriced: [] }
  */
 export function pricingFor(
@@ -194,7 +195,9 @@ export function pricingFor(
   ids: Iterable<string>,
 ): { ratesUsed: ExchangeRate[]; unpriced: UnpricedStock[] } {
   const wanted = new Set(ids);
-  const currencies = new Set(quoted.filter((c) => wanted.has(c.id)).map((c) => normaliseCurrency(c.price.currency)));
+  // A stock left out of costing (no price, no rate, values not entered) adds no cost, so no rate behind it.
+  const leftOut = new Set(priced.unpriced.map((u) => u.componentId));
+  const currencies = new Set(quoted.filter((c) => wanted.has(c.id) && !leftOut.has(c.id)).map((c) => normaliseCurrency(c.price.currency)));
   return {
     ratesUsed: priced.ratesUsed.filter((r) => currencies.has(normaliseCurrency(r.currency))),
     unpriced: priced.unpriced.filter((u) => wanted.has(u.componentId)),

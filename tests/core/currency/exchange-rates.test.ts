@@ -106,6 +106,14 @@ describe('stocks whose measured values are not yet entered (s25)', () => {
     );
     expect(unpricedTitle(priced.unpriced)).toBe('Stocks with values not yet entered');
     expect(pricingFor(priced, [eur, fresh], ['g2hv']).unpriced).toHaveLength(1);
+    // A stock left out of costing uses no rate: a USD stock whose values are not entered puts no USD rate on
+    // the costing copy (s25; before, "USD → EUR 0.92" was printed behind a cost it took no part in).
+    const usdFresh = { ...fresh, price: { amount: 2000, basis: 'per-tonne' as const, currency: 'USD' } };
+    const usdOther = { ...makeComponent(STOCKS.pao6!), price: { amount: 3, basis: 'per-kg' as const, currency: 'USD' } }; // costed, in another recipe
+    const lib = [eur, usdFresh, usdOther];
+    const withUsd = priceLibraryInBase(lib, 'EUR', rates);
+    expect(pricingFor(withUsd, lib, ['g2heavy', 'g2hv']).ratesUsed).toEqual([]);
+    expect(pricingFor(withUsd, lib, ['g2heavy', 'pao6']).ratesUsed).toEqual([rates[0]]);
   });
 
   it('a stock just added (no price, no values) is named for both; others keep their sentences', () => {
