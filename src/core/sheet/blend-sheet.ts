@@ -12,6 +12,7 @@
  * who adds up the kg column must find the batch size, not the batch size ± 0.1).
  */
 
+import { notEnteredFields } from '../formulation/entered-values';
 import type { Component, ComponentCategory, Recipe, ReleaseSpecification } from '../formulation/model';
 import { BLANK_SPECIFICATION, CATEGORY_LABEL } from '../formulation/model';
 import { BlendbenchInputError, assertFinite } from '../errors';
@@ -175,6 +176,8 @@ export function chargeRole(category: ComponentCategory): ChargeRole {
  * role (heaviest first); not a property prediction.
  */
 function rankingViscosity(c: Component): number {
+  // A ν40 not yet entered is no viscosity to rank by (its stored number is a placeholder): after the others.
+  if (notEnteredFields(c).includes('kv40')) return -1;
   let best = c.viscosityPoints[0];
   for (const p of c.viscosityPoints) {
     if (best === undefined || Math.abs(p.tempC - 40) < Math.abs(best.tempC - 40)) best = p;
@@ -319,7 +322,8 @@ function pricePerKgOf(c: Component): number | null {
  *
  * Default charging order (common practice of blending plants, no published source): base stocks,
  * most viscous first; then solvency boosters; then polymers (added slowly or pre-dissolved); the
- * additive package last. Within a role: higher ν40 first, then larger mass, then stock code.
+ * additive package last. Within a role: higher ν40 first, then larger mass, then stock code; a stock whose
+ * ν40 is not yet entered (`Component.notEntered`) after the others of its role, as its ν40 is unknown.
  *
  * @param components - the library (at least every component the recipe names)
  * @param recipe - the recipe; its mass fractions sum to 1 (lines at exactly 0 are left off the sheet)

@@ -166,6 +166,14 @@ describe('buildBlendSheet', () => {
     expect(o.rows.map((x) => x.componentId)).toEqual(['n150', 'an', 'hv', 'pao', 'poly', 'add']);
   });
 
+  it('a stock whose ν40 is not yet entered comes after the others of its role, not by its placeholder ν40 (s25)', () => {
+    // invented stocks; the rule is the sheet's own (common practice (no source)): an unknown ν40 is not ranked
+    const fresh = { ...comp('new', 'group-ii', 9999, 0.86), notEntered: ['kv40' as const, 'kv100' as const, 'density15' as const] };
+    const lib = [comp('hv', 'group-ii', 600, 0.88), comp('n150', 'group-ii', 30, 0.86), fresh, comp('add', 'additive-package', 300, 1.05)];
+    const s = buildBlendSheet(lib, recipe([['hv', 0.5], ['n150', 0.28], ['new', 0.2], ['add', 0.02]]), { kg: 1000 });
+    expect(s.rows.map((x) => x.componentId)).toEqual(['hv', 'n150', 'new', 'add']);
+  });
+
   it('makes every displayed column sum exactly to its total (12 components, any batch)', () => {
     const cats: ComponentCategory[] = ['group-i', 'group-ii', 'group-iii', 'group-iv', 'group-v', 'polymer'];
     fc.assert(
