@@ -493,6 +493,11 @@ function batchCosting(
   densityAtDelivery: () => number,
   deliveryTempC: number | undefined,
 ): BatchCosting {
+  // A blank currency marks a stock left out of costing (no price, no rate, values not entered: see
+  // currency/exchange-rates.ts priceLibraryInBase): the batch has no usable price, whatever its amount.
+  const blankIds = new Set(comps.filter((c) => c.price.currency.trim() === '').map((c) => c.id));
+  const blank = rows.filter((r) => blankIds.has(r.componentId)).map((r) => r.code);
+  if (blank.length > 0) return { available: false, reason: `no usable price for ${blank.join(', ')}` };
   const currencies = [...new Set(comps.map((c) => c.price.currency.trim()))];
   if (currencies.length !== 1) {
     return { available: false, reason: `components are priced in different currencies (${currencies.join(', ')})` };

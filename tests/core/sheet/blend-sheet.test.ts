@@ -217,6 +217,13 @@ describe('buildBlendSheet', () => {
     const mixed = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1, 'per-kg', 'USD')];
     const m = buildBlendSheet(mixed, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 });
     expect(m.costing).toEqual({ available: false, reason: expect.stringMatching(/different currencies/) });
+
+    // s25: a blank currency marks a stock left out of costing (priceLibraryInBase); a batch holding one has no
+    // cost, even when every stock carries it (before: costed at 0 or in no currency). Invented prices.
+    const blankAll = [comp('a', 'group-ii', 100, 0.865, 0, 'per-kg', ''), comp('b', 'group-i', 460, 0.9, 0, 'per-kg', '')];
+    expect(buildBlendSheet(blankAll, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 }).costing).toEqual({ available: false, reason: 'no usable price for B, A' });
+    const oneBlank = [comp('a', 'group-ii', 100, 0.865, 1.2), comp('b', 'group-i', 460, 0.9, 1, 'per-kg', '')];
+    expect(buildBlendSheet(oneBlank, recipe([['a', 0.6], ['b', 0.4]]), { kg: 1000 }).costing).toEqual({ available: false, reason: 'no usable price for B' });
   });
 
   it('prices the delivered litre at the delivery temperature (issue 13 §8)', () => {
