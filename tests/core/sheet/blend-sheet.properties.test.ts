@@ -8,53 +8,18 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { blendSheetCsvRows, buildBlendSheet, largestRemainderUnits, qcReleaseTargets, type CsvFixed } from '../../../src/core/sheet/blend-sheet';
-import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../../../src/core/formulation/model';
+import { BLANK_SPECIFICATION } from '../../../src/core/formulation/model';
+import { sheetComponent, sheetRecipe } from './fixtures';
 import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
 
 const NUM_RUNS = Number(process.env.PROP_RUNS ?? 300);
 
-/** An invented component; only the fields the sheet reads matter. */
-function comp(id: string, category: ComponentCategory, kv40: number, density15: number): Component {
-  return {
-    id,
-    code: `BW-${id}`,
-    name: `Invented ${id}`,
-    category,
-    viscosityPoints: [
-      { tempC: 40, kv: kv40 },
-      { tempC: 100, kv: kv40 / 12 },
-    ],
-    density15,
-    anilinePoint: null,
-    pourPoint: null,
-    flashPoint: null,
-    sulfurPct: null,
-    saturatesPct: null,
-    price: { amount: 1.2, basis: 'per-kg', currency: 'EUR' },
-    availability: 'available',
-    oxidationRating: null,
-    shearLossPct: null,
-    kv40LotSpreadPct: null,
-    calibration: null,
-    source: 'invented test data',
-    sourceDate: '2025-01-01',
-    notes: '',
-  };
-}
+/** An invented component (tests/core/sheet/fixtures.ts). */
+const comp = (id: string, category: ComponentCategory, kv40: number, density15: number): Component =>
+  sheetComponent(id, category, kv40, density15, { code: `BW-${id}`, price: { amount: 1.2, basis: 'per-kg', currency: 'EUR' } });
 
-function recipeOf(fractions: readonly number[]): Recipe {
-  return {
-    id: 'r1',
-    name: 'Invented property recipe',
-    grade: 320,
-    lines: fractions.map((massFraction, i) => ({ componentId: `c${i}`, massFraction })),
-    revision: 1,
-    isReference: false,
-    notes: '',
-    updatedAt: '2025-01-01T00:00:00Z',
-    ...newRecipeLifecycle(),
-  };
-}
+const recipeOf = (fractions: readonly number[]): Recipe =>
+  sheetRecipe(fractions.map((f, i) => [`c${i}`, f] as const), { name: 'Invented property recipe', revision: 1 });
 
 const cats: ComponentCategory[] = ['group-i', 'group-ii', 'group-iii', 'group-iv', 'group-v', 'polymer', 'additive-package'];
 

@@ -14,10 +14,11 @@ import {
   type SheetPrediction,
 } from '../../../src/core/sheet/blend-sheet';
 import type { Component, ComponentCategory, Recipe } from '../../../src/core/formulation/model';
-import { BLANK_SPECIFICATION, newRecipeLifecycle } from '../../../src/core/formulation/model';
+import { BLANK_SPECIFICATION } from '../../../src/core/formulation/model';
+import { sheetComponent, sheetRecipe } from './fixtures';
 import { BlendbenchInputError } from '../../../src/core/errors';
 
-/** An invented test component; only the fields the sheet reads matter. */
+/** An invented test component (tests/core/sheet/fixtures.ts) with its price. */
 function comp(
   id: string,
   category: ComponentCategory,
@@ -27,46 +28,10 @@ function comp(
   basis: Component['price']['basis'] = 'per-kg',
   currency = 'EUR',
 ): Component {
-  return {
-    id,
-    code: id.toUpperCase(),
-    name: `Invented ${id}`,
-    category,
-    viscosityPoints: [
-      { tempC: 40, kv: kv40 },
-      { tempC: 100, kv: kv40 / 12 },
-    ],
-    density15,
-    anilinePoint: null,
-    pourPoint: null,
-    flashPoint: null,
-    sulfurPct: null,
-    saturatesPct: null,
-    price: { amount: price, basis, currency },
-    availability: 'available',
-    oxidationRating: null,
-    shearLossPct: null,
-    kv40LotSpreadPct: null,
-    calibration: null,
-    source: 'invented test data',
-    sourceDate: '2025-01-01',
-    notes: '',
-  };
+  return sheetComponent(id, category, kv40, density15, { price: { amount: price, basis, currency } });
 }
 
-function recipe(lines: [string, number][], grade = 320): Recipe {
-  return {
-    id: 'r1',
-    name: 'Invented test recipe',
-    grade,
-    lines: lines.map(([componentId, massFraction]) => ({ componentId, massFraction })),
-    revision: 3,
-    isReference: false,
-    notes: '',
-    updatedAt: '2025-01-01T00:00:00Z',
-    ...newRecipeLifecycle(),
-  };
-}
+const recipe = (lines: [string, number][], grade = 320): Recipe => sheetRecipe(lines, { grade });
 
 const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
 
